@@ -1,0 +1,36 @@
+/// <reference types="vitest/config" />
+import { defineConfig } from 'vite';
+import react from '@vitejs/plugin-react';
+import tailwindcss from '@tailwindcss/vite';
+
+const apiPort = Number(process.env.EYRIE_API_PORT ?? 3001);
+
+export default defineConfig({
+  root: 'web',
+  publicDir: false,
+  plugins: [react(), tailwindcss()],
+  build: {
+    outDir: '../dist/web',
+    emptyOutDir: true,
+    chunkSizeWarningLimit: 1500,
+  },
+  server: {
+    host: '127.0.0.1',
+    port: Number(process.env.PORT ?? 3000),
+    strictPort: true,
+    proxy: {
+      '/api': { target: `http://127.0.0.1:${apiPort}`, changeOrigin: false },
+      '/auth': { target: `http://127.0.0.1:${apiPort}`, changeOrigin: false },
+      '/dev': { target: `http://127.0.0.1:${apiPort}`, changeOrigin: false },
+    },
+  },
+  test: {
+    root: '.',
+    include: ['tests/**/*.test.{ts,tsx}'],
+    environment: 'node',
+    testTimeout: 30_000,
+    hookTimeout: 60_000,
+    globalSetup: ['tests/global-setup.ts'],
+    maxWorkers: 2,
+  },
+});
