@@ -1,0 +1,46 @@
+/** Runtime configuration, read once from the environment. */
+export interface AppConfig {
+  nodeEnv: 'development' | 'production' | 'test';
+  port: number;
+  host: string;
+  /** Public base URL of the app, used for OAuth callbacks and links in e-mail. */
+  publicUrl: string;
+  databaseUrl: string;
+  sessionSecret: string;
+  github: { clientId: string; clientSecret: string } | null;
+  smtpUrl: string | null;
+  version: string;
+}
+
+function readPort(name: string, fallback: number): number {
+  const raw = process.env[name];
+  if (raw === undefined || raw === '') return fallback;
+  const n = Number(raw);
+  if (!Number.isInteger(n) || n < 0 || n > 65535) {
+    throw new Error(`${name} must be a port number between 0 and 65535, got "${raw}"`);
+  }
+  return n;
+}
+
+export function loadConfig(overrides: Partial<AppConfig> = {}): AppConfig {
+  const env = process.env;
+  const nodeEnv = (env.NODE_ENV === 'production' || env.NODE_ENV === 'test' ? env.NODE_ENV : 'development') as AppConfig['nodeEnv'];
+  const port = readPort('PORT', 3000);
+  const host = env.HOST ?? '127.0.0.1';
+  const github =
+    env.GITHUB_CLIENT_ID && env.GITHUB_CLIENT_SECRET
+      ? { clientId: env.GITHUB_CLIENT_ID, clientSecret: env.GITHUB_CLIENT_SECRET }
+      : null;
+  return {
+    nodeEnv,
+    port,
+    host,
+    publicUrl: (env.PUBLIC_URL ?? `http://${host}:${port}`).replace(/\/$/, ''),
+    databaseUrl: env.DATABASE_URL ?? '',
+    sessionSecret: env.SESSION_SECRET ?? 'eyrie-local-development-secret-change-me',
+    github,
+    smtpUrl: env.SMTP_URL ?? null,
+    version: env.npm_package_version ?? '0.1.0',
+    ...overrides,
+  };
+}

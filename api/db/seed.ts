@@ -1,0 +1,18 @@
+import type { Knex } from 'knex';
+import { DEMO_IDENTITIES } from './demo';
+
+/**
+ * Seed the invented demo scenario. Idempotent: running it twice changes
+ * nothing the first run made, and never touches rows users created.
+ */
+export async function seedDemo(knex: Knex): Promise<{ users: number }> {
+  return knex.transaction(async (trx) => {
+    for (const who of DEMO_IDENTITIES) {
+      await trx('users')
+        .insert({ provider: 'local-demo', providerUserId: who.id, login: who.login, displayName: who.name, email: who.email })
+        .onConflict(['provider', 'provider_user_id'])
+        .ignore();
+    }
+    return { users: DEMO_IDENTITIES.length };
+  });
+}

@@ -1,0 +1,128 @@
+import type { ErrorRequestHandler, RequestHandler } from 'express';
+import { ZodError } from 'zod';
+import objection from 'objection';
+import type { Logger } from 'pino';
+import { AppError, NotFoundError, type FieldError } from './errors';
+
+const { ValidationError, NotFoundError: ObjectionNotFound, UniqueViolationError, ForeignKeyViolationError, CheckViolationError, NotNullViolationError, DataError } = objection;
+
+/** RFC 9457 problem details, the one error body shape the API sends. */
+export interface ProblemDetails {
+  type: string;
+  title: string;
+  status: number;
+  detail: string;
+  instance?: string;
+  errors?: FieldError[];
+  [extension: string]: unknown;
+}
+
+const slug = (title: string) => title.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '');
+
+export function zodIssuesToFieldErrors(error: ZodError, prefix: (string | number)[] = []): FieldError[] {
+  return error.issues.map((issue) => ({
+    path: [...prefix, ...issue.path].map(String).join('.') || '(body)',
+    message: issue.message,
+  }));
+}
+
+interface DomainErrorLike extends Error {
+  code: string;
+  field?: string;
+}
+const isDomainError = (e: unknown): e is DomainErrorLike =>
+  e instanceof Error && e.name === 'DomainError' && typeof (e as DomainErrorLike).code === 'string';
+
+interface HttpLikeError extends Error {
+  status?: number;
+  statusCode?: number;
+  type?: string;
+  expose?: boolean;
+}
+
+/** Turn anything thrown into a problem-details object. Unknown errors become a bare 500. */
+export function toProblem(err: unknown): ProblemDetails {
+  if (err instanceof AppError) {
+    return {
+      type: `/problems/${slug(err.title)}`,
+      title: err.title,
+      status: err.status,
+      detail: err.message,
+      ...(err.errors.length ? { errors: err.errors } : {}),
+      ...err.extra,
+    };
+  }
+  if (err instanceof ZodError) {
+    const errors = zodIssuesToFieldErrors(err);
+    return {
+      type: '/problems/invalid-request',
+      title: 'Invalid request',
+      status: 400,
+      detail: `${errors.length} field${errors.length === 1 ? '' : 's'} failed validation: ${errors
+        .slice(0, 3)
+        .map((e) => `${e.path}: ${e.message}`)
+        .join('; ')}${errors.length > 3 ? '; …' : ''}`,
+      errors,
+    };
+  }
+  if (isDomainError(err)) {
+    return {
+      type: '/problems/cannot-compute',
+      title: 'Cannot compute',
+      status: 422,
+      detail: err.message,
+      code: err.code,
+      errors: [{ path: err.field ?? '(body)', message: err.message }],
+    };
+  }
+  if (err instanceof ValidationError) {
+    return {
+      type: '/problems/invalid-request',
+      title: 'Invalid request',
+      status: 400,
+      detail: 'Some fields failed validation.',
+      errors: Object.entries(err.data ?? {}).flatMap(([path, list]) =>
+        (list as { message: string }[]).map((e) => ({ path, message: e.message })),
+      ),
+    };
+  }
+  if (err instanceof ObjectionNotFound) return toProblem(new NotFoundError());
+  if (err instanceof UniqueViolationError) {
+    return { type: '/problems/conflict', title: 'Conflict', status: 409, detail: 'A record with the same unique value already exists.' };
+  }
+  if (err instanceof ForeignKeyViolationError) {
+    return { type: '/problems/conflict', title: 'Conflict', status: 409, detail: 'The record refers to, or is referred to by, another record.' };
+  }
+  if (err instanceof CheckViolationError || err instanceof NotNullViolationError || err instanceof DataError) {
+    return { type: '/problems/invalid-request', title: 'Invalid request', status: 400, detail: 'A value is outside what the database accepts.' };
+  }
+  const http = err as HttpLikeError;
+  const status = http?.status ?? http?.statusCode;
+  if (typeof status === 'number' && status >= 400 && status < 500) {
+    if (http.type === 'entity.too.large') {
+      return { type: '/problems/payload-too-large', title: 'Payload too large', status: 413, detail: 'The request body is larger than the server accepts.' };
+    }
+    if (http.type === 'entity.parse.failed') {
+      return { type: '/problems/invalid-request', title: 'Invalid request', status: 400, detail: 'The request body is not valid JSON.', errors: [{ path: '(body)', message: 'not valid JSON' }] };
+    }
+    return { type: `/problems/http-${status}`, title: 'Invalid request', status, detail: http.expose && http.message ? http.message : 'The request was not accepted.' };
+  }
+  return { type: '/problems/internal', title: 'Internal error', status: 500, detail: 'Something went wrong on the server. The error has been logged.' };
+}
+
+export function sendProblem(res: Parameters<RequestHandler>[1], problem: ProblemDetails) {
+  res.status(problem.status).type('application/problem+json').send(JSON.stringify(problem));
+}
+
+export const notFoundHandler: RequestHandler = (req, _res, next) => {
+  next(new NotFoundError(`No API route matches ${req.method} ${req.originalUrl.split("?")[0]}.`));
+};
+
+export function problemHandler(logger: Logger): ErrorRequestHandler {
+  return (err, req, res, next) => {
+    if (res.headersSent) return next(err);
+    const problem = toProblem(err);
+    if (problem.status >= 500) logger.error({ err, url: req.originalUrl }, 'request failed');
+    sendProblem(res, { ...problem, instance: req.originalUrl });
+  };
+}

@@ -1,0 +1,105 @@
+// `npm start` (and `npm run dev` with --dev): dependencies, PostgreSQL, migrations,
+// demo seed, web build, then one server process. Ctrl-C stops everything cleanly.
+import { spawn, spawnSync } from 'node:child_process';
+import path from 'node:path';
+import { ensureDependencies, ensureWebBuild, log, root } from './lib/deps.mjs';
+
+const dev = process.argv.includes('--dev');
+ensureDependencies();
+const { startCluster, portIsFree, FriendlyError } = await import('./lib/pg.mjs');
+
+const port = Number(process.env.PORT ?? 3000);
+const apiPort = dev ? Number(process.env.EYRIE_API_PORT ?? port + 1) : port;
+const pgPort = Number(process.env.EYRIE_PG_PORT ?? 54329);
+
+let cluster = null;
+const children = [];
+let stopping = false;
+
+async function main() {
+  for (const p of dev ? [port, apiPort] : [port]) {
+    if (!(await portIsFree(p))) {
+      throw new FriendlyError(`Port ${p} on 127.0.0.1 is already in use. Stop the other program or start with PORT=<another port>.`);
+    }
+  }
+  let databaseUrl = process.env.DATABASE_URL;
+  if (databaseUrl) {
+    log('using the PostgreSQL server in DATABASE_URL (no local cluster started)');
+  } else {
+    cluster = await startCluster({ dataDir: path.join(root, '.data', 'postgres'), port: pgPort, database: 'eyrie', durable: true });
+    databaseUrl = cluster.url;
+  }
+  const env = { ...process.env, DATABASE_URL: databaseUrl, NODE_ENV: dev ? 'development' : process.env.NODE_ENV ?? 'production' };
+  if (!process.env.EYRIE_DEV_TOOLS) env.EYRIE_DEV_TOOLS = '1';
+
+  log('migrating and seeding the demo scenario…');
+  const prep = spawnSync(process.execPath, ['--import', 'tsx', 'api/cli.ts', 'prepare'], { cwd: root, env, stdio: 'inherit' });
+  if (prep.status !== 0) throw new FriendlyError('database preparation failed; see the messages above.');
+
+  if (!dev) ensureWebBuild();
+  const publicUrl = process.env.PUBLIC_URL ?? `http://127.0.0.1:${port}`;
+  const server = spawn(
+    process.execPath,
+    dev ? ['--import', 'tsx', '--watch', 'api/server.ts'] : ['--import', 'tsx', 'api/server.ts'],
+    { cwd: root, env: { ...env, PORT: String(apiPort), PUBLIC_URL: publicUrl, LOG_LEVEL: process.env.LOG_LEVEL ?? 'warn' }, stdio: ['ignore', 'inherit', 'inherit', 'ipc'] },
+  );
+  children.push(server);
+  server.on('message', (m) => {
+    if (m?.type === 'ready' && !dev) announce(publicUrl);
+  });
+  server.on('exit', (code, signal) => {
+    if (!stopping) {
+      log(`the server stopped (${signal ?? `exit code ${code}`})`);
+      void shutdown(code ?? 1);
+    }
+  });
+  if (dev) {
+    const vite = spawn(process.execPath, [path.join(root, 'node_modules', 'vite', 'bin', 'vite.js')], {
+      cwd: root,
+      env: { ...env, PORT: String(port), EYRIE_API_PORT: String(apiPort) },
+      stdio: 'inherit',
+    });
+    children.push(vite);
+    vite.on('exit', () => !stopping && void shutdown(1));
+    announce(publicUrl);
+  }
+}
+
+function announce(url) {
+  const github = process.env.GITHUB_CLIENT_ID && process.env.GITHUB_CLIENT_SECRET;
+  console.log('');
+  console.log(`  Eyrie is ready:  ${url}`);
+  console.log(
+    github
+      ? '  Sign in with GitHub (GITHUB_CLIENT_ID is set).'
+      : '  Sign in: press "Sign in" and pick a demo identity on the local sign-in page\n  (Ada Pemberton = owner, Tomás Reyes = editor, Mina Okafor = viewer; all invented).',
+  );
+  console.log('  The calculators need no sign-in. Stop with Ctrl-C.');
+  console.log('');
+}
+
+async function shutdown(code = 0) {
+  if (stopping) return;
+  stopping = true;
+  await Promise.all(
+    children.map(
+      (c) =>
+        new Promise((resolve) => {
+          if (c.exitCode !== null || c.signalCode !== null) return resolve();
+          c.once('exit', resolve);
+          c.kill('SIGTERM');
+          setTimeout(() => c.kill('SIGKILL'), 8000).unref();
+        }),
+    ),
+  );
+  cluster?.stop();
+  process.exit(code);
+}
+
+process.on('SIGINT', () => void shutdown(0));
+process.on('SIGTERM', () => void shutdown(0));
+
+main().catch((err) => {
+  console.error(`eyrie: ${err instanceof FriendlyError ? err.message : err?.stack ?? err}`);
+  void shutdown(1);
+});

@@ -1,0 +1,76 @@
+// `npm test`: the whole suite (unit, API on real PostgreSQL, browser end-to-end)
+// against a throwaway cluster that is always torn down. Extra arguments go to vitest.
+import { spawn } from 'node:child_process';
+import { mkdtempSync, mkdirSync, readFileSync, existsSync, rmSync } from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { ensureDependencies, ensureWebBuild, log, root } from './lib/deps.mjs';
+
+ensureDependencies();
+const { startCluster, freePort, FriendlyError, removeDir } = await import('./lib/pg.mjs');
+
+let cluster = null;
+let tempDir = null;
+let exitCode = 1;
+
+function cleanup() {
+  try {
+    cluster?.stop();
+  } finally {
+    if (tempDir) removeDir(tempDir);
+    cluster = null;
+    tempDir = null;
+  }
+}
+process.on('SIGINT', () => {
+  cleanup();
+  process.exit(130);
+});
+process.on('SIGTERM', () => {
+  cleanup();
+  process.exit(143);
+});
+
+try {
+  ensureWebBuild();
+  let databaseUrl = process.env.DATABASE_URL;
+  if (!databaseUrl) {
+    tempDir = mkdtempSync(path.join(os.tmpdir(), 'eyrie-test-'));
+    cluster = await startCluster({ dataDir: path.join(tempDir, 'pgdata'), port: await freePort(), database: 'eyrie_test', durable: false, quiet: true });
+    databaseUrl = cluster.url;
+    log('throwaway PostgreSQL cluster started for the tests');
+  } else {
+    log('running the tests against the server in DATABASE_URL');
+  }
+  const outDir = path.join(root, '.tmp');
+  mkdirSync(outDir, { recursive: true });
+  const report = path.join(outDir, 'vitest-report.json');
+  rmSync(report, { force: true });
+  const child = spawn(
+    process.execPath,
+    [path.join(root, 'node_modules', 'vitest', 'vitest.mjs'), 'run', '--reporter=default', '--reporter=json', `--outputFile.json=${report}`, ...process.argv.slice(2)],
+    { cwd: root, stdio: 'inherit', env: { ...process.env, DATABASE_URL: databaseUrl, NODE_ENV: 'test', EYRIE_TEST_TMP: tempDir ?? '' } },
+  );
+  const code = await new Promise((resolve) => child.on('exit', (c, s) => resolve(c ?? (s ? 1 : 0))));
+  let passed = 0;
+  let failed = 0;
+  if (existsSync(report)) {
+    const r = JSON.parse(readFileSync(report, 'utf8'));
+    passed = r.numPassedTests ?? 0;
+    failed = r.numFailedTests ?? 0;
+    // A test file that fails to load counts as a failure even though it has no tests.
+    const brokenFiles = (r.testResults ?? []).filter((f) => f.status === 'failed' && (f.assertionResults ?? []).every((a) => a.status !== 'failed')).length;
+    failed += brokenFiles;
+  } else {
+    failed = 1;
+    log('vitest wrote no report');
+  }
+  exitCode = code !== 0 || failed > 0 ? code || 1 : 0;
+  cleanup();
+  console.log(`tests: ${passed} passed, ${failed} failed`);
+} catch (err) {
+  console.error(`eyrie: ${err instanceof FriendlyError ? err.message : err?.stack ?? err}`);
+  cleanup();
+  exitCode = 1;
+}
+process.exit(exitCode);

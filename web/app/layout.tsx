@@ -1,0 +1,46 @@
+import { NavLink, Outlet } from 'react-router-dom';
+import { paths } from '../config/paths';
+import { navItems } from './nav';
+import { SessionSlot } from './session-slot';
+
+export function AppLayout() {
+  return (
+    <div className="flex min-h-screen flex-col">
+      <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:rounded focus:bg-white focus:px-3 focus:py-1">
+        Skip to content
+      </a>
+      <header className="border-b border-ink-800 bg-ink-900 text-slate-100">
+        <div className="mx-auto flex max-w-7xl items-center gap-6 px-4 py-2.5 sm:px-6">
+          <NavLink to={paths.home.getHref()} className="flex items-center gap-2 text-lg font-semibold tracking-tight">
+            <svg aria-hidden="true" viewBox="0 0 16 16" className="h-5 w-5">
+              <path d="M1.5 13.5 L8 2.5 L14.5 13.5 Z" fill="none" stroke="#5eead4" strokeWidth="1.5" />
+              <path d="M5 13.5 L8 8 L11 13.5" fill="#5eead4" />
+            </svg>
+            Eyrie
+          </NavLink>
+          <nav aria-label="Main" className="flex flex-1 gap-1 text-sm">
+            {navItems.map((item) => (
+              <NavLink
+                key={item.to}
+                to={item.to}
+                end={item.end}
+                className={({ isActive }) =>
+                  `rounded px-2.5 py-1.5 ${isActive ? 'bg-ink-700 text-white' : 'text-slate-300 hover:bg-ink-800 hover:text-white'}`
+                }
+              >
+                {item.label}
+              </NavLink>
+            ))}
+          </nav>
+          <SessionSlot />
+        </div>
+      </header>
+      <main id="main" className="flex-1">
+        <Outlet />
+      </main>
+      <footer className="border-t border-slate-200 bg-white py-3 text-center text-xs text-ink-500">
+        Eyrie · forecasts are model estimates · sign convention: ΔΔX‡ = X‡(TS→B) − X‡(TS→A), positive favours A
+      </footer>
+    </div>
+  );
+}

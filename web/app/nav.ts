@@ -1,0 +1,7 @@
+import { paths } from '../config/paths';
+
+/** Main navigation, in order. Features add their entry here. */
+export const navItems: { to: string; label: string; end?: boolean }[] = [
+  { to: paths.home.getHref(), label: 'Overview', end: true },
+  { to: paths.apiDocs.getHref(), label: 'API' },
+];
