@@ -1,0 +1,34 @@
+import tseslint from 'typescript-eslint';
+
+export default tseslint.config(
+  { ignores: ['dist/**', 'node_modules/**', '.data/**', '.tmp/**', 'coverage/**'] },
+  ...tseslint.configs.recommended,
+  {
+    files: ['**/*.{ts,tsx}'],
+    rules: {
+      '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_' }],
+      '@typescript-eslint/consistent-type-imports': ['error', { fixStyle: 'inline-type-imports' }],
+    },
+  },
+  {
+    // One-way imports: the engine knows nothing of HTTP, the database or the browser.
+    files: ['api/science/**/*.ts'],
+    rules: {
+      'no-restricted-imports': ['error', { patterns: ['express', 'knex', 'objection', 'pg', 'node:*', '../features/*', '../db/*', '../models/*'] }],
+    },
+  },
+  {
+    // The browser never imports server code, except zod schema modules shared on purpose.
+    files: ['web/**/*.{ts,tsx}'],
+    rules: {
+      'no-restricted-imports': [
+        'error',
+        { patterns: [{ regex: '^(\\.\\./)+api/(?!features/[a-z-]+/schemas$|science/units$)', message: 'web/ may import only api/features/*/schemas (shared zod) from the server.' }] },
+      ],
+    },
+  },
+  {
+    files: ['scripts/**/*.mjs', '*.js'],
+    languageOptions: { globals: { process: 'readonly', console: 'readonly', URL: 'readonly', setTimeout: 'readonly' } },
+  },
+);
