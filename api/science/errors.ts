@@ -48,3 +48,9 @@ export function requireFiniteResult(value: number, what: string, field?: string)
   }
   return value;
 }
+
+/** A non-fatal caution attached to a result, with a stable machine code. */
+export interface Warning {
+  code: string;
+  message: string;
+}

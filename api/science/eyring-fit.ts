@@ -7,7 +7,7 @@
  * J. Phys. Chem. 1976, 80, 2341).
  */
 import { GAS_CONSTANT_J_PER_MOL_K as R } from './constants';
-import { DomainError, requireFinite, requireFiniteResult, requireTemperatureK } from './errors';
+import { DomainError, requireFinite, requireFiniteResult, requireTemperatureK, type Warning } from './errors';
 import { zeroSelectivityTemperatureK } from './forecast';
 import {
   fitLine,
@@ -51,10 +51,7 @@ export interface EyringFitOptions {
   narrowSpanK?: number;
 }
 
-export interface Warning {
-  code: string;
-  message: string;
-}
+export type { Warning };
 
 export type PointFlag = 'outlier' | 'high-leverage' | 'influential';
 

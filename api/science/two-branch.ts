@@ -18,8 +18,8 @@ import {
   type EyringMeasurement,
   type EyringWeighting,
   type PreparedMeasurement,
-  type Warning,
 } from './eyring-fit';
+import type { Warning } from './errors';
 import { fitLine, type LineFit } from './regression';
 import { SIGN_CONVENTION } from './selectivity';
 
