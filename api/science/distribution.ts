@@ -83,7 +83,11 @@ export function productDistribution(pathways: readonly Pathway[], temperaturesK:
       const members = pathways.filter((p) => p.diastereomer === g);
       if (!members.some((p) => p.enantiomer === 'A') || !members.some((p) => p.enantiomer === 'B')) {
         const i = pathways.findIndex((p) => p.diastereomer === g);
-        throw new DomainError('incomplete-mapping', `diastereomer group "${g}" needs both an A and a B enantiomer`, `pathways[${i}].enantiomer`);
+        throw new DomainError(
+          'incomplete-mapping',
+          `diastereomer group "${g}" needs both an A and a B enantiomer`,
+          `pathways[${i}].enantiomer`,
+        );
       }
     }
   }
@@ -104,7 +108,9 @@ export function productDistribution(pathways: readonly Pathway[], temperaturesK:
       groups.push({ group: g, percent: 100 * Math.exp(lnGroup - lse), eePercent: 100 * Math.tanh((lnA - lnB) / 2) });
     }
     const diastereomerRatio =
-      groupLog.length === 2 ? requireFiniteResult(Math.exp(groupLog[0]! - groupLog[1]!), 'diastereomer ratio', `temperaturesK[${ti}]`) : null;
+      groupLog.length === 2
+        ? requireFiniteResult(Math.exp(groupLog[0]! - groupLog[1]!), 'diastereomer ratio', `temperaturesK[${ti}]`)
+        : null;
     return { temperatureK: t, celsius: kelvinToCelsius(t), percents, groups, diastereomerRatio };
   });
 
@@ -113,7 +119,9 @@ export function productDistribution(pathways: readonly Pathway[], temperaturesK:
     'Each G‡ is taken as H‡ − T·S‡ with constant H‡ and S‡ (no heat-capacity term).',
   ];
   if (resolved.some((b) => b.entropyAssumedZero)) {
-    assumptions.push('Where only G‡ at one temperature was given, S‡ is assumed 0 for that pathway, so its G‡ is the same at every temperature.');
+    assumptions.push(
+      'Where only G‡ at one temperature was given, S‡ is assumed 0 for that pathway, so its G‡ is the same at every temperature.',
+    );
   }
   return { pathwayIds: pathways.map((p) => p.id), points, assumptions };
 }

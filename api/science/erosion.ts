@@ -103,7 +103,9 @@ export function erosionForecast(
       longestHoldS: options.floorEePercent === undefined ? null : longestHoldS(options.ee0Percent, options.floorEePercent, ke),
     };
   });
-  const assumptions = ['Racemization is first order and reversible with equal forward and reverse rates (no other pathway consumes either enantiomer).'];
+  const assumptions = [
+    'Racemization is first order and reversible with equal forward and reverse rates (no other pathway consumes either enantiomer).',
+  ];
   if (resolved.entropyAssumedZero) assumptions.push('ΔS‡ of racemization assumed 0: the barrier is treated as purely enthalpic.');
   return { definitions: [...EROSION_DEFINITIONS], assumptions, points };
 }
@@ -145,7 +147,11 @@ export function epimerization(kForwardPerS: number, kReversePerS: number, fracti
 }
 
 /** k_f from the A → B barrier and k_r = k_f/K for a given equilibrium constant K = [B]/[A]. */
-export function epimerizationRates(barrierForward: BarrierSpec, equilibriumConstant: number, temperatureK: number): { kForwardPerS: number; kReversePerS: number } {
+export function epimerizationRates(
+  barrierForward: BarrierSpec,
+  equilibriumConstant: number,
+  temperatureK: number,
+): { kForwardPerS: number; kReversePerS: number } {
   requireFinite(equilibriumConstant, 'equilibriumConstant');
   if (!(equilibriumConstant > 0)) throw new DomainError('not-positive', 'equilibriumConstant must be positive', 'equilibriumConstant');
   const kf = racemizationRateConstant(barrierForward, temperatureK);

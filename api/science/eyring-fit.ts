@@ -9,15 +9,7 @@
 import { GAS_CONSTANT_J_PER_MOL_K as R } from './constants';
 import { DomainError, requireFinite, requireFiniteResult, requireTemperatureK, type Warning } from './errors';
 import { zeroSelectivityTemperatureK } from './forecast';
-import {
-  fitLine,
-  normalQuantile,
-  predictLine,
-  requireConfidenceLevel,
-  studentTQuantile,
-  type LineFit,
-  type SigmaMode,
-} from './regression';
+import { fitLine, normalQuantile, predictLine, requireConfidenceLevel, studentTQuantile, type LineFit, type SigmaMode } from './regression';
 import { SIGN_CONVENTION } from './selectivity';
 import { kelvinToCelsius } from './units';
 
@@ -189,7 +181,10 @@ export interface PreparedMeasurement {
 }
 
 /** Validate measurements and split them into fitted, excluded and censored (|ee| ≥ limit). */
-export function prepareMeasurements(measurements: readonly EyringMeasurement[], censorEePercent = DEFAULT_CENSOR_EE_PERCENT): PreparedMeasurement[] {
+export function prepareMeasurements(
+  measurements: readonly EyringMeasurement[],
+  censorEePercent = DEFAULT_CENSOR_EE_PERCENT,
+): PreparedMeasurement[] {
   if (!Array.isArray(measurements)) throw new DomainError('not-a-list', 'measurements must be a list', 'measurements');
   requireFinite(censorEePercent, 'censorEePercent');
   if (!(censorEePercent > 0 && censorEePercent < 100)) {
@@ -244,7 +239,11 @@ export function resolveWeighting(
   }
   const missing = fitted.find((p) => p.measurement.sigmaLnR === undefined);
   if (missing) {
-    throw new DomainError('sigma-missing', `weighting '${weighting}' needs sigmaLnR on every fitted run`, `measurements[${missing.index}].sigmaLnR`);
+    throw new DomainError(
+      'sigma-missing',
+      `weighting '${weighting}' needs sigmaLnR on every fitted run`,
+      `measurements[${missing.index}].sigmaLnR`,
+    );
   }
   return { mode: weighting, sigma: fitted.map((p) => p.measurement.sigmaLnR!) };
 }
@@ -291,13 +290,22 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
   const tMax = temps[temps.length - 1]!;
 
   if (n === 2) {
-    warnings.push({ code: 'two-points-exact', message: 'Two runs define the line exactly: there is no estimate of scatter and no interval.' });
+    warnings.push({
+      code: 'two-points-exact',
+      message: 'Two runs define the line exactly: there is no estimate of scatter and no interval.',
+    });
   }
   if (distinct < 3 && n > 2) {
-    warnings.push({ code: 'fewer-than-three-temperatures', message: 'Only two distinct temperatures: curvature cannot be checked, so no intervals are given.' });
+    warnings.push({
+      code: 'fewer-than-three-temperatures',
+      message: 'Only two distinct temperatures: curvature cannot be checked, so no intervals are given.',
+    });
   }
   if (n < 5) {
-    warnings.push({ code: 'few-points', message: `Only ${n} runs are fitted: intervals are wide and a single bad run can move the line a lot; 5 or more temperatures are advisable.` });
+    warnings.push({
+      code: 'few-points',
+      message: `Only ${n} runs are fitted: intervals are wide and a single bad run can move the line a lot; 5 or more temperatures are advisable.`,
+    });
   }
   if (tMax - tMin < narrowSpanK) {
     warnings.push({
@@ -366,7 +374,10 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
     });
   }
   if (disagreeing > 0) {
-    warnings.push({ code: 'censored-bound-disagrees', message: `The fitted line contradicts ${disagreeing} censored run(s): the model may be wrong at those temperatures.` });
+    warnings.push({
+      code: 'censored-bound-disagrees',
+      message: `The fitted line contradicts ${disagreeing} censored run(s): the model may be wrong at those temperatures.`,
+    });
   }
   if (flagged > 0) {
     warnings.push({

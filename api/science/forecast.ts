@@ -99,7 +99,9 @@ export function forecastSelectivity(basis: ForecastBasis, temperaturesK: readonl
       }
       ddH = ddG + t * ddS;
       if (basis.kind === 'observed') {
-        assumptions.push(`The observed selectivity at ${t.toFixed(2)} K is taken as exact and as set by the selectivity-determining step under kinetic control.`);
+        assumptions.push(
+          `The observed selectivity at ${t.toFixed(2)} K is taken as exact and as set by the selectivity-determining step under kinetic control.`,
+        );
       }
       break;
     }

@@ -51,7 +51,12 @@ export function eyringRateConstant(gJPerMol: number, temperatureK: number, kappa
   requireTemperatureK(temperatureK, 'temperatureK');
   requireKappa(kappa);
   const k = kappa * BOLTZMANN_OVER_PLANCK_PER_K_S * temperatureK * Math.exp(-gJPerMol / (R * temperatureK));
-  if (!(k > 0)) throw new DomainError('result-out-of-range', 'the rate constant underflows to zero: the barrier is too high for this temperature', 'gJPerMol');
+  if (!(k > 0))
+    throw new DomainError(
+      'result-out-of-range',
+      'the rate constant underflows to zero: the barrier is too high for this temperature',
+      'gJPerMol',
+    );
   return requireFiniteResult(k, 'rate constant', 'gJPerMol');
 }
 
@@ -119,7 +124,11 @@ function requireConversion(x: number, field: string): number {
  * Rate constant from one run (DOMAIN §6): first/pseudo-first order k_obs = −ln(1 − X)/t
  * (pseudo-first k = k_obs/[B]₀); second order, equal c₀: k = X/[t·c₀·(1 − X)].
  */
-export function rateConstantFromRun(run: KineticRun, setup: KineticSetup, field = 'run'): { k: number; kObsPerS: number | null; warnings: Warning[] } {
+export function rateConstantFromRun(
+  run: KineticRun,
+  setup: KineticSetup,
+  field = 'run',
+): { k: number; kObsPerS: number | null; warnings: Warning[] } {
   const warnings: Warning[] = [];
   validateSetup(setup, warnings);
   const x = requireConversion(run.conversion, `${field}.conversion`);
@@ -153,7 +162,8 @@ export function timeToConversionS(k: number, conversion: number, setup: KineticS
   requireRate(k, 'k');
   const x = requireConversion(conversion, 'conversion');
   validateSetup(setup);
-  const t = setup.order === 'second' ? x / (k * setup.initialConcentrationM * (1 - x)) : -Math.log1p(-x) / effectiveFirstOrderRate(k, setup)!;
+  const t =
+    setup.order === 'second' ? x / (k * setup.initialConcentrationM * (1 - x)) : -Math.log1p(-x) / effectiveFirstOrderRate(k, setup)!;
   return requireFiniteResult(t, 'time', 'k');
 }
 
@@ -172,12 +182,16 @@ export function activationFromTwoRuns(
   const b = rateConstantFromRun(run2, setup, 'runs[1]');
   const t1 = run1.temperatureK;
   const t2 = run2.temperatureK;
-  if (Math.abs(t1 - t2) < 1e-6) throw new DomainError('same-temperature', 'the two runs must be at different temperatures', 'runs[1].temperatureK');
-  const h = (R * Math.log((b.k / t2) / (a.k / t1))) / (1 / t1 - 1 / t2);
+  if (Math.abs(t1 - t2) < 1e-6)
+    throw new DomainError('same-temperature', 'the two runs must be at different temperatures', 'runs[1].temperatureK');
+  const h = (R * Math.log(b.k / t2 / (a.k / t1))) / (1 / t1 - 1 / t2);
   const s = (gibbsBarrierFromRateConstant(a.k, t1, kappa) - h) / -t1;
   const warnings = [...a.warnings];
   if (Math.abs(t1 - t2) < 10) {
-    warnings.push({ code: 'close-temperatures', message: 'The two runs are less than 10 K apart, so ΔH‡ from them is very sensitive to timing errors.' });
+    warnings.push({
+      code: 'close-temperatures',
+      message: 'The two runs are less than 10 K apart, so ΔH‡ from them is very sensitive to timing errors.',
+    });
   }
   return { hJPerMol: h, sJPerMolK: s, k1: a.k, k2: b.k, eaJPerMol: arrheniusEa(h, (t1 + t2) / 2), warnings };
 }
@@ -234,7 +248,9 @@ export function forecastRate(
       h = b.hJPerMol;
       s = b.sJPerMolK;
       if (b.entropyAssumedZero) {
-        assumptions.push('ΔS‡ assumed 0: ΔG‡ is treated as purely enthalpic, so the rate changes with temperature more steeply than for a typical negative ΔS‡ with the same ΔG‡.');
+        assumptions.push(
+          'ΔS‡ assumed 0: ΔG‡ is treated as purely enthalpic, so the rate changes with temperature more steeply than for a typical negative ΔS‡ with the same ΔG‡.',
+        );
       }
       break;
     }
@@ -288,5 +304,13 @@ export function forecastRate(
       arrheniusEaJPerMol: h + R * t,
     };
   });
-  return { hJPerMol: h, sJPerMolK: s, kUnit: setup.order === 'first' ? 's^-1' : 'M^-1 s^-1', targetConversion: target, points, assumptions, warnings };
+  return {
+    hJPerMol: h,
+    sJPerMolK: s,
+    kUnit: setup.order === 'first' ? 's^-1' : 'M^-1 s^-1',
+    targetConversion: target,
+    points,
+    assumptions,
+    warnings,
+  };
 }

@@ -135,7 +135,8 @@ export function fitLine(x: ArrayLike<number>, y: ArrayLike<number>, options: Lin
     if (!Number.isFinite(yi)) throw new DomainError('not-finite', `y[${i}] must be finite`, `y[${i}]`);
     if (sigma) {
       const si = sigma[i]!;
-      if (!Number.isFinite(si) || si <= 0) throw new DomainError('sigma-not-positive', `sigma[${i}] must be a positive finite number`, `sigma[${i}]`);
+      if (!Number.isFinite(si) || si <= 0)
+        throw new DomainError('sigma-not-positive', `sigma[${i}] must be a positive finite number`, `sigma[${i}]`);
     }
     const wi = w(i);
     sw.add(wi);
@@ -319,7 +320,11 @@ export function predictLine(fit: LineFit, x0: number, confidenceLevel = 0.95, op
 export function requireConfidenceLevel(level: number): number {
   requireFinite(level, 'confidenceLevel');
   if (!(level > 0 && level < 1)) {
-    throw new DomainError('confidence-level-out-of-range', 'confidenceLevel must lie strictly between 0 and 1 (e.g. 0.95)', 'confidenceLevel');
+    throw new DomainError(
+      'confidence-level-out-of-range',
+      'confidenceLevel must lie strictly between 0 and 1 (e.g. 0.95)',
+      'confidenceLevel',
+    );
   }
   return level;
 }

@@ -29,8 +29,7 @@ export interface RatioPair {
 }
 
 /** The convention string shown beside any ΔΔH‡/ΔΔS‡/ΔΔG‡ value (DOMAIN §1). */
-export const SIGN_CONVENTION =
-  'ΔΔX‡ = X‡(TS→B) − X‡(TS→A); positive values favour A (the numerator of r = [A]/[B])';
+export const SIGN_CONVENTION = 'ΔΔX‡ = X‡(TS→B) − X‡(TS→A); positive values favour A (the numerator of r = [A]/[B])';
 
 function requireRatio(r: number, field: string): number {
   requireFinite(r, field);
@@ -74,7 +73,11 @@ function requireEeFraction(eePercent: number, field: string): number {
   requireFinite(eePercent, field);
   if (Math.abs(eePercent) > 100) throw new DomainError('ee-out-of-range', `${field} must lie between −100 and 100 %`, field);
   if (Math.abs(eePercent) === 100) {
-    throw new DomainError('ee-at-limit', `${field} of ±100 % implies an infinite energy gap; report the detection limit instead (e.g. 99.8 %)`, field);
+    throw new DomainError(
+      'ee-at-limit',
+      `${field} of ±100 % implies an infinite energy gap; report the detection limit instead (e.g. 99.8 %)`,
+      field,
+    );
   }
   return eePercent / 100;
 }
@@ -124,7 +127,11 @@ export function ratioFromEr(a: number, b: number, field = 'er'): number {
   requireFinite(b, field);
   if (a < 0 || b < 0) throw new DomainError('ratio-not-positive', `${field} parts must not be negative`, field);
   if (a === 0 || b === 0) {
-    throw new DomainError('zero-minor-component', `${field} has a zero component, which implies an infinite energy gap; report the detection limit instead`, field);
+    throw new DomainError(
+      'zero-minor-component',
+      `${field} has a zero component, which implies an infinite energy gap; report the detection limit instead`,
+      field,
+    );
   }
   return requireRatio(a / b, field);
 }

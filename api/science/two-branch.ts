@@ -126,7 +126,10 @@ export function fitTwoBranch(measurements: readonly EyringMeasurement[], options
   const { mode, sigma } = resolveWeighting(usable, options.weighting ?? 'auto', warnings);
   const sigmaByIndex = sigma ? new Map(usable.map((p, i) => [p.index, sigma[i]!])) : null;
   if (mode === 'absolute') {
-    warnings.push({ code: 'absolute-sigma-as-relative', message: 'The branch comparison treats σ as relative (scale estimated from the scatter), as the F test requires.' });
+    warnings.push({
+      code: 'absolute-sigma-as-relative',
+      message: 'The branch comparison treats σ as relative (scale estimated from the scatter), as the F test requires.',
+    });
   }
 
   const oneLineFit = fitSubset(usable, sigmaByIndex);

@@ -28,7 +28,7 @@ describe('productDistribution', () => {
       [300],
     );
     const ddG = 55_000 + 300 * 5 - (50_000 + 300 * 20); // [C] 50500 − 56000 = −5500: B favoured
-    expect(res.points[0]!.percents[1]! / res.points[0]!.percents[0]!).toBeCloseTo(Math.exp(-ddG / (R * 300)), 8);
+    expect(res.points[0]!.percents[1]! / res.points[0]!.percents[0]!).toBeCloseTo(Math.exp(-ddG / (R * 300)), 8); // [C] r = exp(−ΔΔG‡/RT) for B over A
   });
 
   it('when four pathways form two enantiomer pairs, then dr and each ee follow DOMAIN §5', () => {
@@ -46,7 +46,7 @@ describe('productDistribution', () => {
     const sum = w.reduce((a, b) => a + b, 0);
     const p = w.map((v) => v / sum); // [C] Boltzmann weights, DOMAIN §5
     const pt = res.points[0]!;
-    p.forEach((v, i) => expect(pt.percents[i]!).toBeCloseTo(100 * v, 10));
+    p.forEach((v, i) => expect(pt.percents[i]!).toBeCloseTo(100 * v, 10)); // [C] DOMAIN §5 Boltzmann weights
     expect(pt.diastereomerRatio!).toBeCloseTo((p[0]! + p[1]!) / (p[2]! + p[3]!), 10); // [C] dr = (p1 + p1′)/(p2 + p2′)
     expect(pt.groups[0]!.group).toBe('syn');
     expect(pt.groups[0]!.eePercent).toBeCloseTo((100 * (p[0]! - p[1]!)) / (p[0]! + p[1]!), 10); // [C] ee of diastereomer 1
@@ -69,7 +69,9 @@ describe('productDistribution', () => {
   });
 
   it('when fewer than two pathways or an unpaired enantiomer mapping are given, then DomainError', () => {
-    expect(domainErrorOf(() => productDistribution([{ id: 'a', barrier: { kind: 'gibbs', gJPerMol: 0, temperatureK: 300 } }], [300])).code).toBe('too-few-pathways');
+    expect(
+      domainErrorOf(() => productDistribution([{ id: 'a', barrier: { kind: 'gibbs', gJPerMol: 0, temperatureK: 300 } }], [300])).code,
+    ).toBe('too-few-pathways');
     expect(
       domainErrorOf(() =>
         productDistribution(

@@ -35,8 +35,8 @@ describe('fitEyring', () => {
     expect(fit.ddSSeJPerMolK!).toBeCloseTo(R * line.interceptSe!, 9); // [C] SE(ΔΔS‡) = R·SE(a)
     expect(fit.ddHDdSCorrelation!).toBeCloseTo(-line.interceptSlopeCorrelation!, 12); // [C] ΔΔS‡ = −R·a flips the sign
     expect(Math.abs(fit.ddHDdSCorrelation!)).toBeGreaterThan(0.9); // [S] Krug, Hunter & Grieger 1976: strong H–S correlation is typical
-    expect(fit.ddHCiJPerMol![0]).toBeLessThan(DDH);
-    expect(fit.ddHCiJPerMol![1]).toBeGreaterThan(DDH);
+    expect(fit.ddHCiJPerMol![0]).toBeLessThan(DDH); // [C] the constructed ΔΔH‡ lies inside the 95 % CI
+    expect(fit.ddHCiJPerMol![1]).toBeGreaterThan(DDH); // [C]
     expect(fit.nFitted).toBe(5);
     expect(codes(fit.warnings)).not.toContain('few-points');
     expectAllFinite(fit);
@@ -45,7 +45,10 @@ describe('fitEyring', () => {
   it('when ΔΔG‡ is asked at T, then its SE is RT times the SE of the mean line at 1/T', () => {
     const data = screen();
     const fit = fitEyring(data);
-    const line = fitLine(data.map((d) => 1 / d.temperatureK), data.map((d) => Math.log(d.ratio)));
+    const line = fitLine(
+      data.map((d) => 1 / d.temperatureK),
+      data.map((d) => Math.log(d.ratio)),
+    );
     const g = ddGAtTemperature(fit, 230);
     expect(g.ddGJPerMol).toBeCloseTo(fit.ddHJPerMol - 230 * fit.ddSJPerMolK, 6); // [C] ΔΔG‡ = ΔΔH‡ − TΔΔS‡
     expect(g.seJPerMol!).toBeCloseTo(R * 230 * predictLine(line, 1 / 230).seMean!, 6); // [C] DOMAIN §3
@@ -139,7 +142,21 @@ describe('fitEyring', () => {
   });
 
   it('when a ratio or temperature is invalid, then the DomainError points at the measurement', () => {
-    expect(domainErrorOf(() => fitEyring([{ temperatureK: 250, ratio: 2 }, { temperatureK: 0, ratio: 3 }])).field).toBe('measurements[1].temperatureK');
-    expect(domainErrorOf(() => fitEyring([{ temperatureK: 250, ratio: 2 }, { temperatureK: 260, ratio: -3 }])).field).toBe('measurements[1].ratio');
+    expect(
+      domainErrorOf(() =>
+        fitEyring([
+          { temperatureK: 250, ratio: 2 },
+          { temperatureK: 0, ratio: 3 },
+        ]),
+      ).field,
+    ).toBe('measurements[1].temperatureK');
+    expect(
+      domainErrorOf(() =>
+        fitEyring([
+          { temperatureK: 250, ratio: 2 },
+          { temperatureK: 260, ratio: -3 },
+        ]),
+      ).field,
+    ).toBe('measurements[1].ratio');
   });
 });

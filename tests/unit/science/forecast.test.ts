@@ -41,8 +41,13 @@ describe('forecastSelectivity', () => {
   });
 
   it('when inputs are invalid, then DomainErrors name the field', () => {
-    expect(domainErrorOf(() => forecastSelectivity({ kind: 'enthalpy-entropy', ddHJPerMol: 1, ddSJPerMolK: 0 }, [300, -5])).field).toBe('temperaturesK[1]');
-    expect(domainErrorOf(() => forecastSelectivity({ kind: 'observed', selectivity: { measure: 'ee', value: 100 }, temperatureK: 273 }, [300])).code).toBe('ee-at-limit');
+    expect(domainErrorOf(() => forecastSelectivity({ kind: 'enthalpy-entropy', ddHJPerMol: 1, ddSJPerMolK: 0 }, [300, -5])).field).toBe(
+      'temperaturesK[1]',
+    );
+    expect(
+      domainErrorOf(() => forecastSelectivity({ kind: 'observed', selectivity: { measure: 'ee', value: 100 }, temperatureK: 273 }, [300]))
+        .code,
+    ).toBe('ee-at-limit');
   });
 });
 

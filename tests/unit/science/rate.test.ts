@@ -26,8 +26,8 @@ describe('Eyring–Polanyi rate constant', () => {
 
   it('when the barrier is 20 vs 23 kcal/mol at 25 °C, then t½ goes from under minutes to hours', () => {
     // [CP] DOMAIN §10: near 20–23 kcal/mol room-temperature interconversion turns from seconds-to-minutes into hours
-    expect(halfLifeS(eyringRateConstant(kcal(20), 298.15), { order: 'first' })).toBeLessThan(600);
-    expect(halfLifeS(eyringRateConstant(kcal(23), 298.15), { order: 'first' })).toBeGreaterThan(3600);
+    expect(halfLifeS(eyringRateConstant(kcal(20), 298.15), { order: 'first' })).toBeLessThan(600); // [CP] DOMAIN §10; [C] ≈ 51 s
+    expect(halfLifeS(eyringRateConstant(kcal(23), 298.15), { order: 'first' })).toBeGreaterThan(3600); // [CP] DOMAIN §10; [C] ≈ 2.2 h
   });
 
   it('when given as ΔH‡/ΔS‡, then k equals the ΔG‡ form and the barrier inverts it', () => {
@@ -54,7 +54,10 @@ describe('rate from measured runs', () => {
   });
 
   it('when pseudo-first order with only 5-fold excess, then k₂ = k_obs/[B]₀ and a warning is given', () => {
-    const r = rateConstantFromRun({ conversion: 0.5, timeS: 600, temperatureK: 298.15 }, { order: 'pseudo-first', limitingConcentrationM: 0.1, excessConcentrationM: 0.5 });
+    const r = rateConstantFromRun(
+      { conversion: 0.5, timeS: 600, temperatureK: 298.15 },
+      { order: 'pseudo-first', limitingConcentrationM: 0.1, excessConcentrationM: 0.5 },
+    );
     expect(r.kObsPerS!).toBeCloseTo(Math.LN2 / 600, 12); // [C]
     expect(r.k).toBeCloseTo(Math.LN2 / 600 / 0.5, 12); // [C] k₂ = k_obs/[B]₀
     expect(r.warnings.map((w) => w.code)).toContain('excess-below-tenfold');
@@ -64,30 +67,50 @@ describe('rate from measured runs', () => {
     // [C] construction: k from Eyring at 0 and 25 °C, then the time to 90 % conversion of a first-order reaction
     const runAt = (t: number) => ({ conversion: 0.9, timeS: -Math.log(0.1) / rateConstantFromActivation(60_000, -50, t), temperatureK: t });
     const act = activationFromTwoRuns(runAt(273.15), runAt(298.15), { order: 'first' });
-    expect(act.hJPerMol).toBeCloseTo(60_000, 5);
-    expect(act.sJPerMolK).toBeCloseTo(-50, 8);
+    expect(act.hJPerMol).toBeCloseTo(60_000, 5); // [C] construction value
+    expect(act.sJPerMolK).toBeCloseTo(-50, 8); // [C] construction value
   });
 
   it('when one run and an assumed ΔH‡ are given, then the forecast reproduces the run and states the assumption', () => {
     const run = { conversion: 0.95, timeS: 4 * 3600, temperatureK: 273.15 };
-    const f = forecastRate({ kind: 'one-run', run, assumedHJPerMol: 50_000 }, { order: 'first' }, [273.15, 293.15], { targetConversion: 0.95 });
+    const f = forecastRate({ kind: 'one-run', run, assumedHJPerMol: 50_000 }, { order: 'first' }, [273.15, 293.15], {
+      targetConversion: 0.95,
+    });
     expect(f.points[0]!.timeToTargetS!).toBeCloseTo(4 * 3600, 4); // [C] same temperature, same time
     expect(f.points[1]!.timeToTargetS!).toBeLessThan(4 * 3600);
-    const steeper = forecastRate({ kind: 'one-run', run, assumedHJPerMol: 80_000 }, { order: 'first' }, [293.15], { targetConversion: 0.95 });
+    const steeper = forecastRate({ kind: 'one-run', run, assumedHJPerMol: 80_000 }, { order: 'first' }, [293.15], {
+      targetConversion: 0.95,
+    });
     expect(steeper.points[0]!.timeToTargetS!).toBeLessThan(f.points[1]!.timeToTargetS!); // [C] larger ΔH‡, stronger T-dependence
     expect(f.assumptions.join(' ')).toMatch(/ΔH‡ assumed 50\.0 kJ\/mol/);
     expectAllFinite(f);
   });
 
   it('when the barrier is given at one temperature without ΔS‡, then ΔS‡ = 0 is assumed and said so', () => {
-    const f = forecastRate({ kind: 'barrier', barrier: { kind: 'gibbs', gJPerMol: kcal(15), temperatureK: 298.15 } }, { order: 'first' }, [298.15]);
+    const f = forecastRate(
+      { kind: 'barrier', barrier: { kind: 'gibbs', gJPerMol: kcal(15), temperatureK: 298.15 } },
+      { order: 'first' },
+      [298.15],
+    );
     expectSigFigs(f.points[0]!.k, 62.83); // [C] DOMAIN §10
     expect(f.assumptions.join(' ')).toMatch(/ΔS‡ assumed 0/);
   });
 
   it('when inputs are impossible, then DomainErrors name the field', () => {
-    expect(domainErrorOf(() => rateConstantFromRun({ conversion: 1, timeS: 10, temperatureK: 300 }, { order: 'first' })).field).toBe('run.conversion');
-    expect(domainErrorOf(() => rateConstantFromRun({ conversion: 0.5, timeS: 0, temperatureK: 300 }, { order: 'first' })).field).toBe('run.timeS');
-    expect(domainErrorOf(() => activationFromTwoRuns({ conversion: 0.5, timeS: 10, temperatureK: 300 }, { conversion: 0.6, timeS: 10, temperatureK: 300 }, { order: 'first' })).code).toBe('same-temperature');
+    expect(domainErrorOf(() => rateConstantFromRun({ conversion: 1, timeS: 10, temperatureK: 300 }, { order: 'first' })).field).toBe(
+      'run.conversion',
+    );
+    expect(domainErrorOf(() => rateConstantFromRun({ conversion: 0.5, timeS: 0, temperatureK: 300 }, { order: 'first' })).field).toBe(
+      'run.timeS',
+    );
+    expect(
+      domainErrorOf(() =>
+        activationFromTwoRuns(
+          { conversion: 0.5, timeS: 10, temperatureK: 300 },
+          { conversion: 0.6, timeS: 10, temperatureK: 300 },
+          { order: 'first' },
+        ),
+      ).code,
+    ).toBe('same-temperature');
   });
 });

@@ -23,8 +23,18 @@ function parseNorris(text: string) {
     interceptSd: num(b0, 2),
     slope: num(b1, 1),
     slopeSd: num(b1, 2),
-    residualSd: Number(find(/Standard Deviation\s+[\d.]/)?.trim().split(/\s+/).pop()),
-    rSquared: Number(find(/R-Squared/)?.trim().split(/\s+/).pop()),
+    residualSd: Number(
+      find(/Standard Deviation\s+[\d.]/)
+        ?.trim()
+        .split(/\s+/)
+        .pop(),
+    ),
+    rSquared: Number(
+      find(/R-Squared/)
+        ?.trim()
+        .split(/\s+/)
+        .pop(),
+    ),
   };
   const start = lines.findIndex((l) => /^\s*Data:\s+y\s+x\s*$/.test(l));
   const x: number[] = [];
@@ -66,7 +76,7 @@ describe('studentTQuantile', () => {
     // [independent library] jstat 1.9.6 is slightly inexact, hence the loose tolerance
     fc.assert(
       fc.property(fc.double({ min: 0.51, max: 0.9995, noNaN: true }), fc.integer({ min: 1, max: 200 }), (p, dof) => {
-        expect(relErr(studentTQuantile(p, dof), jstat.studentt.inv(p, dof))).toBeLessThan(1e-6);
+        expect(relErr(studentTQuantile(p, dof), jstat.studentt.inv(p, dof))).toBeLessThan(1e-6); // [independent library] jstat
       }),
     );
   });
@@ -92,9 +102,9 @@ describe('fitLine against independent libraries on generated data', () => {
         const ml = new SimpleLinearRegression(x, y); // [independent library]
         const ss = linearRegression(pts.map((p) => [p.x, p.y])); // [independent library]
         const scale = 1 + Math.abs(ml.slope) + Math.abs(ml.intercept);
-        expect(Math.abs(fit.slope - ml.slope)).toBeLessThan(1e-6 * scale);
+        expect(Math.abs(fit.slope - ml.slope)).toBeLessThan(1e-6 * scale); // [independent library] ml-regression-simple-linear
         expect(Math.abs(fit.intercept - ml.intercept)).toBeLessThan(1e-6 * scale);
-        expect(Math.abs(fit.slope - ss.m)).toBeLessThan(1e-6 * scale);
+        expect(Math.abs(fit.slope - ss.m)).toBeLessThan(1e-6 * scale); // [independent library] simple-statistics
         expect(Math.abs(fit.intercept - ss.b)).toBeLessThan(1e-6 * scale);
       }),
     );
@@ -135,7 +145,7 @@ describe('fitLine behaviour', () => {
     expect(Math.abs(fit.studentizedExternal[3]!)).toBeGreaterThan(10);
     for (let i = 0; i < 8; i++) if (i !== 3) expect(Math.abs(fit.studentizedExternal[i]!)).toBeLessThan(3);
     // [C] leverages sum to the number of parameters
-    expect(fit.leverages.reduce((a, b) => a + b, 0)).toBeCloseTo(2, 12);
+    expect(fit.leverages.reduce((a, b) => a + b, 0)).toBeCloseTo(2, 12); // [C] trace of the hat matrix = p = 2
     expect(fit.cooksDistance[3]!).toBeGreaterThan(0.3);
   });
 
@@ -146,8 +156,8 @@ describe('fitLine behaviour', () => {
     const s2 = fit.residualSd! ** 2;
     const p = predictLine(fit, 7, 0.95);
     const varMean = s2 * (1 / 5 + (7 - 3) ** 2 / 10); // [C] DOMAIN §3
-    expect(p.seMean!).toBeCloseTo(Math.sqrt(varMean), 12);
-    expect(p.seNew!).toBeCloseTo(Math.sqrt(s2 + varMean), 12);
+    expect(p.seMean!).toBeCloseTo(Math.sqrt(varMean), 12); // [C] DOMAIN §3
+    expect(p.seNew!).toBeCloseTo(Math.sqrt(s2 + varMean), 12); // [C] DOMAIN §3
     // the same variance from the full covariance matrix, Var(a) + 2x₀Cov(a,b) + x₀²Var(b) [C]
     const c = fit.covariance!;
     expect(p.seMean!).toBeCloseTo(Math.sqrt(c.interceptIntercept + 2 * 7 * c.interceptSlope + 49 * c.slopeSlope), 10);

@@ -57,10 +57,10 @@ describe('selectivity conversions at 298.15 K (DOMAIN §10)', () => {
 
   it('when the rules of thumb are applied, then 1.36 kcal/mol is one decade and 2 kcal/mol ≈ 96.7 % A', () => {
     // [CP] DOMAIN §10: at 25 °C a factor of ten in r costs about 1.36 kcal/mol (5.71 kJ/mol)
-    expect(energyFromJPerMol(ddGFromRatio(10, T25), 'kcal/mol')).toBeCloseTo(1.36, 2);
-    expect(energyFromJPerMol(ddGFromRatio(10, T25), 'kJ/mol')).toBeCloseTo(5.71, 2);
+    expect(energyFromJPerMol(ddGFromRatio(10, T25), 'kcal/mol')).toBeCloseTo(1.36, 2); // [CP] DOMAIN §10
+    expect(energyFromJPerMol(ddGFromRatio(10, T25), 'kJ/mol')).toBeCloseTo(5.71, 2); // [CP] DOMAIN §10
     // [CP] DOMAIN §10: a 2 kcal/mol gap gives about 96.7 % of A
-    expect(percentAFromRatio(ratioFromDdG(kcal(2), T25))).toBeCloseTo(96.7, 1);
+    expect(percentAFromRatio(ratioFromDdG(kcal(2), T25))).toBeCloseTo(96.7, 1); // [CP] DOMAIN §10
   });
 
   it('when ΔΔG‡ is negative, then B is favoured and ee is negative (sign convention DOMAIN §1)', () => {
@@ -79,14 +79,10 @@ describe('selectivity conversions at 298.15 K (DOMAIN §10)', () => {
 
   it('when ee → ΔΔG‡ → ee round-trips over the whole open range, then ee is recovered', () => {
     fc.assert(
-      fc.property(
-        fc.double({ min: -99.9999, max: 99.9999, noNaN: true }),
-        fc.double({ min: 50, max: 500, noNaN: true }),
-        (ee, t) => {
-          const back = eeFromDdG(ddGFromEe(ee, t), t);
-          expect(Math.abs(back - ee)).toBeLessThan(1e-9);
-        },
-      ),
+      fc.property(fc.double({ min: -99.9999, max: 99.9999, noNaN: true }), fc.double({ min: 50, max: 500, noNaN: true }), (ee, t) => {
+        const back = eeFromDdG(ddGFromEe(ee, t), t);
+        expect(Math.abs(back - ee)).toBeLessThan(1e-9);
+      }),
     );
   });
 
@@ -137,11 +133,11 @@ describe('parseSelectivity', () => {
 describe('sigmaLnRatio (DOMAIN §3 propagation)', () => {
   it('when σ is on ee or %A, then σ(ln r) = 2σ_ee/(1−ee²) = σ_p/[p(1−p)]', () => {
     // ee 90 % ± 0.5 %: 2·0.005/(1−0.81) [C]
-    expect(sigmaLnRatio({ measure: 'ee', value: 90 }, 0.5)).toBeCloseTo((2 * 0.005) / (1 - 0.81), 12);
+    expect(sigmaLnRatio({ measure: 'ee', value: 90 }, 0.5)).toBeCloseTo((2 * 0.005) / (1 - 0.81), 12); // [C] DOMAIN §3
     // the same run as %A: 95 % ± 0.25 %: 0.0025/(0.95·0.05) [C], identical by construction
-    expect(sigmaLnRatio({ measure: 'percentA', value: 95 }, 0.25)).toBeCloseTo(0.0025 / (0.95 * 0.05), 12);
+    expect(sigmaLnRatio({ measure: 'percentA', value: 95 }, 0.25)).toBeCloseTo(0.0025 / (0.95 * 0.05), 12); // [C] DOMAIN §3
     expect(sigmaLnRatio({ measure: 'percentA', value: 95 }, 0.25)).toBeCloseTo(sigmaLnRatio({ measure: 'ee', value: 90 }, 0.5), 12);
-    expect(sigmaLnRatio({ measure: 'er', value: '95:5' }, 0.25)).toBeCloseTo(0.0025 / (0.95 * 0.05), 12);
+    expect(sigmaLnRatio({ measure: 'er', value: '95:5' }, 0.25)).toBeCloseTo(0.0025 / (0.95 * 0.05), 12); // [C] DOMAIN §3, er read as the A share
   });
 
   it('when σ is on a ratio-type measure, then it is read as a relative SD of r', () => {

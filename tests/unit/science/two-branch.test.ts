@@ -29,21 +29,24 @@ describe('fitTwoBranch', () => {
     expect(res.lowBranch.temperatureRangeK.max).toBe(250); // [C] construction
     expect(res.highBranch.temperatureRangeK.min).toBe(270); // [C] construction
     expect(res.lowBranch.ddHJPerMol).toBeGreaterThan(17_000); // [C] 20 kJ/mol ± scatter
-    expect(res.lowBranch.ddHJPerMol).toBeLessThan(23_000);
+    expect(res.lowBranch.ddHJPerMol).toBeLessThan(23_000); // [C] construction
     expect(res.highBranch.ddHJPerMol).toBeGreaterThan(3_000); // [C] 5 kJ/mol ± scatter
-    expect(res.highBranch.ddHJPerMol).toBeLessThan(7_000);
+    expect(res.highBranch.ddHJPerMol).toBeLessThan(7_000); // [C] construction
     expect(res.isoinversionTemperatureK!).toBeGreaterThan(250); // [C] T_inv = 260 K by construction
-    expect(res.isoinversionTemperatureK!).toBeLessThan(270);
-    expect(res.pValue).toBeLessThan(0.001);
+    expect(res.isoinversionTemperatureK!).toBeLessThan(270); // [C] construction
+    expect(res.pValue).toBeLessThan(0.001); // [C] a real break of this size is unmistakable
     expect(res.preferred).toBe('two-branch');
     expectAllFinite(res);
   });
 
   it('when the F statistic is recomputed from the two SS values, then it and its p-value agree with an independent library', () => {
     const res = fitTwoBranch(broken)!;
-    const one = fitLine(broken.map((m) => 1 / m.temperatureK), broken.map((m) => Math.log(m.ratio)));
+    const one = fitLine(
+      broken.map((m) => 1 / m.temperatureK),
+      broken.map((m) => Math.log(m.ratio)),
+    );
     expect(res.oneLine.ssRes).toBeCloseTo(one.ssRes, 12);
-    const f = ((one.ssRes - res.twoBranch.ssRes) / 2) / (res.twoBranch.ssRes / (12 - 4)); // [C] extra-sum-of-squares F
+    const f = (one.ssRes - res.twoBranch.ssRes) / 2 / (res.twoBranch.ssRes / (12 - 4)); // [C] extra-sum-of-squares F
     expect(res.fStatistic).toBeCloseTo(f, 6);
     expect(res.dof1).toBe(2);
     expect(res.dof2).toBe(8);
@@ -65,7 +68,10 @@ describe('fitTwoBranch', () => {
 
   it('when the branch lines are parallel, then no isoinversion temperature is claimed and the note says why', () => {
     // [C] two parallel lines offset by 1.0 in ln r
-    const data = [...LOW, ...HIGH].map((t, i) => ({ temperatureK: t, ratio: Math.exp(5_000 / (R * t) + (t > 260 ? 1 : 0) + SCATTER[i]! * 0.01) }));
+    const data = [...LOW, ...HIGH].map((t, i) => ({
+      temperatureK: t,
+      ratio: Math.exp(5_000 / (R * t) + (t > 260 ? 1 : 0) + SCATTER[i]! * 0.01),
+    }));
     const res = fitTwoBranch(data)!;
     expect(res.isoinversionTemperatureK).toBeNull();
     expect(res.isoinversionNote).toMatch(/do not cross|far from the break|parallel/);
