@@ -19,11 +19,12 @@ export default tseslint.config(
   },
   {
     // The browser never imports server code, except zod schema modules shared on purpose.
+    // Two or more ../ reach the root api/; a single ../api/ is a feature's own api folder.
     files: ['web/**/*.{ts,tsx}'],
     rules: {
       'no-restricted-imports': [
         'error',
-        { patterns: [{ regex: '^(\\.\\./)+api/(?!features/[a-z-]+/schemas$|science/units$)', message: 'web/ may import only api/features/*/schemas (shared zod) from the server.' }] },
+        { patterns: [{ regex: '^(\\.\\./){2,}api/(?!features/[a-z-]+/schemas$|science/units$)', message: 'web/ may import only api/features/*/schemas (shared zod) from the server.' }] },
       ],
     },
   },
