@@ -1,0 +1,317 @@
+import { useMemo, type ReactNode } from 'react';
+import { AreaSeries, Axis, GlyphSeries, Grid, LineSeries, Tooltip, XYChart, type GlyphProps } from '@visx/xychart';
+import { fixed, sig } from '../../lib/format';
+import { ErrorBars, ThermalStrip, VerticalMark } from './chart-layers';
+import { axisLabelProps, chartColors, chartTheme, paddedExtent, tickLabelProps } from './chart-theme';
+import { useElementWidth } from './use-element-width';
+
+const CELSIUS_OFFSET = 273.15;
+
+/** One measured point on an Eyring plot (y = ln r at temperature `kelvin`). */
+export interface EyringPlotPoint {
+  id: string | number;
+  kelvin: number;
+  lnRatio: number;
+  /** Error-bar ends in ln r (asymmetric allowed); null or absent = no bar on that side. */
+  lnRatioLow?: number | null;
+  lnRatioHigh?: number | null;
+  /** fitted: filled circle; excluded: hollow circle; censored: diamond with an upward caret (a lower bound). */
+  status: 'fitted' | 'excluded' | 'censored';
+  /** Residual flagged by the fit: drawn with an outer ring. */
+  flagged?: boolean;
+  label?: string;
+}
+
+/** The fitted line sampled over temperature, with its bands (all in ln r). */
+export interface EyringCurvePoint {
+  kelvin: number;
+  lnRatio: number;
+  /** Confidence band for the mean line. */
+  confidence?: [number, number] | null;
+  /** Prediction band for a new run. */
+  prediction?: [number, number] | null;
+}
+
+/** A straight branch ln r = intercept + slope·(1/T), drawn only over [fromKelvin, toKelvin]. */
+export interface EyringBranchLine {
+  label: string;
+  fromKelvin: number;
+  toKelvin: number;
+  slope: number;
+  intercept: number;
+}
+
+export interface EyringPlotProps {
+  points: EyringPlotPoint[];
+  curve?: EyringCurvePoint[];
+  branches?: EyringBranchLine[];
+  /** A temperature to mark with a vertical rule (e.g. the proposed temperature). */
+  mark?: { kelvin: number; label: string } | null;
+  /** Confidence level of the bands, for the legend (e.g. 0.95). */
+  confidenceLevel?: number;
+  /** Accessible name of the chart. */
+  title: string;
+  /** Fixed width in px; by default the chart fills its parent. */
+  width?: number;
+  height?: number;
+}
+
+type Datum = { kind: 'point'; x: number; y: number; p: EyringPlotPoint } | { kind: 'curve'; x: number; y: number; c: EyringCurvePoint };
+
+const invT = (kelvin: number) => 1000 / kelvin;
+const xOf = (d: Datum) => d.x;
+const yOf = (d: Datum) => d.y;
+
+function PointGlyph({ x, y, datum }: GlyphProps<Datum>) {
+  if (datum.kind !== 'point') return null;
+  const { status, flagged } = datum.p;
+  const ring = flagged ? <circle cx={x} cy={y} r={8} fill="none" stroke={chartColors.flagRing} strokeWidth={1.5} /> : null;
+  if (status === 'censored') {
+    return (
+      <g>
+        {ring}
+        <path d={`M${x} ${y - 5} L${x + 5} ${y} L${x} ${y + 5} L${x - 5} ${y} Z`} fill={chartColors.ink} />
+        <path d={`M${x - 4} ${y - 8} L${x} ${y - 13} L${x + 4} ${y - 8}`} fill="none" stroke={chartColors.ink} strokeWidth={1.5} />
+      </g>
+    );
+  }
+  if (status === 'excluded') {
+    return (
+      <g>
+        {ring}
+        <circle cx={x} cy={y} r={4.5} fill={chartColors.paper} stroke={chartColors.inkSoft} strokeWidth={1.5} />
+      </g>
+    );
+  }
+  return (
+    <g>
+      {ring}
+      <circle cx={x} cy={y} r={4.5} fill={chartColors.ink} stroke={chartColors.paper} strokeWidth={1} />
+    </g>
+  );
+}
+
+/** Round °C tick values that fall inside a 1000/T domain, for the secondary top axis. */
+function celsiusTicks(xDomain: [number, number]): number[] {
+  const kA = 1000 / xDomain[1];
+  const kB = 1000 / xDomain[0];
+  const cLo = Math.min(kA, kB) - CELSIUS_OFFSET;
+  const cHi = Math.max(kA, kB) - CELSIUS_OFFSET;
+  const span = cHi - cLo;
+  const step = [5, 10, 20, 25, 50, 100, 200].find((s) => span / s <= 7) ?? 500;
+  const ticks: number[] = [];
+  for (let c = Math.ceil(cLo / step) * step; c <= cHi; c += step) ticks.push(c);
+  return ticks.map((c) => invT(c + CELSIUS_OFFSET));
+}
+
+const STATUS_TEXT: Record<EyringPlotPoint['status'], string> = {
+  fitted: 'in the fit',
+  excluded: 'excluded from the fit',
+  censored: 'lower bound (censored)',
+};
+
+/**
+ * Eyring plot of a selectivity screen: ln r against 1000/T, measured points (with optional
+ * error bars), the fitted line with its confidence and prediction bands as computed by the
+ * API, optional straight branches, and a secondary °C axis along the top.
+ */
+export function EyringPlot({ points, curve = [], branches = [], mark, confidenceLevel = 0.95, title, width, height = 340 }: EyringPlotProps) {
+  const [ref, measured] = useElementWidth<HTMLDivElement>();
+  const chartWidth = width ?? measured;
+
+  const pointData = useMemo<Datum[]>(() => points.map((p) => ({ kind: 'point', x: invT(p.kelvin), y: p.lnRatio, p })), [points]);
+  const curveData = useMemo<Datum[]>(() => curve.map((c) => ({ kind: 'curve', x: invT(c.kelvin), y: c.lnRatio, c })), [curve]);
+  const confidence = useMemo(() => curve.filter((c) => c.confidence).map((c) => ({ x: invT(c.kelvin), lo: c.confidence![0], hi: c.confidence![1] })), [curve]);
+  const prediction = useMemo(() => curve.filter((c) => c.prediction).map((c) => ({ x: invT(c.kelvin), lo: c.prediction![0], hi: c.prediction![1] })), [curve]);
+  const branchData = useMemo(
+    () =>
+      branches.map((b) => ({
+        label: b.label,
+        data: [b.fromKelvin, b.toKelvin].map((k) => ({ x: invT(k), y: b.intercept + b.slope / k })),
+      })),
+    [branches],
+  );
+
+  const xDomain = useMemo(
+    () => paddedExtent([...pointData.map((d) => d.x), ...curveData.map((d) => d.x), ...branchData.flatMap((b) => b.data.map((d) => d.x))], 0.04, 0.1),
+    [pointData, curveData, branchData],
+  );
+  const yDomain = useMemo(
+    () =>
+      paddedExtent(
+        [
+          ...points.flatMap((p) => [p.lnRatio, p.lnRatioLow ?? NaN, p.lnRatioHigh ?? NaN]),
+          ...curve.flatMap((c) => [c.lnRatio, ...(c.prediction ?? []), ...(c.confidence ?? [])]),
+          ...branchData.flatMap((b) => b.data.map((d) => d.y)),
+        ],
+        0.08,
+        0.5,
+      ),
+    [points, curve, branchData],
+  );
+  const topTicks = useMemo(() => celsiusTicks(xDomain), [xDomain]);
+  const levelText = `${fixed(confidenceLevel * 100, 0)} %`;
+
+  return (
+    <figure className="m-0">
+      <div ref={ref} className="w-full" data-testid="eyring-plot">
+        {chartWidth > 0 && (
+          <XYChart
+            width={chartWidth}
+            height={height}
+            margin={{ top: 44, right: 20, bottom: 46, left: 58 }}
+            theme={chartTheme}
+            xScale={{ type: 'linear', domain: xDomain, zero: false }}
+            yScale={{ type: 'linear', domain: yDomain, zero: false, nice: true }}
+            accessibilityLabel={title}
+          >
+            <Grid columns={false} numTicks={6} lineStyle={{ stroke: chartColors.grid }} />
+            <ThermalStrip toCelsius={(x) => 1000 / x - CELSIUS_OFFSET} />
+            {prediction.length > 1 && (
+              <AreaSeries
+                dataKey="prediction band"
+                data={prediction}
+                xAccessor={(d) => d.x}
+                yAccessor={(d) => d.hi}
+                y0Accessor={(d) => d.lo}
+                renderLine={false}
+                fill={chartColors.predictionFill}
+                fillOpacity={0.22}
+                enableEvents={false}
+              />
+            )}
+            {confidence.length > 1 && (
+              <AreaSeries
+                dataKey="confidence band"
+                data={confidence}
+                xAccessor={(d) => d.x}
+                yAccessor={(d) => d.hi}
+                y0Accessor={(d) => d.lo}
+                renderLine={false}
+                fill={chartColors.confidenceFill}
+                fillOpacity={0.25}
+                enableEvents={false}
+              />
+            )}
+            {curveData.length > 1 && <LineSeries dataKey="fitted line" data={curveData} xAccessor={xOf} yAccessor={yOf} stroke={chartColors.accent} strokeWidth={2} />}
+            {branchData.map((b) => (
+              <LineSeries
+                key={b.label}
+                dataKey={`branch ${b.label}`}
+                data={b.data}
+                xAccessor={(d) => d.x}
+                yAccessor={(d) => d.y}
+                stroke={chartColors.branch}
+                strokeWidth={1.75}
+                strokeDasharray="7 4"
+                enableEvents={false}
+              />
+            ))}
+            <ErrorBars bars={points.map((p) => ({ x: invT(p.kelvin), low: p.lnRatioLow, high: p.lnRatioHigh }))} />
+            {pointData.length > 0 && <GlyphSeries dataKey="measurements" data={pointData} xAccessor={xOf} yAccessor={yOf} renderGlyph={PointGlyph} />}
+            {mark && <VerticalMark x={invT(mark.kelvin)} label={mark.label} />}
+            <Axis orientation="bottom" numTicks={6} label="1000/T (K⁻¹)" labelProps={axisLabelProps} tickLabelProps={tickLabelProps} tickFormat={(v) => fixed(Number(v), 2)} />
+            <Axis orientation="left" numTicks={6} label="ln r   (r = [A]/[B])" labelProps={axisLabelProps} tickLabelProps={tickLabelProps} tickFormat={(v) => fixed(Number(v), 1)} />
+            <Axis
+              orientation="top"
+              tickValues={topTicks}
+              label="°C"
+              labelOffset={4}
+              labelProps={axisLabelProps}
+              tickLabelProps={tickLabelProps}
+              tickFormat={(v) => fixed(1000 / Number(v) - CELSIUS_OFFSET, 0)}
+            />
+            <Tooltip<Datum>
+              snapTooltipToDatumX
+              snapTooltipToDatumY
+              showDatumGlyph={false}
+              showVerticalCrosshair
+              verticalCrosshairStyle={{ stroke: '#94a3b8', strokeDasharray: '2 2' }}
+              renderTooltip={({ tooltipData }) => {
+                const d = tooltipData?.nearestDatum?.datum;
+                if (!d) return null;
+                const kelvin = 1000 / d.x;
+                return (
+                  <div className="tnum text-xs leading-5 text-ink-800">
+                    <div className="font-medium">
+                      {fixed(kelvin - CELSIUS_OFFSET, 1)} °C · {fixed(kelvin, 2)} K
+                    </div>
+                    <div>1000/T = {fixed(d.x, 3)} K⁻¹</div>
+                    {d.kind === 'point' ? (
+                      <>
+                        <div>
+                          ln r = {fixed(d.y, 3)} (r = {sig(Math.exp(d.y), 3)})
+                        </div>
+                        <div>
+                          {d.p.label ? `${d.p.label} · ` : ''}
+                          {STATUS_TEXT[d.p.status]}
+                          {d.p.flagged ? ' · flagged residual' : ''}
+                        </div>
+                      </>
+                    ) : (
+                      <>
+                        <div>fitted ln r = {fixed(d.y, 3)}</div>
+                        {d.c.prediction && (
+                          <div>
+                            {levelText} prediction {fixed(d.c.prediction[0], 2)} to {fixed(d.c.prediction[1], 2)}
+                          </div>
+                        )}
+                      </>
+                    )}
+                  </div>
+                );
+              }}
+            />
+          </XYChart>
+        )}
+      </div>
+      <figcaption>
+        <ul className="mt-1 flex flex-wrap gap-x-4 gap-y-1 text-xs text-ink-600" aria-label="Legend">
+          <LegendItem label="measured, in the fit">
+            <circle cx="8" cy="8" r="4.5" fill={chartColors.ink} />
+          </LegendItem>
+          <LegendItem label="excluded">
+            <circle cx="8" cy="8" r="4" fill="#fff" stroke={chartColors.inkSoft} strokeWidth="1.5" />
+          </LegendItem>
+          <LegendItem label="censored: lower bound">
+            <path d="M8 7 L12 11 L8 15 L4 11 Z M4.5 5.5 L8 2 L11.5 5.5" fill={chartColors.ink} stroke={chartColors.ink} strokeWidth="1.2" />
+          </LegendItem>
+          <LegendItem label="flagged residual">
+            <circle cx="8" cy="8" r="6" fill="none" stroke={chartColors.flagRing} strokeWidth="1.5" />
+          </LegendItem>
+          {curveData.length > 1 && (
+            <LegendItem label="fitted line">
+              <line x1="1" x2="15" y1="8" y2="8" stroke={chartColors.accent} strokeWidth="2" />
+            </LegendItem>
+          )}
+          {confidence.length > 1 && (
+            <LegendItem label={`${levelText} confidence band (mean line)`}>
+              <rect x="1" y="3" width="14" height="10" fill={chartColors.confidenceFill} fillOpacity="0.35" />
+            </LegendItem>
+          )}
+          {prediction.length > 1 && (
+            <LegendItem label={`${levelText} prediction band (new run)`}>
+              <rect x="1" y="3" width="14" height="10" fill={chartColors.predictionFill} fillOpacity="0.35" />
+            </LegendItem>
+          )}
+          {branchData.length > 0 && (
+            <LegendItem label="two-branch fit">
+              <line x1="1" x2="15" y1="8" y2="8" stroke={chartColors.branch} strokeWidth="1.75" strokeDasharray="4 2" />
+            </LegendItem>
+          )}
+        </ul>
+      </figcaption>
+    </figure>
+  );
+}
+
+export function LegendItem({ label, children }: { label: string; children: ReactNode }) {
+  return (
+    <li className="flex items-center gap-1.5">
+      <svg aria-hidden="true" width="16" height="16" viewBox="0 0 16 16">
+        {children}
+      </svg>
+      {label}
+    </li>
+  );
+}

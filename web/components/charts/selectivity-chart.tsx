@@ -1,0 +1,192 @@
+import { useMemo } from 'react';
+import { AreaSeries, Axis, GlyphSeries, Grid, LineSeries, Tooltip, XYChart, type GlyphProps } from '@visx/xychart';
+import { enantiomericRatio, fixed, percent } from '../../lib/format';
+import { HorizontalRule, ThermalStrip, VerticalMark } from './chart-layers';
+import { axisLabelProps, chartColors, chartTheme, paddedExtent, tickLabelProps } from './chart-theme';
+import { LegendItem } from './eyring-plot';
+import { useElementWidth } from './use-element-width';
+
+export type SelectivityAxis = 'ee' | 'percentA';
+
+/** A forecast (or fitted) selectivity at one temperature, with an optional band. */
+export interface SelectivityCurvePoint {
+  celsius: number;
+  eePercent: number;
+  percentA: number;
+  band?: { eePercent: [number, number]; percentA: [number, number] } | null;
+}
+
+/** A measured selectivity. */
+export interface SelectivityMeasuredPoint {
+  id: string | number;
+  celsius: number;
+  eePercent: number;
+  percentA: number;
+  /** fitted: filled circle; excluded: hollow; censored: diamond with an upward caret (a lower bound). */
+  status?: 'fitted' | 'excluded' | 'censored';
+}
+
+export interface SelectivityChartProps {
+  curve: SelectivityCurvePoint[];
+  points?: SelectivityMeasuredPoint[];
+  /** Which quantity is on the y axis. */
+  measure: SelectivityAxis;
+  /** A specification drawn as a horizontal rule, in the units of `measure` (e.g. 99 for 99 % ee). */
+  spec?: number | null;
+  curveLabel?: string;
+  /** Legend text of the band, e.g. "95 % prediction band". */
+  bandLabel?: string;
+  mark?: { celsius: number; label: string } | null;
+  /** Accessible name of the chart. */
+  title: string;
+  width?: number;
+  height?: number;
+}
+
+type Datum = { kind: 'curve'; x: number; y: number; c: SelectivityCurvePoint } | { kind: 'point'; x: number; y: number; p: SelectivityMeasuredPoint };
+
+const xOf = (d: Datum) => d.x;
+const yOf = (d: Datum) => d.y;
+
+function PointGlyph({ x, y, datum }: GlyphProps<Datum>) {
+  if (datum.kind !== 'point') return null;
+  const status = datum.p.status ?? 'fitted';
+  if (status === 'censored') {
+    return (
+      <g>
+        <path d={`M${x} ${y - 5} L${x + 5} ${y} L${x} ${y + 5} L${x - 5} ${y} Z`} fill={chartColors.ink} />
+        <path d={`M${x - 4} ${y - 8} L${x} ${y - 13} L${x + 4} ${y - 8}`} fill="none" stroke={chartColors.ink} strokeWidth={1.5} />
+      </g>
+    );
+  }
+  if (status === 'excluded') return <circle cx={x} cy={y} r={4.5} fill={chartColors.paper} stroke={chartColors.inkSoft} strokeWidth={1.5} />;
+  return <circle cx={x} cy={y} r={4.5} fill={chartColors.ink} stroke={chartColors.paper} strokeWidth={1} />;
+}
+
+/**
+ * Selectivity against temperature (°C): the forecast curve, an optional band, measured
+ * points and an optional specification rule. The y axis shows ee % or % A.
+ */
+export function SelectivityChart({ curve, points = [], measure, spec, curveLabel = 'forecast', bandLabel, mark, title, width, height = 300 }: SelectivityChartProps) {
+  const [ref, measured] = useElementWidth<HTMLDivElement>();
+  const chartWidth = width ?? measured;
+  const pick = (v: { eePercent: number; percentA: number }) => (measure === 'ee' ? v.eePercent : v.percentA);
+  const yLabel = measure === 'ee' ? 'ee (%)' : 'A (% of A + B)';
+  const unitText = measure === 'ee' ? '% ee' : '% A';
+
+  const curveData = useMemo<Datum[]>(() => curve.map((c) => ({ kind: 'curve', x: c.celsius, y: measure === 'ee' ? c.eePercent : c.percentA, c })), [curve, measure]);
+  const pointData = useMemo<Datum[]>(() => points.map((p) => ({ kind: 'point', x: p.celsius, y: measure === 'ee' ? p.eePercent : p.percentA, p })), [points, measure]);
+  const band = useMemo(
+    () => curve.filter((c) => c.band).map((c) => ({ x: c.celsius, lo: (measure === 'ee' ? c.band!.eePercent : c.band!.percentA)[0], hi: (measure === 'ee' ? c.band!.eePercent : c.band!.percentA)[1] })),
+    [curve, measure],
+  );
+
+  const xDomain = useMemo(() => paddedExtent([...curveData.map(xOf), ...pointData.map(xOf)], 0.02, 5), [curveData, pointData]);
+  const yDomain = useMemo<[number, number]>(() => {
+    const [lo, hi] = paddedExtent([...curveData.map(yOf), ...pointData.map(yOf), ...band.flatMap((b) => [b.lo, b.hi]), ...(spec != null ? [spec] : [])], 0.06, 1);
+    const ceiling = 100;
+    const floor = measure === 'ee' ? -100 : 0;
+    return [Math.max(floor, lo), Math.min(ceiling, hi)];
+  }, [curveData, pointData, band, spec, measure]);
+
+  return (
+    <figure className="m-0">
+      <div ref={ref} className="w-full" data-testid="selectivity-chart">
+        {chartWidth > 0 && (
+          <XYChart
+            width={chartWidth}
+            height={height}
+            margin={{ top: 18, right: 20, bottom: 46, left: 58 }}
+            theme={chartTheme}
+            xScale={{ type: 'linear', domain: xDomain, zero: false }}
+            yScale={{ type: 'linear', domain: yDomain, zero: false, nice: true, clamp: true }}
+            accessibilityLabel={title}
+          >
+            <Grid columns={false} numTicks={6} lineStyle={{ stroke: chartColors.grid }} />
+            <ThermalStrip toCelsius={(x) => x} />
+            {band.length > 1 && (
+              <AreaSeries
+                dataKey="band"
+                data={band}
+                xAccessor={(d) => d.x}
+                yAccessor={(d) => d.hi}
+                y0Accessor={(d) => d.lo}
+                renderLine={false}
+                fill={chartColors.predictionFill}
+                fillOpacity={0.3}
+                enableEvents={false}
+              />
+            )}
+            {spec != null && <HorizontalRule y={spec} label={`specification ${fixed(spec, spec % 1 === 0 ? 0 : 1)} ${unitText}`} />}
+            {curveData.length > 1 && <LineSeries dataKey="curve" data={curveData} xAccessor={xOf} yAccessor={yOf} stroke={chartColors.accent} strokeWidth={2} />}
+            {curveData.length === 1 && <GlyphSeries dataKey="curve" data={curveData} xAccessor={xOf} yAccessor={yOf} />}
+            {pointData.length > 0 && <GlyphSeries dataKey="measurements" data={pointData} xAccessor={xOf} yAccessor={yOf} renderGlyph={PointGlyph} />}
+            {mark && <VerticalMark x={mark.celsius} label={mark.label} />}
+            <Axis orientation="bottom" numTicks={7} label="Temperature (°C)" labelProps={axisLabelProps} tickLabelProps={tickLabelProps} tickFormat={(v) => fixed(Number(v), 0)} />
+            <Axis orientation="left" numTicks={6} label={yLabel} labelProps={axisLabelProps} tickLabelProps={tickLabelProps} tickFormat={(v) => fixed(Number(v), Number.isInteger(Number(v)) ? 0 : 1)} />
+            <Tooltip<Datum>
+              snapTooltipToDatumX
+              snapTooltipToDatumY
+              showVerticalCrosshair
+              verticalCrosshairStyle={{ stroke: '#94a3b8', strokeDasharray: '2 2' }}
+              renderTooltip={({ tooltipData }) => {
+                const d = tooltipData?.nearestDatum?.datum;
+                if (!d) return null;
+                const v = d.kind === 'curve' ? d.c : d.p;
+                return (
+                  <div className="tnum text-xs leading-5 text-ink-800">
+                    <div className="font-medium">
+                      {fixed(d.x, 1)} °C · {fixed(d.x + 273.15, 2)} K
+                    </div>
+                    <div>
+                      {d.kind === 'curve' ? curveLabel : 'measured'}: ee {percent(v.eePercent)} % · er {enantiomericRatio(v.percentA)}
+                      {d.kind === 'point' && d.p.status === 'censored' ? ' (lower bound)' : ''}
+                    </div>
+                    {d.kind === 'curve' && d.c.band && (
+                      <div>
+                        {bandLabel ?? 'band'}: {percent(pick({ eePercent: d.c.band.eePercent[0], percentA: d.c.band.percentA[0] }))} to{' '}
+                        {percent(pick({ eePercent: d.c.band.eePercent[1], percentA: d.c.band.percentA[1] }))} {unitText}
+                      </div>
+                    )}
+                  </div>
+                );
+              }}
+            />
+          </XYChart>
+        )}
+      </div>
+      <figcaption>
+        <ul className="mt-1 flex flex-wrap gap-x-4 gap-y-1 text-xs text-ink-600" aria-label="Legend">
+          <LegendItem label={curveLabel}>
+            <line x1="1" x2="15" y1="8" y2="8" stroke={chartColors.accent} strokeWidth="2" />
+          </LegendItem>
+          {band.length > 1 && (
+            <LegendItem label={bandLabel ?? 'band'}>
+              <rect x="1" y="3" width="14" height="10" fill={chartColors.predictionFill} fillOpacity="0.45" />
+            </LegendItem>
+          )}
+          {pointData.length > 0 && (
+            <LegendItem label="measured">
+              <circle cx="8" cy="8" r="4.5" fill={chartColors.ink} />
+            </LegendItem>
+          )}
+          {spec != null && (
+            <LegendItem label="specification">
+              <line x1="1" x2="15" y1="8" y2="8" stroke={chartColors.caution} strokeWidth="1.5" strokeDasharray="4 2" />
+            </LegendItem>
+          )}
+          <LegendItem label="strip: cold → warm">
+            <rect x="1" y="6" width="14" height="4" fill="url(#legend-thermal)" />
+            <defs>
+              <linearGradient id="legend-thermal">
+                <stop offset="0" stopColor="#2c5aa0" />
+                <stop offset="0.5" stopColor="#9a9a7a" />
+                <stop offset="1" stopColor="#b4452c" />
+              </linearGradient>
+            </defs>
+          </LegendItem>
+        </ul>
+      </figcaption>
+    </figure>
+  );
+}

@@ -1,0 +1,75 @@
+/**
+ * Number formatting for the instrument look: true minus signs, significant figures
+ * chosen for the quantity, and uncertainty rounded to two significant figures with
+ * the value rounded to the same decimal place.
+ */
+const MINUS = '\u2212';
+
+function withMinus(text: string): string {
+  return text.startsWith('-') ? MINUS + text.slice(1) : text;
+}
+
+/** Fixed decimals with a true minus sign; "−0.0" becomes "0.0". */
+export function fixed(value: number, decimals: number): string {
+  if (!Number.isFinite(value)) return '—';
+  const text = value.toFixed(Math.max(0, Math.min(20, decimals)));
+  return /^-0(\.0*)?$/.test(text) ? text.slice(1) : withMinus(text);
+}
+
+/** Superscript digits for powers of ten. */
+const SUPERSCRIPT: Record<string, string> = { '-': '⁻', '0': '⁰', '1': '¹', '2': '²', '3': '³', '4': '⁴', '5': '⁵', '6': '⁶', '7': '⁷', '8': '⁸', '9': '⁹' };
+
+/** `sig` significant figures; very large or small magnitudes as a × 10ⁿ. */
+export function sig(value: number, figures = 3): string {
+  if (!Number.isFinite(value)) return '—';
+  if (value === 0) return '0';
+  const magnitude = Math.floor(Math.log10(Math.abs(value)));
+  if (magnitude >= 5 || magnitude <= -4) {
+    const [mantissa, exponent] = value.toExponential(figures - 1).split('e');
+    const power = String(Number(exponent))
+      .split('')
+      .map((c) => SUPERSCRIPT[c] ?? c)
+      .join('');
+    return `${withMinus(mantissa)} × 10${power}`;
+  }
+  return fixed(value, Math.max(0, figures - 1 - magnitude));
+}
+
+/**
+ * Decimals for a percentage that may approach 100 (ee, % A): enough that the distance
+ * to 100 keeps two significant figures, between 1 and 3 decimals.
+ */
+export function percentDecimals(percent: number): number {
+  const gap = 100 - Math.abs(percent);
+  if (!(gap > 0)) return 1;
+  return Math.min(3, Math.max(1, 1 - Math.floor(Math.log10(gap))));
+}
+
+export function percent(value: number): string {
+  return fixed(value, percentDecimals(value));
+}
+
+/** A value and its standard error: the SE to two significant figures, the value to the same decimal place. */
+export function withUncertainty(value: number, se: number | null | undefined, fallbackDecimals = 2): string {
+  if (se === null || se === undefined || !Number.isFinite(se) || se <= 0) return fixed(value, fallbackDecimals);
+  const decimals = Math.max(0, 1 - Math.floor(Math.log10(se)));
+  return `${fixed(value, decimals)} ± ${fixed(se, decimals)}`;
+}
+
+/** Decimals that match an uncertainty's two significant figures (for intervals beside it). */
+export function decimalsFor(se: number | null | undefined, fallback = 2): number {
+  if (se === null || se === undefined || !Number.isFinite(se) || se <= 0) return fallback;
+  return Math.max(0, 1 - Math.floor(Math.log10(se)));
+}
+
+/** er written A:B normalised to 100. */
+export function enantiomericRatio(percentA: number): string {
+  const d = percentDecimals(percentA);
+  return `${fixed(percentA, d)}:${fixed(100 - percentA, d)}`;
+}
+
+/** Signed number with an explicit plus for positive values (for signed differentials). */
+export function signed(value: number, decimals: number): string {
+  const text = fixed(value, decimals);
+  return value > 0 && !/^0(\.0*)?$/.test(text) ? `+${text}` : text;
+}
