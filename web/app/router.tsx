@@ -4,6 +4,7 @@ import { HomeRoute } from './routes/home';
 import { NotFoundRoute } from './routes/not-found';
 import { RouteErrorBoundary } from './routes/route-error';
 import { ApiDocsRoute } from './routes/api-docs';
+import { CalculatorsRoute } from './routes/calculators';
 import { paths } from '../config/paths';
 
 export const routes: RouteObject[] = [
@@ -13,6 +14,7 @@ export const routes: RouteObject[] = [
     children: [
       { path: paths.home.path, element: <HomeRoute /> },
       { path: paths.apiDocs.path, element: <ApiDocsRoute /> },
+      { path: paths.calculators.path, element: <CalculatorsRoute /> },
       { path: '*', element: <NotFoundRoute /> },
     ],
   },

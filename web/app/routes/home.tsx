@@ -39,6 +39,13 @@ export function HomeRoute() {
         <SafetyCaution />
       </div>
       <p className="mt-6 text-sm text-ink-600">
+        Try it without signing in: the{' '}
+        <Link className="text-fjord-700 underline" to={paths.calculators.getHref()}>
+          selectivity calculators
+        </Link>{' '}
+        forecast from one observation and fit a pasted screen.
+      </p>
+      <p className="mt-2 text-sm text-ink-600">
         Machine access: the computation API is described in the <Link className="text-fjord-700 underline" to={paths.apiDocs.getHref()}>API reference</Link>.
       </p>
     </Page>

@@ -1,0 +1,50 @@
+import { useId } from 'react';
+import { inputClass, Segmented } from './fields';
+
+/** y-axis choice (ee % or % A) and an optional specification in the same unit. */
+export function ChartControls({
+  name,
+  measure,
+  onMeasure,
+  spec,
+  onSpec,
+}: {
+  name: string;
+  measure: 'ee' | 'percentA';
+  onMeasure: (m: 'ee' | 'percentA') => void;
+  spec: string;
+  onSpec: (s: string) => void;
+}) {
+  const id = useId();
+  return (
+    <div className="flex flex-wrap items-end gap-4">
+      <Segmented
+        legend="Plot"
+        name={`${name}-axis`}
+        value={measure}
+        onChange={onMeasure}
+        options={[
+          { value: 'ee', label: 'ee %' },
+          { value: 'percentA', label: '% A' },
+        ]}
+      />
+      <div className="flex flex-col gap-1">
+        <label htmlFor={id} className="text-xs font-medium text-ink-700">
+          Specification (optional)
+        </label>
+        <div className="flex items-center gap-1.5">
+          <input id={id} inputMode="decimal" className={`${inputClass} w-20`} value={spec} onChange={(e) => onSpec(e.target.value)} placeholder="e.g. 99" />
+          <span className="text-sm text-ink-600">{measure === 'ee' ? '% ee' : '% A'}</span>
+        </div>
+      </div>
+    </div>
+  );
+}
+
+/** A specification as typed, or null when empty or not a number in range. */
+export function parseSpec(text: string): number | null {
+  const t = text.trim().replace(',', '.');
+  if (t === '') return null;
+  const v = Number(t);
+  return Number.isFinite(v) && v > -100 && v <= 100 ? v : null;
+}

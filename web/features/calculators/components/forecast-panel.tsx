@@ -1,0 +1,98 @@
+import { useState } from 'react';
+import { Panel } from '../../../components/ui/page';
+import { SafetyCaution } from '../../../components/ui/caution';
+import { SelectivityChart } from '../../../components/charts/selectivity-chart';
+import { ApiError, type FieldError } from '../../../lib/api-client';
+import { fixed } from '../../../lib/format';
+import { useForecast } from '../api/post-forecast';
+import { apiFieldErrors, unmatchedErrors } from '../lib/field-errors';
+import { initialForecastForm, toForecastRequest, type ForecastFormState } from '../lib/forecast-form';
+import { ChartControls, parseSpec } from './chart-controls';
+import { ProblemAlert } from './fields';
+import { ForecastForm, forecastFieldPaths } from './forecast-form';
+import { ForecastTable } from './forecast-table';
+import type { ForecastRequest } from '../../../../api/features/compute/schemas';
+
+/** Forecast panel: a basis and a range in, a chart and a table out. */
+export function ForecastPanel() {
+  const [form, setForm] = useState<ForecastFormState>(initialForecastForm);
+  const [request, setRequest] = useState<ForecastRequest | null>(null);
+  const [clientErrors, setClientErrors] = useState<FieldError[]>([]);
+  const [measure, setMeasure] = useState<'ee' | 'percentA'>('ee');
+  const [specText, setSpecText] = useState('99');
+  const query = useForecast(request);
+
+  const serverErrors = apiFieldErrors(query.error);
+  const errors = clientErrors.length ? clientErrors : serverErrors;
+  const leftover = unmatchedErrors(errors, forecastFieldPaths);
+  const spec = parseSpec(specText);
+  const data = query.data;
+  const range = data && data.points.length ? [data.points[0].celsius, data.points[data.points.length - 1].celsius] : null;
+
+  const submit = () => {
+    const { request: next, errors: found } = toForecastRequest(form);
+    setClientErrors(found);
+    if (next) setRequest(next);
+  };
+
+  return (
+    <Panel title="Forecast selectivity across temperature">
+      <div className="grid gap-6 lg:grid-cols-[minmax(0,22rem)_minmax(0,1fr)]">
+        <div className="flex flex-col gap-3">
+          <ForecastForm form={form} onChange={(patch) => setForm((f) => ({ ...f, ...patch }))} onSubmit={submit} errors={errors} busy={query.isFetching} />
+          {query.error && !clientErrors.length && (
+            <ProblemAlert
+              title={query.error instanceof ApiError ? query.error.problem.title : 'The forecast failed'}
+              detail={query.error.message}
+              errors={leftover}
+            />
+          )}
+          {clientErrors.length > 0 && leftover.length > 0 && <ProblemAlert title="Check the inputs" errors={leftover} />}
+        </div>
+
+        <div className="flex min-w-0 flex-col gap-3" aria-live="polite">
+          {!data && !query.isFetching && (
+            <p className="rounded border border-dashed border-slate-300 px-3 py-6 text-center text-sm text-ink-500">
+              Enter a basis and a range, then press Forecast.
+            </p>
+          )}
+          {data && (
+            <>
+              <ChartControls name="forecast" measure={measure} onMeasure={setMeasure} spec={specText} onSpec={setSpecText} />
+              <div className={query.isPlaceholderData ? 'opacity-60' : ''}>
+                <SelectivityChart
+                  title={`Forecast ${measure === 'ee' ? 'ee' : '% A'} against temperature`}
+                  curve={data.points}
+                  measure={measure}
+                  spec={spec}
+                />
+              </div>
+              {data.zeroSelectivity && (
+                <p className="tnum rounded border border-slate-200 bg-slate-50 px-3 py-2 text-sm text-ink-800">
+                  <span className="font-medium">Selectivity vanishes</span> at {fixed(data.zeroSelectivity.celsius, 0)} °C ({fixed(data.zeroSelectivity.kelvin, 0)} K)
+                  {range && (data.zeroSelectivity.celsius < range[0] || data.zeroSelectivity.celsius > range[1]) ? (
+                    <span className="ml-1 font-medium text-caution-700">— far outside the range forecast here: an extrapolation.</span>
+                  ) : null}{' '}
+                  <span className="text-ink-600">{data.zeroSelectivity.note}</span>
+                </p>
+              )}
+              <ForecastTable points={data.points} spec={spec !== null ? { value: spec, measure } : null} />
+              {data.assumptions.length > 0 && (
+                <div className="text-xs text-ink-600">
+                  <p className="font-medium text-ink-800">Assumptions</p>
+                  <ul className="list-disc pl-5">
+                    {data.assumptions.map((a) => (
+                      <li key={a}>{a}</li>
+                    ))}
+                  </ul>
+                </div>
+              )}
+              <p className="text-xs text-ink-600">{data.convention}</p>
+              <SafetyCaution compact />
+            </>
+          )}
+        </div>
+      </div>
+    </Panel>
+  );
+}

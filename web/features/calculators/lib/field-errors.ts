@@ -1,0 +1,33 @@
+import type { z } from 'zod';
+import { ApiError, type FieldError } from '../../../lib/api-client';
+
+/** "measurements[3].selectivity" and "measurements.3.selectivity" are the same path. */
+export function normalisePath(path: string): string {
+  return path.replace(/\[(\d+)\]/g, '.$1').replace(/^\./, '');
+}
+
+/** Zod issues as field errors with dotted paths, the same shape the API answers with. */
+export function zodFieldErrors(error: z.ZodError): FieldError[] {
+  return error.issues.map((issue) => ({ path: issue.path.map(String).join('.'), message: issue.message }));
+}
+
+/** Messages for one field: errors at exactly `path` or nested below it. */
+export function messagesFor(errors: FieldError[], path: string): string[] {
+  return errors.filter((e) => {
+    const p = normalisePath(e.path);
+    return p === path || p.startsWith(`${path}.`);
+  }).map((e) => e.message);
+}
+
+/** Errors that belong to none of the given field paths (shown in a general alert). */
+export function unmatchedErrors(errors: FieldError[], fieldPaths: string[]): FieldError[] {
+  return errors.filter((e) => {
+    const p = normalisePath(e.path);
+    return !fieldPaths.some((f) => p === f || p.startsWith(`${f}.`));
+  });
+}
+
+/** Field errors carried by an API error (empty for anything else). */
+export function apiFieldErrors(error: unknown): FieldError[] {
+  return error instanceof ApiError ? error.fieldErrors : [];
+}
