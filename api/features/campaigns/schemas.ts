@@ -1,0 +1,296 @@
+/**
+ * Campaign, measurement, saved-forecast and import-mapping schemas, shared by the API and the
+ * web client. zod and the pure engine constants only: nothing here may reach the server runtime.
+ * The database repeats the numeric limits as CHECK constraints (migrations/20261201020000_*).
+ */
+import { z } from 'zod';
+import { SELECTIVITY_MEASURES, type SelectivityMeasure } from '../../science/selectivity';
+import { TEMPERATURE_UNITS, type TemperatureUnit } from '../../science/units';
+
+export { SELECTIVITY_MEASURES, TEMPERATURE_UNITS };
+export type { SelectivityMeasure, TemperatureUnit };
+
+export const ASSAY_METHODS = ['chiral-hplc', 'chiral-sfc', 'chiral-gc', 'nmr', 'other'] as const;
+export type AssayMethod = (typeof ASSAY_METHODS)[number];
+
+export const CAMPAIGN_STATUSES = ['planned', 'active', 'completed', 'archived'] as const;
+export type CampaignStatus = (typeof CAMPAIGN_STATUSES)[number];
+
+export const TIME_UNITS = ['s', 'min', 'h'] as const;
+export type TimeUnit = (typeof TIME_UNITS)[number];
+
+/** Highest temperature accepted anywhere (K); no solution-phase screen runs near it. */
+export const MAX_TEMPERATURE_K = 1000;
+const CELSIUS_OFFSET_K = 273.15;
+const SECONDS_PER: Record<TimeUnit, number> = { s: 1, min: 60, h: 3600 };
+
+/** T in kelvin from a value and unit (same definitions as the engine's temperatureToK, without throwing). */
+export function toKelvin(value: number, unit: TemperatureUnit): number {
+  // Rounded to 1e-9 K so that −50 °C is stored as 223.15, not 223.14999999999998.
+  const snap = (k: number) => Math.round(k * 1e9) / 1e9;
+  if (unit === 'C') return snap(value + CELSIUS_OFFSET_K);
+  if (unit === 'F') return snap(((value - 32) * 5) / 9 + CELSIUS_OFFSET_K);
+  return value;
+}
+
+export function toSeconds(value: number, unit: TimeUnit): number {
+  return value * SECONDS_PER[unit];
+}
+
+const UNIT_LABEL: Record<TemperatureUnit, string> = { K: 'K', C: '°C', F: '°F' };
+
+const finite = (what: string) => z.number({ error: `${what} must be a number` }).refine(Number.isFinite, `${what} must be a finite number`);
+
+/** `{ value, unit }` in, checked to lie above 0 K and at most 1000 K. */
+export const temperatureInputSchema = z
+  .object({
+    value: finite('temperature'),
+    unit: z.enum(TEMPERATURE_UNITS, { error: 'unit must be K, C or F' }),
+  })
+  .superRefine((t, ctx) => {
+    const k = toKelvin(t.value, t.unit);
+    if (!(k > 0)) ctx.addIssue({ code: 'custom', path: ['value'], message: `${t.value} ${UNIT_LABEL[t.unit]} is at or below absolute zero` });
+    else if (k > MAX_TEMPERATURE_K) ctx.addIssue({ code: 'custom', path: ['value'], message: `${t.value} ${UNIT_LABEL[t.unit]} is above ${MAX_TEMPERATURE_K} K` });
+  });
+export type TemperatureInput = z.infer<typeof temperatureInputSchema>;
+
+export const reactionTimeInputSchema = z.object({
+  value: finite('reaction time').refine((v) => v >= 0, 'reaction time must not be negative'),
+  unit: z.enum(TIME_UNITS, { error: 'unit must be s, min or h' }),
+});
+
+const PAIR = /^\s*(\d+(?:\.\d*)?|\.\d+)\s*:\s*(\d+(?:\.\d*)?|\.\d+)\s*$/;
+
+/** Split "a:b" into its parts, or null when the text is not such a pair. */
+export function parseRatioPair(text: string): { a: number; b: number } | null {
+  const m = PAIR.exec(text);
+  return m ? { a: Number(m[1]), b: Number(m[2]) } : null;
+}
+
+/**
+ * Check a selectivity value against its measure; returns a message, or null when it is acceptable.
+ * Shared by the zod schema and the file import so both say the same thing.
+ */
+export function selectivityProblem(measure: SelectivityMeasure, value: number | string): string | null {
+  if (typeof value === 'string') {
+    if (measure === 'ee' || measure === 'percentA') return `${measure} must be a number, not "${value}"`;
+    const pair = parseRatioPair(value);
+    if (!pair) return `"${value}" is not a ratio; write it as a:b, e.g. 95:5`;
+    if (!(pair.a > 0 && pair.b > 0)) return `both parts of ${measure} ${value} must be greater than zero (a zero part means an infinite energy gap; report the detection limit instead)`;
+    return null;
+  }
+  if (!Number.isFinite(value)) return `${measure} must be a finite number`;
+  switch (measure) {
+    case 'ee':
+      if (Math.abs(value) > 100) return `ee ${value} % is outside −100 to 100 %`;
+      if (Math.abs(value) === 100) return 'ee of ±100 % implies an infinite energy gap; enter the detection limit (e.g. 99.8) and mark it as a lower bound';
+      return null;
+    case 'percentA':
+    case 'er':
+      if (value <= 0 || value >= 100) return `${measure === 'er' ? 'er given as one number (the share of A)' : 'percent A'} must lie strictly between 0 and 100, got ${value}`;
+      return null;
+    default:
+      if (value <= 0) return `${measure} must be greater than zero, got ${value}`;
+      return null;
+  }
+}
+
+/**
+ * A reported selectivity, as in the stateless API: `value` is a number, or "a:b" for er, dr and ratio.
+ * `atLeast` marks a bound (e.g. ≥ 99.8 % ee at the assay's quantitation limit).
+ */
+export const selectivityInputSchema = z
+  .object({
+    measure: z.enum(SELECTIVITY_MEASURES, { error: `measure must be one of ${SELECTIVITY_MEASURES.join(', ')}` }),
+    value: z.union([z.number(), z.string().trim().min(1).max(40)], { error: 'value must be a number or a ratio "a:b"' }),
+    atLeast: z.boolean().optional(),
+  })
+  .superRefine((s, ctx) => {
+    const problem = selectivityProblem(s.measure, s.value);
+    if (problem) ctx.addIssue({ code: 'custom', path: ['value'], message: problem });
+  });
+export type SelectivityInputBody = z.infer<typeof selectivityInputSchema>;
+
+const optionalText = (max: number) =>
+  z
+    .string()
+    .trim()
+    .max(max, `at most ${max} characters`)
+    .transform((s) => (s === '' ? null : s))
+    .nullable()
+    .optional();
+
+const uncertaintySchema = finite('uncertainty').refine((v) => v >= 0 && v < 100, 'uncertainty must be at least 0 and below 100');
+
+// ── Campaigns ──────────────────────────────────────────────────────────────────────────────
+
+const campaignFields = {
+  title: z.string().trim().min(1, 'title is required').max(200, 'at most 200 characters'),
+  reactionDescription: optionalText(4000),
+  productAName: z.string().trim().min(1, 'name product A').max(100, 'at most 100 characters'),
+  productBName: z.string().trim().min(1, 'name product B').max(100, 'at most 100 characters'),
+  measure: z.enum(SELECTIVITY_MEASURES, { error: `measure must be one of ${SELECTIVITY_MEASURES.join(', ')}` }),
+  assayMethod: z.enum(ASSAY_METHODS, { error: `assayMethod must be one of ${ASSAY_METHODS.join(', ')}` }),
+  defaultUncertainty: uncertaintySchema.nullable().optional(),
+  status: z.enum(CAMPAIGN_STATUSES, { error: `status must be one of ${CAMPAIGN_STATUSES.join(', ')}` }),
+  notes: optionalText(10000),
+};
+
+export const campaignCreateSchema = z.strictObject({
+  ...campaignFields,
+  productAName: campaignFields.productAName.default('A'),
+  productBName: campaignFields.productBName.default('B'),
+  status: campaignFields.status.default('active'),
+});
+export type CampaignCreate = z.infer<typeof campaignCreateSchema>;
+
+/** A partial update; `version` is the version the client last read (optimistic concurrency). */
+export const versionSchema = z.number({ error: 'version is required' }).int('version must be an integer').min(1, 'version must be at least 1');
+
+export const campaignUpdateSchema = z
+  .strictObject({
+    version: versionSchema,
+    title: campaignFields.title.optional(),
+    reactionDescription: campaignFields.reactionDescription,
+    productAName: campaignFields.productAName.optional(),
+    productBName: campaignFields.productBName.optional(),
+    measure: campaignFields.measure.optional(),
+    assayMethod: campaignFields.assayMethod.optional(),
+    defaultUncertainty: campaignFields.defaultUncertainty,
+    status: campaignFields.status.optional(),
+    notes: campaignFields.notes,
+  })
+  .refine((u) => Object.keys(u).some((k) => k !== 'version'), { message: 'nothing to change', path: [] });
+export type CampaignUpdate = z.infer<typeof campaignUpdateSchema>;
+
+// ── Measurements ───────────────────────────────────────────────────────────────────────────
+
+const measurementFields = {
+  temperature: temperatureInputSchema,
+  selectivity: selectivityInputSchema,
+  uncertainty: uncertaintySchema.nullable().optional(),
+  replicateLabel: optionalText(40),
+  sampleId: optionalText(100),
+  conversionPercent: finite('conversion').refine((v) => v >= 0 && v <= 100, 'conversion must lie between 0 and 100 %').nullable().optional(),
+  reactionTime: reactionTimeInputSchema.nullable().optional(),
+  notes: optionalText(2000),
+};
+
+export const measurementCreateSchema = z.strictObject(measurementFields);
+export type MeasurementCreate = z.infer<typeof measurementCreateSchema>;
+
+export const measurementUpdateSchema = z
+  .strictObject({
+    version: versionSchema,
+    temperature: measurementFields.temperature.optional(),
+    selectivity: measurementFields.selectivity.optional(),
+    uncertainty: measurementFields.uncertainty,
+    replicateLabel: measurementFields.replicateLabel,
+    sampleId: measurementFields.sampleId,
+    conversionPercent: measurementFields.conversionPercent,
+    reactionTime: measurementFields.reactionTime,
+    notes: measurementFields.notes,
+  })
+  .refine((u) => Object.keys(u).some((k) => k !== 'version'), { message: 'nothing to change', path: [] });
+export type MeasurementUpdate = z.infer<typeof measurementUpdateSchema>;
+
+/** Exclude a point from fits (with a reason, always) or bring it back. */
+export const measurementExclusionSchema = z.discriminatedUnion(
+  'excluded',
+  [
+    z.strictObject({ version: versionSchema, excluded: z.literal(true), reason: z.string().trim().min(3, 'give a reason (at least 3 characters)').max(500, 'at most 500 characters') }),
+    z.strictObject({ version: versionSchema, excluded: z.literal(false) }),
+  ],
+  { error: 'excluded must be true (with a reason) or false' },
+);
+export type MeasurementExclusion = z.infer<typeof measurementExclusionSchema>;
+
+/** A version-checked delete. */
+export const versionedDeleteSchema = z.strictObject({ version: versionSchema });
+
+// ── Saved forecasts ────────────────────────────────────────────────────────────────────────
+
+/** What a client sends to save a forecast; the route computes `result` with the engine. */
+export const savedForecastCreateSchema = z.strictObject({
+  temperature: temperatureInputSchema,
+  label: optionalText(200),
+  notes: optionalText(2000),
+});
+export type SavedForecastCreate = z.infer<typeof savedForecastCreateSchema>;
+
+// ── File import ────────────────────────────────────────────────────────────────────────────
+
+/** Fields a file column can be mapped to. */
+export const IMPORT_FIELDS = [
+  'temperature',
+  'temperatureUnit',
+  'measure',
+  'value',
+  'uncertainty',
+  'sampleId',
+  'replicateLabel',
+  'conversionPercent',
+  'reactionTime',
+  'notes',
+] as const;
+export type ImportField = (typeof IMPORT_FIELDS)[number];
+
+/** A column, by 0-based index or by its header text (matched ignoring case and surrounding spaces). */
+export const columnRefSchema = z.union([z.number().int().min(0, 'column index must be 0 or more'), z.string().trim().min(1).max(200)]);
+export type ColumnRef = z.infer<typeof columnRefSchema>;
+
+export const importMappingSchema = z
+  .strictObject({
+    columns: z.strictObject({
+      temperature: columnRefSchema,
+      temperatureUnit: columnRefSchema.optional(),
+      measure: columnRefSchema.optional(),
+      value: columnRefSchema,
+      uncertainty: columnRefSchema.optional(),
+      sampleId: columnRefSchema.optional(),
+      replicateLabel: columnRefSchema.optional(),
+      conversionPercent: columnRefSchema.optional(),
+      reactionTime: columnRefSchema.optional(),
+      notes: columnRefSchema.optional(),
+    }),
+    /** Unit of the temperature column when no unit column is mapped. */
+    temperatureUnit: z.enum(TEMPERATURE_UNITS).optional(),
+    /** Measure of the value column when no measure column is mapped. */
+    measure: z.enum(SELECTIVITY_MEASURES).optional(),
+    timeUnit: z.enum(TIME_UNITS).default('h'),
+  })
+  .superRefine((m, ctx) => {
+    if (m.columns.temperatureUnit === undefined && m.temperatureUnit === undefined) {
+      ctx.addIssue({ code: 'custom', path: ['temperatureUnit'], message: 'map a unit column or choose the temperature unit (K, C or F)' });
+    }
+    if (m.columns.measure === undefined && m.measure === undefined) {
+      ctx.addIssue({ code: 'custom', path: ['measure'], message: 'map a measure column or choose the measure of the value column' });
+    }
+  });
+export type ImportMapping = z.infer<typeof importMappingSchema>;
+export type ImportMappingInput = z.input<typeof importMappingSchema>;
+
+/** Options that override what the parser detects. Sent as JSON beside the uploaded file. */
+export const importParseOptionsSchema = z.strictObject({
+  delimiter: z.enum([',', ';', '\t']).optional(),
+  decimalSeparator: z.enum(['.', ',']).optional(),
+  /** 1-based row of the header; 0 means the file has no header row. */
+  headerRow: z.number().int().min(0).max(100).optional(),
+  /** Worksheet name for workbooks; the first non-empty sheet otherwise. */
+  sheet: z.string().trim().min(1).max(100).optional(),
+});
+export type ImportParseOptions = z.infer<typeof importParseOptionsSchema>;
+
+export const importRequestSchema = z.strictObject({
+  mapping: importMappingSchema,
+  parse: importParseOptionsSchema.default({}),
+  /** The user has read the warnings of the preview and imports anyway. */
+  acknowledgeWarnings: z.boolean().default(false),
+});
+export type ImportRequest = z.infer<typeof importRequestSchema>;
+
+export const importPreviewRequestSchema = z.strictObject({
+  mapping: importMappingSchema.optional(),
+  parse: importParseOptionsSchema.default({}),
+});
+export type ImportPreviewRequest = z.infer<typeof importPreviewRequestSchema>;

@@ -1,0 +1,42 @@
+import objection from 'objection';
+import type { AssayMethod, CampaignStatus, SelectivityMeasure } from '../features/campaigns/schemas';
+import { Measurement } from './measurement';
+import { SavedForecast } from './saved-forecast';
+
+/** A temperature screen of one reaction: the measurements fitted together in one Eyring analysis. */
+export class Campaign extends objection.Model {
+  static override tableName = 'campaigns';
+
+  declare id: string;
+  declare projectId: string;
+  declare title: string;
+  declare reactionDescription: string | null;
+  declare productAName: string;
+  declare productBName: string;
+  declare measure: SelectivityMeasure;
+  declare assayMethod: AssayMethod;
+  declare defaultUncertainty: number | null;
+  declare status: CampaignStatus;
+  declare notes: string | null;
+  declare version: number;
+  declare createdByUserId: string | null;
+  declare createdAt: Date;
+  declare updatedAt: Date;
+
+  declare measurements?: Measurement[];
+  declare savedForecasts?: SavedForecast[];
+
+  // Join columns are camelCase because knexSnakeCaseMappers maps identifiers (STACK.md).
+  static override relationMappings = () => ({
+    measurements: {
+      relation: objection.Model.HasManyRelation,
+      modelClass: Measurement,
+      join: { from: 'campaigns.id', to: 'measurements.campaignId' },
+    },
+    savedForecasts: {
+      relation: objection.Model.HasManyRelation,
+      modelClass: SavedForecast,
+      join: { from: 'campaigns.id', to: 'savedForecasts.campaignId' },
+    },
+  });
+}

@@ -1,0 +1,40 @@
+import objection from 'objection';
+import type { SelectivityMeasure } from '../features/campaigns/schemas';
+import { Campaign } from './campaign';
+
+/** One selectivity result at one temperature. Temperatures are stored in kelvin. */
+export class Measurement extends objection.Model {
+  static override tableName = 'measurements';
+
+  declare id: string;
+  declare campaignId: string;
+  declare temperatureK: number;
+  declare measure: SelectivityMeasure;
+  /** The reported number; with `valueB` set, the pair value:valueB. */
+  declare value: number;
+  declare valueB: number | null;
+  declare isLowerBound: boolean;
+  declare uncertainty: number | null;
+  declare replicateLabel: string | null;
+  declare sampleId: string | null;
+  declare conversionPercent: number | null;
+  declare reactionTimeS: number | null;
+  declare excluded: boolean;
+  declare excludedReason: string | null;
+  declare notes: string | null;
+  declare sourceRow: number | null;
+  declare version: number;
+  declare createdByUserId: string | null;
+  declare createdAt: Date;
+  declare updatedAt: Date;
+
+  declare campaign?: Campaign;
+
+  static override relationMappings = () => ({
+    campaign: {
+      relation: objection.Model.BelongsToOneRelation,
+      modelClass: Campaign,
+      join: { from: 'measurements.campaignId', to: 'campaigns.id' },
+    },
+  });
+}
