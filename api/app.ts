@@ -10,6 +10,15 @@ import type { AppConfig } from './config';
 import { createLogger } from './lib/logger';
 import { notFoundHandler, problemHandler } from './lib/problem';
 import { healthRouter } from './features/health/routes';
+import { installAuth, type OAuthSetup } from './features/auth/setup';
+import { sessionRouter } from './features/auth/routes';
+import type { FakeOAuthProvider } from './features/auth/fake-provider';
+import { projectsRouter } from './features/projects/routes';
+import { invitationsRouter } from './features/invitations/routes';
+import { tokensRouter } from './features/tokens/routes';
+import { Mailbox } from './features/mail/mailbox';
+import { createInProcessMailer, createSmtpMailer, type Mailer } from './features/mail/mailer';
+import { mailboxRouter } from './features/mail/routes';
 
 export interface AppDeps {
   knex: Knex;
@@ -17,6 +26,22 @@ export interface AppDeps {
   logger?: Logger;
   /** Folder of the built web app; served with an SPA fallback when it exists. */
   webDist?: string | null;
+  /** Outgoing mail. Default: SMTP_URL when set, else straight into `mailbox`. */
+  mailer?: Mailer;
+  /** The development mailbox that the local SMTP sink fills (shown at /dev/mailbox when dev tools are on). */
+  mailbox?: Mailbox;
+  /** The local fake OAuth provider, used when GitHub credentials are not configured. */
+  fakeOAuth?: FakeOAuthProvider | null;
+}
+
+/** Real GitHub when credentials are configured, else the local fake provider (dev tools only), else no sign-in. */
+function oauthSetup(deps: AppDeps): OAuthSetup | null {
+  const { github, devTools } = deps.config;
+  if (github) return { provider: 'github', clientID: github.clientId, clientSecret: github.clientSecret };
+  if (devTools && deps.fakeOAuth) {
+    return { provider: 'local-demo', clientID: deps.fakeOAuth.clientId, clientSecret: deps.fakeOAuth.clientSecret, endpoints: deps.fakeOAuth.endpoints };
+  }
+  return null;
 }
 
 const defaultWebDist = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../dist/web');
@@ -47,8 +72,17 @@ export function createApp(deps: AppDeps): Express {
   app.use(pinoHttp({ logger, autoLogging: { ignore: (req) => req.url === '/api/health' } }));
   app.use(express.json({ limit: '1mb' }));
 
+  const mailbox = deps.mailbox ?? new Mailbox();
+  const mailer = deps.mailer ?? (deps.config.smtpUrl ? createSmtpMailer(deps.config.smtpUrl, deps.config.mailFrom) : createInProcessMailer(mailbox, deps.config.mailFrom));
+  installAuth(app, { knex: deps.knex, config: deps.config, oauth: oauthSetup(deps) });
+  if (deps.config.devTools) app.use(mailboxRouter({ mailbox, realSmtp: Boolean(deps.config.smtpUrl) }));
+
   const api = Router();
   api.use(healthRouter({ knex: deps.knex, version: deps.config.version }));
+  api.use('/v1', sessionRouter({ config: deps.config }));
+  api.use('/v1', projectsRouter({ knex: deps.knex, config: deps.config, mailer }));
+  api.use('/v1', invitationsRouter({ knex: deps.knex }));
+  api.use('/v1', tokensRouter({ config: deps.config }));
   api.use('/{*splat}', notFoundHandler);
   app.use('/api', api);
 

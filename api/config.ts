@@ -9,7 +9,24 @@ export interface AppConfig {
   sessionSecret: string;
   github: { clientId: string; clientSecret: string } | null;
   smtpUrl: string | null;
+  /** Sender address of invitation e-mail. */
+  mailFrom: string;
+  /**
+   * Development-only tools: the local fake OAuth provider and the mailbox page.
+   * EYRIE_DEV_TOOLS=1 (set by npm start) or the test environment; never keyed off NODE_ENV alone.
+   */
+  devTools: boolean;
+  /** Requests allowed per client per window on the sign-in and API-token endpoints. */
+  rateLimit: { windowMs: number; signIn: number; tokens: number };
   version: string;
+}
+
+function readPositiveInt(name: string, fallback: number): number {
+  const raw = process.env[name];
+  if (raw === undefined || raw === '') return fallback;
+  const n = Number(raw);
+  if (!Number.isInteger(n) || n < 1) throw new Error(`${name} must be a positive whole number, got "${raw}"`);
+  return n;
 }
 
 function readPort(name: string, fallback: number): number {
@@ -39,7 +56,14 @@ export function loadConfig(overrides: Partial<AppConfig> = {}): AppConfig {
     databaseUrl: env.DATABASE_URL ?? '',
     sessionSecret: env.SESSION_SECRET ?? 'eyrie-local-development-secret-change-me',
     github,
-    smtpUrl: env.SMTP_URL ?? null,
+    smtpUrl: env.SMTP_URL || null,
+    mailFrom: env.MAIL_FROM ?? 'Eyrie <eyrie@localhost>',
+    devTools: env.EYRIE_DEV_TOOLS === '1' || env.EYRIE_DEV_TOOLS === 'true' || nodeEnv === 'test',
+    rateLimit: {
+      windowMs: 15 * 60_000,
+      signIn: readPositiveInt('EYRIE_SIGN_IN_LIMIT', 30),
+      tokens: readPositiveInt('EYRIE_TOKEN_LIMIT', 30),
+    },
     version: env.npm_package_version ?? '0.1.0',
     ...overrides,
   };

@@ -4,12 +4,35 @@ import { createApp } from './app';
 import { loadConfig } from './config';
 import { bindModels, createKnex } from './db/knex';
 import { createLogger } from './lib/logger';
+import { Mailbox } from './features/mail/mailbox';
+import { createSmtpMailer } from './features/mail/mailer';
+import { startSmtpSink, type SmtpSink } from './features/mail/smtp-sink';
+import { startFakeOAuthProvider, type FakeOAuthProvider } from './features/auth/fake-provider';
 
 const config = loadConfig();
 const logger = createLogger();
 const knex = createKnex(config.databaseUrl);
 bindModels(knex);
-const app = createApp({ knex, config, logger });
+
+// Without SMTP_URL, mail goes to a loopback SMTP sink whose messages the dev mailbox shows.
+const mailbox = new Mailbox();
+let smtpSink: SmtpSink | null = null;
+if (!config.smtpUrl) {
+  smtpSink = await startSmtpSink(mailbox, { port: Number(process.env.EYRIE_SMTP_PORT ?? 0) });
+  logger.info({ smtp: smtpSink.url }, 'local SMTP sink listening (messages at /dev/mailbox)');
+}
+const mailer = createSmtpMailer(config.smtpUrl ?? smtpSink!.url, config.mailFrom);
+
+// Without GitHub credentials, sign-in goes through the local fake OAuth provider (dev tools only).
+let fakeOAuth: FakeOAuthProvider | null = null;
+if (!config.github && config.devTools) {
+  fakeOAuth = await startFakeOAuthProvider({ port: Number(process.env.EYRIE_OAUTH_PORT ?? 0) });
+  logger.info({ url: fakeOAuth.url }, 'local OAuth provider listening');
+} else if (!config.github) {
+  logger.warn('GITHUB_CLIENT_ID/GITHUB_CLIENT_SECRET are not set and dev tools are off: nobody can sign in');
+}
+
+const app = createApp({ knex, config, logger, mailer, mailbox, fakeOAuth });
 
 const server: Server = app.listen(config.port, config.host);
 server.on('listening', () => {
@@ -33,6 +56,7 @@ async function shutdown(signal: string) {
   const force = setTimeout(() => process.exit(1), 10_000);
   force.unref();
   server.close(async () => {
+    await Promise.allSettled([smtpSink?.close(), fakeOAuth?.close()]);
     await knex.destroy();
     process.exit(0);
   });

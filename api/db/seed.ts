@@ -1,11 +1,12 @@
 import type { Knex } from 'knex';
-import { DEMO_IDENTITIES } from './demo';
+import { DEMO_IDENTITIES, DEMO_PROJECTS } from './demo';
+import { seedDemoProjects } from './seed-projects';
 
 /**
  * Seed the invented demo scenario. Idempotent: running it twice changes
  * nothing the first run made, and never touches rows users created.
  */
-export async function seedDemo(knex: Knex): Promise<{ users: number }> {
+export async function seedDemo(knex: Knex): Promise<{ users: number; projects: number }> {
   return knex.transaction(async (trx) => {
     for (const who of DEMO_IDENTITIES) {
       await trx('users')
@@ -13,6 +14,7 @@ export async function seedDemo(knex: Knex): Promise<{ users: number }> {
         .onConflict(['provider', 'provider_user_id'])
         .ignore();
     }
-    return { users: DEMO_IDENTITIES.length };
+    await seedDemoProjects(trx);
+    return { users: DEMO_IDENTITIES.length, projects: DEMO_PROJECTS.length };
   });
 }

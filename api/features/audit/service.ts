@@ -1,0 +1,88 @@
+import type { Knex } from 'knex';
+
+export interface AuditEventInput {
+  projectId: string;
+  actorUserId: string;
+  action: 'create' | 'update' | 'delete';
+  entityType: string;
+  entityId: string;
+  before: unknown;
+  after: unknown;
+}
+
+/** Dates and other non-JSON values become their JSON form before they reach jsonb. */
+function toJson(value: unknown): string | null {
+  if (value === undefined || value === null) return null;
+  return JSON.stringify(value);
+}
+
+/**
+ * Record one change to project data. Pass the transaction that makes the change,
+ * so the change and its history commit or roll back together.
+ */
+export async function recordAudit(db: Knex | Knex.Transaction, event: AuditEventInput): Promise<void> {
+  await db('audit_events').insert({
+    projectId: event.projectId,
+    actorUserId: event.actorUserId,
+    action: event.action,
+    entityType: event.entityType,
+    entityId: event.entityId,
+    before: toJson(event.before),
+    after: toJson(event.after),
+  });
+}
+
+export interface AuditEventView {
+  id: number;
+  at: string;
+  action: 'create' | 'update' | 'delete';
+  entityType: string;
+  entityId: string;
+  actor: { id: string; login: string; displayName: string | null } | null;
+  before: unknown;
+  after: unknown;
+}
+
+interface AuditRow {
+  id: number;
+  createdAt: Date;
+  action: AuditEventView['action'];
+  entityType: string;
+  entityId: string;
+  before: unknown;
+  after: unknown;
+  actorUserId: string | null;
+  login: string;
+  displayName: string | null;
+}
+
+/** A project's history, newest first, in pages of `limit` before the event id `before`. */
+export async function listAuditEvents(
+  db: Knex,
+  projectId: string,
+  page: { limit: number; before?: number },
+): Promise<{ events: AuditEventView[]; nextBefore: number | null }> {
+  const rows: AuditRow[] = await db('audit_events as e')
+    .leftJoin('users as u', 'u.id', 'e.actorUserId')
+    .where('e.projectId', projectId)
+    .modify((q) => {
+      if (page.before !== undefined) q.where('e.id', '<', page.before);
+    })
+    .orderBy('e.id', 'desc')
+    .limit(page.limit + 1)
+    .select('e.id', 'e.createdAt', 'e.action', 'e.entityType', 'e.entityId', 'e.before', 'e.after', 'e.actorUserId', 'u.login', 'u.displayName');
+  const more = rows.length > page.limit;
+  const events = rows.slice(0, page.limit).map(
+    (r: AuditRow): AuditEventView => ({
+      id: r.id,
+      at: new Date(r.createdAt).toISOString(),
+      action: r.action,
+      entityType: r.entityType,
+      entityId: r.entityId,
+      actor: r.actorUserId ? { id: r.actorUserId, login: r.login, displayName: r.displayName } : null,
+      before: r.before,
+      after: r.after,
+    }),
+  );
+  return { events, nextBefore: more ? events[events.length - 1].id : null };
+}

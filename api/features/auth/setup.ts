@@ -1,0 +1,160 @@
+import express, { type Express, type NextFunction, type Request, type RequestHandler, type Response } from 'express';
+import session from 'express-session';
+import connectPgSimple from 'connect-pg-simple';
+import passport from 'passport';
+import { Strategy as GitHubStrategy, type Profile, type StrategyOptions } from 'passport-github2';
+import { rateLimit, ipKeyGenerator } from 'express-rate-limit';
+import type { Knex } from 'knex';
+import type { AppConfig } from '../../config';
+import { TooManyRequestsError } from '../../lib/errors';
+import { User } from '../../models/user';
+import { bearerAuth, csrfGuard, hasBearer } from './middleware';
+import { upsertProviderUser } from './users';
+
+declare module 'express-session' {
+  interface SessionData {
+    returnTo?: string;
+  }
+}
+
+/** Where passport-github2 sends people: the real GitHub, or the local fake provider. */
+export interface OAuthSetup {
+  provider: 'github' | 'local-demo';
+  clientID: string;
+  clientSecret: string;
+  /** Absent for the real GitHub (the strategy's defaults). */
+  endpoints?: { authorizationURL: string; tokenURL: string; userProfileURL: string; userEmailURL: string };
+}
+
+export const SESSION_COOKIE = 'eyrie.sid';
+const SESSION_MAX_AGE_MS = 14 * 86_400_000;
+
+/** connect-pg-simple needs only `query(text, params)`; lend it knex's pool instead of opening a second one. */
+function knexPoolAdapter(knex: Knex) {
+  return {
+    async query(text: string, params: unknown[]) {
+      const conn = await knex.client.acquireConnection();
+      try {
+        return await conn.query(text, params);
+      } finally {
+        await knex.client.releaseConnection(conn);
+      }
+    },
+  };
+}
+
+/** Only same-site paths may be returned to after sign-in (no open redirects). */
+export function safeReturnTo(value: unknown): string | undefined {
+  if (typeof value !== 'string' || !value.startsWith('/') || value.startsWith('//') || value.includes('\\')) return undefined;
+  return value.slice(0, 500);
+}
+
+export function limiter(windowMs: number, limit: number, what: string, byUser = false): RequestHandler {
+  return rateLimit({
+    windowMs,
+    limit,
+    standardHeaders: 'draft-8',
+    legacyHeaders: false,
+    keyGenerator: (req) => (byUser && req.user ? `user:${req.user.id}` : ipKeyGenerator(req.ip ?? '')),
+    handler: (_req, _res, next) => next(new TooManyRequestsError(`Too many ${what} requests from you; wait a few minutes and try again.`)),
+  });
+}
+
+/**
+ * Everything that establishes who the caller is, in order: bearer tokens,
+ * then the session cookie (PostgreSQL-backed), then the CSRF check for
+ * cookie-authenticated writes. Also mounts the /auth sign-in routes.
+ */
+export function installAuth(app: Express, deps: { knex: Knex; config: AppConfig; oauth: OAuthSetup | null }) {
+  const { knex, config, oauth } = deps;
+  const PgStore = connectPgSimple(session);
+  const sessionMiddleware = session({
+    name: SESSION_COOKIE,
+    secret: config.sessionSecret,
+    store: new PgStore({
+      pool: knexPoolAdapter(knex) as never,
+      tableName: 'sessions',
+      pruneSessionInterval: config.nodeEnv === 'test' ? false : 900,
+    }),
+    resave: false,
+    saveUninitialized: false,
+    // Secure when the request came over TLS (directly or via a trusted loopback proxy); plain http on 127.0.0.1 still works.
+    cookie: { httpOnly: true, sameSite: 'lax', secure: 'auto', maxAge: SESSION_MAX_AGE_MS },
+  });
+
+  const authenticator = new passport.Passport();
+  authenticator.serializeUser((user, done) => done(null, (user as User).id));
+  authenticator.deserializeUser((id: string, done) => {
+    User.query()
+      .findById(id)
+      .then((user) => done(null, user ?? false), done);
+  });
+  if (oauth) {
+    authenticator.use(
+      'github',
+      new GitHubStrategy(
+        {
+          clientID: oauth.clientID,
+          clientSecret: oauth.clientSecret,
+          callbackURL: `${config.publicUrl}/auth/github/callback`,
+          scope: ['read:user', 'user:email'],
+          // The OAuth state parameter is kept in the session and checked on the callback (login CSRF).
+          state: true,
+          ...(oauth.endpoints ?? {}),
+        } as unknown as StrategyOptions,
+        (_accessToken: string, _refreshToken: string, profile: Profile, done: (err: unknown, user?: User) => void) => {
+          upsertProviderUser({
+            provider: oauth.provider,
+            providerUserId: profile.id,
+            login: profile.username ?? profile.id,
+            displayName: profile.displayName || null,
+            email: profile.emails?.[0]?.value ?? null,
+            avatarUrl: profile.photos?.[0]?.value ?? null,
+          }).then((user) => done(null, user), done);
+        },
+      ),
+    );
+  }
+
+  // Bearer requests never read or create a session.
+  const unlessBearer =
+    (mw: RequestHandler): RequestHandler =>
+    (req, res, next) =>
+      hasBearer(req.headers.authorization) ? next() : mw(req, res, next);
+  const markSession: RequestHandler = (req, _res, next) => {
+    if (req.user && !req.authMethod) req.authMethod = 'session';
+    next();
+  };
+  const scoped = ['/api', '/auth', '/dev'];
+  app.use(scoped, bearerAuth(knex), unlessBearer(sessionMiddleware), authenticator.initialize(), unlessBearer(authenticator.session()), markSession, csrfGuard);
+
+  const signInLimit = limiter(config.rateLimit.windowMs, config.rateLimit.signIn, 'sign-in');
+  const router = express.Router();
+  const signInFailed = (res: Response, reason: string) => res.redirect(303, `/sign-in?error=${encodeURIComponent(reason)}`);
+
+  router.get('/auth/github', signInLimit, (req: Request, res: Response, next: NextFunction) => {
+    if (!oauth) return void signInFailed(res, 'unavailable');
+    const returnTo = safeReturnTo(req.query.returnTo);
+    if (returnTo) req.session.returnTo = returnTo;
+    authenticator.authenticate('github')(req, res, next);
+  });
+
+  router.get('/auth/github/callback', signInLimit, (req: Request, res: Response, next: NextFunction) => {
+    if (!oauth) return void signInFailed(res, 'unavailable');
+    if (typeof req.query.error === 'string') return void signInFailed(res, 'denied');
+    authenticator.authenticate('github', (err: unknown, user: User | false) => {
+      if (err || !user) {
+        req.log?.warn({ err }, 'sign-in failed');
+        return void signInFailed(res, 'failed');
+      }
+      const returnTo = req.session.returnTo ?? '/projects';
+      // req.logIn regenerates the session: the id changes on sign-in (no fixation).
+      req.logIn(user, (loginErr) => {
+        if (loginErr) return next(loginErr);
+        res.redirect(303, returnTo);
+      });
+    })(req, res, next);
+  });
+
+  app.use(router);
+}

@@ -1,0 +1,36 @@
+import nodemailer from 'nodemailer';
+import type { Mailbox } from './mailbox';
+
+export interface OutgoingMail {
+  to: string;
+  subject: string;
+  text: string;
+}
+
+export interface Mailer {
+  send(mail: OutgoingMail): Promise<void>;
+}
+
+/** Send through an SMTP server: the local sink (smtp://127.0.0.1:port) or SMTP_URL. */
+export function createSmtpMailer(smtpUrl: string, from: string): Mailer {
+  const transport = nodemailer.createTransport(smtpUrl);
+  return {
+    async send(mail) {
+      await transport.sendMail({ from, ...mail });
+    },
+  };
+}
+
+/**
+ * Without any SMTP server (an app built in a test that needs no mail), messages
+ * are rendered by nodemailer exactly as for SMTP and filed straight into the mailbox.
+ */
+export function createInProcessMailer(mailbox: Mailbox, from: string): Mailer {
+  const transport = nodemailer.createTransport({ streamTransport: true, buffer: true });
+  return {
+    async send(mail) {
+      const info = await transport.sendMail({ from, ...mail });
+      mailbox.add(String(info.message), [mail.to]);
+    },
+  };
+}

@@ -1,0 +1,101 @@
+import { Router } from 'express';
+import type { Knex } from 'knex';
+import { z } from 'zod';
+import type { AppConfig } from '../../config';
+import { NotFoundError } from '../../lib/errors';
+import { requireUser } from '../auth/middleware';
+import { listAuditEvents } from '../audit/service';
+import { inviteToProject, listPendingInvitations, revokeInvitation } from '../invitations/service';
+import type { Mailer } from '../mail/mailer';
+import { authorizeProject, projectIdParam } from './policy';
+import { invitationSchema, memberRoleSchema, projectFieldsSchema, projectPatchSchema, uuidSchema } from './schemas';
+import { changeMemberRole, createProject, deleteProject, getProject, listMembers, listProjectsFor, removeMember, updateProject } from './service';
+
+const historyQuery = z.object({
+  limit: z.coerce.number({ error: 'limit must be a number.' }).int('limit must be a whole number.').min(1, 'limit must be at least 1.').max(200, 'limit may be at most 200.').default(50),
+  before: z.coerce.number({ error: 'before must be an event id.' }).int('before must be an event id.').positive('before must be an event id.').optional(),
+});
+
+const memberId = (value: unknown) => {
+  const raw = String(value);
+  if (!uuidSchema.safeParse(raw).success) throw new NotFoundError('This person is not a member of the project.');
+  return raw;
+};
+
+/**
+ * Projects, members, invitations and history. Each route names its minimum
+ * role once, through authorizeProject; handlers never check roles themselves.
+ */
+export function projectsRouter(deps: { knex: Knex; config: AppConfig; mailer: Mailer }): Router {
+  const { knex } = deps;
+  const router = Router();
+  const viewer = authorizeProject('viewer', projectIdParam);
+  const owner = authorizeProject('owner', projectIdParam);
+
+  router.get('/projects', requireUser, async (req, res) => {
+    res.json({ projects: await listProjectsFor(knex, req.user!.id) });
+  });
+
+  router.post('/projects', requireUser, async (req, res) => {
+    const fields = projectFieldsSchema.parse(req.body ?? {});
+    const project = await createProject(knex, req.user!.id, fields);
+    res.status(201).location(`/api/v1/projects/${project.id}`).json({ project });
+  });
+
+  router.get('/projects/:projectId', viewer, async (req, res) => {
+    res.json({ project: await getProject(knex, req.project!.id, req.project!.role) });
+  });
+
+  router.patch('/projects/:projectId', owner, async (req, res) => {
+    const patch = projectPatchSchema.parse(req.body ?? {});
+    res.json({ project: await updateProject(knex, req.user!.id, req.project!.id, patch, req.project!.role) });
+  });
+
+  router.delete('/projects/:projectId', owner, async (req, res) => {
+    await deleteProject(knex, req.user!.id, req.project!.id);
+    res.status(204).end();
+  });
+
+  router.get('/projects/:projectId/members', viewer, async (req, res) => {
+    res.json({ members: await listMembers(knex, req.project!.id), you: { userId: req.user!.id, role: req.project!.role } });
+  });
+
+  router.patch('/projects/:projectId/members/:userId', owner, async (req, res) => {
+    const { role } = memberRoleSchema.parse(req.body ?? {});
+    res.json({ member: await changeMemberRole(knex, req.user!.id, req.project!.id, memberId(req.params.userId), role) });
+  });
+
+  router.delete('/projects/:projectId/members/:userId', owner, async (req, res) => {
+    await removeMember(knex, req.user!.id, req.project!.id, memberId(req.params.userId));
+    res.status(204).end();
+  });
+
+  // Leaving needs only membership: any member may remove themselves (except the last owner).
+  router.delete('/projects/:projectId/membership', viewer, async (req, res) => {
+    await removeMember(knex, req.user!.id, req.project!.id, req.user!.id);
+    res.status(204).end();
+  });
+
+  router.get('/projects/:projectId/invitations', owner, async (req, res) => {
+    res.json({ invitations: await listPendingInvitations(knex, req.project!.id) });
+  });
+
+  router.post('/projects/:projectId/invitations', owner, async (req, res) => {
+    const input = invitationSchema.parse(req.body ?? {});
+    const invitation = await inviteToProject(knex, { mailer: deps.mailer, publicUrl: deps.config.publicUrl }, req.user!, req.project!.id, input);
+    res.status(201).json({ invitation });
+  });
+
+  router.delete('/projects/:projectId/invitations/:invitationId', owner, async (req, res) => {
+    if (!uuidSchema.safeParse(req.params.invitationId).success) throw new NotFoundError('This project has no pending invitation with this id.');
+    await revokeInvitation(knex, req.user!.id, req.project!.id, String(req.params.invitationId));
+    res.status(204).end();
+  });
+
+  router.get('/projects/:projectId/audit-events', owner, async (req, res) => {
+    const page = historyQuery.parse(req.query);
+    res.json(await listAuditEvents(knex, req.project!.id, page));
+  });
+
+  return router;
+}

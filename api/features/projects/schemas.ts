@@ -1,0 +1,38 @@
+import { z } from 'zod';
+
+/** Zod schemas shared by the API and the web forms. No server imports here. */
+export const projectRoles = ['viewer', 'editor', 'owner'] as const;
+export type ProjectRole = (typeof projectRoles)[number];
+export const projectRoleSchema = z.enum(projectRoles, { error: 'Choose owner, editor or viewer.' });
+
+/** How much each role may do; a higher rank includes everything below it. */
+export const roleRank: Record<ProjectRole, number> = { viewer: 1, editor: 2, owner: 3 };
+
+export const projectFieldsSchema = z.object({
+  name: z
+    .string({ error: 'Give the project a name.' })
+    .trim()
+    .min(1, 'Give the project a name.')
+    .max(120, 'Keep the name to 120 characters or fewer.'),
+  description: z.string({ error: 'The description must be text.' }).trim().max(2000, 'Keep the description to 2000 characters or fewer.').default(''),
+});
+export type ProjectFields = z.input<typeof projectFieldsSchema>;
+
+export const projectPatchSchema = projectFieldsSchema.partial().refine((v) => v.name !== undefined || v.description !== undefined, {
+  message: 'Send a name or a description to change.',
+});
+
+export const invitationSchema = z.object({
+  email: z
+    .string({ error: 'Enter an e-mail address.' })
+    .trim()
+    .min(1, 'Enter an e-mail address.')
+    .max(254, 'That address is too long.')
+    .pipe(z.email({ error: 'Enter a valid e-mail address, like name@example.org.' })),
+  role: projectRoleSchema,
+});
+export type InvitationFields = z.input<typeof invitationSchema>;
+
+export const memberRoleSchema = z.object({ role: projectRoleSchema });
+
+export const uuidSchema = z.uuid({ error: 'Not a valid id.' });

@@ -1,0 +1,19 @@
+import { randomBytes } from 'node:crypto';
+import type { ProjectRole } from '../../api/features/projects/schemas';
+import { Project } from '../../api/models/project';
+import { ProjectMember } from '../../api/models/project-member';
+import type { User } from '../../api/models/user';
+
+/** A project with the given members (roles as given); no audit rows, as if it predates the test. */
+export async function createProject(
+  members: { user: User; role: ProjectRole }[],
+  overrides: Partial<{ name: string; description: string }> = {},
+): Promise<Project> {
+  const project = await Project.query().insertAndFetch({
+    name: overrides.name ?? `Test project ${randomBytes(3).toString('hex')}`,
+    description: overrides.description ?? 'Made by a test.',
+    createdBy: members.find((m) => m.role === 'owner')?.user.id ?? null,
+  });
+  for (const m of members) await ProjectMember.query().insert({ projectId: project.id, userId: m.user.id, role: m.role });
+  return project;
+}
