@@ -72,7 +72,7 @@ export function toProblem(err: unknown): ProblemDetails {
       status: 422,
       detail: err.message,
       code: err.code,
-      errors: [{ path: err.field ?? '(body)', message: err.message }],
+      errors: [{ path: err.field ? err.field.replace(/\[(\d+)\]/g, '.$1') : '(body)', message: err.message }],
     };
   }
   if (err instanceof ValidationError) {
