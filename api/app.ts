@@ -9,6 +9,7 @@ import { fileURLToPath } from 'node:url';
 import type { AppConfig } from './config';
 import { createLogger } from './lib/logger';
 import { notFoundHandler, problemHandler } from './lib/problem';
+import { TooManyRequestsError } from './lib/errors';
 import { healthRouter } from './features/health/routes';
 import { installAuth, type OAuthSetup } from './features/auth/setup';
 import { sessionRouter } from './features/auth/routes';
@@ -19,6 +20,9 @@ import { tokensRouter } from './features/tokens/routes';
 import { Mailbox } from './features/mail/mailbox';
 import { createInProcessMailer, createSmtpMailer, type Mailer } from './features/mail/mailer';
 import { mailboxRouter } from './features/mail/routes';
+import { rateLimit } from 'express-rate-limit';
+import { computeRouter } from './features/compute/routes';
+import { docsRouter } from './features/docs/routes';
 
 export interface AppDeps {
   knex: Knex;
@@ -83,6 +87,15 @@ export function createApp(deps: AppDeps): Express {
   api.use('/v1', projectsRouter({ knex: deps.knex, config: deps.config, mailer }));
   api.use('/v1', invitationsRouter({ knex: deps.knex }));
   api.use('/v1', tokensRouter({ config: deps.config }));
+  const computeLimit = rateLimit({
+    windowMs: deps.config.rateLimit.windowMs,
+    limit: deps.config.rateLimit.compute,
+    standardHeaders: 'draft-8',
+    legacyHeaders: false,
+    handler: (_req, _res, next) => next(new TooManyRequestsError('Too many calculations from this address; wait a few minutes.')),
+  });
+  api.use('/v1', computeRouter([computeLimit]));
+  api.use('/v1', docsRouter({ version: deps.config.version }));
   api.use('/{*splat}', notFoundHandler);
   app.use('/api', api);
 

@@ -17,7 +17,7 @@ export interface AppConfig {
    */
   devTools: boolean;
   /** Requests allowed per client per window on the sign-in and API-token endpoints. */
-  rateLimit: { windowMs: number; signIn: number; tokens: number };
+  rateLimit: { windowMs: number; signIn: number; tokens: number; compute: number };
   version: string;
 }
 
@@ -63,6 +63,8 @@ export function loadConfig(overrides: Partial<AppConfig> = {}): AppConfig {
       windowMs: 15 * 60_000,
       signIn: readPositiveInt('EYRIE_SIGN_IN_LIMIT', 30),
       tokens: readPositiveInt('EYRIE_TOKEN_LIMIT', 30),
+      // Stateless calculators: generous for people, a brake for runaway scripts.
+      compute: readPositiveInt('EYRIE_COMPUTE_LIMIT', 6000),
     },
     version: env.npm_package_version ?? '0.1.0',
     ...overrides,
