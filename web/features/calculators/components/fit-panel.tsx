@@ -7,7 +7,7 @@ import { ApiError, type FieldError } from '../../../lib/api-client';
 import { fixed } from '../../../lib/format';
 import { useFit } from '../api/post-fit';
 import { exampleScreen } from '../lib/example-screen';
-import { normalisePath } from '../lib/field-errors';
+import { normalisePath, tidyMessage } from '../lib/field-errors';
 import { buildFitRequest, errorBarLnRatio, GRID_SIZE } from '../lib/fit-request';
 import { parseScreen, type ScreenParseError, type ScreenRow, type SelectivityMeasure, type TemperatureUnit } from '../lib/parse-screen';
 import { ChartControls, parseSpec } from './chart-controls';
@@ -45,8 +45,9 @@ function mapFitErrors(errors: FieldError[], submitted: Submitted | null): { line
     const m = /^measurements\.(\d+)(?:\.(.+))?$/.exec(path);
     const row = m && submitted ? submitted.rows[Number(m[1])] : undefined;
     if (row) {
+      const message = tidyMessage(e.path, e.message);
       const field = m![2] ? m![2].split('.')[0] : '';
-      lineErrors.push({ line: row.line, message: field ? `${field}: ${e.message}` : e.message });
+      lineErrors.push({ line: row.line, message: field && !message.startsWith(field) ? `${field}: ${message}` : message });
     } else if (submitted?.hasProposed && path.startsWith(`predict.${GRID_SIZE}`)) {
       proposed.push(e.message);
     } else {

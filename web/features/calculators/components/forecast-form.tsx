@@ -71,7 +71,7 @@ export function ForecastForm({
       {form.kind === 'observed' && (
         <div className="flex flex-wrap items-start gap-3">
           <NumberField
-            label="Observed selectivity"
+            label="Observed value"
             path="basis.selectivity"
             value={form.selectivity}
             onChange={(selectivity) => onChange({ selectivity })}

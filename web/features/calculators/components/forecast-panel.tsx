@@ -27,7 +27,8 @@ export function ForecastPanel() {
   const leftover = unmatchedErrors(errors, forecastFieldPaths);
   const spec = parseSpec(specText);
   const data = query.data;
-  const range = data && data.points.length ? [data.points[0].celsius, data.points[data.points.length - 1].celsius] : null;
+  const celsiusShown = data ? data.points.map((p) => p.celsius) : [];
+  const range = celsiusShown.length ? [Math.min(...celsiusShown), Math.max(...celsiusShown)] : null;
 
   const submit = () => {
     const { request: next, errors: found } = toForecastRequest(form);
@@ -40,7 +41,7 @@ export function ForecastPanel() {
       <div className="grid gap-6 lg:grid-cols-[minmax(0,22rem)_minmax(0,1fr)]">
         <div className="flex flex-col gap-3">
           <ForecastForm form={form} onChange={(patch) => setForm((f) => ({ ...f, ...patch }))} onSubmit={submit} errors={errors} busy={query.isFetching} />
-          {query.error && !clientErrors.length && (
+          {query.error && !clientErrors.length && (serverErrors.length === 0 || leftover.length > 0) && (
             <ProblemAlert
               title={query.error instanceof ApiError ? query.error.problem.title : 'The forecast failed'}
               detail={query.error.message}
@@ -71,7 +72,7 @@ export function ForecastPanel() {
                 <p className="tnum rounded border border-slate-200 bg-slate-50 px-3 py-2 text-sm text-ink-800">
                   <span className="font-medium">Selectivity vanishes</span> at {fixed(data.zeroSelectivity.celsius, 0)} °C ({fixed(data.zeroSelectivity.kelvin, 0)} K)
                   {range && (data.zeroSelectivity.celsius < range[0] || data.zeroSelectivity.celsius > range[1]) ? (
-                    <span className="ml-1 font-medium text-caution-700">— far outside the range forecast here: an extrapolation.</span>
+                    <span className="ml-1 font-medium text-caution-700">(outside the range shown)</span>
                   ) : null}{' '}
                   <span className="text-ink-600">{data.zeroSelectivity.note}</span>
                 </p>

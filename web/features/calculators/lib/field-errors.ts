@@ -11,12 +11,25 @@ export function zodFieldErrors(error: z.ZodError): FieldError[] {
   return error.issues.map((issue) => ({ path: issue.path.map(String).join('.'), message: issue.message }));
 }
 
+/**
+ * The API starts some messages with the field's path ("measurements.1.temperature.value must be…");
+ * beside the field itself, the quantity's name reads better.
+ */
+export function tidyMessage(path: string, message: string): string {
+  const p = normalisePath(path);
+  if (!p || !message.startsWith(p)) return message;
+  const name = p.split('.').filter((s) => s !== 'value' && !/^\d+$/.test(s)).pop() ?? 'value';
+  return name + message.slice(p.length);
+}
+
 /** Messages for one field: errors at exactly `path` or nested below it. */
 export function messagesFor(errors: FieldError[], path: string): string[] {
-  return errors.filter((e) => {
-    const p = normalisePath(e.path);
-    return p === path || p.startsWith(`${path}.`);
-  }).map((e) => e.message);
+  return errors
+    .filter((e) => {
+      const p = normalisePath(e.path);
+      return p === path || p.startsWith(`${path}.`);
+    })
+    .map((e) => tidyMessage(e.path, e.message));
 }
 
 /** Errors that belong to none of the given field paths (shown in a general alert). */
