@@ -1,7 +1,7 @@
 // `npm test`: the whole suite (unit, API on real PostgreSQL, browser end-to-end)
 // against a throwaway cluster that is always torn down. Extra arguments go to vitest.
 import { spawn } from 'node:child_process';
-import { mkdtempSync, mkdirSync, readFileSync, existsSync, rmSync } from 'node:fs';
+import { chmodSync, mkdtempSync, mkdirSync, readFileSync, existsSync, rmSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { ensureDependencies, ensureWebBuild, log, root } from './lib/deps.mjs';
@@ -36,6 +36,7 @@ try {
   let databaseUrl = process.env.DATABASE_URL;
   if (!databaseUrl) {
     tempDir = mkdtempSync(path.join(os.tmpdir(), 'eyrie-test-'));
+    chmodSync(tempDir, 0o711); // the postgres user must traverse it when we run as root
     cluster = await startCluster({ dataDir: path.join(tempDir, 'pgdata'), port: await freePort(), database: 'eyrie_test', durable: false, quiet: true });
     databaseUrl = cluster.url;
     log('throwaway PostgreSQL cluster started for the tests');

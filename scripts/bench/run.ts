@@ -1,0 +1,114 @@
+/**
+ * Benchmarks (never timed tests). Run through `npm run bench`.
+ * 1. HTTP: /api/v1/forecast (200 temperatures) and /api/v1/fit (50 runs) at 50 connections,
+ *    each beside a bare Express JSON route that returns the same body, in the same process setup.
+ * 2. Engine: fitEyring cost from 10³ to 10⁶ points (should grow linearly).
+ * 3. Feature benchmarks registered in scripts/bench/suites.ts (imports, campaign analysis).
+ */
+import '../../api/db/pg-types';
+import autocannon from 'autocannon';
+import express from 'express';
+import type { AddressInfo } from 'node:net';
+import type { Server } from 'node:http';
+import { performance } from 'node:perf_hooks';
+import { createApp } from '../../api/app';
+import { loadConfig } from '../../api/config';
+import { bindModels, createKnex, migrateLatest } from '../../api/db/knex';
+import { runFit, runForecast } from '../../api/features/compute/service';
+import { fitRequestSchema, forecastRequestSchema } from '../../api/features/compute/schemas';
+import { fitEyring } from '../../api/science';
+import { extraSuites } from './suites';
+
+const DURATION_S = Number(process.env.BENCH_SECONDS ?? 8);
+const CONNECTIONS = 50;
+
+function listen(app: express.Express): Promise<{ server: Server; url: string }> {
+  return new Promise((resolve) => {
+    const server = app.listen(0, '127.0.0.1', () => resolve({ server, url: `http://127.0.0.1:${(server.address() as AddressInfo).port}` }));
+  });
+}
+
+async function load(url: string, body: unknown) {
+  const result = await autocannon({
+    url,
+    method: 'POST',
+    connections: CONNECTIONS,
+    duration: DURATION_S,
+    headers: { 'content-type': 'application/json' },
+    body: JSON.stringify(body),
+  });
+  if (result.non2xx > 0 || result.errors > 0) throw new Error(`${url}: ${result.non2xx} non-2xx answers, ${result.errors} errors`);
+  return { rps: result.requests.average, p50: result.latency.p50, p99: result.latency.p99 };
+}
+
+const C = (value: number) => ({ value, unit: 'C' as const });
+const forecastBody = {
+  basis: { kind: 'observed', selectivity: { measure: 'ee', value: 92 }, temperature: C(0) },
+  temperatures: { from: C(-80), to: C(60), count: 200 },
+};
+// Synthetic screen for load only: ln r = 1800/T − 3.4 with deterministic scatter.
+const fitBody = {
+  measurements: Array.from({ length: 50 }, (_, i) => {
+    const t = 200 + i * 3;
+    const lnR = 1800 / t - 3.4 + 0.03 * Math.sin(i * 1.7);
+    return { temperature: { value: t, unit: 'K' as const }, selectivity: { measure: 'ratio' as const, value: Math.exp(lnR) } };
+  }),
+  predict: Array.from({ length: 60 }, (_, i) => ({ value: 190 + i * 2.7, unit: 'K' as const })),
+};
+
+async function httpSuite() {
+  const knex = createKnex(process.env.DATABASE_URL!, { min: 0, max: 4 });
+  bindModels(knex);
+  await migrateLatest(knex);
+  const app = createApp({ knex, config: loadConfig({ nodeEnv: 'production', devTools: false }), webDist: null });
+  const real = await listen(app);
+
+  // The baseline: a bare Express app with a JSON body parser answering the same precomputed body.
+  const forecastAnswer = runForecast(forecastRequestSchema.parse(forecastBody));
+  const fitAnswer = runFit(fitRequestSchema.parse(fitBody));
+  const bare = express();
+  bare.use(express.json({ limit: '1mb' }));
+  bare.post('/forecast', (_req, res) => void res.json(forecastAnswer));
+  bare.post('/fit', (_req, res) => void res.json(fitAnswer));
+  const baseline = await listen(bare);
+
+  console.log(`\nHTTP, ${CONNECTIONS} connections, ${DURATION_S} s each (autocannon)`);
+  console.log('endpoint                         req/s    p50 ms  p99 ms   bare req/s  ratio');
+  for (const [name, route, body] of [
+    ['forecast (200 temperatures)', '/api/v1/forecast', forecastBody],
+    ['fit (50 runs, 60 predictions)', '/api/v1/fit', fitBody],
+  ] as const) {
+    const r = await load(real.url + route, body);
+    const b = await load(baseline.url + route.replace('/api/v1', ''), body);
+    console.log(
+      `${name.padEnd(32)} ${r.rps.toFixed(0).padStart(6)}  ${String(r.p50).padStart(6)}  ${String(r.p99).padStart(6)}   ${b.rps.toFixed(0).padStart(10)}  ${(r.rps / b.rps).toFixed(2)}×`,
+    );
+  }
+  real.server.close();
+  baseline.server.close();
+  await knex.destroy();
+}
+
+function engineSuite() {
+  console.log('\nEngine: fitEyring (OLS, no predictions), best of 3');
+  console.log('points       ms     ns/point');
+  for (const n of [1e3, 1e4, 1e5, 1e6]) {
+    const data = Array.from({ length: n }, (_, i) => {
+      const t = 200 + (150 * i) / n;
+      return { temperatureK: t, ratio: Math.exp(1800 / t - 3.4 + 0.02 * Math.sin(i)) };
+    });
+    let best = Infinity;
+    for (let k = 0; k < 3; k++) {
+      const t0 = performance.now();
+      fitEyring(data, { weighting: 'none' });
+      best = Math.min(best, performance.now() - t0);
+    }
+    console.log(`${String(n).padEnd(10)} ${best.toFixed(1).padStart(7)}  ${((best * 1e6) / n).toFixed(0).padStart(8)}`);
+  }
+}
+
+const only = process.argv[2];
+if (!only || only === 'http') await httpSuite();
+if (!only || only === 'engine') engineSuite();
+for (const suite of extraSuites) if (!only || only === suite.name) await suite.run();
+process.exit(0);

@@ -1,0 +1,7 @@
+/** Feature benchmark suites run by scripts/bench/run.ts after the HTTP and engine suites. */
+export interface BenchSuite {
+  name: string;
+  run(): Promise<void>;
+}
+
+export const extraSuites: BenchSuite[] = [];
