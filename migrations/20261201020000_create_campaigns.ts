@@ -18,8 +18,8 @@ export async function up(knex: Knex): Promise<void> {
     t.uuid('project_id').notNullable().references('id').inTable('projects').onDelete('CASCADE');
     t.text('title').notNullable();
     t.text('reaction_description');
-    t.text('product_a_name').notNullable();
-    t.text('product_b_name').notNullable();
+    t.text('product_name_a').notNullable();
+    t.text('product_name_b').notNullable();
     // How selectivity is normally reported in this campaign; each measurement still names its own measure.
     t.text('measure').notNullable();
     t.text('assay_method').notNullable();
@@ -38,7 +38,7 @@ export async function up(knex: Knex): Promise<void> {
     alter table campaigns
       add constraint campaigns_title_present check (length(btrim(title)) between 1 and 200),
       add constraint campaigns_product_names_present check (
-        length(btrim(product_a_name)) between 1 and 100 and length(btrim(product_b_name)) between 1 and 100),
+        length(btrim(product_name_a)) between 1 and 100 and length(btrim(product_name_b)) between 1 and 100),
       add constraint campaigns_measure_known check (measure in ${MEASURES}),
       add constraint campaigns_assay_method_known check (assay_method in ('chiral-hplc', 'chiral-sfc', 'chiral-gc', 'nmr', 'other')),
       add constraint campaigns_status_known check (status in ('planned', 'active', 'completed', 'archived')),

@@ -32,8 +32,8 @@ export interface DemoCampaign {
   id: string;
   title: string;
   reactionDescription: string;
-  productAName: string;
-  productBName: string;
+  productNameA: string;
+  productNameB: string;
   assayMethod: 'chiral-hplc' | 'chiral-sfc';
   defaultUncertainty: number;
   status: 'active' | 'completed';
@@ -151,8 +151,8 @@ export const DEMO_CAMPAIGNS: DemoCampaign[] = [
     id: '6d1f0c4e-2a51-4c0e-9d7b-00000c7702a1',
     title: 'Skylark-Phos in methanol: temperature screen',
     reactionDescription: `${REACTION} Ligand: Skylark-Phos (invented); solvent methanol.`,
-    productAName: '(S)-KL-7702-A',
-    productBName: '(R)-KL-7702-A',
+    productNameA: '(S)-KL-7702-A',
+    productNameB: '(R)-KL-7702-A',
     assayMethod: 'chiral-hplc',
     defaultUncertainty: 0.3,
     status: 'completed',
@@ -163,8 +163,8 @@ export const DEMO_CAMPAIGNS: DemoCampaign[] = [
     id: '6d1f0c4e-2a51-4c0e-9d7b-00000c7702b2',
     title: 'Merlin-Phos in toluene: temperature screen',
     reactionDescription: `${REACTION} Ligand: Merlin-Phos (invented); solvent toluene.`,
-    productAName: '(S)-KL-7702-A',
-    productBName: '(R)-KL-7702-A',
+    productNameA: '(S)-KL-7702-A',
+    productNameB: '(R)-KL-7702-A',
     assayMethod: 'chiral-sfc',
     defaultUncertainty: 0.2,
     status: 'active',
@@ -175,8 +175,8 @@ export const DEMO_CAMPAIGNS: DemoCampaign[] = [
     id: '6d1f0c4e-2a51-4c0e-9d7b-00000c7702c3',
     title: 'Skylark-Phos in 2-MeTHF: low-temperature screen',
     reactionDescription: `${REACTION} Ligand: Skylark-Phos (invented); solvent 2-methyltetrahydrofuran.`,
-    productAName: '(S)-KL-7702-A',
-    productBName: '(R)-KL-7702-A',
+    productNameA: '(S)-KL-7702-A',
+    productNameB: '(R)-KL-7702-A',
     assayMethod: 'chiral-hplc',
     defaultUncertainty: 0.3,
     status: 'active',

@@ -11,8 +11,8 @@ export class Campaign extends objection.Model {
   declare projectId: string;
   declare title: string;
   declare reactionDescription: string | null;
-  declare productAName: string;
-  declare productBName: string;
+  declare productNameA: string;
+  declare productNameB: string;
   declare measure: SelectivityMeasure;
   declare assayMethod: AssayMethod;
   declare defaultUncertainty: number | null;

@@ -127,8 +127,8 @@ const uncertaintySchema = finite('uncertainty').refine((v) => v >= 0 && v < 100,
 const campaignFields = {
   title: z.string().trim().min(1, 'title is required').max(200, 'at most 200 characters'),
   reactionDescription: optionalText(4000),
-  productAName: z.string().trim().min(1, 'name product A').max(100, 'at most 100 characters'),
-  productBName: z.string().trim().min(1, 'name product B').max(100, 'at most 100 characters'),
+  productNameA: z.string().trim().min(1, 'name product A').max(100, 'at most 100 characters'),
+  productNameB: z.string().trim().min(1, 'name product B').max(100, 'at most 100 characters'),
   measure: z.enum(SELECTIVITY_MEASURES, { error: `measure must be one of ${SELECTIVITY_MEASURES.join(', ')}` }),
   assayMethod: z.enum(ASSAY_METHODS, { error: `assayMethod must be one of ${ASSAY_METHODS.join(', ')}` }),
   defaultUncertainty: uncertaintySchema.nullable().optional(),
@@ -138,8 +138,8 @@ const campaignFields = {
 
 export const campaignCreateSchema = z.strictObject({
   ...campaignFields,
-  productAName: campaignFields.productAName.default('A'),
-  productBName: campaignFields.productBName.default('B'),
+  productNameA: campaignFields.productNameA.default('A'),
+  productNameB: campaignFields.productNameB.default('B'),
   status: campaignFields.status.default('active'),
 });
 export type CampaignCreate = z.infer<typeof campaignCreateSchema>;
@@ -152,8 +152,8 @@ export const campaignUpdateSchema = z
     version: versionSchema,
     title: campaignFields.title.optional(),
     reactionDescription: campaignFields.reactionDescription,
-    productAName: campaignFields.productAName.optional(),
-    productBName: campaignFields.productBName.optional(),
+    productNameA: campaignFields.productNameA.optional(),
+    productNameB: campaignFields.productNameB.optional(),
     measure: campaignFields.measure.optional(),
     assayMethod: campaignFields.assayMethod.optional(),
     defaultUncertainty: campaignFields.defaultUncertainty,

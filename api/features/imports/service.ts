@@ -6,6 +6,7 @@
 import type { Knex } from 'knex';
 import { recordAudit } from '../audit/service';
 import { NotFoundError } from '../../lib/errors';
+import { isUuid } from '../campaigns/service';
 import type { ImportMapping, ImportParseOptions } from '../campaigns/schemas';
 import { ImportNeedsConfirmationError, ImportRejectedError, type ImportIssue } from './errors';
 import { columnLetter, IMPORT_LIMITS, parseUpload, type Cell, type ImportLimits, type ParsedTable, type UploadedFile } from './parse';
@@ -112,6 +113,7 @@ export async function importMeasurements(
   request: ImportRequestInput,
   limits: ImportLimits = IMPORT_LIMITS,
 ): Promise<ImportResult> {
+  if (!isUuid(campaignId)) throw new NotFoundError('No campaign was found at this address in this project.');
   const table = await parseUpload(file, request.parse ?? {}, limits);
   const checked = validateRows(table, request.mapping);
   if (checked.errorCount > 0) {

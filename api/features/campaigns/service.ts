@@ -1,0 +1,350 @@
+/**
+ * Campaign, measurement and saved-forecast use cases. Every write runs in one transaction with
+ * its audit event; every update or delete names the version the client last read, and a stale
+ * version is a ConflictError carrying `currentVersion`. Routes call these after authorizeProject
+ * and pass `req.project.id` and `req.user.id` as the actor.
+ */
+import type { Knex } from 'knex';
+import objection from 'objection';
+import { recordAudit } from '../audit/service';
+import { ConflictError, NotFoundError } from '../../lib/errors';
+import { Campaign } from '../../models/campaign';
+import { Measurement } from '../../models/measurement';
+import { SavedForecast } from '../../models/saved-forecast';
+import type { SelectivityInput } from '../../science/selectivity';
+import {
+  parseRatioPair,
+  toKelvin,
+  toSeconds,
+  type CampaignCreate,
+  type CampaignUpdate,
+  type MeasurementCreate,
+  type MeasurementExclusion,
+  type MeasurementUpdate,
+} from './schemas';
+
+/** Who acts, in which project (from authorizeProject and the signed-in user). */
+export interface ProjectActor {
+  projectId: string;
+  actorUserId: string;
+}
+
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+/** Ids come from URLs; anything that is not a uuid cannot exist (and must not reach PostgreSQL as one). */
+export const isUuid = (id: unknown): id is string => typeof id === 'string' && UUID.test(id);
+
+const campaignNotFound = () => new NotFoundError('No campaign was found at this address in this project.');
+const measurementNotFound = () => new NotFoundError('No measurement was found at this address in this project.');
+const forecastNotFound = () => new NotFoundError('No saved forecast was found at this address in this project.');
+
+function staleVersion(what: string, sent: number, current: number): ConflictError {
+  return new ConflictError(`The ${what} was changed by someone else (you sent version ${sent}; it is now at version ${current}). Reload it and apply your change again.`, {
+    currentVersion: current,
+  });
+}
+
+/** A plain JSON snapshot of a row for the audit trail. */
+const snapshot = (model: objection.Model) => model.toJSON();
+
+// ── Resolvers for authorizeProject ──────────────────────────────────────────────────────────
+
+/** The project a campaign belongs to, or null (unknown id, or not a uuid). */
+export async function resolveCampaignProjectId(db: Knex, campaignId: unknown): Promise<string | null> {
+  if (!isUuid(campaignId)) return null;
+  const row = await db('campaigns').where({ id: campaignId }).first('projectId');
+  return row?.projectId ?? null;
+}
+
+export async function resolveMeasurementProjectId(db: Knex, measurementId: unknown): Promise<string | null> {
+  if (!isUuid(measurementId)) return null;
+  const row = await db('measurements as m').join('campaigns as c', 'c.id', 'm.campaignId').where('m.id', measurementId).first('c.projectId');
+  return row?.projectId ?? null;
+}
+
+export async function resolveSavedForecastProjectId(db: Knex, forecastId: unknown): Promise<string | null> {
+  if (!isUuid(forecastId)) return null;
+  const row = await db('savedForecasts as f').join('campaigns as c', 'c.id', 'f.campaignId').where('f.id', forecastId).first('c.projectId');
+  return row?.projectId ?? null;
+}
+
+// ── Campaigns ──────────────────────────────────────────────────────────────────────────────
+
+export interface CampaignSummary {
+  campaign: Campaign;
+  measurementCount: number;
+  includedCount: number;
+  distinctTemperatures: number;
+  temperatureRangeK: { min: number; max: number } | null;
+}
+
+/** The project's campaigns, newest first, with what a list needs to show about their data. */
+export async function listCampaigns(db: Knex, projectId: string): Promise<CampaignSummary[]> {
+  const campaigns = await Campaign.query(db).where({ projectId }).orderBy('createdAt', 'desc').orderBy('id');
+  if (campaigns.length === 0) return [];
+  const stats: { campaignId: string; n: number; included: number; distinctT: number; minK: number | null; maxK: number | null }[] = await db('measurements')
+    .whereIn(
+      'campaignId',
+      campaigns.map((c) => c.id),
+    )
+    .groupBy('campaignId')
+    .select(
+      'campaignId',
+      db.raw('count(*)::int as n'),
+      db.raw('count(*) filter (where not excluded)::int as included'),
+      db.raw('count(distinct round(temperature_k::numeric, 2))::int as "distinctT"'),
+      db.raw('min(temperature_k) as "minK"'),
+      db.raw('max(temperature_k) as "maxK"'),
+    );
+  const byId = new Map(stats.map((s) => [s.campaignId, s]));
+  return campaigns.map((campaign) => {
+    const s = byId.get(campaign.id);
+    return {
+      campaign,
+      measurementCount: s?.n ?? 0,
+      includedCount: s?.included ?? 0,
+      distinctTemperatures: s?.distinctT ?? 0,
+      temperatureRangeK: s && s.minK !== null && s.maxK !== null ? { min: s.minK, max: s.maxK } : null,
+    };
+  });
+}
+
+/** One campaign of the project, or NotFoundError. */
+export async function getCampaign(db: Knex | Knex.Transaction, projectId: string, campaignId: string): Promise<Campaign> {
+  if (!isUuid(campaignId)) throw campaignNotFound();
+  const campaign = await Campaign.query(db).findOne({ id: campaignId, projectId });
+  if (!campaign) throw campaignNotFound();
+  return campaign;
+}
+
+function translateUniqueTitle(err: unknown, title: string | undefined): never {
+  if (err instanceof objection.UniqueViolationError && err.constraint === 'campaigns_project_title_unique') {
+    throw new ConflictError(`A campaign titled "${title}" already exists in this project; choose another title.`);
+  }
+  throw err;
+}
+
+export async function createCampaign(db: Knex, actor: ProjectActor, input: CampaignCreate): Promise<Campaign> {
+  try {
+    return await db.transaction(async (trx) => {
+      const campaign = await Campaign.query(trx).insert({
+        ...input,
+        reactionDescription: input.reactionDescription ?? null,
+        defaultUncertainty: input.defaultUncertainty ?? null,
+        notes: input.notes ?? null,
+        projectId: actor.projectId,
+        createdByUserId: actor.actorUserId,
+      }).returning('*');
+      await recordAudit(trx, { ...auditActor(actor), action: 'create', entityType: 'campaign', entityId: campaign.id, before: null, after: snapshot(campaign) });
+      return campaign;
+    });
+  } catch (err) {
+    translateUniqueTitle(err, input.title);
+  }
+}
+
+const auditActor = (actor: ProjectActor) => ({ projectId: actor.projectId, actorUserId: actor.actorUserId });
+
+export async function updateCampaign(db: Knex, actor: ProjectActor, campaignId: string, input: CampaignUpdate): Promise<Campaign> {
+  const { version, ...changes } = input;
+  try {
+    return await db.transaction(async (trx) => {
+      const before = await getCampaignForUpdate(trx, actor.projectId, campaignId);
+      if (before.version !== version) throw staleVersion('campaign', version, before.version);
+      const [after] = await Campaign.query(trx)
+        .patch({ ...changes, version: version + 1, updatedAt: new Date() })
+        .where({ id: campaignId, version })
+        .returning('*');
+      await recordAudit(trx, { ...auditActor(actor), action: 'update', entityType: 'campaign', entityId: campaignId, before: snapshot(before), after: snapshot(after) });
+      return after;
+    });
+  } catch (err) {
+    translateUniqueTitle(err, input.title);
+  }
+}
+
+/** Delete a campaign with its measurements and saved forecasts (one audit event lists what went). */
+export async function deleteCampaign(db: Knex, actor: ProjectActor, campaignId: string, version: number): Promise<void> {
+  await db.transaction(async (trx) => {
+    const before = await getCampaignForUpdate(trx, actor.projectId, campaignId);
+    if (before.version !== version) throw staleVersion('campaign', version, before.version);
+    const [{ n }] = await trx('measurements').where({ campaignId }).count({ n: '*' });
+    const [{ f }] = await trx('savedForecasts').where({ campaignId }).count({ f: '*' });
+    await Campaign.query(trx).deleteById(campaignId);
+    await recordAudit(trx, {
+      ...auditActor(actor),
+      action: 'delete',
+      entityType: 'campaign',
+      entityId: campaignId,
+      before: { ...snapshot(before), measurementCount: Number(n), savedForecastCount: Number(f) },
+      after: null,
+    });
+  });
+}
+
+/** Lock the campaign row for the rest of the transaction, so version checks cannot race. */
+async function getCampaignForUpdate(trx: Knex.Transaction, projectId: string, campaignId: string): Promise<Campaign> {
+  if (!isUuid(campaignId)) throw campaignNotFound();
+  const campaign = await Campaign.query(trx).findOne({ id: campaignId, projectId }).forUpdate();
+  if (!campaign) throw campaignNotFound();
+  return campaign;
+}
+
+// ── Measurements ───────────────────────────────────────────────────────────────────────────
+
+/** A campaign's measurements, coldest first, then in the order they were added (file order for imports). */
+export async function listMeasurements(db: Knex, projectId: string, campaignId: string): Promise<Measurement[]> {
+  await getCampaign(db, projectId, campaignId);
+  return Measurement.query(db).where({ campaignId }).orderBy('temperatureK').orderBy('createdAt').orderBy('sourceRow').orderBy('id');
+}
+
+type MeasurementColumns = Partial<
+  Pick<
+    Measurement,
+    'temperatureK' | 'measure' | 'value' | 'valueB' | 'isLowerBound' | 'uncertainty' | 'replicateLabel' | 'sampleId' | 'conversionPercent' | 'reactionTimeS' | 'notes'
+  >
+>;
+
+/** Validated input (temperature with its unit, selectivity as number or "a:b") → stored columns (K, s). */
+export function measurementColumns(input: Partial<MeasurementCreate>): MeasurementColumns {
+  const out: MeasurementColumns = {};
+  if (input.temperature) out.temperatureK = toKelvin(input.temperature.value, input.temperature.unit);
+  if (input.selectivity) {
+    const { measure, value, atLeast } = input.selectivity;
+    out.measure = measure;
+    out.isLowerBound = atLeast ?? false;
+    if (typeof value === 'string') {
+      const pair = parseRatioPair(value);
+      // The schema already refused anything else; this keeps a bad direct call from storing NaN.
+      if (!pair) throw new Error(`unvalidated selectivity value "${value}"`);
+      out.value = pair.a;
+      out.valueB = pair.b;
+    } else {
+      out.value = value;
+      out.valueB = null;
+    }
+  }
+  if ('uncertainty' in input) out.uncertainty = input.uncertainty ?? null;
+  if ('replicateLabel' in input) out.replicateLabel = input.replicateLabel ?? null;
+  if ('sampleId' in input) out.sampleId = input.sampleId ?? null;
+  if ('conversionPercent' in input) out.conversionPercent = input.conversionPercent ?? null;
+  if ('reactionTime' in input) out.reactionTimeS = input.reactionTime ? toSeconds(input.reactionTime.value, input.reactionTime.unit) : null;
+  if ('notes' in input) out.notes = input.notes ?? null;
+  return out;
+}
+
+/** The stored selectivity as the engine reads it (`parseSelectivity`, `sigmaLnRatio`). */
+export function toSelectivityInput(m: Pick<Measurement, 'measure' | 'value' | 'valueB'>): SelectivityInput {
+  return { measure: m.measure, value: m.valueB === null ? m.value : `${m.value}:${m.valueB}` };
+}
+
+export async function createMeasurement(db: Knex, actor: ProjectActor, campaignId: string, input: MeasurementCreate): Promise<Measurement> {
+  return db.transaction(async (trx) => {
+    await getCampaign(trx, actor.projectId, campaignId);
+    const measurement = await Measurement.query(trx)
+      .insert({ ...measurementColumns(input), campaignId, createdByUserId: actor.actorUserId })
+      .returning('*');
+    await recordAudit(trx, { ...auditActor(actor), action: 'create', entityType: 'measurement', entityId: measurement.id, before: null, after: snapshot(measurement) });
+    return measurement;
+  });
+}
+
+/** Lock a measurement of the actor's project, or NotFoundError. */
+async function getMeasurementForUpdate(trx: Knex.Transaction, projectId: string, measurementId: string): Promise<Measurement> {
+  if (!isUuid(measurementId)) throw measurementNotFound();
+  const measurement = await Measurement.query(trx)
+    .select('measurements.*')
+    .join('campaigns', 'campaigns.id', 'measurements.campaignId')
+    .where('measurements.id', measurementId)
+    .where('campaigns.projectId', projectId)
+    .forUpdate()
+    .first();
+  if (!measurement) throw measurementNotFound();
+  return measurement;
+}
+
+async function patchMeasurement(
+  db: Knex,
+  actor: ProjectActor,
+  measurementId: string,
+  version: number,
+  columns: Partial<Pick<Measurement, 'excluded' | 'excludedReason'>> & MeasurementColumns,
+): Promise<Measurement> {
+  return db.transaction(async (trx) => {
+    const before = await getMeasurementForUpdate(trx, actor.projectId, measurementId);
+    if (before.version !== version) throw staleVersion('measurement', version, before.version);
+    const [after] = await Measurement.query(trx)
+      .patch({ ...columns, version: version + 1, updatedAt: new Date() })
+      .where({ id: measurementId, version })
+      .returning('*');
+    await recordAudit(trx, { ...auditActor(actor), action: 'update', entityType: 'measurement', entityId: measurementId, before: snapshot(before), after: snapshot(after) });
+    return after;
+  });
+}
+
+export async function updateMeasurement(db: Knex, actor: ProjectActor, measurementId: string, input: MeasurementUpdate): Promise<Measurement> {
+  const { version, ...changes } = input;
+  return patchMeasurement(db, actor, measurementId, version, measurementColumns(changes));
+}
+
+/** Exclude a point from fits with a reason, or include it again; it is never deleted by this. */
+export async function setMeasurementExclusion(db: Knex, actor: ProjectActor, measurementId: string, input: MeasurementExclusion): Promise<Measurement> {
+  return patchMeasurement(db, actor, measurementId, input.version, input.excluded ? { excluded: true, excludedReason: input.reason } : { excluded: false, excludedReason: null });
+}
+
+export async function deleteMeasurement(db: Knex, actor: ProjectActor, measurementId: string, version: number): Promise<void> {
+  await db.transaction(async (trx) => {
+    const before = await getMeasurementForUpdate(trx, actor.projectId, measurementId);
+    if (before.version !== version) throw staleVersion('measurement', version, before.version);
+    await Measurement.query(trx).deleteById(measurementId);
+    await recordAudit(trx, { ...auditActor(actor), action: 'delete', entityType: 'measurement', entityId: measurementId, before: snapshot(before), after: null });
+  });
+}
+
+// ── Saved forecasts ────────────────────────────────────────────────────────────────────────
+
+export interface SaveForecastInput {
+  temperatureK: number;
+  label?: string | null;
+  notes?: string | null;
+  /** The analysis result at that temperature, computed by the caller with the engine; stored as is. */
+  result: Record<string, unknown>;
+}
+
+export async function saveForecast(db: Knex, actor: ProjectActor, campaignId: string, input: SaveForecastInput): Promise<SavedForecast> {
+  return db.transaction(async (trx) => {
+    await getCampaign(trx, actor.projectId, campaignId);
+    const forecast = await SavedForecast.query(trx)
+      .insert({
+        campaignId,
+        temperatureK: input.temperatureK,
+        label: input.label ?? null,
+        notes: input.notes ?? null,
+        result: input.result,
+        createdByUserId: actor.actorUserId,
+      })
+      .returning('*');
+    await recordAudit(trx, { ...auditActor(actor), action: 'create', entityType: 'saved_forecast', entityId: forecast.id, before: null, after: snapshot(forecast) });
+    return forecast;
+  });
+}
+
+/** A campaign's saved forecasts, newest first. */
+export async function listSavedForecasts(db: Knex, projectId: string, campaignId: string): Promise<SavedForecast[]> {
+  await getCampaign(db, projectId, campaignId);
+  return SavedForecast.query(db).where({ campaignId }).orderBy('createdAt', 'desc').orderBy('id');
+}
+
+export async function deleteSavedForecast(db: Knex, actor: ProjectActor, forecastId: string): Promise<void> {
+  if (!isUuid(forecastId)) throw forecastNotFound();
+  await db.transaction(async (trx) => {
+    const forecast = await SavedForecast.query(trx)
+      .select('savedForecasts.*')
+      .join('campaigns', 'campaigns.id', 'savedForecasts.campaignId')
+      .where('savedForecasts.id', forecastId)
+      .where('campaigns.projectId', actor.projectId)
+      .first();
+    if (!forecast) throw forecastNotFound();
+    await SavedForecast.query(trx).deleteById(forecastId);
+    await recordAudit(trx, { ...auditActor(actor), action: 'delete', entityType: 'saved_forecast', entityId: forecastId, before: snapshot(forecast), after: null });
+  });
+}
