@@ -8,19 +8,20 @@ export const projectRoleSchema = z.enum(projectRoles, { error: 'Choose owner, ed
 /** How much each role may do; a higher rank includes everything below it. */
 export const roleRank: Record<ProjectRole, number> = { viewer: 1, editor: 2, owner: 3 };
 
-export const projectFieldsSchema = z.object({
-  name: z
-    .string({ error: 'Give the project a name.' })
-    .trim()
-    .min(1, 'Give the project a name.')
-    .max(120, 'Keep the name to 120 characters or fewer.'),
-  description: z.string({ error: 'The description must be text.' }).trim().max(2000, 'Keep the description to 2000 characters or fewer.').default(''),
-});
+const projectName = z
+  .string({ error: 'Give the project a name.' })
+  .trim()
+  .min(1, 'Give the project a name.')
+  .max(120, 'Keep the name to 120 characters or fewer.');
+const projectDescription = z.string({ error: 'The description must be text.' }).trim().max(2000, 'Keep the description to 2000 characters or fewer.');
+
+export const projectFieldsSchema = z.object({ name: projectName, description: projectDescription.default('') });
 export type ProjectFields = z.input<typeof projectFieldsSchema>;
 
-export const projectPatchSchema = projectFieldsSchema.partial().refine((v) => v.name !== undefined || v.description !== undefined, {
-  message: 'Send a name or a description to change.',
-});
+// No defaults here: a field left out of a change stays as it is.
+export const projectPatchSchema = z
+  .object({ name: projectName.optional(), description: projectDescription.optional() })
+  .refine((v) => v.name !== undefined || v.description !== undefined, { message: 'Send a name or a description to change.' });
 
 export const invitationSchema = z.object({
   email: z
