@@ -32,7 +32,7 @@ describe('the calculators page in Chromium (no sign-in)', () => {
     await expect.poll(() => table.locator('tbody tr').count()).toBe(13);
     // The row at the observed temperature gives back the observed ee (a round trip through the API).
     const row = table.locator('tbody tr').filter({ hasText: '−20.0' });
-    expect(await row.locator('td').nth(2).textContent()).toBe('92.5');
+    expect(await row.locator('td').nth(3).textContent()).toBe('92.5');
     expect(await page.locator('[data-testid="selectivity-chart"] svg[aria-label] path.eyrie-curve-line').count()).toBe(1);
     expect(await page.locator('main').textContent()).toContain('assumed 0');
     expect(await page.locator('main').textContent()).toContain('X‡(TS→B) − X‡(TS→A)');

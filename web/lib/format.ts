@@ -17,7 +17,19 @@ export function fixed(value: number, decimals: number): string {
 }
 
 /** Superscript digits for powers of ten. */
-const SUPERSCRIPT: Record<string, string> = { '-': '⁻', '0': '⁰', '1': '¹', '2': '²', '3': '³', '4': '⁴', '5': '⁵', '6': '⁶', '7': '⁷', '8': '⁸', '9': '⁹' };
+const SUPERSCRIPT: Record<string, string> = {
+  '-': '⁻',
+  '0': '⁰',
+  '1': '¹',
+  '2': '²',
+  '3': '³',
+  '4': '⁴',
+  '5': '⁵',
+  '6': '⁶',
+  '7': '⁷',
+  '8': '⁸',
+  '9': '⁹',
+};
 
 /** `sig` significant figures; very large or small magnitudes as a × 10ⁿ. */
 export function sig(value: number, figures = 3): string {
@@ -36,13 +48,13 @@ export function sig(value: number, figures = 3): string {
 }
 
 /**
- * Decimals for a percentage that may approach 100 (ee, % A): enough that the distance
- * to 100 keeps two significant figures, between 1 and 3 decimals.
+ * Decimals for a percentage that may approach 100 (ee, % A): one decimal up to 98, two up to
+ * 99.8, three beyond, so a value just short of a 99 % specification never rounds onto it.
  */
 export function percentDecimals(percent: number): number {
   const gap = 100 - Math.abs(percent);
-  if (!(gap > 0)) return 1;
-  return Math.min(3, Math.max(1, 1 - Math.floor(Math.log10(gap))));
+  if (!(gap < 2)) return 1;
+  return gap >= 0.2 ? 2 : 3;
 }
 
 export function percent(value: number): string {

@@ -21,7 +21,16 @@ const points: EyringPlotPoint[] = [
 
 describe('EyringPlot', () => {
   it('when given points, a fitted line and bands, then it draws both bands, the line, each marker shape and a °C top axis', () => {
-    const { container } = render(<EyringPlot title="test plot" points={points} curve={curve} width={640} height={320} mark={{ kelvin: 223.15, label: 'proposed −50 °C' }} />);
+    const { container } = render(
+      <EyringPlot
+        title="test plot"
+        points={points}
+        curve={curve}
+        width={640}
+        height={320}
+        mark={{ kelvin: 223.15, label: 'proposed −50 °C' }}
+      />,
+    );
     const svg = container.querySelector('svg[aria-label="test plot"]');
     expect(svg).not.toBeNull();
     expect(svg!.querySelectorAll('path.visx-area')).toHaveLength(2);
@@ -63,10 +72,23 @@ describe('SelectivityChart', () => {
     const data = Array.from({ length: 13 }, (_, i) => {
       const celsius = -80 + i * 10;
       const ee = 99 - i * 0.7;
-      return { celsius, eePercent: ee, percentA: 50 + ee / 2, band: { eePercent: [ee - 1, Math.min(99.9, ee + 1)] as [number, number], percentA: [49 + ee / 2, 51 + ee / 2] as [number, number] } };
+      return {
+        celsius,
+        eePercent: ee,
+        percentA: 50 + ee / 2,
+        band: { eePercent: [ee - 1, Math.min(99.9, ee + 1)] as [number, number], percentA: [49 + ee / 2, 51 + ee / 2] as [number, number] },
+      };
     });
     const { container } = render(
-      <SelectivityChart title="sel" curve={data} points={[{ id: 1, celsius: -40, eePercent: 96.5, percentA: 98.25 }]} measure="ee" spec={99} bandLabel="95 % prediction band" width={600} />,
+      <SelectivityChart
+        title="sel"
+        curve={data}
+        points={[{ id: 1, celsius: -40, eePercent: 96.5, percentA: 98.25 }]}
+        measure="ee"
+        spec={99}
+        bandLabel="95 % prediction band"
+        width={600}
+      />,
     );
     const svg = container.querySelector('svg[aria-label="sel"]')!;
     expect(svg.querySelectorAll('path.visx-area')).toHaveLength(1);

@@ -51,7 +51,14 @@ describe('parseScreen', () => {
 
   it('when a fit request is built, then it passes the API schema and predicts on a grid spanning the data plus the proposed temperature last', () => {
     const { rows } = parseScreen('-78, 98.9, 0.2\n-40, 96.9, 0.3\n25, 91.3, 0.4', 'ee', 'C');
-    const request = buildFitRequest(rows, { measure: 'ee', unit: 'C', weighting: 'uncertainty', uncertaintyScale: 'absolute', proposed: -90, excludedLines: [3] });
+    const request = buildFitRequest(rows, {
+      measure: 'ee',
+      unit: 'C',
+      weighting: 'uncertainty',
+      uncertaintyScale: 'absolute',
+      proposed: -90,
+      excludedLines: [3],
+    });
     expect(fitRequestSchema.safeParse(request).success).toBe(true);
     expect(request.predict).toHaveLength(GRID_SIZE + 1);
     expect(request.predict![GRID_SIZE]).toEqual({ value: -90, unit: 'C' });

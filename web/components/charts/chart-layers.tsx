@@ -55,7 +55,15 @@ export function HorizontalRule({ y, label, color = chartColors.caution }: { y: n
   return (
     <g className="eyrie-rule" pointerEvents="none">
       <line x1={x0} x2={x1} y1={py} y2={py} stroke={color} strokeWidth={1.25} strokeDasharray="6 3" />
-      <text x={x1 - 4} y={py - 4} textAnchor="end" fontFamily={chartFont} fontSize={11} fill={color} style={{ fontVariantNumeric: 'tabular-nums' }}>
+      <text
+        x={x1 - 4}
+        y={py - 4}
+        textAnchor="end"
+        fontFamily={chartFont}
+        fontSize={11}
+        fill={color}
+        style={{ fontVariantNumeric: 'tabular-nums' }}
+      >
         {label}
       </text>
     </g>

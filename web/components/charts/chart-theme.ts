@@ -15,7 +15,7 @@ export const chartColors = {
   paper: '#ffffff',
 } as const;
 
-export const chartFont = "Inter, ui-sans-serif, system-ui, sans-serif";
+export const chartFont = 'Inter, ui-sans-serif, system-ui, sans-serif';
 
 export const chartTheme = buildChartTheme({
   backgroundColor: chartColors.paper,

@@ -1,7 +1,7 @@
 import { useMemo, type ReactNode } from 'react';
 import { AreaSeries, Axis, GlyphSeries, Grid, LineSeries, Tooltip, XYChart, type GlyphProps } from '@visx/xychart';
 import { fixed, sig } from '../../lib/format';
-import { ErrorBars, ThermalStrip, VerticalMark } from './chart-layers';
+import { ErrorBars, VerticalMark } from './chart-layers';
 import { axisLabelProps, chartColors, chartTheme, paddedExtent, tickLabelProps } from './chart-theme';
 import { useElementWidth } from './use-element-width';
 
@@ -115,14 +115,29 @@ const STATUS_TEXT: Record<EyringPlotPoint['status'], string> = {
  * error bars), the fitted line with its confidence and prediction bands as computed by the
  * API, optional straight branches, and a secondary °C axis along the top.
  */
-export function EyringPlot({ points, curve = [], branches = [], mark, confidenceLevel = 0.95, title, width, height = 340 }: EyringPlotProps) {
+export function EyringPlot({
+  points,
+  curve = [],
+  branches = [],
+  mark,
+  confidenceLevel = 0.95,
+  title,
+  width,
+  height = 340,
+}: EyringPlotProps) {
   const [ref, measured] = useElementWidth<HTMLDivElement>();
   const chartWidth = width ?? measured;
 
   const pointData = useMemo<Datum[]>(() => points.map((p) => ({ kind: 'point', x: invT(p.kelvin), y: p.lnRatio, p })), [points]);
   const curveData = useMemo<Datum[]>(() => curve.map((c) => ({ kind: 'curve', x: invT(c.kelvin), y: c.lnRatio, c })), [curve]);
-  const confidence = useMemo(() => curve.filter((c) => c.confidence).map((c) => ({ x: invT(c.kelvin), lo: c.confidence![0], hi: c.confidence![1] })), [curve]);
-  const prediction = useMemo(() => curve.filter((c) => c.prediction).map((c) => ({ x: invT(c.kelvin), lo: c.prediction![0], hi: c.prediction![1] })), [curve]);
+  const confidence = useMemo(
+    () => curve.filter((c) => c.confidence).map((c) => ({ x: invT(c.kelvin), lo: c.confidence![0], hi: c.confidence![1] })),
+    [curve],
+  );
+  const prediction = useMemo(
+    () => curve.filter((c) => c.prediction).map((c) => ({ x: invT(c.kelvin), lo: c.prediction![0], hi: c.prediction![1] })),
+    [curve],
+  );
   const branchData = useMemo(
     () =>
       branches.map((b) => ({
@@ -133,7 +148,12 @@ export function EyringPlot({ points, curve = [], branches = [], mark, confidence
   );
 
   const xDomain = useMemo(
-    () => paddedExtent([...pointData.map((d) => d.x), ...curveData.map((d) => d.x), ...branchData.flatMap((b) => b.data.map((d) => d.x))], 0.04, 0.1),
+    () =>
+      paddedExtent(
+        [...pointData.map((d) => d.x), ...curveData.map((d) => d.x), ...branchData.flatMap((b) => b.data.map((d) => d.x))],
+        0.04,
+        0.1,
+      ),
     [pointData, curveData, branchData],
   );
   const yDomain = useMemo(
@@ -159,14 +179,13 @@ export function EyringPlot({ points, curve = [], branches = [], mark, confidence
           <XYChart
             width={chartWidth}
             height={height}
-            margin={{ top: 44, right: 20, bottom: 46, left: 58 }}
+            margin={{ top: 40, right: 20, bottom: 46, left: 70 }}
             theme={chartTheme}
             xScale={{ type: 'linear', domain: xDomain, zero: false }}
             yScale={{ type: 'linear', domain: yDomain, zero: false, nice: true }}
             accessibilityLabel={title}
           >
             <Grid columns={false} numTicks={6} lineStyle={{ stroke: chartColors.grid }} />
-            <ThermalStrip toCelsius={(x) => 1000 / x - CELSIUS_OFFSET} />
             {prediction.length > 1 && (
               <AreaSeries
                 dataKey="prediction band"
@@ -193,10 +212,21 @@ export function EyringPlot({ points, curve = [], branches = [], mark, confidence
                 enableEvents={false}
               />
             )}
-            {curveData.length > 1 && <LineSeries dataKey="fitted line" data={curveData} xAccessor={xOf} yAccessor={yOf} stroke={chartColors.accent} strokeWidth={2} />}
+            {curveData.length > 1 && (
+              <LineSeries
+                className="eyrie-fit-line"
+                dataKey="fitted line"
+                data={curveData}
+                xAccessor={xOf}
+                yAccessor={yOf}
+                stroke={chartColors.accent}
+                strokeWidth={2}
+              />
+            )}
             {branchData.map((b) => (
               <LineSeries
                 key={b.label}
+                className="eyrie-branch-line"
                 dataKey={`branch ${b.label}`}
                 data={b.data}
                 xAccessor={(d) => d.x}
@@ -208,15 +238,32 @@ export function EyringPlot({ points, curve = [], branches = [], mark, confidence
               />
             ))}
             <ErrorBars bars={points.map((p) => ({ x: invT(p.kelvin), low: p.lnRatioLow, high: p.lnRatioHigh }))} />
-            {pointData.length > 0 && <GlyphSeries dataKey="measurements" data={pointData} xAccessor={xOf} yAccessor={yOf} renderGlyph={PointGlyph} />}
+            {pointData.length > 0 && (
+              <GlyphSeries dataKey="measurements" data={pointData} xAccessor={xOf} yAccessor={yOf} renderGlyph={PointGlyph} />
+            )}
             {mark && <VerticalMark x={invT(mark.kelvin)} label={mark.label} />}
-            <Axis orientation="bottom" numTicks={6} label="1000/T (K⁻¹)" labelProps={axisLabelProps} tickLabelProps={tickLabelProps} tickFormat={(v) => fixed(Number(v), 2)} />
-            <Axis orientation="left" numTicks={6} label="ln r   (r = [A]/[B])" labelProps={axisLabelProps} tickLabelProps={tickLabelProps} tickFormat={(v) => fixed(Number(v), 1)} />
+            <Axis
+              orientation="bottom"
+              numTicks={6}
+              label="1000/T (K⁻¹)"
+              labelProps={axisLabelProps}
+              tickLabelProps={tickLabelProps}
+              tickFormat={(v) => fixed(Number(v), 2)}
+            />
+            <Axis
+              orientation="left"
+              numTicks={6}
+              label="ln r   (r = [A]/[B])"
+              labelOffset={34}
+              labelProps={axisLabelProps}
+              tickLabelProps={tickLabelProps}
+              tickFormat={(v) => fixed(Number(v), 1)}
+            />
             <Axis
               orientation="top"
               tickValues={topTicks}
-              label="°C"
-              labelOffset={4}
+              label="T (°C)"
+              labelOffset={10}
               labelProps={axisLabelProps}
               tickLabelProps={tickLabelProps}
               tickFormat={(v) => fixed(1000 / Number(v) - CELSIUS_OFFSET, 0)}

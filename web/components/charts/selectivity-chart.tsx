@@ -1,4 +1,4 @@
-import { useMemo } from 'react';
+import { useId, useMemo } from 'react';
 import { AreaSeries, Axis, GlyphSeries, Grid, LineSeries, Tooltip, XYChart, type GlyphProps } from '@visx/xychart';
 import { enantiomericRatio, fixed, percent } from '../../lib/format';
 import { HorizontalRule, ThermalStrip, VerticalMark } from './chart-layers';
@@ -43,7 +43,8 @@ export interface SelectivityChartProps {
   height?: number;
 }
 
-type Datum = { kind: 'curve'; x: number; y: number; c: SelectivityCurvePoint } | { kind: 'point'; x: number; y: number; p: SelectivityMeasuredPoint };
+type Datum =
+  { kind: 'curve'; x: number; y: number; c: SelectivityCurvePoint } | { kind: 'point'; x: number; y: number; p: SelectivityMeasuredPoint };
 
 const xOf = (d: Datum) => d.x;
 const yOf = (d: Datum) => d.y;
@@ -59,7 +60,8 @@ function PointGlyph({ x, y, datum }: GlyphProps<Datum>) {
       </g>
     );
   }
-  if (status === 'excluded') return <circle cx={x} cy={y} r={4.5} fill={chartColors.paper} stroke={chartColors.inkSoft} strokeWidth={1.5} />;
+  if (status === 'excluded')
+    return <circle cx={x} cy={y} r={4.5} fill={chartColors.paper} stroke={chartColors.inkSoft} strokeWidth={1.5} />;
   return <circle cx={x} cy={y} r={4.5} fill={chartColors.ink} stroke={chartColors.paper} strokeWidth={1} />;
 }
 
@@ -67,23 +69,52 @@ function PointGlyph({ x, y, datum }: GlyphProps<Datum>) {
  * Selectivity against temperature (°C): the forecast curve, an optional band, measured
  * points and an optional specification rule. The y axis shows ee % or % A.
  */
-export function SelectivityChart({ curve, points = [], measure, spec, curveLabel = 'forecast', bandLabel, mark, title, width, height = 300 }: SelectivityChartProps) {
+export function SelectivityChart({
+  curve,
+  points = [],
+  measure,
+  spec,
+  curveLabel = 'forecast',
+  bandLabel,
+  mark,
+  title,
+  width,
+  height = 300,
+}: SelectivityChartProps) {
   const [ref, measured] = useElementWidth<HTMLDivElement>();
   const chartWidth = width ?? measured;
+  const legendGradient = `legend-thermal-${useId().replace(/:/g, '')}`;
   const pick = (v: { eePercent: number; percentA: number }) => (measure === 'ee' ? v.eePercent : v.percentA);
   const yLabel = measure === 'ee' ? 'ee (%)' : 'A (% of A + B)';
   const unitText = measure === 'ee' ? '% ee' : '% A';
 
-  const curveData = useMemo<Datum[]>(() => curve.map((c) => ({ kind: 'curve', x: c.celsius, y: measure === 'ee' ? c.eePercent : c.percentA, c })), [curve, measure]);
-  const pointData = useMemo<Datum[]>(() => points.map((p) => ({ kind: 'point', x: p.celsius, y: measure === 'ee' ? p.eePercent : p.percentA, p })), [points, measure]);
+  const curveData = useMemo<Datum[]>(
+    () => curve.map((c) => ({ kind: 'curve', x: c.celsius, y: measure === 'ee' ? c.eePercent : c.percentA, c })),
+    [curve, measure],
+  );
+  const pointData = useMemo<Datum[]>(
+    () => points.map((p) => ({ kind: 'point', x: p.celsius, y: measure === 'ee' ? p.eePercent : p.percentA, p })),
+    [points, measure],
+  );
   const band = useMemo(
-    () => curve.filter((c) => c.band).map((c) => ({ x: c.celsius, lo: (measure === 'ee' ? c.band!.eePercent : c.band!.percentA)[0], hi: (measure === 'ee' ? c.band!.eePercent : c.band!.percentA)[1] })),
+    () =>
+      curve
+        .filter((c) => c.band)
+        .map((c) => ({
+          x: c.celsius,
+          lo: (measure === 'ee' ? c.band!.eePercent : c.band!.percentA)[0],
+          hi: (measure === 'ee' ? c.band!.eePercent : c.band!.percentA)[1],
+        })),
     [curve, measure],
   );
 
   const xDomain = useMemo(() => paddedExtent([...curveData.map(xOf), ...pointData.map(xOf)], 0.02, 5), [curveData, pointData]);
   const yDomain = useMemo<[number, number]>(() => {
-    const [lo, hi] = paddedExtent([...curveData.map(yOf), ...pointData.map(yOf), ...band.flatMap((b) => [b.lo, b.hi]), ...(spec != null ? [spec] : [])], 0.06, 1);
+    const [lo, hi] = paddedExtent(
+      [...curveData.map(yOf), ...pointData.map(yOf), ...band.flatMap((b) => [b.lo, b.hi]), ...(spec != null ? [spec] : [])],
+      0.06,
+      1,
+    );
     const ceiling = 100;
     const floor = measure === 'ee' ? -100 : 0;
     return [Math.max(floor, lo), Math.min(ceiling, hi)];
@@ -96,7 +127,7 @@ export function SelectivityChart({ curve, points = [], measure, spec, curveLabel
           <XYChart
             width={chartWidth}
             height={height}
-            margin={{ top: 18, right: 20, bottom: 46, left: 58 }}
+            margin={{ top: 18, right: 20, bottom: 46, left: 66 }}
             theme={chartTheme}
             xScale={{ type: 'linear', domain: xDomain, zero: false }}
             yScale={{ type: 'linear', domain: yDomain, zero: false, nice: true, clamp: true }}
@@ -118,12 +149,39 @@ export function SelectivityChart({ curve, points = [], measure, spec, curveLabel
               />
             )}
             {spec != null && <HorizontalRule y={spec} label={`specification ${fixed(spec, spec % 1 === 0 ? 0 : 1)} ${unitText}`} />}
-            {curveData.length > 1 && <LineSeries dataKey="curve" data={curveData} xAccessor={xOf} yAccessor={yOf} stroke={chartColors.accent} strokeWidth={2} />}
+            {curveData.length > 1 && (
+              <LineSeries
+                className="eyrie-curve-line"
+                dataKey="curve"
+                data={curveData}
+                xAccessor={xOf}
+                yAccessor={yOf}
+                stroke={chartColors.accent}
+                strokeWidth={2}
+              />
+            )}
             {curveData.length === 1 && <GlyphSeries dataKey="curve" data={curveData} xAccessor={xOf} yAccessor={yOf} />}
-            {pointData.length > 0 && <GlyphSeries dataKey="measurements" data={pointData} xAccessor={xOf} yAccessor={yOf} renderGlyph={PointGlyph} />}
+            {pointData.length > 0 && (
+              <GlyphSeries dataKey="measurements" data={pointData} xAccessor={xOf} yAccessor={yOf} renderGlyph={PointGlyph} />
+            )}
             {mark && <VerticalMark x={mark.celsius} label={mark.label} />}
-            <Axis orientation="bottom" numTicks={7} label="Temperature (°C)" labelProps={axisLabelProps} tickLabelProps={tickLabelProps} tickFormat={(v) => fixed(Number(v), 0)} />
-            <Axis orientation="left" numTicks={6} label={yLabel} labelProps={axisLabelProps} tickLabelProps={tickLabelProps} tickFormat={(v) => fixed(Number(v), Number.isInteger(Number(v)) ? 0 : 1)} />
+            <Axis
+              orientation="bottom"
+              numTicks={7}
+              label="Temperature (°C)"
+              labelProps={axisLabelProps}
+              tickLabelProps={tickLabelProps}
+              tickFormat={(v) => fixed(Number(v), 0)}
+            />
+            <Axis
+              orientation="left"
+              numTicks={6}
+              label={yLabel}
+              labelOffset={30}
+              labelProps={axisLabelProps}
+              tickLabelProps={tickLabelProps}
+              tickFormat={(v) => fixed(Number(v), Number.isInteger(Number(v)) ? 0 : 1)}
+            />
             <Tooltip<Datum>
               snapTooltipToDatumX
               snapTooltipToDatumY
@@ -176,9 +234,9 @@ export function SelectivityChart({ curve, points = [], measure, spec, curveLabel
             </LegendItem>
           )}
           <LegendItem label="strip: cold → warm">
-            <rect x="1" y="6" width="14" height="4" fill="url(#legend-thermal)" />
+            <rect x="1" y="6" width="14" height="4" fill={`url(#${legendGradient})`} />
             <defs>
-              <linearGradient id="legend-thermal">
+              <linearGradient id={legendGradient}>
                 <stop offset="0" stopColor="#2c5aa0" />
                 <stop offset="0.5" stopColor="#9a9a7a" />
                 <stop offset="1" stopColor="#b4452c" />

@@ -33,8 +33,15 @@ export function ChartControls({
           Specification (optional)
         </label>
         <div className="flex items-center gap-1.5">
-          <input id={id} inputMode="decimal" className={`${inputClass} w-20`} value={spec} onChange={(e) => onSpec(e.target.value)} placeholder="e.g. 99" />
-          <span className="text-sm text-ink-600">{measure === 'ee' ? '% ee' : '% A'}</span>
+          <input
+            id={id}
+            inputMode="decimal"
+            className={`${inputClass} w-20`}
+            value={spec}
+            onChange={(e) => onSpec(e.target.value)}
+            placeholder="e.g. 99"
+          />
+          <span className="whitespace-nowrap text-sm text-ink-600">{measure === 'ee' ? '% ee' : '% A'}</span>
         </div>
       </div>
     </div>

@@ -3,7 +3,7 @@ import type { FieldError } from '../../../lib/api-client';
 import { messagesFor } from '../lib/field-errors';
 
 export const inputClass =
-  'tnum w-full rounded border border-slate-300 bg-white px-2 py-1 text-sm text-ink-950 aria-[invalid=true]:border-red-600 aria-[invalid=true]:bg-red-50';
+  'tnum rounded border border-slate-300 bg-white px-2 py-1 text-sm text-ink-950 aria-[invalid=true]:border-red-600 aria-[invalid=true]:bg-red-50';
 export const selectClass = 'rounded border border-slate-300 bg-white px-1.5 py-1 text-sm text-ink-950';
 export const buttonClass = 'rounded bg-fjord-700 px-3 py-1.5 text-sm font-medium text-white hover:bg-fjord-800 disabled:opacity-60';
 export const secondaryButtonClass = 'rounded border border-slate-300 bg-white px-3 py-1.5 text-sm text-ink-800 hover:bg-slate-50';
@@ -100,7 +100,19 @@ export function SelectField<T extends string>({
 }
 
 /** A row of radio buttons styled as a segmented control (keyboard: arrow keys within the group). */
-export function Segmented<T extends string>({ legend, value, options, onChange, name }: { legend: string; value: T; options: Option<T>[]; onChange: (v: T) => void; name: string }) {
+export function Segmented<T extends string>({
+  legend,
+  value,
+  options,
+  onChange,
+  name,
+}: {
+  legend: string;
+  value: T;
+  options: Option<T>[];
+  onChange: (v: T) => void;
+  name: string;
+}) {
   return (
     <fieldset className="flex flex-col gap-1">
       <legend className="mb-1 text-xs font-medium text-ink-700">{legend}</legend>
@@ -112,7 +124,14 @@ export function Segmented<T extends string>({ legend, value, options, onChange, 
               value === o.value ? 'bg-white font-medium text-ink-950 shadow-sm' : 'text-ink-600 hover:text-ink-900'
             }`}
           >
-            <input type="radio" className="sr-only" name={name} value={o.value} checked={value === o.value} onChange={() => onChange(o.value)} />
+            <input
+              type="radio"
+              className="sr-only"
+              name={name}
+              value={o.value}
+              checked={value === o.value}
+              onChange={() => onChange(o.value)}
+            />
             {o.label}
           </label>
         ))}
@@ -165,8 +184,8 @@ export function ProblemAlert({ title, detail, errors = [] }: { title: string; de
 export function ConventionNote({ className = '' }: { className?: string }) {
   return (
     <p className={`text-xs text-ink-600 ${className}`}>
-      <span className="font-medium text-ink-800">Sign convention:</span> ΔΔX‡ = X‡(TS→B) − X‡(TS→A), B minus A; a positive ΔΔG‡ or ΔΔH‡ favours A, and
-      r = [A]/[B]. Much of the literature uses the opposite sign.
+      <span className="font-medium text-ink-800">Sign convention:</span> ΔΔX‡ = X‡(TS→B) − X‡(TS→A), B minus A; a positive ΔΔG‡ or ΔΔH‡
+      favours A, and r = [A]/[B]. Much of the literature uses the opposite sign.
     </p>
   );
 }

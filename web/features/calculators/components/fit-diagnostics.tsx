@@ -41,15 +41,33 @@ export function ResidualTable({
         <caption className="sr-only">Residuals and flags for each run</caption>
         <thead className="bg-slate-50 text-xs text-ink-600">
           <tr className="border-b border-slate-200">
-            <th scope="col" className="px-2 py-1 text-left font-medium">Line</th>
-            <th scope="col" className="px-2 py-1 font-medium">T (°C)</th>
-            <th scope="col" className="px-2 py-1 font-medium">ee (%)</th>
-            <th scope="col" className="px-2 py-1 font-medium">ln r</th>
-            <th scope="col" className="px-2 py-1 font-medium">Residual</th>
-            <th scope="col" className="px-2 py-1 font-medium">Studentized</th>
-            <th scope="col" className="px-2 py-1 font-medium">Leverage</th>
-            <th scope="col" className="px-2 py-1 text-left font-medium">Status and flags</th>
-            <th scope="col" className="px-2 py-1 text-left font-medium">Exclude</th>
+            <th scope="col" className="px-2 py-1 text-left font-medium">
+              Line
+            </th>
+            <th scope="col" className="px-2 py-1 font-medium">
+              T (°C)
+            </th>
+            <th scope="col" className="px-2 py-1 font-medium">
+              ee (%)
+            </th>
+            <th scope="col" className="px-2 py-1 font-medium">
+              ln r
+            </th>
+            <th scope="col" className="px-2 py-1 font-medium">
+              Residual
+            </th>
+            <th scope="col" className="px-2 py-1 font-medium">
+              Studentized
+            </th>
+            <th scope="col" className="px-2 py-1 font-medium">
+              Leverage
+            </th>
+            <th scope="col" className="px-2 py-1 text-left font-medium">
+              Status and flags
+            </th>
+            <th scope="col" className="px-2 py-1 text-left font-medium">
+              Exclude
+            </th>
           </tr>
         </thead>
         <tbody>
@@ -67,7 +85,9 @@ export function ResidualTable({
                 <td className="px-2 py-1">{r.leverage === null ? '—' : fixed(r.leverage, 2)}</td>
                 <td className="px-2 py-1 text-left">
                   {r.status === 'censored' ? 'lower bound (censored)' : r.status === 'excluded' ? 'excluded' : 'fitted'}
-                  {flagged && <span className="ml-1 font-medium text-caution-700">⚑ {r.flags.map((f) => FLAG_TEXT[f] ?? f).join(', ')}</span>}
+                  {flagged && (
+                    <span className="ml-1 font-medium text-caution-700">⚑ {r.flags.map((f) => FLAG_TEXT[f] ?? f).join(', ')}</span>
+                  )}
                 </td>
                 <td className="px-2 py-1 text-left">
                   {line !== undefined && (
@@ -93,12 +113,16 @@ export function TwoBranchBox({ twoBranch }: { twoBranch: NonNullable<FitResponse
   const preferTwo = twoBranch.preferred === 'two-branch';
   const branch = (name: string, b: typeof twoBranch.low) => (
     <li>
-      {name}: {fixed(b.fromKelvin - 273.15, 0)} to {fixed(b.toKelvin - 273.15, 0)} °C, n = {b.n}, ΔΔH‡ = {fixed(b.ddH['kJ/mol'], 1)} kJ/mol (
-      {fixed(b.ddH['kcal/mol'], 2)} kcal/mol), ΔΔS‡ = {fixed(b.ddS['J/(mol*K)'], 1)} J/(mol·K) ({fixed(b.ddS['cal/(mol*K)'], 2)} cal/(mol·K))
+      {name}: {fixed(b.fromKelvin - 273.15, 0)} to {fixed(b.toKelvin - 273.15, 0)} °C, n = {b.n}, ΔΔH‡ = {fixed(b.ddH['kJ/mol'], 1)} kJ/mol
+      ({fixed(b.ddH['kcal/mol'], 2)} kcal/mol), ΔΔS‡ = {fixed(b.ddS['J/(mol*K)'], 1)} J/(mol·K) ({fixed(b.ddS['cal/(mol*K)'], 2)}{' '}
+      cal/(mol·K))
     </li>
   );
   return (
-    <section aria-label="Two-branch check" className={`rounded-md border px-3 py-2 text-sm ${preferTwo ? 'border-fjord-600/50 bg-fjord-50' : 'border-slate-200 bg-slate-50'}`}>
+    <section
+      aria-label="Two-branch check"
+      className={`rounded-md border px-3 py-2 text-sm ${preferTwo ? 'border-fjord-600/50 bg-fjord-50' : 'border-slate-200 bg-slate-50'}`}
+    >
       <p className="font-medium text-ink-900">
         Two-branch check: {preferTwo ? 'two straight branches describe the screen better than one line' : 'one straight line is preferred'}
       </p>
@@ -106,13 +130,17 @@ export function TwoBranchBox({ twoBranch }: { twoBranch: NonNullable<FitResponse
         {branch('Low-temperature branch', twoBranch.low)}
         {branch('High-temperature branch', twoBranch.high)}
         <li>
-          F test: F = {fixed(twoBranch.fTest.F, 2)} on ({twoBranch.fTest.dof1}, {twoBranch.fTest.dof2}) dof, p = {twoBranch.fTest.p < 0.001 ? '< 0.001' : fixed(twoBranch.fTest.p, 3)}; {twoBranch.informationCriterion.name} one line{' '}
-          {fixed(twoBranch.informationCriterion.oneLine, 1)}, two branches {fixed(twoBranch.informationCriterion.twoBranch, 1)} (lower is better)
+          F test: F = {fixed(twoBranch.fTest.F, 2)} on ({twoBranch.fTest.dof1}, {twoBranch.fTest.dof2}) dof, p ={' '}
+          {twoBranch.fTest.p < 0.001 ? '< 0.001' : fixed(twoBranch.fTest.p, 3)}; {twoBranch.informationCriterion.name} one line{' '}
+          {fixed(twoBranch.informationCriterion.oneLine, 1)}, two branches {fixed(twoBranch.informationCriterion.twoBranch, 1)} (lower is
+          better)
         </li>
         <li>
           Break between {fixed(twoBranch.breakBetweenKelvin[0] - 273.15, 0)} and {fixed(twoBranch.breakBetweenKelvin[1] - 273.15, 0)} °C
           {twoBranch.isoinversion
-            ? `; the branches cross at the isoinversion temperature ${fixed(twoBranch.isoinversion.celsius, 0)} °C (${fixed(twoBranch.isoinversion.kelvin, 0)} K)`
+            ? preferTwo
+              ? `; the branches cross at the isoinversion temperature ${fixed(twoBranch.isoinversion.celsius, 0)} °C (${fixed(twoBranch.isoinversion.kelvin, 0)} K)`
+              : `; the trial branches would cross at ${fixed(twoBranch.isoinversion.celsius, 0)} °C, but the data do not support a break, so there is no isoinversion temperature to report`
             : '; the branches do not cross within reach'}
         </li>
       </ul>

@@ -11,7 +11,16 @@ import { normalisePath, tidyMessage } from '../lib/field-errors';
 import { buildFitRequest, errorBarLnRatio, GRID_SIZE } from '../lib/fit-request';
 import { parseScreen, type ScreenParseError, type ScreenRow, type SelectivityMeasure, type TemperatureUnit } from '../lib/parse-screen';
 import { ChartControls, parseSpec } from './chart-controls';
-import { buttonClass, measureOptions, NumberField, ProblemAlert, Segmented, secondaryButtonClass, SelectField, temperatureUnitOptions } from './fields';
+import {
+  buttonClass,
+  measureOptions,
+  NumberField,
+  ProblemAlert,
+  Segmented,
+  secondaryButtonClass,
+  SelectField,
+  temperatureUnitOptions,
+} from './fields';
 import { FitParameterTable } from './fit-parameter-table';
 import { FitWarnings, ResidualTable, TwoBranchBox } from './fit-diagnostics';
 import { PredictionBox } from './prediction-box';
@@ -28,7 +37,10 @@ interface Submitted {
 }
 
 function numberOrNull(text: string): number | null | 'invalid' {
-  const t = text.trim().replace(/\u2212/g, '-').replace(',', '.');
+  const t = text
+    .trim()
+    .replace(/\u2212/g, '-')
+    .replace(',', '.');
   if (t === '') return null;
   return /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/.test(t) ? Number(t) : 'invalid';
 }
@@ -36,7 +48,10 @@ function numberOrNull(text: string): number | null | 'invalid' {
 const lnOf = (iv: [number, number] | undefined | null): [number, number] | null => (iv ? [Math.log(iv[0]), Math.log(iv[1])] : null);
 
 /** Split the API's field errors: those on a measurement go to its pasted line, the rest to the form. */
-function mapFitErrors(errors: FieldError[], submitted: Submitted | null): { lineErrors: ScreenParseError[]; proposed: string[]; other: FieldError[] } {
+function mapFitErrors(
+  errors: FieldError[],
+  submitted: Submitted | null,
+): { lineErrors: ScreenParseError[]; proposed: string[]; other: FieldError[] } {
   const lineErrors: ScreenParseError[] = [];
   const proposed: string[] = [];
   const other: FieldError[] = [];
@@ -188,14 +203,20 @@ export function FitPanel() {
           </div>
           {formProblem && <ProblemAlert title="Not sent" detail={formProblem} />}
           {query.error && (mapped.other.length > 0 || mapped.lineErrors.length === 0) && (
-            <ProblemAlert title={query.error instanceof ApiError ? query.error.problem.title : 'The fit failed'} detail={query.error.message} errors={mapped.other} />
+            <ProblemAlert
+              title={query.error instanceof ApiError ? query.error.problem.title : 'The fit failed'}
+              detail={query.error.message}
+              errors={mapped.other}
+            />
           )}
         </form>
 
         <div className="flex min-w-0 flex-col gap-4" aria-live="polite">
           {!fit && !query.isFetching && (
             <p className="rounded border border-dashed border-slate-300 px-3 py-6 text-center text-sm text-ink-500">
-              Paste a screen (or load the invented example), then press Fit screen.
+              {query.error
+                ? 'No fit: see the messages beside the inputs.'
+                : 'Paste a screen (or load the invented example), then press Fit screen.'}
             </p>
           )}
           {fit && view && submitted && (
@@ -205,7 +226,7 @@ export function FitPanel() {
                 points={view.points}
                 curve={view.curve}
                 branches={
-                  fit.twoBranch
+                  fit.twoBranch?.preferred === 'two-branch'
                     ? [
                         { label: 'low', ...fit.twoBranch.low },
                         { label: 'high', ...fit.twoBranch.high },
@@ -216,19 +237,16 @@ export function FitPanel() {
                 confidenceLevel={fit.confidence}
               />
               <FitWarnings warnings={fit.warnings} />
-              <div className="grid gap-4 xl:grid-cols-2">
-                <FitParameterTable fit={fit} />
-                <div className="flex flex-col gap-3">
-                  {view.proposed ? (
-                    <PredictionBox prediction={view.proposed} confidence={fit.confidence} />
-                  ) : (
-                    <p className="text-sm text-ink-500">Enter a proposed temperature to get a prediction with its interval.</p>
-                  )}
-                </div>
-              </div>
+              {view.proposed ? (
+                <PredictionBox prediction={view.proposed} confidence={fit.confidence} />
+              ) : (
+                <p className="text-sm text-ink-500">Enter a proposed temperature to get a prediction with its interval.</p>
+              )}
+              <FitParameterTable fit={fit} />
               {fit.zeroSelectivity && (
                 <p className="tnum text-sm text-ink-700">
-                  Selectivity would vanish at {fixed(fit.zeroSelectivity.celsius, 0)} °C ({fixed(fit.zeroSelectivity.kelvin, 0)} K). {fit.zeroSelectivity.note}
+                  Selectivity would vanish at {fixed(fit.zeroSelectivity.celsius, 0)} °C ({fixed(fit.zeroSelectivity.kelvin, 0)} K).{' '}
+                  {fit.zeroSelectivity.note}
                 </p>
               )}
               {fit.twoBranch && <TwoBranchBox twoBranch={fit.twoBranch} />}
@@ -249,8 +267,15 @@ export function FitPanel() {
               </div>
               <div className="flex flex-col gap-1">
                 <h3 className="text-sm font-semibold text-ink-900">Runs and residuals</h3>
-                <ResidualTable fit={fit} lines={submitted.rows.map((r) => r.line)} excludedLines={excludedLines} onToggleExclude={toggleExclude} />
-                <p className="text-xs text-ink-500">Excluding a run refits at once; the run stays on the plot as a hollow circle. Note why you excluded it in your records.</p>
+                <ResidualTable
+                  fit={fit}
+                  lines={submitted.rows.map((r) => r.line)}
+                  excludedLines={excludedLines}
+                  onToggleExclude={toggleExclude}
+                />
+                <p className="text-xs text-ink-500">
+                  Excluding a run refits at once; the run stays on the plot as a hollow circle. Note why you excluded it in your records.
+                </p>
               </div>
               <p className="text-xs text-ink-600">{fit.convention}</p>
             </div>

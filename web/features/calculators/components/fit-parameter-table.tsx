@@ -11,7 +11,9 @@ function Row({ name, unit, value, se, ci }: { name: string; unit: string; value:
       <th scope="row" className="whitespace-nowrap px-2 py-1 text-left font-medium text-ink-800">
         {name}
       </th>
-      <td className="whitespace-nowrap px-2 py-1 text-right text-ink-950">{se ? (value > 0 ? '+' : '') + withUncertainty(value, se) : signed(value, d)}</td>
+      <td className="whitespace-nowrap px-2 py-1 text-right text-ink-950">
+        {se ? (value > 0 ? '+' : '') + withUncertainty(value, se) : signed(value, d)}
+      </td>
       <td className="whitespace-nowrap px-2 py-1 text-left text-ink-600">{unit}</td>
       <td className="whitespace-nowrap px-2 py-1 text-right text-ink-700">{ci ? `${fixed(ci[0], d)} to ${fixed(ci[1], d)}` : '—'}</td>
     </tr>
@@ -27,10 +29,18 @@ export function FitParameterTable({ fit }: { fit: FitResponse }) {
       <table className="tnum w-full border-collapse text-sm" aria-label="Fitted activation parameters">
         <thead className="text-xs text-ink-600">
           <tr className="border-b border-slate-200">
-            <th scope="col" className="px-2 py-1 text-left font-medium">Parameter (B − A)</th>
-            <th scope="col" className="px-2 py-1 text-right font-medium">Value ± SE</th>
-            <th scope="col" className="px-2 py-1 text-left font-medium">Unit</th>
-            <th scope="col" className="px-2 py-1 text-right font-medium">{level} CI</th>
+            <th scope="col" className="px-2 py-1 text-left font-medium">
+              Parameter (B − A)
+            </th>
+            <th scope="col" className="px-2 py-1 text-right font-medium">
+              Value ± SE
+            </th>
+            <th scope="col" className="px-2 py-1 text-left font-medium">
+              Unit
+            </th>
+            <th scope="col" className="px-2 py-1 text-right font-medium">
+              {level} CI
+            </th>
           </tr>
         </thead>
         <tbody>
@@ -61,8 +71,8 @@ export function FitParameterTable({ fit }: { fit: FitResponse }) {
         </dd>
       </dl>
       <p className="text-xs text-ink-500">
-        ΔΔH‡ and ΔΔS‡ are estimated together and are strongly correlated; their SEs are not independent, so every derived value above and every
-        band uses the full covariance.
+        ΔΔH‡ and ΔΔS‡ are estimated together and are strongly correlated; their SEs are not independent, so every derived value above and
+        every band uses the full covariance.
       </p>
       <ConventionNote />
     </div>

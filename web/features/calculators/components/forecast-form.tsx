@@ -62,9 +62,9 @@ export function ForecastForm({
         value={form.kind}
         onChange={(kind) => onChange({ kind })}
         options={[
-          { value: 'observed', label: 'Observed selectivity' },
-          { value: 'gap', label: 'Energy gap ΔΔG‡' },
-          { value: 'activation', label: 'ΔΔH‡ and ΔΔS‡' },
+          { value: 'observed', label: 'Observed' },
+          { value: 'gap', label: 'Gap ΔΔG‡' },
+          { value: 'activation', label: 'ΔΔH‡ + ΔΔS‡' },
         ]}
       />
 
@@ -77,7 +77,9 @@ export function ForecastForm({
             onChange={(selectivity) => onChange({ selectivity })}
             errors={errors}
             placeholder={selectivityPlaceholder[form.measure]}
-            unit={<SelectField label="Measure" value={form.measure} options={measureOptions} onChange={(measure) => onChange({ measure })} />}
+            unit={
+              <SelectField label="Measure" value={form.measure} options={measureOptions} onChange={(measure) => onChange({ measure })} />
+            }
             hint="of A, the isomer named first"
           />
         </div>
@@ -94,7 +96,12 @@ export function ForecastForm({
             placeholder="e.g. 5.7"
             unit={
               <>
-                <SelectField label="Energy unit" value={form.gapUnit} options={energyUnitOptions} onChange={(gapUnit) => onChange({ gapUnit })} />
+                <SelectField
+                  label="Energy unit"
+                  value={form.gapUnit}
+                  options={energyUnitOptions}
+                  onChange={(gapUnit) => onChange({ gapUnit })}
+                />
                 <SelectField
                   label="Favouring"
                   value={form.gapFavours}
@@ -123,7 +130,14 @@ export function ForecastForm({
           onChange={(temperature) => onChange({ temperature })}
           errors={errors}
           placeholder="e.g. −20"
-          unit={<SelectField label="Temperature unit" value={form.temperatureUnit} options={temperatureUnitOptions} onChange={(temperatureUnit) => onChange({ temperatureUnit })} />}
+          unit={
+            <SelectField
+              label="Temperature unit"
+              value={form.temperatureUnit}
+              options={temperatureUnitOptions}
+              onChange={(temperatureUnit) => onChange({ temperatureUnit })}
+            />
+          }
         />
       )}
 
@@ -136,7 +150,14 @@ export function ForecastForm({
             onChange={(ddH) => onChange({ ddH })}
             errors={errors}
             placeholder="e.g. 10"
-            unit={<SelectField label="ΔΔH‡ unit" value={form.ddHUnit} options={energyUnitOptions} onChange={(ddHUnit) => onChange({ ddHUnit })} />}
+            unit={
+              <SelectField
+                label="ΔΔH‡ unit"
+                value={form.ddHUnit}
+                options={energyUnitOptions}
+                onChange={(ddHUnit) => onChange({ ddHUnit })}
+              />
+            }
           />
         )}
         <NumberField
@@ -147,14 +168,28 @@ export function ForecastForm({
           errors={errors}
           placeholder={ddSOptional ? 'assumed 0' : 'e.g. 8'}
           hint={ddSOptional ? 'Empty: assumed zero, so ΔΔG‡ is the same at every temperature.' : undefined}
-          unit={<SelectField label="ΔΔS‡ unit" value={form.ddSUnit} options={entropyUnitOptions} onChange={(ddSUnit) => onChange({ ddSUnit })} />}
+          unit={
+            <SelectField
+              label="ΔΔS‡ unit"
+              value={form.ddSUnit}
+              options={entropyUnitOptions}
+              onChange={(ddSUnit) => onChange({ ddSUnit })}
+            />
+          }
         />
       </div>
       <ConventionNote />
 
       <fieldset className="flex flex-wrap items-start gap-3 border-t border-slate-200 pt-3">
         <legend className="sr-only">Temperature range</legend>
-        <NumberField label="From" path="temperatures.from" value={form.rangeFrom} onChange={(rangeFrom) => onChange({ rangeFrom })} errors={errors} width="w-20" />
+        <NumberField
+          label="From"
+          path="temperatures.from"
+          value={form.rangeFrom}
+          onChange={(rangeFrom) => onChange({ rangeFrom })}
+          errors={errors}
+          width="w-20"
+        />
         <NumberField
           label="to"
           path="temperatures.to"
@@ -162,9 +197,23 @@ export function ForecastForm({
           onChange={(rangeTo) => onChange({ rangeTo })}
           errors={errors}
           width="w-20"
-          unit={<SelectField label="Range unit" value={form.rangeUnit} options={temperatureUnitOptions} onChange={(rangeUnit) => onChange({ rangeUnit })} />}
+          unit={
+            <SelectField
+              label="Range unit"
+              value={form.rangeUnit}
+              options={temperatureUnitOptions}
+              onChange={(rangeUnit) => onChange({ rangeUnit })}
+            />
+          }
         />
-        <NumberField label="Temperatures" path="temperatures.count" value={form.count} onChange={(count) => onChange({ count })} errors={errors} width="w-16" />
+        <NumberField
+          label="Temperatures"
+          path="temperatures.count"
+          value={form.count}
+          onChange={(count) => onChange({ count })}
+          errors={errors}
+          width="w-16"
+        />
       </fieldset>
 
       <div>

@@ -40,7 +40,13 @@ export function ForecastPanel() {
     <Panel title="Forecast selectivity across temperature">
       <div className="grid gap-6 lg:grid-cols-[minmax(0,22rem)_minmax(0,1fr)]">
         <div className="flex flex-col gap-3">
-          <ForecastForm form={form} onChange={(patch) => setForm((f) => ({ ...f, ...patch }))} onSubmit={submit} errors={errors} busy={query.isFetching} />
+          <ForecastForm
+            form={form}
+            onChange={(patch) => setForm((f) => ({ ...f, ...patch }))}
+            onSubmit={submit}
+            errors={errors}
+            busy={query.isFetching}
+          />
           {query.error && !clientErrors.length && (serverErrors.length === 0 || leftover.length > 0) && (
             <ProblemAlert
               title={query.error instanceof ApiError ? query.error.problem.title : 'The forecast failed'}
@@ -54,7 +60,7 @@ export function ForecastPanel() {
         <div className="flex min-w-0 flex-col gap-3" aria-live="polite">
           {!data && !query.isFetching && (
             <p className="rounded border border-dashed border-slate-300 px-3 py-6 text-center text-sm text-ink-500">
-              Enter a basis and a range, then press Forecast.
+              {query.error ? 'No forecast: see the message beside the inputs.' : 'Enter a basis and a range, then press Forecast.'}
             </p>
           )}
           {data && (
@@ -70,7 +76,8 @@ export function ForecastPanel() {
               </div>
               {data.zeroSelectivity && (
                 <p className="tnum rounded border border-slate-200 bg-slate-50 px-3 py-2 text-sm text-ink-800">
-                  <span className="font-medium">Selectivity vanishes</span> at {fixed(data.zeroSelectivity.celsius, 0)} °C ({fixed(data.zeroSelectivity.kelvin, 0)} K)
+                  <span className="font-medium">Selectivity vanishes</span> at {fixed(data.zeroSelectivity.celsius, 0)} °C (
+                  {fixed(data.zeroSelectivity.kelvin, 0)} K)
                   {range && (data.zeroSelectivity.celsius < range[0] || data.zeroSelectivity.celsius > range[1]) ? (
                     <span className="ml-1 font-medium text-caution-700">(outside the range shown)</span>
                   ) : null}{' '}
@@ -89,7 +96,7 @@ export function ForecastPanel() {
                 </div>
               )}
               <p className="text-xs text-ink-600">{data.convention}</p>
-              <SafetyCaution compact />
+              <SafetyCaution />
             </>
           )}
         </div>

@@ -12,15 +12,38 @@ export function ForecastTable({ points, spec }: { points: Point[]; spec?: { valu
         <caption className="sr-only">Forecast selectivity by temperature</caption>
         <thead className="sticky top-0 bg-slate-50 text-xs text-ink-600">
           <tr className="border-b border-slate-200">
-            <th scope="col" className="px-2 py-1.5 font-medium">T (°C)</th>
-            <th scope="col" className="px-2 py-1.5 font-medium">T (K)</th>
-            <th scope="col" className="px-2 py-1.5 font-medium">ee (%)</th>
-            <th scope="col" className="px-2 py-1.5 font-medium">A (%)</th>
-            <th scope="col" className="px-2 py-1.5 font-medium">er (A:B)</th>
-            <th scope="col" className="px-2 py-1.5 font-medium">r</th>
-            <th scope="col" className="px-2 py-1.5 font-medium">ΔΔG‡ (kJ/mol)</th>
-            <th scope="col" className="px-2 py-1.5 font-medium">ΔΔG‡ (kcal/mol)</th>
-            {spec && <th scope="col" className="px-2 py-1.5 font-medium">Meets spec</th>}
+            <th scope="col" className="w-4 px-0 py-1.5">
+              <span className="sr-only">Temperature colour</span>
+            </th>
+            <th scope="col" className="px-2 py-1.5 font-medium">
+              T (°C)
+            </th>
+            <th scope="col" className="px-2 py-1.5 font-medium">
+              T (K)
+            </th>
+            <th scope="col" className="px-2 py-1.5 font-medium">
+              ee (%)
+            </th>
+            <th scope="col" className="px-2 py-1.5 font-medium">
+              A (%)
+            </th>
+            <th scope="col" className="px-2 py-1.5 font-medium">
+              er (A:B)
+            </th>
+            <th scope="col" className="px-2 py-1.5 font-medium">
+              r
+            </th>
+            <th scope="col" className="px-2 py-1.5 font-medium">
+              ΔΔG‡ (kJ/mol)
+            </th>
+            <th scope="col" className="px-2 py-1.5 font-medium">
+              ΔΔG‡ (kcal/mol)
+            </th>
+            {spec && (
+              <th scope="col" className="px-2 py-1.5 font-medium">
+                Meets spec
+              </th>
+            )}
           </tr>
         </thead>
         <tbody>
@@ -28,10 +51,14 @@ export function ForecastTable({ points, spec }: { points: Point[]; spec?: { valu
             const meets = spec ? (spec.measure === 'ee' ? p.eePercent : p.percentA) >= spec.value : null;
             return (
               <tr key={p.kelvin} className="border-b border-slate-100 last:border-0 hover:bg-slate-50">
-                <td className="px-2 py-1">
-                  <span className="mr-1.5 inline-block h-2 w-2 rounded-full align-middle" style={{ background: thermalColor(p.celsius) }} aria-hidden="true" />
-                  {fixed(p.celsius, 1)}
+                <td className="py-1 pl-2">
+                  <span
+                    className="inline-block h-2 w-2 rounded-full align-middle"
+                    style={{ background: thermalColor(p.celsius) }}
+                    aria-hidden="true"
+                  />
                 </td>
+                <td className="px-2 py-1">{fixed(p.celsius, 1)}</td>
                 <td className="px-2 py-1 text-ink-600">{fixed(p.kelvin, 2)}</td>
                 <td className="px-2 py-1 font-medium text-ink-950">{percent(p.eePercent)}</td>
                 <td className="px-2 py-1">{percent(p.percentA)}</td>

@@ -10,50 +10,58 @@ export function PredictionBox({ prediction, confidence }: { prediction: Predicti
   const pi = prediction.predictionInterval;
   const ci = prediction.confidenceInterval;
   return (
-    <section aria-label="Prediction at the proposed temperature" className="flex flex-col gap-2 rounded-md border border-fjord-600/40 bg-fjord-50 p-3">
-      <h3 className="text-sm font-semibold text-ink-900">
-        At {fixed(prediction.celsius, 1)} °C <span className="font-normal text-ink-600">({fixed(prediction.kelvin, 2)} K)</span>
-      </h3>
-      <dl className="tnum grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm">
-        <dt className="text-ink-600">ee</dt>
-        <dd>
-          <span className="text-lg font-semibold text-ink-950">{percent(prediction.eePercent)} %</span>
-          {pi && (
-            <span className="ml-2 text-ink-700">
-              {level} prediction interval {percent(pi.eePercent[0])} to {percent(pi.eePercent[1])} %
-            </span>
+    <section
+      aria-label="Prediction at the proposed temperature"
+      className="grid gap-3 rounded-md border border-fjord-600/40 bg-fjord-50 p-3 xl:grid-cols-[minmax(0,1fr)_18rem]"
+    >
+      <div className="flex flex-col gap-2">
+        <h3 className="text-sm font-semibold text-ink-900">
+          At {fixed(prediction.celsius, 1)} °C <span className="font-normal text-ink-600">({fixed(prediction.kelvin, 2)} K)</span>
+        </h3>
+        <dl className="tnum grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm">
+          <dt className="text-ink-600">ee</dt>
+          <dd>
+            <span className="text-lg font-semibold text-ink-950">{percent(prediction.eePercent)} %</span>
+            {pi && (
+              <span className="ml-2 text-ink-700">
+                {level} prediction interval {percent(pi.eePercent[0])} to {percent(pi.eePercent[1])} %
+              </span>
+            )}
+          </dd>
+          <dt className="text-ink-600">% A</dt>
+          <dd>
+            <span className="font-medium text-ink-950">{percent(prediction.percentA)} %</span>
+            {pi && (
+              <span className="ml-2 text-ink-700">
+                interval {percent(pi.percentA[0])} to {percent(pi.percentA[1])} %
+              </span>
+            )}
+            <span className="ml-2 text-ink-600">er {enantiomericRatio(prediction.percentA)}</span>
+          </dd>
+          {ci && (
+            <>
+              <dt className="text-ink-600">Mean line</dt>
+              <dd className="text-ink-700">
+                {level} confidence interval {percent(ci.eePercent[0])} to {percent(ci.eePercent[1])} % ee
+              </dd>
+            </>
           )}
-        </dd>
-        <dt className="text-ink-600">A</dt>
-        <dd>
-          <span className="font-medium text-ink-950">{percent(prediction.percentA)} %</span>
-          {pi && (
-            <span className="ml-2 text-ink-700">
-              interval {percent(pi.percentA[0])} to {percent(pi.percentA[1])} %
-            </span>
-          )}
-          <span className="ml-2 text-ink-600">er {enantiomericRatio(prediction.percentA)}</span>
-        </dd>
-        {ci && (
-          <>
-            <dt className="text-ink-600">Mean line</dt>
-            <dd className="text-ink-700">
-              {level} confidence interval {percent(ci.eePercent[0])} to {percent(ci.eePercent[1])} % ee
-            </dd>
-          </>
+          <dt className="text-ink-600">ΔΔG‡</dt>
+          <dd className="text-ink-700">
+            {withUncertainty(prediction.ddG['kJ/mol'], prediction.ddGSe?.['kJ/mol'])} kJ/mol ·{' '}
+            {withUncertainty(prediction.ddG['kcal/mol'], prediction.ddGSe?.['kcal/mol'])} kcal/mol
+          </dd>
+        </dl>
+        {!pi && <p className="text-xs text-ink-600">No interval: the fit has no estimate of scatter (see the warnings).</p>}
+        {prediction.extrapolated && (
+          <p className="text-sm font-medium text-caution-700">
+            <span aria-hidden="true">⚠ </span>Outside the screened temperatures: an extrapolation, trust it less than the interval suggests.
+          </p>
         )}
-        <dt className="text-ink-600">ΔΔG‡</dt>
-        <dd className="text-ink-700">
-          {withUncertainty(prediction.ddG['kJ/mol'], prediction.ddGSe?.['kJ/mol'])} kJ/mol · {withUncertainty(prediction.ddG['kcal/mol'], prediction.ddGSe?.['kcal/mol'])} kcal/mol
-        </dd>
-      </dl>
-      {!pi && <p className="text-xs text-ink-600">No interval: the fit has no estimate of scatter (see the warnings).</p>}
-      {prediction.extrapolated && (
-        <p className="text-sm font-medium text-caution-700">
-          <span aria-hidden="true">⚠ </span>Outside the screened temperatures: an extrapolation, trust it less than the interval suggests.
+        <p className="text-xs text-ink-600">
+          The prediction interval is where a single new run is expected to fall; the confidence interval is for the mean line only.
         </p>
-      )}
-      <p className="text-xs text-ink-600">The prediction interval is where a single new run is expected to fall; the confidence interval is for the mean line only.</p>
+      </div>
       <SafetyCaution />
     </section>
   );

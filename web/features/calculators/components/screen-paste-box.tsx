@@ -35,7 +35,7 @@ export function ScreenPasteBox({
         name="measurements"
         rows={9}
         spellCheck={false}
-        className={`${inputClass} font-mono text-[13px] leading-5`}
+        className={`${inputClass} w-full font-mono text-[13px] leading-5`}
         value={value}
         onChange={(e) => onChange(e.target.value)}
         aria-invalid={sorted.length > 0}
@@ -50,7 +50,12 @@ export function ScreenPasteBox({
         </span>
       </p>
       {sorted.length > 0 && (
-        <ul id={`${id}-errors`} role="alert" aria-label="Problems in the pasted screen" className="rounded border border-red-300 bg-red-50 px-3 py-1.5 text-xs text-red-800">
+        <ul
+          id={`${id}-errors`}
+          role="alert"
+          aria-label="Problems in the pasted screen"
+          className="rounded border border-red-300 bg-red-50 px-3 py-1.5 text-xs text-red-800"
+        >
           {sorted.map((e, i) => (
             <li key={i} className="tnum">
               <span className="font-medium">Line {e.line}:</span> {e.message}

@@ -18,7 +18,11 @@ export function zodFieldErrors(error: z.ZodError): FieldError[] {
 export function tidyMessage(path: string, message: string): string {
   const p = normalisePath(path);
   if (!p || !message.startsWith(p)) return message;
-  const name = p.split('.').filter((s) => s !== 'value' && !/^\d+$/.test(s)).pop() ?? 'value';
+  const name =
+    p
+      .split('.')
+      .filter((s) => s !== 'value' && !/^\d+$/.test(s))
+      .pop() ?? 'value';
   return name + message.slice(p.length);
 }
 

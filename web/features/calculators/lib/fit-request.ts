@@ -59,7 +59,12 @@ export function buildFitRequest(rows: ScreenRow[], settings: FitSettings): FitRe
  * ee and % A: value ± SD in percentage points; er, dr, ratio: r·(1 ± relative SD).
  * An end that would leave the physical range is returned as null (open bar).
  */
-export function errorBarLnRatio(measure: SelectivityMeasure, lnRatio: number, value: number | string, sd: number | undefined): { low: number | null; high: number | null } | null {
+export function errorBarLnRatio(
+  measure: SelectivityMeasure,
+  lnRatio: number,
+  value: number | string,
+  sd: number | undefined,
+): { low: number | null; high: number | null } | null {
   if (sd === undefined) return null;
   if (measure === 'ee') {
     const v = typeof value === 'number' ? value : NaN;

@@ -49,7 +49,10 @@ export const initialForecastForm: ForecastFormState = {
 
 /** Empty text is "not given"; anything else must read as a number (NaN lets the schema say so). */
 function num(text: string): number | undefined {
-  const t = text.trim().replace(/\u2212/g, '-').replace(',', '.');
+  const t = text
+    .trim()
+    .replace(/\u2212/g, '-')
+    .replace(',', '.');
   if (t === '') return undefined;
   return /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/.test(t) ? Number(t) : NaN;
 }
@@ -70,7 +73,12 @@ export function toForecastRequest(form: ForecastFormState): { request: ForecastR
   if (form.kind === 'observed') {
     const text = form.selectivity.trim();
     const ratioText = /^\d+(\.\d+)?\s*:\s*\d+(\.\d+)?$/.test(text) && ['er', 'dr', 'ratio'].includes(form.measure);
-    basis = { kind: 'observed', selectivity: { measure: form.measure, value: ratioText ? text : num(text) }, temperature, ...(ddS ? { ddS } : {}) };
+    basis = {
+      kind: 'observed',
+      selectivity: { measure: form.measure, value: ratioText ? text : num(text) },
+      temperature,
+      ...(ddS ? { ddS } : {}),
+    };
   } else if (form.kind === 'gap') {
     const size = num(form.gap);
     const value = size === undefined || Number.isNaN(size) ? size : form.gapFavours === 'A' ? size : -size;

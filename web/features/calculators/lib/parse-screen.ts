@@ -66,7 +66,13 @@ export function parseScreen(text: string, measure: SelectivityMeasure, unit: Tem
 
     const first = !seenContent;
     seenContent = true;
-    if (first && fields.length >= 2 && /[a-z]/i.test(fields[0]) && toNumber(fields[0], decimalComma) === null && toNumber(fields[1].replace(/%$/, ''), decimalComma) === null) {
+    if (
+      first &&
+      fields.length >= 2 &&
+      /[a-z]/i.test(fields[0]) &&
+      toNumber(fields[0], decimalComma) === null &&
+      toNumber(fields[1].replace(/%$/, ''), decimalComma) === null
+    ) {
       headerLine = line;
       return;
     }
