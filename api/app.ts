@@ -22,6 +22,7 @@ import { createInProcessMailer, createSmtpMailer, type Mailer } from './features
 import { mailboxRouter } from './features/mail/routes';
 import { rateLimit } from 'express-rate-limit';
 import { computeRouter } from './features/compute/routes';
+import { kineticsRouter } from './features/kinetics/routes';
 import { docsRouter } from './features/docs/routes';
 
 export interface AppDeps {
@@ -95,6 +96,7 @@ export function createApp(deps: AppDeps): Express {
     handler: (_req, _res, next) => next(new TooManyRequestsError('Too many calculations from this address; wait a few minutes.')),
   });
   api.use('/v1', computeRouter([computeLimit]));
+  api.use('/v1', kineticsRouter([computeLimit]));
   api.use('/v1', docsRouter({ version: deps.config.version }));
   api.use('/{*splat}', notFoundHandler);
   app.use('/api', api);

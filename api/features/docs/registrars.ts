@@ -1,5 +1,6 @@
 import type { OpenApiRegistrar } from '../../lib/openapi';
 import { registerCompute } from '../compute/openapi';
+import { registerKinetics } from '../kinetics/openapi';
 
 /** Every feature that documents its routes in the OpenAPI description adds its registrar here. */
-export const openApiRegistrars: OpenApiRegistrar[] = [registerCompute];
+export const openApiRegistrars: OpenApiRegistrar[] = [registerCompute, registerKinetics];
