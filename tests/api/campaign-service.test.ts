@@ -76,16 +76,16 @@ describe('importMeasurements', () => {
     expect(await auditCount(campaign.id)).toBe(0);
   });
 
-  it('when the database fails after some chunks were inserted, then the whole import rolls back', async () => {
+  it('when the database fails after the rows were inserted, then the whole import rolls back', async () => {
     const campaign = await createCampaign(project.id);
     const lines = Array.from({ length: 2500 }, (_, i) => `${(200 + i * 0.04).toFixed(2)},${(90 + (i % 90) / 10).toFixed(1)},S-${i}`);
     const file = { name: 'big.csv', buffer: Buffer.from(`T (K),ee (%),sample\n${lines.join('\n')}\n`) };
     const mapping = importMappingSchema.parse({ columns: { temperature: 0, value: 1, sampleId: 2 }, temperatureUnit: 'K', measure: 'ee' });
-    // An actor who is not a user: every measurement chunk goes in, then the audit insert breaks its foreign key.
+    // An actor who is not a user: the measurements go in, then the audit insert breaks its foreign key.
     const ghost = { projectId: project.id, actorUserId: randomUUID() };
     await expect(importMeasurements(db, ghost, campaign.id, file, { mapping })).rejects.toThrow();
     expect(await count('measurements', { campaignId: campaign.id })).toBe(0);
-    // The same file by a real user goes in completely, in three chunks.
+    // The same file by a real user goes in completely.
     const ok = await importMeasurements(db, actor(), campaign.id, file, { mapping });
     expect(ok.inserted).toBe(2500);
     expect(await count('measurements', { campaignId: campaign.id })).toBe(2500);

@@ -275,6 +275,168 @@ function round(x: number, digits = 2): string {
   return String(Math.round(x * 10 ** digits) / 10 ** digits).replace('-', '−');
 }
 
+/** What every row check needs; built once per file (no closures per row: they cost at 50 000 rows). */
+interface RowContext {
+  table: ParsedTable;
+  mapping: ImportMapping;
+  columns: Partial<Record<ImportField, number>>;
+  decimal: DecimalSeparator;
+  issues: ImportIssue[];
+  errorCount: number;
+  warningCount: number;
+}
+
+function addIssue(ctx: RowContext, severity: ImportIssue['severity'], row: number | null, field: ImportField | null, message: string): void {
+  if (severity === 'error') ctx.errorCount += 1;
+  else ctx.warningCount += 1;
+  if (ctx.issues.length < MAX_LISTED_ISSUES) {
+    ctx.issues.push({ severity, row, column: field === null ? null : columnLabel(ctx.table, ctx.columns[field]!), message });
+  }
+}
+
+function cellOf(ctx: RowContext, cells: Cell[], field: ImportField): Cell {
+  const i = ctx.columns[field];
+  return i === undefined ? null : cells[i];
+}
+
+/** Temperature in K from the temperature cell and its unit (unit column, unit in the cell, or the mapping's default); NaN after an error. */
+function readTemperatureK(ctx: RowContext, cells: Cell[], row: number): number {
+  const tCell = cellOf(ctx, cells, 'temperature');
+  if (tCell === null) {
+    addIssue(ctx, 'error', row, 'temperature', 'the temperature is missing.');
+    return Number.NaN;
+  }
+  let unit: TemperatureUnit | undefined;
+  let tValue: Cell = tCell;
+  if (typeof tCell === 'string') {
+    const m = CELL_WITH_UNIT.exec(tCell.trim());
+    if (m && m[1] !== '') {
+      tValue = m[1];
+      unit = temperatureUnitIn(`(${m[2]})`);
+    }
+  }
+  if (!unit) {
+    const uCell = cellOf(ctx, cells, 'temperatureUnit');
+    if (uCell !== null) {
+      unit = readTemperatureUnit(uCell);
+      if (!unit) addIssue(ctx, 'error', row, 'temperatureUnit', `unknown temperature unit "${cellText(uCell)}"; use K, °C or °F.`);
+    } else {
+      unit = ctx.mapping.temperatureUnit;
+      if (!unit) addIssue(ctx, 'error', row, 'temperatureUnit', 'the temperature unit is missing.');
+    }
+  }
+  const t = readNumber(tValue, ctx.decimal, 'temperature');
+  if (!t.ok) {
+    addIssue(ctx, 'error', row, 'temperature', `${t.message}.`);
+    return Number.NaN;
+  }
+  if (!unit) return Number.NaN;
+  const k = toKelvin(t.value, unit);
+  if (!(k > 0)) {
+    addIssue(ctx, 'error', row, 'temperature', `${round(t.value)} ${unitLabel(unit)} is at or below absolute zero${unit === 'K' ? '; is it in °C?' : '.'}`);
+    return Number.NaN;
+  }
+  if (k > MAX_TEMPERATURE_K) {
+    addIssue(ctx, 'error', row, 'temperature', `${round(t.value)} ${unitLabel(unit)} is ${round(k, 0)} K, above the ${MAX_TEMPERATURE_K} K accepted; is the unit right?`);
+    return Number.NaN;
+  }
+  // Plausibility: screens run roughly between −100 and +150 °C, so these are probably the wrong unit.
+  if (unit !== 'K' && t.value >= 190 && t.value <= 400) {
+    addIssue(ctx, 'warning', row, 'temperature', `${round(t.value)} labelled ${unitLabel(unit)} would be ${round(k)} K; it looks like a kelvin value. Check the unit.`);
+  } else if (unit === 'K' && k < 150) {
+    addIssue(ctx, 'warning', row, 'temperature', `${round(t.value)} K is ${round(k - 273.15)} °C, colder than any solution screen; it looks like a °C value. Check the unit.`);
+  }
+  return k;
+}
+
+function readMeasure(ctx: RowContext, cells: Cell[], row: number): SelectivityMeasure | undefined {
+  const mCell = cellOf(ctx, cells, 'measure');
+  if (mCell === null) {
+    if (!ctx.mapping.measure) addIssue(ctx, 'error', row, 'measure', 'the selectivity measure is missing.');
+    return ctx.mapping.measure;
+  }
+  const measure = MEASURE_WORDS[normaliseHeader(cellText(mCell))] ?? measureIn(cellText(mCell));
+  if (!measure) addIssue(ctx, 'error', row, 'measure', `unknown measure "${cellText(mCell)}"; use one of ${SELECTIVITY_MEASURES.join(', ')}.`);
+  return measure;
+}
+
+/** The selectivity: a number, "a:b" for ratios, possibly a lower bound ("≥ 99.8") at an assay limit. Null after an error. */
+function readSelectivity(ctx: RowContext, cells: Cell[], row: number, measure: SelectivityMeasure): { value: number; valueB: number | null; isLowerBound: boolean } | null {
+  const vCell = cellOf(ctx, cells, 'value');
+  if (vCell === null) {
+    addIssue(ctx, 'error', row, 'value', 'the selectivity value is missing.');
+    return null;
+  }
+  if (typeof vCell === 'number') {
+    const problem = selectivityProblem(measure, vCell);
+    if (problem) addIssue(ctx, 'error', row, 'value', `${problem.replace(/\.$/, '')}.`);
+    return problem ? null : { value: vCell, valueB: null, isLowerBound: false };
+  }
+  let text = vCell.trim();
+  let isLowerBound = false;
+  const sign = SIGNS.exec(text);
+  if (sign) {
+    if (!LOWER_BOUND.has(sign[1])) {
+      addIssue(ctx, 'error', row, 'value', `"${text}" is an upper bound; only lower bounds (≥, >) can be imported, e.g. "≥ 99.8" at the detection limit.`);
+      return null;
+    }
+    isLowerBound = true;
+    text = text.slice(sign[0].length);
+  }
+  if (measure !== 'dr' && measure !== 'ratio') text = text.replace(/\s*%$/, '');
+  let value: number;
+  let valueB: number | null = null;
+  let problem: string | null;
+  if (text.includes(':')) {
+    const normalised = ctx.decimal === ',' ? text.replace(/,/g, '.') : text;
+    problem = selectivityProblem(measure, normalised);
+    const pair = parseRatioPair(normalised);
+    value = pair?.a ?? Number.NaN;
+    valueB = pair?.b ?? null;
+  } else {
+    const n = readNumber(text, ctx.decimal, measure);
+    value = n.ok ? n.value : Number.NaN;
+    problem = n.ok ? selectivityProblem(measure, n.value) : n.message;
+  }
+  if (!problem && isLowerBound && measure === 'ee' && value < 0) problem = `a lower bound must be for product A (a positive ee), got "${vCell}"`;
+  if (problem) {
+    addIssue(ctx, 'error', row, 'value', `${problem.replace(/\.$/, '')}.`);
+    return null;
+  }
+  return { value, valueB, isLowerBound };
+}
+
+/** An optional number within [min, max] (`%` after it allowed); undefined after an error, null when blank. */
+function readOptionalNumber(ctx: RowContext, cells: Cell[], row: number, field: ImportField, what: string, min: number, max: number, unit: string): number | null | undefined {
+  const cell = cellOf(ctx, cells, field);
+  if (cell === null) return null;
+  const n = readNumber(typeof cell === 'string' ? cell.trim().replace(/\s*%$/, '') : cell, ctx.decimal, what);
+  if (!n.ok) {
+    addIssue(ctx, 'error', row, field, `${n.message}.`);
+    return undefined;
+  }
+  if (n.value < min || n.value > max) {
+    const range = max === Infinity ? `must not be negative` : max === 100 && min === 0 && unit === ' %' ? 'must lie between 0 and 100 %' : `must be at least ${min} and below ${max}`;
+    addIssue(ctx, 'error', row, field, `${what} ${round(n.value)}${unit} ${range}.`);
+    return undefined;
+  }
+  return n.value;
+}
+
+function readOptionalText(ctx: RowContext, cells: Cell[], row: number, field: ImportField, max: number): string | null | undefined {
+  const cell = cellOf(ctx, cells, field);
+  if (cell === null) return null;
+  const text = cellText(cell).trim();
+  if (text.length > max) {
+    addIssue(ctx, 'error', row, field, `the text is ${text.length} characters long; at most ${max} are kept.`);
+    return undefined;
+  }
+  return text;
+}
+
+const CELL_WITH_UNIT = /^(.*?)\s*(°\s?[CcFf]|℃|℉|[Kk]|deg\s?[CcFf])$/;
+const UNCERTAINTY_MAX = 100 - Number.EPSILON * 100;
+
 /**
  * Validate every data row against the mapping. Errors make the import impossible; warnings
  * (a value that looks like the wrong unit, a repeated row, an unmapped column) need the
@@ -282,186 +444,69 @@ function round(x: number, digits = 2): string {
  */
 export function validateRows(table: ParsedTable, mapping: ImportMapping): ValidationResult {
   const { columns, issues: mappingIssues } = resolveColumns(table, mapping);
-  const issues: ImportIssue[] = [...mappingIssues];
-  let errorCount = mappingIssues.length;
-  let warningCount = 0;
-  const add = (issue: ImportIssue) => {
-    if (issue.severity === 'error') errorCount += 1;
-    else warningCount += 1;
-    if (issues.length < MAX_LISTED_ISSUES) issues.push(issue);
-  };
-  if (errorCount > 0) return { rows: [], issues, errorCount, warningCount, rowCount: table.rows.length };
+  const ctx: RowContext = { table, mapping, columns, decimal: table.decimalSeparator, issues: [...mappingIssues], errorCount: mappingIssues.length, warningCount: 0 };
+  if (ctx.errorCount > 0) return { rows: [], issues: ctx.issues, errorCount: ctx.errorCount, warningCount: 0, rowCount: table.rows.length };
 
-  const mapped = new Set(Object.values(columns));
+  const mapped = Object.values(columns);
   table.headers.forEach((_h, i) => {
-    if (mapped.has(i)) return;
+    if (mapped.includes(i)) return;
     if (table.rows.some((r) => r.cells[i] !== null)) {
-      add({ severity: 'warning', row: null, column: columnLabel(table, i), message: 'this column is not mapped to any field; its values will not be imported.' });
+      ctx.warningCount += 1;
+      ctx.issues.push({ severity: 'warning', row: null, column: columnLabel(table, i), message: 'this column is not mapped to any field; its values will not be imported.' });
     }
   });
 
-  const label = (field: ImportField) => columnLabel(table, columns[field]!);
-  const cellOf = (cells: Cell[], field: ImportField): Cell => (columns[field] === undefined ? null : cells[columns[field]!]);
-  const decimal = table.decimalSeparator;
   const rows: ImportRow[] = [];
   const seenRows = new Map<string, number>();
   const seenSamples = new Map<string, number>();
-
-  for (const { rowNumber, cells } of table.rows) {
-    const errorsBefore = errorCount;
-    const error = (field: ImportField | null, message: string) => add({ severity: 'error', row: rowNumber, column: field ? label(field) : null, message });
-    const warn = (field: ImportField | null, message: string) => add({ severity: 'warning', row: rowNumber, column: field ? label(field) : null, message });
-
-    if ([...mapped].every((i) => cells[i] === null)) {
-      warn(null, 'the row is blank in every mapped column and is skipped.');
+  for (const { rowNumber: row, cells } of table.rows) {
+    let blank = true;
+    for (const i of mapped) if (cells[i] !== null) blank = false;
+    if (blank) {
+      addIssue(ctx, 'warning', row, null, 'the row is blank in every mapped column and is skipped.');
       continue;
     }
+    const errorsBefore = ctx.errorCount;
+    const temperatureK = readTemperatureK(ctx, cells, row);
+    const measure = readMeasure(ctx, cells, row);
+    const selectivity = measure ? readSelectivity(ctx, cells, row, measure) : null;
+    const uncertainty = readOptionalNumber(ctx, cells, row, 'uncertainty', 'uncertainty', 0, UNCERTAINTY_MAX, '');
+    const conversionPercent = readOptionalNumber(ctx, cells, row, 'conversionPercent', 'conversion', 0, 100, ' %');
+    const time = readOptionalNumber(ctx, cells, row, 'reactionTime', 'reaction time', 0, Infinity, '');
+    const sampleId = readOptionalText(ctx, cells, row, 'sampleId', 100);
+    const replicateLabel = readOptionalText(ctx, cells, row, 'replicateLabel', 40);
+    const notes = readOptionalText(ctx, cells, row, 'notes', 2000);
+    if (ctx.errorCount > errorsBefore || !measure || !selectivity) continue;
 
-    // Temperature and its unit (a unit column, a unit written in the cell, or the mapping's default).
-    let temperatureK = Number.NaN;
-    const tCell = cellOf(cells, 'temperature');
-    if (tCell === null) {
-      error('temperature', 'the temperature is missing.');
-    } else {
-      let cellUnit: TemperatureUnit | undefined;
-      let tValue: Cell = tCell;
-      if (typeof tCell === 'string') {
-        const m = /^(.*?)\s*(°\s?[CcFf]|℃|℉|[Kk]|deg\s?[CcFf])$/.exec(tCell.trim());
-        if (m && m[1] !== '') {
-          tValue = m[1];
-          cellUnit = temperatureUnitIn(`(${m[2]})`);
-        }
-      }
-      let unit = cellUnit;
-      if (!unit && columns.temperatureUnit !== undefined) {
-        const uCell = cellOf(cells, 'temperatureUnit');
-        if (uCell !== null) {
-          unit = readTemperatureUnit(uCell);
-          if (!unit) error('temperatureUnit', `unknown temperature unit "${cellText(uCell)}"; use K, °C or °F.`);
-        }
-      }
-      if (!unit && (columns.temperatureUnit === undefined || cellOf(cells, 'temperatureUnit') === null)) {
-        unit = mapping.temperatureUnit;
-        if (!unit) error('temperatureUnit', 'the temperature unit is missing.');
-      }
-      const t = readNumber(tValue, decimal, 'temperature');
-      if (!t.ok) error('temperature', `${t.message}.`);
-      else if (unit) {
-        temperatureK = toKelvin(t.value, unit);
-        if (!(temperatureK > 0)) {
-          error('temperature', `${round(t.value)} ${unitLabel(unit)} is at or below absolute zero${unit === 'K' ? '; is it in °C?' : '.'}`);
-        } else if (temperatureK > MAX_TEMPERATURE_K) {
-          error('temperature', `${round(t.value)} ${unitLabel(unit)} is ${round(temperatureK, 0)} K, above the ${MAX_TEMPERATURE_K} K accepted; is the unit right?`);
-        } else if (unit === 'C' && t.value >= 190 && t.value <= 400) {
-          warn('temperature', `${round(t.value)} labelled °C would be ${round(temperatureK)} K; it looks like a kelvin value. Check the unit.`);
-        } else if (unit === 'F' && t.value >= 190 && t.value <= 400) {
-          warn('temperature', `${round(t.value)} labelled °F would be ${round(temperatureK)} K; it looks like a kelvin value. Check the unit.`);
-        } else if (unit === 'K' && temperatureK < 150) {
-          warn('temperature', `${round(t.value)} K is ${round(temperatureK - 273.15)} °C, colder than any solution screen; it looks like a °C value. Check the unit.`);
-        }
-      }
-    }
-
-    // Measure: a measure column, or the mapping's default for the value column.
-    let measure: SelectivityMeasure | undefined;
-    const mCell = cellOf(cells, 'measure');
-    if (mCell !== null) {
-      measure = MEASURE_WORDS[normaliseHeader(cellText(mCell))] ?? measureIn(cellText(mCell));
-      if (!measure) error('measure', `unknown measure "${cellText(mCell)}"; use one of ${SELECTIVITY_MEASURES.join(', ')}.`);
-    } else {
-      measure = mapping.measure;
-      if (!measure) error('measure', 'the selectivity measure is missing.');
-    }
-
-    // Value: a number, "a:b" for ratios, possibly a lower bound (≥ 99.8) at an assay limit.
-    let value = Number.NaN;
-    let valueB: number | null = null;
-    let isLowerBound = false;
-    const vCell = cellOf(cells, 'value');
-    if (vCell === null) {
-      error('value', 'the selectivity value is missing.');
-    } else if (measure) {
-      let text = cellText(vCell).trim();
-      const sign = SIGNS.exec(text);
-      if (sign) {
-        if (!LOWER_BOUND.has(sign[1])) error('value', `"${text}" is an upper bound; only lower bounds (≥, >) can be imported, e.g. "≥ 99.8" at the detection limit.`);
-        isLowerBound = true;
-        text = text.slice(sign[0].length);
-      }
-      if (measure !== 'dr' && measure !== 'ratio') text = text.replace(/\s*%$/, '');
-      let problem: string | null = null;
-      if (text.includes(':')) {
-        const normalised = decimal === ',' ? text.replace(/,/g, '.') : text;
-        const pair = parseRatioPair(normalised);
-        problem = selectivityProblem(measure, normalised);
-        if (!problem && pair) {
-          value = pair.a;
-          valueB = pair.b;
-        }
-      } else {
-        const n = readNumber(typeof vCell === 'number' && !sign ? vCell : text, decimal, measure);
-        if (!n.ok) problem = n.message;
-        else {
-          problem = selectivityProblem(measure, n.value);
-          value = n.value;
-        }
-      }
-      if (problem) error('value', `${problem.replace(/\.$/, '')}.`);
-      else if (isLowerBound && measure === 'ee' && value < 0) error('value', `a lower bound must be for product A (a positive ee), got "${cellText(vCell)}".`);
-    }
-
-    const optionalNumber = (field: ImportField, what: string, check: (v: number) => string | null): number | null => {
-      const cell = cellOf(cells, field);
-      if (cell === null) return null;
-      const text = typeof cell === 'string' ? cell.trim().replace(/\s*%$/, '') : cell;
-      const n = readNumber(text, decimal, what);
-      if (!n.ok) {
-        error(field, `${n.message}.`);
-        return null;
-      }
-      const problem = check(n.value);
-      if (problem) {
-        error(field, problem);
-        return null;
-      }
-      return n.value;
-    };
-    const uncertainty = optionalNumber('uncertainty', 'uncertainty', (v) => (v >= 0 && v < 100 ? null : `uncertainty ${v} must be at least 0 and below 100.`));
-    const conversionPercent = optionalNumber('conversionPercent', 'conversion', (v) => (v >= 0 && v <= 100 ? null : `conversion ${v} % must lie between 0 and 100 %.`));
-    const time = optionalNumber('reactionTime', 'reaction time', (v) => (v >= 0 ? null : `reaction time ${v} must not be negative.`));
-    const reactionTimeS = time === null ? null : toSeconds(time, mapping.timeUnit);
-
-    const optionalText = (field: ImportField, max: number): string | null => {
-      const cell = cellOf(cells, field);
-      if (cell === null) return null;
-      const text = cellText(cell).trim();
-      if (text.length > max) {
-        error(field, `the text is ${text.length} characters long; at most ${max} are kept.`);
-        return null;
-      }
-      return text;
-    };
-    const sampleId = optionalText('sampleId', 100);
-    const replicateLabel = optionalText('replicateLabel', 40);
-    const notes = optionalText('notes', 2000);
-
-    if (errorCount > errorsBefore || !measure) continue;
-
-    const key = [temperatureK.toFixed(3), measure, value, valueB, isLowerBound, sampleId, replicateLabel].join('|');
+    const { value, valueB, isLowerBound } = selectivity;
+    const key = `${temperatureK.toFixed(3)}|${measure}|${value}|${valueB}|${isLowerBound}|${sampleId}|${replicateLabel}`;
     const firstRow = seenRows.get(key);
     if (firstRow !== undefined) {
-      warn(null, `the row repeats row ${firstRow} (same temperature, selectivity, sample id and replicate). Import it only if it is a genuine repeat.`);
+      addIssue(ctx, 'warning', row, null, `the row repeats row ${firstRow} (same temperature, selectivity, sample id and replicate). Import it only if it is a genuine repeat.`);
     } else {
-      seenRows.set(key, rowNumber);
-      if (sampleId !== null) {
+      seenRows.set(key, row);
+      if (sampleId) {
         const sampleRow = seenSamples.get(sampleId);
-        if (sampleRow !== undefined) warn('sampleId', `sample id "${sampleId}" is also used in row ${sampleRow}.`);
-        else seenSamples.set(sampleId, rowNumber);
+        if (sampleRow !== undefined) addIssue(ctx, 'warning', row, 'sampleId', `sample id "${sampleId}" is also used in row ${sampleRow}.`);
+        else seenSamples.set(sampleId, row);
       }
     }
-
-    rows.push({ sourceRow: rowNumber, temperatureK, measure, value, valueB, isLowerBound, uncertainty, replicateLabel, sampleId, conversionPercent, reactionTimeS, notes });
+    rows.push({
+      sourceRow: row,
+      temperatureK,
+      measure,
+      value,
+      valueB,
+      isLowerBound,
+      uncertainty: uncertainty ?? null,
+      replicateLabel: replicateLabel ?? null,
+      sampleId: sampleId ?? null,
+      conversionPercent: conversionPercent ?? null,
+      reactionTimeS: time === null || time === undefined ? null : toSeconds(time, mapping.timeUnit),
+      notes: notes ?? null,
+    });
   }
+  const { issues, errorCount, warningCount } = ctx;
   if (errorCount + warningCount > issues.length) {
     issues.push({
       severity: errorCount > 0 ? 'error' : 'warning',
