@@ -1,6 +1,7 @@
 import type { Knex } from 'knex';
 import { DEMO_IDENTITIES, DEMO_PROJECTS } from './demo';
 import { seedDemoProjects } from './seed-projects';
+import { seedDemoCampaigns } from './seed-campaigns';
 
 /**
  * Seed the invented demo scenario. Idempotent: running it twice changes
@@ -15,6 +16,7 @@ export async function seedDemo(knex: Knex): Promise<{ users: number; projects: n
         .ignore();
     }
     await seedDemoProjects(trx);
+    await seedDemoCampaigns(trx);
     return { users: DEMO_IDENTITIES.length, projects: DEMO_PROJECTS.length };
   });
 }
