@@ -485,3 +485,18 @@ describe('kinetics endpoints, any body', () => {
     expect(res.body.components.schemas.RateRequest).toBeDefined();
   });
 });
+
+describe('distribution size guard', () => {
+  it('when pathways × temperatures exceeds the cap, then 400 names temperatures and says why', async () => {
+    const { app } = testApp();
+    const pathways = Array.from({ length: 10 }, (_, i) => ({
+      label: `p${i}`,
+      barrier: { kind: 'gibbs', dG: { value: i, unit: 'kJ/mol' }, temperature: { value: 25, unit: 'C' } },
+    }));
+    const res = await request(app)
+      .post('/api/v1/distribution')
+      .send({ pathways, temperatures: { from: { value: 0, unit: 'C' }, to: { value: 50, unit: 'C' }, count: 2001 } })
+      .expect(400);
+    expect(res.body.errors[0]).toMatchObject({ path: 'temperatures', message: expect.stringContaining('10 × 2001') });
+  });
+});

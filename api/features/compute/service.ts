@@ -24,6 +24,7 @@ import {
   type SelectivityInterval,
   type TwoBranchFit,
 } from '../../science';
+import { expandTemperatures } from './temperatures';
 import type { FitRequest, FitResponse, ForecastRequest, ForecastResponse } from './schemas';
 
 type Quantity<U extends string> = { value: number; unit: U };
@@ -37,15 +38,8 @@ const pair = (f: (v: number) => number, [a, b]: [number, number]): [number, numb
 
 const toK = (t: TemperatureQ, path: string) => temperatureToK(t.value, t.unit, `${path}.value`);
 
-/** Resolve a range or a list of temperatures to kelvin, reporting errors at their request path. */
-export function resolveTemperatures(spec: Temperatures, path = 'temperatures'): number[] {
-  if ('values' in spec) return spec.values.map((t, i) => toK(t, `${path}.values.${i}`));
-  const from = toK(spec.from, `${path}.from`);
-  const to = toK(spec.to, `${path}.to`);
-  if (spec.count === 1) return [from];
-  const step = (to - from) / (spec.count - 1);
-  return Array.from({ length: spec.count }, (_, i) => (i === spec.count - 1 ? to : from + i * step));
-}
+/** A range or a list of temperatures in kelvin, errors reported at their request path. */
+export const resolveTemperatures = (spec: Temperatures, path = 'temperatures'): number[] => expandTemperatures(spec, path).kelvins;
 
 /**
  * The API reads a numeric er as the ratio r (like dr and ratio), per the published

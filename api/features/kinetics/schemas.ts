@@ -55,6 +55,9 @@ export const pathwaySchema = z
   })
   .meta({ id: 'Pathway' });
 
+/** Largest pathways × temperatures product one distribution request may ask for. */
+export const MAX_DISTRIBUTION_CELLS = 20_000;
+
 export const distributionRequestSchema = z
   .object({
     pathways: z
@@ -69,6 +72,17 @@ export const distributionRequestSchema = z
         });
       }),
     temperatures: temperaturesSchema,
+  })
+  .superRefine((body, ctx) => {
+    // Bound the response size: 50 pathways × 5000 temperatures would be ~15 MB of JSON.
+    const temps = 'values' in body.temperatures ? body.temperatures.values.length : body.temperatures.count;
+    if (temps * body.pathways.length > MAX_DISTRIBUTION_CELLS) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['temperatures'],
+        message: `pathways × temperatures must be at most ${MAX_DISTRIBUTION_CELLS} (got ${body.pathways.length} × ${temps})`,
+      });
+    }
   })
   .meta({ id: 'DistributionRequest' });
 export type DistributionRequest = z.infer<typeof distributionRequestSchema>;

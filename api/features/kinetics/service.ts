@@ -40,7 +40,7 @@ import type {
   measuredRunSchema,
   readableDurationSchema,
 } from './schemas';
-import type { temperaturesSchema } from '../compute/schemas';
+import { expandTemperatures, type ExpandedTemperatures } from '../compute/temperatures';
 
 /** Shown with every time and erosion forecast (DOMAIN §9). */
 export const KINETICS_CAUTION =
@@ -73,25 +73,6 @@ export function readableDuration(seconds: number): ReadableDuration {
   const shown =
     value !== 0 && (Math.abs(value) >= 1e6 || Math.abs(value) < 1e-3) ? value.toExponential(2) : String(Number(value.toPrecision(3)));
   return { s: seconds, value, unit, text: `${shown} ${unit}` };
-}
-
-interface ExpandedTemperatures {
-  kelvins: number[];
-  /** Request path of the i-th temperature. */
-  pathOf(i: number): string;
-}
-
-/** A range (evenly spaced in kelvin, ends included) or a list, converted to kelvin with each field's path. */
-export function expandTemperatures(input: z.infer<typeof temperaturesSchema>, field = 'temperatures'): ExpandedTemperatures {
-  if ('values' in input) {
-    const kelvins = input.values.map((t, i) => temperatureToK(t.value, t.unit, `${field}.values.${i}.value`));
-    return { kelvins, pathOf: (i) => `${field}.values.${i}.value` };
-  }
-  const from = temperatureToK(input.from.value, input.from.unit, `${field}.from.value`);
-  const to = temperatureToK(input.to.value, input.to.unit, `${field}.to.value`);
-  const n = input.count;
-  const kelvins = n === 1 ? [from] : Array.from({ length: n }, (_, i) => (i === n - 1 ? to : from + ((to - from) * i) / (n - 1)));
-  return { kelvins, pathOf: (i) => (i === 0 ? `${field}.from.value` : i === n - 1 ? `${field}.to.value` : field) };
 }
 
 /** Engine barrier from its request shape; every conversion names its own field. */
