@@ -4,5 +4,6 @@ import { paths } from '../config/paths';
 export const navItems: { to: string; label: string; end?: boolean }[] = [
   { to: paths.home.getHref(), label: 'Overview', end: true },
   { to: paths.calculators.getHref(), label: 'Calculators' },
+  { to: paths.projects.getHref(), label: 'Projects' },
   { to: paths.apiDocs.getHref(), label: 'API' },
 ];

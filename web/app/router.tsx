@@ -5,6 +5,12 @@ import { NotFoundRoute } from './routes/not-found';
 import { RouteErrorBoundary } from './routes/route-error';
 import { ApiDocsRoute } from './routes/api-docs';
 import { CalculatorsRoute } from './routes/calculators';
+import { SignInRoute } from './routes/sign-in';
+import { ProjectsRoute } from './routes/projects';
+import { ProjectSettingsRoute } from './routes/project-settings';
+import { ProjectHistoryRoute } from './routes/project-history';
+import { TokensRoute } from './routes/tokens';
+import { InvitationRoute } from './routes/invitation';
 import { paths } from '../config/paths';
 
 export const routes: RouteObject[] = [
@@ -15,6 +21,12 @@ export const routes: RouteObject[] = [
       { path: paths.home.path, element: <HomeRoute /> },
       { path: paths.apiDocs.path, element: <ApiDocsRoute /> },
       { path: paths.calculators.path, element: <CalculatorsRoute /> },
+      { path: paths.signIn.path, element: <SignInRoute /> },
+      { path: paths.projects.path, element: <ProjectsRoute /> },
+      { path: paths.projectSettings.path, element: <ProjectSettingsRoute /> },
+      { path: paths.projectHistory.path, element: <ProjectHistoryRoute /> },
+      { path: paths.tokens.path, element: <TokensRoute /> },
+      { path: paths.invitation.path, element: <InvitationRoute /> },
       { path: '*', element: <NotFoundRoute /> },
     ],
   },

@@ -1,11 +1,6 @@
-import { Link } from 'react-router-dom';
-import { paths } from '../config/paths';
+import { UserMenu } from '../features/auth/components/user-menu';
 
 /** Sign-in slot in the header. */
 export function SessionSlot() {
-  return (
-    <Link to={paths.signIn.getHref()} className="rounded border border-slate-500 px-3 py-1 text-sm text-slate-100 hover:bg-ink-800">
-      Sign in
-    </Link>
-  );
+  return <UserMenu />;
 }

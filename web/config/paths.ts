@@ -4,4 +4,13 @@ export const paths = {
   apiDocs: { path: '/api-docs', getHref: () => '/api-docs' },
   calculators: { path: '/calculators', getHref: () => '/calculators' },
   signIn: { path: '/sign-in', getHref: (returnTo?: string) => (returnTo ? `/sign-in?returnTo=${encodeURIComponent(returnTo)}` : '/sign-in') },
+  projects: { path: '/projects', getHref: () => '/projects' },
+  projectSettings: { path: '/projects/:projectId/settings', getHref: (projectId: string) => `/projects/${projectId}/settings` },
+  projectHistory: { path: '/projects/:projectId/history', getHref: (projectId: string) => `/projects/${projectId}/history` },
+  tokens: { path: '/settings/tokens', getHref: () => '/settings/tokens' },
+  invitation: { path: '/invitations/:token', getHref: (token: string) => `/invitations/${token}` },
+  /** Served by the API server (development tools only), not by the web router. */
+  devMailbox: { path: '/dev/mailbox', getHref: () => '/dev/mailbox' },
+  /** Server route that starts the OAuth round trip. */
+  oauthStart: { path: '/auth/github', getHref: (returnTo?: string) => (returnTo ? `/auth/github?returnTo=${encodeURIComponent(returnTo)}` : '/auth/github') },
 } as const;

@@ -100,7 +100,7 @@ export async function startFakeOAuthProvider(options: { host?: string; port?: nu
           'Local sign-in · Eyrie',
           `<h1>Local sign-in</h1>
           <p class="note">This page stands in for GitHub while Eyrie runs without GitHub credentials. Nothing leaves this computer.
-          The people below are invented (${escapeHtml(DEMO_COMPANY)}).</p>
+          The people below belong to ${escapeHtml(DEMO_COMPANY)}.</p>
           <section aria-labelledby="demo-h"><h2 id="demo-h">Demo identities</h2><ul class="plain">${demo}</ul></section>
           <section aria-labelledby="own-h"><h2 id="own-h">Or type an identity</h2>
           <form method="post" action="/login/oauth/authorize" novalidate>${hidden}

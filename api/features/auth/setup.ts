@@ -96,7 +96,8 @@ export function installAuth(app: Express, deps: { knex: Knex; config: AppConfig;
         {
           clientID: oauth.clientID,
           clientSecret: oauth.clientSecret,
-          callbackURL: `${config.publicUrl}/auth/github/callback`,
+          // GitHub must see the registered public URL; the local provider accepts whatever loopback host the browser used.
+          callbackURL: oauth.provider === 'github' ? `${config.publicUrl}/auth/github/callback` : '/auth/github/callback',
           scope: ['read:user', 'user:email'],
           // The OAuth state parameter is kept in the session and checked on the callback (login CSRF).
           state: true,

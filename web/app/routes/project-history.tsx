@@ -1,0 +1,33 @@
+import { Link, useParams } from 'react-router-dom';
+import { Page, Panel } from '../../components/ui/page';
+import { paths } from '../../config/paths';
+import { SignedInOnly } from '../../features/auth/components/signed-in-only';
+import { useProject } from '../../features/projects/api/projects';
+import { HistoryView } from '../../features/projects/components/history-view';
+
+function History({ projectId }: { projectId: string }) {
+  const project = useProject(projectId);
+  if (project.isPending) return <Page title="History"><p className="text-sm text-ink-500">Loading…</p></Page>;
+  if (project.isError) return <Page title="Project not found" lead={project.error.message}>{null}</Page>;
+  if (project.data.role !== 'owner') {
+    return (
+      <Page title={`History of ${project.data.name}`}>
+        <Panel><p className="text-sm text-ink-700">Only owners can read a project’s history.</p></Panel>
+      </Page>
+    );
+  }
+  return (
+    <Page
+      title={`History of ${project.data.name}`}
+      lead="Every change to this project’s data: who made it, when, and the values before and after."
+      actions={<Link className="text-sm text-fjord-700 underline" to={paths.projectSettings.getHref(projectId)}>Members &amp; settings</Link>}
+    >
+      <Panel><HistoryView projectId={projectId} /></Panel>
+    </Page>
+  );
+}
+
+export function ProjectHistoryRoute() {
+  const { projectId = '' } = useParams();
+  return <SignedInOnly title="History">{() => <History projectId={projectId} />}</SignedInOnly>;
+}

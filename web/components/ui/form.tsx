@@ -1,0 +1,115 @@
+import { useId, type ButtonHTMLAttributes, type ReactNode } from 'react';
+
+export function TextField(props: {
+  label: string;
+  value: string | number;
+  onChange: (value: string) => void;
+  error?: string;
+  hint?: ReactNode;
+  type?: string;
+  name: string;
+  autoComplete?: string;
+  className?: string;
+  inputMode?: 'numeric' | 'email' | 'text';
+}) {
+  const id = useId();
+  const describedBy = [props.hint ? `${id}-hint` : '', props.error ? `${id}-error` : ''].filter(Boolean).join(' ') || undefined;
+  return (
+    <div className={props.className}>
+      <label htmlFor={id} className="block text-xs font-semibold uppercase tracking-wide text-ink-600">
+        {props.label}
+      </label>
+      <input
+        id={id}
+        name={props.name}
+        type={props.type ?? 'text'}
+        inputMode={props.inputMode}
+        autoComplete={props.autoComplete}
+        value={props.value}
+        onChange={(e) => props.onChange(e.target.value)}
+        aria-invalid={props.error ? true : undefined}
+        aria-describedby={describedBy}
+        className={`mt-1 w-full rounded border px-2 py-1.5 text-sm ${props.error ? 'border-rose-600 bg-rose-50' : 'border-slate-300 bg-white'}`}
+      />
+      {props.hint && (
+        <p id={`${id}-hint`} className="mt-1 text-xs text-ink-500">
+          {props.hint}
+        </p>
+      )}
+      {props.error && (
+        <p id={`${id}-error`} className="mt-1 text-xs font-medium text-rose-700">
+          <span aria-hidden="true">✕ </span>
+          {props.error}
+        </p>
+      )}
+    </div>
+  );
+}
+
+export function SelectField<T extends string>(props: {
+  label: string;
+  value: T;
+  options: { value: T; label: string }[];
+  onChange: (value: T) => void;
+  error?: string;
+  name: string;
+  className?: string;
+  hideLabel?: boolean;
+  disabled?: boolean;
+}) {
+  const id = useId();
+  return (
+    <div className={props.className}>
+      <label htmlFor={id} className={props.hideLabel ? 'sr-only' : 'block text-xs font-semibold uppercase tracking-wide text-ink-600'}>
+        {props.label}
+      </label>
+      <select
+        id={id}
+        name={props.name}
+        value={props.value}
+        disabled={props.disabled}
+        onChange={(e) => props.onChange(e.target.value as T)}
+        aria-invalid={props.error ? true : undefined}
+        aria-describedby={props.error ? `${id}-error` : undefined}
+        className={`${props.hideLabel ? '' : 'mt-1'} w-full rounded border bg-white px-2 py-1.5 text-sm ${props.error ? 'border-rose-600' : 'border-slate-300'}`}
+      >
+        {props.options.map((o) => (
+          <option key={o.value} value={o.value}>
+            {o.label}
+          </option>
+        ))}
+      </select>
+      {props.error && (
+        <p id={`${id}-error`} className="mt-1 text-xs font-medium text-rose-700">
+          <span aria-hidden="true">✕ </span>
+          {props.error}
+        </p>
+      )}
+    </div>
+  );
+}
+
+const variants = {
+  primary: 'border-fjord-700 bg-fjord-600 text-white hover:bg-fjord-700',
+  plain: 'border-slate-300 bg-white text-ink-800 hover:bg-slate-50',
+  danger: 'border-rose-700 bg-white text-rose-700 hover:bg-rose-50',
+};
+
+export function Button({ variant = 'plain', className = '', ...rest }: ButtonHTMLAttributes<HTMLButtonElement> & { variant?: keyof typeof variants }) {
+  return (
+    <button
+      type="button"
+      {...rest}
+      className={`rounded border px-3 py-1.5 text-sm font-medium disabled:cursor-not-allowed disabled:opacity-50 ${variants[variant]} ${className}`}
+    />
+  );
+}
+
+export function FormAlert({ children }: { children: ReactNode }) {
+  if (!children) return null;
+  return (
+    <p role="alert" className="rounded border border-rose-300 bg-rose-50 px-3 py-2 text-sm text-rose-800">
+      {children}
+    </p>
+  );
+}
