@@ -1,5 +1,5 @@
 import type { FitResponse } from '../../../../api/features/compute/schemas';
-import { fixed, percent } from '../../../lib/format';
+import { fixed, percent, sig } from '../../../lib/format';
 
 const FLAG_TEXT: Record<string, string> = {
   outlier: 'outlier (|studentized residual| > 3)',
@@ -130,8 +130,8 @@ export function TwoBranchBox({ twoBranch }: { twoBranch: NonNullable<FitResponse
         {branch('Low-temperature branch', twoBranch.low)}
         {branch('High-temperature branch', twoBranch.high)}
         <li>
-          F test: F = {fixed(twoBranch.fTest.F, 2)} on ({twoBranch.fTest.dof1}, {twoBranch.fTest.dof2}) dof, p ={' '}
-          {twoBranch.fTest.p < 0.001 ? '< 0.001' : fixed(twoBranch.fTest.p, 3)}; {twoBranch.informationCriterion.name} one line{' '}
+          F test: F = {sig(twoBranch.fTest.F, 3)} on ({twoBranch.fTest.dof1}, {twoBranch.fTest.dof2}) dof,{' '}
+          {twoBranch.fTest.p < 0.001 ? 'p < 0.001' : `p = ${fixed(twoBranch.fTest.p, 3)}`}; {twoBranch.informationCriterion.name} one line{' '}
           {fixed(twoBranch.informationCriterion.oneLine, 1)}, two branches {fixed(twoBranch.informationCriterion.twoBranch, 1)} (lower is
           better)
         </li>
@@ -144,7 +144,10 @@ export function TwoBranchBox({ twoBranch }: { twoBranch: NonNullable<FitResponse
             : '; the branches do not cross within reach'}
         </li>
       </ul>
-      <p className="mt-1 text-xs text-ink-600">{twoBranch.note} Never extrapolate a branch across the break.</p>
+      <p className="mt-1 text-xs text-ink-600">
+        {twoBranch.note}
+        {/extrapolate/i.test(twoBranch.note) ? '' : ' Never extrapolate a branch across the break.'}
+      </p>
     </section>
   );
 }

@@ -238,7 +238,11 @@ export function FitPanel() {
               />
               <FitWarnings warnings={fit.warnings} />
               {view.proposed ? (
-                <PredictionBox prediction={view.proposed} confidence={fit.confidence} />
+                <PredictionBox
+                  prediction={view.proposed}
+                  confidence={fit.confidence}
+                  breakPreferred={fit.twoBranch?.preferred === 'two-branch'}
+                />
               ) : (
                 <p className="text-sm text-ink-500">Enter a proposed temperature to get a prediction with its interval.</p>
               )}

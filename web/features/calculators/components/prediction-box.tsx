@@ -5,7 +5,16 @@ import { enantiomericRatio, fixed, percent, withUncertainty } from '../../../lib
 type Prediction = FitResponse['predictions'][number];
 
 /** The forecast at the proposed temperature with its prediction interval for a new run. */
-export function PredictionBox({ prediction, confidence }: { prediction: Prediction; confidence: number }) {
+export function PredictionBox({
+  prediction,
+  confidence,
+  breakPreferred = false,
+}: {
+  prediction: Prediction;
+  confidence: number;
+  /** The two-branch check prefers a break: this single-line prediction is then doubtful. */
+  breakPreferred?: boolean;
+}) {
   const level = `${fixed(confidence * 100, 0)} %`;
   const pi = prediction.predictionInterval;
   const ci = prediction.confidenceInterval;
@@ -56,6 +65,12 @@ export function PredictionBox({ prediction, confidence }: { prediction: Predicti
         {prediction.extrapolated && (
           <p className="text-sm font-medium text-caution-700">
             <span aria-hidden="true">⚠ </span>Outside the screened temperatures: an extrapolation, trust it less than the interval suggests.
+          </p>
+        )}
+        {breakPreferred && (
+          <p className="text-sm font-medium text-caution-700">
+            <span aria-hidden="true">⚠ </span>Two branches describe this screen better than one line, and this prediction uses the one line:
+            near or beyond the break it can be wrong by more than its interval. Run the temperature before relying on it.
           </p>
         )}
         <p className="text-xs text-ink-600">
