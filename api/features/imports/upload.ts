@@ -9,6 +9,9 @@ import { BadRequestError, PayloadTooLargeError } from '../../lib/errors';
 import { zodIssuesToFieldErrors } from '../../lib/problem';
 import { IMPORT_LIMITS, type ImportLimits, type UploadedFile } from './parse';
 
+/** Room for the multipart framing and the JSON options field beside the file. */
+const MULTIPART_ALLOWANCE_BYTES = 300 * 1024;
+
 /** Name of the multipart field that carries the file. */
 export const UPLOAD_FIELD = 'file';
 
@@ -26,11 +29,19 @@ export function importUpload(limits: ImportLimits = IMPORT_LIMITS): RequestHandl
     storage: multer.memoryStorage(),
     limits: { fileSize: limits.maxBytes, files: 1, fields: 10, fieldSize: 256 * 1024, parts: 12 },
   }).single(UPLOAD_FIELD);
+  const tooLarge = () => new PayloadTooLargeError(`The file is larger than ${megabytes(limits.maxBytes)}, the largest accepted. Split it, or remove columns you do not need.`);
   return (req, res, next) => {
+    // A declared size over the limit is refused before a byte is read; the connection is closed
+    // rather than drained. Without a declared size multer counts while it streams (and drains).
+    const declared = Number(req.headers['content-length']);
+    if (Number.isFinite(declared) && declared > limits.maxBytes + MULTIPART_ALLOWANCE_BYTES) {
+      res.set('Connection', 'close');
+      return next(tooLarge());
+    }
     upload(req, res, (err: unknown) => {
       if (!err) return next();
       if (err instanceof multer.MulterError) {
-        if (err.code === 'LIMIT_FILE_SIZE') return next(new PayloadTooLargeError(`The file is larger than ${megabytes(limits.maxBytes)}, the largest accepted. Split it, or remove columns you do not need.`));
+        if (err.code === 'LIMIT_FILE_SIZE') return next(tooLarge());
         if (err.code === 'LIMIT_UNEXPECTED_FILE' || err.code === 'LIMIT_FILE_COUNT') {
           return next(new BadRequestError(`Send exactly one file, in the form field "${UPLOAD_FIELD}".`, [{ path: UPLOAD_FIELD, message: 'one file expected here' }]));
         }
