@@ -56,12 +56,39 @@ describe('signing in through the local fake OAuth provider', () => {
     expect(await res.text()).toContain('id="e-email"');
   });
 
-  it('when a code is replayed, then the second exchange fails and the person is sent to the sign-in page with an error', async () => {
+  it('when a code is exchanged twice, then the provider refuses the second exchange', async () => {
+    const { app, provider } = await start();
+    const startRes = await request(app).get('/auth/github').set('Host', '127.0.0.1:3000').expect(302);
+    const url = new URL(startRes.headers.location);
+    const redirectUri = url.searchParams.get('redirect_uri')!;
+    const form = new URLSearchParams({ client_id: provider.clientId, redirect_uri: redirectUri, state: 's', ...newIdentity() });
+    const picked = await fetch(provider.endpoints.authorizationURL, { method: 'POST', body: form, redirect: 'manual' });
+    const code = new URL(picked.headers.get('location')!).searchParams.get('code')!;
+    const exchange = () =>
+      fetch(provider.endpoints.tokenURL, {
+        method: 'POST',
+        body: new URLSearchParams({ client_id: provider.clientId, client_secret: provider.clientSecret, code, redirect_uri: redirectUri }),
+      });
+    expect((await exchange()).status).toBe(200);
+    const second = await exchange();
+    expect(second.status).toBe(400);
+    expect(await second.json()).toMatchObject({ error: 'bad_verification_code' });
+  });
+
+  it('when the callback carries a state that this browser did not start, then sign-in fails (no login CSRF)', async () => {
     const { app } = await start();
-    const first = await signIn(app, newIdentity());
-    const replay = await request(app).get(first.callback.pathname + first.callback.search);
-    expect(replay.status).toBe(303);
-    expect(replay.headers.location).toMatch(/^\/sign-in\?error=/);
+    const victim = request.agent(app);
+    await victim.get('/auth/github').set('Host', '127.0.0.1:3000').expect(302);
+    // An attacker's own finished authorization, replayed into the victim's browser.
+    const attacker = newIdentity();
+    const startRes = await request(app).get('/auth/github').set('Host', '127.0.0.1:3000').expect(302);
+    const url = new URL(startRes.headers.location);
+    const form = new URLSearchParams({ client_id: url.searchParams.get('client_id')!, redirect_uri: url.searchParams.get('redirect_uri')!, state: url.searchParams.get('state')!, ...attacker });
+    const picked = await fetch(`${url.origin}${url.pathname}`, { method: 'POST', body: form, redirect: 'manual' });
+    const callback = new URL(picked.headers.get('location')!);
+    const res = await victim.get(callback.pathname + callback.search).set('Host', '127.0.0.1:3000').expect(303);
+    expect(res.headers.location).toBe('/sign-in?error=failed');
+    expect((await victim.get('/api/v1/session')).body.user).toBeNull();
   });
 
   it('when returnTo is a same-site path it is honoured; when it points off-site it is ignored', async () => {

@@ -49,7 +49,12 @@ export const sessionCookie = (setCookie: string[] | string | undefined): string 
 /** The whole OAuth round trip through the fake provider, as a browser would make it. */
 export async function signIn(app: Express, identity: TestIdentity, returnTo?: string) {
   const agent = request.agent(app);
-  const start = await agent.get(`/auth/github${returnTo ? `?returnTo=${encodeURIComponent(returnTo)}` : ''}`).expect(302);
+  // supertest serves each request on a new port; a browser keeps one origin, so pin the Host the OAuth redirect is built from.
+  const host = '127.0.0.1:3000';
+  const start = await agent
+    .get(`/auth/github${returnTo ? `?returnTo=${encodeURIComponent(returnTo)}` : ''}`)
+    .set('Host', host)
+    .expect(302);
   const authorize = new URL(start.headers.location);
   const form = new URLSearchParams({
     client_id: authorize.searchParams.get('client_id') ?? '',
@@ -60,7 +65,7 @@ export async function signIn(app: Express, identity: TestIdentity, returnTo?: st
   const picked = await fetch(`${authorize.origin}${authorize.pathname}`, { method: 'POST', body: form, redirect: 'manual' });
   if (picked.status !== 302) throw new Error(`the fake provider answered ${picked.status}: ${await picked.text()}`);
   const callback = new URL(picked.headers.get('location')!);
-  const done = await agent.get(callback.pathname + callback.search);
+  const done = await agent.get(callback.pathname + callback.search).set('Host', host);
   if (done.status !== 303 || String(done.headers.location).startsWith('/sign-in')) {
     throw new Error(`sign-in did not complete: ${done.status} → ${done.headers.location}`);
   }
