@@ -82,7 +82,7 @@ export async function up(knex: Knex): Promise<void> {
       add constraint measurements_value_finite check (value > '-Infinity'::float8 and value < 'Infinity'::float8),
       add constraint measurements_ee_range check (measure <> 'ee' or (value > -100 and value < 100 and value_b is null)),
       add constraint measurements_percent_a_range check (measure <> 'percentA' or (value > 0 and value < 100 and value_b is null)),
-      add constraint measurements_er_range check (measure <> 'er' or value_b is not null or (value > 0 and value < 100)),
+      add constraint measurements_er_range check (measure <> 'er' or value_b is not null or value > 0),
       add constraint measurements_ratio_positive check (measure not in ('dr', 'ratio') or value > 0),
       add constraint measurements_pair_positive check (value_b is null or (measure in ('er', 'dr', 'ratio') and value > 0 and value_b > 0 and value_b < 'Infinity'::float8)),
       add constraint measurements_uncertainty_range check (uncertainty is null or (uncertainty >= 0 and uncertainty < 100)),

@@ -45,7 +45,7 @@ try {
   }
   const outDir = path.join(root, '.tmp');
   mkdirSync(outDir, { recursive: true });
-  const report = path.join(outDir, 'vitest-report.json');
+  const report = path.join(outDir, `vitest-report-${process.pid}.json`);
   rmSync(report, { force: true });
   const child = spawn(
     process.execPath,
@@ -66,6 +66,7 @@ try {
     failed = 1;
     log('vitest wrote no report');
   }
+  rmSync(report, { force: true });
   exitCode = code !== 0 || failed > 0 ? code || 1 : 0;
   cleanup();
   console.log(`tests: ${passed} passed, ${failed} failed`);

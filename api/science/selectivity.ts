@@ -166,8 +166,7 @@ function parseNumber(value: number | string, field: string, pairAllowed = false)
  *
  * - `ee`: signed percent, |ee| < 100 → r = (1 + ee)/(1 − ee)
  * - `percentA`: 0 < p < 100 → r = p/(100 − p)
- * - `er`: "a:b" → a/b; a number is read as the A share of 100 (er 95 ≡ 95:5)
- * - `dr`, `ratio`: "a:b" → a/b; a number is r itself (r:1)
+ * - `er`, `dr`, `ratio`: "a:b" → a/b; a number is r itself (er 19 ≡ 95:5, dr 12 ≡ 12:1)
  *
  * Numeric strings are accepted for numeric forms. Errors carry `field` = `${fieldPath}.value`.
  * Codes: not-finite, ee-out-of-range, ee-at-limit, percent-a-out-of-range, percent-a-at-limit,
@@ -182,8 +181,6 @@ export function parseSelectivity(input: SelectivityInput, fieldPath = 'selectivi
     case 'percentA':
       return ratioFromPercentA(parseNumber(value, field), field);
     case 'er':
-      if (typeof value === 'string' && value.includes(':')) return parsePair(value, field);
-      return ratioFromPercentA(parseNumber(value, field, true), field);
     case 'dr':
     case 'ratio':
       if (typeof value === 'string' && value.includes(':')) return parsePair(value, field);
@@ -197,7 +194,7 @@ export function parseSelectivity(input: SelectivityInput, fieldPath = 'selectivi
  * Standard deviation of ln r propagated from the uncertainty of the reported measure (DOMAIN §3,
  * first-order error propagation):
  * - `ee` (σ in ee percentage points): σ(ln r) = 2σ_ee/(1 − ee²), ee and σ as fractions;
- * - `percentA`, and `er` (σ in points of the A share of 100): σ(ln r) = σ_p/[p(1 − p)];
+ * - `percentA`, and `er` (σ in points of the A share of 100, whichever way er is written): σ(ln r) = σ_p/[p(1 − p)];
  * - `dr`, `ratio`: σ is a relative SD of r (0.05 = 5 %), so σ(ln r) ≈ σ_r/r = σ.
  * Using 1 − ee² = 4r/(1 + r)² and p(1 − p) = r/(1 + r)² keeps this accurate near the limits.
  */

@@ -86,8 +86,7 @@ export function selectivityProblem(measure: SelectivityMeasure, value: number | 
       if (Math.abs(value) === 100) return 'ee of ±100 % implies an infinite energy gap; enter the detection limit (e.g. 99.8) and mark it as a lower bound';
       return null;
     case 'percentA':
-    case 'er':
-      if (value <= 0 || value >= 100) return `${measure === 'er' ? 'er given as one number (the share of A)' : 'percent A'} must lie strictly between 0 and 100, got ${value}`;
+      if (value <= 0 || value >= 100) return `percent A must lie strictly between 0 and 100, got ${value}`;
       return null;
     default:
       if (value <= 0) return `${measure} must be greater than zero, got ${value}`;

@@ -41,15 +41,6 @@ const toK = (t: TemperatureQ, path: string) => temperatureToK(t.value, t.unit, `
 /** A range or a list of temperatures in kelvin, errors reported at their request path. */
 export const resolveTemperatures = (spec: Temperatures, path = 'temperatures'): number[] => expandTemperatures(spec, path).kelvins;
 
-/**
- * The API reads a numeric er as the ratio r (like dr and ratio), per the published
- * request format; the engine's numeric er is the A share of 100, so convert here.
- */
-export function toEngineSelectivity(s: { measure: SelectivityInput['measure']; value: number | string }): SelectivityInput {
-  if (s.measure === 'er' && typeof s.value === 'number') return { measure: 'ratio', value: s.value };
-  return { measure: s.measure, value: s.value };
-}
-
 const ddGOut = (j: number) => ({ 'kJ/mol': kJ(j), 'kcal/mol': kcal(j) });
 
 function zeroSelectivity(t0: number | null, range?: { min: number; max: number }) {
@@ -84,7 +75,7 @@ export function runForecast(req: ForecastRequest): ForecastResponse {
       };
       break;
     case 'observed': {
-      const selectivity = toEngineSelectivity(basis.selectivity);
+      const selectivity: SelectivityInput = basis.selectivity;
       parseSelectivity(selectivity, 'basis.selectivity'); // fail with the request path before the engine does
       engineBasis = {
         kind: 'observed',
@@ -116,7 +107,7 @@ export function runForecast(req: ForecastRequest): ForecastResponse {
 export function toEyringMeasurements(measurements: FitRequest['measurements']): EyringMeasurement[] {
   return measurements.map((m, i) => {
     const path = `measurements.${i}`;
-    const selectivity = toEngineSelectivity(m.selectivity);
+    const selectivity: SelectivityInput = m.selectivity;
     const ratio = parseSelectivity(selectivity, `${path}.selectivity`);
     const out: EyringMeasurement = { temperatureK: toK(m.temperature, `${path}.temperature`), ratio };
     if (m.uncertainty !== undefined) out.sigmaLnR = sigmaLnRatio(selectivity, m.uncertainty, `${path}.uncertainty`);

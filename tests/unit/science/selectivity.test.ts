@@ -105,7 +105,7 @@ describe('parseSelectivity', () => {
     expect(parseSelectivity({ measure: 'ee', value: 80 })).toBeCloseTo(9, 12); // [C] (1+0.8)/(1−0.8)
     expect(parseSelectivity({ measure: 'percentA', value: 90 })).toBeCloseTo(9, 12); // [C] 90/10
     expect(parseSelectivity({ measure: 'er', value: '90:10' })).toBeCloseTo(9, 12); // [C] 90/10
-    expect(parseSelectivity({ measure: 'er', value: 90 })).toBeCloseTo(9, 12); // [C] er given as the A share of 100
+    expect(parseSelectivity({ measure: 'er', value: 9 })).toBeCloseTo(9, 12); // [C] a numeric er is r itself (9 ≡ 90:10)
     expect(parseSelectivity({ measure: 'dr', value: '9:1' })).toBeCloseTo(9, 12); // [C]
     expect(parseSelectivity({ measure: 'dr', value: 9 })).toBeCloseTo(9, 12); // [C]
     expect(parseSelectivity({ measure: 'ratio', value: ' 18 : 2 ' })).toBeCloseTo(9, 12); // [C]
