@@ -1,7 +1,9 @@
 /** Feature benchmark suites run by scripts/bench/run.ts after the HTTP and engine suites. */
+import { importBenchSuite } from './imports';
+
 export interface BenchSuite {
   name: string;
   run(): Promise<void>;
 }
 
-export const extraSuites: BenchSuite[] = [];
+export const extraSuites: BenchSuite[] = [importBenchSuite];
