@@ -10,7 +10,6 @@ afterAll(closeTestKnex);
 
 // Exact SI: R = N_A·k_B (CODATA 2018 [S]); thermochemical calorie 4.184 J (NIST SP 811 [S]).
 const R = 6.02214076e23 * 1.380649e-23;
-const KCAL = 4184;
 const C = (value: number) => ({ value, unit: 'C' as const });
 
 const relClose = (actual: number, expected: number, rel: number) => expect(Math.abs(actual - expected) / Math.abs(expected)).toBeLessThan(rel);
