@@ -24,6 +24,11 @@ export interface EyringMeasurement {
   /** Excluded by the user: kept in the output, not fitted. */
   excluded?: boolean;
   exclusionReason?: string;
+  /**
+   * The assay reported only a bound ("at least this selective", e.g. ≥ 99.0 % ee): censored like a
+   * run at the quantitation limit, whatever its value. A bound on r when ln r ≥ 0, else on 1/r.
+   */
+  atLeast?: boolean;
   /** Free label echoed back (run id, sample name). */
   label?: string;
 }
@@ -150,7 +155,7 @@ export const DEFAULT_NARROW_SPAN_K = 40;
 
 const sameTemperature = (a: number, b: number) => Math.abs(a - b) <= 1e-6;
 
-function countDistinct(sorted: number[]): number {
+function countDistinct(sorted: ArrayLike<number>): number {
   let count = 0;
   for (let i = 0; i < sorted.length; i++) if (i === 0 || !sameTemperature(sorted[i]!, sorted[i - 1]!)) count++;
   return count;
@@ -194,19 +199,31 @@ export function prepareMeasurements(
   const e = censorEePercent / 100;
   const lnLimit = Math.log1p(e) - Math.log1p(-e);
   return measurements.map((m, index) => {
-    const base = `measurements[${index}]`;
-    requireTemperatureK(m.temperatureK, `${base}.temperatureK`);
-    requireFinite(m.ratio, `${base}.ratio`);
-    if (m.ratio <= 0) throw new DomainError('ratio-not-positive', `${base}.ratio must be greater than zero`, `${base}.ratio`);
-    if (m.sigmaLnR !== undefined) {
-      requireFinite(m.sigmaLnR, `${base}.sigmaLnR`);
-      if (m.sigmaLnR <= 0) throw new DomainError('sigma-not-positive', `${base}.sigmaLnR must be positive`, `${base}.sigmaLnR`);
+    // Field paths are built only on the error path: at 10⁶ runs the strings alone cost more than the fit.
+    const valid =
+      Number.isFinite(m.temperatureK) &&
+      m.temperatureK > 0 &&
+      Number.isFinite(m.ratio) &&
+      m.ratio > 0 &&
+      (m.sigmaLnR === undefined || (Number.isFinite(m.sigmaLnR) && m.sigmaLnR > 0));
+    if (!valid) {
+      const base = `measurements[${index}]`;
+      requireTemperatureK(m.temperatureK, `${base}.temperatureK`);
+      requireFinite(m.ratio, `${base}.ratio`);
+      if (m.ratio <= 0) throw new DomainError('ratio-not-positive', `${base}.ratio must be greater than zero`, `${base}.ratio`);
+      if (m.sigmaLnR !== undefined) {
+        requireFinite(m.sigmaLnR, `${base}.sigmaLnR`);
+        if (m.sigmaLnR <= 0) throw new DomainError('sigma-not-positive', `${base}.sigmaLnR must be positive`, `${base}.sigmaLnR`);
+      }
     }
     const y = Math.log(m.ratio);
     let status: PreparedMeasurement['status'] = 'fitted';
     let censoredBound: PreparedMeasurement['censoredBound'] = null;
     if (m.excluded) status = 'excluded';
-    else if (y >= lnLimit * (1 - 1e-12)) {
+    else if (m.atLeast) {
+      status = 'censored';
+      censoredBound = y >= 0 ? 'lower' : 'upper';
+    } else if (y >= lnLimit * (1 - 1e-12)) {
       status = 'censored';
       censoredBound = 'lower';
     } else if (y <= -lnLimit * (1 - 1e-12)) {
@@ -268,7 +285,8 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
   const prepared = prepareMeasurements(measurements, options.censorEePercent ?? DEFAULT_CENSOR_EE_PERCENT);
   const warnings: Warning[] = [];
   const fitted = prepared.filter((p) => p.status === 'fitted');
-  const temps = fitted.map((p) => p.measurement.temperatureK).sort((a, b) => a - b);
+  // A typed array sorts numerically in native code; a comparator closure is ~10× slower at 10⁶ runs.
+  const temps = Float64Array.from(fitted, (p) => p.measurement.temperatureK).sort();
   const distinct = countDistinct(temps);
   if (distinct < 2) {
     const skipped = prepared.length - fitted.length;
@@ -317,15 +335,17 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
   // Per-point results.
   const slope = line.slope;
   const intercept = line.intercept;
-  const fittedIndex = new Map<number, number>();
-  fitted.forEach((p, i) => fittedIndex.set(p.index, i));
+  // Position of each run in the fitted arrays (−1: not fitted); a typed array, not a Map, for 10⁶ runs.
+  const fittedIndex = new Int32Array(prepared.length).fill(-1);
+  fitted.forEach((p, i) => (fittedIndex[p.index] = i));
   const leverageLimit = (FLAG_RULES.leverageFactor * 2) / n;
   let flagged = 0;
   let disagreeing = 0;
   const points: EyringPointResult[] = prepared.map((p) => {
     const m = p.measurement;
     const lineY = intercept + slope * p.x;
-    const k = fittedIndex.get(p.index);
+    const pos = fittedIndex[p.index]!;
+    const k = pos < 0 ? undefined : pos;
     const flags: PointFlag[] = [];
     let boundConsistent: boolean | null = null;
     if (k !== undefined) {
