@@ -1,0 +1,197 @@
+import { useMemo } from 'react';
+import { Axis, GlyphSeries, Grid, LineSeries, Tooltip, XYChart, type GlyphProps } from '@visx/xychart';
+import { fixed } from '../../lib/format';
+import { ThermalStrip } from './chart-layers';
+import { axisLabelProps, chartColors, chartTheme, paddedExtent, tickLabelProps } from './chart-theme';
+import { LegendItem } from './eyring-plot';
+import { useElementWidth } from './use-element-width';
+
+/** One line of a {@link LineChart}: points against temperature (°C). */
+export interface LineChartSeries {
+  key: string;
+  label: string;
+  points: { x: number; y: number }[];
+  /** Draw thinner and lighter (e.g. a sensitivity variant beside the main answer). */
+  secondary?: boolean;
+}
+
+/** Colours, dash patterns and marker shapes in step, so no series is told apart by colour alone. */
+const PALETTE = [chartColors.accent, chartColors.ink, chartColors.branch, chartColors.caution, '#0369a1', '#be185d', '#4d7c0f', '#64748b'];
+const DASHES = ['', '6 3', '2 3', '9 3 2 3', '4 4', '1 2', '12 4', '3 2 1 2'];
+type Shape = 'circle' | 'square' | 'triangle' | 'diamond';
+const SHAPES: Shape[] = ['circle', 'square', 'triangle', 'diamond'];
+
+export const MAX_LINE_SERIES = PALETTE.length;
+
+function Marker({ shape, x, y, color, r = 3.5 }: { shape: Shape; x: number; y: number; color: string; r?: number }) {
+  if (shape === 'square') return <rect x={x - r} y={y - r} width={2 * r} height={2 * r} fill={color} />;
+  if (shape === 'triangle') return <path d={`M${x} ${y - r - 1} L${x + r + 0.5} ${y + r} L${x - r - 0.5} ${y + r} Z`} fill={color} />;
+  if (shape === 'diamond') return <path d={`M${x} ${y - r - 1} L${x + r + 1} ${y} L${x} ${y + r + 1} L${x - r - 1} ${y} Z`} fill={color} />;
+  return <circle cx={x} cy={y} r={r} fill={color} />;
+}
+
+interface Datum {
+  x: number;
+  y: number;
+  series: string;
+}
+
+/** Powers of ten (and 2, 5 between them when the span is short) inside a log domain. */
+function logTicks([lo, hi]: [number, number]): number[] {
+  const first = Math.floor(Math.log10(lo));
+  const last = Math.ceil(Math.log10(hi));
+  const mantissas = last - first <= 2 ? [1, 2, 5] : [1];
+  const ticks: number[] = [];
+  for (let e = first; e <= last; e++) for (const m of mantissas) ticks.push(m * 10 ** e);
+  return ticks.filter((t) => t >= lo * (1 - 1e-9) && t <= hi * (1 + 1e-9));
+}
+
+/**
+ * A small chart of one or more lines against temperature (°C), linear or log y. Each series has
+ * its own colour, dash pattern and marker shape, named in the legend under the chart.
+ */
+export function LineChart({
+  title,
+  series,
+  yLabel,
+  yScale = 'linear',
+  formatY,
+  yDomain: fixedYDomain,
+  height = 260,
+  testId,
+}: {
+  title: string;
+  series: LineChartSeries[];
+  yLabel: string;
+  yScale?: 'linear' | 'log';
+  /** Text of a y value (ticks and tooltip). */
+  formatY: (y: number) => string;
+  yDomain?: [number, number];
+  height?: number;
+  testId?: string;
+}) {
+  const [ref, width] = useElementWidth<HTMLDivElement>();
+  const shown = series.slice(0, MAX_LINE_SERIES).map((s) => ({
+    ...s,
+    points: s.points.filter((p) => Number.isFinite(p.x) && Number.isFinite(p.y) && (yScale === 'linear' || p.y > 0)),
+  }));
+  const all = shown.flatMap((s) => s.points);
+  const xDomain = useMemo(() => paddedExtent(all.map((p) => p.x), 0.03, 5), [all]);
+  const yDomain = useMemo<[number, number]>(() => {
+    if (fixedYDomain) return fixedYDomain;
+    const ys = all.map((p) => p.y);
+    if (yScale === 'log') {
+      if (!ys.length) return [1, 10];
+      const lo = 10 ** Math.floor(Math.log10(Math.min(...ys)));
+      const hi = 10 ** Math.ceil(Math.log10(Math.max(...ys)));
+      return [lo, hi > lo ? hi : lo * 10];
+    }
+    return paddedExtent(ys, 0.06, 1);
+  }, [all, yScale, fixedYDomain]);
+  const style = (i: number) => ({ color: PALETTE[i % PALETTE.length], dash: DASHES[i % DASHES.length], shape: SHAPES[i % SHAPES.length] });
+
+  return (
+    <figure className="m-0">
+      <div ref={ref} className="w-full" data-testid={testId}>
+        {width > 0 && all.length > 0 && (
+          <XYChart
+            width={width}
+            height={height}
+            margin={{ top: 18, right: 20, bottom: 46, left: 70 }}
+            theme={chartTheme}
+            xScale={{ type: 'linear', domain: xDomain, zero: false }}
+            yScale={yScale === 'log' ? { type: 'log', domain: yDomain, clamp: true } : { type: 'linear', domain: yDomain, zero: false, nice: true }}
+            accessibilityLabel={title}
+          >
+            <Grid columns={false} numTicks={5} lineStyle={{ stroke: chartColors.grid }} />
+            <ThermalStrip toCelsius={(x) => x} />
+            {shown.map((s, i) => {
+              const { color, dash, shape } = style(i);
+              const data: Datum[] = s.points.map((p) => ({ ...p, series: s.label }));
+              return (
+                <g key={s.key}>
+                  {data.length > 1 && (
+                    <LineSeries
+                      className="eyrie-line"
+                      dataKey={s.key}
+                      data={data}
+                      xAccessor={(d) => d.x}
+                      yAccessor={(d) => d.y}
+                      stroke={color}
+                      strokeWidth={s.secondary ? 1.25 : 2}
+                      strokeDasharray={dash || undefined}
+                      strokeOpacity={s.secondary ? 0.8 : 1}
+                    />
+                  )}
+                  <GlyphSeries
+                    dataKey={`${s.key}-markers`}
+                    data={data}
+                    xAccessor={(d) => d.x}
+                    yAccessor={(d) => d.y}
+                    renderGlyph={({ x, y }: GlyphProps<Datum>) => <Marker shape={shape} x={x} y={y} color={color} r={s.secondary ? 2.5 : 3.5} />}
+                  />
+                </g>
+              );
+            })}
+            <Axis
+              orientation="bottom"
+              numTicks={7}
+              label="Temperature (°C)"
+              labelProps={axisLabelProps}
+              tickLabelProps={tickLabelProps}
+              tickFormat={(v) => fixed(Number(v), 0)}
+            />
+            <Axis
+              orientation="left"
+              numTicks={5}
+              tickValues={yScale === 'log' ? logTicks(yDomain) : undefined}
+              label={yLabel}
+              labelOffset={36}
+              labelProps={axisLabelProps}
+              tickLabelProps={tickLabelProps}
+              tickFormat={(v) => formatY(Number(v))}
+            />
+            <Tooltip<Datum>
+              snapTooltipToDatumX
+              snapTooltipToDatumY
+              showVerticalCrosshair
+              verticalCrosshairStyle={{ stroke: '#94a3b8', strokeDasharray: '2 2' }}
+              renderTooltip={({ tooltipData }) => {
+                const d = tooltipData?.nearestDatum?.datum;
+                if (!d) return null;
+                return (
+                  <div className="tnum text-xs leading-5 text-ink-800">
+                    <div className="font-medium">
+                      {fixed(d.x, 1)} °C · {fixed(d.x + 273.15, 2)} K
+                    </div>
+                    <div>
+                      {d.series}: {formatY(d.y)}
+                    </div>
+                  </div>
+                );
+              }}
+            />
+          </XYChart>
+        )}
+      </div>
+      <figcaption>
+        <ul className="mt-1 flex flex-wrap gap-x-4 gap-y-1 text-xs text-ink-600" aria-label="Legend">
+          {shown.map((s, i) => {
+            const { color, dash, shape } = style(i);
+            return (
+              <LegendItem key={s.key} label={s.label}>
+                <line x1="1" x2="15" y1="8" y2="8" stroke={color} strokeWidth={s.secondary ? 1.25 : 2} strokeDasharray={dash || undefined} />
+                <Marker shape={shape} x={8} y={8} color={color} r={2.5} />
+              </LegendItem>
+            );
+          })}
+        </ul>
+        {series.length > shown.length && (
+          <p className="mt-1 text-xs text-ink-600">
+            The chart shows the first {shown.length} of {series.length} series; the table lists all.
+          </p>
+        )}
+      </figcaption>
+    </figure>
+  );
+}

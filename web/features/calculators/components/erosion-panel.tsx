@@ -1,0 +1,157 @@
+import { useState } from 'react';
+import type { ErosionRequest, ErosionResponse } from '../../../../api/features/kinetics/schemas';
+import { LineChart, type LineChartSeries } from '../../../components/charts/line-chart';
+import { thermalColor } from '../../../components/charts/thermal-scale';
+import { SafetyCaution } from '../../../components/ui/caution';
+import { Panel } from '../../../components/ui/page';
+import { ApiError, type FieldError } from '../../../lib/api-client';
+import { fixed, percent, sig } from '../../../lib/format';
+import { useErosion } from '../api/post-erosion';
+import { initialErosionForm, toErosionRequest, type ErosionFormState } from '../lib/erosion-form';
+import { apiFieldErrors, unmatchedErrors } from '../lib/field-errors';
+import { ErosionForm, erosionFieldPaths } from './erosion-form';
+import { ProblemAlert } from './fields';
+import { compactNumber, EmptyResult, ResultNotes, Th } from './kinetics-parts';
+
+type Point = ErosionResponse['points'][number];
+
+function holdCell(p: Point): string {
+  if (p.floorStatus === 'already-below') return 'none: starts at or below the floor';
+  if (p.floorStatus === 'never-reached') return 'unlimited: never falls to the floor';
+  return p.longestHold?.text ?? '—';
+}
+
+/** Erosion during a hold: how fast ee is lost after the reaction, and how long material may wait. */
+export function ErosionPanel() {
+  const [form, setForm] = useState<ErosionFormState>(initialErosionForm);
+  const [request, setRequest] = useState<ErosionRequest | null>(null);
+  const [clientErrors, setClientErrors] = useState<FieldError[]>([]);
+  const query = useErosion(request);
+
+  const serverErrors = apiFieldErrors(query.error);
+  const errors = clientErrors.length ? clientErrors : serverErrors;
+  const leftover = unmatchedErrors(errors, erosionFieldPaths);
+  const data = query.data;
+
+  const submit = () => {
+    const { request: next, errors: found } = toErosionRequest(form);
+    setClientErrors(found);
+    if (next) setRequest(next);
+  };
+
+  return (
+    <Panel title="Erosion during a hold">
+      <div className="grid gap-6 lg:grid-cols-[minmax(0,24rem)_minmax(0,1fr)]">
+        <div className="flex flex-col gap-3">
+          <ErosionForm form={form} onChange={(patch) => setForm((f) => ({ ...f, ...patch }))} onSubmit={submit} errors={errors} busy={query.isFetching} />
+          {query.error && !clientErrors.length && (serverErrors.length === 0 || leftover.length > 0) && (
+            <ProblemAlert
+              title={query.error instanceof ApiError ? query.error.problem.title : 'The calculation failed'}
+              detail={query.error.message}
+              errors={leftover}
+            />
+          )}
+          {clientErrors.length > 0 && leftover.length > 0 && <ProblemAlert title="Check the inputs" errors={leftover} />}
+        </div>
+        <div className="flex min-w-0 flex-col gap-3" aria-live="polite">
+          {!data && !query.isFetching && (
+            <EmptyResult failed={Boolean(query.error)}>Give the barrier, the initial ee and a range, then press Calculate erosion.</EmptyResult>
+          )}
+          {data && (
+            <div className={`flex flex-col gap-3 ${query.isPlaceholderData ? 'opacity-60' : ''}`}>
+              <ErosionResult data={data} />
+            </div>
+          )}
+        </div>
+      </div>
+    </Panel>
+  );
+}
+
+function ErosionResult({ data }: { data: ErosionResponse }) {
+  const racemization = data.model === 'racemization';
+  const hasHold = data.points.some((p) => p.eeAfterHoldPercent !== null);
+  const hasFloor = data.points.some((p) => p.floorStatus !== null);
+  const cls = data.atropisomerClass;
+  const series: LineChartSeries[] = [
+    { key: 'half-life', label: 'ee half-life', points: data.points.map((p) => ({ x: p.celsius, y: p.eeHalfLife.s / 3600 })) },
+    ...(hasFloor
+      ? [
+          {
+            key: 'longest-hold',
+            label: 'longest hold above the floor',
+            points: data.points.filter((p) => p.longestHold && p.longestHold.s > 0).map((p) => ({ x: p.celsius, y: p.longestHold!.s / 3600 })),
+          },
+        ]
+      : []),
+  ];
+
+  return (
+    <>
+      <section aria-label="Stability class at 37 °C" className="tnum rounded border border-slate-200 bg-slate-50 px-3 py-2 text-sm text-ink-800">
+        <p>
+          <span className="font-medium text-ink-950">Stability class {cls.class} at 37 °C</span> — ΔG‡ {fixed(cls.dG['kcal/mol'], 1)} kcal/mol (
+          {fixed(cls.dG['kJ/mol'], 1)} kJ/mol), ee half-life {cls.eeHalfLife.text}. {cls.description}
+        </p>
+        <p className="mt-1 text-xs text-ink-600">{cls.definition}</p>
+        <p className="mt-0.5 text-xs text-ink-600">Source: {cls.source}</p>
+      </section>
+      {data.equilibrium && (
+        <p className="tnum text-sm text-ink-800">
+          Epimerization towards K = [B]/[A] = {sig(data.equilibrium.ratio, 3)}: the excess relaxes to {fixed(data.equilibrium.excessPercent, 1)} %, not to 0.
+        </p>
+      )}
+
+      <LineChart
+        title="ee half-life against temperature"
+        series={series}
+        yLabel="Time (h, log scale)"
+        yScale="log"
+        formatY={(h) => `${compactNumber(h)} h`}
+        testId="erosion-chart"
+      />
+
+      <div className="max-h-[26rem] overflow-auto rounded border border-slate-200">
+        <table className="tnum w-full border-collapse text-right text-sm">
+          <caption className="sr-only">Erosion of ee by temperature</caption>
+          <thead className="sticky top-0 bg-slate-50 text-xs text-ink-600">
+            <tr className="border-b border-slate-200">
+              <th scope="col" className="w-4 px-0 py-1.5">
+                <span className="sr-only">Temperature colour</span>
+              </th>
+              <Th>T (°C)</Th>
+              <Th>ΔG‡ (kJ/mol)</Th>
+              <Th>{racemization ? 'k_e one-way (s⁻¹)' : 'k_f A→B (s⁻¹)'}</Th>
+              {racemization ? <Th>k_rac = 2k_e (s⁻¹)</Th> : <Th>k_f + k_r (s⁻¹)</Th>}
+              <Th className="text-ink-950">ee half-life</Th>
+              {hasHold && <Th>ee after hold (%)</Th>}
+              {hasFloor && <Th>Longest hold above floor</Th>}
+            </tr>
+          </thead>
+          <tbody>
+            {data.points.map((p) => (
+              <tr key={p.kelvin} className="border-b border-slate-100 last:border-0 hover:bg-slate-50">
+                <td className="py-1 pl-2">
+                  <span className="inline-block h-2 w-2 rounded-full align-middle" style={{ background: thermalColor(p.celsius) }} aria-hidden="true" />
+                </td>
+                <td className="px-2 py-1">{fixed(p.celsius, 1)}</td>
+                <td className="px-2 py-1">{fixed(p.dG['kJ/mol'], 1)}</td>
+                <td className="px-2 py-1">{sig(p.kePerS, 3)}</td>
+                <td className="px-2 py-1">{sig(racemization ? (p.kRacPerS ?? 2 * p.kePerS) : p.kRelaxationPerS, 3)}</td>
+                <td className="px-2 py-1 font-medium text-ink-950">{p.eeHalfLife.text}</td>
+                {hasHold && <td className="px-2 py-1">{p.eeAfterHoldPercent === null ? '—' : percent(p.eeAfterHoldPercent)}</td>}
+                {hasFloor && <td className="px-2 py-1">{holdCell(p)}</td>}
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+      <p className="text-xs text-ink-600">
+        ee half-life here is the time for ee to halve, t½ = ln 2/(2k_e) = ln 2/k_rac{racemization ? '' : ' (epimerization: ln 2/(k_f + k_r), for the excess above its equilibrium value)'}.
+      </p>
+      <ResultNotes warnings={data.warnings} definitions={data.definitions} assumptions={data.assumptions} />
+      <p className="text-xs text-ink-600">{data.caution}</p>
+      <SafetyCaution compact />
+    </>
+  );
+}

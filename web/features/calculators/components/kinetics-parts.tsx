@@ -1,0 +1,123 @@
+import type { ReactNode } from 'react';
+import type { FieldError } from '../../../lib/api-client';
+import { sig } from '../../../lib/format';
+import type { TemperatureUnit } from '../lib/parse-screen';
+import type { DurationUnit } from '../lib/rate-form';
+import { NumberField, SelectField, temperatureUnitOptions, type Option } from './fields';
+
+export const durationUnitOptions: Option<DurationUnit>[] = [
+  { value: 's', label: 's' },
+  { value: 'min', label: 'min' },
+  { value: 'h', label: 'h' },
+  { value: 'd', label: 'd' },
+];
+
+/** k's unit as the API names it, written for reading. */
+export function kUnitText(unit: 's^-1' | 'L/(mol*s)'): string {
+  return unit === 's^-1' ? 's⁻¹' : 'L mol⁻¹ s⁻¹';
+}
+
+/** A tick or tooltip number with up to three significant figures and no trailing zeros. */
+export function compactNumber(value: number): string {
+  return sig(value, 3)
+    .replace(/^([^×]*\.\d*?)0+(\s|$)/, '$1$2')
+    .replace(/\.(\s|$)/, '$1');
+}
+
+/** From / to / how many: the temperature range every panel asks for. */
+export function RangeFields({
+  from,
+  to,
+  unit,
+  count,
+  onChange,
+  errors,
+}: {
+  from: string;
+  to: string;
+  unit: TemperatureUnit;
+  count: string;
+  onChange: (patch: { rangeFrom?: string; rangeTo?: string; rangeUnit?: TemperatureUnit; count?: string }) => void;
+  errors: FieldError[];
+}) {
+  return (
+    <fieldset className="flex flex-wrap items-start gap-3 border-t border-slate-200 pt-3">
+      <legend className="sr-only">Temperature range</legend>
+      <NumberField label="From" path="temperatures.from" value={from} onChange={(rangeFrom) => onChange({ rangeFrom })} errors={errors} width="w-20" />
+      <NumberField
+        label="to"
+        path="temperatures.to"
+        value={to}
+        onChange={(rangeTo) => onChange({ rangeTo })}
+        errors={errors}
+        width="w-20"
+        unit={<SelectField label="Range unit" value={unit} options={temperatureUnitOptions} onChange={(rangeUnit) => onChange({ rangeUnit })} />}
+      />
+      <NumberField label="Temperatures" path="temperatures.count" value={count} onChange={(c) => onChange({ count: c })} errors={errors} width="w-16" />
+    </fieldset>
+  );
+}
+
+export const rangeFieldPaths = ['temperatures.from', 'temperatures.to', 'temperatures.count'];
+
+/** The API's warnings (never hidden), definitions and assumptions under a result. */
+export function ResultNotes({
+  warnings = [],
+  definitions = [],
+  assumptions = [],
+}: {
+  warnings?: { code: string; message: string }[];
+  definitions?: string[];
+  assumptions?: string[];
+}) {
+  return (
+    <div className="flex flex-col gap-2 text-xs text-ink-600">
+      {warnings.length > 0 && (
+        <div role="status" className="rounded border border-amber-300 bg-caution-50 px-3 py-2 text-caution-700">
+          <p className="font-medium">
+            <span aria-hidden="true">⚠ </span>
+            {warnings.length === 1 ? 'Warning' : 'Warnings'}
+          </p>
+          <ul className="list-disc pl-5">
+            {warnings.map((w) => (
+              <li key={w.code}>{w.message}</li>
+            ))}
+          </ul>
+        </div>
+      )}
+      {definitions.length > 0 && <NoteList title="Definitions" items={definitions} />}
+      {assumptions.length > 0 && <NoteList title="Assumptions" items={assumptions} />}
+    </div>
+  );
+}
+
+function NoteList({ title, items }: { title: string; items: string[] }) {
+  return (
+    <div>
+      <p className="font-medium text-ink-800">{title}</p>
+      <ul className="list-disc pl-5">
+        {items.map((a) => (
+          <li key={a}>{a}</li>
+        ))}
+      </ul>
+    </div>
+  );
+}
+
+/** Placeholder shown in the results column before the first answer. */
+export function EmptyResult({ failed, children }: { failed: boolean; children: ReactNode }) {
+  return (
+    <p className="rounded border border-dashed border-slate-300 px-3 py-6 text-center text-sm text-ink-500">
+      {failed ? 'No result: see the message beside the inputs.' : children}
+    </p>
+  );
+}
+
+/** Table header cell in the calculators' style. */
+export function Th({ children, className = '' }: { children: ReactNode; className?: string }) {
+  return (
+    <th scope="col" className={`px-2 py-1.5 font-medium ${className}`}>
+      {children}
+    </th>
+  );
+}

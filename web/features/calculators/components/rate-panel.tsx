@@ -1,0 +1,185 @@
+import { useState } from 'react';
+import type { RateRequest, RateResponse } from '../../../../api/features/kinetics/schemas';
+import { LineChart, type LineChartSeries } from '../../../components/charts/line-chart';
+import { thermalColor } from '../../../components/charts/thermal-scale';
+import { SafetyCaution } from '../../../components/ui/caution';
+import { Panel } from '../../../components/ui/page';
+import { ApiError, type FieldError } from '../../../lib/api-client';
+import { fixed, sig } from '../../../lib/format';
+import { useRate } from '../api/post-rate';
+import { apiFieldErrors, unmatchedErrors } from '../lib/field-errors';
+import { initialRateForm, toRateRequest, type RateFormState } from '../lib/rate-form';
+import { ProblemAlert } from './fields';
+import { compactNumber, EmptyResult, kUnitText, ResultNotes, Th } from './kinetics-parts';
+import { RateForm, rateFieldPaths } from './rate-form';
+
+const SOURCE_TEXT: Record<RateResponse['activation']['source'], string> = {
+  given: 'as given',
+  assumed: 'assumed, not measured',
+  derived: 'derived from the two runs',
+};
+
+function signedKJ(v: number) {
+  return `${v > 0 ? '+' : ''}${fixed(v, 0)}`;
+}
+
+/** Time to finish: rate constants and times to a target conversion across a temperature range. */
+export function RatePanel() {
+  const [form, setForm] = useState<RateFormState>(initialRateForm);
+  const [request, setRequest] = useState<RateRequest | null>(null);
+  const [clientErrors, setClientErrors] = useState<FieldError[]>([]);
+  const query = useRate(request);
+
+  const serverErrors = apiFieldErrors(query.error);
+  const errors = clientErrors.length ? clientErrors : serverErrors;
+  const leftover = unmatchedErrors(errors, rateFieldPaths);
+  const data = query.data;
+
+  const submit = () => {
+    const { request: next, errors: found } = toRateRequest(form);
+    setClientErrors(found);
+    if (next) setRequest(next);
+  };
+
+  return (
+    <Panel title="Time to finish">
+      <div className="grid gap-6 lg:grid-cols-[minmax(0,24rem)_minmax(0,1fr)]">
+        <div className="flex flex-col gap-3">
+          <RateForm form={form} onChange={(patch) => setForm((f) => ({ ...f, ...patch }))} onSubmit={submit} errors={errors} busy={query.isFetching} />
+          {query.error && !clientErrors.length && (serverErrors.length === 0 || leftover.length > 0) && (
+            <ProblemAlert
+              title={query.error instanceof ApiError ? query.error.problem.title : 'The calculation failed'}
+              detail={query.error.message}
+              errors={leftover}
+            />
+          )}
+          {clientErrors.length > 0 && leftover.length > 0 && <ProblemAlert title="Check the inputs" errors={leftover} />}
+        </div>
+        <div className="flex min-w-0 flex-col gap-3" aria-live="polite">
+          {!data && !query.isFetching && (
+            <EmptyResult failed={Boolean(query.error)}>Describe a run (or a barrier), the order and a range, then press Calculate times.</EmptyResult>
+          )}
+          {data && (
+            <div className={`flex flex-col gap-3 ${query.isPlaceholderData ? 'opacity-60' : ''}`}>
+              <RateResult data={data} />
+            </div>
+          )}
+        </div>
+      </div>
+    </Panel>
+  );
+}
+
+function RateResult({ data }: { data: RateResponse }) {
+  const target = fixed(data.targetConversionPercent, data.targetConversionPercent % 1 === 0 ? 0 : 1);
+  const kUnit = kUnitText(data.kUnit);
+  const variants = data.sensitivity?.variants ?? [];
+  const a = data.activation;
+  const series: LineChartSeries[] = [
+    {
+      key: 'main',
+      label: data.sensitivity ? `ΔH‡ ${fixed(a.dH['kJ/mol'], 0)} kJ/mol (${SOURCE_TEXT[a.source]})` : `time to ${target} %`,
+      points: data.points.map((p) => ({ x: p.celsius, y: p.timeToTarget.s / 3600 })),
+    },
+    ...variants
+      .filter((v) => v.points)
+      .map((v) => ({
+        key: `dH-${v.dH['kJ/mol']}`,
+        label: `ΔH‡ ${fixed(v.dH['kJ/mol'], 0)} kJ/mol`,
+        points: v.points!.map((p) => ({ x: p.celsius, y: p.timeToTarget.s / 3600 })),
+        secondary: true,
+      })),
+  ];
+  const variantAt = (variant: (typeof variants)[number], kelvin: number) =>
+    variant.points?.find((p) => Math.abs(p.kelvin - kelvin) < 1e-6)?.timeToTarget.text ?? '—';
+
+  return (
+    <>
+      <dl className="tnum grid grid-cols-[auto_1fr] gap-x-3 gap-y-0.5 rounded border border-slate-200 bg-slate-50 px-3 py-2 text-sm">
+        <dt className="text-ink-600">ΔH‡</dt>
+        <dd className="text-ink-950">
+          {fixed(a.dH['kJ/mol'], 1)} kJ/mol ({fixed(a.dH['kcal/mol'], 2)} kcal/mol), <span className="text-ink-600">{SOURCE_TEXT[a.source]}</span>
+        </dd>
+        <dt className="text-ink-600">ΔS‡</dt>
+        <dd className="text-ink-950">
+          {fixed(a.dS['J/(mol*K)'], 1)} J/(mol·K) ({fixed(a.dS['cal/(mol*K)'], 2)} cal/(mol·K))
+        </dd>
+        <dt className="text-ink-600">Arrhenius Ea</dt>
+        <dd className="text-ink-950">
+          {fixed(a.ea['kJ/mol'], 1)} kJ/mol at {fixed(a.ea.kelvin, 1)} K <span className="text-ink-600">(Ea = ΔH‡ + RT)</span>
+        </dd>
+        {data.runs.map((r, i) => (
+          <div key={i} className="contents">
+            <dt className="text-ink-600">{data.runs.length > 1 ? `Run ${i + 1}` : 'Run'}</dt>
+            <dd className="text-ink-950">
+              k = {sig(r.k, 3)} {kUnit} at {fixed(r.celsius, 1)} °C
+              {r.kObsPerS !== null && data.order === 'pseudo-first' ? ` (k_obs = ${sig(r.kObsPerS, 3)} s⁻¹)` : ''}
+            </dd>
+          </div>
+        ))}
+      </dl>
+
+      <LineChart
+        title={`Time to ${target} % conversion against temperature`}
+        series={series}
+        yLabel={`Time to ${target} % (h, log scale)`}
+        yScale="log"
+        formatY={(h) => `${compactNumber(h)} h`}
+        testId="rate-chart"
+      />
+      {data.sensitivity && <p className="text-xs text-ink-600">{data.sensitivity.note}</p>}
+
+      <div className="max-h-[26rem] overflow-auto rounded border border-slate-200">
+        <table className="tnum w-full border-collapse text-right text-sm">
+          <caption className="sr-only">Rate constant, half-life and time to the target conversion by temperature</caption>
+          <thead className="sticky top-0 bg-slate-50 text-xs text-ink-600">
+            <tr className="border-b border-slate-200">
+              <th scope="col" className="w-4 px-0 py-1.5">
+                <span className="sr-only">Temperature colour</span>
+              </th>
+              <Th>T (°C)</Th>
+              <Th>k ({kUnit})</Th>
+              {data.order === 'pseudo-first' && <Th>k_obs (s⁻¹)</Th>}
+              <Th>t½</Th>
+              <Th className="text-ink-950">Time to {target} %</Th>
+              {variants.map((v) => (
+                <Th key={v.dH['kJ/mol']}>
+                  if ΔH‡ {signedKJ(v.dH['kJ/mol'] - a.dH['kJ/mol'])} kJ/mol
+                </Th>
+              ))}
+              <Th>ΔG‡ (kJ/mol)</Th>
+              <Th>Ea (kJ/mol)</Th>
+            </tr>
+          </thead>
+          <tbody>
+            {data.points.map((p) => (
+              <tr key={p.kelvin} className="border-b border-slate-100 last:border-0 hover:bg-slate-50">
+                <td className="py-1 pl-2">
+                  <span className="inline-block h-2 w-2 rounded-full align-middle" style={{ background: thermalColor(p.celsius) }} aria-hidden="true" />
+                </td>
+                <td className="px-2 py-1">{fixed(p.celsius, 1)}</td>
+                <td className="px-2 py-1">{sig(p.k, 3)}</td>
+                {data.order === 'pseudo-first' && <td className="px-2 py-1">{p.kObsPerS === null ? '—' : sig(p.kObsPerS, 3)}</td>}
+                <td className="px-2 py-1">{p.halfLife.text}</td>
+                <td className="px-2 py-1 font-medium text-ink-950">{p.timeToTarget.text}</td>
+                {variants.map((v) => (
+                  <td key={v.dH['kJ/mol']} className="px-2 py-1 text-ink-600">
+                    {variantAt(v, p.kelvin)}
+                  </td>
+                ))}
+                <td className="px-2 py-1">{fixed(p.dG['kJ/mol'], 1)}</td>
+                <td className="px-2 py-1">{fixed(p.ea['kJ/mol'], 1)}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+      {data.order === 'second' && (
+        <p className="text-xs text-ink-600">Second order: t½ is the time to 50 % conversion from the given c₀ (it depends on c₀).</p>
+      )}
+      <ResultNotes warnings={data.warnings} assumptions={data.assumptions} />
+      <p className="text-xs text-ink-600">{data.caution}</p>
+      <SafetyCaution compact />
+    </>
+  );
+}
