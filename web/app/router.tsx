@@ -5,6 +5,7 @@ import { NotFoundRoute } from './routes/not-found';
 import { RouteErrorBoundary } from './routes/route-error';
 import { ApiDocsRoute } from './routes/api-docs';
 import { CalculatorsRoute } from './routes/calculators';
+import { RateAndHoldRoute } from './routes/rate-and-hold';
 import { SignInRoute } from './routes/sign-in';
 import { ProjectsRoute } from './routes/projects';
 import { ProjectSettingsRoute } from './routes/project-settings';
@@ -21,6 +22,7 @@ export const routes: RouteObject[] = [
       { path: paths.home.path, element: <HomeRoute /> },
       { path: paths.apiDocs.path, element: <ApiDocsRoute /> },
       { path: paths.calculators.path, element: <CalculatorsRoute /> },
+      { path: paths.rateAndHold.path, element: <RateAndHoldRoute /> },
       { path: paths.signIn.path, element: <SignInRoute /> },
       { path: paths.projects.path, element: <ProjectsRoute /> },
       { path: paths.projectSettings.path, element: <ProjectSettingsRoute /> },

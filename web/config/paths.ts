@@ -3,6 +3,7 @@ export const paths = {
   home: { path: '/', getHref: () => '/' },
   apiDocs: { path: '/api-docs', getHref: () => '/api-docs' },
   calculators: { path: '/calculators', getHref: () => '/calculators' },
+  rateAndHold: { path: '/rate-and-hold', getHref: () => '/rate-and-hold' },
   signIn: { path: '/sign-in', getHref: (returnTo?: string) => (returnTo ? `/sign-in?returnTo=${encodeURIComponent(returnTo)}` : '/sign-in') },
   projects: { path: '/projects', getHref: () => '/projects' },
   projectSettings: { path: '/projects/:projectId/settings', getHref: (projectId: string) => `/projects/${projectId}/settings` },
