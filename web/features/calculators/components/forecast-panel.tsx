@@ -1,5 +1,7 @@
 import { useState } from 'react';
+import { Link } from 'react-router-dom';
 import { Panel } from '../../../components/ui/page';
+import { paths } from '../../../config/paths';
 import { SafetyCaution } from '../../../components/ui/caution';
 import { SelectivityChart } from '../../../components/charts/selectivity-chart';
 import { ApiError, type FieldError } from '../../../lib/api-client';
@@ -55,6 +57,13 @@ export function ForecastPanel() {
             />
           )}
           {clientErrors.length > 0 && leftover.length > 0 && <ProblemAlert title="Check the inputs" errors={leftover} />}
+          <p className="text-xs text-ink-600">
+            Selectivity gained on cooling costs rate: see{' '}
+            <Link to={paths.rateAndHold.getHref()} className="font-medium text-fjord-700 underline">
+              Rate and hold
+            </Link>{' '}
+            for the time to finish and ee erosion.
+          </p>
         </div>
 
         <div className="flex min-w-0 flex-col gap-3" aria-live="polite">
