@@ -348,3 +348,30 @@ export async function deleteSavedForecast(db: Knex, actor: ProjectActor, forecas
     await recordAudit(trx, { ...auditActor(actor), action: 'delete', entityType: 'saved_forecast', entityId: forecastId, before: snapshot(forecast), after: null });
   });
 }
+
+/** Most measurements one batch request may carry (the same cap as the stateless fit). */
+export const MAX_BATCH_MEASUREMENTS = 5000;
+
+/**
+ * Add many measurements to a campaign in one transaction with one audit event: all are stored,
+ * or none (a database refusal of any row rolls back every row).
+ */
+export async function createMeasurementsBatch(db: Knex, actor: ProjectActor, campaignId: string, inputs: MeasurementCreate[]): Promise<number> {
+  return db.transaction(async (trx) => {
+    const campaign = await getCampaignForUpdate(trx, actor.projectId, campaignId);
+    const stamp = new Date();
+    const rows = inputs.map((input) => ({ ...measurementColumns(input), campaignId, createdByUserId: actor.actorUserId, createdAt: stamp, updatedAt: stamp }));
+    // Chunked so a 5000-row batch stays well under PostgreSQL's bind-parameter limit.
+    for (let i = 0; i < rows.length; i += 1000) await trx('measurements').insert(rows.slice(i, i + 1000));
+    await trx('campaigns').where({ id: campaignId }).update({ updatedAt: stamp });
+    await recordAudit(trx, {
+      ...auditActor(actor),
+      action: 'create',
+      entityType: 'measurement_batch',
+      entityId: campaignId,
+      before: null,
+      after: { campaignTitle: campaign.title, rows: rows.length },
+    });
+    return rows.length;
+  });
+}
