@@ -24,6 +24,7 @@ import { rateLimit } from 'express-rate-limit';
 import { computeRouter } from './features/compute/routes';
 import { kineticsRouter } from './features/kinetics/routes';
 import { docsRouter } from './features/docs/routes';
+import { campaignsRouter } from './features/campaigns/routes';
 
 export interface AppDeps {
   knex: Knex;
@@ -88,6 +89,7 @@ export function createApp(deps: AppDeps): Express {
   api.use('/v1', projectsRouter({ knex: deps.knex, config: deps.config, mailer }));
   api.use('/v1', invitationsRouter({ knex: deps.knex }));
   api.use('/v1', tokensRouter({ config: deps.config }));
+  api.use('/v1', campaignsRouter({ knex: deps.knex, version: deps.config.version }));
   const computeLimit = rateLimit({
     windowMs: deps.config.rateLimit.windowMs,
     limit: deps.config.rateLimit.compute,

@@ -11,6 +11,8 @@ import { listRoutes } from '../support/routes';
 import { createUser } from '../factories/users';
 import { createProject } from '../factories/projects';
 import { createApiToken } from '../factories/tokens';
+import { createCampaign, createMeasurements } from '../factories/campaigns';
+import { SavedForecast } from '../../api/models/saved-forecast';
 
 /**
  * Every /api route × every kind of caller, with the status each must get.
@@ -36,11 +38,29 @@ interface Rule {
   ok?: number | Partial<Record<Who, number>>;
   params?: (cell: Cell) => Promise<Record<string, string>> | Record<string, string>;
   body?: () => unknown;
+  /** Query string parameters (e.g. the version of a delete). */
+  query?: Record<string, string>;
   /** The call signs the caller out; sign them in again before the next cell. */
   endsSession?: boolean;
 }
 
 const uniqueEmail = () => `invitee-${randomBytes(4).toString('hex')}@example.test`;
+
+const oneRun = { temperature: { value: -20, unit: 'C' }, selectivity: { measure: 'ee', value: 91.5 } };
+async function aCampaign(c: Cell) {
+  return { campaignId: (await createCampaign(c.projectId)).id };
+}
+/** A campaign with a fittable screen (five temperatures). */
+async function aScreen(c: Cell) {
+  const campaign = await createCampaign(c.projectId);
+  await createMeasurements(campaign.id, [233.15, 253.15, 273.15, 293.15, 313.15]);
+  return { campaignId: campaign.id };
+}
+async function aMeasurement(c: Cell) {
+  const campaign = await createCampaign(c.projectId);
+  const [m] = await createMeasurements(campaign.id, [253.15]);
+  return { measurementId: m!.id };
+}
 
 const RULES: Record<string, Rule> = {
   'GET /api/health': { access: 'public', ok: 200 },
@@ -79,6 +99,37 @@ const RULES: Record<string, Rule> = {
     access: 'session',
     ok: 204,
     params: async (c) => ({ tokenId: c.me ? (await createApiToken(c.me)).token.id : randomUUID() }),
+  },
+
+  // Campaigns: viewers read (and download the report), editors write; reached through a campaign,
+  // measurement or forecast id, the project is resolved first so outsiders get 404.
+  'GET /api/v1/projects/:projectId/campaigns': { access: 'viewer', ok: 200 },
+  'POST /api/v1/projects/:projectId/campaigns': { access: 'editor', ok: 201, body: () => ({ title: `Matrix screen ${randomBytes(3).toString('hex')}`, measure: 'ee', assayMethod: 'chiral-hplc' }) },
+  'GET /api/v1/projects/:projectId/comparison': { access: 'viewer', ok: 200, params: aCampaign },
+  'GET /api/v1/campaigns/:campaignId': { access: 'viewer', ok: 200, params: aCampaign },
+  'PATCH /api/v1/campaigns/:campaignId': { access: 'editor', ok: 200, params: aCampaign, body: () => ({ version: 1, notes: 'changed by the matrix' }) },
+  'DELETE /api/v1/campaigns/:campaignId': { access: 'editor', ok: 204, params: aCampaign, query: { version: '1' } },
+  'GET /api/v1/campaigns/:campaignId/measurements': { access: 'viewer', ok: 200, params: aCampaign },
+  'POST /api/v1/campaigns/:campaignId/measurements': { access: 'editor', ok: 201, params: aCampaign, body: () => oneRun },
+  'POST /api/v1/campaigns/:campaignId/measurements/batch': { access: 'editor', ok: 201, params: aCampaign, body: () => ({ measurements: [oneRun, oneRun] }) },
+  // Callers who pass authorization without sending a file meet the upload's own 400.
+  'POST /api/v1/campaigns/:campaignId/imports/preview': { access: 'editor', ok: 400, params: aCampaign },
+  'POST /api/v1/campaigns/:campaignId/imports': { access: 'editor', ok: 400, params: aCampaign },
+  'GET /api/v1/campaigns/:campaignId/analysis': { access: 'viewer', ok: 200, params: aScreen },
+  'GET /api/v1/campaigns/:campaignId/forecasts': { access: 'viewer', ok: 200, params: aScreen },
+  'POST /api/v1/campaigns/:campaignId/forecasts': { access: 'editor', ok: 201, params: aScreen, body: () => ({ temperature: { value: -10, unit: 'C' } }) },
+  'GET /api/v1/campaigns/:campaignId/report.xlsx': { access: 'viewer', ok: 200, params: aScreen },
+  'PATCH /api/v1/measurements/:measurementId': { access: 'editor', ok: 200, params: aMeasurement, body: () => ({ version: 1, notes: 'checked' }) },
+  'PUT /api/v1/measurements/:measurementId/exclusion': { access: 'editor', ok: 200, params: aMeasurement, body: () => ({ version: 1, excluded: true, reason: 'matrix check' }) },
+  'DELETE /api/v1/measurements/:measurementId': { access: 'editor', ok: 204, params: aMeasurement, query: { version: '1' } },
+  'DELETE /api/v1/forecasts/:forecastId': {
+    access: 'editor',
+    ok: 204,
+    params: async (c) => {
+      const campaign = await createCampaign(c.projectId);
+      const forecast = await SavedForecast.query().insert({ campaignId: campaign.id, temperatureK: 250, result: { note: 'made by the matrix' } }).returning('*');
+      return { forecastId: forecast.id };
+    },
   },
 };
 
@@ -159,6 +210,7 @@ describe('authorization matrix', () => {
         if (session && method !== 'GET') req = req.set('X-CSRF-Token', session.csrf);
         if (who === 'bearer') req = req.set('Authorization', `Bearer ${bearer}`);
         if (who === 'revoked') req = req.set('Authorization', `Bearer ${revoked}`);
+        if (rule.query) req = req.query(rule.query);
         if (rule.body) req = req.send(rule.body() as object);
         const res = await req;
         if (who === 'anonymous') {

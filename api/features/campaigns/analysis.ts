@@ -1,0 +1,333 @@
+/**
+ * Analysis of a stored campaign: its measurements go through the same engine call as POST
+ * /api/v1/fit (`analyseScreen`), so the numbers are identical for identical data. Adds what a
+ * stored campaign knows and the calculator does not: exclusions with reasons, "at least" runs
+ * (censored as bounds), the campaign's default assay precision for runs without their own,
+ * saved forecasts compared with runs measured later, and a side-by-side of a project's campaigns.
+ */
+import type { Knex } from 'knex';
+import { SIGN_CONVENTION, kelvinToCelsius, parseSelectivity, sigmaLnRatio, type EyringMeasurement } from '../../science';
+import { NotFoundError, UnprocessableError } from '../../lib/errors';
+import { Campaign } from '../../models/campaign';
+import { Measurement } from '../../models/measurement';
+import { SavedForecast } from '../../models/saved-forecast';
+import { analyseScreen, type FitOptions } from '../compute/service';
+import type { FitResponse } from '../compute/schemas';
+import type { AnalysisPoint, AnalysisQuery, AnalysisResponse, ComparisonResponse, SavedForecastView } from './analysis-schemas';
+import { getCampaign, isUuid, saveForecast, type ProjectActor } from './service';
+import { toKelvin, type SavedForecastCreate } from './schemas';
+
+type FitPrediction = FitResponse['predictions'][number];
+
+/** Shown beside every forecast and in every export (DOMAIN §9). */
+export const FORECAST_CAUTION =
+  'Forecasts are model estimates from the runs stored here: confirm the selectivity with a run at the chosen temperature before relying on it. ' +
+  'A colder or warmer process changes more than selectivity: a slow, cold reaction can accumulate dosed reagent and release it suddenly if cooling fails or the batch warms, ' +
+  'so reaction calorimetry and a process-safety review are needed before changing the temperature on scale. Follow local codes and licensed practice.';
+
+/** Temperatures in the fitted-line curve, spaced evenly in 1/T. */
+export const CURVE_POINTS = 60;
+/** The curve runs this far beyond the coldest and warmest measured runs (K). */
+export const CURVE_MARGIN_K = 15;
+/** Runs within this distance of a saved forecast's temperature are compared with it (K). */
+export const MEASURED_MATCH_K = 1;
+
+const ENGINE_FLAGS = new Set(['outlier', 'high-leverage', 'influential']);
+
+/** The stored selectivity as the engine reads it. */
+function selectivityOf(m: Pick<Measurement, 'measure' | 'value' | 'valueB'>) {
+  return { measure: m.measure, value: m.valueB === null ? m.value : `${m.value}:${m.valueB}` };
+}
+
+/**
+ * σ(ln r) of a run: its own assay uncertainty, else the campaign's default when the run is reported
+ * in the campaign's measure (the default is in that measure's units). Zero means "not known".
+ */
+function sigmaOf(campaign: Pick<Campaign, 'measure' | 'defaultUncertainty'>, m: Measurement): number | undefined {
+  const u = m.uncertainty ?? (m.measure === campaign.measure ? campaign.defaultUncertainty : null);
+  if (u === null || !(u > 0)) return undefined;
+  return sigmaLnRatio(selectivityOf(m), u);
+}
+
+const runLabel = (m: Pick<Measurement, 'sampleId' | 'replicateLabel'>) => [m.sampleId, m.replicateLabel].filter(Boolean).join(' ') || null;
+
+/** Stored runs → the engine's SI form, in the same order. */
+export function toEngineMeasurements(campaign: Pick<Campaign, 'measure' | 'defaultUncertainty'>, measurements: readonly Measurement[]): EyringMeasurement[] {
+  return measurements.map((m) => {
+    const out: EyringMeasurement = { temperatureK: m.temperatureK, ratio: parseSelectivity(selectivityOf(m)) };
+    const sigma = sigmaOf(campaign, m);
+    if (sigma !== undefined) out.sigmaLnR = sigma;
+    if (m.excluded) {
+      out.excluded = true;
+      if (m.excludedReason) out.exclusionReason = m.excludedReason;
+    }
+    if (m.isLowerBound) out.atLeast = true;
+    const label = runLabel(m);
+    if (label) out.label = label;
+    return out;
+  });
+}
+
+/** `count` temperatures from `lowK` to `highK`, evenly spaced in 1/T (as they sit on an Eyring plot). */
+export function curveTemperatures(lowK: number, highK: number, count = CURVE_POINTS): number[] {
+  const a = 1 / lowK;
+  const b = 1 / highK;
+  return Array.from({ length: count }, (_, i) => (i === 0 ? lowK : i === count - 1 ? highK : 1 / (a + ((b - a) * i) / (count - 1))));
+}
+
+function isDomainError(err: unknown): err is Error & { code: string } {
+  return err instanceof Error && err.name === 'DomainError' && typeof (err as { code?: unknown }).code === 'string';
+}
+
+export interface AnalysisOptions extends FitOptions {
+  /** Extra temperature (K) to predict at, reported as `at`. */
+  atK?: number;
+}
+
+export function analysisOptions(query: Pick<AnalysisQuery, 'weighting' | 'uncertaintyScale' | 'confidence' | 'at'>): AnalysisOptions {
+  return {
+    weighting: query.weighting,
+    uncertaintyScale: query.uncertaintyScale,
+    confidence: query.confidence,
+    ...(query.at === undefined ? {} : { atK: toKelvin(query.at, 'C') }),
+  };
+}
+
+/** The analysis of one campaign's runs (pure: no database). */
+export function computeAnalysis(campaign: Pick<Campaign, 'id' | 'version' | 'measure' | 'defaultUncertainty'>, measurements: readonly Measurement[], options: AnalysisOptions): AnalysisResponse {
+  const engine = toEngineMeasurements(campaign, measurements);
+  let fit: FitResponse | null = null;
+  let problem: AnalysisResponse['problem'] = null;
+  let curveK: number[] = [];
+  if (measurements.length === 0) {
+    problem = { code: 'no-measurements', message: 'The campaign has no measurements yet; add runs at two or more temperatures to fit.' };
+  } else {
+    let minK = Infinity;
+    let maxK = -Infinity;
+    for (const m of measurements) {
+      minK = Math.min(minK, m.temperatureK);
+      maxK = Math.max(maxK, m.temperatureK);
+    }
+    curveK = maxK > minK ? curveTemperatures(Math.max(minK - CURVE_MARGIN_K, 1), maxK + CURVE_MARGIN_K) : [];
+    try {
+      fit = analyseScreen(engine, options, options.atK === undefined ? curveK : [...curveK, options.atK]);
+    } catch (err) {
+      if (!isDomainError(err)) throw err;
+      problem = { code: err.code, message: explainProblem(err, measurements) };
+    }
+  }
+  const predictions = fit?.predictions ?? [];
+  const curve = fit ? predictions.slice(0, curveK.length) : [];
+  const at = fit && options.atK !== undefined ? (predictions[predictions.length - 1] ?? null) : null;
+
+  const points: AnalysisPoint[] = measurements.map((m, i) => {
+    const e = engine[i]!;
+    const y = Math.log(e.ratio);
+    const sigma = e.sigmaLnR ?? 0;
+    const residual = fit?.residuals[i];
+    const status: AnalysisPoint['status'] = residual?.status ?? (m.excluded ? 'excluded' : m.isLowerBound ? 'censored' : 'fitted');
+    return {
+      measurementId: m.id,
+      kelvin: m.temperatureK,
+      celsius: kelvinToCelsius(m.temperatureK),
+      lnRatio: y,
+      lnRatioLow: y - sigma,
+      lnRatioHigh: y + sigma,
+      eePercent: 100 * Math.tanh(y / 2),
+      percentA: 100 / (1 + Math.exp(-y)),
+      status,
+      flagged: residual ? residual.flags.some((f) => ENGINE_FLAGS.has(f) || f.endsWith('-disagrees')) : false,
+      exclusionReason: m.excluded ? m.excludedReason : null,
+      label: runLabel(m),
+    };
+  });
+
+  return { campaignId: campaign.id, campaignVersion: campaign.version, fit, problem, curve, at, points, convention: SIGN_CONVENTION, caution: FORECAST_CAUTION };
+}
+
+/** Engine messages name array paths; a stored campaign's user needs to hear which run. */
+function explainProblem(err: Error & { code: string }, measurements: readonly Measurement[]): string {
+  const field = (err as { field?: string }).field ?? '';
+  const index = /measurements\[(\d+)\]/.exec(field)?.[1];
+  if (err.code === 'sigma-missing' && index !== undefined) {
+    const m = measurements[Number(index)]!;
+    return `Weighting by uncertainty needs an assay uncertainty for every fitted run; the run at ${kelvinToCelsius(m.temperatureK).toFixed(2)} °C${runLabel(m) ? ` (${runLabel(m)})` : ''} has none and the campaign has no default for its measure. Enter one, set the campaign's default, or fit unweighted.`;
+  }
+  if (err.code === 'too-few-temperatures') {
+    const excluded = measurements.filter((m) => m.excluded).length;
+    const bounds = measurements.filter((m) => !m.excluded && m.isLowerBound).length;
+    const set = [excluded ? `${excluded} excluded` : '', bounds ? `${bounds} reported only as a bound` : ''].filter(Boolean).join(', ');
+    return `A fit needs fitted runs at two or more distinct temperatures${set ? ` (${set})` : ''}; add runs at another temperature.`;
+  }
+  return err.message;
+}
+
+/** Load a campaign of the project with its runs in display order. */
+async function loadCampaignData(db: Knex, projectId: string, campaignId: string): Promise<{ campaign: Campaign; measurements: Measurement[] }> {
+  const campaign = await getCampaign(db, projectId, campaignId);
+  const measurements = await Measurement.query(db).where({ campaignId }).orderBy('temperatureK').orderBy('createdAt').orderBy('sourceRow').orderBy('id');
+  return { campaign, measurements };
+}
+
+export async function analyseCampaign(db: Knex, projectId: string, campaignId: string, query: AnalysisQuery): Promise<AnalysisResponse> {
+  const { campaign, measurements } = await loadCampaignData(db, projectId, campaignId);
+  return computeAnalysis(campaign, measurements, analysisOptions(query));
+}
+
+// ── Saved forecasts ────────────────────────────────────────────────────────────────────────
+
+/** What is stored in saved_forecasts.result: the prediction and what it was computed from. */
+interface ForecastSnapshot {
+  prediction: FitPrediction;
+  basis: {
+    campaignVersion: number;
+    measurementCount: number;
+    n: number;
+    weighting: FitResponse['weighting'];
+    confidence: number;
+    ddH: { 'kJ/mol': number };
+    ddS: { 'J/(mol*K)': number };
+    preferred: 'one-line' | 'two-branch' | null;
+    warnings: string[];
+  };
+}
+
+/** Compute the prediction from the stored runs as they are now and keep it (never a client-sent result). */
+export async function saveCampaignForecast(
+  db: Knex,
+  actor: ProjectActor,
+  campaignId: string,
+  input: SavedForecastCreate,
+  fitOptions: FitOptions,
+): Promise<SavedForecastView> {
+  const { campaign, measurements } = await loadCampaignData(db, actor.projectId, campaignId);
+  const temperatureK = toKelvin(input.temperature.value, input.temperature.unit);
+  const analysis = computeAnalysis(campaign, measurements, { ...fitOptions, atK: temperatureK });
+  if (!analysis.fit || !analysis.at) {
+    throw new UnprocessableError(`No forecast can be made from this campaign yet: ${analysis.problem?.message ?? 'the data cannot be fitted'}`, [
+      { path: 'temperature', message: analysis.problem?.message ?? 'no fit' },
+    ]);
+  }
+  const { fit } = analysis;
+  const snapshot: ForecastSnapshot = {
+    prediction: analysis.at,
+    basis: {
+      campaignVersion: campaign.version,
+      measurementCount: measurements.length,
+      n: fit.n,
+      weighting: fit.weighting,
+      confidence: fit.confidence,
+      ddH: { 'kJ/mol': fit.ddH['kJ/mol'] },
+      ddS: { 'J/(mol*K)': fit.ddS['J/(mol*K)'] },
+      preferred: fit.twoBranch?.preferred ?? null,
+      warnings: fit.warnings.map((w) => w.code),
+    },
+  };
+  const saved = await saveForecast(db, actor, campaignId, { temperatureK, label: input.label, notes: input.notes, result: snapshot as unknown as Record<string, unknown> });
+  const [view] = await forecastViews(db, campaign, [saved], measurements);
+  return view!;
+}
+
+/** Lower-bound runs can only contradict an interval (by lying above it), never confirm one. */
+function insideInterval(prediction: FitPrediction, m: Measurement, ratio: number): boolean | null {
+  const interval = prediction.predictionInterval?.ratio;
+  if (!interval) return null;
+  const [lo, hi] = interval[0] <= interval[1] ? interval : [interval[1], interval[0]];
+  if (m.isLowerBound) {
+    const beyond = ratio >= 1 ? ratio > hi : ratio < lo;
+    return beyond ? false : null;
+  }
+  return ratio >= lo && ratio <= hi;
+}
+
+async function forecastViews(db: Knex, campaign: Campaign, forecasts: SavedForecast[], measurements: Measurement[]): Promise<SavedForecastView[]> {
+  const userIds = [...new Set(forecasts.map((f) => f.createdByUserId).filter((id): id is string => id !== null))];
+  const users: { id: string; login: string; displayName: string | null }[] = userIds.length ? await db('users').whereIn('id', userIds).select('id', 'login', 'displayName') : [];
+  const byId = new Map(users.map((u) => [u.id, u]));
+  const included = measurements.filter((m) => !m.excluded);
+  return forecasts.map((f) => {
+    const snapshot = f.result as unknown as ForecastSnapshot;
+    const result = snapshot.prediction;
+    const measured = included
+      .filter((m) => Math.abs(m.temperatureK - f.temperatureK) <= MEASURED_MATCH_K)
+      .map((m) => {
+        const ratio = parseSelectivity(selectivityOf(m));
+        return { measurementId: m.id, kelvin: m.temperatureK, eePercent: 100 * Math.tanh(Math.log(ratio) / 2), ratio, insidePredictionInterval: insideInterval(result, m, ratio) };
+      });
+    const creator = f.createdByUserId ? byId.get(f.createdByUserId) : undefined;
+    return {
+      id: f.id,
+      campaignId: campaign.id,
+      temperatureK: f.temperatureK,
+      celsius: kelvinToCelsius(f.temperatureK),
+      label: f.label,
+      notes: f.notes,
+      createdAt: new Date(f.createdAt).toISOString(),
+      createdBy: creator ? { id: creator.id, login: creator.login, displayName: creator.displayName } : null,
+      result,
+      measured,
+    };
+  });
+}
+
+/** A campaign's saved forecasts, newest first, each compared with the runs stored near its temperature now. */
+export async function listCampaignForecasts(db: Knex, projectId: string, campaignId: string): Promise<SavedForecastView[]> {
+  const { campaign, measurements } = await loadCampaignData(db, projectId, campaignId);
+  const forecasts = await SavedForecast.query(db).where({ campaignId }).orderBy('createdAt', 'desc').orderBy('id');
+  return forecastViews(db, campaign, forecasts, measurements);
+}
+
+// ── Project comparison ─────────────────────────────────────────────────────────────────────
+
+/** Every campaign of the project fitted (unweighted, 95 %) and predicted at one temperature. */
+export async function compareCampaigns(db: Knex, projectId: string, atCelsius: number): Promise<ComparisonResponse> {
+  if (!isUuid(projectId)) throw new NotFoundError();
+  const atK = toKelvin(atCelsius, 'C');
+  const campaigns = await Campaign.query(db).where({ projectId }).orderBy('title').orderBy('id');
+  const all = campaigns.length
+    ? await Measurement.query(db)
+        .whereIn(
+          'campaignId',
+          campaigns.map((c) => c.id),
+        )
+        .orderBy('temperatureK')
+        .orderBy('createdAt')
+        .orderBy('sourceRow')
+        .orderBy('id')
+    : [];
+  const byCampaign = new Map<string, Measurement[]>();
+  for (const m of all) {
+    const list = byCampaign.get(m.campaignId) ?? [];
+    list.push(m);
+    byCampaign.set(m.campaignId, list);
+  }
+  return {
+    at: { kelvin: atK, celsius: atCelsius },
+    campaigns: campaigns.map((c) => {
+      const a = computeAnalysis(c, byCampaign.get(c.id) ?? [], { weighting: 'none', uncertaintyScale: 'absolute', confidence: 0.95, atK });
+      const fit = a.fit;
+      return {
+        id: c.id,
+        title: c.title,
+        status: c.status,
+        n: fit?.n ?? 0,
+        ddH: fit ? { 'kJ/mol': fit.ddH['kJ/mol'], 'kcal/mol': fit.ddH['kcal/mol'], se: fit.ddH.se } : null,
+        ddS: fit ? { 'J/(mol*K)': fit.ddS['J/(mol*K)'], 'cal/(mol*K)': fit.ddS['cal/(mol*K)'], se: fit.ddS.se } : null,
+        prediction: a.at,
+        preferred: fit?.twoBranch?.preferred ?? null,
+        warnings: fit?.warnings.length ?? 0,
+        problem: a.problem,
+      };
+    }),
+    convention: SIGN_CONVENTION,
+  };
+}
+
+/** Everything the spreadsheet report needs, read in one place. */
+export async function loadReportData(db: Knex, projectId: string, campaignId: string) {
+  const { campaign, measurements } = await loadCampaignData(db, projectId, campaignId);
+  const analysis = computeAnalysis(campaign, measurements, { weighting: 'none', uncertaintyScale: 'absolute', confidence: 0.95 });
+  const forecasts = await SavedForecast.query(db).where({ campaignId }).orderBy('createdAt', 'desc').orderBy('id');
+  const views = await forecastViews(db, campaign, forecasts, measurements);
+  return { campaign, measurements, analysis, forecasts: views };
+}

@@ -1,0 +1,99 @@
+import { z } from 'zod';
+import type { OpenApiRegistrar } from '../../lib/openapi';
+import { problemResponses } from '../../lib/openapi';
+import { analysisQuerySchema, analysisResponseSchema, comparisonQuerySchema, comparisonResponseSchema, savedForecastListSchema, savedForecastViewSchema } from './analysis-schemas';
+import { campaignCreateSchema, campaignUpdateSchema, measurementCreateSchema, savedForecastCreateSchema } from './schemas';
+
+const campaignIdParams = z.object({ campaignId: z.string().uuid() });
+const signedIn: Record<string, string[]>[] = [{ session: [] }, { bearer: [] }];
+
+/** Campaign routes in the API description; the analysis and forecast routes with their full schemas. */
+export const registerCampaigns: OpenApiRegistrar = (registry) => {
+  registry.registerComponent('securitySchemes', 'session', { type: 'apiKey', in: 'cookie', name: 'eyrie.sid' });
+  registry.registerComponent('securitySchemes', 'bearer', { type: 'http', scheme: 'bearer' });
+
+  registry.registerPath({
+    method: 'get',
+    path: '/api/v1/campaigns/{campaignId}/analysis',
+    tags: ['Campaigns'],
+    summary: "Fit a stored campaign's temperature screen",
+    description:
+      'The same fit as POST /api/v1/fit over the stored runs: excluded runs are kept with their reasons but not fitted, runs reported as "at least" are censored bounds, runs without an uncertainty use the campaign default (for weighting=uncertainty). `curve` holds 60 temperatures evenly spaced in 1/T over the measured range ± 15 K; `at` the prediction at ?at= (°C). Needs viewer.',
+    security: signedIn,
+    request: { params: campaignIdParams, query: analysisQuerySchema },
+    responses: {
+      200: { description: 'The analysis (fit is null with a problem when the runs cannot be fitted)', content: { 'application/json': { schema: analysisResponseSchema } } },
+      ...problemResponses(400, 401, 404),
+    },
+  });
+  registry.registerPath({
+    method: 'get',
+    path: '/api/v1/campaigns/{campaignId}/forecasts',
+    tags: ['Campaigns'],
+    summary: 'Saved forecasts, each compared with runs measured within ±1 K since',
+    security: signedIn,
+    request: { params: campaignIdParams },
+    responses: { 200: { description: 'Newest first', content: { 'application/json': { schema: savedForecastListSchema } } }, ...problemResponses(401, 404) },
+  });
+  registry.registerPath({
+    method: 'post',
+    path: '/api/v1/campaigns/{campaignId}/forecasts',
+    tags: ['Campaigns'],
+    summary: 'Save a forecast computed by the server from the stored runs',
+    description: 'The prediction is computed here from the data as stored now (optional query weighting, uncertaintyScale, confidence as for the analysis) and kept as a snapshot with who saved it and when. Needs editor.',
+    security: signedIn,
+    request: { params: campaignIdParams, body: { content: { 'application/json': { schema: savedForecastCreateSchema } } } },
+    responses: {
+      201: { description: 'The saved forecast', content: { 'application/json': { schema: savedForecastViewSchema } } },
+      ...problemResponses(400, 401, 403, 404, 422),
+    },
+  });
+  registry.registerPath({
+    method: 'get',
+    path: '/api/v1/projects/{projectId}/comparison',
+    tags: ['Campaigns'],
+    summary: "A project's campaigns side by side at one temperature",
+    security: signedIn,
+    request: { params: z.object({ projectId: z.string().uuid() }), query: comparisonQuerySchema },
+    responses: { 200: { description: 'One entry per campaign', content: { 'application/json': { schema: comparisonResponseSchema } } }, ...problemResponses(400, 401, 404) },
+  });
+  registry.registerPath({
+    method: 'get',
+    path: '/api/v1/campaigns/{campaignId}/report.xlsx',
+    tags: ['Campaigns'],
+    summary: 'Spreadsheet report: Summary, Measurements, Forecast, Saved forecasts',
+    security: signedIn,
+    request: { params: campaignIdParams },
+    responses: {
+      200: { description: 'An .xlsx workbook', content: { 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet': { schema: z.string().meta({ format: 'binary' }) } } },
+      ...problemResponses(401, 404),
+    },
+  });
+  registry.registerPath({
+    method: 'post',
+    path: '/api/v1/projects/{projectId}/campaigns',
+    tags: ['Campaigns'],
+    summary: 'Create a campaign',
+    security: signedIn,
+    request: { params: z.object({ projectId: z.string().uuid() }), body: { content: { 'application/json': { schema: campaignCreateSchema } } } },
+    responses: { 201: { description: 'The campaign' }, ...problemResponses(400, 401, 403, 404, 409) },
+  });
+  registry.registerPath({
+    method: 'patch',
+    path: '/api/v1/campaigns/{campaignId}',
+    tags: ['Campaigns'],
+    summary: 'Change a campaign (version in the body or If-Match: W/"<version>")',
+    security: signedIn,
+    request: { params: campaignIdParams, body: { content: { 'application/json': { schema: campaignUpdateSchema } } } },
+    responses: { 200: { description: 'The campaign' }, ...problemResponses(400, 401, 403, 404, 409) },
+  });
+  registry.registerPath({
+    method: 'post',
+    path: '/api/v1/campaigns/{campaignId}/measurements',
+    tags: ['Campaigns'],
+    summary: 'Add one run',
+    security: signedIn,
+    request: { params: campaignIdParams, body: { content: { 'application/json': { schema: measurementCreateSchema } } } },
+    responses: { 201: { description: 'The measurement' }, ...problemResponses(400, 401, 403, 404) },
+  });
+};

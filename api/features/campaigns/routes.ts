@@ -1,0 +1,204 @@
+import { Router, type Request } from 'express';
+import type { Knex } from 'knex';
+import { z } from 'zod';
+import { BadRequestError } from '../../lib/errors';
+import { parseBody } from '../../lib/validation';
+import { authorizeProject, projectIdParam } from '../projects/policy';
+import { importUpload, jsonField, uploadedFile } from '../imports/upload';
+import { importMeasurements, previewImport } from '../imports/service';
+import { analyseCampaign, compareCampaigns, listCampaignForecasts, loadReportData, saveCampaignForecast } from './analysis';
+import { analysisQuerySchema, comparisonQuerySchema } from './analysis-schemas';
+import { buildCampaignReport, reportFileName } from './report';
+import {
+  campaignCreateSchema,
+  campaignUpdateSchema,
+  importPreviewRequestSchema,
+  importRequestSchema,
+  measurementCreateSchema,
+  measurementExclusionSchema,
+  measurementUpdateSchema,
+  savedForecastCreateSchema,
+} from './schemas';
+import {
+  MAX_BATCH_MEASUREMENTS,
+  createCampaign,
+  createMeasurement,
+  createMeasurementsBatch,
+  deleteCampaign,
+  deleteMeasurement,
+  deleteSavedForecast,
+  getCampaign,
+  listCampaigns,
+  listMeasurements,
+  resolveCampaignProjectId,
+  resolveMeasurementProjectId,
+  resolveSavedForecastProjectId,
+  setMeasurementExclusion,
+  updateCampaign,
+  updateMeasurement,
+  type ProjectActor,
+} from './service';
+
+const batchSchema = z.strictObject({
+  measurements: z
+    .array(measurementCreateSchema, { error: 'measurements must be a list' })
+    .min(1, 'give at least one measurement')
+    .max(MAX_BATCH_MEASUREMENTS, `at most ${MAX_BATCH_MEASUREMENTS} measurements per request`),
+});
+
+const versionQuerySchema = z.object({
+  version: z.coerce.number({ error: 'version must be a number' }).int('version must be an integer').min(1, 'version must be at least 1').optional(),
+});
+
+const IF_MATCH = /^\s*(?:W\/)?"(\d+)"\s*$/;
+
+/** The version named by `If-Match: W/"<n>"`, or undefined when the header is absent. */
+function ifMatchVersion(req: Request): number | undefined {
+  const header = req.get('If-Match');
+  if (header === undefined) return undefined;
+  const m = IF_MATCH.exec(header);
+  if (!m) throw new BadRequestError('If-Match must name one version, e.g. W/"3".', [{ path: 'If-Match', message: 'expected W/"<version>"' }]);
+  return Number(m[1]);
+}
+
+/** The body with `version` taken from If-Match when the body has none; both given must agree. */
+function withVersion(req: Request): unknown {
+  const body: unknown = req.body ?? {};
+  const header = ifMatchVersion(req);
+  if (header === undefined || body === null || typeof body !== 'object' || Array.isArray(body)) return body;
+  const sent = (body as { version?: unknown }).version;
+  if (sent === undefined) return { ...body, version: header };
+  if (sent !== header) throw new BadRequestError(`If-Match names version ${header} but the body names version ${String(sent)}; send one.`, [{ path: 'version', message: 'disagrees with If-Match' }]);
+  return body;
+}
+
+/** Version of a delete: `?version=N` or If-Match. */
+function deleteVersion(req: Request): number {
+  const { version } = parseBody(versionQuerySchema, req.query);
+  const header = ifMatchVersion(req);
+  if (version !== undefined && header !== undefined && version !== header) {
+    throw new BadRequestError(`If-Match names version ${header} but the query names version ${version}; send one.`, [{ path: 'version', message: 'disagrees with If-Match' }]);
+  }
+  const v = version ?? header;
+  if (v === undefined) throw new BadRequestError('Name the version you last read: ?version=N or If-Match: W/"N".', [{ path: 'version', message: 'version is required' }]);
+  return v;
+}
+
+const actorOf = (req: Request): ProjectActor => ({ projectId: req.project!.id, actorUserId: req.user!.id });
+const etag = (version: number) => `W/"${version}"`;
+
+/**
+ * Campaigns, measurements, imports, analysis, saved forecasts, the spreadsheet report and the
+ * project comparison. Each route names its minimum role once; routes reached through a campaign,
+ * measurement or forecast id resolve its project first (unknown ids are 404 for everyone).
+ */
+export function campaignsRouter(deps: { knex: Knex; version: string }): Router {
+  const { knex } = deps;
+  const router = Router();
+  const byProject = (role: 'viewer' | 'editor') => authorizeProject(role, projectIdParam);
+  const byCampaign = (role: 'viewer' | 'editor') => authorizeProject(role, (req) => resolveCampaignProjectId(knex, req.params.campaignId));
+  const byMeasurement = authorizeProject('editor', (req) => resolveMeasurementProjectId(knex, req.params.measurementId));
+  const byForecast = authorizeProject('editor', (req) => resolveSavedForecastProjectId(knex, req.params.forecastId));
+  const campaignId = (req: Request) => String(req.params.campaignId);
+
+  router.get('/projects/:projectId/campaigns', byProject('viewer'), async (req, res) => {
+    const list = await listCampaigns(knex, req.project!.id);
+    res.json({ campaigns: list.map(({ campaign, ...stats }) => ({ ...campaign.toJSON(), ...stats })) });
+  });
+
+  router.post('/projects/:projectId/campaigns', byProject('editor'), async (req, res) => {
+    const campaign = await createCampaign(knex, actorOf(req), parseBody(campaignCreateSchema, req.body));
+    res.status(201).location(`/api/v1/campaigns/${campaign.id}`).set('ETag', etag(campaign.version)).json(campaign);
+  });
+
+  router.get('/campaigns/:campaignId', byCampaign('viewer'), async (req, res) => {
+    const campaign = await getCampaign(knex, req.project!.id, campaignId(req));
+    res.set('ETag', etag(campaign.version)).json({ ...campaign.toJSON(), projectId: req.project!.id, role: req.project!.role });
+  });
+
+  router.patch('/campaigns/:campaignId', byCampaign('editor'), async (req, res) => {
+    const campaign = await updateCampaign(knex, actorOf(req), campaignId(req), parseBody(campaignUpdateSchema, withVersion(req)));
+    res.set('ETag', etag(campaign.version)).json(campaign);
+  });
+
+  router.delete('/campaigns/:campaignId', byCampaign('editor'), async (req, res) => {
+    await deleteCampaign(knex, actorOf(req), campaignId(req), deleteVersion(req));
+    res.status(204).end();
+  });
+
+  router.get('/campaigns/:campaignId/measurements', byCampaign('viewer'), async (req, res) => {
+    res.json({ measurements: await listMeasurements(knex, req.project!.id, campaignId(req)) });
+  });
+
+  router.post('/campaigns/:campaignId/measurements', byCampaign('editor'), async (req, res) => {
+    const measurement = await createMeasurement(knex, actorOf(req), campaignId(req), parseBody(measurementCreateSchema, req.body));
+    res.status(201).location(`/api/v1/measurements/${measurement.id}`).json(measurement);
+  });
+
+  router.post('/campaigns/:campaignId/measurements/batch', byCampaign('editor'), async (req, res) => {
+    const { measurements } = parseBody(batchSchema, req.body);
+    res.status(201).json({ created: await createMeasurementsBatch(knex, actorOf(req), campaignId(req), measurements) });
+  });
+
+  router.patch('/measurements/:measurementId', byMeasurement, async (req, res) => {
+    res.json(await updateMeasurement(knex, actorOf(req), String(req.params.measurementId), parseBody(measurementUpdateSchema, withVersion(req))));
+  });
+
+  router.put('/measurements/:measurementId/exclusion', byMeasurement, async (req, res) => {
+    res.json(await setMeasurementExclusion(knex, actorOf(req), String(req.params.measurementId), parseBody(measurementExclusionSchema, withVersion(req))));
+  });
+
+  router.delete('/measurements/:measurementId', byMeasurement, async (req, res) => {
+    await deleteMeasurement(knex, actorOf(req), String(req.params.measurementId), deleteVersion(req));
+    res.status(204).end();
+  });
+
+  // Authorization runs before the upload is read, so a caller without the role never streams a file in.
+  router.post('/campaigns/:campaignId/imports/preview', byCampaign('editor'), importUpload(), async (req, res) => {
+    await getCampaign(knex, req.project!.id, campaignId(req));
+    res.json(await previewImport(uploadedFile(req), jsonField(req, 'request', importPreviewRequestSchema)));
+  });
+
+  router.post('/campaigns/:campaignId/imports', byCampaign('editor'), importUpload(), async (req, res) => {
+    const request = jsonField(req, 'request', importRequestSchema);
+    res.status(201).json(await importMeasurements(knex, actorOf(req), campaignId(req), uploadedFile(req), request));
+  });
+
+  router.get('/campaigns/:campaignId/analysis', byCampaign('viewer'), async (req, res) => {
+    res.json(await analyseCampaign(knex, req.project!.id, campaignId(req), parseBody(analysisQuerySchema, req.query)));
+  });
+
+  router.get('/campaigns/:campaignId/forecasts', byCampaign('viewer'), async (req, res) => {
+    res.json({ forecasts: await listCampaignForecasts(knex, req.project!.id, campaignId(req)) });
+  });
+
+  router.post('/campaigns/:campaignId/forecasts', byCampaign('editor'), async (req, res) => {
+    const input = parseBody(savedForecastCreateSchema, req.body);
+    const { weighting, uncertaintyScale, confidence } = parseBody(analysisQuerySchema, req.query);
+    const view = await saveCampaignForecast(knex, actorOf(req), campaignId(req), input, { weighting, uncertaintyScale, confidence });
+    res.status(201).json(view);
+  });
+
+  router.delete('/forecasts/:forecastId', byForecast, async (req, res) => {
+    await deleteSavedForecast(knex, actorOf(req), String(req.params.forecastId));
+    res.status(204).end();
+  });
+
+  router.get('/campaigns/:campaignId/report.xlsx', byCampaign('viewer'), async (req, res) => {
+    const data = await loadReportData(knex, req.project!.id, campaignId(req));
+    const buffer = await buildCampaignReport(data, { appVersion: deps.version, generatedAt: new Date() });
+    res
+      .status(200)
+      .type('application/vnd.openxmlformats-officedocument.spreadsheetml.sheet')
+      .attachment(reportFileName(data.campaign.title))
+      .set('Cache-Control', 'no-store')
+      .send(buffer);
+  });
+
+  router.get('/projects/:projectId/comparison', byProject('viewer'), async (req, res) => {
+    const { at } = parseBody(comparisonQuerySchema, req.query);
+    res.json(await compareCampaigns(knex, req.project!.id, at));
+  });
+
+  return router;
+}
