@@ -24,7 +24,7 @@ export default tseslint.config(
     rules: {
       'no-restricted-imports': [
         'error',
-        { patterns: [{ regex: '^(\\.\\./){2,}api/(?!features/[a-z-]+/schemas$|science/units$)', message: 'web/ may import only api/features/*/schemas (shared zod) from the server.' }] },
+        { patterns: [{ regex: '^(\\.\\./){2,}api/(?!features/[a-z-]+/([a-z]+-)?schemas$|science/units$)', message: 'web/ may import only api/features/*/schemas and *-schemas (shared zod) from the server.' }] },
       ],
     },
   },

@@ -10,6 +10,8 @@ import { SignInRoute } from './routes/sign-in';
 import { ProjectsRoute } from './routes/projects';
 import { ProjectSettingsRoute } from './routes/project-settings';
 import { ProjectHistoryRoute } from './routes/project-history';
+import { ProjectRoute } from './routes/project';
+import { CampaignRoute } from './routes/campaign';
 import { TokensRoute } from './routes/tokens';
 import { InvitationRoute } from './routes/invitation';
 import { paths } from '../config/paths';
@@ -25,7 +27,9 @@ export const routes: RouteObject[] = [
       { path: paths.rateAndHold.path, element: <RateAndHoldRoute /> },
       { path: paths.signIn.path, element: <SignInRoute /> },
       { path: paths.projects.path, element: <ProjectsRoute /> },
+      { path: paths.project.path, element: <ProjectRoute /> },
       { path: paths.projectSettings.path, element: <ProjectSettingsRoute /> },
+      { path: paths.campaign.path, element: <CampaignRoute /> },
       { path: paths.projectHistory.path, element: <ProjectHistoryRoute /> },
       { path: paths.tokens.path, element: <TokensRoute /> },
       { path: paths.invitation.path, element: <InvitationRoute /> },

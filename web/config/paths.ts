@@ -6,6 +6,10 @@ export const paths = {
   rateAndHold: { path: '/rate-and-hold', getHref: () => '/rate-and-hold' },
   signIn: { path: '/sign-in', getHref: (returnTo?: string) => (returnTo ? `/sign-in?returnTo=${encodeURIComponent(returnTo)}` : '/sign-in') },
   projects: { path: '/projects', getHref: () => '/projects' },
+  project: { path: '/projects/:projectId', getHref: (projectId: string) => `/projects/${projectId}` },
+  campaign: { path: '/campaigns/:campaignId', getHref: (campaignId: string) => `/campaigns/${campaignId}` },
+  /** Served by the API server: the campaign's spreadsheet report (a download, not a page). */
+  campaignReport: { path: '/api/v1/campaigns/:campaignId/report.xlsx', getHref: (campaignId: string) => `/api/v1/campaigns/${campaignId}/report.xlsx` },
   projectSettings: { path: '/projects/:projectId/settings', getHref: (projectId: string) => `/projects/${projectId}/settings` },
   projectHistory: { path: '/projects/:projectId/history', getHref: (projectId: string) => `/projects/${projectId}/history` },
   tokens: { path: '/settings/tokens', getHref: () => '/settings/tokens' },

@@ -28,7 +28,9 @@ export function ProjectsList() {
         {projects.data.map((p) => (
           <tr key={p.id} className="border-b border-slate-100 align-top">
             <td className="py-2.5 pr-3">
-              <span className="font-medium text-ink-950">{p.name}</span>
+              <Link className="font-medium text-fjord-700 underline" to={paths.project.getHref(p.id)}>
+                {p.name}
+              </Link>
               {p.description && <p className="mt-0.5 line-clamp-2 max-w-xl text-xs text-ink-600">{p.description}</p>}
             </td>
             <td className="py-2.5 pr-3"><RoleBadge role={p.role} /></td>

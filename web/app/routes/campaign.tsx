@@ -1,0 +1,129 @@
+import { useState } from 'react';
+import { Link, useParams } from 'react-router-dom';
+import { Page, Panel } from '../../components/ui/page';
+import { paths } from '../../config/paths';
+import { SignedInOnly } from '../../features/auth/components/signed-in-only';
+import { Segmented } from '../../features/calculators/components/fields';
+import { useAnalysis } from '../../features/campaigns/api/analysis';
+import { useCampaign } from '../../features/campaigns/api/campaigns';
+import { useMeasurements } from '../../features/campaigns/api/measurements';
+import type { CampaignWithRole } from '../../features/campaigns/api/types';
+import { CampaignAnalysis } from '../../features/campaigns/components/campaign-analysis';
+import { CampaignHeader } from '../../features/campaigns/components/campaign-header';
+import { ForecastPanel, SavedForecasts } from '../../features/campaigns/components/forecast-panel';
+import { MeasurementGrid } from '../../features/campaigns/components/measurement-grid';
+import { UploadWizard } from '../../features/campaigns/components/upload-wizard';
+import { useProject } from '../../features/projects/api/projects';
+
+const INVENTED = /kestrelmoor|invented/i;
+
+function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
+  const canEdit = campaign.role !== 'viewer';
+  const [weighting, setWeighting] = useState<'none' | 'uncertainty'>('none');
+  const [atCelsius, setAtCelsius] = useState<number | null>(null);
+  const measurements = useMeasurements(campaign.id);
+  const analysis = useAnalysis(campaign.id, { weighting, atCelsius });
+  const project = useProject(campaign.projectId);
+  const invented = [campaign.title, campaign.reactionDescription, campaign.notes, project.data?.name].some((t) => t && INVENTED.test(t));
+
+  return (
+    <Page
+      title={campaign.title}
+      lead={
+        <span className="flex flex-wrap items-center gap-x-3 gap-y-1">
+          <Link className="text-fjord-700 underline" to={paths.project.getHref(campaign.projectId)}>
+            ← {project.data?.name ?? 'Project'}
+          </Link>
+          <span>Temperature screen · differential Eyring analysis</span>
+          {invented && (
+            <span className="rounded border border-slate-400 bg-slate-50 px-1.5 py-0.5 text-xs font-medium text-ink-700">
+              ◇ Invented demo data — not real measurements
+            </span>
+          )}
+        </span>
+      }
+      actions={
+        <a className="rounded border border-slate-300 bg-white px-3 py-1.5 text-sm font-medium text-ink-800 hover:bg-slate-50" href={paths.campaignReport.getHref(campaign.id)} download>
+          <span aria-hidden="true">⤓ </span>Download spreadsheet report
+        </a>
+      }
+    >
+      <div className="flex flex-col gap-4">
+        <Panel>
+          <CampaignHeader campaign={campaign} canEdit={canEdit} />
+        </Panel>
+
+        <Panel title="Result">
+          <div className="mb-3 flex flex-wrap items-end gap-4">
+            <Segmented
+              legend="Weighting"
+              name="weighting"
+              value={weighting}
+              onChange={setWeighting}
+              options={[
+                { value: 'none', label: 'None (OLS)' },
+                { value: 'uncertainty', label: 'By assay uncertainty' },
+              ]}
+            />
+            {analysis.isFetching && <span className="text-xs text-ink-500" role="status">Updating the fit…</span>}
+          </div>
+          {analysis.isPending && <p className="text-sm text-ink-500">Fitting…</p>}
+          {analysis.isError && (
+            <p role="alert" className="text-sm text-rose-700">
+              The analysis failed: {analysis.error.message}
+            </p>
+          )}
+          {analysis.data && measurements.data && (
+            <CampaignAnalysis analysis={analysis.data} measurements={measurements.data} stale={analysis.isPlaceholderData} />
+          )}
+        </Panel>
+
+        <div className="grid gap-4 xl:grid-cols-2">
+          <Panel title="Forecast">
+            <ForecastPanel campaignId={campaign.id} analysis={analysis.data} atCelsius={atCelsius} onAt={setAtCelsius} weighting={weighting} canEdit={canEdit} />
+          </Panel>
+          <Panel title="Saved forecasts">
+            <SavedForecasts campaignId={campaign.id} canEdit={canEdit} />
+          </Panel>
+        </div>
+
+        <Panel title={`Measurements${measurements.data ? ` (${measurements.data.length})` : ''}`}>
+          {measurements.isPending && <p className="text-sm text-ink-500">Loading measurements…</p>}
+          {measurements.isError && <p role="alert" className="text-sm text-rose-700">{measurements.error.message}</p>}
+          {measurements.data && <MeasurementGrid campaign={campaign} measurements={measurements.data} canEdit={canEdit} />}
+          {!canEdit && <p className="mt-2 text-xs text-ink-600">You are a viewer in this project: you can read and download, not change.</p>}
+        </Panel>
+
+        {canEdit && (
+          <Panel title="Upload a file">
+            <UploadWizard campaignId={campaign.id} projectId={campaign.projectId} />
+          </Panel>
+        )}
+      </div>
+    </Page>
+  );
+}
+
+function CampaignPage({ campaignId }: { campaignId: string }) {
+  const campaign = useCampaign(campaignId);
+  if (campaign.isPending) {
+    return (
+      <Page title="Campaign">
+        <p className="text-sm text-ink-500">Loading…</p>
+      </Page>
+    );
+  }
+  if (campaign.isError) {
+    return (
+      <Page title="Campaign not found" lead={campaign.error.message}>
+        <p className="text-sm text-ink-600">Either it does not exist or you are not a member of its project.</p>
+      </Page>
+    );
+  }
+  return <CampaignBody campaign={campaign.data} />;
+}
+
+export function CampaignRoute() {
+  const { campaignId = '' } = useParams();
+  return <SignedInOnly title="Campaign">{() => <CampaignPage campaignId={campaignId} />}</SignedInOnly>;
+}

@@ -1,0 +1,54 @@
+import { Link, useParams } from 'react-router-dom';
+import { Page } from '../../components/ui/page';
+import { paths } from '../../config/paths';
+import { SignedInOnly } from '../../features/auth/components/signed-in-only';
+import { ProjectCampaigns } from '../../features/campaigns/components/project-campaigns';
+import { useProject } from '../../features/projects/api/projects';
+import { RoleBadge } from '../../features/projects/components/role-badge';
+
+function ProjectPage({ projectId }: { projectId: string }) {
+  const project = useProject(projectId);
+  if (project.isPending) {
+    return (
+      <Page title="Project">
+        <p className="text-sm text-ink-500">Loading…</p>
+      </Page>
+    );
+  }
+  if (project.isError) {
+    return (
+      <Page title="Project not found" lead={project.error.message}>
+        <p className="text-sm text-ink-600">Either it does not exist or you are not a member of it.</p>
+      </Page>
+    );
+  }
+  const p = project.data;
+  return (
+    <Page
+      title={p.name}
+      lead={p.description || undefined}
+      actions={
+        <div className="flex items-center gap-3 text-sm">
+          <span>
+            Your role: <RoleBadge role={p.role} />
+          </span>
+          <Link className="text-fjord-700 underline" to={paths.projectSettings.getHref(p.id)}>
+            Members &amp; settings
+          </Link>
+          {p.role === 'owner' && (
+            <Link className="text-fjord-700 underline" to={paths.projectHistory.getHref(p.id)}>
+              History
+            </Link>
+          )}
+        </div>
+      }
+    >
+      <ProjectCampaigns projectId={p.id} canEdit={p.role !== 'viewer'} />
+    </Page>
+  );
+}
+
+export function ProjectRoute() {
+  const { projectId = '' } = useParams();
+  return <SignedInOnly title="Project">{() => <ProjectPage projectId={projectId} />}</SignedInOnly>;
+}

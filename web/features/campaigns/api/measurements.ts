@@ -1,0 +1,54 @@
+import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import type { MeasurementCreate, MeasurementExclusion, MeasurementUpdate } from '../../../../api/features/campaigns/schemas';
+import { api } from '../../../lib/api-client';
+import { campaignKeys } from './keys';
+import type { Measurement } from './types';
+
+export const listMeasurements = (campaignId: string) =>
+  api<{ measurements: Measurement[] }>(`/api/v1/campaigns/${campaignId}/measurements`).then((r) => r.measurements);
+export const measurementsQueryOptions = (campaignId: string) =>
+  queryOptions({ queryKey: campaignKeys.measurements(campaignId), queryFn: () => listMeasurements(campaignId) });
+export const useMeasurements = (campaignId: string) => useQuery(measurementsQueryOptions(campaignId));
+
+/** All-or-nothing; a 400 names fields as `measurements.<i>.<field>`. */
+export const createMeasurements = (campaignId: string, measurements: MeasurementCreate[]) =>
+  api<{ created: number }>(`/api/v1/campaigns/${campaignId}/measurements/batch`, { method: 'POST', body: { measurements } });
+
+export const updateMeasurement = (measurementId: string, body: MeasurementUpdate) =>
+  api<Measurement>(`/api/v1/measurements/${measurementId}`, { method: 'PATCH', body });
+
+export const setExclusion = (measurementId: string, body: MeasurementExclusion) =>
+  api<Measurement>(`/api/v1/measurements/${measurementId}/exclusion`, { method: 'PUT', body });
+
+export const deleteMeasurement = (measurementId: string, version: number) =>
+  api<void>(`/api/v1/measurements/${measurementId}?version=${version}`, { method: 'DELETE' });
+
+/** Everything that depends on a campaign's data: its own queries and its project's list and comparison. */
+export function useRefreshCampaign(campaignId: string, projectId: string) {
+  const client = useQueryClient();
+  return () =>
+    Promise.all([
+      client.invalidateQueries({ queryKey: campaignKeys.one(campaignId) }),
+      client.invalidateQueries({ queryKey: campaignKeys.project(projectId) }),
+    ]);
+}
+
+export function useCreateMeasurements(campaignId: string, projectId: string) {
+  const refresh = useRefreshCampaign(campaignId, projectId);
+  return useMutation({ mutationFn: (rows: MeasurementCreate[]) => createMeasurements(campaignId, rows), onSuccess: refresh });
+}
+
+export function useUpdateMeasurement(campaignId: string, projectId: string) {
+  const refresh = useRefreshCampaign(campaignId, projectId);
+  return useMutation({ mutationFn: (v: { id: string; body: MeasurementUpdate }) => updateMeasurement(v.id, v.body), onSettled: refresh });
+}
+
+export function useSetExclusion(campaignId: string, projectId: string) {
+  const refresh = useRefreshCampaign(campaignId, projectId);
+  return useMutation({ mutationFn: (v: { id: string; body: MeasurementExclusion }) => setExclusion(v.id, v.body), onSettled: refresh });
+}
+
+export function useDeleteMeasurement(campaignId: string, projectId: string) {
+  const refresh = useRefreshCampaign(campaignId, projectId);
+  return useMutation({ mutationFn: (v: { id: string; version: number }) => deleteMeasurement(v.id, v.version), onSettled: refresh });
+}

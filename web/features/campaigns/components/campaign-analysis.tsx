@@ -1,0 +1,246 @@
+import { useMemo, useState } from 'react';
+import { EyringPlot, type EyringCurvePoint, type EyringPlotPoint } from '../../../components/charts/eyring-plot';
+import { SelectivityChart, type SelectivityCurvePoint, type SelectivityMeasuredPoint } from '../../../components/charts/selectivity-chart';
+import { fixed, percent, withUncertainty } from '../../../lib/format';
+import { ChartControls, parseSpec } from '../../calculators/components/chart-controls';
+import { FitWarnings, TwoBranchBox } from '../../calculators/components/fit-diagnostics';
+import { FitParameterTable } from '../../calculators/components/fit-parameter-table';
+import type { AnalysisResponse, FitPrediction, Measurement } from '../api/types';
+import { CELSIUS } from '../lib/labels';
+
+const lnOf = (iv: [number, number] | undefined | null): [number, number] | null => (iv ? [Math.log(iv[0]), Math.log(iv[1])] : null);
+
+/** Shape the analysis for the shared charts (logarithms of the API's ratios; no statistics here). */
+export function chartData(analysis: AnalysisResponse) {
+  const points: EyringPlotPoint[] = analysis.points.map((p) => ({
+    id: p.measurementId,
+    kelvin: p.kelvin,
+    lnRatio: p.lnRatio,
+    lnRatioLow: p.lnRatioLow === p.lnRatio ? null : p.lnRatioLow,
+    lnRatioHigh: p.lnRatioHigh === p.lnRatio ? null : p.lnRatioHigh,
+    status: p.status,
+    flagged: p.flagged,
+    label: [p.label, p.exclusionReason ? `excluded: ${p.exclusionReason}` : null].filter(Boolean).join(' · ') || undefined,
+  }));
+  const curve: EyringCurvePoint[] = analysis.curve.map((c) => ({
+    kelvin: c.kelvin,
+    lnRatio: Math.log(c.ratio),
+    confidence: lnOf(c.confidenceInterval?.ratio),
+    prediction: lnOf(c.predictionInterval?.ratio),
+  }));
+  const selectivityCurve: SelectivityCurvePoint[] = analysis.curve.map((c) => ({
+    celsius: c.celsius,
+    eePercent: c.eePercent,
+    percentA: c.percentA,
+    band: c.predictionInterval ? { eePercent: c.predictionInterval.eePercent, percentA: c.predictionInterval.percentA } : null,
+  }));
+  const selectivityPoints: SelectivityMeasuredPoint[] = analysis.points.map((p) => ({
+    id: p.measurementId,
+    celsius: p.celsius,
+    eePercent: p.eePercent,
+    percentA: p.percentA,
+    status: p.status,
+  }));
+  return { points, curve, selectivityCurve, selectivityPoints };
+}
+
+/** Eyring plot, selectivity chart, parameter table and residual diagnostics of a stored campaign. */
+export function CampaignAnalysis({
+  analysis,
+  measurements,
+  stale,
+}: {
+  analysis: AnalysisResponse;
+  measurements: Measurement[];
+  /** A newer answer is on its way (the old one stays on screen, dimmed). */
+  stale: boolean;
+}) {
+  const [chartMeasure, setChartMeasure] = useState<'ee' | 'percentA'>('ee');
+  const [specText, setSpecText] = useState('');
+  const view = useMemo(() => chartData(analysis), [analysis]);
+  const fit = analysis.fit;
+  const at = analysis.at;
+  const markLabel = at ? `${fixed(at.celsius, 0)} °C` : '';
+  const twoBranchPreferred = fit?.twoBranch?.preferred === 'two-branch';
+
+  if (!fit) {
+    return (
+      <div className="flex flex-col gap-3">
+        <p role="status" className="rounded border border-dashed border-slate-300 px-3 py-6 text-center text-sm text-ink-600">
+          No fit yet: {analysis.problem?.message ?? 'add measurements at two or more temperatures.'}
+        </p>
+        {analysis.points.length > 0 && (
+          <EyringPlot title="Eyring plot of the campaign's measurements (no fit yet)" points={view.points} height={260} />
+        )}
+      </div>
+    );
+  }
+
+  return (
+    <div className={`flex flex-col gap-5 transition-opacity ${stale ? 'opacity-60' : ''}`} aria-busy={stale}>
+      <div className="grid gap-5 xl:grid-cols-2">
+        <figure className="flex min-w-0 flex-col gap-1">
+          <figcaption className="text-sm font-semibold text-ink-900">Eyring plot · ln r against 1000/T</figcaption>
+          <EyringPlot
+            title="Eyring plot: ln r against 1000/T with the fitted line, confidence and prediction bands"
+            points={view.points}
+            curve={view.curve}
+            branches={twoBranchPreferred && fit.twoBranch ? [{ label: 'low-T branch', ...fit.twoBranch.low }, { label: 'high-T branch', ...fit.twoBranch.high }] : []}
+            mark={at ? { kelvin: at.kelvin, label: markLabel } : null}
+            confidenceLevel={fit.confidence}
+            height={320}
+          />
+        </figure>
+        <figure className="flex min-w-0 flex-col gap-1">
+          <figcaption className="flex flex-wrap items-end justify-between gap-2">
+            <span className="text-sm font-semibold text-ink-900">Selectivity against temperature</span>
+            <ChartControls name="campaign" measure={chartMeasure} onMeasure={setChartMeasure} spec={specText} onSpec={setSpecText} />
+          </figcaption>
+          <SelectivityChart
+            title="Selectivity against temperature: fitted curve with the 95 % prediction band and the measured runs"
+            curve={view.selectivityCurve}
+            points={view.selectivityPoints}
+            measure={chartMeasure}
+            spec={parseSpec(specText)}
+            curveLabel={twoBranchPreferred ? 'one-line fit (a break is preferred)' : 'fitted line'}
+            bandLabel={`${fixed(fit.confidence * 100, 0)} % prediction band (new run)`}
+            mark={at ? { celsius: at.celsius, label: markLabel } : null}
+            height={282}
+          />
+        </figure>
+      </div>
+      <FitWarnings warnings={fit.warnings} />
+      <div className="grid gap-5 xl:grid-cols-[minmax(0,1fr)_minmax(0,1fr)]">
+        <section aria-label="Fitted parameters" className="flex flex-col gap-3">
+          <h3 className="text-sm font-semibold text-ink-900">Parameters (B − A)</h3>
+          <FitParameterTable fit={fit} />
+          {at && <DdGAt prediction={at} confidence={fit.confidence} />}
+          {fit.zeroSelectivity && (
+            <p className="tnum text-sm text-ink-700">
+              Selectivity would vanish at {fixed(fit.zeroSelectivity.celsius, 0)} °C ({fixed(fit.zeroSelectivity.kelvin, 0)} K). {fit.zeroSelectivity.note}
+            </p>
+          )}
+        </section>
+        <section aria-label="Residual diagnostics" className="flex min-w-0 flex-col gap-3">
+          <h3 className="text-sm font-semibold text-ink-900">Residual diagnostics</h3>
+          <ResidualDiagnostics analysis={analysis} measurements={measurements} />
+          {fit.twoBranch && <TwoBranchBox twoBranch={fit.twoBranch} />}
+        </section>
+      </div>
+    </div>
+  );
+}
+
+/** ΔΔG‡ at the chosen temperature, with its SE from the full covariance. */
+function DdGAt({ prediction, confidence }: { prediction: FitPrediction; confidence: number }) {
+  return (
+    <dl className="tnum grid grid-cols-[auto_1fr] gap-x-4 gap-y-0.5 rounded border border-slate-200 px-3 py-2 text-sm" aria-label="Free-energy gap at the chosen temperature">
+      <dt className="text-ink-600">
+        ΔΔG‡ at {fixed(prediction.celsius, 1)} °C ({fixed(prediction.kelvin, 2)} K)
+      </dt>
+      <dd className="text-ink-950">
+        {withUncertainty(prediction.ddG['kJ/mol'], prediction.ddGSe?.['kJ/mol'])} kJ/mol · {withUncertainty(prediction.ddG['kcal/mol'], prediction.ddGSe?.['kcal/mol'])} kcal/mol
+      </dd>
+      <dt className="text-ink-600">ee there</dt>
+      <dd className="text-ink-950">
+        {percent(prediction.eePercent)} %
+        {prediction.predictionInterval && (
+          <span className="text-ink-600">
+            {' '}
+            ({fixed(confidence * 100, 0)} % PI {percent(prediction.predictionInterval.eePercent[0])} to {percent(prediction.predictionInterval.eePercent[1])} %)
+          </span>
+        )}
+        {prediction.extrapolated && <span className="ml-1 font-medium text-caution-700">⚠ extrapolated</span>}
+      </dd>
+    </dl>
+  );
+}
+
+const FLAG_TEXT: Record<string, string> = {
+  outlier: 'outlier (|t| > 3)',
+  'high-leverage': 'high leverage',
+  influential: "influential (Cook's D > 1)",
+};
+
+/** One row per run: residual in ln r, studentized residual, leverage, Cook's distance, flags. */
+function ResidualDiagnostics({ analysis, measurements }: { analysis: AnalysisResponse; measurements: Measurement[] }) {
+  const byId = new Map(measurements.map((m) => [m.id, m]));
+  const residuals = analysis.fit?.residuals ?? [];
+  return (
+    <div className="max-h-80 overflow-auto rounded border border-slate-200">
+      <table className="tnum w-full border-collapse text-right text-xs">
+        <caption className="sr-only">Residuals and flags for each run</caption>
+        <thead className="sticky top-0 bg-slate-50 text-ink-600">
+          <tr className="border-b border-slate-200">
+            <th scope="col" className="px-2 py-1 text-left font-medium">
+              Run
+            </th>
+            <th scope="col" className="px-2 py-1 font-medium">
+              T (°C)
+            </th>
+            <th scope="col" className="px-2 py-1 font-medium">
+              ee (%)
+            </th>
+            <th scope="col" className="px-2 py-1 font-medium">
+              ln r
+            </th>
+            <th scope="col" className="px-2 py-1 font-medium">
+              Residual (ln r)
+            </th>
+            <th scope="col" className="px-2 py-1 font-medium">
+              Studentized
+            </th>
+            <th scope="col" className="px-2 py-1 font-medium">
+              Leverage
+            </th>
+            <th scope="col" className="px-2 py-1 font-medium">
+              Cook’s D
+            </th>
+            <th scope="col" className="px-2 py-1 text-left font-medium">
+              Status
+            </th>
+          </tr>
+        </thead>
+        <tbody>
+          {analysis.points.map((p, i) => {
+            const r = residuals[i];
+            const m = byId.get(p.measurementId);
+            const flags = r?.flags ?? [];
+            const flagged = p.flagged;
+            return (
+              <tr key={p.measurementId} className={`border-b border-slate-100 ${flagged ? 'bg-caution-50' : ''} ${p.status === 'excluded' ? 'text-ink-500' : ''}`}>
+                <td className="px-2 py-0.5 text-left">{p.label ?? m?.sampleId ?? i + 1}</td>
+                <td className="px-2 py-0.5">{fixed(p.kelvin - CELSIUS, 1)}</td>
+                <td className="px-2 py-0.5">
+                  {p.status === 'censored' ? '≥ ' : ''}
+                  {percent(p.eePercent)}
+                </td>
+                <td className="px-2 py-0.5">{fixed(p.lnRatio, 3)}</td>
+                <td className="px-2 py-0.5">{r?.residual == null ? '—' : fixed(r.residual, 3)}</td>
+                <td className="px-2 py-0.5">{r?.studentized == null ? '—' : fixed(r.studentized, 2)}</td>
+                <td className="px-2 py-0.5">{r?.leverage == null ? '—' : fixed(r.leverage, 2)}</td>
+                <td className="px-2 py-0.5">{r?.cooksDistance == null ? '—' : fixed(r.cooksDistance, 2)}</td>
+                <td className="px-2 py-0.5 text-left">
+                  {p.status === 'excluded' ? (
+                    <span>
+                      <span aria-hidden="true">○ </span>excluded{p.exclusionReason ? `: ${p.exclusionReason}` : ''}
+                    </span>
+                  ) : p.status === 'censored' ? (
+                    <span>
+                      <span aria-hidden="true">◆ </span>lower bound
+                    </span>
+                  ) : (
+                    <span>
+                      <span aria-hidden="true">● </span>fitted
+                    </span>
+                  )}
+                  {flags.length > 0 && <span className="ml-1 font-medium text-caution-700">⚑ {flags.map((f) => FLAG_TEXT[f] ?? f).join(', ')}</span>}
+                </td>
+              </tr>
+            );
+          })}
+        </tbody>
+      </table>
+    </div>
+  );
+}

@@ -1,0 +1,62 @@
+import { ASSAY_METHODS, CAMPAIGN_STATUSES, type AssayMethod, type CampaignStatus, type SelectivityMeasure } from '../../../../api/features/campaigns/schemas';
+import { SelectField, TextField } from '../../../components/ui/form';
+import type { CampaignFormValues, FormErrors } from '../lib/campaign-form';
+import { ASSAY_LABEL, MEASURE_LABEL, uncertaintyUnit } from '../lib/labels';
+
+const MEASURES: SelectivityMeasure[] = ['ee', 'percentA', 'er', 'dr', 'ratio'];
+
+/** The fields of a campaign, shared by the new-campaign form and the edit form. */
+export function CampaignFields({
+  values,
+  errors,
+  set,
+  compact = false,
+}: {
+  values: CampaignFormValues;
+  errors: FormErrors;
+  set: <K extends keyof CampaignFormValues>(key: K) => (value: CampaignFormValues[K]) => void;
+  compact?: boolean;
+}) {
+  return (
+    <div className={`grid gap-3 ${compact ? 'sm:grid-cols-2' : 'sm:grid-cols-2 lg:grid-cols-4'}`}>
+      <TextField className={compact ? 'sm:col-span-2' : 'sm:col-span-2'} label="Title" name="title" value={values.title} onChange={set('title')} error={errors.title} />
+      <TextField label="Product A (numerator)" name="productNameA" value={values.productNameA} onChange={set('productNameA')} error={errors.productNameA} hint="e.g. (S)-amine; r = [A]/[B]" />
+      <TextField label="Product B" name="productNameB" value={values.productNameB} onChange={set('productNameB')} error={errors.productNameB} />
+      <SelectField<SelectivityMeasure>
+        label="Reported as"
+        name="measure"
+        value={values.measure}
+        options={MEASURES.map((m) => ({ value: m, label: MEASURE_LABEL[m] }))}
+        onChange={set('measure')}
+        error={errors.measure}
+      />
+      <SelectField<AssayMethod>
+        label="Assay"
+        name="assayMethod"
+        value={values.assayMethod}
+        options={ASSAY_METHODS.map((m) => ({ value: m, label: ASSAY_LABEL[m] }))}
+        onChange={set('assayMethod')}
+        error={errors.assayMethod}
+      />
+      <TextField
+        label={`Default uncertainty ${uncertaintyUnit(values.measure)}`}
+        name="defaultUncertainty"
+        inputMode="text"
+        value={values.defaultUncertainty}
+        onChange={set('defaultUncertainty')}
+        error={errors.defaultUncertainty}
+        hint="One SD, used where a run gives none"
+      />
+      <SelectField<CampaignStatus>
+        label="Status"
+        name="status"
+        value={values.status}
+        options={CAMPAIGN_STATUSES.map((s) => ({ value: s, label: s }))}
+        onChange={set('status')}
+        error={errors.status}
+      />
+      <TextField className="sm:col-span-2" label="Reaction" name="reactionDescription" value={values.reactionDescription} onChange={set('reactionDescription')} error={errors.reactionDescription} hint="Substrate, catalyst, solvent, concentration" />
+      <TextField className="sm:col-span-2" label="Notes" name="notes" value={values.notes} onChange={set('notes')} error={errors.notes} />
+    </div>
+  );
+}

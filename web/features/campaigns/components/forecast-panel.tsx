@@ -1,0 +1,338 @@
+import { useId, useState } from 'react';
+import { savedForecastCreateSchema, type TemperatureUnit } from '../../../../api/features/campaigns/schemas';
+import { SafetyCaution } from '../../../components/ui/caution';
+import { Button } from '../../../components/ui/form';
+import { ApiError } from '../../../lib/api-client';
+import { enantiomericRatio, fixed, percent, sig } from '../../../lib/format';
+import { PredictionBox } from '../../calculators/components/prediction-box';
+import { useDeleteForecast, useForecasts, useSaveForecast } from '../api/forecasts';
+import type { AnalysisResponse, SavedForecastView } from '../api/types';
+import { kelvinTo, parseNumber } from '../lib/grid';
+import { CELSIUS } from '../lib/labels';
+
+const UNIT_TEXT: Record<TemperatureUnit, string> = { C: '°C', K: 'K', F: '°F' };
+
+function toCelsius(value: number, unit: TemperatureUnit): number {
+  if (unit === 'K') return value - CELSIUS;
+  if (unit === 'F') return ((value - 32) * 5) / 9;
+  return value;
+}
+
+/**
+ * Type a proposed temperature, see the forecast with its 95 % prediction interval (the page's
+ * analysis at that temperature), and keep it with a note. `onAt` sets the temperature the
+ * analysis is computed at (°C).
+ */
+export function ForecastPanel({
+  campaignId,
+  analysis,
+  atCelsius,
+  onAt,
+  weighting,
+  canEdit,
+}: {
+  campaignId: string;
+  analysis: AnalysisResponse | undefined;
+  atCelsius: number | null;
+  onAt: (celsius: number | null) => void;
+  weighting: 'none' | 'uncertainty';
+  canEdit: boolean;
+}) {
+  const id = useId();
+  const [text, setText] = useState(atCelsius === null ? '' : String(atCelsius));
+  const [unit, setUnit] = useState<TemperatureUnit>('C');
+  const [error, setError] = useState<string | null>(null);
+  const [label, setLabel] = useState('');
+  const [notes, setNotes] = useState('');
+  const [saveErrors, setSaveErrors] = useState<Record<string, string>>({});
+  const [savedNote, setSavedNote] = useState<string | null>(null);
+  const save = useSaveForecast(campaignId);
+
+  const submit = () => {
+    setSavedNote(null);
+    const n = parseNumber(text);
+    if (n === null) {
+      setError('type a temperature');
+      return;
+    }
+    if (n === 'invalid') {
+      setError(`“${text.trim()}” is not a number`);
+      return;
+    }
+    const check = savedForecastCreateSchema.shape.temperature.safeParse({ value: n, unit });
+    if (!check.success) {
+      setError(check.error.issues[0].message);
+      return;
+    }
+    setError(null);
+    onAt(Math.round(toCelsius(n, unit) * 1e6) / 1e6);
+  };
+
+  const prediction = analysis?.at ?? null;
+  const fit = analysis?.fit ?? null;
+  const showing = prediction && atCelsius !== null && Math.abs(prediction.celsius - atCelsius) < 1e-6;
+
+  const doSave = () => {
+    if (!prediction) return;
+    const body = { temperature: { value: prediction.celsius, unit: 'C' as const }, label, notes };
+    const parsed = savedForecastCreateSchema.safeParse(body);
+    if (!parsed.success) {
+      setSaveErrors(Object.fromEntries(parsed.error.issues.map((i) => [i.path[0] as string, i.message])));
+      return;
+    }
+    setSaveErrors({});
+    save.mutate(
+      { body: parsed.data, weighting },
+      {
+        onSuccess: (f) => {
+          setLabel('');
+          setNotes('');
+          setSavedNote(`Saved the forecast at ${fixed(f.celsius, 1)} °C.`);
+        },
+        onError: (err) => {
+          if (err instanceof ApiError && err.fieldErrors.length) {
+            setSaveErrors(Object.fromEntries(err.fieldErrors.map((e) => [e.path.split('.')[0], e.message])));
+          }
+        },
+      },
+    );
+  };
+
+  return (
+    <div className="flex flex-col gap-3">
+      <form
+        noValidate
+        className="flex flex-wrap items-end gap-2"
+        onSubmit={(e) => {
+          e.preventDefault();
+          submit();
+        }}
+      >
+        <div className="flex flex-col gap-1">
+          <label htmlFor={id} className="text-xs font-medium text-ink-700">
+            Proposed temperature
+          </label>
+          <div className="flex items-center gap-1">
+            <input
+              id={id}
+              inputMode="decimal"
+              autoComplete="off"
+              value={text}
+              onChange={(e) => setText(e.target.value)}
+              placeholder="e.g. −30"
+              aria-invalid={error ? true : undefined}
+              aria-describedby={error ? `${id}-err` : undefined}
+              className={`tnum w-24 rounded border px-2 py-1 text-right text-sm ${error ? 'border-rose-600 bg-rose-50' : 'border-slate-300 bg-white'}`}
+            />
+            <select aria-label="Unit of the proposed temperature" value={unit} onChange={(e) => setUnit(e.target.value as TemperatureUnit)} className="rounded border border-slate-300 bg-white px-1 py-1 text-sm">
+              {(['C', 'K', 'F'] as const).map((u) => (
+                <option key={u} value={u}>
+                  {UNIT_TEXT[u]}
+                </option>
+              ))}
+            </select>
+          </div>
+        </div>
+        <Button type="submit" variant="primary">
+          Forecast
+        </Button>
+        {atCelsius !== null && (
+          <Button
+            onClick={() => {
+              setText('');
+              onAt(null);
+            }}
+          >
+            Clear
+          </Button>
+        )}
+        {error && (
+          <p id={`${id}-err`} className="w-full text-xs text-rose-700">
+            <span aria-hidden="true">✕ </span>
+            {error}
+          </p>
+        )}
+      </form>
+
+      {!fit && <p className="text-sm text-ink-600">A forecast needs a fit: {analysis?.problem?.message ?? 'add measurements first.'}</p>}
+      {fit && !showing && atCelsius === null && (
+        <p className="text-sm text-ink-600">Type a temperature to get the predicted ratio, ee and % A with the 95 % prediction interval for one new run.</p>
+      )}
+      {fit && atCelsius !== null && !showing && <p className="text-sm text-ink-600">Computing…</p>}
+      {fit && showing && prediction && (
+        <>
+          <PredictionBox prediction={prediction} confidence={fit.confidence} breakPreferred={fit.twoBranch?.preferred === 'two-branch'} />
+          <p className="tnum text-sm text-ink-700">
+            Predicted ratio r = [A]/[B] = <span className="font-medium text-ink-950">{sig(prediction.ratio, 3)}</span>
+            {prediction.predictionInterval && (
+              <>
+                {' '}
+                (95 % PI {sig(prediction.predictionInterval.ratio[0], 3)} to {sig(prediction.predictionInterval.ratio[1], 3)})
+              </>
+            )}
+            , er {enantiomericRatio(prediction.percentA)}.
+          </p>
+          {canEdit && (
+            <form
+              noValidate
+              aria-label="Save this forecast"
+              className="flex flex-wrap items-end gap-2 rounded border border-slate-200 bg-slate-50 px-3 py-2"
+              onSubmit={(e) => {
+                e.preventDefault();
+                doSave();
+              }}
+            >
+              <SmallField label="Label (optional)" value={label} onChange={setLabel} error={saveErrors.label} width="w-48" />
+              <SmallField label="Note" value={notes} onChange={setNotes} error={saveErrors.notes} width="w-80" />
+              <Button type="submit" disabled={save.isPending}>
+                {save.isPending ? 'Saving…' : `Save forecast at ${fixed(prediction.celsius, 1)} °C`}
+              </Button>
+              {saveErrors.temperature && <p className="w-full text-xs text-rose-700">✕ {saveErrors.temperature}</p>}
+              {save.error && !(save.error instanceof ApiError && save.error.fieldErrors.length) && (
+                <p role="alert" className="w-full text-xs text-rose-700">
+                  ✕ {save.error.message}
+                </p>
+              )}
+              {savedNote && (
+                <p role="status" className="w-full text-xs text-fjord-700">
+                  ✓ {savedNote}
+                </p>
+              )}
+            </form>
+          )}
+        </>
+      )}
+    </div>
+  );
+}
+
+function SmallField({ label, value, onChange, error, width }: { label: string; value: string; onChange: (v: string) => void; error?: string; width: string }) {
+  const id = useId();
+  return (
+    <div className="flex flex-col gap-0.5">
+      <label htmlFor={id} className="text-xs font-medium text-ink-700">
+        {label}
+      </label>
+      <input
+        id={id}
+        value={value}
+        onChange={(e) => onChange(e.target.value)}
+        aria-invalid={error ? true : undefined}
+        aria-describedby={error ? `${id}-err` : undefined}
+        className={`${width} rounded border px-2 py-1 text-sm ${error ? 'border-rose-600 bg-rose-50' : 'border-slate-300 bg-white'}`}
+      />
+      {error && (
+        <p id={`${id}-err`} className="text-xs text-rose-700">
+          ✕ {error}
+        </p>
+      )}
+    </div>
+  );
+}
+
+const dateFormat = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'short' });
+
+/** Kept forecasts, each against any run measured since within ±1 K of its temperature. */
+export function SavedForecasts({ campaignId, canEdit }: { campaignId: string; canEdit: boolean }) {
+  const forecasts = useForecasts(campaignId);
+  const remove = useDeleteForecast(campaignId);
+  if (forecasts.isPending) return <p className="text-sm text-ink-500">Loading saved forecasts…</p>;
+  if (forecasts.isError) return <p role="alert" className="text-sm text-rose-700">{forecasts.error.message}</p>;
+  if (forecasts.data.length === 0) return <p className="text-sm text-ink-600">No saved forecasts yet.{canEdit ? ' Make a forecast above and save it with a note.' : ''}</p>;
+  return (
+    <div className="flex flex-col gap-2">
+      <div className="overflow-x-auto rounded border border-slate-200">
+        <table className="tnum w-full border-collapse text-sm" aria-label="Saved forecasts">
+          <thead className="bg-slate-50 text-xs text-ink-600">
+            <tr className="border-b border-slate-200">
+              <th scope="col" className="px-2 py-1 text-right font-medium">
+                T (°C)
+              </th>
+              <th scope="col" className="px-2 py-1 text-left font-medium">
+                Label and note
+              </th>
+              <th scope="col" className="px-2 py-1 text-right font-medium">
+                Forecast ee (%)
+              </th>
+              <th scope="col" className="px-2 py-1 text-right font-medium">
+                95 % PI (% ee)
+              </th>
+              <th scope="col" className="px-2 py-1 text-right font-medium">
+                A (%)
+              </th>
+              <th scope="col" className="px-2 py-1 text-left font-medium">
+                Measured since
+              </th>
+              <th scope="col" className="px-2 py-1 text-left font-medium">
+                Saved
+              </th>
+              {canEdit && (
+                <th scope="col" className="px-2 py-1">
+                  <span className="sr-only">Actions</span>
+                </th>
+              )}
+            </tr>
+          </thead>
+          <tbody>
+            {forecasts.data.map((f) => (
+              <ForecastRow key={f.id} f={f} canEdit={canEdit} onDelete={() => remove.mutate(f.id)} deleting={remove.isPending && remove.variables === f.id} />
+            ))}
+          </tbody>
+        </table>
+      </div>
+      <p className="text-xs text-ink-600">
+        A saved forecast is a snapshot of the fit when it was saved. Runs stored later within ±1 K of its temperature appear beside it, marked
+        inside or outside its prediction interval.
+      </p>
+      <SafetyCaution compact />
+    </div>
+  );
+}
+
+function ForecastRow({ f, canEdit, onDelete, deleting }: { f: SavedForecastView; canEdit: boolean; onDelete: () => void; deleting: boolean }) {
+  const pi = f.result.predictionInterval;
+  return (
+    <tr className="border-b border-slate-100 align-top">
+      <td className="px-2 py-1 text-right font-medium">{fixed(f.celsius, 1)}</td>
+      <td className="max-w-xs px-2 py-1">
+        {f.label ? <span className="font-medium text-ink-900">{f.label}</span> : <span className="text-ink-500">—</span>}
+        {f.notes && <span className="block text-xs text-ink-600">{f.notes}</span>}
+        {f.result.extrapolated && <span className="block text-xs font-medium text-caution-700">⚠ extrapolated beyond the screen</span>}
+      </td>
+      <td className="px-2 py-1 text-right">{percent(f.result.eePercent)}</td>
+      <td className="px-2 py-1 text-right text-ink-700">{pi ? `${percent(pi.eePercent[0])} to ${percent(pi.eePercent[1])}` : '—'}</td>
+      <td className="px-2 py-1 text-right">{percent(f.result.percentA)}</td>
+      <td className="px-2 py-1 text-left">
+        {f.measured.length === 0 ? (
+          <span className="text-ink-500">no run yet</span>
+        ) : (
+          <ul>
+            {f.measured.map((m) => (
+              <li key={m.measurementId}>
+                {percent(m.eePercent)} % ee at {fixed(kelvinTo(m.kelvin, 'C'), 1)} °C{' '}
+                {m.insidePredictionInterval === null ? (
+                  <span className="text-ink-600">(no interval to compare)</span>
+                ) : m.insidePredictionInterval ? (
+                  <span className="font-medium text-fjord-700">✓ inside the interval</span>
+                ) : (
+                  <span className="font-medium text-rose-700">✕ outside the interval</span>
+                )}
+              </li>
+            ))}
+          </ul>
+        )}
+      </td>
+      <td className="whitespace-nowrap px-2 py-1 text-left text-xs text-ink-600">
+        {dateFormat.format(new Date(f.createdAt))}
+        {f.createdBy && <span className="block">{f.createdBy.displayName ?? f.createdBy.login}</span>}
+      </td>
+      {canEdit && (
+        <td className="px-2 py-1">
+          <Button variant="danger" className="px-2 py-0.5 text-xs" disabled={deleting} onClick={onDelete} aria-label={`Delete the forecast at ${fixed(f.celsius, 1)} °C`}>
+            Delete
+          </Button>
+        </td>
+      )}
+    </tr>
+  );
+}

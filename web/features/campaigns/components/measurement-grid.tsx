@@ -1,0 +1,598 @@
+import { Fragment, useEffect, useMemo, useRef, useState, type ClipboardEvent, type KeyboardEvent } from 'react';
+import type { SelectivityMeasure, TemperatureUnit, TimeUnit } from '../../../../api/features/campaigns/schemas';
+import { Button } from '../../../components/ui/form';
+import { ApiError } from '../../../lib/api-client';
+import { useCreateMeasurements, useDeleteMeasurement, useSetExclusion, useUpdateMeasurement } from '../api/measurements';
+import type { Campaign, Measurement } from '../api/types';
+import {
+  batchErrorsToCells,
+  cellsFromMeasurement,
+  emptyCells,
+  GRID_COLUMNS,
+  isBlank,
+  parsePastedBlock,
+  pasteBlock,
+  rowErrorsToCells,
+  rowToCreate,
+  rowToUpdate,
+  type CellErrors,
+  type ColumnUnits,
+  type GridCells,
+  type GridColumn,
+  type GridEdits,
+} from '../lib/grid';
+import { MEASURE_LABEL, uncertaintyUnit } from '../lib/labels';
+import { ExclusionForm } from './exclusion-form';
+
+const TEMPERATURE_UNITS: { value: TemperatureUnit; label: string }[] = [
+  { value: 'C', label: '°C' },
+  { value: 'K', label: 'K' },
+  { value: 'F', label: '°F' },
+];
+const TIME_UNITS: { value: TimeUnit; label: string }[] = [
+  { value: 'h', label: 'h' },
+  { value: 'min', label: 'min' },
+  { value: 's', label: 's' },
+];
+const MEASURES: SelectivityMeasure[] = ['ee', 'percentA', 'er', 'dr', 'ratio'];
+
+/** Most stored rows drawn at once; a bigger campaign shows the first ones and says so. */
+const MAX_ROWS_SHOWN = 400;
+
+const COLUMN_TITLE: Record<GridColumn, string> = {
+  temperature: 'Temperature',
+  value: 'Selectivity',
+  uncertainty: 'Uncertainty',
+  sampleId: 'Sample id',
+  replicateLabel: 'Replicate',
+  conversionPercent: 'Conversion (%)',
+  reactionTime: 'Time',
+  notes: 'Notes',
+};
+const CELL_WIDTH: Record<GridColumn, string> = {
+  temperature: 'w-20',
+  value: 'w-24',
+  uncertainty: 'w-16',
+  sampleId: 'w-32',
+  replicateLabel: 'w-14',
+  conversionPercent: 'w-16',
+  reactionTime: 'w-16',
+  notes: 'w-40',
+};
+const NUMERIC: GridColumn[] = ['temperature', 'value', 'uncertainty', 'conversionPercent', 'reactionTime'];
+
+let draftCounter = 0;
+const newDraftKey = () => `draft-${++draftCounter}`;
+
+interface Row {
+  key: string;
+  stored: Measurement | null;
+  cells: GridCells;
+  dirty: boolean;
+}
+
+/**
+ * Keyboard-first measurement grid. Arrow keys move between rows, Enter moves down (and adds a
+ * row at the end), Escape restores a cell, Ctrl+Enter saves; a block copied from a spreadsheet
+ * pastes from the focused cell down and right. Every cell is checked as typed with the API's
+ * own schema and the reason is shown under it; the server's field errors land on the same cells.
+ */
+export function MeasurementGrid({
+  campaign,
+  measurements,
+  canEdit,
+}: {
+  campaign: Campaign;
+  measurements: Measurement[];
+  canEdit: boolean;
+}) {
+  const [units, setUnits] = useState<ColumnUnits>({ temperature: 'C', measure: campaign.measure, time: 'h' });
+  const [state, setState] = useState<GridEdits>({ edits: {}, drafts: [] });
+  const [serverErrors, setServerErrors] = useState<Record<string, CellErrors>>({});
+  const [rowProblems, setRowProblems] = useState<Record<string, string>>({});
+  const [notice, setNotice] = useState<{ kind: 'info' | 'error'; text: string } | null>(null);
+  const [excluding, setExcluding] = useState<string | null>(null);
+  const [confirmDelete, setConfirmDelete] = useState<string | null>(null);
+  const [pendingFocus, setPendingFocus] = useState<{ row: number; col: number } | null>(null);
+  const [saving, setSaving] = useState(false);
+  const tableRef = useRef<HTMLTableElement>(null);
+
+  const createRows = useCreateMeasurements(campaign.id, campaign.projectId);
+  const updateRow = useUpdateMeasurement(campaign.id, campaign.projectId);
+  const exclusion = useSetExclusion(campaign.id, campaign.projectId);
+  const deleteRow = useDeleteMeasurement(campaign.id, campaign.projectId);
+
+  const shown = measurements.slice(0, MAX_ROWS_SHOWN);
+  const rows: Row[] = useMemo(() => {
+    const stored = shown.map((m) => {
+      const base = cellsFromMeasurement(m, units);
+      const edit = state.edits[m.id];
+      const cells = edit ? { ...base, ...edit } : base;
+      const dirty = !!edit && GRID_COLUMNS.some((c) => cells[c].trim() !== base[c].trim());
+      return { key: m.id, stored: m, cells, dirty };
+    });
+    const drafts = state.drafts.map((d) => ({ key: d.key, stored: null, cells: d.cells, dirty: !isBlank(d.cells) }));
+    return [...stored, ...drafts];
+  }, [shown, units, state]);
+
+  // Check the rows being edited as they are typed.
+  const clientErrors = useMemo(() => {
+    const out: Record<string, CellErrors> = {};
+    for (const r of rows) {
+      if (!r.dirty) continue;
+      const { errors } = rowToCreate(r.cells, units);
+      if (Object.keys(errors).length) out[r.key] = errors;
+    }
+    return out;
+  }, [rows, units]);
+
+  const dirtyCount = rows.filter((r) => r.dirty).length;
+
+  useEffect(() => {
+    if (!pendingFocus) return;
+    const el = tableRef.current?.querySelector<HTMLInputElement>(`[data-cell="${pendingFocus.row}:${pendingFocus.col}"]`);
+    el?.focus();
+    el?.select();
+    setPendingFocus(null);
+  }, [pendingFocus, rows.length]);
+
+  const setCell = (row: Row, col: GridColumn, text: string) => {
+    setServerErrors((all) => {
+      if (!all[row.key]?.[col]) return all;
+      const { [col]: _gone, ...rest } = all[row.key];
+      return { ...all, [row.key]: rest };
+    });
+    setState((s) =>
+      row.stored
+        ? { ...s, edits: { ...s.edits, [row.key]: { ...s.edits[row.key], [col]: text } } }
+        : { ...s, drafts: s.drafts.map((d) => (d.key === row.key ? { ...d, cells: { ...d.cells, [col]: text } } : d)) },
+    );
+  };
+
+  const restoreCell = (row: Row, col: GridColumn) => {
+    if (row.stored) {
+      setState((s) => {
+        const { [col]: _gone, ...rest } = s.edits[row.key] ?? {};
+        return { ...s, edits: { ...s.edits, [row.key]: rest } };
+      });
+    } else setCell(row, col, '');
+  };
+
+  const addRow = (focus = true) => {
+    setState((s) => ({ ...s, drafts: [...s.drafts, { key: newDraftKey(), cells: emptyCells() }] }));
+    if (focus) setPendingFocus({ row: rows.length, col: 0 });
+  };
+
+  const onKeyDown = (e: KeyboardEvent<HTMLInputElement>, rowIndex: number, colIndex: number, row: Row, col: GridColumn) => {
+    if (e.key === 'Enter' && (e.ctrlKey || e.metaKey)) {
+      e.preventDefault();
+      void save();
+    } else if (e.key === 'Enter' || e.key === 'ArrowDown') {
+      e.preventDefault();
+      if (rowIndex + 1 < rows.length) setPendingFocus({ row: rowIndex + 1, col: colIndex });
+      else if (e.key === 'Enter') {
+        setState((s) => ({ ...s, drafts: [...s.drafts, { key: newDraftKey(), cells: emptyCells() }] }));
+        setPendingFocus({ row: rowIndex + 1, col: colIndex });
+      }
+    } else if (e.key === 'ArrowUp') {
+      e.preventDefault();
+      if (rowIndex > 0) setPendingFocus({ row: rowIndex - 1, col: colIndex });
+    } else if (e.key === 'Escape') {
+      restoreCell(row, col);
+    }
+  };
+
+  const onPaste = (e: ClipboardEvent<HTMLInputElement>, rowIndex: number, colIndex: number) => {
+    const block = parsePastedBlock(e.clipboardData.getData('text/plain'));
+    if (!block) return;
+    e.preventDefault();
+    const result = pasteBlock(
+      state,
+      rows.map((r) => r.key),
+      new Set(shown.map((m) => m.id)),
+      rowIndex,
+      colIndex,
+      block,
+      newDraftKey,
+    );
+    setState(result.state);
+    const parts = [`Pasted ${result.rows} row${result.rows === 1 ? '' : 's'}; check the marked cells, then save.`];
+    if (result.headerSkipped) parts.push('The first line looked like headings and was skipped.');
+    if (result.droppedColumns) parts.push(`${result.droppedColumns} column(s) beyond Notes were left out.`);
+    setNotice({ kind: 'info', text: parts.join(' ') });
+  };
+
+  const discard = () => {
+    setState({ edits: {}, drafts: [] });
+    setServerErrors({});
+    setRowProblems({});
+    setNotice(null);
+  };
+
+  async function save() {
+    if (saving) return;
+    const drafts = rows.filter((r) => !r.stored && r.dirty);
+    const edited = rows.filter((r) => r.stored && r.dirty);
+    if (Object.keys(clientErrors).length > 0) {
+      setNotice({ kind: 'error', text: 'Nothing saved: fix the marked cells first (the reason is under each one).' });
+      return;
+    }
+    setSaving(true);
+    setNotice(null);
+    const nextServer: Record<string, CellErrors> = {};
+    const problems: Record<string, string> = {};
+    const general: string[] = [];
+    let savedDrafts = false;
+    const savedEdits: string[] = [];
+    try {
+      if (drafts.length) {
+        const bodies = drafts.map((r) => rowToCreate(r.cells, units).body!);
+        try {
+          await createRows.mutateAsync(bodies);
+          savedDrafts = true;
+        } catch (err) {
+          if (err instanceof ApiError && err.fieldErrors.length) {
+            const mapped = batchErrorsToCells(err.fieldErrors, drafts.map((d) => d.key));
+            Object.assign(nextServer, mapped.byKey);
+            general.push(...mapped.other);
+            if (!mapped.other.length) general.push('No new row was saved (all or nothing): fix the marked cells and save again.');
+          } else general.push(err instanceof Error ? err.message : 'Saving the new rows failed.');
+        }
+      }
+      for (const r of edited) {
+        const { body } = rowToUpdate(r.stored!, r.cells, units);
+        if (!body) {
+          savedEdits.push(r.key);
+          continue;
+        }
+        try {
+          await updateRow.mutateAsync({ id: r.key, body });
+          savedEdits.push(r.key);
+        } catch (err) {
+          if (err instanceof ApiError && err.status === 409) {
+            problems[r.key] = 'Changed by someone else since you loaded it — your edit was not saved. Discard it to see the current values.';
+          } else if (err instanceof ApiError && err.fieldErrors.length) {
+            const mapped = rowErrorsToCells(err.fieldErrors);
+            nextServer[r.key] = mapped.cells;
+            if (mapped.other.length) problems[r.key] = mapped.other.join(' ');
+          } else problems[r.key] = err instanceof Error ? err.message : 'Saving failed.';
+        }
+      }
+    } finally {
+      setSaving(false);
+    }
+    setServerErrors(nextServer);
+    setRowProblems(problems);
+    setState((s) => ({
+      edits: Object.fromEntries(Object.entries(s.edits).filter(([k]) => !savedEdits.includes(k))),
+      drafts: savedDrafts ? [] : s.drafts,
+    }));
+    const failed = general.length + Object.keys(problems).length + Object.keys(nextServer).length;
+    setNotice(
+      failed
+        ? { kind: 'error', text: general.join(' ') || 'Some rows were not saved; see the marked rows.' }
+        : { kind: 'info', text: `Saved ${savedDrafts ? drafts.length : 0} new and ${savedEdits.length} changed row(s). The fit below is up to date.` },
+    );
+  }
+
+  const measureOptions = MEASURES.map((m) => ({ value: m, label: MEASURE_LABEL[m] }));
+
+  return (
+    <div className="flex flex-col gap-2">
+      {canEdit && (
+        <p className="text-xs text-ink-600">
+          Type into the cells, or paste a block copied from a spreadsheet (columns in this order, from the cell you paste into). ↑ ↓ and
+          Enter move between rows, Esc restores a cell, <kbd className="rounded border border-slate-300 px-1">Ctrl</kbd>+
+          <kbd className="rounded border border-slate-300 px-1">Enter</kbd> saves. Write a lower bound as “≥99.8”; er and dr as “95:5”.
+        </p>
+      )}
+      <div className="overflow-x-auto rounded border border-slate-200">
+        <table ref={tableRef} className="tnum w-full border-collapse text-sm" aria-label="Measurements">
+          <thead className="bg-slate-50 text-xs text-ink-600">
+            <tr className="border-b border-slate-200 align-bottom">
+              <th scope="col" className="px-2 py-1.5 text-right font-medium">
+                #
+              </th>
+              {GRID_COLUMNS.map((col) => (
+                <th key={col} scope="col" className={`px-1.5 py-1.5 font-medium ${NUMERIC.includes(col) ? 'text-right' : 'text-left'}`}>
+                  <span className="block">{COLUMN_TITLE[col]}</span>
+                  {col === 'temperature' && (
+                    <UnitSelect
+                      label="Temperature unit"
+                      value={units.temperature}
+                      options={TEMPERATURE_UNITS}
+                      onChange={(temperature) => setUnits((u) => ({ ...u, temperature }))}
+                    />
+                  )}
+                  {col === 'value' && (
+                    <UnitSelect label="Selectivity measure" value={units.measure} options={measureOptions} onChange={(measure) => setUnits((u) => ({ ...u, measure }))} />
+                  )}
+                  {col === 'uncertainty' && <span className="block font-normal">± {uncertaintyUnit(units.measure)}</span>}
+                  {col === 'reactionTime' && (
+                    <UnitSelect label="Time unit" value={units.time} options={TIME_UNITS} onChange={(time) => setUnits((u) => ({ ...u, time }))} />
+                  )}
+                </th>
+              ))}
+              <th scope="col" className="px-2 py-1.5 text-left font-medium">
+                In the fit
+              </th>
+              {canEdit && (
+                <th scope="col" className="px-2 py-1.5 text-left font-medium">
+                  <span className="sr-only">Actions</span>
+                </th>
+              )}
+            </tr>
+          </thead>
+          <tbody>
+            {rows.length === 0 && (
+              <tr>
+                <td colSpan={GRID_COLUMNS.length + 3} className="px-3 py-6 text-center text-sm text-ink-500">
+                  No measurements yet.{canEdit ? ' Add a row, paste from a spreadsheet, or upload a file below.' : ''}
+                </td>
+              </tr>
+            )}
+            {rows.map((row, rowIndex) => {
+              const errs = { ...clientErrors[row.key], ...serverErrors[row.key] };
+              const excluded = row.stored?.excluded ?? false;
+              const problem = rowProblems[row.key];
+              return (
+                <Fragment key={row.key}>
+                  <tr
+                    className={`border-b border-slate-100 align-top ${excluded ? 'bg-slate-50 text-ink-500' : ''} ${row.dirty ? 'bg-fjord-50/60' : ''}`}
+                    aria-label={`Row ${rowIndex + 1}${row.stored ? '' : ' (new)'}${excluded ? ' (excluded)' : ''}`}
+                  >
+                    <td className="px-2 py-1 text-right text-xs text-ink-500">
+                      {rowIndex + 1}
+                      {row.dirty && (
+                        <span className="ml-0.5 text-fjord-700" title="unsaved">
+                          *<span className="sr-only"> unsaved</span>
+                        </span>
+                      )}
+                    </td>
+                    {GRID_COLUMNS.map((col, colIndex) => (
+                      <td key={col} className="px-1 py-0.5">
+                        {canEdit ? (
+                          <GridInput
+                            cell={`${rowIndex}:${colIndex}`}
+                            label={`${COLUMN_TITLE[col]}, row ${rowIndex + 1}`}
+                            value={row.cells[col]}
+                            error={errs[col]}
+                            numeric={NUMERIC.includes(col)}
+                            width={CELL_WIDTH[col]}
+                            onChange={(t) => setCell(row, col, t)}
+                            onKeyDown={(e) => onKeyDown(e, rowIndex, colIndex, row, col)}
+                            onPaste={(e) => onPaste(e, rowIndex, colIndex)}
+                          />
+                        ) : (
+                          <span className={`block px-1 py-0.5 ${NUMERIC.includes(col) ? 'text-right' : ''} ${col === 'notes' ? 'max-w-xs truncate' : ''}`}>
+                            {row.cells[col] || <span className="text-ink-500">—</span>}
+                          </span>
+                        )}
+                      </td>
+                    ))}
+                    <td className="px-2 py-1 text-xs">
+                      <StatusText m={row.stored} />
+                    </td>
+                    {canEdit && (
+                      <td className="whitespace-nowrap px-2 py-0.5 text-xs">
+                        {row.stored ? (
+                          confirmDelete === row.key ? (
+                            <span className="flex items-center gap-1">
+                              Delete for good?
+                              <button
+                                type="button"
+                                className="rounded border border-rose-700 px-1.5 py-0.5 text-rose-700"
+                                onClick={() =>
+                                  deleteRow.mutate(
+                                    { id: row.key, version: row.stored!.version },
+                                    {
+                                      onError: (err) => setRowProblems((p) => ({ ...p, [row.key]: err.message })),
+                                      onSettled: () => setConfirmDelete(null),
+                                    },
+                                  )
+                                }
+                              >
+                                Delete
+                              </button>
+                              <button type="button" className="rounded border border-slate-300 px-1.5 py-0.5" onClick={() => setConfirmDelete(null)}>
+                                Keep
+                              </button>
+                            </span>
+                          ) : (
+                            <span className="flex gap-1">
+                              {row.stored.excluded ? (
+                                <button
+                                  type="button"
+                                  className="rounded border border-slate-300 px-1.5 py-0.5 hover:bg-slate-50"
+                                  aria-label={`Include row ${rowIndex + 1} in the fit again`}
+                                  onClick={() =>
+                                    exclusion.mutate(
+                                      { id: row.key, body: { excluded: false, version: row.stored!.version } },
+                                      { onError: (err) => setRowProblems((p) => ({ ...p, [row.key]: err.message })) },
+                                    )
+                                  }
+                                >
+                                  Include
+                                </button>
+                              ) : (
+                                <button
+                                  type="button"
+                                  className="rounded border border-slate-300 px-1.5 py-0.5 hover:bg-slate-50"
+                                  aria-label={`Exclude row ${rowIndex + 1} from the fit`}
+                                  aria-expanded={excluding === row.key}
+                                  onClick={() => setExcluding(excluding === row.key ? null : row.key)}
+                                >
+                                  Exclude…
+                                </button>
+                              )}
+                              <button
+                                type="button"
+                                className="rounded border border-slate-300 px-1.5 py-0.5 text-rose-700 hover:bg-rose-50"
+                                aria-label={`Delete row ${rowIndex + 1}`}
+                                onClick={() => setConfirmDelete(row.key)}
+                              >
+                                Delete
+                              </button>
+                            </span>
+                          )
+                        ) : (
+                          <button
+                            type="button"
+                            className="rounded border border-slate-300 px-1.5 py-0.5 hover:bg-slate-50"
+                            aria-label={`Remove new row ${rowIndex + 1}`}
+                            onClick={() => setState((s) => ({ ...s, drafts: s.drafts.filter((d) => d.key !== row.key) }))}
+                          >
+                            Remove
+                          </button>
+                        )}
+                      </td>
+                    )}
+                  </tr>
+                  {excluding === row.key && row.stored && (
+                    <tr className="border-b border-slate-100 bg-slate-50">
+                      <td />
+                      <td colSpan={GRID_COLUMNS.length + 2} className="px-2 py-2">
+                        <ExclusionForm
+                          rowLabel={`row ${rowIndex + 1}`}
+                          pending={exclusion.isPending}
+                          onCancel={() => setExcluding(null)}
+                          onSubmit={(reason) =>
+                            exclusion.mutateAsync({ id: row.key, body: { excluded: true, reason, version: row.stored!.version } }).then(() => setExcluding(null))
+                          }
+                        />
+                      </td>
+                    </tr>
+                  )}
+                  {problem && (
+                    <tr>
+                      <td />
+                      <td colSpan={GRID_COLUMNS.length + 2} className="px-2 pb-1.5">
+                        <p role="alert" className="text-xs font-medium text-rose-700">
+                          <span aria-hidden="true">✕ </span>
+                          {problem}
+                        </p>
+                      </td>
+                    </tr>
+                  )}
+                </Fragment>
+              );
+            })}
+          </tbody>
+        </table>
+      </div>
+      {measurements.length > MAX_ROWS_SHOWN && (
+        <p className="text-xs text-ink-600">
+          Showing the first {MAX_ROWS_SHOWN} of {measurements.length} measurements (sorted by temperature); all of them are in the fit and
+          in the spreadsheet report.
+        </p>
+      )}
+      {canEdit && (
+        <div className="flex flex-wrap items-center gap-2">
+          <Button onClick={() => addRow()}>Add row</Button>
+          <Button variant="primary" disabled={dirtyCount === 0 || saving} onClick={() => void save()}>
+            {saving ? 'Saving…' : dirtyCount ? `Save ${dirtyCount} row${dirtyCount === 1 ? '' : 's'}` : 'Saved'}
+          </Button>
+          {(dirtyCount > 0 || state.drafts.length > 0) && <Button onClick={discard}>Discard changes</Button>}
+          <span className="text-xs text-ink-500">New rows are saved together, all or none.</span>
+        </div>
+      )}
+      {notice && (
+        <p role={notice.kind === 'error' ? 'alert' : 'status'} className={`text-sm ${notice.kind === 'error' ? 'font-medium text-rose-700' : 'text-ink-700'}`}>
+          {notice.kind === 'error' && <span aria-hidden="true">✕ </span>}
+          {notice.text}
+        </p>
+      )}
+    </div>
+  );
+}
+
+function StatusText({ m }: { m: Measurement | null }) {
+  if (!m) return <span className="text-ink-500">new</span>;
+  if (m.excluded) {
+    return (
+      <span className="block max-w-[14rem]">
+        <span aria-hidden="true">○ </span>excluded
+        {m.excludedReason && <span className="block text-ink-600">“{m.excludedReason}”</span>}
+      </span>
+    );
+  }
+  if (m.isLowerBound) {
+    return (
+      <span title="A lower bound: used as a bound, not as an exact value">
+        <span aria-hidden="true">◆ </span>lower bound
+      </span>
+    );
+  }
+  return (
+    <span>
+      <span aria-hidden="true">● </span>fitted
+    </span>
+  );
+}
+
+function UnitSelect<T extends string>({ label, value, options, onChange }: { label: string; value: T; options: { value: T; label: string }[]; onChange: (v: T) => void }) {
+  return (
+    <select
+      aria-label={label}
+      value={value}
+      onChange={(e) => onChange(e.target.value as T)}
+      className="mt-0.5 rounded border border-slate-300 bg-white px-1 py-0.5 text-xs font-normal text-ink-900"
+    >
+      {options.map((o) => (
+        <option key={o.value} value={o.value}>
+          {o.label}
+        </option>
+      ))}
+    </select>
+  );
+}
+
+function GridInput({
+  cell,
+  label,
+  value,
+  error,
+  numeric,
+  width,
+  onChange,
+  onKeyDown,
+  onPaste,
+}: {
+  cell: string;
+  label: string;
+  value: string;
+  error?: string;
+  numeric: boolean;
+  width: string;
+  onChange: (text: string) => void;
+  onKeyDown: (e: KeyboardEvent<HTMLInputElement>) => void;
+  onPaste: (e: ClipboardEvent<HTMLInputElement>) => void;
+}) {
+  const errorId = `cell-${cell.replace(':', '-')}-error`;
+  return (
+    <div className="flex flex-col">
+      <input
+        data-cell={cell}
+        aria-label={label}
+        aria-invalid={error ? true : undefined}
+        aria-describedby={error ? errorId : undefined}
+        inputMode={numeric ? 'decimal' : 'text'}
+        autoComplete="off"
+        spellCheck={false}
+        value={value}
+        onChange={(e) => onChange(e.target.value)}
+        onKeyDown={onKeyDown}
+        onPaste={onPaste}
+        className={`${width} rounded border px-1.5 py-0.5 text-sm ${numeric ? 'text-right' : ''} ${
+          error ? 'border-rose-600 bg-rose-50' : 'border-transparent bg-transparent hover:border-slate-300 focus:border-fjord-600 focus:bg-white'
+        }`}
+      />
+      {error && (
+        <span id={errorId} className={`${width} mt-0.5 text-[11px] leading-tight text-rose-700`}>
+          <span aria-hidden="true">✕ </span>
+          {error}
+        </span>
+      )}
+    </div>
+  );
+}

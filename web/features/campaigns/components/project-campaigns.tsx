@@ -1,0 +1,260 @@
+import { useId, useState, type ReactNode } from 'react';
+import { Link } from 'react-router-dom';
+import { SafetyCaution } from '../../../components/ui/caution';
+import { Button } from '../../../components/ui/form';
+import { paths } from '../../../config/paths';
+import { enantiomericRatio, fixed, percent, withUncertainty } from '../../../lib/format';
+import { ConventionNote } from '../../calculators/components/fields';
+import { useCampaigns } from '../api/campaigns';
+import { useComparison } from '../api/comparison';
+import type { CampaignListItem, ComparisonCampaign } from '../api/types';
+import { parseNumber } from '../lib/grid';
+import { CELSIUS, STATUS_MARK } from '../lib/labels';
+import { NewCampaignForm } from './new-campaign-form';
+
+const plus = (v: number, text: string) => (v > 0 && !text.startsWith('+') ? `+${text}` : text);
+
+function DdH({ c }: { c: ComparisonCampaign | undefined }) {
+  if (!c?.ddH) return <span className="text-ink-500">—</span>;
+  return <>{plus(c.ddH['kJ/mol'], withUncertainty(c.ddH['kJ/mol'], c.ddH.se?.['kJ/mol'], 1))}</>;
+}
+
+function EeAt({ c }: { c: ComparisonCampaign | undefined }) {
+  const p = c?.prediction;
+  if (!p) return <span className="text-ink-500">{c?.problem ? 'no fit' : '—'}</span>;
+  const pi = p.predictionInterval;
+  return (
+    <span>
+      <span className="font-medium text-ink-950">{percent(p.eePercent)}</span>
+      {pi && (
+        <span className="block text-xs text-ink-600">
+          PI {percent(pi.eePercent[0])} to {percent(pi.eePercent[1])}
+        </span>
+      )}
+      {p.extrapolated && <span className="block text-xs font-medium text-caution-700">⚠ extrapolated</span>}
+    </span>
+  );
+}
+
+/** The project's campaigns with their fitted ΔΔH‡ and the forecast at one chosen temperature, and a side-by-side comparison. */
+export function ProjectCampaigns({ projectId, canEdit }: { projectId: string; canEdit: boolean }) {
+  const atId = useId();
+  const [atText, setAtText] = useState('-20');
+  const [creating, setCreating] = useState(false);
+  const [picked, setPicked] = useState<string[] | null>(null);
+  const parsedAt = parseNumber(atText);
+  const atValid = typeof parsedAt === 'number' && parsedAt > -273.15 && parsedAt <= 726.85;
+  const [atCelsius, setAtCelsius] = useState(-20);
+  const campaigns = useCampaigns(projectId);
+  const comparison = useComparison(projectId, atCelsius);
+  const byId = new Map((comparison.data?.campaigns ?? []).map((c) => [c.id, c]));
+
+  if (campaigns.isPending) return <p className="text-sm text-ink-500">Loading campaigns…</p>;
+  if (campaigns.isError) return <p role="alert" className="text-sm text-rose-700">{campaigns.error.message}</p>;
+  const list = campaigns.data;
+  const chosen = picked ?? list.slice(0, 4).map((c) => c.id);
+
+  return (
+    <div className="flex flex-col gap-5">
+      <section aria-labelledby="campaigns-h" className="flex flex-col gap-3 rounded-lg border border-slate-200 bg-white p-4 shadow-sm">
+        <div className="flex flex-wrap items-end justify-between gap-3">
+          <h2 id="campaigns-h" className="text-sm font-semibold uppercase tracking-wide text-ink-600">
+            Campaigns
+          </h2>
+          <form
+            noValidate
+            className="flex items-end gap-2"
+            onSubmit={(e) => {
+              e.preventDefault();
+              if (atValid) setAtCelsius(parsedAt);
+            }}
+          >
+            <div className="flex flex-col gap-0.5">
+              <label htmlFor={atId} className="text-xs font-medium text-ink-700">
+                Forecast at
+              </label>
+              <div className="flex items-center gap-1">
+                <input
+                  id={atId}
+                  inputMode="decimal"
+                  value={atText}
+                  onChange={(e) => setAtText(e.target.value)}
+                  aria-invalid={!atValid || undefined}
+                  aria-describedby={!atValid ? `${atId}-err` : undefined}
+                  className={`tnum w-20 rounded border px-2 py-1 text-right text-sm ${atValid ? 'border-slate-300' : 'border-rose-600 bg-rose-50'}`}
+                />
+                <span className="text-sm text-ink-600">°C</span>
+              </div>
+            </div>
+            <Button type="submit">Compare</Button>
+            {!atValid && (
+              <p id={`${atId}-err`} className="text-xs text-rose-700">
+                ✕ a temperature in °C above −273.15
+              </p>
+            )}
+          </form>
+        </div>
+        {list.length === 0 ? (
+          <p className="text-sm text-ink-600">No campaigns yet.{canEdit ? ' Start one below: a temperature screen of one reaction.' : ''}</p>
+        ) : (
+          <div className="overflow-x-auto">
+            <table className="tnum w-full border-collapse text-sm" aria-label="Campaigns of the project">
+              <thead className="border-b border-slate-200 text-xs text-ink-600">
+                <tr>
+                  <th scope="col" className="py-1.5 pr-3 text-left font-medium">
+                    Campaign
+                  </th>
+                  <th scope="col" className="py-1.5 pr-3 text-left font-medium">
+                    Status
+                  </th>
+                  <th scope="col" className="py-1.5 pr-3 text-right font-medium">
+                    n (in fit)
+                  </th>
+                  <th scope="col" className="py-1.5 pr-3 text-right font-medium">
+                    T range (°C)
+                  </th>
+                  <th scope="col" className="py-1.5 pr-3 text-right font-medium">
+                    ΔΔH‡ ± SE (kJ/mol)
+                  </th>
+                  <th scope="col" className="py-1.5 pr-3 text-right font-medium">
+                    ee at {fixed(comparison.data?.at.celsius ?? atCelsius, 1)} °C (%, 95 % PI)
+                  </th>
+                  <th scope="col" className="py-1.5 text-left font-medium">
+                    Compare
+                  </th>
+                </tr>
+              </thead>
+              <tbody>
+                {list.map((c) => (
+                  <CampaignRow
+                    key={c.id}
+                    c={c}
+                    cmp={byId.get(c.id)}
+                    picked={chosen.includes(c.id)}
+                    onPick={(on) => setPicked(on ? [...chosen, c.id] : chosen.filter((id) => id !== c.id))}
+                  />
+                ))}
+              </tbody>
+            </table>
+          </div>
+        )}
+        {comparison.isError && <p role="alert" className="text-sm text-rose-700">Comparison unavailable: {comparison.error.message}</p>}
+        {canEdit && !creating && (
+          <div>
+            <Button variant="primary" onClick={() => setCreating(true)}>
+              New campaign
+            </Button>
+          </div>
+        )}
+        {canEdit && creating && (
+          <section aria-label="New campaign" className="rounded border border-slate-200 bg-slate-50 p-3">
+            <h3 className="mb-2 text-sm font-semibold text-ink-900">New campaign</h3>
+            <NewCampaignForm projectId={projectId} onCancel={() => setCreating(false)} />
+          </section>
+        )}
+      </section>
+
+      {comparison.data && chosen.length > 0 && (
+        <Comparison at={comparison.data.at} campaigns={comparison.data.campaigns.filter((c) => chosen.includes(c.id))} stale={comparison.isPlaceholderData} />
+      )}
+    </div>
+  );
+}
+
+function CampaignRow({ c, cmp, picked, onPick }: { c: CampaignListItem; cmp: ComparisonCampaign | undefined; picked: boolean; onPick: (on: boolean) => void }) {
+  const range = c.temperatureRangeK;
+  return (
+    <tr className="border-b border-slate-100 align-top">
+      <td className="py-2 pr-3">
+        <Link to={paths.campaign.getHref(c.id)} className="font-medium text-fjord-700 underline">
+          {c.title}
+        </Link>
+        <span className="block text-xs text-ink-600">
+          A = {c.productNameA} · B = {c.productNameB}
+        </span>
+      </td>
+      <td className="whitespace-nowrap py-2 pr-3">
+        <span aria-hidden="true">{STATUS_MARK[c.status]} </span>
+        {c.status}
+      </td>
+      <td className="py-2 pr-3 text-right">
+        {c.measurementCount}
+        {c.includedCount !== c.measurementCount && <span className="text-ink-600"> ({c.includedCount})</span>}
+        <span className="block text-xs text-ink-500">
+          {c.distinctTemperatures} T{c.distinctTemperatures === 1 ? '' : 's'}
+        </span>
+      </td>
+      <td className="whitespace-nowrap py-2 pr-3 text-right">
+        {range ? `${fixed(range.min - CELSIUS, 0)} to ${fixed(range.max - CELSIUS, 0)}` : <span className="text-ink-500">—</span>}
+      </td>
+      <td className="whitespace-nowrap py-2 pr-3 text-right">
+        <DdH c={cmp} />
+        {cmp?.preferred === 'two-branch' && <span className="block text-xs text-caution-700">⚠ two branches preferred</span>}
+      </td>
+      <td className="whitespace-nowrap py-2 pr-3 text-right">
+        <EeAt c={cmp} />
+      </td>
+      <td className="py-2">
+        <input type="checkbox" checked={picked} onChange={(e) => onPick(e.target.checked)} aria-label={`Compare ${c.title} side by side`} />
+      </td>
+    </tr>
+  );
+}
+
+/** Chosen campaigns as columns, the quantities that tell catalysts or solvents apart as rows. */
+function Comparison({ at, campaigns, stale }: { at: { kelvin: number; celsius: number }; campaigns: ComparisonCampaign[]; stale: boolean }) {
+  const rows: { name: string; cell: (c: ComparisonCampaign) => ReactNode }[] = [
+    { name: 'Runs in the fit (n)', cell: (c) => c.n },
+    { name: 'ΔΔH‡ (kJ/mol)', cell: (c) => (c.ddH ? plus(c.ddH['kJ/mol'], withUncertainty(c.ddH['kJ/mol'], c.ddH.se?.['kJ/mol'], 1)) : '—') },
+    { name: 'ΔΔH‡ (kcal/mol)', cell: (c) => (c.ddH ? plus(c.ddH['kcal/mol'], withUncertainty(c.ddH['kcal/mol'], c.ddH.se?.['kcal/mol'], 2)) : '—') },
+    { name: 'ΔΔS‡ (J/(mol·K))', cell: (c) => (c.ddS ? plus(c.ddS['J/(mol*K)'], withUncertainty(c.ddS['J/(mol*K)'], c.ddS.se?.['J/(mol*K)'], 1)) : '—') },
+    {
+      name: `ΔΔG‡ at ${fixed(at.celsius, 1)} °C (kJ/mol)`,
+      cell: (c) => (c.prediction ? plus(c.prediction.ddG['kJ/mol'], withUncertainty(c.prediction.ddG['kJ/mol'], c.prediction.ddGSe?.['kJ/mol'], 2)) : '—'),
+    },
+    { name: `ee at ${fixed(at.celsius, 1)} °C (%)`, cell: (c) => <EeAt c={c} /> },
+    { name: 'er (A:B)', cell: (c) => (c.prediction ? enantiomericRatio(c.prediction.percentA) : '—') },
+    { name: 'Model', cell: (c) => (c.preferred === 'two-branch' ? '⚠ two branches preferred' : c.preferred === 'one-line' ? 'one line' : '—') },
+    { name: 'Warnings', cell: (c) => (c.problem ? c.problem.message : c.warnings ? `⚠ ${c.warnings}` : 'none') },
+  ];
+  return (
+    <section aria-labelledby="compare-h" className={`flex flex-col gap-3 rounded-lg border border-slate-200 bg-white p-4 shadow-sm ${stale ? 'opacity-60' : ''}`}>
+      <h2 id="compare-h" className="text-sm font-semibold uppercase tracking-wide text-ink-600">
+        Side by side at {fixed(at.celsius, 1)} °C ({fixed(at.kelvin, 2)} K)
+      </h2>
+      <div className="overflow-x-auto">
+        <table className="tnum w-full border-collapse text-sm" aria-label="Side-by-side comparison">
+          <thead className="border-b border-slate-200 text-xs text-ink-600">
+            <tr>
+              <th scope="col" className="py-1.5 pr-3 text-left font-medium">
+                Quantity (B − A)
+              </th>
+              {campaigns.map((c) => (
+                <th key={c.id} scope="col" className="py-1.5 pr-3 text-right font-medium text-ink-900">
+                  {c.title}
+                </th>
+              ))}
+            </tr>
+          </thead>
+          <tbody>
+            {rows.map((r) => (
+              <tr key={r.name} className="border-b border-slate-100 align-top">
+                <th scope="row" className="whitespace-nowrap py-1 pr-3 text-left font-medium text-ink-700">
+                  {r.name}
+                </th>
+                {campaigns.map((c) => (
+                  <td key={c.id} className="py-1 pr-3 text-right">
+                    {r.cell(c)}
+                  </td>
+                ))}
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+      <ConventionNote />
+      <SafetyCaution compact />
+    </section>
+  );
+}
+

@@ -1,0 +1,400 @@
+import { useId, useState } from 'react';
+import type { ImportParseOptions } from '../../../../api/features/campaigns/schemas';
+import { Button } from '../../../components/ui/form';
+import { ApiError } from '../../../lib/api-client';
+import { fixed } from '../../../lib/format';
+import { useImportFile, usePreviewImport } from '../api/imports';
+import type { ImportIssue, ImportPreview, ImportResult } from '../api/types';
+import { draftFromSuggestion, mappingFromDraft, type MappingDraft } from '../lib/import-mapping';
+import { CELSIUS, MEASURE_LABEL } from '../lib/labels';
+import type { UploadProgress } from '../lib/upload';
+import { ColumnMappingStep } from './column-mapping-step';
+
+const DELIMITER_TEXT: Record<string, string> = { ',': 'comma', ';': 'semicolon', '\t': 'tab' };
+
+function bytes(n: number): string {
+  if (n < 1024) return `${n} B`;
+  if (n < 1024 * 1024) return `${fixed(n / 1024, 0)} kB`;
+  return `${fixed(n / 1024 / 1024, 1)} MB`;
+}
+
+export function ProgressLine({ progress, label }: { progress: UploadProgress | null; label: string }) {
+  if (!progress) return null;
+  const pct = progress.total > 0 ? Math.round((100 * progress.loaded) / progress.total) : null;
+  return (
+    <div className="flex items-center gap-3 text-sm text-ink-700" role="status">
+      {progress.phase === 'sending' ? (
+        <>
+          <progress className="h-2 w-48" max={100} value={pct ?? undefined} aria-label={`${label}: upload progress`} />
+          <span className="tnum">
+            Uploading {pct === null ? '' : `${pct} % · `}
+            {bytes(progress.loaded)}
+            {progress.total ? ` of ${bytes(progress.total)}` : ''}
+          </span>
+        </>
+      ) : (
+        <>
+          <progress className="h-2 w-48" aria-label={`${label}: the server is reading the file`} />
+          <span>Uploaded; the server is reading and checking the rows…</span>
+        </>
+      )}
+    </div>
+  );
+}
+
+/**
+ * Upload a CSV or XLSX file: the server detects delimiter, decimal comma and header row (all
+ * overridable), the user maps the columns, sees every row-level problem, then imports all rows
+ * or none.
+ */
+export function UploadWizard({ campaignId, projectId }: { campaignId: string; projectId: string }) {
+  const fileId = useId();
+  const [file, setFile] = useState<File | null>(null);
+  const [progress, setProgress] = useState<UploadProgress | null>(null);
+  const [parse, setParse] = useState<ImportParseOptions>({});
+  const [draft, setDraft] = useState<MappingDraft | null>(null);
+  const [checkedDraft, setCheckedDraft] = useState<string | null>(null);
+  const [acknowledge, setAcknowledge] = useState(false);
+  const [importIssues, setImportIssues] = useState<ImportIssue[] | null>(null);
+  const [done, setDone] = useState<ImportResult | null>(null);
+  const preview = usePreviewImport(campaignId, setProgress);
+  const importer = useImportFile(campaignId, projectId, setProgress);
+
+  const mapped = draft ? mappingFromDraft(draft) : null;
+  const data: ImportPreview | undefined = preview.data;
+  const draftKey = JSON.stringify({ draft, parse });
+  const checked = data && checkedDraft === draftKey && data.mapping !== null;
+
+  const runPreview = (f: File, nextParse: ImportParseOptions, withMapping: boolean) => {
+    setImportIssues(null);
+    setDone(null);
+    const mapping = withMapping && mapped?.mapping ? mapped.mapping : undefined;
+    preview.mutate(
+      { file: f, request: { parse: nextParse, ...(mapping ? { mapping } : {}) } },
+      {
+        onSuccess: (p) => {
+          // The first look at a file (or new parse options) starts the form from the header guess.
+          const nextDraft = withMapping && draft ? draft : draftFromSuggestion(p.suggestedMapping);
+          setDraft(nextDraft);
+          setCheckedDraft(p.mapping ? JSON.stringify({ draft: nextDraft, parse: nextParse }) : null);
+        },
+        onSettled: () => setProgress(null),
+      },
+    );
+  };
+
+  const choose = (f: File | null) => {
+    setFile(f);
+    setParse({});
+    setDraft(null);
+    setCheckedDraft(null);
+    setAcknowledge(false);
+    setDone(null);
+    preview.reset();
+    importer.reset();
+    if (f) runPreview(f, {}, false);
+  };
+
+  const setParseOption = (next: ImportParseOptions) => {
+    setParse(next);
+    if (file) runPreview(file, next, false);
+  };
+
+  const doImport = () => {
+    if (!file || !mapped?.mapping) return;
+    setImportIssues(null);
+    importer.mutate(
+      { file, request: { mapping: mapped.mapping, parse, acknowledgeWarnings: acknowledge } },
+      {
+        onSuccess: (result) => {
+          setDone(result);
+          setFile(null);
+          setDraft(null);
+          preview.reset();
+        },
+        onError: (err) => {
+          if (err instanceof ApiError && Array.isArray(err.problem.issues)) setImportIssues(err.problem.issues as ImportIssue[]);
+        },
+        onSettled: () => setProgress(null),
+      },
+    );
+  };
+
+  const issues = importIssues ?? (checked ? data.issues : []);
+  const busy = preview.isPending || importer.isPending;
+
+  return (
+    <div className="flex flex-col gap-3">
+      <div className="flex flex-wrap items-end gap-3">
+        <div className="flex flex-col gap-1">
+          <label htmlFor={fileId} className="text-xs font-medium text-ink-700">
+            CSV, TSV or Excel workbook (.xlsx), up to 10 MB
+          </label>
+          <input
+            id={fileId}
+            type="file"
+            accept=".csv,.tsv,.txt,.xlsx,text/csv,application/vnd.openxmlformats-officedocument.spreadsheetml.sheet"
+            disabled={busy}
+            onChange={(e) => choose(e.target.files?.[0] ?? null)}
+            className="text-sm file:mr-3 file:rounded file:border file:border-slate-300 file:bg-white file:px-3 file:py-1.5 file:text-sm file:text-ink-800"
+          />
+        </div>
+      </div>
+      <ProgressLine progress={progress} label={importer.isPending ? 'Import' : 'Preview'} />
+      {done && (
+        <p role="status" className="tnum rounded border border-fjord-600/40 bg-fjord-50 px-3 py-2 text-sm text-ink-900">
+          <span aria-hidden="true">✓ </span>Imported {done.inserted} row{done.inserted === 1 ? '' : 's'} at {done.distinctTemperatures} temperature
+          {done.distinctTemperatures === 1 ? '' : 's'}, {fixed(done.temperatureRangeK.min - CELSIUS, 1)} to {fixed(done.temperatureRangeK.max - CELSIUS, 1)} °C
+          {done.warningCount ? ` (${done.warningCount} warning${done.warningCount === 1 ? '' : 's'} acknowledged)` : ''}. The grid, fit and charts include them now.
+        </p>
+      )}
+      {preview.error && (
+        <p role="alert" className="text-sm font-medium text-rose-700">
+          <span aria-hidden="true">✕ </span>
+          {preview.error.message}
+        </p>
+      )}
+      {file && data && draft && mapped && (
+        <div className="flex flex-col gap-4">
+          <section aria-label="How the file was read" className="flex flex-col gap-2 rounded border border-slate-200 bg-slate-50 px-3 py-2">
+            <p className="text-sm text-ink-800">
+              <span className="font-medium">{data.file.fileName}</span> · {data.file.format.toUpperCase()} · {data.rowCount} data row
+              {data.rowCount === 1 ? '' : 's'} · {data.columns.length} columns
+              {data.file.encoding ? ` · ${data.file.encoding}` : ''}
+            </p>
+            {data.file.detected.length > 0 && <p className="text-xs text-ink-600">Detected: {data.file.detected.join('; ')}.</p>}
+            <div className="flex flex-wrap gap-4">
+              {data.file.format === 'csv' && (
+                <ParseSelect
+                  id="parse-delimiter"
+                  label="Delimiter"
+                  value={parse.delimiter ?? data.file.delimiter ?? ','}
+                  options={[
+                    [',', 'comma ,'],
+                    [';', 'semicolon ;'],
+                    ['\t', 'tab'],
+                  ]}
+                  onChange={(v) => setParseOption({ ...parse, delimiter: v as ImportParseOptions['delimiter'] })}
+                />
+              )}
+              <ParseSelect
+                id="parse-decimal"
+                label="Decimal separator"
+                value={parse.decimalSeparator ?? data.file.decimalSeparator}
+                options={[
+                  ['.', 'point 1.5'],
+                  [',', 'comma 1,5'],
+                ]}
+                onChange={(v) => setParseOption({ ...parse, decimalSeparator: v as ImportParseOptions['decimalSeparator'] })}
+              />
+              <ParseSelect
+                id="parse-header"
+                label="Header row"
+                value={String(parse.headerRow ?? data.file.headerRow ?? 0)}
+                options={[['0', 'none'], ...Array.from({ length: 10 }, (_, i) => [String(i + 1), `row ${i + 1}`] as [string, string])]}
+                onChange={(v) => setParseOption({ ...parse, headerRow: Number(v) })}
+              />
+              {data.file.sheetNames.length > 1 && (
+                <ParseSelect
+                  id="parse-sheet"
+                  label="Worksheet"
+                  value={parse.sheet ?? data.file.sheetName ?? data.file.sheetNames[0]}
+                  options={data.file.sheetNames.map((s) => [s, s] as [string, string])}
+                  onChange={(v) => setParseOption({ ...parse, sheet: v })}
+                />
+              )}
+            </div>
+            {data.file.delimiter && !parse.delimiter && (
+              <p className="sr-only">
+                Delimiter {DELIMITER_TEXT[data.file.delimiter]}, decimal {data.file.decimalSeparator === ',' ? 'comma' : 'point'}.
+              </p>
+            )}
+          </section>
+
+          <ColumnMappingStep
+            columns={data.columns}
+            draft={draft}
+            errors={mapped.errors}
+            onChange={(d) => {
+              setDraft(d);
+              setAcknowledge(false);
+            }}
+          />
+          <div className="flex flex-wrap items-center gap-2">
+            <Button disabled={!mapped.mapping || busy} onClick={() => file && runPreview(file, parse, true)}>
+              Check all rows with this mapping
+            </Button>
+            {!checked && mapped.mapping && <span className="text-xs text-ink-600">Check the rows before importing.</span>}
+          </div>
+
+          {checked && <PreviewSummary preview={data} />}
+          {issues.length > 0 && <IssueTable issues={issues} total={importIssues || !checked ? issues.length : data.errorCount + data.warningCount} />}
+          {checked && (
+            <div className="flex flex-col gap-2">
+              {data.warningCount > 0 && data.errorCount === 0 && (
+                <label className="flex items-center gap-2 text-sm text-ink-800">
+                  <input type="checkbox" checked={acknowledge} onChange={(e) => setAcknowledge(e.target.checked)} />I have read the{' '}
+                  {data.warningCount} warning{data.warningCount === 1 ? '' : 's'} and want to import anyway
+                </label>
+              )}
+              <div className="flex items-center gap-3">
+                <Button
+                  variant="primary"
+                  disabled={busy || data.errorCount > 0 || data.validRowCount === 0 || (data.warningCount > 0 && !acknowledge)}
+                  onClick={doImport}
+                >
+                  Import {data.validRowCount} row{data.validRowCount === 1 ? '' : 's'}
+                </Button>
+                <span className="text-xs text-ink-600">
+                  {data.errorCount > 0
+                    ? `Nothing can be imported until the ${data.errorCount} error${data.errorCount === 1 ? ' is' : 's are'} fixed in the file (all or nothing).`
+                    : 'All rows are imported together, or none.'}
+                </span>
+              </div>
+              {importer.error && !importIssues && (
+                <p role="alert" className="text-sm font-medium text-rose-700">
+                  <span aria-hidden="true">✕ </span>
+                  {importer.error.message}
+                </p>
+              )}
+            </div>
+          )}
+        </div>
+      )}
+    </div>
+  );
+}
+
+function ParseSelect({ id, label, value, options, onChange }: { id: string; label: string; value: string; options: [string, string][]; onChange: (v: string) => void }) {
+  return (
+    <div className="flex flex-col gap-0.5">
+      <label htmlFor={id} className="text-xs font-medium text-ink-700">
+        {label}
+      </label>
+      <select id={id} value={value} onChange={(e) => onChange(e.target.value)} className="rounded border border-slate-300 bg-white px-1.5 py-1 text-sm">
+        {options.map(([v, t]) => (
+          <option key={v} value={v}>
+            {t}
+          </option>
+        ))}
+      </select>
+    </div>
+  );
+}
+
+function PreviewSummary({ preview }: { preview: ImportPreview }) {
+  return (
+    <section aria-label="Import preview" className="flex flex-col gap-2">
+      <p className="tnum text-sm text-ink-800">
+        <span className="font-medium">{preview.validRowCount}</span> of {preview.rowCount} rows ready ·{' '}
+        <span className={preview.errorCount ? 'font-medium text-rose-700' : ''}>
+          {preview.errorCount ? '✕ ' : ''}
+          {preview.errorCount} error{preview.errorCount === 1 ? '' : 's'}
+        </span>{' '}
+        ·{' '}
+        <span className={preview.warningCount ? 'font-medium text-caution-700' : ''}>
+          {preview.warningCount ? '⚠ ' : ''}
+          {preview.warningCount} warning{preview.warningCount === 1 ? '' : 's'}
+        </span>
+      </p>
+      {preview.rows.length > 0 && (
+        <div className="max-h-64 overflow-auto rounded border border-slate-200">
+          <table className="tnum w-full border-collapse text-right text-xs">
+            <caption className="sr-only">First rows as they would be stored</caption>
+            <thead className="sticky top-0 bg-slate-50 text-ink-600">
+              <tr className="border-b border-slate-200">
+                <th scope="col" className="px-2 py-1 font-medium">
+                  File row
+                </th>
+                <th scope="col" className="px-2 py-1 font-medium">
+                  T (°C)
+                </th>
+                <th scope="col" className="px-2 py-1 font-medium">
+                  T (K)
+                </th>
+                <th scope="col" className="px-2 py-1 text-left font-medium">
+                  Selectivity
+                </th>
+                <th scope="col" className="px-2 py-1 font-medium">
+                  ±
+                </th>
+                <th scope="col" className="px-2 py-1 text-left font-medium">
+                  Sample
+                </th>
+                <th scope="col" className="px-2 py-1 font-medium">
+                  Conv. (%)
+                </th>
+                <th scope="col" className="px-2 py-1 font-medium">
+                  Time (h)
+                </th>
+              </tr>
+            </thead>
+            <tbody>
+              {preview.rows.map((r) => (
+                <tr key={r.sourceRow} className="border-b border-slate-100">
+                  <td className="px-2 py-0.5 text-ink-500">{r.sourceRow}</td>
+                  <td className="px-2 py-0.5">{fixed(r.temperatureK - CELSIUS, 2)}</td>
+                  <td className="px-2 py-0.5 text-ink-600">{fixed(r.temperatureK, 2)}</td>
+                  <td className="px-2 py-0.5 text-left">
+                    {r.isLowerBound ? '≥ ' : ''}
+                    {r.valueB !== null ? `${r.value}:${r.valueB}` : r.value} {MEASURE_LABEL[r.measure]}
+                  </td>
+                  <td className="px-2 py-0.5">{r.uncertainty ?? '—'}</td>
+                  <td className="px-2 py-0.5 text-left">{r.sampleId ?? '—'}</td>
+                  <td className="px-2 py-0.5">{r.conversionPercent ?? '—'}</td>
+                  <td className="px-2 py-0.5">{r.reactionTimeS === null ? '—' : fixed(r.reactionTimeS / 3600, 2)}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      )}
+      {preview.rowCount > preview.rows.length && preview.rows.length > 0 && (
+        <p className="text-xs text-ink-500">
+          The first {preview.rows.length} rows are shown; all {preview.rowCount} were checked.
+        </p>
+      )}
+    </section>
+  );
+}
+
+export function IssueTable({ issues, total }: { issues: ImportIssue[]; total: number }) {
+  return (
+    <section aria-label="Problems in the file" className="flex flex-col gap-1">
+      <div className="max-h-64 overflow-auto rounded border border-slate-200">
+        <table className="w-full border-collapse text-left text-xs">
+          <caption className="sr-only">Problems found in the file, by row</caption>
+          <thead className="sticky top-0 bg-slate-50 text-ink-600">
+            <tr className="border-b border-slate-200">
+              <th scope="col" className="px-2 py-1 font-medium">
+                Kind
+              </th>
+              <th scope="col" className="px-2 py-1 text-right font-medium">
+                Row
+              </th>
+              <th scope="col" className="px-2 py-1 font-medium">
+                Column
+              </th>
+              <th scope="col" className="px-2 py-1 font-medium">
+                Problem
+              </th>
+            </tr>
+          </thead>
+          <tbody>
+            {issues.map((i, k) => (
+              <tr key={k} className={`border-b border-slate-100 align-top ${i.severity === 'error' ? 'bg-rose-50/60' : 'bg-caution-50'}`}>
+                <td className={`whitespace-nowrap px-2 py-0.5 font-medium ${i.severity === 'error' ? 'text-rose-700' : 'text-caution-700'}`}>
+                  {i.severity === 'error' ? '✕ error' : '⚠ warning'}
+                </td>
+                <td className="tnum px-2 py-0.5 text-right">{i.row ?? '—'}</td>
+                <td className="px-2 py-0.5">{i.column ?? '—'}</td>
+                <td className="px-2 py-0.5 text-ink-800">{i.message}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+      {total > issues.length && <p className="text-xs text-ink-500">{issues.length} of {total} problems listed.</p>}
+    </section>
+  );
+}
