@@ -56,6 +56,7 @@ export function LineChart({
   yLabel,
   yScale = 'linear',
   formatY,
+  yTicks,
   yDomain: fixedYDomain,
   height = 260,
   testId,
@@ -66,6 +67,8 @@ export function LineChart({
   yScale?: 'linear' | 'log';
   /** Text of a y value (ticks and tooltip). */
   formatY: (y: number) => string;
+  /** Tick values for a y domain (default: powers of ten on a log axis, automatic on a linear one). */
+  yTicks?: (domain: [number, number]) => number[];
   yDomain?: [number, number];
   height?: number;
   testId?: string;
@@ -97,7 +100,7 @@ export function LineChart({
           <XYChart
             width={width}
             height={height}
-            margin={{ top: 18, right: 20, bottom: 46, left: 70 }}
+            margin={{ top: 18, right: 20, bottom: 46, left: 78 }}
             theme={chartTheme}
             xScale={{ type: 'linear', domain: xDomain, zero: false }}
             yScale={yScale === 'log' ? { type: 'log', domain: yDomain, clamp: true } : { type: 'linear', domain: yDomain, zero: false, nice: true }}
@@ -144,9 +147,9 @@ export function LineChart({
             <Axis
               orientation="left"
               numTicks={5}
-              tickValues={yScale === 'log' ? logTicks(yDomain) : undefined}
+              tickValues={yTicks ? yTicks(yDomain) : yScale === 'log' ? logTicks(yDomain) : undefined}
               label={yLabel}
-              labelOffset={36}
+              labelOffset={42}
               labelProps={axisLabelProps}
               tickLabelProps={tickLabelProps}
               tickFormat={(v) => formatY(Number(v))}

@@ -137,7 +137,7 @@ export function ErosionForm({
           value={form.equilibriumRatio}
           onChange={(equilibriumRatio) => onChange({ equilibriumRatio })}
           errors={errors}
-          placeholder="racemization: 1"
+          placeholder="none"
           width="w-24"
           hint="Leave empty for racemization (K = 1); give K for epimerization towards another ratio."
         />

@@ -11,7 +11,7 @@ import { initialErosionForm, toErosionRequest, type ErosionFormState } from '../
 import { apiFieldErrors, unmatchedErrors } from '../lib/field-errors';
 import { ErosionForm, erosionFieldPaths } from './erosion-form';
 import { ProblemAlert } from './fields';
-import { compactNumber, EmptyResult, ResultNotes, Th } from './kinetics-parts';
+import { durationTick, durationTicks, EmptyResult, ResultNotes, sci, Th } from './kinetics-parts';
 
 type Point = ErosionResponse['points'][number];
 
@@ -74,13 +74,13 @@ function ErosionResult({ data }: { data: ErosionResponse }) {
   const hasFloor = data.points.some((p) => p.floorStatus !== null);
   const cls = data.atropisomerClass;
   const series: LineChartSeries[] = [
-    { key: 'half-life', label: 'ee half-life', points: data.points.map((p) => ({ x: p.celsius, y: p.eeHalfLife.s / 3600 })) },
+    { key: 'half-life', label: 'ee half-life', points: data.points.map((p) => ({ x: p.celsius, y: p.eeHalfLife.s })) },
     ...(hasFloor
       ? [
           {
             key: 'longest-hold',
             label: 'longest hold above the floor',
-            points: data.points.filter((p) => p.longestHold && p.longestHold.s > 0).map((p) => ({ x: p.celsius, y: p.longestHold!.s / 3600 })),
+            points: data.points.filter((p) => p.longestHold && p.longestHold.s > 0).map((p) => ({ x: p.celsius, y: p.longestHold!.s })),
           },
         ]
       : []),
@@ -105,9 +105,10 @@ function ErosionResult({ data }: { data: ErosionResponse }) {
       <LineChart
         title="ee half-life against temperature"
         series={series}
-        yLabel="Time (h, log scale)"
+        yLabel="Time (log scale)"
         yScale="log"
-        formatY={(h) => `${compactNumber(h)} h`}
+        yTicks={durationTicks}
+        formatY={durationTick}
         testId="erosion-chart"
       />
 
@@ -136,8 +137,8 @@ function ErosionResult({ data }: { data: ErosionResponse }) {
                 </td>
                 <td className="px-2 py-1">{fixed(p.celsius, 1)}</td>
                 <td className="px-2 py-1">{fixed(p.dG['kJ/mol'], 1)}</td>
-                <td className="px-2 py-1">{sig(p.kePerS, 3)}</td>
-                <td className="px-2 py-1">{sig(racemization ? (p.kRacPerS ?? 2 * p.kePerS) : p.kRelaxationPerS, 3)}</td>
+                <td className="px-2 py-1">{sci(p.kePerS)}</td>
+                <td className="px-2 py-1">{sci(racemization ? (p.kRacPerS ?? 2 * p.kePerS) : p.kRelaxationPerS)}</td>
                 <td className="px-2 py-1 font-medium text-ink-950">{p.eeHalfLife.text}</td>
                 {hasHold && <td className="px-2 py-1">{p.eeAfterHoldPercent === null ? '—' : percent(p.eeAfterHoldPercent)}</td>}
                 {hasFloor && <td className="px-2 py-1">{holdCell(p)}</td>}
@@ -147,7 +148,9 @@ function ErosionResult({ data }: { data: ErosionResponse }) {
         </table>
       </div>
       <p className="text-xs text-ink-600">
-        ee half-life here is the time for ee to halve, t½ = ln 2/(2k_e) = ln 2/k_rac{racemization ? '' : ' (epimerization: ln 2/(k_f + k_r), for the excess above its equilibrium value)'}.
+        {racemization
+          ? 'ee half-life here is the time for ee to halve: t½ = ln 2/(2k_e) = ln 2/k_rac.'
+          : 'Half-life here is the time for the excess’s distance from its equilibrium value to halve: t½ = ln 2/(k_f + k_r).'}
       </p>
       <ResultNotes warnings={data.warnings} definitions={data.definitions} assumptions={data.assumptions} />
       <p className="text-xs text-ink-600">{data.caution}</p>

@@ -24,6 +24,44 @@ export function compactNumber(value: number): string {
     .replace(/\.(\s|$)/, '$1');
 }
 
+/** A rate constant in scientific notation, three significant figures, so a column of them reads alike. */
+export function sci(value: number): string {
+  if (!Number.isFinite(value)) return '—';
+  if (value === 0) return '0';
+  return scientific(value);
+}
+
+function scientific(value: number): string {
+  const [mantissa, exponent] = value.toExponential(2).split('e');
+  const SUP: Record<string, string> = { '-': '⁻', '0': '⁰', '1': '¹', '2': '²', '3': '³', '4': '⁴', '5': '⁵', '6': '⁶', '7': '⁷', '8': '⁸', '9': '⁹' };
+  const power = String(Number(exponent))
+    .split('')
+    .map((c) => SUP[c] ?? c)
+    .join('');
+  return `${mantissa.replace('-', '\u2212')} × 10${power}`;
+}
+
+const SECOND = 1;
+const MINUTE = 60;
+const HOUR = 3600;
+const DAY = 86_400;
+const YEAR = 365.25 * DAY;
+/** Readable time marks for a log axis in seconds: 1 s, 10 s, 1 min, 10 min, 1 h, 10 h, 1 d, 10 d, 100 d, 1 y, 10 y … */
+const DURATION_MARKS = [1e-3, 1e-2, 0.1, SECOND, 10, MINUTE, 10 * MINUTE, HOUR, 10 * HOUR, DAY, 10 * DAY, 100 * DAY, YEAR, 10 * YEAR, 100 * YEAR, 1000 * YEAR];
+
+export function durationTicks([lo, hi]: [number, number]): number[] {
+  let marks = DURATION_MARKS.filter((t) => t >= lo * 0.999 && t <= hi * 1.001);
+  while (marks.length > 7) marks = marks.filter((_, i) => i % 2 === 0);
+  return marks;
+}
+
+/** A duration in seconds as a short axis label in the unit that reads best. */
+export function durationTick(seconds: number): string {
+  const [value, unit] =
+    seconds < MINUTE ? [seconds, 's'] : seconds < HOUR ? [seconds / MINUTE, 'min'] : seconds < DAY ? [seconds / HOUR, 'h'] : seconds < YEAR ? [seconds / DAY, 'd'] : [seconds / YEAR, 'y'];
+  return `${compactNumber(value)} ${unit}`;
+}
+
 /** From / to / how many: the temperature range every panel asks for. */
 export function RangeFields({
   from,

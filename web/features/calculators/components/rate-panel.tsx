@@ -10,7 +10,7 @@ import { useRate } from '../api/post-rate';
 import { apiFieldErrors, unmatchedErrors } from '../lib/field-errors';
 import { initialRateForm, toRateRequest, type RateFormState } from '../lib/rate-form';
 import { ProblemAlert } from './fields';
-import { compactNumber, EmptyResult, kUnitText, ResultNotes, Th } from './kinetics-parts';
+import { durationTick, durationTicks, EmptyResult, kUnitText, ResultNotes, sci, Th } from './kinetics-parts';
 import { RateForm, rateFieldPaths } from './rate-form';
 
 const SOURCE_TEXT: Record<RateResponse['activation']['source'], string> = {
@@ -79,14 +79,14 @@ function RateResult({ data }: { data: RateResponse }) {
     {
       key: 'main',
       label: data.sensitivity ? `ΔH‡ ${fixed(a.dH['kJ/mol'], 0)} kJ/mol (${SOURCE_TEXT[a.source]})` : `time to ${target} %`,
-      points: data.points.map((p) => ({ x: p.celsius, y: p.timeToTarget.s / 3600 })),
+      points: data.points.map((p) => ({ x: p.celsius, y: p.timeToTarget.s })),
     },
     ...variants
       .filter((v) => v.points)
       .map((v) => ({
         key: `dH-${v.dH['kJ/mol']}`,
         label: `ΔH‡ ${fixed(v.dH['kJ/mol'], 0)} kJ/mol`,
-        points: v.points!.map((p) => ({ x: p.celsius, y: p.timeToTarget.s / 3600 })),
+        points: v.points!.map((p) => ({ x: p.celsius, y: p.timeToTarget.s })),
         secondary: true,
       })),
   ];
@@ -106,7 +106,7 @@ function RateResult({ data }: { data: RateResponse }) {
         </dd>
         <dt className="text-ink-600">Arrhenius Ea</dt>
         <dd className="text-ink-950">
-          {fixed(a.ea['kJ/mol'], 1)} kJ/mol at {fixed(a.ea.kelvin, 1)} K <span className="text-ink-600">(Ea = ΔH‡ + RT)</span>
+          {fixed(a.ea['kJ/mol'], 1)} kJ/mol at {fixed(a.ea.kelvin, 2)} K <span className="text-ink-600">(Ea = ΔH‡ + RT)</span>
         </dd>
         {data.runs.map((r, i) => (
           <div key={i} className="contents">
@@ -122,9 +122,10 @@ function RateResult({ data }: { data: RateResponse }) {
       <LineChart
         title={`Time to ${target} % conversion against temperature`}
         series={series}
-        yLabel={`Time to ${target} % (h, log scale)`}
+        yLabel={`Time to ${target} % (log scale)`}
         yScale="log"
-        formatY={(h) => `${compactNumber(h)} h`}
+        yTicks={durationTicks}
+        formatY={durationTick}
         testId="rate-chart"
       />
       {data.sensitivity && <p className="text-xs text-ink-600">{data.sensitivity.note}</p>}
@@ -158,8 +159,8 @@ function RateResult({ data }: { data: RateResponse }) {
                   <span className="inline-block h-2 w-2 rounded-full align-middle" style={{ background: thermalColor(p.celsius) }} aria-hidden="true" />
                 </td>
                 <td className="px-2 py-1">{fixed(p.celsius, 1)}</td>
-                <td className="px-2 py-1">{sig(p.k, 3)}</td>
-                {data.order === 'pseudo-first' && <td className="px-2 py-1">{p.kObsPerS === null ? '—' : sig(p.kObsPerS, 3)}</td>}
+                <td className="px-2 py-1">{sci(p.k)}</td>
+                {data.order === 'pseudo-first' && <td className="px-2 py-1">{p.kObsPerS === null ? '—' : sci(p.kObsPerS)}</td>}
                 <td className="px-2 py-1">{p.halfLife.text}</td>
                 <td className="px-2 py-1 font-medium text-ink-950">{p.timeToTarget.text}</td>
                 {variants.map((v) => (
