@@ -1,9 +1,10 @@
 /** Feature benchmark suites run by scripts/bench/run.ts after the HTTP and engine suites. */
 import { importBenchSuite } from './imports';
+import { campaignAnalysisBenchSuite } from './campaign-analysis';
 
 export interface BenchSuite {
   name: string;
   run(): Promise<void>;
 }
 
-export const extraSuites: BenchSuite[] = [importBenchSuite];
+export const extraSuites: BenchSuite[] = [importBenchSuite, campaignAnalysisBenchSuite];

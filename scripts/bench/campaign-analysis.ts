@@ -1,0 +1,97 @@
+/**
+ * Campaign analysis benchmark: GET /api/v1/campaigns/:id/analysis over a campaign of 1 000 stored
+ * runs, through the whole app (bearer token, authorization, load, fit, two-branch check, 60-point
+ * curve, JSON). Reports p50/p99 of 200 sequential requests and req/s at 10 connections (autocannon),
+ * beside the time of the analysis alone (no HTTP, no database; best of 20 after warm-up).
+ *
+ * Needs DATABASE_URL (npm run bench provides a throwaway cluster).
+ */
+import '../../api/db/pg-types';
+import autocannon from 'autocannon';
+import type { AddressInfo } from 'node:net';
+import { randomBytes } from 'node:crypto';
+import { performance } from 'node:perf_hooks';
+import { createApp } from '../../api/app';
+import { loadConfig } from '../../api/config';
+import { bindModels, createKnex, migrateLatest } from '../../api/db/knex';
+import { computeAnalysis } from '../../api/features/campaigns/analysis';
+import { createToken } from '../../api/features/tokens/service';
+import { Campaign } from '../../api/models/campaign';
+import { Measurement } from '../../api/models/measurement';
+import type { BenchSuite } from './suites';
+
+const RUNS = 1000;
+const SEQUENTIAL = 200;
+const CONNECTIONS = 10;
+const DURATION_S = Number(process.env.BENCH_SECONDS ?? 8);
+
+const percentile = (sorted: number[], p: number) => sorted[Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1)]!;
+
+async function run() {
+  const knex = createKnex(process.env.DATABASE_URL!, { min: 0, max: 4 });
+  bindModels(knex);
+  await migrateLatest(knex);
+  try {
+    const tag = randomBytes(4).toString('hex');
+    const [user] = await knex('users').insert({ provider: 'local-demo', providerUserId: `bench-${tag}`, login: `bench-${tag}`, displayName: 'Bench user' }).returning('*');
+    const [project] = await knex('projects').insert({ name: `Bench project ${tag}`, description: 'Synthetic load, not demo data.', createdBy: user.id }).returning('*');
+    await knex('projectMembers').insert({ projectId: project.id, userId: user.id, role: 'owner' });
+    const campaign = await Campaign.query(knex)
+      .insert({ projectId: project.id, title: `Bench screen ${tag}`, productNameA: 'A', productNameB: 'B', measure: 'ee', assayMethod: 'chiral-hplc', defaultUncertainty: 0.3, status: 'active' })
+      .returning('*');
+    // Synthetic runs (not demo data): 40 temperatures from −80 to +40 °C, ln r = 1200/T − 1.2 with deterministic scatter.
+    const rows = Array.from({ length: RUNS }, (_, i) => {
+      const temperatureK = 193.15 + (i % 40) * 3;
+      const lnR = 1200 / temperatureK - 1.2 + 0.04 * Math.sin(i * 0.91);
+      return { campaignId: campaign.id, temperatureK, measure: 'ee', value: Math.round(10000 * Math.tanh(lnR / 2)) / 100, uncertainty: 0.3, createdByUserId: user.id };
+    });
+    for (let i = 0; i < rows.length; i += 500) await knex('measurements').insert(rows.slice(i, i + 500));
+    const { secret } = await createToken(user.id, { name: 'bench', expiresInDays: 1 });
+
+    const measurements = await Measurement.query(knex).where({ campaignId: campaign.id }).orderBy('temperatureK').orderBy('createdAt').orderBy('id');
+    let bestCompute = Infinity;
+    for (let k = 0; k < 20; k++) {
+      const t0 = performance.now();
+      computeAnalysis(campaign, measurements, { weighting: 'none', uncertaintyScale: 'absolute', confidence: 0.95 });
+      bestCompute = Math.min(bestCompute, performance.now() - t0);
+    }
+
+    const app = createApp({ knex, config: loadConfig({ nodeEnv: 'production', devTools: false }), webDist: null });
+    const server = await new Promise<import('node:http').Server>((resolve) => {
+      const s = app.listen(0, '127.0.0.1', () => resolve(s));
+    });
+    const url = `http://127.0.0.1:${(server.address() as AddressInfo).port}/api/v1/campaigns/${campaign.id}/analysis`;
+    const headers = { authorization: `Bearer ${secret}` };
+
+    const first = await fetch(url, { headers });
+    if (first.status !== 200) throw new Error(`analysis answered ${first.status}: ${await first.text()}`);
+    const body = (await first.json()) as { fit: { n: number } | null };
+    if (!body.fit || body.fit.n !== RUNS) throw new Error('the benchmark campaign did not fit every run');
+
+    const times: number[] = [];
+    for (let i = 0; i < SEQUENTIAL; i++) {
+      const t0 = performance.now();
+      const res = await fetch(url, { headers });
+      await res.arrayBuffer();
+      times.push(performance.now() - t0);
+      if (res.status !== 200) throw new Error(`analysis answered ${res.status}`);
+    }
+    times.sort((a, b) => a - b);
+
+    const load = await autocannon({ url, connections: CONNECTIONS, duration: DURATION_S, headers });
+    server.close();
+    if (load.non2xx > 0 || load.errors > 0) throw new Error(`${load.non2xx} non-2xx answers, ${load.errors} errors under load`);
+
+    console.log(`\nCampaign analysis: GET /campaigns/:id/analysis, ${RUNS} stored runs`);
+    console.log(`analysis alone (no HTTP, no DB), best of 20: ${bestCompute.toFixed(1)} ms`);
+    console.log(`${SEQUENTIAL} sequential requests: p50 ${percentile(times, 50).toFixed(1)} ms, p99 ${percentile(times, 99).toFixed(1)} ms`);
+    console.log(`${CONNECTIONS} connections, ${DURATION_S} s (autocannon): ${load.requests.average.toFixed(0)} req/s, p50 ${load.latency.p50} ms, p99 ${load.latency.p99} ms`);
+
+    await knex('projects').where({ id: project.id }).delete();
+    await knex('users').where({ id: user.id }).delete();
+  } finally {
+    await knex.destroy();
+  }
+}
+
+export const campaignAnalysisBenchSuite: BenchSuite = { name: 'campaign-analysis', run };
