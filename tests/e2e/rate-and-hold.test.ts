@@ -71,6 +71,8 @@ describe('the rate and hold page in Chromium (no sign-in)', () => {
     expect(cells[3]).toBe('2.94 × 10⁻⁶');
     expect(cells[4]).toBe('5.88 × 10⁻⁶');
     expect(cells[5]).toBe('32.8 h');
+    // [C] ee after 2 h = 99.5·exp(−2k_e·7200 s) = 95.4 %, under the 99 % floor: said in words, not colour alone.
+    expect(cells[6]).toBe('95.4✗ below floor');
     const erosion = page.locator('section').filter({ has: page.getByRole('heading', { name: 'Erosion during a hold' }) });
     expect(await erosion.textContent()).toContain('t½ = ln 2/(2k_e)');
     const stability = page.getByRole('region', { name: 'Stability class at 37 °C' });

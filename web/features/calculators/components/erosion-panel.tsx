@@ -59,7 +59,7 @@ export function ErosionPanel() {
           )}
           {data && (
             <div className={`flex flex-col gap-3 ${query.isPlaceholderData ? 'opacity-60' : ''}`}>
-              <ErosionResult data={data} />
+              <ErosionResult data={data} floorPercent={request?.eeFloorPercent ?? null} />
             </div>
           )}
         </div>
@@ -68,7 +68,7 @@ export function ErosionPanel() {
   );
 }
 
-function ErosionResult({ data }: { data: ErosionResponse }) {
+function ErosionResult({ data, floorPercent }: { data: ErosionResponse; floorPercent: number | null }) {
   const racemization = data.model === 'racemization';
   const hasHold = data.points.some((p) => p.eeAfterHoldPercent !== null);
   const hasFloor = data.points.some((p) => p.floorStatus !== null);
@@ -140,7 +140,14 @@ function ErosionResult({ data }: { data: ErosionResponse }) {
                 <td className="px-2 py-1">{sci(p.kePerS)}</td>
                 <td className="px-2 py-1">{sci(racemization ? (p.kRacPerS ?? 2 * p.kePerS) : p.kRelaxationPerS)}</td>
                 <td className="px-2 py-1 font-medium text-ink-950">{p.eeHalfLife.text}</td>
-                {hasHold && <td className="px-2 py-1">{p.eeAfterHoldPercent === null ? '—' : percent(p.eeAfterHoldPercent)}</td>}
+                {hasHold && (
+                  <td className="px-2 py-1">
+                    {p.eeAfterHoldPercent === null ? '—' : percent(p.eeAfterHoldPercent)}
+                    {p.eeAfterHoldPercent !== null && floorPercent !== null && p.eeAfterHoldPercent < floorPercent && (
+                      <span className="ml-1 text-xs font-medium text-caution-700">✗ below floor</span>
+                    )}
+                  </td>
+                )}
                 {hasFloor && <td className="px-2 py-1">{holdCell(p)}</td>}
               </tr>
             ))}
