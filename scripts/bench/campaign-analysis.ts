@@ -9,6 +9,7 @@
 import '../../api/db/pg-types';
 import autocannon from 'autocannon';
 import type { AddressInfo } from 'node:net';
+import type { Server } from 'node:http';
 import { randomBytes } from 'node:crypto';
 import { performance } from 'node:perf_hooks';
 import { createApp } from '../../api/app';
@@ -57,7 +58,7 @@ async function run() {
     }
 
     const app = createApp({ knex, config: loadConfig({ nodeEnv: 'production', devTools: false }), webDist: null });
-    const server = await new Promise<import('node:http').Server>((resolve) => {
+    const server = await new Promise<Server>((resolve) => {
       const s = app.listen(0, '127.0.0.1', () => resolve(s));
     });
     const url = `http://127.0.0.1:${(server.address() as AddressInfo).port}/api/v1/campaigns/${campaign.id}/analysis`;
