@@ -1,0 +1,37 @@
+import { describe, expect, it } from 'vitest';
+import { GAS_CONSTANT_J_PER_MOL_K as R } from '../../../api/science/constants';
+import { fitEyring, type EyringMeasurement } from '../../../api/science/eyring-fit';
+
+// Constructed screen [C]: ΔΔH‡ = 10 kJ/mol, ΔΔS‡ = 4 J/(mol K); ln r = ΔΔH‡/RT − ΔΔS‡/R (DOMAIN §1), small invented scatter.
+const lnR = (t: number) => 10_000 / (R * t) - 4 / R;
+const NOISE = [0.02, -0.03, 0.01, -0.015, 0.025];
+const screen: EyringMeasurement[] = [-40, -20, 0, 20, 40].map((c, i) => ({ temperatureK: c + 273.15, ratio: Math.exp(lnR(c + 273.15) + NOISE[i]!) }));
+
+describe('fitEyring with runs reported as bounds (atLeast)', () => {
+  it('when a run below the quantitation limit is marked atLeast, then it is censored as a lower bound and the line equals the fit without it', () => {
+    const bound: EyringMeasurement = { temperatureK: 213.15, ratio: 199, atLeast: true }; // "≥ 99.0 % ee"
+    const withBound = fitEyring([...screen, bound]);
+    const without = fitEyring(screen);
+    const p = withBound.points[5]!;
+    expect(p.status).toBe('censored');
+    expect(p.censoredBound).toBe('lower');
+    expect(withBound.nFitted).toBe(5);
+    expect(withBound.nCensored).toBe(1);
+    expect(withBound.ddHJPerMol).toBe(without.ddHJPerMol);
+    expect(withBound.ddSJPerMolK).toBe(without.ddSJPerMolK);
+    // [C] The line at −60 °C gives ln r ≈ 10 000/(R·213.15) − 4/R ≈ 5.16, below ln 199 ≈ 5.29: the bound disagrees.
+    expect(p.lineLnRatio).toBeCloseTo(5.16, 1);
+    expect(p.boundConsistent).toBe(false);
+  });
+
+  it('when the same run is not marked, then it is fitted like any other', () => {
+    const fit = fitEyring([...screen, { temperatureK: 213.15, ratio: 199 }]);
+    expect(fit.points[5]!.status).toBe('fitted');
+    expect(fit.nFitted).toBe(6);
+  });
+
+  it('when a run favouring B is marked atLeast, then it bounds r from above', () => {
+    const fit = fitEyring([...screen, { temperatureK: 213.15, ratio: 1 / 50, atLeast: true }]);
+    expect(fit.points[5]).toMatchObject({ status: 'censored', censoredBound: 'upper' });
+  });
+});
