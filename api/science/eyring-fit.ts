@@ -11,7 +11,7 @@ import { DomainError, requireFinite, requireFiniteResult, requireTemperatureK, t
 import { zeroSelectivityTemperatureK } from './forecast';
 import { fitLine, normalQuantile, predictLine, requireConfidenceLevel, studentTQuantile, type LineFit, type SigmaMode } from './regression';
 import { SIGN_CONVENTION } from './selectivity';
-import { kelvinToCelsius } from './units';
+import { describeTemperatureK, kelvinToCelsius } from './units';
 
 export { SIGN_CONVENTION as EYRING_CONVENTION };
 
@@ -471,7 +471,7 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
 function extrapolationWarning(fit: EyringFit, count: number): Warning {
   return {
     code: 'extrapolation',
-    message: `${count} prediction(s) lie outside the screened ${fit.temperatureRangeK.min.toFixed(1)}–${fit.temperatureRangeK.max.toFixed(1)} K; they assume the same straight line continues, which a change of mechanism would break.`,
+    message: `${count} prediction(s) lie outside the screened ${describeTemperatureK(fit.temperatureRangeK.min)} to ${describeTemperatureK(fit.temperatureRangeK.max)}; they assume the same straight line continues, which a change of mechanism would break.`,
   };
 }
 

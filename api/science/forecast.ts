@@ -5,7 +5,7 @@
 import { GAS_CONSTANT_J_PER_MOL_K as R } from './constants';
 import { DomainError, requireFinite, requireTemperatureK } from './errors';
 import { parseSelectivity, ratioFromDdG, SIGN_CONVENTION, type SelectivityInput } from './selectivity';
-import { kelvinToCelsius, temperatureToK, type TemperatureUnit } from './units';
+import { describeTemperatureK, kelvinToCelsius, temperatureToK, type TemperatureUnit } from './units';
 
 /** The three ways a forecast can be anchored. ΔΔS‡ defaults to 0 in the one-temperature forms. */
 export type ForecastBasis =
@@ -115,7 +115,7 @@ export function forecastSelectivity(basis: ForecastBasis, temperaturesK: readonl
   const t0 = zeroSelectivityTemperatureK(ddH, ddS);
   if (t0 !== null) {
     assumptions.push(
-      `Selectivity vanishes at T₀ = ΔΔH‡/ΔΔS‡ ≈ ${t0.toFixed(1)} K and inverts beyond it; this is usually a far extrapolation of a straight line and should be read as such.`,
+      `Selectivity vanishes at T₀ = ΔΔH‡/ΔΔS‡ ≈ ${describeTemperatureK(t0)} and inverts beyond it; this is usually a far extrapolation of a straight line and should be read as such.`,
     );
   }
   if (!Array.isArray(temperaturesK) || temperaturesK.length === 0) {

@@ -9,7 +9,7 @@ import { resolveBarrier, type BarrierSpec } from './activation';
 import { BOLTZMANN_OVER_PLANCK_PER_K_S, GAS_CONSTANT_J_PER_MOL_K as R } from './constants';
 import { DomainError, requireFinite, requireFiniteResult, requirePositive, requireTemperatureK, type Warning } from './errors';
 import { MAX_TEMPERATURE_COUNT } from './forecast';
-import { kelvinToCelsius } from './units';
+import { describeTemperatureK, kelvinToCelsius } from './units';
 
 export type KineticOrder = 'first' | 'pseudo-first' | 'second';
 
@@ -260,7 +260,7 @@ export function forecastRate(
       const g = gibbsBarrierFromRateConstant(k, basis.run.temperatureK, kappa);
       s = (h - g) / basis.run.temperatureK;
       assumptions.push(
-        `ΔH‡ assumed ${(h / 1000).toFixed(1)} kJ/mol (not measured); ΔS‡ follows from the one run. Rates away from ${basis.run.temperatureK.toFixed(1)} K depend directly on this assumption: try a range of values.`,
+        `ΔH‡ assumed ${(h / 1000).toFixed(1)} kJ/mol (not measured); ΔS‡ follows from the one run. Rates away from ${describeTemperatureK(basis.run.temperatureK)} depend directly on this assumption: try a range of values.`,
       );
       break;
     }

@@ -22,6 +22,7 @@ import {
 import type { Warning } from './errors';
 import { fitLine, type LineFit } from './regression';
 import { SIGN_CONVENTION } from './selectivity';
+import { describeTemperatureK } from './units';
 
 export interface TwoBranchOptions {
   weighting?: EyringWeighting;
@@ -190,7 +191,7 @@ export function fitTwoBranch(measurements: readonly EyringMeasurement[], options
     // Accept a crossing only between the innermost runs of the two branches, widened by one gap on each side.
     if (xStar > 0 && Number.isFinite(tStar) && tStar >= lowInnerT - gap && tStar <= highInnerT + gap) {
       isoinversionTemperatureK = tStar;
-      isoinversionNote = `The branch lines cross at ${tStar.toFixed(1)} K, between the branches (${lowInnerT.toFixed(1)}–${highInnerT.toFixed(1)} K): the isoinversion temperature, where selectivity has its extremum.`;
+      isoinversionNote = `The branch lines cross at ${describeTemperatureK(tStar)}, between the branches (${lowInnerT.toFixed(1)}–${highInnerT.toFixed(1)} K): the isoinversion temperature, where selectivity has its extremum.`;
     } else {
       isoinversionNote = `The branch lines do not cross near the break (${lowInnerT.toFixed(1)}–${highInnerT.toFixed(1)} K)${
         xStar > 0 && Number.isFinite(tStar) ? `; their crossing at ${tStar.toFixed(0)} K is far from the break` : ''

@@ -111,3 +111,9 @@ export function temperatureFromK(kelvin: number, unit: TemperatureUnit, field = 
 export function kelvinToCelsius(kelvin: number): number {
   return kelvin - CELSIUS_OFFSET_K;
 }
+
+/** A temperature for messages: kelvin to 0.01 K with degrees Celsius beside it, e.g. "273.15 K (0.0 °C)". */
+export function describeTemperatureK(kelvin: number): string {
+  const celsius = kelvin - CELSIUS_OFFSET_K;
+  return `${kelvin.toFixed(2)} K (${(Math.abs(celsius) < 0.05 ? 0 : celsius).toFixed(1).replace('-', '−')} °C)`;
+}
