@@ -78,14 +78,12 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
           )}
         </Panel>
 
-        <div className="grid gap-4 xl:grid-cols-2">
-          <Panel title="Forecast">
-            <ForecastPanel campaignId={campaign.id} analysis={analysis.data} atCelsius={atCelsius} onAt={setAtCelsius} weighting={weighting} canEdit={canEdit} />
-          </Panel>
-          <Panel title="Saved forecasts">
-            <SavedForecasts campaignId={campaign.id} canEdit={canEdit} />
-          </Panel>
-        </div>
+        <Panel title="Forecast at a proposed temperature">
+          <ForecastPanel campaignId={campaign.id} analysis={analysis.data} atCelsius={atCelsius} onAt={setAtCelsius} weighting={weighting} canEdit={canEdit} />
+        </Panel>
+        <Panel title="Saved forecasts">
+          <SavedForecasts campaignId={campaign.id} canEdit={canEdit} />
+        </Panel>
 
         <Panel title={`Measurements${measurements.data ? ` (${measurements.data.length})` : ''}`}>
           {measurements.isPending && <p className="text-sm text-ink-500">Loading measurements…</p>}

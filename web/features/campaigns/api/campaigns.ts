@@ -9,7 +9,11 @@ export const listCampaigns = (projectId: string) =>
 export const campaignsQueryOptions = (projectId: string) => queryOptions({ queryKey: campaignKeys.list(projectId), queryFn: () => listCampaigns(projectId) });
 export const useCampaigns = (projectId: string) => useQuery(campaignsQueryOptions(projectId));
 
-export const getCampaign = (campaignId: string) => api<CampaignWithRole>(`/api/v1/campaigns/${campaignId}`);
+/**
+ * The ETag names the campaign's version only, but the body carries the caller's role: a browser
+ * revalidating with If-None-Match would get a 304 and reuse another account's role. Never cached.
+ */
+export const getCampaign = (campaignId: string) => api<CampaignWithRole>(`/api/v1/campaigns/${campaignId}`, { cache: 'no-store' });
 export const campaignQueryOptions = (campaignId: string) => queryOptions({ queryKey: campaignKeys.detail(campaignId), queryFn: () => getCampaign(campaignId) });
 export const useCampaign = (campaignId: string) => useQuery(campaignQueryOptions(campaignId));
 

@@ -114,19 +114,22 @@ export function CampaignAnalysis({
         <section aria-label="Fitted parameters" className="flex flex-col gap-3">
           <h3 className="text-sm font-semibold text-ink-900">Parameters (B − A)</h3>
           <FitParameterTable fit={fit} />
-          {at && <DdGAt prediction={at} confidence={fit.confidence} />}
-          {fit.zeroSelectivity && (
-            <p className="tnum text-sm text-ink-700">
-              Selectivity would vanish at {fixed(fit.zeroSelectivity.celsius, 0)} °C ({fixed(fit.zeroSelectivity.kelvin, 0)} K). {fit.zeroSelectivity.note}
-            </p>
+          {at ? (
+            <DdGAt prediction={at} confidence={fit.confidence} />
+          ) : (
+            <p className="text-xs text-ink-600">ΔΔG‡ at another temperature: type it in the forecast panel below.</p>
           )}
         </section>
-        <section aria-label="Residual diagnostics" className="flex min-w-0 flex-col gap-3">
-          <h3 className="text-sm font-semibold text-ink-900">Residual diagnostics</h3>
-          <ResidualDiagnostics analysis={analysis} measurements={measurements} />
-          {fit.twoBranch && <TwoBranchBox twoBranch={fit.twoBranch} />}
-        </section>
+        <div className="flex min-w-0 flex-col gap-3">{fit.twoBranch && <TwoBranchBox twoBranch={fit.twoBranch} />}</div>
       </div>
+      <section aria-label="Residual diagnostics" className="flex min-w-0 flex-col gap-2">
+        <h3 className="text-sm font-semibold text-ink-900">Residual diagnostics</h3>
+        <ResidualDiagnostics analysis={analysis} measurements={measurements} />
+        <p className="text-xs text-ink-600">
+          Residuals are in ln r (measured − fitted). A run is flagged (⚑, ringed on the plot) when its studentized residual exceeds 3 in size,
+          its leverage is high or its Cook’s distance exceeds 1; exclude it in the measurement grid with a reason if the run itself was faulty.
+        </p>
+      </section>
     </div>
   );
 }
@@ -167,7 +170,7 @@ function ResidualDiagnostics({ analysis, measurements }: { analysis: AnalysisRes
   const byId = new Map(measurements.map((m) => [m.id, m]));
   const residuals = analysis.fit?.residuals ?? [];
   return (
-    <div className="max-h-80 overflow-auto rounded border border-slate-200">
+    <div className="max-h-96 overflow-auto rounded border border-slate-200">
       <table className="tnum w-full border-collapse text-right text-xs">
         <caption className="sr-only">Residuals and flags for each run</caption>
         <thead className="sticky top-0 bg-slate-50 text-ink-600">
@@ -205,7 +208,8 @@ function ResidualDiagnostics({ analysis, measurements }: { analysis: AnalysisRes
           {analysis.points.map((p, i) => {
             const r = residuals[i];
             const m = byId.get(p.measurementId);
-            const flags = r?.flags ?? [];
+            // Exclusions and bounds are shown as the status; only the diagnostic flags go beside it.
+            const flags = (r?.flags ?? []).filter((f) => !f.startsWith('excluded') && !f.startsWith('censored'));
             const flagged = p.flagged;
             return (
               <tr key={p.measurementId} className={`border-b border-slate-100 ${flagged ? 'bg-caution-50' : ''} ${p.status === 'excluded' ? 'text-ink-500' : ''}`}>

@@ -14,6 +14,8 @@ import { CampaignFields } from './campaign-fields';
 /** What the campaign is, at a glance; editors open an edit form that checks the version it read. */
 export function CampaignHeader({ campaign, canEdit }: { campaign: CampaignWithRole; canEdit: boolean }) {
   const [editing, setEditing] = useState(false);
+  // Bumped to reopen the form on the current version after a conflict (never on a background refresh).
+  const [formKey, setFormKey] = useState(0);
   return (
     <div className="flex flex-col gap-3">
       <dl className="tnum grid grid-cols-2 gap-x-6 gap-y-1 text-sm sm:grid-cols-3 lg:grid-cols-6">
@@ -42,7 +44,7 @@ export function CampaignHeader({ campaign, canEdit }: { campaign: CampaignWithRo
           <Button onClick={() => setEditing(true)}>Edit campaign details</Button>
         </div>
       )}
-      {canEdit && editing && <EditCampaignForm key={campaign.version} campaign={campaign} onDone={() => setEditing(false)} />}
+      {canEdit && editing && <EditCampaignForm key={formKey} campaign={campaign} onDone={() => setEditing(false)} onReloaded={() => setFormKey((k) => k + 1)} />}
     </div>
   );
 }
@@ -56,7 +58,7 @@ function Item({ term, detail }: { term: string; detail: ReactNode }) {
   );
 }
 
-function EditCampaignForm({ campaign, onDone }: { campaign: CampaignWithRole; onDone: () => void }) {
+function EditCampaignForm({ campaign, onDone, onReloaded }: { campaign: CampaignWithRole; onDone: () => void; onReloaded: () => void }) {
   // The version the form was opened at: a save checks it, so nobody overwrites a change unseen.
   const [base] = useState(campaign);
   const [values, setValues] = useState<CampaignFormValues>(() => valuesFromCampaign(campaign));
@@ -103,8 +105,7 @@ function EditCampaignForm({ campaign, onDone }: { campaign: CampaignWithRole; on
           </span>
           <Button
             onClick={() => {
-              void client.invalidateQueries({ queryKey: campaignKeys.detail(campaign.id) });
-              onDone();
+              void client.refetchQueries({ queryKey: campaignKeys.detail(campaign.id) }).then(onReloaded);
             }}
           >
             Reload the current version

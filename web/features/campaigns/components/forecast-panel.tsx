@@ -124,7 +124,7 @@ export function ForecastPanel({
               aria-describedby={error ? `${id}-err` : undefined}
               className={`tnum w-24 rounded border px-2 py-1 text-right text-sm ${error ? 'border-rose-600 bg-rose-50' : 'border-slate-300 bg-white'}`}
             />
-            <select aria-label="Unit of the proposed temperature" value={unit} onChange={(e) => setUnit(e.target.value as TemperatureUnit)} className="rounded border border-slate-300 bg-white px-1 py-1 text-sm">
+            <select aria-label="Unit of the forecast temperature" value={unit} onChange={(e) => setUnit(e.target.value as TemperatureUnit)} className="rounded border border-slate-300 bg-white px-1 py-1 text-sm">
               {(['C', 'K', 'F'] as const).map((u) => (
                 <option key={u} value={u}>
                   {UNIT_TEXT[u]}

@@ -362,6 +362,7 @@ export function MeasurementGrid({
                             onChange={(t) => setCell(row, col, t)}
                             onKeyDown={(e) => onKeyDown(e, rowIndex, colIndex, row, col)}
                             onPaste={(e) => onPaste(e, rowIndex, colIndex)}
+                            subtle={!!row.stored && !row.dirty}
                           />
                         ) : (
                           <span className={`block px-1 py-0.5 ${NUMERIC.includes(col) ? 'text-right' : ''} ${col === 'notes' ? 'max-w-xs truncate' : ''}`}>
@@ -557,7 +558,10 @@ function GridInput({
   onChange,
   onKeyDown,
   onPaste,
+  subtle,
 }: {
+  /** Stored, unchanged cells look like text until hovered or focused; new and edited cells look like inputs. */
+  subtle: boolean;
   cell: string;
   label: string;
   value: string;
@@ -584,7 +588,11 @@ function GridInput({
         onKeyDown={onKeyDown}
         onPaste={onPaste}
         className={`${width} rounded border px-1.5 py-0.5 text-sm ${numeric ? 'text-right' : ''} ${
-          error ? 'border-rose-600 bg-rose-50' : 'border-transparent bg-transparent hover:border-slate-300 focus:border-fjord-600 focus:bg-white'
+          error
+            ? 'border-rose-600 bg-rose-50'
+            : subtle
+              ? 'border-transparent bg-transparent hover:border-slate-300 focus:border-fjord-600 focus:bg-white'
+              : 'border-slate-300 bg-white focus:border-fjord-600'
         }`}
       />
       {error && (

@@ -39,7 +39,7 @@ function EeAt({ c }: { c: ComparisonCampaign | undefined }) {
 /** The project's campaigns with their fitted ΔΔH‡ and the forecast at one chosen temperature, and a side-by-side comparison. */
 export function ProjectCampaigns({ projectId, canEdit }: { projectId: string; canEdit: boolean }) {
   const atId = useId();
-  const [atText, setAtText] = useState('-20');
+  const [atText, setAtText] = useState('−20');
   const [creating, setCreating] = useState(false);
   const [picked, setPicked] = useState<string[] | null>(null);
   const parsedAt = parseNumber(atText);

@@ -1,0 +1,193 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import path from 'node:path';
+import type { Page } from 'playwright-core';
+import { closeTestKnex } from '../support/db';
+import { openBrowser, maybeScreenshot, type BrowserSession } from '../support/browser';
+import { startAuthApp, type AuthTestApp } from '../support/auth';
+import { createUser, type TestIdentity } from '../factories/users';
+import { createProject } from '../factories/projects';
+
+let env: AuthTestApp;
+let browser: BrowserSession;
+
+beforeAll(async () => {
+  env = await startAuthApp({ webDist: path.resolve('dist/web') });
+  browser = await openBrowser(env.app);
+  // A missing element fails with its locator named instead of running into the test timeout.
+  browser.page.setDefaultTimeout(15_000);
+});
+
+afterAll(async () => {
+  await browser?.close();
+  await env?.close();
+  await closeTestKnex();
+});
+
+/** Sign in through the local provider as `who`, landing on `returnPath`. */
+async function signInAs(page: Page, baseUrl: string, who: TestIdentity, returnPath: string) {
+  await page.context().clearCookies();
+  await page.goto(baseUrl + returnPath);
+  await page.getByRole('main').getByRole('link', { name: 'Sign in' }).click();
+  await page.getByRole('link', { name: 'Sign in with GitHub' }).click();
+  await page.getByLabel('Display name').fill(who.name);
+  await page.getByLabel('Login').fill(who.login);
+  await page.getByLabel('E-mail').fill(who.email);
+  await page.getByRole('button', { name: 'Continue', exact: true }).click();
+  await page.waitForURL(baseUrl + returnPath);
+}
+
+async function signOut(page: Page) {
+  await page.locator('summary').click();
+  await page.getByRole('button', { name: 'Sign out' }).click();
+  await expect.poll(() => page.getByRole('banner').getByRole('link', { name: 'Sign in' }).isVisible()).toBe(true);
+}
+
+describe('campaign pages in Chromium', () => {
+  it('when an editor creates a campaign and uploads the demo CSV, then the fit, charts and a saved forecast appear; a viewer sees them read-only', async () => {
+    const { page, baseUrl } = browser;
+    const editorId = { login: `ed-${Date.now().toString(36)}`, name: 'Edda Editor', email: `ed-${Date.now().toString(36)}@example.test` };
+    const viewerId = { login: `vw-${Date.now().toString(36)}`, name: 'Vik Viewer', email: `vw-${Date.now().toString(36)}@example.test` };
+    const owner = await createUser({ name: 'Olga Owner' });
+    const editor = await createUser(editorId);
+    const viewer = await createUser(viewerId);
+    const project = await createProject(
+      [
+        { user: owner, role: 'owner' },
+        { user: editor, role: 'editor' },
+        { user: viewer, role: 'viewer' },
+      ],
+      { name: 'Kestrelmoor KL-7702 screens (invented)', description: 'Invented demo project for the browser test.' },
+    );
+
+    // The editor finds the project from the projects list.
+    await signInAs(page, baseUrl, editorId, '/projects');
+    await page.getByRole('link', { name: 'Kestrelmoor KL-7702 screens (invented)', exact: true }).click();
+    await page.waitForURL(`${baseUrl}/projects/${project.id}`);
+    await expect.poll(() => page.getByText('No campaigns yet.').isVisible()).toBe(true);
+    await maybeScreenshot(page, 'campaigns-project-empty');
+
+    // New campaign: a client-side check first, then created and opened.
+    await page.getByRole('button', { name: 'New campaign' }).click();
+    await page.getByRole('button', { name: 'Create campaign' }).click();
+    await expect.poll(() => page.getByText('title is required').isVisible()).toBe(true);
+    expect(await page.getByLabel('Title').getAttribute('aria-invalid')).toBe('true');
+    await page.getByLabel('Title').fill('Skylark-Phos in methanol (invented)');
+    await page.getByLabel('Product A (numerator)').fill('(S)-amide');
+    await page.getByLabel('Product B').fill('(R)-amide');
+    await page.getByLabel('Default uncertainty (% ee)').fill('0.3');
+    await page.getByRole('button', { name: 'Create campaign' }).click();
+    await page.waitForURL(/\/campaigns\/[0-9a-f-]+$/);
+    const campaignUrl = page.url();
+    await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toBe('Skylark-Phos in methanol (invented)');
+    await expect.poll(() => page.getByText('Fewer than', { exact: false }).or(page.getByText('No fit yet', { exact: false })).first().isVisible()).toBe(true);
+
+    // A cell is checked as typed, with the reason beside it.
+    await page.getByRole('button', { name: 'Add row' }).click();
+    await page.getByLabel('Temperature, row 1').fill('-300');
+    await page.getByLabel('Selectivity, row 1').fill('101');
+    await expect.poll(() => page.getByLabel('Temperature, row 1').getAttribute('aria-invalid')).toBe('true');
+    expect(await page.getByRole('table', { name: 'Measurements' }).textContent()).toContain('absolute zero');
+    expect(await page.getByRole('table', { name: 'Measurements' }).textContent()).toContain('outside −100 to 100 %');
+    await maybeScreenshot(page, 'campaigns-grid-errors');
+    await page.getByRole('button', { name: 'Discard changes' }).click();
+
+    // Upload the demo CSV: detected, mapped from its headers, checked, imported with progress.
+    await page.getByLabel(/CSV, TSV or Excel workbook/).setInputFiles(path.resolve('samples/kestrelmoor-skylark-screen.csv'));
+    await expect.poll(() => page.getByRole('table', { name: 'Column mapping' }).isVisible()).toBe(true);
+    await expect.poll(() => page.getByRole('region', { name: 'Import preview' }).textContent()).toContain('12 of 12 rows ready');
+    await maybeScreenshot(page, 'campaigns-upload-preview');
+    await page.getByRole('button', { name: 'Import 12 rows' }).click();
+    await expect.poll(() => page.getByText(/Imported 12 rows at 6 temperatures/).isVisible()).toBe(true);
+
+    // The fit: parameters with the convention, the charts, and the grid.
+    const parameters = page.getByRole('table', { name: 'Fitted activation parameters' });
+    await expect.poll(() => parameters.isVisible(), { timeout: 15_000 }).toBe(true);
+    expect(await parameters.textContent()).toMatch(/ΔΔH‡\+1[34]\.\d+ ± \d/);
+    expect(await page.getByRole('main').textContent()).toContain('Sign convention:');
+    await expect.poll(() => page.locator('svg[aria-label^="Eyring plot"]').count()).toBeGreaterThan(0);
+    await expect.poll(() => page.locator('svg[aria-label^="Selectivity against temperature"]').count()).toBeGreaterThan(0);
+    await expect.poll(() => page.getByRole('table', { name: 'Measurements' }).getByRole('row').count()).toBe(13);
+
+    // Exclude a point with a reason: it stays, marked as excluded.
+    await page.getByRole('button', { name: 'Exclude row 1 from the fit' }).click();
+    await page.getByLabel(/Why exclude row 1/).fill('bath drifted 3 K during the run');
+    await page.getByRole('button', { name: 'Exclude', exact: true }).click();
+    await expect.poll(() => page.getByRole('table', { name: 'Measurements' }).textContent()).toContain('“bath drifted 3 K during the run”');
+    await expect.poll(() => page.getByRole('region', { name: 'Residual diagnostics' }).textContent()).toContain('excluded: bath drifted 3 K');
+
+    // Forecast at −30 °C, with its interval and the caution, saved with a note.
+    await page.getByRole('textbox', { name: 'Proposed temperature' }).fill('-30');
+    await page.getByRole('button', { name: 'Forecast', exact: true }).click();
+    const prediction = page.getByRole('region', { name: 'Prediction at the proposed temperature' });
+    await expect.poll(() => prediction.textContent(), { timeout: 15_000 }).toContain('At −30.0 °C');
+    expect(await prediction.textContent()).toMatch(/95 % prediction interval 9\d\.\d+ to 9\d\.\d+ %/);
+    expect(await prediction.getByRole('note', { name: 'Safety caution' }).isVisible()).toBe(true);
+    await page.getByLabel('Note', { exact: true }).fill('try on 5 g before scale-up');
+    await page.getByRole('button', { name: 'Save forecast at −30.0 °C' }).click();
+    const saved = page.getByRole('table', { name: 'Saved forecasts' });
+    await expect.poll(() => saved.textContent()).toContain('try on 5 g before scale-up');
+    expect(await saved.textContent()).toContain('−30.0');
+    expect(await saved.textContent()).toContain('no run yet');
+    await maybeScreenshot(page, 'campaigns-campaign-editor');
+
+    // Back on the project page the campaign is listed with its fit and forecast.
+    await page.getByRole('link', { name: /Kestrelmoor KL-7702 screens/ }).click();
+    const list = page.getByRole('table', { name: 'Campaigns of the project' });
+    await expect.poll(() => list.textContent()).toContain('Skylark-Phos in methanol (invented)');
+    await expect.poll(() => list.textContent()).toMatch(/12 \(11\)/);
+    await expect.poll(() => page.getByRole('table', { name: 'Side-by-side comparison' }).textContent()).toContain('ΔΔH‡ (kJ/mol)');
+    await maybeScreenshot(page, 'campaigns-project');
+    await signOut(page);
+
+    // A viewer sees the same results but no control that changes anything.
+    await signInAs(page, baseUrl, viewerId, new URL(campaignUrl).pathname);
+    await expect.poll(() => page.getByRole('table', { name: 'Fitted activation parameters' }).isVisible(), { timeout: 15_000 }).toBe(true);
+    await expect.poll(() => page.getByRole('table', { name: 'Saved forecasts' }).textContent()).toContain('try on 5 g before scale-up');
+    expect(await page.getByRole('main').textContent()).toContain('Your role○viewer');
+    expect(await page.getByRole('table', { name: 'Measurements' }).textContent()).toContain('KL7702-S-001');
+    expect(await page.getByRole('table', { name: 'Measurements' }).locator('input').count()).toBe(0);
+    for (const name of ['Add row', 'Edit campaign details', 'Import 12 rows', /^Exclude row/, /^Delete/]) {
+      expect(await page.getByRole('button', { name }).count()).toBe(0);
+    }
+    expect(await page.getByLabel(/CSV, TSV or Excel workbook/).count()).toBe(0);
+    expect(await page.getByRole('link', { name: 'Download spreadsheet report' }).getAttribute('href')).toMatch(/\/api\/v1\/campaigns\/[0-9a-f-]+\/report\.xlsx$/);
+    // A forecast can be looked at, not saved.
+    await page.getByRole('textbox', { name: 'Proposed temperature' }).fill('-10');
+    await page.getByRole('button', { name: 'Forecast', exact: true }).click();
+    await expect.poll(() => page.getByRole('region', { name: 'Prediction at the proposed temperature' }).textContent(), { timeout: 15_000 }).toContain('At −10.0 °C');
+    expect(await page.getByRole('button', { name: /^Save forecast/ }).count()).toBe(0);
+    await maybeScreenshot(page, 'campaigns-campaign-viewer');
+    await page.goto(`${baseUrl}/projects/${project.id}`);
+    await expect.poll(() => page.getByRole('table', { name: 'Campaigns of the project' }).isVisible()).toBe(true);
+    expect(await page.getByRole('button', { name: 'New campaign' }).count()).toBe(0);
+    await signOut(page);
+  }, 120_000);
+
+  it('when someone else changed the campaign first, then saving the edit form says so and offers a reload', async () => {
+    const { page, baseUrl } = browser;
+    const who = { login: `ce-${Date.now().toString(36)}`, name: 'Cora Concurrent', email: `ce-${Date.now().toString(36)}@example.test` };
+    const editor = await createUser(who);
+    const project = await createProject([{ user: editor, role: 'owner' }], { name: 'Concurrency check (invented)' });
+    const { createCampaign } = await import('../factories/campaigns');
+    const campaign = await createCampaign(project.id, { title: 'Version race (invented)' });
+
+    await signInAs(page, baseUrl, who, `/campaigns/${campaign.id}`);
+    await page.getByRole('button', { name: 'Edit campaign details' }).click();
+    await page.getByLabel('Title').fill('Version race, my title (invented)');
+    // Meanwhile the row moves on.
+    const { testKnex } = await import('../support/db');
+    await testKnex()('campaigns').where({ id: campaign.id }).update({ title: 'Their title (invented)', version: campaign.version + 1 });
+    await page.getByRole('button', { name: 'Save details' }).click();
+    await expect.poll(() => page.getByRole('alert').first().textContent()).toContain('Changed by someone else — reload');
+    expect(await page.getByRole('alert').first().textContent()).toContain(`now at version ${campaign.version + 1}`);
+    // My typed title is still in the form until I choose to reload.
+    expect(await page.getByLabel('Title').inputValue()).toBe('Version race, my title (invented)');
+    await page.getByRole('button', { name: 'Reload the current version' }).click();
+    await expect.poll(() => page.getByLabel('Title').inputValue()).toBe('Their title (invented)');
+    expect(await page.getByRole('form', { name: 'Edit campaign' }).textContent()).toContain(`Editing version ${campaign.version + 1}`);
+    await page.getByLabel('Title').fill('Their title, then mine (invented)');
+    await page.getByRole('button', { name: 'Save details' }).click();
+    await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toBe('Their title, then mine (invented)');
+    await signOut(page);
+  }, 60_000);
+});
