@@ -10,6 +10,7 @@ import {
   type TemperatureUnit,
   type TimeUnit,
 } from '../../../../api/features/campaigns/schemas';
+import { tidyMessage } from '../../calculators/lib/field-errors';
 import type { Measurement } from '../api/types';
 
 export const GRID_COLUMNS = ['temperature', 'value', 'uncertainty', 'sampleId', 'replicateLabel', 'conversionPercent', 'reactionTime', 'notes'] as const;
@@ -310,7 +311,7 @@ export function rowErrorsToCells(errors: { path: string; message: string }[]): {
   return { cells, other };
 }
 
-/** "selectivity.value must be…" reads better beside the cell as "must be…". */
+/** "selectivity.value must be…" reads better beside the cell as "selectivity must be…". */
 function tidy(path: string, message: string): string {
-  return path && message.startsWith(path) ? message.slice(path.length).trim() : message;
+  return tidyMessage(path, message);
 }
