@@ -128,13 +128,21 @@ describe('campaign pages in Chromium', () => {
     await expect.poll(() => saved.textContent()).toContain('try on 5 g before scale-up');
     expect(await saved.textContent()).toContain('−30.0');
     expect(await saved.textContent()).toContain('no run yet');
+    // A run measured later at that temperature, typed into the grid, is set against the forecast.
+    await page.getByRole('button', { name: 'Add row' }).click();
+    await page.getByLabel('Temperature, row 13').fill('−30');
+    await page.getByLabel('Selectivity, row 13').fill('99,0');
+    await page.getByLabel('Sample id, row 13').fill('KL7702-S-013');
+    await page.getByLabel('Selectivity, row 13').press('Control+Enter');
+    await expect.poll(() => page.getByText(/Saved 1 new and 0 changed row/).isVisible()).toBe(true);
+    await expect.poll(() => saved.textContent()).toMatch(/99\.00 % ee at −30\.0 °C ✓ inside the interval/);
     await maybeScreenshot(page, 'campaigns-campaign-editor');
 
     // Back on the project page the campaign is listed with its fit and forecast.
     await page.getByRole('link', { name: /Kestrelmoor KL-7702 screens/ }).click();
     const list = page.getByRole('table', { name: 'Campaigns of the project' });
     await expect.poll(() => list.textContent()).toContain('Skylark-Phos in methanol (invented)');
-    await expect.poll(() => list.textContent()).toMatch(/12 \(11\)/);
+    await expect.poll(() => list.textContent()).toMatch(/13 \(12\)/);
     await expect.poll(() => page.getByRole('table', { name: 'Side-by-side comparison' }).textContent()).toContain('ΔΔH‡ (kJ/mol)');
     await maybeScreenshot(page, 'campaigns-project');
     await signOut(page);
@@ -144,7 +152,7 @@ describe('campaign pages in Chromium', () => {
     await expect.poll(() => page.getByRole('table', { name: 'Fitted activation parameters' }).isVisible(), { timeout: 15_000 }).toBe(true);
     await expect.poll(() => page.getByRole('table', { name: 'Saved forecasts' }).textContent()).toContain('try on 5 g before scale-up');
     expect(await page.getByRole('main').textContent()).toContain('Your role○viewer');
-    expect(await page.getByRole('table', { name: 'Measurements' }).textContent()).toContain('KL7702-S-001');
+    expect(await page.getByRole('table', { name: 'Measurements' }).textContent()).toContain('KL7702-S-013');
     expect(await page.getByRole('table', { name: 'Measurements' }).locator('input').count()).toBe(0);
     for (const name of ['Add row', 'Edit campaign details', 'Import 12 rows', /^Exclude row/, /^Delete/]) {
       expect(await page.getByRole('button', { name }).count()).toBe(0);
@@ -188,6 +196,33 @@ describe('campaign pages in Chromium', () => {
     await page.getByLabel('Title').fill('Their title, then mine (invented)');
     await page.getByRole('button', { name: 'Save details' }).click();
     await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toBe('Their title, then mine (invented)');
+    await signOut(page);
+  }, 60_000);
+
+  it('when a German-locale CSV with a broken Eyring plot is uploaded, then decimal commas are read and the two-branch fit is drawn and named', async () => {
+    const { page, baseUrl } = browser;
+    const who = { login: `tb-${Date.now().toString(36)}`, name: 'Theo Branch', email: `tb-${Date.now().toString(36)}@example.test` };
+    const editor = await createUser(who);
+    const project = await createProject([{ user: editor, role: 'editor' }], { name: 'Merlin-Phos screens (invented)' });
+    const { createCampaign } = await import('../factories/campaigns');
+    const campaign = await createCampaign(project.id, { title: 'Merlin-Phos in toluene (invented)', defaultUncertainty: 0.3 });
+
+    await signInAs(page, baseUrl, who, `/campaigns/${campaign.id}`);
+    await page.getByLabel(/CSV, TSV or Excel workbook/).setInputFiles(path.resolve('samples/kestrelmoor-merlin-screen-de.csv'));
+    const read = page.getByRole('region', { name: 'How the file was read' });
+    await expect.poll(() => read.isVisible()).toBe(true);
+    expect(await page.getByLabel('Decimal separator').inputValue()).toBe(',');
+    expect(await page.getByLabel('Delimiter').inputValue()).toBe(';');
+    expect(await page.getByLabel('Header row').inputValue()).toBe('3');
+    await expect.poll(() => page.getByRole('region', { name: 'Import preview' }).textContent()).toMatch(/(\d+) of \1 rows ready/);
+    await page.getByRole('button', { name: /^Import \d+ rows$/ }).click();
+    await expect.poll(() => page.getByText(/^✓ Imported \d+ rows/).isVisible()).toBe(true);
+
+    const twoBranch = page.getByRole('region', { name: 'Two-branch check' });
+    await expect.poll(() => twoBranch.textContent(), { timeout: 15_000 }).toContain('two straight branches describe the screen better than one line');
+    expect(await twoBranch.textContent()).toContain('isoinversion temperature');
+    expect(await page.getByRole('figure').filter({ hasText: 'Eyring plot' }).textContent()).toContain('two-branch fit');
+    await maybeScreenshot(page, 'campaigns-two-branch');
     await signOut(page);
   }, 60_000);
 });

@@ -107,12 +107,25 @@ export function CampaignAnalysis({
             mark={at ? { celsius: at.celsius, label: markLabel } : null}
             height={282}
           />
+          {twoBranchPreferred && (
+            <p className="text-xs text-caution-700">
+              <span aria-hidden="true">⚠ </span>Curve and band are the one-line fit; the data prefer two branches, so near and beyond the break
+              they can miss by more than the band shows.
+            </p>
+          )}
         </figure>
       </div>
       <FitWarnings warnings={fit.warnings} />
       <div className="grid gap-5 xl:grid-cols-[minmax(0,1fr)_minmax(0,1fr)]">
         <section aria-label="Fitted parameters" className="flex flex-col gap-3">
-          <h3 className="text-sm font-semibold text-ink-900">Parameters (B − A)</h3>
+          <h3 className="text-sm font-semibold text-ink-900">{twoBranchPreferred ? 'One-line parameters (B − A), not the preferred model' : 'Parameters (B − A)'}</h3>
+          {twoBranchPreferred && (
+            <p role="note" className="rounded border border-amber-300 bg-caution-50 px-3 py-2 text-sm text-caution-700">
+              <span aria-hidden="true">⚠ </span>Two straight branches describe this screen better than one line: the single ΔΔH‡ and ΔΔS‡ below
+              average over a change in the selectivity-determining step. Use the branch values in the two-branch check, each only within its own
+              temperature range.
+            </p>
+          )}
           <FitParameterTable fit={fit} />
           {at ? (
             <DdGAt prediction={at} confidence={fit.confidence} />
