@@ -23,6 +23,12 @@ afterAll(async () => {
   await closeTestKnex();
 });
 
+/** An element's screenshot under .tmp/screens when EYRIE_SCREENSHOTS is set (for looking closely). */
+async function maybeElementShot(page: Page, name: string, locator: ReturnType<Page['locator']>) {
+  if (!process.env.EYRIE_SCREENSHOTS) return;
+  await locator.screenshot({ path: path.join('.tmp', 'screens', `${name}.png`) });
+}
+
 /** Sign in through the local provider as `who`, landing on `returnPath`. */
 async function signInAs(page: Page, baseUrl: string, who: TestIdentity, returnPath: string) {
   await page.context().clearCookies();
@@ -137,6 +143,10 @@ describe('campaign pages in Chromium', () => {
     await expect.poll(() => page.getByText(/Saved 1 new and 0 changed row/).isVisible()).toBe(true);
     await expect.poll(() => saved.textContent()).toMatch(/99\.00 % ee at −30\.0 °C ✓ inside the interval/);
     await maybeScreenshot(page, 'campaigns-campaign-editor');
+    await maybeElementShot(page, 'campaigns-el-grid', page.getByRole('table', { name: 'Measurements' }));
+    await maybeElementShot(page, 'campaigns-el-eyring', page.getByRole('figure').filter({ hasText: 'Eyring plot' }));
+    await maybeElementShot(page, 'campaigns-el-selectivity', page.getByRole('figure').filter({ hasText: 'Selectivity against temperature' }));
+    await maybeElementShot(page, 'campaigns-el-parameters', page.getByRole('region', { name: 'Fitted parameters' }));
 
     // Back on the project page the campaign is listed with its fit and forecast.
     await page.getByRole('link', { name: /Kestrelmoor KL-7702 screens/ }).click();
@@ -223,6 +233,31 @@ describe('campaign pages in Chromium', () => {
     expect(await twoBranch.textContent()).toContain('isoinversion temperature');
     expect(await page.getByRole('figure').filter({ hasText: 'Eyring plot' }).textContent()).toContain('two-branch fit');
     await maybeScreenshot(page, 'campaigns-two-branch');
+    await signOut(page);
+  }, 60_000);
+
+  it('when a workbook with runs at the quantitation limit is uploaded, then its sheet is named and those runs are lower bounds', async () => {
+    const { page, baseUrl } = browser;
+    const who = { login: `wb-${Date.now().toString(36)}`, name: 'Wanja Workbook', email: `wb-${Date.now().toString(36)}@example.test` };
+    const editor = await createUser(who);
+    const project = await createProject([{ user: editor, role: 'editor' }], { name: 'Skylark-Phos in 2-MeTHF (invented)' });
+    const { createCampaign } = await import('../factories/campaigns');
+    const campaign = await createCampaign(project.id, { title: 'Skylark-Phos in 2-MeTHF (invented)', defaultUncertainty: 0.3 });
+
+    await signInAs(page, baseUrl, who, `/campaigns/${campaign.id}`);
+    await page.getByLabel(/CSV, TSV or Excel workbook/).setInputFiles(path.resolve('samples/kestrelmoor-skylark-methf-screen.xlsx'));
+    const read = page.getByRole('region', { name: 'How the file was read' });
+    await expect.poll(() => read.textContent()).toContain('XLSX');
+    expect(await page.getByLabel('Worksheet').inputValue()).toBe('Screen');
+    const preview = page.getByRole('region', { name: 'Import preview' });
+    await expect.poll(() => preview.textContent()).toMatch(/(\d+) of \1 rows ready/);
+    expect(await preview.textContent()).toContain('≥ 99.8');
+    await page.getByRole('button', { name: /^Import \d+ rows$/ }).click();
+    await expect.poll(() => page.getByText(/^✓ Imported \d+ rows/).isVisible()).toBe(true);
+    const residuals = page.getByRole('region', { name: 'Residual diagnostics' });
+    await expect.poll(() => residuals.textContent(), { timeout: 15_000 }).toContain('lower bound');
+    expect(await page.getByRole('table', { name: 'Measurements' }).textContent()).toContain('lower bound');
+    await maybeScreenshot(page, 'campaigns-workbook');
     await signOut(page);
   }, 60_000);
 });

@@ -1,6 +1,7 @@
 import { useMemo, useState } from 'react';
 import { EyringPlot, type EyringCurvePoint, type EyringPlotPoint } from '../../../components/charts/eyring-plot';
 import { SelectivityChart, type SelectivityCurvePoint, type SelectivityMeasuredPoint } from '../../../components/charts/selectivity-chart';
+import { SafetyCaution } from '../../../components/ui/caution';
 import { fixed, percent, withUncertainty } from '../../../lib/format';
 import { ChartControls, parseSpec } from '../../calculators/components/chart-controls';
 import { FitWarnings, TwoBranchBox } from '../../calculators/components/fit-diagnostics';
@@ -16,8 +17,9 @@ export function chartData(analysis: AnalysisResponse) {
     id: p.measurementId,
     kelvin: p.kelvin,
     lnRatio: p.lnRatio,
-    lnRatioLow: p.lnRatioLow === p.lnRatio ? null : p.lnRatioLow,
-    lnRatioHigh: p.lnRatioHigh === p.lnRatio ? null : p.lnRatioHigh,
+    // A bound has no two-sided uncertainty: its caret says "at least", a bar would mislead.
+    lnRatioLow: p.status === 'censored' || p.lnRatioLow === p.lnRatio ? null : p.lnRatioLow,
+    lnRatioHigh: p.status === 'censored' || p.lnRatioHigh === p.lnRatio ? null : p.lnRatioHigh,
     status: p.status,
     flagged: p.flagged,
     label: [p.label, p.exclusionReason ? `excluded: ${p.exclusionReason}` : null].filter(Boolean).join(' · ') || undefined,
@@ -143,6 +145,7 @@ export function CampaignAnalysis({
           its leverage is high or its Cook’s distance exceeds 1; exclude it in the measurement grid with a reason if the run itself was faulty.
         </p>
       </section>
+      <SafetyCaution compact />
     </div>
   );
 }
@@ -222,7 +225,7 @@ function ResidualDiagnostics({ analysis, measurements }: { analysis: AnalysisRes
             const r = residuals[i];
             const m = byId.get(p.measurementId);
             // Exclusions and bounds are shown as the status; only the diagnostic flags go beside it.
-            const flags = (r?.flags ?? []).filter((f) => !f.startsWith('excluded') && !f.startsWith('censored'));
+            const flags = (r?.flags ?? []).filter((f) => !/^(excluded|censored|lower-bound)/.test(f));
             const flagged = p.flagged;
             return (
               <tr key={p.measurementId} className={`border-b border-slate-100 ${flagged ? 'bg-caution-50' : ''} ${p.status === 'excluded' ? 'text-ink-500' : ''}`}>
