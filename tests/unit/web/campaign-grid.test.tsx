@@ -249,6 +249,44 @@ describe('MeasurementGrid', () => {
     expect(screen.getByRole('row', { name: 'Row 3 (new)' })).toBeTruthy();
   });
 
+  it('when a stored row is edited and someone else changed it first, then only the changed field is sent with the version and the row says it was not saved', async () => {
+    const fetchMock = vi.fn(
+      async () =>
+        new Response(JSON.stringify({ type: 'about:blank', title: 'Conflict', status: 409, detail: 'The measurement changed.', currentVersion: 5 }), {
+          status: 409,
+          headers: { 'content-type': 'application/problem+json' },
+        }),
+    );
+    vi.stubGlobal('fetch', fetchMock);
+    renderGrid([stored()]);
+    fireEvent.change(screen.getByLabelText('Uncertainty, row 1'), { target: { value: '0.5' } });
+    fireEvent.click(screen.getByRole('button', { name: 'Save 1 row' }));
+    await waitFor(() => expect(fetchMock).toHaveBeenCalled());
+    const [url, init] = fetchMock.mock.calls[0] as unknown as [string, RequestInit];
+    expect(url).toBe('/api/v1/measurements/33333333-3333-4333-8333-333333333333');
+    expect(init.method).toBe('PATCH');
+    expect(JSON.parse(String(init.body))).toEqual({ version: 4, uncertainty: 0.5 });
+    await waitFor(() => expect(screen.getAllByRole('alert').map((a) => a.textContent).join(' ')).toContain('Changed by someone else'));
+    expect((screen.getByLabelText('Uncertainty, row 1') as HTMLInputElement).value).toBe('0.5');
+  });
+
+  it('when a run is excluded, then a reason is required and sent with the version', async () => {
+    const fetchMock = vi.fn(async () => new Response(JSON.stringify(stored({ excluded: true, excludedReason: 'probe failed', version: 5 })), { status: 200 }));
+    vi.stubGlobal('fetch', fetchMock);
+    renderGrid([stored()]);
+    fireEvent.click(screen.getByRole('button', { name: 'Exclude row 1 from the fit' }));
+    fireEvent.click(screen.getByRole('button', { name: 'Exclude' }));
+    expect(screen.getByText(/give a reason/)).toBeTruthy();
+    expect(fetchMock).not.toHaveBeenCalled();
+    fireEvent.change(screen.getByLabelText(/Why exclude row 1/), { target: { value: 'probe failed' } });
+    fireEvent.click(screen.getByRole('button', { name: 'Exclude' }));
+    await waitFor(() => expect(fetchMock).toHaveBeenCalled());
+    const [url, init] = fetchMock.mock.calls[0] as unknown as [string, RequestInit];
+    expect(url).toBe('/api/v1/measurements/33333333-3333-4333-8333-333333333333/exclusion');
+    expect(init.method).toBe('PUT');
+    expect(JSON.parse(String(init.body))).toEqual({ excluded: true, reason: 'probe failed', version: 4 });
+  });
+
   it('when the reader is a viewer, then no input or button is rendered and an excluded run shows its reason', () => {
     renderGrid([stored({ excluded: true, excludedReason: 'probe failed' })], false);
     const table = screen.getByRole('table', { name: 'Measurements' });
