@@ -77,10 +77,11 @@ describe('campaign pages in Chromium', () => {
     await page.getByRole('button', { name: 'Create campaign' }).click();
     await expect.poll(() => page.getByText('title is required').isVisible()).toBe(true);
     expect(await page.getByLabel('Title').getAttribute('aria-invalid')).toBe('true');
+    await maybeScreenshot(page, 'campaigns-new-campaign-form');
     await page.getByLabel('Title').fill('Skylark-Phos in methanol (invented)');
     await page.getByLabel('Product A (numerator)').fill('(S)-amide');
     await page.getByLabel('Product B').fill('(R)-amide');
-    await page.getByLabel('Default uncertainty (% ee)').fill('0.3');
+    await page.getByLabel('Default uncertainty (SD)').fill('0.3');
     await page.getByRole('button', { name: 'Create campaign' }).click();
     await page.waitForURL(/\/campaigns\/[0-9a-f-]+$/);
     const campaignUrl = page.url();
@@ -198,6 +199,7 @@ describe('campaign pages in Chromium', () => {
     await page.getByRole('button', { name: 'Save details' }).click();
     await expect.poll(() => page.getByRole('alert').first().textContent()).toContain('Changed by someone else — reload');
     expect(await page.getByRole('alert').first().textContent()).toContain(`now at version ${campaign.version + 1}`);
+    await maybeElementShot(page, 'campaigns-el-conflict', page.getByRole('form', { name: 'Edit campaign' }));
     // My typed title is still in the form until I choose to reload.
     expect(await page.getByLabel('Title').inputValue()).toBe('Version race, my title (invented)');
     await page.getByRole('button', { name: 'Reload the current version' }).click();

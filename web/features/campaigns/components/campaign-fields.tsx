@@ -39,13 +39,13 @@ export function CampaignFields({
         error={errors.assayMethod}
       />
       <TextField
-        label={`Default uncertainty ${uncertaintyUnit(values.measure)}`}
+        label="Default uncertainty (SD)"
         name="defaultUncertainty"
         inputMode="text"
         value={values.defaultUncertainty}
         onChange={set('defaultUncertainty')}
         error={errors.defaultUncertainty}
-        hint="One SD, used where a run gives none"
+        hint={`${uncertaintyUnit(values.measure) === '(relative)' ? 'Relative, 0.05 = 5 %' : `In ${uncertaintyUnit(values.measure).replace(/[()]/g, '')}`}; used where a run gives none`}
       />
       <SelectField<CampaignStatus>
         label="Status"
