@@ -115,11 +115,21 @@ describe('grid rows → API bodies, checked with the shared schema', () => {
     expect(shown.temperature).toBe('253.15');
     expect(shown.value).toBe('99.4');
     expect(shown.reactionTime).toBe('2880');
+    // 0.3 % ee at 98.8 % ee is 0.15 points of % A; as a relative SD of r it is 2(0.003)/(1 − 0.988²) ≈ 0.2515.
+    expect(shown.uncertainty).toBe('0.15');
+    expect(cellsFromMeasurement(m, { ...C_EE, measure: 'ratio' }).uncertainty).toBe('0.252');
     const inC = cellsFromMeasurement(m, C_EE);
     expect(inC.temperature).toBe('−20');
     const { body } = rowToUpdate(m, { ...inC, uncertainty: '0.5', notes: 'reweighed' }, C_EE);
     expect(body).toEqual({ version: 4, uncertainty: 0.5, notes: 'reweighed' });
     expect(rowToUpdate(m, inC, C_EE).body).toBeNull();
+    // A value re-entered as % A carries the uncertainty shown in % A with it.
+    const asA = cellsFromMeasurement(m, { ...C_EE, measure: 'percentA' });
+    expect(rowToUpdate(m, { ...asA, value: '99.5' }, { ...C_EE, measure: 'percentA' }).body).toEqual({
+      version: 4,
+      selectivity: { measure: 'percentA', value: 99.5 },
+      uncertainty: 0.15,
+    });
   });
 });
 

@@ -104,11 +104,29 @@ export function selectivityAs(m: Pick<Measurement, 'measure' | 'value' | 'valueB
   }
 }
 
+/**
+ * A stored uncertainty written for another measure, through σ(ln r) (first-order propagation, as
+ * the engine reads uncertainties): ee in points of ee, % A and er in points of % A, dr and ratio relative.
+ */
+export function uncertaintyAs(m: Pick<Measurement, 'measure' | 'value' | 'valueB' | 'uncertainty'>, measure: SelectivityMeasure): number | null {
+  if (m.uncertainty === null) return null;
+  if (m.measure === measure) return m.uncertainty;
+  const r = storedRatio(m);
+  const e = (r - 1) / (r + 1);
+  const p = r / (1 + r);
+  const kind = (x: SelectivityMeasure) => (x === 'ee' ? 'ee' : x === 'percentA' || x === 'er' ? 'p' : 'rel');
+  const from = kind(m.measure);
+  const to = kind(measure);
+  if (from === to) return m.uncertainty;
+  const sigmaLn = from === 'ee' ? (2 * (m.uncertainty / 100)) / (1 - e * e) : from === 'p' ? m.uncertainty / 100 / (p * (1 - p)) : m.uncertainty;
+  return to === 'ee' ? (100 * sigmaLn * (1 - e * e)) / 2 : to === 'p' ? 100 * sigmaLn * p * (1 - p) : sigmaLn;
+}
+
 export function cellsFromMeasurement(m: Measurement, units: ColumnUnits): GridCells {
   return {
     temperature: plain(kelvinTo(m.temperatureK, units.temperature), 2),
     value: (m.isLowerBound ? '≥' : '') + selectivityAs(m, units.measure),
-    uncertainty: m.uncertainty === null ? '' : plain(m.uncertainty, 6),
+    uncertainty: m.uncertainty === null ? '' : plain(uncertaintyAs(m, units.measure)!, m.measure === units.measure ? 6 : 3),
     sampleId: m.sampleId ?? '',
     replicateLabel: m.replicateLabel ?? '',
     conversionPercent: m.conversionPercent === null ? '' : plain(m.conversionPercent, 2),
@@ -202,7 +220,9 @@ export function rowToUpdate(m: Measurement, cells: GridCells, units: ColumnUnits
   const update: Record<string, unknown> = { version: m.version };
   if (changed('temperature')) update.temperature = body.temperature;
   if (changed('value')) update.selectivity = body.selectivity;
-  if (changed('uncertainty')) update.uncertainty = body.uncertainty ?? null;
+  // A value re-entered in another measure takes the uncertainty as shown in that measure's unit.
+  const measureChanges = changed('value') && m.measure !== units.measure;
+  if (changed('uncertainty') || (measureChanges && m.uncertainty !== null)) update.uncertainty = body.uncertainty ?? null;
   if (changed('sampleId')) update.sampleId = body.sampleId ?? null;
   if (changed('replicateLabel')) update.replicateLabel = body.replicateLabel ?? null;
   if (changed('conversionPercent')) update.conversionPercent = body.conversionPercent ?? null;
