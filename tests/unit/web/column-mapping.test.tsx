@@ -178,6 +178,8 @@ describe('UploadWizard', () => {
     act(() => first.upload.onprogress?.({ loaded: 512, total: 2048, lengthComputable: true }));
     expect(screen.getByRole('status').textContent).toContain('Uploading 25 %');
 
+    expect(screen.getByRole('button', { name: 'Cancel upload' })).toBeTruthy();
+
     first.answer(200, preview());
     // Unit not guessed: the form asks for it and the check stays disabled.
     await screen.findByRole('table', { name: 'Column mapping' });
@@ -208,5 +210,25 @@ describe('UploadWizard', () => {
     expect(problems.textContent).toContain('D "ee (%)"');
     expect((screen.getByRole('button', { name: 'Import 2 rows' }) as HTMLButtonElement).disabled).toBe(true);
     expect(screen.getByText(/Nothing can be imported until the 1 error is fixed/)).toBeTruthy();
+  });
+
+  it('when an upload is cancelled, then the request is aborted and the page says so', async () => {
+    FakeXhr.sent = [];
+    vi.stubGlobal('XMLHttpRequest', FakeXhr);
+    const client = new QueryClient({ defaultOptions: { queries: { retry: false }, mutations: { retry: false } } });
+    render(
+      <QueryClientProvider client={client}>
+        <UploadWizard campaignId="c1" projectId="p1" />
+      </QueryClientProvider>,
+    );
+    const input = screen.getByLabelText(/CSV, TSV or Excel workbook/) as HTMLInputElement;
+    Object.defineProperty(input, 'files', { value: [new File(['x'], 'big.csv', { type: 'text/csv' })] });
+    fireEvent.change(input);
+    await waitFor(() => expect(FakeXhr.sent).toHaveLength(1));
+    act(() => FakeXhr.sent[0].upload.onprogress?.({ loaded: 1, total: 100, lengthComputable: true }));
+    const abort = vi.spyOn(FakeXhr.sent[0], 'abort');
+    fireEvent.click(screen.getByRole('button', { name: 'Cancel upload' }));
+    expect(abort).toHaveBeenCalled();
+    expect((await screen.findByRole('alert')).textContent).toContain('The upload was cancelled.');
   });
 });

@@ -29,8 +29,8 @@ function useCsrfToken() {
 export function usePreviewImport(campaignId: string, onProgress: (p: UploadProgress) => void) {
   const csrf = useCsrfToken();
   return useMutation({
-    mutationFn: (v: { file: File; request: ImportPreviewBody }) =>
-      postWithProgress<ImportPreview>(`/api/v1/campaigns/${campaignId}/imports/preview`, multipart(v.file, v.request), { csrfToken: csrf(), onProgress }),
+    mutationFn: (v: { file: File; request: ImportPreviewBody; signal?: AbortSignal }) =>
+      postWithProgress<ImportPreview>(`/api/v1/campaigns/${campaignId}/imports/preview`, multipart(v.file, v.request), { csrfToken: csrf(), onProgress, signal: v.signal }),
   });
 }
 
@@ -39,8 +39,8 @@ export function useImportFile(campaignId: string, projectId: string, onProgress:
   const csrf = useCsrfToken();
   const client = useQueryClient();
   return useMutation({
-    mutationFn: (v: { file: File; request: ImportBody }) =>
-      postWithProgress<ImportResult>(`/api/v1/campaigns/${campaignId}/imports`, multipart(v.file, v.request), { csrfToken: csrf(), onProgress }),
+    mutationFn: (v: { file: File; request: ImportBody; signal?: AbortSignal }) =>
+      postWithProgress<ImportResult>(`/api/v1/campaigns/${campaignId}/imports`, multipart(v.file, v.request), { csrfToken: csrf(), onProgress, signal: v.signal }),
     onSuccess: () =>
       Promise.all([
         client.invalidateQueries({ queryKey: campaignKeys.one(campaignId) }),

@@ -1,4 +1,4 @@
-import { useId, useState } from 'react';
+import { useId, useRef, useState } from 'react';
 import type { ImportParseOptions } from '../../../../api/features/campaigns/schemas';
 import { Button } from '../../../components/ui/form';
 import { ApiError } from '../../../lib/api-client';
@@ -57,6 +57,11 @@ export function UploadWizard({ campaignId, projectId }: { campaignId: string; pr
   const [acknowledge, setAcknowledge] = useState(false);
   const [importIssues, setImportIssues] = useState<ImportIssue[] | null>(null);
   const [done, setDone] = useState<ImportResult | null>(null);
+  const abort = useRef<AbortController | null>(null);
+  const nextSignal = () => {
+    abort.current = new AbortController();
+    return abort.current.signal;
+  };
   const preview = usePreviewImport(campaignId, setProgress);
   const importer = useImportFile(campaignId, projectId, setProgress);
 
@@ -70,7 +75,7 @@ export function UploadWizard({ campaignId, projectId }: { campaignId: string; pr
     setDone(null);
     const mapping = withMapping && mapped?.mapping ? mapped.mapping : undefined;
     preview.mutate(
-      { file: f, request: { parse: nextParse, ...(mapping ? { mapping } : {}) } },
+      { file: f, request: { parse: nextParse, ...(mapping ? { mapping } : {}) }, signal: nextSignal() },
       {
         onSuccess: (p) => {
           // The first look at a file (or new parse options) starts the form from the header guess.
@@ -104,7 +109,7 @@ export function UploadWizard({ campaignId, projectId }: { campaignId: string; pr
     if (!file || !mapped?.mapping) return;
     setImportIssues(null);
     importer.mutate(
-      { file, request: { mapping: mapped.mapping, parse, acknowledgeWarnings: acknowledge } },
+      { file, request: { mapping: mapped.mapping, parse, acknowledgeWarnings: acknowledge }, signal: nextSignal() },
       {
         onSuccess: (result) => {
           setDone(result);
@@ -140,7 +145,12 @@ export function UploadWizard({ campaignId, projectId }: { campaignId: string; pr
           />
         </div>
       </div>
-      <ProgressLine progress={progress} label={importer.isPending ? 'Import' : 'Preview'} />
+      {progress && (
+        <div className="flex flex-wrap items-center gap-3">
+          <ProgressLine progress={progress} label={importer.isPending ? 'Import' : 'Preview'} />
+          {progress.phase === 'sending' && <Button onClick={() => abort.current?.abort()}>Cancel upload</Button>}
+        </div>
+      )}
       {done && (
         <p role="status" className="tnum rounded border border-fjord-600/40 bg-fjord-50 px-3 py-2 text-sm text-ink-900">
           <span aria-hidden="true">✓ </span>Imported {done.inserted} row{done.inserted === 1 ? '' : 's'} at {done.distinctTemperatures} temperature
