@@ -1,24 +1,11 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createApp } from '../../api/app';
-import { loadConfig } from '../../api/config';
-import { openBrowser, maybeScreenshot, type BrowserSession } from '../support/browser';
-import { closeTestKnex, testKnex } from '../support/db';
+import { maybeScreenshot, useBrowserOnApp } from '../support/browser';
 
-let session: BrowserSession;
-
-beforeAll(async () => {
-  const app = createApp({ knex: testKnex(), config: loadConfig({ nodeEnv: 'test' }) });
-  session = await openBrowser(app);
-});
-
-afterAll(async () => {
-  await session?.close();
-  await closeTestKnex();
-});
+const browser = useBrowserOnApp({ beforeAll, afterAll });
 
 describe('the calculators page in Chromium (no sign-in)', () => {
   it('when a chemist forecasts from one observed ee, then a table across the range and the chart appear, with the convention and a caution', async () => {
-    const { page, baseUrl } = session;
+    const { page, baseUrl } = browser();
     await page.goto(baseUrl + '/');
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Calculators' }).click();
     await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toBe('Selectivity calculators');
@@ -40,7 +27,7 @@ describe('the calculators page in Chromium (no sign-in)', () => {
   });
 
   it('when the API rejects an input, then its message appears under that input', async () => {
-    const { page } = session;
+    const { page } = browser();
     const form = page.getByRole('form', { name: 'Forecast inputs' });
     await form.getByLabel('Observed value').fill('100');
     await form.getByRole('button', { name: 'Forecast' }).click();
@@ -53,7 +40,7 @@ describe('the calculators page in Chromium (no sign-in)', () => {
   });
 
   it('when the invented example screen is fitted, then ΔΔH‡ with ± SE, the Eyring plot and a prediction at the proposed temperature appear', async () => {
-    const { page } = session;
+    const { page } = browser();
     const form = page.getByRole('form', { name: 'Screen inputs' });
     await form.getByRole('button', { name: 'Load invented example' }).click();
     await form.getByRole('button', { name: 'Fit screen' }).click();
@@ -80,7 +67,7 @@ describe('the calculators page in Chromium (no sign-in)', () => {
   });
 
   it('when a pasted line cannot be read, then its line number is shown and the fit is not sent', async () => {
-    const { page } = session;
+    const { page } = browser();
     const form = page.getByRole('form', { name: 'Screen inputs' });
     await form.getByLabel(/Screen: one run per line/).fill('-40, 96.9\n-20, n/a\n0, 93.7');
     const problems = page.getByRole('alert', { name: 'Problems in the pasted screen' });

@@ -1,24 +1,11 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createApp } from '../../api/app';
-import { loadConfig } from '../../api/config';
-import { openBrowser, maybeScreenshot, type BrowserSession } from '../support/browser';
-import { closeTestKnex, testKnex } from '../support/db';
+import { maybeScreenshot, useBrowserOnApp } from '../support/browser';
 
-let session: BrowserSession;
-
-beforeAll(async () => {
-  const app = createApp({ knex: testKnex(), config: loadConfig({ nodeEnv: 'test' }) });
-  session = await openBrowser(app);
-});
-
-afterAll(async () => {
-  await session?.close();
-  await closeTestKnex();
-});
+const browser = useBrowserOnApp({ beforeAll, afterAll });
 
 describe('the rate and hold page in Chromium (no sign-in)', () => {
   it('when one run (95 % in 4 h at 0 °C) is entered, then the 0 °C row takes 4 h and the ±10 kJ/mol ΔH‡ variants stand beside it', async () => {
-    const { page, baseUrl } = session;
+    const { page, baseUrl } = browser();
     await page.goto(baseUrl + '/');
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Rate and hold' }).click();
     await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toBe('Rate and hold');
@@ -51,7 +38,7 @@ describe('the rate and hold page in Chromium (no sign-in)', () => {
   });
 
   it('when a racemization barrier and a hold are entered, then k_rac = 2k_e, the ee half-life and the 37 °C stability class appear', async () => {
-    const { page } = session;
+    const { page } = browser();
     const form = page.getByRole('form', { name: 'Erosion inputs' });
     await form.getByLabel('Barrier ΔG‡').fill('25');
     await form.getByLabel('Initial ee (%)').fill('99.5');
@@ -82,7 +69,7 @@ describe('the rate and hold page in Chromium (no sign-in)', () => {
   });
 
   it('when the invented pathways are calculated, then shares, ee per diastereomer and dr appear with a line per product', async () => {
-    const { page } = session;
+    const { page } = browser();
     const form = page.getByRole('form', { name: 'Pathway inputs' });
     await form.getByRole('button', { name: 'Load invented example' }).click();
     await form.getByRole('button', { name: 'Calculate distribution' }).click();
@@ -95,7 +82,7 @@ describe('the rate and hold page in Chromium (no sign-in)', () => {
   });
 
   it('when the API rejects an input, then its message appears under that input', async () => {
-    const { page } = session;
+    const { page } = browser();
     const form = page.getByRole('form', { name: 'Erosion inputs' });
     await form.getByLabel('Barrier ΔG‡').fill('25');
     await form.getByLabel('at temperature').fill('-300');

@@ -1,25 +1,11 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createApp } from '../../api/app';
-import { loadConfig } from '../../api/config';
-import { openBrowser, maybeScreenshot, type BrowserSession } from '../support/browser';
-import { closeTestKnex, testKnex } from '../support/db';
+import { maybeScreenshot, useBrowserOnApp } from '../support/browser';
 
-let session: BrowserSession;
-
-beforeAll(async () => {
-  // The built web app (dist/web) is served by the real Express app, as in `npm start`.
-  const app = createApp({ knex: testKnex(), config: loadConfig({ nodeEnv: 'test' }) });
-  session = await openBrowser(app);
-});
-
-afterAll(async () => {
-  await session?.close();
-  await closeTestKnex();
-});
+const browser = useBrowserOnApp({ beforeAll, afterAll });
 
 describe('the app shell in Chromium', () => {
   it('when a newcomer opens the home page, then the product name, navigation, convention and caution are visible', async () => {
-    const { page, baseUrl } = session;
+    const { page, baseUrl } = browser();
     await page.goto(baseUrl + '/');
     await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toContain('selectivity specification');
     expect(await page.getByRole('navigation', { name: 'Main' }).isVisible()).toBe(true);
@@ -29,7 +15,7 @@ describe('the app shell in Chromium', () => {
   });
 
   it('when an unknown address is opened, then a not-found page is shown inside the shell', async () => {
-    const { page, baseUrl } = session;
+    const { page, baseUrl } = browser();
     await page.goto(baseUrl + '/no/such/page');
     await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toBe('Page not found');
     expect(await page.getByRole('link', { name: 'Eyrie' }).isVisible()).toBe(true);

@@ -70,3 +70,29 @@ export async function maybeScreenshot(page: Page, name: string) {
   if (!process.env.EYRIE_SCREENSHOTS) return;
   await page.screenshot({ path: path.join('.tmp', 'screens', `${name}.png`), fullPage: true });
 }
+
+/**
+ * For a browser test file: serve the real app (built web + API on the test database) and open
+ * Chromium before the tests, close both after. Returns a getter because the session exists only
+ * once `beforeAll` has run.
+ */
+export function useBrowserOnApp(hooks: { beforeAll: (fn: () => Promise<void>) => void; afterAll: (fn: () => Promise<void>) => void }) {
+  let session: BrowserSession | undefined;
+  hooks.beforeAll(async () => {
+    const [{ createApp }, { loadConfig }, { testKnex }] = await Promise.all([
+      import('../../api/app'),
+      import('../../api/config'),
+      import('./db'),
+    ]);
+    session = await openBrowser(createApp({ knex: testKnex(), config: loadConfig({ nodeEnv: 'test' }) }));
+  });
+  hooks.afterAll(async () => {
+    await session?.close();
+    const { closeTestKnex } = await import('./db');
+    await closeTestKnex();
+  });
+  return () => {
+    if (!session) throw new Error('the browser session is opened in beforeAll');
+    return session;
+  };
+}
