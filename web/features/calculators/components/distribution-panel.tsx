@@ -4,7 +4,7 @@ import { LineChart } from '../../../components/charts/line-chart';
 import { thermalColor } from '../../../components/charts/thermal-scale';
 import { SafetyCaution } from '../../../components/ui/caution';
 import { Panel } from '../../../components/ui/page';
-import { ApiError, type FieldError } from '../../../lib/api-client';
+import type { FieldError } from '../../../lib/api-client';
 import { fixed, percent, sig } from '../../../lib/format';
 import { useDistribution } from '../api/post-distribution';
 import {
@@ -22,8 +22,8 @@ import {
   entropyUnitOptions,
   inputClass,
   NumberField,
-  ProblemAlert,
   secondaryButtonClass,
+  UnplacedErrors,
   SelectField,
   selectClass,
   temperatureUnitOptions,
@@ -244,14 +244,7 @@ export function DistributionPanel() {
             {query.isFetching ? 'Calculating…' : 'Calculate distribution'}
           </button>
         </div>
-        {query.error && !clientErrors.length && (serverErrors.length === 0 || leftover.length > 0) && (
-          <ProblemAlert
-            title={query.error instanceof ApiError ? query.error.problem.title : 'The calculation failed'}
-            detail={query.error.message}
-            errors={leftover}
-          />
-        )}
-        {clientErrors.length > 0 && leftover.length > 0 && <ProblemAlert title="Check the inputs" errors={leftover} />}
+        <UnplacedErrors error={query.error} clientErrors={clientErrors} serverErrors={serverErrors} leftover={leftover} />
       </form>
 
       <div className="mt-4 flex min-w-0 flex-col gap-3" aria-live="polite">

@@ -1,16 +1,15 @@
-import { useState } from 'react';
-import type { ErosionRequest, ErosionResponse } from '../../../../api/features/kinetics/schemas';
+import type { ErosionResponse } from '../../../../api/features/kinetics/schemas';
 import { LineChart, type LineChartSeries } from '../../../components/charts/line-chart';
 import { thermalColor } from '../../../components/charts/thermal-scale';
 import { SafetyCaution } from '../../../components/ui/caution';
 import { Panel } from '../../../components/ui/page';
-import { ApiError, type FieldError } from '../../../lib/api-client';
 import { fixed, percent, sig } from '../../../lib/format';
 import { useErosion } from '../api/post-erosion';
-import { initialErosionForm, toErosionRequest, type ErosionFormState } from '../lib/erosion-form';
-import { apiFieldErrors, unmatchedErrors } from '../lib/field-errors';
+import { initialErosionForm, toErosionRequest } from '../lib/erosion-form';
+import { unmatchedErrors } from '../lib/field-errors';
+import { useCalculator } from '../lib/use-calculator';
 import { ErosionForm, erosionFieldPaths } from './erosion-form';
-import { ProblemAlert } from './fields';
+import { UnplacedErrors } from './fields';
 import { durationTick, durationTicks, EmptyResult, ResultNotes, sci, Th } from './kinetics-parts';
 
 type Point = ErosionResponse['points'][number];
@@ -23,35 +22,20 @@ function holdCell(p: Point): string {
 
 /** Erosion during a hold: how fast ee is lost after the reaction, and how long material may wait. */
 export function ErosionPanel() {
-  const [form, setForm] = useState<ErosionFormState>(initialErosionForm);
-  const [request, setRequest] = useState<ErosionRequest | null>(null);
-  const [clientErrors, setClientErrors] = useState<FieldError[]>([]);
-  const query = useErosion(request);
-
-  const serverErrors = apiFieldErrors(query.error);
-  const errors = clientErrors.length ? clientErrors : serverErrors;
+  const { form, patch, submit, request, query, clientErrors, serverErrors, errors } = useCalculator({
+    initial: initialErosionForm,
+    toRequest: toErosionRequest,
+    useResult: useErosion,
+  });
   const leftover = unmatchedErrors(errors, erosionFieldPaths);
   const data = query.data;
-
-  const submit = () => {
-    const { request: next, errors: found } = toErosionRequest(form);
-    setClientErrors(found);
-    if (next) setRequest(next);
-  };
 
   return (
     <Panel title="Erosion during a hold">
       <div className="grid gap-6 lg:grid-cols-[minmax(0,24rem)_minmax(0,1fr)]">
         <div className="flex flex-col gap-3">
-          <ErosionForm form={form} onChange={(patch) => setForm((f) => ({ ...f, ...patch }))} onSubmit={submit} errors={errors} busy={query.isFetching} />
-          {query.error && !clientErrors.length && (serverErrors.length === 0 || leftover.length > 0) && (
-            <ProblemAlert
-              title={query.error instanceof ApiError ? query.error.problem.title : 'The calculation failed'}
-              detail={query.error.message}
-              errors={leftover}
-            />
-          )}
-          {clientErrors.length > 0 && leftover.length > 0 && <ProblemAlert title="Check the inputs" errors={leftover} />}
+          <ErosionForm form={form} onChange={patch} onSubmit={submit} errors={errors} busy={query.isFetching} />
+          <UnplacedErrors error={query.error} clientErrors={clientErrors} serverErrors={serverErrors} leftover={leftover} />
         </div>
         <div className="flex min-w-0 flex-col gap-3" aria-live="polite">
           {!data && !query.isFetching && (

@@ -1,5 +1,5 @@
 import { useId, type ReactNode } from 'react';
-import type { FieldError } from '../../../lib/api-client';
+import { ApiError, type FieldError } from '../../../lib/api-client';
 import { messagesFor } from '../lib/field-errors';
 
 export const inputClass =
@@ -187,5 +187,17 @@ export function ConventionNote({ className = '' }: { className?: string }) {
       <span className="font-medium text-ink-800">Sign convention:</span> ΔΔX‡ = X‡(TS→B) − X‡(TS→A), B minus A; a positive ΔΔG‡ or ΔΔH‡
       favours A, and r = [A]/[B]. Much of the literature uses the opposite sign.
     </p>
+  );
+}
+
+/**
+ * The alert under a calculator form for errors that belong to no input: the server's problem
+ * (title and detail) or the client's own checks. Errors with an input show under that input.
+ */
+export function UnplacedErrors({ error, clientErrors, serverErrors, leftover }: { error: Error | null; clientErrors: FieldError[]; serverErrors: FieldError[]; leftover: FieldError[] }) {
+  if (clientErrors.length > 0) return leftover.length > 0 ? <ProblemAlert title="Check the inputs" errors={leftover} /> : null;
+  if (!error || (serverErrors.length > 0 && leftover.length === 0)) return null;
+  return (
+    <ProblemAlert title={error instanceof ApiError ? error.problem.title : 'The calculation failed'} detail={error.message} errors={leftover} />
   );
 }

@@ -1,15 +1,14 @@
-import { useState } from 'react';
-import type { RateRequest, RateResponse } from '../../../../api/features/kinetics/schemas';
+import type { RateResponse } from '../../../../api/features/kinetics/schemas';
 import { LineChart, type LineChartSeries } from '../../../components/charts/line-chart';
 import { thermalColor } from '../../../components/charts/thermal-scale';
 import { SafetyCaution } from '../../../components/ui/caution';
 import { Panel } from '../../../components/ui/page';
-import { ApiError, type FieldError } from '../../../lib/api-client';
 import { fixed, sig } from '../../../lib/format';
 import { useRate } from '../api/post-rate';
-import { apiFieldErrors, unmatchedErrors } from '../lib/field-errors';
-import { initialRateForm, toRateRequest, type RateFormState } from '../lib/rate-form';
-import { ProblemAlert } from './fields';
+import { unmatchedErrors } from '../lib/field-errors';
+import { useCalculator } from '../lib/use-calculator';
+import { initialRateForm, toRateRequest } from '../lib/rate-form';
+import { UnplacedErrors } from './fields';
 import { durationTick, durationTicks, EmptyResult, kUnitText, ResultNotes, sci, Th } from './kinetics-parts';
 import { RateForm, rateFieldPaths } from './rate-form';
 
@@ -25,35 +24,20 @@ function signedKJ(v: number) {
 
 /** Time to finish: rate constants and times to a target conversion across a temperature range. */
 export function RatePanel() {
-  const [form, setForm] = useState<RateFormState>(initialRateForm);
-  const [request, setRequest] = useState<RateRequest | null>(null);
-  const [clientErrors, setClientErrors] = useState<FieldError[]>([]);
-  const query = useRate(request);
-
-  const serverErrors = apiFieldErrors(query.error);
-  const errors = clientErrors.length ? clientErrors : serverErrors;
+  const { form, patch, submit, query, clientErrors, serverErrors, errors } = useCalculator({
+    initial: initialRateForm,
+    toRequest: toRateRequest,
+    useResult: useRate,
+  });
   const leftover = unmatchedErrors(errors, rateFieldPaths);
   const data = query.data;
-
-  const submit = () => {
-    const { request: next, errors: found } = toRateRequest(form);
-    setClientErrors(found);
-    if (next) setRequest(next);
-  };
 
   return (
     <Panel title="Time to finish">
       <div className="grid gap-6 lg:grid-cols-[minmax(0,24rem)_minmax(0,1fr)]">
         <div className="flex flex-col gap-3">
-          <RateForm form={form} onChange={(patch) => setForm((f) => ({ ...f, ...patch }))} onSubmit={submit} errors={errors} busy={query.isFetching} />
-          {query.error && !clientErrors.length && (serverErrors.length === 0 || leftover.length > 0) && (
-            <ProblemAlert
-              title={query.error instanceof ApiError ? query.error.problem.title : 'The calculation failed'}
-              detail={query.error.message}
-              errors={leftover}
-            />
-          )}
-          {clientErrors.length > 0 && leftover.length > 0 && <ProblemAlert title="Check the inputs" errors={leftover} />}
+          <RateForm form={form} onChange={patch} onSubmit={submit} errors={errors} busy={query.isFetching} />
+          <UnplacedErrors error={query.error} clientErrors={clientErrors} serverErrors={serverErrors} leftover={leftover} />
         </div>
         <div className="flex min-w-0 flex-col gap-3" aria-live="polite">
           {!data && !query.isFetching && (
