@@ -130,6 +130,8 @@ describe('campaign CRUD and versions', () => {
 
     const one = await as('viewer').get(`/api/v1/campaigns/${created.id}`).expect(200);
     expect(one.headers.etag).toBe('W/"1"');
+    // The body names the caller's role, so no cache may replay it to another account.
+    expect(one.headers['cache-control']).toBe('private, no-store');
     expect(one.body).toMatchObject({ id: created.id, projectId: project.id, role: 'viewer', productNameA: '(S)-amine', defaultUncertainty: 0.3 });
 
     await addRuns(created.id, screen([-20, 0, 20]));

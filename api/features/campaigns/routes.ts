@@ -113,7 +113,11 @@ export function campaignsRouter(deps: { knex: Knex; version: string }): Router {
 
   router.get('/campaigns/:campaignId', byCampaign('viewer'), async (req, res) => {
     const campaign = await getCampaign(knex, req.project!.id, campaignId(req));
-    res.set('ETag', etag(campaign.version)).json({ ...campaign.toJSON(), projectId: req.project!.id, role: req.project!.role });
+    // The body carries the caller's role, which the version ETag does not capture: never let a
+    // browser answer a second account from its cache (304 on If-None-Match).
+    res
+      .set({ ETag: etag(campaign.version), 'Cache-Control': 'private, no-store', Vary: 'Cookie, Authorization' })
+      .json({ ...campaign.toJSON(), projectId: req.project!.id, role: req.project!.role });
   });
 
   router.patch('/campaigns/:campaignId', byCampaign('editor'), async (req, res) => {
