@@ -199,6 +199,11 @@ export function fitTwoBranch(measurements: readonly EyringMeasurement[], options
     }
   }
 
+  if (preferred === 'one-line' && isoinversionTemperatureK !== null) {
+    // The crossing of two trial branches means nothing when the data do not support a break.
+    isoinversionNote = `The trial branch lines would cross at ${describeTemperatureK(isoinversionTemperatureK)}, but one straight line describes the data as well, so no isoinversion temperature is claimed.`;
+  }
+
   const notes = [
     'The break was chosen to minimise the residual sum of squares, so the F-test p-value is optimistic; the information criterion counts the break as a parameter.',
     'Never extrapolate either branch across the break: the selectivity-determining step differs between them.',

@@ -60,6 +60,18 @@ describe('fitTwoBranch', () => {
     expect(res.reason).toMatch(/one line/i);
   });
 
+  it('when trial branches fitted to plain scatter happen to cross near the break, then the note claims no isoinversion temperature', () => {
+    // [C] one straight line, ln r = 2000/T − 5, plus fixed scatter chosen so that the best trial
+    // branches cross at ≈ 239 K while the F test (p ≈ 0.13) keeps one line.
+    const scatter = [0.0135, -0.0067, -0.0139, -0.0081, -0.0029, -0.0082, 0.0175, 0.0023];
+    const data = [220, 230, 240, 250, 260, 270, 280, 290].map((t, i) => ({ temperatureK: t, ratio: Math.exp(2000 / t - 5 + scatter[i]!) }));
+    const res = fitTwoBranch(data)!;
+    expect(res.preferred).toBe('one-line');
+    expect(res.isoinversionTemperatureK).not.toBeNull();
+    expect(res.isoinversionNote).toMatch(/no isoinversion temperature is claimed/);
+    expect(res.isoinversionNote).not.toMatch(/extremum/);
+  });
+
   it('when fewer than 6 usable points remain, then null is returned', () => {
     expect(fitTwoBranch(broken.slice(0, 5))).toBeNull();
     const withExcluded = broken.slice(0, 6).map((m, i) => (i === 0 ? { ...m, excluded: true } : m));
