@@ -134,21 +134,64 @@ export function fitTwoBranch(measurements: readonly EyringMeasurement[], options
   }
 
   const oneLineFit = fitSubset(usable, sigmaByIndex);
-  let best: { split: number; low: LineFit; high: LineFit; ss: number } | null = null;
+  // Trial breaks are scored from prefix sums of weighted, centred moments, O(1) each, so the
+  // search is O(n); only the chosen break is refitted in full (with its diagnostics).
+  const weights = sigma ? sigma.map((sd) => 1 / (sd * sd)) : null;
+  const w = (i: number) => (weights ? weights[i]! : 1);
+  let sw = 0;
+  let swx = 0;
+  let swy = 0;
+  usable.forEach((p, i) => {
+    sw += w(i);
+    swx += w(i) * p.x;
+    swy += w(i) * p.y;
+  });
+  const xm = swx / sw;
+  const ym = swy / sw;
+  const prefix = { w: new Float64Array(n + 1), u: new Float64Array(n + 1), v: new Float64Array(n + 1), uu: new Float64Array(n + 1), uv: new Float64Array(n + 1), vv: new Float64Array(n + 1) };
+  const distinctBefore = new Int32Array(n + 1);
+  usable.forEach((p, i) => {
+    const wi = w(i);
+    const u = p.x - xm;
+    const v = p.y - ym;
+    prefix.w[i + 1] = prefix.w[i]! + wi;
+    prefix.u[i + 1] = prefix.u[i]! + wi * u;
+    prefix.v[i + 1] = prefix.v[i]! + wi * v;
+    prefix.uu[i + 1] = prefix.uu[i]! + wi * u * u;
+    prefix.uv[i + 1] = prefix.uv[i]! + wi * u * v;
+    prefix.vv[i + 1] = prefix.vv[i]! + wi * v * v;
+    const newTemperature = i === 0 || usable[i]!.measurement.temperatureK - usable[i - 1]!.measurement.temperatureK > 1e-6;
+    distinctBefore[i + 1] = distinctBefore[i]! + (newTemperature ? 1 : 0);
+  });
+  const segmentSs = (a: number, b: number) => {
+    const d = (arr: Float64Array) => arr[b]! - arr[a]!;
+    const s0 = d(prefix.w);
+    const su = d(prefix.u);
+    const sv = d(prefix.v);
+    const suu = d(prefix.uu) - (su * su) / s0;
+    const suv = d(prefix.uv) - (su * sv) / s0;
+    const svv = d(prefix.vv) - (sv * sv) / s0;
+    return Math.max(0, suu > 0 ? svv - (suv * suv) / suu : svv);
+  };
+  const distinctTotal = distinctBefore[n]!;
+  let bestSplit = -1;
+  let bestTrialSs = Infinity;
   for (let split = 3; split <= n - 3; split++) {
     const tLeft = usable[split - 1]!.measurement.temperatureK;
     const tRight = usable[split]!.measurement.temperatureK;
     if (tRight - tLeft <= 1e-6) continue; // a break must fall between distinct temperatures
-    const lowPts = usable.slice(0, split);
-    const highPts = usable.slice(split);
-    const distinct = (pts: PreparedMeasurement[]) => new Set(pts.map((p) => p.measurement.temperatureK.toFixed(6))).size;
-    if (distinct(lowPts) < 2 || distinct(highPts) < 2) continue;
-    const low = fitSubset(lowPts, sigmaByIndex);
-    const high = fitSubset(highPts, sigmaByIndex);
-    const ss = low.ssRes + high.ssRes;
-    if (!best || ss < best.ss) best = { split, low, high, ss };
+    const lowDistinct = distinctBefore[split]!;
+    if (lowDistinct < 2 || distinctTotal - lowDistinct < 2) continue;
+    const ss = segmentSs(0, split) + segmentSs(split, n);
+    if (ss < bestTrialSs) {
+      bestTrialSs = ss;
+      bestSplit = split;
+    }
   }
-  if (!best) return null;
+  if (bestSplit < 0) return null;
+  const bestLow = fitSubset(usable.slice(0, bestSplit), sigmaByIndex);
+  const bestHigh = fitSubset(usable.slice(bestSplit), sigmaByIndex);
+  const best = { split: bestSplit, low: bestLow, high: bestHigh, ss: bestLow.ssRes + bestHigh.ssRes };
 
   const lowPts = usable.slice(0, best.split);
   const highPts = usable.slice(best.split);

@@ -6,6 +6,7 @@ import { fitTwoBranch } from '../../../api/science/two-branch';
 import { expectAllFinite } from './helpers';
 import fcdf from '@stdlib/stats-base-dists-f-cdf';
 import jstat from 'jstat';
+import fc from 'fast-check';
 
 // Constructed broken Eyring plot [C]: two straight branches of ln r vs 1/T meeting at T_inv = 260 K,
 // y_inv = 2; low-T branch ΔΔH‡ = 20 kJ/mol, high-T branch ΔΔH‡ = 5 kJ/mol:
@@ -87,5 +88,41 @@ describe('fitTwoBranch', () => {
     const res = fitTwoBranch(data)!;
     expect(res.isoinversionTemperatureK).toBeNull();
     expect(res.isoinversionNote).toMatch(/do not cross|far from the break|parallel/);
+  });
+});
+
+describe('the break search', () => {
+  it('when breaks are scored from prefix sums, then the chosen break is the one a full refit at every break would choose', () => {
+    // fast-check: random screens (6–30 runs, some repeated temperatures, optional σ); the reference
+    // refits both branches with fitLine at every admissible break and takes the least total SS.
+    fc.assert(
+      fc.property(
+        fc.array(fc.record({ t: fc.integer({ min: 190, max: 340 }), y: fc.double({ min: -4, max: 6, noNaN: true }), s: fc.double({ min: 0.01, max: 0.5, noNaN: true }) }), { minLength: 6, maxLength: 30 }),
+        fc.boolean(),
+        (rows, weighted) => {
+          const data: EyringMeasurement[] = rows.map((r) => ({ temperatureK: r.t, ratio: Math.exp(r.y), ...(weighted ? { sigmaLnR: r.s } : {}) }));
+          const res = fitTwoBranch(data, { weighting: weighted ? 'relative' : 'none' });
+          const sorted = [...data].sort((a, b) => a.temperatureK - b.temperatureK);
+          let bestSs = Infinity;
+          for (let split = 3; split <= sorted.length - 3; split++) {
+            if (sorted[split]!.temperatureK === sorted[split - 1]!.temperatureK) continue;
+            const low = sorted.slice(0, split);
+            const high = sorted.slice(split);
+            if (new Set(low.map((m) => m.temperatureK)).size < 2 || new Set(high.map((m) => m.temperatureK)).size < 2) continue;
+            const f = (pts: EyringMeasurement[]) =>
+              fitLine(
+                pts.map((m) => 1 / m.temperatureK),
+                pts.map((m) => Math.log(m.ratio)),
+                weighted ? { sigma: pts.map((m) => m.sigmaLnR!), sigmaMode: 'relative' } : {},
+              ).ssRes;
+            bestSs = Math.min(bestSs, f(low) + f(high));
+          }
+          if (!Number.isFinite(bestSs)) return res === null;
+          expect(res).not.toBeNull();
+          expect(res!.twoBranch.ssRes).toBeLessThanOrEqual(bestSs * (1 + 1e-7) + 1e-12);
+        },
+      ),
+      { numRuns: 300 },
+    );
   });
 });
