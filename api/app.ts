@@ -75,21 +75,18 @@ export function createApp(deps: AppDeps): Express {
       crossOriginEmbedderPolicy: false,
     }),
   );
-  app.use(pinoHttp({ logger, autoLogging: { ignore: (req) => req.url === '/api/health' } }));
+  // Request lines are logged at info; above that level the middleware would only allocate.
+  if (logger.isLevelEnabled('info')) app.use(pinoHttp({ logger, autoLogging: { ignore: (req) => req.url === '/api/health' } }));
   app.use(express.json({ limit: '1mb' }));
 
   const mailbox = deps.mailbox ?? new Mailbox();
   const mailer = deps.mailer ?? (deps.config.smtpUrl ? createSmtpMailer(deps.config.smtpUrl, deps.config.mailFrom) : createInProcessMailer(mailbox, deps.config.mailFrom));
-  installAuth(app, { knex: deps.knex, config: deps.config, oauth: oauthSetup(deps) });
+  installAuth(app, { knex: deps.knex, config: deps.config, oauth: oauthSetup(deps), logger });
   if (deps.config.devTools) app.use(mailboxRouter({ mailbox, realSmtp: Boolean(deps.config.smtpUrl) }));
 
   const api = Router();
   api.use(healthRouter({ knex: deps.knex, version: deps.config.version }));
-  api.use('/v1', sessionRouter({ config: deps.config }));
-  api.use('/v1', projectsRouter({ knex: deps.knex, config: deps.config, mailer }));
-  api.use('/v1', invitationsRouter({ knex: deps.knex }));
-  api.use('/v1', tokensRouter({ config: deps.config }));
-  api.use('/v1', campaignsRouter({ knex: deps.knex, version: deps.config.version }));
+  // Stateless calculators first: they are the hottest routes and need no project lookups.
   const computeLimit = rateLimit({
     windowMs: deps.config.rateLimit.windowMs,
     limit: deps.config.rateLimit.compute,
@@ -100,6 +97,11 @@ export function createApp(deps: AppDeps): Express {
   api.use('/v1', computeRouter([computeLimit]));
   api.use('/v1', kineticsRouter([computeLimit]));
   api.use('/v1', docsRouter({ version: deps.config.version }));
+  api.use('/v1', sessionRouter({ config: deps.config }));
+  api.use('/v1', projectsRouter({ knex: deps.knex, config: deps.config, mailer }));
+  api.use('/v1', invitationsRouter({ knex: deps.knex }));
+  api.use('/v1', tokensRouter({ config: deps.config }));
+  api.use('/v1', campaignsRouter({ knex: deps.knex, version: deps.config.version }));
   api.use('/{*splat}', notFoundHandler);
   app.use('/api', api);
 

@@ -1,5 +1,6 @@
 import express, { type Express, type NextFunction, type Request, type RequestHandler, type Response } from 'express';
 import session from 'express-session';
+import type { Logger } from 'pino';
 import connectPgSimple from 'connect-pg-simple';
 import passport from 'passport';
 import { Strategy as GitHubStrategy, type Profile, type StrategyOptions } from 'passport-github2';
@@ -65,7 +66,7 @@ export function limiter(windowMs: number, limit: number, what: string, byUser = 
  * then the session cookie (PostgreSQL-backed), then the CSRF check for
  * cookie-authenticated writes. Also mounts the /auth sign-in routes.
  */
-export function installAuth(app: Express, deps: { knex: Knex; config: AppConfig; oauth: OAuthSetup | null }) {
+export function installAuth(app: Express, deps: { knex: Knex; config: AppConfig; oauth: OAuthSetup | null; logger?: Logger }) {
   const { knex, config, oauth } = deps;
   const PgStore = connectPgSimple(session);
   const sessionMiddleware = session({
@@ -117,17 +118,20 @@ export function installAuth(app: Express, deps: { knex: Knex; config: AppConfig;
     );
   }
 
-  // Bearer requests never read or create a session.
-  const unlessBearer =
+  // Bearer requests never read or create a session. A write that carries no cookie cannot belong to a browser session, so none is loaded or
+  // created for it: scripts calling the stateless calculators pay nothing for sessions.
+  const sessionless = (req: Request) =>
+    hasBearer(req.headers.authorization) || (!['GET', 'HEAD', 'OPTIONS'].includes(req.method) && !req.headers.cookie);
+  const withSession =
     (mw: RequestHandler): RequestHandler =>
     (req, res, next) =>
-      hasBearer(req.headers.authorization) ? next() : mw(req, res, next);
+      sessionless(req) ? next() : mw(req, res, next);
   const markSession: RequestHandler = (req, _res, next) => {
     if (req.user && !req.authMethod) req.authMethod = 'session';
     next();
   };
   const scoped = ['/api', '/auth', '/dev'];
-  app.use(scoped, bearerAuth(knex), unlessBearer(sessionMiddleware), authenticator.initialize(), unlessBearer(authenticator.session()), markSession, csrfGuard);
+  app.use(scoped, bearerAuth(knex), withSession(sessionMiddleware), authenticator.initialize(), withSession(authenticator.session()), markSession, csrfGuard);
 
   const signInLimit = limiter(config.rateLimit.windowMs, config.rateLimit.signIn, 'sign-in');
   const router = express.Router();
@@ -145,7 +149,7 @@ export function installAuth(app: Express, deps: { knex: Knex; config: AppConfig;
     if (typeof req.query.error === 'string') return void signInFailed(res, 'denied');
     authenticator.authenticate('github', (err: unknown, user: User | false) => {
       if (err || !user) {
-        req.log?.warn({ err }, 'sign-in failed');
+        (req.log ?? deps.logger)?.warn({ err }, 'sign-in failed');
         return void signInFailed(res, 'failed');
       }
       const returnTo = req.session.returnTo ?? '/projects';
