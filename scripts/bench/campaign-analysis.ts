@@ -81,6 +81,10 @@ async function run() {
 
     const load = await autocannon({ url, connections: CONNECTIONS, duration: DURATION_S, headers });
     server.close();
+    server.closeAllConnections();
+    // autocannon stops with requests in flight; let their queries finish before the pool goes away.
+    const pool = (knex.client as { pool: { numUsed(): number; numPendingAcquires(): number } }).pool;
+    for (let waited = 0; waited < 5000 && pool.numUsed() + pool.numPendingAcquires() > 0; waited += 50) await new Promise((r) => setTimeout(r, 50));
     if (load.non2xx > 0 || load.errors > 0) throw new Error(`${load.non2xx} non-2xx answers, ${load.errors} errors under load`);
 
     console.log(`\nCampaign analysis: GET /campaigns/:id/analysis, ${RUNS} stored runs`);

@@ -6,7 +6,12 @@
  * 3. Feature benchmarks registered in scripts/bench/suites.ts (imports, campaign analysis).
  */
 import '../../api/db/pg-types';
-import autocannon from 'autocannon';
+import { execFile } from 'node:child_process';
+import { mkdtemp, rm, writeFile } from 'node:fs/promises';
+import os from 'node:os';
+import path from 'node:path';
+import { promisify } from 'node:util';
+import { createRequire } from 'node:module';
 import express from 'express';
 import type { AddressInfo } from 'node:net';
 import type { Server } from 'node:http';
@@ -20,6 +25,8 @@ import { fitEyring } from '../../api/science';
 import { extraSuites } from './suites';
 
 const DURATION_S = Number(process.env.BENCH_SECONDS ?? 8);
+const execFileAsync = promisify(execFile);
+const autocannonCli = createRequire(import.meta.url).resolve('autocannon/autocannon.js');
 const CONNECTIONS = 50;
 
 function listen(app: express.Express): Promise<{ server: Server; url: string }> {
@@ -28,17 +35,27 @@ function listen(app: express.Express): Promise<{ server: Server; url: string }> 
   });
 }
 
+/**
+ * Load from a separate process (the autocannon CLI), so the load generator does not share the
+ * server's event loop; each target first gets a short warm-up so the JIT has settled.
+ */
 async function load(url: string, body: unknown) {
-  const result = await autocannon({
-    url,
-    method: 'POST',
-    connections: CONNECTIONS,
-    duration: DURATION_S,
-    headers: { 'content-type': 'application/json' },
-    body: JSON.stringify(body),
-  });
-  if (result.non2xx > 0 || result.errors > 0) throw new Error(`${url}: ${result.non2xx} non-2xx answers, ${result.errors} errors`);
-  return { rps: result.requests.average, p50: result.latency.p50, p99: result.latency.p99 };
+  const dir = await mkdtemp(path.join(os.tmpdir(), 'eyrie-bench-body-'));
+  const file = path.join(dir, 'body.json');
+  await writeFile(file, JSON.stringify(body));
+  const run = async (seconds: number) => {
+    const args = [autocannonCli, '-c', String(CONNECTIONS), '-d', String(seconds), '-m', 'POST', '-H', 'content-type=application/json', '-i', file, '--json', url];
+    const { stdout } = await execFileAsync(process.execPath, args, { maxBuffer: 16 * 1024 * 1024 });
+    return JSON.parse(stdout) as { requests: { average: number }; latency: { p50: number; p99: number }; non2xx: number; errors: number };
+  };
+  try {
+    await run(2);
+    const result = await run(DURATION_S);
+    if (result.non2xx > 0 || result.errors > 0) throw new Error(`${url}: ${result.non2xx} non-2xx answers, ${result.errors} errors`);
+    return { rps: result.requests.average, p50: result.latency.p50, p99: result.latency.p99 };
+  } finally {
+    await rm(dir, { recursive: true, force: true });
+  }
 }
 
 const C = (value: number) => ({ value, unit: 'C' as const });
@@ -72,7 +89,7 @@ async function httpSuite() {
   bare.post('/fit', (_req, res) => void res.json(fitAnswer));
   const baseline = await listen(bare);
 
-  console.log(`\nHTTP, ${CONNECTIONS} connections, ${DURATION_S} s each (autocannon)`);
+  console.log(`\nHTTP, ${CONNECTIONS} connections, ${DURATION_S} s each after a 2 s warm-up (autocannon in its own process)`);
   console.log('endpoint                         req/s    p50 ms  p99 ms   bare req/s  ratio');
   for (const [name, route, body] of [
     ['forecast (200 temperatures)', '/api/v1/forecast', forecastBody],
