@@ -119,6 +119,16 @@ export function computeAnalysis(campaign: Pick<Campaign, 'id' | 'version' | 'mea
   const predictions = fit?.predictions ?? [];
   const curve = fit ? predictions.slice(0, curveK.length) : [];
   const at = fit && options.atK !== undefined ? (predictions[predictions.length - 1] ?? null) : null;
+  if (fit) {
+    // The drawing grid runs past the data on purpose; warn about extrapolation only for the
+    // temperature the user asked about.
+    const others = fit.warnings.filter((w) => w.code !== 'extrapolation');
+    const asked = fit.warnings.find((w) => w.code === 'extrapolation');
+    fit.warnings =
+      at?.extrapolated && asked
+        ? [...others, { code: 'extrapolation', message: `${at.celsius.toFixed(1).replace("-", "−")} °C lies outside the screened range; the forecast assumes the same straight line continues, which a change of mechanism would break.` }]
+        : others;
+  }
 
   const points: AnalysisPoint[] = measurements.map((m, i) => {
     const e = engine[i]!;
