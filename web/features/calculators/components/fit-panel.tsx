@@ -236,7 +236,18 @@ export function FitPanel() {
                 mark={view.proposed ? { kelvin: view.proposed.kelvin, label: `proposed ${fixed(view.proposed.celsius, 0)} °C` } : null}
                 confidenceLevel={fit.confidence}
               />
-              <FitWarnings warnings={fit.warnings} />
+              <FitWarnings
+                warnings={
+                  // The band grid runs past the data on purpose: keep the extrapolation warning only
+                  // when the proposed temperature itself lies outside the screen.
+                  [
+                    ...fit.warnings.filter((w) => w.code !== 'extrapolation'),
+                    ...(view.proposed?.extrapolated
+                      ? [{ code: 'extrapolation', message: `${fixed(view.proposed.celsius, 1)} °C lies outside the screened range: the forecast assumes the same straight line continues, which a change of mechanism would break.` }]
+                      : []),
+                  ]
+                }
+              />
               {view.proposed ? (
                 <PredictionBox
                   prediction={view.proposed}
