@@ -18,13 +18,22 @@ export default tseslint.config(
     },
   },
   {
-    // The browser never imports server code, except zod schema modules shared on purpose.
+    // The browser never imports server code, except zod schema modules shared on purpose (and types).
     // Two or more ../ reach the root api/; a single ../api/ is a feature's own api folder.
     files: ['web/**/*.{ts,tsx}'],
     rules: {
-      'no-restricted-imports': [
+      // Type-only imports are erased at build time, so the browser may name the server's JSON shapes.
+      '@typescript-eslint/no-restricted-imports': [
         'error',
-        { patterns: [{ regex: '^(\\.\\./){2,}api/(?!features/[a-z-]+/([a-z]+-)?schemas$|science/units$)', message: 'web/ may import only api/features/*/schemas and *-schemas (shared zod) from the server.' }] },
+        {
+          patterns: [
+            {
+              regex: '^(\\.\\./){2,}api/(?!features/[a-z-]+/([a-z]+-)?schemas$|science/units$)',
+              message: 'web/ may import only api/features/*/schemas and *-schemas (shared zod) from the server, or types with `import type`.',
+              allowTypeImports: true,
+            },
+          ],
+        },
       ],
     },
   },

@@ -71,84 +71,8 @@ export type ComparisonCampaign = ComparisonResponse['campaigns'][number];
 
 export type ImportCell = string | number | null;
 
-export interface ImportIssue {
-  severity: 'error' | 'warning';
-  /** 1-based row of the file as a spreadsheet shows it; null for the file or a column. */
-  row: number | null;
-  column: string | null;
-  message: string;
-}
-
-export interface PreviewColumn {
-  index: number;
-  letter: string;
-  header: string;
-  sample: ImportCell[];
-}
-
-export type ImportFieldKey =
-  | 'temperature'
-  | 'temperatureUnit'
-  | 'measure'
-  | 'value'
-  | 'uncertainty'
-  | 'sampleId'
-  | 'replicateLabel'
-  | 'conversionPercent'
-  | 'reactionTime'
-  | 'notes';
-
-export interface SuggestedMapping {
-  columns: Partial<Record<ImportFieldKey, number>>;
-  temperatureUnit?: 'K' | 'C' | 'F';
-  measure?: SelectivityMeasure;
-  timeUnit?: 's' | 'min' | 'h';
-  unmapped: number[];
-  missing: string[];
-}
-
-export interface ImportPreviewRow {
-  sourceRow: number;
-  temperatureK: number;
-  measure: SelectivityMeasure;
-  value: number;
-  valueB: number | null;
-  isLowerBound: boolean;
-  uncertainty: number | null;
-  replicateLabel: string | null;
-  sampleId: string | null;
-  conversionPercent: number | null;
-  reactionTimeS: number | null;
-  notes: string | null;
-}
-
-export interface ImportPreview {
-  file: {
-    fileName: string;
-    format: 'csv' | 'xlsx';
-    encoding: string | null;
-    delimiter: ',' | ';' | '\t' | null;
-    decimalSeparator: '.' | ',';
-    headerRow: number | null;
-    sheetName: string | null;
-    sheetNames: string[];
-    detected: string[];
-  };
-  columns: PreviewColumn[];
-  suggestedMapping: SuggestedMapping;
-  mapping: unknown;
-  rowCount: number;
-  validRowCount: number;
-  errorCount: number;
-  warningCount: number;
-  issues: ImportIssue[];
-  rows: ImportPreviewRow[];
-}
-
-export interface ImportResult {
-  campaignId: string;
-  inserted: number;
-  temperatureRangeK: { min: number; max: number };
-  distinctTemperatures: number;
-  warningCount: number;
-}
+// The import service's JSON shapes, named from the server (type-only: nothing server-side reaches the bundle).
+export type { ImportIssue } from '../../../../api/features/imports/errors';
+export type { ImportPreview, ImportResult, PreviewColumn } from '../../../../api/features/imports/service';
+export type { MappingGuess as SuggestedMapping, ImportRow as ImportPreviewRow } from '../../../../api/features/imports/mapping';
+export type { ImportField as ImportFieldKey } from '../../../../api/features/campaigns/schemas';
