@@ -2,12 +2,13 @@ import type { Knex } from 'knex';
 import { DEMO_IDENTITIES, DEMO_PROJECTS } from './demo';
 import { seedDemoProjects } from './seed-projects';
 import { seedDemoCampaigns } from './seed-campaigns';
+import { DEMO_CAMPAIGNS } from './demo-campaigns';
 
 /**
  * Seed the invented demo scenario. Idempotent: running it twice changes
  * nothing the first run made, and never touches rows users created.
  */
-export async function seedDemo(knex: Knex): Promise<{ users: number; projects: number }> {
+export async function seedDemo(knex: Knex): Promise<{ users: number; projects: number; campaigns: number }> {
   return knex.transaction(async (trx) => {
     for (const who of DEMO_IDENTITIES) {
       await trx('users')
@@ -17,6 +18,6 @@ export async function seedDemo(knex: Knex): Promise<{ users: number; projects: n
     }
     await seedDemoProjects(trx);
     await seedDemoCampaigns(trx);
-    return { users: DEMO_IDENTITIES.length, projects: DEMO_PROJECTS.length };
+    return { users: DEMO_IDENTITIES.length, projects: DEMO_PROJECTS.length, campaigns: DEMO_CAMPAIGNS.length };
   });
 }
