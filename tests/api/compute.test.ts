@@ -31,6 +31,8 @@ describe('POST /api/v1/forecast', () => {
     expect(p.ddG['kJ/mol']).toBeCloseTo(4.184, 9);
     expect(res.body.assumptions.join(' ')).toMatch(/ΔΔS‡ assumed 0/);
     expect(res.body.convention).toMatch(/TS→B/);
+    // Every answer that suggests a temperature carries the safety caution (product safety brief).
+    expect(res.body.caution).toMatch(/calorimetry/);
   });
 
   it('when an observed 90 % ee at 25 °C is the basis, then ΔΔG‡ = 1.745 kcal/mol and cooling raises ee', async () => {
@@ -138,6 +140,7 @@ describe('POST /api/v1/fit', () => {
     relClose(pred.predictionInterval.eePercent[1], eeOf(y0 + half), 1e-6);
     expect(pred.confidenceInterval.eePercent[0]).toBeGreaterThan(pred.predictionInterval.eePercent[0]);
     expect(res.body.correlation).toBeGreaterThan(0.95);
+    expect(res.body.caution).toMatch(/process-safety review/);
     expect(res.body.twoBranch).toBeNull();
   });
 

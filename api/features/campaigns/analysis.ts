@@ -11,6 +11,7 @@ import { NotFoundError, UnprocessableError } from '../../lib/errors';
 import { Campaign } from '../../models/campaign';
 import { Measurement } from '../../models/measurement';
 import { SavedForecast } from '../../models/saved-forecast';
+import { SELECTIVITY_CAUTION } from '../../lib/cautions';
 import { analyseScreen, type FitOptions } from '../compute/service';
 import type { FitResponse } from '../compute/schemas';
 import type { AnalysisPoint, AnalysisQuery, AnalysisResponse, ComparisonResponse, SavedForecastView } from './analysis-schemas';
@@ -20,11 +21,6 @@ import { toKelvin, type SavedForecastCreate } from './schemas';
 type FitPrediction = FitResponse['predictions'][number];
 
 /** Shown beside every forecast and in every export (DOMAIN §9). */
-export const FORECAST_CAUTION =
-  'Forecasts are model estimates from the runs stored here: confirm the selectivity with a run at the chosen temperature before relying on it. ' +
-  'A colder or warmer process changes more than selectivity: a slow, cold reaction can accumulate dosed reagent and release it suddenly if cooling fails or the batch warms, ' +
-  'so reaction calorimetry and a process-safety review are needed before changing the temperature on scale. Follow local codes and licensed practice.';
-
 /** Temperatures in the fitted-line curve, spaced evenly in 1/T. */
 export const CURVE_POINTS = 60;
 /** The curve runs this far beyond the coldest and warmest measured runs (K). */
@@ -152,7 +148,7 @@ export function computeAnalysis(campaign: Pick<Campaign, 'id' | 'version' | 'mea
     };
   });
 
-  return { campaignId: campaign.id, campaignVersion: campaign.version, fit, problem, curve, at, points, convention: SIGN_CONVENTION, caution: FORECAST_CAUTION };
+  return { campaignId: campaign.id, campaignVersion: campaign.version, fit, problem, curve, at, points, convention: SIGN_CONVENTION, caution: SELECTIVITY_CAUTION };
 }
 
 /** Engine messages name array paths; a stored campaign's user needs to hear which run. */

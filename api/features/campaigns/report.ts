@@ -7,7 +7,7 @@ import ExcelJS from 'exceljs';
 import type { Campaign } from '../../models/campaign';
 import type { Measurement } from '../../models/measurement';
 import type { AnalysisResponse, SavedForecastView } from './analysis-schemas';
-import { FORECAST_CAUTION } from './analysis';
+import { SELECTIVITY_CAUTION } from '../../lib/cautions';
 
 export interface ReportData {
   campaign: Campaign;
@@ -101,7 +101,7 @@ function summaryRows(data: ReportData, meta: { appVersion: string; generatedAt: 
     }
   }
   rows.push(
-    ['Caution', FORECAST_CAUTION, null, null, null, null],
+    ['Caution', SELECTIVITY_CAUTION, null, null, null, null],
     ['Generated (UTC)', meta.generatedAt, null, null, null, null],
     ['Eyrie version', meta.appVersion, null, null, null, null],
   );

@@ -75,6 +75,7 @@ export const forecastResponseSchema = z
     zeroSelectivity: zeroSelectivitySchema,
     assumptions: z.array(z.string()),
     convention: z.string(),
+    caution: z.string(),
   })
   .meta({ id: 'ForecastResponse' });
 export type ForecastResponse = z.infer<typeof forecastResponseSchema>;
@@ -190,6 +191,7 @@ export const fitResponseSchema = z
     twoBranch: twoBranchSchema.nullable(),
     warnings: z.array(warningSchema),
     convention: z.string(),
+    caution: z.string(),
     predictions: z.array(fitPredictionSchema),
   })
   .meta({ id: 'FitResponse' });

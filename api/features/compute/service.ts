@@ -24,6 +24,7 @@ import {
   type SelectivityInterval,
   type TwoBranchFit,
 } from '../../science';
+import { SELECTIVITY_CAUTION } from '../../lib/cautions';
 import { expandTemperatures } from './temperatures';
 import type { FitRequest, FitResponse, ForecastRequest, ForecastResponse } from './schemas';
 
@@ -100,6 +101,7 @@ export function runForecast(req: ForecastRequest): ForecastResponse {
     zeroSelectivity: zeroSelectivity(result.zeroSelectivityTemperatureK),
     assumptions: result.assumptions,
     convention: SIGN_CONVENTION,
+    caution: SELECTIVITY_CAUTION,
   };
 }
 
@@ -209,6 +211,7 @@ export function analyseScreen(measurements: EyringMeasurement[], options: FitOpt
     twoBranch: twoBranchOut(twoBranch),
     warnings: [...fit.warnings, ...(twoBranch?.warnings ?? [])],
     convention: SIGN_CONVENTION,
+    caution: SELECTIVITY_CAUTION,
     predictions: fit.predictions.map((p) => ({
       kelvin: p.temperatureK,
       celsius: p.celsius,

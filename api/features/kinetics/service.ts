@@ -40,14 +40,10 @@ import type {
   measuredRunSchema,
   readableDurationSchema,
 } from './schemas';
+import { KINETICS_CAUTION } from '../../lib/cautions';
 import { expandTemperatures, type ExpandedTemperatures } from '../compute/temperatures';
 
 /** Shown with every time and erosion forecast (DOMAIN §9). */
-export const KINETICS_CAUTION =
-  'Times and rates here are model estimates from the Eyring–Polanyi equation with constant activation parameters: confirm them by experiment at the chosen temperature before relying on them. ' +
-  'A cold, slow reaction can accumulate dosed reagent that a warm-up or cooling failure then releases at once (thermal runaway), so have reaction calorimetry and a process-safety review done before changing temperature on scale. ' +
-  'Follow local codes and licensed practice.';
-
 /** Only a rough check for the one-run sensitivity band; DOMAIN §6 asks to show how the answer depends on ΔH‡. */
 const SENSITIVITY_STEP_J_PER_MOL = 10_000;
 /** Forecasts further than this from the temperature they are anchored at get a warning. */
