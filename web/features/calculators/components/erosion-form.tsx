@@ -1,7 +1,8 @@
 import type { FormEvent } from 'react';
 import type { FieldError } from '../../../lib/api-client';
 import type { ErosionFormState } from '../lib/erosion-form';
-import { buttonClass, energyUnitOptions, entropyUnitOptions, NumberField, Segmented, SelectField, temperatureUnitOptions } from './fields';
+import { BarrierFields } from './barrier-fields';
+import { buttonClass, NumberField, Segmented, SelectField } from './fields';
 import { durationUnitOptions, RangeFields, rangeFieldPaths } from './kinetics-parts';
 
 export const erosionFieldPaths = [
@@ -34,7 +35,6 @@ export function ErosionForm({
     e.preventDefault();
     onSubmit();
   };
-  const dSOptional = form.kind === 'gibbs';
   return (
     <form onSubmit={submit} noValidate aria-label="Erosion inputs" className="flex flex-col gap-4">
       <Segmented
@@ -47,58 +47,7 @@ export function ErosionForm({
           { value: 'activation', label: 'ΔH‡ + ΔS‡' },
         ]}
       />
-      {form.kind === 'gibbs' ? (
-        <div className="flex flex-wrap items-start gap-3">
-          <NumberField
-            label="Barrier ΔG‡"
-            path="barrier.dG"
-            value={form.dG}
-            onChange={(dG) => onChange({ dG })}
-            errors={errors}
-            placeholder="e.g. 25"
-            width="w-20"
-            unit={<SelectField label="Barrier unit" value={form.dGUnit} options={energyUnitOptions} onChange={(dGUnit) => onChange({ dGUnit })} />}
-          />
-          <NumberField
-            label="at temperature"
-            path="barrier.temperature"
-            value={form.dGTemperature}
-            onChange={(dGTemperature) => onChange({ dGTemperature })}
-            errors={errors}
-            width="w-20"
-            unit={
-              <SelectField
-                label="Barrier temperature unit"
-                value={form.dGTemperatureUnit}
-                options={temperatureUnitOptions}
-                onChange={(dGTemperatureUnit) => onChange({ dGTemperatureUnit })}
-              />
-            }
-          />
-        </div>
-      ) : (
-        <NumberField
-          label="Barrier ΔH‡"
-          path="barrier.dH"
-          value={form.dH}
-          onChange={(dH) => onChange({ dH })}
-          errors={errors}
-          placeholder="e.g. 25"
-          width="w-20"
-          unit={<SelectField label="Barrier unit" value={form.dHUnit} options={energyUnitOptions} onChange={(dHUnit) => onChange({ dHUnit })} />}
-        />
-      )}
-      <NumberField
-        label={dSOptional ? 'ΔS‡, optional' : 'ΔS‡'}
-        path="barrier.dS"
-        value={form.dS}
-        onChange={(dS) => onChange({ dS })}
-        errors={errors}
-        placeholder={dSOptional ? 'assumed 0' : 'e.g. −10'}
-        hint={dSOptional ? 'Empty: taken as 0, so ΔG‡ is the same at every temperature.' : undefined}
-        width="w-20"
-        unit={<SelectField label="Barrier ΔS‡ unit" value={form.dSUnit} options={entropyUnitOptions} onChange={(dSUnit) => onChange({ dSUnit })} />}
-      />
+      <BarrierFields kind={form.kind} form={form} onChange={onChange} errors={errors} path="barrier" name="Barrier" placeholders={{ energy: 'e.g. 25', entropy: 'e.g. −10' }} />
 
       <div className="flex flex-wrap items-start gap-3 border-t border-slate-200 pt-3">
         <NumberField

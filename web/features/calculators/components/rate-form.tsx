@@ -1,7 +1,8 @@
 import type { FormEvent } from 'react';
 import type { FieldError } from '../../../lib/api-client';
 import { DEFAULT_ASSUMED_DH_KJ, type RateFormState, type RunText } from '../lib/rate-form';
-import { buttonClass, energyUnitOptions, entropyUnitOptions, NumberField, Segmented, SelectField, temperatureUnitOptions } from './fields';
+import { BarrierFields } from './barrier-fields';
+import { buttonClass, energyUnitOptions, NumberField, Segmented, SelectField, temperatureUnitOptions } from './fields';
 import { durationUnitOptions, RangeFields, rangeFieldPaths } from './kinetics-parts';
 
 /** Every field path this form can render, so errors for other paths go to the general alert. */
@@ -98,7 +99,6 @@ export function RateForm({
     onSubmit();
   };
   const usesRuns = form.kind === 'one-run' || form.kind === 'two-runs';
-  const dSOptional = form.kind === 'gibbs';
 
   return (
     <form onSubmit={submit} noValidate aria-label="Time to finish inputs" className="flex flex-col gap-4">
@@ -147,62 +147,8 @@ export function RateForm({
         />
       )}
 
-      {form.kind === 'gibbs' && (
-        <div className="flex flex-wrap items-start gap-3">
-          <NumberField
-            label="ΔG‡"
-            path="basis.dG"
-            value={form.dG}
-            onChange={(dG) => onChange({ dG })}
-            errors={errors}
-            placeholder="e.g. 90"
-            width="w-20"
-            unit={<SelectField label="ΔG‡ unit" value={form.dGUnit} options={energyUnitOptions} onChange={(dGUnit) => onChange({ dGUnit })} />}
-          />
-          <NumberField
-            label="at temperature"
-            path="basis.temperature"
-            value={form.dGTemperature}
-            onChange={(dGTemperature) => onChange({ dGTemperature })}
-            errors={errors}
-            width="w-20"
-            unit={
-              <SelectField
-                label="ΔG‡ temperature unit"
-                value={form.dGTemperatureUnit}
-                options={temperatureUnitOptions}
-                onChange={(dGTemperatureUnit) => onChange({ dGTemperatureUnit })}
-              />
-            }
-          />
-        </div>
-      )}
       {(form.kind === 'gibbs' || form.kind === 'activation') && (
-        <div className="flex flex-wrap items-start gap-3">
-          {form.kind === 'activation' && (
-            <NumberField
-              label="ΔH‡"
-              path="basis.dH"
-              value={form.dH}
-              onChange={(dH) => onChange({ dH })}
-              errors={errors}
-              placeholder="e.g. 60"
-              width="w-20"
-              unit={<SelectField label="ΔH‡ unit" value={form.dHUnit} options={energyUnitOptions} onChange={(dHUnit) => onChange({ dHUnit })} />}
-            />
-          )}
-          <NumberField
-            label={dSOptional ? 'ΔS‡, optional' : 'ΔS‡'}
-            path="basis.dS"
-            value={form.dS}
-            onChange={(dS) => onChange({ dS })}
-            errors={errors}
-            placeholder={dSOptional ? 'assumed 0' : 'e.g. −90'}
-            hint={dSOptional ? 'Empty: taken as 0, so ΔG‡ is the same at every temperature.' : undefined}
-            width="w-20"
-            unit={<SelectField label="ΔS‡ unit" value={form.dSUnit} options={entropyUnitOptions} onChange={(dSUnit) => onChange({ dSUnit })} />}
-          />
-        </div>
+        <BarrierFields kind={form.kind} form={form} onChange={onChange} errors={errors} path="basis" placeholders={{ energy: form.kind === 'gibbs' ? 'e.g. 90' : 'e.g. 60', entropy: 'e.g. −90' }} />
       )}
 
       <fieldset className="flex flex-col gap-2 border-t border-slate-200 pt-3">
