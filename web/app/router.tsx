@@ -4,18 +4,15 @@ import { HomeRoute } from './routes/home';
 import { NotFoundRoute } from './routes/not-found';
 import { RouteErrorBoundary } from './routes/route-error';
 import { ApiDocsRoute } from './routes/api-docs';
-import { CalculatorsRoute } from './routes/calculators';
-import { RateAndHoldRoute } from './routes/rate-and-hold';
 import { SignInRoute } from './routes/sign-in';
 import { ProjectsRoute } from './routes/projects';
 import { ProjectSettingsRoute } from './routes/project-settings';
 import { ProjectHistoryRoute } from './routes/project-history';
-import { ProjectRoute } from './routes/project';
-import { CampaignRoute } from './routes/campaign';
 import { TokensRoute } from './routes/tokens';
 import { InvitationRoute } from './routes/invitation';
 import { paths } from '../config/paths';
 
+// The chart-heavy pages (visx) load on first visit, so the shell and sign-in stay small.
 export const routes: RouteObject[] = [
   {
     element: <AppLayout />,
@@ -23,13 +20,13 @@ export const routes: RouteObject[] = [
     children: [
       { path: paths.home.path, element: <HomeRoute /> },
       { path: paths.apiDocs.path, element: <ApiDocsRoute /> },
-      { path: paths.calculators.path, element: <CalculatorsRoute /> },
-      { path: paths.rateAndHold.path, element: <RateAndHoldRoute /> },
+      { path: paths.calculators.path, lazy: async () => ({ Component: (await import('./routes/calculators')).CalculatorsRoute }) },
+      { path: paths.rateAndHold.path, lazy: async () => ({ Component: (await import('./routes/rate-and-hold')).RateAndHoldRoute }) },
       { path: paths.signIn.path, element: <SignInRoute /> },
       { path: paths.projects.path, element: <ProjectsRoute /> },
-      { path: paths.project.path, element: <ProjectRoute /> },
+      { path: paths.project.path, lazy: async () => ({ Component: (await import('./routes/project')).ProjectRoute }) },
       { path: paths.projectSettings.path, element: <ProjectSettingsRoute /> },
-      { path: paths.campaign.path, element: <CampaignRoute /> },
+      { path: paths.campaign.path, lazy: async () => ({ Component: (await import('./routes/campaign')).CampaignRoute }) },
       { path: paths.projectHistory.path, element: <ProjectHistoryRoute /> },
       { path: paths.tokens.path, element: <TokensRoute /> },
       { path: paths.invitation.path, element: <InvitationRoute /> },
