@@ -9,7 +9,7 @@ import { fileURLToPath } from 'node:url';
 import type { AppConfig } from './config';
 import { createLogger } from './lib/logger';
 import { notFoundHandler, problemHandler } from './lib/problem';
-import { TooManyRequestsError } from './lib/errors';
+import { NotFoundError, TooManyRequestsError } from './lib/errors';
 import { healthRouter } from './features/health/routes';
 import { installAuth, type OAuthSetup } from './features/auth/setup';
 import { sessionRouter } from './features/auth/routes';
@@ -108,6 +108,8 @@ export function createApp(deps: AppDeps): Express {
   const webDist = deps.webDist === undefined ? defaultWebDist : deps.webDist;
   if (webDist && existsSync(path.join(webDist, 'index.html'))) {
     app.use(express.static(webDist, { index: false, maxAge: '1h' }));
+    // A missing build file is a 404, not the page: a stale tab asking for an old chunk must fail visibly.
+    app.use('/assets', (_req, _res, next) => next(new NotFoundError('No such build file.')));
     app.get('/{*splat}', (_req, res) => {
       res.sendFile(path.join(webDist, 'index.html'), { maxAge: 0 });
     });

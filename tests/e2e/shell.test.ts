@@ -21,3 +21,13 @@ describe('the app shell in Chromium', () => {
     expect(await page.getByRole('link', { name: 'Eyrie' }).isVisible()).toBe(true);
   });
 });
+
+describe('build files', () => {
+  it('when a build file that does not exist is asked for, then the answer is 404, not the page', async () => {
+    const res = await fetch(browser().baseUrl + '/assets/no-such-chunk-123.js');
+    expect(res.status).toBe(404);
+    const page = await fetch(browser().baseUrl + '/campaigns/anything');
+    expect(page.status).toBe(200);
+    expect(await page.text()).toContain('<div id="root">');
+  });
+});
