@@ -1,4 +1,5 @@
 import type { FitResponse } from '../../../../api/features/compute/schemas';
+import { TableHead } from '../../../components/ui/table-head';
 import { fixed, percent, sig } from '../../../lib/format';
 
 const FLAG_TEXT: Record<string, string> = {
@@ -39,37 +40,19 @@ export function ResidualTable({
     <div className="overflow-auto rounded border border-slate-200">
       <table className="tnum w-full border-collapse text-right text-sm">
         <caption className="sr-only">Residuals and flags for each run</caption>
-        <thead className="bg-slate-50 text-xs text-ink-600">
-          <tr className="border-b border-slate-200">
-            <th scope="col" className="px-2 py-1 text-left font-medium">
-              Line
-            </th>
-            <th scope="col" className="px-2 py-1 font-medium">
-              T (°C)
-            </th>
-            <th scope="col" className="px-2 py-1 font-medium">
-              ee (%)
-            </th>
-            <th scope="col" className="px-2 py-1 font-medium">
-              ln r
-            </th>
-            <th scope="col" className="px-2 py-1 font-medium">
-              Residual
-            </th>
-            <th scope="col" className="px-2 py-1 font-medium">
-              Studentized
-            </th>
-            <th scope="col" className="px-2 py-1 font-medium">
-              Leverage
-            </th>
-            <th scope="col" className="px-2 py-1 text-left font-medium">
-              Status and flags
-            </th>
-            <th scope="col" className="px-2 py-1 text-left font-medium">
-              Exclude
-            </th>
-          </tr>
-        </thead>
+        <TableHead
+          columns={[
+            { label: 'Line', align: 'left' },
+            { label: 'T (°C)' },
+            { label: 'ee (%)' },
+            { label: 'ln r' },
+            { label: 'Residual' },
+            { label: 'Studentized' },
+            { label: 'Leverage' },
+            { label: 'Status and flags', align: 'left' },
+            { label: 'Exclude', align: 'left' },
+          ]}
+        />
         <tbody>
           {fit.residuals.map((r) => {
             const line = lines[r.index];

@@ -1,4 +1,5 @@
 import { useMemo, useState } from 'react';
+import { TableHead } from '../../../components/ui/table-head';
 import { EyringPlot, type EyringCurvePoint, type EyringPlotPoint } from '../../../components/charts/eyring-plot';
 import { SelectivityChart, type SelectivityCurvePoint, type SelectivityMeasuredPoint } from '../../../components/charts/selectivity-chart';
 import { SafetyCaution } from '../../../components/ui/caution';
@@ -189,37 +190,20 @@ function ResidualDiagnostics({ analysis, measurements }: { analysis: AnalysisRes
     <div className="max-h-96 overflow-auto rounded border border-slate-200">
       <table className="tnum w-full border-collapse text-right text-xs">
         <caption className="sr-only">Residuals and flags for each run</caption>
-        <thead className="sticky top-0 bg-slate-50 text-ink-600">
-          <tr className="border-b border-slate-200">
-            <th scope="col" className="px-2 py-1 text-left font-medium">
-              Run
-            </th>
-            <th scope="col" className="px-2 py-1 font-medium">
-              T (°C)
-            </th>
-            <th scope="col" className="px-2 py-1 font-medium">
-              ee (%)
-            </th>
-            <th scope="col" className="px-2 py-1 font-medium">
-              ln r
-            </th>
-            <th scope="col" className="px-2 py-1 font-medium">
-              Residual (ln r)
-            </th>
-            <th scope="col" className="px-2 py-1 font-medium">
-              Studentized
-            </th>
-            <th scope="col" className="px-2 py-1 font-medium">
-              Leverage
-            </th>
-            <th scope="col" className="px-2 py-1 font-medium">
-              Cook’s D
-            </th>
-            <th scope="col" className="px-2 py-1 text-left font-medium">
-              Status
-            </th>
-          </tr>
-        </thead>
+        <TableHead
+          className="sticky top-0 bg-slate-50 text-ink-600"
+          columns={[
+            { label: 'Run', align: 'left' },
+            { label: 'T (°C)' },
+            { label: 'ee (%)' },
+            { label: 'ln r' },
+            { label: 'Residual (ln r)' },
+            { label: 'Studentized' },
+            { label: 'Leverage' },
+            { label: 'Cook’s D' },
+            { label: 'Status', align: 'left' },
+          ]}
+        />
         <tbody>
           {analysis.points.map((p, i) => {
             const r = residuals[i];
