@@ -1,3 +1,4 @@
+import { useState } from 'react';
 import { ASSAY_METHODS, CAMPAIGN_STATUSES, type AssayMethod, type CampaignStatus, type SelectivityMeasure } from '../../../../api/features/campaigns/schemas';
 import { SelectField, TextField } from '../../../components/ui/form';
 import type { CampaignFormValues, FormErrors } from '../lib/campaign-form';
@@ -59,4 +60,17 @@ export function CampaignFields({
       <TextField className="sm:col-span-2" label="Notes" name="notes" value={values.notes} onChange={set('notes')} error={errors.notes} />
     </div>
   );
+}
+
+/** Values and field errors of a campaign form; typing into a field clears that field's error. */
+export function useCampaignFormState(initial: CampaignFormValues | (() => CampaignFormValues)) {
+  const [values, setValues] = useState<CampaignFormValues>(initial);
+  const [errors, setErrors] = useState<FormErrors>({});
+  const set =
+    <K extends keyof CampaignFormValues>(key: K) =>
+    (value: CampaignFormValues[K]) => {
+      setValues((v) => ({ ...v, [key]: value }));
+      setErrors(({ [key]: _gone, ...rest }) => rest);
+    };
+  return { values, setValues, errors, setErrors, set };
 }

@@ -7,9 +7,9 @@ import { RoleBadge } from '../../projects/components/role-badge';
 import { useUpdateCampaign } from '../api/campaigns';
 import { campaignKeys } from '../api/keys';
 import type { CampaignWithRole } from '../api/types';
-import { updateBody, valuesFromCampaign, type CampaignFormValues, type FormErrors } from '../lib/campaign-form';
+import { updateBody, valuesFromCampaign, type FormErrors } from '../lib/campaign-form';
 import { ASSAY_LABEL, MEASURE_LABEL, STATUS_MARK, uncertaintyUnit } from '../lib/labels';
-import { CampaignFields } from './campaign-fields';
+import { CampaignFields, useCampaignFormState } from './campaign-fields';
 
 /** What the campaign is, at a glance; editors open an edit form that checks the version it read. */
 export function CampaignHeader({ campaign, canEdit }: { campaign: CampaignWithRole; canEdit: boolean }) {
@@ -61,17 +61,10 @@ function Item({ term, detail }: { term: string; detail: ReactNode }) {
 function EditCampaignForm({ campaign, onDone, onReloaded }: { campaign: CampaignWithRole; onDone: () => void; onReloaded: () => void }) {
   // The version the form was opened at: a save checks it, so nobody overwrites a change unseen.
   const [base] = useState(campaign);
-  const [values, setValues] = useState<CampaignFormValues>(() => valuesFromCampaign(campaign));
-  const [errors, setErrors] = useState<FormErrors>({});
+  const { values, errors, setErrors, set } = useCampaignFormState(() => valuesFromCampaign(campaign));
   const [conflict, setConflict] = useState<number | null>(null);
   const update = useUpdateCampaign(campaign.id, campaign.projectId);
   const client = useQueryClient();
-  const set =
-    <K extends keyof CampaignFormValues>(key: K) =>
-    (value: CampaignFormValues[K]) => {
-      setValues((v) => ({ ...v, [key]: value }));
-      setErrors(({ [key]: _gone, ...rest }) => rest);
-    };
   return (
     <form
       noValidate

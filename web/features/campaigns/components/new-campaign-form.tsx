@@ -1,24 +1,16 @@
-import { useState } from 'react';
 import { useNavigate } from 'react-router-dom';
 import { Button, FormAlert } from '../../../components/ui/form';
 import { paths } from '../../../config/paths';
 import { ApiError } from '../../../lib/api-client';
 import { useCreateCampaign } from '../api/campaigns';
-import { blankCampaign, createBody, type CampaignFormValues, type FormErrors } from '../lib/campaign-form';
-import { CampaignFields } from './campaign-fields';
+import { blankCampaign, createBody, type FormErrors } from '../lib/campaign-form';
+import { CampaignFields, useCampaignFormState } from './campaign-fields';
 
 /** A new campaign in the project (editors and owners); opens it when created. */
 export function NewCampaignForm({ projectId, onCancel }: { projectId: string; onCancel: () => void }) {
-  const [values, setValues] = useState<CampaignFormValues>(blankCampaign);
-  const [errors, setErrors] = useState<FormErrors>({});
+  const { values, errors, setErrors, set } = useCampaignFormState(blankCampaign);
   const create = useCreateCampaign(projectId);
   const navigate = useNavigate();
-  const set =
-    <K extends keyof CampaignFormValues>(key: K) =>
-    (value: CampaignFormValues[K]) => {
-      setValues((v) => ({ ...v, [key]: value }));
-      setErrors(({ [key]: _gone, ...rest }) => rest);
-    };
   return (
     <form
       noValidate
