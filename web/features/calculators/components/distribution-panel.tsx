@@ -1,7 +1,7 @@
 import { useState, type FormEvent } from 'react';
 import type { DistributionRequest, DistributionResponse } from '../../../../api/features/kinetics/schemas';
 import { LineChart } from '../../../components/charts/line-chart';
-import { thermalColor } from '../../../components/charts/thermal-scale';
+import { TemperatureCells } from '../../../components/charts/temperature-swatch';
 import { SafetyCaution } from '../../../components/ui/caution';
 import { Panel } from '../../../components/ui/page';
 import type { FieldError } from '../../../lib/api-client';
@@ -295,10 +295,7 @@ function DistributionResult({ data }: { data: DistributionResponse }) {
             <tbody>
               {data.points.map((pt) => (
                 <tr key={pt.kelvin} className="border-b border-slate-100 last:border-0 hover:bg-slate-50">
-                  <td className="py-1 pl-2">
-                    <span className="inline-block h-2 w-2 rounded-full align-middle" style={{ background: thermalColor(pt.celsius) }} aria-hidden="true" />
-                  </td>
-                  <td className="px-2 py-1">{fixed(pt.celsius, 1)}</td>
+                  <TemperatureCells celsius={pt.celsius} />
                   {pt.percents.map((v, i) => (
                     <td key={i} className="px-2 py-1">
                       {percent(v)}

@@ -1,6 +1,6 @@
 import type { ErosionResponse } from '../../../../api/features/kinetics/schemas';
 import { LineChart, type LineChartSeries } from '../../../components/charts/line-chart';
-import { thermalColor } from '../../../components/charts/thermal-scale';
+import { TemperatureCells } from '../../../components/charts/temperature-swatch';
 import { SafetyCaution } from '../../../components/ui/caution';
 import { Panel } from '../../../components/ui/page';
 import { fixed, percent, sig } from '../../../lib/format';
@@ -116,10 +116,7 @@ function ErosionResult({ data, floorPercent }: { data: ErosionResponse; floorPer
           <tbody>
             {data.points.map((p) => (
               <tr key={p.kelvin} className="border-b border-slate-100 last:border-0 hover:bg-slate-50">
-                <td className="py-1 pl-2">
-                  <span className="inline-block h-2 w-2 rounded-full align-middle" style={{ background: thermalColor(p.celsius) }} aria-hidden="true" />
-                </td>
-                <td className="px-2 py-1">{fixed(p.celsius, 1)}</td>
+                <TemperatureCells celsius={p.celsius} />
                 <td className="px-2 py-1">{fixed(p.dG['kJ/mol'], 1)}</td>
                 <td className="px-2 py-1">{sci(p.kePerS)}</td>
                 <td className="px-2 py-1">{sci(racemization ? (p.kRacPerS ?? 2 * p.kePerS) : p.kRelaxationPerS)}</td>

@@ -1,5 +1,5 @@
 import type { ForecastResponse } from '../../../../api/features/compute/schemas';
-import { thermalColor } from '../../../components/charts/thermal-scale';
+import { TemperatureCells } from '../../../components/charts/temperature-swatch';
 import { enantiomericRatio, fixed, percent, sig } from '../../../lib/format';
 
 type Point = ForecastResponse['points'][number];
@@ -53,14 +53,7 @@ export function ForecastTable({ points, spec }: { points: Point[]; spec?: { valu
               const meets = spec ? (spec.measure === 'ee' ? p.eePercent : p.percentA) >= spec.value : null;
               return (
                 <tr key={p.kelvin} className="border-b border-slate-100 last:border-0 hover:bg-slate-50">
-                  <td className="py-1 pl-2">
-                    <span
-                      className="inline-block h-2 w-2 rounded-full align-middle"
-                      style={{ background: thermalColor(p.celsius) }}
-                      aria-hidden="true"
-                    />
-                  </td>
-                  <td className="px-2 py-1">{fixed(p.celsius, 1)}</td>
+                  <TemperatureCells celsius={p.celsius} />
                   <td className="px-2 py-1 text-ink-600">{fixed(p.kelvin, 2)}</td>
                   <td className="px-2 py-1 font-medium text-ink-950">{percent(p.eePercent)}</td>
                   <td className="px-2 py-1">{percent(p.percentA)}</td>

@@ -1,6 +1,6 @@
 import type { RateResponse } from '../../../../api/features/kinetics/schemas';
 import { LineChart, type LineChartSeries } from '../../../components/charts/line-chart';
-import { thermalColor } from '../../../components/charts/thermal-scale';
+import { TemperatureCells } from '../../../components/charts/temperature-swatch';
 import { SafetyCaution } from '../../../components/ui/caution';
 import { Panel } from '../../../components/ui/page';
 import { fixed, sig } from '../../../lib/format';
@@ -139,10 +139,7 @@ function RateResult({ data }: { data: RateResponse }) {
           <tbody>
             {data.points.map((p) => (
               <tr key={p.kelvin} className="border-b border-slate-100 last:border-0 hover:bg-slate-50">
-                <td className="py-1 pl-2">
-                  <span className="inline-block h-2 w-2 rounded-full align-middle" style={{ background: thermalColor(p.celsius) }} aria-hidden="true" />
-                </td>
-                <td className="px-2 py-1">{fixed(p.celsius, 1)}</td>
+                <TemperatureCells celsius={p.celsius} />
                 <td className="px-2 py-1">{sci(p.k)}</td>
                 {data.order === 'pseudo-first' && <td className="px-2 py-1">{p.kObsPerS === null ? '—' : sci(p.kObsPerS)}</td>}
                 <td className="px-2 py-1">{p.halfLife.text}</td>
