@@ -1,6 +1,7 @@
 import { useContext, useId } from 'react';
-import { DataContext } from '@visx/xychart';
-import { chartColors, chartFont } from './chart-theme';
+import { Axis, DataContext } from '@visx/xychart';
+import { fixed } from '../../lib/format';
+import { axisLabelProps, chartColors, chartFont, tickLabelProps } from './chart-theme';
 import { thermalColor } from './thermal-scale';
 
 type NumberScale = ((value: number) => number | undefined) & { domain(): unknown[] };
@@ -123,5 +124,19 @@ export function ThermalStrip({ toCelsius }: { toCelsius: (x: number) => number }
       </defs>
       <rect x={Math.min(x0, x1)} y={area.margin.top - 7} width={Math.abs(x1 - x0)} height={4} rx={1} fill={`url(#thermal-${id})`} />
     </g>
+  );
+}
+
+/** The bottom axis of every chart drawn against temperature in °C. */
+export function CelsiusAxis() {
+  return (
+    <Axis
+      orientation="bottom"
+      numTicks={7}
+      label="Temperature (°C)"
+      labelProps={axisLabelProps}
+      tickLabelProps={tickLabelProps}
+      tickFormat={(v) => fixed(Number(v), 0)}
+    />
   );
 }

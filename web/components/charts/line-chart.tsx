@@ -1,7 +1,7 @@
 import { useMemo } from 'react';
 import { Axis, GlyphSeries, Grid, LineSeries, Tooltip, XYChart, type GlyphProps } from '@visx/xychart';
 import { fixed } from '../../lib/format';
-import { ThermalStrip } from './chart-layers';
+import { CelsiusAxis, ThermalStrip } from './chart-layers';
 import { axisLabelProps, chartColors, chartTheme, paddedExtent, tickLabelProps } from './chart-theme';
 import { LegendItem } from './eyring-plot';
 import { useElementWidth } from './use-element-width';
@@ -136,14 +136,7 @@ export function LineChart({
                 </g>
               );
             })}
-            <Axis
-              orientation="bottom"
-              numTicks={7}
-              label="Temperature (°C)"
-              labelProps={axisLabelProps}
-              tickLabelProps={tickLabelProps}
-              tickFormat={(v) => fixed(Number(v), 0)}
-            />
+            <CelsiusAxis />
             <Axis
               orientation="left"
               numTicks={5}

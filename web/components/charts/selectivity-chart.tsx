@@ -1,7 +1,7 @@
 import { useId, useMemo } from 'react';
 import { AreaSeries, Axis, GlyphSeries, Grid, LineSeries, Tooltip, XYChart, type GlyphProps } from '@visx/xychart';
 import { enantiomericRatio, fixed, percent } from '../../lib/format';
-import { HorizontalRule, ThermalStrip, VerticalMark } from './chart-layers';
+import { CelsiusAxis, HorizontalRule, ThermalStrip, VerticalMark } from './chart-layers';
 import { axisLabelProps, chartColors, chartTheme, paddedExtent, tickLabelProps } from './chart-theme';
 import { LegendItem } from './eyring-plot';
 import { useElementWidth } from './use-element-width';
@@ -165,14 +165,7 @@ export function SelectivityChart({
               <GlyphSeries dataKey="measurements" data={pointData} xAccessor={xOf} yAccessor={yOf} renderGlyph={PointGlyph} />
             )}
             {mark && <VerticalMark x={mark.celsius} label={mark.label} />}
-            <Axis
-              orientation="bottom"
-              numTicks={7}
-              label="Temperature (°C)"
-              labelProps={axisLabelProps}
-              tickLabelProps={tickLabelProps}
-              tickFormat={(v) => fixed(Number(v), 0)}
-            />
+            <CelsiusAxis />
             <Axis
               orientation="left"
               numTicks={6}
