@@ -54,7 +54,14 @@ export function BarrierFields({
               errors={errors}
               placeholder={placeholders.energy}
               width="w-20"
-              unit={<SelectField label={unitLabel('energy')} value={form.dGUnit} options={energyUnitOptions} onChange={(dGUnit) => onChange({ dGUnit })} />}
+              unit={
+                <SelectField
+                  label={unitLabel('energy')}
+                  value={form.dGUnit}
+                  options={energyUnitOptions}
+                  onChange={(dGUnit) => onChange({ dGUnit })}
+                />
+              }
             />
             <NumberField
               label="at temperature"
@@ -82,7 +89,14 @@ export function BarrierFields({
             errors={errors}
             placeholder={placeholders.energy}
             width="w-20"
-            unit={<SelectField label={unitLabel('energy')} value={form.dHUnit} options={energyUnitOptions} onChange={(dHUnit) => onChange({ dHUnit })} />}
+            unit={
+              <SelectField
+                label={unitLabel('energy')}
+                value={form.dHUnit}
+                options={energyUnitOptions}
+                onChange={(dHUnit) => onChange({ dHUnit })}
+              />
+            }
           />
         )}
       </div>
@@ -95,7 +109,14 @@ export function BarrierFields({
         placeholder={dSOptional ? 'assumed 0' : placeholders.entropy}
         hint={dSOptional ? 'Empty: taken as 0, so ΔG‡ is the same at every temperature.' : undefined}
         width="w-20"
-        unit={<SelectField label={unitLabel('entropy')} value={form.dSUnit} options={entropyUnitOptions} onChange={(dSUnit) => onChange({ dSUnit })} />}
+        unit={
+          <SelectField
+            label={unitLabel('entropy')}
+            value={form.dSUnit}
+            options={entropyUnitOptions}
+            onChange={(dSUnit) => onChange({ dSUnit })}
+          />
+        }
       />
     </>
   );

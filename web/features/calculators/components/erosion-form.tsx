@@ -47,7 +47,15 @@ export function ErosionForm({
           { value: 'activation', label: 'ΔH‡ + ΔS‡' },
         ]}
       />
-      <BarrierFields kind={form.kind} form={form} onChange={onChange} errors={errors} path="barrier" name="Barrier" placeholders={{ energy: 'e.g. 25', entropy: 'e.g. −10' }} />
+      <BarrierFields
+        kind={form.kind}
+        form={form}
+        onChange={onChange}
+        errors={errors}
+        path="barrier"
+        name="Barrier"
+        placeholders={{ energy: 'e.g. 25', entropy: 'e.g. −10' }}
+      />
 
       <div className="flex flex-wrap items-start gap-3 border-t border-slate-200 pt-3">
         <NumberField
@@ -78,7 +86,14 @@ export function ErosionForm({
           errors={errors}
           placeholder="e.g. 12"
           width="w-20"
-          unit={<SelectField label="Hold time unit" value={form.holdUnit} options={durationUnitOptions} onChange={(holdUnit) => onChange({ holdUnit })} />}
+          unit={
+            <SelectField
+              label="Hold time unit"
+              value={form.holdUnit}
+              options={durationUnitOptions}
+              onChange={(holdUnit) => onChange({ holdUnit })}
+            />
+          }
         />
         <NumberField
           label="Equilibrium K = [B]/[A], optional"

@@ -2,15 +2,14 @@ import type { ErosionResponse } from '../../../../api/features/kinetics/schemas'
 import { LineChart, type LineChartSeries } from '../../../components/charts/line-chart';
 import { TemperatureCells } from '../../../components/charts/temperature-swatch';
 import { SafetyCaution } from '../../../components/ui/caution';
-import { Panel } from '../../../components/ui/page';
 import { fixed, percent, sig } from '../../../lib/format';
 import { useErosion } from '../api/post-erosion';
 import { initialErosionForm, toErosionRequest } from '../lib/erosion-form';
 import { unmatchedErrors } from '../lib/field-errors';
 import { useCalculator } from '../lib/use-calculator';
+import { CalculatorLayout } from './calculator-layout';
 import { ErosionForm, erosionFieldPaths } from './erosion-form';
-import { UnplacedErrors } from './fields';
-import { durationTick, durationTicks, EmptyResult, ResultNotes, sci, Th } from './kinetics-parts';
+import { durationTick, durationTicks, ResultNotes, sci, Th } from './kinetics-parts';
 
 type Point = ErosionResponse['points'][number];
 
@@ -28,27 +27,19 @@ export function ErosionPanel() {
     useResult: useErosion,
   });
   const leftover = unmatchedErrors(errors, erosionFieldPaths);
-  const data = query.data;
 
   return (
-    <Panel title="Erosion during a hold">
-      <div className="grid gap-6 lg:grid-cols-[minmax(0,24rem)_minmax(0,1fr)]">
-        <div className="flex flex-col gap-3">
-          <ErosionForm form={form} onChange={patch} onSubmit={submit} errors={errors} busy={query.isFetching} />
-          <UnplacedErrors error={query.error} clientErrors={clientErrors} serverErrors={serverErrors} leftover={leftover} />
-        </div>
-        <div className="flex min-w-0 flex-col gap-3" aria-live="polite">
-          {!data && !query.isFetching && (
-            <EmptyResult failed={Boolean(query.error)}>Give the barrier, the initial ee and a range, then press Calculate erosion.</EmptyResult>
-          )}
-          {data && (
-            <div className={`flex flex-col gap-3 ${query.isPlaceholderData ? 'opacity-60' : ''}`}>
-              <ErosionResult data={data} floorPercent={request?.eeFloorPercent ?? null} />
-            </div>
-          )}
-        </div>
-      </div>
-    </Panel>
+    <CalculatorLayout
+      title="Erosion during a hold"
+      form={<ErosionForm form={form} onChange={patch} onSubmit={submit} errors={errors} busy={query.isFetching} />}
+      query={query}
+      clientErrors={clientErrors}
+      serverErrors={serverErrors}
+      leftover={leftover}
+      prompt="Give the barrier, the initial ee and a range, then press Calculate erosion."
+    >
+      {(data) => <ErosionResult data={data} floorPercent={request?.eeFloorPercent ?? null} />}
+    </CalculatorLayout>
   );
 }
 
@@ -72,17 +63,21 @@ function ErosionResult({ data, floorPercent }: { data: ErosionResponse; floorPer
 
   return (
     <>
-      <section aria-label="Stability class at 37 °C" className="tnum rounded border border-slate-200 bg-slate-50 px-3 py-2 text-sm text-ink-800">
+      <section
+        aria-label="Stability class at 37 °C"
+        className="tnum rounded border border-slate-200 bg-slate-50 px-3 py-2 text-sm text-ink-800"
+      >
         <p>
-          <span className="font-medium text-ink-950">Stability class {cls.class} at 37 °C</span> — ΔG‡ {fixed(cls.dG['kcal/mol'], 1)} kcal/mol (
-          {fixed(cls.dG['kJ/mol'], 1)} kJ/mol), ee half-life {cls.eeHalfLife.text}. {cls.description}
+          <span className="font-medium text-ink-950">Stability class {cls.class} at 37 °C</span> — ΔG‡ {fixed(cls.dG['kcal/mol'], 1)}{' '}
+          kcal/mol ({fixed(cls.dG['kJ/mol'], 1)} kJ/mol), ee half-life {cls.eeHalfLife.text}. {cls.description}
         </p>
         <p className="mt-1 text-xs text-ink-600">{cls.definition}</p>
         <p className="mt-0.5 text-xs text-ink-600">Source: {cls.source}</p>
       </section>
       {data.equilibrium && (
         <p className="tnum text-sm text-ink-800">
-          Epimerization towards K = [B]/[A] = {sig(data.equilibrium.ratio, 3)}: the excess relaxes to {fixed(data.equilibrium.excessPercent, 1)} %, not to 0.
+          Epimerization towards K = [B]/[A] = {sig(data.equilibrium.ratio, 3)}: the excess relaxes to{' '}
+          {fixed(data.equilibrium.excessPercent, 1)} %, not to 0.
         </p>
       )}
 

@@ -56,7 +56,9 @@ function RunFields({
           errors={errors}
           placeholder="e.g. 4"
           width="w-20"
-          unit={<SelectField label="Time unit" value={run.timeUnit} options={durationUnitOptions} onChange={(timeUnit) => set({ timeUnit })} />}
+          unit={
+            <SelectField label="Time unit" value={run.timeUnit} options={durationUnitOptions} onChange={(timeUnit) => set({ timeUnit })} />
+          }
         />
         <NumberField
           label="at temperature"
@@ -125,7 +127,13 @@ export function RateForm({
         />
       )}
       {form.kind === 'two-runs' && (
-        <RunFields title="Second run, at another temperature" path="basis.runs.1" run={form.run2} onChange={(run2) => onChange({ run2 })} errors={errors} />
+        <RunFields
+          title="Second run, at another temperature"
+          path="basis.runs.1"
+          run={form.run2}
+          onChange={(run2) => onChange({ run2 })}
+          errors={errors}
+        />
       )}
       {form.kind === 'one-run' && (
         <NumberField
@@ -148,7 +156,14 @@ export function RateForm({
       )}
 
       {(form.kind === 'gibbs' || form.kind === 'activation') && (
-        <BarrierFields kind={form.kind} form={form} onChange={onChange} errors={errors} path="basis" placeholders={{ energy: form.kind === 'gibbs' ? 'e.g. 90' : 'e.g. 60', entropy: 'e.g. −90' }} />
+        <BarrierFields
+          kind={form.kind}
+          form={form}
+          onChange={onChange}
+          errors={errors}
+          path="basis"
+          placeholders={{ energy: form.kind === 'gibbs' ? 'e.g. 90' : 'e.g. 60', entropy: 'e.g. −90' }}
+        />
       )}
 
       <fieldset className="flex flex-col gap-2 border-t border-slate-200 pt-3">

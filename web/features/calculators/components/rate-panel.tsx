@@ -2,14 +2,13 @@ import type { RateResponse } from '../../../../api/features/kinetics/schemas';
 import { LineChart, type LineChartSeries } from '../../../components/charts/line-chart';
 import { TemperatureCells } from '../../../components/charts/temperature-swatch';
 import { SafetyCaution } from '../../../components/ui/caution';
-import { Panel } from '../../../components/ui/page';
 import { fixed, sig } from '../../../lib/format';
 import { useRate } from '../api/post-rate';
 import { unmatchedErrors } from '../lib/field-errors';
 import { useCalculator } from '../lib/use-calculator';
+import { CalculatorLayout } from './calculator-layout';
 import { initialRateForm, toRateRequest } from '../lib/rate-form';
-import { UnplacedErrors } from './fields';
-import { durationTick, durationTicks, EmptyResult, kUnitText, ResultNotes, sci, Th } from './kinetics-parts';
+import { durationTick, durationTicks, kUnitText, ResultNotes, sci, Th } from './kinetics-parts';
 import { RateForm, rateFieldPaths } from './rate-form';
 
 const SOURCE_TEXT: Record<RateResponse['activation']['source'], string> = {
@@ -30,27 +29,19 @@ export function RatePanel() {
     useResult: useRate,
   });
   const leftover = unmatchedErrors(errors, rateFieldPaths);
-  const data = query.data;
 
   return (
-    <Panel title="Time to finish">
-      <div className="grid gap-6 lg:grid-cols-[minmax(0,24rem)_minmax(0,1fr)]">
-        <div className="flex flex-col gap-3">
-          <RateForm form={form} onChange={patch} onSubmit={submit} errors={errors} busy={query.isFetching} />
-          <UnplacedErrors error={query.error} clientErrors={clientErrors} serverErrors={serverErrors} leftover={leftover} />
-        </div>
-        <div className="flex min-w-0 flex-col gap-3" aria-live="polite">
-          {!data && !query.isFetching && (
-            <EmptyResult failed={Boolean(query.error)}>Describe a run (or a barrier), the order and a range, then press Calculate times.</EmptyResult>
-          )}
-          {data && (
-            <div className={`flex flex-col gap-3 ${query.isPlaceholderData ? 'opacity-60' : ''}`}>
-              <RateResult data={data} />
-            </div>
-          )}
-        </div>
-      </div>
-    </Panel>
+    <CalculatorLayout
+      title="Time to finish"
+      form={<RateForm form={form} onChange={patch} onSubmit={submit} errors={errors} busy={query.isFetching} />}
+      query={query}
+      clientErrors={clientErrors}
+      serverErrors={serverErrors}
+      leftover={leftover}
+      prompt="Describe a run (or a barrier), the order and a range, then press Calculate times."
+    >
+      {(data) => <RateResult data={data} />}
+    </CalculatorLayout>
   );
 }
 
@@ -82,7 +73,8 @@ function RateResult({ data }: { data: RateResponse }) {
       <dl className="tnum grid grid-cols-[auto_1fr] gap-x-3 gap-y-0.5 rounded border border-slate-200 bg-slate-50 px-3 py-2 text-sm">
         <dt className="text-ink-600">ΔH‡</dt>
         <dd className="text-ink-950">
-          {fixed(a.dH['kJ/mol'], 1)} kJ/mol ({fixed(a.dH['kcal/mol'], 2)} kcal/mol), <span className="text-ink-600">{SOURCE_TEXT[a.source]}</span>
+          {fixed(a.dH['kJ/mol'], 1)} kJ/mol ({fixed(a.dH['kcal/mol'], 2)} kcal/mol),{' '}
+          <span className="text-ink-600">{SOURCE_TEXT[a.source]}</span>
         </dd>
         <dt className="text-ink-600">ΔS‡</dt>
         <dd className="text-ink-950">
@@ -128,9 +120,7 @@ function RateResult({ data }: { data: RateResponse }) {
               <Th>t½</Th>
               <Th className="text-ink-950">Time to {target} %</Th>
               {variants.map((v) => (
-                <Th key={v.dH['kJ/mol']}>
-                  if ΔH‡ {signedKJ(v.dH['kJ/mol'] - a.dH['kJ/mol'])} kJ/mol
-                </Th>
+                <Th key={v.dH['kJ/mol']}>if ΔH‡ {signedKJ(v.dH['kJ/mol'] - a.dH['kJ/mol'])} kJ/mol</Th>
               ))}
               <Th>ΔG‡ (kJ/mol)</Th>
               <Th>Ea (kJ/mol)</Th>
