@@ -1,8 +1,8 @@
 import { distributionRequestSchema, type DistributionRequest } from '../../../../api/features/kinetics/schemas';
 import type { FieldError } from '../../../lib/api-client';
-import { zodFieldErrors } from './field-errors';
+import { validateRequest } from './field-errors';
 import type { EnergyUnit, EntropyUnit } from './forecast-form';
-import { numberText as num } from './number-text';
+import { numberText as num, rangeText } from './number-text';
 import type { TemperatureUnit } from './parse-screen';
 
 /** One competing pathway as typed. `mode` says whether its barrier is a relative G‡ or H‡ and S‡. */
@@ -89,13 +89,7 @@ export function toDistributionRequest(form: DistributionFormState): { request: D
   }));
   const candidate = {
     pathways,
-    temperatures: {
-      from: { value: num(form.rangeFrom), unit: form.rangeUnit },
-      to: { value: num(form.rangeTo), unit: form.rangeUnit },
-      count: num(form.count),
-    },
+    temperatures: rangeText(form),
   };
-  const parsed = distributionRequestSchema.safeParse(candidate);
-  if (!parsed.success) return { request: null, errors: zodFieldErrors(parsed.error) };
-  return { request: parsed.data, errors: [] };
+  return validateRequest(distributionRequestSchema, candidate);
 }

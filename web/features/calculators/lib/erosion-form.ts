@@ -1,8 +1,8 @@
 import { erosionRequestSchema, type ErosionRequest } from '../../../../api/features/kinetics/schemas';
 import type { FieldError } from '../../../lib/api-client';
-import { zodFieldErrors } from './field-errors';
+import { validateRequest } from './field-errors';
 import type { EnergyUnit, EntropyUnit } from './forecast-form';
-import { numberText as num } from './number-text';
+import { numberText as num, rangeText } from './number-text';
 import type { TemperatureUnit } from './parse-screen';
 import type { DurationUnit } from './rate-form';
 
@@ -70,13 +70,7 @@ export function toErosionRequest(form: ErosionFormState): { request: ErosionRequ
     ...(hold === undefined ? {} : { hold: { value: hold, unit: form.holdUnit } }),
     ...(floor === undefined ? {} : { eeFloorPercent: floor }),
     ...(ratio === undefined ? {} : { equilibriumRatio: ratio }),
-    temperatures: {
-      from: { value: num(form.rangeFrom), unit: form.rangeUnit },
-      to: { value: num(form.rangeTo), unit: form.rangeUnit },
-      count: num(form.count),
-    },
+    temperatures: rangeText(form),
   };
-  const parsed = erosionRequestSchema.safeParse(candidate);
-  if (!parsed.success) return { request: null, errors: zodFieldErrors(parsed.error) };
-  return { request: parsed.data, errors: [] };
+  return validateRequest(erosionRequestSchema, candidate);
 }

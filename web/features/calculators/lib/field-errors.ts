@@ -48,3 +48,9 @@ export function unmatchedErrors(errors: FieldError[], fieldPaths: string[]): Fie
 export function apiFieldErrors(error: unknown): FieldError[] {
   return error instanceof ApiError ? error.fieldErrors : [];
 }
+
+/** Check a request built from form text with its API schema: the request, or the field errors. */
+export function validateRequest<T>(schema: z.ZodType<T>, candidate: unknown): { request: T | null; errors: FieldError[] } {
+  const parsed = schema.safeParse(candidate);
+  return parsed.success ? { request: parsed.data, errors: [] } : { request: null, errors: zodFieldErrors(parsed.error) };
+}

@@ -1,6 +1,7 @@
 import { forecastRequestSchema, type ForecastRequest } from '../../../../api/features/compute/schemas';
+import { numberText as num, rangeText } from './number-text';
 import type { FieldError } from '../../../lib/api-client';
-import { zodFieldErrors } from './field-errors';
+import { validateRequest } from './field-errors';
 import type { SelectivityMeasure, TemperatureUnit } from './parse-screen';
 
 export type BasisKind = 'observed' | 'gap' | 'activation';
@@ -47,16 +48,6 @@ export const initialForecastForm: ForecastFormState = {
   count: '13',
 };
 
-/** Empty text is "not given"; anything else must read as a number (NaN lets the schema say so). */
-function num(text: string): number | undefined {
-  const t = text
-    .trim()
-    .replace(/\u2212/g, '-')
-    .replace(',', '.');
-  if (t === '') return undefined;
-  return /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/.test(t) ? Number(t) : NaN;
-}
-
 /** The signed ΔΔG‡ the request will carry, or undefined while the size is not a number. */
 export function signedGap(form: ForecastFormState): number | undefined {
   const size = num(form.gap);
@@ -86,16 +77,9 @@ export function toForecastRequest(form: ForecastFormState): { request: ForecastR
   } else {
     basis = { kind: 'activation', ddH: { value: num(form.ddH), unit: form.ddHUnit }, ddS: { value: ddSValue, unit: form.ddSUnit } };
   }
-  const count = num(form.count);
   const candidate = {
     basis,
-    temperatures: {
-      from: { value: num(form.rangeFrom), unit: form.rangeUnit },
-      to: { value: num(form.rangeTo), unit: form.rangeUnit },
-      count,
-    },
+    temperatures: rangeText(form),
   };
-  const parsed = forecastRequestSchema.safeParse(candidate);
-  if (!parsed.success) return { request: null, errors: zodFieldErrors(parsed.error) };
-  return { request: parsed.data, errors: [] };
+  return validateRequest(forecastRequestSchema, candidate);
 }

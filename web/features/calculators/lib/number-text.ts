@@ -10,3 +10,12 @@ export function numberText(text: string): number | undefined {
   if (t === '') return undefined;
   return /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/.test(t) ? Number(t) : NaN;
 }
+
+/** A temperature range as typed (from, to, unit, count) in the API's `{ from, to, count }` shape. */
+export function rangeText(form: { rangeFrom: string; rangeTo: string; rangeUnit: 'K' | 'C' | 'F'; count: string }) {
+  return {
+    from: { value: numberText(form.rangeFrom), unit: form.rangeUnit },
+    to: { value: numberText(form.rangeTo), unit: form.rangeUnit },
+    count: numberText(form.count),
+  };
+}

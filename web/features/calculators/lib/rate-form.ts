@@ -1,8 +1,8 @@
 import { rateRequestSchema, type RateRequest } from '../../../../api/features/kinetics/schemas';
 import type { FieldError } from '../../../lib/api-client';
-import { zodFieldErrors } from './field-errors';
+import { validateRequest } from './field-errors';
 import type { EnergyUnit, EntropyUnit } from './forecast-form';
-import { numberText as num } from './number-text';
+import { numberText as num, rangeText } from './number-text';
 import type { TemperatureUnit } from './parse-screen';
 
 export type DurationUnit = 's' | 'min' | 'h' | 'd';
@@ -113,13 +113,7 @@ export function toRateRequest(form: RateFormState): { request: RateRequest | nul
     setup,
     basis,
     targetConversionPercent: num(form.target),
-    temperatures: {
-      from: { value: num(form.rangeFrom), unit: form.rangeUnit },
-      to: { value: num(form.rangeTo), unit: form.rangeUnit },
-      count: num(form.count),
-    },
+    temperatures: rangeText(form),
   };
-  const parsed = rateRequestSchema.safeParse(candidate);
-  if (!parsed.success) return { request: null, errors: zodFieldErrors(parsed.error) };
-  return { request: parsed.data, errors: [] };
+  return validateRequest(rateRequestSchema, candidate);
 }
