@@ -11,6 +11,7 @@ export * from './forecast';
 export * from './regression';
 export * from './eyring-fit';
 export * from './two-branch';
+export * from './segmented';
 export * from './distribution';
 export * from './rate';
 export * from './erosion';
