@@ -141,7 +141,7 @@ describe('POST /api/v1/fit', () => {
     expect(pred.confidenceInterval.eePercent[0]).toBeGreaterThan(pred.predictionInterval.eePercent[0]);
     expect(res.body.correlation).toBeGreaterThan(0.95);
     expect(res.body.caution).toMatch(/process-safety review/);
-    expect(res.body.twoBranch).toBeNull();
+    expect(res.body.twoBranch).toMatchObject({ checked: false, preferred: 'one-line', claim: null });
   });
 
   it('when only two runs are given, then the line is exact, intervals are absent and a warning says so', async () => {

@@ -116,6 +116,10 @@ export const comparisonResponseSchema = z
         ddS: entropyWithSe.nullable(),
         prediction: fitPredictionSchema.nullable(),
         preferred: z.enum(['one-line', 'two-branch']).nullable(),
+        /** The accepted break (isoinversion only when the branch slopes have opposite signs); null when none is claimed. */
+        breakAt: z
+          .object({ claim: z.enum(['isoinversion', 'change-of-slope']), extremum: z.enum(['maximum', 'minimum']).nullable(), kelvin: z.number(), celsius: z.number() })
+          .nullable(),
         warnings: z.number().int(),
         problem: problemSummarySchema.nullable(),
       }),

@@ -122,7 +122,7 @@ export function computeAnalysis(campaign: Pick<Campaign, 'id' | 'version' | 'mea
     const asked = fit.warnings.find((w) => w.code === 'extrapolation');
     fit.warnings =
       at?.extrapolated && asked
-        ? [...others, { code: 'extrapolation', message: `${at.celsius.toFixed(1).replace("-", "−")} °C lies outside the screened range; the forecast assumes the same straight line continues, which a change of mechanism would break.` }]
+        ? [...others, { code: 'extrapolation', message: `${at.celsius.toFixed(1).replace("-", "−")} °C lies outside the screened range; the forecast assumes the ${at.model === 'segmented' ? `${at.branch === 'low' ? 'low' : 'high'}-temperature branch` : 'same straight line'} continues, which a change of mechanism would break.` }]
         : others;
   }
 
@@ -321,12 +321,19 @@ export async function compareCampaigns(db: Knex, projectId: string, atCelsius: n
         ddS: fit ? { 'J/(mol*K)': fit.ddS['J/(mol*K)'], 'cal/(mol*K)': fit.ddS['cal/(mol*K)'], se: fit.ddS.se } : null,
         prediction: a.at,
         preferred: fit?.twoBranch?.preferred ?? null,
+        breakAt: breakAt(fit),
         warnings: fit?.warnings.length ?? 0,
         problem: a.problem,
       };
     }),
     convention: SIGN_CONVENTION,
   };
+}
+
+function breakAt(fit: FitResponse | null): ComparisonResponse['campaigns'][number]['breakAt'] {
+  const tb = fit?.twoBranch;
+  if (!tb?.checked || !tb.claim || !tb.break) return null;
+  return { claim: tb.claim, extremum: tb.extremum, kelvin: tb.break.kelvin, celsius: tb.break.celsius };
 }
 
 /** Everything the spreadsheet report needs, read in one place. */

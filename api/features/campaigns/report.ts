@@ -85,20 +85,7 @@ function summaryRows(data: ReportData, meta: { appVersion: string; generatedAt: 
       ['Fitted range (K)', fit.temperatureRange.minKelvin, null, null, fit.temperatureRange.maxKelvin, 'K'],
     );
     for (const w of fit.warnings) rows.push(['Warning', w.message, null, null, null, null]);
-    if (fit.twoBranch) {
-      const tb = fit.twoBranch;
-      rows.push(
-        ['Two-branch check', tb.preferred === 'two-branch' ? 'Two straight branches describe the data better than one line' : 'One straight line is adequate', null, null, null, null],
-        ['Two-branch: break between (K)', tb.breakBetweenKelvin[0], null, null, tb.breakBetweenKelvin[1], 'K'],
-        ['Two-branch: F test p (−)', tb.fTest.p, null, null, null, '−'],
-        ['Two-branch: low branch ΔΔH‡ (kJ/mol)', tb.low.ddH['kJ/mol'], null, null, null, 'kJ/mol'],
-        ['Two-branch: high branch ΔΔH‡ (kJ/mol)', tb.high.ddH['kJ/mol'], null, null, null, 'kJ/mol'],
-        ['Two-branch: isoinversion (°C)', tb.isoinversion?.celsius ?? null, null, null, null, '°C'],
-        ['Two-branch note', tb.note, null, null, null, null],
-      );
-    } else {
-      rows.push(['Two-branch check', 'Not enough runs for a two-branch comparison (3 or more fitted runs per branch are needed)', null, null, null, null]);
-    }
+    rows.push(...curvatureRows(fit.twoBranch));
   }
   rows.push(
     ['Caution', SELECTIVITY_CAUTION, null, null, null, null],
@@ -106,6 +93,34 @@ function summaryRows(data: ReportData, meta: { appVersion: string; generatedAt: 
     ['Eyrie version', meta.appVersion, null, null, null, null],
   );
   return rows;
+}
+
+type Row = (string | number | Date | null)[];
+
+/** Curvature rows; a break temperature row only when a break is accepted, an isoinversion only when claimed. */
+function curvatureRows(tb: NonNullable<AnalysisResponse['fit']>['twoBranch']): Row[] {
+  if (!tb.checked) return [['Curvature check', tb.note, null, null, null, null]];
+  const rows: Row[] = [
+    ['Curvature check', tb.preferred === 'two-branch' ? 'Two branches meeting at a break describe the data better than one line; forecasts use them' : 'One straight line is adequate', null, null, null, null],
+    ['Break test p (sup-F, simulated) (−)', tb.breakTest.p, null, null, null, '−'],
+  ];
+  if (tb.lackOfFit) rows.push(['Lack-of-fit F test of one line, p (−)', tb.lackOfFit.p, null, null, null, '−']);
+  if (tb.break && tb.low && tb.high) {
+    const name = tb.claim === 'isoinversion' ? `Isoinversion temperature, where r has a ${tb.extremum} (°C)` : 'Change of slope at (°C)';
+    rows.push(
+      [name, tb.break.celsius, null, tb.break.ci?.celsius[0] ?? null, tb.break.ci?.celsius[1] ?? null, '°C'],
+      ['Low-temperature branch ΔΔH‡ (kJ/mol)', tb.low.ddH['kJ/mol'], tb.low.ddH.se?.['kJ/mol'] ?? null, null, null, 'kJ/mol'],
+      ['High-temperature branch ΔΔH‡ (kJ/mol)', tb.high.ddH['kJ/mol'], tb.high.ddH.se?.['kJ/mol'] ?? null, null, null, 'kJ/mol'],
+    );
+  }
+  rows.push(['Curvature note', tb.note, null, null, null, null]);
+  return rows;
+}
+
+/** Which model a forecast came from (snapshots saved before the segmented model have neither field). */
+function modelLabel(p: { model?: string; branch?: 'low' | 'high' | null }): string {
+  if (p.model !== 'segmented') return 'one line';
+  return p.branch === 'low' ? 'two branches: low-temperature branch' : 'two branches: high-temperature branch';
 }
 
 export function reportFileName(title: string): string {
@@ -167,6 +182,7 @@ export async function buildCampaignReport(data: ReportData, meta: { appVersion: 
       { header: 'Conversion (%)', width: 12, numFmt: '0.0' },
       { header: 'Reaction time (h)', width: 12, numFmt: '0.00' },
       { header: 'Notes', width: 30 },
+      { header: 'Model', width: 28 },
     ],
     data.measurements.map((m, i) => {
       const p = data.analysis.points[i]!;
@@ -211,6 +227,7 @@ export async function buildCampaignReport(data: ReportData, meta: { appVersion: 
       { header: `${level} % prediction interval, ratio low (−)`, width: 16, numFmt: FMT.ratio },
       { header: `${level} % prediction interval, ratio high (−)`, width: 16, numFmt: FMT.ratio },
       { header: 'Extrapolated', width: 12 },
+      { header: 'Model', width: 28 },
     ],
     data.analysis.curve.map((p) => [
       p.kelvin,
@@ -224,6 +241,7 @@ export async function buildCampaignReport(data: ReportData, meta: { appVersion: 
       p.predictionInterval?.ratio[0] ?? null,
       p.predictionInterval?.ratio[1] ?? null,
       p.extrapolated ? 'yes' : 'no',
+      modelLabel(p),
     ]),
   );
 
@@ -243,6 +261,7 @@ export async function buildCampaignReport(data: ReportData, meta: { appVersion: 
       { header: 'Runs measured within ±1 K (count)', width: 14, numFmt: FMT.integer },
       { header: 'Of those inside the prediction interval (count)', width: 16, numFmt: FMT.integer },
       { header: 'Notes', width: 30 },
+      { header: 'Model', width: 28 },
     ],
     data.forecasts.map((f) => [
       new Date(f.createdAt),
@@ -257,6 +276,7 @@ export async function buildCampaignReport(data: ReportData, meta: { appVersion: 
       f.measured.length,
       f.measured.filter((m) => m.insidePredictionInterval === true).length,
       f.notes,
+      modelLabel(f.result),
     ]),
   );
 

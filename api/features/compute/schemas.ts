@@ -113,6 +113,10 @@ export const fitPredictionSchema = selectivityPointSchema
   .extend({
     ddGSe: z.object({ 'kJ/mol': z.number(), 'kcal/mol': z.number() }).nullable(),
     extrapolated: z.boolean(),
+    /** The model this forecast comes from: the segmented model when curvature is accepted. */
+    model: z.enum(['one-line', 'segmented']),
+    /** Under the segmented model, the branch covering this temperature ('low' = colder than the break). */
+    branch: z.enum(['low', 'high']).nullable(),
     confidenceInterval: mappedIntervalSchema.nullable(),
     predictionInterval: mappedIntervalSchema.nullable(),
   })
@@ -152,23 +156,58 @@ export const branchSchema = z.object({
   toKelvin: z.number(),
   n: z.number().int(),
   slope: z.number(),
+  slopeSe: z.number().nullable(),
   intercept: z.number(),
-  ddH: z.object({ 'kJ/mol': z.number(), 'kcal/mol': z.number() }),
+  ddH: z.object({ 'kJ/mol': z.number(), 'kcal/mol': z.number(), se: z.object({ 'kJ/mol': z.number(), 'kcal/mol': z.number() }).nullable() }),
   ddS: z.object({ 'J/(mol*K)': z.number(), 'cal/(mol*K)': z.number() }),
 });
 
-export const twoBranchSchema = z
-  .object({
-    preferred: z.enum(['one-line', 'two-branch']),
-    breakBetweenKelvin: intervalSchema,
-    low: branchSchema,
-    high: branchSchema,
-    fTest: z.object({ F: z.number(), dof1: z.number(), dof2: z.number(), p: z.number() }),
-    informationCriterion: z.object({ name: z.enum(['AICc', 'BIC']), oneLine: z.number(), twoBranch: z.number() }),
-    isoinversion: z.object({ kelvin: z.number(), celsius: z.number() }).nullable(),
-    note: z.string(),
-  })
-  .meta({ id: 'TwoBranchFit' });
+const lackOfFitSchema = z
+  .object({ F: z.number(), dof1: z.number().int(), dof2: z.number().int(), p: z.number() })
+  .meta({ id: 'LackOfFitTest', description: 'Classical lack-of-fit F test of one straight line: lack of fit (dof1 = m − 2) against pure error from replicates (dof2 = n − m).' });
+
+const curvatureCheckedSchema = z.object({
+  checked: z.literal(true),
+  preferred: z.enum(['one-line', 'two-branch']),
+  /** Set only when the break is accepted: an isoinversion (branch slopes of opposite sign) or a change of slope. */
+  claim: z.enum(['isoinversion', 'change-of-slope']).nullable(),
+  /** Whether r has a maximum or a minimum at an isoinversion temperature; null otherwise. */
+  extremum: z.enum(['maximum', 'minimum']).nullable(),
+  /** The break temperature with its confidence interval (upper end null when unbounded); null unless accepted. */
+  break: z
+    .object({
+      kelvin: z.number(),
+      celsius: z.number(),
+      ci: z.object({ kelvin: z.tuple([z.number(), z.number().nullable()]), celsius: z.tuple([z.number(), z.number().nullable()]) }).nullable(),
+      label: z.string(),
+    })
+    .nullable(),
+  /** Branches of the continuous model (they meet at the break); null unless accepted. */
+  low: branchSchema.nullable(),
+  high: branchSchema.nullable(),
+  breakTest: z.object({
+    method: z.literal('sup-F, parametric bootstrap'),
+    F: z.number(),
+    p: z.number(),
+    resamples: z.number().int(),
+    seed: z.number().int(),
+    alpha: z.number(),
+  }),
+  lackOfFit: lackOfFitSchema.nullable(),
+  note: z.string(),
+});
+const curvatureSkippedSchema = z.object({
+  checked: z.literal(false),
+  preferred: z.literal('one-line'),
+  claim: z.null(),
+  lackOfFit: lackOfFitSchema.nullable(),
+  note: z.string(),
+});
+export const twoBranchSchema = z.discriminatedUnion('checked', [curvatureCheckedSchema, curvatureSkippedSchema]).meta({
+  id: 'CurvatureCheck',
+  description:
+    'Continuous two-branch (segmented) model of ln r on 1/T with the break as a parameter, tested against one line by sup-F calibrated with a fixed-seed parametric bootstrap. checked: false when there are too few runs (note says why).',
+});
 
 export const fitResponseSchema = z
   .object({
@@ -188,7 +227,7 @@ export const fitResponseSchema = z
     temperatureRange: z.object({ minKelvin: z.number(), maxKelvin: z.number() }),
     residuals: z.array(residualSchema),
     zeroSelectivity: zeroSelectivitySchema,
-    twoBranch: twoBranchSchema.nullable(),
+    twoBranch: twoBranchSchema,
     warnings: z.array(warningSchema),
     convention: z.string(),
     caution: z.string(),

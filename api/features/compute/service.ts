@@ -10,10 +10,10 @@ import {
   ddGAtTemperature,
   energyToJPerMol,
   entropyToJPerMolK,
+  checkCurvature,
+  chooseScreenModel,
   fitEyring,
-  fitTwoBranch,
   forecastSelectivity,
-  kelvinToCelsius,
   parseSelectivity,
   sigmaLnRatio,
   temperatureToK,
@@ -22,9 +22,9 @@ import {
   type ForecastBasis,
   type SelectivityInput,
   type SelectivityInterval,
-  type TwoBranchFit,
 } from '../../science';
 import { SELECTIVITY_CAUTION } from '../../lib/cautions';
+import { curvatureOut, modelPrediction } from './curvature';
 import { expandTemperatures } from './temperatures';
 import type { FitRequest, FitResponse, ForecastRequest, ForecastResponse } from './schemas';
 
@@ -122,43 +122,21 @@ export function toEyringMeasurements(measurements: FitRequest['measurements']): 
 const mapInterval = (iv: SelectivityInterval | null) =>
   iv ? { ratio: iv.ratio, eePercent: iv.eePercent, percentA: iv.percentA } : null;
 
-function twoBranchOut(tb: TwoBranchFit | null): FitResponse['twoBranch'] {
-  if (!tb) return null;
-  const branch = (b: TwoBranchFit['lowBranch']) => ({
-    fromKelvin: b.temperatureRangeK.min,
-    toKelvin: b.temperatureRangeK.max,
-    n: b.n,
-    slope: b.slopeK,
-    intercept: b.intercept,
-    ddH: ddGOut(b.ddHJPerMol),
-    ddS: { 'J/(mol*K)': b.ddSJPerMolK, 'cal/(mol*K)': calK(b.ddSJPerMolK) },
-  });
-  return {
-    preferred: tb.preferred,
-    breakBetweenKelvin: [tb.lowBranch.temperatureRangeK.max, tb.highBranch.temperatureRangeK.min],
-    low: branch(tb.lowBranch),
-    high: branch(tb.highBranch),
-    fTest: { F: tb.fStatistic, dof1: tb.dof1, dof2: tb.dof2, p: tb.pValue },
-    informationCriterion:
-      tb.criterion === 'AICc'
-        ? { name: 'AICc', oneLine: tb.oneLine.aicc!, twoBranch: tb.twoBranch.aicc! }
-        : { name: 'BIC', oneLine: tb.oneLine.bic, twoBranch: tb.twoBranch.bic },
-    isoinversion: tb.isoinversionTemperatureK === null ? null : { kelvin: tb.isoinversionTemperatureK, celsius: kelvinToCelsius(tb.isoinversionTemperatureK) },
-    note: [tb.reason, tb.isoinversionNote, ...tb.notes].filter(Boolean).join(' '),
-  };
-}
-
 export interface FitOptions {
   weighting: FitRequest['weighting'];
   uncertaintyScale: FitRequest['uncertaintyScale'];
   confidence: number;
 }
 
-/** Fit + two-branch check + predictions, in the API's response shape. Shared with stored campaigns. */
+/**
+ * Fit + curvature check + predictions, in the API's response shape. Shared with stored campaigns.
+ * When the break test accepts curvature, every prediction comes from the segmented model.
+ */
 export function analyseScreen(measurements: EyringMeasurement[], options: FitOptions, predictK: number[]): FitResponse {
   const weighting = options.weighting === 'none' ? 'none' : options.uncertaintyScale;
   const fit: EyringFit = fitEyring(measurements, { confidenceLevel: options.confidence, weighting, predictAtK: predictK });
-  const twoBranch = fitTwoBranch(measurements, { weighting });
+  const curvature = checkCurvature(measurements, { weighting, confidenceLevel: fit.confidenceLevel });
+  const model = chooseScreenModel(fit, curvature);
   const at25 = ddGAtTemperature(fit, 298.15, options.confidence);
   const cov = fit.line.covariance;
   return {
@@ -208,11 +186,11 @@ export function analyseScreen(measurements: EyringMeasurement[], options: FitOpt
       ],
     })),
     zeroSelectivity: zeroSelectivity(fit.zeroSelectivityTemperatureK, fit.temperatureRangeK),
-    twoBranch: twoBranchOut(twoBranch),
-    warnings: [...fit.warnings, ...(twoBranch?.warnings ?? [])],
+    twoBranch: curvatureOut(curvature),
+    warnings: [...fit.warnings, ...curvature.warnings],
     convention: SIGN_CONVENTION,
     caution: SELECTIVITY_CAUTION,
-    predictions: fit.predictions.map((p) => ({
+    predictions: fit.predictions.map((p) => modelPrediction(model, {
       kelvin: p.temperatureK,
       celsius: p.celsius,
       ratio: p.ratio,
@@ -221,9 +199,11 @@ export function analyseScreen(measurements: EyringMeasurement[], options: FitOpt
       ddG: ddGOut(p.ddGJPerMol),
       ddGSe: p.ddGSeJPerMol === null ? null : ddGOut(p.ddGSeJPerMol),
       extrapolated: p.extrapolated,
+      model: 'one-line',
+      branch: null,
       confidenceInterval: mapInterval(p.meanInterval),
       predictionInterval: mapInterval(p.predictionInterval),
-    })),
+    }, fit.confidenceLevel)),
   };
 }
 

@@ -1,6 +1,7 @@
 import type { FitResponse } from '../../../../api/features/compute/schemas';
 import { TableHead } from '../../../components/ui/table-head';
-import { fixed, percent, sig } from '../../../lib/format';
+import type { EyringBranchLine } from '../../../components/charts/eyring-plot';
+import { fixed, percent, sig, withUncertainty } from '../../../lib/format';
 
 const FLAG_TEXT: Record<string, string> = {
   outlier: 'outlier (|studentized residual| > 3)',
@@ -91,46 +92,93 @@ export function ResidualTable({
   );
 }
 
-/** The two-branch comparison: which model is preferred, the branches and the isoinversion temperature. */
-export function TwoBranchBox({ twoBranch }: { twoBranch: NonNullable<FitResponse['twoBranch']> }) {
+type Curvature = FitResponse['twoBranch'];
+
+/** The branches of an accepted two-branch model as plot lines, each drawn up to the break. */
+export function branchLines(twoBranch: Curvature | undefined): EyringBranchLine[] {
+  if (!twoBranch?.checked || twoBranch.preferred !== 'two-branch' || !twoBranch.break || !twoBranch.low || !twoBranch.high) return [];
+  const t = twoBranch.break.kelvin;
+  return [
+    { label: 'low-T branch', fromKelvin: twoBranch.low.fromKelvin, toKelvin: t, slope: twoBranch.low.slope, intercept: twoBranch.low.intercept },
+    { label: 'high-T branch', fromKelvin: t, toKelvin: twoBranch.high.toKelvin, slope: twoBranch.high.slope, intercept: twoBranch.high.intercept },
+  ];
+}
+
+const pText = (p: number) => (p < 0.001 ? 'p < 0.001' : `p = ${fixed(p, 3)}`);
+
+/** The curvature check: one line or two branches meeting at a break, the break with its interval, the tests. */
+export function TwoBranchBox({ twoBranch }: { twoBranch: Curvature }) {
   const preferTwo = twoBranch.preferred === 'two-branch';
-  const branch = (name: string, b: typeof twoBranch.low) => (
+  const help = (
+    <p className="mt-1 text-xs text-ink-600">
+      A curved Eyring plot can come from two competing pathways whose balance inverts (isoinversion; Buschmann, Scharf, Hoffmann &amp; Esser,
+      1991) or from a change of the selectivity-determining step (Gypser &amp; Norrby, 1997). The break test compares the best break with
+      simulated straight-line screens of the same design, so it is not fooled by the search over break positions.
+    </p>
+  );
+  if (!twoBranch.checked) {
+    return (
+      <section aria-label="Curvature check" className="rounded-md border border-slate-200 bg-slate-50 px-3 py-2 text-sm">
+        <p className="font-medium text-ink-900">Curvature check: not enough data</p>
+        <p className="mt-1 text-ink-700">{twoBranch.note}</p>
+        {twoBranch.lackOfFit && <LackOfFit test={twoBranch.lackOfFit} />}
+        {help}
+      </section>
+    );
+  }
+  const b = twoBranch.break;
+  const branch = (name: string, br: NonNullable<typeof twoBranch.low>) => (
     <li>
-      {name}: {fixed(b.fromKelvin - 273.15, 0)} to {fixed(b.toKelvin - 273.15, 0)} °C, n = {b.n}, ΔΔH‡ = {fixed(b.ddH['kJ/mol'], 1)} kJ/mol
-      ({fixed(b.ddH['kcal/mol'], 2)} kcal/mol), ΔΔS‡ = {fixed(b.ddS['J/(mol*K)'], 1)} J/(mol·K) ({fixed(b.ddS['cal/(mol*K)'], 2)}{' '}
-      cal/(mol·K))
+      {name}: {fixed(br.fromKelvin - 273.15, 0)} to {fixed(br.toKelvin - 273.15, 0)} °C, n = {br.n}, ΔΔH‡ ={' '}
+      {withUncertainty(br.ddH['kJ/mol'], br.ddH.se?.['kJ/mol'])} kJ/mol ({withUncertainty(br.ddH['kcal/mol'], br.ddH.se?.['kcal/mol'])} kcal/mol),
+      ΔΔS‡ = {fixed(br.ddS['J/(mol*K)'], 1)} J/(mol·K)
     </li>
   );
   return (
     <section
-      aria-label="Two-branch check"
+      aria-label="Curvature check"
       className={`rounded-md border px-3 py-2 text-sm ${preferTwo ? 'border-fjord-600/50 bg-fjord-50' : 'border-slate-200 bg-slate-50'}`}
     >
       <p className="font-medium text-ink-900">
-        Two-branch check: {preferTwo ? 'two straight branches describe the screen better than one line' : 'one straight line is preferred'}
+        Curvature check:{' '}
+        {preferTwo ? 'two straight branches meeting at a break describe the screen better than one line; forecasts use them' : 'one straight line is adequate'}
       </p>
+      {b && (
+        <p className="tnum mt-1 font-medium text-ink-950" data-testid="break-temperature">
+          {twoBranch.claim === 'isoinversion'
+            ? `Isoinversion temperature, where r passes through a ${twoBranch.extremum}: ${fixed(b.celsius, 0)} °C (${fixed(b.kelvin, 0)} K)`
+            : `Change of slope at ${fixed(b.celsius, 0)} °C (${fixed(b.kelvin, 0)} K)`}
+          {b.ci && (
+            <span className="font-normal text-ink-700">
+              {' '}
+              · 95 % CI {fixed(b.ci.celsius[0], 0)} to {b.ci.celsius[1] === null ? 'unbounded' : `${fixed(b.ci.celsius[1], 0)} °C`}
+            </span>
+          )}
+        </p>
+      )}
       <ul className="tnum mt-1 list-disc pl-5 text-ink-700">
-        {branch('Low-temperature branch', twoBranch.low)}
-        {branch('High-temperature branch', twoBranch.high)}
+        {twoBranch.low && branch('Low-temperature branch', twoBranch.low)}
+        {twoBranch.high && branch('High-temperature branch', twoBranch.high)}
         <li>
-          F test: F = {sig(twoBranch.fTest.F, 3)} on ({twoBranch.fTest.dof1}, {twoBranch.fTest.dof2}) dof,{' '}
-          {twoBranch.fTest.p < 0.001 ? 'p < 0.001' : `p = ${fixed(twoBranch.fTest.p, 3)}`}; {twoBranch.informationCriterion.name} one line{' '}
-          {fixed(twoBranch.informationCriterion.oneLine, 1)}, two branches {fixed(twoBranch.informationCriterion.twoBranch, 1)} (lower is
-          better)
+          Break test: sup-F = {sig(twoBranch.breakTest.F, 3)}, {pText(twoBranch.breakTest.p)} against {twoBranch.breakTest.resamples} simulated
+          straight-line screens (a break is accepted below p = {twoBranch.breakTest.alpha})
         </li>
-        <li>
-          Break between {fixed(twoBranch.breakBetweenKelvin[0] - 273.15, 0)} and {fixed(twoBranch.breakBetweenKelvin[1] - 273.15, 0)} °C
-          {twoBranch.isoinversion
-            ? preferTwo
-              ? `; the branches cross at the isoinversion temperature ${fixed(twoBranch.isoinversion.celsius, 0)} °C (${fixed(twoBranch.isoinversion.kelvin, 0)} K)`
-              : `; the trial branches would cross at ${fixed(twoBranch.isoinversion.celsius, 0)} °C, but the data do not support a break, so there is no isoinversion temperature to report`
-            : '; the branches do not cross within reach'}
-        </li>
+        {twoBranch.lackOfFit && (
+          <li>
+            <LackOfFit test={twoBranch.lackOfFit} />
+          </li>
+        )}
       </ul>
-      <p className="mt-1 text-xs text-ink-600">
-        {twoBranch.note}
-        {/extrapolate/i.test(twoBranch.note) ? '' : ' Never extrapolate a branch across the break.'}
-      </p>
+      {preferTwo && <p className="mt-1 text-xs text-ink-600">Never carry a branch beyond the screened temperatures on its side.</p>}
+      {help}
     </section>
+  );
+}
+
+function LackOfFit({ test }: { test: NonNullable<Curvature['lackOfFit']> }) {
+  return (
+    <span>
+      Lack of fit of one line against the replicates: F = {sig(test.F, 3)} on ({test.dof1}, {test.dof2}) dof, {pText(test.p)}
+    </span>
   );
 }

@@ -22,7 +22,7 @@ import {
   temperatureUnitOptions,
 } from './fields';
 import { FitParameterTable } from './fit-parameter-table';
-import { FitWarnings, ResidualTable, TwoBranchBox } from './fit-diagnostics';
+import { FitWarnings, ResidualTable, TwoBranchBox, branchLines } from './fit-diagnostics';
 import { PredictionBox } from './prediction-box';
 import { ScreenPasteBox } from './screen-paste-box';
 
@@ -225,14 +225,7 @@ export function FitPanel() {
                 title="Eyring plot of the screen: ln r against 1000/T with the fitted line and bands"
                 points={view.points}
                 curve={view.curve}
-                branches={
-                  fit.twoBranch?.preferred === 'two-branch'
-                    ? [
-                        { label: 'low', ...fit.twoBranch.low },
-                        { label: 'high', ...fit.twoBranch.high },
-                      ]
-                    : []
-                }
+                branches={branchLines(fit.twoBranch)}
                 mark={view.proposed ? { kelvin: view.proposed.kelvin, label: `proposed ${fixed(view.proposed.celsius, 0)} °C` } : null}
                 confidenceLevel={fit.confidence}
               />
@@ -243,17 +236,13 @@ export function FitPanel() {
                   [
                     ...fit.warnings.filter((w) => w.code !== 'extrapolation'),
                     ...(view.proposed?.extrapolated
-                      ? [{ code: 'extrapolation', message: `${fixed(view.proposed.celsius, 1)} °C lies outside the screened range: the forecast assumes the same straight line continues, which a change of mechanism would break.` }]
+                      ? [{ code: 'extrapolation', message: `${fixed(view.proposed.celsius, 1)} °C lies outside the screened range: the forecast assumes the ${view.proposed.model === 'segmented' ? 'nearest branch' : 'same straight line'} continues, which a change of mechanism would break.` }]
                       : []),
                   ]
                 }
               />
               {view.proposed ? (
-                <PredictionBox
-                  prediction={view.proposed}
-                  confidence={fit.confidence}
-                  breakPreferred={fit.twoBranch?.preferred === 'two-branch'}
-                />
+                <PredictionBox prediction={view.proposed} confidence={fit.confidence} />
               ) : (
                 <p className="text-sm text-ink-500">Enter a proposed temperature to get a prediction with its interval.</p>
               )}
@@ -264,7 +253,7 @@ export function FitPanel() {
                   {fit.zeroSelectivity.note}
                 </p>
               )}
-              {fit.twoBranch && <TwoBranchBox twoBranch={fit.twoBranch} />}
+              <TwoBranchBox twoBranch={fit.twoBranch} />
               <div className="flex flex-col gap-2">
                 <h3 className="text-sm font-semibold text-ink-900">Selectivity against temperature from the fit</h3>
                 <ChartControls name="fit" measure={chartMeasure} onMeasure={setChartMeasure} spec={specText} onSpec={setSpecText} />

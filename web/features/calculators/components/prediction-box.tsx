@@ -5,16 +5,7 @@ import { enantiomericRatio, fixed, percent, withUncertainty } from '../../../lib
 type Prediction = FitResponse['predictions'][number];
 
 /** The forecast at the proposed temperature with its prediction interval for a new run. */
-export function PredictionBox({
-  prediction,
-  confidence,
-  breakPreferred = false,
-}: {
-  prediction: Prediction;
-  confidence: number;
-  /** The two-branch check prefers a break: this single-line prediction is then doubtful. */
-  breakPreferred?: boolean;
-}) {
+export function PredictionBox({ prediction, confidence }: { prediction: Prediction; confidence: number }) {
   const level = `${fixed(confidence * 100, 0)} %`;
   const pi = prediction.predictionInterval;
   const ci = prediction.confidenceInterval;
@@ -67,10 +58,10 @@ export function PredictionBox({
             <span aria-hidden="true">⚠ </span>Outside the screened temperatures: an extrapolation, trust it less than the interval suggests.
           </p>
         )}
-        {breakPreferred && (
-          <p className="text-sm font-medium text-caution-700">
-            <span aria-hidden="true">⚠ </span>Two branches describe this screen better than one line, and this prediction uses the one line:
-            near or beyond the break it can be wrong by more than its interval. Run the temperature before relying on it.
+        {prediction.model === 'segmented' && (
+          <p className="text-sm text-ink-700" data-testid="forecast-branch">
+            From the two-branch model: the {prediction.branch === 'low' ? 'low-temperature branch (colder than the break)' : 'high-temperature branch (warmer than the break)'}{' '}
+            covers this temperature.
           </p>
         )}
         <p className="text-xs text-ink-600">

@@ -5,7 +5,7 @@ import { SelectivityChart, type SelectivityCurvePoint, type SelectivityMeasuredP
 import { SafetyCaution } from '../../../components/ui/caution';
 import { fixed, percent, withUncertainty } from '../../../lib/format';
 import { ChartControls, parseSpec } from '../../calculators/components/chart-controls';
-import { FitWarnings, TwoBranchBox } from '../../calculators/components/fit-diagnostics';
+import { FitWarnings, TwoBranchBox, branchLines } from '../../calculators/components/fit-diagnostics';
 import { FitParameterTable } from '../../calculators/components/fit-parameter-table';
 import type { AnalysisResponse, FitPrediction, Measurement } from '../api/types';
 import { CELSIUS } from '../lib/labels';
@@ -88,7 +88,7 @@ export function CampaignAnalysis({
             title="Eyring plot: ln r against 1000/T with the fitted line, confidence and prediction bands"
             points={view.points}
             curve={view.curve}
-            branches={twoBranchPreferred && fit.twoBranch ? [{ label: 'low-T branch', ...fit.twoBranch.low }, { label: 'high-T branch', ...fit.twoBranch.high }] : []}
+            branches={branchLines(fit.twoBranch)}
             mark={at ? { kelvin: at.kelvin, label: markLabel } : null}
             confidenceLevel={fit.confidence}
             height={320}
@@ -105,27 +105,24 @@ export function CampaignAnalysis({
             points={view.selectivityPoints}
             measure={chartMeasure}
             spec={parseSpec(specText)}
-            curveLabel={twoBranchPreferred ? 'one-line fit (a break is preferred)' : 'fitted line'}
+            curveLabel={twoBranchPreferred ? 'two-branch fit' : 'fitted line'}
             bandLabel={`${fixed(fit.confidence * 100, 0)} % prediction band (new run)`}
             mark={at ? { celsius: at.celsius, label: markLabel } : null}
             height={282}
           />
           {twoBranchPreferred && (
-            <p className="text-xs text-caution-700">
-              <span aria-hidden="true">⚠ </span>Curve and band are the one-line fit; the data prefer two branches, so near and beyond the break
-              they can miss by more than the band shows.
-            </p>
+            <p className="text-xs text-ink-600">Curve and band follow the two branches, which meet at the break.</p>
           )}
         </figure>
       </div>
       <FitWarnings warnings={fit.warnings} />
       <div className="grid gap-5 xl:grid-cols-[minmax(0,1fr)_minmax(0,1fr)]">
         <section aria-label="Fitted parameters" className="flex flex-col gap-3">
-          <h3 className="text-sm font-semibold text-ink-900">{twoBranchPreferred ? 'One-line parameters (B − A), not the preferred model' : 'Parameters (B − A)'}</h3>
+          <h3 className="text-sm font-semibold text-ink-900">{twoBranchPreferred ? 'One-line parameters (B − A), for comparison only' : 'Parameters (B − A)'}</h3>
           {twoBranchPreferred && (
             <p role="note" className="rounded border border-amber-300 bg-caution-50 px-3 py-2 text-sm text-caution-700">
               <span aria-hidden="true">⚠ </span>Two straight branches describe this screen better than one line: the single ΔΔH‡ and ΔΔS‡ below
-              average over a change in the selectivity-determining step. Use the branch values in the two-branch check, each only within its own
+              average over the break. Forecasts use the two branches; read each branch's values in the curvature check, each only within its own
               temperature range.
             </p>
           )}
@@ -136,7 +133,9 @@ export function CampaignAnalysis({
             <p className="text-xs text-ink-600">ΔΔG‡ at another temperature: type it in the forecast panel below.</p>
           )}
         </section>
-        <div className="flex min-w-0 flex-col gap-3">{fit.twoBranch && <TwoBranchBox twoBranch={fit.twoBranch} />}</div>
+        <div className="flex min-w-0 flex-col gap-3">
+          <TwoBranchBox twoBranch={fit.twoBranch} />
+        </div>
       </div>
       <section aria-label="Residual diagnostics" className="flex min-w-0 flex-col gap-2">
         <h3 className="text-sm font-semibold text-ink-900">Residual diagnostics</h3>

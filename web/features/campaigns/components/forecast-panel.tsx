@@ -161,7 +161,7 @@ export function ForecastPanel({
       {fit && atCelsius !== null && !showing && <p className="text-sm text-ink-600">Computing…</p>}
       {fit && showing && prediction && (
         <>
-          <PredictionBox prediction={prediction} confidence={fit.confidence} breakPreferred={fit.twoBranch?.preferred === 'two-branch'} />
+          <PredictionBox prediction={prediction} confidence={fit.confidence} />
           <p className="tnum text-sm text-ink-700">
             Predicted ratio r = [A]/[B] = <span className="font-medium text-ink-950">{sig(prediction.ratio, 3)}</span>
             {prediction.predictionInterval && (

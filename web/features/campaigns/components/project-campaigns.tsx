@@ -189,7 +189,7 @@ function CampaignRow({ c, cmp, picked, onPick }: { c: CampaignListItem; cmp: Com
       </td>
       <td className="whitespace-nowrap py-2 pr-3 text-right">
         <DdH c={cmp} />
-        {cmp?.preferred === 'two-branch' && <span className="block text-xs text-caution-700">⚠ two branches preferred</span>}
+        {cmp?.breakAt && <span className="block text-xs text-ink-600">{breakText(cmp.breakAt)}</span>}
       </td>
       <td className="whitespace-nowrap py-2 pr-3 text-right">
         <EeAt c={cmp} />
@@ -199,6 +199,10 @@ function CampaignRow({ c, cmp, picked, onPick }: { c: CampaignListItem; cmp: Com
       </td>
     </tr>
   );
+}
+
+function breakText(b: NonNullable<ComparisonCampaign['breakAt']>): string {
+  return b.claim === 'isoinversion' ? `isoinversion at ${fixed(b.celsius, 0)} °C (r ${b.extremum})` : `change of slope at ${fixed(b.celsius, 0)} °C`;
 }
 
 /** Chosen campaigns as columns, the quantities that tell catalysts or solvents apart as rows. */
@@ -214,7 +218,17 @@ function Comparison({ at, campaigns, stale }: { at: { kelvin: number; celsius: n
     },
     { name: `ee at ${fixed(at.celsius, 1)} °C (%)`, cell: (c) => <EeAt c={c} /> },
     { name: 'er (A:B)', cell: (c) => (c.prediction ? enantiomericRatio(c.prediction.percentA) : '—') },
-    { name: 'Model', cell: (c) => (c.preferred === 'two-branch' ? '⚠ two branches preferred' : c.preferred === 'one-line' ? 'one line' : '—') },
+    {
+      name: 'Model',
+      cell: (c) =>
+        c.preferred === 'two-branch'
+          ? `two branches${c.prediction?.branch ? ` (${c.prediction.branch === 'low' ? 'low' : 'high'}-T branch at ${fixed(at.celsius, 0)} °C)` : ''}`
+          : c.preferred === 'one-line'
+            ? 'one line'
+            : '—',
+    },
+    // A break row only when some campaign claims one (an isoinversion only with slopes of opposite sign).
+    ...(campaigns.some((c) => c.breakAt) ? [{ name: 'Break (°C)', cell: (c: ComparisonCampaign) => (c.breakAt ? breakText(c.breakAt) : '—') }] : []),
     { name: 'Warnings', cell: (c) => (c.problem ? c.problem.message : c.warnings ? `⚠ ${c.warnings}` : 'none') },
   ];
   return (
