@@ -289,32 +289,118 @@ function kneeFit(u: ArrayLike<number>, w: ArrayLike<number>, y: ArrayLike<number
   return { beta: beta as [number, number, number], ss };
 }
 
-/** The exact least-squares break over the allowed range: its position (in u) and SS about the group means. */
-function profile(design: Design, y: ArrayLike<number>): { psi: number; ss: number } | null {
+/** Scratch space for the O(m) profile: prefix sums over the groups (sorted by u). */
+interface Sums {
+  w: Float64Array;
+  u: Float64Array;
+  uu: Float64Array;
+  y: Float64Array;
+  uy: Float64Array;
+  yy: Float64Array;
+}
+
+const newSums = (m: number): Sums => ({
+  w: new Float64Array(m + 1),
+  u: new Float64Array(m + 1),
+  uu: new Float64Array(m + 1),
+  y: new Float64Array(m + 1),
+  uy: new Float64Array(m + 1),
+  yy: new Float64Array(m + 1),
+});
+
+/**
+ * The exact least-squares break over the allowed range: its position (in u) and SS about the
+ * group means. O(m) per call: straight lines on each side and the kinked fit at each knot come
+ * from prefix sums of weighted moments (y centred first, so the sums keep their digits); the
+ * winner is refitted directly by the caller.
+ */
+function profile(design: Design, y: ArrayLike<number>, sums: Sums = newSums(design.groups.length)): { psi: number; ss: number } | null {
   const { groups, validSplits } = design;
   const m = groups.length;
-  const u = groups.map((g) => g.u);
-  const w = groups.map((g) => g.weight);
-  let best: { psi: number; ss: number } | null = null;
-  const consider = (psi: number, ss: number) => {
-    if (!best || ss < best.ss) best = { psi, ss };
+  let sw0 = 0;
+  let swy0 = 0;
+  for (let i = 0; i < m; i++) {
+    sw0 += groups[i]!.weight;
+    swy0 += groups[i]!.weight * y[i]!;
+  }
+  const ym = swy0 / sw0;
+  for (let i = 0; i < m; i++) {
+    const g = groups[i]!;
+    const wi = g.weight;
+    const ui = g.u;
+    const yi = y[i]! - ym;
+    sums.w[i + 1] = sums.w[i]! + wi;
+    sums.u[i + 1] = sums.u[i]! + wi * ui;
+    sums.uu[i + 1] = sums.uu[i]! + wi * ui * ui;
+    sums.y[i + 1] = sums.y[i]! + wi * yi;
+    sums.uy[i + 1] = sums.uy[i]! + wi * ui * yi;
+    sums.yy[i + 1] = sums.yy[i]! + wi * yi * yi;
+  }
+  const seg = (from: number, to: number) => {
+    const s0 = sums.w[to]! - sums.w[from]!;
+    const su = sums.u[to]! - sums.u[from]!;
+    const sy = sums.y[to]! - sums.y[from]!;
+    const suu = sums.uu[to]! - sums.uu[from]! - (su * su) / s0;
+    const suy = sums.uy[to]! - sums.uy[from]! - (su * sy) / s0;
+    const syy = sums.yy[to]! - sums.yy[from]! - (sy * sy) / s0;
+    const b = suu > 0 ? suy / suu : 0;
+    return { a: (sy - b * su) / s0, b, ss: Math.max(0, syy - b * suy) };
   };
+  let bestPsi = NaN;
+  let bestSs = Infinity;
   for (let j = 0; j < m - 1; j++) {
     if (!validSplits[j]) continue;
-    const left = lineSs(u, w, y, 0, j + 1);
-    const right = lineSs(u, w, y, j + 1, m);
+    const left = seg(0, j + 1);
+    const right = seg(j + 1, m);
     const db = left.b - right.b;
     if (db !== 0) {
       const cross = (right.a - left.a) / db;
-      if (cross > u[j]! && cross < u[j + 1]!) consider(cross, left.ss + right.ss);
+      if (cross > groups[j]!.u && cross < groups[j + 1]!.u && left.ss + right.ss < bestSs) {
+        bestSs = left.ss + right.ss;
+        bestPsi = cross;
+      }
     }
   }
+  // Kinked fit with the knot on a group: columns [1, u, (u − ψ)₊], normal equations from the sums.
+  const S0 = sums.w[m]!;
+  const S1 = sums.u[m]!;
+  const S2 = sums.uu[m]!;
+  const Sy = sums.y[m]!;
+  const Suy = sums.uy[m]!;
+  const Syy = sums.yy[m]!;
   for (let k = 1; k < m - 1; k++) {
     if (!validSplits[k - 1] && !validSplits[k]) continue;
-    const fit = kneeFit(u, w, y, u[k]!);
-    if (fit) consider(u[k]!, fit.ss);
+    const psi = groups[k]!.u;
+    const r0 = S0 - sums.w[k + 1]!;
+    const r1 = S1 - sums.u[k + 1]!;
+    const r2 = S2 - sums.uu[k + 1]!;
+    const ry = Sy - sums.y[k + 1]!;
+    const ruy = Suy - sums.uy[k + 1]!;
+    const a13 = r1 - psi * r0;
+    const a23 = r2 - psi * r1;
+    const a33 = r2 - 2 * psi * r1 + psi * psi * r0;
+    const b3 = ruy - psi * ry;
+    // Symmetric 3×3 solve by Cholesky, allocation-free.
+    const l11 = Math.sqrt(S0);
+    const l21 = S1 / l11;
+    const l31 = a13 / l11;
+    const d22 = S2 - l21 * l21;
+    if (!(d22 > 1e-14 * S2)) continue;
+    const l22 = Math.sqrt(d22);
+    const l32 = (a23 - l31 * l21) / l22;
+    const d33 = a33 - l31 * l31 - l32 * l32;
+    if (!(d33 > 1e-14 * Math.max(a33, 1e-300))) continue;
+    const l33 = Math.sqrt(d33);
+    const z1 = Sy / l11;
+    const z2 = (Suy - l21 * z1) / l22;
+    const z3 = (b3 - l31 * z1 - l32 * z2) / l33;
+    const ss = Math.max(0, Syy - z1 * z1 - z2 * z2 - z3 * z3);
+    if (ss < bestSs) {
+      bestSs = ss;
+      bestPsi = psi;
+    }
   }
-  return best;
+  return Number.isFinite(bestSs) ? { psi: bestPsi, ss: bestSs } : null;
 }
 
 function groupRuns(points: { temperatureK: number; y: number; w: number }[]): Design | null {
@@ -384,12 +470,13 @@ function simulateNullSupF(design: Design, resamples: number, seed: number): Floa
   const sd = w.map((wg) => 1 / Math.sqrt(wg));
   const pureDof = n - m;
   const y = new Float64Array(m);
+  const sums = newSums(m);
   const out = new Float64Array(resamples);
   for (let b = 0; b < resamples; b++) {
     for (let g = 0; g < m; g++) y[g] = normal() * sd[g]!;
     const pure = pureDof > 0 ? 2 * gamma(pureDof / 2, normal, uniform) : 0;
     const line = lineSs(u, w, y, 0, m).ss + pure;
-    const seg = profile(design, y);
+    const seg = profile(design, y, sums);
     out[b] = seg ? supF(line, seg.ss + pure, n) : 0;
   }
   out.sort();

@@ -253,7 +253,8 @@ async function forecastViews(db: Knex, campaign: Campaign, forecasts: SavedForec
   const included = measurements.filter((m) => !m.excluded);
   return forecasts.map((f) => {
     const snapshot = f.result as unknown as ForecastSnapshot;
-    const result = snapshot.prediction;
+    // Snapshots saved before forecasts named their model came from the one line.
+    const result: FitPrediction = { model: 'one-line', branch: null, ...snapshot.prediction };
     const measured = included
       .filter((m) => Math.abs(m.temperatureK - f.temperatureK) <= MEASURED_MATCH_K)
       .map((m) => {

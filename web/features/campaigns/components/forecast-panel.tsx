@@ -297,6 +297,9 @@ function ForecastRow({ f, canEdit, onDelete, deleting }: { f: SavedForecastView;
       <td className="max-w-xs px-2 py-1">
         {f.label ? <span className="font-medium text-ink-900">{f.label}</span> : <span className="text-ink-500">—</span>}
         {f.notes && <span className="block text-xs text-ink-600">{f.notes}</span>}
+        {f.result.model === 'segmented' && (
+          <span className="block text-xs text-ink-600">two-branch model, {f.result.branch === 'low' ? 'low' : 'high'}-temperature branch</span>
+        )}
         {f.result.extrapolated && <span className="block text-xs font-medium text-caution-700">⚠ extrapolated beyond the screen</span>}
       </td>
       <td className="px-2 py-1 text-right">{percent(f.result.eePercent)}</td>
