@@ -134,7 +134,8 @@ const skylarkMeTHF: Branch = { ddHJPerMol: 15_000, ddSJPerMolK: 10 };
 
 /**
  * Merlin-Phos in toluene: two branches meeting at an invented isoinversion temperature of
- * −15 °C (DOMAIN §4). Above it ΔΔH‡ = +16 kJ/mol, below it −5 kJ/mol; ee peaks there.
+ * −15 °C (isoinversion: Buschmann, Scharf, Hoffmann & Esser, 1991). Above it ΔΔH‡ = +16 kJ/mol, below it −5 kJ/mol: slopes of opposite sign, so the
+ * segmented fit claims a real isoinversion, where r (and ee) has a maximum.
  */
 const MERLIN_T_INV_K = 258.15;
 const MERLIN_LN_R_AT_T_INV = 3.8;

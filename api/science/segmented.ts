@@ -43,6 +43,13 @@ import { describeTemperatureK } from './units';
 
 /** Resamples of the null distribution: Monte Carlo SE of p near 0.05 is about 0.005. */
 export const BREAK_TEST_RESAMPLES = 1999;
+/**
+ * Work budget of one null simulation (resamples × distinct temperatures): screens with more than
+ * ~100 distinct temperatures get fewer resamples (never below BREAK_TEST_MIN_RESAMPLES), so a
+ * 5,000-run request stays interactive. The number used is reported with the p-value.
+ */
+export const BREAK_TEST_BUDGET = 200_000;
+export const BREAK_TEST_MIN_RESAMPLES = 199;
 /** Fixed seed, so the same data always get the same verdict. */
 export const BREAK_TEST_SEED = 20_261_202;
 export const BREAK_TEST_ALPHA = 0.05;
@@ -432,9 +439,10 @@ function groupRuns(points: { temperatureK: number; y: number; w: number }[]): De
     return { temperatureK: g.temperatureK, u: (xs[i]! - center) / scale, runs: g.ys.length, weight, mean, pureSs };
   });
   const m = groups.length;
-  const validSplits = groups.map((_, j) => {
+  let leftRuns = 0;
+  const validSplits = groups.map((g, j) => {
+    leftRuns += g.runs;
     if (j >= m - 1) return false;
-    const leftRuns = groups.slice(0, j + 1).reduce((s, g) => s + g.runs, 0);
     return j + 1 >= MIN_TEMPERATURES_PER_BRANCH && m - j - 1 >= MIN_TEMPERATURES_PER_BRANCH && leftRuns >= MIN_RUNS_PER_BRANCH && n - leftRuns >= MIN_RUNS_PER_BRANCH;
   });
   return { groups, n, center, scale, validSplits };
@@ -522,7 +530,7 @@ const notEnoughReason = (n: number, m: number) =>
  */
 export function checkCurvature(measurements: readonly EyringMeasurement[], options: SegmentedOptions = {}): BreakCheck {
   const alpha = options.alpha ?? BREAK_TEST_ALPHA;
-  const resamples = options.resamples ?? BREAK_TEST_RESAMPLES;
+  const requestedResamples = options.resamples ?? BREAK_TEST_RESAMPLES;
   const seed = options.seed ?? BREAK_TEST_SEED;
   const level = options.confidenceLevel ?? 0.95;
   const prepared = prepareMeasurements(measurements, options.censorEePercent ?? DEFAULT_CENSOR_EE_PERCENT);
@@ -546,6 +554,7 @@ export function checkCurvature(measurements: readonly EyringMeasurement[], optio
     return { checked: false, n, distinctTemperatures: m, lackOfFit: null, reason: notEnoughReason(n, m), warnings };
   }
   const { groups } = design;
+  const resamples = Math.min(requestedResamples, Math.max(BREAK_TEST_MIN_RESAMPLES, Math.floor(BREAK_TEST_BUDGET / m)));
   const u = groups.map((g) => g.u);
   const w = groups.map((g) => g.weight);
   const means = groups.map((g) => g.mean);

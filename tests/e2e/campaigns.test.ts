@@ -236,7 +236,16 @@ describe('campaign pages in Chromium', () => {
     expect(await page.getByTestId('break-temperature').textContent()).toMatch(/^Isoinversion temperature, where r passes through a maximum: −?1[0-9] °C \(2\d\d K\) · 95 % CI −?\d+ to −?\d+ °C$/);
     expect(await twoBranch.textContent()).toContain('change of the selectivity-determining step');
     expect(await page.getByRole('figure').filter({ hasText: 'Eyring plot' }).textContent()).toContain('two-branch fit');
+    // A forecast below the break comes from the cold branch and says so.
+    await page.getByRole('textbox', { name: 'Proposed temperature' }).fill('-40');
+    await page.getByRole('button', { name: 'Forecast', exact: true }).click();
+    await expect
+      .poll(() => page.getByTestId('forecast-branch').textContent(), { timeout: 15_000 })
+      .toContain('From the two-branch model: the low-temperature branch (colder than the break) covers this temperature.');
     await maybeScreenshot(page, 'campaigns-two-branch');
+    await page.setViewportSize({ width: 390, height: 844 });
+    await maybeScreenshot(page, 'campaigns-two-branch-phone');
+    await page.setViewportSize({ width: 1360, height: 900 });
     await signOut(page);
   }, 60_000);
 

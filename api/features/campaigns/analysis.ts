@@ -254,7 +254,8 @@ async function forecastViews(db: Knex, campaign: Campaign, forecasts: SavedForec
   return forecasts.map((f) => {
     const snapshot = f.result as unknown as ForecastSnapshot;
     // Snapshots saved before forecasts named their model came from the one line.
-    const result: FitPrediction = { model: 'one-line', branch: null, ...snapshot.prediction };
+    const stored = snapshot.prediction as Omit<FitPrediction, 'model' | 'branch'> & Partial<Pick<FitPrediction, 'model' | 'branch'>>;
+    const result: FitPrediction = { ...stored, model: stored.model ?? 'one-line', branch: stored.branch ?? null };
     const measured = included
       .filter((m) => Math.abs(m.temperatureK - f.temperatureK) <= MEASURED_MATCH_K)
       .map((m) => {
