@@ -2,9 +2,13 @@ import { afterAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import ExcelJS from 'exceljs';
 import { testApp } from '../support/app';
-import { closeTestKnex } from '../support/db';
+import { closeTestKnex, testKnex } from '../support/db';
+import { createProject } from '../factories/projects';
+import { createUser } from '../factories/users';
+import { createCampaign } from '../factories/campaigns';
+import { Measurement as MeasurementModel } from '../../api/models/measurement';
 import { fitResponseSchema } from '../../api/features/compute/schemas';
-import { computeAnalysis } from '../../api/features/campaigns/analysis';
+import { compareCampaigns, computeAnalysis } from '../../api/features/campaigns/analysis';
 import { buildCampaignReport } from '../../api/features/campaigns/report';
 import type { Campaign } from '../../api/models/campaign';
 import type { Measurement } from '../../api/models/measurement';
@@ -143,5 +147,31 @@ describe('campaign analysis and report with an accepted break', () => {
     wb.getWorksheet('Summary')!.eachRow((row) => names.push(String(row.getCell(1).value)));
     expect(names.some((n) => /isoinversion|change of slope/i.test(n))).toBe(false);
     expect(names).toContain('Curvature check');
+  });
+});
+
+describe('project comparison with an accepted break', () => {
+  it('when one campaign has an isoinversion and another is straight, then only the first carries a break and a branch forecast', async () => {
+    const db = testKnex();
+    const owner = await createUser();
+    const project = await createProject([{ user: owner, role: 'owner' }]);
+    const bent = await createCampaign(project.id, { title: 'A: invented isoinversion', measure: 'ratio', defaultUncertainty: null });
+    const line = await createCampaign(project.id, { title: 'B: invented straight line', measure: 'ratio', defaultUncertainty: null });
+    for (const [c, rows] of [
+      [bent, iso],
+      [line, straight],
+    ] as const) {
+      await MeasurementModel.query(db).insert(rows.map((m) => ({ campaignId: c.id, temperatureK: m.temperature.value + K, measure: 'ratio' as const, value: m.selectivity.value })));
+    }
+    const cmp = await compareCampaigns(db, project.id, -40);
+    const [a, b] = cmp.campaigns;
+    expect(a!.preferred).toBe('two-branch');
+    expect(a!.breakAt).toMatchObject({ claim: 'isoinversion', extremum: 'maximum' });
+    expect(a!.breakAt!.celsius).toBeGreaterThan(-20);
+    expect(a!.prediction!.model).toBe('segmented');
+    expect(a!.prediction!.branch).toBe('low');
+    expect(b!.preferred).toBe('one-line');
+    expect(b!.breakAt).toBeNull();
+    expect(b!.prediction!.model).toBe('one-line');
   });
 });

@@ -22,7 +22,7 @@ export const registerCompute: OpenApiRegistrar = (registry) => {
     tags: ['Selectivity'],
     summary: 'Fit a temperature screen (differential Eyring analysis)',
     description:
-      'Regresses ln r on 1/T (OLS, or WLS with weights from the assay uncertainty), keeps the covariance of slope and intercept, and returns ΔΔH‡ and ΔΔS‡ with SE and CI, residual diagnostics, censored (≥ 99.8 % ee) points as bounds, a two-branch (isoinversion) comparison, and predictions with the confidence interval of the mean line and the prediction interval for a new run.',
+      'Regresses ln r on 1/T (OLS, or WLS with weights from the assay uncertainty), keeps the covariance of slope and intercept, and returns ΔΔH‡ and ΔΔS‡ with SE and CI, residual diagnostics, censored (≥ 99.8 % ee) points as bounds, a curvature check (continuous two-branch model with the break as a parameter, simulated sup-F test, isoinversion only for branch slopes of opposite sign), and predictions — from the branches when a break is accepted — with the confidence interval of the mean line and the prediction interval for a new run.',
     request: { body: { content: { 'application/json': { schema: fitRequestSchema } } } },
     responses: {
       200: { description: 'The fit', content: { 'application/json': { schema: fitResponseSchema } } },
