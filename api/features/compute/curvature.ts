@@ -74,8 +74,10 @@ export function curvatureOut(check: BreakCheck): FitResponse['twoBranch'] {
 
 const eeFromLn = (y: number) => 100 * Math.tanh(y / 2);
 const percentAFromLn = (y: number) => 100 / (1 + Math.exp(-y));
+/** r = e^y, held finite so one far prediction never breaks the answer (ee and % A saturate anyway). */
+const ratioOf = (y: number) => Math.min(Math.exp(y), Number.MAX_VALUE);
 const mapInterval = (lo: number, hi: number) => ({
-  ratio: [Math.exp(lo), Math.exp(hi)] as [number, number],
+  ratio: [ratioOf(lo), ratioOf(hi)] as [number, number],
   eePercent: [eeFromLn(lo), eeFromLn(hi)] as [number, number],
   percentA: [percentAFromLn(lo), percentAFromLn(hi)] as [number, number],
 });
@@ -92,7 +94,7 @@ export function modelPrediction(model: ScreenModel, oneLine: Prediction, confide
   return {
     kelvin: t,
     celsius: oneLine.celsius,
-    ratio: Math.exp(y),
+    ratio: ratioOf(y),
     eePercent: eeFromLn(y),
     percentA: percentAFromLn(y),
     ddG: { 'kJ/mol': kJ(ddG), 'kcal/mol': kcal(ddG) },
