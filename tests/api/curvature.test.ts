@@ -42,6 +42,7 @@ describe('POST /api/v1/fit curvature check', () => {
     expect(tb.extremum).toBe('maximum'); // [C] ln r rises on cooling above −15 °C and falls below it
     expect(tb.break!.celsius).toBeGreaterThan(-20);
     expect(tb.break!.celsius).toBeLessThan(-10);
+    expect(tb.break!.ci!.level).toBe(0.95);
     expect(tb.break!.ci!.celsius[0]).toBeLessThan(tb.break!.celsius);
     expect(tb.break!.ci!.celsius[1]!).toBeGreaterThan(tb.break!.celsius);
     expect(tb.break!.label).toMatch(/^Isoinversion temperature, where r passes through a maximum/);

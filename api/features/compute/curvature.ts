@@ -57,6 +57,7 @@ export function curvatureOut(check: BreakCheck): FitResponse['twoBranch'] {
           celsius: kelvinToCelsius(t),
           ci: check.breakCiK
             ? {
+                level: check.confidenceLevel,
                 kelvin: check.breakCiK,
                 celsius: [kelvinToCelsius(check.breakCiK[0]), check.breakCiK[1] === null ? null : kelvinToCelsius(check.breakCiK[1])],
               }

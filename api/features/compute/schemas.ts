@@ -178,7 +178,7 @@ const curvatureCheckedSchema = z.object({
     .object({
       kelvin: z.number(),
       celsius: z.number(),
-      ci: z.object({ kelvin: z.tuple([z.number(), z.number().nullable()]), celsius: z.tuple([z.number(), z.number().nullable()]) }).nullable(),
+      ci: z.object({ level: z.number(), kelvin: z.tuple([z.number(), z.number().nullable()]), celsius: z.tuple([z.number(), z.number().nullable()]) }).nullable(),
       label: z.string(),
     })
     .nullable(),

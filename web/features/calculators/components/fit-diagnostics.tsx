@@ -151,7 +151,7 @@ export function TwoBranchBox({ twoBranch }: { twoBranch: Curvature }) {
           {b.ci && (
             <span className="font-normal text-ink-700">
               {' '}
-              · 95 % CI {fixed(b.ci.celsius[0], 0)} to {b.ci.celsius[1] === null ? 'unbounded' : `${fixed(b.ci.celsius[1], 0)} °C`}
+              · {fixed(b.ci.level * 100, 0)} % CI {fixed(b.ci.celsius[0], 0)} to {b.ci.celsius[1] === null ? 'unbounded' : `${fixed(b.ci.celsius[1], 0)} °C`}
             </span>
           )}
         </p>
