@@ -182,7 +182,8 @@ describe('fitLine behaviour', () => {
     expect(() => fitLine([1, 2, 3], [1, 2, 3], { sigma: [1, 0, 1] })).toThrow(DomainError);
   });
 
-  it('when fitting 10⁶ points, then it finishes quickly and recovers the line', () => {
+  // Speed is measured in `npm run bench engine`, never asserted here (a loaded machine would fail it).
+  it('when fitting 10⁶ points with a large offset, then it recovers the line', () => {
     const n = 1_000_000;
     const x = new Float64Array(n);
     const y = new Float64Array(n);
@@ -190,10 +191,7 @@ describe('fitLine behaviour', () => {
       x[i] = 1e6 + i * 1e-3; // large offset: tests the centring
       y[i] = 3 - 0.5 * (x[i]! - 1e6) + (i % 2 === 0 ? 1e-3 : -1e-3);
     }
-    const started = performance.now();
     const fit = fitLine(x, y);
-    const elapsed = performance.now() - started;
     expect(fit.slope).toBeCloseTo(-0.5, 8);
-    expect(elapsed).toBeLessThan(3000);
   });
 });
