@@ -112,7 +112,7 @@ async function statelessFit(runs: (Run & { excluded?: boolean })[], options: Rec
       measurements: runs.map((r) => ({
         // The kelvin value a campaign stores (−50 °C as 223.15 K exactly), so both paths see the same numbers.
         temperature: { value: toKelvin(r.celsius, 'C'), unit: 'K' },
-        selectivity: { measure: 'ee', value: r.ee },
+        selectivity: { measure: 'ee', value: r.ee, ...(r.atLeast ? { atLeast: true } : {}) },
         ...(r.uncertainty !== undefined ? { uncertainty: r.uncertainty } : {}),
         ...(r.excluded ? { excluded: true } : {}),
       })),
@@ -364,18 +364,22 @@ describe('analysis', () => {
     expect(fit.n).toBe(5);
   });
 
-  it('when a run is stored as "at least", then it is censored, not fitted, and the fit equals one without it', async () => {
+  it('when a run is stored as "at least", then it is a censored bound in a censored fit, with the least-squares fit without it alongside', async () => {
     const c = await newCampaign();
     const runs = screen([-50, -30, -10, 10, 30]);
     await addRuns(c.id, runs);
-    await addRuns(c.id, [{ celsius: -70, ee: 99.0, atLeast: true }]);
+    const bound99: Run = { celsius: -70, ee: 99.0, atLeast: true };
+    await addRuns(c.id, [bound99]);
     const a = analysisResponseSchema.parse((await as('viewer').get(`/api/v1/campaigns/${c.id}/analysis`).expect(200)).body);
     const bound = a.points.find((p) => Math.abs(p.celsius + 70) < 1e-9)!;
     expect(bound.status).toBe('censored');
-    const reference = await statelessFit(runs, {}, []);
+    const withoutBound = await statelessFit(runs, {}, []);
+    const withBound = await statelessFit([...runs, bound99], {}, []);
     expect(a.fit!.n).toBe(5);
-    expect(a.fit!.ddH).toEqual(reference.ddH);
-    expect(a.fit!.ddS).toEqual(reference.ddS);
+    expect(a.fit!.estimator).toBe('censored-ml');
+    expect(a.fit!.ddH).toEqual(withBound.ddH);
+    expect(a.fit!.leastSquaresWithoutBounds!.ddH).toEqual(withoutBound.ddH);
+    expect(a.fit!.leastSquaresWithoutBounds!.label).toMatch(/bounds dropped/);
     // The line predicts more than 99.0 % ee at −70 °C, so the bound agrees and the run is not flagged [C].
     expect(bound.flagged).toBe(false);
   });

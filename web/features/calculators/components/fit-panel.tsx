@@ -45,7 +45,9 @@ function numberOrNull(text: string): number | null | 'invalid' {
   return /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/.test(t) ? Number(t) : 'invalid';
 }
 
-const lnOf = (iv: [number, number] | undefined | null): [number, number] | null => (iv ? [Math.log(iv[0]), Math.log(iv[1])] : null);
+/** An interval in ln r: the API's own lnRatio ends (ratio ends are null beyond the representable range). */
+const lnOf = (iv: { lnRatio?: [number, number] | undefined; ratio: [number | null, number | null] } | undefined | null): [number, number] | null =>
+  iv ? (iv.lnRatio ?? [Math.log(iv.ratio[0] ?? 0), Math.log(iv.ratio[1] ?? Infinity)]) : null;
 
 /** Split the API's field errors: those on a measurement go to its pasted line, the rest to the form. */
 function mapFitErrors(
@@ -321,9 +323,9 @@ function buildView(fit: FitResponse, submitted: Submitted) {
   });
   const curve: EyringCurvePoint[] = grid.map((p) => ({
     kelvin: p.kelvin,
-    lnRatio: Math.log(p.ratio),
-    confidence: lnOf(p.confidenceInterval?.ratio),
-    prediction: lnOf(p.predictionInterval?.ratio),
+    lnRatio: p.lnRatio ?? Math.log(p.ratio ?? Infinity),
+    confidence: lnOf(p.confidenceInterval),
+    prediction: lnOf(p.predictionInterval),
   }));
   const selectivityCurve: SelectivityCurvePoint[] = grid.map((p) => ({
     celsius: p.celsius,

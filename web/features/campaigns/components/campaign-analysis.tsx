@@ -10,7 +10,9 @@ import { FitParameterTable } from '../../calculators/components/fit-parameter-ta
 import type { AnalysisResponse, FitPrediction, Measurement } from '../api/types';
 import { CELSIUS } from '../lib/labels';
 
-const lnOf = (iv: [number, number] | undefined | null): [number, number] | null => (iv ? [Math.log(iv[0]), Math.log(iv[1])] : null);
+/** An interval in ln r: the API's own lnRatio ends (ratio ends are null beyond the representable range). */
+const lnOf = (iv: { lnRatio?: [number, number] | undefined; ratio: [number | null, number | null] } | undefined | null): [number, number] | null =>
+  iv ? (iv.lnRatio ?? [Math.log(iv.ratio[0] ?? 0), Math.log(iv.ratio[1] ?? Infinity)]) : null;
 
 /** Shape the analysis for the shared charts (logarithms of the API's ratios; no statistics here). */
 export function chartData(analysis: AnalysisResponse) {
@@ -27,9 +29,9 @@ export function chartData(analysis: AnalysisResponse) {
   }));
   const curve: EyringCurvePoint[] = analysis.curve.map((c) => ({
     kelvin: c.kelvin,
-    lnRatio: Math.log(c.ratio),
-    confidence: lnOf(c.confidenceInterval?.ratio),
-    prediction: lnOf(c.predictionInterval?.ratio),
+    lnRatio: c.lnRatio ?? Math.log(c.ratio ?? Infinity),
+    confidence: lnOf(c.confidenceInterval),
+    prediction: lnOf(c.predictionInterval),
   }));
   const selectivityCurve: SelectivityCurvePoint[] = analysis.curve.map((c) => ({
     celsius: c.celsius,
