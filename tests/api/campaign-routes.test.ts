@@ -421,6 +421,35 @@ describe('analysis', () => {
     expect(one.caution).toContain('calorimetry');
   });
 
+  it('when the campaign sets the assay precision of a new run and the quantitation limit, then the analysis uses them and the query can override them', async () => {
+    const c = await newCampaign({ newRunUncertainty: 0.25, quantitationLimit: 99.5 });
+    await addRuns(c.id, screen([-60, -40, -20, 0, 20]));
+    const a = analysisResponseSchema.parse((await as('viewer').get(`/api/v1/campaigns/${c.id}/analysis?at=-70`).expect(200)).body);
+    expect(a.fit!.newRun).toMatchObject({ source: 'assay', measure: 'ee', uncertainty: 0.25 });
+    expect(a.fit!.newRun!.note).toMatch(/campaign's setting/);
+    expect(a.fit!.quantitationLimit).toMatchObject({ measure: 'ee', value: 99.5 });
+    expect(a.at!.newRunSigmaLnR).toEqual(expect.any(Number));
+    const b = analysisResponseSchema.parse((await as('viewer').get(`/api/v1/campaigns/${c.id}/analysis?newRunUncertainty=0.4&quantitationLimit=99.9`).expect(200)).body);
+    expect(b.fit!.newRun).toMatchObject({ uncertainty: 0.4 });
+    expect(b.fit!.quantitationLimit).toMatchObject({ value: 99.9 });
+    const bad = await as('viewer').get(`/api/v1/campaigns/${c.id}/analysis?quantitationLimit=150`).expect(400);
+    expect(bad.body.errors.map((e: { path: string }) => e.path)).toEqual(['quantitationLimit']);
+  });
+
+  it('when a quantitation limit does not suit the campaign measure, then 400 names quantitationLimit and nothing changes', async () => {
+    const created = await as('editor')
+      .post(`/api/v1/projects/${project.id}/campaigns`)
+      .send({ title: `Limit ${randomBytes(3).toString('hex')}`, measure: 'ee', assayMethod: 'chiral-hplc', quantitationLimit: 100 });
+    expect(created.status).toBe(400);
+    expect(created.body.errors.map((e: { path: string }) => e.path)).toEqual(['quantitationLimit']);
+    const dr = await newCampaign({ measure: 'dr', quantitationLimit: 200 });
+    const changed = await as('editor').patch(`/api/v1/campaigns/${dr.id}`).send({ version: dr.version, measure: 'ee' });
+    expect(changed.status).toBe(400);
+    expect(changed.body.errors.map((e: { path: string }) => e.path)).toEqual(['quantitationLimit']);
+    const again = await as('viewer').get(`/api/v1/campaigns/${dr.id}`).expect(200);
+    expect(again.body).toMatchObject({ measure: 'dr', quantitationLimit: 200, version: dr.version });
+  });
+
   it('when the query is wrong, then 400 names the parameter', async () => {
     const c = await newCampaign();
     for (const [query, path] of [

@@ -161,3 +161,19 @@ describe('POST /api/v1/forecast: request paths in errors', () => {
     expect(paths(body)).toEqual(['temperatures.values.1.value']);
   });
 });
+
+describe('POST /api/v1/fit: the two-branch F test p-value', () => {
+  it('when the break is overwhelming, then p comes from the upper tail and is not rounded to 0', async () => {
+    // Two sharply different branches with tiny scatter (invented): the F statistic is huge.
+    const ms = [-70, -60, -50, -40, -30, 10, 20, 30, 40, 50].map((c, i) => {
+      const t = c + 273.15;
+      const y = c < -10 ? 3000 / t - 10 : -1000 / t + 6.2;
+      return { temperature: C(c), selectivity: { measure: 'ratio', value: Math.exp(y + (i % 2 ? 1e-4 : -1e-4)) } };
+    });
+    const body = await fit({ measurements: ms });
+    expect(body.twoBranch).not.toBeNull();
+    const p = body.twoBranch.fTest.p;
+    expect(p).toBeGreaterThan(0);
+    expect(p).toBeLessThan(1e-10);
+  });
+});

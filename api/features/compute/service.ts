@@ -27,6 +27,7 @@ import {
 import { SELECTIVITY_CAUTION } from '../../lib/cautions';
 import { BadRequestError } from '../../lib/errors';
 import { medianUncertainty, type AssayPrecision } from '../../science/assay-precision';
+import { fUpperTail } from '../../science/tails';
 import { lnRatioLimitFromEe, type ZeroSelectivityInterval } from '../../science/eyring-fit';
 import { expandTemperatures, kelvinLookingWarning } from './temperatures';
 import type { FitRequest, FitResponse, ForecastRequest, ForecastResponse } from './schemas';
@@ -237,7 +238,8 @@ function twoBranchOut(tb: TwoBranchFit | null): FitResponse['twoBranch'] {
     breakBetweenKelvin: [tb.lowBranch.temperatureRangeK.max, tb.highBranch.temperatureRangeK.min],
     low: branch(tb.lowBranch),
     high: branch(tb.highBranch),
-    fTest: { F: tb.fStatistic, dof1: tb.dof1, dof2: tb.dof2, p: tb.pValue },
+    // p from the F distribution's upper tail itself: 1 − cdf prints a p of 1e-40 as 0.
+    fTest: { F: tb.fStatistic, dof1: tb.dof1, dof2: tb.dof2, p: Number.isFinite(tb.fStatistic) ? fUpperTail(tb.fStatistic, tb.dof1, tb.dof2) : tb.pValue },
     informationCriterion:
       tb.criterion === 'AICc'
         ? { name: 'AICc', oneLine: tb.oneLine.aicc!, twoBranch: tb.twoBranch.aicc! }
