@@ -260,12 +260,6 @@ export function FitPanel() {
                 <p className="text-sm text-ink-500">Enter a proposed temperature to get a prediction with its interval.</p>
               )}
               <FitParameterTable fit={fit} />
-              {fit.zeroSelectivity && (
-                <p className="tnum text-sm text-ink-700">
-                  Selectivity would vanish at {fixed(fit.zeroSelectivity.celsius, 0)} °C ({fixed(fit.zeroSelectivity.kelvin, 0)} K).{' '}
-                  {fit.zeroSelectivity.note}
-                </p>
-              )}
               {fit.twoBranch && <TwoBranchBox twoBranch={fit.twoBranch} />}
               <div className="flex flex-col gap-2">
                 <h3 className="text-sm font-semibold text-ink-900">Selectivity against temperature from the fit</h3>
