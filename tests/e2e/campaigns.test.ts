@@ -255,7 +255,7 @@ describe('campaign pages in Chromium', () => {
     await expect.poll(() => preview.textContent()).toMatch(/(\d+) of \1 rows ready/);
     expect(await preview.textContent()).toContain('≥ 99.8');
     await page.getByRole('button', { name: /^Import \d+ rows$/ }).click();
-    await expect.poll(() => page.getByText(/^✓ Imported \d+ rows/).isVisible()).toBe(true);
+    await expect.poll(() => page.getByText(/^✓ Imported \d+ rows/).isVisible(), { timeout: 15_000 }).toBe(true);
     const residuals = page.getByRole('region', { name: 'Residual diagnostics' });
     await expect.poll(() => residuals.textContent(), { timeout: 15_000 }).toContain('lower bound');
     expect(await page.getByRole('table', { name: 'Measurements' }).textContent()).toContain('lower bound');

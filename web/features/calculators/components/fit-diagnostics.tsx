@@ -92,11 +92,19 @@ export function ResidualTable({
   );
 }
 
-/** Why a run is flagged (one line), or that its residual lies within the assay's precision. */
+/**
+ * Why a run is flagged (one line); for a run that stands out from the others' scatter
+ * (|internally studentized| ≥ 2), whether its residual is within the assay's own precision.
+ */
 export function RunNote({ residual }: { residual: FitResponse['residuals'][number] }) {
   if (residual.flagReason) return <span className="block text-xs text-caution-700">{residual.flagReason}</span>;
-  if (residual.withinAssayPrecision && residual.residualInAssaySigmas != null) {
-    return <span className="block text-xs text-ink-600">within the assay’s precision ({fixed(residual.residualInAssaySigmas, 1)} σ)</span>;
+  const standsOut = residual.studentizedInternal != null && Math.abs(residual.studentizedInternal) >= 2;
+  if (standsOut && residual.residualInAssaySigmas != null) {
+    return (
+      <span className="block text-xs text-ink-600">
+        {residual.withinAssayPrecision ? 'within' : 'beyond'} the assay’s precision ({fixed(residual.residualInAssaySigmas, 1)} σ)
+      </span>
+    );
   }
   return null;
 }
