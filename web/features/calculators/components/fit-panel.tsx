@@ -82,6 +82,7 @@ export function FitPanel() {
   const [weighting, setWeighting] = useState<'none' | 'uncertainty'>('none');
   const [uncertaintyScale, setUncertaintyScale] = useState<'absolute' | 'relative'>('absolute');
   const [proposedText, setProposedText] = useState('');
+  const [newRunText, setNewRunText] = useState('');
   const [excludedLines, setExcludedLines] = useState<number[]>([]);
   const [submitted, setSubmitted] = useState<Submitted | null>(null);
   const [formProblem, setFormProblem] = useState<string | null>(null);
@@ -108,8 +109,14 @@ export function FitPanel() {
       setFormProblem('The proposed temperature is not a number.');
       return;
     }
+    const newRun = numberOrNull(newRunText);
+    if (newRun === 'invalid') {
+      setFormProblem('The assay SD for a new run is not a number.');
+      return;
+    }
     const settings = { measure, unit, weighting, uncertaintyScale, proposed, excludedLines: excluded };
-    setSubmitted({ request: buildFitRequest(parsed.rows, settings), rows: parsed.rows, measure, hasProposed: proposed !== null });
+    const request = { ...buildFitRequest(parsed.rows, settings), ...(newRun === null ? {} : { newRunUncertainty: newRun }) };
+    setSubmitted({ request, rows: parsed.rows, measure, hasProposed: proposed !== null });
   };
 
   const toggleExclude = (line: number) => {
@@ -197,6 +204,16 @@ export function FitPanel() {
             placeholder="e.g. −50"
             unit={<span className="text-sm text-ink-600">{UNIT_TEXT[unit]}</span>}
             hint="Forecast with a 95 % prediction interval for one new run."
+          />
+          <NumberField
+            label="Assay SD of the new run (optional)"
+            path="newRunUncertainty"
+            value={newRunText}
+            onChange={setNewRunText}
+            errors={mapped.other.filter((e) => normalisePath(e.path) === 'newRunUncertainty')}
+            placeholder="e.g. 0.2"
+            unit={<span className="text-sm text-ink-600">{MEASURE_TEXT[measure]}</span>}
+            hint="Propagated at the predicted value; blank: the median SD of the pasted runs, or their scatter."
           />
           <div>
             <button type="submit" className={buttonClass} disabled={query.isFetching}>
