@@ -3,7 +3,7 @@
  * squares on exact runs, or censored-normal maximum likelihood when some runs are bounds).
  *
  * Mean line at x₀: ŷ₀ = a + b·x₀, Var(ŷ₀) = Var(a) + 2x₀·Cov(a, b) + x₀²·Var(b) (the full covariance,
- * DOMAIN-style reasoning after Krug, Hunter & Grieger, J. Phys. Chem. 1976, 80, 2341).
+ * as Krug, Hunter & Grieger, J. Phys. Chem. 1976, 80, 2341, insist).
  *
  * A new run at x₀ adds its own scatter: Var_new = Var(ŷ₀) + σ²_run, where σ_run is
  *  - with a known assay precision σ_assay (propagated to ln r at the predicted ŷ₀):
