@@ -16,6 +16,10 @@ export class Campaign extends objection.Model {
   declare measure: SelectivityMeasure;
   declare assayMethod: AssayMethod;
   declare defaultUncertainty: number | null;
+  /** SD of the assay for the next run, in the measure's units; null → median of the runs'. */
+  declare newRunUncertainty: number | null;
+  /** Quantitation limit in the measure's terms (ee %, % A/er major share %, dr/ratio r); null → 99.8 % ee. */
+  declare quantitationLimit: number | null;
   declare status: CampaignStatus;
   declare notes: string | null;
   declare version: number;

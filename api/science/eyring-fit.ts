@@ -6,10 +6,14 @@
  * quantity, because the two estimates are strongly correlated (Krug, Hunter & Grieger,
  * J. Phys. Chem. 1976, 80, 2341).
  */
+import { checkStatedPrecision, sigmaLnRatioAt, type AssayPrecision, type PrecisionCheck } from './assay-precision';
+import { fitCensoredLine, type CensorKind } from './censored';
 import { GAS_CONSTANT_J_PER_MOL_K as R } from './constants';
-import { DomainError, requireFinite, requireFiniteResult, requireTemperatureK, type Warning } from './errors';
+import { DomainError, requireFinite, requireTemperatureK, type Warning } from './errors';
+import { fiellerInterval } from './fieller';
 import { zeroSelectivityTemperatureK } from './forecast';
-import { fitLine, normalQuantile, predictLine, requireConfidenceLevel, studentTQuantile, type LineFit, type SigmaMode } from './regression';
+import { lineModelFromLeastSquares, newRunVariance, type LineModel } from './line-model';
+import { fitLine, normalQuantile, requireConfidenceLevel, studentTQuantile, type LineFit, type SigmaMode } from './regression';
 import { SIGN_CONVENTION } from './selectivity';
 import { describeTemperatureK, kelvinToCelsius } from './units';
 
@@ -42,6 +46,12 @@ export interface EyringFitOptions {
   weighting?: EyringWeighting;
   /** |ee| at or above this percentage is censored (quantitation limit); default 99.8 [CP]. */
   censorEePercent?: number;
+  /** The quantitation limit as |ln r| (any measure converted); overrides censorEePercent. */
+  censorLnRatio?: number;
+  /** Precision of the assay that will measure a new run; without it the screen's scatter is used. */
+  newRun?: AssayPrecision;
+  /** Temperatures the caller asked about (a forecast range); T₀ is a far extrapolation only outside these and the data. */
+  requestedRangeK?: { min: number; max: number };
   /** Temperatures at which to predict (same as calling predictEyring). */
   predictAtK?: readonly number[];
   /** Span of temperature below which the screen is called narrow; default 40 K [CP]. */
@@ -56,6 +66,10 @@ export type PointFlag = 'outlier' | 'high-leverage' | 'influential';
 export const FLAG_RULES = {
   /** |externally studentized residual| above this → 'outlier' (≈ a 3-sigma event). */
   outlierStudentized: 3,
+  /** No run is flagged below this many residual degrees of freedom: too few to tell an odd run from scatter. */
+  minimumDof: 3,
+  /** With a known assay precision, a residual within this many assay SDs is not called an outlier. */
+  assaySigmas: 2,
   /** leverage above 2p/n with p = 2 parameters → 'high-leverage' (Hoaglin & Welsch 1978 rule). */
   leverageFactor: 2,
   /** Cook's distance above 1 → 'influential' (Cook & Weisberg 1982 conventional cut-off). */
@@ -82,9 +96,17 @@ export interface EyringPointResult {
   studentizedExternal: number | null;
   cooksDistance: number | null;
   flags: PointFlag[];
+  /** One line saying why the run is flagged; null when it is not. */
+  flagReason: string | null;
+  /** |residual| / σ of the run's assay in ln r, when the precision is known. */
+  residualInAssaySigmas: number | null;
+  /** Whether the residual lies within FLAG_RULES.assaySigmas of the assay's precision (null: unknown). */
+  withinAssayPrecision: boolean | null;
   /** For censored points: the measured r is a lower (ee ≥ +limit) or upper (ee ≤ −limit) bound. */
   censoredBound: 'lower' | 'upper' | null;
-  /** For censored points: whether the fitted line respects the bound. */
+  /** For censored points: the censoring point in ln r (the quantitation limit, or a weaker bound as reported). */
+  censorLnRatio: number | null;
+  /** For censored points: whether the fitted line at this temperature lies beyond the censoring point. */
   boundConsistent: boolean | null;
 }
 
@@ -100,7 +122,12 @@ export interface EyringPrediction {
   temperatureK: number;
   celsius: number;
   lnRatio: number;
+  /** e^lnRatio; Infinity or 0 when beyond the representable range (then outOfRange is set). */
   ratio: number;
+  /** r itself cannot be represented (|ln r| > ~709); ln r, ΔΔG‡ and the saturated ee still stand. */
+  outOfRange: boolean;
+  /** σ of ln r used for the new run's own measurement (assay propagated at the prediction), or null for the screen's scatter. */
+  newRunSigmaLnR: number | null;
   eePercent: number;
   percentA: number;
   ddGJPerMol: number;
@@ -139,13 +166,46 @@ export interface EyringFit {
   rSquared: number | null;
   dof: number;
   zeroSelectivityTemperatureK: number | null;
+  /** Fieller confidence set for T₀, restricted to T > 0; null when T₀ or intervals are unavailable. */
+  zeroSelectivityInterval: ZeroSelectivityInterval | null;
+  /** T₀ lies outside both the screened and the requested temperatures. */
+  zeroSelectivityFar: boolean;
   /** False with fewer than 3 distinct temperatures (DOMAIN §3). */
   intervalsAvailable: boolean;
+  /** How ΔΔH‡, ΔΔS‡ and the predictions were estimated. */
+  estimator: 'least-squares' | 'censored-ml';
+  /** With censored-ml: the least-squares fit of the exact runs only (bounds dropped), for comparison. */
+  leastSquaresWithoutBounds: LeastSquaresSummary | null;
+  /** With censored-ml: details of the likelihood fit. */
+  censoredFit: { logLikelihood: number; iterations: number; scale: number; nLower: number; nUpper: number } | null;
+  /** Weighted fits: whether the scatter matches the stated precision (χ²/dof). */
+  precisionCheck: PrecisionCheck | null;
+  /** Where the new run's scatter in the prediction interval comes from. */
+  newRunBasis: { source: 'assay'; precision: AssayPrecision } | { source: 'screen-scatter' };
   points: EyringPointResult[];
   predictions: EyringPrediction[];
   warnings: Warning[];
-  /** The underlying straight-line fit (x = 1/T, y = ln r), over fitted points only. */
+  /** The least-squares straight-line fit (x = 1/T, y = ln r) over exact fitted runs; diagnostics come from it. */
   line: LineFit;
+  /** The line the estimates and predictions come from (least squares, or censored ML). */
+  model: LineModel;
+}
+
+export interface LeastSquaresSummary {
+  nFitted: number;
+  ddHJPerMol: number;
+  ddSJPerMolK: number;
+  ddHSeJPerMol: number | null;
+  ddSSeJPerMolK: number | null;
+  ddHCiJPerMol: [number, number] | null;
+  ddSCiJPerMolK: [number, number] | null;
+}
+
+/** Parts of the temperature axis (K) inside the Fieller set; null ends mean 0 K or no upper limit. */
+export interface ZeroSelectivityInterval {
+  ranges: { fromK: number | null; toK: number | null }[];
+  bounded: boolean;
+  message: string;
 }
 
 /** Default censoring limit in ee percent: the usual quantitation limit of chiral chromatography [CP]. */
@@ -164,7 +224,10 @@ function countDistinct(sorted: ArrayLike<number>): number {
 /** ee (percent) from ln r: 100·tanh(y/2); %A from ln r: 100/(1 + e^(−y)). */
 const eeFromLn = (y: number) => 100 * Math.tanh(y / 2);
 const percentAFromLn = (y: number) => 100 / (1 + Math.exp(-y));
-const ratioFromLn = (y: number) => requireFiniteResult(Math.exp(y), 'ratio');
+/** e^y; may be Infinity or 0 far outside the data, which callers report as out of range instead of failing. */
+const ratioFromLn = (y: number) => Math.exp(y);
+/** |ln r| at |ee| = limit %: ln((1 + e)/(1 − e)); 99.8 % ↔ ln 999. */
+export const lnRatioLimitFromEe = (eePercent: number) => Math.log1p(eePercent / 100) - Math.log1p(-eePercent / 100);
 
 function mapInterval(lo: number, hi: number): SelectivityInterval {
   return {
@@ -183,21 +246,36 @@ export interface PreparedMeasurement {
   y: number;
   status: 'fitted' | 'excluded' | 'censored';
   censoredBound: 'lower' | 'upper' | null;
+  /**
+   * Censoring point in ln r: the quantitation limit for a value at or beyond it (the assay cannot
+   * tell 99.9 from 99.8 % ee, so the bound is checked at the limit, not at the reported digits), or
+   * the reported value for a weaker bound inside the limit ("≥ 99.0 %").
+   */
+  censorPoint: number | null;
 }
 
-/** Validate measurements and split them into fitted, excluded and censored (|ee| ≥ limit). */
+/**
+ * Validate measurements and split them into fitted, excluded and censored (|ee| ≥ limit).
+ * `censorLnRatio`, when given, is the limit as |ln r| and takes precedence over `censorEePercent`.
+ */
 export function prepareMeasurements(
   measurements: readonly EyringMeasurement[],
   censorEePercent = DEFAULT_CENSOR_EE_PERCENT,
+  censorLnRatio?: number,
 ): PreparedMeasurement[] {
   if (!Array.isArray(measurements)) throw new DomainError('not-a-list', 'measurements must be a list', 'measurements');
-  requireFinite(censorEePercent, 'censorEePercent');
-  if (!(censorEePercent > 0 && censorEePercent < 100)) {
-    throw new DomainError('censor-limit-out-of-range', 'censorEePercent must lie between 0 and 100', 'censorEePercent');
+  let lnLimit: number;
+  if (censorLnRatio !== undefined) {
+    requireFinite(censorLnRatio, 'censorLnRatio');
+    if (!(censorLnRatio > 0)) throw new DomainError('censor-limit-out-of-range', 'the quantitation limit must favour one isomer (|ln r| > 0)', 'censorLnRatio');
+    lnLimit = censorLnRatio;
+  } else {
+    requireFinite(censorEePercent, 'censorEePercent');
+    if (!(censorEePercent > 0 && censorEePercent < 100)) {
+      throw new DomainError('censor-limit-out-of-range', 'censorEePercent must lie between 0 and 100', 'censorEePercent');
+    }
+    lnLimit = lnRatioLimitFromEe(censorEePercent);
   }
-  // r at the limit: (1 + e)/(1 − e); ee 99.8 % ↔ r = 999.
-  const e = censorEePercent / 100;
-  const lnLimit = Math.log1p(e) - Math.log1p(-e);
   return measurements.map((m, index) => {
     // Field paths are built only on the error path: at 10⁶ runs the strings alone cost more than the fit.
     const valid =
@@ -230,7 +308,8 @@ export function prepareMeasurements(
       status = 'censored';
       censoredBound = 'upper';
     }
-    return { index, measurement: m, x: 1 / m.temperatureK, y, status, censoredBound };
+    const censorPoint = censoredBound === 'lower' ? Math.min(y, lnLimit) : censoredBound === 'upper' ? Math.max(y, -lnLimit) : null;
+    return { index, measurement: m, x: 1 / m.temperatureK, y, status, censoredBound, censorPoint };
   });
 }
 
@@ -265,9 +344,69 @@ export function resolveWeighting(
   return { mode: weighting, sigma: fitted.map((p) => p.measurement.sigmaLnR!) };
 }
 
-function intervalQuantile(line: LineFit, level: number): number {
-  const p = (1 + level) / 2;
-  return line.sigmaMode === 'absolute' ? normalQuantile(p) : studentTQuantile(p, line.dof);
+/** Two-sided quantile for a least-squares line: normal with absolute σ, else Student t on n − 2 dof. */
+function leastSquaresQuantile(line: LineFit): (level: number) => number {
+  return (level) => {
+    const p = (1 + level) / 2;
+    return line.sigmaMode === 'absolute' ? normalQuantile(p) : studentTQuantile(p, line.dof);
+  };
+}
+
+/** ΔΔH‡, ΔΔS‡, their SEs and CIs from a line's (a, b) and covariance. */
+function activationFromLine(intercept: number, slope: number, cov: LineModel['covariance'], q: number | null) {
+  const ddHJPerMol = R * slope;
+  const ddSJPerMolK = -R * intercept;
+  if (!cov || q === null) return { ddHJPerMol, ddSJPerMolK, ddHSe: null, ddSSe: null, ddHCi: null, ddSCi: null };
+  const ddHSe = R * Math.sqrt(cov.slopeSlope);
+  const ddSSe = R * Math.sqrt(cov.interceptIntercept);
+  return {
+    ddHJPerMol,
+    ddSJPerMolK,
+    ddHSe,
+    ddSSe,
+    ddHCi: [ddHJPerMol - q * ddHSe, ddHJPerMol + q * ddHSe] as [number, number],
+    ddSCi: [ddSJPerMolK - q * ddSSe, ddSJPerMolK + q * ddSSe] as [number, number],
+  };
+}
+
+/** One line on why a run is flagged; it never recommends excluding the run. */
+function flagReason(flags: PointFlag[], ext: number | null, leverage: number, limit: number, cook: number | null): string | null {
+  if (flags.length === 0) return null;
+  const parts: string[] = [];
+  if (flags.includes('outlier')) parts.push(`it sits ${Math.abs(ext!).toFixed(1)} studentized residuals from the line (flagged above ${FLAG_RULES.outlierStudentized})`);
+  if (flags.includes('high-leverage')) parts.push(`its temperature is far from the others, so it steers the slope (leverage ${leverage.toFixed(2)} > ${limit.toFixed(2)})`);
+  if (flags.includes('influential')) parts.push(`leaving it out would move the line noticeably (Cook's distance ${cook!.toFixed(2)} > ${FLAG_RULES.cooksDistance})`);
+  const text = parts.join('; ');
+  return `${text.charAt(0).toUpperCase()}${text.slice(1)}. Check its record (assay, temperature log) rather than drop it.`;
+}
+
+/**
+ * Confidence set for T₀ = ΔΔH‡/ΔΔS‡ = b/(−a) by Fieller's theorem (Fieller 1954), with N = b,
+ * D = −a, Var(N) = Var(b), Var(D) = Var(a), Cov(N, D) = −Cov(a, b); kept to T > 0.
+ */
+function zeroSelectivitySet(model: LineModel, q: number): ZeroSelectivityInterval | null {
+  const cov = model.covariance;
+  if (!cov) return null;
+  const set = fiellerInterval(model.slope, -model.intercept, cov.slopeSlope, cov.interceptIntercept, -cov.interceptSlope, q);
+  const positive = (lo: number | null, hi: number | null) =>
+    hi !== null && hi <= 0 ? null : { fromK: lo === null || lo <= 0 ? null : lo, toK: hi };
+  const ranges =
+    set.kind === 'bounded'
+      ? [positive(set.low, set.high)]
+      : set.kind === 'outside'
+        ? [positive(null, set.below), positive(set.above, null)]
+        : [positive(null, null)];
+  const kept = ranges.filter((r): r is { fromK: number | null; toK: number | null } => r !== null);
+  const bounded = kept.length === 1 && kept[0]!.toK !== null;
+  const k = (v: number) => `${v.toFixed(0)} K`;
+  let message: string;
+  if (set.kind === 'everything') message = 'The data put no limit on T₀ at all: selectivity may vanish at any temperature, or never.';
+  else if (bounded) message = `T₀ lies between ${kept[0]!.fromK === null ? '0 K' : k(kept[0]!.fromK)} and ${k(kept[0]!.toK!)} (Fieller).`;
+  else
+    message = `The interval for T₀ is unbounded (Fieller): ${kept
+      .map((r) => (r.toK === null ? `above ${r.fromK === null ? '0 K' : k(r.fromK)}` : `below ${k(r.toK)}`))
+      .join(' or ')}; the data cannot rule out that selectivity never vanishes.`;
+  return { ranges: kept, bounded, message };
 }
 
 /**
@@ -276,15 +415,18 @@ function intervalQuantile(line: LineFit, level: number): number {
  *
  * Rules: fewer than 2 distinct fitted temperatures → DomainError 'too-few-temperatures';
  * exactly 2 points → exact line and a warning; fewer than 3 distinct temperatures → no intervals;
- * fewer than 5 points → warning; |ee| ≥ censorEePercent → censored (lower/upper bound, not fitted);
- * excluded runs kept and marked; residual flags per FLAG_RULES, never dropped; span < 40 K → warning.
+ * fewer than 5 points → warning; |ee| ≥ limit or a reported bound → censored: fitted by
+ * censored-normal maximum likelihood (censored.ts) with the least-squares fit of the exact runs
+ * beside it; excluded runs kept and marked; residual flags per FLAG_RULES (none below 3 residual
+ * dof), never dropped; span < 40 K → warning; T₀ with a Fieller interval.
  */
 export function fitEyring(measurements: readonly EyringMeasurement[], options: EyringFitOptions = {}): EyringFit {
   const confidenceLevel = requireConfidenceLevel(options.confidenceLevel ?? 0.95);
   const narrowSpanK = options.narrowSpanK ?? DEFAULT_NARROW_SPAN_K;
-  const prepared = prepareMeasurements(measurements, options.censorEePercent ?? DEFAULT_CENSOR_EE_PERCENT);
+  const prepared = prepareMeasurements(measurements, options.censorEePercent ?? DEFAULT_CENSOR_EE_PERCENT, options.censorLnRatio);
   const warnings: Warning[] = [];
   const fitted = prepared.filter((p) => p.status === 'fitted');
+  const censored = prepared.filter((p) => p.status === 'censored');
   // A typed array sorts numerically in native code; a comparator closure is ~10× slower at 10⁶ runs.
   const temps = Float64Array.from(fitted, (p) => p.measurement.temperatureK).sort();
   const distinct = countDistinct(temps);
@@ -296,7 +438,8 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
       'measurements',
     );
   }
-  const { mode, sigma } = resolveWeighting(fitted, options.weighting ?? 'auto', warnings);
+  const weighting = options.weighting ?? 'auto';
+  const { mode, sigma } = resolveWeighting(fitted, weighting, warnings);
   const line = fitLine(
     fitted.map((p) => p.x),
     fitted.map((p) => p.y),
@@ -306,6 +449,7 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
   const intervalsAvailable = distinct >= 3 && line.covariance !== null;
   const tMin = temps[0]!;
   const tMax = temps[temps.length - 1]!;
+  const lsModel = lineModelFromLeastSquares(line, leastSquaresQuantile(line));
 
   if (n === 2) {
     warnings.push({
@@ -325,22 +469,69 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
       message: `Only ${n} runs are fitted: intervals are wide and a single bad run can move the line a lot; 5 or more temperatures are advisable.`,
     });
   }
-  if (tMax - tMin < narrowSpanK) {
+  // Compared with a tolerance: −40…0 °C is 40 K although 273.15 − 233.15 rounds to 39.99999999999997.
+  if (tMax - tMin < narrowSpanK - 1e-6) {
     warnings.push({
       code: 'narrow-temperature-span',
       message: `The screen spans ${(tMax - tMin).toFixed(1)} K; below about ${narrowSpanK} K ΔΔH‡ and ΔΔS‡ are poorly determined and strongly correlated.`,
     });
   }
 
-  // Per-point results.
-  const slope = line.slope;
-  const intercept = line.intercept;
+  // Censored runs: censored-normal maximum likelihood over exact runs and bounds together.
+  let model: LineModel = lsModel;
+  let estimator: EyringFit['estimator'] = 'least-squares';
+  let censoredFit: EyringFit['censoredFit'] = null;
+  if (censored.length > 0) {
+    const used = [...fitted, ...censored];
+    const tobitWeights = resolveWeighting(used, weighting, []);
+    try {
+      const tobit = fitCensoredLine(
+        used.map((p) => p.x),
+        used.map((p) => p.y),
+        used.map((p): CensorKind => p.censoredBound ?? 'none'),
+        used.map((p) => p.censorPoint ?? p.y),
+        tobitWeights.sigma ? { sigma: tobitWeights.sigma, sigmaMode: tobitWeights.mode as 'relative' | 'absolute' } : {},
+      );
+      const scaleEstimated = tobitWeights.mode !== 'absolute';
+      const s2 = tobit.scale * tobit.scale;
+      const meanV2 = tobitWeights.sigma ? tobitWeights.sigma.reduce((acc, v) => acc + v * v, 0) / tobitWeights.sigma.length : 1;
+      const cov = tobit.covariance;
+      model = {
+        intercept: tobit.intercept,
+        slope: tobit.slope,
+        covariance: intervalsAvailable ? cov : null,
+        quantile: (level) => {
+          if (!intervalsAvailable) return null;
+          const p = (1 + level) / 2;
+          return scaleEstimated ? studentTQuantile(p, tobit.nExact - 2) : normalQuantile(p);
+        },
+        screenRunVariance: intervalsAvailable ? s2 * meanV2 : null,
+        assayVarianceScale: tobitWeights.mode === 'none' ? null : tobitWeights.mode === 'absolute' ? 1 : s2,
+        varianceOfMean: (x0) =>
+          intervalsAvailable ? Math.max(0, cov.interceptIntercept + 2 * x0 * cov.interceptSlope + x0 * x0 * cov.slopeSlope) : null,
+      };
+      estimator = 'censored-ml';
+      censoredFit = { logLikelihood: tobit.logLikelihood, iterations: tobit.iterations, scale: tobit.scale, nLower: tobit.nLower, nUpper: tobit.nUpper };
+    } catch (err) {
+      if (!(err instanceof DomainError)) throw err;
+      warnings.push({
+        code: 'censored-fit-unavailable',
+        message: `The runs reported as bounds could not be fitted by censored maximum likelihood (${err.message}); the estimates use the exact runs only and are biased towards lower selectivity.`,
+      });
+    }
+  }
+
+  // Per-point results; diagnostics come from the least-squares fit of the exact runs.
+  const slope = model.slope;
+  const intercept = model.intercept;
   // Position of each run in the fitted arrays (−1: not fitted); a typed array, not a Map, for 10⁶ runs.
   const fittedIndex = new Int32Array(prepared.length).fill(-1);
   fitted.forEach((p, i) => (fittedIndex[p.index] = i));
   const leverageLimit = (FLAG_RULES.leverageFactor * 2) / n;
+  const canFlag = line.dof >= FLAG_RULES.minimumDof;
   let flagged = 0;
   let disagreeing = 0;
+  let withinAssay = 0;
   const points: EyringPointResult[] = prepared.map((p) => {
     const m = p.measurement;
     const lineY = intercept + slope * p.x;
@@ -348,16 +539,27 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
     const k = pos < 0 ? undefined : pos;
     const flags: PointFlag[] = [];
     let boundConsistent: boolean | null = null;
+    let reason: string | null = null;
+    let inAssaySigmas: number | null = null;
     if (k !== undefined) {
       const ext = line.studentizedExternal[k] ?? null;
       const cook = line.cooksDistance[k] ?? null;
-      if (ext !== null && Math.abs(ext) > FLAG_RULES.outlierStudentized) flags.push('outlier');
-      if (n > 2 && line.leverages[k]! > leverageLimit) flags.push('high-leverage');
-      if (cook !== null && cook > FLAG_RULES.cooksDistance) flags.push('influential');
+      const e = line.residuals[k]!;
+      inAssaySigmas = m.sigmaLnR === undefined ? null : Math.abs(e) / m.sigmaLnR;
+      const explainedByAssay = inAssaySigmas !== null && inAssaySigmas <= FLAG_RULES.assaySigmas;
+      if (canFlag) {
+        if (ext !== null && Math.abs(ext) > FLAG_RULES.outlierStudentized) {
+          if (explainedByAssay) withinAssay++;
+          else flags.push('outlier');
+        }
+        if (line.leverages[k]! > leverageLimit) flags.push('high-leverage');
+        if (cook !== null && cook > FLAG_RULES.cooksDistance) flags.push('influential');
+      }
       if (flags.length > 0) flagged++;
+      reason = flagReason(flags, ext, line.leverages[k]!, leverageLimit, cook);
     }
-    if (p.censoredBound === 'lower') boundConsistent = lineY >= p.y;
-    if (p.censoredBound === 'upper') boundConsistent = lineY <= p.y;
+    if (p.censoredBound === 'lower') boundConsistent = lineY >= p.censorPoint!;
+    if (p.censoredBound === 'upper') boundConsistent = lineY <= p.censorPoint!;
     if (boundConsistent === false) disagreeing++;
     return {
       index: p.index,
@@ -377,58 +579,93 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
       studentizedExternal: k === undefined ? null : (line.studentizedExternal[k] ?? null),
       cooksDistance: k === undefined ? null : (line.cooksDistance[k] ?? null),
       flags,
+      flagReason: reason,
+      residualInAssaySigmas: inAssaySigmas,
+      withinAssayPrecision: inAssaySigmas === null ? null : inAssaySigmas <= FLAG_RULES.assaySigmas,
       censoredBound: p.censoredBound,
+      censorLnRatio: p.censorPoint,
       boundConsistent,
     };
   });
 
   const nExcluded = prepared.filter((p) => p.status === 'excluded').length;
-  const nCensored = prepared.filter((p) => p.status === 'censored').length;
+  const nCensored = censored.length;
   if (nExcluded > 0) {
     warnings.push({ code: 'excluded-points', message: `${nExcluded} run(s) excluded by the user are shown but not fitted.` });
   }
   if (nCensored > 0) {
     warnings.push({
       code: 'censored-points',
-      message: `${nCensored} run(s) at or beyond the quantitation limit of the chiral assay (|ee| ≥ ${options.censorEePercent ?? DEFAULT_CENSOR_EE_PERCENT} %) are treated as bounds, not exact values, and kept out of the least squares.`,
+      message:
+        estimator === 'censored-ml'
+          ? `${nCensored} run(s) at or beyond the assay's quantitation limit are bounds, not exact values: the line is fitted by censored maximum likelihood (Tobit), with the least-squares fit of the exact runs shown beside it.`
+          : `${nCensored} run(s) at or beyond the assay's quantitation limit are treated as bounds, not exact values, and kept out of the fit.`,
     });
   }
   if (disagreeing > 0) {
     warnings.push({
       code: 'censored-bound-disagrees',
-      message: `The fitted line contradicts ${disagreeing} censored run(s): the model may be wrong at those temperatures.`,
+      message: `The fitted line falls short of the quantitation limit at ${disagreeing} run(s) reported beyond it: the model may be wrong at those temperatures.`,
+    });
+  }
+  if (!canFlag && n > 2) {
+    warnings.push({
+      code: 'too-few-runs-to-flag',
+      message: `With ${line.dof} residual degree(s) of freedom no run is flagged: too few runs to tell an odd run from ordinary scatter.`,
+    });
+  }
+  if (withinAssay > 0) {
+    warnings.push({
+      code: 'residuals-within-assay',
+      message: `${withinAssay} run(s) stand out against the others' scatter but lie within ${FLAG_RULES.assaySigmas} SDs of the assay's own precision, so they are not called outliers.`,
     });
   }
   if (flagged > 0) {
     warnings.push({
       code: 'flagged-points',
-      message: `${flagged} run(s) are flagged by residual diagnostics (|studentized| > 3, leverage > 4/n or Cook's D > 1). They are still fitted; exclude one only with a reason.`,
+      message: `${flagged} run(s) are flagged by residual diagnostics (|studentized| > 3, leverage > 4/n or Cook's D > 1); each says why. They are still fitted: a flag asks for a second look at the run's record, not for its removal.`,
     });
   }
 
-  const ddHJPerMol = R * slope;
-  const ddSJPerMolK = -R * intercept;
-  let ddHSe: number | null = null;
-  let ddSSe: number | null = null;
-  let ddHCi: [number, number] | null = null;
-  let ddSCi: [number, number] | null = null;
-  let cov: number | null = null;
-  let corr: number | null = null;
-  if (intervalsAvailable && line.covariance) {
-    ddHSe = R * Math.sqrt(line.covariance.slopeSlope);
-    ddSSe = R * Math.sqrt(line.covariance.interceptIntercept);
-    cov = -R * R * line.covariance.interceptSlope;
-    corr = line.interceptSlopeCorrelation === null ? null : -line.interceptSlopeCorrelation;
-    const q = intervalQuantile(line, confidenceLevel);
-    ddHCi = [ddHJPerMol - q * ddHSe, ddHJPerMol + q * ddHSe];
-    ddSCi = [ddSJPerMolK - q * ddSSe, ddSJPerMolK + q * ddSSe];
+  // Weighted fits: does the scatter match the stated precision?
+  const precisionCheck = line.sigmaMode === 'none' ? null : checkStatedPrecision(line.ssRes, line.dof, line.sigmaMode);
+  if (precisionCheck && precisionCheck.verdict !== 'consistent') {
+    warnings.push({ code: 'stated-precision-mismatch', message: precisionCheck.message });
   }
-  const t0 = zeroSelectivityTemperatureK(ddHJPerMol, ddSJPerMolK);
-  if (t0 !== null && (t0 < tMin || t0 > tMax)) {
+
+  const q = model.quantile(confidenceLevel);
+  const act = activationFromLine(intercept, slope, intervalsAvailable ? model.covariance : null, q);
+  const cov = intervalsAvailable && model.covariance ? -R * R * model.covariance.interceptSlope : null;
+  const corrDenom = model.covariance ? Math.sqrt(model.covariance.slopeSlope * model.covariance.interceptIntercept) : 0;
+  const corr = intervalsAvailable && model.covariance && corrDenom > 0 ? -model.covariance.interceptSlope / corrDenom : null;
+
+  let leastSquaresWithoutBounds: LeastSquaresSummary | null = null;
+  if (estimator === 'censored-ml') {
+    const ls = activationFromLine(line.intercept, line.slope, intervalsAvailable ? line.covariance : null, lsModel.quantile(confidenceLevel));
+    leastSquaresWithoutBounds = {
+      nFitted: n,
+      ddHJPerMol: ls.ddHJPerMol,
+      ddSJPerMolK: ls.ddSJPerMolK,
+      ddHSeJPerMol: ls.ddHSe,
+      ddSSeJPerMolK: ls.ddSSe,
+      ddHCiJPerMol: ls.ddHCi,
+      ddSCiJPerMolK: ls.ddSCi,
+    };
+  }
+
+  const t0 = zeroSelectivityTemperatureK(act.ddHJPerMol, act.ddSJPerMolK);
+  const t0Interval = t0 !== null && q !== null ? zeroSelectivitySet(model, q) : null;
+  const requested = options.requestedRangeK ?? rangeOf(options.predictAtK);
+  const outside = (t: number, r: { min: number; max: number } | null) => !r || t < r.min - 1e-9 || t > r.max + 1e-9;
+  const zeroSelectivityFar = t0 !== null && outside(t0, { min: tMin, max: tMax }) && (requested === null || outside(t0, requested));
+  if (t0 !== null && zeroSelectivityFar) {
     warnings.push({
       code: 'zero-selectivity-extrapolated',
-      message: `Selectivity would vanish at T₀ ≈ ${t0.toFixed(0)} K, outside the screened ${tMin.toFixed(0)}–${tMax.toFixed(0)} K: a far extrapolation of a straight line.`,
+      message: `Selectivity would vanish at T₀ ≈ ${t0.toFixed(0)} K, outside the screened ${tMin.toFixed(0)}–${tMax.toFixed(0)} K${requested ? ' and the temperatures asked about' : ''}: a far extrapolation of a straight line.`,
     });
+  }
+  if (t0Interval && !t0Interval.bounded) {
+    warnings.push({ code: 'zero-selectivity-unbounded', message: t0Interval.message });
   }
 
   const fit: EyringFit = {
@@ -440,32 +677,59 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
     nCensored,
     distinctTemperatures: distinct,
     temperatureRangeK: { min: tMin, max: tMax },
-    ddHJPerMol,
-    ddSJPerMolK,
-    ddHSeJPerMol: ddHSe,
-    ddSSeJPerMolK: ddSSe,
-    ddHCiJPerMol: ddHCi,
-    ddSCiJPerMolK: ddSCi,
+    ddHJPerMol: act.ddHJPerMol,
+    ddSJPerMolK: act.ddSJPerMolK,
+    ddHSeJPerMol: act.ddHSe,
+    ddSSeJPerMolK: act.ddSSe,
+    ddHCiJPerMol: act.ddHCi,
+    ddSCiJPerMolK: act.ddSCi,
     ddHDdSCovariance: cov,
     ddHDdSCorrelation: corr,
     slopeK: slope,
     intercept,
-    residualSdLnR: line.residualSd,
+    residualSdLnR: estimator === 'censored-ml' && line.sigmaMode === 'none' ? censoredFit!.scale : line.residualSd,
     rSquared: line.rSquared,
     dof: line.dof,
     zeroSelectivityTemperatureK: t0,
+    zeroSelectivityInterval: t0Interval,
+    zeroSelectivityFar,
     intervalsAvailable,
+    estimator,
+    leastSquaresWithoutBounds,
+    censoredFit,
+    precisionCheck,
+    newRunBasis: options.newRun ? { source: 'assay', precision: options.newRun } : { source: 'screen-scatter' },
     points,
     predictions: [],
     warnings,
     line,
+    model,
   };
+  if (options.newRun) sigmaLnRatioAt(options.newRun, 0); // validate once, before any prediction
   if (options.predictAtK && options.predictAtK.length > 0) {
     fit.predictions = predictEyring(fit, options.predictAtK, confidenceLevel);
-    const outside = fit.predictions.filter((p) => p.extrapolated).length;
-    if (outside > 0) warnings.push(extrapolationWarning(fit, outside));
+    const outsideCount = fit.predictions.filter((p) => p.extrapolated).length;
+    if (outsideCount > 0) warnings.push(extrapolationWarning(fit, outsideCount));
+    const lost = fit.predictions.filter((p) => p.outOfRange).length;
+    if (lost > 0) {
+      warnings.push({
+        code: 'prediction-out-of-range',
+        message: `${lost} prediction(s) lie so far from the data that r itself cannot be written as a number; ln r and ΔΔG‡ are given and ee is shown saturated. The rest of the fit is unaffected.`,
+      });
+    }
   }
   return fit;
+}
+
+function rangeOf(values: readonly number[] | undefined): { min: number; max: number } | null {
+  if (!values || values.length === 0) return null;
+  let min = Infinity;
+  let max = -Infinity;
+  for (const v of values) {
+    if (v < min) min = v;
+    if (v > max) max = v;
+  }
+  return Number.isFinite(min) && Number.isFinite(max) ? { min, max } : null;
 }
 
 function extrapolationWarning(fit: EyringFit, count: number): Warning {
@@ -484,43 +748,58 @@ export function ddGAtTemperature(
   confidenceLevel = fit.confidenceLevel,
 ): { temperatureK: number; ddGJPerMol: number; seJPerMol: number | null; ciJPerMol: [number, number] | null } {
   requireTemperatureK(temperatureK, 'temperatureK');
-  const pred = predictLine(fit.line, 1 / temperatureK, confidenceLevel);
+  const x0 = 1 / temperatureK;
+  const yHat = fit.model.intercept + fit.model.slope * x0;
   const rt = R * temperatureK;
-  const usable = fit.intervalsAvailable && pred.seMean !== null && pred.meanInterval !== null;
+  const v = fit.intervalsAvailable ? fit.model.varianceOfMean(x0) : null;
+  const q = fit.intervalsAvailable ? fit.model.quantile(confidenceLevel) : null;
+  const se = v === null ? null : Math.sqrt(v);
   return {
     temperatureK,
-    ddGJPerMol: rt * pred.yHat,
-    seJPerMol: usable ? rt * pred.seMean! : null,
-    ciJPerMol: usable ? [rt * pred.meanInterval![0], rt * pred.meanInterval![1]] : null,
+    ddGJPerMol: rt * yHat,
+    seJPerMol: se === null ? null : rt * se,
+    ciJPerMol: se === null || q === null ? null : [rt * (yHat - q * se), rt * (yHat + q * se)],
   };
 }
 
 /**
  * Predict selectivity at each temperature with the CI of the mean line and the prediction
- * interval for a new run (DOMAIN §3), mapped to r = e^y, ee = tanh(y/2), %A = 100/(1 + e^(−y));
- * all three maps are increasing, so interval ends map to ends.
+ * interval for a new run (see line-model.ts: the fit's uncertainty plus the new run's own
+ * measurement error, σ propagated at the predicted value when the assay's precision is known),
+ * mapped to r = e^y, ee = tanh(y/2), %A = 100/(1 + e^(−y)); all three maps are increasing, so
+ * interval ends map to ends. A temperature so far out that r overflows is marked outOfRange
+ * rather than failing the whole fit.
  */
 export function predictEyring(fit: EyringFit, temperaturesK: readonly number[], confidenceLevel = fit.confidenceLevel): EyringPrediction[] {
   requireConfidenceLevel(confidenceLevel);
   const { min, max } = fit.temperatureRangeK;
+  const q = fit.intervalsAvailable ? fit.model.quantile(confidenceLevel) : null;
+  const precision = fit.newRunBasis.source === 'assay' ? fit.newRunBasis.precision : null;
   return temperaturesK.map((t, i) => {
     requireTemperatureK(t, `temperaturesK[${i}]`);
-    const pred = predictLine(fit.line, 1 / t, confidenceLevel);
-    const y = pred.yHat;
-    const usable = fit.intervalsAvailable && pred.meanInterval !== null && pred.predictionInterval !== null;
+    const x0 = 1 / t;
+    const y = fit.model.intercept + fit.model.slope * x0;
+    const varMean = q === null ? null : fit.model.varianceOfMean(x0);
+    const assaySigma = precision ? sigmaLnRatioAt(precision, y) : null;
+    const varNew = q === null ? null : newRunVariance(fit.model, x0, assaySigma);
     const rt = R * t;
+    const ratio = ratioFromLn(y);
+    const seMean = varMean === null ? null : Math.sqrt(varMean);
+    const seNew = varNew === null || !Number.isFinite(varNew) ? null : Math.sqrt(varNew);
     return {
       temperatureK: t,
       celsius: kelvinToCelsius(t),
       lnRatio: y,
-      ratio: ratioFromLn(y),
+      ratio,
+      outOfRange: !(ratio > 0 && Number.isFinite(ratio)),
+      newRunSigmaLnR: assaySigma !== null && Number.isFinite(assaySigma) ? assaySigma : null,
       eePercent: eeFromLn(y),
       percentA: percentAFromLn(y),
       ddGJPerMol: rt * y,
-      ddGSeJPerMol: usable ? rt * pred.seMean! : null,
+      ddGSeJPerMol: seMean === null ? null : rt * seMean,
       extrapolated: t < min - 1e-9 || t > max + 1e-9,
-      meanInterval: usable ? mapInterval(pred.meanInterval![0], pred.meanInterval![1]) : null,
-      predictionInterval: usable ? mapInterval(pred.predictionInterval![0], pred.predictionInterval![1]) : null,
+      meanInterval: seMean === null || q === null ? null : mapInterval(y - q * seMean, y + q * seMean),
+      predictionInterval: seNew === null || q === null ? null : mapInterval(y - q * seNew, y + q * seNew),
     };
   });
 }

@@ -112,7 +112,7 @@ async function statelessFit(runs: (Run & { excluded?: boolean })[], options: Rec
       measurements: runs.map((r) => ({
         // The kelvin value a campaign stores (−50 °C as 223.15 K exactly), so both paths see the same numbers.
         temperature: { value: toKelvin(r.celsius, 'C'), unit: 'K' },
-        selectivity: { measure: 'ee', value: r.ee },
+        selectivity: { measure: 'ee', value: r.ee, ...(r.atLeast ? { atLeast: true } : {}) },
         ...(r.uncertainty !== undefined ? { uncertainty: r.uncertainty } : {}),
         ...(r.excluded ? { excluded: true } : {}),
       })),
@@ -364,18 +364,22 @@ describe('analysis', () => {
     expect(fit.n).toBe(5);
   });
 
-  it('when a run is stored as "at least", then it is censored, not fitted, and the fit equals one without it', async () => {
+  it('when a run is stored as "at least", then it is a censored bound in a censored fit, with the least-squares fit without it alongside', async () => {
     const c = await newCampaign();
     const runs = screen([-50, -30, -10, 10, 30]);
     await addRuns(c.id, runs);
-    await addRuns(c.id, [{ celsius: -70, ee: 99.0, atLeast: true }]);
+    const bound99: Run = { celsius: -70, ee: 99.0, atLeast: true };
+    await addRuns(c.id, [bound99]);
     const a = analysisResponseSchema.parse((await as('viewer').get(`/api/v1/campaigns/${c.id}/analysis`).expect(200)).body);
     const bound = a.points.find((p) => Math.abs(p.celsius + 70) < 1e-9)!;
     expect(bound.status).toBe('censored');
-    const reference = await statelessFit(runs, {}, []);
+    const withoutBound = await statelessFit(runs, {}, []);
+    const withBound = await statelessFit([...runs, bound99], {}, []);
     expect(a.fit!.n).toBe(5);
-    expect(a.fit!.ddH).toEqual(reference.ddH);
-    expect(a.fit!.ddS).toEqual(reference.ddS);
+    expect(a.fit!.estimator).toBe('censored-ml');
+    expect(a.fit!.ddH).toEqual(withBound.ddH);
+    expect(a.fit!.leastSquaresWithoutBounds!.ddH).toEqual(withoutBound.ddH);
+    expect(a.fit!.leastSquaresWithoutBounds!.label).toMatch(/bounds dropped/);
     // The line predicts more than 99.0 % ee at −70 °C, so the bound agrees and the run is not flagged [C].
     expect(bound.flagged).toBe(false);
   });
@@ -415,6 +419,35 @@ describe('analysis', () => {
     const one = (await as('viewer').get(`/api/v1/campaigns/${empty.id}/analysis?at=-20`).expect(200)).body;
     expect(one).toMatchObject({ fit: null, problem: { code: 'too-few-temperatures' }, at: null });
     expect(one.caution).toContain('calorimetry');
+  });
+
+  it('when the campaign sets the assay precision of a new run and the quantitation limit, then the analysis uses them and the query can override them', async () => {
+    const c = await newCampaign({ newRunUncertainty: 0.25, quantitationLimit: 99.5 });
+    await addRuns(c.id, screen([-60, -40, -20, 0, 20]));
+    const a = analysisResponseSchema.parse((await as('viewer').get(`/api/v1/campaigns/${c.id}/analysis?at=-70`).expect(200)).body);
+    expect(a.fit!.newRun).toMatchObject({ source: 'assay', measure: 'ee', uncertainty: 0.25 });
+    expect(a.fit!.newRun!.note).toMatch(/campaign's setting/);
+    expect(a.fit!.quantitationLimit).toMatchObject({ measure: 'ee', value: 99.5 });
+    expect(a.at!.newRunSigmaLnR).toEqual(expect.any(Number));
+    const b = analysisResponseSchema.parse((await as('viewer').get(`/api/v1/campaigns/${c.id}/analysis?newRunUncertainty=0.4&quantitationLimit=99.9`).expect(200)).body);
+    expect(b.fit!.newRun).toMatchObject({ uncertainty: 0.4 });
+    expect(b.fit!.quantitationLimit).toMatchObject({ value: 99.9 });
+    const bad = await as('viewer').get(`/api/v1/campaigns/${c.id}/analysis?quantitationLimit=150`).expect(400);
+    expect(bad.body.errors.map((e: { path: string }) => e.path)).toEqual(['quantitationLimit']);
+  });
+
+  it('when a quantitation limit does not suit the campaign measure, then 400 names quantitationLimit and nothing changes', async () => {
+    const created = await as('editor')
+      .post(`/api/v1/projects/${project.id}/campaigns`)
+      .send({ title: `Limit ${randomBytes(3).toString('hex')}`, measure: 'ee', assayMethod: 'chiral-hplc', quantitationLimit: 100 });
+    expect(created.status).toBe(400);
+    expect(created.body.errors.map((e: { path: string }) => e.path)).toEqual(['quantitationLimit']);
+    const dr = await newCampaign({ measure: 'dr', quantitationLimit: 200 });
+    const changed = await as('editor').patch(`/api/v1/campaigns/${dr.id}`).send({ version: dr.version, measure: 'ee' });
+    expect(changed.status).toBe(400);
+    expect(changed.body.errors.map((e: { path: string }) => e.path)).toEqual(['quantitationLimit']);
+    const again = await as('viewer').get(`/api/v1/campaigns/${dr.id}`).expect(200);
+    expect(again.body).toMatchObject({ measure: 'dr', quantitationLimit: 200, version: dr.version });
   });
 
   it('when the query is wrong, then 400 names the parameter', async () => {

@@ -56,10 +56,11 @@ describe('POST /api/v1/fit curvature check', () => {
     expect(warm!.branch).toBe('high');
     expect(cold!.branch).toBe('low');
     // [C] on the cold branch: ln r = 3 − 900·(1/T − 1/T_b)
-    expect(Math.log(cold!.ratio)).toBeCloseTo(isoLnR(-40 + K), 1);
+    expect(Math.log(cold!.ratio!)).toBeCloseTo(isoLnR(-40 + K), 1);
+    expect(cold!.lnRatio).toBeCloseTo(Math.log(cold!.ratio!), 12);
     expect(cold!.extrapolated).toBe(false);
     expect(far!.extrapolated).toBe(true);
-    expect(far!.predictionInterval!.ratio[0]).toBeLessThan(far!.ratio);
+    expect(far!.predictionInterval!.ratio[0]).toBeLessThan(far!.ratio!);
   });
 
   it('when the screen is one straight line, then no break, branch or isoinversion is reported and forecasts use the line', async () => {

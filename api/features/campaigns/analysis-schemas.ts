@@ -20,6 +20,17 @@ export const analysisQuerySchema = z.object({
     .gt(-273.15, 'at must lie above absolute zero (−273.15 °C)')
     .max(726.85, 'at must be at most 726.85 °C (1000 K)')
     .optional(),
+  newRunUncertainty: z.coerce
+    .number({ error: 'newRunUncertainty must be a number' })
+    .refine(Number.isFinite, 'newRunUncertainty must be a finite number')
+    .refine((v) => v > 0 && v < 100, 'newRunUncertainty must be above 0 and below 100')
+    .optional()
+    .meta({ description: "SD of the assay for a new run, in the campaign measure's units; default the campaign's setting, else the median of the runs'" }),
+  quantitationLimit: z.coerce
+    .number({ error: 'quantitationLimit must be a number' })
+    .refine(Number.isFinite, 'quantitationLimit must be a finite number')
+    .optional()
+    .meta({ description: "Quantitation limit in the campaign measure's terms (ee %, % A/er major share %, dr/ratio r); default the campaign's, else 99.8 % ee" }),
 });
 export type AnalysisQuery = z.infer<typeof analysisQuerySchema>;
 

@@ -7,7 +7,9 @@
  */
 import type { Knex } from 'knex';
 import { SIGN_CONVENTION, kelvinToCelsius, parseSelectivity, sigmaLnRatio, type EyringMeasurement } from '../../science';
-import { NotFoundError, UnprocessableError } from '../../lib/errors';
+import { BadRequestError, NotFoundError, UnprocessableError } from '../../lib/errors';
+import { quantitationLimitProblem } from '../compute/schemas';
+import { medianUncertainty } from '../../science/assay-precision';
 import { Campaign } from '../../models/campaign';
 import { Measurement } from '../../models/measurement';
 import { SavedForecast } from '../../models/saved-forecast';
@@ -78,20 +80,62 @@ function isDomainError(err: unknown): err is Error & { code: string } {
 export interface AnalysisOptions extends FitOptions {
   /** Extra temperature (K) to predict at, reported as `at`. */
   atK?: number;
+  /** Overrides of the campaign's settings, in the campaign measure's units. */
+  newRunUncertainty?: number;
+  quantitationLimitValue?: number;
 }
 
-export function analysisOptions(query: Pick<AnalysisQuery, 'weighting' | 'uncertaintyScale' | 'confidence' | 'at'>): AnalysisOptions {
+export function analysisOptions(
+  query: Pick<AnalysisQuery, 'weighting' | 'uncertaintyScale' | 'confidence' | 'at' | 'newRunUncertainty' | 'quantitationLimit'>,
+): AnalysisOptions {
   return {
     weighting: query.weighting,
     uncertaintyScale: query.uncertaintyScale,
     confidence: query.confidence,
     ...(query.at === undefined ? {} : { atK: toKelvin(query.at, 'C') }),
+    ...(query.newRunUncertainty === undefined ? {} : { newRunUncertainty: query.newRunUncertainty }),
+    ...(query.quantitationLimit === undefined ? {} : { quantitationLimitValue: query.quantitationLimit }),
+  };
+}
+
+type AnalysedCampaign = Pick<Campaign, 'id' | 'version' | 'measure' | 'defaultUncertainty'> & Partial<Pick<Campaign, 'newRunUncertainty' | 'quantitationLimit'>>;
+
+/**
+ * The campaign's assay settings for this analysis: the query's, else the campaign's, else the
+ * defaults (new run: median of the runs' own or default uncertainties in the campaign measure;
+ * limit: 99.8 % ee). A limit that does not suit the measure is a 400 naming the field.
+ */
+function assaySettings(campaign: AnalysedCampaign, measurements: readonly Measurement[], options: AnalysisOptions): Pick<FitOptions, 'newRun' | 'newRunOrigin' | 'quantitationLimit'> {
+  const limitValue = options.quantitationLimitValue ?? campaign.quantitationLimit ?? null;
+  let quantitationLimit: FitOptions['quantitationLimit'];
+  if (limitValue !== null) {
+    const problem = quantitationLimitProblem(campaign.measure, limitValue);
+    if (problem) {
+      const path = options.quantitationLimitValue === undefined ? 'campaign.quantitationLimit' : 'quantitationLimit';
+      throw new BadRequestError(`quantitationLimit ${problem} for a campaign reported as ${campaign.measure}.`, [{ path, message: `quantitationLimit ${problem}` }]);
+    }
+    quantitationLimit = { measure: campaign.measure, value: limitValue };
+  }
+  const given = options.newRunUncertainty ?? campaign.newRunUncertainty ?? null;
+  if (given !== null) {
+    return { newRun: { measure: campaign.measure, uncertainty: given }, newRunOrigin: options.newRunUncertainty === undefined ? 'campaign' : 'request', ...(quantitationLimit ? { quantitationLimit } : {}) };
+  }
+  const median = medianUncertainty(
+    measurements
+      .filter((m) => m.measure === campaign.measure && !m.excluded)
+      .map((m) => m.uncertainty ?? campaign.defaultUncertainty ?? 0),
+  );
+  return {
+    newRun: median === null ? null : { measure: campaign.measure, uncertainty: median },
+    newRunOrigin: 'median',
+    ...(quantitationLimit ? { quantitationLimit } : {}),
   };
 }
 
 /** The analysis of one campaign's runs (pure: no database). */
-export function computeAnalysis(campaign: Pick<Campaign, 'id' | 'version' | 'measure' | 'defaultUncertainty'>, measurements: readonly Measurement[], options: AnalysisOptions): AnalysisResponse {
+export function computeAnalysis(campaign: AnalysedCampaign, measurements: readonly Measurement[], options: AnalysisOptions): AnalysisResponse {
   const engine = toEngineMeasurements(campaign, measurements);
+  options = { ...options, ...assaySettings(campaign, measurements, options) };
   let fit: FitResponse | null = null;
   let problem: AnalysisResponse['problem'] = null;
   let curveK: number[] = [];
@@ -204,7 +248,7 @@ export async function saveCampaignForecast(
   actor: ProjectActor,
   campaignId: string,
   input: SavedForecastCreate,
-  fitOptions: FitOptions,
+  fitOptions: AnalysisOptions,
 ): Promise<SavedForecastView> {
   const { campaign, measurements } = await loadCampaignData(db, actor.projectId, campaignId);
   const temperatureK = toKelvin(input.temperature.value, input.temperature.unit);
@@ -238,7 +282,10 @@ export async function saveCampaignForecast(
 function insideInterval(prediction: FitPrediction, m: Measurement, ratio: number): boolean | null {
   const interval = prediction.predictionInterval?.ratio;
   if (!interval) return null;
-  const [lo, hi] = interval[0] <= interval[1] ? interval : [interval[1], interval[0]];
+  // A null end is r beyond the representable range: 0 below, unbounded above.
+  const a = interval[0] ?? 0;
+  const b = interval[1] ?? Infinity;
+  const [lo, hi] = a <= b ? [a, b] : [b, a];
   if (m.isLowerBound) {
     const beyond = ratio >= 1 ? ratio > hi : ratio < lo;
     return beyond ? false : null;

@@ -178,8 +178,14 @@ export function campaignsRouter(deps: { knex: Knex; version: string }): Router {
 
   router.post('/campaigns/:campaignId/forecasts', byCampaign('editor'), async (req, res) => {
     const input = parseBody(savedForecastCreateSchema, req.body);
-    const { weighting, uncertaintyScale, confidence } = parseBody(analysisQuerySchema, req.query);
-    const view = await saveCampaignForecast(knex, actorOf(req), campaignId(req), input, { weighting, uncertaintyScale, confidence });
+    const { weighting, uncertaintyScale, confidence, newRunUncertainty, quantitationLimit } = parseBody(analysisQuerySchema, req.query);
+    const view = await saveCampaignForecast(knex, actorOf(req), campaignId(req), input, {
+      weighting,
+      uncertaintyScale,
+      confidence,
+      ...(newRunUncertainty === undefined ? {} : { newRunUncertainty }),
+      ...(quantitationLimit === undefined ? {} : { quantitationLimitValue: quantitationLimit }),
+    });
     res.status(201).json(view);
   });
 

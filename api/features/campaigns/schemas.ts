@@ -6,6 +6,7 @@
 import { z } from 'zod';
 import { SELECTIVITY_MEASURES, type SelectivityMeasure } from '../../science/selectivity';
 import { TEMPERATURE_UNITS, type TemperatureUnit } from '../../science/units';
+import { quantitationLimitProblem } from '../compute/schemas';
 
 export { SELECTIVITY_MEASURES, TEMPERATURE_UNITS };
 export type { SelectivityMeasure, TemperatureUnit };
@@ -131,16 +132,28 @@ const campaignFields = {
   measure: z.enum(SELECTIVITY_MEASURES, { error: `measure must be one of ${SELECTIVITY_MEASURES.join(', ')}` }),
   assayMethod: z.enum(ASSAY_METHODS, { error: `assayMethod must be one of ${ASSAY_METHODS.join(', ')}` }),
   defaultUncertainty: uncertaintySchema.nullable().optional(),
+  /** SD of the assay that will measure the next run (the measure's units); intervals for a new run add it. */
+  newRunUncertainty: finite('newRunUncertainty')
+    .refine((v) => v > 0 && v < 100, 'newRunUncertainty must be above 0 and below 100')
+    .nullable()
+    .optional(),
+  /** Runs at or beyond this are bounds: ee in %, percentA/er as the major share in %, dr/ratio as r. */
+  quantitationLimit: finite('quantitationLimit').nullable().optional(),
   status: z.enum(CAMPAIGN_STATUSES, { error: `status must be one of ${CAMPAIGN_STATUSES.join(', ')}` }),
   notes: optionalText(10000),
 };
 
-export const campaignCreateSchema = z.strictObject({
-  ...campaignFields,
-  productNameA: campaignFields.productNameA.default('A'),
-  productNameB: campaignFields.productNameB.default('B'),
-  status: campaignFields.status.default('active'),
-});
+export const campaignCreateSchema = z
+  .strictObject({
+    ...campaignFields,
+    productNameA: campaignFields.productNameA.default('A'),
+    productNameB: campaignFields.productNameB.default('B'),
+    status: campaignFields.status.default('active'),
+  })
+  .superRefine((c, ctx) => {
+    const problem = c.quantitationLimit == null ? null : quantitationLimitProblem(c.measure, c.quantitationLimit);
+    if (problem) ctx.addIssue({ code: 'custom', path: ['quantitationLimit'], message: `quantitationLimit ${problem}` });
+  });
 export type CampaignCreate = z.infer<typeof campaignCreateSchema>;
 
 /** A partial update; `version` is the version the client last read (optimistic concurrency). */
@@ -156,6 +169,8 @@ export const campaignUpdateSchema = z
     measure: campaignFields.measure.optional(),
     assayMethod: campaignFields.assayMethod.optional(),
     defaultUncertainty: campaignFields.defaultUncertainty,
+    newRunUncertainty: campaignFields.newRunUncertainty,
+    quantitationLimit: campaignFields.quantitationLimit,
     status: campaignFields.status.optional(),
     notes: campaignFields.notes,
   })

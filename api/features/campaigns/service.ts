@@ -7,7 +7,8 @@
 import type { Knex } from 'knex';
 import objection from 'objection';
 import { recordAudit } from '../audit/service';
-import { ConflictError, NotFoundError } from '../../lib/errors';
+import { BadRequestError, ConflictError, NotFoundError } from '../../lib/errors';
+import { quantitationLimitProblem } from '../compute/schemas';
 import { Campaign } from '../../models/campaign';
 import { Measurement } from '../../models/measurement';
 import { SavedForecast } from '../../models/saved-forecast';
@@ -130,6 +131,8 @@ export async function createCampaign(db: Knex, actor: ProjectActor, input: Campa
         ...input,
         reactionDescription: input.reactionDescription ?? null,
         defaultUncertainty: input.defaultUncertainty ?? null,
+        newRunUncertainty: input.newRunUncertainty ?? null,
+        quantitationLimit: input.quantitationLimit ?? null,
         notes: input.notes ?? null,
         projectId: actor.projectId,
         createdByUserId: actor.actorUserId,
@@ -150,6 +153,14 @@ export async function updateCampaign(db: Knex, actor: ProjectActor, campaignId: 
     return await db.transaction(async (trx) => {
       const before = await getCampaignForUpdate(trx, actor.projectId, campaignId);
       if (before.version !== version) throw staleVersion('campaign', version, before.version);
+      // The limit is read in the campaign's measure, so check it against the measure it will have.
+      const limit = changes.quantitationLimit === undefined ? before.quantitationLimit : changes.quantitationLimit;
+      const problem = limit === null ? null : quantitationLimitProblem(changes.measure ?? before.measure, limit);
+      if (problem) {
+        throw new BadRequestError(`quantitationLimit ${problem} for a campaign reported as ${changes.measure ?? before.measure}.`, [
+          { path: 'quantitationLimit', message: `quantitationLimit ${problem}` },
+        ]);
+      }
       const [after] = await Campaign.query(trx)
         .patch({ ...changes, version: version + 1, updatedAt: new Date() })
         .where({ id: campaignId, version })

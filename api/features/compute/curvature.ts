@@ -13,6 +13,7 @@ import {
   type ScreenModel,
   type SegmentedBranch,
 } from '../../science';
+import { sigmaLnRatioAt, type AssayPrecision } from '../../science/assay-precision';
 import type { FitResponse } from './schemas';
 
 type Prediction = FitResponse['predictions'][number];
@@ -75,19 +76,32 @@ export function curvatureOut(check: BreakCheck): FitResponse['twoBranch'] {
 
 const eeFromLn = (y: number) => 100 * Math.tanh(y / 2);
 const percentAFromLn = (y: number) => 100 / (1 + Math.exp(-y));
-/** r = e^y, held finite so one far prediction never breaks the answer (ee and % A saturate anyway). */
-const ratioOf = (y: number) => Math.min(Math.exp(y), Number.MAX_VALUE);
+/** r = e^y, or null beyond the representable range (ln r, ee and % A still stand; ee saturates). */
+const ratioOf = (y: number) => {
+  const r = Math.exp(y);
+  return Number.isFinite(r) && r > 0 ? r : null;
+};
 const mapInterval = (lo: number, hi: number) => ({
-  ratio: [ratioOf(lo), ratioOf(hi)] as [number, number],
+  lnRatio: [lo, hi] as [number, number],
+  ratio: [ratioOf(lo), ratioOf(hi)] as [number | null, number | null],
   eePercent: [eeFromLn(lo), eeFromLn(hi)] as [number, number],
   percentA: [percentAFromLn(lo), percentAFromLn(hi)] as [number, number],
 });
 
-/** A forecast at T from the chosen model; the one-line answer is kept as it is. */
-export function modelPrediction(model: ScreenModel, oneLine: Prediction, confidence: number): Prediction {
+/**
+ * A forecast at T from the chosen model; the one-line answer is kept as it is. On the segmented model a new run's
+ * own assay error is propagated at the segmented prediction, and, as for one line, a new run never scatters less
+ * than the screen's runs did about the fitted branches.
+ */
+export function modelPrediction(model: ScreenModel, oneLine: Prediction, confidence: number, newRun?: AssayPrecision | null): Prediction {
   if (model.kind === 'one-line') return { ...oneLine, model: 'one-line', branch: null };
   const t = oneLine.kelvin;
-  const p = predictiveLnRatio(model, t);
+  const c = model.fit.coefficients;
+  const center = predictiveLnRatio(model, t).mean;
+  const assaySigma = newRun ? sigmaLnRatioAt(newRun, center) : null;
+  const screenVariance = c.residualVariance * c.meanRelativeVariance;
+  const sigmaNewLnR = assaySigma === null ? undefined : Math.sqrt(Math.max(screenVariance, assaySigma * assaySigma));
+  const p = predictiveLnRatio(model, t, sigmaNewLnR === undefined ? {} : { sigmaNewLnR });
   const y = p.mean;
   const rt = R * t;
   const q = studentTQuantile((1 + confidence) / 2, p.dof);
@@ -96,6 +110,9 @@ export function modelPrediction(model: ScreenModel, oneLine: Prediction, confide
     kelvin: t,
     celsius: oneLine.celsius,
     ratio: ratioOf(y),
+    lnRatio: y,
+    outOfRange: ratioOf(y) === null,
+    newRunSigmaLnR: assaySigma,
     eePercent: eeFromLn(y),
     percentA: percentAFromLn(y),
     ddG: { 'kJ/mol': kJ(ddG), 'kcal/mol': kcal(ddG) },

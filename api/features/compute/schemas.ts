@@ -67,7 +67,20 @@ const ddGOut = z.object({ 'kJ/mol': z.number(), 'kcal/mol': z.number() });
 export const selectivityPointSchema = z
   .object({ kelvin: z.number(), celsius: z.number(), ratio: z.number(), eePercent: z.number(), percentA: z.number(), ddG: ddGOut })
   .meta({ id: 'SelectivityPoint' });
-const zeroSelectivitySchema = z.object({ kelvin: z.number(), celsius: z.number(), note: z.string() }).nullable();
+const zeroSelectivitySchema = z
+  .object({
+    kelvin: z.number(),
+    celsius: z.number(),
+    note: z.string(),
+    /** Fieller confidence set (fits only): ranges in K, null ends meaning 0 K or no upper limit. */
+    interval: z
+      .object({ ranges: z.array(z.object({ fromKelvin: z.number().nullable(), toKelvin: z.number().nullable() })), bounded: z.boolean(), note: z.string() })
+      .nullable()
+      .optional(),
+    /** Outside both the data and the temperatures asked about. */
+    farExtrapolation: z.boolean().optional(),
+  })
+  .nullable();
 
 export const forecastResponseSchema = z
   .object({
@@ -81,10 +94,44 @@ export const forecastResponseSchema = z
 export type ForecastResponse = z.infer<typeof forecastResponseSchema>;
 
 // ---------- fit ----------
+/** A measured selectivity that may be only a bound ("≥ 99.8 % ee", "> 200:1"). */
+export const measuredSelectivitySchema = selectivitySchema
+  .extend({
+    atLeast: z.boolean().optional().meta({
+      description: 'The assay reported only a bound ("at least this selective"): fitted as a censored run at the quantitation limit, or at this value when it is a weaker bound',
+    }),
+  })
+  .meta({ id: 'MeasuredSelectivity' });
+
+/** Whether `value` is a valid quantitation limit for `measure` (null) or why not. */
+export function quantitationLimitProblem(measure: z.infer<typeof selectivityMeasureSchema>, value: number): string | null {
+  if (!Number.isFinite(value)) return 'must be a finite number';
+  switch (measure) {
+    case 'ee':
+      return value > 0 && value < 100 ? null : 'must lie strictly between 0 and 100 % ee';
+    case 'percentA':
+    case 'er':
+      return value > 50 && value < 100 ? null : `must lie strictly between 50 and 100 % (the major isomer's share)`;
+    default:
+      return value > 1 ? null : 'must be a ratio above 1 (e.g. 200 for 200:1)';
+  }
+}
+
+export const quantitationLimitSchema = z
+  .object({ measure: selectivityMeasureSchema, value: finite('value') })
+  .superRefine((q, ctx) => {
+    const problem = quantitationLimitProblem(q.measure, q.value);
+    if (problem) ctx.addIssue({ code: 'custom', path: ['value'], message: problem });
+  })
+  .meta({
+    id: 'QuantitationLimit',
+    description: 'The assay\'s quantitation limit: ee in %, percentA and er as the major share in %, dr and ratio as r; runs at or beyond it are bounds. Default 99.8 % ee.',
+  });
+
 export const measurementInputSchema = z
   .object({
     temperature: temperatureSchema,
-    selectivity: selectivitySchema,
+    selectivity: measuredSelectivitySchema,
     uncertainty: finite('uncertainty').positive('must be greater than zero').optional().meta({
       description: 'Standard deviation of the measured value, in its own units (ee and percentA: percentage points; er/dr/ratio: relative SD of r)',
     }),
@@ -102,15 +149,29 @@ export const fitRequestSchema = z
     }),
     confidence: z.number().gt(0.5, 'must be above 0.5').lt(1, 'must be below 1').default(0.95),
     predict: z.array(temperatureSchema).max(MAX_POINTS).default([]),
+    newRunUncertainty: finite('newRunUncertainty').positive('must be greater than zero').optional().meta({
+      description:
+        "SD of the assay that will measure a new run, in the units of newRunMeasure (see Measurement.uncertainty); propagated at each predicted value. Default: the median uncertainty of the runs in that measure, else the screen's scatter",
+    }),
+    newRunMeasure: selectivityMeasureSchema.optional().meta({ description: 'Measure of newRunUncertainty; default the measure most runs are reported in' }),
+    quantitationLimit: quantitationLimitSchema.optional(),
   })
   .meta({ id: 'FitRequest' });
 export type FitRequest = z.infer<typeof fitRequestSchema>;
 export type FitRequestInput = z.input<typeof fitRequestSchema>;
 
 const intervalSchema = z.tuple([z.number(), z.number()]);
-const mappedIntervalSchema = z.object({ ratio: intervalSchema, eePercent: intervalSchema, percentA: intervalSchema });
+/** Interval ends of r are null when r itself is beyond the representable range (ln r is always given). */
+const ratioIntervalSchema = z.tuple([z.number().nullable(), z.number().nullable()]);
+const mappedIntervalSchema = z.object({ lnRatio: intervalSchema.optional(), ratio: ratioIntervalSchema, eePercent: intervalSchema, percentA: intervalSchema });
 export const fitPredictionSchema = selectivityPointSchema
   .extend({
+    /** null when r is beyond the representable range (outOfRange); ln r, ΔΔG‡ and the saturated ee still stand. */
+    ratio: z.number().nullable(),
+    lnRatio: z.number().optional(),
+    outOfRange: z.boolean().optional(),
+    /** σ(ln r) of the new run's own measurement at this prediction, when the assay precision is known. */
+    newRunSigmaLnR: z.number().nullable().optional(),
     ddGSe: z.object({ 'kJ/mol': z.number(), 'kcal/mol': z.number() }).nullable(),
     extrapolated: z.boolean(),
     /** The model this forecast comes from: the segmented model when curvature is accepted. */
@@ -143,7 +204,17 @@ export const residualSchema = z
     lnRatio: z.number(),
     fitted: z.number().nullable(),
     residual: z.number().nullable(),
+    /** Externally studentized (deleted) residual. */
     studentized: z.number().nullable(),
+    /** Internally studentized residual e/(s√(1 − h)). */
+    studentizedInternal: z.number().nullable().optional(),
+    /** One line on why the run is flagged (null when it is not). */
+    flagReason: z.string().nullable().optional(),
+    /** |residual| in SDs of the run's own assay precision, and whether that is within 2 SDs. */
+    residualInAssaySigmas: z.number().nullable().optional(),
+    withinAssayPrecision: z.boolean().nullable().optional(),
+    /** For bounds: the censoring point in ln r (the quantitation limit, or a weaker reported bound). */
+    censorLnRatio: z.number().nullable().optional(),
     leverage: z.number().nullable(),
     cooksDistance: z.number().nullable(),
     status: z.enum(['fitted', 'excluded', 'censored']),
@@ -227,6 +298,35 @@ export const fitResponseSchema = z
     temperatureRange: z.object({ minKelvin: z.number(), maxKelvin: z.number() }),
     residuals: z.array(residualSchema),
     zeroSelectivity: zeroSelectivitySchema,
+    /** least-squares, or censored-ml (Tobit) when some runs are bounds. */
+    estimator: z.enum(['least-squares', 'censored-ml']).optional(),
+    /** With censored-ml: the least-squares fit of the exact runs only, for comparison (biased low). */
+    leastSquaresWithoutBounds: z
+      .object({ n: z.number().int(), ddH: energyStat, ddS: entropyStat, label: z.string() })
+      .nullable()
+      .optional(),
+    censoredFit: z
+      .object({ logLikelihood: z.number(), iterations: z.number().int(), scale: z.number(), nLower: z.number().int(), nUpper: z.number().int() })
+      .nullable()
+      .optional(),
+    quantitationLimit: z.object({ measure: selectivityMeasureSchema, value: z.number(), lnRatio: z.number() }).optional(),
+    /** Weighted fits: χ²/dof and whether the stated precision matches the scatter. */
+    precisionCheck: z
+      .object({
+        chiSquare: z.number(),
+        dof: z.number().int(),
+        reducedChiSquare: z.number(),
+        pLarger: z.number(),
+        pSmaller: z.number(),
+        verdict: z.enum(['consistent', 'scatter-larger', 'scatter-smaller']),
+        message: z.string(),
+      })
+      .nullable()
+      .optional(),
+    /** Where a new run's own scatter in the prediction interval comes from. */
+    newRun: z
+      .object({ source: z.enum(['assay', 'screen-scatter']), measure: selectivityMeasureSchema.nullable(), uncertainty: z.number().nullable(), note: z.string() })
+      .optional(),
     twoBranch: twoBranchSchema,
     warnings: z.array(warningSchema),
     convention: z.string(),

@@ -24,8 +24,11 @@ import {
   type SelectivityInterval,
 } from '../../science';
 import { SELECTIVITY_CAUTION } from '../../lib/cautions';
+import { BadRequestError } from '../../lib/errors';
+import { medianUncertainty, type AssayPrecision } from '../../science/assay-precision';
+import { lnRatioLimitFromEe, type ZeroSelectivityInterval } from '../../science/eyring-fit';
 import { curvatureOut, modelPrediction } from './curvature';
-import { expandTemperatures } from './temperatures';
+import { expandTemperatures, kelvinLookingWarning } from './temperatures';
 import type { FitRequest, FitResponse, ForecastRequest, ForecastResponse } from './schemas';
 
 type Quantity<U extends string> = { value: number; unit: U };
@@ -37,24 +40,76 @@ const kcal = (j: number) => j / (1000 * THERMOCHEMICAL_CALORIE_J);
 const calK = (j: number) => j / THERMOCHEMICAL_CALORIE_J;
 const pair = (f: (v: number) => number, [a, b]: [number, number]): [number, number] => [f(a), f(b)];
 
-const toK = (t: TemperatureQ, path: string) => temperatureToK(t.value, t.unit, `${path}.value`);
+/** A unit conversion whose result overflows is the request's fault: 400 on the field that was sent. */
+export function finiteConversion(value: number, path: string): number {
+  if (!Number.isFinite(value)) {
+    throw new BadRequestError(`${path} is too large to convert to SI units.`, [{ path, message: 'is too large to convert to SI units' }]);
+  }
+  return value;
+}
+
+const toK = (t: TemperatureQ, path: string) => finiteConversion(temperatureToK(t.value, t.unit, `${path}.value`), `${path}.value`);
+const toJPerMol = (q: { value: number; unit: Parameters<typeof energyToJPerMol>[1] }, path: string) =>
+  finiteConversion(energyToJPerMol(q.value, q.unit, `${path}.value`), `${path}.value`);
+const toJPerMolK = (q: { value: number; unit: Parameters<typeof entropyToJPerMolK>[1] }, path: string) =>
+  finiteConversion(entropyToJPerMolK(q.value, q.unit, `${path}.value`), `${path}.value`);
+
+/**
+ * Re-throw an engine error with the request field it came from: the engine names its own
+ * arguments (`measurements[2].sigmaLnR`, `temperaturesK[0]`), the client needs what it sent.
+ */
+export function withRequestPaths<T>(rename: (field: string) => string | null, run: () => T): T {
+  try {
+    return run();
+  } catch (err) {
+    if (err instanceof Error && err.name === 'DomainError') {
+      const field = (err as { field?: string }).field;
+      const mapped = field === undefined ? null : rename(field);
+      if (mapped !== null) Object.defineProperty(err, 'field', { value: mapped });
+    }
+    throw err;
+  }
+}
+
+/** Engine argument paths of a fit → request paths of POST /fit. */
+export function fitRequestPath(field: string): string | null {
+  const m = /^measurements\[(\d+)\]\.(temperatureK|ratio|sigmaLnR)$/.exec(field);
+  if (m) return `measurements.${m[1]}.${{ temperatureK: 'temperature.value', ratio: 'selectivity.value', sigmaLnR: 'uncertainty' }[m[2] as 'ratio']}`;
+  const t = /^temperaturesK\[(\d+)\]$/.exec(field);
+  if (t) return `predict.${t[1]}.value`;
+  if (field === 'censorLnRatio' || field === 'censorEePercent') return 'quantitationLimit.value';
+  return null;
+}
 
 /** A range or a list of temperatures in kelvin, errors reported at their request path. */
 export const resolveTemperatures = (spec: Temperatures, path = 'temperatures'): number[] => expandTemperatures(spec, path).kelvins;
 
 const ddGOut = (j: number) => ({ 'kJ/mol': kJ(j), 'kcal/mol': kcal(j) });
 
-function zeroSelectivity(t0: number | null, range?: { min: number; max: number }) {
+/**
+ * T₀ with its note. `far`: outside the data and the temperatures asked about (a forecast from
+ * ΔΔH‡/ΔΔS‡ has no data, so only the requested range counts).
+ */
+function zeroSelectivity(t0: number | null, far: boolean, interval?: ZeroSelectivityInterval | null) {
   if (t0 === null) return null;
-  const far = !range || t0 < range.min - 30 || t0 > range.max + 30;
   return {
     kelvin: t0,
     celsius: t0 - CELSIUS_OFFSET_K,
     note: far
       ? 'Where the straight line predicts no selectivity (ΔΔH‡/ΔΔS‡); a far extrapolation: read it as a trend, not a forecast.'
       : 'Where the straight line predicts no selectivity (ΔΔH‡/ΔΔS‡); selectivity inverts beyond it.',
+    farExtrapolation: far,
+    ...(interval === undefined
+      ? {}
+      : {
+          interval: interval
+            ? { ranges: interval.ranges.map((r) => ({ fromKelvin: r.fromK, toKelvin: r.toK })), bounded: interval.bounded, note: interval.message }
+            : null,
+        }),
   };
 }
+
+const outsideRange = (t: number, ks: readonly number[]) => ks.length === 0 || t < Math.min(...ks) - 1e-9 || t > Math.max(...ks) + 1e-9;
 
 export function runForecast(req: ForecastRequest): ForecastResponse {
   const { basis } = req;
@@ -63,16 +118,16 @@ export function runForecast(req: ForecastRequest): ForecastResponse {
     case 'activation':
       engineBasis = {
         kind: 'enthalpy-entropy',
-        ddHJPerMol: energyToJPerMol(basis.ddH.value, basis.ddH.unit, 'basis.ddH.value'),
-        ddSJPerMolK: entropyToJPerMolK(basis.ddS.value, basis.ddS.unit, 'basis.ddS.value'),
+        ddHJPerMol: toJPerMol(basis.ddH, 'basis.ddH'),
+        ddSJPerMolK: toJPerMolK(basis.ddS, 'basis.ddS'),
       };
       break;
     case 'gap':
       engineBasis = {
         kind: 'gap-at-temperature',
-        ddGJPerMol: energyToJPerMol(basis.ddG.value, basis.ddG.unit, 'basis.ddG.value'),
+        ddGJPerMol: toJPerMol(basis.ddG, 'basis.ddG'),
         temperatureK: toK(basis.temperature, 'basis.temperature'),
-        ...(basis.ddS ? { ddSJPerMolK: entropyToJPerMolK(basis.ddS.value, basis.ddS.unit, 'basis.ddS.value') } : {}),
+        ...(basis.ddS ? { ddSJPerMolK: toJPerMolK(basis.ddS, 'basis.ddS') } : {}),
       };
       break;
     case 'observed': {
@@ -82,13 +137,27 @@ export function runForecast(req: ForecastRequest): ForecastResponse {
         kind: 'observed',
         selectivity,
         temperatureK: toK(basis.temperature, 'basis.temperature'),
-        ...(basis.ddS ? { ddSJPerMolK: entropyToJPerMolK(basis.ddS.value, basis.ddS.unit, 'basis.ddS.value') } : {}),
+        ...(basis.ddS ? { ddSJPerMolK: toJPerMolK(basis.ddS, 'basis.ddS') } : {}),
       };
       break;
     }
   }
-  const temperaturesK = resolveTemperatures(req.temperatures);
-  const result = forecastSelectivity(engineBasis, temperaturesK);
+  const expanded = expandTemperatures(req.temperatures, 'temperatures');
+  const temperaturesK = expanded.kelvins.map((k, i) => finiteConversion(k, expanded.pathOf(i)));
+  const result = withRequestPaths(
+    (field) => {
+      const t = /^temperaturesK\[(\d+)\]$/.exec(field);
+      if (t) return expanded.pathOf(Number(t[1]));
+      const basisPaths: Record<string, string> = {
+        'basis.ddHJPerMol': 'basis.ddH.value',
+        'basis.ddSJPerMolK': 'basis.ddS.value',
+        'basis.ddGJPerMol': 'basis.ddG.value',
+        'basis.temperatureK': 'basis.temperature.value',
+      };
+      return basisPaths[field] ?? null;
+    },
+    () => forecastSelectivity(engineBasis, temperaturesK),
+  );
   return {
     points: result.points.map((p) => ({
       kelvin: p.kelvin,
@@ -98,7 +167,10 @@ export function runForecast(req: ForecastRequest): ForecastResponse {
       percentA: p.percentA,
       ddG: ddGOut(p.ddGJPerMol),
     })),
-    zeroSelectivity: zeroSelectivity(result.zeroSelectivityTemperatureK),
+    zeroSelectivity: zeroSelectivity(
+      result.zeroSelectivityTemperatureK,
+      result.zeroSelectivityTemperatureK !== null && outsideRange(result.zeroSelectivityTemperatureK, temperaturesK),
+    ),
     assumptions: result.assumptions,
     convention: SIGN_CONVENTION,
     caution: SELECTIVITY_CAUTION,
@@ -112,20 +184,76 @@ export function toEyringMeasurements(measurements: FitRequest['measurements']): 
     const selectivity: SelectivityInput = m.selectivity;
     const ratio = parseSelectivity(selectivity, `${path}.selectivity`);
     const out: EyringMeasurement = { temperatureK: toK(m.temperature, `${path}.temperature`), ratio };
-    if (m.uncertainty !== undefined) out.sigmaLnR = sigmaLnRatio(selectivity, m.uncertainty, `${path}.uncertainty`);
+    if (m.uncertainty !== undefined) {
+      out.sigmaLnR = finiteConversion(sigmaLnRatio(selectivity, m.uncertainty, `${path}.uncertainty`), `${path}.uncertainty`);
+    }
+    if (m.selectivity.atLeast) out.atLeast = true;
     if (m.excluded) out.excluded = true;
     if (m.label) out.label = m.label;
     return out;
   });
 }
 
+/** r beyond the representable range travels as null (JSON has no Infinity); ln r always travels. */
+const finiteOrNull = (v: number) => (Number.isFinite(v) && v > 0 ? v : null);
 const mapInterval = (iv: SelectivityInterval | null) =>
-  iv ? { ratio: iv.ratio, eePercent: iv.eePercent, percentA: iv.percentA } : null;
+  iv
+    ? {
+        lnRatio: iv.lnRatio,
+        ratio: [finiteOrNull(iv.ratio[0]), finiteOrNull(iv.ratio[1])] as [number | null, number | null],
+        eePercent: iv.eePercent,
+        percentA: iv.percentA,
+      }
+    : null;
+
+/** ln r at a quantitation limit given in a measure's own terms (validated by quantitationLimitSchema). */
+export function quantitationLimitLnRatio(limit: { measure: SelectivityInput['measure']; value: number }): number {
+  switch (limit.measure) {
+    case 'ee':
+      return lnRatioLimitFromEe(limit.value);
+    case 'percentA':
+    case 'er':
+      return Math.log(limit.value / (100 - limit.value));
+    default:
+      return Math.log(limit.value);
+  }
+}
+
+export const DEFAULT_QUANTITATION_LIMIT = { measure: 'ee' as const, value: 99.8 };
 
 export interface FitOptions {
   weighting: FitRequest['weighting'];
   uncertaintyScale: FitRequest['uncertaintyScale'];
   confidence: number;
+  /** The new run's assay precision; null or absent → the screen's own scatter. */
+  newRun?: AssayPrecision | null;
+  /** Where newRun came from, for the note: given in the request, the campaign, or the runs' median. */
+  newRunOrigin?: 'request' | 'campaign' | 'median';
+  /** The assay's quantitation limit; default 99.8 % ee. */
+  quantitationLimit?: { measure: SelectivityInput['measure']; value: number };
+}
+
+/** The new run's precision: the one given, else the median of the runs' own in the most common measure. */
+export function newRunPrecision(
+  given: number | undefined,
+  givenMeasure: SelectivityInput['measure'] | undefined,
+  runs: readonly { measure: SelectivityInput['measure']; uncertainty: number | null | undefined }[],
+): { precision: AssayPrecision | null; origin: 'request' | 'median' } {
+  const counts = new Map<SelectivityInput['measure'], number>();
+  for (const r of runs) counts.set(r.measure, (counts.get(r.measure) ?? 0) + 1);
+  const common = [...counts.entries()].sort((a, b) => b[1] - a[1])[0]?.[0] ?? 'ee';
+  const measure = givenMeasure ?? common;
+  if (given !== undefined) return { precision: { measure, uncertainty: given }, origin: 'request' };
+  const median = medianUncertainty(runs.filter((r) => r.measure === measure && r.uncertainty != null).map((r) => r.uncertainty!));
+  return { precision: median === null ? null : { measure, uncertainty: median }, origin: 'median' };
+}
+
+function newRunNote(precision: AssayPrecision | null | undefined, origin: FitOptions['newRunOrigin']): string {
+  if (!precision) {
+    return "No assay precision is known, so a new run is assumed to scatter like the screen's runs about the line.";
+  }
+  const from = origin === 'request' ? 'as given' : origin === 'campaign' ? "the campaign's setting" : "the median of the runs' own uncertainties";
+  return `A new run adds its own assay error, ± ${precision.uncertainty} (${precision.measure}, ${from}), propagated to ln r at each predicted value.`;
 }
 
 /**
@@ -134,9 +262,19 @@ export interface FitOptions {
  */
 export function analyseScreen(measurements: EyringMeasurement[], options: FitOptions, predictK: number[]): FitResponse {
   const weighting = options.weighting === 'none' ? 'none' : options.uncertaintyScale;
-  const fit: EyringFit = fitEyring(measurements, { confidenceLevel: options.confidence, weighting, predictAtK: predictK });
+  const limit = options.quantitationLimit ?? DEFAULT_QUANTITATION_LIMIT;
+  const fit: EyringFit = fitEyring(measurements, {
+    confidenceLevel: options.confidence,
+    weighting,
+    predictAtK: predictK,
+    censorLnRatio: quantitationLimitLnRatio(limit),
+    ...(options.newRun ? { newRun: options.newRun } : {}),
+  });
   const curvature = checkCurvature(measurements, { weighting, confidenceLevel: fit.confidenceLevel });
   const model = chooseScreenModel(fit, curvature);
+  const energy = (j: number | null) => (j === null ? null : ddGOut(j));
+  const entropy = (j: number | null) => (j === null ? null : { 'J/(mol*K)': j, 'cal/(mol*K)': calK(j) });
+  const ls = fit.leastSquaresWithoutBounds;
   const at25 = ddGAtTemperature(fit, 298.15, options.confidence);
   const cov = fit.line.covariance;
   return {
@@ -176,6 +314,11 @@ export function analyseScreen(measurements: EyringMeasurement[], options: FitOpt
       fitted: p.lineLnRatio,
       residual: p.residual,
       studentized: p.studentizedExternal,
+      studentizedInternal: p.studentizedInternal,
+      flagReason: p.flagReason,
+      residualInAssaySigmas: p.residualInAssaySigmas,
+      withinAssayPrecision: p.withinAssayPrecision,
+      censorLnRatio: p.censorLnRatio,
       leverage: p.leverage,
       cooksDistance: p.cooksDistance,
       status: p.status,
@@ -185,7 +328,30 @@ export function analyseScreen(measurements: EyringMeasurement[], options: FitOpt
         ...(p.exclusionReason ? [`excluded: ${p.exclusionReason}`] : []),
       ],
     })),
-    zeroSelectivity: zeroSelectivity(fit.zeroSelectivityTemperatureK, fit.temperatureRangeK),
+    zeroSelectivity: zeroSelectivity(fit.zeroSelectivityTemperatureK, fit.zeroSelectivityFar, fit.zeroSelectivityInterval),
+    estimator: fit.estimator,
+    leastSquaresWithoutBounds: ls
+      ? {
+          n: ls.nFitted,
+          ddH: { ...ddGOut(ls.ddHJPerMol), se: energy(ls.ddHSeJPerMol), ci: ls.ddHCiJPerMol ? { 'kJ/mol': pair(kJ, ls.ddHCiJPerMol), 'kcal/mol': pair(kcal, ls.ddHCiJPerMol) } : null },
+          ddS: {
+            'J/(mol*K)': ls.ddSJPerMolK,
+            'cal/(mol*K)': calK(ls.ddSJPerMolK),
+            se: entropy(ls.ddSSeJPerMolK),
+            ci: ls.ddSCiJPerMolK ? { 'J/(mol*K)': ls.ddSCiJPerMolK, 'cal/(mol*K)': pair(calK, ls.ddSCiJPerMolK) } : null,
+          },
+          label: 'Least squares on the exact runs only, bounds dropped (biased towards lower selectivity; for comparison)',
+        }
+      : null,
+    censoredFit: fit.censoredFit,
+    quantitationLimit: { ...limit, lnRatio: quantitationLimitLnRatio(limit) },
+    precisionCheck: fit.precisionCheck,
+    newRun: {
+      source: fit.newRunBasis.source,
+      measure: options.newRun?.measure ?? null,
+      uncertainty: options.newRun?.uncertainty ?? null,
+      note: newRunNote(options.newRun, options.newRunOrigin),
+    },
     twoBranch: curvatureOut(curvature),
     warnings: [...fit.warnings, ...curvature.warnings],
     convention: SIGN_CONVENTION,
@@ -193,7 +359,10 @@ export function analyseScreen(measurements: EyringMeasurement[], options: FitOpt
     predictions: fit.predictions.map((p) => modelPrediction(model, {
       kelvin: p.temperatureK,
       celsius: p.celsius,
-      ratio: p.ratio,
+      ratio: finiteOrNull(p.ratio),
+      lnRatio: p.lnRatio,
+      outOfRange: p.outOfRange,
+      newRunSigmaLnR: p.newRunSigmaLnR,
       eePercent: p.eePercent,
       percentA: p.percentA,
       ddG: ddGOut(p.ddGJPerMol),
@@ -203,12 +372,40 @@ export function analyseScreen(measurements: EyringMeasurement[], options: FitOpt
       branch: null,
       confidenceInterval: mapInterval(p.meanInterval),
       predictionInterval: mapInterval(p.predictionInterval),
-    }, fit.confidenceLevel)),
+    }, fit.confidenceLevel, options.newRun)),
   };
 }
 
 export function runFit(req: FitRequest): FitResponse {
   const measurements = toEyringMeasurements(req.measurements);
   const predictK = req.predict.map((t, i) => toK(t, `predict.${i}`));
-  return analyseScreen(measurements, req, predictK);
+  const { precision, origin } = newRunPrecision(
+    req.newRunUncertainty,
+    req.newRunMeasure,
+    req.measurements.filter((m) => !m.excluded).map((m) => ({ measure: m.selectivity.measure, uncertainty: m.uncertainty })),
+  );
+  if (req.quantitationLimit) {
+    // A bound inside an explicitly stated limit contradicts it: the assay quantifies values there.
+    const lnLimit = quantitationLimitLnRatio(req.quantitationLimit);
+    measurements.forEach((m, i) => {
+      if (m.atLeast && !m.excluded && Math.abs(Math.log(m.ratio)) < lnLimit * (1 - 1e-12)) {
+        throw new BadRequestError(`measurements.${i} is reported as a bound inside the quantitation limit.`, [
+          {
+            path: `measurements.${i}.selectivity.value`,
+            message: `a bound must lie at or beyond the quantitation limit (${req.quantitationLimit!.value} ${req.quantitationLimit!.measure}); inside it the assay gives a value`,
+          },
+        ]);
+      }
+    });
+  }
+  const result = withRequestPaths(fitRequestPath, () =>
+    analyseScreen(
+      measurements,
+      { ...req, newRun: precision, newRunOrigin: origin, ...(req.quantitationLimit ? { quantitationLimit: req.quantitationLimit } : {}) },
+      predictK,
+    ),
+  );
+  const kelvinLike = kelvinLookingWarning(req.measurements.map((m) => m.temperature));
+  if (kelvinLike) result.warnings.push(kelvinLike);
+  return result;
 }

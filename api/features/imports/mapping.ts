@@ -18,6 +18,7 @@ import {
   type TimeUnit,
 } from '../campaigns/schemas';
 import type { ImportIssue } from './errors';
+import { looksLikeKelvin } from '../compute/temperatures';
 import { columnLetter, type Cell, type DecimalSeparator, type ParsedTable } from './parse';
 
 /** A checked row, ready to insert (campaign id and author are added by the service). */
@@ -341,7 +342,7 @@ function readTemperatureK(ctx: RowContext, cells: Cell[], row: number): number {
     return Number.NaN;
   }
   // Plausibility: screens run roughly between −100 and +150 °C, so these are probably the wrong unit.
-  if (unit !== 'K' && t.value >= 190 && t.value <= 400) {
+  if (looksLikeKelvin(t.value, unit)) {
     addIssue(ctx, 'warning', row, 'temperature', `${round(t.value)} labelled ${unitLabel(unit)} would be ${round(k)} K; it looks like a kelvin value. Check the unit.`);
   } else if (unit === 'K' && k < 150) {
     addIssue(ctx, 'warning', row, 'temperature', `${round(t.value)} K is ${round(k - 273.15)} °C, colder than any solution screen; it looks like a °C value. Check the unit.`);

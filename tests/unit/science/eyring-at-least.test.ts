@@ -8,20 +8,23 @@ const NOISE = [0.02, -0.03, 0.01, -0.015, 0.025];
 const screen: EyringMeasurement[] = [-40, -20, 0, 20, 40].map((c, i) => ({ temperatureK: c + 273.15, ratio: Math.exp(lnR(c + 273.15) + NOISE[i]!) }));
 
 describe('fitEyring with runs reported as bounds (atLeast)', () => {
-  it('when a run below the quantitation limit is marked atLeast, then it is censored as a lower bound and the line equals the fit without it', () => {
+  it('when a run below the quantitation limit is marked atLeast, then it is a lower bound at its reported value and the least-squares fit beside it equals the fit without it', () => {
     const bound: EyringMeasurement = { temperatureK: 213.15, ratio: 199, atLeast: true }; // "≥ 99.0 % ee"
     const withBound = fitEyring([...screen, bound]);
     const without = fitEyring(screen);
     const p = withBound.points[5]!;
     expect(p.status).toBe('censored');
     expect(p.censoredBound).toBe('lower');
+    expect(p.censorLnRatio).toBeCloseTo(Math.log(199), 12); // [C] a weaker bound than the limit keeps its own value
     expect(withBound.nFitted).toBe(5);
     expect(withBound.nCensored).toBe(1);
-    expect(withBound.ddHJPerMol).toBe(without.ddHJPerMol);
-    expect(withBound.ddSJPerMolK).toBe(without.ddSJPerMolK);
-    // [C] The line at −60 °C gives ln r ≈ 10 000/(R·213.15) − 4/R ≈ 5.16, below ln 199 ≈ 5.29: the bound disagrees.
-    expect(p.lineLnRatio).toBeCloseTo(5.16, 1);
-    expect(p.boundConsistent).toBe(false);
+    expect(withBound.estimator).toBe('censored-ml');
+    expect(withBound.leastSquaresWithoutBounds!.ddHJPerMol).toBe(without.ddHJPerMol);
+    expect(withBound.leastSquaresWithoutBounds!.ddSJPerMolK).toBe(without.ddSJPerMolK);
+    // [C] The line without the bound gives ln r ≈ 5.16 at −60 °C, below ln 199 ≈ 5.29: the likelihood of the
+    // bound pulls the censored fit's slope up, towards the bound.
+    expect(withBound.ddHJPerMol).toBeGreaterThan(without.ddHJPerMol);
+    expect(p.boundConsistent).toBe(p.lineLnRatio >= Math.log(199));
   });
 
   it('when the same run is not marked, then it is fitted like any other', () => {

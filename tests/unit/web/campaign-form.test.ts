@@ -74,3 +74,17 @@ describe('analysis → chart data', () => {
     expect(view.selectivityPoints.map((p) => p.status)).toEqual(['censored', 'excluded', 'fitted']);
   });
 });
+
+describe('the assay settings for a new run and the quantitation limit', () => {
+  it('when they are typed with a decimal comma, then the body carries them as numbers', () => {
+    const { body, errors } = createBody({ ...blankCampaign, title: 'Screen 2', newRunUncertainty: '0,25', quantitationLimit: '99,5' });
+    expect(errors).toEqual({});
+    expect(body).toMatchObject({ newRunUncertainty: 0.25, quantitationLimit: 99.5 });
+  });
+
+  it('when the limit does not suit the measure, then the field says why', () => {
+    expect(createBody({ ...blankCampaign, title: 'x', quantitationLimit: '100' }).errors.quantitationLimit).toMatch(/between 0 and 100/);
+    expect(createBody({ ...blankCampaign, title: 'x', measure: 'dr', quantitationLimit: '200' }).errors).toEqual({});
+    expect(createBody({ ...blankCampaign, title: 'x', newRunUncertainty: 'tiny' }).errors.newRunUncertainty).toBe('“tiny” is not a number');
+  });
+});

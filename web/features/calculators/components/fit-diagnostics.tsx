@@ -48,7 +48,7 @@ export function ResidualTable({
             { label: 'ee (%)' },
             { label: 'ln r' },
             { label: 'Residual' },
-            { label: 'Studentized' },
+            { label: 'Studentized (internal)' },
             { label: 'Leverage' },
             { label: 'Status and flags', align: 'left' },
             { label: 'Exclude', align: 'left' },
@@ -65,13 +65,14 @@ export function ResidualTable({
                 <td className="px-2 py-1">{percent(Math.tanh(r.lnRatio / 2) * 100)}</td>
                 <td className="px-2 py-1">{fixed(r.lnRatio, 3)}</td>
                 <td className="px-2 py-1">{r.residual === null ? '—' : fixed(r.residual, 3)}</td>
-                <td className="px-2 py-1">{r.studentized === null ? '—' : fixed(r.studentized, 2)}</td>
+                <td className="px-2 py-1">{r.studentizedInternal == null ? '—' : fixed(r.studentizedInternal, 2)}</td>
                 <td className="px-2 py-1">{r.leverage === null ? '—' : fixed(r.leverage, 2)}</td>
                 <td className="px-2 py-1 text-left">
                   {r.status === 'censored' ? 'lower bound (censored)' : r.status === 'excluded' ? 'excluded' : 'fitted'}
                   {flagged && (
                     <span className="ml-1 font-medium text-caution-700">⚑ {r.flags.map((f) => FLAG_TEXT[f] ?? f).join(', ')}</span>
                   )}
+                  <RunNote residual={r} />
                 </td>
                 <td className="px-2 py-1 text-left">
                   {line !== undefined && (
@@ -90,6 +91,23 @@ export function ResidualTable({
       </table>
     </div>
   );
+}
+
+/**
+ * Why a run is flagged (one line); for a run that stands out from the others' scatter
+ * (|internally studentized| ≥ 2), whether its residual is within the assay's own precision.
+ */
+export function RunNote({ residual }: { residual: FitResponse['residuals'][number] }) {
+  if (residual.flagReason) return <span className="block text-xs text-caution-700">{residual.flagReason}</span>;
+  const standsOut = residual.studentizedInternal != null && Math.abs(residual.studentizedInternal) >= 2;
+  if (standsOut && residual.residualInAssaySigmas != null) {
+    return (
+      <span className="block text-xs text-ink-600">
+        {residual.withinAssayPrecision ? 'within' : 'beyond'} the assay’s precision ({fixed(residual.residualInAssaySigmas, 1)} σ)
+      </span>
+    );
+  }
+  return null;
 }
 
 type Curvature = FitResponse['twoBranch'];

@@ -45,7 +45,9 @@ function numberOrNull(text: string): number | null | 'invalid' {
   return /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/.test(t) ? Number(t) : 'invalid';
 }
 
-const lnOf = (iv: [number, number] | undefined | null): [number, number] | null => (iv ? [Math.log(iv[0]), Math.log(iv[1])] : null);
+/** An interval in ln r: the API's own lnRatio ends (ratio ends are null beyond the representable range). */
+const lnOf = (iv: { lnRatio?: [number, number] | undefined; ratio: [number | null, number | null] } | undefined | null): [number, number] | null =>
+  iv ? (iv.lnRatio ?? [Math.log(iv.ratio[0] ?? 0), Math.log(iv.ratio[1] ?? Infinity)]) : null;
 
 /** Split the API's field errors: those on a measurement go to its pasted line, the rest to the form. */
 function mapFitErrors(
@@ -80,6 +82,7 @@ export function FitPanel() {
   const [weighting, setWeighting] = useState<'none' | 'uncertainty'>('none');
   const [uncertaintyScale, setUncertaintyScale] = useState<'absolute' | 'relative'>('absolute');
   const [proposedText, setProposedText] = useState('');
+  const [newRunText, setNewRunText] = useState('');
   const [excludedLines, setExcludedLines] = useState<number[]>([]);
   const [submitted, setSubmitted] = useState<Submitted | null>(null);
   const [formProblem, setFormProblem] = useState<string | null>(null);
@@ -106,8 +109,14 @@ export function FitPanel() {
       setFormProblem('The proposed temperature is not a number.');
       return;
     }
+    const newRun = numberOrNull(newRunText);
+    if (newRun === 'invalid') {
+      setFormProblem('The assay SD for a new run is not a number.');
+      return;
+    }
     const settings = { measure, unit, weighting, uncertaintyScale, proposed, excludedLines: excluded };
-    setSubmitted({ request: buildFitRequest(parsed.rows, settings), rows: parsed.rows, measure, hasProposed: proposed !== null });
+    const request = { ...buildFitRequest(parsed.rows, settings), ...(newRun === null ? {} : { newRunUncertainty: newRun }) };
+    setSubmitted({ request, rows: parsed.rows, measure, hasProposed: proposed !== null });
   };
 
   const toggleExclude = (line: number) => {
@@ -196,6 +205,16 @@ export function FitPanel() {
             unit={<span className="text-sm text-ink-600">{UNIT_TEXT[unit]}</span>}
             hint="Forecast with a 95 % prediction interval for one new run."
           />
+          <NumberField
+            label="Assay SD of the new run (optional)"
+            path="newRunUncertainty"
+            value={newRunText}
+            onChange={setNewRunText}
+            errors={mapped.other.filter((e) => normalisePath(e.path) === 'newRunUncertainty')}
+            placeholder="e.g. 0.2"
+            unit={<span className="text-sm text-ink-600">{MEASURE_TEXT[measure]}</span>}
+            hint="Propagated at the predicted value; blank: the median SD of the pasted runs, or their scatter."
+          />
           <div>
             <button type="submit" className={buttonClass} disabled={query.isFetching}>
               {query.isFetching ? 'Fitting…' : 'Fit screen'}
@@ -247,12 +266,6 @@ export function FitPanel() {
                 <p className="text-sm text-ink-500">Enter a proposed temperature to get a prediction with its interval.</p>
               )}
               <FitParameterTable fit={fit} />
-              {fit.zeroSelectivity && (
-                <p className="tnum text-sm text-ink-700">
-                  Selectivity would vanish at {fixed(fit.zeroSelectivity.celsius, 0)} °C ({fixed(fit.zeroSelectivity.kelvin, 0)} K).{' '}
-                  {fit.zeroSelectivity.note}
-                </p>
-              )}
               <TwoBranchBox twoBranch={fit.twoBranch} />
               <div className="flex flex-col gap-2">
                 <h3 className="text-sm font-semibold text-ink-900">Selectivity against temperature from the fit</h3>
@@ -310,9 +323,9 @@ function buildView(fit: FitResponse, submitted: Submitted) {
   });
   const curve: EyringCurvePoint[] = grid.map((p) => ({
     kelvin: p.kelvin,
-    lnRatio: Math.log(p.ratio),
-    confidence: lnOf(p.confidenceInterval?.ratio),
-    prediction: lnOf(p.predictionInterval?.ratio),
+    lnRatio: p.lnRatio ?? Math.log(p.ratio ?? Infinity),
+    confidence: lnOf(p.confidenceInterval),
+    prediction: lnOf(p.predictionInterval),
   }));
   const selectivityCurve: SelectivityCurvePoint[] = grid.map((p) => ({
     celsius: p.celsius,

@@ -1,6 +1,7 @@
 import type { FitResponse } from '../../../../api/features/compute/schemas';
 import { decimalsFor, fixed, signed, withUncertainty } from '../../../lib/format';
 import { ConventionNote } from './fields';
+import { FitModelNotes } from './fit-model-notes';
 
 type Interval = [number, number] | undefined;
 
@@ -70,6 +71,7 @@ export function FitParameterTable({ fit }: { fit: FitResponse }) {
           {fixed(fit.temperatureRange.minKelvin - 273.15, 1)} to {fixed(fit.temperatureRange.maxKelvin - 273.15, 1)} °C
         </dd>
       </dl>
+      <FitModelNotes fit={fit} />
       <p className="text-xs text-ink-500">
         ΔΔH‡ and ΔΔS‡ are estimated together and are strongly correlated; their SEs are not independent, so every derived value above and
         every band uses the full covariance.

@@ -53,6 +53,12 @@ export function PredictionBox({ prediction, confidence }: { prediction: Predicti
           </dd>
         </dl>
         {!pi && <p className="text-xs text-ink-600">No interval: the fit has no estimate of scatter (see the warnings).</p>}
+        {prediction.outOfRange && (
+          <p className="text-sm font-medium text-caution-700">
+            <span aria-hidden="true">⚠ </span>So far from the data that r cannot be written as a number: ln r ={' '}
+            {fixed(prediction.lnRatio ?? Number.NaN, 1)}, ee shown saturated. Treat it as a direction, not a value.
+          </p>
+        )}
         {prediction.extrapolated && (
           <p className="text-sm font-medium text-caution-700">
             <span aria-hidden="true">⚠ </span>Outside the screened temperatures: an extrapolation, trust it less than the interval suggests.
@@ -65,7 +71,9 @@ export function PredictionBox({ prediction, confidence }: { prediction: Predicti
           </p>
         )}
         <p className="text-xs text-ink-600">
-          The prediction interval is where a single new run is expected to fall; the confidence interval is for the mean line only.
+          The prediction interval is where a single new run is expected to fall, including that run’s own assay error
+          {prediction.newRunSigmaLnR != null ? ` (σ of ln r ${fixed(prediction.newRunSigmaLnR, 3)} at this selectivity)` : ''}; the confidence
+          interval is for the mean line only.
         </p>
       </div>
       <SafetyCaution />

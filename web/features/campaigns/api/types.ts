@@ -22,6 +22,10 @@ export interface Campaign {
   measure: SelectivityMeasure;
   assayMethod: AssayMethod;
   defaultUncertainty: number | null;
+  /** SD of the assay for the next run (the measure's units); null → median of the runs'. */
+  newRunUncertainty?: number | null;
+  /** Runs at or beyond it are bounds (ee %, % A/er major share %, dr/ratio r); null → 99.8 % ee. */
+  quantitationLimit?: number | null;
   status: CampaignStatus;
   notes: string | null;
   version: number;

@@ -5,12 +5,14 @@ import { SelectivityChart, type SelectivityCurvePoint, type SelectivityMeasuredP
 import { SafetyCaution } from '../../../components/ui/caution';
 import { fixed, percent, withUncertainty } from '../../../lib/format';
 import { ChartControls, parseSpec } from '../../calculators/components/chart-controls';
-import { FitWarnings, TwoBranchBox, branchLines } from '../../calculators/components/fit-diagnostics';
+import { FitWarnings, RunNote, TwoBranchBox, branchLines } from '../../calculators/components/fit-diagnostics';
 import { FitParameterTable } from '../../calculators/components/fit-parameter-table';
 import type { AnalysisResponse, FitPrediction, Measurement } from '../api/types';
 import { CELSIUS } from '../lib/labels';
 
-const lnOf = (iv: [number, number] | undefined | null): [number, number] | null => (iv ? [Math.log(iv[0]), Math.log(iv[1])] : null);
+/** An interval in ln r: the API's own lnRatio ends (ratio ends are null beyond the representable range). */
+const lnOf = (iv: { lnRatio?: [number, number] | undefined; ratio: [number | null, number | null] } | undefined | null): [number, number] | null =>
+  iv ? (iv.lnRatio ?? [Math.log(iv.ratio[0] ?? 0), Math.log(iv.ratio[1] ?? Infinity)]) : null;
 
 /** Shape the analysis for the shared charts (logarithms of the API's ratios; no statistics here). */
 export function chartData(analysis: AnalysisResponse) {
@@ -27,9 +29,9 @@ export function chartData(analysis: AnalysisResponse) {
   }));
   const curve: EyringCurvePoint[] = analysis.curve.map((c) => ({
     kelvin: c.kelvin,
-    lnRatio: Math.log(c.ratio),
-    confidence: lnOf(c.confidenceInterval?.ratio),
-    prediction: lnOf(c.predictionInterval?.ratio),
+    lnRatio: c.lnRatio ?? Math.log(c.ratio ?? Infinity),
+    confidence: lnOf(c.confidenceInterval),
+    prediction: lnOf(c.predictionInterval),
   }));
   const selectivityCurve: SelectivityCurvePoint[] = analysis.curve.map((c) => ({
     celsius: c.celsius,
@@ -142,7 +144,8 @@ export function CampaignAnalysis({
         <ResidualDiagnostics analysis={analysis} measurements={measurements} />
         <p className="text-xs text-ink-600">
           Residuals are in ln r (measured − fitted). A run is flagged (⚑, ringed on the plot) when its studentized residual exceeds 3 in size,
-          its leverage is high or its Cook’s distance exceeds 1; exclude it in the measurement grid with a reason if the run itself was faulty.
+          its leverage is high or its Cook’s distance exceeds 1, and only when at least 3 residual degrees of freedom leave room to tell an
+          odd run from scatter. A flag asks for a second look at the run’s record; it is not by itself a reason to exclude the run.
         </p>
       </section>
       <SafetyCaution compact />
@@ -197,7 +200,7 @@ function ResidualDiagnostics({ analysis, measurements }: { analysis: AnalysisRes
             { label: 'ee (%)' },
             { label: 'ln r' },
             { label: 'Residual (ln r)' },
-            { label: 'Studentized' },
+            { label: 'Studentized (internal)' },
             { label: 'Leverage' },
             { label: 'Cook’s D' },
             { label: 'Status', align: 'left' },
@@ -220,7 +223,7 @@ function ResidualDiagnostics({ analysis, measurements }: { analysis: AnalysisRes
                 </td>
                 <td className="px-2 py-0.5">{fixed(p.lnRatio, 3)}</td>
                 <td className="px-2 py-0.5">{r?.residual == null ? '—' : fixed(r.residual, 3)}</td>
-                <td className="px-2 py-0.5">{r?.studentized == null ? '—' : fixed(r.studentized, 2)}</td>
+                <td className="px-2 py-0.5">{r?.studentizedInternal == null ? '—' : fixed(r.studentizedInternal, 2)}</td>
                 <td className="px-2 py-0.5">{r?.leverage == null ? '—' : fixed(r.leverage, 2)}</td>
                 <td className="px-2 py-0.5">{r?.cooksDistance == null ? '—' : fixed(r.cooksDistance, 2)}</td>
                 <td className="px-2 py-0.5 text-left">
@@ -238,6 +241,7 @@ function ResidualDiagnostics({ analysis, measurements }: { analysis: AnalysisRes
                     </span>
                   )}
                   {flags.length > 0 && <span className="ml-1 font-medium text-caution-700">⚑ {flags.map((f) => FLAG_TEXT[f] ?? f).join(', ')}</span>}
+                  {r && <RunNote residual={r} />}
                 </td>
               </tr>
             );

@@ -6,6 +6,15 @@ import { ASSAY_LABEL, MEASURE_LABEL, uncertaintyUnit } from '../lib/labels';
 
 const MEASURES: SelectivityMeasure[] = ['ee', 'percentA', 'er', 'dr', 'ratio'];
 
+/** How the quantitation limit is written for each measure. */
+const LIMIT_HINT: Record<SelectivityMeasure, string> = {
+  ee: 'In % ee, e.g. 99.8',
+  percentA: 'Major share in %, e.g. 99.9',
+  er: 'Major share in %, e.g. 99.9',
+  dr: 'As r, e.g. 200 for 200:1',
+  ratio: 'As r, e.g. 200',
+};
+
 /** The fields of a campaign, shared by the new-campaign form and the edit form. */
 export function CampaignFields({
   values,
@@ -47,6 +56,24 @@ export function CampaignFields({
         onChange={set('defaultUncertainty')}
         error={errors.defaultUncertainty}
         hint={`${uncertaintyUnit(values.measure) === '(relative)' ? 'Relative, 0.05 = 5 %' : `In ${uncertaintyUnit(values.measure).replace(/[()]/g, '')}`}; used where a run gives none`}
+      />
+      <TextField
+        label="Next run’s assay SD"
+        name="newRunUncertainty"
+        inputMode="text"
+        value={values.newRunUncertainty}
+        onChange={set('newRunUncertainty')}
+        error={errors.newRunUncertainty}
+        hint="Widens a forecast’s interval for one new run; blank: the median of the runs’"
+      />
+      <TextField
+        label="Quantitation limit"
+        name="quantitationLimit"
+        inputMode="text"
+        value={values.quantitationLimit}
+        onChange={set('quantitationLimit')}
+        error={errors.quantitationLimit}
+        hint={`${LIMIT_HINT[values.measure]}; at or beyond it a result is a bound. Blank: 99.8 % ee`}
       />
       <SelectField<CampaignStatus>
         label="Status"

@@ -27,6 +27,11 @@ export function CampaignHeader({ campaign, canEdit }: { campaign: CampaignWithRo
           detail={campaign.defaultUncertainty === null ? '— (none)' : `± ${fixed(campaign.defaultUncertainty, 2)} ${uncertaintyUnit(campaign.measure).replace(/[()]/g, '')}`}
         />
         <Item
+          term="Next run’s assay SD"
+          detail={campaign.newRunUncertainty == null ? 'median of the runs’' : `± ${fixed(campaign.newRunUncertainty, 2)} ${uncertaintyUnit(campaign.measure).replace(/[()]/g, '')}`}
+        />
+        <Item term="Quantitation limit" detail={campaign.quantitationLimit == null ? '99.8 % ee (default)' : String(campaign.quantitationLimit)} />
+        <Item
           term="Status"
           detail={
             <>

@@ -8,6 +8,9 @@ import { PredictionBox } from '../../calculators/components/prediction-box';
 import { useDeleteForecast, useForecasts, useSaveForecast } from '../api/forecasts';
 import type { AnalysisResponse, SavedForecastView } from '../api/types';
 import { kelvinTo, parseNumber } from '../lib/grid';
+
+/** r, or a plain statement when it is beyond what a number can hold (far outside the data). */
+const ratioText = (r: number | null) => (r === null ? 'beyond any representable number' : sig(r, 3));
 import { CELSIUS } from '../lib/labels';
 
 const UNIT_TEXT: Record<TemperatureUnit, string> = { C: '°C', K: 'K', F: '°F' };
@@ -163,11 +166,11 @@ export function ForecastPanel({
         <>
           <PredictionBox prediction={prediction} confidence={fit.confidence} />
           <p className="tnum text-sm text-ink-700">
-            Predicted ratio r = [A]/[B] = <span className="font-medium text-ink-950">{sig(prediction.ratio, 3)}</span>
+            Predicted ratio r = [A]/[B] = <span className="font-medium text-ink-950">{ratioText(prediction.ratio)}</span>
             {prediction.predictionInterval && (
               <>
                 {' '}
-                (95 % PI {sig(prediction.predictionInterval.ratio[0], 3)} to {sig(prediction.predictionInterval.ratio[1], 3)})
+                (95 % PI {ratioText(prediction.predictionInterval.ratio[0])} to {ratioText(prediction.predictionInterval.ratio[1])})
               </>
             )}
             , er {enantiomericRatio(prediction.percentA)}.

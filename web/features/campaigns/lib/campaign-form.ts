@@ -18,6 +18,8 @@ export interface CampaignFormValues {
   measure: SelectivityMeasure;
   assayMethod: AssayMethod;
   defaultUncertainty: string;
+  newRunUncertainty: string;
+  quantitationLimit: string;
   status: CampaignStatus;
   reactionDescription: string;
   notes: string;
@@ -32,6 +34,8 @@ export const blankCampaign: CampaignFormValues = {
   measure: 'ee',
   assayMethod: 'chiral-hplc',
   defaultUncertainty: '',
+  newRunUncertainty: '',
+  quantitationLimit: '',
   status: 'active',
   reactionDescription: '',
   notes: '',
@@ -45,6 +49,8 @@ export function valuesFromCampaign(c: Campaign): CampaignFormValues {
     measure: c.measure,
     assayMethod: c.assayMethod,
     defaultUncertainty: c.defaultUncertainty === null ? '' : String(c.defaultUncertainty),
+    newRunUncertainty: c.newRunUncertainty == null ? '' : String(c.newRunUncertainty),
+    quantitationLimit: c.quantitationLimit == null ? '' : String(c.quantitationLimit),
     status: c.status,
     reactionDescription: c.reactionDescription ?? '',
     notes: c.notes ?? '',
@@ -64,27 +70,40 @@ function uncertaintyOf(text: string): number | null | 'invalid' {
   return parseNumber(text);
 }
 
+/** The number-typed fields of the form: text → number or null (blank), or the error for its field. */
+const NUMBER_FIELDS = ['defaultUncertainty', 'newRunUncertainty', 'quantitationLimit'] as const;
+type NumberField = (typeof NUMBER_FIELDS)[number];
+function numbersOf(v: CampaignFormValues): { numbers: Record<NumberField, number | null> | null; errors: FormErrors } {
+  const numbers = {} as Record<NumberField, number | null>;
+  for (const key of NUMBER_FIELDS) {
+    const n = uncertaintyOf(v[key]);
+    if (n === 'invalid') return { numbers: null, errors: { [key]: `“${v[key]}” is not a number` } };
+    numbers[key] = n;
+  }
+  return { numbers, errors: {} };
+}
+
 export function createBody(v: CampaignFormValues): { body: CampaignCreate | null; errors: FormErrors } {
-  const u = uncertaintyOf(v.defaultUncertainty);
-  if (u === 'invalid') return { body: null, errors: { defaultUncertainty: `“${v.defaultUncertainty}” is not a number` } };
+  const { numbers, errors } = numbersOf(v);
+  if (!numbers) return { body: null, errors };
   const parsed = campaignCreateSchema.safeParse({
     ...v,
     productNameA: v.productNameA.trim() || 'A',
     productNameB: v.productNameB.trim() || 'B',
-    defaultUncertainty: u,
+    ...numbers,
   });
   return parsed.success ? { body: parsed.data, errors: {} } : { body: null, errors: issuesToErrors(parsed.error.issues) };
 }
 
 /** Only the changed fields, with the version the form was opened at. */
 export function updateBody(c: Campaign, v: CampaignFormValues): { body: CampaignUpdate | null; errors: FormErrors } {
-  const u = uncertaintyOf(v.defaultUncertainty);
-  if (u === 'invalid') return { body: null, errors: { defaultUncertainty: `“${v.defaultUncertainty}” is not a number` } };
+  const { numbers, errors } = numbersOf(v);
+  if (!numbers) return { body: null, errors };
   const before = valuesFromCampaign(c);
   const changed: Record<string, unknown> = { version: c.version };
   for (const key of Object.keys(v) as (keyof CampaignFormValues)[]) {
     if (v[key].trim() === before[key].trim()) continue;
-    changed[key] = key === 'defaultUncertainty' ? u : v[key];
+    changed[key] = (NUMBER_FIELDS as readonly string[]).includes(key) ? numbers[key as NumberField] : v[key];
   }
   const parsed = campaignUpdateSchema.safeParse(changed);
   return parsed.success ? { body: parsed.data, errors: {} } : { body: null, errors: issuesToErrors(parsed.error.issues) };
