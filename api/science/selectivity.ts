@@ -8,10 +8,10 @@
  */
 import { GAS_CONSTANT_J_PER_MOL_K as R } from './constants';
 import { DomainError, requireFinite, requireFiniteResult, requireTemperatureK } from './errors';
+import { parseRatioPair, readDecimal, SELECTIVITY_MEASURES, type SelectivityMeasure } from './quantities';
 
-/** The measures a user can report a selectivity in. */
-export const SELECTIVITY_MEASURES = ['ee', 'er', 'dr', 'percentA', 'ratio'] as const;
-export type SelectivityMeasure = (typeof SELECTIVITY_MEASURES)[number];
+/** The measures a user can report a selectivity in (defined with the shared grammar in quantities.ts). */
+export { SELECTIVITY_MEASURES, type SelectivityMeasure };
 
 /**
  * A reported selectivity. `ee` is signed percent (A positive); `percentA` is the percentage of A;
@@ -142,19 +142,17 @@ export function drFromRatio(ratio: number): RatioPair {
   return { a: ratio, b: 1 };
 }
 
-const PAIR_PATTERN = /^\s*([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)\s*:\s*([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)\s*$/;
-
 function parsePair(text: string, field: string): number {
-  const m = PAIR_PATTERN.exec(text);
-  if (!m) throw new DomainError('bad-ratio-string', `${field} must look like "a:b", e.g. "95:5"`, field);
-  return ratioFromEr(Number(m[1]), Number(m[2]), field);
+  const pair = parseRatioPair(text);
+  if (!pair) throw new DomainError('bad-ratio-string', `${field} must look like "a:b", e.g. "95:5"`, field);
+  return ratioFromEr(pair.a, pair.b, field);
 }
 
+/** A number, or a string that is a strict decimal (no "0x10", "0b1", "0o7", "Infinity"). */
 function parseNumber(value: number | string, field: string, pairAllowed = false): number {
   if (typeof value === 'number') return requireFinite(value, field);
-  const text = value.trim();
-  const n = text === '' ? Number.NaN : Number(text);
-  if (!Number.isFinite(n)) {
+  const n = readDecimal(value, '.');
+  if (n === null || !Number.isFinite(n)) {
     if (pairAllowed) throw new DomainError('bad-ratio-string', `${field} must be a number or look like "a:b", e.g. "95:5"`, field);
     throw new DomainError('not-finite', `${field} must be a number`, field);
   }
@@ -168,7 +166,7 @@ function parseNumber(value: number | string, field: string, pairAllowed = false)
  * - `percentA`: 0 < p < 100 → r = p/(100 − p)
  * - `er`, `dr`, `ratio`: "a:b" → a/b; a number is r itself (er 19 ≡ 95:5, dr 12 ≡ 12:1)
  *
- * Numeric strings are accepted for numeric forms. Errors carry `field` = `${fieldPath}.value`.
+ * Numeric strings are accepted for numeric forms when they are strict decimals. Errors carry `field` = `${fieldPath}.value`.
  * Codes: not-finite, ee-out-of-range, ee-at-limit, percent-a-out-of-range, percent-a-at-limit,
  * zero-minor-component, bad-ratio-string, ratio-not-positive, unknown-measure.
  */

@@ -5,6 +5,7 @@
  * is generated from it.
  */
 import { z } from 'zod';
+import { parseRatioPair, selectivityProblem } from '../../science/quantities';
 
 export const MAX_POINTS = 5000;
 
@@ -34,12 +35,27 @@ export const selectivityMeasureSchema = z.enum(['ee', 'er', 'dr', 'percentA', 'r
   id: 'SelectivityMeasure',
   description: 'ee: signed percent, A positive; percentA: percent of A; er, dr, ratio: a number r = A/B or an "a:b" string',
 });
+const selectivityFields = {
+  measure: selectivityMeasureSchema,
+  value: z.union([finite('value'), z.string().refine((t) => parseRatioPair(t) !== null, 'must look like "95:5"')]),
+};
+// One check for every entry point (campaign runs use it too): ee = ±100 or a zero part is a 400 here as there.
+const checkSelectivity = (s: { measure: z.infer<typeof selectivityMeasureSchema>; value: number | string }, ctx: z.RefinementCtx) => {
+  const problem = selectivityProblem(s.measure, s.value);
+  if (problem) ctx.addIssue({ code: 'custom', path: ['value'], message: problem });
+};
 export const selectivitySchema = z
-  .object({
-    measure: selectivityMeasureSchema,
-    value: z.union([finite('value'), z.string().regex(/^\s*\d+(\.\d+)?\s*:\s*\d+(\.\d+)?\s*$/, 'must look like "95:5"')]),
-  })
+  .object(selectivityFields)
+  .superRefine(checkSelectivity)
   .meta({ id: 'Selectivity', description: 'An observed selectivity, e.g. { "measure": "ee", "value": 92.5 } or { "measure": "dr", "value": "12:1" }' });
+/** A measured selectivity, which may be a bound ("≥ 99.8 % ee", "> 200:1"). */
+export const measuredSelectivitySchema = z
+  .object({
+    ...selectivityFields,
+    atLeast: z.boolean().optional().meta({ description: 'true when the assay gave only a lower bound; the run is fitted as censored' }),
+  })
+  .superRefine(checkSelectivity)
+  .meta({ id: 'MeasuredSelectivity', description: 'A measured selectivity; `atLeast: true` marks a lower bound such as "≥ 99.8 % ee"' });
 
 export const temperatureRangeSchema = z
   .object({ from: temperatureSchema, to: temperatureSchema, count: z.number().int('must be a whole number').min(1).max(MAX_POINTS, `at most ${MAX_POINTS} temperatures`) })
@@ -84,7 +100,7 @@ export type ForecastResponse = z.infer<typeof forecastResponseSchema>;
 export const measurementInputSchema = z
   .object({
     temperature: temperatureSchema,
-    selectivity: selectivitySchema,
+    selectivity: measuredSelectivitySchema,
     uncertainty: finite('uncertainty').positive('must be greater than zero').optional().meta({
       description: 'Standard deviation of the measured value, in its own units (ee and percentA: percentage points; er/dr/ratio: relative SD of r)',
     }),

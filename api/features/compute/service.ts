@@ -113,6 +113,7 @@ export function toEyringMeasurements(measurements: FitRequest['measurements']): 
     const ratio = parseSelectivity(selectivity, `${path}.selectivity`);
     const out: EyringMeasurement = { temperatureK: toK(m.temperature, `${path}.temperature`), ratio };
     if (m.uncertainty !== undefined) out.sigmaLnR = sigmaLnRatio(selectivity, m.uncertainty, `${path}.uncertainty`);
+    if (m.selectivity.atLeast) out.atLeast = true;
     if (m.excluded) out.excluded = true;
     if (m.label) out.label = m.label;
     return out;

@@ -42,7 +42,7 @@ export function buildFitRequest(rows: ScreenRow[], settings: FitSettings): FitRe
   return {
     measurements: rows.map((r) => ({
       temperature: { value: r.temperature, unit },
-      selectivity: { measure, value: r.selectivity },
+      selectivity: { measure, value: r.selectivity, ...(r.atLeast ? { atLeast: true } : {}) },
       ...(r.uncertainty !== undefined ? { uncertainty: r.uncertainty } : {}),
       ...(settings.excludedLines.includes(r.line) ? { excluded: true } : {}),
       label: `line ${r.line}`,
