@@ -7,11 +7,9 @@
  * Sign convention (DOMAIN §1): ΔΔX‡ = X‡(TS→B) − X‡(TS→A), positive favours A, so a positive
  * ΔΔH‡ makes ee rise on cooling (the literature's A-minus-B convention writes it negative).
  */
+import { BOLTZMANN_OVER_PLANCK_PER_K_S as KB_OVER_H, GAS_CONSTANT_J_PER_MOL_K as R } from '../science/constants';
+import { kelvinFromCelsius, toSeconds } from '../science/quantities';
 import { DEMO_PROJECTS } from './demo';
-
-const R = 8.314462618; // J/(mol·K), CODATA 2018
-const KB_OVER_H = 1.380649e-23 / 6.62607015e-34; // 1/(K·s)
-const C_TO_K = 273.15;
 
 export const DEMO_CAMPAIGN_PROJECT_ID = DEMO_PROJECTS[0].id;
 
@@ -78,7 +76,7 @@ function conversionPercent(temperatureK: number, hours: number): number {
   const dHJPerMol = 52_000;
   const dSJPerMolK = -125;
   const k = KB_OVER_H * temperatureK * Math.exp(dSJPerMolK / R) * Math.exp(-dHJPerMol / (R * temperatureK));
-  return 100 * (1 - Math.exp(-k * hours * 3600));
+  return 100 * (1 - Math.exp(-k * toSeconds(hours, 'h')));
 }
 
 /** Hours a bench chemist might have run: about four half-lives, rounded, at most 48 h. */
@@ -103,7 +101,7 @@ function screen(opts: {
   const points: DemoPoint[] = [];
   let n = 0;
   for (const tC of opts.temperaturesC) {
-    const tK = tC + C_TO_K;
+    const tK = kelvinFromCelsius(tC);
     const trueEe = 100 * Math.tanh(opts.truth(tK) / 2);
     const hours = runHours(tK);
     for (const rep of opts.replicates) {

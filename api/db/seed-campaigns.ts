@@ -1,6 +1,6 @@
 import type { Knex } from 'knex';
 import { recordAudit } from '../features/audit/service';
-import { toKelvin } from '../features/campaigns/schemas';
+import { toKelvin, toSeconds } from '../science/quantities';
 import { DEMO_CAMPAIGN_PROJECT_ID, DEMO_CAMPAIGNS } from './demo-campaigns';
 import { DEMO_PROJECTS } from './demo';
 
@@ -43,7 +43,7 @@ export async function seedDemoCampaigns(trx: Knex.Transaction): Promise<number> 
         replicateLabel: p.replicateLabel,
         sampleId: p.sampleId,
         conversionPercent: p.conversionPercent,
-        reactionTimeS: p.reactionTimeH * 3600,
+        reactionTimeS: toSeconds(p.reactionTimeH, 'h'),
         notes: p.notes,
         createdByUserId: authorId,
       })),

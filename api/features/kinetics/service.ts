@@ -41,6 +41,7 @@ import type {
   readableDurationSchema,
 } from './schemas';
 import { KINETICS_CAUTION } from '../../lib/cautions';
+import { SECONDS_PER } from '../../science/quantities';
 import { expandTemperatures, type ExpandedTemperatures } from '../compute/temperatures';
 
 /** Shown with every time and erosion forecast (DOMAIN §9). */
@@ -58,8 +59,6 @@ const energyOut = (jPerMol: number): EnergyOut => ({
   'kJ/mol': energyFromJPerMol(jPerMol, 'kJ/mol'),
   'kcal/mol': energyFromJPerMol(jPerMol, 'kcal/mol'),
 });
-
-const SECONDS_PER: Record<ReadableDuration['unit'], number> = { s: 1, min: 60, h: 3600, d: 86_400, y: 365.25 * 86_400 };
 
 /** Seconds in the unit a person would say: s below 2 min, min below 2 h, h below 2 d, d below 2 years, then years. */
 export function readableDuration(seconds: number): ReadableDuration {

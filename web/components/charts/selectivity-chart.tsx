@@ -5,6 +5,7 @@ import { CelsiusAxis, HorizontalRule, ThermalStrip, VerticalMark } from './chart
 import { axisLabelProps, chartColors, chartTheme, paddedExtent, tickLabelProps } from './chart-theme';
 import { LegendItem } from './eyring-plot';
 import { useElementWidth } from './use-element-width';
+import { kelvinFromCelsius } from '../../../api/science/quantities';
 
 export type SelectivityAxis = 'ee' | 'percentA';
 
@@ -187,7 +188,7 @@ export function SelectivityChart({
                 return (
                   <div className="tnum text-xs leading-5 text-ink-800">
                     <div className="font-medium">
-                      {fixed(d.x, 1)} °C · {fixed(d.x + 273.15, 2)} K
+                      {fixed(d.x, 1)} °C · {fixed(kelvinFromCelsius(d.x), 2)} K
                     </div>
                     <div>
                       {d.kind === 'curve' ? curveLabel : 'measured'}: ee {percent(v.eePercent)} % · er {enantiomericRatio(v.percentA)}

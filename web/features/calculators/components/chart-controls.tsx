@@ -1,5 +1,6 @@
 import { useId } from 'react';
 import { inputClass, Segmented } from './fields';
+import { readDecimal } from '../../../../api/science/quantities';
 
 /** y-axis choice (ee % or % A) and an optional specification in the same unit. */
 export function ChartControls({
@@ -50,8 +51,6 @@ export function ChartControls({
 
 /** A specification as typed, or null when empty or not a number in range. */
 export function parseSpec(text: string): number | null {
-  const t = text.trim().replace(',', '.');
-  if (t === '') return null;
-  const v = Number(t);
-  return Number.isFinite(v) && v > -100 && v <= 100 ? v : null;
+  const v = readDecimal(text);
+  return v !== null && v > -100 && v <= 100 ? v : null;
 }

@@ -1,6 +1,7 @@
 import type { FitResponse } from '../../../../api/features/compute/schemas';
 import { TableHead } from '../../../components/ui/table-head';
 import { fixed, percent, sig } from '../../../lib/format';
+import { celsiusFromKelvin } from '../../../../api/science/quantities';
 
 const FLAG_TEXT: Record<string, string> = {
   outlier: 'outlier (|studentized residual| > 3)',
@@ -60,7 +61,7 @@ export function ResidualTable({
             return (
               <tr key={r.index} className={`border-b border-slate-100 last:border-0 ${flagged ? 'bg-caution-50' : ''}`}>
                 <td className="px-2 py-1 text-left text-ink-600">{line ?? r.index + 1}</td>
-                <td className="px-2 py-1">{fixed(r.kelvin - 273.15, 1)}</td>
+                <td className="px-2 py-1">{fixed(celsiusFromKelvin(r.kelvin), 1)}</td>
                 <td className="px-2 py-1">{percent(Math.tanh(r.lnRatio / 2) * 100)}</td>
                 <td className="px-2 py-1">{fixed(r.lnRatio, 3)}</td>
                 <td className="px-2 py-1">{r.residual === null ? '—' : fixed(r.residual, 3)}</td>
@@ -96,7 +97,7 @@ export function TwoBranchBox({ twoBranch }: { twoBranch: NonNullable<FitResponse
   const preferTwo = twoBranch.preferred === 'two-branch';
   const branch = (name: string, b: typeof twoBranch.low) => (
     <li>
-      {name}: {fixed(b.fromKelvin - 273.15, 0)} to {fixed(b.toKelvin - 273.15, 0)} °C, n = {b.n}, ΔΔH‡ = {fixed(b.ddH['kJ/mol'], 1)} kJ/mol
+      {name}: {fixed(celsiusFromKelvin(b.fromKelvin), 0)} to {fixed(celsiusFromKelvin(b.toKelvin), 0)} °C, n = {b.n}, ΔΔH‡ = {fixed(b.ddH['kJ/mol'], 1)} kJ/mol
       ({fixed(b.ddH['kcal/mol'], 2)} kcal/mol), ΔΔS‡ = {fixed(b.ddS['J/(mol*K)'], 1)} J/(mol·K) ({fixed(b.ddS['cal/(mol*K)'], 2)}{' '}
       cal/(mol·K))
     </li>
@@ -119,7 +120,7 @@ export function TwoBranchBox({ twoBranch }: { twoBranch: NonNullable<FitResponse
           better)
         </li>
         <li>
-          Break between {fixed(twoBranch.breakBetweenKelvin[0] - 273.15, 0)} and {fixed(twoBranch.breakBetweenKelvin[1] - 273.15, 0)} °C
+          Break between {fixed(celsiusFromKelvin(twoBranch.breakBetweenKelvin[0]), 0)} and {fixed(celsiusFromKelvin(twoBranch.breakBetweenKelvin[1]), 0)} °C
           {twoBranch.isoinversion
             ? preferTwo
               ? `; the branches cross at the isoinversion temperature ${fixed(twoBranch.isoinversion.celsius, 0)} °C (${fixed(twoBranch.isoinversion.kelvin, 0)} K)`

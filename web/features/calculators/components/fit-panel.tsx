@@ -25,6 +25,7 @@ import { FitParameterTable } from './fit-parameter-table';
 import { FitWarnings, ResidualTable, TwoBranchBox } from './fit-diagnostics';
 import { PredictionBox } from './prediction-box';
 import { ScreenPasteBox } from './screen-paste-box';
+import { celsiusFromKelvin, readDecimal } from '../../../../api/science/quantities';
 
 const UNIT_TEXT: Record<TemperatureUnit, string> = { K: 'K', C: '°C', F: '°F' };
 const MEASURE_TEXT: Record<SelectivityMeasure, string> = { ee: 'ee %', er: 'er (A:B)', dr: 'dr (A:B)', percentA: '% A', ratio: 'r = A/B' };
@@ -37,12 +38,8 @@ interface Submitted {
 }
 
 function numberOrNull(text: string): number | null | 'invalid' {
-  const t = text
-    .trim()
-    .replace(/\u2212/g, '-')
-    .replace(',', '.');
-  if (t === '') return null;
-  return /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/.test(t) ? Number(t) : 'invalid';
+  if (text.trim() === '') return null;
+  return readDecimal(text) ?? 'invalid';
 }
 
 const lnOf = (iv: [number, number] | undefined | null): [number, number] | null => (iv ? [Math.log(iv[0]), Math.log(iv[1])] : null);
@@ -333,7 +330,7 @@ function buildView(fit: FitResponse, submitted: Submitted) {
   }));
   const selectivityPoints = fit.residuals.map((r) => ({
     id: r.index,
-    celsius: r.kelvin - 273.15,
+    celsius: celsiusFromKelvin(r.kelvin),
     eePercent: Math.tanh(r.lnRatio / 2) * 100,
     percentA: 100 / (1 + Math.exp(-r.lnRatio)),
     status: r.status,

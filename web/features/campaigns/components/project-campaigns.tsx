@@ -11,6 +11,7 @@ import type { CampaignListItem, ComparisonCampaign } from '../api/types';
 import { parseNumber } from '../lib/grid';
 import { CELSIUS, STATUS_MARK } from '../lib/labels';
 import { NewCampaignForm } from './new-campaign-form';
+import { ABSOLUTE_ZERO, celsiusFromKelvin } from '../../../../api/science/quantities';
 
 const plus = (v: number, text: string) => (v > 0 && !text.startsWith('+') ? `+${text}` : text);
 
@@ -43,7 +44,7 @@ export function ProjectCampaigns({ projectId, canEdit }: { projectId: string; ca
   const [creating, setCreating] = useState(false);
   const [picked, setPicked] = useState<string[] | null>(null);
   const parsedAt = parseNumber(atText);
-  const atValid = typeof parsedAt === 'number' && parsedAt > -273.15 && parsedAt <= 726.85;
+  const atValid = typeof parsedAt === 'number' && parsedAt > ABSOLUTE_ZERO.C && parsedAt <= celsiusFromKelvin(1000);
   const [atCelsius, setAtCelsius] = useState(-20);
   const campaigns = useCampaigns(projectId);
   const comparison = useComparison(projectId, atCelsius);
