@@ -298,3 +298,51 @@ export function formatDisplay(display: DisplayMeasure, lnR: number): string {
 export function formatSelectivity(measure: SelectivityMeasure, lnR: number): string {
   return DISPLAY_MEASURES[measure].map((d) => formatDisplay(d, lnR)).join(' · ');
 }
+
+/**
+ * An interval of ln r shown in a display measure: "12.1:1 to 25.3:1", "84.6 to 92.3 %". For
+ * % major an interval that spans r = 1 starts at 50 % (the major isomer may be either one).
+ */
+export function formatMeasureRange(display: DisplayMeasure, lnLow: number, lnHigh: number): string {
+  const [lo, hi] = lnLow <= lnHigh ? [lnLow, lnHigh] : [lnHigh, lnLow];
+  if (display === 'major') {
+    const a = lo >= 0 ? lo : hi <= 0 ? -hi : 0;
+    const b = Math.max(Math.abs(lo), Math.abs(hi));
+    return `${formatMeasure('major', a).replace(/ %$/, '')} to ${formatMeasure('major', b)}`;
+  }
+  const from = formatMeasure(display, lo);
+  const to = formatMeasure(display, hi);
+  return DISPLAY_UNIT[display] === '%' ? `${from.replace(/ %$/, '')} to ${to}` : `${from} to ${to}`;
+}
+
+/** Column-head text for a display measure: "ee (%)", "dr", "de (%)", "major diastereomer (%)", "% A", "r (A/B)". */
+export function displayHeading(display: DisplayMeasure): string {
+  if (display === 'percentA' || display === 'ratio' || DISPLAY_UNIT[display] === '') return DISPLAY_LABEL[display];
+  return `${DISPLAY_LABEL[display]} (%)`;
+}
+
+/** The two percentage axes a chart offers: the signed excess (ee, % de) and the share (% A, % major). */
+export type PercentAxis = 'ee' | 'percentA';
+
+/**
+ * Words for a chart's percentage axis in a campaign's measure: ee and % A for enantiomers, % de and
+ * % major for diastereomers, "A − B" and % A for any two products (ee only for enantiomer pairs).
+ */
+export function axisText(measure: SelectivityMeasure, axis: PercentAxis): { button: string; axis: string; unit: string } {
+  if (measure === 'dr') {
+    return axis === 'ee' ? { button: '% de', axis: 'de (%)', unit: '% de' } : { button: '% major', axis: 'major diastereomer (%)', unit: '% major' };
+  }
+  if (axis === 'percentA') return { button: '% A', axis: 'A (% of A + B)', unit: '% A' };
+  if (measure === 'ee' || measure === 'er') return { button: 'ee %', axis: 'ee (%)', unit: '% ee' };
+  return { button: 'A − B %', axis: 'A − B (% of A + B)', unit: '% (A − B)' };
+}
+
+/** % major from % A: the larger share (for diastereomers, where either isomer may be the major one). */
+export const majorShare = (percentA: number): number => Math.max(percentA, 100 - percentA);
+
+/** An interval of % A as % major: it starts at 50 % when it spans an even split. */
+export function majorShareRange(low: number, high: number): [number, number] {
+  if (low >= 50) return [low, high];
+  if (high <= 50) return [100 - high, 100 - low];
+  return [50, Math.max(high, 100 - low)];
+}

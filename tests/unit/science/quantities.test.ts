@@ -2,7 +2,9 @@ import { describe, expect, it } from 'vitest';
 import {
   ABSOLUTE_ZERO,
   DISPLAY_MEASURES,
+  displayHeading,
   formatMeasure,
+  formatMeasureRange,
   formatSelectivity,
   fromKelvin,
   isStrictDecimal,
@@ -130,5 +132,18 @@ describe('selectivity display', () => {
     expect(lnRatioOf('percentA', 96)).toBeCloseTo(Math.log(r), 12);
     expect(lnRatioOf('er', 96, 4)).toBeCloseTo(Math.log(r), 12);
     expect(lnRatioOf('dr', 24)).toBeCloseTo(Math.log(r), 12);
+  });
+});
+
+describe('selectivity intervals in a display measure', () => {
+  it('when an interval of ln r is shown as dr, % de or % major, then each end is converted and % major folds at r = 1', () => {
+    const lo = Math.log(12);
+    const hi = Math.log(25);
+    expect(formatMeasureRange('dr', lo, hi)).toBe('12.0:1 to 25.0:1');
+    // [C] de = (r − 1)/(r + 1): r = 12 → 84.6 %, r = 25 → 92.3 %
+    expect(formatMeasureRange('de', lo, hi)).toBe('84.6 to 92.3 %');
+    expect(formatMeasureRange('major', -Math.log(2), Math.log(3))).toBe('50.0 to 75.0 %');
+    expect(displayHeading('major')).toBe('major diastereomer (%)');
+    expect(displayHeading('dr')).toBe('dr');
   });
 });

@@ -250,6 +250,7 @@ export function FitPanel() {
                   prediction={view.proposed}
                   confidence={fit.confidence}
                   breakPreferred={fit.twoBranch?.preferred === 'two-branch'}
+                  measure={submitted?.measure ?? measure}
                 />
               ) : (
                 <p className="text-sm text-ink-500">Enter a proposed temperature to get a prediction with its interval.</p>
@@ -264,12 +265,20 @@ export function FitPanel() {
               {fit.twoBranch && <TwoBranchBox twoBranch={fit.twoBranch} />}
               <div className="flex flex-col gap-2">
                 <h3 className="text-sm font-semibold text-ink-900">Selectivity against temperature from the fit</h3>
-                <ChartControls name="fit" measure={chartMeasure} onMeasure={setChartMeasure} spec={specText} onSpec={setSpecText} />
+                <ChartControls
+                  name="fit"
+                  measure={chartMeasure}
+                  onMeasure={setChartMeasure}
+                  spec={specText}
+                  onSpec={setSpecText}
+                  family={submitted?.measure ?? measure}
+                />
                 <SelectivityChart
                   title="Fitted selectivity against temperature with the prediction band"
                   curve={view.selectivityCurve}
                   points={view.selectivityPoints}
                   measure={chartMeasure}
+                  family={submitted?.measure ?? measure}
                   spec={parseSpec(specText)}
                   curveLabel="fitted line"
                   bandLabel={`${fixed(fit.confidence * 100, 0)} % prediction band (new run)`}

@@ -8,14 +8,27 @@ import { PredictionBox } from '../../calculators/components/prediction-box';
 import { useDeleteForecast, useForecasts, useSaveForecast } from '../api/forecasts';
 import type { AnalysisResponse, SavedForecastView } from '../api/types';
 import { kelvinTo, parseNumber } from '../lib/grid';
-import { CELSIUS } from '../lib/labels';
-
-const UNIT_TEXT: Record<TemperatureUnit, string> = { C: '°C', K: 'K', F: '°F' };
+import {
+  DISPLAY_MEASURES,
+  displayHeading,
+  formatDisplay,
+  formatMeasure,
+  formatMeasureRange,
+  fromKelvin,
+  TEMPERATURE_UNIT_LABEL as UNIT_TEXT,
+  toKelvin,
+  type SelectivityMeasure,
+} from '../../../../api/science/quantities';
 
 function toCelsius(value: number, unit: TemperatureUnit): number {
-  if (unit === 'K') return value - CELSIUS;
-  if (unit === 'F') return ((value - 32) * 5) / 9;
-  return value;
+  return unit === 'C' ? value : fromKelvin(toKelvin(value, unit), 'C');
+}
+
+/** "the predicted ratio, ee and % A" or, for a dr campaign, "the predicted dr, % de and % major". */
+function predictedWords(measure: SelectivityMeasure): string {
+  if (measure === 'dr') return 'the predicted dr, % de and % major diastereomer';
+  if (measure === 'ee' || measure === 'er') return 'the predicted ratio, ee and % A';
+  return 'the predicted % A and ratio';
 }
 
 /**
@@ -30,6 +43,7 @@ export function ForecastPanel({
   onAt,
   weighting,
   canEdit,
+  measure = 'ee',
 }: {
   campaignId: string;
   analysis: AnalysisResponse | undefined;
@@ -37,6 +51,8 @@ export function ForecastPanel({
   onAt: (celsius: number | null) => void;
   weighting: 'none' | 'uncertainty';
   canEdit: boolean;
+  /** The campaign's measure: sets what the forecast is shown as (dr, % de, % major for diastereomers). */
+  measure?: SelectivityMeasure;
 }) {
   const id = useId();
   const [text, setText] = useState(atCelsius === null ? '' : String(atCelsius));
@@ -156,12 +172,12 @@ export function ForecastPanel({
 
       {!fit && <p className="text-sm text-ink-600">A forecast needs a fit: {analysis?.problem?.message ?? 'add measurements first.'}</p>}
       {fit && !showing && atCelsius === null && (
-        <p className="text-sm text-ink-600">Type a temperature to get the predicted ratio, ee and % A with the 95 % prediction interval for one new run.</p>
+        <p className="text-sm text-ink-600">Type a temperature to get {predictedWords(measure)} with the 95 % prediction interval for one new run.</p>
       )}
       {fit && atCelsius !== null && !showing && <p className="text-sm text-ink-600">Computing…</p>}
       {fit && showing && prediction && (
         <>
-          <PredictionBox prediction={prediction} confidence={fit.confidence} breakPreferred={fit.twoBranch?.preferred === 'two-branch'} />
+          <PredictionBox prediction={prediction} confidence={fit.confidence} breakPreferred={fit.twoBranch?.preferred === 'two-branch'} measure={measure} />
           <p className="tnum text-sm text-ink-700">
             Predicted ratio r = [A]/[B] = <span className="font-medium text-ink-950">{sig(prediction.ratio, 3)}</span>
             {prediction.predictionInterval && (
@@ -170,7 +186,7 @@ export function ForecastPanel({
                 (95 % PI {sig(prediction.predictionInterval.ratio[0], 3)} to {sig(prediction.predictionInterval.ratio[1], 3)})
               </>
             )}
-            , er {enantiomericRatio(prediction.percentA)}.
+            {measure === 'ee' || measure === 'er' ? `, er ${enantiomericRatio(prediction.percentA)}` : ''}.
           </p>
           {canEdit && (
             <form
@@ -233,7 +249,8 @@ function SmallField({ label, value, onChange, error, width }: { label: string; v
 const dateFormat = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'short' });
 
 /** Kept forecasts, each against any run measured since within ±1 K of its temperature. */
-export function SavedForecasts({ campaignId, canEdit }: { campaignId: string; canEdit: boolean }) {
+export function SavedForecasts({ campaignId, canEdit, measure = 'ee' }: { campaignId: string; canEdit: boolean; measure?: SelectivityMeasure }) {
+  const [primary, secondary] = DISPLAY_MEASURES[measure];
   const forecasts = useForecasts(campaignId);
   const remove = useDeleteForecast(campaignId);
   if (forecasts.isPending) return <p className="text-sm text-ink-500">Loading saved forecasts…</p>;
@@ -252,13 +269,13 @@ export function SavedForecasts({ campaignId, canEdit }: { campaignId: string; ca
                 Label and note
               </th>
               <th scope="col" className="px-2 py-1 text-right font-medium">
-                Forecast ee (%)
+                Forecast {primary === 'ee' ? 'ee (%)' : displayHeading(primary)}
               </th>
               <th scope="col" className="px-2 py-1 text-right font-medium">
-                95 % PI (% ee)
+                95 % PI ({primary === 'ee' ? '% ee' : displayHeading(primary).replace(/ \(%\)$/, '')})
               </th>
               <th scope="col" className="px-2 py-1 text-right font-medium">
-                A (%)
+                {primary === 'ee' ? 'A (%)' : displayHeading(secondary)}
               </th>
               <th scope="col" className="px-2 py-1 text-left font-medium">
                 Measured since
@@ -275,7 +292,14 @@ export function SavedForecasts({ campaignId, canEdit }: { campaignId: string; ca
           </thead>
           <tbody>
             {forecasts.data.map((f) => (
-              <ForecastRow key={f.id} f={f} canEdit={canEdit} onDelete={() => remove.mutate(f.id)} deleting={remove.isPending && remove.variables === f.id} />
+              <ForecastRow
+                key={f.id}
+                f={f}
+                measure={measure}
+                canEdit={canEdit}
+                onDelete={() => remove.mutate(f.id)}
+                deleting={remove.isPending && remove.variables === f.id}
+              />
             ))}
           </tbody>
         </table>
@@ -289,8 +313,23 @@ export function SavedForecasts({ campaignId, canEdit }: { campaignId: string; ca
   );
 }
 
-function ForecastRow({ f, canEdit, onDelete, deleting }: { f: SavedForecastView; canEdit: boolean; onDelete: () => void; deleting: boolean }) {
+function ForecastRow({
+  f,
+  measure,
+  canEdit,
+  onDelete,
+  deleting,
+}: {
+  f: SavedForecastView;
+  measure: SelectivityMeasure;
+  canEdit: boolean;
+  onDelete: () => void;
+  deleting: boolean;
+}) {
   const pi = f.result.predictionInterval;
+  const [primary, secondary] = DISPLAY_MEASURES[measure];
+  const lnR = Math.log(f.result.ratio);
+  const enantiomers = primary === 'ee';
   return (
     <tr className="border-b border-slate-100 align-top">
       <td className="px-2 py-1 text-right font-medium">{fixed(f.celsius, 1)}</td>
@@ -299,9 +338,11 @@ function ForecastRow({ f, canEdit, onDelete, deleting }: { f: SavedForecastView;
         {f.notes && <span className="block text-xs text-ink-600">{f.notes}</span>}
         {f.result.extrapolated && <span className="block text-xs font-medium text-caution-700">⚠ extrapolated beyond the screen</span>}
       </td>
-      <td className="px-2 py-1 text-right">{percent(f.result.eePercent)}</td>
-      <td className="px-2 py-1 text-right text-ink-700">{pi ? `${percent(pi.eePercent[0])} to ${percent(pi.eePercent[1])}` : '—'}</td>
-      <td className="px-2 py-1 text-right">{percent(f.result.percentA)}</td>
+      <td className="px-2 py-1 text-right">{enantiomers ? percent(f.result.eePercent) : formatMeasure(primary, lnR).replace(/ %$/, '')}</td>
+      <td className="px-2 py-1 text-right text-ink-700">
+        {!pi ? '—' : enantiomers ? `${percent(pi.eePercent[0])} to ${percent(pi.eePercent[1])}` : formatMeasureRange(primary, Math.log(pi.ratio[0]), Math.log(pi.ratio[1]))}
+      </td>
+      <td className="px-2 py-1 text-right">{enantiomers ? percent(f.result.percentA) : formatMeasure(secondary, lnR).replace(/ %$/, '')}</td>
       <td className="px-2 py-1 text-left">
         {f.measured.length === 0 ? (
           <span className="text-ink-500">no run yet</span>
@@ -309,7 +350,7 @@ function ForecastRow({ f, canEdit, onDelete, deleting }: { f: SavedForecastView;
           <ul>
             {f.measured.map((m) => (
               <li key={m.measurementId}>
-                {percent(m.eePercent)} % ee at {fixed(kelvinTo(m.kelvin, 'C'), 1)} °C{' '}
+                {enantiomers ? `${percent(m.eePercent)} % ee` : formatDisplay(primary, Math.log(m.ratio))} at {fixed(kelvinTo(m.kelvin, 'C'), 1)} °C{' '}
                 {m.insidePredictionInterval === null ? (
                   <span className="text-ink-600">(no interval to compare)</span>
                 ) : m.insidePredictionInterval ? (
