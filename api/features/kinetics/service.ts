@@ -445,7 +445,7 @@ export function computeErosion(req: ErosionRequest): ErosionResponse {
       eeHalfLife: readableDuration(cls.eeHalfLifeS),
       description: cls.description,
       definition: cls.definition,
-      source: `[M] recalled from memory, verify before relying on it: ${cls.source}`,
+      source: cls.source,
     },
     definitions,
     assumptions,
