@@ -4,7 +4,7 @@
  * differentials plus seeded noise, so the seed and the files in samples/ agree and are
  * reproducible.
  *
- * Sign convention (DOMAIN §1): ΔΔX‡ = X‡(TS→B) − X‡(TS→A), positive favours A, so a positive
+ * Sign convention (api/science/README.md §1): ΔΔX‡ = X‡(TS→B) − X‡(TS→A), positive favours A, so a positive
  * ΔΔH‡ makes ee rise on cooling (the literature's A-minus-B convention writes it negative).
  */
 import { BOLTZMANN_OVER_PLANCK_PER_K_S as KB_OVER_H, GAS_CONSTANT_J_PER_MOL_K as R } from '../science/constants';
@@ -85,7 +85,7 @@ function runHours(temperatureK: number): number {
   return 48;
 }
 
-/** The assay's quantitation limit for ee: above it only a lower bound is reported (DOMAIN §3). */
+/** The assay's quantitation limit for ee: above it only a lower bound is reported (api/science/README.md §3). */
 export const EE_REPORTING_LIMIT = 99.8;
 
 function screen(opts: {
@@ -132,7 +132,7 @@ const skylarkMeTHF: Branch = { ddHJPerMol: 15_000, ddSJPerMolK: 10 };
 
 /**
  * Merlin-Phos in toluene: two branches meeting at an invented isoinversion temperature of
- * −15 °C (DOMAIN §4). Above it ΔΔH‡ = +16 kJ/mol, below it −5 kJ/mol; ee peaks there.
+ * −15 °C (api/science/README.md §4). Above it ΔΔH‡ = +16 kJ/mol, below it −5 kJ/mol; ee peaks there.
  */
 const MERLIN_T_INV_K = 258.15;
 const MERLIN_LN_R_AT_T_INV = 3.8;

@@ -1,5 +1,5 @@
 /**
- * Loss of stereochemical purity after the reaction (DOMAIN §7).
+ * Loss of stereochemical purity after the reaction (api/science/README.md §7).
  *
  * Racemization R ⇌ S with one-way rate constant k_e (Eyring, from the barrier):
  *   d(ee)/dt = −2k_e·ee  ⇒  ee(t) = ee₀·exp(−2k_e t),  ee half-life t½ = ln2/(2k_e).

@@ -1,5 +1,5 @@
 /**
- * Differential Eyring analysis of a temperature screen (DOMAIN §3).
+ * Differential Eyring analysis of a temperature screen (api/science/README.md §3).
  *
  * Regress y = ln r on x = 1/T: y = a + b·x, so ΔΔH‡ = R·b and ΔΔS‡ = −R·a
  * (from ln r = ΔΔH‡/RT − ΔΔS‡/R). The covariance of (a, b) is kept and used for every derived
@@ -139,7 +139,7 @@ export interface EyringFit {
   rSquared: number | null;
   dof: number;
   zeroSelectivityTemperatureK: number | null;
-  /** False with fewer than 3 distinct temperatures (DOMAIN §3). */
+  /** False with fewer than 3 distinct temperatures (api/science/README.md §3). */
   intervalsAvailable: boolean;
   points: EyringPointResult[];
   predictions: EyringPrediction[];
@@ -150,7 +150,7 @@ export interface EyringFit {
 
 /** Default censoring limit in ee percent: the usual quantitation limit of chiral chromatography [CP]. */
 export const DEFAULT_CENSOR_EE_PERCENT = 99.8;
-/** Default span under which a screen is called narrow [CP, DOMAIN §8]. */
+/** Default span under which a screen is called narrow [CP, api/science/README.md §8]. */
 export const DEFAULT_NARROW_SPAN_K = 40;
 
 const sameTemperature = (a: number, b: number) => Math.abs(a - b) <= 1e-6;
@@ -271,7 +271,7 @@ function intervalQuantile(line: LineFit, level: number): number {
 }
 
 /**
- * Differential Eyring fit (DOMAIN §3): ln r = a + b/T by OLS or WLS; ΔΔH‡ = R·b, ΔΔS‡ = −R·a,
+ * Differential Eyring fit (api/science/README.md §3): ln r = a + b/T by OLS or WLS; ΔΔH‡ = R·b, ΔΔS‡ = −R·a,
  * SE(ΔΔH‡) = R·SE(b), SE(ΔΔS‡) = R·SE(a), Cov(ΔΔH‡, ΔΔS‡) = −R²·Cov(a, b), CI = estimate ± t·SE.
  *
  * Rules: fewer than 2 distinct fitted temperatures → DomainError 'too-few-temperatures';
@@ -476,7 +476,7 @@ function extrapolationWarning(fit: EyringFit, count: number): Warning {
 }
 
 /**
- * ΔΔG‡(T) = ΔΔH‡ − T·ΔΔS‡ = RT·ŷ(1/T), SE = RT·SE_mean(ŷ at 1/T) from the full covariance (DOMAIN §3).
+ * ΔΔG‡(T) = ΔΔH‡ − T·ΔΔS‡ = RT·ŷ(1/T), SE = RT·SE_mean(ŷ at 1/T) from the full covariance (api/science/README.md §3).
  */
 export function ddGAtTemperature(
   fit: EyringFit,
@@ -497,7 +497,7 @@ export function ddGAtTemperature(
 
 /**
  * Predict selectivity at each temperature with the CI of the mean line and the prediction
- * interval for a new run (DOMAIN §3), mapped to r = e^y, ee = tanh(y/2), %A = 100/(1 + e^(−y));
+ * interval for a new run (api/science/README.md §3), mapped to r = e^y, ee = tanh(y/2), %A = 100/(1 + e^(−y));
  * all three maps are increasing, so interval ends map to ends.
  */
 export function predictEyring(fit: EyringFit, temperaturesK: readonly number[], confidenceLevel = fit.confidenceLevel): EyringPrediction[] {

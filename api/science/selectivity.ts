@@ -1,7 +1,7 @@
 /**
  * Conversions between the ways chemists write a stereoselectivity, and the free-energy gap.
  *
- * Sign convention (DOMAIN §1): r = [A]/[B]; ΔΔG‡ = G‡(TS→B) − G‡(TS→A), so ΔΔG‡ > 0 favours A.
+ * Sign convention (api/science/README.md §1): r = [A]/[B]; ΔΔG‡ = G‡(TS→B) − G‡(TS→A), so ΔΔG‡ > 0 favours A.
  *   r = exp(ΔΔG‡/RT),  ee = (r − 1)/(r + 1) = tanh(ΔΔG‡/2RT),  %A = 100·r/(1 + r).
  * These follow from transition-state theory for two competing pathways from a common
  * (or rapidly equilibrating) precursor, Curtin–Hammett conditions.
@@ -28,7 +28,7 @@ export interface RatioPair {
   b: number;
 }
 
-/** The convention string shown beside any ΔΔH‡/ΔΔS‡/ΔΔG‡ value (DOMAIN §1). */
+/** The convention string shown beside any ΔΔH‡/ΔΔS‡/ΔΔG‡ value (api/science/README.md §1). */
 export const SIGN_CONVENTION = 'ΔΔX‡ = X‡(TS→B) − X‡(TS→A); positive values favour A (the numerator of r = [A]/[B])';
 
 function requireRatio(r: number, field: string): number {
@@ -38,7 +38,7 @@ function requireRatio(r: number, field: string): number {
 }
 
 /**
- * Ratio from the free-energy gap: r = exp(ΔΔG‡/RT) (Eyring, DOMAIN §1).
+ * Ratio from the free-energy gap: r = exp(ΔΔG‡/RT) (Eyring, api/science/README.md §1).
  * Throws `result-out-of-range` if r would overflow or underflow to 0.
  */
 export function ratioFromDdG(ddGJPerMol: number, temperatureK: number): number {
@@ -49,7 +49,7 @@ export function ratioFromDdG(ddGJPerMol: number, temperatureK: number): number {
   return requireFiniteResult(r, 'ratio', 'ddGJPerMol');
 }
 
-/** Free-energy gap from a ratio: ΔΔG‡ = RT·ln r (DOMAIN §1). */
+/** Free-energy gap from a ratio: ΔΔG‡ = RT·ln r (api/science/README.md §1). */
 export function ddGFromRatio(ratio: number, temperatureK: number): number {
   requireRatio(ratio, 'ratio');
   requireTemperatureK(temperatureK, 'temperatureK');
@@ -62,7 +62,7 @@ export function eeFromRatio(ratio: number): number {
   return 100 * Math.tanh(Math.log(ratio) / 2);
 }
 
-/** Signed ee in percent from the gap: ee = tanh(ΔΔG‡/2RT) (DOMAIN §1). Never reaches ±100 exactly except by rounding. */
+/** Signed ee in percent from the gap: ee = tanh(ΔΔG‡/2RT) (api/science/README.md §1). Never reaches ±100 exactly except by rounding. */
 export function eeFromDdG(ddGJPerMol: number, temperatureK: number): number {
   requireFinite(ddGJPerMol, 'ddGJPerMol');
   requireTemperatureK(temperatureK, 'temperatureK');
@@ -93,7 +93,7 @@ export function ratioFromEe(eePercent: number, field = 'ee'): number {
   return Math.exp(lnRatioFromEe(eePercent, field));
 }
 
-/** Free-energy gap from signed ee: ΔΔG‡ = 2RT·artanh(ee) (DOMAIN §1). */
+/** Free-energy gap from signed ee: ΔΔG‡ = 2RT·artanh(ee) (api/science/README.md §1). */
 export function ddGFromEe(eePercent: number, temperatureK: number): number {
   requireTemperatureK(temperatureK, 'temperatureK');
   return R * temperatureK * lnRatioFromEe(eePercent);
@@ -189,7 +189,7 @@ export function parseSelectivity(input: SelectivityInput, fieldPath = 'selectivi
 }
 
 /**
- * Standard deviation of ln r propagated from the uncertainty of the reported measure (DOMAIN §3,
+ * Standard deviation of ln r propagated from the uncertainty of the reported measure (api/science/README.md §3,
  * first-order error propagation):
  * - `ee` (σ in ee percentage points): σ(ln r) = 2σ_ee/(1 − ee²), ee and σ as fractions;
  * - `percentA`, and `er` (σ in points of the A share of 100, whichever way er is written): σ(ln r) = σ_p/[p(1 − p)];

@@ -1,5 +1,5 @@
 /**
- * Two-branch (isoinversion) analysis of a selectivity Eyring plot (DOMAIN §4; isoinversion
+ * Two-branch (isoinversion) analysis of a selectivity Eyring plot (api/science/README.md §4; isoinversion
  * principle: Buschmann, Scharf, Hoffmann & Esser, Angew. Chem. Int. Ed. Engl. 1991, 30, 477).
  *
  * Every break between consecutive distinct temperatures that leaves ≥ 3 runs (and ≥ 2 distinct

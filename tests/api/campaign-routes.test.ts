@@ -392,7 +392,7 @@ describe('analysis', () => {
     );
     expect(a.fit.ddH).toEqual(reference.ddH);
     expect(a.fit.predictions).toEqual(reference.predictions);
-    // ln r ± σ(ln r) with σ(ln r) = 2σ_ee/(1 − ee²) [S: DOMAIN.md §3 error propagation].
+    // ln r ± σ(ln r) with σ(ln r) = 2σ_ee/(1 − ee²) [S: api/science/README.md §3 error propagation].
     const p0 = a.points[0];
     const ee = runs[0]!.ee / 100;
     expect(p0.lnRatioHigh - p0.lnRatio).toBeCloseTo((2 * 0.003) / (1 - ee * ee), 10);

@@ -20,7 +20,7 @@ import { toKelvin, type SavedForecastCreate } from './schemas';
 
 type FitPrediction = FitResponse['predictions'][number];
 
-/** Shown beside every forecast and in every export (DOMAIN §9). */
+/** Shown beside every forecast and in every export (api/science/README.md §9). */
 /** Temperatures in the fitted-line curve, spaced evenly in 1/T. */
 export const CURVE_POINTS = 60;
 /** The curve runs this far beyond the coldest and warmest measured runs (K). */
