@@ -3,6 +3,8 @@
  * chosen for the quantity, and uncertainty rounded to two significant figures with
  * the value rounded to the same decimal place.
  */
+import { percentDecimals } from '../../api/science/quantities';
+
 const MINUS = '\u2212';
 
 function withMinus(text: string): string {
@@ -50,12 +52,9 @@ export function sig(value: number, figures = 3): string {
 /**
  * Decimals for a percentage that may approach 100 (ee, % A): one decimal up to 98, two up to
  * 99.8, three beyond, so a value just short of a 99 % specification never rounds onto it.
+ * Shared with the server's formatters (api/science/quantities.ts).
  */
-export function percentDecimals(percent: number): number {
-  const gap = 100 - Math.abs(percent);
-  if (!(gap < 2)) return 1;
-  return gap >= 0.2 ? 2 : 3;
-}
+export { percentDecimals };
 
 export function percent(value: number): string {
   return fixed(value, percentDecimals(value));

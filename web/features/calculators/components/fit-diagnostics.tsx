@@ -1,7 +1,7 @@
 import type { FitResponse } from '../../../../api/features/compute/schemas';
 import { TableHead } from '../../../components/ui/table-head';
 import { fixed, percent, sig } from '../../../lib/format';
-import { celsiusFromKelvin } from '../../../../api/science/quantities';
+import { celsiusFromKelvin, eeFromLnRatio } from '../../../../api/science/quantities';
 
 const FLAG_TEXT: Record<string, string> = {
   outlier: 'outlier (|studentized residual| > 3)',
@@ -62,7 +62,7 @@ export function ResidualTable({
               <tr key={r.index} className={`border-b border-slate-100 last:border-0 ${flagged ? 'bg-caution-50' : ''}`}>
                 <td className="px-2 py-1 text-left text-ink-600">{line ?? r.index + 1}</td>
                 <td className="px-2 py-1">{fixed(celsiusFromKelvin(r.kelvin), 1)}</td>
-                <td className="px-2 py-1">{percent(Math.tanh(r.lnRatio / 2) * 100)}</td>
+                <td className="px-2 py-1">{percent(eeFromLnRatio(r.lnRatio))}</td>
                 <td className="px-2 py-1">{fixed(r.lnRatio, 3)}</td>
                 <td className="px-2 py-1">{r.residual === null ? '—' : fixed(r.residual, 3)}</td>
                 <td className="px-2 py-1">{r.studentized === null ? '—' : fixed(r.studentized, 2)}</td>

@@ -25,9 +25,8 @@ import { FitParameterTable } from './fit-parameter-table';
 import { FitWarnings, ResidualTable, TwoBranchBox } from './fit-diagnostics';
 import { PredictionBox } from './prediction-box';
 import { ScreenPasteBox } from './screen-paste-box';
-import { celsiusFromKelvin, readDecimal } from '../../../../api/science/quantities';
+import { celsiusFromKelvin, eeFromLnRatio, readDecimal, TEMPERATURE_UNIT_LABEL as UNIT_TEXT } from '../../../../api/science/quantities';
 
-const UNIT_TEXT: Record<TemperatureUnit, string> = { K: 'K', C: '°C', F: '°F' };
 const MEASURE_TEXT: Record<SelectivityMeasure, string> = { ee: 'ee %', er: 'er (A:B)', dr: 'dr (A:B)', percentA: '% A', ratio: 'r = A/B' };
 
 interface Submitted {
@@ -340,7 +339,7 @@ function buildView(fit: FitResponse, submitted: Submitted) {
   const selectivityPoints = fit.residuals.map((r) => ({
     id: r.index,
     celsius: celsiusFromKelvin(r.kelvin),
-    eePercent: Math.tanh(r.lnRatio / 2) * 100,
+    eePercent: eeFromLnRatio(r.lnRatio),
     percentA: 100 / (1 + Math.exp(-r.lnRatio)),
     status: r.status,
   }));

@@ -11,7 +11,7 @@ import {
   type TimeUnit,
 } from '../../../../api/features/campaigns/schemas';
 import { readPastedTable } from '../../../../api/features/imports/table-text';
-import { fromKelvin, lnRatioOf, readDecimal, SECONDS_PER, splitBound } from '../../../../api/science/quantities';
+import { eeFromLnRatio, fromKelvin, lnRatioOf, percentAFromLnRatio, readDecimal, SECONDS_PER, splitBound } from '../../../../api/science/quantities';
 import { tidyMessage } from '../../calculators/lib/field-errors';
 import type { Measurement } from '../api/types';
 
@@ -79,11 +79,11 @@ export function selectivityAs(m: Pick<Measurement, 'measure' | 'value' | 'valueB
   const r = storedRatio(m);
   switch (measure) {
     case 'ee':
-      return plain((100 * (r - 1)) / (r + 1), 2);
+      return plain(eeFromLnRatio(Math.log(r)), 2);
     case 'percentA':
-      return plain((100 * r) / (1 + r), 2);
+      return plain(percentAFromLnRatio(Math.log(r)), 2);
     case 'er':
-      return `${plain((100 * r) / (1 + r), 2)}:${plain(100 / (1 + r), 2)}`;
+      return `${plain(percentAFromLnRatio(Math.log(r)), 2)}:${plain(percentAFromLnRatio(-Math.log(r)), 2)}`;
     case 'dr':
       return r >= 1 ? `${plain(r, 2)}:1` : `1:${plain(1 / r, 2)}`;
     default:
