@@ -298,6 +298,11 @@ describe('campaign pages in Chromium', () => {
     expect(await page.getByRole('radio', { name: '% de' }).count()).toBe(1);
     expect(await page.getByRole('radio', { name: 'ee %' }).count()).toBe(0);
     await maybeScreenshot(page, 'campaigns-dr');
+    const size = page.viewportSize();
+    await page.setViewportSize({ width: 390, height: 844 });
+    await maybeElementShot(page, 'campaigns-dr-forecast-390', box);
+    await maybeElementShot(page, 'campaigns-dr-residuals-390', residuals);
+    if (size) await page.setViewportSize(size);
     await signOut(page);
   }, 60_000);
 });
