@@ -18,7 +18,8 @@ export default tseslint.config(
     },
   },
   {
-    // The browser never imports server code, except zod schema modules shared on purpose (and types).
+    // The browser never imports server code, except zod schema modules shared on purpose, the pure
+    // quantities module (units, typed-number grammar, selectivity display) and the table reader (and types).
     // Two or more ../ reach the root api/; a single ../api/ is a feature's own api folder.
     files: ['web/**/*.{ts,tsx}'],
     rules: {
@@ -28,8 +29,9 @@ export default tseslint.config(
         {
           patterns: [
             {
-              regex: '^(\\.\\./){2,}api/(?!features/[a-z-]+/([a-z]+-)?schemas$|science/units$)',
-              message: 'web/ may import only api/features/*/schemas and *-schemas (shared zod) from the server, or types with `import type`.',
+              regex: '^(\\.\\./){2,}api/(?!features/[a-z-]+/([a-z]+-)?schemas$|science/(units|quantities)$|features/imports/table-text$)',
+              message:
+                'web/ may import only api/features/*/schemas and *-schemas (shared zod), api/science/quantities and api/features/imports/table-text from the server, or types with `import type`.',
               allowTypeImports: true,
             },
           ],

@@ -9,6 +9,9 @@ export default defineConfig({
   root: 'web',
   publicDir: false,
   plugins: [react(), tailwindcss()],
+  // The shared table reader (api/features/imports/table-text.ts) imports csv-parse/sync; in the
+  // browser that is csv-parse's self-contained browser build.
+  resolve: { alias: [{ find: /^csv-parse\/sync$/, replacement: 'csv-parse/browser/esm/sync' }] },
   build: {
     outDir: '../dist/web',
     emptyOutDir: true,

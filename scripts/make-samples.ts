@@ -6,12 +6,13 @@ import { writeFileSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { DEMO_CAMPAIGNS, type DemoPoint } from '../api/db/demo-campaigns';
+import { kelvinFromCelsius } from '../api/science/quantities';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 const out = (name: string) => path.join(root, 'samples', name);
 const [skylark, merlin, skylarkMeTHF] = DEMO_CAMPAIGNS;
 
-const kelvin = (c: number) => Math.round((c + 273.15) * 100) / 100;
+const kelvin = (c: number) => Math.round(kelvinFromCelsius(c) * 100) / 100;
 const csvField = (v: string | number | null, delimiter: string) => {
   const s = v === null ? '' : String(v);
   return s.includes(delimiter) || s.includes('"') || s.includes('\n') ? `"${s.replace(/"/g, '""')}"` : s;

@@ -4,14 +4,12 @@
  * differentials plus seeded noise, so the seed and the files in samples/ agree and are
  * reproducible.
  *
- * Sign convention (DOMAIN §1): ΔΔX‡ = X‡(TS→B) − X‡(TS→A), positive favours A, so a positive
+ * Sign convention (api/science/README.md §1): ΔΔX‡ = X‡(TS→B) − X‡(TS→A), positive favours A, so a positive
  * ΔΔH‡ makes ee rise on cooling (the literature's A-minus-B convention writes it negative).
  */
+import { BOLTZMANN_OVER_PLANCK_PER_K_S as KB_OVER_H, GAS_CONSTANT_J_PER_MOL_K as R } from '../science/constants';
+import { eeFromLnRatio, kelvinFromCelsius, toSeconds } from '../science/quantities';
 import { DEMO_PROJECTS } from './demo';
-
-const R = 8.314462618; // J/(mol·K), CODATA 2018
-const KB_OVER_H = 1.380649e-23 / 6.62607015e-34; // 1/(K·s)
-const C_TO_K = 273.15;
 
 export const DEMO_CAMPAIGN_PROJECT_ID = DEMO_PROJECTS[0].id;
 
@@ -19,8 +17,10 @@ export interface DemoPoint {
   sampleId: string;
   replicateLabel: string;
   temperatureC: number;
-  /** Reported ee (%, one decimal); with isLowerBound the assay only says "at least". */
+  /** Reported ee (%, one decimal), or % de for a dr campaign; with isLowerBound the assay only says "at least". */
   eePercent: number;
+  /** For a dr campaign: the reported dr r (written r:1), one decimal. */
+  dr?: number;
   isLowerBound: boolean;
   uncertainty: number;
   conversionPercent: number;
@@ -34,7 +34,9 @@ export interface DemoCampaign {
   reactionDescription: string;
   productNameA: string;
   productNameB: string;
-  assayMethod: 'chiral-hplc' | 'chiral-sfc';
+  /** ee unless given: a dr campaign reports diastereomer ratios. */
+  measure?: 'ee' | 'dr';
+  assayMethod: 'chiral-hplc' | 'chiral-sfc' | 'nmr';
   defaultUncertainty: number;
   status: 'active' | 'completed';
   notes: string;
@@ -78,7 +80,7 @@ function conversionPercent(temperatureK: number, hours: number): number {
   const dHJPerMol = 52_000;
   const dSJPerMolK = -125;
   const k = KB_OVER_H * temperatureK * Math.exp(dSJPerMolK / R) * Math.exp(-dHJPerMol / (R * temperatureK));
-  return 100 * (1 - Math.exp(-k * hours * 3600));
+  return 100 * (1 - Math.exp(-k * toSeconds(hours, 'h')));
 }
 
 /** Hours a bench chemist might have run: about four half-lives, rounded, at most 48 h. */
@@ -87,7 +89,7 @@ function runHours(temperatureK: number): number {
   return 48;
 }
 
-/** The assay's quantitation limit for ee: above it only a lower bound is reported (DOMAIN §3). */
+/** The assay's quantitation limit for ee: above it only a lower bound is reported (api/science/README.md §3). */
 export const EE_REPORTING_LIMIT = 99.8;
 
 function screen(opts: {
@@ -103,7 +105,7 @@ function screen(opts: {
   const points: DemoPoint[] = [];
   let n = 0;
   for (const tC of opts.temperaturesC) {
-    const tK = tC + C_TO_K;
+    const tK = kelvinFromCelsius(tC);
     const trueEe = 100 * Math.tanh(opts.truth(tK) / 2);
     const hours = runHours(tK);
     for (const rep of opts.replicates) {
@@ -129,12 +131,40 @@ function screen(opts: {
   return points;
 }
 
+/**
+ * A dr screen by ¹H NMR: the ratio is read from integrals to about ±3 % relative, so the noise is
+ * relative (in ln r); dr is reported to one decimal, and % de kept beside it.
+ */
+function drScreen(opts: { prefix: string; temperaturesC: number[]; truth: Branch; seed: number; noiseSd: number; uncertainty: number }): DemoPoint[] {
+  const noise = noiseSource(opts.seed, opts.noiseSd, 3 * opts.noiseSd);
+  return opts.temperaturesC.map((tC, i) => {
+    const tK = kelvinFromCelsius(tC);
+    const dr = Math.round(Math.exp(lnRatio(opts.truth, tK) + noise()) * 10) / 10;
+    return {
+      sampleId: `${opts.prefix}-${String(i + 1).padStart(3, '0')}`,
+      replicateLabel: 'a',
+      temperatureC: tC,
+      eePercent: Math.round(eeFromLnRatio(Math.log(dr)) * 10) / 10,
+      dr,
+      isLowerBound: false,
+      uncertainty: opts.uncertainty,
+      // Boron aldols are fast even when cold: full conversion within the invented 2 h everywhere.
+      conversionPercent: 98,
+      reactionTimeH: 2,
+      notes: null,
+    };
+  });
+}
+
+/** The invented truth behind the dr screen: ΔΔH‡ = 5 kJ/mol, ΔΔS‡ = −2 J/(mol·K) (dr about 17:1 at −40 °C). */
+const kitePyrDr: Branch = { ddHJPerMol: 5_000, ddSJPerMolK: -2 };
+
 const skylarkMeOH: Branch = { ddHJPerMol: 14_000, ddSJPerMolK: 13 };
 const skylarkMeTHF: Branch = { ddHJPerMol: 15_000, ddSJPerMolK: 10 };
 
 /**
  * Merlin-Phos in toluene: two branches meeting at an invented isoinversion temperature of
- * −15 °C (isoinversion: Buschmann, Scharf, Hoffmann & Esser, 1991). Above it ΔΔH‡ = +16 kJ/mol, below it −5 kJ/mol: slopes of opposite sign, so the
+ * −15 °C (api/science/README.md §4). Above it ΔΔH‡ = +16 kJ/mol, below it −5 kJ/mol: slopes of opposite sign, so the
  * segmented fit claims a real isoinversion, where r (and ee) has a maximum.
  */
 const MERLIN_T_INV_K = 258.15;
@@ -183,5 +213,19 @@ export const DEMO_CAMPAIGNS: DemoCampaign[] = [
     status: 'active',
     notes: `Invented demo data. At −60 °C the minor enantiomer is below the quantitation limit: reported as ≥ ${EE_REPORTING_LIMIT} % ee (a lower bound).`,
     points: screen({ prefix: 'KL7702-T', temperaturesC: [25, 0, -20, -40, -60], replicates: ['a', 'b'], truth: (t) => lnRatio(skylarkMeTHF, t), seed: 2026, noiseSd: 0.1, uncertainty: 0.3 }),
+  },
+  {
+    id: '6d1f0c4e-2a51-4c0e-9d7b-00000c7702d4',
+    title: 'Kite-Pyr auxiliary: dr of the KL-7702 aldol step',
+    reactionDescription:
+      'Invented: boron-mediated aldol addition of the propionyl Kite-Pyr imide (invented auxiliary) to the aldehyde KL-7702-D in dichloromethane, giving the syn (A) and anti (B) diastereomers.',
+    productNameA: 'syn-aldol',
+    productNameB: 'anti-aldol',
+    measure: 'dr',
+    assayMethod: 'nmr',
+    defaultUncertainty: 0.03,
+    status: 'active',
+    notes: 'Invented demo data. dr from ¹H NMR integrals of the crude mixture at five temperatures; a diastereomer pair, so dr, % de and % major, not ee.',
+    points: drScreen({ prefix: 'KL7702-K', temperaturesC: [20, 0, -20, -40, -78], truth: kitePyrDr, seed: 4711, noiseSd: 0.03, uncertainty: 0.03 }),
   },
 ];

@@ -1,6 +1,6 @@
 import type { Knex } from 'knex';
 import { recordAudit } from '../features/audit/service';
-import { toKelvin } from '../features/campaigns/schemas';
+import { toKelvin, toSeconds } from '../science/quantities';
 import { DEMO_CAMPAIGN_PROJECT_ID, DEMO_CAMPAIGNS } from './demo-campaigns';
 import { DEMO_PROJECTS } from './demo';
 
@@ -25,7 +25,7 @@ export async function seedDemoCampaigns(trx: Knex.Transaction): Promise<number> 
       reactionDescription: c.reactionDescription,
       productNameA: c.productNameA,
       productNameB: c.productNameB,
-      measure: 'ee',
+      measure: c.measure ?? 'ee',
       assayMethod: c.assayMethod,
       defaultUncertainty: c.defaultUncertainty,
       status: c.status,
@@ -36,14 +36,14 @@ export async function seedDemoCampaigns(trx: Knex.Transaction): Promise<number> 
       c.points.map((p) => ({
         campaignId: c.id,
         temperatureK: toKelvin(p.temperatureC, 'C'),
-        measure: 'ee',
-        value: p.eePercent,
+        measure: c.measure ?? 'ee',
+        value: c.measure === 'dr' ? p.dr! : p.eePercent,
         isLowerBound: p.isLowerBound,
         uncertainty: p.uncertainty,
         replicateLabel: p.replicateLabel,
         sampleId: p.sampleId,
         conversionPercent: p.conversionPercent,
-        reactionTimeS: p.reactionTimeH * 3600,
+        reactionTimeS: toSeconds(p.reactionTimeH, 'h'),
         notes: p.notes,
         createdByUserId: authorId,
       })),

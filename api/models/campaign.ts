@@ -30,7 +30,7 @@ export class Campaign extends objection.Model {
   declare measurements?: Measurement[];
   declare savedForecasts?: SavedForecast[];
 
-  // Join columns are camelCase because knexSnakeCaseMappers maps identifiers (STACK.md).
+  // Join columns are camelCase because knexSnakeCaseMappers converts identifiers to snake_case on the way to SQL.
   static override relationMappings = () => ({
     measurements: {
       relation: objection.Model.HasManyRelation,

@@ -1,6 +1,6 @@
 /**
  * Product distribution over N ≥ 2 competing pathways under kinetic control with rapidly
- * equilibrating precursors (Curtin–Hammett; DOMAIN §5):
+ * equilibrating precursors (Curtin–Hammett; api/science/README.md §5):
  *   pᵢ = exp(−G‡ᵢ/RT) / Σⱼ exp(−G‡ⱼ/RT),
  * evaluated with log-sum-exp (subtract the largest exponent) so no term overflows.
  * With diastereomer groups of enantiomer pairs: dr = Σ p(group 1)/Σ p(group 2), and within a
@@ -57,7 +57,7 @@ function logSumExp(values: number[]): number {
 
 /**
  * Percent of each product over `temperaturesK` (Boltzmann weighting over transition states,
- * DOMAIN §5), optionally mapped to diastereomer groups with dr and per-group ee.
+ * api/science/README.md §5), optionally mapped to diastereomer groups with dr and per-group ee.
  */
 export function productDistribution(pathways: readonly Pathway[], temperaturesK: readonly number[]): ProductDistribution {
   if (!Array.isArray(pathways) || pathways.length < 2) {

@@ -1,5 +1,5 @@
 /**
- * Loss of stereochemical purity after the reaction (DOMAIN §7).
+ * Loss of stereochemical purity after the reaction (api/science/README.md §7).
  *
  * Racemization R ⇌ S with one-way rate constant k_e (Eyring, from the barrier):
  *   d(ee)/dt = −2k_e·ee  ⇒  ee(t) = ee₀·exp(−2k_e t),  ee half-life t½ = ln2/(2k_e).
@@ -162,8 +162,8 @@ export function epimerizationRates(
 export const ATROPISOMER_CLASS_TEMPERATURE_K = 310.15;
 
 /**
- * Atropisomer class by the rotation barrier at 37 °C (DOMAIN §7; LaPlante et al., J. Med. Chem.
- * 2011, 54, 7005, recalled from memory [M]): class 1 below 20 kcal/mol (interconverts in minutes
+ * Atropisomer class by the rotation barrier at 37 °C (api/science/README.md §7; LaPlante et al.,
+ * J. Med. Chem. 2011, 54, 7005): class 1 below 20 kcal/mol (interconverts in minutes
  * or less), class 2 from 20 to below 30 kcal/mol (minutes to years), class 3 at 30 kcal/mol or
  * more (stable for years). The half-life reported is the ee half-life ln2/(2k_e).
  */
@@ -194,6 +194,7 @@ export function atropisomerClass(barrier: BarrierSpec): {
     eeHalfLifeS: eeHalfLifeS(eyringRateConstant(g, t)),
     description,
     definition: 'Half-life shown is the ee half-life, t½ = ln 2/(2k_e), with k_e the one-way Eyring rate constant at 37 °C.',
-    source: 'Classes after LaPlante et al., J. Med. Chem. 2011, 54, 7005 (boundaries 20 and 30 kcal/mol at 37 °C).',
+    source:
+      'LaPlante, S. R.; Fader, L. D.; Fandrick, K. R.; et al. Assessing atropisomer axial chirality in drug discovery and development. J. Med. Chem. 2011, 54, 7005 (class boundaries 20 and 30 kcal/mol at 37 °C).',
   };
 }

@@ -1,5 +1,5 @@
 /**
- * Differential Eyring analysis of a temperature screen (DOMAIN §3).
+ * Differential Eyring analysis of a temperature screen (api/science/README.md §3).
  *
  * Regress y = ln r on x = 1/T: y = a + b·x, so ΔΔH‡ = R·b and ΔΔS‡ = −R·a
  * (from ln r = ΔΔH‡/RT − ΔΔS‡/R). The covariance of (a, b) is kept and used for every derived
@@ -170,7 +170,7 @@ export interface EyringFit {
   zeroSelectivityInterval: ZeroSelectivityInterval | null;
   /** T₀ lies outside both the screened and the requested temperatures. */
   zeroSelectivityFar: boolean;
-  /** False with fewer than 3 distinct temperatures (DOMAIN §3). */
+  /** False with fewer than 3 distinct temperatures (api/science/README.md §3). */
   intervalsAvailable: boolean;
   /** How ΔΔH‡, ΔΔS‡ and the predictions were estimated. */
   estimator: 'least-squares' | 'censored-ml';
@@ -210,7 +210,7 @@ export interface ZeroSelectivityInterval {
 
 /** Default censoring limit in ee percent: the usual quantitation limit of chiral chromatography [CP]. */
 export const DEFAULT_CENSOR_EE_PERCENT = 99.8;
-/** Default span under which a screen is called narrow [CP, DOMAIN §8]. */
+/** Default span under which a screen is called narrow [CP, api/science/README.md §8]. */
 export const DEFAULT_NARROW_SPAN_K = 40;
 
 const sameTemperature = (a: number, b: number) => Math.abs(a - b) <= 1e-6;
@@ -410,7 +410,7 @@ function zeroSelectivitySet(model: LineModel, q: number): ZeroSelectivityInterva
 }
 
 /**
- * Differential Eyring fit (DOMAIN §3): ln r = a + b/T by OLS or WLS; ΔΔH‡ = R·b, ΔΔS‡ = −R·a,
+ * Differential Eyring fit (api/science/README.md §3): ln r = a + b/T by OLS or WLS; ΔΔH‡ = R·b, ΔΔS‡ = −R·a,
  * SE(ΔΔH‡) = R·SE(b), SE(ΔΔS‡) = R·SE(a), Cov(ΔΔH‡, ΔΔS‡) = −R²·Cov(a, b), CI = estimate ± t·SE.
  *
  * Rules: fewer than 2 distinct fitted temperatures → DomainError 'too-few-temperatures';
@@ -740,7 +740,7 @@ function extrapolationWarning(fit: EyringFit, count: number): Warning {
 }
 
 /**
- * ΔΔG‡(T) = ΔΔH‡ − T·ΔΔS‡ = RT·ŷ(1/T), SE = RT·SE_mean(ŷ at 1/T) from the full covariance (DOMAIN §3).
+ * ΔΔG‡(T) = ΔΔH‡ − T·ΔΔS‡ = RT·ŷ(1/T), SE = RT·SE_mean(ŷ at 1/T) from the full covariance (api/science/README.md §3).
  */
 export function ddGAtTemperature(
   fit: EyringFit,

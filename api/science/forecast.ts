@@ -1,6 +1,6 @@
 /**
  * Selectivity forecast over temperature from a two-parameter model of the energy gap
- * (DOMAIN §1): ΔΔG‡(T) = ΔΔH‡ − T·ΔΔS‡, r = exp(ΔΔG‡/RT), constant ΔΔH‡ and ΔΔS‡.
+ * (api/science/README.md §1): ΔΔG‡(T) = ΔΔH‡ − T·ΔΔS‡, r = exp(ΔΔG‡/RT), constant ΔΔH‡ and ΔΔS‡.
  */
 import { GAS_CONSTANT_J_PER_MOL_K as R } from './constants';
 import { DomainError, requireFinite, requireTemperatureK } from './errors';
@@ -37,7 +37,7 @@ export interface SelectivityForecast {
 export const MAX_TEMPERATURE_COUNT = 5000;
 
 /**
- * Zero-selectivity temperature T₀ = ΔΔH‡/ΔΔS‡ (DOMAIN §4): where ΔΔG‡(T₀) = 0 and the preferred
+ * Zero-selectivity temperature T₀ = ΔΔH‡/ΔΔS‡ (api/science/README.md §4): where ΔΔG‡(T₀) = 0 and the preferred
  * isomer inverts. Null unless ΔΔH‡ and ΔΔS‡ are non-zero with the same sign.
  */
 export function zeroSelectivityTemperatureK(ddHJPerMol: number, ddSJPerMolK: number): number | null {
@@ -71,7 +71,7 @@ export function forecastPoint(ddHJPerMol: number, ddSJPerMolK: number, temperatu
 /**
  * Forecast r, ee, %A and ΔΔG‡ over `temperaturesK` from (a) ΔΔH‡ + ΔΔS‡, (b) ΔΔG‡ at one T
  * (ΔΔH‡ = ΔΔG‡ + T·ΔΔS‡, ΔΔS‡ given or 0) or (c) an observed selectivity at one T
- * (ΔΔG‡ = RT·ln r, then as (b)). Equations: DOMAIN §1 (Eyring, constant activation parameters).
+ * (ΔΔG‡ = RT·ln r, then as (b)). Equations: api/science/README.md §1 (Eyring, constant activation parameters).
  */
 export function forecastSelectivity(basis: ForecastBasis, temperaturesK: readonly number[]): SelectivityForecast {
   const assumptions: string[] = [];

@@ -1,5 +1,5 @@
 /**
- * Rates from barriers and from measured runs (DOMAIN §6).
+ * Rates from barriers and from measured runs (api/science/README.md §6).
  *
  * Eyring–Polanyi: k = κ·(k_B·T/h)·exp(−ΔG‡/RT) = κ·(k_B·T/h)·exp(ΔS‡/R)·exp(−ΔH‡/RT)
  * (Eyring, J. Chem. Phys. 1935, 3, 107), κ = 1 by default; for bimolecular steps k is in
@@ -43,7 +43,7 @@ function requireRate(k: number, field: string): number {
 }
 
 /**
- * Eyring–Polanyi rate constant k = κ(k_B T/h)·exp(−ΔG‡/RT) (DOMAIN §6).
+ * Eyring–Polanyi rate constant k = κ(k_B T/h)·exp(−ΔG‡/RT) (api/science/README.md §6).
  * Throws `result-out-of-range` if k under- or overflows.
  */
 export function eyringRateConstant(gJPerMol: number, temperatureK: number, kappa = 1): number {
@@ -76,7 +76,7 @@ export function gibbsBarrierFromRateConstant(k: number, temperatureK: number, ka
   return R * temperatureK * Math.log((kappa * BOLTZMANN_OVER_PLANCK_PER_K_S * temperatureK) / k);
 }
 
-/** Arrhenius activation energy from ΔH‡ for a unimolecular step in solution: Ea = ΔH‡ + RT (DOMAIN §6). */
+/** Arrhenius activation energy from ΔH‡ for a unimolecular step in solution: Ea = ΔH‡ + RT (api/science/README.md §6). */
 export function arrheniusEa(hJPerMol: number, temperatureK: number): number {
   requireFinite(hJPerMol, 'hJPerMol');
   requireTemperatureK(temperatureK, 'temperatureK');
@@ -121,7 +121,7 @@ function requireConversion(x: number, field: string): number {
 }
 
 /**
- * Rate constant from one run (DOMAIN §6): first/pseudo-first order k_obs = −ln(1 − X)/t
+ * Rate constant from one run (api/science/README.md §6): first/pseudo-first order k_obs = −ln(1 − X)/t
  * (pseudo-first k = k_obs/[B]₀); second order, equal c₀: k = X/[t·c₀·(1 − X)].
  */
 export function rateConstantFromRun(

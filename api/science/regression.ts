@@ -280,7 +280,7 @@ export interface PredictOptions {
 }
 
 /**
- * Mean-line and new-observation prediction at x₀ using the full covariance (DOMAIN §3):
+ * Mean-line and new-observation prediction at x₀ using the full covariance (api/science/README.md §3):
  *   ŷ₀ = ȳ + b(x₀ − x̄),  Var(ŷ₀) = c[1/Σw + (x₀ − x̄)²/Sxx] = Var(a) + 2x₀Cov(a, b) + x₀²Var(b),
  *   SE_new² = c·σ₀² + Var(ŷ₀)  (OLS: s² + Var(ŷ₀)),
  * interval ŷ₀ ± q·SE with q = t((1 + level)/2, n − 2) (normal quantile when σ is absolute).

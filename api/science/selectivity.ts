@@ -1,17 +1,17 @@
 /**
  * Conversions between the ways chemists write a stereoselectivity, and the free-energy gap.
  *
- * Sign convention (DOMAIN §1): r = [A]/[B]; ΔΔG‡ = G‡(TS→B) − G‡(TS→A), so ΔΔG‡ > 0 favours A.
+ * Sign convention (api/science/README.md §1): r = [A]/[B]; ΔΔG‡ = G‡(TS→B) − G‡(TS→A), so ΔΔG‡ > 0 favours A.
  *   r = exp(ΔΔG‡/RT),  ee = (r − 1)/(r + 1) = tanh(ΔΔG‡/2RT),  %A = 100·r/(1 + r).
  * These follow from transition-state theory for two competing pathways from a common
  * (or rapidly equilibrating) precursor, Curtin–Hammett conditions.
  */
 import { GAS_CONSTANT_J_PER_MOL_K as R } from './constants';
 import { DomainError, requireFinite, requireFiniteResult, requireTemperatureK } from './errors';
+import { parseRatioPair, readDecimal, SELECTIVITY_MEASURES, type SelectivityMeasure } from './quantities';
 
-/** The measures a user can report a selectivity in. */
-export const SELECTIVITY_MEASURES = ['ee', 'er', 'dr', 'percentA', 'ratio'] as const;
-export type SelectivityMeasure = (typeof SELECTIVITY_MEASURES)[number];
+/** The measures a user can report a selectivity in (defined with the shared grammar in quantities.ts). */
+export { SELECTIVITY_MEASURES, type SelectivityMeasure };
 
 /**
  * A reported selectivity. `ee` is signed percent (A positive); `percentA` is the percentage of A;
@@ -28,7 +28,7 @@ export interface RatioPair {
   b: number;
 }
 
-/** The convention string shown beside any ΔΔH‡/ΔΔS‡/ΔΔG‡ value (DOMAIN §1). */
+/** The convention string shown beside any ΔΔH‡/ΔΔS‡/ΔΔG‡ value (api/science/README.md §1). */
 export const SIGN_CONVENTION = 'ΔΔX‡ = X‡(TS→B) − X‡(TS→A); positive values favour A (the numerator of r = [A]/[B])';
 
 function requireRatio(r: number, field: string): number {
@@ -38,7 +38,7 @@ function requireRatio(r: number, field: string): number {
 }
 
 /**
- * Ratio from the free-energy gap: r = exp(ΔΔG‡/RT) (Eyring, DOMAIN §1).
+ * Ratio from the free-energy gap: r = exp(ΔΔG‡/RT) (Eyring, api/science/README.md §1).
  * Throws `result-out-of-range` if r would overflow or underflow to 0.
  */
 export function ratioFromDdG(ddGJPerMol: number, temperatureK: number): number {
@@ -49,7 +49,7 @@ export function ratioFromDdG(ddGJPerMol: number, temperatureK: number): number {
   return requireFiniteResult(r, 'ratio', 'ddGJPerMol');
 }
 
-/** Free-energy gap from a ratio: ΔΔG‡ = RT·ln r (DOMAIN §1). */
+/** Free-energy gap from a ratio: ΔΔG‡ = RT·ln r (api/science/README.md §1). */
 export function ddGFromRatio(ratio: number, temperatureK: number): number {
   requireRatio(ratio, 'ratio');
   requireTemperatureK(temperatureK, 'temperatureK');
@@ -62,7 +62,7 @@ export function eeFromRatio(ratio: number): number {
   return 100 * Math.tanh(Math.log(ratio) / 2);
 }
 
-/** Signed ee in percent from the gap: ee = tanh(ΔΔG‡/2RT) (DOMAIN §1). Never reaches ±100 exactly except by rounding. */
+/** Signed ee in percent from the gap: ee = tanh(ΔΔG‡/2RT) (api/science/README.md §1). Never reaches ±100 exactly except by rounding. */
 export function eeFromDdG(ddGJPerMol: number, temperatureK: number): number {
   requireFinite(ddGJPerMol, 'ddGJPerMol');
   requireTemperatureK(temperatureK, 'temperatureK');
@@ -93,7 +93,7 @@ export function ratioFromEe(eePercent: number, field = 'ee'): number {
   return Math.exp(lnRatioFromEe(eePercent, field));
 }
 
-/** Free-energy gap from signed ee: ΔΔG‡ = 2RT·artanh(ee) (DOMAIN §1). */
+/** Free-energy gap from signed ee: ΔΔG‡ = 2RT·artanh(ee) (api/science/README.md §1). */
 export function ddGFromEe(eePercent: number, temperatureK: number): number {
   requireTemperatureK(temperatureK, 'temperatureK');
   return R * temperatureK * lnRatioFromEe(eePercent);
@@ -142,19 +142,17 @@ export function drFromRatio(ratio: number): RatioPair {
   return { a: ratio, b: 1 };
 }
 
-const PAIR_PATTERN = /^\s*([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)\s*:\s*([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)\s*$/;
-
 function parsePair(text: string, field: string): number {
-  const m = PAIR_PATTERN.exec(text);
-  if (!m) throw new DomainError('bad-ratio-string', `${field} must look like "a:b", e.g. "95:5"`, field);
-  return ratioFromEr(Number(m[1]), Number(m[2]), field);
+  const pair = parseRatioPair(text);
+  if (!pair) throw new DomainError('bad-ratio-string', `${field} must look like "a:b", e.g. "95:5"`, field);
+  return ratioFromEr(pair.a, pair.b, field);
 }
 
+/** A number, or a string that is a strict decimal (no "0x10", "0b1", "0o7", "Infinity"). */
 function parseNumber(value: number | string, field: string, pairAllowed = false): number {
   if (typeof value === 'number') return requireFinite(value, field);
-  const text = value.trim();
-  const n = text === '' ? Number.NaN : Number(text);
-  if (!Number.isFinite(n)) {
+  const n = readDecimal(value, '.');
+  if (n === null || !Number.isFinite(n)) {
     if (pairAllowed) throw new DomainError('bad-ratio-string', `${field} must be a number or look like "a:b", e.g. "95:5"`, field);
     throw new DomainError('not-finite', `${field} must be a number`, field);
   }
@@ -168,7 +166,7 @@ function parseNumber(value: number | string, field: string, pairAllowed = false)
  * - `percentA`: 0 < p < 100 → r = p/(100 − p)
  * - `er`, `dr`, `ratio`: "a:b" → a/b; a number is r itself (er 19 ≡ 95:5, dr 12 ≡ 12:1)
  *
- * Numeric strings are accepted for numeric forms. Errors carry `field` = `${fieldPath}.value`.
+ * Numeric strings are accepted for numeric forms when they are strict decimals. Errors carry `field` = `${fieldPath}.value`.
  * Codes: not-finite, ee-out-of-range, ee-at-limit, percent-a-out-of-range, percent-a-at-limit,
  * zero-minor-component, bad-ratio-string, ratio-not-positive, unknown-measure.
  */
@@ -191,7 +189,7 @@ export function parseSelectivity(input: SelectivityInput, fieldPath = 'selectivi
 }
 
 /**
- * Standard deviation of ln r propagated from the uncertainty of the reported measure (DOMAIN §3,
+ * Standard deviation of ln r propagated from the uncertainty of the reported measure (api/science/README.md §3,
  * first-order error propagation):
  * - `ee` (σ in ee percentage points): σ(ln r) = 2σ_ee/(1 − ee²), ee and σ as fractions;
  * - `percentA`, and `er` (σ in points of the A share of 100, whichever way er is written): σ(ln r) = σ_p/[p(1 − p)];

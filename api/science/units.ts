@@ -1,5 +1,6 @@
 import { CELSIUS_OFFSET_K, THERMOCHEMICAL_CALORIE_J } from './constants';
 import { DomainError, requireFinite, requireTemperatureK } from './errors';
+import { TEMPERATURE_UNITS, type TemperatureUnit } from './quantities';
 
 /** Molar energy units accepted at the boundary (ASCII spelling). */
 export const ENERGY_UNITS = ['J/mol', 'kJ/mol', 'cal/mol', 'kcal/mol'] as const;
@@ -9,9 +10,8 @@ export type EnergyUnit = (typeof ENERGY_UNITS)[number];
 export const ENTROPY_UNITS = ['J/(mol*K)', 'cal/(mol*K)'] as const;
 export type EntropyUnit = (typeof ENTROPY_UNITS)[number];
 
-/** Temperature units: kelvin, degree Celsius, degree Fahrenheit. */
-export const TEMPERATURE_UNITS = ['K', 'C', 'F'] as const;
-export type TemperatureUnit = (typeof TEMPERATURE_UNITS)[number];
+/** Temperature units: kelvin, degree Celsius, degree Fahrenheit (defined in quantities.ts). */
+export { TEMPERATURE_UNITS, type TemperatureUnit };
 
 const ENERGY_FACTOR_J: Record<EnergyUnit, number> = {
   'J/mol': 1,

@@ -9,6 +9,7 @@
  */
 import '../../api/db/pg-types';
 import { parse as parseCsv } from 'csv-parse/sync';
+import { kelvinFromCelsius } from '../../api/science/quantities';
 import type { Knex } from 'knex';
 import { performance } from 'node:perf_hooks';
 import { randomUUID } from 'node:crypto';
@@ -69,7 +70,7 @@ async function rawImport(knex: Knex, campaignId: string, buffer: Buffer): Promis
   const cols = { campaignId: [] as string[], t: [] as number[], v: [] as number[], u: [] as number[], s: [] as string[], r: [] as string[], c: [] as number[], h: [] as number[] };
   for (const rec of records) {
     cols.campaignId.push(campaignId);
-    cols.t.push(Number(rec[2]) + 273.15);
+    cols.t.push(kelvinFromCelsius(Number(rec[2])));
     cols.v.push(Number(rec[3]));
     cols.u.push(Number(rec[4]));
     cols.s.push(rec[0]);

@@ -396,7 +396,7 @@ describe('analysis', () => {
     );
     expect(a.fit.ddH).toEqual(reference.ddH);
     expect(a.fit.predictions).toEqual(reference.predictions);
-    // ln r ± σ(ln r) with σ(ln r) = 2σ_ee/(1 − ee²) [S: DOMAIN.md §3 error propagation].
+    // ln r ± σ(ln r) with σ(ln r) = 2σ_ee/(1 − ee²) [S: api/science/README.md §3 error propagation].
     const p0 = a.points[0];
     const ee = runs[0]!.ee / 100;
     expect(p0.lnRatioHigh - p0.lnRatio).toBeCloseTo((2 * 0.003) / (1 - ee * ee), 10);
@@ -582,5 +582,50 @@ describe('project comparison', () => {
     expect(cmp.campaigns[1]!.ddH!['kJ/mol']).toBeCloseTo(12, 0);
     expect(cmp.campaigns[1]!.n).toBe(2);
     expect((await as('viewer').get(`/api/v1/projects/${p.id}/comparison?at=-274`)).status).toBe(400);
+  });
+});
+
+describe('one grammar for selectivities on every entry point', () => {
+  const fitBody = (selectivity: object) => ({
+    measurements: [
+      { temperature: C(-20), selectivity: { measure: 'ee', value: 95 } },
+      { temperature: C(0), selectivity: { measure: 'ee', value: 92 } },
+      { temperature: C(20), selectivity },
+    ],
+  });
+  const forecastBody = (selectivity: object) => ({ basis: { kind: 'observed', selectivity, temperature: C(0) }, temperatures: { values: [C(-10)] } });
+  const runBody = (selectivity: object) => ({ temperature: C(20), selectivity });
+
+  async function statuses(selectivity: object) {
+    const c = await newCampaign({ measure: (selectivity as { measure: string }).measure });
+    const fit = await request(env.app).post('/api/v1/fit').send(fitBody(selectivity));
+    const forecast = await request(env.app).post('/api/v1/forecast').send(forecastBody(selectivity));
+    const run = await as('editor').post(`/api/v1/campaigns/${c.id}/measurements`).send(runBody(selectivity));
+    return { fit: fit.status, forecast: forecast.status, run: run.status, paths: [fit, forecast, run].map((r) => r.body.errors?.[0]?.path ?? null) };
+  }
+
+  it('when ee is 100, then /fit, /forecast and a campaign run all answer 400 naming the value', async () => {
+    const s = await statuses({ measure: 'ee', value: 100 });
+    expect([s.fit, s.forecast, s.run]).toEqual([400, 400, 400]);
+    expect(s.paths).toEqual(['measurements.2.selectivity.value', 'basis.selectivity.value', 'selectivity.value']);
+  });
+
+  it('when a ratio is written ".5:1", then every entry point reads it as 0.5', async () => {
+    const s = await statuses({ measure: 'ratio', value: '.5:1' });
+    expect([s.fit, s.forecast, s.run]).toEqual([200, 200, 201]);
+  });
+
+  it.each(['0x10', '0b1', '0o7', '1e2:1', '-1:2'])('when a dr string is "%s", then every entry point answers 400', async (value) => {
+    const s = await statuses({ measure: 'dr', value });
+    expect([s.fit, s.forecast, s.run]).toEqual([400, 400, 400]);
+  });
+
+  it('when a calculator run is a bound ("≥ 99.8"), then /fit censors it as the campaign analysis does', async () => {
+    const body = fitBody({ measure: 'ee', value: 99.8, atLeast: true });
+    body.measurements[2]!.temperature = C(-60);
+    const fit = await request(env.app).post('/api/v1/fit').send(body).expect(200);
+    const bound = fit.body.residuals.find((r: { index: number }) => r.index === 2);
+    expect(bound.status).toBe('censored');
+    expect(fit.body.residuals.filter((r: { status: string }) => r.status === 'fitted')).toHaveLength(2);
   });
 });

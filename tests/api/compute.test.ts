@@ -25,7 +25,7 @@ describe('POST /api/v1/forecast', () => {
       })
       .expect(200);
     const [p] = res.body.points;
-    // [C] DOMAIN.md §10: 1.000 kcal/mol → r = 5.408, ee = 68.79 % at 298.15 K.
+    // [C] api/science/README.md §10: 1.000 kcal/mol → r = 5.408, ee = 68.79 % at 298.15 K.
     expect(p.ratio).toBeCloseTo(5.408, 3);
     expect(p.eePercent).toBeCloseTo(68.79, 2);
     expect(p.ddG['kJ/mol']).toBeCloseTo(4.184, 9);
@@ -46,7 +46,7 @@ describe('POST /api/v1/forecast', () => {
       .expect(200);
     const pts = res.body.points;
     expect(pts).toHaveLength(14);
-    // [C] DOMAIN.md §10: ee 90 % needs 1.745 kcal/mol at 298.15 K.
+    // [C] api/science/README.md §10: ee 90 % needs 1.745 kcal/mol at 298.15 K.
     expect(pts[13].ddG['kcal/mol']).toBeCloseTo(1.745, 3);
     expect(pts[13].eePercent).toBeCloseTo(90, 9);
     for (let i = 1; i < pts.length; i++) expect(pts[i].eePercent).toBeLessThan(pts[i - 1].eePercent);
@@ -61,7 +61,7 @@ describe('POST /api/v1/forecast', () => {
         temperatures: { values: [{ value: 400, unit: 'K' }] },
       })
       .expect(200);
-    // [C] T₀ = 12000 / 30 = 400 K, where r = 1 (DOMAIN.md §4).
+    // [C] T₀ = 12000 / 30 = 400 K, where r = 1 (api/science/README.md §4).
     expect(res.body.zeroSelectivity.kelvin).toBeCloseTo(400, 9);
     expect(res.body.points[0].ratio).toBeCloseTo(1, 12);
   });
@@ -83,8 +83,8 @@ describe('POST /api/v1/forecast', () => {
     ['an unknown energy unit', { basis: { kind: 'gap', ddG: { value: 1, unit: 'eV' }, temperature: C(0) }, temperatures: { values: [C(0)] } }, 400, 'basis.ddG.unit'],
     ['a temperature below absolute zero', { basis: { kind: 'gap', ddG: { value: 1, unit: 'kJ/mol' }, temperature: C(-300) }, temperatures: { values: [C(0)] } }, 422, 'basis.temperature.value'],
     ['0 K in the list', { basis: { kind: 'gap', ddG: { value: 1, unit: 'kJ/mol' }, temperature: C(0) }, temperatures: { values: [C(0), { value: 0, unit: 'K' }] } }, 422, 'temperatures.values.1.value'],
-    ['ee above 100', { basis: { kind: 'observed', selectivity: { measure: 'ee', value: 101 }, temperature: C(0) }, temperatures: { values: [C(0)] } }, 422, 'basis.selectivity.value'],
-    ['a ratio of zero', { basis: { kind: 'observed', selectivity: { measure: 'ratio', value: 0 }, temperature: C(0) }, temperatures: { values: [C(0)] } }, 422, 'basis.selectivity.value'],
+    ['ee above 100', { basis: { kind: 'observed', selectivity: { measure: 'ee', value: 101 }, temperature: C(0) }, temperatures: { values: [C(0)] } }, 400, 'basis.selectivity.value'],
+    ['a ratio of zero', { basis: { kind: 'observed', selectivity: { measure: 'ratio', value: 0 }, temperature: C(0) }, temperatures: { values: [C(0)] } }, 400, 'basis.selectivity.value'],
     ['"NaN" as a number', { basis: { kind: 'gap', ddG: { value: 'NaN', unit: 'kJ/mol' }, temperature: C(0) }, temperatures: { values: [C(0)] } }, 400, 'basis.ddG.value'],
     ['over 5000 temperatures', { basis: { kind: 'gap', ddG: { value: 1, unit: 'kJ/mol' }, temperature: C(0) }, temperatures: { from: C(0), to: C(10), count: 5001 } }, 400, 'temperatures'],
   ])('when the body has %s, then the answer is %i naming %s', async (_what, body, status, path) => {
@@ -130,7 +130,7 @@ describe('POST /api/v1/fit', () => {
     relClose(res.body.ddH.se['kJ/mol'], (R * seSlope) / 1000, 1e-8);
     const t = jStat.studentt.inv(0.975, n - 2);
     relClose(res.body.ddH.ci['kJ/mol'][1], (R * (ref.slope + t * seSlope)) / 1000, 1e-6);
-    // Prediction interval for a new run at −30 °C: ŷ ± t·s·√(1 + 1/n + (x₀ − x̄)²/Sxx) (DOMAIN.md §3 [S]).
+    // Prediction interval for a new run at −30 °C: ŷ ± t·s·√(1 + 1/n + (x₀ − x̄)²/Sxx) (api/science/README.md §3 [S]).
     const x0 = 1 / 243.15;
     const y0 = ref.predict(x0);
     const half = t * Math.sqrt(s2 * (1 + 1 / n + (x0 - xm) ** 2 / sxx));
@@ -184,7 +184,7 @@ describe('POST /api/v1/fit', () => {
         weighting: 'uncertainty',
       })
       .expect(200);
-    // Reference WLS by hand: w = 1/σ(ln r)², σ(ln r) = 2σ_ee/(1 − ee²) (DOMAIN.md §3 [S]).
+    // Reference WLS by hand: w = 1/σ(ln r)², σ(ln r) = 2σ_ee/(1 − ee²) (api/science/README.md §3 [S]).
     const pts = screen.map(([t, ee], i) => {
       const e = ee / 100;
       const s = (2 * ((i === 0 ? 2 : 0.3) / 100)) / (1 - e * e);
@@ -202,7 +202,7 @@ describe('POST /api/v1/fit', () => {
     const { app } = testApp();
     const body = screenBody();
     body.measurements[3]!.selectivity = { measure: 'ee', value: 100 };
-    const res = await request(app).post('/api/v1/fit').send(body).expect(422);
+    const res = await request(app).post('/api/v1/fit').send(body).expect(400); // the same status as a campaign run with ee = 100 (one check in api/science/quantities.ts)
     expect(res.body.errors[0].path).toBe('measurements.3.selectivity.value');
   });
 

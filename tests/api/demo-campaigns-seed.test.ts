@@ -22,7 +22,7 @@ async function admin(sql: string) {
 afterAll(() => admin(`drop database if exists "${dbName}"`));
 
 describe('demo campaigns seed', () => {
-  it('when seeded twice, then the three invented screens exist once, with their break and censored points, and a user edit survives', async () => {
+  it('when seeded twice, then the four invented screens exist once, with their break and censored points, and a user edit survives', async () => {
     await admin(`drop database if exists "${dbName}"`);
     await admin(`create database "${dbName}"`);
     const url = new URL(baseUrl);
@@ -35,7 +35,7 @@ describe('demo campaigns seed', () => {
       expect(campaigns.map((c) => c.title).sort()).toEqual(DEMO_CAMPAIGNS.map((c) => c.title).sort());
       const counts = async () =>
         Object.fromEntries((await knex('measurements').groupBy('campaignId').select('campaignId', knex.raw('count(*)::int as n'))).map((r) => [r.campaignId, r.n]));
-      expect(await counts()).toEqual({ [DEMO_CAMPAIGNS[0].id]: 12, [DEMO_CAMPAIGNS[1].id]: 9, [DEMO_CAMPAIGNS[2].id]: 10 });
+      expect(await counts()).toEqual({ [DEMO_CAMPAIGNS[0].id]: 12, [DEMO_CAMPAIGNS[1].id]: 9, [DEMO_CAMPAIGNS[2].id]: 10, [DEMO_CAMPAIGNS[3].id]: 5 });
 
       // The low-temperature screen carries ≥ 99.8 % ee lower bounds at −60 °C only.
       const bounds = await knex('measurements').where({ campaignId: DEMO_CAMPAIGNS[2].id, isLowerBound: true }).select('temperatureK', 'value');
@@ -49,12 +49,19 @@ describe('demo campaigns seed', () => {
       expect(best.temperatureK).toBeGreaterThan(merlin[0].temperatureK);
       expect(best.temperatureK).toBeLessThan(merlin[merlin.length - 1].temperatureK);
 
+      // The dr screen is stored as dr (r:1), rising on cooling.
+      const dr = await knex('campaigns').where({ id: DEMO_CAMPAIGNS[3].id }).first('measure');
+      expect(dr.measure).toBe('dr');
+      const drRuns = await knex('measurements').where({ campaignId: DEMO_CAMPAIGNS[3].id }).orderBy('temperatureK').select('measure', 'value');
+      expect(drRuns.every((r) => r.measure === 'dr')).toBe(true);
+      expect(drRuns[0].value).toBeGreaterThan(drRuns[drRuns.length - 1].value);
+
       // Someone removes a point; seeding again neither restores it nor duplicates anything.
       const victim = await knex('measurements').where({ campaignId: DEMO_CAMPAIGNS[0].id }).first('id');
       await knex('measurements').where({ id: victim.id }).delete();
       await seedDemo(knex);
-      expect(await counts()).toEqual({ [DEMO_CAMPAIGNS[0].id]: 11, [DEMO_CAMPAIGNS[1].id]: 9, [DEMO_CAMPAIGNS[2].id]: 10 });
-      expect(await knex('audit_events').where({ entityType: 'campaign' }).count({ n: '*' }).first()).toEqual({ n: 3 });
+      expect(await counts()).toEqual({ [DEMO_CAMPAIGNS[0].id]: 11, [DEMO_CAMPAIGNS[1].id]: 9, [DEMO_CAMPAIGNS[2].id]: 10, [DEMO_CAMPAIGNS[3].id]: 5 });
+      expect(await knex('audit_events').where({ entityType: 'campaign' }).count({ n: '*' }).first()).toEqual({ n: 4 });
     } finally {
       await knex.destroy();
     }

@@ -12,7 +12,7 @@ const KB = 1.380649e-23;
 const H = 6.62607015e-34;
 const R = 6.02214076e23 * KB;
 const KCAL = 4184;
-/** Eyring–Polanyi k = (k_B·T/h)·exp(−ΔG‡/RT), κ = 1 (DOMAIN §6). */
+/** Eyring–Polanyi k = (k_B·T/h)·exp(−ΔG‡/RT), κ = 1 (api/science/README.md §6). */
 const eyring = (gJPerMol: number, t: number) => ((KB * t) / H) * Math.exp(-gJPerMol / (R * t));
 
 const K = (value: number) => ({ value, unit: 'K' as const });
@@ -53,7 +53,7 @@ describe('POST /api/v1/distribution', () => {
     const body = distributionResponseSchema.parse(res.body);
     const [at25, atMinus40] = body.points;
     const ratio25 = at25!.percents[0]! / at25!.percents[1]!;
-    // [C] DOMAIN.md §10: ΔΔG‡ = 1.000 kcal/mol → r = 5.408 at 298.15 K.
+    // [C] api/science/README.md §10: ΔΔG‡ = 1.000 kcal/mol → r = 5.408 at 298.15 K.
     expect(ratio25).toBeCloseTo(5.408, 3);
     // [C] r = exp(ΔΔG‡/RT) at 233.15 K with S‡ = 0 (ΔG‡ the same at every temperature).
     relClose(atMinus40!.percents[0]! / atMinus40!.percents[1]!, Math.exp(KCAL / (R * 233.15)));
@@ -93,7 +93,7 @@ describe('POST /api/v1/distribution', () => {
     expect(body.points).toHaveLength(5);
     for (const pt of body.points) {
       const t = pt.kelvin;
-      // [C] DOMAIN.md §5: pᵢ ∝ exp(−(H‡ᵢ − T·S‡ᵢ)/RT); dr = (p₁ + p₁′)/(p₂ + p₂′); ee₁ = (p₁ − p₁′)/(p₁ + p₁′).
+      // [C] api/science/README.md §5: pᵢ ∝ exp(−(H‡ᵢ − T·S‡ᵢ)/RT); dr = (p₁ + p₁′)/(p₂ + p₂′); ee₁ = (p₁ − p₁′)/(p₁ + p₁′).
       const w = barriers.map((b) => Math.exp(-(b.h - t * b.s) / (R * t)));
       const sum = w.reduce((a, b) => a + b, 0);
       pt.percents.forEach((percent, i) => relClose(percent, (100 * w[i]!) / sum));
@@ -152,7 +152,7 @@ describe('POST /api/v1/rate', () => {
     const res = await post('rate', firstOrderBarrier).expect(200);
     const body = rateResponseSchema.parse(res.body);
     const [p] = body.points;
-    // [C] DOMAIN.md §10: Eyring k for ΔG‡ = 15.00 kcal/mol at 298.15 K is 62.83 s⁻¹ (t½ = 11.03 ms).
+    // [C] api/science/README.md §10: Eyring k for ΔG‡ = 15.00 kcal/mol at 298.15 K is 62.83 s⁻¹ (t½ = 11.03 ms).
     expect(p!.k).toBeCloseTo(62.83, 2);
     expect(p!.halfLife.s * 1000).toBeCloseTo(11.03, 2);
     expect(p!.halfLife.unit).toBe('s');
@@ -327,7 +327,7 @@ describe('POST /api/v1/erosion', () => {
     const body = erosionResponseSchema.parse(res.body);
     expect(body.model).toBe('racemization');
     for (const p of body.points) {
-      // [C] DOMAIN.md §6–7: k_e from Eyring (S‡ = 0 so ΔG‡ is the same at every T); ee(t) = ee₀·exp(−2k_e·t).
+      // [C] api/science/README.md §6–7: k_e from Eyring (S‡ = 0 so ΔG‡ is the same at every T); ee(t) = ee₀·exp(−2k_e·t).
       const ke = eyring(25 * KCAL, p.kelvin);
       relClose(p.kePerS, ke);
       relClose(p.kRacPerS!, 2 * ke);
@@ -341,7 +341,8 @@ describe('POST /api/v1/erosion', () => {
     // [M: LaPlante et al., J. Med. Chem. 2011, 54, 7005] 20–30 kcal/mol at 37 °C is class 2.
     expect(body.atropisomerClass.class).toBe(2);
     expect(body.atropisomerClass.kelvin).toBeCloseTo(310.15, 12);
-    expect(body.atropisomerClass.source).toMatch(/^\[M\].*LaPlante/);
+    expect(body.atropisomerClass.source).toMatch(/^LaPlante.*J\. Med\. Chem\. 2011, 54, 7005/); // [S] the published classes, cited in full
+    expect(body.atropisomerClass.source).not.toMatch(/memory|verify/);
     relClose(body.atropisomerClass.eeHalfLife.s, Math.LN2 / (2 * eyring(25 * KCAL, 310.15)));
     expect(body.definitions.join(' ')).toMatch(/k_rac = 2k_e/);
     expect(body.definitions.join(' ')).toMatch(/ln 2\/\(2k_e\)/);
@@ -391,7 +392,7 @@ describe('POST /api/v1/erosion', () => {
     }).expect(200);
     const body = erosionResponseSchema.parse(res.body);
     const [p] = body.points;
-    // [C] DOMAIN.md §7: x_A,eq = 1/(1 + K); excess e(t) = e_eq + (e₀ − e_eq)·exp(−(k_f + k_r)·t), k_r = k_f/K.
+    // [C] api/science/README.md §7: x_A,eq = 1/(1 + K); excess e(t) = e_eq + (e₀ − e_eq)·exp(−(k_f + k_r)·t), k_r = k_f/K.
     const kf = eyring(95_000 + 313.15 * 10, 313.15);
     const lambda = kf * (1 + 1 / 3);
     expect(body.equilibrium!.excessPercent).toBeCloseTo(-50, 12);

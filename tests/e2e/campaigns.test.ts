@@ -273,4 +273,47 @@ describe('campaign pages in Chromium', () => {
     await maybeScreenshot(page, 'campaigns-workbook');
     await signOut(page);
   }, 60_000);
+  it('when a campaign is reported as dr, then the page shows dr, % de and % major diastereomer and never ee', async () => {
+    const { page, baseUrl } = browser;
+    const who = { login: `dr-${Date.now().toString(36)}`, name: 'Dara Diastereomer', email: `dr-${Date.now().toString(36)}@example.test` };
+    const editor = await createUser(who);
+    const project = await createProject([{ user: editor, role: 'editor' }], { name: 'Aldol dr screens (invented)' });
+    const { createCampaign } = await import('../factories/campaigns');
+    const { Measurement } = await import('../../api/models/measurement');
+    const campaign = await createCampaign(project.id, {
+      title: 'Invented aldol: dr against temperature',
+      productNameA: 'syn-aldol',
+      productNameB: 'anti-aldol',
+      measure: 'dr',
+      assayMethod: 'nmr',
+      defaultUncertainty: 0.05,
+    });
+    // Invented runs: ln r = 1500/T − 3.2 with a small fixed zig-zag, dr to one decimal.
+    const runs = [25, 10, 0, -10, -20, -40].map((c, i) => {
+      const temperatureK = c + 273.15;
+      return { campaignId: campaign.id, temperatureK, measure: 'dr' as const, value: Math.round(Math.exp(1500 / temperatureK - 3.2 + (i % 2 ? 0.02 : -0.02)) * 10) / 10 };
+    });
+    await Measurement.query().insert(runs);
+
+    await signInAs(page, baseUrl, who, `/campaigns/${campaign.id}`);
+    const residuals = page.getByRole('region', { name: 'Residual diagnostics' });
+    await expect.poll(() => residuals.textContent(), { timeout: 15_000 }).toMatch(/\d+(\.\d)?:1/);
+    await page.getByLabel('Proposed temperature').fill('-30');
+    await page.getByLabel('Proposed temperature').press('Enter');
+    const box = page.getByRole('region', { name: 'Prediction at the proposed temperature' });
+    await expect.poll(() => box.textContent(), { timeout: 15_000 }).toContain('major diastereomer');
+    const text = (await box.textContent())!;
+    expect(text).toMatch(/\d+(\.\d)?:1/);
+    expect(text).toContain('de');
+    expect(text).not.toMatch(/\bee\b/);
+    expect(await page.getByRole('radio', { name: '% de' }).count()).toBe(1);
+    expect(await page.getByRole('radio', { name: 'ee %' }).count()).toBe(0);
+    await maybeScreenshot(page, 'campaigns-dr');
+    const size = page.viewportSize();
+    await page.setViewportSize({ width: 390, height: 844 });
+    await maybeElementShot(page, 'campaigns-dr-forecast-390', box);
+    await maybeElementShot(page, 'campaigns-dr-residuals-390', residuals);
+    if (size) await page.setViewportSize(size);
+    await signOut(page);
+  }, 60_000);
 });

@@ -3,6 +3,8 @@
  * chosen for the quantity, and uncertainty rounded to two significant figures with
  * the value rounded to the same decimal place.
  */
+import { percentDecimals } from '../../api/science/quantities';
+
 const MINUS = '\u2212';
 
 function withMinus(text: string): string {
@@ -50,12 +52,9 @@ export function sig(value: number, figures = 3): string {
 /**
  * Decimals for a percentage that may approach 100 (ee, % A): one decimal up to 98, two up to
  * 99.8, three beyond, so a value just short of a 99 % specification never rounds onto it.
+ * Shared with the server's formatters (api/science/quantities.ts).
  */
-export function percentDecimals(percent: number): number {
-  const gap = 100 - Math.abs(percent);
-  if (!(gap < 2)) return 1;
-  return gap >= 0.2 ? 2 : 3;
-}
+export { percentDecimals };
 
 export function percent(value: number): string {
   return fixed(value, percentDecimals(value));
@@ -84,4 +83,17 @@ export function enantiomericRatio(percentA: number): string {
 export function signed(value: number, decimals: number): string {
   const text = fixed(value, decimals);
   return value > 0 && !/^0(\.0*)?$/.test(text) ? `+${text}` : text;
+}
+
+/**
+ * ln r of a prediction or interval end. The API sends ln r beside r because r itself is null when it is beyond
+ * what a number can hold (far outside the data); older saved forecasts carry r only.
+ */
+export function lnRatioOf(p: { lnRatio?: number; ratio: number | null }): number {
+  return p.lnRatio ?? Math.log(p.ratio ?? Number.NaN);
+}
+
+/** ln r at both ends of an interval (see lnRatioOf). */
+export function lnRatioRange(iv: { lnRatio?: [number, number]; ratio: [number | null, number | null] }): [number, number] {
+  return iv.lnRatio ?? [Math.log(iv.ratio[0] ?? Number.NaN), Math.log(iv.ratio[1] ?? Number.NaN)];
 }

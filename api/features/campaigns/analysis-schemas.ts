@@ -5,6 +5,7 @@
  */
 import { z } from 'zod';
 import { fitPredictionSchema, fitResponseSchema } from '../compute/schemas';
+import { ABSOLUTE_ZERO } from '../../science/quantities';
 
 export const analysisQuerySchema = z.object({
   weighting: z.enum(['none', 'uncertainty'], { error: 'weighting must be none or uncertainty' }).default('none'),
@@ -17,7 +18,7 @@ export const analysisQuerySchema = z.object({
   at: z.coerce
     .number({ error: 'at must be a temperature in °C' })
     .refine(Number.isFinite, 'at must be a finite number')
-    .gt(-273.15, 'at must lie above absolute zero (−273.15 °C)')
+    .gt(ABSOLUTE_ZERO.C, 'at must lie above absolute zero (−273.15 °C)')
     .max(726.85, 'at must be at most 726.85 °C (1000 K)')
     .optional(),
   newRunUncertainty: z.coerce
@@ -101,7 +102,7 @@ export const comparisonQuerySchema = z.object({
   at: z.coerce
     .number({ error: 'at must be a temperature in °C' })
     .refine(Number.isFinite, 'at must be a finite number')
-    .gt(-273.15, 'at must lie above absolute zero (−273.15 °C)')
+    .gt(ABSOLUTE_ZERO.C, 'at must lie above absolute zero (−273.15 °C)')
     .max(726.85, 'at must be at most 726.85 °C (1000 K)')
     .default(25),
 });

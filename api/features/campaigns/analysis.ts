@@ -19,10 +19,11 @@ import type { FitResponse } from '../compute/schemas';
 import type { AnalysisPoint, AnalysisQuery, AnalysisResponse, ComparisonResponse, SavedForecastView } from './analysis-schemas';
 import { getCampaign, isUuid, saveForecast, type ProjectActor } from './service';
 import { toKelvin, type SavedForecastCreate } from './schemas';
+import { eeFromLnRatio } from '../../science/quantities';
 
 type FitPrediction = FitResponse['predictions'][number];
 
-/** Shown beside every forecast and in every export (DOMAIN §9). */
+/** Shown beside every forecast and in every export (api/science/README.md §9). */
 /** Temperatures in the fitted-line curve, spaced evenly in 1/T. */
 export const CURVE_POINTS = 60;
 /** The curve runs this far beyond the coldest and warmest measured runs (K). */
@@ -183,7 +184,7 @@ export function computeAnalysis(campaign: AnalysedCampaign, measurements: readon
       lnRatio: y,
       lnRatioLow: y - sigma,
       lnRatioHigh: y + sigma,
-      eePercent: 100 * Math.tanh(y / 2),
+      eePercent: eeFromLnRatio(y),
       percentA: 100 / (1 + Math.exp(-y)),
       status,
       flagged: residual ? residual.flags.some((f) => ENGINE_FLAGS.has(f) || f.endsWith('-disagrees')) : false,
@@ -307,7 +308,7 @@ async function forecastViews(db: Knex, campaign: Campaign, forecasts: SavedForec
       .filter((m) => Math.abs(m.temperatureK - f.temperatureK) <= MEASURED_MATCH_K)
       .map((m) => {
         const ratio = parseSelectivity(selectivityOf(m));
-        return { measurementId: m.id, kelvin: m.temperatureK, eePercent: 100 * Math.tanh(Math.log(ratio) / 2), ratio, insidePredictionInterval: insideInterval(result, m, ratio) };
+        return { measurementId: m.id, kelvin: m.temperatureK, eePercent: eeFromLnRatio(Math.log(ratio)), ratio, insidePredictionInterval: insideInterval(result, m, ratio) };
       });
     const creator = f.createdByUserId ? byId.get(f.createdByUserId) : undefined;
     return {

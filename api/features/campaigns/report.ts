@@ -8,6 +8,7 @@ import type { Campaign } from '../../models/campaign';
 import type { Measurement } from '../../models/measurement';
 import type { AnalysisResponse, SavedForecastView } from './analysis-schemas';
 import { SELECTIVITY_CAUTION } from '../../lib/cautions';
+import { fromSeconds } from '../../science/quantities';
 
 export interface ReportData {
   campaign: Campaign;
@@ -205,7 +206,7 @@ export async function buildCampaignReport(data: ReportData, meta: { appVersion: 
         r ? r.flags.filter((f) => !f.startsWith('excluded:')).join(', ') : '',
         p.exclusionReason,
         m.conversionPercent,
-        m.reactionTimeS === null ? null : m.reactionTimeS / 3600,
+        m.reactionTimeS === null ? null : fromSeconds(m.reactionTimeS, 'h'),
         m.notes,
       ];
     }),

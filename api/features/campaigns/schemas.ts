@@ -4,11 +4,20 @@
  * The database repeats the numeric limits as CHECK constraints (migrations/20261201020000_*).
  */
 import { z } from 'zod';
-import { SELECTIVITY_MEASURES, type SelectivityMeasure } from '../../science/selectivity';
-import { TEMPERATURE_UNITS, type TemperatureUnit } from '../../science/units';
+import {
+  parseRatioPair,
+  SELECTIVITY_MEASURES,
+  selectivityProblem,
+  TEMPERATURE_UNIT_LABEL,
+  TEMPERATURE_UNITS,
+  toKelvin,
+  toSeconds,
+  type SelectivityMeasure,
+  type TemperatureUnit,
+} from '../../science/quantities';
 import { quantitationLimitProblem } from '../compute/schemas';
 
-export { SELECTIVITY_MEASURES, TEMPERATURE_UNITS };
+export { parseRatioPair, SELECTIVITY_MEASURES, selectivityProblem, TEMPERATURE_UNITS, toKelvin, toSeconds };
 export type { SelectivityMeasure, TemperatureUnit };
 
 export const ASSAY_METHODS = ['chiral-hplc', 'chiral-sfc', 'chiral-gc', 'nmr', 'other'] as const;
@@ -22,23 +31,6 @@ export type TimeUnit = (typeof TIME_UNITS)[number];
 
 /** Highest temperature accepted anywhere (K); no solution-phase screen runs near it. */
 export const MAX_TEMPERATURE_K = 1000;
-const CELSIUS_OFFSET_K = 273.15;
-const SECONDS_PER: Record<TimeUnit, number> = { s: 1, min: 60, h: 3600 };
-
-/** T in kelvin from a value and unit (same definitions as the engine's temperatureToK, without throwing). */
-export function toKelvin(value: number, unit: TemperatureUnit): number {
-  // Rounded to 1e-9 K so that −50 °C is stored as 223.15, not 223.14999999999998.
-  const snap = (k: number) => Math.round(k * 1e9) / 1e9;
-  if (unit === 'C') return snap(value + CELSIUS_OFFSET_K);
-  if (unit === 'F') return snap(((value - 32) * 5) / 9 + CELSIUS_OFFSET_K);
-  return value;
-}
-
-export function toSeconds(value: number, unit: TimeUnit): number {
-  return value * SECONDS_PER[unit];
-}
-
-const UNIT_LABEL: Record<TemperatureUnit, string> = { K: 'K', C: '°C', F: '°F' };
 
 const finite = (what: string) => z.number({ error: `${what} must be a number` }).refine(Number.isFinite, `${what} must be a finite number`);
 
@@ -50,8 +42,8 @@ export const temperatureInputSchema = z
   })
   .superRefine((t, ctx) => {
     const k = toKelvin(t.value, t.unit);
-    if (!(k > 0)) ctx.addIssue({ code: 'custom', path: ['value'], message: `${t.value} ${UNIT_LABEL[t.unit]} is at or below absolute zero` });
-    else if (k > MAX_TEMPERATURE_K) ctx.addIssue({ code: 'custom', path: ['value'], message: `${t.value} ${UNIT_LABEL[t.unit]} is above ${MAX_TEMPERATURE_K} K` });
+    if (!(k > 0)) ctx.addIssue({ code: 'custom', path: ['value'], message: `${t.value} ${TEMPERATURE_UNIT_LABEL[t.unit]} is at or below absolute zero` });
+    else if (k > MAX_TEMPERATURE_K) ctx.addIssue({ code: 'custom', path: ['value'], message: `${t.value} ${TEMPERATURE_UNIT_LABEL[t.unit]} is above ${MAX_TEMPERATURE_K} K` });
   });
 export type TemperatureInput = z.infer<typeof temperatureInputSchema>;
 
@@ -59,41 +51,6 @@ export const reactionTimeInputSchema = z.object({
   value: finite('reaction time').refine((v) => v >= 0, 'reaction time must not be negative'),
   unit: z.enum(TIME_UNITS, { error: 'unit must be s, min or h' }),
 });
-
-const PAIR = /^\s*(\d+(?:\.\d*)?|\.\d+)\s*:\s*(\d+(?:\.\d*)?|\.\d+)\s*$/;
-
-/** Split "a:b" into its parts, or null when the text is not such a pair. */
-export function parseRatioPair(text: string): { a: number; b: number } | null {
-  const m = PAIR.exec(text);
-  return m ? { a: Number(m[1]), b: Number(m[2]) } : null;
-}
-
-/**
- * Check a selectivity value against its measure; returns a message, or null when it is acceptable.
- * Shared by the zod schema and the file import so both say the same thing.
- */
-export function selectivityProblem(measure: SelectivityMeasure, value: number | string): string | null {
-  if (typeof value === 'string') {
-    if (measure === 'ee' || measure === 'percentA') return `${measure} must be a number, not "${value}"`;
-    const pair = parseRatioPair(value);
-    if (!pair) return `"${value}" is not a ratio; write it as a:b, e.g. 95:5`;
-    if (!(pair.a > 0 && pair.b > 0)) return `both parts of ${measure} ${value} must be greater than zero (a zero part means an infinite energy gap; report the detection limit instead)`;
-    return null;
-  }
-  if (!Number.isFinite(value)) return `${measure} must be a finite number`;
-  switch (measure) {
-    case 'ee':
-      if (Math.abs(value) > 100) return `ee ${value} % is outside −100 to 100 %`;
-      if (Math.abs(value) === 100) return 'ee of ±100 % implies an infinite energy gap; enter the detection limit (e.g. 99.8) and mark it as a lower bound';
-      return null;
-    case 'percentA':
-      if (value <= 0 || value >= 100) return `percent A must lie strictly between 0 and 100, got ${value}`;
-      return null;
-    default:
-      if (value <= 0) return `${measure} must be greater than zero, got ${value}`;
-      return null;
-  }
-}
 
 /**
  * A reported selectivity, as in the stateless API: `value` is a number, or "a:b" for er, dr and ratio.

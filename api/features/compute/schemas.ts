@@ -5,6 +5,7 @@
  * is generated from it.
  */
 import { z } from 'zod';
+import { parseRatioPair, selectivityProblem } from '../../science/quantities';
 
 export const MAX_POINTS = 5000;
 
@@ -34,12 +35,29 @@ export const selectivityMeasureSchema = z.enum(['ee', 'er', 'dr', 'percentA', 'r
   id: 'SelectivityMeasure',
   description: 'ee: signed percent, A positive; percentA: percent of A; er, dr, ratio: a number r = A/B or an "a:b" string',
 });
+const selectivityFields = {
+  measure: selectivityMeasureSchema,
+  value: z.union([finite('value'), z.string().refine((t) => parseRatioPair(t) !== null, 'must look like "95:5"')]),
+};
+// One check for every entry point (campaign runs use it too): ee = ±100 or a zero part is a 400 here as there.
+const checkSelectivity = (s: { measure: z.infer<typeof selectivityMeasureSchema>; value: number | string }, ctx: z.RefinementCtx) => {
+  const problem = selectivityProblem(s.measure, s.value);
+  if (problem) ctx.addIssue({ code: 'custom', path: ['value'], message: problem });
+};
 export const selectivitySchema = z
-  .object({
-    measure: selectivityMeasureSchema,
-    value: z.union([finite('value'), z.string().regex(/^\s*\d+(\.\d+)?\s*:\s*\d+(\.\d+)?\s*$/, 'must look like "95:5"')]),
-  })
+  .object(selectivityFields)
+  .superRefine(checkSelectivity)
   .meta({ id: 'Selectivity', description: 'An observed selectivity, e.g. { "measure": "ee", "value": 92.5 } or { "measure": "dr", "value": "12:1" }' });
+/** A measured selectivity, which may be a bound ("≥ 99.8 % ee", "> 200:1"). */
+export const measuredSelectivitySchema = z
+  .object({
+    ...selectivityFields,
+    atLeast: z.boolean().optional().meta({
+      description: 'The assay reported only a bound ("at least this selective"): fitted as a censored run at the quantitation limit, or at this value when it is a weaker bound',
+    }),
+  })
+  .superRefine(checkSelectivity)
+  .meta({ id: 'MeasuredSelectivity', description: 'A measured selectivity; `atLeast: true` marks a lower bound such as "≥ 99.8 % ee"' });
 
 export const temperatureRangeSchema = z
   .object({ from: temperatureSchema, to: temperatureSchema, count: z.number().int('must be a whole number').min(1).max(MAX_POINTS, `at most ${MAX_POINTS} temperatures`) })
@@ -94,14 +112,6 @@ export const forecastResponseSchema = z
 export type ForecastResponse = z.infer<typeof forecastResponseSchema>;
 
 // ---------- fit ----------
-/** A measured selectivity that may be only a bound ("≥ 99.8 % ee", "> 200:1"). */
-export const measuredSelectivitySchema = selectivitySchema
-  .extend({
-    atLeast: z.boolean().optional().meta({
-      description: 'The assay reported only a bound ("at least this selective"): fitted as a censored run at the quantitation limit, or at this value when it is a weaker bound',
-    }),
-  })
-  .meta({ id: 'MeasuredSelectivity' });
 
 /** Whether `value` is a valid quantitation limit for `measure` (null) or why not. */
 export function quantitationLimitProblem(measure: z.infer<typeof selectivityMeasureSchema>, value: number): string | null {

@@ -17,6 +17,7 @@ import {
   type TemperatureUnit,
   type TimeUnit,
 } from '../campaigns/schemas';
+import { celsiusFromKelvin, DECIMAL_PATTERN, splitBound } from '../../science/quantities';
 import type { ImportIssue } from './errors';
 import { looksLikeKelvin } from '../compute/temperatures';
 import { columnLetter, type Cell, type DecimalSeparator, type ParsedTable } from './parse';
@@ -228,7 +229,7 @@ function readNumber(cell: Cell, decimal: DecimalSeparator, what: string): Read<n
   } else if (/^[+-]?\d+,\d+$/.test(text)) {
     return { ok: false, message: `"${raw}" uses a decimal comma, but this file uses decimal points; fix the cell or change the decimal setting` };
   }
-  if (!/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(text)) return { ok: false, message: `${what} "${raw}" is not a number` };
+  if (!DECIMAL_PATTERN.test(text)) return { ok: false, message: `${what} "${raw}" is not a number` };
   return { ok: true, value: Number(text) };
 }
 
@@ -265,8 +266,6 @@ const MEASURE_WORDS: Record<string, SelectivityMeasure> = Object.fromEntries([
   ['r', 'ratio'],
 ]);
 
-const SIGNS = /^(≥|>=|>|≤|<=|<)\s*/;
-const LOWER_BOUND = new Set(['≥', '>=', '>']);
 
 function unitLabel(unit: TemperatureUnit): string {
   return unit === 'K' ? 'K' : `°${unit}`;
@@ -345,7 +344,7 @@ function readTemperatureK(ctx: RowContext, cells: Cell[], row: number): number {
   if (looksLikeKelvin(t.value, unit)) {
     addIssue(ctx, 'warning', row, 'temperature', `${round(t.value)} labelled ${unitLabel(unit)} would be ${round(k)} K; it looks like a kelvin value. Check the unit.`);
   } else if (unit === 'K' && k < 150) {
-    addIssue(ctx, 'warning', row, 'temperature', `${round(t.value)} K is ${round(k - 273.15)} °C, colder than any solution screen; it looks like a °C value. Check the unit.`);
+    addIssue(ctx, 'warning', row, 'temperature', `${round(t.value)} K is ${round(celsiusFromKelvin(k))} °C, colder than any solution screen; it looks like a °C value. Check the unit.`);
   }
   return k;
 }
@@ -373,17 +372,14 @@ function readSelectivity(ctx: RowContext, cells: Cell[], row: number, measure: S
     if (problem) addIssue(ctx, 'error', row, 'value', `${problem.replace(/\.$/, '')}.`);
     return problem ? null : { value: vCell, valueB: null, isLowerBound: false };
   }
-  let text = vCell.trim();
-  let isLowerBound = false;
-  const sign = SIGNS.exec(text);
-  if (sign) {
-    if (!LOWER_BOUND.has(sign[1])) {
-      addIssue(ctx, 'error', row, 'value', `"${text}" is an upper bound; only lower bounds (≥, >) can be imported, e.g. "≥ 99.8" at the detection limit.`);
-      return null;
-    }
-    isLowerBound = true;
-    text = text.slice(sign[0].length);
+  // The shared grammar: "≥ 99.8", ">99.8", "99.8+" and "> 200:1" are lower bounds, as in the grid.
+  const bound = splitBound(vCell);
+  if (bound.bound === 'upper') {
+    addIssue(ctx, 'error', row, 'value', `"${vCell.trim()}" is an upper bound; only lower bounds (≥, >, or a trailing +) can be imported, e.g. "≥ 99.8" at the detection limit.`);
+    return null;
   }
+  const isLowerBound = bound.bound === 'lower';
+  let text = bound.text;
   if (measure !== 'dr' && measure !== 'ratio') text = text.replace(/\s*%$/, '');
   let value: number;
   let valueB: number | null = null;

@@ -1,14 +1,17 @@
 /**
- * Reading uploaded tables: CSV (and TSV/TXT) through csv-parse, workbooks through exceljs.
+ * Reading uploaded tables: CSV (and TSV/TXT) through the shared table reader (table-text.ts, also
+ * used by the browser's paste boxes), workbooks through exceljs.
  * Pure apart from decoding: no database, no HTTP. Everything the parser decides on its own
  * (encoding, delimiter, decimal separator, header row) is reported back so the user can
  * override it.
  */
-import { parse as parseCsv, CsvError } from 'csv-parse/sync';
 import ExcelJS from 'exceljs';
 import { PayloadTooLargeError } from '../../lib/errors';
 import type { ImportParseOptions } from '../campaigns/schemas';
 import { UnreadableFileError } from './errors';
+import { CsvError, DELIMITER_NAMES, detectDelimiter, splitDelimited, type Delimiter } from './table-text';
+
+export { detectDelimiter, type Delimiter };
 
 export interface ImportLimits {
   /** Largest file accepted, in bytes. */
@@ -31,7 +34,6 @@ export interface DataRow {
   cells: Cell[];
 }
 
-export type Delimiter = ',' | ';' | '\t';
 export type DecimalSeparator = '.' | ',';
 
 export interface ParsedTable {
@@ -163,39 +165,6 @@ function decode(buffer: Buffer): { text: string; encoding: string } {
   }
 }
 
-const DELIMITERS: Delimiter[] = [',', ';', '\t'];
-const DELIMITER_NAMES: Record<Delimiter, string> = { ',': 'comma', ';': 'semicolon', '\t': 'tab' };
-
-/**
- * Pick the delimiter that splits the first lines into the most columns consistently: the
- * candidate whose most common field count (above 1) covers at least 80 % of non-blank lines
- * and is highest. A decimal comma inside a semicolon file splits numbers into two fields
- * irregularly, so the semicolon wins there.
- */
-export function detectDelimiter(text: string): Delimiter {
-  const sample = text.split(/\r\n|\n|\r/, 60).join('\n');
-  let best: { d: Delimiter; width: number; share: number } | null = null;
-  for (const d of DELIMITERS) {
-    let records: string[][];
-    try {
-      records = parseCsv(sample, { delimiter: d, relax_column_count: true, relax_quotes: true, skip_empty_lines: true });
-    } catch {
-      continue;
-    }
-    const filled = records.filter((r) => r.some((c) => c.trim() !== ''));
-    if (filled.length === 0) continue;
-    const counts = new Map<number, number>();
-    for (const r of filled) counts.set(r.length, (counts.get(r.length) ?? 0) + 1);
-    let width = 1;
-    let freq = 0;
-    for (const [w, f] of counts) if (f > freq || (f === freq && w > width)) [width, freq] = [w, f];
-    const share = freq / filled.length;
-    if (width < 2 || share < 0.8) continue;
-    if (!best || width > best.width || (width === best.width && share > best.share)) best = { d, width, share };
-  }
-  return best?.d ?? ',';
-}
-
 function csvFailure(name: string, err: unknown): UnreadableFileError {
   if (err instanceof CsvError) {
     const line = (err as CsvError & { lines?: number }).lines;
@@ -216,14 +185,7 @@ function parseDelimited(name: string, buffer: Buffer, options: ImportParseOption
 
   let records: string[][];
   try {
-    records = parseCsv(text, {
-      delimiter,
-      relax_column_count: true,
-      relax_quotes: true,
-      skip_empty_lines: false,
-      trim: true,
-      max_record_size: 64 * 1024,
-    });
+    records = splitDelimited(text, delimiter, { maxRecordSize: 64 * 1024 });
   } catch (err) {
     throw csvFailure(name, err);
   }

@@ -41,10 +41,11 @@ import type {
   readableDurationSchema,
 } from './schemas';
 import { KINETICS_CAUTION } from '../../lib/cautions';
+import { SECONDS_PER } from '../../science/quantities';
 import { expandTemperatures, type ExpandedTemperatures } from '../compute/temperatures';
 
-/** Shown with every time and erosion forecast (DOMAIN §9). */
-/** Only a rough check for the one-run sensitivity band; DOMAIN §6 asks to show how the answer depends on ΔH‡. */
+/** Shown with every time and erosion forecast (api/science/README.md §9). */
+/** Only a rough check for the one-run sensitivity band; api/science/README.md §6 asks to show how the answer depends on ΔH‡. */
 const SENSITIVITY_STEP_J_PER_MOL = 10_000;
 /** Forecasts further than this from the temperature they are anchored at get a warning. */
 const FAR_FROM_ANCHOR_K = 50;
@@ -58,8 +59,6 @@ const energyOut = (jPerMol: number): EnergyOut => ({
   'kJ/mol': energyFromJPerMol(jPerMol, 'kJ/mol'),
   'kcal/mol': energyFromJPerMol(jPerMol, 'kcal/mol'),
 });
-
-const SECONDS_PER: Record<ReadableDuration['unit'], number> = { s: 1, min: 60, h: 3600, d: 86_400, y: 365.25 * 86_400 };
 
 /** Seconds in the unit a person would say: s below 2 min, min below 2 h, h below 2 d, d below 2 years, then years. */
 export function readableDuration(seconds: number): ReadableDuration {
@@ -133,7 +132,7 @@ function farFromAnchor(kelvins: number[], anchors: number[]): Warning | null {
 
 // ---------- distribution ----------
 
-/** Percent of each product, per diastereomer group and its ee, and dr, over temperature (DOMAIN §5). */
+/** Percent of each product, per diastereomer group and its ee, and dr, over temperature (api/science/README.md §5). */
 export function computeDistribution(req: DistributionRequest): DistributionResponse {
   const temps = expandTemperatures(req.temperatures);
   const pathways = req.pathways.map((p, i) => ({
@@ -208,7 +207,7 @@ function rateRules(temps: ExpandedTemperatures): FieldRule[] {
   ];
 }
 
-/** k, k_obs, half-life and time to a target conversion over temperature from a barrier or from runs (DOMAIN §6). */
+/** k, k_obs, half-life and time to a target conversion over temperature from a barrier or from runs (api/science/README.md §6). */
 export function computeRate(req: RateRequest): RateResponse {
   const temps = expandTemperatures(req.temperatures);
   const setup = toSetup(req.setup);
@@ -345,7 +344,7 @@ function holdAboveFloor(
   return { seconds: Math.log((initialPercent - equilibriumPercent) / (floorPercent - equilibriumPercent)) / lambdaPerS, status: 'above' };
 }
 
-/** k_e, k_rac, ee half-life, ee after a hold and the longest hold above a floor over temperature (DOMAIN §7). */
+/** k_e, k_rac, ee half-life, ee after a hold and the longest hold above a floor over temperature (api/science/README.md §7). */
 export function computeErosion(req: ErosionRequest): ErosionResponse {
   const temps = expandTemperatures(req.temperatures);
   const barrier = toBarrierSpec(req.barrier, 'barrier');
@@ -446,7 +445,7 @@ export function computeErosion(req: ErosionRequest): ErosionResponse {
       eeHalfLife: readableDuration(cls.eeHalfLifeS),
       description: cls.description,
       definition: cls.definition,
-      source: `[M] recalled from memory, verify before relying on it: ${cls.source}`,
+      source: cls.source,
     },
     definitions,
     assumptions,

@@ -130,6 +130,19 @@ describe('validateRows: row-level checks', () => {
     expect(r.issues[0].message).toContain('upper bound');
   });
 
+  it('when a value is written "99.8+" or a dr "> 200:1", then it is a lower bound as in the grid', async () => {
+    const r = await check('T,ee\n-60,99.8+\n');
+    expect(r.issues).toEqual([]);
+    expect(r.rows.map((x) => [x.value, x.isLowerBound])).toEqual([[99.8, true]]);
+    const m = mapping({ columns: { temperature: 0, value: 1 }, temperatureUnit: 'C', measure: 'dr' });
+    const d = await check('T,dr\n-60,> 200:1\n-40,.5:1\n', m);
+    expect(d.issues).toEqual([]);
+    expect(d.rows.map((x) => [x.value, x.valueB, x.isLowerBound])).toEqual([
+      [200, 1, true],
+      [0.5, 1, false],
+    ]);
+  });
+
   it('when er and dr are written a:b (also with decimal commas), then both parts are kept', async () => {
     const m = mapping({ columns: { temperature: 0, measure: 1, value: 2 }, temperatureUnit: 'C' });
     const r = await check('T;measure;value\n25;er;97,5:2,5\n0;d.r.;12:1\n-10;ratio;0:1\n', m);

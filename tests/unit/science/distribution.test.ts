@@ -13,7 +13,7 @@ describe('productDistribution', () => {
       ],
       [298.15, 250],
     );
-    const r = ratioFromDdG(4184, 298.15); // [C] DOMAIN §1, ΔΔG‡ = G‡(B) − G‡(A)
+    const r = ratioFromDdG(4184, 298.15); // [C] api/science/README.md §1, ΔΔG‡ = G‡(B) − G‡(A)
     expect(res.points[0]!.percents[0]).toBeCloseTo((100 * r) / (1 + r), 10); // [C]
     expect(res.points[1]!.percents[0]! / res.points[1]!.percents[1]!).toBeCloseTo(ratioFromDdG(4184, 250), 8); // [C] ΔS‡ = 0 assumed
     expect(res.assumptions.join(' ')).toMatch(/Curtin–Hammett/);
@@ -31,7 +31,7 @@ describe('productDistribution', () => {
     expect(res.points[0]!.percents[1]! / res.points[0]!.percents[0]!).toBeCloseTo(Math.exp(-ddG / (R * 300)), 8); // [C] r = exp(−ΔΔG‡/RT) for B over A
   });
 
-  it('when four pathways form two enantiomer pairs, then dr and each ee follow DOMAIN §5', () => {
+  it('when four pathways form two enantiomer pairs, then dr and each ee follow api/science/README.md §5', () => {
     const g = [0, 3000, 2000, 6000]; // invented demo barriers, J/mol
     const res = productDistribution(
       [
@@ -44,9 +44,9 @@ describe('productDistribution', () => {
     );
     const w = g.map((v) => Math.exp(-v / (R * 273.15)));
     const sum = w.reduce((a, b) => a + b, 0);
-    const p = w.map((v) => v / sum); // [C] Boltzmann weights, DOMAIN §5
+    const p = w.map((v) => v / sum); // [C] Boltzmann weights, api/science/README.md §5
     const pt = res.points[0]!;
-    p.forEach((v, i) => expect(pt.percents[i]!).toBeCloseTo(100 * v, 10)); // [C] DOMAIN §5 Boltzmann weights
+    p.forEach((v, i) => expect(pt.percents[i]!).toBeCloseTo(100 * v, 10)); // [C] api/science/README.md §5 Boltzmann weights
     expect(pt.diastereomerRatio!).toBeCloseTo((p[0]! + p[1]!) / (p[2]! + p[3]!), 10); // [C] dr = (p1 + p1′)/(p2 + p2′)
     expect(pt.groups[0]!.group).toBe('syn');
     expect(pt.groups[0]!.eePercent).toBeCloseTo((100 * (p[0]! - p[1]!)) / (p[0]! + p[1]!), 10); // [C] ee of diastereomer 1

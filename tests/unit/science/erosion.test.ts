@@ -19,7 +19,7 @@ describe('racemization', () => {
     const ke = racemizationRateConstant({ kind: 'gibbs', gJPerMol: kcal(24), temperatureK: 298.15 }, 298.15);
     expect(ke).toBeCloseTo(eyringRateConstant(kcal(24), 298.15), 15); // [C] one-way Eyring constant
     const half = eeHalfLifeS(ke);
-    expect(half).toBeCloseTo(Math.LN2 / (2 * ke), 6); // [C] DOMAIN §7
+    expect(half).toBeCloseTo(Math.LN2 / (2 * ke), 6); // [C] api/science/README.md §7
     expect(eeAfterTime(98, ke, half)).toBeCloseTo(49, 10); // [C] ee(t) = ee₀·exp(−2k_e t)
   });
 
@@ -50,7 +50,7 @@ describe('epimerization towards K ≠ 1', () => {
     const start = epimerization(kf, kr, 1, 0);
     expect(start.equilibriumFractionA).toBeCloseTo(0.2, 12); // [C] 1/(1 + K)
     const half = start.relaxationHalfLifeS;
-    expect(half).toBeCloseTo(Math.LN2 / (kf + kr), 9); // [C] DOMAIN §7
+    expect(half).toBeCloseTo(Math.LN2 / (kf + kr), 9); // [C] api/science/README.md §7
     const mid = epimerization(kf, kr, 1, half);
     expect(mid.fractionA - 0.2).toBeCloseTo((1 - 0.2) / 2, 10); // [C]
     expect(epimerization(kf, kr, 1, 1e7).fractionA).toBeCloseTo(0.2, 10); // [C]

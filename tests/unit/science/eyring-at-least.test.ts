@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { GAS_CONSTANT_J_PER_MOL_K as R } from '../../../api/science/constants';
 import { fitEyring, type EyringMeasurement } from '../../../api/science/eyring-fit';
 
-// Constructed screen [C]: ΔΔH‡ = 10 kJ/mol, ΔΔS‡ = 4 J/(mol K); ln r = ΔΔH‡/RT − ΔΔS‡/R (DOMAIN §1), small invented scatter.
+// Constructed screen [C]: ΔΔH‡ = 10 kJ/mol, ΔΔS‡ = 4 J/(mol K); ln r = ΔΔH‡/RT − ΔΔS‡/R (api/science/README.md §1), small invented scatter.
 const lnR = (t: number) => 10_000 / (R * t) - 4 / R;
 const NOISE = [0.02, -0.03, 0.01, -0.015, 0.025];
 const screen: EyringMeasurement[] = [-40, -20, 0, 20, 40].map((c, i) => ({ temperatureK: c + 273.15, ratio: Math.exp(lnR(c + 273.15) + NOISE[i]!) }));

@@ -4,7 +4,7 @@ import { ddGAtTemperature, fitEyring, predictEyring, type EyringMeasurement } fr
 import { fitLine, predictLine } from '../../../api/science/regression';
 import { domainErrorOf, expectAllFinite } from './helpers';
 
-// Constructed screen [C]: ΔΔH‡ = 12 kJ/mol, ΔΔS‡ = 10 J/(mol K); ln r = ΔΔH‡/RT − ΔΔS‡/R (DOMAIN §1).
+// Constructed screen [C]: ΔΔH‡ = 12 kJ/mol, ΔΔS‡ = 10 J/(mol K); ln r = ΔΔH‡/RT − ΔΔS‡/R (api/science/README.md §1).
 const DDH = 12_000;
 const DDS = 10;
 const lnR = (t: number) => DDH / (R * t) - DDS / R;
@@ -51,7 +51,7 @@ describe('fitEyring', () => {
     );
     const g = ddGAtTemperature(fit, 230);
     expect(g.ddGJPerMol).toBeCloseTo(fit.ddHJPerMol - 230 * fit.ddSJPerMolK, 6); // [C] ΔΔG‡ = ΔΔH‡ − TΔΔS‡
-    expect(g.seJPerMol!).toBeCloseTo(R * 230 * predictLine(line, 1 / 230).seMean!, 6); // [C] DOMAIN §3
+    expect(g.seJPerMol!).toBeCloseTo(R * 230 * predictLine(line, 1 / 230).seMean!, 6); // [C] api/science/README.md §3
   });
 
   it('when predicting, then intervals nest, map monotonically to ee and %A, and extrapolation is flagged', () => {
@@ -63,7 +63,7 @@ describe('fitEyring', () => {
     const p = inside!.predictionInterval!;
     expect(p.lnRatio[0]).toBeLessThan(m.lnRatio[0]);
     expect(p.lnRatio[1]).toBeGreaterThan(m.lnRatio[1]);
-    expect(m.eePercent[0]).toBeCloseTo(100 * Math.tanh(m.lnRatio[0] / 2), 12); // [C] DOMAIN §3 mapping
+    expect(m.eePercent[0]).toBeCloseTo(100 * Math.tanh(m.lnRatio[0] / 2), 12); // [C] api/science/README.md §3 mapping
     expect(m.ratio[1]).toBeCloseTo(Math.exp(m.lnRatio[1]), 9); // [C]
     expect(m.percentA[0]).toBeLessThan(inside!.percentA);
     expect(codes(fitEyring(screen(), { predictAtK: [330] }).warnings)).toContain('extrapolation');
@@ -124,7 +124,7 @@ describe('fitEyring', () => {
 
   it('when the temperatures span less than 40 K, then a narrow-span warning is given', () => {
     const data = [280, 290, 300, 310].map((t, i) => ({ temperatureK: t, ratio: Math.exp(lnR(t) + NOISE[i]!) }));
-    expect(codes(fitEyring(data).warnings)).toEqual(expect.arrayContaining(['narrow-temperature-span', 'few-points'])); // [CP] DOMAIN §8: screens span ≥ 40–60 K
+    expect(codes(fitEyring(data).warnings)).toEqual(expect.arrayContaining(['narrow-temperature-span', 'few-points'])); // [CP] api/science/README.md §8: screens span ≥ 40–60 K
   });
 
   it('when every run carries σ(ln r), then relative-σ weighting is used and changes the fit', () => {
@@ -137,7 +137,7 @@ describe('fitEyring', () => {
 
   it('when ΔΔH‡ and ΔΔS‡ have the same sign, then T₀ = ΔΔH‡/ΔΔS‡ is reported', () => {
     const fit = fitEyring(screen(false));
-    expect(fit.zeroSelectivityTemperatureK!).toBeCloseTo(DDH / DDS, 4); // [C] DOMAIN §4
+    expect(fit.zeroSelectivityTemperatureK!).toBeCloseTo(DDH / DDS, 4); // [C] api/science/README.md §4
     expect(codes(fit.warnings)).toContain('zero-selectivity-extrapolated');
   });
 

@@ -8,10 +8,10 @@ describe('forecastSelectivity', () => {
   it('when ΔΔH‡ and ΔΔS‡ are given, then ln r = ΔΔH‡/RT − ΔΔS‡/R and T₀ = ΔΔH‡/ΔΔS‡', () => {
     const f = forecastSelectivity({ kind: 'enthalpy-entropy', ddHJPerMol: 10_000, ddSJPerMolK: 20 }, [250, 300, 600]);
     expect(f.points[1]!.ddGJPerMol).toBeCloseTo(4000, 9); // [C] 10000 − 300·20
-    expect(f.points[1]!.ratio).toBeCloseTo(Math.exp(10_000 / (R * 300) - 20 / R), 10); // [C] DOMAIN §1
+    expect(f.points[1]!.ratio).toBeCloseTo(Math.exp(10_000 / (R * 300) - 20 / R), 10); // [C] api/science/README.md §1
     expect(f.points[1]!.celsius).toBeCloseTo(26.85, 10); // [C] 300 − 273.15
     expect(f.zeroSelectivityTemperatureK).toBeCloseTo(500, 10); // [C] 10000/20
-    expect(f.points[2]!.eePercent).toBeLessThan(0); // [C] above T₀ the selectivity inverts (DOMAIN §4)
+    expect(f.points[2]!.eePercent).toBeLessThan(0); // [C] above T₀ the selectivity inverts (api/science/README.md §4)
     expect(f.assumptions.join(' ')).toMatch(/heat-capacity/);
     expect(f.assumptions.join(' ')).toMatch(/inverts/);
     expectAllFinite(f);
@@ -20,7 +20,7 @@ describe('forecastSelectivity', () => {
   it('when ΔΔG‡ is given at one temperature without ΔΔS‡, then ΔΔS‡ is assumed 0 and said so', () => {
     const ddG = energyToJPerMol(1, 'kcal/mol');
     const f = forecastSelectivity({ kind: 'gap-at-temperature', ddGJPerMol: ddG, temperatureK: 298.15 }, [298.15, 273.15]);
-    expectSigFigs(f.points[0]!.ratio, 5.408); // [C] DOMAIN §10
+    expectSigFigs(f.points[0]!.ratio, 5.408); // [C] api/science/README.md §10
     expect(f.points[1]!.ratio).toBeCloseTo(Math.exp(ddG / (R * 273.15)), 10); // [C] purely enthalpic gap
     expect(f.ddSJPerMolK).toBe(0);
     expect(f.zeroSelectivityTemperatureK).toBeNull();
@@ -35,7 +35,7 @@ describe('forecastSelectivity', () => {
 
   it('when an observed ee at 0 °C is forecast to −20 °C with ΔΔS‡ = 0, then ΔΔG‡ is carried over', () => {
     const f = forecastSelectivity({ kind: 'observed', selectivity: { measure: 'ee', value: 90 }, temperatureK: 273.15 }, [253.15]);
-    const ddG = 2 * R * 273.15 * Math.atanh(0.9); // [C] DOMAIN §1 inverse
+    const ddG = 2 * R * 273.15 * Math.atanh(0.9); // [C] api/science/README.md §1 inverse
     expect(f.points[0]!.eePercent).toBeCloseTo(100 * Math.tanh(ddG / (2 * R * 253.15)), 10); // [C]
     expect(f.points[0]!.percentA).toBeCloseTo(50 + f.points[0]!.eePercent / 2, 10); // [C] %A = 50 + ee/2
   });

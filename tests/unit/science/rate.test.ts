@@ -19,36 +19,36 @@ const kcal = (v: number) => energyToJPerMol(v, 'kcal/mol');
 describe('Eyring–Polanyi rate constant', () => {
   it('when ΔG‡ = 15.00 kcal/mol at 298.15 K, then k = 62.83 s⁻¹ and t½ = 11.03 ms', () => {
     const k = eyringRateConstant(kcal(15), 298.15);
-    expectSigFigs(k, 62.83); // [C] DOMAIN §10, (k_B T/h)·exp(−ΔG‡/RT)
-    expectSigFigs(halfLifeS(k, { order: 'first' }) * 1000, 11.03); // [C] DOMAIN §10, ln2/k
+    expectSigFigs(k, 62.83); // [C] api/science/README.md §10, (k_B T/h)·exp(−ΔG‡/RT)
+    expectSigFigs(halfLifeS(k, { order: 'first' }) * 1000, 11.03); // [C] api/science/README.md §10, ln2/k
     expect(k).toBeCloseTo(((BOLTZMANN_J_PER_K * 298.15) / PLANCK_J_S) * Math.exp(-kcal(15) / (R * 298.15)), 9); // [C]
   });
 
   it('when the barrier is 20 vs 23 kcal/mol at 25 °C, then t½ goes from under minutes to hours', () => {
-    // [CP] DOMAIN §10: near 20–23 kcal/mol room-temperature interconversion turns from seconds-to-minutes into hours
-    expect(halfLifeS(eyringRateConstant(kcal(20), 298.15), { order: 'first' })).toBeLessThan(600); // [CP] DOMAIN §10; [C] ≈ 51 s
-    expect(halfLifeS(eyringRateConstant(kcal(23), 298.15), { order: 'first' })).toBeGreaterThan(3600); // [CP] DOMAIN §10; [C] ≈ 2.2 h
+    // [CP] api/science/README.md §10: near 20–23 kcal/mol room-temperature interconversion turns from seconds-to-minutes into hours
+    expect(halfLifeS(eyringRateConstant(kcal(20), 298.15), { order: 'first' })).toBeLessThan(600); // [CP] api/science/README.md §10; [C] ≈ 51 s
+    expect(halfLifeS(eyringRateConstant(kcal(23), 298.15), { order: 'first' })).toBeGreaterThan(3600); // [CP] api/science/README.md §10; [C] ≈ 2.2 h
   });
 
   it('when given as ΔH‡/ΔS‡, then k equals the ΔG‡ form and the barrier inverts it', () => {
     const k = rateConstantFromActivation(70_000, -30, 310);
     expect(k).toBeCloseTo(eyringRateConstant(70_000 + 310 * 30, 310), 12); // [C] ΔG‡ = ΔH‡ − TΔS‡
     expect(gibbsBarrierFromRateConstant(k, 310)).toBeCloseTo(70_000 + 310 * 30, 6); // [C]
-    expect(arrheniusEa(70_000, 310)).toBeCloseTo(70_000 + R * 310, 9); // [S] Ea = ΔH‡ + RT (DOMAIN §6)
+    expect(arrheniusEa(70_000, 310)).toBeCloseTo(70_000 + R * 310, 9); // [S] Ea = ΔH‡ + RT (api/science/README.md §6)
   });
 });
 
 describe('rate from measured runs', () => {
   it('when 95 % conversion takes 4 h (first order), then k = −ln(0.05)/14400 s', () => {
     const r = rateConstantFromRun({ conversion: 0.95, timeS: 4 * 3600, temperatureK: 273.15 }, { order: 'first' });
-    expect(r.k).toBeCloseTo(-Math.log(0.05) / 14_400, 15); // [C] DOMAIN §6
+    expect(r.k).toBeCloseTo(-Math.log(0.05) / 14_400, 15); // [C] api/science/README.md §6
     expect(timeToConversionS(r.k, 0.95, { order: 'first' })).toBeCloseTo(14_400, 6); // [C] round trip
   });
 
   it('when second order with equal concentrations, then k = X/(t·c₀·(1 − X)) and t½ = 1/(k c₀)', () => {
     const setup = { order: 'second', initialConcentrationM: 0.5 } as const;
     const r = rateConstantFromRun({ conversion: 0.8, timeS: 1000, temperatureK: 298.15 }, setup);
-    expect(r.k).toBeCloseTo(0.8 / (1000 * 0.5 * 0.2), 12); // [C] DOMAIN §6
+    expect(r.k).toBeCloseTo(0.8 / (1000 * 0.5 * 0.2), 12); // [C] api/science/README.md §6
     expect(halfLifeS(r.k, setup)).toBeCloseTo(1 / (r.k * 0.5), 9); // [C]
     expect(timeToConversionS(r.k, 0.8, setup)).toBeCloseTo(1000, 9); // [C] round trip
   });
@@ -92,7 +92,7 @@ describe('rate from measured runs', () => {
       { order: 'first' },
       [298.15],
     );
-    expectSigFigs(f.points[0]!.k, 62.83); // [C] DOMAIN §10
+    expectSigFigs(f.points[0]!.k, 62.83); // [C] api/science/README.md §10
     expect(f.assumptions.join(' ')).toMatch(/ΔS‡ assumed 0/);
   });
 

@@ -149,15 +149,15 @@ describe('fitLine behaviour', () => {
     expect(fit.cooksDistance[3]!).toBeGreaterThan(0.3);
   });
 
-  it('when predicting at x₀, then SEs follow s²[1/n + (x₀ − x̄)²/Sxx] and s² + that (DOMAIN §3)', () => {
+  it('when predicting at x₀, then SEs follow s²[1/n + (x₀ − x̄)²/Sxx] and s² + that (api/science/README.md §3)', () => {
     const x = [1, 2, 3, 4, 5];
     const y = [2.1, 3.9, 6.2, 7.8, 10.1];
     const fit = fitLine(x, y);
     const s2 = fit.residualSd! ** 2;
     const p = predictLine(fit, 7, 0.95);
-    const varMean = s2 * (1 / 5 + (7 - 3) ** 2 / 10); // [C] DOMAIN §3
-    expect(p.seMean!).toBeCloseTo(Math.sqrt(varMean), 12); // [C] DOMAIN §3
-    expect(p.seNew!).toBeCloseTo(Math.sqrt(s2 + varMean), 12); // [C] DOMAIN §3
+    const varMean = s2 * (1 / 5 + (7 - 3) ** 2 / 10); // [C] api/science/README.md §3
+    expect(p.seMean!).toBeCloseTo(Math.sqrt(varMean), 12); // [C] api/science/README.md §3
+    expect(p.seNew!).toBeCloseTo(Math.sqrt(s2 + varMean), 12); // [C] api/science/README.md §3
     // the same variance from the full covariance matrix, Var(a) + 2x₀Cov(a,b) + x₀²Var(b) [C]
     const c = fit.covariance!;
     expect(p.seMean!).toBeCloseTo(Math.sqrt(c.interceptIntercept + 2 * 7 * c.interceptSlope + 49 * c.slopeSlope), 10);

@@ -38,32 +38,32 @@ function codeOf(fn: () => unknown): { code: string; field?: string } {
   throw new Error('expected a DomainError');
 }
 
-describe('selectivity conversions at 298.15 K (DOMAIN §10)', () => {
+describe('selectivity conversions at 298.15 K (api/science/README.md §10)', () => {
   it('when ΔΔG‡ = 1.000 kcal/mol, then r = 5.408 and ee = 68.79 %', () => {
-    sigFigs(ratioFromDdG(kcal(1), T25), 5.408); // [C] DOMAIN §10, exp(4184/(R·298.15))
-    sigFigs(eeFromDdG(kcal(1), T25), 68.79); // [C] DOMAIN §10, tanh(ΔΔG‡/2RT)
-    sigFigs(eeFromRatio(ratioFromDdG(kcal(1), T25)), 68.79); // [C] DOMAIN §10, (r−1)/(r+1)
+    sigFigs(ratioFromDdG(kcal(1), T25), 5.408); // [C] api/science/README.md §10, exp(4184/(R·298.15))
+    sigFigs(eeFromDdG(kcal(1), T25), 68.79); // [C] api/science/README.md §10, tanh(ΔΔG‡/2RT)
+    sigFigs(eeFromRatio(ratioFromDdG(kcal(1), T25)), 68.79); // [C] api/science/README.md §10, (r−1)/(r+1)
   });
 
   it('when ΔΔG‡ = 3.000 kcal/mol, then r = 158.1 and ee = 98.74 %', () => {
-    sigFigs(ratioFromDdG(kcal(3), T25), 158.1); // [C] DOMAIN §10
-    sigFigs(eeFromDdG(kcal(3), T25), 98.74); // [C] DOMAIN §10
+    sigFigs(ratioFromDdG(kcal(3), T25), 158.1); // [C] api/science/README.md §10
+    sigFigs(eeFromDdG(kcal(3), T25), 98.74); // [C] api/science/README.md §10
   });
 
   it('when 90 % and 99 % ee are wanted, then 1.745 and 3.136 kcal/mol are needed', () => {
-    sigFigs(energyFromJPerMol(ddGFromEe(90, T25), 'kcal/mol'), 1.745); // [C] DOMAIN §10, 2RT·artanh(0.90)
-    sigFigs(energyFromJPerMol(ddGFromEe(99, T25), 'kcal/mol'), 3.136); // [C] DOMAIN §10, 2RT·artanh(0.99)
+    sigFigs(energyFromJPerMol(ddGFromEe(90, T25), 'kcal/mol'), 1.745); // [C] api/science/README.md §10, 2RT·artanh(0.90)
+    sigFigs(energyFromJPerMol(ddGFromEe(99, T25), 'kcal/mol'), 3.136); // [C] api/science/README.md §10, 2RT·artanh(0.99)
   });
 
   it('when the rules of thumb are applied, then 1.36 kcal/mol is one decade and 2 kcal/mol ≈ 96.7 % A', () => {
-    // [CP] DOMAIN §10: at 25 °C a factor of ten in r costs about 1.36 kcal/mol (5.71 kJ/mol)
-    expect(energyFromJPerMol(ddGFromRatio(10, T25), 'kcal/mol')).toBeCloseTo(1.36, 2); // [CP] DOMAIN §10
-    expect(energyFromJPerMol(ddGFromRatio(10, T25), 'kJ/mol')).toBeCloseTo(5.71, 2); // [CP] DOMAIN §10
-    // [CP] DOMAIN §10: a 2 kcal/mol gap gives about 96.7 % of A
-    expect(percentAFromRatio(ratioFromDdG(kcal(2), T25))).toBeCloseTo(96.7, 1); // [CP] DOMAIN §10
+    // [CP] api/science/README.md §10: at 25 °C a factor of ten in r costs about 1.36 kcal/mol (5.71 kJ/mol)
+    expect(energyFromJPerMol(ddGFromRatio(10, T25), 'kcal/mol')).toBeCloseTo(1.36, 2); // [CP] api/science/README.md §10
+    expect(energyFromJPerMol(ddGFromRatio(10, T25), 'kJ/mol')).toBeCloseTo(5.71, 2); // [CP] api/science/README.md §10
+    // [CP] api/science/README.md §10: a 2 kcal/mol gap gives about 96.7 % of A
+    expect(percentAFromRatio(ratioFromDdG(kcal(2), T25))).toBeCloseTo(96.7, 1); // [CP] api/science/README.md §10
   });
 
-  it('when ΔΔG‡ is negative, then B is favoured and ee is negative (sign convention DOMAIN §1)', () => {
+  it('when ΔΔG‡ is negative, then B is favoured and ee is negative (sign convention api/science/README.md §1)', () => {
     expect(ratioFromDdG(-kcal(1), T25)).toBeCloseTo(1 / ratioFromDdG(kcal(1), T25), 12); // [C] r(−x) = 1/r(x)
     expect(eeFromDdG(-kcal(1), T25)).toBeCloseTo(-eeFromDdG(kcal(1), T25), 12); // [C] ee odd in ΔΔG‡
     expect(ddGFromEe(-50, 250)).toBeLessThan(0); // [C] artanh(−0.5) < 0
@@ -130,14 +130,14 @@ describe('parseSelectivity', () => {
   });
 });
 
-describe('sigmaLnRatio (DOMAIN §3 propagation)', () => {
+describe('sigmaLnRatio (api/science/README.md §3 propagation)', () => {
   it('when σ is on ee or %A, then σ(ln r) = 2σ_ee/(1−ee²) = σ_p/[p(1−p)]', () => {
     // ee 90 % ± 0.5 %: 2·0.005/(1−0.81) [C]
-    expect(sigmaLnRatio({ measure: 'ee', value: 90 }, 0.5)).toBeCloseTo((2 * 0.005) / (1 - 0.81), 12); // [C] DOMAIN §3
+    expect(sigmaLnRatio({ measure: 'ee', value: 90 }, 0.5)).toBeCloseTo((2 * 0.005) / (1 - 0.81), 12); // [C] api/science/README.md §3
     // the same run as %A: 95 % ± 0.25 %: 0.0025/(0.95·0.05) [C], identical by construction
-    expect(sigmaLnRatio({ measure: 'percentA', value: 95 }, 0.25)).toBeCloseTo(0.0025 / (0.95 * 0.05), 12); // [C] DOMAIN §3
+    expect(sigmaLnRatio({ measure: 'percentA', value: 95 }, 0.25)).toBeCloseTo(0.0025 / (0.95 * 0.05), 12); // [C] api/science/README.md §3
     expect(sigmaLnRatio({ measure: 'percentA', value: 95 }, 0.25)).toBeCloseTo(sigmaLnRatio({ measure: 'ee', value: 90 }, 0.5), 12);
-    expect(sigmaLnRatio({ measure: 'er', value: '95:5' }, 0.25)).toBeCloseTo(0.0025 / (0.95 * 0.05), 12); // [C] DOMAIN §3, er read as the A share
+    expect(sigmaLnRatio({ measure: 'er', value: '95:5' }, 0.25)).toBeCloseTo(0.0025 / (0.95 * 0.05), 12); // [C] api/science/README.md §3, er read as the A share
   });
 
   it('when σ is on a ratio-type measure, then it is read as a relative SD of r', () => {

@@ -13,16 +13,50 @@ afterEach(() => {
 });
 
 describe('parseScreen', () => {
-  it('when lines use comma, semicolon or tab separators, then every run is read with its line number', () => {
-    const text = ['# a comment', '-78, 98.9, 0.2', '', '-40;96,9;0,3', '0\t93.7', '25 91.3 0.4'].join('\n');
-    const result = parseScreen(text, 'ee', 'C');
-    expect(result.errors).toEqual([]);
-    expect(result.rows).toEqual([
+  it('when a paste uses comma, semicolon, tab or space separators, then every run is read with its line number', () => {
+    // One table, one separator (the reader shared with the grid and the file import decides it for the whole paste).
+    const expected = [
       { line: 2, temperature: -78, selectivity: 98.9, uncertainty: 0.2 },
       { line: 4, temperature: -40, selectivity: 96.9, uncertainty: 0.3 },
       { line: 5, temperature: 0, selectivity: 93.7 },
-      { line: 6, temperature: 25, selectivity: 91.3, uncertainty: 0.4 },
+    ];
+    for (const [sep, decimal] of [[', ', '.'], [';', ','], ['\t', ','], [' ', '.']]) {
+      const line = (...v: string[]) => v.map((x) => x.replace('.', decimal)).join(sep);
+      const text = ['# a comment', line('-78', '98.9', '0.2'), '', line('-40', '96.9', '0.3'), line('0', '93.7')].join('\n');
+      const result = parseScreen(text, 'ee', 'C');
+      expect(result.errors, JSON.stringify(sep)).toEqual([]);
+      expect(result.rows).toEqual(expected);
+    }
+  });
+
+  it('when a run is a bound ("≥99.8", ">99.8", "99.8+", "> 200:1"), then it is read as at least that selective, as in the grid', () => {
+    const ee = parseScreen('-78, ≥99.8\n-60, >99.8\n-40, 99.8+\n0, 93.7', 'ee', 'C');
+    expect(ee.errors).toEqual([]);
+    expect(ee.rows.map((r) => [r.selectivity, r.atLeast ?? false])).toEqual([
+      [99.8, true],
+      [99.8, true],
+      [99.8, true],
+      [93.7, false],
     ]);
+    const dr = parseScreen('-78; > 200:1\n0; .5:1', 'dr', 'C');
+    expect(dr.errors).toEqual([]);
+    expect(dr.rows.map((r) => [r.selectivity, r.atLeast ?? false])).toEqual([
+      ['200:1', true],
+      ['0.5:1', false],
+    ]);
+    const request = buildFitRequest(ee.rows, { measure: 'ee', unit: 'C', weighting: 'none', uncertaintyScale: 'absolute', proposed: null, excludedLines: [] });
+    expect(fitRequestSchema.safeParse(request).success).toBe(true);
+    expect(request.measurements[0].selectivity).toEqual({ measure: 'ee', value: 99.8, atLeast: true });
+    expect(request.measurements[3].selectivity).toEqual({ measure: 'ee', value: 93.7 });
+  });
+
+  it('when a selectivity is an upper bound, ee = 100 or not a strict decimal, then the line is refused', () => {
+    const result = parseScreen('-78, <5\n-60, 100\n-40, 0x10', 'ee', 'C');
+    expect(result.rows).toEqual([]);
+    expect(result.errors.map((e) => e.line)).toEqual([1, 2, 3]);
+    expect(result.errors[0].message).toContain('upper bound');
+    expect(result.errors[1].message).toContain('infinite energy gap');
+    expect(result.errors[2].message).toContain('not a number');
   });
 
   it('when the first line holds column headings, then it is skipped and reported', () => {

@@ -74,15 +74,23 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
             </p>
           )}
           {analysis.data && measurements.data && (
-            <CampaignAnalysis analysis={analysis.data} measurements={measurements.data} stale={analysis.isPlaceholderData} />
+            <CampaignAnalysis analysis={analysis.data} measurements={measurements.data} stale={analysis.isPlaceholderData} measure={campaign.measure} />
           )}
         </Panel>
 
         <Panel title="Forecast at a proposed temperature">
-          <ForecastPanel campaignId={campaign.id} analysis={analysis.data} atCelsius={atCelsius} onAt={setAtCelsius} weighting={weighting} canEdit={canEdit} />
+          <ForecastPanel
+            campaignId={campaign.id}
+            analysis={analysis.data}
+            atCelsius={atCelsius}
+            onAt={setAtCelsius}
+            weighting={weighting}
+            canEdit={canEdit}
+            measure={campaign.measure}
+          />
         </Panel>
         <Panel title="Saved forecasts">
-          <SavedForecasts campaignId={campaign.id} canEdit={canEdit} />
+          <SavedForecasts campaignId={campaign.id} canEdit={canEdit} measure={campaign.measure} />
         </Panel>
 
         <Panel title={`Measurements${measurements.data ? ` (${measurements.data.length})` : ''}`}>

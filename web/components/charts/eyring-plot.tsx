@@ -4,8 +4,8 @@ import { fixed, sig } from '../../lib/format';
 import { ErrorBars, VerticalMark } from './chart-layers';
 import { axisLabelProps, chartColors, chartTheme, paddedExtent, tickLabelProps } from './chart-theme';
 import { useElementWidth } from './use-element-width';
+import { CELSIUS_OFFSET_K as CELSIUS_OFFSET } from '../../../api/science/quantities';
 
-const CELSIUS_OFFSET = 273.15;
 
 /** One measured point on an Eyring plot (y = ln r at temperature `kelvin`). */
 export interface EyringPlotPoint {

@@ -5,6 +5,7 @@ import { CelsiusAxis, ThermalStrip } from './chart-layers';
 import { axisLabelProps, chartColors, chartTheme, paddedExtent, tickLabelProps } from './chart-theme';
 import { LegendItem } from './eyring-plot';
 import { useElementWidth } from './use-element-width';
+import { kelvinFromCelsius } from '../../../api/science/quantities';
 
 /** One line of a {@link LineChart}: points against temperature (°C). */
 export interface LineChartSeries {
@@ -158,7 +159,7 @@ export function LineChart({
                 return (
                   <div className="tnum text-xs leading-5 text-ink-800">
                     <div className="font-medium">
-                      {fixed(d.x, 1)} °C · {fixed(d.x + 273.15, 2)} K
+                      {fixed(d.x, 1)} °C · {fixed(kelvinFromCelsius(d.x), 2)} K
                     </div>
                     <div>
                       {d.series}: {formatY(d.y)}

@@ -5,6 +5,15 @@ import { CelsiusAxis, HorizontalRule, ThermalStrip, VerticalMark } from './chart
 import { axisLabelProps, chartColors, chartTheme, paddedExtent, tickLabelProps } from './chart-theme';
 import { LegendItem } from './eyring-plot';
 import { useElementWidth } from './use-element-width';
+import {
+  axisText,
+  formatSelectivity,
+  kelvinFromCelsius,
+  lnRatioOf,
+  majorShare,
+  majorShareRange,
+  type SelectivityMeasure,
+} from '../../../api/science/quantities';
 
 export type SelectivityAxis = 'ee' | 'percentA';
 
@@ -29,8 +38,10 @@ export interface SelectivityMeasuredPoint {
 export interface SelectivityChartProps {
   curve: SelectivityCurvePoint[];
   points?: SelectivityMeasuredPoint[];
-  /** Which quantity is on the y axis. */
+  /** Which quantity is on the y axis: the signed excess (ee, or % de for dr) or the share (% A, or % major for dr). */
   measure: SelectivityAxis;
+  /** The measure the runs are reported in; sets the words (dr: % de and % major, never ee). Default ee. */
+  family?: SelectivityMeasure;
   /** A specification drawn as a horizontal rule, in the units of `measure` (e.g. 99 for 99 % ee). */
   spec?: number | null;
   curveLabel?: string;
@@ -73,6 +84,7 @@ export function SelectivityChart({
   curve,
   points = [],
   measure,
+  family = 'ee',
   spec,
   curveLabel = 'forecast',
   bandLabel,
@@ -84,28 +96,24 @@ export function SelectivityChart({
   const [ref, measured] = useElementWidth<HTMLDivElement>();
   const chartWidth = width ?? measured;
   const legendGradient = `legend-thermal-${useId().replace(/:/g, '')}`;
-  const pick = (v: { eePercent: number; percentA: number }) => (measure === 'ee' ? v.eePercent : v.percentA);
-  const yLabel = measure === 'ee' ? 'ee (%)' : 'A (% of A + B)';
-  const unitText = measure === 'ee' ? '% ee' : '% A';
+  // For diastereomers the share axis is % major, the larger share whichever isomer it is.
+  const fold = family === 'dr' && measure === 'percentA';
+  const pick = (v: { eePercent: number; percentA: number }) => (measure === 'ee' ? v.eePercent : fold ? majorShare(v.percentA) : v.percentA);
+  const words = axisText(family, measure);
+  const yLabel = words.axis;
+  const unitText = words.unit;
 
-  const curveData = useMemo<Datum[]>(
-    () => curve.map((c) => ({ kind: 'curve', x: c.celsius, y: measure === 'ee' ? c.eePercent : c.percentA, c })),
-    [curve, measure],
-  );
-  const pointData = useMemo<Datum[]>(
-    () => points.map((p) => ({ kind: 'point', x: p.celsius, y: measure === 'ee' ? p.eePercent : p.percentA, p })),
-    [points, measure],
-  );
+  const curveData = useMemo<Datum[]>(() => curve.map((c) => ({ kind: 'curve', x: c.celsius, y: pick(c), c })), [curve, measure, fold]);
+  const pointData = useMemo<Datum[]>(() => points.map((p) => ({ kind: 'point', x: p.celsius, y: pick(p), p })), [points, measure, fold]);
   const band = useMemo(
     () =>
       curve
         .filter((c) => c.band)
-        .map((c) => ({
-          x: c.celsius,
-          lo: (measure === 'ee' ? c.band!.eePercent : c.band!.percentA)[0],
-          hi: (measure === 'ee' ? c.band!.eePercent : c.band!.percentA)[1],
-        })),
-    [curve, measure],
+        .map((c) => {
+          const [lo, hi] = measure === 'ee' ? c.band!.eePercent : fold ? majorShareRange(...c.band!.percentA) : c.band!.percentA;
+          return { x: c.celsius, lo, hi };
+        }),
+    [curve, measure, fold],
   );
 
   const xDomain = useMemo(() => paddedExtent([...curveData.map(xOf), ...pointData.map(xOf)], 0.02, 5), [curveData, pointData]);
@@ -116,7 +124,7 @@ export function SelectivityChart({
       1,
     );
     const ceiling = 100;
-    const floor = measure === 'ee' ? -100 : 0;
+    const floor = measure === 'ee' ? -100 : fold ? 50 : 0;
     return [Math.max(floor, lo), Math.min(ceiling, hi)];
   }, [curveData, pointData, band, spec, measure]);
 
@@ -187,16 +195,20 @@ export function SelectivityChart({
                 return (
                   <div className="tnum text-xs leading-5 text-ink-800">
                     <div className="font-medium">
-                      {fixed(d.x, 1)} °C · {fixed(d.x + 273.15, 2)} K
+                      {fixed(d.x, 1)} °C · {fixed(kelvinFromCelsius(d.x), 2)} K
                     </div>
                     <div>
-                      {d.kind === 'curve' ? curveLabel : 'measured'}: ee {percent(v.eePercent)} % · er {enantiomericRatio(v.percentA)}
+                      {d.kind === 'curve' ? curveLabel : 'measured'}:{' '}
+                      {family === 'ee' ? `ee ${percent(v.eePercent)} % · er ${enantiomericRatio(v.percentA)}` : formatSelectivity(family, lnRatioOf('ee', v.eePercent))}
                       {d.kind === 'point' && d.p.status === 'censored' ? ' (lower bound)' : ''}
                     </div>
                     {d.kind === 'curve' && d.c.band && (
                       <div>
-                        {bandLabel ?? 'band'}: {percent(pick({ eePercent: d.c.band.eePercent[0], percentA: d.c.band.percentA[0] }))} to{' '}
-                        {percent(pick({ eePercent: d.c.band.eePercent[1], percentA: d.c.band.percentA[1] }))} {unitText}
+                        {bandLabel ?? 'band'}:{' '}
+                        {(() => {
+                          const [lo, hi] = measure === 'ee' ? d.c.band.eePercent : fold ? majorShareRange(...d.c.band.percentA) : d.c.band.percentA;
+                          return `${percent(lo)} to ${percent(hi)} ${unitText}`;
+                        })()}
                       </div>
                     )}
                   </div>

@@ -1,21 +1,27 @@
 import { useId } from 'react';
 import { inputClass, Segmented } from './fields';
+import { axisText, readDecimal, type SelectivityMeasure } from '../../../../api/science/quantities';
 
-/** y-axis choice (ee % or % A) and an optional specification in the same unit. */
+/** y-axis choice (ee % or % A; % de or % major for dr) and an optional specification in the same unit. */
 export function ChartControls({
   name,
   measure,
   onMeasure,
   spec,
   onSpec,
+  family = 'ee',
 }: {
   name: string;
   measure: 'ee' | 'percentA';
   onMeasure: (m: 'ee' | 'percentA') => void;
   spec: string;
   onSpec: (s: string) => void;
+  /** The measure the runs are reported in (sets the words). */
+  family?: SelectivityMeasure;
 }) {
   const id = useId();
+  const signed = axisText(family, 'ee');
+  const share = axisText(family, 'percentA');
   return (
     <div className="flex flex-wrap items-end gap-4">
       <Segmented
@@ -24,8 +30,8 @@ export function ChartControls({
         value={measure}
         onChange={onMeasure}
         options={[
-          { value: 'ee', label: 'ee %' },
-          { value: 'percentA', label: '% A' },
+          { value: 'ee', label: signed.button },
+          { value: 'percentA', label: share.button },
         ]}
       />
       <div className="flex flex-col gap-1">
@@ -41,7 +47,7 @@ export function ChartControls({
             onChange={(e) => onSpec(e.target.value)}
             placeholder="e.g. 99"
           />
-          <span className="whitespace-nowrap text-sm text-ink-600">{measure === 'ee' ? '% ee' : '% A'}</span>
+          <span className="whitespace-nowrap text-sm text-ink-600">{(measure === 'ee' ? signed : share).unit}</span>
         </div>
       </div>
     </div>
@@ -50,8 +56,6 @@ export function ChartControls({
 
 /** A specification as typed, or null when empty or not a number in range. */
 export function parseSpec(text: string): number | null {
-  const t = text.trim().replace(',', '.');
-  if (t === '') return null;
-  const v = Number(t);
-  return Number.isFinite(v) && v > -100 && v <= 100 ? v : null;
+  const v = readDecimal(text);
+  return v !== null && v > -100 && v <= 100 ? v : null;
 }

@@ -2,6 +2,7 @@ import type { FitResponse } from '../../../../api/features/compute/schemas';
 import { TableHead } from '../../../components/ui/table-head';
 import type { EyringBranchLine } from '../../../components/charts/eyring-plot';
 import { fixed, percent, sig, withUncertainty } from '../../../lib/format';
+import { celsiusFromKelvin, eeFromLnRatio } from '../../../../api/science/quantities';
 
 const FLAG_TEXT: Record<string, string> = {
   outlier: 'outlier (|studentized residual| > 3)',
@@ -61,8 +62,8 @@ export function ResidualTable({
             return (
               <tr key={r.index} className={`border-b border-slate-100 last:border-0 ${flagged ? 'bg-caution-50' : ''}`}>
                 <td className="px-2 py-1 text-left text-ink-600">{line ?? r.index + 1}</td>
-                <td className="px-2 py-1">{fixed(r.kelvin - 273.15, 1)}</td>
-                <td className="px-2 py-1">{percent(Math.tanh(r.lnRatio / 2) * 100)}</td>
+                <td className="px-2 py-1">{fixed(celsiusFromKelvin(r.kelvin), 1)}</td>
+                <td className="px-2 py-1">{percent(eeFromLnRatio(r.lnRatio))}</td>
                 <td className="px-2 py-1">{fixed(r.lnRatio, 3)}</td>
                 <td className="px-2 py-1">{r.residual === null ? '—' : fixed(r.residual, 3)}</td>
                 <td className="px-2 py-1">{r.studentizedInternal == null ? '—' : fixed(r.studentizedInternal, 2)}</td>
@@ -147,7 +148,7 @@ export function TwoBranchBox({ twoBranch }: { twoBranch: Curvature }) {
   const b = twoBranch.break;
   const branch = (name: string, br: NonNullable<typeof twoBranch.low>) => (
     <li>
-      {name}: {fixed(br.fromKelvin - 273.15, 0)} to {fixed(br.toKelvin - 273.15, 0)} °C, n = {br.n}, ΔΔH‡ ={' '}
+      {name}: {fixed(celsiusFromKelvin(br.fromKelvin), 0)} to {fixed(celsiusFromKelvin(br.toKelvin), 0)} °C, n = {br.n}, ΔΔH‡ ={' '}
       {withUncertainty(br.ddH['kJ/mol'], br.ddH.se?.['kJ/mol'])} kJ/mol ({withUncertainty(br.ddH['kcal/mol'], br.ddH.se?.['kcal/mol'])} kcal/mol),
       ΔΔS‡ = {fixed(br.ddS['J/(mol*K)'], 1)} J/(mol·K)
     </li>

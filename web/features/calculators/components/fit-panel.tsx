@@ -25,8 +25,8 @@ import { FitParameterTable } from './fit-parameter-table';
 import { FitWarnings, ResidualTable, TwoBranchBox, branchLines } from './fit-diagnostics';
 import { PredictionBox } from './prediction-box';
 import { ScreenPasteBox } from './screen-paste-box';
+import { celsiusFromKelvin, eeFromLnRatio, readDecimal, TEMPERATURE_UNIT_LABEL as UNIT_TEXT } from '../../../../api/science/quantities';
 
-const UNIT_TEXT: Record<TemperatureUnit, string> = { K: 'K', C: '°C', F: '°F' };
 const MEASURE_TEXT: Record<SelectivityMeasure, string> = { ee: 'ee %', er: 'er (A:B)', dr: 'dr (A:B)', percentA: '% A', ratio: 'r = A/B' };
 
 interface Submitted {
@@ -37,12 +37,8 @@ interface Submitted {
 }
 
 function numberOrNull(text: string): number | null | 'invalid' {
-  const t = text
-    .trim()
-    .replace(/\u2212/g, '-')
-    .replace(',', '.');
-  if (t === '') return null;
-  return /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/.test(t) ? Number(t) : 'invalid';
+  if (text.trim() === '') return null;
+  return readDecimal(text) ?? 'invalid';
 }
 
 /** An interval in ln r: the API's own lnRatio ends (ratio ends are null beyond the representable range). */
@@ -261,7 +257,11 @@ export function FitPanel() {
                 }
               />
               {view.proposed ? (
-                <PredictionBox prediction={view.proposed} confidence={fit.confidence} />
+                <PredictionBox
+                  prediction={view.proposed}
+                  confidence={fit.confidence}
+                  measure={submitted?.measure ?? measure}
+                />
               ) : (
                 <p className="text-sm text-ink-500">Enter a proposed temperature to get a prediction with its interval.</p>
               )}
@@ -269,12 +269,20 @@ export function FitPanel() {
               <TwoBranchBox twoBranch={fit.twoBranch} />
               <div className="flex flex-col gap-2">
                 <h3 className="text-sm font-semibold text-ink-900">Selectivity against temperature from the fit</h3>
-                <ChartControls name="fit" measure={chartMeasure} onMeasure={setChartMeasure} spec={specText} onSpec={setSpecText} />
+                <ChartControls
+                  name="fit"
+                  measure={chartMeasure}
+                  onMeasure={setChartMeasure}
+                  spec={specText}
+                  onSpec={setSpecText}
+                  family={submitted?.measure ?? measure}
+                />
                 <SelectivityChart
                   title="Fitted selectivity against temperature with the prediction band"
                   curve={view.selectivityCurve}
                   points={view.selectivityPoints}
                   measure={chartMeasure}
+                  family={submitted?.measure ?? measure}
                   spec={parseSpec(specText)}
                   curveLabel="fitted line"
                   bandLabel={`${fixed(fit.confidence * 100, 0)} % prediction band (new run)`}
@@ -335,8 +343,8 @@ function buildView(fit: FitResponse, submitted: Submitted) {
   }));
   const selectivityPoints = fit.residuals.map((r) => ({
     id: r.index,
-    celsius: r.kelvin - 273.15,
-    eePercent: Math.tanh(r.lnRatio / 2) * 100,
+    celsius: celsiusFromKelvin(r.kelvin),
+    eePercent: eeFromLnRatio(r.lnRatio),
     percentA: 100 / (1 + Math.exp(-r.lnRatio)),
     status: r.status,
   }));

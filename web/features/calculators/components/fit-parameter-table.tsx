@@ -2,6 +2,7 @@ import type { FitResponse } from '../../../../api/features/compute/schemas';
 import { decimalsFor, fixed, signed, withUncertainty } from '../../../lib/format';
 import { ConventionNote } from './fields';
 import { FitModelNotes } from './fit-model-notes';
+import { celsiusFromKelvin } from '../../../../api/science/quantities';
 
 type Interval = [number, number] | undefined;
 
@@ -68,7 +69,7 @@ export function FitParameterTable({ fit }: { fit: FitResponse }) {
         <dd className="text-ink-950">{fit.weighting === 'none' ? 'none (ordinary least squares)' : 'by uncertainty (weighted)'}</dd>
         <dt className="text-ink-600">Screened range</dt>
         <dd className="text-ink-950">
-          {fixed(fit.temperatureRange.minKelvin - 273.15, 1)} to {fixed(fit.temperatureRange.maxKelvin - 273.15, 1)} °C
+          {fixed(celsiusFromKelvin(fit.temperatureRange.minKelvin), 1)} to {fixed(celsiusFromKelvin(fit.temperatureRange.maxKelvin), 1)} °C
         </dd>
       </dl>
       <FitModelNotes fit={fit} />

@@ -4,6 +4,7 @@ import { sig } from '../../../lib/format';
 import type { TemperatureUnit } from '../lib/parse-screen';
 import type { DurationUnit } from '../lib/rate-form';
 import { NumberField, SelectField, temperatureUnitOptions, type Option } from './fields';
+import { SECONDS_PER } from '../../../../api/science/quantities';
 
 export const durationUnitOptions: Option<DurationUnit>[] = [
   { value: 's', label: 's' },
@@ -41,11 +42,7 @@ function scientific(value: number): string {
   return `${mantissa.replace('-', '\u2212')} × 10${power}`;
 }
 
-const SECOND = 1;
-const MINUTE = 60;
-const HOUR = 3600;
-const DAY = 86_400;
-const YEAR = 365.25 * DAY;
+const { s: SECOND, min: MINUTE, h: HOUR, d: DAY, y: YEAR } = SECONDS_PER;
 /** Readable time marks for a log axis in seconds: 1 s, 10 s, 1 min, 10 min, 1 h, 10 h, 1 d, 10 d, 100 d, 1 y, 10 y … */
 const DURATION_MARKS = [1e-3, 1e-2, 0.1, SECOND, 10, MINUTE, 10 * MINUTE, HOUR, 10 * HOUR, DAY, 10 * DAY, 100 * DAY, YEAR, 10 * YEAR, 100 * YEAR, 1000 * YEAR];
 

@@ -1,14 +1,27 @@
 import type { FitResponse } from '../../../../api/features/compute/schemas';
+import { DISPLAY_LABEL, DISPLAY_MEASURES, formatMeasure, formatMeasureRange, type SelectivityMeasure } from '../../../../api/science/quantities';
 import { SafetyCaution } from '../../../components/ui/caution';
-import { enantiomericRatio, fixed, percent, withUncertainty } from '../../../lib/format';
+import { enantiomericRatio, fixed, percent, withUncertainty, lnRatioOf, lnRatioRange } from '../../../lib/format';
 
 type Prediction = FitResponse['predictions'][number];
 
 /** The forecast at the proposed temperature with its prediction interval for a new run. */
-export function PredictionBox({ prediction, confidence }: { prediction: Prediction; confidence: number }) {
+export function PredictionBox({
+  prediction,
+  confidence,
+  measure = 'ee',
+}: {
+  prediction: Prediction;
+  confidence: number;
+  /** The measure the runs are reported in: dr shows dr, % de and % major; ee shows ee, % A and er. */
+  measure?: SelectivityMeasure;
+}) {
   const level = `${fixed(confidence * 100, 0)} %`;
   const pi = prediction.predictionInterval;
   const ci = prediction.confidenceInterval;
+  const lnR = lnRatioOf(prediction);
+  const lnRange = (iv: Parameters<typeof lnRatioRange>[0]) => lnRatioRange(iv);
+  const displays = DISPLAY_MEASURES[measure];
   return (
     <section
       aria-label="Prediction at the proposed temperature"
@@ -19,30 +32,56 @@ export function PredictionBox({ prediction, confidence }: { prediction: Predicti
           At {fixed(prediction.celsius, 1)} °C <span className="font-normal text-ink-600">({fixed(prediction.kelvin, 2)} K)</span>
         </h3>
         <dl className="tnum grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm">
-          <dt className="text-ink-600">ee</dt>
-          <dd>
-            <span className="text-lg font-semibold text-ink-950">{percent(prediction.eePercent)} %</span>
-            {pi && (
-              <span className="ml-2 text-ink-700">
-                {level} prediction interval {percent(pi.eePercent[0])} to {percent(pi.eePercent[1])} %
-              </span>
+          {measure === 'ee' ? (
+            <>
+            <dt className="text-ink-600">ee</dt>
+            <dd>
+              <span className="text-lg font-semibold text-ink-950">{percent(prediction.eePercent)} %</span>
+              {pi && (
+                <span className="ml-2 text-ink-700">
+                  {level} prediction interval {percent(pi.eePercent[0])} to {percent(pi.eePercent[1])} %
+                </span>
+              )}
+            </dd>
+            <dt className="text-ink-600">% A</dt>
+            <dd>
+              <span className="font-medium text-ink-950">{percent(prediction.percentA)} %</span>
+              {pi && (
+                <span className="ml-2 text-ink-700">
+                  interval {percent(pi.percentA[0])} to {percent(pi.percentA[1])} %
+                </span>
+              )}
+              <span className="ml-2 text-ink-600">er {enantiomericRatio(prediction.percentA)}</span>
+            </dd>
+            {ci && (
+              <>
+                <dt className="text-ink-600">Mean line</dt>
+                <dd className="text-ink-700">
+                  {level} confidence interval {percent(ci.eePercent[0])} to {percent(ci.eePercent[1])} % ee
+                </dd>
+              </>
             )}
-          </dd>
-          <dt className="text-ink-600">% A</dt>
-          <dd>
-            <span className="font-medium text-ink-950">{percent(prediction.percentA)} %</span>
-            {pi && (
-              <span className="ml-2 text-ink-700">
-                interval {percent(pi.percentA[0])} to {percent(pi.percentA[1])} %
-              </span>
-            )}
-            <span className="ml-2 text-ink-600">er {enantiomericRatio(prediction.percentA)}</span>
-          </dd>
-          {ci && (
+            </>
+          ) : (
+            displays.map((d, i) => (
+              <div key={d} className="contents">
+                <dt className="text-ink-600">{DISPLAY_LABEL[d]}</dt>
+                <dd>
+                  <span className={i === 0 ? 'text-lg font-semibold text-ink-950' : 'font-medium text-ink-950'}>{formatMeasure(d, lnR)}</span>
+                  {pi && (
+                    <span className="ml-2 text-ink-700">
+                      {i === 0 ? `${level} prediction interval` : 'interval'} {formatMeasureRange(d, ...lnRange(pi))}
+                    </span>
+                  )}
+                </dd>
+              </div>
+            ))
+          )}
+          {measure !== 'ee' && ci && (
             <>
               <dt className="text-ink-600">Mean line</dt>
               <dd className="text-ink-700">
-                {level} confidence interval {percent(ci.eePercent[0])} to {percent(ci.eePercent[1])} % ee
+                {level} confidence interval {formatMeasureRange(displays[0], ...lnRange(ci))} {DISPLAY_LABEL[displays[0]]}
               </dd>
             </>
           )}

@@ -1,6 +1,7 @@
 import type { FitRequestInput } from '../../../../api/features/compute/schemas';
 import { temperatureToK } from '../../../../api/science/units';
 import type { ScreenRow, SelectivityMeasure, TemperatureUnit } from './parse-screen';
+import { lnRatioOf } from '../../../../api/science/quantities';
 
 /** Number of temperatures at which the API evaluates the line and its bands for the plot. */
 export const GRID_SIZE = 60;
@@ -42,7 +43,7 @@ export function buildFitRequest(rows: ScreenRow[], settings: FitSettings): FitRe
   return {
     measurements: rows.map((r) => ({
       temperature: { value: r.temperature, unit },
-      selectivity: { measure, value: r.selectivity },
+      selectivity: { measure, value: r.selectivity, ...(r.atLeast ? { atLeast: true } : {}) },
       ...(r.uncertainty !== undefined ? { uncertainty: r.uncertainty } : {}),
       ...(settings.excludedLines.includes(r.line) ? { excluded: true } : {}),
       label: `line ${r.line}`,
@@ -68,12 +69,12 @@ export function errorBarLnRatio(
   if (sd === undefined) return null;
   if (measure === 'ee') {
     const v = typeof value === 'number' ? value : NaN;
-    const ln = (ee: number) => (ee > -100 && ee < 100 ? Math.log((100 + ee) / (100 - ee)) : null);
+    const ln = (ee: number) => (ee > -100 && ee < 100 ? lnRatioOf('ee', ee) : null);
     return { low: ln(v - sd), high: ln(v + sd) };
   }
   if (measure === 'percentA') {
     const v = typeof value === 'number' ? value : NaN;
-    const ln = (p: number) => (p > 0 && p < 100 ? Math.log(p / (100 - p)) : null);
+    const ln = (p: number) => (p > 0 && p < 100 ? lnRatioOf('percentA', p) : null);
     return { low: ln(v - sd), high: ln(v + sd) };
   }
   return { low: sd < 1 ? lnRatio + Math.log(1 - sd) : null, high: lnRatio + Math.log(1 + sd) };

@@ -1,14 +1,13 @@
+import { readDecimal } from '../../../../api/science/quantities';
+
 /**
  * Text typed into a number field: empty is "not given" (undefined); anything else must read as a
- * number, else NaN so the API's schema names the field. Accepts a true minus sign and a decimal comma.
+ * number (the shared grammar: a true minus sign and a decimal comma are fine), else NaN so the
+ * API's schema names the field.
  */
 export function numberText(text: string): number | undefined {
-  const t = text
-    .trim()
-    .replace(/\u2212/g, '-')
-    .replace(',', '.');
-  if (t === '') return undefined;
-  return /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/.test(t) ? Number(t) : NaN;
+  if (text.trim() === '') return undefined;
+  return readDecimal(text) ?? NaN;
 }
 
 /** A temperature range as typed (from, to, unit, count) in the API's `{ from, to, count }` shape. */

@@ -3,12 +3,19 @@ import { TableHead } from '../../../components/ui/table-head';
 import { EyringPlot, type EyringCurvePoint, type EyringPlotPoint } from '../../../components/charts/eyring-plot';
 import { SelectivityChart, type SelectivityCurvePoint, type SelectivityMeasuredPoint } from '../../../components/charts/selectivity-chart';
 import { SafetyCaution } from '../../../components/ui/caution';
-import { fixed, percent, withUncertainty } from '../../../lib/format';
+import { fixed, percent, withUncertainty, lnRatioOf, lnRatioRange } from '../../../lib/format';
 import { ChartControls, parseSpec } from '../../calculators/components/chart-controls';
 import { FitWarnings, RunNote, TwoBranchBox, branchLines } from '../../calculators/components/fit-diagnostics';
 import { FitParameterTable } from '../../calculators/components/fit-parameter-table';
 import type { AnalysisResponse, FitPrediction, Measurement } from '../api/types';
 import { CELSIUS } from '../lib/labels';
+import {
+  DISPLAY_MEASURES,
+  displayHeading,
+  formatMeasure,
+  formatMeasureRange,
+  type SelectivityMeasure,
+} from '../../../../api/science/quantities';
 
 /** An interval in ln r: the API's own lnRatio ends (ratio ends are null beyond the representable range). */
 const lnOf = (iv: { lnRatio?: [number, number] | undefined; ratio: [number | null, number | null] } | undefined | null): [number, number] | null =>
@@ -54,11 +61,14 @@ export function CampaignAnalysis({
   analysis,
   measurements,
   stale,
+  measure = 'ee',
 }: {
   analysis: AnalysisResponse;
   measurements: Measurement[];
   /** A newer answer is on its way (the old one stays on screen, dimmed). */
   stale: boolean;
+  /** The campaign's measure: a dr campaign is shown in dr, % de and % major, never ee. */
+  measure?: SelectivityMeasure;
 }) {
   const [chartMeasure, setChartMeasure] = useState<'ee' | 'percentA'>('ee');
   const [specText, setSpecText] = useState('');
@@ -99,13 +109,14 @@ export function CampaignAnalysis({
         <figure className="flex min-w-0 flex-col gap-1">
           <figcaption className="flex flex-wrap items-end justify-between gap-2">
             <span className="text-sm font-semibold text-ink-900">Selectivity against temperature</span>
-            <ChartControls name="campaign" measure={chartMeasure} onMeasure={setChartMeasure} spec={specText} onSpec={setSpecText} />
+            <ChartControls name="campaign" measure={chartMeasure} onMeasure={setChartMeasure} spec={specText} onSpec={setSpecText} family={measure} />
           </figcaption>
           <SelectivityChart
             title="Selectivity against temperature: fitted curve with the 95 % prediction band and the measured runs"
             curve={view.selectivityCurve}
             points={view.selectivityPoints}
             measure={chartMeasure}
+            family={measure}
             spec={parseSpec(specText)}
             curveLabel={twoBranchPreferred ? 'two-branch fit' : 'fitted line'}
             bandLabel={`${fixed(fit.confidence * 100, 0)} % prediction band (new run)`}
@@ -130,7 +141,7 @@ export function CampaignAnalysis({
           )}
           <FitParameterTable fit={fit} />
           {at ? (
-            <DdGAt prediction={at} confidence={fit.confidence} />
+            <DdGAt prediction={at} confidence={fit.confidence} measure={measure} />
           ) : (
             <p className="text-xs text-ink-600">ΔΔG‡ at another temperature: type it in the forecast panel below.</p>
           )}
@@ -141,7 +152,7 @@ export function CampaignAnalysis({
       </div>
       <section aria-label="Residual diagnostics" className="flex min-w-0 flex-col gap-2">
         <h3 className="text-sm font-semibold text-ink-900">Residual diagnostics</h3>
-        <ResidualDiagnostics analysis={analysis} measurements={measurements} />
+        <ResidualDiagnostics analysis={analysis} measurements={measurements} measure={measure} />
         <p className="text-xs text-ink-600">
           Residuals are in ln r (measured − fitted). A run is flagged (⚑, ringed on the plot) when its studentized residual exceeds 3 in size,
           its leverage is high or its Cook’s distance exceeds 1, and only when at least 3 residual degrees of freedom leave room to tell an
@@ -154,7 +165,9 @@ export function CampaignAnalysis({
 }
 
 /** ΔΔG‡ at the chosen temperature, with its SE from the full covariance. */
-function DdGAt({ prediction, confidence }: { prediction: FitPrediction; confidence: number }) {
+function DdGAt({ prediction, confidence, measure }: { prediction: FitPrediction; confidence: number; measure: SelectivityMeasure }) {
+  const primary = DISPLAY_MEASURES[measure][0];
+  const pi = prediction.predictionInterval;
   return (
     <dl className="tnum grid grid-cols-[auto_1fr] gap-x-4 gap-y-0.5 rounded border border-slate-200 px-3 py-2 text-sm" aria-label="Free-energy gap at the chosen temperature">
       <dt className="text-ink-600">
@@ -163,13 +176,17 @@ function DdGAt({ prediction, confidence }: { prediction: FitPrediction; confiden
       <dd className="text-ink-950">
         {withUncertainty(prediction.ddG['kJ/mol'], prediction.ddGSe?.['kJ/mol'])} kJ/mol · {withUncertainty(prediction.ddG['kcal/mol'], prediction.ddGSe?.['kcal/mol'])} kcal/mol
       </dd>
-      <dt className="text-ink-600">ee there</dt>
+      <dt className="text-ink-600">{primary === 'ee' ? 'ee' : displayHeading(primary).replace(/ \(%\)$/, '')} there</dt>
       <dd className="text-ink-950">
-        {percent(prediction.eePercent)} %
-        {prediction.predictionInterval && (
+        {primary === 'ee' ? `${percent(prediction.eePercent)} %` : formatMeasure(primary, lnRatioOf(prediction))}
+        {pi && (
           <span className="text-ink-600">
             {' '}
-            ({fixed(confidence * 100, 0)} % PI {percent(prediction.predictionInterval.eePercent[0])} to {percent(prediction.predictionInterval.eePercent[1])} %)
+            ({fixed(confidence * 100, 0)} % PI{' '}
+            {primary === 'ee'
+              ? `${percent(pi.eePercent[0])} to ${percent(pi.eePercent[1])} %`
+              : formatMeasureRange(primary, ...lnRatioRange(pi))}
+            )
           </span>
         )}
         {prediction.extrapolated && <span className="ml-1 font-medium text-caution-700">⚠ extrapolated</span>}
@@ -185,7 +202,8 @@ const FLAG_TEXT: Record<string, string> = {
 };
 
 /** One row per run: residual in ln r, studentized residual, leverage, Cook's distance, flags. */
-function ResidualDiagnostics({ analysis, measurements }: { analysis: AnalysisResponse; measurements: Measurement[] }) {
+function ResidualDiagnostics({ analysis, measurements, measure }: { analysis: AnalysisResponse; measurements: Measurement[]; measure: SelectivityMeasure }) {
+  const primary = DISPLAY_MEASURES[measure][0];
   const byId = new Map(measurements.map((m) => [m.id, m]));
   const residuals = analysis.fit?.residuals ?? [];
   return (
@@ -197,7 +215,7 @@ function ResidualDiagnostics({ analysis, measurements }: { analysis: AnalysisRes
           columns={[
             { label: 'Run', align: 'left' },
             { label: 'T (°C)' },
-            { label: 'ee (%)' },
+            { label: displayHeading(primary) },
             { label: 'ln r' },
             { label: 'Residual (ln r)' },
             { label: 'Studentized (internal)' },
@@ -219,7 +237,7 @@ function ResidualDiagnostics({ analysis, measurements }: { analysis: AnalysisRes
                 <td className="px-2 py-0.5">{fixed(p.kelvin - CELSIUS, 1)}</td>
                 <td className="px-2 py-0.5">
                   {p.status === 'censored' ? '≥ ' : ''}
-                  {percent(p.eePercent)}
+                  {primary === 'ee' ? percent(p.eePercent) : formatMeasure(primary, p.lnRatio).replace(/ %$/, '')}
                 </td>
                 <td className="px-2 py-0.5">{fixed(p.lnRatio, 3)}</td>
                 <td className="px-2 py-0.5">{r?.residual == null ? '—' : fixed(r.residual, 3)}</td>

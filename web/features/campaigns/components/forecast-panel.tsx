@@ -3,22 +3,35 @@ import { savedForecastCreateSchema, type TemperatureUnit } from '../../../../api
 import { SafetyCaution } from '../../../components/ui/caution';
 import { Button } from '../../../components/ui/form';
 import { ApiError } from '../../../lib/api-client';
-import { enantiomericRatio, fixed, percent, sig } from '../../../lib/format';
+import { enantiomericRatio, fixed, percent, sig, lnRatioOf, lnRatioRange } from '../../../lib/format';
 import { PredictionBox } from '../../calculators/components/prediction-box';
 import { useDeleteForecast, useForecasts, useSaveForecast } from '../api/forecasts';
 import type { AnalysisResponse, SavedForecastView } from '../api/types';
 import { kelvinTo, parseNumber } from '../lib/grid';
+import {
+  DISPLAY_MEASURES,
+  displayHeading,
+  formatDisplay,
+  formatMeasure,
+  formatMeasureRange,
+  fromKelvin,
+  TEMPERATURE_UNIT_LABEL as UNIT_TEXT,
+  toKelvin,
+  type SelectivityMeasure,
+} from '../../../../api/science/quantities';
 
 /** r, or a plain statement when it is beyond what a number can hold (far outside the data). */
 const ratioText = (r: number | null) => (r === null ? 'beyond any representable number' : sig(r, 3));
-import { CELSIUS } from '../lib/labels';
-
-const UNIT_TEXT: Record<TemperatureUnit, string> = { C: '°C', K: 'K', F: '°F' };
 
 function toCelsius(value: number, unit: TemperatureUnit): number {
-  if (unit === 'K') return value - CELSIUS;
-  if (unit === 'F') return ((value - 32) * 5) / 9;
-  return value;
+  return unit === 'C' ? value : fromKelvin(toKelvin(value, unit), 'C');
+}
+
+/** "the predicted ratio, ee and % A" or, for a dr campaign, "the predicted dr, % de and % major". */
+function predictedWords(measure: SelectivityMeasure): string {
+  if (measure === 'dr') return 'the predicted dr, % de and % major diastereomer';
+  if (measure === 'ee' || measure === 'er') return 'the predicted ratio, ee and % A';
+  return 'the predicted % A and ratio';
 }
 
 /**
@@ -33,6 +46,7 @@ export function ForecastPanel({
   onAt,
   weighting,
   canEdit,
+  measure = 'ee',
 }: {
   campaignId: string;
   analysis: AnalysisResponse | undefined;
@@ -40,6 +54,8 @@ export function ForecastPanel({
   onAt: (celsius: number | null) => void;
   weighting: 'none' | 'uncertainty';
   canEdit: boolean;
+  /** The campaign's measure: sets what the forecast is shown as (dr, % de, % major for diastereomers). */
+  measure?: SelectivityMeasure;
 }) {
   const id = useId();
   const [text, setText] = useState(atCelsius === null ? '' : String(atCelsius));
@@ -159,12 +175,12 @@ export function ForecastPanel({
 
       {!fit && <p className="text-sm text-ink-600">A forecast needs a fit: {analysis?.problem?.message ?? 'add measurements first.'}</p>}
       {fit && !showing && atCelsius === null && (
-        <p className="text-sm text-ink-600">Type a temperature to get the predicted ratio, ee and % A with the 95 % prediction interval for one new run.</p>
+        <p className="text-sm text-ink-600">Type a temperature to get {predictedWords(measure)} with the 95 % prediction interval for one new run.</p>
       )}
       {fit && atCelsius !== null && !showing && <p className="text-sm text-ink-600">Computing…</p>}
       {fit && showing && prediction && (
         <>
-          <PredictionBox prediction={prediction} confidence={fit.confidence} />
+          <PredictionBox prediction={prediction} confidence={fit.confidence} measure={measure} />
           <p className="tnum text-sm text-ink-700">
             Predicted ratio r = [A]/[B] = <span className="font-medium text-ink-950">{ratioText(prediction.ratio)}</span>
             {prediction.predictionInterval && (
@@ -173,7 +189,7 @@ export function ForecastPanel({
                 (95 % PI {ratioText(prediction.predictionInterval.ratio[0])} to {ratioText(prediction.predictionInterval.ratio[1])})
               </>
             )}
-            , er {enantiomericRatio(prediction.percentA)}.
+            {measure === 'ee' || measure === 'er' ? `, er ${enantiomericRatio(prediction.percentA)}` : ''}.
           </p>
           {canEdit && (
             <form
@@ -236,7 +252,8 @@ function SmallField({ label, value, onChange, error, width }: { label: string; v
 const dateFormat = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'short' });
 
 /** Kept forecasts, each against any run measured since within ±1 K of its temperature. */
-export function SavedForecasts({ campaignId, canEdit }: { campaignId: string; canEdit: boolean }) {
+export function SavedForecasts({ campaignId, canEdit, measure = 'ee' }: { campaignId: string; canEdit: boolean; measure?: SelectivityMeasure }) {
+  const [primary, secondary] = DISPLAY_MEASURES[measure];
   const forecasts = useForecasts(campaignId);
   const remove = useDeleteForecast(campaignId);
   if (forecasts.isPending) return <p className="text-sm text-ink-500">Loading saved forecasts…</p>;
@@ -255,13 +272,13 @@ export function SavedForecasts({ campaignId, canEdit }: { campaignId: string; ca
                 Label and note
               </th>
               <th scope="col" className="px-2 py-1 text-right font-medium">
-                Forecast ee (%)
+                Forecast {primary === 'ee' ? 'ee (%)' : displayHeading(primary)}
               </th>
               <th scope="col" className="px-2 py-1 text-right font-medium">
-                95 % PI (% ee)
+                95 % PI ({primary === 'ee' ? '% ee' : displayHeading(primary).replace(/ \(%\)$/, '')})
               </th>
               <th scope="col" className="px-2 py-1 text-right font-medium">
-                A (%)
+                {primary === 'ee' ? 'A (%)' : displayHeading(secondary)}
               </th>
               <th scope="col" className="px-2 py-1 text-left font-medium">
                 Measured since
@@ -278,7 +295,14 @@ export function SavedForecasts({ campaignId, canEdit }: { campaignId: string; ca
           </thead>
           <tbody>
             {forecasts.data.map((f) => (
-              <ForecastRow key={f.id} f={f} canEdit={canEdit} onDelete={() => remove.mutate(f.id)} deleting={remove.isPending && remove.variables === f.id} />
+              <ForecastRow
+                key={f.id}
+                f={f}
+                measure={measure}
+                canEdit={canEdit}
+                onDelete={() => remove.mutate(f.id)}
+                deleting={remove.isPending && remove.variables === f.id}
+              />
             ))}
           </tbody>
         </table>
@@ -292,8 +316,23 @@ export function SavedForecasts({ campaignId, canEdit }: { campaignId: string; ca
   );
 }
 
-function ForecastRow({ f, canEdit, onDelete, deleting }: { f: SavedForecastView; canEdit: boolean; onDelete: () => void; deleting: boolean }) {
+function ForecastRow({
+  f,
+  measure,
+  canEdit,
+  onDelete,
+  deleting,
+}: {
+  f: SavedForecastView;
+  measure: SelectivityMeasure;
+  canEdit: boolean;
+  onDelete: () => void;
+  deleting: boolean;
+}) {
   const pi = f.result.predictionInterval;
+  const [primary, secondary] = DISPLAY_MEASURES[measure];
+  const lnR = lnRatioOf(f.result);
+  const enantiomers = primary === 'ee';
   return (
     <tr className="border-b border-slate-100 align-top">
       <td className="px-2 py-1 text-right font-medium">{fixed(f.celsius, 1)}</td>
@@ -305,9 +344,11 @@ function ForecastRow({ f, canEdit, onDelete, deleting }: { f: SavedForecastView;
         )}
         {f.result.extrapolated && <span className="block text-xs font-medium text-caution-700">⚠ extrapolated beyond the screen</span>}
       </td>
-      <td className="px-2 py-1 text-right">{percent(f.result.eePercent)}</td>
-      <td className="px-2 py-1 text-right text-ink-700">{pi ? `${percent(pi.eePercent[0])} to ${percent(pi.eePercent[1])}` : '—'}</td>
-      <td className="px-2 py-1 text-right">{percent(f.result.percentA)}</td>
+      <td className="px-2 py-1 text-right">{enantiomers ? percent(f.result.eePercent) : formatMeasure(primary, lnR).replace(/ %$/, '')}</td>
+      <td className="px-2 py-1 text-right text-ink-700">
+        {!pi ? '—' : enantiomers ? `${percent(pi.eePercent[0])} to ${percent(pi.eePercent[1])}` : formatMeasureRange(primary, ...lnRatioRange(pi))}
+      </td>
+      <td className="px-2 py-1 text-right">{enantiomers ? percent(f.result.percentA) : formatMeasure(secondary, lnR).replace(/ %$/, '')}</td>
       <td className="px-2 py-1 text-left">
         {f.measured.length === 0 ? (
           <span className="text-ink-500">no run yet</span>
@@ -315,7 +356,7 @@ function ForecastRow({ f, canEdit, onDelete, deleting }: { f: SavedForecastView;
           <ul>
             {f.measured.map((m) => (
               <li key={m.measurementId}>
-                {percent(m.eePercent)} % ee at {fixed(kelvinTo(m.kelvin, 'C'), 1)} °C{' '}
+                {enantiomers ? `${percent(m.eePercent)} % ee` : formatDisplay(primary, Math.log(m.ratio))} at {fixed(kelvinTo(m.kelvin, 'C'), 1)} °C{' '}
                 {m.insidePredictionInterval === null ? (
                   <span className="text-ink-600">(no interval to compare)</span>
                 ) : m.insidePredictionInterval ? (

@@ -3,7 +3,7 @@ import { Link } from 'react-router-dom';
 import { SafetyCaution } from '../../../components/ui/caution';
 import { Button } from '../../../components/ui/form';
 import { paths } from '../../../config/paths';
-import { enantiomericRatio, fixed, percent, withUncertainty } from '../../../lib/format';
+import { enantiomericRatio, fixed, percent, withUncertainty, lnRatioOf, lnRatioRange } from '../../../lib/format';
 import { ConventionNote } from '../../calculators/components/fields';
 import { useCampaigns } from '../api/campaigns';
 import { useComparison } from '../api/comparison';
@@ -11,12 +11,38 @@ import type { CampaignListItem, ComparisonCampaign } from '../api/types';
 import { parseNumber } from '../lib/grid';
 import { CELSIUS, STATUS_MARK } from '../lib/labels';
 import { NewCampaignForm } from './new-campaign-form';
+import {
+  ABSOLUTE_ZERO,
+  celsiusFromKelvin,
+  DISPLAY_MEASURES,
+  formatDisplay,
+  formatMeasureRange,
+  type SelectivityMeasure,
+} from '../../../../api/science/quantities';
 
 const plus = (v: number, text: string) => (v > 0 && !text.startsWith('+') ? `+${text}` : text);
 
 function DdH({ c }: { c: ComparisonCampaign | undefined }) {
   if (!c?.ddH) return <span className="text-ink-500">—</span>;
   return <>{plus(c.ddH['kJ/mol'], withUncertainty(c.ddH['kJ/mol'], c.ddH.se?.['kJ/mol'], 1))}</>;
+}
+
+const isEnantiomers = (measure: SelectivityMeasure | undefined) => measure === undefined || measure === 'ee' || measure === 'er';
+
+/** The forecast in the campaign's own measure: ee for enantiomers; dr (with its PI) for diastereomers; % A otherwise. */
+function SelectivityAt({ c, measure }: { c: ComparisonCampaign | undefined; measure: SelectivityMeasure | undefined }) {
+  if (isEnantiomers(measure)) return <EeAt c={c} />;
+  const p = c?.prediction;
+  if (!p) return <span className="text-ink-500">{c?.problem ? 'no fit' : '—'}</span>;
+  const primary = DISPLAY_MEASURES[measure!][0];
+  const pi = p.predictionInterval;
+  return (
+    <span>
+      <span className="font-medium text-ink-950">{formatDisplay(primary, lnRatioOf(p))}</span>
+      {pi && <span className="block text-xs text-ink-600">PI {formatMeasureRange(primary, ...lnRatioRange(pi))}</span>}
+      {p.extrapolated && <span className="block text-xs font-medium text-caution-700">⚠ extrapolated</span>}
+    </span>
+  );
 }
 
 function EeAt({ c }: { c: ComparisonCampaign | undefined }) {
@@ -43,7 +69,7 @@ export function ProjectCampaigns({ projectId, canEdit }: { projectId: string; ca
   const [creating, setCreating] = useState(false);
   const [picked, setPicked] = useState<string[] | null>(null);
   const parsedAt = parseNumber(atText);
-  const atValid = typeof parsedAt === 'number' && parsedAt > -273.15 && parsedAt <= 726.85;
+  const atValid = typeof parsedAt === 'number' && parsedAt > ABSOLUTE_ZERO.C && parsedAt <= celsiusFromKelvin(1000);
   const [atCelsius, setAtCelsius] = useState(-20);
   const campaigns = useCampaigns(projectId);
   const comparison = useComparison(projectId, atCelsius);
@@ -117,7 +143,8 @@ export function ProjectCampaigns({ projectId, canEdit }: { projectId: string; ca
                     ΔΔH‡ ± SE (kJ/mol)
                   </th>
                   <th scope="col" className="py-1.5 pr-3 text-right font-medium">
-                    ee at {fixed(comparison.data?.at.celsius ?? atCelsius, 1)} °C (%, 95 % PI)
+                    {list.every((c) => isEnantiomers(c.measure)) ? 'ee' : 'Selectivity'} at {fixed(comparison.data?.at.celsius ?? atCelsius, 1)} °C (
+                    {list.every((c) => isEnantiomers(c.measure)) ? '%, ' : ''}95 % PI)
                   </th>
                   <th scope="col" className="py-1.5 text-left font-medium">
                     Compare
@@ -155,7 +182,12 @@ export function ProjectCampaigns({ projectId, canEdit }: { projectId: string; ca
       </section>
 
       {comparison.data && chosen.length > 0 && (
-        <Comparison at={comparison.data.at} campaigns={comparison.data.campaigns.filter((c) => chosen.includes(c.id))} stale={comparison.isPlaceholderData} />
+        <Comparison
+          at={comparison.data.at}
+          campaigns={comparison.data.campaigns.filter((c) => chosen.includes(c.id))}
+          measures={new Map(list.map((c) => [c.id, c.measure]))}
+          stale={comparison.isPlaceholderData}
+        />
       )}
     </div>
   );
@@ -192,7 +224,7 @@ function CampaignRow({ c, cmp, picked, onPick }: { c: CampaignListItem; cmp: Com
         {cmp?.breakAt && <span className="block text-xs text-ink-600">{breakText(cmp.breakAt)}</span>}
       </td>
       <td className="whitespace-nowrap py-2 pr-3 text-right">
-        <EeAt c={cmp} />
+        <SelectivityAt c={cmp} measure={c.measure} />
       </td>
       <td className="py-2">
         <input type="checkbox" checked={picked} onChange={(e) => onPick(e.target.checked)} aria-label={`Compare ${c.title} side by side`} />
@@ -206,7 +238,38 @@ function breakText(b: NonNullable<ComparisonCampaign['breakAt']>): string {
 }
 
 /** Chosen campaigns as columns, the quantities that tell catalysts or solvents apart as rows. */
-function Comparison({ at, campaigns, stale }: { at: { kelvin: number; celsius: number }; campaigns: ComparisonCampaign[]; stale: boolean }) {
+function Comparison({
+  at,
+  campaigns,
+  measures,
+  stale,
+}: {
+  at: { kelvin: number; celsius: number };
+  campaigns: ComparisonCampaign[];
+  measures: Map<string, SelectivityMeasure>;
+  stale: boolean;
+}) {
+  // ee only for enantiomer pairs: with a dr (or % A) campaign among the columns, each column speaks its own measure.
+  const allEnantiomers = campaigns.every((c) => isEnantiomers(measures.get(c.id)));
+  const also = (c: ComparisonCampaign) => {
+    const m = measures.get(c.id) ?? 'ee';
+    if (!c.prediction) return '—';
+    if (isEnantiomers(m)) return `er ${enantiomericRatio(c.prediction.percentA)}`;
+    const lnR = lnRatioOf(c.prediction);
+    return DISPLAY_MEASURES[m]
+      .slice(1)
+      .map((d) => formatDisplay(d, lnR))
+      .join(' · ');
+  };
+  const selectivityRows: { name: string; cell: (c: ComparisonCampaign) => ReactNode }[] = allEnantiomers
+    ? [
+        { name: `ee at ${fixed(at.celsius, 1)} °C (%)`, cell: (c) => <EeAt c={c} /> },
+        { name: 'er (A:B)', cell: (c) => (c.prediction ? enantiomericRatio(c.prediction.percentA) : '—') },
+      ]
+    : [
+        { name: `Selectivity at ${fixed(at.celsius, 1)} °C`, cell: (c) => <SelectivityAt c={c} measure={measures.get(c.id)} /> },
+        { name: 'Also as', cell: also },
+      ];
   const rows: { name: string; cell: (c: ComparisonCampaign) => ReactNode }[] = [
     { name: 'Runs in the fit (n)', cell: (c) => c.n },
     { name: 'ΔΔH‡ (kJ/mol)', cell: (c) => (c.ddH ? plus(c.ddH['kJ/mol'], withUncertainty(c.ddH['kJ/mol'], c.ddH.se?.['kJ/mol'], 1)) : '—') },
@@ -216,8 +279,7 @@ function Comparison({ at, campaigns, stale }: { at: { kelvin: number; celsius: n
       name: `ΔΔG‡ at ${fixed(at.celsius, 1)} °C (kJ/mol)`,
       cell: (c) => (c.prediction ? plus(c.prediction.ddG['kJ/mol'], withUncertainty(c.prediction.ddG['kJ/mol'], c.prediction.ddGSe?.['kJ/mol'], 2)) : '—'),
     },
-    { name: `ee at ${fixed(at.celsius, 1)} °C (%)`, cell: (c) => <EeAt c={c} /> },
-    { name: 'er (A:B)', cell: (c) => (c.prediction ? enantiomericRatio(c.prediction.percentA) : '—') },
+    ...selectivityRows,
     {
       name: 'Model',
       cell: (c) =>

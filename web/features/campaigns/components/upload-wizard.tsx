@@ -8,6 +8,7 @@ import type { ImportIssue, ImportPreview, ImportResult } from '../api/types';
 import { draftFromSuggestion, mappingFromDraft, type MappingDraft } from '../lib/import-mapping';
 import { CELSIUS, MEASURE_LABEL } from '../lib/labels';
 import type { UploadProgress } from '../lib/upload';
+import { SECONDS_PER } from '../../../../api/science/quantities';
 import { ColumnMappingStep } from './column-mapping-step';
 
 const DELIMITER_TEXT: Record<string, string> = { ',': 'comma', ';': 'semicolon', '\t': 'tab' };
@@ -352,7 +353,7 @@ function PreviewSummary({ preview }: { preview: ImportPreview }) {
                   <td className="px-2 py-0.5">{r.uncertainty ?? '—'}</td>
                   <td className="px-2 py-0.5 text-left">{r.sampleId ?? '—'}</td>
                   <td className="px-2 py-0.5">{r.conversionPercent ?? '—'}</td>
-                  <td className="px-2 py-0.5">{r.reactionTimeS === null ? '—' : fixed(r.reactionTimeS / 3600, 2)}</td>
+                  <td className="px-2 py-0.5">{r.reactionTimeS === null ? '—' : fixed(r.reactionTimeS / SECONDS_PER.h, 2)}</td>
                 </tr>
               ))}
             </tbody>

@@ -10,6 +10,8 @@ import {
   type TemperatureUnit,
   type TimeUnit,
 } from '../../../../api/features/campaigns/schemas';
+import { readPastedTable } from '../../../../api/features/imports/table-text';
+import { eeFromLnRatio, fromKelvin, lnRatioOf, percentAFromLnRatio, readDecimal, SECONDS_PER, splitBound } from '../../../../api/science/quantities';
 import { tidyMessage } from '../../calculators/lib/field-errors';
 import type { Measurement } from '../api/types';
 
@@ -39,17 +41,14 @@ export const emptyCells = (): GridCells => ({
 export const isBlank = (cells: GridCells) => GRID_COLUMNS.every((c) => cells[c].trim() === '');
 
 const MINUS = '\u2212';
-const SECONDS: Record<TimeUnit, number> = { s: 1, min: 60, h: 3600 };
 
 /**
- * A number as typed: true minus or hyphen, a decimal comma when there is no point, surrounding
- * spaces. Empty → null; anything else that is not a plain number → 'invalid'.
+ * A number as typed (the shared grammar): true minus or hyphen, a decimal comma when there is no
+ * point, surrounding spaces. Empty → null; anything else that is not a strict decimal → 'invalid'.
  */
 export function parseNumber(text: string): number | null | 'invalid' {
-  let t = text.trim().replace(/\u2212/g, '-').replace(/\s+/g, '');
-  if (t === '') return null;
-  if (!t.includes('.') && /^[+-]?\d+,\d+$/.test(t)) t = t.replace(',', '.');
-  return /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/.test(t) ? Number(t) : 'invalid';
+  if (text.trim() === '') return null;
+  return readDecimal(text) ?? 'invalid';
 }
 
 /** A number for an input cell: at most `decimals`, trailing zeros dropped, true minus sign. */
@@ -58,32 +57,20 @@ export function plain(value: number, decimals: number): string {
   return text.startsWith('-') ? MINUS + text.slice(1) : text;
 }
 
-/** "≥ 99.8", ">99.8" or "99.8+" mark a lower bound (e.g. at the assay's quantitation limit). */
+/** "≥ 99.8", ">99.8" or "99.8+" mark a lower bound (e.g. at the assay's quantitation limit); the shared grammar. */
 export function splitLowerBound(text: string): { text: string; atLeast: boolean } {
-  const t = text.trim();
-  if (/^(≥|>=|>)/.test(t)) return { text: t.replace(/^(≥|>=|>)\s*/, ''), atLeast: true };
-  if (/\+$/.test(t) && !/^[+]/.test(t)) return { text: t.slice(0, -1).trim(), atLeast: true };
-  return { text: t, atLeast: false };
+  const { text: rest, bound } = splitBound(text);
+  return bound === 'lower' ? { text: rest, atLeast: true } : { text: text.trim(), atLeast: false };
 }
 
 // ── stored measurement → cells ────────────────────────────────────────────────────────────────
 
 export function kelvinTo(kelvin: number, unit: TemperatureUnit): number {
-  if (unit === 'C') return kelvin - 273.15;
-  if (unit === 'F') return ((kelvin - 273.15) * 9) / 5 + 32;
-  return kelvin;
+  return fromKelvin(kelvin, unit);
 }
 
 function storedRatio(m: Pick<Measurement, 'measure' | 'value' | 'valueB'>): number {
-  if (m.valueB !== null) return m.value / m.valueB;
-  switch (m.measure) {
-    case 'ee':
-      return (100 + m.value) / (100 - m.value);
-    case 'percentA':
-      return m.value / (100 - m.value);
-    default:
-      return m.value;
-  }
+  return Math.exp(lnRatioOf(m.measure, m.value, m.valueB));
 }
 
 /** The stored selectivity written in another measure (for display when the column's measure differs). */
@@ -92,11 +79,11 @@ export function selectivityAs(m: Pick<Measurement, 'measure' | 'value' | 'valueB
   const r = storedRatio(m);
   switch (measure) {
     case 'ee':
-      return plain((100 * (r - 1)) / (r + 1), 2);
+      return plain(eeFromLnRatio(Math.log(r)), 2);
     case 'percentA':
-      return plain((100 * r) / (1 + r), 2);
+      return plain(percentAFromLnRatio(Math.log(r)), 2);
     case 'er':
-      return `${plain((100 * r) / (1 + r), 2)}:${plain(100 / (1 + r), 2)}`;
+      return `${plain(percentAFromLnRatio(Math.log(r)), 2)}:${plain(percentAFromLnRatio(-Math.log(r)), 2)}`;
     case 'dr':
       return r >= 1 ? `${plain(r, 2)}:1` : `1:${plain(1 / r, 2)}`;
     default:
@@ -130,7 +117,7 @@ export function cellsFromMeasurement(m: Measurement, units: ColumnUnits): GridCe
     sampleId: m.sampleId ?? '',
     replicateLabel: m.replicateLabel ?? '',
     conversionPercent: m.conversionPercent === null ? '' : plain(m.conversionPercent, 2),
-    reactionTime: m.reactionTimeS === null ? '' : plain(m.reactionTimeS / SECONDS[units.time], 3),
+    reactionTime: m.reactionTimeS === null ? '' : plain(m.reactionTimeS / SECONDS_PER[units.time], 3),
     notes: m.notes ?? '',
   };
 }
@@ -234,16 +221,16 @@ export function rowToUpdate(m: Measurement, cells: GridCells, units: ColumnUnits
 // ── paste ────────────────────────────────────────────────────────────────────────────────────
 
 /**
- * A block copied from a spreadsheet: rows by line, cells by tab (spreadsheets copy tab-separated);
- * without tabs, by semicolon, then by comma. Returns null for a single value (a normal paste).
+ * A block copied from a spreadsheet, read by the shared table reader (tab, semicolon or comma, as
+ * the file import splits text). Returns null for a single value (a normal paste): one line with no
+ * tab or semicolon, where a comma is a decimal comma.
  */
 export function parsePastedBlock(text: string): string[][] | null {
-  const lines = text.replace(/\r\n?/g, '\n').split('\n');
-  while (lines.length && lines[lines.length - 1].trim() === '') lines.pop();
+  const lines = text.replace(/\r\n?/g, '\n').split('\n').filter((l) => l.trim() !== '');
   if (lines.length === 0) return null;
-  const sep = text.includes('\t') ? '\t' : lines.some((l) => l.includes(';')) ? ';' : lines.length > 1 && lines.every((l) => l.includes(',')) ? ',' : null;
-  if (lines.length === 1 && sep === null) return null;
-  return lines.map((l) => (sep ? l.split(sep) : [l]).map((c) => c.trim()));
+  if (lines.length === 1 && !/[\t;]/.test(lines[0])) return null;
+  const table = readPastedTable(text);
+  return table.rows.map((r) => (table.delimiter === 'space' ? [r.cells.join(' ')] : r.cells));
 }
 
 /** A first pasted row that is all words (no number in any cell) is a header row. */

@@ -32,4 +32,5 @@ export const ASSAY_LABEL: Record<AssayMethod, string> = {
 /** Status as a word with a shape, never colour alone. */
 export const STATUS_MARK: Record<CampaignStatus, string> = { planned: '◌', active: '●', completed: '✓', archived: '▪' };
 
-export const CELSIUS = 273.15;
+/** Kelvin at 0 °C, from the shared quantities module. */
+export { CELSIUS_OFFSET_K as CELSIUS } from '../../../../api/science/quantities';
