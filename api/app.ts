@@ -9,6 +9,8 @@ import { fileURLToPath } from 'node:url';
 import type { AppConfig } from './config';
 import { createLogger } from './lib/logger';
 import { notFoundHandler, problemHandler } from './lib/problem';
+import { requestId } from './lib/request-id';
+import { checkRequestText } from './lib/request-text';
 import { NotFoundError, TooManyRequestsError } from './lib/errors';
 import { healthRouter } from './features/health/routes';
 import { installAuth, type OAuthSetup } from './features/auth/setup';
@@ -58,6 +60,7 @@ export function createApp(deps: AppDeps): Express {
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
+  app.use(requestId);
   app.use(
     helmet({
       contentSecurityPolicy: {
@@ -76,7 +79,10 @@ export function createApp(deps: AppDeps): Express {
     }),
   );
   // Request lines are logged at info; above that level the middleware would only allocate.
-  if (logger.isLevelEnabled('info')) app.use(pinoHttp({ logger, autoLogging: { ignore: (req) => req.url === '/api/health' } }));
+  // Every line logged for a request (through req.log) carries its id as `reqId`.
+  if (logger.isLevelEnabled('info')) {
+    app.use(pinoHttp({ logger, genReqId: (req) => req.id, quietReqLogger: true, autoLogging: { ignore: (req) => req.url === '/api/health' } }));
+  }
   app.use(express.json({ limit: '1mb' }));
 
   const mailbox = deps.mailbox ?? new Mailbox();
@@ -85,6 +91,7 @@ export function createApp(deps: AppDeps): Express {
   if (deps.config.devTools) app.use(mailboxRouter({ mailbox, realSmtp: Boolean(deps.config.smtpUrl) }));
 
   const api = Router();
+  api.use(checkRequestText);
   api.use(healthRouter({ knex: deps.knex, version: deps.config.version }));
   // Stateless calculators first: they are the hottest routes and need no project lookups.
   const computeLimit = rateLimit({

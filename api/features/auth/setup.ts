@@ -149,7 +149,7 @@ export function installAuth(app: Express, deps: { knex: Knex; config: AppConfig;
     if (typeof req.query.error === 'string') return void signInFailed(res, 'denied');
     authenticator.authenticate('github', (err: unknown, user: User | false) => {
       if (err || !user) {
-        (req.log ?? deps.logger)?.warn({ err }, 'sign-in failed');
+        (req.log ?? deps.logger?.child({ reqId: req.id }))?.warn({ err }, 'sign-in failed');
         return void signInFailed(res, 'failed');
       }
       const returnTo = req.session.returnTo ?? '/projects';

@@ -12,8 +12,10 @@ const projectName = z
   .string({ error: 'Give the project a name.' })
   .trim()
   .min(1, 'Give the project a name.')
-  .max(120, 'Keep the name to 120 characters or fewer.');
-const projectDescription = z.string({ error: 'The description must be text.' }).trim().max(2000, 'Keep the description to 2000 characters or fewer.');
+  .max(120, 'Keep the name to 120 characters or fewer.')
+  .refine((s) => !s.includes('\u0000'), 'The name must not contain a NUL character (U+0000).');
+const projectDescription = z.string({ error: 'The description must be text.' }).trim().max(2000, 'Keep the description to 2000 characters or fewer.')
+  .refine((s) => !s.includes('\u0000'), 'The description must not contain a NUL character (U+0000).');
 
 export const projectFieldsSchema = z.object({ name: projectName, description: projectDescription.default('') });
 export type ProjectFields = z.input<typeof projectFieldsSchema>;
