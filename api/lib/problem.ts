@@ -20,7 +20,7 @@ const nativeOf = (err: unknown): { code?: unknown; name?: unknown; message?: unk
 // or lock timeout via query_canceled 57014) and idle-in-transaction session timeout (25P03).
 const UNAVAILABLE_SQLSTATE = /^(08|53|57)|^25P03$|^55P03$/;
 const UNAVAILABLE_NODE_CODES = new Set(['ECONNREFUSED', 'ECONNRESET', 'ETIMEDOUT', 'EPIPE', 'EHOSTUNREACH', 'ENETUNREACH', 'EAI_AGAIN']);
-const UNAVAILABLE_MESSAGES = /Connection terminated|Client has encountered a connection error|timeout exceeded when trying to connect|Knex: Timeout acquiring a connection|Query read timeout|Connection ended unexpectedly/i;
+const UNAVAILABLE_MESSAGES = /^timeout expired$|Connection terminated|Client has encountered a connection error|timeout exceeded when trying to connect|Knex: Timeout acquiring a connection|Query read timeout|Connection ended unexpectedly/i;
 
 /** True when an error means the database is unreachable, frozen or shutting down (503, not 500). */
 export function isDatabaseUnavailable(err: unknown): boolean {

@@ -90,6 +90,8 @@ describe('database errors as problems', () => {
       expect(toProblem(Object.assign(new Error('gone'), { code })).status).toBe(503);
     }
     expect(toProblem(Object.assign(new Error('Knex: Timeout acquiring a connection. The pool is probably full.'), { name: 'KnexTimeoutError' })).status).toBe(503);
+    // pg's own connect timeout (connectionTimeoutMillis) says just this.
+    expect(toProblem(new Error('timeout expired')).status).toBe(503);
     expect(toProblem(new Error('something else')).status).toBe(500);
   });
 
