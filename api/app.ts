@@ -88,7 +88,7 @@ export function createApp(deps: AppDeps): Express {
   const mailbox = deps.mailbox ?? new Mailbox();
   const mailer = deps.mailer ?? (deps.config.smtpUrl ? createSmtpMailer(deps.config.smtpUrl, deps.config.mailFrom) : createInProcessMailer(mailbox, deps.config.mailFrom));
   installAuth(app, { knex: deps.knex, config: deps.config, oauth: oauthSetup(deps), logger });
-  if (deps.config.devTools) app.use(mailboxRouter({ mailbox, realSmtp: Boolean(deps.config.smtpUrl) }));
+  if (deps.config.devTools) app.use(mailboxRouter({ mailbox, realSmtp: Boolean(deps.config.smtpUrl), knex: deps.knex }));
 
   const api = Router();
   api.use(checkRequestText);
