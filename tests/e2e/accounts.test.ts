@@ -63,6 +63,15 @@ describe('accounts and projects in Chromium', () => {
     await page.waitForURL(/\/projects\/[0-9a-f-]+\/settings$/);
     await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toBe('Petra’s own screen (invented)');
 
+    // Details are saved with the version the page loaded; a second save uses the version the first returned.
+    const details = page.getByRole('form', { name: 'Project details' });
+    await details.getByLabel('Description').fill('Temperature screen of an invented ketone reduction.');
+    await details.getByRole('button', { name: 'Save details' }).click();
+    await expect.poll(() => details.getByRole('status').textContent()).toContain('Saved');
+    await details.getByLabel('Description').fill('Temperature screen of an invented ketone reduction, second pass.');
+    await details.getByRole('button', { name: 'Save details' }).click();
+    await expect.poll(async () => (await testKnex()('projects').where({ name: 'Petra’s own screen (invented)' }).first('version', 'description'))).toEqual({ version: 3, description: 'Temperature screen of an invented ketone reduction, second pass.' });
+
     // Invite someone; the pending invitation is listed and the mail reached the sink.
     await page.getByLabel('E-mail address').fill('not-an-address');
     await page.getByRole('button', { name: 'Send invitation' }).click();
