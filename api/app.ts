@@ -76,8 +76,14 @@ export function createApp(deps: AppDeps): Express {
         },
       },
       crossOriginEmbedderPolicy: false,
+      // Sent below, and only over HTTPS: on plain http it would mean nothing, and on 127.0.0.1 it would pin a developer's browser.
+      strictTransportSecurity: false,
     }),
   );
+  app.use((req, res, next) => {
+    if (req.secure) res.set('strict-transport-security', 'max-age=31536000; includeSubDomains');
+    next();
+  });
   // Request lines are logged at info; above that level the middleware would only allocate.
   // Every line logged for a request (through req.log) carries its id as `reqId`.
   if (logger.isLevelEnabled('info')) {
@@ -88,6 +94,11 @@ export function createApp(deps: AppDeps): Express {
   const mailbox = deps.mailbox ?? new Mailbox();
   const mailer = deps.mailer ?? (deps.config.smtpUrl ? createSmtpMailer(deps.config.smtpUrl, deps.config.mailFrom) : createInProcessMailer(mailbox, deps.config.mailFrom));
   installAuth(app, { knex: deps.knex, config: deps.config, oauth: oauthSetup(deps), logger });
+  // Whatever an API route answers a signed-in caller (members lists carry e-mail addresses) stays out of caches.
+  app.use('/api', (req, res, next) => {
+    if (req.user) res.set('cache-control', 'no-store');
+    next();
+  });
   if (deps.config.devTools) app.use(mailboxRouter({ mailbox, realSmtp: Boolean(deps.config.smtpUrl), knex: deps.knex }));
 
   const api = Router();
