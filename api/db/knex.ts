@@ -55,8 +55,8 @@ function envMs(name: string, fallback: number): number {
 
 export function dbTimeoutsFromEnv(): DbTimeouts {
   return {
-    acquireMs: envMs('EYRIE_DB_ACQUIRE_TIMEOUT_MS', 5_000),
-    connectMs: envMs('EYRIE_DB_CONNECT_TIMEOUT_MS', 3_000),
+    acquireMs: envMs('EYRIE_DB_ACQUIRE_TIMEOUT_MS', 10_000),
+    connectMs: envMs('EYRIE_DB_CONNECT_TIMEOUT_MS', 5_000),
     statementMs: envMs('EYRIE_DB_STATEMENT_TIMEOUT_MS', 15_000),
     idleInTransactionMs: envMs('EYRIE_DB_IDLE_IN_TRANSACTION_TIMEOUT_MS', 30_000),
   };
