@@ -108,6 +108,46 @@ describe('supervision by npm start', () => {
   }, 60_000);
 });
 
+describe('a crash in the middle of an import', () => {
+  it('when the API is killed -9 while an import is inserting, then no row of it remains and the restarted server takes the import again', async () => {
+    const owner = await knex('projectMembers').where({ role: 'owner' }).first('projectId', 'userId');
+    const campaign = await knex('campaigns').where({ projectId: owner.projectId }).first('id');
+    const user = await User.query().findById(owner.userId);
+    const auth = `Bearer ${(await createApiToken(user!)).secret}`;
+    const before = Number((await knex('measurements').where({ campaignId: campaign.id }).count({ n: '*' }).first())!.n);
+    // 60 000 invented runs (fixed pattern): large enough that the insert transaction lasts long enough to be caught.
+    const rows = Array.from({ length: 60_000 }, (_, i) => `${(-60 + (i % 80) + i / 1e5).toFixed(5)},${(80 + (i % 19)).toFixed(1)},S-${i}`);
+    const csv = Buffer.from(`Temperature (°C),ee (%),Sample\n${rows.join('\n')}\n`, 'utf8');
+    const form = () => {
+      const f = new FormData();
+      f.append('file', new Blob([csv], { type: 'text/csv' }), 'big-screen.csv');
+      f.append('request', JSON.stringify({ mapping: { columns: { temperature: 0, value: 1, sampleId: 2 }, temperatureUnit: 'C', measure: 'ee' }, acknowledgeWarnings: true }));
+      return f;
+    };
+    const apiPid = Number([...start.output.text.matchAll(/the API server started \(pid (\d+)\)/g)].at(-1)![1]);
+    const upload = fetch(`${base}/api/v1/campaigns/${campaign.id}/imports`, { method: 'POST', headers: { authorization: auth }, body: form() }).then(
+      (r) => r.status,
+      () => 'connection lost',
+    );
+    // Wait until PostgreSQL shows the import's insert inside its transaction, then kill the API outright.
+    await until(
+      'the import to be inserting',
+      async () => ((await knex('pg_stat_activity').where('query', 'like', 'insert into measurements%').whereNotNull('xactStart').first('pid')) ? true : null),
+      60_000,
+    );
+    process.kill(apiPid, 'SIGKILL');
+    expect(await upload).toBe('connection lost');
+    await start.output.waitFor(new RegExp(`the API server started \\(pid (?!${apiPid}\\))\\d+\\)`), 15_000);
+    await healthy();
+    // The transaction died with its connection: not one of the 60 000 rows is there.
+    await until('the killed backend to be gone', async () => ((await knex('pg_stat_activity').where('query', 'like', 'insert into measurements%').first('pid')) ? null : true), 20_000);
+    expect(Number((await knex('measurements').where({ campaignId: campaign.id }).count({ n: '*' }).first())!.n)).toBe(before);
+    const again = await fetch(`${base}/api/v1/campaigns/${campaign.id}/imports`, { method: 'POST', headers: { authorization: auth }, body: form() });
+    expect(again.status).toBe(201);
+    expect(Number((await knex('measurements').where({ campaignId: campaign.id }).count({ n: '*' }).first())!.n)).toBe(before + 60_000);
+  }, 120_000);
+});
+
 describe('graceful shutdown', () => {
   it('when the server gets SIGTERM during a request, then that request still gets its answer and the process exits 0', async () => {
     const port = await freePort();
