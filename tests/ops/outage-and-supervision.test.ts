@@ -13,7 +13,7 @@ import { freePort, startNode, startOwnCluster, timedFetch, type OwnCluster } fro
 const DB_LIMITS = {
   EYRIE_DB_ACQUIRE_TIMEOUT_MS: '2000',
   EYRIE_DB_CONNECT_TIMEOUT_MS: '1000',
-  EYRIE_DB_STATEMENT_TIMEOUT_MS: '1500',
+  EYRIE_DB_STATEMENT_TIMEOUT_MS: '3000',
 };
 
 let cluster: OwnCluster;
@@ -22,13 +22,13 @@ let start: ReturnType<typeof startNode>;
 let base: string;
 let bearer: string;
 
-async function until<T>(what: string, fn: () => Promise<T | null>, timeoutMs: number): Promise<T> {
+async function until<T>(what: string, fn: () => Promise<T | null>, timeoutMs: number, everyMs = 250): Promise<T> {
   const end = Date.now() + timeoutMs;
   for (;;) {
     const got = await fn().catch(() => null);
     if (got !== null) return got;
     if (Date.now() > end) throw new Error(`gave up waiting for ${what}`);
-    await new Promise((r) => setTimeout(r, 250));
+    await new Promise((r) => setTimeout(r, everyMs));
   }
 }
 const healthy = () => until('a healthy answer', async () => ((await timedFetch(`${base}/api/health`, {}, 5000)).status === 200 ? true : null), 20_000);
@@ -72,7 +72,7 @@ describe('a database that stops answering', () => {
       expect(data.headers.get('content-type')).toMatch(/application\/problem\+json/);
       expect(data.headers.get('retry-after')).toBe('5');
       expect(data.body).toMatchObject({ status: 503, title: 'Service unavailable', requestId: expect.any(String) });
-      expect(data.ms).toBeLessThan(8_000);
+      expect(data.ms).toBeLessThan(10_000);
     } finally {
       cluster.thaw();
     }
@@ -109,42 +109,44 @@ describe('supervision by npm start', () => {
 });
 
 describe('a crash in the middle of an import', () => {
-  it('when the API is killed -9 while an import is inserting, then no row of it remains and the restarted server takes the import again', async () => {
+  it('when the API is killed -9 while an import is inserting, then no row of it remains and the restarted server takes imports again', async () => {
     const owner = await knex('projectMembers').where({ role: 'owner' }).first('projectId', 'userId');
     const campaign = await knex('campaigns').where({ projectId: owner.projectId }).first('id');
     const user = await User.query().findById(owner.userId);
     const auth = `Bearer ${(await createApiToken(user!)).secret}`;
     const before = Number((await knex('measurements').where({ campaignId: campaign.id }).count({ n: '*' }).first())!.n);
-    // 60 000 invented runs (fixed pattern): large enough that the insert transaction lasts long enough to be caught.
-    const rows = Array.from({ length: 60_000 }, (_, i) => `${(-60 + (i % 80) + i / 1e5).toFixed(5)},${(80 + (i % 19)).toFixed(1)},S-${i}`);
-    const csv = Buffer.from(`Temperature (°C),ee (%),Sample\n${rows.join('\n')}\n`, 'utf8');
-    const form = () => {
+    // 20 000 invented runs (fixed pattern): two insert statements in one transaction, long enough to be caught.
+    const rows = Array.from({ length: 20_000 }, (_, i) => `${(-60 + (i % 80) + i / 1e5).toFixed(5)},${(80 + (i % 19)).toFixed(1)},S-${i}`);
+    const csvOf = (lines: string[]) => `Temperature (°C),ee (%),Sample\n${lines.join('\n')}\n`;
+    const form = (csv: string) => {
       const f = new FormData();
       f.append('file', new Blob([csv], { type: 'text/csv' }), 'big-screen.csv');
       f.append('request', JSON.stringify({ mapping: { columns: { temperature: 0, value: 1, sampleId: 2 }, temperatureUnit: 'C', measure: 'ee' }, acknowledgeWarnings: true }));
       return f;
     };
     const apiPid = Number([...start.output.text.matchAll(/the API server started \(pid (\d+)\)/g)].at(-1)![1]);
-    const upload = fetch(`${base}/api/v1/campaigns/${campaign.id}/imports`, { method: 'POST', headers: { authorization: auth }, body: form() }).then(
+    const upload = fetch(`${base}/api/v1/campaigns/${campaign.id}/imports`, { method: 'POST', headers: { authorization: auth }, body: form(csvOf(rows)) }).then(
       (r) => r.status,
       () => 'connection lost',
     );
     // Wait until PostgreSQL shows the import's insert inside its transaction, then kill the API outright.
     await until(
       'the import to be inserting',
-      async () => ((await knex('pg_stat_activity').where('query', 'like', 'insert into measurements%').whereNotNull('xactStart').first('pid')) ? true : null),
+      async () => ((await knex('pg_stat_activity').where('query', 'like', 'insert into measurements%').where({ state: 'active' }).whereNotNull('xactStart').first('pid')) ? true : null),
       60_000,
+      20,
     );
     process.kill(apiPid, 'SIGKILL');
     expect(await upload).toBe('connection lost');
     await start.output.waitFor(new RegExp(`the API server started \\(pid (?!${apiPid}\\))\\d+\\)`), 15_000);
     await healthy();
-    // The transaction died with its connection: not one of the 60 000 rows is there.
+    // The transaction died with its connection: not one of the 20 000 rows is there.
     await until('the killed backend to be gone', async () => ((await knex('pg_stat_activity').where('query', 'like', 'insert into measurements%').first('pid')) ? null : true), 20_000);
     expect(Number((await knex('measurements').where({ campaignId: campaign.id }).count({ n: '*' }).first())!.n)).toBe(before);
-    const again = await fetch(`${base}/api/v1/campaigns/${campaign.id}/imports`, { method: 'POST', headers: { authorization: auth }, body: form() });
+    // The restarted server takes an import again (a small one, to keep the test light).
+    const again = await fetch(`${base}/api/v1/campaigns/${campaign.id}/imports`, { method: 'POST', headers: { authorization: auth }, body: form(csvOf(rows.slice(0, 500))) });
     expect(again.status).toBe(201);
-    expect(Number((await knex('measurements').where({ campaignId: campaign.id }).count({ n: '*' }).first())!.n)).toBe(before + 60_000);
+    expect(Number((await knex('measurements').where({ campaignId: campaign.id }).count({ n: '*' }).first())!.n)).toBe(before + 500);
   }, 120_000);
 });
 
