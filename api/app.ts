@@ -9,6 +9,8 @@ import { fileURLToPath } from 'node:url';
 import type { AppConfig } from './config';
 import { createLogger } from './lib/logger';
 import { notFoundHandler, problemHandler } from './lib/problem';
+import { requestId } from './lib/request-id';
+import { checkRequestText } from './lib/request-text';
 import { NotFoundError, TooManyRequestsError } from './lib/errors';
 import { healthRouter } from './features/health/routes';
 import { installAuth, type OAuthSetup } from './features/auth/setup';
@@ -58,6 +60,7 @@ export function createApp(deps: AppDeps): Express {
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
+  app.use(requestId);
   app.use(
     helmet({
       contentSecurityPolicy: {
@@ -73,18 +76,33 @@ export function createApp(deps: AppDeps): Express {
         },
       },
       crossOriginEmbedderPolicy: false,
+      // Sent below, and only over HTTPS: on plain http it would mean nothing, and on 127.0.0.1 it would pin a developer's browser.
+      strictTransportSecurity: false,
     }),
   );
+  app.use((req, res, next) => {
+    if (req.secure) res.set('strict-transport-security', 'max-age=31536000; includeSubDomains');
+    next();
+  });
   // Request lines are logged at info; above that level the middleware would only allocate.
-  if (logger.isLevelEnabled('info')) app.use(pinoHttp({ logger, autoLogging: { ignore: (req) => req.url === '/api/health' } }));
+  // Every line logged for a request (through req.log) carries its id as `reqId`.
+  if (logger.isLevelEnabled('info')) {
+    app.use(pinoHttp({ logger, genReqId: (req) => req.id, quietReqLogger: true, autoLogging: { ignore: (req) => req.url === '/api/health' } }));
+  }
   app.use(express.json({ limit: '1mb' }));
 
   const mailbox = deps.mailbox ?? new Mailbox();
   const mailer = deps.mailer ?? (deps.config.smtpUrl ? createSmtpMailer(deps.config.smtpUrl, deps.config.mailFrom) : createInProcessMailer(mailbox, deps.config.mailFrom));
   installAuth(app, { knex: deps.knex, config: deps.config, oauth: oauthSetup(deps), logger });
-  if (deps.config.devTools) app.use(mailboxRouter({ mailbox, realSmtp: Boolean(deps.config.smtpUrl) }));
+  // Whatever an API route answers a signed-in caller (members lists carry e-mail addresses) stays out of caches.
+  app.use('/api', (req, res, next) => {
+    if (req.user) res.set('cache-control', 'no-store');
+    next();
+  });
+  if (deps.config.devTools) app.use(mailboxRouter({ mailbox, realSmtp: Boolean(deps.config.smtpUrl), knex: deps.knex }));
 
   const api = Router();
+  api.use(checkRequestText);
   api.use(healthRouter({ knex: deps.knex, version: deps.config.version }));
   // Stateless calculators first: they are the hottest routes and need no project lookups.
   const computeLimit = rateLimit({

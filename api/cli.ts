@@ -9,7 +9,8 @@ async function main(command: string | undefined) {
     console.error('DATABASE_URL is not set. Run this through `npm start` / `npm run db:migrate`, which start the local cluster.');
     process.exit(2);
   }
-  const knex = createKnex(url, { min: 0, max: 2 });
+  // Migrations and the seed may run long: no statement limit here.
+  const knex = createKnex(url, { min: 0, max: 2 }, { statementMs: 0, idleInTransactionMs: 0 });
   try {
     if (command === 'migrate' || command === 'prepare') {
       const applied = await migrateLatest(knex);

@@ -21,6 +21,12 @@ export interface AppConfig {
   version: string;
 }
 
+/** Addresses reachable only from this machine. */
+export function isLoopbackHost(host: string): boolean {
+  const h = host.trim().toLowerCase().replace(/^\[|\]$/g, '');
+  return h === 'localhost' || h === '::1' || /^127(\.\d{1,3}){3}$/.test(h);
+}
+
 function readPositiveInt(name: string, fallback: number): number {
   const raw = process.env[name];
   if (raw === undefined || raw === '') return fallback;
@@ -58,7 +64,7 @@ export function loadConfig(overrides: Partial<AppConfig> = {}): AppConfig {
     github,
     smtpUrl: env.SMTP_URL || null,
     mailFrom: env.MAIL_FROM ?? 'Eyrie <eyrie@localhost>',
-    devTools: env.EYRIE_DEV_TOOLS === '1' || env.EYRIE_DEV_TOOLS === 'true' || nodeEnv === 'test',
+    devTools: env.EYRIE_DEV_TOOLS === '1' || env.EYRIE_DEV_TOOLS === 'true' || (nodeEnv === 'test' && env.EYRIE_DEV_TOOLS !== '0'),
     rateLimit: {
       windowMs: 15 * 60_000,
       signIn: readPositiveInt('EYRIE_SIGN_IN_LIMIT', 30),

@@ -1,7 +1,7 @@
 import './db/pg-types';
 import type { Server } from 'node:http';
 import { createApp } from './app';
-import { loadConfig } from './config';
+import { isLoopbackHost, loadConfig } from './config';
 import { bindModels, createKnex } from './db/knex';
 import { createLogger } from './lib/logger';
 import { Mailbox } from './features/mail/mailbox';
@@ -11,6 +11,17 @@ import { startFakeOAuthProvider, type FakeOAuthProvider } from './features/auth/
 
 const config = loadConfig();
 const logger = createLogger();
+
+// The local sign-in page accepts any typed e-mail and the mailbox shows invitation links: on a reachable
+// address that would let anyone become anyone. Development tools therefore run on loopback only.
+if (config.devTools && !isLoopbackHost(config.host)) {
+  console.error(
+    `Development tools (EYRIE_DEV_TOOLS) are on, but HOST=${config.host} is not a loopback address. They let anyone sign in as anyone, ` +
+      'so Eyrie refuses to start. Listen on 127.0.0.1 (and put a reverse proxy in front), or turn the tools off with EYRIE_DEV_TOOLS=0 and configure GitHub sign-in.',
+  );
+  process.exit(2);
+}
+if (config.devTools) logger.warn('development tools are ON: local sign-in page and /dev/mailbox (loopback only)');
 const knex = createKnex(config.databaseUrl);
 bindModels(knex);
 

@@ -4,13 +4,13 @@ import path from 'node:path';
 import { ensureDependencies, root } from './lib/deps.mjs';
 
 ensureDependencies();
-const { startCluster, FriendlyError } = await import('./lib/pg.mjs');
+const { useLocalCluster, FriendlyError } = await import('./lib/pg.mjs');
 const command = process.argv[2];
 let cluster = null;
 try {
   let url = process.env.DATABASE_URL;
   if (!url) {
-    cluster = await startCluster({ dataDir: path.join(root, '.data', 'postgres'), port: Number(process.env.EYRIE_PG_PORT ?? 54329), database: 'eyrie' });
+    cluster = await useLocalCluster({ dataDir: path.join(root, '.data', 'postgres'), port: Number(process.env.EYRIE_PG_PORT ?? 54329), database: 'eyrie' });
     url = cluster.url;
   }
   const r = spawnSync(process.execPath, ['--import', 'tsx', 'api/cli.ts', command], { cwd: root, stdio: 'inherit', env: { ...process.env, DATABASE_URL: url } });

@@ -1,8 +1,10 @@
 // `npm start` (and `npm run dev` with --dev): dependencies, PostgreSQL, migrations,
-// demo seed, web build, then one server process. Ctrl-C stops everything cleanly.
+// demo seed, web build, then one supervised server process (restarted with backoff
+// when it dies, while PostgreSQL keeps running). Ctrl-C stops everything cleanly.
 import { spawn, spawnSync } from 'node:child_process';
 import path from 'node:path';
 import { ensureDependencies, ensureWebBuild, log, root } from './lib/deps.mjs';
+import { supervise } from './lib/supervise.mjs';
 
 const dev = process.argv.includes('--dev');
 ensureDependencies();
@@ -14,7 +16,9 @@ const pgPort = Number(process.env.EYRIE_PG_PORT ?? 54329);
 
 let cluster = null;
 const children = [];
+let api = null;
 let stopping = false;
+let announced = false;
 
 async function main() {
   for (const p of dev ? [port, apiPort] : [port]) {
@@ -38,20 +42,20 @@ async function main() {
 
   if (!dev) ensureWebBuild();
   const publicUrl = process.env.PUBLIC_URL ?? `http://127.0.0.1:${port}`;
-  const server = spawn(
-    process.execPath,
-    dev ? ['--import', 'tsx', '--watch', 'api/server.ts'] : ['--import', 'tsx', 'api/server.ts'],
-    { cwd: root, env: { ...env, PORT: String(apiPort), PUBLIC_URL: publicUrl, LOG_LEVEL: process.env.LOG_LEVEL ?? 'warn' }, stdio: ['ignore', 'inherit', 'inherit', 'ipc'] },
-  );
-  children.push(server);
-  server.on('message', (m) => {
-    if (m?.type === 'ready' && !dev) announce(publicUrl);
-  });
-  server.on('exit', (code, signal) => {
-    if (!stopping) {
-      log(`the server stopped (${signal ?? `exit code ${code}`})`);
-      void shutdown(code ?? 1);
-    }
+  // In development the watcher restarts on edits; otherwise the supervisor restarts the server when it dies.
+  api = supervise({
+    name: 'the API server',
+    args: dev ? ['--import', 'tsx', '--watch', 'api/server.ts'] : ['--import', 'tsx', 'api/server.ts'],
+    cwd: root,
+    env: { ...env, PORT: String(apiPort), PUBLIC_URL: publicUrl, LOG_LEVEL: process.env.LOG_LEVEL ?? 'warn' },
+    log,
+    onSpawn: (child) =>
+      child.on('message', (m) => {
+        if (m?.type !== 'ready') return;
+        if (!dev && !announced) announce(publicUrl, env.EYRIE_DEV_TOOLS === '1' || env.EYRIE_DEV_TOOLS === 'true');
+        else if (announced) log(`the API server is answering again at ${publicUrl}`);
+        announced = true;
+      }),
   });
   if (dev) {
     const vite = spawn(process.execPath, [path.join(root, 'node_modules', 'vite', 'bin', 'vite.js')], {
@@ -61,11 +65,12 @@ async function main() {
     });
     children.push(vite);
     vite.on('exit', () => !stopping && void shutdown(1));
-    announce(publicUrl);
+    announce(publicUrl, env.EYRIE_DEV_TOOLS === '1' || env.EYRIE_DEV_TOOLS === 'true');
+    announced = true;
   }
 }
 
-function announce(url) {
+function announce(url, devTools) {
   const github = process.env.GITHUB_CLIENT_ID && process.env.GITHUB_CLIENT_SECRET;
   console.log('');
   console.log(`  Eyrie is ready:  ${url}`);
@@ -75,14 +80,20 @@ function announce(url) {
       : '  Sign in: press "Sign in" and pick a demo identity on the local sign-in page\n  (Ada Pemberton = owner, Tomás Reyes = editor, Mina Okafor = viewer; all invented).',
   );
   console.log('  The calculators need no sign-in. Stop with Ctrl-C.');
+  if (devTools) {
+    console.log('  Development tools are ON (local sign-in page, mailbox at /dev/mailbox): anyone who can reach');
+    console.log('  this port can sign in as anyone. They refuse to run unless the server listens on loopback only;');
+    console.log('  set EYRIE_DEV_TOOLS=0 and GITHUB_CLIENT_ID/SECRET for a shared deployment.');
+  }
   console.log('');
 }
 
 async function shutdown(code = 0) {
   if (stopping) return;
   stopping = true;
-  await Promise.all(
-    children.map(
+  await Promise.all([
+    api?.stop(8000),
+    ...children.map(
       (c) =>
         new Promise((resolve) => {
           if (c.exitCode !== null || c.signalCode !== null) return resolve();
@@ -91,7 +102,7 @@ async function shutdown(code = 0) {
           setTimeout(() => c.kill('SIGKILL'), 8000).unref();
         }),
     ),
-  );
+  ]);
   cluster?.stop();
   process.exit(code);
 }

@@ -8,6 +8,35 @@ import { ensureDependencies, ensureWebBuild, log, root } from './lib/deps.mjs';
 
 ensureDependencies();
 const { startCluster, freePort, FriendlyError, removeDir } = await import('./lib/pg.mjs');
+const { ensureChromium } = await import('./lib/chromium.mjs');
+const pg = (await import('pg')).default;
+
+/** The browser tests run unless the arguments name only other files or folders. */
+function wantsBrowserTests(args) {
+  const paths = args.filter((a) => !a.startsWith('-'));
+  return paths.length === 0 || paths.some((a) => a.includes('e2e'));
+}
+
+/**
+ * The suite rebuilds its database from zero. A database given in DATABASE_URL is used only when its name
+ * ends in "_test" or it holds the marker table (tests/global-setup.ts checks the same before touching it).
+ */
+async function refuseForeignDatabase(url) {
+  const client = new pg.Client({ connectionString: url });
+  await client.connect();
+  try {
+    const { rows } = await client.query("select current_database() as name, to_regclass('eyrie_test_marker') is not null as marked");
+    if (rows[0].name.endsWith('_test') || rows[0].marked) return;
+    throw new FriendlyError(
+      `DATABASE_URL points at database "${rows[0].name}". The tests roll back every migration of their database, which would delete its data, so they stop here.\n` +
+        '  To proceed: unset DATABASE_URL and `npm test` starts its own throwaway PostgreSQL;\n' +
+        '  or point DATABASE_URL at an empty database whose name ends in "_test" (createdb eyrie_test);\n' +
+        '  or, if this database may really be wiped, create the marker table in it: create table eyrie_test_marker ();',
+    );
+  } finally {
+    await client.end();
+  }
+}
 
 let cluster = null;
 let tempDir = null;
@@ -32,6 +61,7 @@ process.on('SIGTERM', () => {
 });
 
 try {
+  if (wantsBrowserTests(process.argv.slice(2))) ensureChromium(log);
   ensureWebBuild();
   let databaseUrl = process.env.DATABASE_URL;
   if (!databaseUrl) {
@@ -41,6 +71,7 @@ try {
     databaseUrl = cluster.url;
     log('throwaway PostgreSQL cluster started for the tests');
   } else {
+    await refuseForeignDatabase(databaseUrl);
     log('running the tests against the server in DATABASE_URL');
   }
   const outDir = path.join(root, '.tmp');

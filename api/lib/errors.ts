@@ -74,3 +74,12 @@ export class TooManyRequestsError extends AppError {
     super(429, 'Too many requests', detail);
   }
 }
+
+export class ServiceUnavailableError extends AppError {
+  constructor(
+    detail = 'The database is not answering; try again in a few seconds.',
+    readonly retryAfterSeconds = 5,
+  ) {
+    super(503, 'Service unavailable', detail);
+  }
+}

@@ -2,9 +2,41 @@ import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { ZodError } from 'zod';
 import objection from 'objection';
 import type { Logger } from 'pino';
-import { AppError, NotFoundError, type FieldError } from './errors';
+import { AppError, NotFoundError, ServiceUnavailableError, type FieldError } from './errors';
 
-const { ValidationError, NotFoundError: ObjectionNotFound, UniqueViolationError, ForeignKeyViolationError, CheckViolationError, NotNullViolationError, DataError } = objection;
+const { ValidationError, NotFoundError: ObjectionNotFound, UniqueViolationError, ForeignKeyViolationError, CheckViolationError, NotNullViolationError, DataError, DBError } = objection;
+
+/** Seconds a client is asked to wait when the database is unavailable. */
+export const RETRY_AFTER_SECONDS = 5;
+
+/** The driver's error under Objection's wrapper, or the error itself. */
+const nativeOf = (err: unknown): { code?: unknown; name?: unknown; message?: unknown } | null => {
+  if (err instanceof DBError) return (err.nativeError ?? null) as { code?: unknown } | null;
+  return err !== null && typeof err === 'object' ? (err as { code?: unknown }) : null;
+};
+
+// SQLSTATE classes and codes meaning "the database cannot serve this now", not "the request is wrong":
+// connection exceptions (08), insufficient resources (53), operator intervention (57: shutdown, statement
+// or lock timeout via query_canceled 57014) and idle-in-transaction session timeout (25P03).
+const UNAVAILABLE_SQLSTATE = /^(08|53|57)|^25P03$|^55P03$/;
+const UNAVAILABLE_NODE_CODES = new Set(['ECONNREFUSED', 'ECONNRESET', 'ETIMEDOUT', 'EPIPE', 'EHOSTUNREACH', 'ENETUNREACH', 'EAI_AGAIN']);
+const UNAVAILABLE_MESSAGES = /^timeout expired$|Connection terminated|Client has encountered a connection error|timeout exceeded when trying to connect|Knex: Timeout acquiring a connection|Query read timeout|Connection ended unexpectedly/i;
+
+/** True when an error means the database is unreachable, frozen or shutting down (503, not 500). */
+export function isDatabaseUnavailable(err: unknown): boolean {
+  const native = nativeOf(err);
+  if (!native) return false;
+  if (native.name === 'KnexTimeoutError') return true;
+  const code = typeof native.code === 'string' ? native.code : '';
+  if (UNAVAILABLE_SQLSTATE.test(code) || UNAVAILABLE_NODE_CODES.has(code)) return true;
+  return typeof native.message === 'string' && UNAVAILABLE_MESSAGES.test(native.message);
+}
+
+/** SQLSTATE class 22 (data exception): a value PostgreSQL will not store, such as text with a NUL character (22021). */
+function isInvalidData(err: unknown): boolean {
+  const code = nativeOf(err)?.code;
+  return typeof code === 'string' && /^22[0-9A-Z]{3}$/.test(code);
+}
 
 /** RFC 9457 problem details, the one error body shape the API sends. */
 export interface ProblemDetails {
@@ -93,9 +125,10 @@ export function toProblem(err: unknown): ProblemDetails {
   if (err instanceof ForeignKeyViolationError) {
     return { type: '/problems/conflict', title: 'Conflict', status: 409, detail: 'The record refers to, or is referred to by, another record.' };
   }
-  if (err instanceof CheckViolationError || err instanceof NotNullViolationError || err instanceof DataError) {
-    return { type: '/problems/invalid-request', title: 'Invalid request', status: 400, detail: 'A value is outside what the database accepts.' };
+  if (err instanceof CheckViolationError || err instanceof NotNullViolationError || err instanceof DataError || isInvalidData(err)) {
+    return { type: '/problems/invalid-request', title: 'Invalid request', status: 400, detail: 'A value is outside what the database accepts (for example text with a NUL character).' };
   }
+  if (isDatabaseUnavailable(err)) return toProblem(new ServiceUnavailableError());
   const http = err as HttpLikeError;
   const status = http?.status ?? http?.statusCode;
   if (typeof status === 'number' && status >= 400 && status < 500) {
@@ -122,7 +155,13 @@ export function problemHandler(logger: Logger): ErrorRequestHandler {
   return (err, req, res, next) => {
     if (res.headersSent) return next(err);
     const problem = toProblem(err);
-    if (problem.status >= 500) logger.error({ err, url: req.originalUrl }, 'request failed');
-    sendProblem(res, { ...problem, instance: req.originalUrl });
+    const log = req.log ?? logger.child({ reqId: req.id });
+    if (problem.status === 503) {
+      res.set('retry-after', String(err instanceof ServiceUnavailableError ? err.retryAfterSeconds : RETRY_AFTER_SECONDS));
+      log.warn({ err, url: req.originalUrl }, 'database unavailable');
+    } else if (problem.status >= 500) {
+      log.error({ err, url: req.originalUrl }, 'request failed');
+    }
+    sendProblem(res, { ...problem, instance: req.originalUrl, ...(req.id !== undefined ? { requestId: String(req.id) } : {}) });
   };
 }

@@ -7,6 +7,7 @@ export class Project extends objection.Model {
   declare name: string;
   declare description: string;
   declare createdBy: string | null;
+  declare version: number;
   declare createdAt: Date;
   declare updatedAt: Date;
 

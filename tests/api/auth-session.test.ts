@@ -107,25 +107,43 @@ describe('signing in through the local fake OAuth provider', () => {
 describe('sessions', () => {
   it('when signed in over plain http, then the cookie is HttpOnly and SameSite=Lax and not Secure; behind a TLS proxy it is Secure', async () => {
     const { app } = await start();
-    const plain = await request(app).get('/auth/github').expect(302);
-    const cookie = sessionCookie(plain.headers['set-cookie'])!;
+    const { done } = await signIn(app, newIdentity());
+    const cookie = sessionCookie(done.headers['set-cookie'])!;
     expect(cookie).toMatch(/HttpOnly/);
     expect(cookie).toMatch(/SameSite=Lax/);
     expect(cookie).not.toMatch(/Secure/);
-    const tls = await request(app).get('/auth/github').set('X-Forwarded-Proto', 'https').expect(302);
+
+    // The same round trip through a TLS-terminating loopback proxy: the state cookie and the session cookie are Secure.
+    const host = '127.0.0.1:3000';
+    const startRes = await request(app).get('/auth/github').set('Host', host).set('X-Forwarded-Proto', 'https').expect(302);
+    const stateCookie = ([] as string[]).concat(startRes.headers['set-cookie'] ?? []).find((c) => c.startsWith('eyrie.oauth='))!;
+    expect(stateCookie).toMatch(/; Secure/);
+    expect(stateCookie).toMatch(/HttpOnly/);
+    const url = new URL(startRes.headers.location);
+    const form = new URLSearchParams({ client_id: url.searchParams.get('client_id')!, redirect_uri: url.searchParams.get('redirect_uri')!, state: url.searchParams.get('state')!, ...newIdentity() });
+    const picked = await fetch(`${url.origin}${url.pathname}`, { method: 'POST', body: form, redirect: 'manual' });
+    const callback = new URL(picked.headers.get('location')!);
+    const tls = await request(app)
+      .get(callback.pathname + callback.search)
+      .set('Host', host)
+      .set('X-Forwarded-Proto', 'https')
+      .set('Cookie', stateCookie.split(';')[0])
+      .expect(303);
+    expect(tls.headers.location).toBe('/projects');
     expect(sessionCookie(tls.headers['set-cookie'])).toMatch(/; Secure/);
   });
 
-  it('when someone signs in, then the session id changes (no fixation) and the pre-sign-in session is gone', async () => {
+  it('when someone signs in again in the same browser, then the session id changes (no fixation) and the earlier session is gone', async () => {
     const { app } = await start();
-    const { start: before, agent } = await signIn(app, newIdentity());
-    const preId = sid(sessionCookie(before.headers['set-cookie']));
-    const res = await agent.get('/api/v1/session');
-    expect(res.body.user).not.toBeNull();
-    const rows = await testKnex()('sessions').where({ sid: preId });
-    expect(rows).toEqual([]);
+    const first = await signIn(app, newIdentity());
+    const preId = sid(sessionCookie(first.done.headers['set-cookie']));
+    const second = await signIn(app, newIdentity(), undefined, first.agent);
+    const postId = sid(sessionCookie(second.done.headers['set-cookie']));
+    expect(postId).not.toBe(preId);
+    expect((await second.agent.get('/api/v1/session')).body.user.login).toBe(second.user.login);
+    expect(await testKnex()('sessions').where({ sid: preId })).toEqual([]);
     // The old cookie no longer signs anyone in.
-    const old = await request(app).get('/api/v1/session').set('Cookie', sessionCookie(before.headers['set-cookie'])!.split(';')[0]);
+    const old = await request(app).get('/api/v1/session').set('Cookie', sessionCookie(first.done.headers['set-cookie'])!.split(';')[0]);
     expect(old.body.user).toBeNull();
   });
 

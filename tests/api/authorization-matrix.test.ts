@@ -70,7 +70,7 @@ const RULES: Record<string, Rule> = {
   'GET /api/v1/projects': { access: 'user', ok: 200 },
   'POST /api/v1/projects': { access: 'user', ok: 201, body: () => ({ name: 'Matrix project' }) },
   'GET /api/v1/projects/:projectId': { access: 'viewer', ok: 200 },
-  'PATCH /api/v1/projects/:projectId': { access: 'owner', ok: 200, body: () => ({ name: 'Renamed by the matrix' }) },
+  'PATCH /api/v1/projects/:projectId': { access: 'owner', ok: 200, body: () => ({ name: 'Renamed by the matrix', version: 1 }) },
   'DELETE /api/v1/projects/:projectId': { access: 'owner', ok: 204 },
   'GET /api/v1/projects/:projectId/members': { access: 'viewer', ok: 200 },
   'PATCH /api/v1/projects/:projectId/members/:userId': { access: 'owner', ok: 200, params: (c) => ({ userId: c.viewer.id }), body: () => ({ role: 'editor' }) },

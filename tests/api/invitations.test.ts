@@ -132,15 +132,52 @@ describe('invitations by e-mail', () => {
     expect(await testKnex()('audit_events').where({ projectId: project.id })).toEqual([]);
   });
 
-  it('when dev tools are on, then the mailbox page shows the caught message with its link', async () => {
+  it('when dev tools are on, then the invitee reads the caught message with its link in the mailbox', async () => {
     env = await startAuthApp({ smtpSink: true });
     const ownerUser = await createUser();
     const project = await createProject([{ user: ownerUser, role: 'owner' }], { name: 'Mailbox <check>' });
     const owner = await as(ownerUser);
-    const { token } = await inviteAndReadLink(owner, project.id, 'mailbox-reader@example.test', 'viewer');
-    const page = await request(env.app).get('/dev/mailbox').expect(200);
-    expect(page.text).toContain('mailbox-reader@example.test');
+    const reader = newIdentity();
+    const { token } = await inviteAndReadLink(owner, project.id, reader.email, 'viewer');
+    const them = await as(reader);
+    const page = await them.agent.get('/dev/mailbox').expect(200);
+    expect(page.headers['cache-control']).toBe('no-store');
+    expect(page.text).toContain(reader.email);
     expect(page.text).toContain('Mailbox &lt;check&gt;');
     expect(page.text).toMatch(new RegExp(`<a href="[^"]+/invitations/${token}">`));
+  });
+
+  it('when the mailbox is opened anonymously or by someone else, then no invitation link is shown; the owner sees what their project sent', async () => {
+    env = await startAuthApp({ smtpSink: true });
+    const ownerUser = await createUser();
+    const project = await createProject([{ user: ownerUser, role: 'owner' }], { name: 'Private screen (invented)' });
+    const owner = await as(ownerUser);
+    const invitee = newIdentity();
+    const { token } = await inviteAndReadLink(owner, project.id, invitee.email, 'owner');
+
+    const anonymous = await request(env.app).get('/dev/mailbox').expect(401);
+    expect(anonymous.text).not.toContain(token);
+    expect(anonymous.text).toContain('Sign in');
+    const anonymousJson = await request(env.app).get('/dev/mailbox.json').expect(401);
+    expect(anonymousJson.body).toMatchObject({ status: 401 });
+    expect(JSON.stringify(anonymousJson.body)).not.toContain(token);
+
+    const stranger = await as(newIdentity());
+    const strangerPage = await stranger.agent.get('/dev/mailbox').expect(200);
+    expect(strangerPage.text).not.toContain(token);
+    expect(strangerPage.text).not.toContain(invitee.email);
+    const strangerJson = await stranger.agent.get('/dev/mailbox.json').expect(200);
+    expect(strangerJson.body.messages.filter((m: { text: string }) => m.text.includes(token))).toEqual([]);
+
+    // An editor of the project is not its owner and does not see what it sent.
+    const editorUser = await createUser();
+    await testKnex()('project_members').insert({ projectId: project.id, userId: editorUser.id, role: 'editor' });
+    const editor = await as(editorUser);
+    expect((await editor.agent.get('/dev/mailbox.json').expect(200)).text).not.toContain(token);
+
+    const ownerView = await owner.agent.get('/dev/mailbox.json').expect(200);
+    expect(ownerView.body.messages).toEqual([expect.objectContaining({ to: [invitee.email], projectId: project.id, text: expect.stringContaining(token) })]);
+    const inviteeView = await (await as(invitee)).agent.get('/dev/mailbox.json').expect(200);
+    expect(inviteeView.body.messages.map((m: { text: string }) => m.text.includes(token))).toEqual([true]);
   });
 });

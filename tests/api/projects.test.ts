@@ -61,14 +61,30 @@ describe('projects and their members', () => {
     const owner = await createUser();
     const p = await createProject([{ user: owner, role: 'owner' }], { name: 'Old name' });
     const o = await as(owner);
-    await o.write('patch', `/api/v1/projects/${p.id}`).send({ name: 'New name' }).expect(200);
+    const renamed = await o.write('patch', `/api/v1/projects/${p.id}`).send({ name: 'New name', version: 1 }).expect(200);
+    expect(renamed.body.project).toMatchObject({ name: 'New name', version: 2 });
     const [e] = await events(p.id);
     expect(e).toMatchObject({ action: 'update', entityType: 'project', entityId: p.id, actorUserId: owner.id });
     expect(e.before).toMatchObject({ name: 'Old name' });
     expect(e.after).toMatchObject({ name: 'New name' });
     const history = await o.agent.get(`/api/v1/projects/${p.id}/audit-events`).expect(200);
     expect(history.body.events[0]).toMatchObject({ action: 'update', actor: { login: owner.login }, before: { name: 'Old name' }, after: { name: 'New name' } });
-    await o.write('patch', `/api/v1/projects/${p.id}`).send({}).expect(400);
+    await o.write('patch', `/api/v1/projects/${p.id}`).send({ version: 2 }).expect(400);
+  });
+
+  it('when a project change names an old version, then 409 gives the current version and nothing changes', async () => {
+    env = await startAuthApp();
+    const owner = await createUser();
+    const p = await createProject([{ user: owner, role: 'owner' }], { name: 'Versioned' });
+    const o = await as(owner);
+    const missing = await o.write('patch', `/api/v1/projects/${p.id}`).send({ name: 'No version' }).expect(400);
+    expect(missing.body.errors).toEqual([{ path: 'version', message: expect.any(String) }]);
+    await o.write('patch', `/api/v1/projects/${p.id}`).send({ description: 'first', version: 1 }).expect(200);
+    const stale = await o.write('patch', `/api/v1/projects/${p.id}`).send({ name: 'Lost update', version: 1 }).expect(409);
+    expect(stale.body).toMatchObject({ status: 409, currentVersion: 2 });
+    const viaHeader = await o.write('patch', `/api/v1/projects/${p.id}`).set('If-Match', 'W/"2"').send({ name: 'Kept' }).expect(200);
+    expect(viaHeader.body.project).toMatchObject({ name: 'Kept', description: 'first', version: 3 });
+    expect((await events(p.id)).length).toBe(2);
   });
 
   it('when the last owner tries to leave or be demoted, then it is refused with 409 and nothing is recorded', async () => {
@@ -126,7 +142,7 @@ describe('projects and their members', () => {
     const owner = await createUser();
     const p = await createProject([{ user: owner, role: 'owner' }]);
     const o = await as(owner);
-    for (const name of ['one', 'two', 'three']) await o.write('patch', `/api/v1/projects/${p.id}`).send({ name }).expect(200);
+    for (const [i, name] of ['one', 'two', 'three'].entries()) await o.write('patch', `/api/v1/projects/${p.id}`).send({ name, version: i + 1 }).expect(200);
     const first = await o.agent.get(`/api/v1/projects/${p.id}/audit-events?limit=2`).expect(200);
     expect(first.body.events.map((e: { after: { name: string } }) => e.after.name)).toEqual(['three', 'two']);
     const second = await o.agent.get(`/api/v1/projects/${p.id}/audit-events?limit=2&before=${first.body.nextBefore}`).expect(200);

@@ -63,6 +63,15 @@ describe('accounts and projects in Chromium', () => {
     await page.waitForURL(/\/projects\/[0-9a-f-]+\/settings$/);
     await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toBe('Petra’s own screen (invented)');
 
+    // Details are saved with the version the page loaded; a second save uses the version the first returned.
+    const details = page.getByRole('form', { name: 'Project details' });
+    await details.getByLabel('Description').fill('Temperature screen of an invented ketone reduction.');
+    await details.getByRole('button', { name: 'Save details' }).click();
+    await expect.poll(() => details.getByRole('status').textContent()).toContain('Saved');
+    await details.getByLabel('Description').fill('Temperature screen of an invented ketone reduction, second pass.');
+    await details.getByRole('button', { name: 'Save details' }).click();
+    await expect.poll(async () => (await testKnex()('projects').where({ name: 'Petra’s own screen (invented)' }).first('version', 'description'))).toEqual({ version: 3, description: 'Temperature screen of an invented ketone reduction, second pass.' });
+
     // Invite someone; the pending invitation is listed and the mail reached the sink.
     await page.getByLabel('E-mail address').fill('not-an-address');
     await page.getByRole('button', { name: 'Send invitation' }).click();
@@ -133,6 +142,12 @@ describe('accounts and projects in Chromium', () => {
 
     await signInAs(newIdentity({ name: 'Wanda Wrong' }));
     await expect.poll(() => page.getByRole('alert').textContent()).toContain('This invitation is for another account');
+    // Her mailbox does not show someone else's invitation.
+    await page.goto(`${baseUrl}/dev/mailbox`);
+    await expect.poll(() => page.getByRole('main').textContent()).toContain('No messages for');
+    expect(await page.content()).not.toContain(link.pathname);
+    await page.goto(`${baseUrl}${link.pathname}`);
+    await expect.poll(() => page.getByRole('alert').textContent()).toContain('This invitation is for another account');
     await maybeScreenshot(page, 'invitation-wrong-account');
     await page.getByRole('button', { name: 'Sign out and sign in with the invited account' }).click();
     await page.waitForURL(/\/sign-in\?returnTo=/);
@@ -148,7 +163,13 @@ describe('accounts and projects in Chromium', () => {
     await page.waitForURL(`${baseUrl}/projects/${project.id}/settings`);
     await expect.poll(() => page.getByRole('main').textContent()).toContain('Your role here: ◇editor');
 
-    // The link is spent.
+    // The invitee reads the mail in the development mailbox; its link is spent now.
+    await page.goto(`${baseUrl}/dev/mailbox`);
+    await expect.poll(() => page.getByRole('main').textContent()).toContain(invitee.email);
+    await maybeScreenshot(page, 'dev-mailbox');
+    // The mail's links name the configured public address; this test server listens elsewhere, so follow the path.
+    const href = await page.getByRole('link', { name: /\/invitations\// }).first().getAttribute('href');
+    expect(new URL(href!).pathname).toBe(link.pathname);
     await page.goto(`${baseUrl}${link.pathname}`);
     await expect.poll(() => page.getByRole('alert').textContent()).toContain('already been used');
   });

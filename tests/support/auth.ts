@@ -47,8 +47,8 @@ export const sessionCookie = (setCookie: string[] | string | undefined): string 
   ([] as string[]).concat(setCookie ?? []).find((c) => c.startsWith('eyrie.sid='));
 
 /** The whole OAuth round trip through the fake provider, as a browser would make it. */
-export async function signIn(app: Express, identity: TestIdentity, returnTo?: string) {
-  const agent = request.agent(app);
+export async function signIn(app: Express, identity: TestIdentity, returnTo?: string, existingAgent?: ReturnType<typeof request.agent>) {
+  const agent = existingAgent ?? request.agent(app);
   // supertest serves each request on a new port; a browser keeps one origin, so pin the Host the OAuth redirect is built from.
   const host = '127.0.0.1:3000';
   const start = await agent
@@ -70,5 +70,5 @@ export async function signIn(app: Express, identity: TestIdentity, returnTo?: st
     throw new Error(`sign-in did not complete: ${done.status} → ${done.headers.location}`);
   }
   const session = await agent.get('/api/v1/session').expect(200);
-  return { agent, csrfToken: session.body.csrfToken as string, user: session.body.user, landedOn: done.headers.location as string, start, picked, callback };
+  return { agent, csrfToken: session.body.csrfToken as string, user: session.body.user, landedOn: done.headers.location as string, start, picked, callback, done };
 }

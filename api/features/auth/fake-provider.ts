@@ -1,4 +1,5 @@
 import express, { type Request, type Response } from 'express';
+import helmet from 'helmet';
 import type { Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { randomBytes } from 'node:crypto';
@@ -61,6 +62,21 @@ export async function startFakeOAuthProvider(options: { host?: string; port?: nu
 
   const app = express();
   app.disable('x-powered-by');
+  // The same security headers as the app. The form posts here and is redirected to the app's callback on another loopback port.
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          defaultSrc: ["'self'"],
+          scriptSrc: ["'none'"],
+          styleSrc: ["'self'", "'unsafe-inline'"],
+          formAction: ["'self'", 'http://127.0.0.1:*', 'http://localhost:*', 'http://[::1]:*'],
+          upgradeInsecureRequests: null,
+        },
+      },
+      strictTransportSecurity: false,
+    }),
+  );
   app.use(express.urlencoded({ extended: false, limit: '16kb' }));
 
   function readAuthorize(source: Record<string, unknown>): AuthorizeParams | string {

@@ -1,4 +1,4 @@
-import type { RequestHandler } from 'express';
+import type { Request, RequestHandler } from 'express';
 import type { Knex } from 'knex';
 import { csrfSync } from 'csrf-sync';
 import { ForbiddenError, UnauthenticatedError } from '../../lib/errors';
@@ -50,14 +50,31 @@ export const csrfTokenFor = csrf.generateToken;
 const SAFE = new Set(['GET', 'HEAD', 'OPTIONS']);
 
 /**
- * Every state-changing request authenticated by the session cookie must carry
- * the session's CSRF token in X-CSRF-Token. Token-authenticated requests carry
- * no cookie credentials, so a cross-site page cannot forge them.
+ * Why a request looks cross-site, or null. Browsers send Sec-Fetch-Site and Origin on writes; a page on
+ * another site cannot forge them. Requests without either (scripts, old browsers) pass to the token check.
  */
-export const csrfGuard: RequestHandler = (req, _res, next) => {
-  if (SAFE.has(req.method) || req.authMethod !== 'session') return next();
-  if (!csrf.isRequestValid(req)) {
-    throw new ForbiddenError('The request did not carry a valid CSRF token (X-CSRF-Token). Reload the page and try again.');
-  }
-  next();
-};
+export function crossSiteReason(req: Request, allowedOrigins: readonly string[]): string | null {
+  const site = req.get('sec-fetch-site');
+  if (site !== undefined && site !== 'same-origin' && site !== 'none') return `the browser marked it as ${site} (Sec-Fetch-Site)`;
+  const origin = req.get('origin');
+  if (origin === undefined) return null;
+  if (origin === `${req.protocol}://${req.get('host')}` || allowedOrigins.includes(origin)) return null;
+  return `it came from ${origin === 'null' ? 'an opaque origin' : origin} (Origin)`;
+}
+
+/**
+ * Every state-changing request authenticated by the session cookie must come from our own origin (Origin /
+ * Sec-Fetch-Site, a second layer) and carry the session's CSRF token in X-CSRF-Token. Token-authenticated
+ * requests carry no cookie credentials, so a cross-site page cannot forge them.
+ */
+export function csrfGuard(allowedOrigins: readonly string[] = []): RequestHandler {
+  return (req, _res, next) => {
+    if (SAFE.has(req.method) || req.authMethod !== 'session') return next();
+    const crossSite = crossSiteReason(req, allowedOrigins);
+    if (crossSite) throw new ForbiddenError(`The request was refused because ${crossSite}; changes are accepted only from Eyrie's own pages.`);
+    if (!csrf.isRequestValid(req)) {
+      throw new ForbiddenError('The request did not carry a valid CSRF token (X-CSRF-Token). Reload the page and try again.');
+    }
+    next();
+  };
+}

@@ -11,12 +11,8 @@ import { TooManyRequestsError } from '../../lib/errors';
 import { User } from '../../models/user';
 import { bearerAuth, csrfGuard, hasBearer } from './middleware';
 import { upsertProviderUser } from './users';
-
-declare module 'express-session' {
-  interface SessionData {
-    returnTo?: string;
-  }
-}
+import { CookieStateStore } from './oauth-state';
+import { safeReturnTo } from './schemas';
 
 /** Where passport-github2 sends people: the real GitHub, or the local fake provider. */
 export interface OAuthSetup {
@@ -42,12 +38,6 @@ function knexPoolAdapter(knex: Knex) {
       }
     },
   };
-}
-
-/** Only same-site paths may be returned to after sign-in (no open redirects). */
-export function safeReturnTo(value: unknown): string | undefined {
-  if (typeof value !== 'string' || !value.startsWith('/') || value.startsWith('//') || value.includes('\\')) return undefined;
-  return value.slice(0, 500);
 }
 
 export function limiter(windowMs: number, limit: number, what: string, byUser = false): RequestHandler {
@@ -100,8 +90,8 @@ export function installAuth(app: Express, deps: { knex: Knex; config: AppConfig;
           // GitHub must see the registered public URL; the local provider accepts whatever loopback host the browser used.
           callbackURL: oauth.provider === 'github' ? `${config.publicUrl}/auth/github/callback` : '/auth/github/callback',
           scope: ['read:user', 'user:email'],
-          // The OAuth state parameter is kept in the session and checked on the callback (login CSRF).
-          state: true,
+          // The OAuth state parameter is kept in a signed cookie and checked on the callback (login CSRF); no session until sign-in.
+          store: new CookieStateStore(config.sessionSecret),
           ...(oauth.endpoints ?? {}),
         } as unknown as StrategyOptions,
         (_accessToken: string, _refreshToken: string, profile: Profile, done: (err: unknown, user?: User) => void) => {
@@ -131,7 +121,7 @@ export function installAuth(app: Express, deps: { knex: Knex; config: AppConfig;
     next();
   };
   const scoped = ['/api', '/auth', '/dev'];
-  app.use(scoped, bearerAuth(knex), withSession(sessionMiddleware), authenticator.initialize(), withSession(authenticator.session()), markSession, csrfGuard);
+  app.use(scoped, bearerAuth(knex), withSession(sessionMiddleware), authenticator.initialize(), withSession(authenticator.session()), markSession, csrfGuard([new URL(config.publicUrl).origin]));
 
   const signInLimit = limiter(config.rateLimit.windowMs, config.rateLimit.signIn, 'sign-in');
   const router = express.Router();
@@ -140,7 +130,7 @@ export function installAuth(app: Express, deps: { knex: Knex; config: AppConfig;
   router.get('/auth/github', signInLimit, (req: Request, res: Response, next: NextFunction) => {
     if (!oauth) return void signInFailed(res, 'unavailable');
     const returnTo = safeReturnTo(req.query.returnTo);
-    if (returnTo) req.session.returnTo = returnTo;
+    if (returnTo) req.oauthReturnTo = returnTo;
     authenticator.authenticate('github')(req, res, next);
   });
 
@@ -149,10 +139,10 @@ export function installAuth(app: Express, deps: { knex: Knex; config: AppConfig;
     if (typeof req.query.error === 'string') return void signInFailed(res, 'denied');
     authenticator.authenticate('github', (err: unknown, user: User | false) => {
       if (err || !user) {
-        (req.log ?? deps.logger)?.warn({ err }, 'sign-in failed');
+        (req.log ?? deps.logger?.child({ reqId: req.id }))?.warn({ err }, 'sign-in failed');
         return void signInFailed(res, 'failed');
       }
-      const returnTo = req.session.returnTo ?? '/projects';
+      const returnTo = safeReturnTo(req.oauthReturnTo) ?? '/projects';
       // req.logIn regenerates the session: the id changes on sign-in (no fixation).
       req.logIn(user, (loginErr) => {
         if (loginErr) return next(loginErr);

@@ -68,11 +68,16 @@ export const selectivityInputSchema = z
   });
 export type SelectivityInputBody = z.infer<typeof selectivityInputSchema>;
 
+/** PostgreSQL text cannot hold U+0000; refused in every stored text field with a field error. */
+const noNul = (s: string) => !s.includes('\u0000');
+const NUL_MESSAGE = 'must not contain a NUL character (U+0000)';
+
 const optionalText = (max: number) =>
   z
     .string()
     .trim()
     .max(max, `at most ${max} characters`)
+    .refine(noNul, NUL_MESSAGE)
     .transform((s) => (s === '' ? null : s))
     .nullable()
     .optional();
@@ -82,10 +87,10 @@ const uncertaintySchema = finite('uncertainty').refine((v) => v >= 0 && v < 100,
 // ── Campaigns ──────────────────────────────────────────────────────────────────────────────
 
 const campaignFields = {
-  title: z.string().trim().min(1, 'title is required').max(200, 'at most 200 characters'),
+  title: z.string().trim().min(1, 'title is required').max(200, 'at most 200 characters').refine(noNul, NUL_MESSAGE),
   reactionDescription: optionalText(4000),
-  productNameA: z.string().trim().min(1, 'name product A').max(100, 'at most 100 characters'),
-  productNameB: z.string().trim().min(1, 'name product B').max(100, 'at most 100 characters'),
+  productNameA: z.string().trim().min(1, 'name product A').max(100, 'at most 100 characters').refine(noNul, NUL_MESSAGE),
+  productNameB: z.string().trim().min(1, 'name product B').max(100, 'at most 100 characters').refine(noNul, NUL_MESSAGE),
   measure: z.enum(SELECTIVITY_MEASURES, { error: `measure must be one of ${SELECTIVITY_MEASURES.join(', ')}` }),
   assayMethod: z.enum(ASSAY_METHODS, { error: `assayMethod must be one of ${ASSAY_METHODS.join(', ')}` }),
   defaultUncertainty: uncertaintySchema.nullable().optional(),
@@ -169,7 +174,7 @@ export type MeasurementUpdate = z.infer<typeof measurementUpdateSchema>;
 export const measurementExclusionSchema = z.discriminatedUnion(
   'excluded',
   [
-    z.strictObject({ version: versionSchema, excluded: z.literal(true), reason: z.string().trim().min(3, 'give a reason (at least 3 characters)').max(500, 'at most 500 characters') }),
+    z.strictObject({ version: versionSchema, excluded: z.literal(true), reason: z.string().trim().min(3, 'give a reason (at least 3 characters)').max(500, 'at most 500 characters').refine(noNul, NUL_MESSAGE) }),
     z.strictObject({ version: versionSchema, excluded: z.literal(false) }),
   ],
   { error: 'excluded must be true (with a reason) or false' },

@@ -424,6 +424,10 @@ function readOptionalText(ctx: RowContext, cells: Cell[], row: number, field: Im
   const cell = cellOf(ctx, cells, field);
   if (cell === null) return null;
   const text = cellText(cell).trim();
+  if (text.includes('\u0000')) {
+    addIssue(ctx, 'error', row, field, 'the text contains a NUL character (U+0000), which cannot be stored; remove it from the file.');
+    return undefined;
+  }
   if (text.length > max) {
     addIssue(ctx, 'error', row, field, `the text is ${text.length} characters long; at most ${max} are kept.`);
     return undefined;

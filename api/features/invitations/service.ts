@@ -115,6 +115,7 @@ export async function inviteToProject(
     try {
       await deps.mailer.send({
         to: email,
+        projectId,
         subject: `${inviter} invited you to “${project.name}” on Eyrie`,
         text: [
           `${inviter} invited you to join the project “${project.name}” on Eyrie as ${input.role}.`,

@@ -8,6 +8,8 @@ export interface MailboxMessage {
   to: string[];
   subject: string;
   text: string;
+  /** The project the message was sent from (its X-Eyrie-Project header), if any. */
+  projectId: string | null;
 }
 
 /**
@@ -28,6 +30,7 @@ export class Mailbox {
       to: envelopeTo.length ? envelopeTo : splitAddresses(parsed.headers.get('to') ?? ''),
       subject: parsed.headers.get('subject') ?? '',
       text: parsed.text,
+      projectId: parsed.headers.get('x-eyrie-project') ?? null,
     };
     this.messages.unshift(message);
     this.messages.length = Math.min(this.messages.length, this.capacity);

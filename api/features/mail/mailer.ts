@@ -5,7 +5,14 @@ export interface OutgoingMail {
   to: string;
   subject: string;
   text: string;
+  /** The project the mail is about; sent as a header so the development mailbox can show it to that project's owners. */
+  projectId?: string;
 }
+
+/** Header naming the project a message was sent from. */
+export const PROJECT_HEADER = 'X-Eyrie-Project';
+
+const toNodemailer = (from: string, { projectId, ...mail }: OutgoingMail) => ({ from, ...mail, ...(projectId ? { headers: { [PROJECT_HEADER]: projectId } } : {}) });
 
 export interface Mailer {
   send(mail: OutgoingMail): Promise<void>;
@@ -16,7 +23,7 @@ export function createSmtpMailer(smtpUrl: string, from: string): Mailer {
   const transport = nodemailer.createTransport(smtpUrl);
   return {
     async send(mail) {
-      await transport.sendMail({ from, ...mail });
+      await transport.sendMail(toNodemailer(from, mail));
     },
   };
 }
@@ -29,7 +36,7 @@ export function createInProcessMailer(mailbox: Mailbox, from: string): Mailer {
   const transport = nodemailer.createTransport({ streamTransport: true, buffer: true });
   return {
     async send(mail) {
-      const info = await transport.sendMail({ from, ...mail });
+      const info = await transport.sendMail(toNodemailer(from, mail));
       mailbox.add(String(info.message), [mail.to]);
     },
   };

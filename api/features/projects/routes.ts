@@ -2,7 +2,7 @@ import { Router } from 'express';
 import type { Knex } from 'knex';
 import { z } from 'zod';
 import type { AppConfig } from '../../config';
-import { NotFoundError } from '../../lib/errors';
+import { BadRequestError, NotFoundError } from '../../lib/errors';
 import { requireUser } from '../auth/middleware';
 import { listAuditEvents } from '../audit/service';
 import { inviteToProject, listPendingInvitations, revokeInvitation } from '../invitations/service';
@@ -15,6 +15,14 @@ const historyQuery = z.object({
   limit: z.coerce.number({ error: 'limit must be a number.' }).int('limit must be a whole number.').min(1, 'limit must be at least 1.').max(200, 'limit may be at most 200.').default(50),
   before: z.coerce.number({ error: 'before must be an event id.' }).int('before must be an event id.').positive('before must be an event id.').optional(),
 });
+
+/** `version` from the body, or from `If-Match: W/"<n>"` when the body has none (as for campaigns). */
+function withIfMatchVersion(body: unknown, ifMatch: string | undefined): unknown {
+  if (ifMatch === undefined || body === null || typeof body !== 'object' || Array.isArray(body) || 'version' in body) return body ?? {};
+  const m = /^\s*(?:W\/)?"(\d+)"\s*$/.exec(ifMatch);
+  if (!m) throw new BadRequestError('If-Match must name one version, e.g. W/"3".', [{ path: 'If-Match', message: 'expected W/"<version>"' }]);
+  return { ...body, version: Number(m[1]) };
+}
 
 const memberId = (value: unknown) => {
   const raw = String(value);
@@ -47,7 +55,7 @@ export function projectsRouter(deps: { knex: Knex; config: AppConfig; mailer: Ma
   });
 
   router.patch('/projects/:projectId', owner, async (req, res) => {
-    const patch = projectPatchSchema.parse(req.body ?? {});
+    const patch = projectPatchSchema.parse(withIfMatchVersion(req.body, req.get('If-Match')));
     res.json({ project: await updateProject(knex, req.user!.id, req.project!.id, patch, req.project!.role) });
   });
 

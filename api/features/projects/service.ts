@@ -11,6 +11,8 @@ export interface ProjectView {
   description: string;
   role: ProjectRole;
   memberCount: number;
+  /** Goes up by one with every change of name or description; send it back with the next change. */
+  version: number;
   createdAt: string;
   updatedAt: string;
 }
@@ -32,7 +34,7 @@ export async function listProjectsFor(db: Knex, userId: string): Promise<Project
   const rows = await db('projects as p')
     .join('project_members as m', 'm.projectId', 'p.id')
     .where('m.userId', userId)
-    .select('p.id', 'p.name', 'p.description', 'p.createdAt', 'p.updatedAt', 'm.role')
+    .select('p.id', 'p.name', 'p.description', 'p.version', 'p.createdAt', 'p.updatedAt', 'm.role')
     .select(db.raw('(select count(*) from project_members c where c.project_id = p.id) as member_count'))
     .orderBy('p.name');
   return rows.map((r) => ({
@@ -41,6 +43,7 @@ export async function listProjectsFor(db: Knex, userId: string): Promise<Project
     description: r.description,
     role: r.role,
     memberCount: Number(r.memberCount),
+    version: r.version,
     createdAt: new Date(r.createdAt).toISOString(),
     updatedAt: new Date(r.updatedAt).toISOString(),
   }));
@@ -56,6 +59,7 @@ export async function getProject(db: Knex, projectId: string, role: ProjectRole)
     description: p.description,
     role,
     memberCount: count,
+    version: p.version,
     createdAt: p.createdAt.toISOString(),
     updatedAt: p.updatedAt.toISOString(),
   };
@@ -74,11 +78,24 @@ export async function createProject(db: Knex, actorId: string, fields: { name: s
   return getProject(db, id, 'owner');
 }
 
-export async function updateProject(db: Knex, actorId: string, projectId: string, patch: { name?: string; description?: string }, role: ProjectRole): Promise<ProjectView> {
+export async function updateProject(
+  db: Knex,
+  actorId: string,
+  projectId: string,
+  input: { name?: string; description?: string; version: number },
+  role: ProjectRole,
+): Promise<ProjectView> {
+  const { version, ...patch } = input;
   await db.transaction(async (trx) => {
     const before = await Project.query(trx).findById(projectId).forUpdate();
     if (!before) throw new NotFoundError('No project of yours was found at this address.');
-    const after = await Project.query(trx).patchAndFetchById(projectId, patch);
+    if (before.version !== version) {
+      throw new ConflictError(
+        `The project was changed by someone else (you sent version ${version}; it is now at version ${before.version}). Reload it and apply your change again.`,
+        { currentVersion: before.version },
+      );
+    }
+    const after = await Project.query(trx).patchAndFetchById(projectId, { ...patch, version: version + 1 });
     await recordAudit(trx, { projectId, actorUserId: actorId, action: 'update', entityType: 'project', entityId: projectId, before: projectSnapshot(before), after: projectSnapshot(after) });
   });
   return getProject(db, projectId, role);

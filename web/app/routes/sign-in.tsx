@@ -2,6 +2,7 @@ import { Navigate, useSearchParams } from 'react-router-dom';
 import { Page, Panel } from '../../components/ui/page';
 import { paths } from '../../config/paths';
 import { useSession } from '../../features/auth/api/get-session';
+import { safeReturnTo } from '../../../api/features/auth/schemas';
 
 const problems: Record<string, string> = {
   unavailable: 'Sign-in is not set up on this server: set GITHUB_CLIENT_ID and GITHUB_CLIENT_SECRET, or turn on the development tools (EYRIE_DEV_TOOLS=1) for the local sign-in page.',
@@ -14,7 +15,7 @@ export function SignInRoute() {
   const session = useSession();
   const returnTo = params.get('returnTo') ?? undefined;
   const error = params.get('error');
-  if (session.data?.user) return <Navigate to={returnTo && returnTo.startsWith('/') && !returnTo.startsWith('//') ? returnTo : paths.projects.getHref()} replace />;
+  if (session.data?.user) return <Navigate to={safeReturnTo(returnTo) ?? paths.projects.getHref()} replace />;
   return (
     <Page title="Sign in" lead="Projects, campaigns and tokens need an account. The calculators work without one.">
       <div className="max-w-lg">
@@ -24,7 +25,7 @@ export function SignInRoute() {
               {problems[error] ?? 'Sign-in did not complete. Please try again.'}
             </p>
           )}
-          <a href={paths.oauthStart.getHref(returnTo)} className="inline-flex items-center gap-2 rounded border border-ink-900 bg-ink-900 px-4 py-2 text-sm font-medium text-white hover:bg-ink-800">
+          <a href={paths.oauthStart.getHref(safeReturnTo(returnTo))} className="inline-flex items-center gap-2 rounded border border-ink-900 bg-ink-900 px-4 py-2 text-sm font-medium text-white hover:bg-ink-800">
             Sign in with GitHub
           </a>
           {session.data?.devTools && (

@@ -8,6 +8,7 @@ export interface Project {
   description: string;
   role: ProjectRole;
   memberCount: number;
+  version: number;
   createdAt: string;
   updatedAt: string;
 }
@@ -37,11 +38,11 @@ export function useCreateProject() {
   return useMutation({ mutationFn: createProject, onSuccess: () => client.invalidateQueries({ queryKey: projectKeys.all }) });
 }
 
-export const updateProject = (id: string, body: { name?: string; description?: string }) =>
+export const updateProject = (id: string, body: { name?: string; description?: string; version: number }) =>
   api<{ project: Project }>(`/api/v1/projects/${id}`, { method: 'PATCH', body }).then((r) => r.project);
 export function useUpdateProject(id: string) {
   const client = useQueryClient();
-  return useMutation({ mutationFn: (body: { name?: string; description?: string }) => updateProject(id, body), onSuccess: () => client.invalidateQueries({ queryKey: projectKeys.all }) });
+  return useMutation({ mutationFn: (body: { name?: string; description?: string; version: number }) => updateProject(id, body), onSuccess: () => client.invalidateQueries({ queryKey: projectKeys.all }) });
 }
 
 export const deleteProject = (id: string) => api<void>(`/api/v1/projects/${id}`, { method: 'DELETE' });

@@ -1,6 +1,6 @@
 import { useState } from 'react';
 import { Link, useNavigate } from 'react-router-dom';
-import { invitationSchema, projectPatchSchema, type ProjectRole } from '../../../../api/features/projects/schemas';
+import { invitationSchema, projectDetailsSchema, type ProjectRole } from '../../../../api/features/projects/schemas';
 import { Button, FormAlert, SelectField, TextField } from '../../../components/ui/form';
 import { Panel } from '../../../components/ui/page';
 import { paths } from '../../../config/paths';
@@ -13,7 +13,7 @@ import { RoleBadge, roleMeaning, roleOptions } from './role-badge';
 const dateFormat = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium' });
 
 function DetailsForm({ project }: { project: Project }) {
-  const form = useSchemaForm(projectPatchSchema, { name: project.name, description: project.description });
+  const form = useSchemaForm(projectDetailsSchema, { name: project.name, description: project.description });
   const update = useUpdateProject(project.id);
   return (
     <form
@@ -23,7 +23,8 @@ function DetailsForm({ project }: { project: Project }) {
       onSubmit={(e) => {
         e.preventDefault();
         const input = form.check();
-        if (input) update.mutate(input, { onError: form.fromServer });
+        // The version the page was loaded at: someone else's change in between is a 409, shown above the buttons.
+        if (input) update.mutate({ ...input, version: project.version }, { onError: form.fromServer });
       }}
     >
       <TextField name="name" label="Name" value={form.values.name ?? ''} onChange={form.set('name')} error={form.errors.name} />

@@ -1,0 +1,43 @@
+import type { RequestHandler } from 'express';
+import { BadRequestError, type FieldError } from './errors';
+
+const NUL = '\u0000';
+const MAX_LISTED = 20;
+
+/** Paths of every string in `value` that holds a NUL character (PostgreSQL text cannot store one). */
+function nulPaths(value: unknown, path: string[], found: string[], depth = 0): void {
+  if (found.length >= MAX_LISTED || depth > 64) return;
+  if (typeof value === 'string') {
+    if (value.includes(NUL)) found.push(path.join('.') || '(body)');
+  } else if (Array.isArray(value)) {
+    value.forEach((v, i) => nulPaths(v, [...path, String(i)], found, depth + 1));
+  } else if (value !== null && typeof value === 'object') {
+    for (const [k, v] of Object.entries(value)) {
+      if (k.includes(NUL)) found.push([...path, k.replaceAll(NUL, '\\0')].join('.'));
+      nulPaths(v, [...path, k], found, depth + 1);
+    }
+  }
+}
+
+export const NUL_MESSAGE = 'contains a NUL character (U+0000), which cannot be stored; remove it';
+
+/**
+ * Text every API route shares: no string anywhere in the body or the query may hold a NUL character, and a
+ * query parameter given without a value (`?at=`) is refused rather than read as 0. Each problem names its field.
+ */
+export const checkRequestText: RequestHandler = (req, _res, next) => {
+  const errors: FieldError[] = [];
+  const bodyPaths: string[] = [];
+  nulPaths(req.body, [], bodyPaths);
+  errors.push(...bodyPaths.map((path) => ({ path, message: NUL_MESSAGE })));
+  for (const [name, value] of Object.entries(req.query)) {
+    const queryPaths: string[] = [];
+    nulPaths(value, [name], queryPaths);
+    errors.push(...queryPaths.map((path) => ({ path, message: NUL_MESSAGE })));
+    if (value === '' || (Array.isArray(value) && value.includes(''))) {
+      errors.push({ path: name, message: `${name} is empty; leave the parameter out or give it a value` });
+    }
+  }
+  if (errors.length === 0) return next();
+  next(new BadRequestError(`${errors.length === 1 ? 'A field has' : `${errors.length} fields have`} text the API does not accept: ${errors[0]!.path}: ${errors[0]!.message}.`, errors));
+};

@@ -1,0 +1,61 @@
+// `npm run db:backup [-- file]` and `npm run db:restore -- file`: pg_dump / pg_restore from the same
+// PostgreSQL install that runs the local cluster, against DATABASE_URL or the local cluster in .data/postgres.
+import { spawnSync } from 'node:child_process';
+import { existsSync, mkdirSync, statSync } from 'node:fs';
+import path from 'node:path';
+import { ensureDependencies, log, root } from './lib/deps.mjs';
+
+ensureDependencies();
+const { findPgBin, useLocalCluster, FriendlyError } = await import('./lib/pg.mjs');
+
+const [command, fileArg] = process.argv.slice(2);
+
+/** The connection string without its password, which goes to the tools through PGPASSWORD (not the process list). */
+function splitPassword(url) {
+  const u = new URL(url);
+  const password = decodeURIComponent(u.password);
+  u.password = '';
+  return { url: u.toString(), password };
+}
+
+function run(tool, args, url) {
+  const { bin } = findPgBin();
+  const conn = splitPassword(url);
+  const r = spawnSync(path.join(bin, tool), [...args, `--dbname=${conn.url}`], {
+    stdio: 'inherit',
+    env: { ...process.env, PGPASSWORD: conn.password, PGCONNECT_TIMEOUT: '10' },
+  });
+  if (r.error) throw r.error;
+  if (r.status !== 0) throw new FriendlyError(`${tool} failed (exit code ${r.status}); see the messages above.`);
+}
+
+const stamp = () => new Date().toISOString().replace(/[-:]/g, '').replace('T', '-').slice(0, 15);
+
+let cluster = null;
+try {
+  if (command !== 'backup' && command !== 'restore') throw new FriendlyError('usage: npm run db:backup [-- file.dump]  |  npm run db:restore -- file.dump');
+  if (command === 'restore' && !fileArg) throw new FriendlyError('name the backup to restore: npm run db:restore -- .data/backups/eyrie-….dump');
+  let url = process.env.DATABASE_URL;
+  if (!url) {
+    cluster = await useLocalCluster({ dataDir: path.join(root, '.data', 'postgres'), port: Number(process.env.EYRIE_PG_PORT ?? 54329), database: 'eyrie' });
+    url = cluster.url;
+  }
+  if (command === 'backup') {
+    const file = path.resolve(fileArg ?? path.join(root, '.data', 'backups', `eyrie-${stamp()}.dump`));
+    mkdirSync(path.dirname(file), { recursive: true });
+    // Custom format: compressed, and pg_restore can restore it whole or in parts.
+    run('pg_dump', ['--format=custom', '--no-owner', '--no-privileges', `--file=${file}`], url);
+    log(`backup written: ${file} (${Math.round(statSync(file).size / 1024)} KiB). Restore it with: npm run db:restore -- ${path.relative(process.cwd(), file)}`);
+  } else {
+    const file = path.resolve(fileArg);
+    if (!existsSync(file)) throw new FriendlyError(`no backup at ${file}`);
+    // One transaction: a restore that fails half-way leaves the database as it was.
+    run('pg_restore', ['--clean', '--if-exists', '--no-owner', '--no-privileges', '--single-transaction', '--exit-on-error', file], url);
+    log(`restored ${file}. Restart Eyrie (npm start) so no process keeps rows it read before the restore.`);
+  }
+} catch (err) {
+  console.error(`eyrie: ${err instanceof FriendlyError ? err.message : (err?.stack ?? err)}`);
+  process.exitCode = 1;
+} finally {
+  cluster?.stop();
+}
