@@ -75,7 +75,7 @@ describe('accounts and projects in Chromium', () => {
     await maybeScreenshot(page, 'project-settings');
 
     await page.getByRole('link', { name: 'See the project’s history' }).click();
-    await expect.poll(() => page.getByRole('table').textContent()).toContain('Invitation created');
+    await expect.poll(() => page.getByRole('main').textContent()).toContain('invited new.colleague@example.test as editor.');
     await maybeScreenshot(page, 'project-history');
 
     // Tokens: created, shown once, revoked.

@@ -10,6 +10,7 @@ import { useMeasurements } from '../../features/campaigns/api/measurements';
 import type { CampaignWithRole } from '../../features/campaigns/api/types';
 import { CampaignAnalysis } from '../../features/campaigns/components/campaign-analysis';
 import { CampaignHeader } from '../../features/campaigns/components/campaign-header';
+import { CampaignHistory, KeptFiles, SignOffBar } from '../../features/campaigns/components/campaign-records';
 import { ForecastPanel, SavedForecasts } from '../../features/campaigns/components/forecast-panel';
 import { MeasurementGrid } from '../../features/campaigns/components/measurement-grid';
 import { UploadWizard } from '../../features/campaigns/components/upload-wizard';
@@ -19,6 +20,8 @@ const INVENTED = /kestrelmoor|invented/i;
 
 function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
   const canEdit = campaign.role !== 'viewer';
+  // A signed-off campaign keeps its measurements as they are until someone reopens it.
+  const canEditRuns = canEdit && !campaign.signOff;
   const [weighting, setWeighting] = useState<'none' | 'uncertainty'>('none');
   const [atCelsius, setAtCelsius] = useState<number | null>(null);
   const measurements = useMeasurements(campaign.id);
@@ -51,6 +54,9 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
       <div className="flex flex-col gap-4">
         <Panel>
           <CampaignHeader campaign={campaign} canEdit={canEdit} />
+          <div className="mt-3">
+            <SignOffBar campaign={campaign} canEdit={canEdit} />
+          </div>
         </Panel>
 
         <Panel title="Result">
@@ -88,15 +94,24 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
         <Panel title={`Measurements${measurements.data ? ` (${measurements.data.length})` : ''}`}>
           {measurements.isPending && <p className="text-sm text-ink-500">Loading measurements…</p>}
           {measurements.isError && <p role="alert" className="text-sm text-rose-700">{measurements.error.message}</p>}
-          {measurements.data && <MeasurementGrid campaign={campaign} measurements={measurements.data} canEdit={canEdit} />}
+          {measurements.data && <MeasurementGrid campaign={campaign} measurements={measurements.data} canEdit={canEditRuns} />}
           {!canEdit && <p className="mt-2 text-xs text-ink-600">You are a viewer in this project: you can read and download, not change.</p>}
+          {canEdit && campaign.signOff && <p className="mt-2 text-xs text-ink-600">Signed off: reopen the campaign (above) to change its measurements.</p>}
         </Panel>
 
-        {canEdit && (
+        {canEditRuns && (
           <Panel title="Upload a file">
             <UploadWizard campaignId={campaign.id} projectId={campaign.projectId} />
           </Panel>
         )}
+
+        <Panel title="Uploaded files">
+          <KeptFiles campaignId={campaign.id} />
+        </Panel>
+
+        <Panel title="History">
+          <CampaignHistory campaignId={campaign.id} />
+        </Panel>
       </div>
     </Page>
   );

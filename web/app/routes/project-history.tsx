@@ -19,7 +19,7 @@ function History({ projectId }: { projectId: string }) {
   return (
     <Page
       title={`History of ${project.data.name}`}
-      lead="Every change to this project’s data: who made it, when, and the values before and after."
+      lead="Every change to this project’s data: who made it, when, what changed from what to what, and why."
       actions={<Link className="text-sm text-fjord-700 underline" to={paths.projectSettings.getHref(projectId)}>Members &amp; settings</Link>}
     >
       <Panel><HistoryView projectId={projectId} /></Panel>
