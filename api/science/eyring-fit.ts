@@ -292,7 +292,7 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
     const skipped = prepared.length - fitted.length;
     throw new DomainError(
       'too-few-temperatures',
-      `a fit needs runs at two or more distinct temperatures${skipped > 0 ? ` (${skipped} run(s) excluded or censored)` : ''}`,
+      `a fit needs runs at two or more distinct temperatures${skipped > 0 ? ` (${runsWord(skipped)} excluded or censored)` : ''}`,
       'measurements',
     );
   }
@@ -385,24 +385,24 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
   const nExcluded = prepared.filter((p) => p.status === 'excluded').length;
   const nCensored = prepared.filter((p) => p.status === 'censored').length;
   if (nExcluded > 0) {
-    warnings.push({ code: 'excluded-points', message: `${nExcluded} run(s) excluded by the user are shown but not fitted.` });
+    warnings.push({ code: 'excluded-points', message: `${runsWord(nExcluded)} excluded by the user ${nExcluded === 1 ? 'is' : 'are'} shown but not fitted.` });
   }
   if (nCensored > 0) {
     warnings.push({
       code: 'censored-points',
-      message: `${nCensored} run(s) at or beyond the quantitation limit of the chiral assay (|ee| ≥ ${options.censorEePercent ?? DEFAULT_CENSOR_EE_PERCENT} %) are treated as bounds, not exact values, and kept out of the least squares.`,
+      message: `${runsWord(nCensored)} at or beyond the quantitation limit of the chiral assay (|ee| ≥ ${options.censorEePercent ?? DEFAULT_CENSOR_EE_PERCENT} %) ${nCensored === 1 ? 'is' : 'are'} treated as bounds, not exact values, and kept out of the least squares.`,
     });
   }
   if (disagreeing > 0) {
     warnings.push({
       code: 'censored-bound-disagrees',
-      message: `The fitted line contradicts ${disagreeing} censored run(s): the model may be wrong at those temperatures.`,
+      message: `The fitted line contradicts ${disagreeing} censored ${disagreeing === 1 ? 'run' : 'runs'}: the model may be wrong at those temperatures.`,
     });
   }
   if (flagged > 0) {
     warnings.push({
       code: 'flagged-points',
-      message: `${flagged} run(s) are flagged by residual diagnostics (|studentized| > 3, leverage > 4/n or Cook's D > 1). They are still fitted; exclude one only with a reason.`,
+      message: `${runsWord(flagged)} ${flagged === 1 ? 'is' : 'are'} flagged by residual diagnostics (|studentized| > 3, leverage > 4/n or Cook's D > 1). They are still fitted; exclude one only with a reason.`,
     });
   }
 
@@ -523,4 +523,9 @@ export function predictEyring(fit: EyringFit, temperaturesK: readonly number[], 
       predictionInterval: usable ? mapInterval(pred.predictionInterval![0], pred.predictionInterval![1]) : null,
     };
   });
+}
+
+/** "1 run", "3 runs". */
+function runsWord(n: number): string {
+  return `${n} ${n === 1 ? 'run' : 'runs'}`;
 }
