@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { Link, useParams } from 'react-router-dom';
+import { useParams } from 'react-router-dom';
 import { Page, Panel } from '../../components/ui/page';
 import { paths } from '../../config/paths';
 import { SignedInOnly } from '../../features/auth/components/signed-in-only';
@@ -32,11 +32,13 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
   return (
     <Page
       title={campaign.title}
+      crumbs={[
+        { label: 'Projects', to: paths.projects.getHref() },
+        { label: project.data?.name ?? 'Project', to: paths.project.getHref(campaign.projectId) },
+        { label: campaign.title },
+      ]}
       lead={
         <span className="flex flex-wrap items-center gap-x-3 gap-y-1">
-          <Link className="text-fjord-700 underline" to={paths.project.getHref(campaign.projectId)}>
-            ← {project.data?.name ?? 'Project'}
-          </Link>
           <span>Temperature screen · differential Eyring analysis</span>
           {invented && (
             <span className="rounded border border-slate-400 bg-slate-50 px-1.5 py-0.5 text-xs font-medium text-ink-700">

@@ -27,7 +27,7 @@ export function UserMenu() {
         <span aria-hidden="true" className="grid h-6 w-6 place-items-center rounded-full bg-fjord-600 text-xs font-semibold">
           {(user.displayName ?? user.login).slice(0, 1).toUpperCase()}
         </span>
-        <span>{user.displayName ?? user.login}</span>
+        <span className="hidden max-w-[12rem] truncate sm:inline">{user.displayName ?? user.login}</span>
         <span aria-hidden="true" className="text-slate-400">▾</span>
       </summary>
       <div className="absolute right-0 z-10 mt-1 w-56 rounded-md border border-slate-200 bg-white py-1 text-sm text-ink-800 shadow-lg">
