@@ -57,7 +57,9 @@ export function Page({
 
 export function Panel({ title, children, className = '' }: { title?: ReactNode; children: ReactNode; className?: string }) {
   return (
-    <section className={`rounded-lg border border-slate-200 bg-white p-4 shadow-sm ${className}`}>
+    // min-w-0 and overflow-x-auto: a wide table scrolls inside its panel instead of widening the page;
+    // relative: visually hidden (absolutely placed) labels stay inside it too.
+    <section className={`relative min-w-0 overflow-x-auto rounded-lg border border-slate-200 bg-white p-4 shadow-sm ${className}`}>
       {title && <h2 className="mb-3 text-sm font-semibold uppercase tracking-wide text-ink-600">{title}</h2>}
       {children}
     </section>
