@@ -1,4 +1,4 @@
-import type { ReactNode } from 'react';
+import { useEffect, useId, useRef, useState, type ReactNode } from 'react';
 import { Link } from 'react-router-dom';
 
 /** One step of a breadcrumb trail; the last one (the page itself) has no link. */
@@ -56,11 +56,34 @@ export function Page({
 }
 
 export function Panel({ title, children, className = '' }: { title?: ReactNode; children: ReactNode; className?: string }) {
+  const ref = useRef<HTMLElement>(null);
+  const titleId = useId();
+  // A panel whose content is wider than the screen scrolls sideways; it then takes the focus so
+  // the keyboard can scroll it too.
+  const [scrolls, setScrolls] = useState(false);
+  useEffect(() => {
+    const el = ref.current;
+    if (!el || typeof ResizeObserver === 'undefined') return;
+    const check = () => setScrolls(el.scrollWidth > el.clientWidth + 1);
+    check();
+    const observer = new ResizeObserver(check);
+    observer.observe(el);
+    return () => observer.disconnect();
+  }, []);
   return (
     // min-w-0 and overflow-x-auto: a wide table scrolls inside its panel instead of widening the page;
     // relative: visually hidden (absolutely placed) labels stay inside it too.
-    <section className={`relative min-w-0 overflow-x-auto rounded-lg border border-slate-200 bg-white p-4 shadow-sm ${className}`}>
-      {title && <h2 className="mb-3 text-sm font-semibold uppercase tracking-wide text-ink-600">{title}</h2>}
+    <section
+      ref={ref}
+      tabIndex={scrolls ? 0 : undefined}
+      aria-labelledby={title ? titleId : undefined}
+      className={`relative min-w-0 overflow-x-auto rounded-lg border border-slate-200 bg-white p-4 shadow-sm ${className}`}
+    >
+      {title && (
+        <h2 id={titleId} className="mb-3 text-sm font-semibold uppercase tracking-wide text-ink-600">
+          {title}
+        </h2>
+      )}
       {children}
     </section>
   );
