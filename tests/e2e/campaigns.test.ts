@@ -141,7 +141,7 @@ describe('campaign pages in Chromium', () => {
     await page.getByLabel('Selectivity, row 13').fill('99,0');
     await page.getByLabel('Sample id, row 13').fill('KL7702-S-013');
     await page.getByLabel('Selectivity, row 13').press('Control+Enter');
-    await expect.poll(() => page.getByText(/Saved 1 new and 0 changed row/).isVisible()).toBe(true);
+    await expect.poll(() => page.getByText(/Saved 1 new row and 0 changed rows/).isVisible()).toBe(true);
     await expect.poll(() => saved.textContent()).toMatch(/99\.00 % ee at −30\.0 °C ✓ inside the interval/);
     await maybeScreenshot(page, 'campaigns-campaign-editor');
     await maybeElementShot(page, 'campaigns-el-grid', page.getByRole('table', { name: 'Measurements' }));
@@ -255,7 +255,7 @@ describe('campaign pages in Chromium', () => {
     await expect.poll(() => preview.textContent()).toMatch(/(\d+) of \1 rows ready/);
     expect(await preview.textContent()).toContain('≥ 99.8');
     await page.getByRole('button', { name: /^Import \d+ rows$/ }).click();
-    await expect.poll(() => page.getByText(/^✓ Imported \d+ rows/).isVisible()).toBe(true);
+    await expect.poll(() => page.getByText(/^✓ Imported \d+ rows/).isVisible(), { timeout: 15_000 }).toBe(true);
     const residuals = page.getByRole('region', { name: 'Residual diagnostics' });
     await expect.poll(() => residuals.textContent(), { timeout: 15_000 }).toContain('lower bound');
     expect(await page.getByRole('table', { name: 'Measurements' }).textContent()).toContain('lower bound');
