@@ -1,5 +1,6 @@
 import { useState } from 'react';
 import { useParams } from 'react-router-dom';
+import { Button } from '../../components/ui/form';
 import { Page, Panel } from '../../components/ui/page';
 import { paths } from '../../config/paths';
 import { SignedInOnly } from '../../features/auth/components/signed-in-only';
@@ -77,9 +78,12 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
           </div>
           {analysis.isPending && <p className="text-sm text-ink-500">Fitting…</p>}
           {analysis.isError && (
-            <p role="alert" className="text-sm text-rose-700">
+            <div role="alert" className="flex flex-wrap items-center gap-2 text-sm text-rose-700">
               The analysis failed: {analysis.error.message}
-            </p>
+              <Button onClick={() => void analysis.refetch()} disabled={analysis.isFetching}>
+                Try again
+              </Button>
+            </div>
           )}
           {analysis.data && measurements.data && (
             <CampaignAnalysis analysis={analysis.data} measurements={measurements.data} stale={analysis.isPlaceholderData} />
@@ -95,7 +99,14 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
 
         <Panel title={`Measurements${measurements.data ? ` (${measurements.data.length})` : ''}`}>
           {measurements.isPending && <p className="text-sm text-ink-500">Loading measurements…</p>}
-          {measurements.isError && <p role="alert" className="text-sm text-rose-700">{measurements.error.message}</p>}
+          {measurements.isError && (
+            <div role="alert" className="flex flex-wrap items-center gap-2 text-sm text-rose-700">
+              The measurements could not be loaded: {measurements.error.message}
+              <Button onClick={() => void measurements.refetch()} disabled={measurements.isFetching}>
+                Try again
+              </Button>
+            </div>
+          )}
           {measurements.data && <MeasurementGrid campaign={campaign} measurements={measurements.data} canEdit={canEditRuns} />}
           {!canEdit && <p className="mt-2 text-xs text-ink-600">You are a viewer in this project: you can read and download, not change.</p>}
           {canEdit && campaign.signOff && <p className="mt-2 text-xs text-ink-600">Signed off: reopen the campaign (above) to change its measurements.</p>}
