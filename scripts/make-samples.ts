@@ -35,7 +35,7 @@ writeFileSync(
   '\uFEFF' +
     csv(
       [
-        ['Kestrelmoor Laboratories (erfunden) – Temperaturscreening Merlin-Phos in Toluol'],
+        ['Kestrelmoor Laboratories (erfunden) – Temperaturscreening Merlin-Ligand in Toluol'],
         [],
         ['Probe', 'Temperatur (°C)', 'ee (%)', 'Umsatz (%)', 'Zeit (h)', 'Bemerkung'],
         ...merlin.points.map((p) => [p.sampleId, de(p.temperatureC), de(p.eePercent), de(p.conversionPercent), de(p.reactionTimeH), p.notes]),
@@ -81,7 +81,7 @@ sheet.getRow(1).font = { bold: true };
 sheet.columns.forEach((c) => (c.width = 16));
 const about = workbook.addWorksheet('About');
 about.addRow(['Invented demo data (Kestrelmoor Laboratories is an invented company).']);
-about.addRow(['Skylark-Phos in 2-MeTHF, low-temperature screen. The −60 °C samples are at the ee quantitation limit (≥ 99.8 %).']);
+about.addRow(['Skylark ligand in 2-MeTHF, low-temperature screen. The −60 °C samples are at the ee quantitation limit (≥ 99.8 %).']);
 writeFileSync(out('kestrelmoor-skylark-methf-screen.xlsx'), Buffer.from(await workbook.xlsx.writeBuffer()));
 
 console.log('samples written');

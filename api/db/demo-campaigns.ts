@@ -163,7 +163,7 @@ const skylarkMeOH: Branch = { ddHJPerMol: 14_000, ddSJPerMolK: 13 };
 const skylarkMeTHF: Branch = { ddHJPerMol: 15_000, ddSJPerMolK: 10 };
 
 /**
- * Merlin-Phos in toluene: two branches meeting at an invented isoinversion temperature of
+ * The Merlin ligand in toluene: two branches meeting at an invented isoinversion temperature of
  * −15 °C (api/science/README.md §4). Above it ΔΔH‡ = +16 kJ/mol, below it −5 kJ/mol: slopes of opposite sign, so the
  * segmented fit claims a real isoinversion, where r (and ee) has a maximum.
  */
@@ -180,8 +180,8 @@ const REACTION =
 export const DEMO_CAMPAIGNS: DemoCampaign[] = [
   {
     id: '6d1f0c4e-2a51-4c0e-9d7b-00000c7702a1',
-    title: 'Skylark-Phos in methanol: temperature screen',
-    reactionDescription: `${REACTION} Ligand: Skylark-Phos (invented); solvent methanol.`,
+    title: 'Skylark ligand in methanol: temperature screen',
+    reactionDescription: `${REACTION} Ligand: the Skylark ligand (invented); solvent methanol.`,
     productNameA: '(S)-KL-7702-A',
     productNameB: '(R)-KL-7702-A',
     assayMethod: 'chiral-hplc',
@@ -192,8 +192,8 @@ export const DEMO_CAMPAIGNS: DemoCampaign[] = [
   },
   {
     id: '6d1f0c4e-2a51-4c0e-9d7b-00000c7702b2',
-    title: 'Merlin-Phos in toluene: temperature screen',
-    reactionDescription: `${REACTION} Ligand: Merlin-Phos (invented); solvent toluene.`,
+    title: 'Merlin ligand in toluene: temperature screen',
+    reactionDescription: `${REACTION} Ligand: the Merlin ligand (invented); solvent toluene.`,
     productNameA: '(S)-KL-7702-A',
     productNameB: '(R)-KL-7702-A',
     assayMethod: 'chiral-sfc',
@@ -204,8 +204,8 @@ export const DEMO_CAMPAIGNS: DemoCampaign[] = [
   },
   {
     id: '6d1f0c4e-2a51-4c0e-9d7b-00000c7702c3',
-    title: 'Skylark-Phos in 2-MeTHF: low-temperature screen',
-    reactionDescription: `${REACTION} Ligand: Skylark-Phos (invented); solvent 2-methyltetrahydrofuran.`,
+    title: 'Skylark ligand in 2-MeTHF: low-temperature screen',
+    reactionDescription: `${REACTION} Ligand: the Skylark ligand (invented); solvent 2-methyltetrahydrofuran.`,
     productNameA: '(S)-KL-7702-A',
     productNameB: '(R)-KL-7702-A',
     assayMethod: 'chiral-hplc',

@@ -36,7 +36,7 @@ export const DEMO_PROJECTS: DemoProject[] = [
     id: '6d1f0c4e-2a51-4c0e-9d7b-0000000a7702',
     name: 'KL-7702 enamide hydrogenation (invented)',
     description:
-      'Invented demo: asymmetric hydrogenation of the enamide KL-7702-E to the (S)-amide intermediate with rhodium and the invented ligands Skylark-Phos and Merlin-Phos. Specification for the step: ≥ 99.0 % ee.',
+      'Invented demo: asymmetric hydrogenation of the enamide KL-7702-E to the (S)-amide intermediate with rhodium and the invented ligands Skylark and Merlin (names of birds, like every name in this scenario). Specification for the step: ≥ 99.0 % ee.',
     members: [
       { login: 'ada-pemberton', role: 'owner' },
       { login: 'tomas-reyes', role: 'editor' },

@@ -24,6 +24,10 @@ export class Campaign extends objection.Model {
   declare notes: string | null;
   declare version: number;
   declare createdByUserId: string | null;
+  /** Set while the campaign is signed off: its measurements are locked. */
+  declare signedOffAt: Date | null;
+  declare signedOffByUserId: string | null;
+  declare signOffNote: string | null;
   declare createdAt: Date;
   declare updatedAt: Date;
 

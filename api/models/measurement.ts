@@ -23,6 +23,8 @@ export class Measurement extends objection.Model {
   declare excludedReason: string | null;
   declare notes: string | null;
   declare sourceRow: number | null;
+  /** The kept upload this row came from (with `sourceRow`, its row there); null when typed in. */
+  declare importFileId: string | null;
   declare version: number;
   declare createdByUserId: string | null;
   declare createdAt: Date;

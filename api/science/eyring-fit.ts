@@ -434,7 +434,7 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
     const skipped = prepared.length - fitted.length;
     throw new DomainError(
       'too-few-temperatures',
-      `a fit needs runs at two or more distinct temperatures${skipped > 0 ? ` (${skipped} run(s) excluded or censored)` : ''}`,
+      `a fit needs runs at two or more distinct temperatures${skipped > 0 ? ` (${runsWord(skipped)} excluded or censored)` : ''}`,
       'measurements',
     );
   }
@@ -591,39 +591,39 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
   const nExcluded = prepared.filter((p) => p.status === 'excluded').length;
   const nCensored = censored.length;
   if (nExcluded > 0) {
-    warnings.push({ code: 'excluded-points', message: `${nExcluded} run(s) excluded by the user are shown but not fitted.` });
+    warnings.push({ code: 'excluded-points', message: `${runsWord(nExcluded)} excluded by the user ${nExcluded === 1 ? 'is' : 'are'} shown but not fitted.` });
   }
   if (nCensored > 0) {
     warnings.push({
       code: 'censored-points',
       message:
         estimator === 'censored-ml'
-          ? `${nCensored} run(s) at or beyond the assay's quantitation limit are bounds, not exact values: the line is fitted by censored maximum likelihood (Tobit), with the least-squares fit of the exact runs shown beside it.`
-          : `${nCensored} run(s) at or beyond the assay's quantitation limit are treated as bounds, not exact values, and kept out of the fit.`,
+          ? `${runsWord(nCensored)} at or beyond the assay's quantitation limit ${nCensored === 1 ? 'is a bound, not an exact value' : 'are bounds, not exact values'}: the line is fitted by censored maximum likelihood (Tobit), with the least-squares fit of the exact runs shown beside it.`
+          : `${runsWord(nCensored)} at or beyond the assay's quantitation limit ${nCensored === 1 ? 'is' : 'are'} treated as bounds, not exact values, and kept out of the fit.`,
     });
   }
   if (disagreeing > 0) {
     warnings.push({
       code: 'censored-bound-disagrees',
-      message: `The fitted line falls short of the quantitation limit at ${disagreeing} run(s) reported beyond it: the model may be wrong at those temperatures.`,
+      message: `The fitted line falls short of the quantitation limit at ${runsWord(disagreeing)} reported beyond it: the model may be wrong at those temperatures.`,
     });
   }
   if (!canFlag && n > 2) {
     warnings.push({
       code: 'too-few-runs-to-flag',
-      message: `With ${line.dof} residual degree(s) of freedom no run is flagged: too few runs to tell an odd run from ordinary scatter.`,
+      message: `With ${line.dof} residual ${line.dof === 1 ? 'degree' : 'degrees'} of freedom no run is flagged: too few runs to tell an odd run from ordinary scatter.`,
     });
   }
   if (withinAssay > 0) {
     warnings.push({
       code: 'residuals-within-assay',
-      message: `${withinAssay} run(s) stand out against the others' scatter but lie within ${FLAG_RULES.assaySigmas} SDs of the assay's own precision, so they are not called outliers.`,
+      message: `${runsWord(withinAssay)} ${withinAssay === 1 ? 'stands' : 'stand'} out against the others' scatter but ${withinAssay === 1 ? 'lies' : 'lie'} within ${FLAG_RULES.assaySigmas} SDs of the assay's own precision, so ${withinAssay === 1 ? 'it is' : 'they are'} not called an outlier.`,
     });
   }
   if (flagged > 0) {
     warnings.push({
       code: 'flagged-points',
-      message: `${flagged} run(s) are flagged by residual diagnostics (|studentized| > 3, leverage > 4/n or Cook's D > 1); each says why. They are still fitted: a flag asks for a second look at the run's record, not for its removal.`,
+      message: `${runsWord(flagged)} ${flagged === 1 ? 'is' : 'are'} flagged by residual diagnostics (|studentized| > 3, leverage > 4/n or Cook's D > 1); each says why. They are still fitted: a flag asks for a second look at the run's record, not for its removal.`,
     });
   }
 
@@ -714,7 +714,7 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
     if (lost > 0) {
       warnings.push({
         code: 'prediction-out-of-range',
-        message: `${lost} prediction(s) lie so far from the data that r itself cannot be written as a number; ln r and ΔΔG‡ are given and ee is shown saturated. The rest of the fit is unaffected.`,
+        message: `${lost} ${lost === 1 ? 'prediction lies' : 'predictions lie'} so far from the data that r itself cannot be written as a number; ln r and ΔΔG‡ are given and ee is shown saturated. The rest of the fit is unaffected.`,
       });
     }
   }
@@ -735,7 +735,7 @@ function rangeOf(values: readonly number[] | undefined): { min: number; max: num
 function extrapolationWarning(fit: EyringFit, count: number): Warning {
   return {
     code: 'extrapolation',
-    message: `${count} prediction(s) lie outside the screened ${describeTemperatureK(fit.temperatureRangeK.min)} to ${describeTemperatureK(fit.temperatureRangeK.max)}; they assume the same straight line continues, which a change of mechanism would break.`,
+    message: `${count} ${count === 1 ? 'prediction lies' : 'predictions lie'} outside the screened ${describeTemperatureK(fit.temperatureRangeK.min)} to ${describeTemperatureK(fit.temperatureRangeK.max)}; ${count === 1 ? 'it assumes' : 'they assume'} the same straight line continues, which a change of mechanism would break.`,
   };
 }
 
@@ -802,4 +802,9 @@ export function predictEyring(fit: EyringFit, temperaturesK: readonly number[], 
       predictionInterval: seNew === null || q === null ? null : mapInterval(y - q * seNew, y + q * seNew),
     };
   });
+}
+
+/** "1 run", "3 runs". */
+function runsWord(n: number): string {
+  return `${n} ${n === 1 ? 'run' : 'runs'}`;
 }

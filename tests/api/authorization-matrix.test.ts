@@ -1,11 +1,11 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
-import { randomBytes, randomUUID } from 'node:crypto';
+import { createHash, randomBytes, randomUUID } from 'node:crypto';
 import type { ProjectRole } from '../../api/features/projects/schemas';
 import type { User } from '../../api/models/user';
 import { Invitation } from '../../api/models/invitation';
 import { hashSecret } from '../../api/lib/secrets';
-import { closeTestKnex } from '../support/db';
+import { closeTestKnex, testKnex } from '../support/db';
 import { signIn, startAuthApp, type AuthTestApp } from '../support/auth';
 import { listRoutes } from '../support/routes';
 import { createUser } from '../factories/users';
@@ -54,6 +54,19 @@ async function aCampaign(c: Cell) {
 async function aScreen(c: Cell) {
   const campaign = await createCampaign(c.projectId);
   await createMeasurements(campaign.id, [233.15, 253.15, 273.15, 293.15, 313.15]);
+  return { campaignId: campaign.id };
+}
+async function anImportFile(c: Cell) {
+  const campaign = await createCampaign(c.projectId);
+  const content = Buffer.from('Temperature (°C),ee (%)\r\n-20,91.5\r\n');
+  const [row] = await testKnex()('importFiles')
+    .insert({ campaignId: campaign.id, fileName: 'matrix.csv', mediaType: 'text/csv', format: 'csv', sizeBytes: content.length, sha256: createHash('sha256').update(content).digest('hex'), content, rowCount: 1 })
+    .returning('id');
+  return { fileId: String(row.id) };
+}
+async function aSignedOffCampaign(c: Cell) {
+  const campaign = await createCampaign(c.projectId);
+  await testKnex()('campaigns').where({ id: campaign.id }).update({ signedOffAt: new Date(), signOffNote: 'matrix' });
   return { campaignId: campaign.id };
 }
 async function aMeasurement(c: Cell) {
@@ -118,10 +131,20 @@ const RULES: Record<string, Rule> = {
   'GET /api/v1/campaigns/:campaignId/analysis': { access: 'viewer', ok: 200, params: aScreen },
   'GET /api/v1/campaigns/:campaignId/forecasts': { access: 'viewer', ok: 200, params: aScreen },
   'POST /api/v1/campaigns/:campaignId/forecasts': { access: 'editor', ok: 201, params: aScreen, body: () => ({ temperature: { value: -10, unit: 'C' } }) },
+  'GET /api/v1/campaigns/:campaignId/imports/template.csv': { access: 'viewer', ok: 200, params: aCampaign },
+  'GET /api/v1/campaigns/:campaignId/files': { access: 'viewer', ok: 200, params: aCampaign },
+  'GET /api/v1/import-files/:fileId': { access: 'viewer', ok: 200, params: anImportFile },
+  'GET /api/v1/campaigns/:campaignId/history': { access: 'viewer', ok: 200, params: aCampaign },
+  'GET /api/v1/campaigns/:campaignId/history.csv': { access: 'viewer', ok: 200, params: aCampaign },
+  'GET /api/v1/projects/:projectId/history': { access: 'owner', ok: 200 },
+  'GET /api/v1/projects/:projectId/history.csv': { access: 'owner', ok: 200 },
+  // The factory's campaign has no last editor on record, so any editor may sign it off.
+  'POST /api/v1/campaigns/:campaignId/sign-off': { access: 'editor', ok: 200, params: aCampaign, body: () => ({ note: 'matrix check' }) },
+  'POST /api/v1/campaigns/:campaignId/reopen': { access: 'editor', ok: 200, params: aSignedOffCampaign, body: () => ({ reason: 'matrix check' }) },
   'GET /api/v1/campaigns/:campaignId/report.xlsx': { access: 'viewer', ok: 200, params: aScreen },
-  'PATCH /api/v1/measurements/:measurementId': { access: 'editor', ok: 200, params: aMeasurement, body: () => ({ version: 1, notes: 'checked' }) },
+  'PATCH /api/v1/measurements/:measurementId': { access: 'editor', ok: 200, params: aMeasurement, body: () => ({ version: 1, reason: 'matrix check', notes: 'checked' }) },
   'PUT /api/v1/measurements/:measurementId/exclusion': { access: 'editor', ok: 200, params: aMeasurement, body: () => ({ version: 1, excluded: true, reason: 'matrix check' }) },
-  'DELETE /api/v1/measurements/:measurementId': { access: 'editor', ok: 204, params: aMeasurement, query: { version: '1' } },
+  'DELETE /api/v1/measurements/:measurementId': { access: 'editor', ok: 204, params: aMeasurement, query: { version: '1', reason: 'matrix check' } },
   'DELETE /api/v1/forecasts/:forecastId': {
     access: 'editor',
     ok: 204,

@@ -228,9 +228,9 @@ describe('measurements', () => {
     // Sorted by temperature: −40 °C first.
     expect(list.body.measurements.map((m: { temperatureK: number }) => m.temperatureK)).toEqual([233.15, 293.15]);
 
-    const changed = await as('editor').patch(`/api/v1/measurements/${cold!.id}`).send({ version: 1, selectivity: { measure: 'er', value: '95:5' } }).expect(200);
+    const changed = await as('editor').patch(`/api/v1/measurements/${cold!.id}`).send({ version: 1, reason: 'reported as er by the analyst', selectivity: { measure: 'er', value: '95:5' } }).expect(200);
     expect(changed.body).toMatchObject({ version: 2, measure: 'er', value: 95, valueB: 5 });
-    const stale = await as('editor').patch(`/api/v1/measurements/${cold!.id}`).send({ version: 1, notes: 'late' });
+    const stale = await as('editor').patch(`/api/v1/measurements/${cold!.id}`).send({ version: 1, reason: 'late note', notes: 'late' });
     expect(stale.status).toBe(409);
     expect(stale.body.currentVersion).toBe(2);
 
@@ -240,8 +240,8 @@ describe('measurements', () => {
     expect(noReason.status).toBe(400);
     expect(noReason.body.errors[0].path).toBe('reason');
 
-    await as('editor').delete(`/api/v1/measurements/${warm!.id}?version=1`).expect(409);
-    await as('editor').delete(`/api/v1/measurements/${warm!.id}`).set('If-Match', 'W/"2"').expect(204);
+    await as('editor').delete(`/api/v1/measurements/${warm!.id}?version=1&reason=bath%20failed`).expect(409);
+    await as('editor').delete(`/api/v1/measurements/${warm!.id}?reason=bath%20failed`).set('If-Match', 'W/"2"').expect(204);
     expect(await count('measurements', { campaignId: c.id })).toBe(1);
   });
 

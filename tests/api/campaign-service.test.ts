@@ -53,7 +53,7 @@ describe('importMeasurements', () => {
   it('when the clean sample is imported, then all 12 rows are stored in kelvin and ONE audit event summarises the import', async () => {
     const campaign = await createCampaign(project.id);
     const result = await importMeasurements(db, actor(), campaign.id, sample('kestrelmoor-skylark-screen.csv'), { mapping: skylarkMapping });
-    expect(result).toEqual({ campaignId: campaign.id, inserted: 12, temperatureRangeK: { min: 253.15, max: 313.15 }, distinctTemperatures: 6, warningCount: 0 });
+    expect(result).toEqual({ campaignId: campaign.id, inserted: 12, temperatureRangeK: { min: 253.15, max: 313.15 }, distinctTemperatures: 6, warningCount: 0, file: expect.objectContaining({ name: 'kestrelmoor-skylark-screen.csv', sizeBytes: 550 }) });
     const rows = await service.listMeasurements(db, project.id, campaign.id);
     expect(rows).toHaveLength(12);
     expect(rows[0]).toMatchObject({ temperatureK: 253.15, measure: 'ee', sourceRow: 12, reactionTimeS: 48 * 3600, createdByUserId: user.id, version: 1 });
@@ -112,7 +112,7 @@ describe('importMeasurements', () => {
     expect(err).toBeInstanceOf(ImportNeedsConfirmationError);
     const issues = err.extra.issues as { row: number; message: string }[];
     expect(issues.map((i) => i.row)).toEqual([2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12, 13]);
-    expect(issues[0].message).toContain('was this file imported before?');
+    expect(issues[0].message).toContain('same sample id and replicate');
     expect(await count('measurements', { campaignId: campaign.id })).toBe(12);
   });
 
@@ -158,15 +158,15 @@ describe('campaign and measurement services', () => {
     const [m] = await createMeasurements(campaign.id, [273.15]);
     const excluded = await service.setMeasurementExclusion(db, actor(), m.id, { version: 1, excluded: true, reason: 'sample warmed during work-up' });
     expect(excluded).toMatchObject({ excluded: true, excludedReason: 'sample warmed during work-up', version: 2 });
-    const edited = await service.updateMeasurement(db, actor(), m.id, measurementUpdateSchema.parse({ version: 2, uncertainty: 0.5 }));
+    const edited = await service.updateMeasurement(db, actor(), m.id, measurementUpdateSchema.parse({ version: 2, reason: 'assay repeated', uncertainty: 0.5 }));
     expect(edited).toMatchObject({ uncertainty: 0.5, version: 3, excluded: true });
     const err = await thrown(service.setMeasurementExclusion(db, actor(), m.id, { version: 2, excluded: false }));
     expect(err).toBeInstanceOf(ConflictError);
     expect(err.extra).toEqual({ currentVersion: 3 });
     const back = await service.setMeasurementExclusion(db, actor(), m.id, { version: 3, excluded: false });
     expect(back).toMatchObject({ excluded: false, excludedReason: null, version: 4 });
-    await expect(service.deleteMeasurement(db, actor(), m.id, 3)).rejects.toBeInstanceOf(ConflictError);
-    await service.deleteMeasurement(db, actor(), m.id, 4);
+    await expect(service.deleteMeasurement(db, actor(), m.id, 3, 'duplicate entry')).rejects.toBeInstanceOf(ConflictError);
+    await service.deleteMeasurement(db, actor(), m.id, 4, 'duplicate entry');
     expect(await count('measurements', { id: m.id })).toBe(0);
     expect(await db('audit_events').where({ entityId: m.id }).orderBy('id').pluck('action')).toEqual(['update', 'update', 'update', 'delete']);
   });
@@ -175,7 +175,7 @@ describe('campaign and measurement services', () => {
     const foreign = await createCampaign(otherProject.id);
     const [fm] = await createMeasurements(foreign.id, [298.15]);
     await expect(service.getCampaign(db, project.id, foreign.id)).rejects.toBeInstanceOf(NotFoundError);
-    await expect(service.updateMeasurement(db, actor(), fm.id, { version: 1, notes: 'x' })).rejects.toBeInstanceOf(NotFoundError);
+    await expect(service.updateMeasurement(db, actor(), fm.id, { version: 1, reason: 'typo', notes: 'x' })).rejects.toBeInstanceOf(NotFoundError);
     await expect(service.getCampaign(db, project.id, "1' or '1'='1")).rejects.toBeInstanceOf(NotFoundError);
     expect(await service.resolveCampaignProjectId(db, foreign.id)).toBe(otherProject.id);
     expect(await service.resolveMeasurementProjectId(db, fm.id)).toBe(otherProject.id);

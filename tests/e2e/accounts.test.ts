@@ -60,8 +60,12 @@ describe('accounts and projects in Chromium', () => {
     expect(await page.getByLabel('Name', { exact: true }).getAttribute('aria-invalid')).toBe('true');
     await page.getByLabel('Name', { exact: true }).fill('Petra’s own screen (invented)');
     await page.getByRole('button', { name: 'Create project' }).click();
-    await page.waitForURL(/\/projects\/[0-9a-f-]+\/settings$/);
+    // A new project opens on its own page; members and invitations are one link away.
+    await page.waitForURL(/\/projects\/[0-9a-f-]+$/);
     await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toBe('Petra’s own screen (invented)');
+    await page.getByRole('link', { name: 'Members & settings' }).click();
+    await page.waitForURL(/\/projects\/[0-9a-f-]+\/settings$/);
+    expect(await page.getByRole('navigation', { name: 'Breadcrumb' }).textContent()).toContain('Petra’s own screen (invented)');
 
     // Details are saved with the version the page loaded; a second save uses the version the first returned.
     const details = page.getByRole('form', { name: 'Project details' });
@@ -84,7 +88,7 @@ describe('accounts and projects in Chromium', () => {
     await maybeScreenshot(page, 'project-settings');
 
     await page.getByRole('link', { name: 'See the project’s history' }).click();
-    await expect.poll(() => page.getByRole('table').textContent()).toContain('Invitation created');
+    await expect.poll(() => page.getByRole('main').textContent()).toContain('invited new.colleague@example.test as editor.');
     await maybeScreenshot(page, 'project-history');
 
     // Tokens: created, shown once, revoked.
@@ -160,7 +164,8 @@ describe('accounts and projects in Chromium', () => {
     await expect.poll(() => page.getByRole('heading', { level: 2 }).first().textContent()).toContain('Join “Invitation target (invented)”');
     await maybeScreenshot(page, 'invitation');
     await page.getByRole('button', { name: 'Accept and join' }).click();
-    await page.waitForURL(`${baseUrl}/projects/${project.id}/settings`);
+    await page.waitForURL(`${baseUrl}/projects/${project.id}`);
+    await page.getByRole('link', { name: 'Members & settings' }).click();
     await expect.poll(() => page.getByRole('main').textContent()).toContain('Your role here: ◇editor');
 
     // The invitee reads the mail in the development mailbox; its link is spent now.

@@ -78,14 +78,14 @@ describe('campaign pages in Chromium', () => {
     await expect.poll(() => page.getByText('title is required').isVisible()).toBe(true);
     expect(await page.getByLabel('Title').getAttribute('aria-invalid')).toBe('true');
     await maybeScreenshot(page, 'campaigns-new-campaign-form');
-    await page.getByLabel('Title').fill('Skylark-Phos in methanol (invented)');
+    await page.getByLabel('Title').fill('Skylark ligand in methanol (invented)');
     await page.getByLabel('Product A (numerator)').fill('(S)-amide');
     await page.getByLabel('Product B').fill('(R)-amide');
     await page.getByLabel('Default uncertainty (SD)').fill('0.3');
     await page.getByRole('button', { name: 'Create campaign' }).click();
     await page.waitForURL(/\/campaigns\/[0-9a-f-]+$/);
     const campaignUrl = page.url();
-    await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toBe('Skylark-Phos in methanol (invented)');
+    await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toBe('Skylark ligand in methanol (invented)');
     await expect.poll(() => page.getByText('Fewer than', { exact: false }).or(page.getByText('No fit yet', { exact: false })).first().isVisible()).toBe(true);
 
     // A cell is checked as typed, with the reason beside it.
@@ -141,7 +141,7 @@ describe('campaign pages in Chromium', () => {
     await page.getByLabel('Selectivity, row 13').fill('99,0');
     await page.getByLabel('Sample id, row 13').fill('KL7702-S-013');
     await page.getByLabel('Selectivity, row 13').press('Control+Enter');
-    await expect.poll(() => page.getByText(/Saved 1 new and 0 changed row/).isVisible(), { timeout: 15_000 }).toBe(true);
+    await expect.poll(() => page.getByText(/Saved 1 new row and 0 changed rows/).isVisible(), { timeout: 15_000 }).toBe(true);
     await expect.poll(() => saved.textContent()).toMatch(/99\.00 % ee at −30\.0 °C ✓ inside the interval/);
     await maybeScreenshot(page, 'campaigns-campaign-editor');
     await maybeElementShot(page, 'campaigns-el-grid', page.getByRole('table', { name: 'Measurements' }));
@@ -152,7 +152,7 @@ describe('campaign pages in Chromium', () => {
     // Back on the project page the campaign is listed with its fit and forecast.
     await page.getByRole('link', { name: /Kestrelmoor KL-7702 screens/ }).click();
     const list = page.getByRole('table', { name: 'Campaigns of the project' });
-    await expect.poll(() => list.textContent()).toContain('Skylark-Phos in methanol (invented)');
+    await expect.poll(() => list.textContent()).toContain('Skylark ligand in methanol (invented)');
     await expect.poll(() => list.textContent()).toMatch(/13 \(12\)/);
     await expect.poll(() => page.getByRole('table', { name: 'Side-by-side comparison' }).textContent()).toContain('ΔΔH‡ (kJ/mol)');
     await maybeScreenshot(page, 'campaigns-project');
@@ -215,9 +215,9 @@ describe('campaign pages in Chromium', () => {
     const { page, baseUrl } = browser;
     const who = { login: `tb-${Date.now().toString(36)}`, name: 'Theo Branch', email: `tb-${Date.now().toString(36)}@example.test` };
     const editor = await createUser(who);
-    const project = await createProject([{ user: editor, role: 'editor' }], { name: 'Merlin-Phos screens (invented)' });
+    const project = await createProject([{ user: editor, role: 'editor' }], { name: 'Merlin ligand screens (invented)' });
     const { createCampaign } = await import('../factories/campaigns');
-    const campaign = await createCampaign(project.id, { title: 'Merlin-Phos in toluene (invented)', defaultUncertainty: 0.3 });
+    const campaign = await createCampaign(project.id, { title: 'Merlin ligand in toluene (invented)', defaultUncertainty: 0.3 });
 
     await signInAs(page, baseUrl, who, `/campaigns/${campaign.id}`);
     await page.getByLabel(/CSV, TSV or Excel workbook/).setInputFiles(path.resolve('samples/kestrelmoor-merlin-screen-de.csv'));
@@ -253,9 +253,9 @@ describe('campaign pages in Chromium', () => {
     const { page, baseUrl } = browser;
     const who = { login: `wb-${Date.now().toString(36)}`, name: 'Wanja Workbook', email: `wb-${Date.now().toString(36)}@example.test` };
     const editor = await createUser(who);
-    const project = await createProject([{ user: editor, role: 'editor' }], { name: 'Skylark-Phos in 2-MeTHF (invented)' });
+    const project = await createProject([{ user: editor, role: 'editor' }], { name: 'Skylark ligand in 2-MeTHF (invented)' });
     const { createCampaign } = await import('../factories/campaigns');
-    const campaign = await createCampaign(project.id, { title: 'Skylark-Phos in 2-MeTHF (invented)', defaultUncertainty: 0.3 });
+    const campaign = await createCampaign(project.id, { title: 'Skylark ligand in 2-MeTHF (invented)', defaultUncertainty: 0.3 });
 
     await signInAs(page, baseUrl, who, `/campaigns/${campaign.id}`);
     await page.getByLabel(/CSV, TSV or Excel workbook/).setInputFiles(path.resolve('samples/kestrelmoor-skylark-methf-screen.xlsx'));

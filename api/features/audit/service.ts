@@ -8,6 +8,10 @@ export interface AuditEventInput {
   entityId: string;
   before: unknown;
   after: unknown;
+  /** Why the person made the change, when they were asked (edits and deletes of measurements, reopening). */
+  reason?: string | null;
+  /** The campaign the change concerns, so a campaign's history is one query. */
+  campaignId?: string | null;
 }
 
 /** Dates and other non-JSON values become their JSON form before they reach jsonb. */
@@ -29,6 +33,8 @@ export async function recordAudit(db: Knex | Knex.Transaction, event: AuditEvent
     entityId: event.entityId,
     before: toJson(event.before),
     after: toJson(event.after),
+    reason: event.reason ?? null,
+    campaignId: event.campaignId ?? null,
   });
 }
 

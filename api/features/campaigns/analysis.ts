@@ -17,7 +17,7 @@ import { SELECTIVITY_CAUTION } from '../../lib/cautions';
 import { analyseScreen, type FitOptions } from '../compute/service';
 import type { FitResponse } from '../compute/schemas';
 import type { AnalysisPoint, AnalysisQuery, AnalysisResponse, ComparisonResponse, SavedForecastView } from './analysis-schemas';
-import { getCampaign, isUuid, saveForecast, type ProjectActor } from './service';
+import { getCampaign, isUuid, saveForecast, signOffOf, type ProjectActor } from './service';
 import { toKelvin, type SavedForecastCreate } from './schemas';
 import { eeFromLnRatio } from '../../science/quantities';
 
@@ -392,5 +392,7 @@ export async function loadReportData(db: Knex, projectId: string, campaignId: st
   const analysis = computeAnalysis(campaign, measurements, { weighting: 'none', uncertaintyScale: 'absolute', confidence: 0.95 });
   const forecasts = await SavedForecast.query(db).where({ campaignId }).orderBy('createdAt', 'desc').orderBy('id');
   const views = await forecastViews(db, campaign, forecasts, measurements);
-  return { campaign, measurements, analysis, forecasts: views };
+  // Who signed the campaign off and when (null while open), for the report's summary.
+  const signOff = await signOffOf(db, campaign);
+  return { campaign, measurements, analysis, forecasts: views, signOff };
 }

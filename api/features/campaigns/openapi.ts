@@ -2,7 +2,7 @@ import { z } from 'zod';
 import type { OpenApiRegistrar } from '../../lib/openapi';
 import { problemResponses } from '../../lib/openapi';
 import { analysisQuerySchema, analysisResponseSchema, comparisonQuerySchema, comparisonResponseSchema, savedForecastListSchema, savedForecastViewSchema } from './analysis-schemas';
-import { campaignCreateSchema, campaignUpdateSchema, measurementCreateSchema, savedForecastCreateSchema } from './schemas';
+import { campaignCreateSchema, campaignReopenSchema, campaignSignOffSchema, campaignUpdateSchema, measurementCreateSchema, measurementUpdateSchema, savedForecastCreateSchema } from './schemas';
 
 const campaignIdParams = z.object({ campaignId: z.string().uuid() });
 const signedIn: Record<string, string[]>[] = [{ session: [] }, { bearer: [] }];
@@ -95,5 +95,72 @@ export const registerCampaigns: OpenApiRegistrar = (registry) => {
     security: signedIn,
     request: { params: campaignIdParams, body: { content: { 'application/json': { schema: measurementCreateSchema } } } },
     responses: { 201: { description: 'The measurement' }, ...problemResponses(400, 401, 403, 404) },
+  });
+  registry.registerPath({
+    method: 'patch',
+    path: '/api/v1/measurements/{measurementId}',
+    tags: ['Campaigns'],
+    summary: 'Change a stored run; `reason` is required and kept in the history',
+    description: 'Refused with 409 while the campaign is signed off.',
+    security: signedIn,
+    request: { params: z.object({ measurementId: z.string().uuid() }), body: { content: { 'application/json': { schema: measurementUpdateSchema } } } },
+    responses: { 200: { description: 'The measurement' }, ...problemResponses(400, 401, 403, 404, 409) },
+  });
+  registry.registerPath({
+    method: 'delete',
+    path: '/api/v1/measurements/{measurementId}',
+    tags: ['Campaigns'],
+    summary: 'Delete a stored run (?version=N&reason=…; the reason is kept in the history)',
+    security: signedIn,
+    request: { params: z.object({ measurementId: z.string().uuid() }), query: z.object({ version: z.number().int(), reason: z.string() }) },
+    responses: { 204: { description: 'Deleted' }, ...problemResponses(400, 401, 403, 404, 409) },
+  });
+  registry.registerPath({
+    method: 'post',
+    path: '/api/v1/campaigns/{campaignId}/sign-off',
+    tags: ['Campaigns'],
+    summary: "Sign a campaign off; its measurements are locked until reopened",
+    description: 'The person signing must be an owner or editor other than the last person who changed the campaign or its runs (409 otherwise). Needs editor.',
+    security: signedIn,
+    request: { params: campaignIdParams, body: { content: { 'application/json': { schema: campaignSignOffSchema } } } },
+    responses: { 200: { description: 'The campaign with `signOff` (who, when, note)' }, ...problemResponses(400, 401, 403, 404, 409) },
+  });
+  registry.registerPath({
+    method: 'post',
+    path: '/api/v1/campaigns/{campaignId}/reopen',
+    tags: ['Campaigns'],
+    summary: 'Reopen a signed-off campaign, giving a reason',
+    security: signedIn,
+    request: { params: campaignIdParams, body: { content: { 'application/json': { schema: campaignReopenSchema } } } },
+    responses: { 200: { description: 'The campaign, signOff null' }, ...problemResponses(400, 401, 403, 404, 409) },
+  });
+  registry.registerPath({
+    method: 'get',
+    path: '/api/v1/campaigns/{campaignId}/history',
+    tags: ['Campaigns'],
+    summary: "A campaign's history as sentences (who, when, what changed from what to what, why), newest first",
+    description: 'Pages of `limit` (≤ 200) entries before the cursor `before`; `/history.csv` exports every entry. Needs viewer.',
+    security: signedIn,
+    request: { params: campaignIdParams, query: z.object({ limit: z.number().int().optional(), before: z.number().int().optional() }) },
+    responses: { 200: { description: '{ entries: [{ id, at, who, sentence, reason }], nextBefore }' }, ...problemResponses(400, 401, 404) },
+  });
+  registry.registerPath({
+    method: 'get',
+    path: '/api/v1/campaigns/{campaignId}/files',
+    tags: ['Campaigns'],
+    summary: 'Files uploaded into the campaign, kept as they arrived (name, size, SHA-256, uploader, time, rows)',
+    description: 'Download one from /api/v1/import-files/{fileId}. Needs viewer.',
+    security: signedIn,
+    request: { params: campaignIdParams },
+    responses: { 200: { description: '{ files: [...] }, newest first' }, ...problemResponses(401, 404) },
+  });
+  registry.registerPath({
+    method: 'get',
+    path: '/api/v1/campaigns/{campaignId}/imports/template.csv',
+    tags: ['Campaigns'],
+    summary: 'A CSV template whose headers the import recognises, with invented example rows',
+    security: signedIn,
+    request: { params: campaignIdParams },
+    responses: { 200: { description: 'CSV', content: { 'text/csv': { schema: z.string() } } }, ...problemResponses(401, 404) },
   });
 };

@@ -5,7 +5,9 @@ import { BadRequestError } from '../../lib/errors';
 import { parseBody } from '../../lib/validation';
 import { authorizeProject, projectIdParam } from '../projects/policy';
 import { importUpload, jsonField, uploadedFile } from '../imports/upload';
-import { importMeasurements, previewImport } from '../imports/service';
+import { historyCsv, readHistory } from '../audit/history';
+import { importTemplateCsv, listImportFiles, readImportFile, resolveImportFileProjectId } from '../imports/files';
+import { findRepeatsOfStoredRows, importMeasurements, previewImport } from '../imports/service';
 import { analyseCampaign, compareCampaigns, listCampaignForecasts, loadReportData, saveCampaignForecast } from './analysis';
 import { analysisQuerySchema, comparisonQuerySchema } from './analysis-schemas';
 import { buildCampaignReport, reportFileName } from './report';
@@ -13,8 +15,11 @@ import {
   campaignCreateSchema,
   campaignUpdateSchema,
   importPreviewRequestSchema,
+  campaignReopenSchema,
+  campaignSignOffSchema,
   importRequestSchema,
   measurementCreateSchema,
+  measurementDeleteQuerySchema,
   measurementExclusionSchema,
   measurementUpdateSchema,
   savedForecastCreateSchema,
@@ -30,6 +35,9 @@ import {
   getCampaign,
   listCampaigns,
   listMeasurements,
+  reopenCampaign,
+  signOffCampaign,
+  signOffOf,
   resolveCampaignProjectId,
   resolveMeasurementProjectId,
   resolveSavedForecastProjectId,
@@ -49,6 +57,14 @@ const batchSchema = z.strictObject({
 const versionQuerySchema = z.object({
   version: z.coerce.number({ error: 'version must be a number' }).int('version must be an integer').min(1, 'version must be at least 1').optional(),
 });
+
+const historyQuerySchema = z.object({
+  limit: z.coerce.number({ error: 'limit must be a number' }).int('limit must be an integer').min(1, 'limit must be at least 1').max(200, 'limit must be at most 200').default(50),
+  before: z.coerce.number({ error: 'before must be a number' }).int('before must be an integer').min(1, 'before must be at least 1').optional(),
+});
+
+/** A file name safe in Content-Disposition and on any disk: letters, digits, dot, dash, underscore. */
+const safeFileName = (name: string) => name.replace(/[^\p{L}\p{N}._-]+/gu, '-').replace(/^[.-]+/, '').slice(0, 120) || 'file';
 
 const IF_MATCH = /^\s*(?:W\/)?"(\d+)"\s*$/;
 
@@ -73,8 +89,8 @@ function withVersion(req: Request): unknown {
 }
 
 /** Version of a delete: `?version=N` or If-Match. */
-function deleteVersion(req: Request): number {
-  const { version } = parseBody(versionQuerySchema, req.query);
+function deleteVersion(req: Request, schema: z.ZodType<{ version?: number }> = versionQuerySchema): number {
+  const { version } = parseBody(schema, req.query);
   const header = ifMatchVersion(req);
   if (version !== undefined && header !== undefined && version !== header) {
     throw new BadRequestError(`If-Match names version ${header} but the query names version ${version}; send one.`, [{ path: 'version', message: 'disagrees with If-Match' }]);
@@ -117,7 +133,17 @@ export function campaignsRouter(deps: { knex: Knex; version: string }): Router {
     // browser answer a second account from its cache (304 on If-None-Match).
     res
       .set({ ETag: etag(campaign.version), 'Cache-Control': 'private, no-store', Vary: 'Cookie, Authorization' })
-      .json({ ...campaign.toJSON(), projectId: req.project!.id, role: req.project!.role });
+      .json({ ...campaign.toJSON(), projectId: req.project!.id, role: req.project!.role, signOff: await signOffOf(knex, campaign) });
+  });
+
+  router.post('/campaigns/:campaignId/sign-off', byCampaign('editor'), async (req, res) => {
+    const campaign = await signOffCampaign(knex, actorOf(req), campaignId(req), parseBody(campaignSignOffSchema, req.body ?? {}));
+    res.set('ETag', etag(campaign.version)).json({ ...campaign.toJSON(), signOff: await signOffOf(knex, campaign) });
+  });
+
+  router.post('/campaigns/:campaignId/reopen', byCampaign('editor'), async (req, res) => {
+    const campaign = await reopenCampaign(knex, actorOf(req), campaignId(req), parseBody(campaignReopenSchema, req.body));
+    res.set('ETag', etag(campaign.version)).json({ ...campaign.toJSON(), signOff: null });
   });
 
   router.patch('/campaigns/:campaignId', byCampaign('editor'), async (req, res) => {
@@ -153,19 +179,62 @@ export function campaignsRouter(deps: { knex: Knex; version: string }): Router {
   });
 
   router.delete('/measurements/:measurementId', byMeasurement, async (req, res) => {
-    await deleteMeasurement(knex, actorOf(req), String(req.params.measurementId), deleteVersion(req));
+    const { reason } = parseBody(measurementDeleteQuerySchema, req.query);
+    await deleteMeasurement(knex, actorOf(req), String(req.params.measurementId), deleteVersion(req, measurementDeleteQuerySchema), reason);
     res.status(204).end();
   });
 
   // Authorization runs before the upload is read, so a caller without the role never streams a file in.
   router.post('/campaigns/:campaignId/imports/preview', byCampaign('editor'), importUpload(), async (req, res) => {
     await getCampaign(knex, req.project!.id, campaignId(req));
-    res.json(await previewImport(uploadedFile(req), jsonField(req, 'request', importPreviewRequestSchema)));
+    const id = campaignId(req);
+    res.json(await previewImport(uploadedFile(req), jsonField(req, 'request', importPreviewRequestSchema), undefined, (rows) => findRepeatsOfStoredRows(knex, id, rows)));
   });
 
   router.post('/campaigns/:campaignId/imports', byCampaign('editor'), importUpload(), async (req, res) => {
     const request = jsonField(req, 'request', importRequestSchema);
     res.status(201).json(await importMeasurements(knex, actorOf(req), campaignId(req), uploadedFile(req), request));
+  });
+
+  router.get('/campaigns/:campaignId/imports/template.csv', byCampaign('viewer'), async (req, res) => {
+    const campaign = await getCampaign(knex, req.project!.id, campaignId(req));
+    res.status(200).type('text/csv; charset=utf-8').attachment(`${safeFileName(campaign.title)}-template.csv`).set('Cache-Control', 'no-store').send(importTemplateCsv(campaign.measure));
+  });
+
+  router.get('/campaigns/:campaignId/files', byCampaign('viewer'), async (req, res) => {
+    await getCampaign(knex, req.project!.id, campaignId(req));
+    res.json({ files: await listImportFiles(knex, campaignId(req)) });
+  });
+
+  router.get('/import-files/:fileId', authorizeProject('viewer', (req) => resolveImportFileProjectId(knex, req.params.fileId)), async (req, res) => {
+    const file = await readImportFile(knex, req.project!.id, String(req.params.fileId));
+    res
+      .status(200)
+      .type(file.mediaType)
+      .attachment(safeFileName(file.fileName))
+      .set({ 'Cache-Control': 'private, no-store', 'X-Content-Type-Options': 'nosniff', 'Content-Digest': `sha-256=:${Buffer.from(file.sha256, 'hex').toString('base64')}:` })
+      .send(file.content);
+  });
+
+  router.get('/campaigns/:campaignId/history', byCampaign('viewer'), async (req, res) => {
+    await getCampaign(knex, req.project!.id, campaignId(req));
+    res.set('Cache-Control', 'private, no-store').json(await readHistory(knex, { projectId: req.project!.id, campaignId: campaignId(req) }, parseBody(historyQuerySchema, req.query)));
+  });
+
+  router.get('/campaigns/:campaignId/history.csv', byCampaign('viewer'), async (req, res) => {
+    const campaign = await getCampaign(knex, req.project!.id, campaignId(req));
+    const csv = await historyCsv(knex, { projectId: req.project!.id, campaignId: campaign.id });
+    res.status(200).type('text/csv; charset=utf-8').attachment(`${safeFileName(campaign.title)}-history.csv`).set('Cache-Control', 'no-store').send(csv);
+  });
+
+  router.get('/projects/:projectId/history', authorizeProject('owner', projectIdParam), async (req, res) => {
+    res.set('Cache-Control', 'private, no-store').json(await readHistory(knex, { projectId: req.project!.id }, parseBody(historyQuerySchema, req.query)));
+  });
+
+  router.get('/projects/:projectId/history.csv', authorizeProject('owner', projectIdParam), async (req, res) => {
+    const project = await knex('projects').where({ id: req.project!.id }).first('name');
+    const csv = await historyCsv(knex, { projectId: req.project!.id });
+    res.status(200).type('text/csv; charset=utf-8').attachment(`${safeFileName(String(project?.name ?? 'project'))}-history.csv`).set('Cache-Control', 'no-store').send(csv);
   });
 
   router.get('/campaigns/:campaignId/analysis', byCampaign('viewer'), async (req, res) => {

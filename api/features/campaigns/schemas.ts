@@ -136,7 +136,7 @@ export const campaignUpdateSchema = z
     status: campaignFields.status.optional(),
     notes: campaignFields.notes,
   })
-  .refine((u) => Object.keys(u).some((k) => k !== 'version'), { message: 'nothing to change', path: [] });
+  .refine((u) => Object.keys(u).some((k) => k !== 'version' && k !== 'reason'), { message: 'nothing to change', path: [] });
 export type CampaignUpdate = z.infer<typeof campaignUpdateSchema>;
 
 // ── Measurements ───────────────────────────────────────────────────────────────────────────
@@ -155,9 +155,17 @@ const measurementFields = {
 export const measurementCreateSchema = z.strictObject(measurementFields);
 export type MeasurementCreate = z.infer<typeof measurementCreateSchema>;
 
+/** Why a stored measurement is changed, deleted or a campaign reopened; kept in the history. */
+export const changeReasonSchema = z
+  .string({ error: 'give a reason (kept in the history)' })
+  .trim()
+  .min(3, 'give a reason (at least 3 characters)')
+  .max(500, 'at most 500 characters');
+
 export const measurementUpdateSchema = z
   .strictObject({
     version: versionSchema,
+    reason: changeReasonSchema,
     temperature: measurementFields.temperature.optional(),
     selectivity: measurementFields.selectivity.optional(),
     uncertainty: measurementFields.uncertainty,
@@ -167,7 +175,7 @@ export const measurementUpdateSchema = z
     reactionTime: measurementFields.reactionTime,
     notes: measurementFields.notes,
   })
-  .refine((u) => Object.keys(u).some((k) => k !== 'version'), { message: 'nothing to change', path: [] });
+  .refine((u) => Object.keys(u).some((k) => k !== 'version' && k !== 'reason'), { message: 'nothing to change', path: [] });
 export type MeasurementUpdate = z.infer<typeof measurementUpdateSchema>;
 
 /** Exclude a point from fits (with a reason, always) or bring it back. */
@@ -180,6 +188,20 @@ export const measurementExclusionSchema = z.discriminatedUnion(
   { error: 'excluded must be true (with a reason) or false' },
 );
 export type MeasurementExclusion = z.infer<typeof measurementExclusionSchema>;
+
+/** Deleting a measurement names the version last read and says why. */
+export const measurementDeleteQuerySchema = z.object({
+  version: z.coerce.number({ error: 'version must be a number' }).int('version must be an integer').min(1, 'version must be at least 1').optional(),
+  reason: changeReasonSchema,
+});
+
+/** Signing a campaign off, with an optional note shown beside the sign-off. */
+export const campaignSignOffSchema = z.strictObject({
+  note: z.string().trim().max(500, 'at most 500 characters').nullish(),
+});
+
+/** Reopening a signed-off campaign always says why. */
+export const campaignReopenSchema = z.strictObject({ reason: changeReasonSchema });
 
 /** A version-checked delete. */
 export const versionedDeleteSchema = z.strictObject({ version: versionSchema });

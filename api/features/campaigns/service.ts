@@ -137,7 +137,7 @@ export async function createCampaign(db: Knex, actor: ProjectActor, input: Campa
         projectId: actor.projectId,
         createdByUserId: actor.actorUserId,
       }).returning('*');
-      await recordAudit(trx, { ...auditActor(actor), action: 'create', entityType: 'campaign', entityId: campaign.id, before: null, after: snapshot(campaign) });
+      await recordAudit(trx, { ...auditActor(actor), action: 'create', entityType: 'campaign', entityId: campaign.id, campaignId: campaign.id, before: null, after: snapshot(campaign) });
       return campaign;
     });
   } catch (err) {
@@ -165,7 +165,7 @@ export async function updateCampaign(db: Knex, actor: ProjectActor, campaignId: 
         .patch({ ...changes, version: version + 1, updatedAt: new Date() })
         .where({ id: campaignId, version })
         .returning('*');
-      await recordAudit(trx, { ...auditActor(actor), action: 'update', entityType: 'campaign', entityId: campaignId, before: snapshot(before), after: snapshot(after) });
+      await recordAudit(trx, { ...auditActor(actor), action: 'update', entityType: 'campaign', entityId: campaignId, campaignId, before: snapshot(before), after: snapshot(after) });
       return after;
     });
   } catch (err) {
@@ -186,6 +186,7 @@ export async function deleteCampaign(db: Knex, actor: ProjectActor, campaignId: 
       action: 'delete',
       entityType: 'campaign',
       entityId: campaignId,
+      campaignId,
       before: { ...snapshot(before), measurementCount: Number(n), savedForecastCount: Number(f) },
       after: null,
     });
@@ -198,6 +199,100 @@ async function getCampaignForUpdate(trx: Knex.Transaction, projectId: string, ca
   const campaign = await Campaign.query(trx).findOne({ id: campaignId, projectId }).forUpdate();
   if (!campaign) throw campaignNotFound();
   return campaign;
+}
+
+// ── Sign-off ───────────────────────────────────────────────────────────────────────────────
+
+/** Audit entity types that change what a campaign holds; the last person behind one is its last editor. */
+const EDITING_ENTITY_TYPES = ['campaign', 'measurement', 'measurement_batch', 'measurement_import'];
+
+export interface SignOffView {
+  at: string;
+  by: string;
+  byUserId: string | null;
+  note: string | null;
+}
+
+const personName = (u: { login: string; displayName: string | null } | undefined) => (u ? (u.displayName ?? u.login) : 'a removed account');
+
+/** Who signed the campaign off, when and with which note; null while it is open. */
+export async function signOffOf(db: Knex | Knex.Transaction, campaign: Pick<Campaign, 'signedOffAt' | 'signedOffByUserId' | 'signOffNote'>): Promise<SignOffView | null> {
+  if (!campaign.signedOffAt) return null;
+  const user = campaign.signedOffByUserId ? await db('users').where({ id: campaign.signedOffByUserId }).first('login', 'displayName') : undefined;
+  return { at: new Date(campaign.signedOffAt).toISOString(), by: personName(user), byUserId: campaign.signedOffByUserId, note: campaign.signOffNote };
+}
+
+/** A signed-off campaign refuses any change to its measurements until it is reopened. */
+export async function assertMeasurementsOpen(trx: Knex | Knex.Transaction, campaign: Campaign): Promise<void> {
+  const signOff = await signOffOf(trx, campaign);
+  if (!signOff) return;
+  const day = new Date(signOff.at).toISOString().slice(0, 10);
+  throw new ConflictError(
+    `“${campaign.title}” was signed off by ${signOff.by} on ${day}; its measurements are locked. An owner or editor can reopen it, giving a reason, to change them.`,
+    { signedOff: signOff },
+  );
+}
+
+/** The user behind the latest change to the campaign or its measurements (null when nobody is on record). */
+export async function lastEditorOf(db: Knex | Knex.Transaction, campaign: Pick<Campaign, 'id' | 'createdByUserId'>): Promise<string | null> {
+  const row = await db('auditEvents').where({ campaignId: campaign.id }).whereIn('entityType', EDITING_ENTITY_TYPES).orderBy('id', 'desc').first('actorUserId');
+  return row ? row.actorUserId : campaign.createdByUserId;
+}
+
+/**
+ * Sign a campaign off: its measurements are locked until someone reopens it with a reason. The
+ * person signing must not be the campaign's last editor (a second pair of eyes).
+ */
+export async function signOffCampaign(db: Knex, actor: ProjectActor, campaignId: string, input: { note?: string | null }): Promise<Campaign> {
+  return db.transaction(async (trx) => {
+    const before = await getCampaignForUpdate(trx, actor.projectId, campaignId);
+    const current = await signOffOf(trx, before);
+    if (current) throw new ConflictError(`“${before.title}” is already signed off (by ${current.by}, ${current.at.slice(0, 10)}).`, { signedOff: current });
+    const lastEditor = await lastEditorOf(trx, before);
+    if (lastEditor === actor.actorUserId) {
+      throw new ConflictError(`You made the last change to “${before.title}”; another owner or editor of the project must sign it off.`, { lastEditorUserId: lastEditor });
+    }
+    const [after] = await Campaign.query(trx)
+      .patch({ signedOffAt: new Date(), signedOffByUserId: actor.actorUserId, signOffNote: input.note ?? null, version: before.version + 1, updatedAt: new Date() })
+      .where({ id: campaignId })
+      .returning('*');
+    const [{ n }] = await trx('measurements').where({ campaignId }).count({ n: '*' });
+    await recordAudit(trx, {
+      ...auditActor(actor),
+      action: 'update',
+      entityType: 'campaign_sign_off',
+      entityId: campaignId,
+      campaignId,
+      reason: input.note ?? null,
+      before: { title: before.title, signedOff: false },
+      after: { title: after.title, signedOff: true, measurementCount: Number(n) },
+    });
+    return after;
+  });
+}
+
+/** Reopen a signed-off campaign; the reason is kept in its history. */
+export async function reopenCampaign(db: Knex, actor: ProjectActor, campaignId: string, input: { reason: string }): Promise<Campaign> {
+  return db.transaction(async (trx) => {
+    const before = await getCampaignForUpdate(trx, actor.projectId, campaignId);
+    if (!before.signedOffAt) throw new ConflictError(`“${before.title}” is not signed off; there is nothing to reopen.`);
+    const signOff = await signOffOf(trx, before);
+    const [after] = await Campaign.query(trx)
+      .patch({ signedOffAt: null, signedOffByUserId: null, signOffNote: null, version: before.version + 1, updatedAt: new Date() })
+      .where({ id: campaignId })
+      .returning('*');
+    await recordAudit(trx, {
+      ...auditActor(actor),
+      action: 'update',
+      entityType: 'campaign_sign_off',
+      entityId: campaignId,
+      campaignId,
+      reason: input.reason,
+      before: { title: before.title, signedOff: true, signedOffBy: signOff?.by ?? null, signedOffAt: signOff?.at ?? null },
+      after: { title: after.title, signedOff: false },
+    });
+    return after;
+  });
 }
 
 // ── Measurements ───────────────────────────────────────────────────────────────────────────
@@ -250,11 +345,11 @@ export function toSelectivityInput(m: Pick<Measurement, 'measure' | 'value' | 'v
 
 export async function createMeasurement(db: Knex, actor: ProjectActor, campaignId: string, input: MeasurementCreate): Promise<Measurement> {
   return db.transaction(async (trx) => {
-    await getCampaign(trx, actor.projectId, campaignId);
+    await assertMeasurementsOpen(trx, await getCampaign(trx, actor.projectId, campaignId));
     const measurement = await Measurement.query(trx)
       .insert({ ...measurementColumns(input), campaignId, createdByUserId: actor.actorUserId })
       .returning('*');
-    await recordAudit(trx, { ...auditActor(actor), action: 'create', entityType: 'measurement', entityId: measurement.id, before: null, after: snapshot(measurement) });
+    await recordAudit(trx, { ...auditActor(actor), action: 'create', entityType: 'measurement', entityId: measurement.id, campaignId, before: null, after: snapshot(measurement) });
     return measurement;
   });
 }
@@ -270,6 +365,7 @@ async function getMeasurementForUpdate(trx: Knex.Transaction, projectId: string,
     .forUpdate()
     .first();
   if (!measurement) throw measurementNotFound();
+  await assertMeasurementsOpen(trx, await Campaign.query(trx).findById(measurement.campaignId).forShare().throwIfNotFound());
   return measurement;
 }
 
@@ -279,6 +375,7 @@ async function patchMeasurement(
   measurementId: string,
   version: number,
   columns: Partial<Pick<Measurement, 'excluded' | 'excludedReason'>> & MeasurementColumns,
+  reason: string | null,
 ): Promise<Measurement> {
   return db.transaction(async (trx) => {
     const before = await getMeasurementForUpdate(trx, actor.projectId, measurementId);
@@ -287,27 +384,27 @@ async function patchMeasurement(
       .patch({ ...columns, version: version + 1, updatedAt: new Date() })
       .where({ id: measurementId, version })
       .returning('*');
-    await recordAudit(trx, { ...auditActor(actor), action: 'update', entityType: 'measurement', entityId: measurementId, before: snapshot(before), after: snapshot(after) });
+    await recordAudit(trx, { ...auditActor(actor), action: 'update', entityType: 'measurement', entityId: measurementId, campaignId: before.campaignId, reason, before: snapshot(before), after: snapshot(after) });
     return after;
   });
 }
 
 export async function updateMeasurement(db: Knex, actor: ProjectActor, measurementId: string, input: MeasurementUpdate): Promise<Measurement> {
-  const { version, ...changes } = input;
-  return patchMeasurement(db, actor, measurementId, version, measurementColumns(changes));
+  const { version, reason, ...changes } = input;
+  return patchMeasurement(db, actor, measurementId, version, measurementColumns(changes), reason);
 }
 
 /** Exclude a point from fits with a reason, or include it again; it is never deleted by this. */
 export async function setMeasurementExclusion(db: Knex, actor: ProjectActor, measurementId: string, input: MeasurementExclusion): Promise<Measurement> {
-  return patchMeasurement(db, actor, measurementId, input.version, input.excluded ? { excluded: true, excludedReason: input.reason } : { excluded: false, excludedReason: null });
+  return patchMeasurement(db, actor, measurementId, input.version, input.excluded ? { excluded: true, excludedReason: input.reason } : { excluded: false, excludedReason: null }, input.excluded ? input.reason : null);
 }
 
-export async function deleteMeasurement(db: Knex, actor: ProjectActor, measurementId: string, version: number): Promise<void> {
+export async function deleteMeasurement(db: Knex, actor: ProjectActor, measurementId: string, version: number, reason: string): Promise<void> {
   await db.transaction(async (trx) => {
     const before = await getMeasurementForUpdate(trx, actor.projectId, measurementId);
     if (before.version !== version) throw staleVersion('measurement', version, before.version);
     await Measurement.query(trx).deleteById(measurementId);
-    await recordAudit(trx, { ...auditActor(actor), action: 'delete', entityType: 'measurement', entityId: measurementId, before: snapshot(before), after: null });
+    await recordAudit(trx, { ...auditActor(actor), action: 'delete', entityType: 'measurement', entityId: measurementId, campaignId: before.campaignId, reason, before: snapshot(before), after: null });
   });
 }
 
@@ -334,7 +431,7 @@ export async function saveForecast(db: Knex, actor: ProjectActor, campaignId: st
         createdByUserId: actor.actorUserId,
       })
       .returning('*');
-    await recordAudit(trx, { ...auditActor(actor), action: 'create', entityType: 'saved_forecast', entityId: forecast.id, before: null, after: snapshot(forecast) });
+    await recordAudit(trx, { ...auditActor(actor), action: 'create', entityType: 'saved_forecast', entityId: forecast.id, campaignId, before: null, after: snapshot(forecast) });
     return forecast;
   });
 }
@@ -356,7 +453,7 @@ export async function deleteSavedForecast(db: Knex, actor: ProjectActor, forecas
       .first();
     if (!forecast) throw forecastNotFound();
     await SavedForecast.query(trx).deleteById(forecastId);
-    await recordAudit(trx, { ...auditActor(actor), action: 'delete', entityType: 'saved_forecast', entityId: forecastId, before: snapshot(forecast), after: null });
+    await recordAudit(trx, { ...auditActor(actor), action: 'delete', entityType: 'saved_forecast', entityId: forecastId, campaignId: forecast.campaignId, before: snapshot(forecast), after: null });
   });
 }
 
@@ -370,6 +467,7 @@ export const MAX_BATCH_MEASUREMENTS = 5000;
 export async function createMeasurementsBatch(db: Knex, actor: ProjectActor, campaignId: string, inputs: MeasurementCreate[]): Promise<number> {
   return db.transaction(async (trx) => {
     const campaign = await getCampaignForUpdate(trx, actor.projectId, campaignId);
+    await assertMeasurementsOpen(trx, campaign);
     const stamp = new Date();
     const rows = inputs.map((input) => ({ ...measurementColumns(input), campaignId, createdByUserId: actor.actorUserId, createdAt: stamp, updatedAt: stamp }));
     // Chunked so a 5000-row batch stays well under PostgreSQL's bind-parameter limit.
@@ -380,6 +478,7 @@ export async function createMeasurementsBatch(db: Knex, actor: ProjectActor, cam
       action: 'create',
       entityType: 'measurement_batch',
       entityId: campaignId,
+      campaignId,
       before: null,
       after: { campaignTitle: campaign.title, rows: rows.length },
     });

@@ -46,6 +46,6 @@ export function kelvinLookingWarning(temperatures: readonly { value: number; uni
     .join(', ');
   return {
     code: 'temperature-looks-like-kelvin',
-    message: `${odd.length} temperature(s) labelled ${unit} (${shown}${odd.length > 3 ? ', …' : ''}) look like kelvin values; check the unit.`,
+    message: `${odd.length} ${odd.length === 1 ? 'temperature' : 'temperatures'} labelled ${unit} (${shown}${odd.length > 3 ? ', …' : ''}) ${odd.length === 1 ? 'looks' : 'look'} like kelvin values; check the unit.`,
   };
 }

@@ -3,10 +3,12 @@
  * nothing) and import (the same checks, then every row in one transaction with one audit
  * event, or nothing at all). Stateless: the client sends the file again with its mapping.
  */
+import { createHash } from 'node:crypto';
 import type { Knex } from 'knex';
 import { recordAudit } from '../audit/service';
 import { NotFoundError } from '../../lib/errors';
-import { isUuid } from '../campaigns/service';
+import { assertMeasurementsOpen, isUuid } from '../campaigns/service';
+import { Campaign } from '../../models/campaign';
 import type { ImportMapping, ImportParseOptions } from '../campaigns/schemas';
 import { ImportNeedsConfirmationError, ImportRejectedError, type ImportIssue } from './errors';
 import { columnLetter, IMPORT_LIMITS, parseUpload, type Cell, type ImportLimits, type ParsedTable, type UploadedFile } from './parse';
@@ -43,6 +45,8 @@ export async function previewImport(
   file: UploadedFile,
   request: { mapping?: ImportMapping; parse?: ImportParseOptions },
   limits: ImportLimits = IMPORT_LIMITS,
+  /** Warnings for rows the campaign already holds (see findRepeatsOfStoredRows), so the preview shows them before the import asks. */
+  repeatsOf?: (rows: ImportRow[]) => Promise<ImportIssue[]>,
 ): Promise<ImportPreview> {
   const table = await parseUpload(file, request.parse ?? {}, limits);
   const suggestedMapping = guessMapping(table);
@@ -66,12 +70,13 @@ export async function previewImport(
     };
   }
   const result = validateRows(table, mapping);
+  const repeats = repeatsOf && result.errorCount === 0 ? await repeatsOf(result.rows) : [];
   return {
     ...base,
     validRowCount: result.rows.length,
     errorCount: result.errorCount,
-    warningCount: result.warningCount,
-    issues: result.issues,
+    warningCount: result.warningCount + repeats.length,
+    issues: [...result.issues, ...repeats],
     rows: result.rows.slice(0, PREVIEW_ROWS),
   };
 }
@@ -94,6 +99,8 @@ export interface ImportResult {
   distinctTemperatures: number;
   /** Warnings the user acknowledged before importing. */
   warningCount: number;
+  /** The kept original: download it from `/api/v1/import-files/{id}`. */
+  file: { id: string; name: string; sizeBytes: number; sha256: string };
 }
 
 /** Rows per INSERT statement; each column travels as one array parameter, so this only bounds statement size. */
@@ -128,8 +135,9 @@ export async function importMeasurements(
 
   return db.transaction(async (trx) => {
     // Lock the campaign row so two imports into one campaign cannot interleave their duplicate checks.
-    const campaign = await trx('campaigns').where({ id: campaignId, projectId: scope.projectId }).forUpdate().first('id', 'title');
+    const campaign = await Campaign.query(trx).findOne({ id: campaignId, projectId: scope.projectId }).forUpdate();
     if (!campaign) throw new NotFoundError('No campaign was found at this address in this project.');
+    await assertMeasurementsOpen(trx, campaign);
 
     const repeats = await findRepeatsOfStoredRows(trx, campaignId, checked.rows);
     const warnings = [...checked.issues.filter((i) => i.severity === 'warning'), ...repeats];
@@ -141,8 +149,25 @@ export async function importMeasurements(
     }
 
     const stamp = new Date();
+    // The file is kept as it arrived, so every stored row can be traced to its file and row.
+    const sha256 = createHash('sha256').update(file.buffer).digest('hex');
+    const [kept] = await trx('importFiles')
+      .insert({
+        campaignId,
+        fileName: file.name,
+        mediaType: mediaTypeOf(table.format, file.name),
+        format: table.format,
+        sizeBytes: file.buffer.length,
+        sha256,
+        content: file.buffer,
+        rowCount: checked.rows.length,
+        uploadedByUserId: scope.actorUserId,
+        uploadedAt: stamp,
+      })
+      .returning('id');
+    const fileId = String(kept.id);
     for (let i = 0; i < checked.rows.length; i += INSERT_CHUNK_ROWS) {
-      await insertRows(trx, campaignId, scope.actorUserId, stamp, checked.rows.slice(i, i + INSERT_CHUNK_ROWS));
+      await insertRows(trx, campaignId, scope.actorUserId, stamp, fileId, checked.rows.slice(i, i + INSERT_CHUNK_ROWS));
     }
     await trx('campaigns').where({ id: campaignId }).update({ updatedAt: stamp });
 
@@ -160,6 +185,7 @@ export async function importMeasurements(
       temperatureRangeK: { min, max },
       distinctTemperatures: distinct.size,
       warningCount: warnings.length,
+      file: { id: fileId, name: file.name, sizeBytes: file.buffer.length, sha256 },
     };
     await recordAudit(trx, {
       projectId: scope.projectId,
@@ -167,10 +193,14 @@ export async function importMeasurements(
       action: 'create',
       entityType: 'measurement_import',
       entityId: campaignId,
+      campaignId,
       before: null,
       after: {
         campaignTitle: campaign.title,
         fileName: file.name,
+        fileId,
+        sizeBytes: file.buffer.length,
+        sha256,
         format: table.format,
         rows: result.inserted,
         temperatureRangeK: result.temperatureRangeK,
@@ -188,7 +218,7 @@ export async function importMeasurements(
  * 10 000 × 14 placeholders in JavaScript costs more than the insert itself. The table's CHECK
  * constraints still apply to every row.
  */
-async function insertRows(trx: Knex.Transaction, campaignId: string, actorUserId: string, stamp: Date, rows: ImportRow[]): Promise<void> {
+async function insertRows(trx: Knex.Transaction, campaignId: string, actorUserId: string, stamp: Date, importFileId: string, rows: ImportRow[]): Promise<void> {
   const n = rows.length;
   const col = <T>(pick: (r: ImportRow) => T): T[] => {
     const out = new Array<T>(n);
@@ -197,9 +227,9 @@ async function insertRows(trx: Knex.Transaction, campaignId: string, actorUserId
   };
   await trx.raw(
     `insert into measurements
-       (campaign_id, created_by_user_id, created_at, updated_at, source_row, temperature_k, measure, value, value_b,
+       (campaign_id, created_by_user_id, created_at, updated_at, import_file_id, source_row, temperature_k, measure, value, value_b,
         is_lower_bound, uncertainty, replicate_label, sample_id, conversion_percent, reaction_time_s, notes)
-     select ?::uuid, ?::uuid, ?::timestamptz, ?::timestamptz, x.*
+     select ?::uuid, ?::uuid, ?::timestamptz, ?::timestamptz, ?::uuid, x.*
        from unnest(?::int[], ?::float8[], ?::text[], ?::float8[], ?::float8[], ?::boolean[], ?::float8[], ?::text[], ?::text[], ?::float8[], ?::float8[], ?::text[])
          as x(source_row, temperature_k, measure, value, value_b, is_lower_bound, uncertainty, replicate_label, sample_id, conversion_percent, reaction_time_s, notes)`,
     // The driver writes JS arrays (with nulls) as PostgreSQL array literals.
@@ -208,6 +238,7 @@ async function insertRows(trx: Knex.Transaction, campaignId: string, actorUserId
       actorUserId,
       stamp,
       stamp,
+      importFileId,
       col((r) => r.sourceRow),
       col((r) => r.temperatureK),
       col((r) => r.measure),
@@ -224,28 +255,46 @@ async function insertRows(trx: Knex.Transaction, campaignId: string, actorUserId
   );
 }
 
-/** Warnings for file rows identical to measurements already stored in the campaign. */
-async function findRepeatsOfStoredRows(trx: Knex.Transaction, campaignId: string, rows: ImportRow[]): Promise<ImportIssue[]> {
-  const stored: { temperatureK: number; measure: string; value: number; valueB: number | null; sampleId: string | null; replicateLabel: string | null }[] = await trx(
-    'measurements',
-  )
-    .where({ campaignId })
-    .select('temperatureK', 'measure', 'value', 'valueB', 'sampleId', 'replicateLabel');
+type StoredKeyFields = Pick<ImportRow, 'temperatureK' | 'measure' | 'value' | 'valueB' | 'sampleId' | 'replicateLabel'>;
+
+/** Same sample and replicate: the same vial measured again. */
+const sampleKey = (r: StoredKeyFields) => (r.sampleId ? `${r.sampleId.trim().toLowerCase()}|${(r.replicateLabel ?? '').trim().toLowerCase()}` : null);
+/** Same temperature (to 0.01 K) and the same reported value. */
+const readingKey = (r: StoredKeyFields) => `${r.temperatureK.toFixed(2)}|${r.measure}|${r.value}|${r.valueB ?? ''}`;
+
+const describeRun = (r: StoredKeyFields) => `${r.sampleId ? `sample ${r.sampleId}${r.replicateLabel ? ` ${r.replicateLabel}` : ''}` : 'a run'}`;
+
+/**
+ * Warnings for file rows that repeat measurements already stored in the campaign: the same
+ * sample id and replicate, or the same temperature and value (the same file imported twice,
+ * or a run typed in and then imported).
+ */
+export async function findRepeatsOfStoredRows(trx: Knex | Knex.Transaction, campaignId: string, rows: ImportRow[]): Promise<ImportIssue[]> {
+  const stored: StoredKeyFields[] = await trx('measurements').where({ campaignId }).select('temperatureK', 'measure', 'value', 'valueB', 'sampleId', 'replicateLabel');
   if (stored.length === 0) return [];
-  const key = (r: { temperatureK: number; measure: string; value: number; valueB: number | null; sampleId: string | null; replicateLabel: string | null }) =>
-    [r.temperatureK.toFixed(3), r.measure, r.value, r.valueB, r.sampleId, r.replicateLabel].join('|');
-  const known = new Set(stored.map(key));
+  const samples = new Set(stored.map(sampleKey).filter((k): k is string => k !== null));
+  const readings = new Set(stored.map(readingKey));
   const issues: ImportIssue[] = [];
   let count = 0;
   for (const r of rows) {
-    if (!known.has(key(r))) continue;
+    const sk = sampleKey(r);
+    const sameSample = sk !== null && samples.has(sk);
+    const sameReading = readings.has(readingKey(r));
+    if (!sameSample && !sameReading) continue;
     count += 1;
-    if (issues.length < 50) {
-      issues.push({ severity: 'warning', row: r.sourceRow, column: null, message: 'the campaign already has a measurement with the same temperature, selectivity, sample id and replicate (was this file imported before?).' });
-    }
+    if (issues.length >= 50) continue;
+    const message = sameSample
+      ? `${describeRun(r)} is already in the campaign (same sample id and replicate); importing adds it again.`
+      : 'the campaign already has a measurement at this temperature with this value; importing adds it again (was this file imported before?).';
+    issues.push({ severity: 'warning', row: r.sourceRow, column: null, message });
   }
   if (count > issues.length) {
     issues.push({ severity: 'warning', row: null, column: null, message: `${count - issues.length} more rows repeat measurements already in the campaign.` });
   }
   return issues;
+}
+
+function mediaTypeOf(format: 'csv' | 'xlsx', name: string): string {
+  if (format === 'xlsx') return 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet';
+  return /\.tsv$/i.test(name) ? 'text/tab-separated-values' : 'text/csv';
 }

@@ -151,7 +151,7 @@ export function computeDistribution(req: DistributionRequest): DistributionRespo
     'pathways',
   );
   const groups = result.points[0]?.groups.map((g) => g.group) ?? [];
-  const definitions = ['percents[i] is the share of all product formed through pathways[i] under kinetic control, in %.'];
+  const definitions = ['Each pathway’s share is the percentage of all product formed through it under kinetic control.'];
   if (groups.length > 0) {
     definitions.push('ee of a diastereomer = (A − B)/(A + B) × 100 within its group: positive when the pathway marked A wins.');
   }

@@ -21,6 +21,7 @@ import type { Campaign, Measurement } from '../../../web/features/campaigns/api/
 afterEach(() => {
   cleanup();
   vi.unstubAllGlobals();
+  vi.restoreAllMocks();
 });
 
 const C_EE: ColumnUnits = { temperature: 'C', measure: 'ee', time: 'h' };
@@ -259,6 +260,71 @@ describe('MeasurementGrid', () => {
     expect(screen.getByRole('row', { name: 'Row 3 (new)' })).toBeTruthy();
   });
 
+  it('when left and right are pressed at the edge of a cell, then the focus moves to the neighbouring cell', async () => {
+    vi.stubGlobal('fetch', vi.fn());
+    renderGrid([stored()]);
+    const value = screen.getByLabelText('Selectivity, row 1') as HTMLInputElement;
+    value.focus();
+    value.setSelectionRange(value.value.length, value.value.length);
+    fireEvent.keyDown(value, { key: 'ArrowRight' });
+    await waitFor(() => expect(document.activeElement).toBe(screen.getByLabelText('Uncertainty, row 1')));
+    const unc = document.activeElement as HTMLInputElement;
+    unc.setSelectionRange(0, 0);
+    fireEvent.keyDown(unc, { key: 'ArrowLeft' });
+    await waitFor(() => expect(document.activeElement).toBe(value));
+    // Inside the text the caret moves, not the focus.
+    value.setSelectionRange(1, 1);
+    fireEvent.keyDown(value, { key: 'ArrowLeft' });
+    expect(document.activeElement).toBe(value);
+  });
+
+  it('when replicates share a temperature, then each shows their mean ± SD', () => {
+    vi.stubGlobal('fetch', vi.fn());
+    renderGrid([
+      stored({ id: '55555555-5555-4555-8555-555555555551', value: 98.8 }),
+      stored({ id: '55555555-5555-4555-8555-555555555552', value: 98.6 }),
+      stored({ id: '55555555-5555-4555-8555-555555555553', value: 98.4 }),
+    ]);
+    // mean (98.8 + 98.6 + 98.4)/3 = 98.6, sample SD 0.2 [C].
+    expect(screen.getAllByText('mean 98.6 ± 0.2 % (n = 3)')).toHaveLength(3);
+  });
+
+  it('when a stored run is deleted, then a reason is asked for and sent with the version', async () => {
+    const fetchMock = vi.fn(async () => new Response(null, { status: 204 }));
+    vi.stubGlobal('fetch', fetchMock);
+    renderGrid([stored()]);
+    fireEvent.click(screen.getByRole('button', { name: 'Delete row 1' }));
+    const confirm = screen.getByRole('button', { name: 'Delete' }) as HTMLButtonElement;
+    expect(confirm.disabled).toBe(true);
+    fireEvent.change(screen.getByLabelText('Why delete?'), { target: { value: 'entered twice' } });
+    fireEvent.click(confirm);
+    await waitFor(() => expect(fetchMock).toHaveBeenCalled());
+    const [url, init] = fetchMock.mock.calls[0] as unknown as [string, RequestInit];
+    expect(url).toBe('/api/v1/measurements/33333333-3333-4333-8333-333333333333?version=4&reason=entered%20twice');
+    expect(init.method).toBe('DELETE');
+  });
+
+  it('when a campaign has thousands of runs, then only a window of rows is drawn and none is cut off', async () => {
+    vi.stubGlobal('fetch', vi.fn());
+    // happy-dom lays nothing out: give the box a screen's height and each row a row's height.
+    const proto = Object.getPrototypeOf(Object.getPrototypeOf(document.createElement('div'))) as object;
+    const owner = ['clientHeight', 'clientWidth', 'offsetHeight'].map((k) => {
+      let p: object | null = proto;
+      while (p && !Object.getOwnPropertyDescriptor(p, k)) p = Object.getPrototypeOf(p) as object | null;
+      return p ?? proto;
+    });
+    vi.spyOn(owner[0] as HTMLElement, 'clientHeight', 'get').mockReturnValue(700);
+    vi.spyOn(owner[1] as HTMLElement, 'clientWidth', 'get').mockReturnValue(1200);
+    vi.spyOn(owner[2] as HTMLElement, 'offsetHeight', 'get').mockReturnValue(33);
+    const many = Array.from({ length: 3000 }, (_, i) => stored({ id: `66666666-6666-4666-8666-${String(i).padStart(12, '0')}`, temperatureK: 200 + i * 0.01 }));
+    renderGrid(many, false);
+    await waitFor(() => expect(document.querySelectorAll('tbody[data-index]').length).toBeGreaterThan(0));
+    const drawn = document.querySelectorAll('tbody[data-index]').length;
+    expect(drawn).toBeLessThan(200);
+    expect(screen.getByText('3000 rows, sorted by temperature; the grid scrolls in its own box.')).toBeTruthy();
+    expect(screen.queryByText(/Showing the first/)).toBeNull();
+  });
+
   it('when a stored row is edited and someone else changed it first, then only the changed field is sent with the version and the row says it was not saved', async () => {
     const fetchMock = vi.fn(
       async () =>
@@ -270,12 +336,15 @@ describe('MeasurementGrid', () => {
     vi.stubGlobal('fetch', fetchMock);
     renderGrid([stored()]);
     fireEvent.change(screen.getByLabelText('Uncertainty, row 1'), { target: { value: '0.5' } });
+    // A stored run changes only with a reason, which the history keeps.
+    expect((screen.getByRole('button', { name: 'Save 1 row' }) as HTMLButtonElement).disabled).toBe(true);
+    fireEvent.change(screen.getByLabelText(/Why do this stored run change\?/), { target: { value: 'assay repeated' } });
     fireEvent.click(screen.getByRole('button', { name: 'Save 1 row' }));
     await waitFor(() => expect(fetchMock).toHaveBeenCalled());
     const [url, init] = fetchMock.mock.calls[0] as unknown as [string, RequestInit];
     expect(url).toBe('/api/v1/measurements/33333333-3333-4333-8333-333333333333');
     expect(init.method).toBe('PATCH');
-    expect(JSON.parse(String(init.body))).toEqual({ version: 4, uncertainty: 0.5 });
+    expect(JSON.parse(String(init.body))).toEqual({ version: 4, uncertainty: 0.5, reason: 'assay repeated' });
     await waitFor(() => expect(screen.getAllByRole('alert').map((a) => a.textContent).join(' ')).toContain('Changed by someone else'));
     expect((screen.getByLabelText('Uncertainty, row 1') as HTMLInputElement).value).toBe('0.5');
   });

@@ -1,5 +1,6 @@
 import { useState } from 'react';
-import { Link, useParams } from 'react-router-dom';
+import { useParams } from 'react-router-dom';
+import { Button } from '../../components/ui/form';
 import { Page, Panel } from '../../components/ui/page';
 import { paths } from '../../config/paths';
 import { SignedInOnly } from '../../features/auth/components/signed-in-only';
@@ -10,6 +11,7 @@ import { useMeasurements } from '../../features/campaigns/api/measurements';
 import type { CampaignWithRole } from '../../features/campaigns/api/types';
 import { CampaignAnalysis } from '../../features/campaigns/components/campaign-analysis';
 import { CampaignHeader } from '../../features/campaigns/components/campaign-header';
+import { CampaignHistory, KeptFiles, SignOffBar } from '../../features/campaigns/components/campaign-records';
 import { ForecastPanel, SavedForecasts } from '../../features/campaigns/components/forecast-panel';
 import { MeasurementGrid } from '../../features/campaigns/components/measurement-grid';
 import { UploadWizard } from '../../features/campaigns/components/upload-wizard';
@@ -19,6 +21,8 @@ const INVENTED = /kestrelmoor|invented/i;
 
 function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
   const canEdit = campaign.role !== 'viewer';
+  // A signed-off campaign keeps its measurements as they are until someone reopens it.
+  const canEditRuns = canEdit && !campaign.signOff;
   const [weighting, setWeighting] = useState<'none' | 'uncertainty'>('none');
   const [atCelsius, setAtCelsius] = useState<number | null>(null);
   const measurements = useMeasurements(campaign.id);
@@ -29,11 +33,13 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
   return (
     <Page
       title={campaign.title}
+      crumbs={[
+        { label: 'Projects', to: paths.projects.getHref() },
+        { label: project.data?.name ?? 'Project', to: paths.project.getHref(campaign.projectId) },
+        { label: campaign.title },
+      ]}
       lead={
         <span className="flex flex-wrap items-center gap-x-3 gap-y-1">
-          <Link className="text-fjord-700 underline" to={paths.project.getHref(campaign.projectId)}>
-            ← {project.data?.name ?? 'Project'}
-          </Link>
           <span>Temperature screen · differential Eyring analysis</span>
           {invented && (
             <span className="rounded border border-slate-400 bg-slate-50 px-1.5 py-0.5 text-xs font-medium text-ink-700">
@@ -51,6 +57,9 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
       <div className="flex flex-col gap-4">
         <Panel>
           <CampaignHeader campaign={campaign} canEdit={canEdit} />
+          <div className="mt-3">
+            <SignOffBar campaign={campaign} canEdit={canEdit} />
+          </div>
         </Panel>
 
         <Panel title="Result">
@@ -69,9 +78,12 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
           </div>
           {analysis.isPending && <p className="text-sm text-ink-500">Fitting…</p>}
           {analysis.isError && (
-            <p role="alert" className="text-sm text-rose-700">
+            <div role="alert" className="flex flex-wrap items-center gap-2 text-sm text-rose-700">
               The analysis failed: {analysis.error.message}
-            </p>
+              <Button onClick={() => void analysis.refetch()} disabled={analysis.isFetching}>
+                Try again
+              </Button>
+            </div>
           )}
           {analysis.data && measurements.data && (
             <CampaignAnalysis analysis={analysis.data} measurements={measurements.data} stale={analysis.isPlaceholderData} measure={campaign.measure} />
@@ -95,16 +107,32 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
 
         <Panel title={`Measurements${measurements.data ? ` (${measurements.data.length})` : ''}`}>
           {measurements.isPending && <p className="text-sm text-ink-500">Loading measurements…</p>}
-          {measurements.isError && <p role="alert" className="text-sm text-rose-700">{measurements.error.message}</p>}
-          {measurements.data && <MeasurementGrid campaign={campaign} measurements={measurements.data} canEdit={canEdit} />}
+          {measurements.isError && (
+            <div role="alert" className="flex flex-wrap items-center gap-2 text-sm text-rose-700">
+              The measurements could not be loaded: {measurements.error.message}
+              <Button onClick={() => void measurements.refetch()} disabled={measurements.isFetching}>
+                Try again
+              </Button>
+            </div>
+          )}
+          {measurements.data && <MeasurementGrid campaign={campaign} measurements={measurements.data} canEdit={canEditRuns} />}
           {!canEdit && <p className="mt-2 text-xs text-ink-600">You are a viewer in this project: you can read and download, not change.</p>}
+          {canEdit && campaign.signOff && <p className="mt-2 text-xs text-ink-600">Signed off: reopen the campaign (above) to change its measurements.</p>}
         </Panel>
 
-        {canEdit && (
+        {canEditRuns && (
           <Panel title="Upload a file">
             <UploadWizard campaignId={campaign.id} projectId={campaign.projectId} />
           </Panel>
         )}
+
+        <Panel title="Uploaded files">
+          <KeptFiles campaignId={campaign.id} />
+        </Panel>
+
+        <Panel title="History">
+          <CampaignHistory campaignId={campaign.id} />
+        </Panel>
       </div>
     </Page>
   );

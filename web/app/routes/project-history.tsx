@@ -19,7 +19,8 @@ function History({ projectId }: { projectId: string }) {
   return (
     <Page
       title={`History of ${project.data.name}`}
-      lead="Every change to this project’s data: who made it, when, and the values before and after."
+      crumbs={[{ label: 'Projects', to: paths.projects.getHref() }, { label: project.data.name, to: paths.project.getHref(projectId) }, { label: 'History' }]}
+      lead="Every change to this project’s data: who made it, when, what changed from what to what, and why."
       actions={<Link className="text-sm text-fjord-700 underline" to={paths.projectSettings.getHref(projectId)}>Members &amp; settings</Link>}
     >
       <Panel><HistoryView projectId={projectId} /></Panel>

@@ -1,5 +1,6 @@
 import { useParams } from 'react-router-dom';
 import { Page } from '../../components/ui/page';
+import { paths } from '../../config/paths';
 import { SignedInOnly } from '../../features/auth/components/signed-in-only';
 import { useProject } from '../../features/projects/api/projects';
 import { ProjectSettings } from '../../features/projects/components/project-settings';
@@ -15,7 +16,11 @@ function Settings({ projectId, myId }: { projectId: string; myId: string }) {
     );
   }
   return (
-    <Page title={project.data.name} lead="Members, invitations and settings of this project.">
+    <Page
+      title={project.data.name}
+      crumbs={[{ label: 'Projects', to: paths.projects.getHref() }, { label: project.data.name, to: paths.project.getHref(projectId) }, { label: 'Members & settings' }]}
+      lead="Members, invitations and settings of this project."
+    >
       <ProjectSettings project={project.data} myId={myId} />
     </Page>
   );

@@ -26,6 +26,7 @@ function ProjectPage({ projectId }: { projectId: string }) {
   return (
     <Page
       title={p.name}
+      crumbs={[{ label: 'Projects', to: paths.projects.getHref() }, { label: p.name }]}
       lead={p.description || undefined}
       actions={
         <div className="flex items-center gap-3 text-sm">

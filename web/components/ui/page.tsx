@@ -1,11 +1,51 @@
-import type { ReactNode } from 'react';
+import { useEffect, useId, useRef, useState, type ReactNode } from 'react';
+import { Link } from 'react-router-dom';
 
-export function Page({ title, lead, actions, children }: { title: string; lead?: ReactNode; actions?: ReactNode; children: ReactNode }) {
+/** One step of a breadcrumb trail; the last one (the page itself) has no link. */
+export interface Crumb {
+  label: string;
+  to?: string;
+}
+
+export function Page({
+  title,
+  lead,
+  actions,
+  crumbs,
+  children,
+}: {
+  title: string;
+  lead?: ReactNode;
+  actions?: ReactNode;
+  /** Where the page sits (e.g. Projects › Project › Campaign), shown above the title. */
+  crumbs?: Crumb[];
+  children: ReactNode;
+}) {
   return (
     <div className="mx-auto max-w-7xl px-4 py-6 sm:px-6">
+      {crumbs && crumbs.length > 0 && (
+        <nav aria-label="Breadcrumb" className="mb-2 text-sm">
+          <ol className="flex flex-wrap items-center gap-x-1.5 text-ink-600">
+            {crumbs.map((c, i) => (
+              <li key={`${i}-${c.label}`} className="flex min-w-0 items-center gap-x-1.5">
+                {i > 0 && <span aria-hidden="true">›</span>}
+                {c.to ? (
+                  <Link className="truncate text-fjord-700 underline" to={c.to}>
+                    {c.label}
+                  </Link>
+                ) : (
+                  <span aria-current="page" className="truncate">
+                    {c.label}
+                  </span>
+                )}
+              </li>
+            ))}
+          </ol>
+        </nav>
+      )}
       <div className="mb-5 flex flex-wrap items-end justify-between gap-3">
-        <div>
-          <h1 className="text-2xl font-semibold tracking-tight text-ink-950">{title}</h1>
+        <div className="min-w-0">
+          <h1 className="break-words text-2xl font-semibold tracking-tight text-ink-950">{title}</h1>
           {lead && <p className="mt-1 max-w-3xl text-sm text-ink-600">{lead}</p>}
         </div>
         {actions}
@@ -16,9 +56,34 @@ export function Page({ title, lead, actions, children }: { title: string; lead?:
 }
 
 export function Panel({ title, children, className = '' }: { title?: ReactNode; children: ReactNode; className?: string }) {
+  const ref = useRef<HTMLElement>(null);
+  const titleId = useId();
+  // A panel whose content is wider than the screen scrolls sideways; it then takes the focus so
+  // the keyboard can scroll it too.
+  const [scrolls, setScrolls] = useState(false);
+  useEffect(() => {
+    const el = ref.current;
+    if (!el || typeof ResizeObserver === 'undefined') return;
+    const check = () => setScrolls(el.scrollWidth > el.clientWidth + 1);
+    check();
+    const observer = new ResizeObserver(check);
+    observer.observe(el);
+    return () => observer.disconnect();
+  }, []);
   return (
-    <section className={`rounded-lg border border-slate-200 bg-white p-4 shadow-sm ${className}`}>
-      {title && <h2 className="mb-3 text-sm font-semibold uppercase tracking-wide text-ink-600">{title}</h2>}
+    // min-w-0 and overflow-x-auto: a wide table scrolls inside its panel instead of widening the page;
+    // relative: visually hidden (absolutely placed) labels stay inside it too.
+    <section
+      ref={ref}
+      tabIndex={scrolls ? 0 : undefined}
+      aria-labelledby={title ? titleId : undefined}
+      className={`relative min-w-0 overflow-x-auto rounded-lg border border-slate-200 bg-white p-4 shadow-sm ${className}`}
+    >
+      {title && (
+        <h2 id={titleId} className="mb-3 text-sm font-semibold uppercase tracking-wide text-ink-600">
+          {title}
+        </h2>
+      )}
       {children}
     </section>
   );

@@ -23,11 +23,13 @@ export function UserMenu() {
   }
   return (
     <details className="relative">
-      <summary className="flex cursor-pointer list-none items-center gap-2 rounded px-2 py-1 text-sm text-slate-100 hover:bg-ink-800" aria-label={`Account: ${user.displayName ?? user.login}`}>
+      <summary className="flex cursor-pointer list-none items-center gap-2 rounded px-2 py-1 text-sm text-slate-100 hover:bg-ink-800">
         <span aria-hidden="true" className="grid h-6 w-6 place-items-center rounded-full bg-fjord-600 text-xs font-semibold">
           {(user.displayName ?? user.login).slice(0, 1).toUpperCase()}
         </span>
-        <span>{user.displayName ?? user.login}</span>
+        <span className="sr-only">Account: </span>
+        {/* On a phone the name is read out but not shown: the initial stands for it. */}
+        <span className="sr-only sm:not-sr-only sm:max-w-[12rem] sm:truncate">{user.displayName ?? user.login}</span>
         <span aria-hidden="true" className="text-slate-400">▾</span>
       </summary>
       <div className="absolute right-0 z-10 mt-1 w-56 rounded-md border border-slate-200 bg-white py-1 text-sm text-ink-800 shadow-lg">

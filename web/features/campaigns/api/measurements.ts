@@ -20,8 +20,8 @@ export const updateMeasurement = (measurementId: string, body: MeasurementUpdate
 export const setExclusion = (measurementId: string, body: MeasurementExclusion) =>
   api<Measurement>(`/api/v1/measurements/${measurementId}/exclusion`, { method: 'PUT', body });
 
-export const deleteMeasurement = (measurementId: string, version: number) =>
-  api<void>(`/api/v1/measurements/${measurementId}?version=${version}`, { method: 'DELETE' });
+export const deleteMeasurement = (measurementId: string, version: number, reason: string) =>
+  api<void>(`/api/v1/measurements/${measurementId}?version=${version}&reason=${encodeURIComponent(reason)}`, { method: 'DELETE' });
 
 /** Everything that depends on a campaign's data: its own queries and its project's list and comparison. */
 export function useRefreshCampaign(campaignId: string, projectId: string) {
@@ -50,5 +50,5 @@ export function useSetExclusion(campaignId: string, projectId: string) {
 
 export function useDeleteMeasurement(campaignId: string, projectId: string) {
   const refresh = useRefreshCampaign(campaignId, projectId);
-  return useMutation({ mutationFn: (v: { id: string; version: number }) => deleteMeasurement(v.id, v.version), onSettled: refresh });
+  return useMutation({ mutationFn: (v: { id: string; version: number; reason: string }) => deleteMeasurement(v.id, v.version, v.reason), onSettled: refresh });
 }

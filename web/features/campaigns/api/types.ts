@@ -33,9 +33,18 @@ export interface Campaign {
   updatedAt: string;
 }
 
-/** GET /campaigns/:id adds the caller's role in the campaign's project. */
+/** Who signed a campaign off (its measurements are locked until reopened). */
+export interface SignOff {
+  at: string;
+  by: string;
+  byUserId: string | null;
+  note: string | null;
+}
+
+/** GET /campaigns/:id adds the caller's role in the campaign's project and the sign-off. */
 export interface CampaignWithRole extends Campaign {
   role: ProjectRole;
+  signOff: SignOff | null;
 }
 
 export interface CampaignListItem extends Campaign {

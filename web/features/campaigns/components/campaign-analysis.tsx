@@ -207,7 +207,8 @@ function ResidualDiagnostics({ analysis, measurements, measure }: { analysis: An
   const byId = new Map(measurements.map((m) => [m.id, m]));
   const residuals = analysis.fit?.residuals ?? [];
   return (
-    <div className="max-h-96 overflow-auto rounded border border-slate-200">
+    // Focusable so the table can be scrolled from the keyboard.
+    <div className="max-h-96 overflow-auto rounded border border-slate-200" tabIndex={0} role="region" aria-label="Residuals and flags for each run">
       <table className="tnum w-full border-collapse text-right text-xs">
         <caption className="sr-only">Residuals and flags for each run</caption>
         <TableHead

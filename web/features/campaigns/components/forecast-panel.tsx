@@ -173,7 +173,12 @@ export function ForecastPanel({
         )}
       </form>
 
-      {!fit && <p className="text-sm text-ink-600">A forecast needs a fit: {analysis?.problem?.message ?? 'add measurements first.'}</p>}
+      {!fit && (
+        <p className="text-sm text-ink-600">
+          {/* Without an answer the analysis is loading or failed (said beside the result); never blame missing runs then. */}
+          {analysis ? `A forecast needs a fit: ${analysis.problem?.message ?? 'add measurements first.'}` : 'A forecast needs the fit, which is not available right now (see the result above).'}
+        </p>
+      )}
       {fit && !showing && atCelsius === null && (
         <p className="text-sm text-ink-600">Type a temperature to get {predictedWords(measure)} with the 95 % prediction interval for one new run.</p>
       )}

@@ -1,4 +1,5 @@
-import { Fragment, useEffect, useMemo, useRef, useState, type ClipboardEvent, type KeyboardEvent } from 'react';
+import { useCallback, useEffect, useMemo, useRef, useState, type ClipboardEvent, type KeyboardEvent } from 'react';
+import { useVirtualizer } from '@tanstack/react-virtual';
 import type { SelectivityMeasure, TemperatureUnit, TimeUnit } from '../../../../api/features/campaigns/schemas';
 import { Button } from '../../../components/ui/form';
 import { ApiError } from '../../../lib/api-client';
@@ -36,8 +37,12 @@ const TIME_UNITS: { value: TimeUnit; label: string }[] = [
 ];
 const MEASURES: SelectivityMeasure[] = ['ee', 'percentA', 'er', 'dr', 'ratio'];
 
-/** Most stored rows drawn at once; a bigger campaign shows the first ones and says so. */
-const MAX_ROWS_SHOWN = 400;
+/** Above this many rows only those in view are drawn (the grid scrolls in its own box). */
+const VIRTUAL_FROM_ROWS = 120;
+/** Height of one row before it is measured (px). */
+const ROW_HEIGHT_ESTIMATE = 33;
+const estimateSize = () => ROW_HEIGHT_ESTIMATE;
+const INITIAL_RECT = { width: 1200, height: 700 };
 
 const COLUMN_TITLE: Record<GridColumn, string> = {
   temperature: 'Temperature',
@@ -95,14 +100,17 @@ export function MeasurementGrid({
   const [confirmDelete, setConfirmDelete] = useState<string | null>(null);
   const [pendingFocus, setPendingFocus] = useState<{ row: number; col: number } | null>(null);
   const [saving, setSaving] = useState(false);
+  const [editReason, setEditReason] = useState('');
+  const [deleteReason, setDeleteReason] = useState('');
   const tableRef = useRef<HTMLTableElement>(null);
+  const scrollRef = useRef<HTMLDivElement>(null);
 
   const createRows = useCreateMeasurements(campaign.id, campaign.projectId);
   const updateRow = useUpdateMeasurement(campaign.id, campaign.projectId);
   const exclusion = useSetExclusion(campaign.id, campaign.projectId);
   const deleteRow = useDeleteMeasurement(campaign.id, campaign.projectId);
 
-  const shown = measurements.slice(0, MAX_ROWS_SHOWN);
+  const shown = measurements;
   const rows: Row[] = useMemo(() => {
     const stored = shown.map((m) => {
       const base = cellsFromMeasurement(m, units);
@@ -127,14 +135,39 @@ export function MeasurementGrid({
   }, [rows, units]);
 
   const dirtyCount = rows.filter((r) => r.dirty).length;
+  const editedStoredCount = rows.filter((r) => r.stored && r.dirty).length;
+  const reasonMissing = editedStoredCount > 0 && editReason.trim().length < 3;
+  const replicateSummary = useMemo(() => replicateStats(measurements), [measurements]);
+
+  const virtual = rows.length >= VIRTUAL_FROM_ROWS;
+  // Stable callbacks: the virtualizer recomputes every row position when one of them changes.
+  const getItemKey = useCallback((i: number) => rows[i]?.key ?? i, [rows]);
+  const virtualizer = useVirtualizer({
+    count: virtual ? rows.length : 0,
+    getScrollElement: () => scrollRef.current,
+    estimateSize,
+    overscan: 12,
+    // Until the box is measured, draw what a typical screen shows.
+    initialRect: INITIAL_RECT,
+    getItemKey,
+  });
+  const items = virtual ? virtualizer.getVirtualItems() : rows.map((_, index) => ({ index, start: 0, key: rows[index].key }));
+  const padTop = virtual && items.length ? items[0].start : 0;
+  const padBottom = virtual && items.length ? virtualizer.getTotalSize() - (items[items.length - 1] as { end?: number }).end! : 0;
+  const firstShown = items.length ? items[0].index : 0;
 
   useEffect(() => {
     if (!pendingFocus) return;
     const el = tableRef.current?.querySelector<HTMLInputElement>(`[data-cell="${pendingFocus.row}:${pendingFocus.col}"]`);
+    if (!el && virtual) {
+      // The row is outside the drawn window: bring it in; this runs again once it is drawn.
+      virtualizer.scrollToIndex(pendingFocus.row, { align: 'auto' });
+      return;
+    }
     el?.focus();
     el?.select();
     setPendingFocus(null);
-  }, [pendingFocus, rows.length]);
+  }, [pendingFocus, rows.length, virtual, virtualizer, firstShown]);
 
   const setCell = (row: Row, col: GridColumn, text: string) => {
     setServerErrors((all) => {
@@ -177,6 +210,16 @@ export function MeasurementGrid({
     } else if (e.key === 'ArrowUp') {
       e.preventDefault();
       if (rowIndex > 0) setPendingFocus({ row: rowIndex - 1, col: colIndex });
+    } else if ((e.key === 'ArrowLeft' || e.key === 'ArrowRight') && !e.shiftKey) {
+      // Left and right move to the next cell once the caret is at the edge of the text.
+      const input = e.currentTarget;
+      const atStart = input.selectionStart === 0 && input.selectionEnd === 0;
+      const atEnd = input.selectionStart === input.value.length && input.selectionEnd === input.value.length;
+      const next = e.key === 'ArrowLeft' ? (atStart ? colIndex - 1 : -1) : atEnd ? colIndex + 1 : -1;
+      if (next >= 0 && next < GRID_COLUMNS.length) {
+        e.preventDefault();
+        setPendingFocus({ row: rowIndex, col: next });
+      }
     } else if (e.key === 'Escape') {
       restoreCell(row, col);
     }
@@ -198,7 +241,7 @@ export function MeasurementGrid({
     setState(result.state);
     const parts = [`Pasted ${result.rows} row${result.rows === 1 ? '' : 's'}; check the marked cells, then save.`];
     if (result.headerSkipped) parts.push('The first line looked like headings and was skipped.');
-    if (result.droppedColumns) parts.push(`${result.droppedColumns} column(s) beyond Notes were left out.`);
+    if (result.droppedColumns) parts.push(`${plural(result.droppedColumns, 'column')} beyond Notes ${result.droppedColumns === 1 ? 'was' : 'were'} left out.`);
     setNotice({ kind: 'info', text: parts.join(' ') });
   };
 
@@ -215,6 +258,10 @@ export function MeasurementGrid({
     const edited = rows.filter((r) => r.stored && r.dirty);
     if (Object.keys(clientErrors).length > 0) {
       setNotice({ kind: 'error', text: 'Nothing saved: fix the marked cells first (the reason is under each one).' });
+      return;
+    }
+    if (edited.length > 0 && editReason.trim().length < 3) {
+      setNotice({ kind: 'error', text: 'Nothing saved: say why the stored runs change (at least 3 characters); the history keeps it.' });
       return;
     }
     setSaving(true);
@@ -246,7 +293,7 @@ export function MeasurementGrid({
           continue;
         }
         try {
-          await updateRow.mutateAsync({ id: r.key, body });
+          await updateRow.mutateAsync({ id: r.key, body: { ...body, reason: editReason.trim() } });
           savedEdits.push(r.key);
         } catch (err) {
           if (err instanceof ApiError && err.status === 409) {
@@ -263,6 +310,7 @@ export function MeasurementGrid({
     }
     setServerErrors(nextServer);
     setRowProblems(problems);
+    if (!Object.keys(problems).length && !Object.keys(nextServer).length) setEditReason('');
     setState((s) => ({
       edits: Object.fromEntries(Object.entries(s.edits).filter(([k]) => !savedEdits.includes(k))),
       drafts: savedDrafts ? [] : s.drafts,
@@ -271,7 +319,7 @@ export function MeasurementGrid({
     setNotice(
       failed
         ? { kind: 'error', text: general.join(' ') || 'Some rows were not saved; see the marked rows.' }
-        : { kind: 'info', text: `Saved ${savedDrafts ? drafts.length : 0} new and ${savedEdits.length} changed row(s). The fit below is up to date.` },
+        : { kind: 'info', text: `Saved ${plural(savedDrafts ? drafts.length : 0, 'new row')} and ${plural(savedEdits.length, 'changed row')}. The fit below is up to date.` },
     );
   }
 
@@ -282,13 +330,13 @@ export function MeasurementGrid({
       {canEdit && (
         <p className="text-xs text-ink-600">
           Type into the cells, or paste a block copied from a spreadsheet (columns in this order, from the cell you paste into). ↑ ↓ and
-          Enter move between rows, Esc restores a cell, <kbd className="rounded border border-slate-300 px-1">Ctrl</kbd>+
+          Enter move between rows, ← → between cells at the edge of the text, Esc restores a cell, <kbd className="rounded border border-slate-300 px-1">Ctrl</kbd>+
           <kbd className="rounded border border-slate-300 px-1">Enter</kbd> saves. Write a lower bound as “≥99.8”; er and dr as “95:5”.
         </p>
       )}
-      <div className="overflow-x-auto rounded border border-slate-200">
+      <div ref={scrollRef} className={`overflow-x-auto rounded border border-slate-200 ${virtual ? 'max-h-[70vh] overflow-y-auto' : ''}`}>
         <table ref={tableRef} className="tnum w-full border-collapse text-sm" aria-label="Measurements">
-          <thead className="bg-slate-50 text-xs text-ink-600">
+          <thead className={`bg-slate-50 text-xs text-ink-600 ${virtual ? 'sticky top-0 z-10' : ''}`}>
             <tr className="border-b border-slate-200 align-bottom">
               <th scope="col" className="px-2 py-1.5 text-right font-medium">
                 #
@@ -323,6 +371,11 @@ export function MeasurementGrid({
               )}
             </tr>
           </thead>
+          {padTop > 0 && (
+            <tbody aria-hidden="true">
+              <tr style={{ height: padTop }} />
+            </tbody>
+          )}
           <tbody>
             {rows.length === 0 && (
               <tr>
@@ -331,12 +384,14 @@ export function MeasurementGrid({
                 </td>
               </tr>
             )}
-            {rows.map((row, rowIndex) => {
+          </tbody>
+            {items.map(({ index: rowIndex }) => {
+              const row = rows[rowIndex];
               const errs = { ...clientErrors[row.key], ...serverErrors[row.key] };
               const excluded = row.stored?.excluded ?? false;
               const problem = rowProblems[row.key];
               return (
-                <Fragment key={row.key}>
+                <tbody key={row.key} data-index={rowIndex} ref={virtual ? virtualizer.measureElement : undefined}>
                   <tr
                     className={`border-b border-slate-100 align-top ${excluded ? 'bg-slate-50 text-ink-500' : ''} ${row.dirty ? 'bg-fjord-50/60' : ''}`}
                     aria-label={`Row ${rowIndex + 1}${row.stored ? '' : ' (new)'}${excluded ? ' (excluded)' : ''}`}
@@ -373,29 +428,54 @@ export function MeasurementGrid({
                     ))}
                     <td className="px-2 py-1 text-xs">
                       <StatusText m={row.stored} />
+                      {row.stored && replicateSummary.get(row.stored.id) && (
+                        <span className="block whitespace-nowrap text-ink-600" title="Mean ± standard deviation of the fitted replicates at this temperature">
+                          {replicateSummary.get(row.stored.id)}
+                        </span>
+                      )}
                     </td>
                     {canEdit && (
                       <td className="whitespace-nowrap px-2 py-0.5 text-xs">
                         {row.stored ? (
                           confirmDelete === row.key ? (
-                            <span className="flex items-center gap-1">
-                              Delete for good?
+                            <span className="flex flex-wrap items-center gap-1">
+                              <label className="flex items-center gap-1">
+                                Why delete?
+                                <input
+                                  autoFocus
+                                  value={deleteReason}
+                                  onChange={(e) => setDeleteReason(e.target.value)}
+                                  placeholder="kept in the history"
+                                  className="w-40 rounded border border-slate-300 px-1.5 py-0.5"
+                                />
+                              </label>
                               <button
                                 type="button"
-                                className="rounded border border-rose-700 px-1.5 py-0.5 text-rose-700"
+                                className="rounded border border-rose-700 px-1.5 py-0.5 text-rose-700 disabled:opacity-50"
+                                disabled={deleteReason.trim().length < 3 || deleteRow.isPending}
                                 onClick={() =>
                                   deleteRow.mutate(
-                                    { id: row.key, version: row.stored!.version },
+                                    { id: row.key, version: row.stored!.version, reason: deleteReason.trim() },
                                     {
                                       onError: (err) => setRowProblems((p) => ({ ...p, [row.key]: err.message })),
-                                      onSettled: () => setConfirmDelete(null),
+                                      onSettled: () => {
+                                        setConfirmDelete(null);
+                                        setDeleteReason('');
+                                      },
                                     },
                                   )
                                 }
                               >
                                 Delete
                               </button>
-                              <button type="button" className="rounded border border-slate-300 px-1.5 py-0.5" onClick={() => setConfirmDelete(null)}>
+                              <button
+                                type="button"
+                                className="rounded border border-slate-300 px-1.5 py-0.5"
+                                onClick={() => {
+                                  setConfirmDelete(null);
+                                  setDeleteReason('');
+                                }}
+                              >
                                 Keep
                               </button>
                             </span>
@@ -475,22 +555,35 @@ export function MeasurementGrid({
                       </td>
                     </tr>
                   )}
-                </Fragment>
+                </tbody>
               );
             })}
-          </tbody>
+          {padBottom > 0 && (
+            <tbody aria-hidden="true">
+              <tr style={{ height: padBottom }} />
+            </tbody>
+          )}
         </table>
       </div>
-      {measurements.length > MAX_ROWS_SHOWN && (
-        <p className="text-xs text-ink-600">
-          Showing the first {MAX_ROWS_SHOWN} of {measurements.length} measurements (sorted by temperature); all of them are in the fit and
-          in the spreadsheet report.
-        </p>
+      {virtual && <p className="text-xs text-ink-600">{plural(rows.length, 'row')}, sorted by temperature; the grid scrolls in its own box.</p>}
+      {canEdit && editedStoredCount > 0 && (
+        <label className="flex flex-wrap items-center gap-2 text-sm">
+          <span>
+            Why do {editedStoredCount === 1 ? 'this stored run' : `these ${editedStoredCount} stored runs`} change? <span className="text-ink-600">(kept in the history)</span>
+          </span>
+          <input
+            value={editReason}
+            onChange={(e) => setEditReason(e.target.value)}
+            placeholder="e.g. integration corrected"
+            aria-invalid={reasonMissing || undefined}
+            className="w-72 max-w-full rounded border border-slate-300 px-2 py-1"
+          />
+        </label>
       )}
       {canEdit && (
         <div className="flex flex-wrap items-center gap-2">
           <Button onClick={() => addRow()}>Add row</Button>
-          <Button variant="primary" disabled={dirtyCount === 0 || saving} onClick={() => void save()}>
+          <Button variant="primary" disabled={dirtyCount === 0 || saving || reasonMissing} onClick={() => void save()}>
             {saving ? 'Saving…' : dirtyCount ? `Save ${dirtyCount} row${dirtyCount === 1 ? '' : 's'}` : 'Saved'}
           </Button>
           {(dirtyCount > 0 || state.drafts.length > 0) && <Button onClick={discard}>Discard changes</Button>}
@@ -603,4 +696,32 @@ function GridInput({
       )}
     </div>
   );
+}
+
+const plural = (n: number, one: string) => `${n} ${n === 1 ? one : `${one}s`}`;
+
+/**
+ * "mean ± SD" of the fitted replicates at each temperature (to 0.01 K), keyed by measurement id,
+ * for temperatures with two or more replicates reported as one plain number in one measure.
+ */
+export function replicateStats(measurements: Measurement[]): Map<string, string> {
+  const groups = new Map<string, Measurement[]>();
+  for (const m of measurements) {
+    if (m.excluded || m.isLowerBound || m.valueB !== null) continue;
+    const key = `${m.temperatureK.toFixed(2)}|${m.measure}`;
+    groups.set(key, [...(groups.get(key) ?? []), m]);
+  }
+  const out = new Map<string, string>();
+  for (const group of groups.values()) {
+    if (group.length < 2) continue;
+    const n = group.length;
+    const mean = group.reduce((s, m) => s + m.value, 0) / n;
+    const sd = Math.sqrt(group.reduce((s, m) => s + (m.value - mean) ** 2, 0) / (n - 1));
+    // As many decimals as the most precise replicate, at most 2.
+    const decimals = Math.min(2, Math.max(...group.map((m) => (String(m.value).split('.')[1] ?? '').length)));
+    const unit = group[0].measure === 'ee' || group[0].measure === 'percentA' ? ' %' : '';
+    const text = `mean ${mean.toFixed(decimals)} ± ${sd.toFixed(Math.max(decimals, 1))}${unit} (n = ${n})`.replace(/-/g, '−');
+    for (const m of group) out.set(m.id, text);
+  }
+  return out;
 }

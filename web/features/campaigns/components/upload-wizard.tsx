@@ -10,6 +10,7 @@ import { CELSIUS, MEASURE_LABEL } from '../lib/labels';
 import type { UploadProgress } from '../lib/upload';
 import { SECONDS_PER } from '../../../../api/science/quantities';
 import { ColumnMappingStep } from './column-mapping-step';
+import { recordLinks } from '../api/records';
 
 const DELIMITER_TEXT: Record<string, string> = { ',': 'comma', ';': 'semicolon', '\t': 'tab' };
 
@@ -145,6 +146,9 @@ export function UploadWizard({ campaignId, projectId }: { campaignId: string; pr
             className="text-sm file:mr-3 file:rounded file:border file:border-slate-300 file:bg-white file:px-3 file:py-1.5 file:text-sm file:text-ink-800"
           />
         </div>
+        <a className="pb-1.5 text-sm text-fjord-700 underline" href={recordLinks.importTemplate(campaignId)} download>
+          <span aria-hidden="true">⤓ </span>Download a template (CSV)
+        </a>
       </div>
       {progress && (
         <div className="flex flex-wrap items-center gap-3">

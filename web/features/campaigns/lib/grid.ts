@@ -199,7 +199,8 @@ export function rowToCreate(cells: GridCells, units: ColumnUnits): { body: Measu
 }
 
 /** The PATCH body for a stored row: only the fields whose cells changed, with the version read. */
-export function rowToUpdate(m: Measurement, cells: GridCells, units: ColumnUnits): { body: MeasurementUpdate | null; errors: CellErrors } {
+/** The changed fields of a stored row with its version; the caller adds the reason for the change. */
+export function rowToUpdate(m: Measurement, cells: GridCells, units: ColumnUnits): { body: Omit<MeasurementUpdate, 'reason'> | null; errors: CellErrors } {
   const { body, errors } = rowToCreate(cells, units);
   if (!body) return { body: null, errors };
   const before = cellsFromMeasurement(m, units);
@@ -215,7 +216,7 @@ export function rowToUpdate(m: Measurement, cells: GridCells, units: ColumnUnits
   if (changed('conversionPercent')) update.conversionPercent = body.conversionPercent ?? null;
   if (changed('reactionTime')) update.reactionTime = body.reactionTime ?? null;
   if (changed('notes')) update.notes = body.notes ?? null;
-  return { body: Object.keys(update).length > 1 ? (update as MeasurementUpdate) : null, errors: {} };
+  return { body: Object.keys(update).length > 1 ? (update as Omit<MeasurementUpdate, 'reason'>) : null, errors: {} };
 }
 
 // ── paste ────────────────────────────────────────────────────────────────────────────────────

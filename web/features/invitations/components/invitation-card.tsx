@@ -50,7 +50,7 @@ export function InvitationCard({ token }: { token: string }) {
         <div className="mt-3"><Problem error={accept.error} token={token} /></div>
       ) : (
         <div className="mt-4 flex gap-3">
-          <Button variant="primary" disabled={accept.isPending} onClick={() => accept.mutate(undefined, { onSuccess: (r) => navigate(paths.projectSettings.getHref(r.projectId)) })}>
+          <Button variant="primary" disabled={accept.isPending} onClick={() => accept.mutate(undefined, { onSuccess: (r) => navigate(paths.project.getHref(r.projectId)) })}>
             Accept and join
           </Button>
           <Link className="self-center text-sm text-fjord-700 underline" to={paths.projects.getHref()}>

@@ -18,7 +18,7 @@ export function CreateProjectForm() {
         e.preventDefault();
         const input = form.check();
         if (!input) return;
-        create.mutate(input, { onSuccess: (p) => navigate(paths.projectSettings.getHref(p.id)), onError: form.fromServer });
+        create.mutate(input, { onSuccess: (p) => navigate(paths.project.getHref(p.id)), onError: form.fromServer });
       }}
     >
       <TextField name="name" label="Name" value={form.values.name} onChange={form.set('name')} error={form.errors.name} />

@@ -37,7 +37,7 @@ export function ProjectsList() {
             <td className="tnum py-2.5 pr-3 text-right">{p.memberCount}</td>
             <td className="tnum py-2.5 pr-3 text-ink-600">{dateFormat.format(new Date(p.updatedAt))}</td>
             <td className="py-2.5 text-right whitespace-nowrap">
-              <Link className="text-fjord-700 underline" to={paths.projectSettings.getHref(p.id)} aria-label={`Members and settings of ${p.name}`}>
+              <Link className="text-fjord-700 underline" to={paths.projectSettings.getHref(p.id)} aria-label={`Members & settings of ${p.name}`}>
                 Members &amp; settings
               </Link>
               {p.role === 'owner' && (
