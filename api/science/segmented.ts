@@ -28,7 +28,6 @@
  * Engl. 1991, 30, 477); otherwise a "change of slope". A curved plot can also mean a change of the
  * selectivity-determining step (Gypser & Norrby, J. Chem. Soc., Perkin Trans. 2, 1997).
  */
-import fCdf from '@stdlib/stats-base-dists-f-cdf';
 import { GAS_CONSTANT_J_PER_MOL_K as R } from './constants';
 import {
   DEFAULT_CENSOR_EE_PERCENT,
@@ -39,6 +38,7 @@ import {
 } from './eyring-fit';
 import type { Warning } from './errors';
 import { studentTQuantile } from './regression';
+import { fUpperTail } from './tails';
 import { describeTemperatureK } from './units';
 
 /** Resamples of the null distribution: Monte Carlo SE of p near 0.05 is about 0.005. */
@@ -515,7 +515,8 @@ function lackOfFit(design: Design, ssLine: number): LackOfFitTest | null {
   const dofLackOfFit = m - 2;
   const fStatistic = Math.max(0, (ssLine - pure) / dofLackOfFit) / (pure / pureDof);
   // Upper tail without cancellation: P(F(d₁, d₂) > f) = P(F(d₂, d₁) < 1/f).
-  const pValue = fStatistic > 0 ? fCdf(1 / fStatistic, pureDof, dofLackOfFit) : 1;
+  // Upper tail computed directly, so a p of 1e-40 is not printed as 0.
+  const pValue = fStatistic > 0 ? fUpperTail(fStatistic, dofLackOfFit, pureDof) : 1;
   return { fStatistic, dofLackOfFit, dofPureError: pureDof, pValue };
 }
 

@@ -162,17 +162,20 @@ describe('POST /api/v1/forecast: request paths in errors', () => {
   });
 });
 
-describe('POST /api/v1/fit: the two-branch F test p-value', () => {
-  it('when the break is overwhelming, then p comes from the upper tail and is not rounded to 0', async () => {
-    // Two sharply different branches with tiny scatter (invented): the F statistic is huge.
-    const ms = [-70, -60, -50, -40, -30, 10, 20, 30, 40, 50].map((c, i) => {
-      const t = c + 273.15;
-      const y = c < -10 ? 3000 / t - 10 : -1000 / t + 6.2;
-      return { temperature: C(c), selectivity: { measure: 'ratio', value: Math.exp(y + (i % 2 ? 1e-4 : -1e-4)) } };
-    });
+describe('POST /api/v1/fit: the lack-of-fit F test p-value', () => {
+  it('when a straight line misses duplicated runs by far, then p comes from the upper tail and is not rounded to 0', async () => {
+    // Two sharply different branches, each temperature in duplicate with tiny scatter (invented): the lack-of-fit F is huge.
+    const temps = [-70, -60, -50, -40, -30, 10, 20, 30, 40, 50];
+    const ms = temps.flatMap((c) =>
+      [1e-4, -1e-4].map((e) => {
+        const t = c + 273.15;
+        const y = c < -10 ? 3000 / t - 10 : -1000 / t + 6.2;
+        return { temperature: C(c), selectivity: { measure: 'ratio', value: Math.exp(y + e) } };
+      }),
+    );
     const body = await fit({ measurements: ms });
-    expect(body.twoBranch).not.toBeNull();
-    const p = body.twoBranch.fTest.p;
+    expect(body.twoBranch.lackOfFit).not.toBeNull();
+    const p = body.twoBranch.lackOfFit.p;
     expect(p).toBeGreaterThan(0);
     expect(p).toBeLessThan(1e-10);
   });

@@ -298,8 +298,8 @@ describe('campaign pages in Chromium', () => {
     await signInAs(page, baseUrl, who, `/campaigns/${campaign.id}`);
     const residuals = page.getByRole('region', { name: 'Residual diagnostics' });
     await expect.poll(() => residuals.textContent(), { timeout: 15_000 }).toMatch(/\d+(\.\d)?:1/);
-    await page.getByLabel('Proposed temperature').fill('-30');
-    await page.getByLabel('Proposed temperature').press('Enter');
+    await page.getByRole('textbox', { name: 'Proposed temperature' }).fill('-30');
+    await page.getByRole('textbox', { name: 'Proposed temperature' }).press('Enter');
     const box = page.getByRole('region', { name: 'Prediction at the proposed temperature' });
     await expect.poll(() => box.textContent(), { timeout: 15_000 }).toContain('major diastereomer');
     const text = (await box.textContent())!;
