@@ -5,7 +5,7 @@ import type { ProjectRole } from '../../api/features/projects/schemas';
 import type { User } from '../../api/models/user';
 import { Invitation } from '../../api/models/invitation';
 import { hashSecret } from '../../api/lib/secrets';
-import { closeTestKnex } from '../support/db';
+import { closeTestKnex, testKnex } from '../support/db';
 import { signIn, startAuthApp, type AuthTestApp } from '../support/auth';
 import { listRoutes } from '../support/routes';
 import { createUser } from '../factories/users';
@@ -13,6 +13,7 @@ import { createProject } from '../factories/projects';
 import { createApiToken } from '../factories/tokens';
 import { createCampaign, createMeasurements } from '../factories/campaigns';
 import { SavedForecast } from '../../api/models/saved-forecast';
+
 
 /**
  * Every /api route × every kind of caller, with the status each must get.
@@ -55,6 +56,14 @@ async function aScreen(c: Cell) {
   const campaign = await createCampaign(c.projectId);
   await createMeasurements(campaign.id, [233.15, 253.15, 273.15, 293.15, 313.15]);
   return { campaignId: campaign.id };
+}
+/** A finished report job of the cell's project (inserted directly: the matrix checks access, not the queue). */
+async function aJob(c: Cell) {
+  const campaign = await createCampaign(c.projectId);
+  const [job] = await testKnex()('jobs')
+    .insert({ kind: 'report', projectId: c.projectId, campaignId: campaign.id, createdByUserId: c.viewer.id, state: 'succeeded', resultFile: Buffer.from('PK'), resultFileName: 'matrix.xlsx' })
+    .returning('id');
+  return { jobId: job.id as string };
 }
 async function aMeasurement(c: Cell) {
   const campaign = await createCampaign(c.projectId);
@@ -119,6 +128,10 @@ const RULES: Record<string, Rule> = {
   'GET /api/v1/campaigns/:campaignId/forecasts': { access: 'viewer', ok: 200, params: aScreen },
   'POST /api/v1/campaigns/:campaignId/forecasts': { access: 'editor', ok: 201, params: aScreen, body: () => ({ temperature: { value: -10, unit: 'C' } }) },
   'GET /api/v1/campaigns/:campaignId/report.xlsx': { access: 'viewer', ok: 200, params: aScreen },
+  'POST /api/v1/campaigns/:campaignId/report-jobs': { access: 'viewer', ok: 202, params: aScreen },
+  'POST /api/v1/campaigns/:campaignId/report-emails': { access: 'viewer', ok: 202, params: aScreen },
+  'GET /api/v1/jobs/:jobId': { access: 'viewer', ok: 200, params: aJob },
+  'GET /api/v1/jobs/:jobId/file': { access: 'viewer', ok: 200, params: aJob },
   'PATCH /api/v1/measurements/:measurementId': { access: 'editor', ok: 200, params: aMeasurement, body: () => ({ version: 1, notes: 'checked' }) },
   'PUT /api/v1/measurements/:measurementId/exclusion': { access: 'editor', ok: 200, params: aMeasurement, body: () => ({ version: 1, excluded: true, reason: 'matrix check' }) },
   'DELETE /api/v1/measurements/:measurementId': { access: 'editor', ok: 204, params: aMeasurement, query: { version: '1' } },
