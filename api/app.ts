@@ -27,7 +27,7 @@ import { kineticsRouter } from './features/kinetics/routes';
 import { docsRouter } from './features/docs/routes';
 import { campaignsRouter } from './features/campaigns/routes';
 import { JobQueue, jobOptionsFromEnv } from './features/jobs/queue';
-import { jobHandlers } from './features/jobs/runner';
+import { abandonRunningJobs, jobHandlers } from './features/jobs/runner';
 import { jobsRouter } from './features/jobs/routes';
 
 export interface AppDeps {
@@ -91,7 +91,7 @@ export function createApp(deps: AppDeps): Express {
   const jobs = deps.jobs ?? new JobQueue(deps.knex, jobOptionsFromEnv(), logger);
   app.locals.jobs = jobs;
   app.locals.startJobWorkers = () =>
-    jobs.startWorkers(jobHandlers({ knex: deps.knex, mailer, version: deps.config.version, publicUrl: deps.config.publicUrl, logger }));
+    jobs.startWorkers(jobHandlers({ knex: deps.knex, mailer, version: deps.config.version, publicUrl: deps.config.publicUrl, logger }), abandonRunningJobs);
   installAuth(app, { knex: deps.knex, config: deps.config, oauth: oauthSetup(deps), logger });
   if (deps.config.devTools) app.use(mailboxRouter({ mailbox, realSmtp: Boolean(deps.config.smtpUrl) }));
 

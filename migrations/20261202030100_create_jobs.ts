@@ -37,6 +37,8 @@ export async function up(knex: Knex): Promise<void> {
     /** Problem details when the job failed. */
     t.jsonb('error');
     t.integer('attempts').notNullable().defaultTo(0);
+    /** Host and process id of the instance that last started the job (for operators). */
+    t.string('worker', 200);
     t.timestamp('created_at', { useTz: true }).notNullable().defaultTo(knex.fn.now());
     t.timestamp('started_at', { useTz: true });
     t.timestamp('finished_at', { useTz: true });

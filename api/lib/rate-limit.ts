@@ -30,6 +30,8 @@ export interface LimitRule {
 }
 
 const FLUSH_MS = 1000;
+/** Keys seen this recently have their shared count re-read at each flush. */
+const RECENT_MS = 10_000;
 
 /** One per app: owns the PostgreSQL limiters and the batch timer. Kept on `app.locals.rateLimits`. */
 export class RateLimitStore {
@@ -91,6 +93,8 @@ interface KeyState {
   known: number;
   /** Epoch ms at which the shared window ends (0 = unknown). */
   resetAt: number;
+  /** Epoch ms of the last request counted here. */
+  lastSeen: number;
 }
 
 /** Counts in memory, adds to the shared PostgreSQL counter in batches. */
@@ -109,13 +113,14 @@ export class BatchedCounter {
     const now = Date.now();
     let s = this.keys.get(key);
     if (!s) {
-      s = { pending: 0, inFlight: 0, known: 0, resetAt: 0 };
+      s = { pending: 0, inFlight: 0, known: 0, resetAt: 0, lastSeen: now };
       this.keys.set(key, s);
     }
     if (s.resetAt !== 0 && now >= s.resetAt) {
       s.known = 0;
       s.resetAt = 0;
     }
+    s.lastSeen = now;
     const used = s.known + s.inFlight + s.pending;
     const resetMs = s.resetAt ? s.resetAt - now : this.rl.duration * 1000;
     if (used >= this.points) return { ok: false, remaining: 0, resetMs };
@@ -137,7 +142,22 @@ export class BatchedCounter {
     const writes: Promise<void>[] = [];
     for (const [key, s] of this.keys) {
       if (s.pending === 0) {
-        if (s.inFlight === 0 && s.resetAt !== 0 && Date.now() >= s.resetAt) this.keys.delete(key);
+        if (s.inFlight === 0 && s.resetAt !== 0 && Date.now() >= s.resetAt) {
+          this.keys.delete(key);
+        } else if (s.inFlight === 0 && Date.now() - s.lastSeen < RECENT_MS) {
+          // A client still calling here: learn what the other instances counted meanwhile.
+          writes.push(
+            this.rl.get(key).then(
+              (res) => {
+                if (res && s.inFlight === 0) {
+                  s.known = res.consumedPoints;
+                  s.resetAt = Date.now() + res.msBeforeNext;
+                }
+              },
+              () => undefined,
+            ),
+          );
+        }
         continue;
       }
       const n = s.pending;
@@ -160,6 +180,8 @@ export class BatchedCounter {
       );
     }
     await Promise.all(writes);
+    const now = Date.now();
+    if ([...this.keys.values()].some((k) => k.pending > 0 || now - k.lastSeen < RECENT_MS)) this.schedule();
   }
 
   stop(): void {

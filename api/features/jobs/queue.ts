@@ -98,6 +98,7 @@ export class JobQueue {
   readonly options: JobOptions;
   private readonly sender: PgBoss;
   private worker: PgBoss | null = null;
+  private abandon: (() => void) | null = null;
 
   constructor(
     private readonly knex: Knex,
@@ -134,8 +135,9 @@ export class JobQueue {
   }
 
   /** Start fetching and running jobs in this process. */
-  async startWorkers(handlers: Record<JobKind, JobHandler>): Promise<void> {
+  async startWorkers(handlers: Record<JobKind, JobHandler>, abandon?: () => void): Promise<void> {
     if (this.worker) return;
+    this.abandon = abandon ?? null;
     const boss = new PgBoss({
       db: knexDb(this.knex),
       schema: JOB_SCHEMA,
@@ -167,6 +169,8 @@ export class JobQueue {
     this.worker = null;
     if (!boss) return;
     await boss.stop({ graceful: true, wait: true, timeout: timeoutMs, close: false });
+    // Still running after the grace period: roll it back here; pg-boss has put it back in the queue.
+    this.abandon?.();
   }
 
   get running(): boolean {

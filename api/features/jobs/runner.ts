@@ -11,6 +11,7 @@
  * frees the lock; pg-boss expires the job and another instance runs it from the start.
  * Progress is written from outside that transaction so pollers see it while the job runs.
  */
+import os from 'node:os';
 import type { Knex } from 'knex';
 import type { Logger } from 'pino';
 import { AppError, UnprocessableError } from '../../lib/errors';
@@ -30,11 +31,33 @@ export interface RunnerDeps {
   logger?: Logger;
 }
 
+/** Which instance started a job, for operators reading the jobs table. */
+const WORKER_ID = `${os.hostname()}:${process.pid}`;
+
 /** Thrown when another instance holds the job's lock; pg-boss retries the delivery later. */
 export class JobBusyError extends Error {
   constructor(id: string) {
     super(`job ${id} is running elsewhere`);
   }
+}
+
+/** The transactions of jobs running in this process, so a shutdown can hand them back. */
+const running = new Set<Knex.Transaction>();
+
+/** Raised inside a job whose instance is shutting down: its work is rolled back and pg-boss retries it elsewhere. */
+export class JobAbandonedError extends Error {
+  constructor() {
+    super('the instance is shutting down; the job goes back to the queue');
+  }
+}
+
+/**
+ * Roll back every job still running here (after the shutdown's grace period): nothing half-done
+ * is committed, the connections return to the pool, and another instance runs the jobs again.
+ */
+export function abandonRunningJobs(): void {
+  for (const trx of running) void trx.rollback(new JobAbandonedError()).catch(() => undefined);
+  running.clear();
 }
 
 interface Outcome {
@@ -48,11 +71,14 @@ type Work = (trx: Knex.Transaction, job: JobRow & { file: Buffer | null }, progr
 export async function runOnce(deps: RunnerDeps, delivery: { id: string; retryCount: number; retryLimit: number }, work: Work): Promise<void> {
   const { knex } = deps;
   const { id } = delivery;
+  let current: Knex.Transaction | null = null;
   const progress = async (stage: string, percent: number) => {
     await knex('jobs').where({ id }).whereIn('state', ['queued', 'running']).update({ progress: JSON.stringify({ stage, percent }) });
   };
   try {
     await knex.transaction(async (trx) => {
+      running.add(trx);
+      current = trx;
       const locked = await trx.raw(`select pg_try_advisory_xact_lock(hashtextextended(?, 0)) as ok`, [`eyrie-job:${id}`]);
       if (!locked.rows[0].ok) throw new JobBusyError(id);
       const job = (await trx('jobs').where({ id }).first()) as (JobRow & { file: Buffer | null }) | undefined;
@@ -60,7 +86,7 @@ export async function runOnce(deps: RunnerDeps, delivery: { id: string; retryCou
       // Visible at once to pollers (another connection), not tied to this transaction.
       await knex('jobs')
         .where({ id })
-        .update({ state: 'running', startedAt: new Date(), attempts: knex.raw('attempts + 1'), progress: JSON.stringify({ stage: 'started', percent: 5 }) });
+        .update({ state: 'running', worker: WORKER_ID, startedAt: new Date(), attempts: knex.raw('attempts + 1'), progress: JSON.stringify({ stage: 'started', percent: 5 }) });
       let outcome: Outcome;
       try {
         outcome = await work(trx, job, progress);
@@ -85,7 +111,7 @@ export async function runOnce(deps: RunnerDeps, delivery: { id: string; retryCou
         });
     });
   } catch (err) {
-    if (err instanceof JobBusyError) throw err;
+    if (err instanceof JobBusyError || err instanceof JobAbandonedError) throw err;
     deps.logger?.error({ err, jobId: id, attempt: delivery.retryCount }, 'job failed');
     if (delivery.retryCount >= delivery.retryLimit) {
       // No delivery is left: say so rather than leave the job "running" for ever.
@@ -101,6 +127,8 @@ export async function runOnce(deps: RunnerDeps, delivery: { id: string; retryCou
         .catch(() => undefined);
     }
     throw err;
+  } finally {
+    if (current) running.delete(current);
   }
 }
 
