@@ -96,6 +96,11 @@ export function toProblem(err: unknown): ProblemDetails {
   if (err instanceof CheckViolationError || err instanceof NotNullViolationError || err instanceof DataError) {
     return { type: '/problems/invalid-request', title: 'Invalid request', status: 400, detail: 'A value is outside what the database accepts.' };
   }
+  // Safety net for queries outside the models: PostgreSQL's data exceptions (SQLSTATE class 22, e.g. a NUL character in text) are the request's fault.
+  const sqlState = (err as { code?: unknown } | null)?.code;
+  if (typeof sqlState === 'string' && /^22[0-9A-Z]{3}$/.test(sqlState)) {
+    return { type: '/problems/invalid-request', title: 'Invalid request', status: 400, detail: 'A value is outside what the database accepts (for example a NUL character in text).' };
+  }
   const http = err as HttpLikeError;
   const status = http?.status ?? http?.statusCode;
   if (typeof status === 'number' && status >= 400 && status < 500) {

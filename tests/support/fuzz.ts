@@ -27,7 +27,16 @@ import { createCampaign, createMeasurements } from '../factories/campaigns';
 import { listRoutes } from './routes';
 
 const C = (value: number) => ({ value, unit: 'C' });
-const oneRun = { temperature: C(-20), selectivity: { measure: 'ee', value: 91.5 } };
+const oneRun = {
+  temperature: C(-20),
+  selectivity: { measure: 'ee', value: 91.5 },
+  uncertainty: 0.3,
+  sampleId: 'S-1',
+  replicateLabel: 'a',
+  conversionPercent: 80,
+  reactionTime: { value: 2, unit: 'h' },
+  notes: 'fuzzed run',
+};
 const screen = [-40, -20, 0, 20].map((t, i) => ({ temperature: C(t), selectivity: { measure: 'ee', value: 96 - i * 2 } }));
 
 /** A valid (or nearly valid) body per route, the starting point of mutations. */
@@ -151,9 +160,26 @@ function paths(value: unknown, prefix: (string | number)[] = []): (string | numb
   return out;
 }
 
-/** `example` with one place replaced, removed, or given an extra key. */
+/** Keys of free text (names, notes, labels), where any character may be typed. */
+const TEXT_KEYS = new Set(['name', 'description', 'title', 'notes', 'note', 'reason', 'sampleId', 'replicateLabel', 'label', 'reactionDescription', 'productNameA', 'productNameB']);
+
+/** Every free-text string of `value` with `suffix` appended (a NUL in every text field at once). */
+function everyString(value: unknown, suffix: string): unknown {
+  if (Array.isArray(value)) return value.map((v) => everyString(v, suffix));
+  if (value && typeof value === 'object') {
+    return Object.fromEntries(Object.entries(value).map(([k, v]) => [k, typeof v === 'string' && TEXT_KEYS.has(k) ? v + suffix : everyString(v, suffix)]));
+  }
+  return value;
+}
+
+/** `example` with one place replaced, removed, or given an extra key; or every string given a control character. */
 function mutated(example: unknown): fc.Arbitrary<unknown> {
   const all = paths(example);
+  const tainted = fc.constantFrom('\u0000', ' \u0000x', '\u0007', '\uFFFF').map((suffix) => everyString(example, suffix));
+  return fc.oneof({ weight: 1, arbitrary: tainted }, { weight: 5, arbitrary: onePlace(example, all) });
+}
+
+function onePlace(example: unknown, all: (string | number)[][]): fc.Arbitrary<unknown> {
   return fc.tuple(fc.nat({ max: all.length - 1 }), fc.constantFrom('replace', 'delete', 'extra'), jsonish, fc.string({ maxLength: 12 })).map(([i, how, value, key]) => {
     const copy = structuredClone(example) as Record<string | number, unknown>;
     const path = all[i]!;
@@ -244,6 +270,14 @@ export async function runCase(w: FuzzWorld, c: FuzzCase): Promise<CaseOutcome> {
   const after = await countRows(w);
   const changed = Object.keys(before).some((k) => before[k] !== after[k]);
   return { status: res.status, changed, before, after };
+}
+
+/** One case per route, run before the random ones: its example body with a NUL in every text field, sent by the owner to real ids. */
+export function nulExamples(w: FuzzWorld): [FuzzCase][] {
+  const params = { projectId: w.projectId, campaignId: w.campaignId, measurementId: w.measurementId, forecastId: w.forecastId, userId: w.other.id, tokenId: randomUUID(), invitationId: randomUUID(), token: 'x', jobId: randomUUID() };
+  return w.routes
+    .filter((route) => !route.startsWith('DELETE '))
+    .map((route) => [{ route, params, body: everyString(EXAMPLES[route] ?? {}, ' \u0000x'), file: null, auth: 'owner' as const }]);
 }
 
 /** The property: never a 5xx, and nothing changed by a refused write. */
