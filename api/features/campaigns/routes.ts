@@ -5,7 +5,8 @@ import { BadRequestError } from '../../lib/errors';
 import { parseBody } from '../../lib/validation';
 import { authorizeProject, projectIdParam } from '../projects/policy';
 import { importUpload, jsonField, uploadedFile } from '../imports/upload';
-import { importMeasurements, previewImport } from '../imports/service';
+import { importMeasurements } from '../imports/service';
+import { previewInPool } from '../imports/parse-pool';
 import { analyseCampaign, compareCampaigns, listCampaignForecasts, loadReportData, saveCampaignForecast } from './analysis';
 import { analysisQuerySchema, comparisonQuerySchema } from './analysis-schemas';
 import { buildCampaignReport, reportFileName } from './report';
@@ -162,7 +163,8 @@ export function campaignsRouter(deps: { knex: Knex; version: string; jobs: JobQu
   // Authorization runs before the upload is read, so a caller without the role never streams a file in.
   router.post('/campaigns/:campaignId/imports/preview', byCampaign('editor'), uploadLimit, importUpload(), async (req, res) => {
     await getCampaign(knex, req.project!.id, campaignId(req));
-    res.json(await previewImport(uploadedFile(req), jsonField(req, 'request', importPreviewRequestSchema)));
+    // Read and checked in a worker thread: a large file never holds the event loop.
+    res.json(await previewInPool(uploadedFile(req), jsonField(req, 'request', importPreviewRequestSchema)));
   });
 
   router.post('/campaigns/:campaignId/imports', byCampaign('editor'), uploadLimit, importUpload(), async (req, res) => {

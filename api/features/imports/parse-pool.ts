@@ -7,11 +7,12 @@
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { Piscina } from 'piscina';
-import { PayloadTooLargeError } from '../../lib/errors';
-import type { ImportParseOptions } from '../campaigns/schemas';
+import { AppError, PayloadTooLargeError } from '../../lib/errors';
+import type { ImportMapping, ImportParseOptions } from '../campaigns/schemas';
 import { UnreadableFileError } from './errors';
-import type { ImportLimits, ParsedTable, UploadedFile } from './parse';
-import type { ReadAnswer, ReadTask } from './parse-task';
+import { IMPORT_LIMITS, IN_THREAD_MAX_BYTES, type ImportLimits, type ParsedTable, type UploadedFile } from './parse';
+import type { PreviewAnswer, ReadAnswer, ReadTask, SerialisedError } from './parse-task';
+import type { ImportPreview } from './service';
 
 export interface ReadPoolOptions {
   /** Most worker threads (default 2: the machines this runs on have few cores). */
@@ -26,7 +27,7 @@ export const READ_POOL_DEFAULTS: ReadPoolOptions = { maxThreads: 2, maxOldGenera
 
 const workerFile = path.join(path.dirname(fileURLToPath(import.meta.url)), 'parse-worker.mjs');
 
-let pool: Piscina<ReadTask, ReadAnswer> | null = null;
+let pool: Piscina | null = null;
 let poolOptions: ReadPoolOptions = READ_POOL_DEFAULTS;
 
 /** Change the pool's settings (tests use a smaller memory cap); the next read starts a new pool. */
@@ -35,9 +36,9 @@ export async function configureReadPool(options: Partial<ReadPoolOptions>): Prom
   poolOptions = { ...READ_POOL_DEFAULTS, ...options };
 }
 
-function getPool(): Piscina<ReadTask, ReadAnswer> {
+function getPool(): Piscina {
   if (!pool) {
-    pool = new Piscina<ReadTask, ReadAnswer>({
+    pool = new Piscina({
       filename: workerFile,
       minThreads: 0,
       maxThreads: poolOptions.maxThreads,
@@ -74,9 +75,28 @@ export async function readInPool(file: UploadedFile, options: ImportParseOptions
 
 /** The worker's raw answer (tests read `peakMemoryBytes` of refused files from it). */
 export async function runInPool(file: UploadedFile, options: ImportParseOptions, limits: ImportLimits): Promise<ReadAnswer> {
+  const task: ReadTask = { name: file.name, buffer: file.buffer, options, limits };
+  return (await runTask(file, task, 'default')) as ReadAnswer;
+}
+
+/**
+ * The import preview of `file`, computed in a worker (small text files here). Errors as the
+ * preview's own: 400/413 for the file, 413 when the worker ran out of memory or time.
+ */
+export async function previewInPool(file: UploadedFile, request: { mapping?: ImportMapping; parse?: ImportParseOptions }, limits: ImportLimits = IMPORT_LIMITS): Promise<ImportPreview> {
+  if (file.buffer.length > limits.maxBytes || (!/\.xlsx$/i.test(file.name.trim()) && file.buffer.length <= IN_THREAD_MAX_BYTES)) {
+    const { previewImport } = await import('./service');
+    return previewImport(file, request, limits);
+  }
+  const answer = (await runTask(file, { name: file.name, buffer: file.buffer, request, limits }, 'preview')) as PreviewAnswer;
+  if (!answer.ok) throw rebuildError(answer.error);
+  return answer.preview;
+}
+
+async function runTask(file: UploadedFile, task: unknown, name: string): Promise<unknown> {
   const signal = AbortSignal.timeout(poolOptions.timeoutMs);
   try {
-    return await getPool().run({ name: file.name, buffer: file.buffer, options, limits }, { signal });
+    return await getPool().run(task, { signal, name });
   } catch (err) {
     const code = (err as { code?: string }).code;
     if (code === 'ERR_WORKER_OUT_OF_MEMORY') {
@@ -89,6 +109,8 @@ export async function runInPool(file: UploadedFile, options: ImportParseOptions,
   }
 }
 
-function rebuildError(e: { status: number; detail: string }) {
-  return e.status === 413 ? new PayloadTooLargeError(e.detail) : new UnreadableFileError(e.detail);
+function rebuildError(e: SerialisedError): AppError {
+  if (e.status === 413) return new PayloadTooLargeError(e.detail);
+  if (e.status === 400 && e.title === 'Unreadable file') return new UnreadableFileError(e.detail);
+  return new AppError(e.status, e.title, e.detail, e.errors ?? [], e.extra ?? {});
 }

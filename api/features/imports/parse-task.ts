@@ -5,7 +5,8 @@
  * what a hostile file cost.
  */
 import { getHeapStatistics } from 'node:v8';
-import type { ImportParseOptions } from '../campaigns/schemas';
+import type { ImportMapping, ImportParseOptions } from '../campaigns/schemas';
+import type { ImportPreview } from './service';
 import { AppError } from '../../lib/errors';
 import { readUpload, type ImportLimits, type ParsedTable } from './parse';
 
@@ -20,6 +21,8 @@ export interface SerialisedError {
   status: number;
   title: string;
   detail: string;
+  errors?: { path: string; message: string }[];
+  extra?: Record<string, unknown>;
 }
 
 export type ReadAnswer = ({ ok: true; table: ParsedTable } | { ok: false; error: SerialisedError }) & {
@@ -43,10 +46,39 @@ export async function readInWorker(task: ReadTask): Promise<ReadAnswer> {
     return { ok: true, table, peakMemoryBytes: Math.max(peak, heapNow()) };
   } catch (err) {
     if (err instanceof AppError) {
-      return { ok: false, error: { status: err.status, title: err.title, detail: err.message }, peakMemoryBytes: Math.max(peak, heapNow()) };
+      return { ok: false, error: serialise(err), peakMemoryBytes: Math.max(peak, heapNow()) };
     }
     throw err;
   } finally {
     clearInterval(sampler);
+  }
+}
+
+function serialise(err: AppError): SerialisedError {
+  return { status: err.status, title: err.title, detail: err.message, errors: err.errors, extra: err.extra };
+}
+
+export interface PreviewTask {
+  name: string;
+  buffer: Uint8Array;
+  request: { mapping?: ImportMapping; parse?: ImportParseOptions };
+  limits: ImportLimits;
+}
+
+export type PreviewAnswer = ({ ok: true; preview: ImportPreview } | { ok: false; error: SerialisedError }) & { peakMemoryBytes: number };
+
+/**
+ * A whole import preview (read, guess the mapping, check every row) in the worker: only the
+ * small preview crosses back, so a 100 000-row file costs the event loop nothing.
+ */
+export async function previewInWorker(task: PreviewTask): Promise<PreviewAnswer> {
+  const { previewImport } = await import('./service');
+  try {
+    const buffer = Buffer.from(task.buffer.buffer, task.buffer.byteOffset, task.buffer.byteLength);
+    const preview = await previewImport({ name: task.name, buffer }, task.request, task.limits);
+    return { ok: true, preview, peakMemoryBytes: heapNow() };
+  } catch (err) {
+    if (err instanceof AppError) return { ok: false, error: serialise(err), peakMemoryBytes: heapNow() };
+    throw err;
   }
 }

@@ -2,6 +2,7 @@
 // that it starts the same under tsx, vitest and node; it loads the TypeScript reader through tsx.
 import { tsImport } from 'tsx/esm/api';
 
-const { readInWorker } = await tsImport('./parse-task.ts', import.meta.url);
+const { readInWorker, previewInWorker } = await tsImport('./parse-task.ts', import.meta.url);
 
 export default readInWorker;
+export const preview = previewInWorker;

@@ -7,6 +7,7 @@
 import { parse as parseCsv, CsvError } from 'csv-parse/sync';
 import ExcelJS from 'exceljs';
 import { Readable } from 'node:stream';
+import { isMainThread } from 'node:worker_threads';
 import { AppError, PayloadTooLargeError } from '../../lib/errors';
 import type { ImportParseOptions } from '../campaigns/schemas';
 import { UnreadableFileError } from './errors';
@@ -123,7 +124,8 @@ export const IN_THREAD_MAX_BYTES = 256 * 1024;
  * with a memory cap (parse-pool.ts), small text files here. Errors as for `readUpload`.
  */
 export async function parseUpload(file: UploadedFile, options: ImportParseOptions = {}, limits: ImportLimits = IMPORT_LIMITS): Promise<ParsedTable> {
-  if (file.buffer.length > limits.maxBytes) return readUpload(file, options, limits);
+  // Already in a reading worker (a whole preview runs there), or refused by size before any reading.
+  if (!isMainThread || file.buffer.length > limits.maxBytes) return readUpload(file, options, limits);
   if (extensionOf(file.name) !== 'xlsx' && file.buffer.length <= IN_THREAD_MAX_BYTES) return readUpload(file, options, limits);
   const { readInPool } = await import('./parse-pool');
   return (await readInPool(file, options, limits)).table;
