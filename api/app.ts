@@ -11,7 +11,8 @@ import { createLogger } from './lib/logger';
 import { notFoundHandler, problemHandler } from './lib/problem';
 import { requestId } from './lib/request-id';
 import { checkRequestText } from './lib/request-text';
-import { NotFoundError, TooManyRequestsError } from './lib/errors';
+import { NotFoundError } from './lib/errors';
+import { RateLimitStore, rateLimited } from './lib/rate-limit';
 import { healthRouter } from './features/health/routes';
 import { installAuth, type OAuthSetup } from './features/auth/setup';
 import { sessionRouter } from './features/auth/routes';
@@ -22,11 +23,14 @@ import { tokensRouter } from './features/tokens/routes';
 import { Mailbox } from './features/mail/mailbox';
 import { createInProcessMailer, createSmtpMailer, type Mailer } from './features/mail/mailer';
 import { mailboxRouter } from './features/mail/routes';
-import { rateLimit } from 'express-rate-limit';
+import { ipKeyGenerator } from 'express-rate-limit';
 import { computeRouter } from './features/compute/routes';
 import { kineticsRouter } from './features/kinetics/routes';
 import { docsRouter } from './features/docs/routes';
 import { campaignsRouter } from './features/campaigns/routes';
+import { JobQueue, jobOptionsFromEnv } from './features/jobs/queue';
+import { abandonRunningJobs, jobHandlers } from './features/jobs/runner';
+import { jobsRouter } from './features/jobs/routes';
 
 export interface AppDeps {
   knex: Knex;
@@ -40,6 +44,8 @@ export interface AppDeps {
   mailbox?: Mailbox;
   /** The local fake OAuth provider, used when GitHub credentials are not configured. */
   fakeOAuth?: FakeOAuthProvider | null;
+  /** Background jobs; default a queue that can enqueue (workers start only when asked: `app.locals.startJobWorkers()`). */
+  jobs?: JobQueue;
 }
 
 /** Real GitHub when credentials are configured, else the local fake provider (dev tools only), else no sign-in. */
@@ -59,6 +65,7 @@ export function createApp(deps: AppDeps): Express {
   const logger = deps.logger ?? createLogger();
   const app = express();
   app.disable('x-powered-by');
+  app.locals.rateLimits = new RateLimitStore(deps.knex, deps.config.rateLimit.keyPrefix);
   app.set('trust proxy', 'loopback');
   app.use(requestId);
   app.use(
@@ -93,6 +100,10 @@ export function createApp(deps: AppDeps): Express {
 
   const mailbox = deps.mailbox ?? new Mailbox();
   const mailer = deps.mailer ?? (deps.config.smtpUrl ? createSmtpMailer(deps.config.smtpUrl, deps.config.mailFrom) : createInProcessMailer(mailbox, deps.config.mailFrom));
+  const jobs = deps.jobs ?? new JobQueue(deps.knex, jobOptionsFromEnv(), logger);
+  app.locals.jobs = jobs;
+  app.locals.startJobWorkers = () =>
+    jobs.startWorkers(jobHandlers({ knex: deps.knex, mailer, version: deps.config.version, publicUrl: deps.config.publicUrl, logger }), abandonRunningJobs);
   installAuth(app, { knex: deps.knex, config: deps.config, oauth: oauthSetup(deps), logger });
   // Whatever an API route answers a signed-in caller (members lists carry e-mail addresses) stays out of caches.
   app.use('/api', (req, res, next) => {
@@ -105,12 +116,14 @@ export function createApp(deps: AppDeps): Express {
   api.use(checkRequestText);
   api.use(healthRouter({ knex: deps.knex, version: deps.config.version }));
   // Stateless calculators first: they are the hottest routes and need no project lookups.
-  const computeLimit = rateLimit({
+  // Counted in memory and written to PostgreSQL once a second: no database round trip per calculation.
+  const computeLimit = rateLimited({
+    name: 'compute',
+    points: deps.config.rateLimit.compute,
     windowMs: deps.config.rateLimit.windowMs,
-    limit: deps.config.rateLimit.compute,
-    standardHeaders: 'draft-8',
-    legacyHeaders: false,
-    handler: (_req, _res, next) => next(new TooManyRequestsError('Too many calculations from this address; wait a few minutes.')),
+    keyOf: (req) => ipKeyGenerator(req.ip ?? ''),
+    message: 'Too many calculations from this address; wait a few minutes.',
+    batched: true,
   });
   api.use('/v1', computeRouter([computeLimit]));
   api.use('/v1', kineticsRouter([computeLimit]));
@@ -119,7 +132,16 @@ export function createApp(deps: AppDeps): Express {
   api.use('/v1', projectsRouter({ knex: deps.knex, config: deps.config, mailer }));
   api.use('/v1', invitationsRouter({ knex: deps.knex }));
   api.use('/v1', tokensRouter({ config: deps.config }));
-  api.use('/v1', campaignsRouter({ knex: deps.knex, version: deps.config.version }));
+  // Uploads and report builds read or write whole files: a per-user budget, counted across instances.
+  const uploadLimit = rateLimited({
+    name: 'uploads',
+    points: deps.config.rateLimit.uploads,
+    windowMs: deps.config.rateLimit.windowMs,
+    keyOf: (req) => (req.user ? `user:${req.user.id}` : ipKeyGenerator(req.ip ?? '')),
+    message: 'Too many file uploads or report builds from you; wait a few minutes and try again.',
+  });
+  api.use('/v1', campaignsRouter({ knex: deps.knex, version: deps.config.version, jobs, uploadLimit, importJobBytes: deps.config.importJobBytes }));
+  api.use('/v1', jobsRouter({ knex: deps.knex }));
   api.use('/{*splat}', notFoundHandler);
   app.use('/api', api);
 

@@ -1,3 +1,5 @@
+import { randomUUID } from 'node:crypto';
+
 /** Runtime configuration, read once from the environment. */
 export interface AppConfig {
   nodeEnv: 'development' | 'production' | 'test';
@@ -16,9 +18,14 @@ export interface AppConfig {
    * EYRIE_DEV_TOOLS=1 (set by npm start) or the test environment; never keyed off NODE_ENV alone.
    */
   devTools: boolean;
-  /** Requests allowed per client per window on the sign-in and API-token endpoints. */
-  rateLimit: { windowMs: number; signIn: number; tokens: number; compute: number };
+  /**
+   * Requests allowed per client per window on the sign-in and API-token endpoints, the calculators
+   * and file uploads (per user). Counters live in PostgreSQL under `keyPrefix`.
+   */
+  rateLimit: { windowMs: number; signIn: number; tokens: number; compute: number; uploads: number; keyPrefix: string };
   version: string;
+  /** Imports of files larger than this run as background jobs (202 and a job to poll). */
+  importJobBytes: number;
 }
 
 /** Addresses reachable only from this machine. */
@@ -71,8 +78,13 @@ export function loadConfig(overrides: Partial<AppConfig> = {}): AppConfig {
       tokens: readPositiveInt('EYRIE_TOKEN_LIMIT', 30),
       // Stateless calculators: generous for people, a brake for runaway scripts.
       compute: readPositiveInt('EYRIE_COMPUTE_LIMIT', 6000),
+      // Import previews and imports per user: each reads a whole file in a worker.
+      uploads: readPositiveInt('EYRIE_UPLOAD_LIMIT', 120),
+      // Instances of one deployment share counters; each test app gets its own so parallel test files do not.
+      keyPrefix: env.EYRIE_RATE_LIMIT_PREFIX || (nodeEnv === 'test' ? `test-${randomUUID().slice(0, 8)}` : 'eyrie'),
     },
     version: env.npm_package_version ?? '0.1.0',
+    importJobBytes: readPositiveInt('EYRIE_IMPORT_JOB_BYTES', 1024 * 1024),
     ...overrides,
   };
 }

@@ -8,6 +8,9 @@ import { Mailbox } from './features/mail/mailbox';
 import { createSmtpMailer } from './features/mail/mailer';
 import { startSmtpSink, type SmtpSink } from './features/mail/smtp-sink';
 import { startFakeOAuthProvider, type FakeOAuthProvider } from './features/auth/fake-provider';
+import { JobQueue, jobOptionsFromEnv } from './features/jobs/queue';
+import { closeReadPool } from './features/imports/parse-pool';
+import type { RateLimitStore } from './lib/rate-limit';
 
 const config = loadConfig();
 const logger = createLogger();
@@ -43,7 +46,10 @@ if (!config.github && config.devTools) {
   logger.warn('GITHUB_CLIENT_ID/GITHUB_CLIENT_SECRET are not set and dev tools are off: nobody can sign in');
 }
 
-const app = createApp({ knex, config, logger, mailer, mailbox, fakeOAuth });
+const jobs = new JobQueue(knex, jobOptionsFromEnv(), logger);
+const app = createApp({ knex, config, logger, mailer, mailbox, fakeOAuth, jobs });
+// Every instance runs background jobs; pg-boss gives each job to one of them.
+await (app.locals.startJobWorkers as () => Promise<void>)();
 
 const server: Server = app.listen(config.port, config.host);
 server.on('listening', () => {
@@ -66,8 +72,12 @@ async function shutdown(signal: string) {
   logger.info({ signal }, 'shutting down');
   const force = setTimeout(() => process.exit(1), 10_000);
   force.unref();
+  // Running jobs get a few seconds to finish; the rest go back to the queue for another instance.
+  const jobsStopped = jobs.stop(5_000);
   server.close(async () => {
-    await Promise.allSettled([smtpSink?.close(), fakeOAuth?.close()]);
+    await jobsStopped.catch((err) => logger.error({ err }, 'jobs did not stop cleanly'));
+    await (app.locals.rateLimits as RateLimitStore).flush().catch(() => undefined);
+    await Promise.allSettled([smtpSink?.close(), fakeOAuth?.close(), closeReadPool()]);
     await knex.destroy();
     process.exit(0);
   });

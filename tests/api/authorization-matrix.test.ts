@@ -14,6 +14,7 @@ import { createApiToken } from '../factories/tokens';
 import { createCampaign, createMeasurements } from '../factories/campaigns';
 import { SavedForecast } from '../../api/models/saved-forecast';
 
+
 /**
  * Every /api route × every kind of caller, with the status each must get.
  * Routes are read from the app's router: a route with no rule below fails
@@ -68,6 +69,14 @@ async function aSignedOffCampaign(c: Cell) {
   const campaign = await createCampaign(c.projectId);
   await testKnex()('campaigns').where({ id: campaign.id }).update({ signedOffAt: new Date(), signOffNote: 'matrix' });
   return { campaignId: campaign.id };
+}
+/** A finished report job of the cell's project (inserted directly: the matrix checks access, not the queue). */
+async function aJob(c: Cell) {
+  const campaign = await createCampaign(c.projectId);
+  const [job] = await testKnex()('jobs')
+    .insert({ kind: 'report', projectId: c.projectId, campaignId: campaign.id, createdByUserId: c.viewer.id, state: 'succeeded', resultFile: Buffer.from('PK'), resultFileName: 'matrix.xlsx' })
+    .returning('id');
+  return { jobId: job.id as string };
 }
 async function aMeasurement(c: Cell) {
   const campaign = await createCampaign(c.projectId);
@@ -142,6 +151,10 @@ const RULES: Record<string, Rule> = {
   'POST /api/v1/campaigns/:campaignId/sign-off': { access: 'editor', ok: 200, params: aCampaign, body: () => ({ note: 'matrix check' }) },
   'POST /api/v1/campaigns/:campaignId/reopen': { access: 'editor', ok: 200, params: aSignedOffCampaign, body: () => ({ reason: 'matrix check' }) },
   'GET /api/v1/campaigns/:campaignId/report.xlsx': { access: 'viewer', ok: 200, params: aScreen },
+  'POST /api/v1/campaigns/:campaignId/report-jobs': { access: 'viewer', ok: 202, params: aScreen },
+  'POST /api/v1/campaigns/:campaignId/report-emails': { access: 'viewer', ok: 202, params: aScreen },
+  'GET /api/v1/jobs/:jobId': { access: 'viewer', ok: 200, params: aJob },
+  'GET /api/v1/jobs/:jobId/file': { access: 'viewer', ok: 200, params: aJob },
   'PATCH /api/v1/measurements/:measurementId': { access: 'editor', ok: 200, params: aMeasurement, body: () => ({ version: 1, reason: 'matrix check', notes: 'checked' }) },
   'PUT /api/v1/measurements/:measurementId/exclusion': { access: 'editor', ok: 200, params: aMeasurement, body: () => ({ version: 1, excluded: true, reason: 'matrix check' }) },
   'DELETE /api/v1/measurements/:measurementId': { access: 'editor', ok: 204, params: aMeasurement, query: { version: '1', reason: 'matrix check' } },

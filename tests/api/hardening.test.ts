@@ -102,7 +102,7 @@ describe('transport', () => {
 
 describe('API-token management limit', () => {
   it('when a bearer token calls the token routes, then it is refused without using up its owner’s budget', async () => {
-    env = await startAuthApp({ config: { rateLimit: { windowMs: 60_000, signIn: 100, tokens: 3, compute: 100 } } });
+    env = await startAuthApp({ config: { rateLimit: { windowMs: 60_000, signIn: 100, tokens: 3, compute: 100, uploads: 100, keyPrefix: `hardening-${Date.now()}-${Math.random()}` } } });
     const owner = await createUser();
     const { secret } = await createApiToken(owner);
     for (let i = 0; i < 6; i++) await request(env.app).get('/api/v1/tokens').set('Authorization', `Bearer ${secret}`).expect(403);

@@ -4,10 +4,10 @@ import type { Logger } from 'pino';
 import connectPgSimple from 'connect-pg-simple';
 import passport from 'passport';
 import { Strategy as GitHubStrategy, type Profile, type StrategyOptions } from 'passport-github2';
-import { rateLimit, ipKeyGenerator } from 'express-rate-limit';
+import { ipKeyGenerator } from 'express-rate-limit';
 import type { Knex } from 'knex';
 import type { AppConfig } from '../../config';
-import { TooManyRequestsError } from '../../lib/errors';
+import { rateLimited } from '../../lib/rate-limit';
 import { User } from '../../models/user';
 import { bearerAuth, csrfGuard, hasBearer } from './middleware';
 import { upsertProviderUser } from './users';
@@ -40,14 +40,14 @@ function knexPoolAdapter(knex: Knex) {
   };
 }
 
+/** A limit counted in PostgreSQL (shared by all instances): per user when `byUser` and signed in, else per client address. */
 export function limiter(windowMs: number, limit: number, what: string, byUser = false): RequestHandler {
-  return rateLimit({
+  return rateLimited({
+    name: what.toLowerCase().replace(/[^a-z0-9]+/g, '-'),
+    points: limit,
     windowMs,
-    limit,
-    standardHeaders: 'draft-8',
-    legacyHeaders: false,
-    keyGenerator: (req) => (byUser && req.user ? `user:${req.user.id}` : ipKeyGenerator(req.ip ?? '')),
-    handler: (_req, _res, next) => next(new TooManyRequestsError(`Too many ${what} requests from you; wait a few minutes and try again.`)),
+    keyOf: (req) => (byUser && req.user ? `user:${req.user.id}` : ipKeyGenerator(req.ip ?? '')),
+    message: `Too many ${what} requests from you; wait a few minutes and try again.`,
   });
 }
 

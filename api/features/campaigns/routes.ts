@@ -1,4 +1,4 @@
-import { Router, type Request } from 'express';
+import { Router, type Request, type RequestHandler } from 'express';
 import type { Knex } from 'knex';
 import { z } from 'zod';
 import { BadRequestError } from '../../lib/errors';
@@ -7,10 +7,13 @@ import { authorizeProject, projectIdParam } from '../projects/policy';
 import { importUpload, jsonField, uploadedFile } from '../imports/upload';
 import { historyCsv, readHistory } from '../audit/history';
 import { importTemplateCsv, listImportFiles, readImportFile, resolveImportFileProjectId } from '../imports/files';
-import { findRepeatsOfStoredRows, importMeasurements, previewImport } from '../imports/service';
+import { importMeasurements, storedRowKeys } from '../imports/service';
+import { previewInPool } from '../imports/parse-pool';
 import { analyseCampaign, compareCampaigns, listCampaignForecasts, loadReportData, saveCampaignForecast } from './analysis';
 import { analysisQuerySchema, comparisonQuerySchema } from './analysis-schemas';
 import { buildCampaignReport, reportFileName } from './report';
+import type { JobQueue } from '../jobs/queue';
+import { jobView } from '../jobs/routes';
 import {
   campaignCreateSchema,
   campaignUpdateSchema,
@@ -108,8 +111,8 @@ const etag = (version: number) => `W/"${version}"`;
  * project comparison. Each route names its minimum role once; routes reached through a campaign,
  * measurement or forecast id resolve its project first (unknown ids are 404 for everyone).
  */
-export function campaignsRouter(deps: { knex: Knex; version: string }): Router {
-  const { knex } = deps;
+export function campaignsRouter(deps: { knex: Knex; version: string; jobs: JobQueue; uploadLimit: RequestHandler; importJobBytes: number }): Router {
+  const { knex, jobs, uploadLimit } = deps;
   const router = Router();
   const byProject = (role: 'viewer' | 'editor') => authorizeProject(role, projectIdParam);
   const byCampaign = (role: 'viewer' | 'editor') => authorizeProject(role, (req) => resolveCampaignProjectId(knex, req.params.campaignId));
@@ -185,15 +188,32 @@ export function campaignsRouter(deps: { knex: Knex; version: string }): Router {
   });
 
   // Authorization runs before the upload is read, so a caller without the role never streams a file in.
-  router.post('/campaigns/:campaignId/imports/preview', byCampaign('editor'), importUpload(), async (req, res) => {
+  router.post('/campaigns/:campaignId/imports/preview', byCampaign('editor'), uploadLimit, importUpload(), async (req, res) => {
     await getCampaign(knex, req.project!.id, campaignId(req));
-    const id = campaignId(req);
-    res.json(await previewImport(uploadedFile(req), jsonField(req, 'request', importPreviewRequestSchema), undefined, (rows) => findRepeatsOfStoredRows(knex, id, rows)));
+    // Read and checked in a worker thread (a large file never holds the event loop); the stored runs' keys go with it
+    // so the preview can warn about repeats.
+    const stored = await storedRowKeys(knex, campaignId(req));
+    res.json(await previewInPool(uploadedFile(req), jsonField(req, 'request', importPreviewRequestSchema), undefined, stored));
   });
 
-  router.post('/campaigns/:campaignId/imports', byCampaign('editor'), importUpload(), async (req, res) => {
+  router.post('/campaigns/:campaignId/imports', byCampaign('editor'), uploadLimit, importUpload(), async (req, res) => {
     const request = jsonField(req, 'request', importRequestSchema);
-    res.status(201).json(await importMeasurements(knex, actorOf(req), campaignId(req), uploadedFile(req), request));
+    const file = uploadedFile(req);
+    if (file.buffer.length > deps.importJobBytes) {
+      // A large file becomes a background job: 202 with the job to poll (its result is this route's 201 body).
+      await getCampaign(knex, req.project!.id, campaignId(req));
+      const job = await jobs.enqueue({
+        kind: 'import',
+        projectId: req.project!.id,
+        campaignId: campaignId(req),
+        userId: req.user!.id,
+        input: { fileName: file.name, request },
+        file: file.buffer,
+      });
+      res.status(202).location(`/api/v1/jobs/${job.id}`).json({ job: jobView(job) });
+      return;
+    }
+    res.status(201).json(await importMeasurements(knex, actorOf(req), campaignId(req), file, request));
   });
 
   router.get('/campaigns/:campaignId/imports/template.csv', byCampaign('viewer'), async (req, res) => {
@@ -262,6 +282,18 @@ export function campaignsRouter(deps: { knex: Knex; version: string }): Router {
     await deleteSavedForecast(knex, actorOf(req), String(req.params.forecastId));
     res.status(204).end();
   });
+
+  // The report built in the background (202 and a job; the file at /jobs/:id/file) or e-mailed to the caller.
+  for (const [path, kind] of [
+    ['/campaigns/:campaignId/report-jobs', 'report'],
+    ['/campaigns/:campaignId/report-emails', 'report-email'],
+  ] as const) {
+    router.post(path, byCampaign('viewer'), uploadLimit, async (req, res) => {
+      await getCampaign(knex, req.project!.id, campaignId(req));
+      const job = await jobs.enqueue({ kind, projectId: req.project!.id, campaignId: campaignId(req), userId: req.user!.id });
+      res.status(202).location(`/api/v1/jobs/${job.id}`).json({ job: jobView(job) });
+    });
+  }
 
   router.get('/campaigns/:campaignId/report.xlsx', byCampaign('viewer'), async (req, res) => {
     const data = await loadReportData(knex, req.project!.id, campaignId(req));

@@ -6,12 +6,15 @@
  * override it.
  */
 import ExcelJS from 'exceljs';
-import { PayloadTooLargeError } from '../../lib/errors';
+import { Readable } from 'node:stream';
+import { isMainThread } from 'node:worker_threads';
+import { AppError, PayloadTooLargeError } from '../../lib/errors';
 import type { ImportParseOptions } from '../campaigns/schemas';
 import { UnreadableFileError } from './errors';
 import { CsvError, DELIMITER_NAMES, detectDelimiter, splitDelimited, type Delimiter } from './table-text';
 
 export { detectDelimiter, type Delimiter };
+import { inspectZip, ZIP_LIMITS, type ZipLimits } from './zip-guard';
 
 export interface ImportLimits {
   /** Largest file accepted, in bytes. */
@@ -20,6 +23,8 @@ export interface ImportLimits {
   maxRows: number;
   /** Widest table accepted. */
   maxColumns: number;
+  /** Limits on a workbook's ZIP archive (default ZIP_LIMITS). */
+  zip?: ZipLimits;
 }
 
 /** Defaults sized so a 50 000-row screen fits with room to spare; the upload middleware uses maxBytes too. */
@@ -113,12 +118,27 @@ function looksLikeText(buf: Buffer): boolean {
   return control <= sample.length * 0.01;
 }
 
+/** Text files up to this size are read in the calling thread (a few milliseconds); larger ones and every workbook in a worker. */
+export const IN_THREAD_MAX_BYTES = 256 * 1024;
+
 /**
- * Read an uploaded CSV/TSV/TXT or XLSX file into a table of cells.
+ * Read an uploaded file into a table of cells: workbooks and large text files in a worker thread
+ * with a memory cap (parse-pool.ts), small text files here. Errors as for `readUpload`.
+ */
+export async function parseUpload(file: UploadedFile, options: ImportParseOptions = {}, limits: ImportLimits = IMPORT_LIMITS): Promise<ParsedTable> {
+  // Already in a reading worker (a whole preview runs there), or refused by size before any reading.
+  if (!isMainThread || file.buffer.length > limits.maxBytes) return readUpload(file, options, limits);
+  if (extensionOf(file.name) !== 'xlsx' && file.buffer.length <= IN_THREAD_MAX_BYTES) return readUpload(file, options, limits);
+  const { readInPool } = await import('./parse-pool');
+  return (await readInPool(file, options, limits)).table;
+}
+
+/**
+ * Read an uploaded CSV/TSV/TXT or XLSX file into a table of cells, in the calling thread.
  * Throws PayloadTooLargeError (413) for files or tables over the limits and UnreadableFileError (400)
  * for anything that is not a readable table; both name the file and say what to do.
  */
-export async function parseUpload(file: UploadedFile, options: ImportParseOptions = {}, limits: ImportLimits = IMPORT_LIMITS): Promise<ParsedTable> {
+export async function readUpload(file: UploadedFile, options: ImportParseOptions = {}, limits: ImportLimits = IMPORT_LIMITS): Promise<ParsedTable> {
   const { name, buffer } = file;
   if (buffer.length > limits.maxBytes) {
     throw new PayloadTooLargeError(`${name} is ${formatBytes(buffer.length)}; the largest file accepted is ${formatBytes(limits.maxBytes)}. Split it, or remove columns you do not need.`);
@@ -180,6 +200,11 @@ function parseDelimited(name: string, buffer: Buffer, options: ImportParseOption
   const detected: string[] = [];
   const { text, encoding } = decode(buffer);
   if (encoding !== 'UTF-8') detected.push(`read as ${encoding} text`);
+  const nul = text.indexOf('\0');
+  if (nul >= 0) {
+    const line = text.slice(0, nul).split(/\r\n|\n|\r/).length;
+    throw new UnreadableFileError(`${name} contains a NUL character (a zero byte) at line ${line}; a text table cannot hold one. Remove it, or export the table again.`);
+  }
   const delimiter = options.delimiter ?? detectDelimiter(text);
   if (!options.delimiter) detected.push(`${DELIMITER_NAMES[delimiter]}-separated`);
 
@@ -210,38 +235,77 @@ function cellValue(v: ExcelJS.CellValue): Cell {
   return String(v);
 }
 
+/** Rows above the data that may hold titles and the header; the streaming reader allows for them before it stops. */
+const HEAD_ROWS_ALLOWANCE = 30;
+
+/**
+ * Read one worksheet row by row with exceljs's streaming reader, after the archive has passed the
+ * ZIP checks (zip-guard.ts). Parsing stops as soon as the chosen sheet has more filled rows than
+ * the limit allows, so a million-row sheet costs the time of the first hundred thousand rows.
+ */
 async function parseWorkbook(name: string, buffer: Buffer, options: ImportParseOptions, limits: ImportLimits): Promise<ParsedTable> {
-  const workbook = new ExcelJS.Workbook();
+  await inspectZip(name, buffer, limits.zip ?? ZIP_LIMITS);
+  const unreadable = () => new UnreadableFileError(`${name} is a ZIP archive but not a readable Excel workbook (it may be another kind of document renamed .xlsx, or damaged).`);
+  const reader = new ExcelJS.stream.xlsx.WorkbookReader(Readable.from([buffer]), {
+    worksheets: 'emit',
+    sharedStrings: 'cache',
+    styles: 'cache',
+    hyperlinks: 'ignore',
+    entries: 'ignore',
+  });
+  const maxFilledRows = limits.maxRows + HEAD_ROWS_ALLOWANCE;
+  const maxRowNumber = limits.maxRows * 2 + 1000;
+  const seenSheets: string[] = [];
+  let chosen: { name: string; grid: Cell[][] } | null = null;
   try {
-    await workbook.xlsx.load(buffer as unknown as ArrayBuffer);
-  } catch {
-    throw new UnreadableFileError(`${name} is a ZIP archive but not a readable Excel workbook (it may be another kind of document renamed .xlsx, or damaged).`);
+    for await (const sheet of reader) {
+      const sheetName = (sheet as unknown as { name: string }).name;
+      seenSheets.push(sheetName);
+      const wanted = chosen === null && (options.sheet ? sheetName === options.sheet : true);
+      const grid: Cell[][] = [];
+      let filled = 0;
+      for await (const row of sheet as unknown as AsyncIterable<ExcelJS.Row>) {
+        if (!wanted) continue;
+        if (row.number > maxRowNumber) {
+          throw new PayloadTooLargeError(`${name} (worksheet "${sheetName}") has cells in row ${row.number}; at most ${limits.maxRows} data rows can be imported at once.`);
+        }
+        const values = row.values as ExcelJS.CellValue[];
+        const cells: Cell[] = [];
+        const width = Math.min(values.length - 1, limits.maxColumns + 1);
+        for (let c = 1; c <= width; c++) {
+          const cell = cellValue(values[c]);
+          if (typeof cell === 'string' && cell.includes('\0')) {
+            throw new UnreadableFileError(`${name}: cell ${columnLetter(c - 1)}${row.number} of worksheet "${sheetName}" contains a NUL character (a zero byte); remove it and save again.`);
+          }
+          cells.push(cell);
+        }
+        if (cells.every((c) => c === null)) continue;
+        filled += 1;
+        if (filled > maxFilledRows) {
+          throw new PayloadTooLargeError(`${name} (worksheet "${sheetName}") has more than ${limits.maxRows} rows; at most ${limits.maxRows} data rows can be imported at once. Split the file.`);
+        }
+        while (grid.length < row.number - 1) grid.push([]);
+        grid.push(cells);
+      }
+      if (wanted && (options.sheet || filled > 0)) {
+        chosen = { name: sheetName, grid };
+        // The chosen sheet is read; the rest of the archive is not needed.
+        break;
+      }
+    }
+  } catch (err) {
+    if (err instanceof AppError) throw err;
+    throw unreadable();
   }
-  const sheets = workbook.worksheets;
-  const sheetNames = sheets.map((s) => s.name);
-  if (sheets.length === 0) throw new UnreadableFileError(`${name} contains no worksheets.`);
-  let sheet: ExcelJS.Worksheet | undefined;
-  if (options.sheet) {
-    sheet = sheets.find((s) => s.name === options.sheet);
-    if (!sheet) throw new UnreadableFileError(`${name} has no worksheet named "${options.sheet}"; it has ${sheetNames.map((s) => `"${s}"`).join(', ')}.`);
-  } else {
-    sheet = sheets.find((s) => s.actualRowCount > 0);
-    if (!sheet) throw new UnreadableFileError(`${name} is empty: none of its worksheets has any cells filled.`);
+  const model = (reader as unknown as { model?: { sheets?: { name: string }[] } }).model;
+  const sheetNames = model?.sheets?.map((s) => s.name) ?? seenSheets;
+  if (sheetNames.length === 0) throw new UnreadableFileError(`${name} contains no worksheets.`);
+  if (!chosen) {
+    if (options.sheet) throw new UnreadableFileError(`${name} has no worksheet named "${options.sheet}"; it has ${sheetNames.map((s) => `"${s}"`).join(', ')}.`);
+    throw new UnreadableFileError(`${name} is empty: none of its worksheets has any cells filled.`);
   }
-  const rowCount = sheet.rowCount;
-  if (rowCount > limits.maxRows + 100) {
-    throw new PayloadTooLargeError(`${name} (worksheet "${sheet.name}") has ${rowCount} rows; at most ${limits.maxRows} data rows can be imported at once.`);
-  }
-  const width = sheet.columnCount;
-  const grid: Cell[][] = [];
-  for (let r = 1; r <= rowCount; r++) {
-    const row = sheet.getRow(r);
-    const cells: Cell[] = [];
-    for (let c = 1; c <= Math.min(width, limits.maxColumns + 1); c++) cells.push(cellValue(row.getCell(c).value));
-    grid.push(cells);
-  }
-  const detected = sheets.length > 1 && !options.sheet ? [`worksheet "${sheet.name}" of ${sheets.length}`] : [];
-  return finishTable(name, 'xlsx', grid, sheet.name, sheetNames, null, null, options, limits, detected);
+  const detected = sheetNames.length > 1 && !options.sheet ? [`worksheet "${chosen.name}" of ${sheetNames.length}`] : [];
+  return finishTable(name, 'xlsx', chosen.grid, chosen.name, sheetNames, null, null, options, limits, detected);
 }
 
 // ── Shared: header row, decimal separator, limits ───────────────────────────────────────────

@@ -45,8 +45,11 @@ export async function previewImport(
   file: UploadedFile,
   request: { mapping?: ImportMapping; parse?: ImportParseOptions },
   limits: ImportLimits = IMPORT_LIMITS,
-  /** Warnings for rows the campaign already holds (see findRepeatsOfStoredRows), so the preview shows them before the import asks. */
-  repeatsOf?: (rows: ImportRow[]) => Promise<ImportIssue[]>,
+  /**
+   * Keys of the rows the campaign already holds (storedRowKeys), so the preview warns about repeats before the import
+   * asks. Plain data, so the preview can run in a worker thread that has no database connection.
+   */
+  stored?: StoredRowKeys,
 ): Promise<ImportPreview> {
   const table = await parseUpload(file, request.parse ?? {}, limits);
   const suggestedMapping = guessMapping(table);
@@ -70,7 +73,7 @@ export async function previewImport(
     };
   }
   const result = validateRows(table, mapping);
-  const repeats = repeatsOf && result.errorCount === 0 ? await repeatsOf(result.rows) : [];
+  const repeats = stored && result.errorCount === 0 ? repeatsAgainst(stored, result.rows) : [];
   return {
     ...base,
     validRowCount: result.rows.length,
@@ -269,11 +272,22 @@ const describeRun = (r: StoredKeyFields) => `${r.sampleId ? `sample ${r.sampleId
  * sample id and replicate, or the same temperature and value (the same file imported twice,
  * or a run typed in and then imported).
  */
-export async function findRepeatsOfStoredRows(trx: Knex | Knex.Transaction, campaignId: string, rows: ImportRow[]): Promise<ImportIssue[]> {
+/** The keys of a campaign's stored runs: sample id + replicate, and temperature + reading. */
+export interface StoredRowKeys {
+  samples: string[];
+  readings: string[];
+}
+
+export async function storedRowKeys(trx: Knex | Knex.Transaction, campaignId: string): Promise<StoredRowKeys> {
   const stored: StoredKeyFields[] = await trx('measurements').where({ campaignId }).select('temperatureK', 'measure', 'value', 'valueB', 'sampleId', 'replicateLabel');
-  if (stored.length === 0) return [];
-  const samples = new Set(stored.map(sampleKey).filter((k): k is string => k !== null));
-  const readings = new Set(stored.map(readingKey));
+  return { samples: stored.map(sampleKey).filter((k): k is string => k !== null), readings: stored.map(readingKey) };
+}
+
+/** Warnings for rows that repeat stored runs (same sample id and replicate, or the same temperature and reading). */
+export function repeatsAgainst(stored: StoredRowKeys, rows: ImportRow[]): ImportIssue[] {
+  if (stored.samples.length === 0 && stored.readings.length === 0) return [];
+  const samples = new Set(stored.samples);
+  const readings = new Set(stored.readings);
   const issues: ImportIssue[] = [];
   let count = 0;
   for (const r of rows) {
@@ -292,6 +306,10 @@ export async function findRepeatsOfStoredRows(trx: Knex | Knex.Transaction, camp
     issues.push({ severity: 'warning', row: null, column: null, message: `${count - issues.length} more rows repeat measurements already in the campaign.` });
   }
   return issues;
+}
+
+export async function findRepeatsOfStoredRows(trx: Knex | Knex.Transaction, campaignId: string, rows: ImportRow[]): Promise<ImportIssue[]> {
+  return repeatsAgainst(await storedRowKeys(trx, campaignId), rows);
 }
 
 function mediaTypeOf(format: 'csv' | 'xlsx', name: string): string {

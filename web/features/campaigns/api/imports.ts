@@ -4,6 +4,7 @@ import { sessionKey, type SessionInfo } from '../../auth/api/get-session';
 import { postWithProgress, type UploadProgress } from '../lib/upload';
 import { campaignKeys } from './keys';
 import type { ImportPreview, ImportResult } from './types';
+import { isQueuedJob, pollJob, type QueuedJob } from './jobs';
 
 type ImportPreviewBody = Omit<ImportPreviewRequest, 'parse'> & { parse?: ImportPreviewRequest['parse'] };
 type ImportBody = Omit<ImportRequest, 'parse' | 'acknowledgeWarnings' | 'mapping'> & {
@@ -34,13 +35,26 @@ export function usePreviewImport(campaignId: string, onProgress: (p: UploadProgr
   });
 }
 
-/** POST …/imports: all rows or none; a 422 lists `issues`. */
+/**
+ * POST …/imports: all rows or none; a 422 lists `issues`. A large file is answered 202 with a
+ * background job, which is polled here until it ends (its failure carries the same `issues`).
+ */
 export function useImportFile(campaignId: string, projectId: string, onProgress: (p: UploadProgress) => void) {
   const csrf = useCsrfToken();
   const client = useQueryClient();
   return useMutation({
-    mutationFn: (v: { file: File; request: ImportBody; signal?: AbortSignal }) =>
-      postWithProgress<ImportResult>(`/api/v1/campaigns/${campaignId}/imports`, multipart(v.file, v.request), { csrfToken: csrf(), onProgress, signal: v.signal }),
+    mutationFn: async (v: { file: File; request: ImportBody; signal?: AbortSignal }) => {
+      const answer = await postWithProgress<ImportResult | QueuedJob>(`/api/v1/campaigns/${campaignId}/imports`, multipart(v.file, v.request), {
+        csrfToken: csrf(),
+        onProgress,
+        signal: v.signal,
+      });
+      if (!isQueuedJob(answer)) return answer;
+      return pollJob<ImportResult>(answer.job.id, {
+        signal: v.signal,
+        onProgress: (job) => onProgress({ loaded: 1, total: 1, phase: 'processing', stage: job.progress.stage, percent: job.progress.percent }),
+      });
+    },
     onSuccess: () =>
       Promise.all([
         client.invalidateQueries({ queryKey: campaignKeys.one(campaignId) }),

@@ -34,6 +34,14 @@ export function ProgressLine({ progress, label }: { progress: UploadProgress | n
             {progress.total ? ` of ${bytes(progress.total)}` : ''}
           </span>
         </>
+      ) : progress.stage ? (
+        <>
+          <progress className="h-2 w-48" max={100} value={progress.percent} aria-label={`${label}: work on the server`} />
+          <span>
+            Large file: working on it in the background ({progress.stage}
+            {progress.percent !== undefined ? `, ${progress.percent} %` : ''})…
+          </span>
+        </>
       ) : (
         <>
           <progress className="h-2 w-48" aria-label={`${label}: the server is reading the file`} />

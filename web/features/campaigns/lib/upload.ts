@@ -6,6 +6,9 @@ export interface UploadProgress {
   total: number;
   /** 'sending' while the body goes up, 'processing' once it is all sent and the server works on it. */
   phase: 'sending' | 'processing';
+  /** While a background job does the work: its stage in words and how far it got (0–100). */
+  stage?: string;
+  percent?: number;
 }
 
 /**

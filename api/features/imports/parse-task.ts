@@ -1,0 +1,86 @@
+/**
+ * What one worker thread of the reading pool does with one upload: read it with `readUpload`
+ * and answer with the table or the typed error as plain data (class instances do not cross
+ * threads), plus the most memory the worker's heap held meanwhile, so tests and logs can see
+ * what a hostile file cost.
+ */
+import { getHeapStatistics } from 'node:v8';
+import type { ImportMapping, ImportParseOptions } from '../campaigns/schemas';
+import type { ImportPreview, StoredRowKeys } from './service';
+import { AppError } from '../../lib/errors';
+import { readUpload, type ImportLimits, type ParsedTable } from './parse';
+
+export interface ReadTask {
+  name: string;
+  buffer: Uint8Array;
+  options: ImportParseOptions;
+  limits: ImportLimits;
+}
+
+export interface SerialisedError {
+  status: number;
+  title: string;
+  detail: string;
+  errors?: { path: string; message: string }[];
+  extra?: Record<string, unknown>;
+}
+
+export type ReadAnswer = ({ ok: true; table: ParsedTable } | { ok: false; error: SerialisedError }) & {
+  /** Largest heap plus external memory of this worker seen while reading, in bytes. */
+  peakMemoryBytes: number;
+};
+
+const heapNow = () => {
+  const h = getHeapStatistics();
+  return h.used_heap_size + h.external_memory;
+};
+
+export async function readInWorker(task: ReadTask): Promise<ReadAnswer> {
+  let peak = heapNow();
+  const sampler = setInterval(() => {
+    peak = Math.max(peak, heapNow());
+  }, 10);
+  try {
+    const buffer = Buffer.from(task.buffer.buffer, task.buffer.byteOffset, task.buffer.byteLength);
+    const table = await readUpload({ name: task.name, buffer }, task.options, task.limits);
+    return { ok: true, table, peakMemoryBytes: Math.max(peak, heapNow()) };
+  } catch (err) {
+    if (err instanceof AppError) {
+      return { ok: false, error: serialise(err), peakMemoryBytes: Math.max(peak, heapNow()) };
+    }
+    throw err;
+  } finally {
+    clearInterval(sampler);
+  }
+}
+
+function serialise(err: AppError): SerialisedError {
+  return { status: err.status, title: err.title, detail: err.message, errors: err.errors, extra: err.extra };
+}
+
+export interface PreviewTask {
+  name: string;
+  buffer: Uint8Array;
+  request: { mapping?: ImportMapping; parse?: ImportParseOptions };
+  limits: ImportLimits;
+  /** Keys of the campaign's stored runs, for the repeat warnings (plain data: the worker has no database). */
+  stored?: StoredRowKeys;
+}
+
+export type PreviewAnswer = ({ ok: true; preview: ImportPreview } | { ok: false; error: SerialisedError }) & { peakMemoryBytes: number };
+
+/**
+ * A whole import preview (read, guess the mapping, check every row) in the worker: only the
+ * small preview crosses back, so a 100 000-row file costs the event loop nothing.
+ */
+export async function previewInWorker(task: PreviewTask): Promise<PreviewAnswer> {
+  const { previewImport } = await import('./service');
+  try {
+    const buffer = Buffer.from(task.buffer.buffer, task.buffer.byteOffset, task.buffer.byteLength);
+    const preview = await previewImport({ name: task.name, buffer }, task.request, task.limits, task.stored);
+    return { ok: true, preview, peakMemoryBytes: heapNow() };
+  } catch (err) {
+    if (err instanceof AppError) return { ok: false, error: serialise(err), peakMemoryBytes: heapNow() };
+    throw err;
+  }
+}
