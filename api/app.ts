@@ -101,7 +101,7 @@ export function createApp(deps: AppDeps): Express {
   api.use('/v1', projectsRouter({ knex: deps.knex, config: deps.config, mailer }));
   api.use('/v1', invitationsRouter({ knex: deps.knex }));
   api.use('/v1', tokensRouter({ config: deps.config }));
-  api.use('/v1', campaignsRouter({ knex: deps.knex, version: deps.config.version }));
+  api.use('/v1', campaignsRouter({ knex: deps.knex, version: deps.config.version, mailer }));
   api.use('/{*splat}', notFoundHandler);
   app.use('/api', api);
 

@@ -1,10 +1,17 @@
 import nodemailer from 'nodemailer';
 import type { Mailbox } from './mailbox';
 
+export interface MailAttachment {
+  filename: string;
+  content: Buffer;
+  contentType: string;
+}
+
 export interface OutgoingMail {
   to: string;
   subject: string;
   text: string;
+  attachments?: MailAttachment[];
 }
 
 export interface Mailer {
