@@ -123,7 +123,7 @@ describe('campaign workbook', () => {
       for (const c of cellsOf(ws)) {
         if (typeof c.value === 'string') expect(c.value).not.toMatch(FLOAT_ARTEFACT);
         // Numbers keep full precision but Celsius values lose the kelvin round-trip noise.
-        if (typeof c.value === 'number' && ws.name === 'Forecast' && c.col === 1) expect(String(c.value)).not.toMatch(FLOAT_ARTEFACT);
+        if (typeof c.value === 'number' && ws.name === 'Forecast' && Number(c.col) === 1) expect(String(c.value)).not.toMatch(FLOAT_ARTEFACT);
       }
     }
     expect(fixed(-39.99999999999997, 2)).toBe('−40.00');
@@ -137,7 +137,7 @@ describe('campaign workbook', () => {
       for (const c of cellsOf(ws)) {
         expect(c.type).not.toBe(ExcelJS.ValueType.Formula);
         // XML readers turn a stored carriage return into a line feed; the apostrophe is what matters.
-        if (typeof c.value === 'string' && HOSTILE.some((h) => c.value === `'${h}` || c.value === `'${h.replace('\r', '\n')}`)) texts.push(c);
+        if (typeof c.value === 'string' && HOSTILE.some((h) => [`'${h}`, `'${h.replace('\r', '\n')}`].includes(c.value as string))) texts.push(c);
       }
     }
     expect(texts.length).toBe(HOSTILE.length);
