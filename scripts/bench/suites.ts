@@ -1,10 +1,11 @@
 /** Feature benchmark suites run by scripts/bench/run.ts after the HTTP and engine suites. */
 import { importBenchSuite } from './imports';
 import { campaignAnalysisBenchSuite } from './campaign-analysis';
+import { reportBenchSuite } from './report';
 
 export interface BenchSuite {
   name: string;
   run(): Promise<void>;
 }
 
-export const extraSuites: BenchSuite[] = [importBenchSuite, campaignAnalysisBenchSuite];
+export const extraSuites: BenchSuite[] = [importBenchSuite, campaignAnalysisBenchSuite, reportBenchSuite];

@@ -70,16 +70,26 @@ function setCell(cell: ExcelJS.Cell, value: Cell | UserText) {
   }
 }
 
+/**
+ * A sheet with one header row and a row per item. Columns that hold user text are formatted as
+ * Text as a whole (cells added later inherit the column's format), so a row costs one addRow.
+ */
 function addTable(wb: ExcelJS.Workbook, model: ReportModel, name: string, columns: Column[], rows: Iterable<(Cell | UserText)[]>): ExcelJS.Worksheet {
   const ws = wb.addWorksheet(name, { views: [{ state: 'frozen', ySplit: 1 }] });
-  ws.columns = columns.map((c) => ({ header: c.header, width: c.width, style: c.numFmt ? { numFmt: c.numFmt } : {} }));
+  const textColumns = new Set<number>();
+  const first = rows[Symbol.iterator]();
+  let next = first.next();
+  if (!next.done) next.value.forEach((v, i) => v instanceof UserText && textColumns.add(i));
+  ws.columns = columns.map((c, i) => ({ header: c.header, width: c.width, style: textColumns.has(i) ? { numFmt: TEXT_FMT } : c.numFmt ? { numFmt: c.numFmt } : {} }));
   styleHeader(ws.getRow(1));
   // Room for headers wrapped over up to three lines.
   ws.getRow(1).height = 45;
-  let r = 2;
-  for (const values of rows) {
-    const row = ws.getRow(r++);
-    values.forEach((v, i) => setCell(row.getCell(i + 1), v));
+  for (; !next.done; next = first.next()) {
+    const values = next.value;
+    const row = ws.addRow(values.map((v) => (v instanceof UserText ? safeText(v.text) : v)));
+    values.forEach((v, i) => {
+      if (v instanceof UserText && !textColumns.has(i)) row.getCell(i + 1).numFmt = TEXT_FMT;
+    });
   }
   printSetup(ws, model, '1:1');
   return ws;
