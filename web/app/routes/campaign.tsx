@@ -43,9 +43,20 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
         </span>
       }
       actions={
-        <a className="rounded border border-slate-300 bg-white px-3 py-1.5 text-sm font-medium text-ink-800 hover:bg-slate-50" href={paths.campaignReport.getHref(campaign.id)} download>
-          <span aria-hidden="true">⤓ </span>Download spreadsheet report
-        </a>
+        <span className="flex flex-wrap items-center gap-2">
+          <a className="rounded border border-slate-300 bg-white px-3 py-1.5 text-sm font-medium text-ink-800 hover:bg-slate-50" href={paths.campaignReport.getHref(campaign.id)} download>
+            <span aria-hidden="true">⤓ </span>Download spreadsheet report
+          </a>
+          <a className="text-sm text-fjord-700 underline" href={paths.campaignReportPdf.getHref(campaign.id)} download>
+            Summary PDF
+          </a>
+          <a className="text-sm text-fjord-700 underline" href={paths.campaignMeasurementsCsv.getHref(campaign.id)} download>
+            Runs CSV
+          </a>
+          <a className="text-sm text-fjord-700 underline" href={paths.campaignForecastCsv.getHref(campaign.id)} download>
+            Forecast CSV
+          </a>
+        </span>
       }
     >
       <div className="flex flex-col gap-4">
