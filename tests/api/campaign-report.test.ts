@@ -2,7 +2,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type request from 'supertest';
 import ExcelJS from 'exceljs';
 import { randomBytes } from 'node:crypto';
-import { closeTestKnex } from '../support/db';
+import { closeTestKnex, testKnex } from '../support/db';
+import { REPORT_MAIL_LIMIT } from '../../api/features/campaigns/routes';
 import { signIn, startAuthApp, type AuthTestApp } from '../support/auth';
 import { createUser } from '../factories/users';
 import { createProject } from '../factories/projects';
@@ -141,6 +142,18 @@ describe('campaign exports', () => {
     expect(empty.status).toBe(400);
     expect(empty.body.errors.map((e: { path: string }) => e.path).sort()).toEqual(['attach.0', 'recipients']);
     expect(env.mailbox.list().length).toBe(before);
+  });
+
+  it('when one person sends more report e-mails than the window allows, then the next is 429', async () => {
+    const id = await drScreen();
+    const sender = await createUser();
+    await testKnex()('projectMembers').insert({ projectId: project.id, userId: sender.id, role: 'viewer' });
+    const s = await signIn(env.app, { login: sender.login, name: sender.displayName ?? sender.login, email: sender.email! });
+    const send = () => s.agent.post(`/api/v1/campaigns/${id}/report/email`).set('X-CSRF-Token', s.csrfToken).send({ recipients: [] });
+    for (let i = 0; i < REPORT_MAIL_LIMIT.limit; i++) expect((await send()).status).toBe(400);
+    const limited = await send();
+    expect(limited.status).toBe(429);
+    expect(limited.body.detail).toContain('report e-mail');
   });
 
   it('when an outsider asks for any export, then it is 404', async () => {

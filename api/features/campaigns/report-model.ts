@@ -204,9 +204,12 @@ export function buildReportModel(data: ReportData, meta: ReportMeta): ReportMode
       const pi = p.predictionInterval;
       const r = readSelectivity(p.ratio, sel.ratio);
       const meets = spec.lnRatio === null ? '' : Math.log(p.ratio) >= spec.lnRatio ? '; the forecast meets the specification' : '; the forecast falls short of the specification';
-      const piText = pi ? ` (${level} % prediction interval ${readSelectivity(pi.ratio[0], sel.ratio).ratioText} to ${readSelectivity(pi.ratio[1], sel.ratio).ratioText})` : '';
+      const headline =
+        labels.family === 'enantiomers'
+          ? `${fixed(p.eePercent, sel.percent)} % ee (er ${r.ratioText})${pi ? ` (${level} % prediction interval ${fixed(pi.eePercent[0], sel.percent)} to ${fixed(pi.eePercent[1], sel.percent)} % ee)` : ''}`
+          : `${r.ratioText}${labels.family === 'ratio' ? ' A:B' : ''}${pi ? ` (${level} % prediction interval ${readSelectivity(pi.ratio[0], sel.ratio).ratioText} to ${readSelectivity(pi.ratio[1], sel.ratio).ratioText})` : ''}`;
       add({ section: 'Forecast', label: 'Proposed temperature', value: Math.round(p.celsius * 1e9) / 1e9, decimals: 1, unit: '°C', name: 'Proposed_T_C' });
-      add({ section: 'Forecast', label: `Forecast ${labels.word}`, value: `${r.ratioText}${piText}${p.extrapolated ? '; outside the screened range' : ''}${meets}` });
+      add({ section: 'Forecast', label: `Forecast ${labels.word}`, value: `${headline}${p.extrapolated ? '; outside the screened range' : ''}${meets}` });
       add({ section: 'Forecast', label: `Forecast ${labels.ratio}`, value: p.ratio, decimals: sel.ratio, interval: pi ? pi.ratio : null, unit: 'A/B', name: 'Forecast_ratio' });
       if (labels.excess) add({ section: 'Forecast', label: `Forecast ${labels.excess}`, value: p.eePercent, decimals: sel.percent, interval: pi ? pi.eePercent : null, unit: '%', name: 'Forecast_excess_percent' });
       add({ section: 'Forecast', label: `Forecast ${labels.major}`, value: Math.max(p.percentA, 100 - p.percentA), decimals: sel.percent, interval: pi ? (p.percentA >= 50 ? pi.percentA : [100 - pi.percentA[1], 100 - pi.percentA[0]]) : null, unit: '%', name: 'Forecast_major_percent' });

@@ -233,3 +233,26 @@ describe('campaign workbook', () => {
     90_000,
   );
 });
+
+describe('measures in the report', () => {
+  it('when an ee campaign is exported, then it reads ee and er and never de or dr', async () => {
+    const data = demoReportData(12);
+    const campaign = { ...data.campaign, measure: 'ee', defaultUncertainty: 0.2 } as typeof data.campaign;
+    const model = buildReportModel({ ...data, campaign, specification: { measure: 'ee', minimum: 95 } }, demoMeta);
+    const headline = model.summary.find((l) => l.label === 'Forecast ee')!.value as string;
+    // ±0.2 percentage points → one decimal [C].
+    expect(headline).toMatch(/^\d+\.\d % ee \(er \d+\.\d:1\) \(95 % prediction interval \d+\.\d to \d+\.\d % ee\)/);
+    expect(model.specificationText).toBe('ee ≥ 95.0 %');
+    const text = model.summary.map((l) => `${l.label} ${String(l.value)}`).join('\n');
+    expect(text).not.toMatch(/\b(de|dr)\b/);
+  });
+
+  it('when a plain-ratio campaign is exported, then no excess column appears', () => {
+    const data = demoReportData(12);
+    const campaign = { ...data.campaign, measure: 'ratio' } as typeof data.campaign;
+    const model = buildReportModel({ ...data, campaign, specification: null }, demoMeta);
+    expect(model.labels.excess).toBeNull();
+    expect(model.specificationText).toBe('no specification set');
+    expect(measurementsCsv(model).split('\r\n')[0]).not.toMatch(/ee|de \(%\)/);
+  });
+});
