@@ -52,10 +52,10 @@ export interface SummaryLine {
   section: string;
   label: string;
   value: SummaryValue;
+  /** Decimals shown for the value, its SE and its interval. */
   decimals?: number;
   se?: number | null;
   interval?: [number, number] | null;
-  /** Decimals of SE and interval when they differ from the value's. */
   unit?: string;
   /** A defined name for the value cell in the workbook. */
   name?: string;

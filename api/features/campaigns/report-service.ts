@@ -6,6 +6,7 @@
 import type { Knex } from 'knex';
 import { z } from 'zod';
 import { BadRequestError } from '../../lib/errors';
+import { CELSIUS_OFFSET_K } from '../../science';
 import { Project } from '../../models/project';
 import { User } from '../../models/user';
 import type { Mailer } from '../mail/mailer';
@@ -45,7 +46,7 @@ export type ReportMailRequest = z.infer<typeof reportMailSchema>;
 export async function loadCampaignReportData(db: Knex, projectId: string, campaignId: string, options: { atC?: number } = {}): Promise<ReportData> {
   const data = await loadReportData(db, projectId, campaignId);
   const project = await Project.query(db).findById(projectId);
-  return { ...data, project: project ? { name: project.name } : null, ...(options.atC === undefined ? {} : { proposedK: options.atC + 273.15 }) };
+  return { ...data, project: project ? { name: project.name } : null, ...(options.atC === undefined ? {} : { proposedK: options.atC + CELSIUS_OFFSET_K }) };
 }
 
 export interface PreparedReport {

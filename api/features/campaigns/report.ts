@@ -7,7 +7,7 @@
  */
 import ExcelJS from 'exceljs';
 import { kelvinToCelsius } from '../../science';
-import { measureLabels, numFmt, readSelectivity, safeFileName, safeText } from './report-format';
+import { numFmt, readSelectivity, safeFileName, safeText } from './report-format';
 import { buildReportModel, type ReportData, type ReportMeta, type ReportModel } from './report-model';
 import { renderReportCharts, type ReportCharts } from './report-charts';
 
@@ -358,4 +358,3 @@ export async function buildCampaignReport(data: ReportData, meta: ReportMeta, pr
   return Buffer.from(out as ArrayBuffer);
 }
 
-export { buildReportModel, measureLabels };
