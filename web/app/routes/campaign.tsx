@@ -12,6 +12,7 @@ import { CampaignAnalysis } from '../../features/campaigns/components/campaign-a
 import { CampaignHeader } from '../../features/campaigns/components/campaign-header';
 import { ForecastPanel, SavedForecasts } from '../../features/campaigns/components/forecast-panel';
 import { MeasurementGrid } from '../../features/campaigns/components/measurement-grid';
+import { ReportMailForm } from '../../features/campaigns/components/report-mail-form';
 import { UploadWizard } from '../../features/campaigns/components/upload-wizard';
 import { useProject } from '../../features/projects/api/projects';
 
@@ -94,6 +95,9 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
         </Panel>
         <Panel title="Saved forecasts">
           <SavedForecasts campaignId={campaign.id} canEdit={canEdit} />
+        </Panel>
+        <Panel title="E-mail the report">
+          <ReportMailForm campaignId={campaign.id} projectId={campaign.projectId} />
         </Panel>
 
         <Panel title={`Measurements${measurements.data ? ` (${measurements.data.length})` : ''}`}>
