@@ -5,7 +5,7 @@
  */
 import { createRequire } from 'node:module';
 import path from 'node:path';
-import { Resvg } from '@resvg/resvg-js';
+import { Resvg, renderAsync, type ResvgRenderOptions } from '@resvg/resvg-js';
 import { fixed } from './report-format';
 import type { ReportModel } from './report-model';
 
@@ -253,6 +253,11 @@ function svg(parts: string[]): string {
   return `<svg xmlns="http://www.w3.org/2000/svg" width="${CHART_WIDTH}" height="${CHART_HEIGHT}" viewBox="0 0 ${CHART_WIDTH} ${CHART_HEIGHT}" font-family="${FONT_FAMILY}">${parts.join('')}</svg>`;
 }
 
+const renderOptions = (scale: number): ResvgRenderOptions => ({
+  fitTo: { mode: 'width', value: CHART_WIDTH * scale },
+  font: { fontFiles: REPORT_FONT_FILES, loadSystemFonts: false, defaultFontFamily: FONT_FAMILY },
+});
+
 /**
  * SVG → PNG at `scale` times the drawing size, with the shipped fonts only. 1.5× gives 1080 px,
  * twice the width the workbook shows it at. Every series lies inside the axes by construction
@@ -260,11 +265,7 @@ function svg(parts: string[]): string {
  * resvg's work.
  */
 export function renderPng(svgText: string, scale = 1.5): Buffer {
-  const resvg = new Resvg(svgText, {
-    fitTo: { mode: 'width', value: CHART_WIDTH * scale },
-    font: { fontFiles: REPORT_FONT_FILES, loadSystemFonts: false, defaultFontFamily: FONT_FAMILY },
-  });
-  return Buffer.from(resvg.render().asPng());
+  return Buffer.from(new Resvg(svgText, renderOptions(scale)).render().asPng());
 }
 
 export interface ReportCharts {
@@ -272,8 +273,17 @@ export interface ReportCharts {
   selectivity: Buffer;
 }
 
+const hasCharts = (model: ReportModel) => Boolean(model.fit) && model.data.analysis.curve.length >= 2;
+
 /** Both charts as PNG, or null when there is no fit to draw. */
 export function renderReportCharts(model: ReportModel): ReportCharts | null {
-  if (!model.fit || model.data.analysis.curve.length < 2) return null;
+  if (!hasCharts(model)) return null;
   return { eyring: renderPng(eyringChartSvg(model)), selectivity: renderPng(selectivityChartSvg(model)) };
+}
+
+/** As `renderReportCharts`, rasterised on libuv's thread pool so the caller can build sheets meanwhile. */
+export async function renderReportChartsAsync(model: ReportModel, scale = 1.5): Promise<ReportCharts | null> {
+  if (!hasCharts(model)) return null;
+  const [eyring, selectivity] = await Promise.all([renderAsync(eyringChartSvg(model), renderOptions(scale)), renderAsync(selectivityChartSvg(model), renderOptions(scale))]);
+  return { eyring: Buffer.from(eyring.asPng()), selectivity: Buffer.from(selectivity.asPng()) };
 }

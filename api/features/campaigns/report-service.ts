@@ -12,7 +12,7 @@ import { User } from '../../models/user';
 import type { Mailer } from '../mail/mailer';
 import { loadReportData } from './analysis';
 import { buildCampaignReport, reportFileName } from './report';
-import { renderReportCharts, type ReportCharts } from './report-charts';
+import { renderReportChartsAsync, type ReportCharts } from './report-charts';
 import { fixed, readSelectivity, safeText } from './report-format';
 import { buildReportModel, summaryLineText, type ReportData, type ReportMeta, type ReportModel } from './report-model';
 import { buildCampaignReportPdf } from './report-pdf';
@@ -54,9 +54,10 @@ export interface PreparedReport {
   charts: ReportCharts | null;
 }
 
-export function prepareReport(data: ReportData, meta: ReportMeta): PreparedReport {
+/** The report model and its chart images (rendered off the event loop). */
+export async function prepareReport(data: ReportData, meta: ReportMeta): Promise<PreparedReport> {
   const model = buildReportModel(data, meta);
-  return { model, charts: renderReportCharts(model) };
+  return { model, charts: await renderReportChartsAsync(model) };
 }
 
 export const xlsxOf = (p: PreparedReport) => buildCampaignReport(p.model.data, p.model.meta, p);
@@ -170,7 +171,7 @@ export async function sendCampaignReport(
   if (errors.length) throw new BadRequestError('Every recipient must be a member of the project with an e-mail address; nothing was sent.', errors);
 
   const data = await loadCampaignReportData(db, projectId, campaignId, request.at === undefined ? {} : { atC: request.at });
-  const prepared = prepareReport(data, meta);
+  const prepared = await prepareReport(data, meta);
   const title = data.campaign.title;
   const attachments = [];
   if (request.attach.includes('xlsx')) attachments.push({ filename: reportFileName(title), content: await xlsxOf(prepared), contentType: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet' });

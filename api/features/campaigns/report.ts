@@ -9,7 +9,7 @@ import ExcelJS from 'exceljs';
 import { kelvinToCelsius } from '../../science';
 import { numFmt, readSelectivity, safeFileName, safeText } from './report-format';
 import { buildReportModel, type ReportData, type ReportMeta, type ReportModel } from './report-model';
-import { renderReportCharts, type ReportCharts } from './report-charts';
+import { renderReportChartsAsync, type ReportCharts } from './report-charts';
 
 export type { ReportData, ReportMeta, ReportSpecification } from './report-model';
 
@@ -147,8 +147,7 @@ function addSummary(wb: ExcelJS.Workbook, model: ReportModel) {
   return ws;
 }
 
-function addCharts(wb: ExcelJS.Workbook, model: ReportModel, charts: ReportCharts) {
-  const ws = wb.addWorksheet('Charts', { views: [{ showGridLines: false }] });
+function addCharts(wb: ExcelJS.Workbook, ws: ExcelJS.Worksheet, model: ReportModel, charts: ReportCharts) {
   ws.getCell('A1').value = 'Charts drawn from the same data and fit as the Summary (bands at the stated level).';
   ws.getCell('A1').font = { italic: true };
   ws.columns = Array.from({ length: 16 }, () => ({ width: 10 }));
@@ -339,22 +338,28 @@ export function reportFileName(title: string, suffix = 'report.xlsx'): string {
   return safeFileName(title, suffix);
 }
 
-/** The workbook as a buffer. Pure apart from rendering: no database, no clock. */
+/**
+ * The workbook as a buffer. Pure apart from rendering: no database, no clock. Without prepared
+ * charts, they are rasterised on the thread pool while the sheets are built.
+ */
 export async function buildCampaignReport(data: ReportData, meta: ReportMeta, prepared?: { model?: ReportModel; charts?: ReportCharts | null }): Promise<Buffer> {
   const model = prepared?.model ?? buildReportModel(data, meta);
-  const charts = prepared?.charts !== undefined ? prepared.charts : renderReportCharts(model);
+  const pending = prepared?.charts !== undefined ? Promise.resolve(prepared.charts) : renderReportChartsAsync(model);
   const wb = new ExcelJS.Workbook();
   wb.creator = 'Eyrie';
   wb.created = meta.generatedAt;
   wb.title = `${data.campaign.title}: selectivity report`;
 
   addSummary(wb, model);
-  if (charts) addCharts(wb, model, charts);
+  // The sheet is made now so it stays second; its images arrive when rendering is done.
+  const chartSheet = model.fit && data.analysis.curve.length >= 2 ? wb.addWorksheet('Charts', { views: [{ showGridLines: false }] }) : null;
   addMeasurements(wb, model);
   addFit(wb, model);
   addForecast(wb, model);
+  const charts = await pending;
+  if (chartSheet && charts) addCharts(wb, chartSheet, model, charts);
+  else if (chartSheet) wb.removeWorksheet(chartSheet.id);
 
   const out = await wb.xlsx.writeBuffer();
   return Buffer.from(out as ArrayBuffer);
 }
-
