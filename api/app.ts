@@ -140,7 +140,7 @@ export function createApp(deps: AppDeps): Express {
     keyOf: (req) => (req.user ? `user:${req.user.id}` : ipKeyGenerator(req.ip ?? '')),
     message: 'Too many file uploads or report builds from you; wait a few minutes and try again.',
   });
-  api.use('/v1', campaignsRouter({ knex: deps.knex, version: deps.config.version, jobs, uploadLimit, importJobBytes: deps.config.importJobBytes }));
+  api.use('/v1', campaignsRouter({ knex: deps.knex, version: deps.config.version, jobs, uploadLimit, importJobBytes: deps.config.importJobBytes, mailer }));
   api.use('/v1', jobsRouter({ knex: deps.knex }));
   api.use('/{*splat}', notFoundHandler);
   app.use('/api', api);

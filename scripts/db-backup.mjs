@@ -29,6 +29,32 @@ function run(tool, args, url) {
   if (r.status !== 0) throw new FriendlyError(`${tool} failed (exit code ${r.status}); see the messages above.`);
 }
 
+/**
+ * Restore `file` into the database at `url` in one transaction. pg_restore --clean cannot drop the job queue's
+ * partitioned tables (their partitions' inherited constraints), so the dump's schemas are dropped whole first and the
+ * dump's script then runs through psql with --single-transaction: a restore that fails leaves the database as it was.
+ */
+function restore(file, url) {
+  const { bin } = findPgBin();
+  const conn = splitPassword(url);
+  const env = { ...process.env, PGPASSWORD: conn.password, PGCONNECT_TIMEOUT: '10' };
+  const toc = spawnSync(path.join(bin, 'pg_restore'), ['--list', file], { encoding: 'utf8', maxBuffer: 1 << 28 });
+  if (toc.status !== 0) throw new FriendlyError(`pg_restore could not read ${file}: ${(toc.stderr || '').trim()}`);
+  const schemas = new Set(['public']);
+  for (const m of toc.stdout.matchAll(/^\d+; \d+ \d+ SCHEMA - (\S+) /gm)) schemas.add(m[1]);
+  const script = spawnSync(path.join(bin, 'pg_restore'), ['--no-owner', '--no-privileges', '--file=-', file], { maxBuffer: 1 << 30 });
+  if (script.status !== 0) throw new FriendlyError(`pg_restore could not read ${file}: ${String(script.stderr).trim()}`);
+  const prelude = [...schemas].map((s) => `DROP SCHEMA IF EXISTS "${s.replace(/"/g, '""')}" CASCADE;`).join('\n') + '\nCREATE SCHEMA IF NOT EXISTS public;\n';
+  const r = spawnSync(path.join(bin, 'psql'), ['-X', '-q', '-v', 'ON_ERROR_STOP=1', '--single-transaction', `--dbname=${conn.url}`], {
+    input: Buffer.concat([Buffer.from(prelude), script.stdout]),
+    stdio: ['pipe', 'ignore', 'inherit'],
+    env,
+    maxBuffer: 1 << 30,
+  });
+  if (r.error) throw r.error;
+  if (r.status !== 0) throw new FriendlyError(`the restore failed (psql exit code ${r.status}); see the messages above. The database was left as it was.`);
+}
+
 const stamp = () => new Date().toISOString().replace(/[-:]/g, '').replace('T', '-').slice(0, 15);
 
 let cluster = null;
@@ -50,7 +76,7 @@ try {
     const file = path.resolve(fileArg);
     if (!existsSync(file)) throw new FriendlyError(`no backup at ${file}`);
     // One transaction: a restore that fails half-way leaves the database as it was.
-    run('pg_restore', ['--clean', '--if-exists', '--no-owner', '--no-privileges', '--single-transaction', '--exit-on-error', file], url);
+    restore(file, url);
     log(`restored ${file}. Restart Eyrie (npm start) so no process keeps rows it read before the restore.`);
   }
 } catch (err) {

@@ -2,10 +2,11 @@
 import { importBenchSuite } from './imports';
 import { campaignAnalysisBenchSuite } from './campaign-analysis';
 import { uploadBombsBenchSuite } from './upload-bombs';
+import { reportBenchSuite } from './report';
 
 export interface BenchSuite {
   name: string;
   run(): Promise<void>;
 }
 
-export const extraSuites: BenchSuite[] = [importBenchSuite, campaignAnalysisBenchSuite, uploadBombsBenchSuite];
+export const extraSuites: BenchSuite[] = [importBenchSuite, campaignAnalysisBenchSuite, uploadBombsBenchSuite, reportBenchSuite];

@@ -155,6 +155,11 @@ const RULES: Record<string, Rule> = {
   'POST /api/v1/campaigns/:campaignId/report-emails': { access: 'viewer', ok: 202, params: aScreen },
   'GET /api/v1/jobs/:jobId': { access: 'viewer', ok: 200, params: aJob },
   'GET /api/v1/jobs/:jobId/file': { access: 'viewer', ok: 200, params: aJob },
+  'GET /api/v1/campaigns/:campaignId/report.pdf': { access: 'viewer', ok: 200, params: aScreen },
+  'GET /api/v1/campaigns/:campaignId/measurements.csv': { access: 'viewer', ok: 200, params: aScreen },
+  'GET /api/v1/campaigns/:campaignId/forecast.csv': { access: 'viewer', ok: 200, params: aScreen },
+  // Viewers may send the report too; callers who pass authorization with no recipient meet the body's 400.
+  'POST /api/v1/campaigns/:campaignId/report/email': { access: 'viewer', ok: 400, params: aScreen, body: () => ({ recipients: [] }) },
   'PATCH /api/v1/measurements/:measurementId': { access: 'editor', ok: 200, params: aMeasurement, body: () => ({ version: 1, reason: 'matrix check', notes: 'checked' }) },
   'PUT /api/v1/measurements/:measurementId/exclusion': { access: 'editor', ok: 200, params: aMeasurement, body: () => ({ version: 1, excluded: true, reason: 'matrix check' }) },
   'DELETE /api/v1/measurements/:measurementId': { access: 'editor', ok: 204, params: aMeasurement, query: { version: '1', reason: 'matrix check' } },

@@ -1,6 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
-import ExcelJS from 'exceljs';
 import { randomBytes } from 'node:crypto';
 import { closeTestKnex, testKnex } from '../support/db';
 import { signIn, startAuthApp, type AuthTestApp } from '../support/auth';
@@ -509,55 +508,6 @@ describe('saved forecasts', () => {
     expect(res.status).toBe(422);
     expect(res.body.errors[0].path).toBe('temperature');
     expect(await count('savedForecasts', { campaignId: c.id })).toBe(0);
-  });
-});
-
-describe('spreadsheet report', () => {
-  it('when the report is downloaded, then it parses back and its ΔΔH‡ cell equals the analysis value', async () => {
-    const c = await newCampaign({ defaultUncertainty: 0.3 });
-    await addRuns(c.id, screen([-50, -30, -10, 10, 30]));
-    await as('editor').post(`/api/v1/campaigns/${c.id}/forecasts`).send({ temperature: C(-40) }).expect(201);
-    const analysis = (await as('viewer').get(`/api/v1/campaigns/${c.id}/analysis`).expect(200)).body;
-
-    const res = await as('viewer')
-      .get(`/api/v1/campaigns/${c.id}/report.xlsx`)
-      .buffer(true)
-      .parse((r, done) => {
-        const chunks: Buffer[] = [];
-        r.on('data', (d: Buffer) => chunks.push(d));
-        r.on('end', () => done(null, Buffer.concat(chunks)));
-      })
-      .expect(200);
-    expect(res.headers['content-disposition']).toMatch(/^attachment; filename="?eyrie-Route-screen-[0-9a-f]{6}-report\.xlsx"?$/);
-    const wb = new ExcelJS.Workbook();
-    await wb.xlsx.load(res.body as unknown as ArrayBuffer);
-    expect(wb.worksheets.map((w) => w.name)).toEqual(['Summary', 'Measurements', 'Forecast', 'Saved forecasts']);
-
-    const summary = wb.getWorksheet('Summary')!;
-    const rowOf = (label: string) => {
-      let found: ExcelJS.Row | undefined;
-      summary.eachRow((row) => {
-        if (row.getCell(1).value === label) found = row;
-      });
-      if (!found) throw new Error(`no row "${label}"`);
-      return found;
-    };
-    expect(rowOf('ΔΔH‡ (kJ/mol)').getCell(2).value).toBe(analysis.fit.ddH['kJ/mol']);
-    expect(rowOf('ΔΔH‡ (kJ/mol)').getCell(3).value).toBe(analysis.fit.ddH.se['kJ/mol']);
-    expect(rowOf('ΔΔS‡ (cal/(mol·K))').getCell(2).value).toBe(analysis.fit.ddS['cal/(mol*K)']);
-    expect(rowOf('Runs fitted, n').getCell(2).value).toBe(5);
-    expect(String(rowOf('Sign convention').getCell(2).value)).toContain('X‡(TS→B) − X‡(TS→A)');
-    expect(String(rowOf('Caution').getCell(2).value)).toContain('process-safety');
-    expect(summary.views[0]).toMatchObject({ state: 'frozen', ySplit: 1 });
-
-    const measurements = wb.getWorksheet('Measurements')!;
-    expect(measurements.rowCount).toBe(1 + 5);
-    expect(measurements.getRow(1).getCell(3).value).toBe('T (K)');
-    expect(measurements.getRow(2).getCell(3).value).toBe(223.15);
-    const forecast = wb.getWorksheet('Forecast')!;
-    expect(forecast.rowCount).toBe(1 + 60);
-    expect(forecast.getRow(2).getCell(3).value).toBe(analysis.curve[0].eePercent);
-    expect(wb.getWorksheet('Saved forecasts')!.rowCount).toBe(2);
   });
 });
 

@@ -175,6 +175,10 @@ describe('campaign pages in Chromium', () => {
     await page.getByRole('button', { name: 'Forecast', exact: true }).click();
     await expect.poll(() => page.getByRole('region', { name: 'Prediction at the proposed temperature' }).textContent(), { timeout: 15_000 }).toContain('At −10.0 °C');
     expect(await page.getByRole('button', { name: /^Save forecast/ }).count()).toBe(0);
+    // Viewers may send the report to chosen members.
+    await page.getByRole('checkbox', { name: 'Edda Editor' }).check();
+    await page.getByRole('button', { name: 'Send the report' }).click();
+    await expect.poll(() => page.getByRole('status').filter({ hasText: 'Sent to' }).textContent(), { timeout: 30_000 }).toContain(editorId.email);
     await maybeScreenshot(page, 'campaigns-campaign-viewer');
     await page.goto(`${baseUrl}/projects/${project.id}`);
     await expect.poll(() => page.getByRole('table', { name: 'Campaigns of the project' }).isVisible()).toBe(true);

@@ -10,6 +10,10 @@ export const paths = {
   campaign: { path: '/campaigns/:campaignId', getHref: (campaignId: string) => `/campaigns/${campaignId}` },
   /** Served by the API server: the campaign's spreadsheet report (a download, not a page). */
   campaignReport: { path: '/api/v1/campaigns/:campaignId/report.xlsx', getHref: (campaignId: string) => `/api/v1/campaigns/${campaignId}/report.xlsx` },
+  /** Served by the API server: the summary and charts as a PDF, and the runs and forecast grid as CSV. */
+  campaignReportPdf: { path: '/api/v1/campaigns/:campaignId/report.pdf', getHref: (campaignId: string) => `/api/v1/campaigns/${campaignId}/report.pdf` },
+  campaignMeasurementsCsv: { path: '/api/v1/campaigns/:campaignId/measurements.csv', getHref: (campaignId: string) => `/api/v1/campaigns/${campaignId}/measurements.csv` },
+  campaignForecastCsv: { path: '/api/v1/campaigns/:campaignId/forecast.csv', getHref: (campaignId: string) => `/api/v1/campaigns/${campaignId}/forecast.csv` },
   projectSettings: { path: '/projects/:projectId/settings', getHref: (projectId: string) => `/projects/${projectId}/settings` },
   projectHistory: { path: '/projects/:projectId/history', getHref: (projectId: string) => `/projects/${projectId}/history` },
   tokens: { path: '/settings/tokens', getHref: () => '/settings/tokens' },

@@ -106,7 +106,7 @@ type AnalysedCampaign = Pick<Campaign, 'id' | 'version' | 'measure' | 'defaultUn
  * defaults (new run: median of the runs' own or default uncertainties in the campaign measure;
  * limit: 99.8 % ee). A limit that does not suit the measure is a 400 naming the field.
  */
-function assaySettings(campaign: AnalysedCampaign, measurements: readonly Measurement[], options: AnalysisOptions): Pick<FitOptions, 'newRun' | 'newRunOrigin' | 'quantitationLimit'> {
+export function assaySettings(campaign: AnalysedCampaign, measurements: readonly Measurement[], options: AnalysisOptions): Pick<FitOptions, 'newRun' | 'newRunOrigin' | 'quantitationLimit'> {
   const limitValue = options.quantitationLimitValue ?? campaign.quantitationLimit ?? null;
   let quantitationLimit: FitOptions['quantitationLimit'];
   if (limitValue !== null) {

@@ -2,6 +2,7 @@ import { z } from 'zod';
 import type { OpenApiRegistrar } from '../../lib/openapi';
 import { problemResponses } from '../../lib/openapi';
 import { analysisQuerySchema, analysisResponseSchema, comparisonQuerySchema, comparisonResponseSchema, savedForecastListSchema, savedForecastViewSchema } from './analysis-schemas';
+import { reportMailSchema } from './report-service';
 import { campaignCreateSchema, campaignReopenSchema, campaignSignOffSchema, campaignUpdateSchema, measurementCreateSchema, measurementUpdateSchema, savedForecastCreateSchema } from './schemas';
 
 const campaignIdParams = z.object({ campaignId: z.string().uuid() });
@@ -57,16 +58,61 @@ export const registerCampaigns: OpenApiRegistrar = (registry) => {
     request: { params: z.object({ projectId: z.string().uuid() }), query: comparisonQuerySchema },
     responses: { 200: { description: 'One entry per campaign', content: { 'application/json': { schema: comparisonResponseSchema } } }, ...problemResponses(400, 401, 404) },
   });
+  const reportQuery = z.object({ at: z.number().optional().meta({ description: 'Temperature (°C) to forecast at; omitted → the newest saved forecast' }) });
+  const binary = z.string().meta({ format: 'binary' });
   registry.registerPath({
     method: 'get',
     path: '/api/v1/campaigns/{campaignId}/report.xlsx',
     tags: ['Campaigns'],
-    summary: 'Spreadsheet report: Summary, Measurements, Forecast, Saved forecasts',
+    summary: 'Workbook: Summary (one printed page), Charts, Measurements, Fit, Forecast (every 5 °C plus saved forecasts)',
+    description: 'Numbers stay numbers with formats from the assay precision; key results carry defined names (ddH_kJ_per_mol, ddS_J_per_mol_K, Forecast_ratio, Runs_fitted, …). Needs viewer.',
+    security: signedIn,
+    request: { params: campaignIdParams, query: reportQuery },
+    responses: {
+      200: { description: 'An .xlsx workbook', content: { 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet': { schema: binary } } },
+      ...problemResponses(400, 401, 404),
+    },
+  });
+  registry.registerPath({
+    method: 'get',
+    path: '/api/v1/campaigns/{campaignId}/report.pdf',
+    tags: ['Campaigns'],
+    summary: "The workbook's summary and charts as a PDF",
+    security: signedIn,
+    request: { params: campaignIdParams, query: reportQuery },
+    responses: { 200: { description: 'A PDF', content: { 'application/pdf': { schema: binary } } }, ...problemResponses(400, 401, 404) },
+  });
+  registry.registerPath({
+    method: 'get',
+    path: '/api/v1/campaigns/{campaignId}/measurements.csv',
+    tags: ['Campaigns'],
+    summary: 'The stored runs with ln r, the campaign measure and status as CSV (UTF-8 with BOM)',
     security: signedIn,
     request: { params: campaignIdParams },
+    responses: { 200: { description: 'CSV', content: { 'text/csv': { schema: z.string() } } }, ...problemResponses(401, 404) },
+  });
+  registry.registerPath({
+    method: 'get',
+    path: '/api/v1/campaigns/{campaignId}/forecast.csv',
+    tags: ['Campaigns'],
+    summary: 'Forecast every 5 °C over the screened range, plus saved forecasts and ?at=, as CSV',
+    security: signedIn,
+    request: { params: campaignIdParams, query: reportQuery },
+    responses: { 200: { description: 'CSV', content: { 'text/csv': { schema: z.string() } } }, ...problemResponses(400, 401, 404) },
+  });
+  registry.registerPath({
+    method: 'post',
+    path: '/api/v1/campaigns/{campaignId}/report/email',
+    tags: ['Campaigns'],
+    summary: 'E-mail the workbook and/or PDF to chosen project members (viewers may send; rate limited per user)',
+    security: signedIn,
+    request: { params: campaignIdParams, body: { content: { 'application/json': { schema: reportMailSchema } } } },
     responses: {
-      200: { description: 'An .xlsx workbook', content: { 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet': { schema: z.string().meta({ format: 'binary' }) } } },
-      ...problemResponses(401, 404),
+      200: {
+        description: 'Sent',
+        content: { 'application/json': { schema: z.object({ sentTo: z.array(z.object({ userId: z.string(), email: z.string() })), attachments: z.array(z.string()) }) } },
+      },
+      ...problemResponses(400, 401, 403, 404, 429),
     },
   });
   registry.registerPath({

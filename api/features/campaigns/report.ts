@@ -1,42 +1,33 @@
 /**
- * The campaign's spreadsheet report: Summary, Measurements, Forecast (the fitted curve with its
- * prediction interval) and Saved forecasts. Every header names its unit; numbers stay numbers
- * (with display formats), so the workbook can be recomputed from.
+ * The campaign's workbook: Summary (one printed page), Charts (server-rendered images), then
+ * Measurements, Fit and Forecast. Numbers stay numbers with display formats chosen from the
+ * assay's precision; every header names its unit; key results carry defined names; every sheet
+ * is set up to print landscape, fitted to the page width, with its header row repeated.
+ * User text that a spreadsheet could evaluate is neutralised (see `safeText`).
  */
 import ExcelJS from 'exceljs';
-import type { Campaign } from '../../models/campaign';
-import type { Measurement } from '../../models/measurement';
-import type { AnalysisResponse, SavedForecastView } from './analysis-schemas';
-import { SELECTIVITY_CAUTION } from '../../lib/cautions';
-import { fromSeconds } from '../../science/quantities';
+import { kelvinToCelsius } from '../../science';
+import { numFmt, readSelectivity, safeFileName, safeText } from './report-format';
+import { buildReportModel, type ReportData, type ReportMeta, type ReportModel } from './report-model';
+import { renderReportChartsAsync, type ReportCharts } from './report-charts';
 
-export interface ReportData {
-  campaign: Campaign;
-  measurements: Measurement[];
-  analysis: AnalysisResponse;
-  forecasts: SavedForecastView[];
-}
-
-const FMT = {
-  energy: '0.00',
-  entropy: '0.0',
-  kelvin: '0.00',
-  celsius: '0.0',
-  percent: '0.00',
-  ln: '0.0000',
-  ratio: '0.00',
-  stat: '0.000',
-  integer: '0',
-  time: 'yyyy-mm-dd hh:mm:ss',
-} as const;
+export type { ReportData, ReportMeta, ReportSpecification } from './report-model';
 
 const HEADER_FILL: ExcelJS.Fill = { type: 'pattern', pattern: 'solid', fgColor: { argb: 'FFE6E9EF' } };
+const SECTION_FILL: ExcelJS.Fill = { type: 'pattern', pattern: 'solid', fgColor: { argb: 'FFECFDFB' } };
+const TIME_FMT = 'yyyy-mm-dd hh:mm';
+const TEXT_FMT = '@';
 
-function styleHeader(row: ExcelJS.Row) {
-  row.font = { bold: true };
-  row.fill = HEADER_FILL;
-  row.alignment = { vertical: 'middle', wrapText: true };
+/** Drop the last-bit noise of a kelvin round trip: −40.00000000000003 → −40. */
+const clean = (x: number) => Math.round(x * 1e9) / 1e9;
+
+type Cell = string | number | boolean | Date | null;
+
+/** A cell that holds user text: neutralised and formatted as Text, so re-entering it keeps it text. */
+class UserText {
+  constructor(readonly text: string | null) {}
 }
+const user = (text: string | null | undefined) => new UserText(text ?? null);
 
 interface Column {
   header: string;
@@ -44,242 +35,330 @@ interface Column {
   numFmt?: string;
 }
 
-function addTable(wb: ExcelJS.Workbook, name: string, columns: Column[], rows: (string | number | boolean | Date | null)[][]): ExcelJS.Worksheet {
+function styleHeader(row: ExcelJS.Row) {
+  row.font = { bold: true };
+  row.fill = HEADER_FILL;
+  row.alignment = { vertical: 'middle', wrapText: true };
+}
+
+/** Escape `&` for the header/footer codes and keep the text short. */
+const hfText = (s: string) => s.replace(/&/g, '&&').slice(0, 80);
+
+function printSetup(ws: ExcelJS.Worksheet, model: ReportModel, titleRows: string | undefined, onePage = false) {
+  ws.pageSetup = {
+    orientation: 'landscape',
+    paperSize: 9,
+    fitToPage: true,
+    fitToWidth: 1,
+    fitToHeight: onePage ? 1 : 0,
+    horizontalCentered: false,
+    margins: { left: 0.5, right: 0.5, top: 0.7, bottom: 0.7, header: 0.3, footer: 0.3 },
+    ...(titleRows ? { printTitlesRow: titleRows } : {}),
+  };
+  ws.headerFooter = {
+    oddHeader: `&L&B${hfText(model.data.campaign.title)}&B&R${hfText(ws.name)}`,
+    oddFooter: `&LEyrie ${hfText(model.meta.appVersion)}&CPage &P of &N&R${model.meta.generatedAt.toISOString().slice(0, 10)}`,
+  };
+}
+
+function setCell(cell: ExcelJS.Cell, value: Cell | UserText) {
+  if (value instanceof UserText) {
+    cell.value = safeText(value.text);
+    cell.numFmt = TEXT_FMT;
+  } else {
+    cell.value = value;
+  }
+}
+
+/**
+ * A sheet with one header row and a row per item. Columns that hold user text are formatted as
+ * Text as a whole (cells added later inherit the column's format), so a row costs one addRow.
+ */
+function addTable(wb: ExcelJS.Workbook, model: ReportModel, name: string, columns: Column[], rows: Iterable<(Cell | UserText)[]>): ExcelJS.Worksheet {
   const ws = wb.addWorksheet(name, { views: [{ state: 'frozen', ySplit: 1 }] });
-  ws.columns = columns.map((c) => ({ header: c.header, width: c.width, style: c.numFmt ? { numFmt: c.numFmt } : {} }));
+  const textColumns = new Set<number>();
+  const first = rows[Symbol.iterator]();
+  let next = first.next();
+  if (!next.done) next.value.forEach((v, i) => v instanceof UserText && textColumns.add(i));
+  ws.columns = columns.map((c, i) => ({ header: c.header, width: c.width, style: textColumns.has(i) ? { numFmt: TEXT_FMT } : c.numFmt ? { numFmt: c.numFmt } : {} }));
   styleHeader(ws.getRow(1));
-  for (const r of rows) ws.addRow(r);
+  // Room for headers wrapped over up to three lines.
+  ws.getRow(1).height = 45;
+  for (; !next.done; next = first.next()) {
+    const values = next.value;
+    const row = ws.addRow(values.map((v) => (v instanceof UserText ? safeText(v.text) : v)));
+    values.forEach((v, i) => {
+      if (v instanceof UserText && !textColumns.has(i)) row.getCell(i + 1).numFmt = TEXT_FMT;
+    });
+  }
+  printSetup(ws, model, '1:1');
   return ws;
 }
 
-const ASSAY_NAMES: Record<string, string> = { 'chiral-hplc': 'chiral HPLC', 'chiral-sfc': 'chiral SFC', 'chiral-gc': 'chiral GC', nmr: 'NMR', other: 'other' };
-
-/** Summary rows: label, value, SE, CI low, CI high, unit. */
-function summaryRows(data: ReportData, meta: { appVersion: string; generatedAt: Date }): (string | number | Date | null)[][] {
-  const { campaign, analysis } = data;
-  const fit = analysis.fit;
-  const rows: (string | number | Date | null)[][] = [
-    ['Campaign', campaign.title, null, null, null, null],
-    ['Product A (numerator of r)', campaign.productNameA, null, null, null, null],
-    ['Product B', campaign.productNameB, null, null, null, null],
-    ['Reported measure', campaign.measure, null, null, null, null],
-    ['Assay method', ASSAY_NAMES[campaign.assayMethod] ?? campaign.assayMethod, null, null, null, null],
-    ['Default assay uncertainty (units of the measure)', campaign.defaultUncertainty, null, null, null, null],
-    ['Sign convention', `${analysis.convention}. Much of the literature uses the opposite sign (A minus B).`, null, null, null, null],
+function addSummary(wb: ExcelJS.Workbook, model: ReportModel) {
+  const ws = wb.addWorksheet('Summary', { views: [{ state: 'frozen', ySplit: 1, showGridLines: false }] });
+  ws.columns = [
+    { header: 'Item', width: 31 },
+    { header: 'Value', width: 70 },
+    { header: 'Standard error', width: 13 },
+    { header: 'Interval low', width: 13 },
+    { header: 'Interval high', width: 13 },
+    { header: 'Unit', width: 12 },
   ];
-  if (!fit) {
-    rows.push(['Fit', `No fit: ${analysis.problem?.message ?? 'not enough data'}`, null, null, null, null]);
-  } else {
-    const ci = fit.confidence * 100;
-    rows.push(
-      ['Fit', `${fit.weighting === 'none' ? 'Unweighted' : 'Weighted'} least squares of ln r on 1/T; intervals at ${ci} % confidence`, null, null, null, null],
-      ['ΔΔH‡ (kJ/mol)', fit.ddH['kJ/mol'], fit.ddH.se?.['kJ/mol'] ?? null, fit.ddH.ci?.['kJ/mol'][0] ?? null, fit.ddH.ci?.['kJ/mol'][1] ?? null, 'kJ/mol'],
-      ['ΔΔH‡ (kcal/mol)', fit.ddH['kcal/mol'], fit.ddH.se?.['kcal/mol'] ?? null, fit.ddH.ci?.['kcal/mol'][0] ?? null, fit.ddH.ci?.['kcal/mol'][1] ?? null, 'kcal/mol'],
-      ['ΔΔS‡ (J/(mol·K))', fit.ddS['J/(mol*K)'], fit.ddS.se?.['J/(mol*K)'] ?? null, fit.ddS.ci?.['J/(mol*K)'][0] ?? null, fit.ddS.ci?.['J/(mol*K)'][1] ?? null, 'J/(mol·K)'],
-      ['ΔΔS‡ (cal/(mol·K))', fit.ddS['cal/(mol*K)'], fit.ddS.se?.['cal/(mol*K)'] ?? null, fit.ddS.ci?.['cal/(mol*K)'][0] ?? null, fit.ddS.ci?.['cal/(mol*K)'][1] ?? null, 'cal/(mol·K)'],
-      ['Correlation of ΔΔH‡ and ΔΔS‡ (−)', fit.correlation, null, null, null, '−'],
-      ['ΔΔG‡ at 25 °C (kJ/mol)', fit.ddGAt25C['kJ/mol'], fit.ddGAt25C.se?.['kJ/mol'] ?? null, fit.ddGAt25C.ci?.['kJ/mol'][0] ?? null, fit.ddGAt25C.ci?.['kJ/mol'][1] ?? null, 'kJ/mol'],
-      ['ΔΔG‡ at 25 °C (kcal/mol)', fit.ddGAt25C['kcal/mol'], fit.ddGAt25C.se?.['kcal/mol'] ?? null, fit.ddGAt25C.ci?.['kcal/mol'][0] ?? null, fit.ddGAt25C.ci?.['kcal/mol'][1] ?? null, 'kcal/mol'],
-      ['R² (−)', fit.rSquared, null, null, null, '−'],
-      ['Runs fitted, n', fit.n, null, null, null, 'runs'],
-      ['Degrees of freedom', fit.dof, null, null, null, '−'],
-      ['Fitted range (K)', fit.temperatureRange.minKelvin, null, null, fit.temperatureRange.maxKelvin, 'K'],
-    );
-    for (const w of fit.warnings) rows.push(['Warning', w.message, null, null, null, null]);
-    rows.push(...curvatureRows(fit.twoBranch));
-  }
-  rows.push(
-    ['Caution', SELECTIVITY_CAUTION, null, null, null, null],
-    ['Generated (UTC)', meta.generatedAt, null, null, null, null],
-    ['Eyrie version', meta.appVersion, null, null, null, null],
-  );
-  return rows;
-}
-
-type Row = (string | number | Date | null)[];
-
-/** Curvature rows; a break temperature row only when a break is accepted, an isoinversion only when claimed. */
-function curvatureRows(tb: NonNullable<AnalysisResponse['fit']>['twoBranch']): Row[] {
-  if (!tb.checked) return [['Curvature check', tb.note, null, null, null, null]];
-  const rows: Row[] = [
-    ['Curvature check', tb.preferred === 'two-branch' ? 'Two branches meeting at a break describe the data better than one line; forecasts use them' : 'One straight line is adequate', null, null, null, null],
-    ['Break test p (sup-F, simulated) (−)', tb.breakTest.p, null, null, null, '−'],
-  ];
-  if (tb.lackOfFit) rows.push(['Lack-of-fit F test of one line, p (−)', tb.lackOfFit.p, null, null, null, '−']);
-  if (tb.break && tb.low && tb.high) {
-    const name = tb.claim === 'isoinversion' ? `Isoinversion temperature, where r has a ${tb.extremum} (°C)` : 'Change of slope at (°C)';
-    rows.push(
-      [name, tb.break.celsius, null, tb.break.ci?.celsius[0] ?? null, tb.break.ci?.celsius[1] ?? null, '°C'],
-      ['Low-temperature branch ΔΔH‡ (kJ/mol)', tb.low.ddH['kJ/mol'], tb.low.ddH.se?.['kJ/mol'] ?? null, null, null, 'kJ/mol'],
-      ['High-temperature branch ΔΔH‡ (kJ/mol)', tb.high.ddH['kJ/mol'], tb.high.ddH.se?.['kJ/mol'] ?? null, null, null, 'kJ/mol'],
-    );
-  }
-  rows.push(['Curvature note', tb.note, null, null, null, null]);
-  return rows;
-}
-
-/** Which model a forecast came from (snapshots saved before the segmented model have neither field). */
-function modelLabel(p: { model?: string; branch?: 'low' | 'high' | null }): string {
-  if (p.model !== 'segmented') return 'one line';
-  return p.branch === 'low' ? 'two branches: low-temperature branch' : 'two branches: high-temperature branch';
-}
-
-export function reportFileName(title: string): string {
-  const slug = title.normalize('NFKD').replace(/[^\w\s-]/g, '').trim().replace(/\s+/g, '-').slice(0, 60) || 'campaign';
-  return `eyrie-${slug}-report.xlsx`;
-}
-
-export async function buildCampaignReport(data: ReportData, meta: { appVersion: string; generatedAt: Date }): Promise<Buffer> {
-  const wb = new ExcelJS.Workbook();
-  wb.creator = 'Eyrie';
-  wb.created = meta.generatedAt;
-
-  const summary = addTable(
-    wb,
-    'Summary',
-    [
-      { header: 'Quantity', width: 42 },
-      { header: 'Value', width: 60 },
-      { header: 'Standard error', width: 16 },
-      { header: 'CI low', width: 14 },
-      { header: 'CI high', width: 14 },
-      { header: 'Unit', width: 14 },
-    ],
-    summaryRows(data, meta),
-  );
-  summary.eachRow((row, i) => {
-    if (i === 1) return;
-    const unit = String(row.getCell(6).value ?? '');
-    const fmt = unit.includes('J/(mol') || unit.includes('cal/(mol') ? FMT.entropy : unit.endsWith('/mol') ? FMT.energy : unit === 'K' ? FMT.kelvin : unit === '°C' ? FMT.celsius : unit === '−' ? FMT.stat : unit === 'runs' ? FMT.integer : undefined;
-    for (const c of [2, 3, 4, 5]) {
-      const cell = row.getCell(c);
-      if (cell.value instanceof Date) cell.numFmt = FMT.time;
-      else if (fmt && typeof cell.value === 'number') cell.numFmt = fmt;
+  styleHeader(ws.getRow(1));
+  let section = '';
+  let r = 2;
+  for (const line of model.summary) {
+    if (line.section !== section) {
+      section = line.section;
+      const head = ws.getRow(r++);
+      head.getCell(1).value = section;
+      head.font = { bold: true };
+      for (let c = 1; c <= 6; c++) head.getCell(c).fill = SECTION_FILL;
     }
-    row.getCell(2).alignment = { wrapText: true, vertical: 'top' };
-  });
+    const row = ws.getRow(r);
+    row.getCell(1).value = line.label;
+    const v = line.value;
+    const value = row.getCell(2);
+    if (typeof v === 'string') setCell(value, user(v));
+    else {
+      value.value = v;
+      if (v instanceof Date) value.numFmt = TIME_FMT;
+      else if (typeof v === 'number') value.numFmt = numFmt(line.decimals ?? 2);
+      value.alignment = { horizontal: 'left' };
+    }
+    if (typeof v === 'number') {
+      const fmt = numFmt(line.decimals ?? 2);
+      if (line.se !== undefined && line.se !== null) Object.assign(row.getCell(3), { value: line.se, numFmt: fmt });
+      if (line.interval) {
+        Object.assign(row.getCell(4), { value: line.interval[0], numFmt: fmt });
+        Object.assign(row.getCell(5), { value: line.interval[1], numFmt: fmt });
+      }
+    }
+    if (line.unit) row.getCell(6).value = line.unit;
+    value.alignment = { ...value.alignment, wrapText: true, vertical: 'top' };
+    row.getCell(1).alignment = { vertical: 'top' };
+    // Wrapped text needs its height set: about 95 characters fit on a line of the Value column.
+    if (typeof v === 'string' && v.length > 90) row.height = 15 * Math.ceil(v.length / 90);
+    if (line.name) wb.definedNames.add(`'Summary'!$B$${r}`, line.name);
+    r++;
+  }
+  printSetup(ws, model, '1:1', true);
+  return ws;
+}
 
-  const residuals = data.analysis.fit?.residuals ?? [];
-  addTable(
-    wb,
-    'Measurements',
-    [
-      { header: 'Sample', width: 14 },
-      { header: 'Replicate', width: 10 },
-      { header: 'T (K)', width: 10, numFmt: FMT.kelvin },
-      { header: 'T (°C)', width: 10, numFmt: FMT.celsius },
-      { header: 'Measure', width: 10 },
-      { header: 'Value (as reported; er/dr: A part)', width: 16, numFmt: '0.00' },
-      { header: 'Value B part (er/dr)', width: 12, numFmt: '0.00' },
-      { header: 'Lower bound (≥)', width: 10 },
-      { header: 'Uncertainty (units of the measure)', width: 16, numFmt: '0.00' },
-      { header: 'ln r (−)', width: 10, numFmt: FMT.ln },
-      { header: 'ee (%)', width: 10, numFmt: FMT.percent },
-      { header: 'Residual (ln r)', width: 12, numFmt: FMT.ln },
-      { header: 'Studentized residual (−)', width: 12, numFmt: '0.00' },
-      { header: 'Status', width: 10 },
-      { header: 'Flags', width: 20 },
-      { header: 'Exclusion reason', width: 30 },
-      { header: 'Conversion (%)', width: 12, numFmt: '0.0' },
-      { header: 'Reaction time (h)', width: 12, numFmt: '0.00' },
-      { header: 'Notes', width: 30 },
-      { header: 'Model', width: 28 },
-    ],
-    data.measurements.map((m, i) => {
+function addCharts(wb: ExcelJS.Workbook, ws: ExcelJS.Worksheet, model: ReportModel, charts: ReportCharts) {
+  ws.getCell('A1').value = 'Charts drawn from the same data and fit as the Summary (bands at the stated level).';
+  ws.getCell('A1').font = { italic: true };
+  ws.columns = Array.from({ length: 16 }, () => ({ width: 10 }));
+  const eyring = wb.addImage({ buffer: charts.eyring as unknown as ExcelJS.Buffer, extension: 'png' });
+  const selectivity = wb.addImage({ buffer: charts.selectivity as unknown as ExcelJS.Buffer, extension: 'png' });
+  ws.addImage(eyring, { tl: { col: 0, row: 2 }, ext: { width: 540, height: 315 } });
+  ws.addImage(selectivity, { tl: { col: 8, row: 2 }, ext: { width: 540, height: 315 } });
+  printSetup(ws, model, undefined, true);
+  ws.pageSetup.printArea = 'A1:P22';
+}
+
+function addMeasurements(wb: ExcelJS.Workbook, model: ReportModel) {
+  const { data, decimals: d, labels } = model;
+  const pct = numFmt(d.percent);
+  const columns: Column[] = [
+    { header: 'Sample', width: 14 },
+    { header: 'Replicate', width: 10 },
+    { header: 'T (°C)', width: 9, numFmt: numFmt(d.celsius) },
+    { header: 'T (K)', width: 9, numFmt: numFmt(d.kelvin) },
+    { header: 'Reported as', width: 9 },
+    { header: 'Value as reported (A part for a:b)', width: 14, numFmt: 'General' },
+    { header: 'B part (a:b)', width: 9, numFmt: 'General' },
+    { header: 'At least (bound)', width: 9 },
+    { header: 'Assay SD (units of the measure)', width: 12, numFmt: 'General' },
+    { header: `${labels.ratio.replace(' (A:B)', '')} A:B (−)`, width: 10, numFmt: numFmt(d.ratio) },
+    ...(labels.excess ? [{ header: labels.excess, width: 9, numFmt: pct }] : []),
+    { header: labels.major, width: 11, numFmt: pct },
+    { header: 'ln r (−)', width: 9, numFmt: numFmt(d.ln) },
+    { header: 'Status', width: 10 },
+    { header: 'Exclusion reason', width: 26 },
+    { header: 'Conversion (%)', width: 10, numFmt: '0.0' },
+    { header: 'Time (h)', width: 8, numFmt: '0.00' },
+    { header: 'Notes', width: 28 },
+  ];
+  function* rows() {
+    for (let i = 0; i < data.measurements.length; i++) {
+      const m = data.measurements[i]!;
       const p = data.analysis.points[i]!;
-      const r = residuals[i];
-      return [
-        m.sampleId,
-        m.replicateLabel,
+      const ratio = Math.exp(p.lnRatio);
+      const reading = readSelectivity(ratio, d.ratio);
+      yield [
+        user(m.sampleId),
+        user(m.replicateLabel),
+        clean(p.celsius),
         m.temperatureK,
-        p.celsius,
         m.measure,
         m.value,
         m.valueB,
         m.isLowerBound ? 'yes' : 'no',
         m.uncertainty,
+        ratio,
+        ...(labels.excess ? [reading.excessPercent] : []),
+        reading.majorPercent,
         p.lnRatio,
-        p.eePercent,
-        r?.residual ?? null,
-        r?.studentized ?? null,
         p.status,
-        r ? r.flags.filter((f) => !f.startsWith('excluded:')).join(', ') : '',
-        p.exclusionReason,
+        user(m.excluded ? (m.excludedReason ?? 'no reason given') : null),
         m.conversionPercent,
-        m.reactionTimeS === null ? null : fromSeconds(m.reactionTimeS, 'h'),
-        m.notes,
-      ];
-    }),
-  );
+        m.reactionTimeS === null ? null : m.reactionTimeS / 3600,
+        user(m.notes),
+      ] as (Cell | UserText)[];
+    }
+  }
+  addTable(wb, model, 'Measurements', columns, rows());
+}
 
-  const level = Math.round((data.analysis.fit?.confidence ?? 0.95) * 100);
-  addTable(
-    wb,
-    'Forecast',
-    [
-      { header: 'T (K)', width: 10, numFmt: FMT.kelvin },
-      { header: 'T (°C)', width: 10, numFmt: FMT.celsius },
-      { header: 'ee (%)', width: 10, numFmt: FMT.percent },
-      { header: 'A (%)', width: 10, numFmt: FMT.percent },
-      { header: 'Ratio A/B (−)', width: 12, numFmt: FMT.ratio },
-      { header: 'ΔΔG‡ (kJ/mol)', width: 12, numFmt: FMT.energy },
-      { header: `${level} % prediction interval, ee low (%)`, width: 16, numFmt: FMT.percent },
-      { header: `${level} % prediction interval, ee high (%)`, width: 16, numFmt: FMT.percent },
-      { header: `${level} % prediction interval, ratio low (−)`, width: 16, numFmt: FMT.ratio },
-      { header: `${level} % prediction interval, ratio high (−)`, width: 16, numFmt: FMT.ratio },
-      { header: 'Extrapolated', width: 12 },
-      { header: 'Model', width: 28 },
-    ],
-    data.analysis.curve.map((p) => [
-      p.kelvin,
-      p.celsius,
-      p.eePercent,
-      p.percentA,
-      p.ratio,
-      p.ddG['kJ/mol'],
-      p.predictionInterval?.eePercent[0] ?? null,
-      p.predictionInterval?.eePercent[1] ?? null,
-      p.predictionInterval?.ratio[0] ?? null,
-      p.predictionInterval?.ratio[1] ?? null,
-      p.extrapolated ? 'yes' : 'no',
-      modelLabel(p),
-    ]),
-  );
+function addFit(wb: ExcelJS.Workbook, model: ReportModel) {
+  const fit = model.fit;
+  const ws = wb.addWorksheet('Fit', { views: [{ state: 'frozen', ySplit: 1 }] });
+  ws.columns = [
+    { header: 'Quantity', width: 30 },
+    { header: 'Estimate', width: 13 },
+    { header: 'Standard error', width: 13 },
+    { header: 'Interval low', width: 13 },
+    { header: 'Interval high', width: 13 },
+    { header: 'Unit', width: 12 },
+    { header: '', width: 12 },
+    { header: '', width: 14 },
+    { header: '', width: 24 },
+  ];
+  styleHeader(ws.getRow(1));
+  if (!fit) {
+    ws.getCell('A2').value = `No fit: ${model.data.analysis.problem?.message ?? 'not enough data'}`;
+    printSetup(ws, model, '1:1');
+    return;
+  }
+  const d = model.decimals;
+  const rows: [string, number | null, number | null, [number, number] | null, string, string][] = [
+    ['Slope of ln r on 1/T', fit.slope, fit.covariance ? Math.sqrt(fit.covariance.slopeSlope) : null, null, 'K', '0.0'],
+    ['Intercept of ln r', fit.intercept, fit.covariance ? Math.sqrt(fit.covariance.interceptIntercept) : null, null, '−', '0.0000'],
+    ['ΔΔH‡', fit.ddH['kJ/mol'], fit.ddH.se?.['kJ/mol'] ?? null, fit.ddH.ci?.['kJ/mol'] ?? null, 'kJ/mol', numFmt(d.ddH)],
+    ['ΔΔS‡', fit.ddS['J/(mol*K)'], fit.ddS.se?.['J/(mol*K)'] ?? null, fit.ddS.ci?.['J/(mol*K)'] ?? null, 'J/(mol·K)', numFmt(d.ddS)],
+    ['ΔΔG‡ at 25 °C', fit.ddGAt25C['kJ/mol'], fit.ddGAt25C.se?.['kJ/mol'] ?? null, fit.ddGAt25C.ci?.['kJ/mol'] ?? null, 'kJ/mol', numFmt(d.ddH)],
+    ['Correlation of ΔΔH‡ and ΔΔS‡', fit.correlation, null, null, '−', '0.000'],
+    ['R²', fit.rSquared, null, null, '−', '0.0000'],
+    ['Residual SD of ln r', fit.residualSD, null, null, '−', '0.0000'],
+    ['Runs fitted', fit.n, null, null, 'runs', '0'],
+    ['Degrees of freedom', fit.dof, null, null, '−', '0'],
+    ['Covariance slope·slope', fit.covariance?.slopeSlope ?? null, null, null, 'K²', '0.00E+00'],
+    ['Covariance slope·intercept', fit.covariance?.slopeIntercept ?? null, null, null, 'K', '0.00E+00'],
+    ['Covariance intercept·intercept', fit.covariance?.interceptIntercept ?? null, null, null, '−', '0.00E+00'],
+  ];
+  let r = 2;
+  for (const [label, value, se, ci, unit, fmt] of rows) {
+    const row = ws.getRow(r++);
+    row.getCell(1).value = label;
+    for (const [c, v] of [
+      [2, value],
+      [3, se],
+      [4, ci?.[0] ?? null],
+      [5, ci?.[1] ?? null],
+    ] as const) {
+      if (v === null) continue;
+      Object.assign(row.getCell(c), { value: v, numFmt: fmt });
+    }
+    row.getCell(6).value = unit;
+  }
+  r++;
+  const head = ws.getRow(r++);
+  ['Residuals: T (°C)', 'ln r (−)', 'Fitted ln r (−)', 'Residual (−)', 'Studentized (−)', 'Leverage (−)', "Cook's distance (−)", 'Status', 'Flags'].forEach((h, i) => (head.getCell(i + 1).value = h));
+  styleHeader(head);
+  for (const res of fit.residuals) {
+    const row = ws.getRow(r++);
+    const values: [number | string | null, string][] = [
+      [clean(kelvinToCelsius(res.kelvin)), '0.0'],
+      [res.lnRatio, '0.0000'],
+      [res.fitted, '0.0000'],
+      [res.residual, '0.0000'],
+      [res.studentized, '0.00'],
+      [res.leverage, '0.000'],
+      [res.cooksDistance, '0.000'],
+      [res.status, '@'],
+      [res.flags.join(', '), '@'],
+    ];
+    values.forEach(([v, fmt], i) => {
+      if (v === null) return;
+      Object.assign(row.getCell(i + 1), { value: v, numFmt: fmt });
+    });
+  }
+  printSetup(ws, model, '1:1');
+}
 
-  addTable(
-    wb,
-    'Saved forecasts',
-    [
-      { header: 'Saved (UTC)', width: 20, numFmt: FMT.time },
-      { header: 'By', width: 16 },
-      { header: 'Label', width: 20 },
-      { header: 'T (K)', width: 10, numFmt: FMT.kelvin },
-      { header: 'T (°C)', width: 10, numFmt: FMT.celsius },
-      { header: 'Forecast ee (%)', width: 12, numFmt: FMT.percent },
-      { header: 'Prediction interval, ee low (%)', width: 14, numFmt: FMT.percent },
-      { header: 'Prediction interval, ee high (%)', width: 14, numFmt: FMT.percent },
-      { header: 'Forecast ratio A/B (−)', width: 12, numFmt: FMT.ratio },
-      { header: 'Runs measured within ±1 K (count)', width: 14, numFmt: FMT.integer },
-      { header: 'Of those inside the prediction interval (count)', width: 16, numFmt: FMT.integer },
-      { header: 'Notes', width: 30 },
-      { header: 'Model', width: 28 },
-    ],
-    data.forecasts.map((f) => [
-      new Date(f.createdAt),
-      f.createdBy?.displayName ?? f.createdBy?.login ?? null,
-      f.label,
-      f.temperatureK,
-      f.celsius,
-      f.result.eePercent,
-      f.result.predictionInterval?.eePercent[0] ?? null,
-      f.result.predictionInterval?.eePercent[1] ?? null,
-      f.result.ratio,
-      f.measured.length,
-      f.measured.filter((m) => m.insidePredictionInterval === true).length,
-      f.notes,
-      modelLabel(f.result),
-    ]),
-  );
+function addForecast(wb: ExcelJS.Workbook, model: ReportModel) {
+  const { decimals: d, labels, level } = model;
+  const pct = numFmt(d.percent);
+  const ratio = numFmt(d.ratio);
+  const columns: Column[] = [
+    { header: 'T (°C)', width: 9, numFmt: numFmt(d.celsius) },
+    { header: 'T (K)', width: 9, numFmt: numFmt(d.kelvin) },
+    { header: 'Row', width: 20 },
+    { header: `${labels.ratio.replace(' (A:B)', '')} A:B (−)`, width: 10, numFmt: ratio },
+    { header: `${level} % PI low, A:B (−)`, width: 11, numFmt: ratio },
+    { header: `${level} % PI high, A:B (−)`, width: 11, numFmt: ratio },
+    ...(labels.excess
+      ? [
+          { header: labels.excess, width: 9, numFmt: pct },
+          { header: `${level} % PI low, ${labels.excess}`, width: 11, numFmt: pct },
+          { header: `${level} % PI high, ${labels.excess}`, width: 11, numFmt: pct },
+        ]
+      : []),
+    { header: labels.major, width: 11, numFmt: pct },
+    { header: 'ΔΔG‡ (kJ/mol)', width: 10, numFmt: numFmt(d.ddH) },
+    { header: 'Outside screened range', width: 10 },
+  ];
+  function* rows() {
+    for (const g of model.grid) {
+      const p = g.prediction;
+      const pi = p.predictionInterval;
+      yield [
+        clean(p.celsius),
+        p.kelvin,
+        g.source === 'grid' ? 'grid' : g.source === 'proposed' ? 'proposed temperature' : user(`saved: ${g.note ?? ''}`),
+        p.ratio,
+        pi?.ratio[0] ?? null,
+        pi?.ratio[1] ?? null,
+        ...(labels.excess ? [p.eePercent, pi?.eePercent[0] ?? null, pi?.eePercent[1] ?? null] : []),
+        Math.max(p.percentA, 100 - p.percentA),
+        p.ddG['kJ/mol'],
+        p.extrapolated ? 'yes' : 'no',
+      ] as (Cell | UserText)[];
+    }
+  }
+  const ws = addTable(wb, model, 'Forecast', columns, rows());
+  if (model.grid.length === 0) ws.getCell('A2').value = model.fit ? 'No temperatures to forecast.' : 'No fit, so no forecast.';
+}
+
+/** The file name of a campaign export, e.g. eyrie-Route-screen-report.xlsx. */
+export function reportFileName(title: string, suffix = 'report.xlsx'): string {
+  return safeFileName(title, suffix);
+}
+
+/**
+ * The workbook as a buffer. Pure apart from rendering: no database, no clock. Without prepared
+ * charts, they are rasterised on the thread pool while the sheets are built.
+ */
+export async function buildCampaignReport(data: ReportData, meta: ReportMeta, prepared?: { model?: ReportModel; charts?: ReportCharts | null }): Promise<Buffer> {
+  const model = prepared?.model ?? buildReportModel(data, meta);
+  const pending = prepared?.charts !== undefined ? Promise.resolve(prepared.charts) : renderReportChartsAsync(model);
+  const wb = new ExcelJS.Workbook();
+  wb.creator = 'Eyrie';
+  wb.created = meta.generatedAt;
+  wb.title = `${data.campaign.title}: selectivity report`;
+
+  addSummary(wb, model);
+  // The sheet is made now so it stays second; its images arrive when rendering is done.
+  const chartSheet = model.fit && data.analysis.curve.length >= 2 ? wb.addWorksheet('Charts', { views: [{ showGridLines: false }] }) : null;
+  addMeasurements(wb, model);
+  addFit(wb, model);
+  addForecast(wb, model);
+  const charts = await pending;
+  if (chartSheet && charts) addCharts(wb, chartSheet, model, charts);
+  else if (chartSheet) wb.removeWorksheet(chartSheet.id);
 
   const out = await wb.xlsx.writeBuffer();
   return Buffer.from(out as ArrayBuffer);

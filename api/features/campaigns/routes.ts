@@ -9,9 +9,23 @@ import { historyCsv, readHistory } from '../audit/history';
 import { importTemplateCsv, listImportFiles, readImportFile, resolveImportFileProjectId } from '../imports/files';
 import { importMeasurements, storedRowKeys } from '../imports/service';
 import { previewInPool } from '../imports/parse-pool';
-import { analyseCampaign, compareCampaigns, listCampaignForecasts, loadReportData, saveCampaignForecast } from './analysis';
+import { analyseCampaign, compareCampaigns, listCampaignForecasts, saveCampaignForecast } from './analysis';
 import { analysisQuerySchema, comparisonQuerySchema } from './analysis-schemas';
-import { buildCampaignReport, reportFileName } from './report';
+import { reportFileName } from './report';
+import {
+  forecastCsv,
+  loadCampaignReportData,
+  measurementsCsv,
+  pdfOf,
+  prepareReport,
+  reportMailSchema,
+  reportQuerySchema,
+  sendCampaignReport,
+  xlsxOf,
+} from './report-service';
+import { buildReportModel, type ReportMeta } from './report-model';
+import type { Mailer } from '../mail/mailer';
+import { limiter } from '../auth/setup';
 import type { JobQueue } from '../jobs/queue';
 import { jobView } from '../jobs/routes';
 import {
@@ -103,6 +117,9 @@ function deleteVersion(req: Request, schema: z.ZodType<{ version?: number }> = v
   return v;
 }
 
+/** Report e-mails a user may send per window (each may carry several recipients). */
+export const REPORT_MAIL_LIMIT = { windowMs: 15 * 60_000, limit: 10 };
+
 const actorOf = (req: Request): ProjectActor => ({ projectId: req.project!.id, actorUserId: req.user!.id });
 const etag = (version: number) => `W/"${version}"`;
 
@@ -111,8 +128,23 @@ const etag = (version: number) => `W/"${version}"`;
  * project comparison. Each route names its minimum role once; routes reached through a campaign,
  * measurement or forecast id resolve its project first (unknown ids are 404 for everyone).
  */
-export function campaignsRouter(deps: { knex: Knex; version: string; jobs: JobQueue; uploadLimit: RequestHandler; importJobBytes: number }): Router {
+export function campaignsRouter(deps: {
+  knex: Knex;
+  version: string;
+  jobs: JobQueue;
+  uploadLimit: RequestHandler;
+  importJobBytes: number;
+  mailer?: Mailer;
+  reportMailLimit?: number;
+}): Router {
   const { knex, jobs, uploadLimit } = deps;
+  const meta = (req: Request): ReportMeta => ({ appVersion: deps.version, generatedAt: new Date(), exportedBy: req.user ? (req.user.displayName ?? req.user.login) : null });
+  const reportOf = async (req: Request) => {
+    const { at } = parseBody(reportQuerySchema, req.query);
+    const data = await loadCampaignReportData(knex, req.project!.id, campaignId(req), at === undefined ? {} : { atC: at });
+    return prepareReport(data, meta(req));
+  };
+  const mailLimit = limiter(REPORT_MAIL_LIMIT.windowMs, deps.reportMailLimit ?? REPORT_MAIL_LIMIT.limit, 'report e-mail', true);
   const router = Router();
   const byProject = (role: 'viewer' | 'editor') => authorizeProject(role, projectIdParam);
   const byCampaign = (role: 'viewer' | 'editor') => authorizeProject(role, (req) => resolveCampaignProjectId(knex, req.params.campaignId));
@@ -296,14 +328,43 @@ export function campaignsRouter(deps: { knex: Knex; version: string; jobs: JobQu
   }
 
   router.get('/campaigns/:campaignId/report.xlsx', byCampaign('viewer'), async (req, res) => {
-    const data = await loadReportData(knex, req.project!.id, campaignId(req));
-    const buffer = await buildCampaignReport(data, { appVersion: deps.version, generatedAt: new Date() });
+    const report = await reportOf(req);
     res
       .status(200)
       .type('application/vnd.openxmlformats-officedocument.spreadsheetml.sheet')
-      .attachment(reportFileName(data.campaign.title))
+      .attachment(reportFileName(report.model.data.campaign.title))
       .set('Cache-Control', 'no-store')
-      .send(buffer);
+      .send(await xlsxOf(report));
+  });
+
+  router.get('/campaigns/:campaignId/report.pdf', byCampaign('viewer'), async (req, res) => {
+    const report = await reportOf(req);
+    res
+      .status(200)
+      .type('application/pdf')
+      .attachment(reportFileName(report.model.data.campaign.title, 'summary.pdf'))
+      .set('Cache-Control', 'no-store')
+      .send(await pdfOf(report));
+  });
+
+  router.get('/campaigns/:campaignId/measurements.csv', byCampaign('viewer'), async (req, res) => {
+    const data = await loadCampaignReportData(knex, req.project!.id, campaignId(req));
+    const model = buildReportModel(data, meta(req));
+    res.status(200).type('text/csv; charset=utf-8').attachment(reportFileName(data.campaign.title, 'measurements.csv')).set('Cache-Control', 'no-store').send(measurementsCsv(model));
+  });
+
+  router.get('/campaigns/:campaignId/forecast.csv', byCampaign('viewer'), async (req, res) => {
+    const { at } = parseBody(reportQuerySchema, req.query);
+    const data = await loadCampaignReportData(knex, req.project!.id, campaignId(req), at === undefined ? {} : { atC: at });
+    const model = buildReportModel(data, meta(req));
+    res.status(200).type('text/csv; charset=utf-8').attachment(reportFileName(data.campaign.title, 'forecast.csv')).set('Cache-Control', 'no-store').send(forecastCsv(model));
+  });
+
+  router.post('/campaigns/:campaignId/report/email', byCampaign('viewer'), mailLimit, async (req, res) => {
+    const request = parseBody(reportMailSchema, req.body);
+    if (!deps.mailer) throw new BadRequestError('This server has no mail transport configured.');
+    const sent = await sendCampaignReport(knex, deps.mailer, { projectId: req.project!.id, campaignId: campaignId(req), request, meta: meta(req) });
+    res.status(200).json(sent);
   });
 
   router.get('/projects/:projectId/comparison', byProject('viewer'), async (req, res) => {

@@ -17,8 +17,8 @@ import type { Logger } from 'pino';
 import { AppError, UnprocessableError } from '../../lib/errors';
 import { toProblem } from '../../lib/problem';
 import type { Mailer } from '../mail/mailer';
-import { loadReportData } from '../campaigns/analysis';
-import { buildCampaignReport, reportFileName } from '../campaigns/report';
+import { reportFileName } from '../campaigns/report';
+import { loadCampaignReportData, prepareReport, sendCampaignReport, xlsxOf } from '../campaigns/report-service';
 import type { ImportRequestInput } from '../imports/service';
 import { importMeasurements } from '../imports/service';
 import type { JobHandler, JobKind, JobRow } from './queue';
@@ -149,48 +149,32 @@ export function reportWork(deps: RunnerDeps): Work {
   return async (trx, job, progress) => {
     if (!job.campaignId) throw new UnprocessableError('The campaign of this report no longer exists.');
     await progress('reading the campaign', 20);
-    const data = await loadReportData(trx, job.projectId, job.campaignId);
+    const data = await loadCampaignReportData(trx, job.projectId, job.campaignId);
     await progress('building the workbook', 50);
-    const bytes = await buildCampaignReport(data, { appVersion: deps.version, generatedAt: new Date() });
+    // The same report as the direct download: one model, charts rendered off the event loop.
+    const bytes = await xlsxOf(await prepareReport(data, { appVersion: deps.version, generatedAt: new Date(), exportedBy: null }));
     const name = reportFileName(data.campaign.title);
     return { result: { fileName: name, bytes: bytes.length, href: `/api/v1/jobs/${job.id}/file` }, file: { name, bytes } };
   };
 }
 
 /**
- * The text of the report e-mail. It links to the built workbook rather than attaching it; the
- * message's content is kept in this one function so it can grow (summary, attachment).
+ * E-mail the report to the person who asked, built in the background: the same message and attachments as the
+ * direct "e-mail the report" route (sendCampaignReport), so the two never differ.
  */
-export function reportEmailContent(input: { campaignTitle: string; fileName: string; link: string; recipientName: string }): { subject: string; text: string } {
-  return {
-    subject: `Eyrie report: ${input.campaignTitle}`,
-    text: [
-      `Hello ${input.recipientName},`,
-      '',
-      `The spreadsheet report of the campaign "${input.campaignTitle}" is ready: ${input.fileName}.`,
-      `Download it (signed in, as a member of the project): ${input.link}`,
-      '',
-      'Eyrie',
-    ].join('\n'),
-  };
-}
-
-/** Build the report, keep it on the job and e-mail its link to the person who asked. */
 export function reportEmailWork(deps: RunnerDeps): Work {
-  const build = reportWork(deps);
   return async (trx, job, progress) => {
-    const user = job.createdByUserId ? await trx('users').where({ id: job.createdByUserId }).first('email', 'displayName', 'login') : null;
+    if (!job.campaignId) throw new UnprocessableError('The campaign of this report no longer exists.');
+    const user = job.createdByUserId ? await trx('users').where({ id: job.createdByUserId }).first('id', 'email', 'displayName', 'login') : null;
     if (!user?.email) throw new UnprocessableError('Your account has no e-mail address to send the report to.');
-    const built = await build(trx, job, progress);
-    await progress('sending the e-mail', 80);
-    const content = reportEmailContent({
-      campaignTitle: String((await trx('campaigns').where({ id: job.campaignId }).first('title'))?.title ?? ''),
-      fileName: built.file!.name,
-      link: `${deps.publicUrl}/api/v1/jobs/${job.id}/file`,
-      recipientName: user.displayName ?? user.login,
+    await progress('building and sending the report', 40);
+    const sent = await sendCampaignReport(trx, deps.mailer, {
+      projectId: job.projectId,
+      campaignId: job.campaignId,
+      request: { recipients: [user.id], attach: ['xlsx', 'pdf'] },
+      meta: { appVersion: deps.version, generatedAt: new Date(), exportedBy: user.displayName ?? user.login },
     });
-    await deps.mailer.send({ to: user.email, ...content });
-    return { result: { ...built.result, sentTo: user.email }, file: built.file };
+    return { result: { sentTo: user.email, attachments: sent.attachments } };
   };
 }
 

@@ -10,6 +10,8 @@ export interface MailboxMessage {
   text: string;
   /** The project the message was sent from (its X-Eyrie-Project header), if any. */
   projectId: string | null;
+  /** Attached files (name, type, decoded size); their bytes through `Mailbox.attachment`. */
+  attachments: { filename: string; contentType: string; size: number }[];
 }
 
 /**
@@ -18,6 +20,7 @@ export interface MailboxMessage {
  */
 export class Mailbox {
   private messages: MailboxMessage[] = [];
+  private contents = new WeakMap<MailboxMessage, Buffer[]>();
   constructor(private readonly capacity = 200) {}
 
   /** Store a raw RFC 5322 message; `envelopeTo` wins over the To header when given. */
@@ -31,7 +34,9 @@ export class Mailbox {
       subject: parsed.headers.get('subject') ?? '',
       text: parsed.text,
       projectId: parsed.headers.get('x-eyrie-project') ?? null,
+      attachments: parsed.attachments.map((a) => ({ filename: a.filename, contentType: a.contentType, size: a.content.length })),
     };
+    this.contents.set(message, parsed.attachments.map((a) => a.content));
     this.messages.unshift(message);
     this.messages.length = Math.min(this.messages.length, this.capacity);
     return message;
@@ -43,6 +48,11 @@ export class Mailbox {
 
   get(id: string): MailboxMessage | undefined {
     return this.messages.find((m) => m.id === id);
+  }
+
+  /** The bytes of a message's attachment, by its position in `attachments`. */
+  attachment(message: MailboxMessage, index: number): Buffer | undefined {
+    return this.contents.get(message)?.[index];
   }
 }
 
@@ -119,7 +129,34 @@ function textOf(part: Part): { text: string; html: boolean } | null {
   return null;
 }
 
-export function parseMessage(raw: string): { headers: Map<string, string>; text: string } {
+interface ParsedAttachment {
+  filename: string;
+  contentType: string;
+  content: Buffer;
+}
+
+/** Parts sent as attachments (Content-Disposition: attachment), walking nested multiparts. */
+function attachmentsOf(part: Part, out: ParsedAttachment[] = []): ParsedAttachment[] {
+  const type = part.headers.get('content-type') ?? 'text/plain';
+  if (type.toLowerCase().startsWith('multipart/')) {
+    const boundary = /boundary="?([^";]+)"?/i.exec(type)?.[1];
+    if (!boundary) return out;
+    for (const piece of part.body.split(`--${boundary}`).slice(1)) {
+      if (piece.startsWith('--')) break;
+      attachmentsOf(splitPart(piece.replace(/^\n/, '')), out);
+    }
+    return out;
+  }
+  const disposition = part.headers.get('content-disposition') ?? '';
+  if (!/^attachment/i.test(disposition)) return out;
+  const filename = /filename="?([^";]+)"?/i.exec(disposition)?.[1] ?? /name="?([^";]+)"?/i.exec(type)?.[1] ?? 'attachment';
+  const encoding = (part.headers.get('content-transfer-encoding') ?? '').toLowerCase();
+  const content = encoding === 'base64' ? Buffer.from(part.body.replace(/\s+/g, ''), 'base64') : Buffer.from(part.body, 'latin1');
+  out.push({ filename, contentType: type.split(';')[0]!.trim(), content });
+  return out;
+}
+
+export function parseMessage(raw: string): { headers: Map<string, string>; text: string; attachments: ParsedAttachment[] } {
   const top = splitPart(raw);
-  return { headers: top.headers, text: (textOf(top)?.text ?? '').trim() };
+  return { headers: top.headers, text: (textOf(top)?.text ?? '').trim(), attachments: attachmentsOf(top) };
 }

@@ -1,12 +1,19 @@
 import nodemailer from 'nodemailer';
 import type { Mailbox } from './mailbox';
 
+export interface MailAttachment {
+  filename: string;
+  content: Buffer;
+  contentType: string;
+}
+
 export interface OutgoingMail {
   to: string;
   subject: string;
   text: string;
   /** The project the mail is about; sent as a header so the development mailbox can show it to that project's owners. */
   projectId?: string;
+  attachments?: MailAttachment[];
 }
 
 /** Header naming the project a message was sent from. */

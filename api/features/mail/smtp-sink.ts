@@ -19,7 +19,8 @@ export async function startSmtpSink(mailbox: Mailbox, options: { host?: string; 
     authOptional: true,
     disabledCommands: ['STARTTLS', 'AUTH'],
     hideSTARTTLS: true,
-    size: 1024 * 1024,
+    // Room for a campaign report with its charts attached.
+    size: 15 * 1024 * 1024,
     logger: false,
     onData(stream, session, callback) {
       const chunks: Buffer[] = [];

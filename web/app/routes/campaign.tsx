@@ -14,6 +14,7 @@ import { CampaignHeader } from '../../features/campaigns/components/campaign-hea
 import { CampaignHistory, KeptFiles, SignOffBar } from '../../features/campaigns/components/campaign-records';
 import { ForecastPanel, SavedForecasts } from '../../features/campaigns/components/forecast-panel';
 import { MeasurementGrid } from '../../features/campaigns/components/measurement-grid';
+import { ReportMailForm } from '../../features/campaigns/components/report-mail-form';
 import { UploadWizard } from '../../features/campaigns/components/upload-wizard';
 import { useProject } from '../../features/projects/api/projects';
 
@@ -49,9 +50,20 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
         </span>
       }
       actions={
-        <a className="rounded border border-slate-300 bg-white px-3 py-1.5 text-sm font-medium text-ink-800 hover:bg-slate-50" href={paths.campaignReport.getHref(campaign.id)} download>
-          <span aria-hidden="true">⤓ </span>Download spreadsheet report
-        </a>
+        <span className="flex flex-wrap items-center gap-2">
+          <a className="rounded border border-slate-300 bg-white px-3 py-1.5 text-sm font-medium text-ink-800 hover:bg-slate-50" href={paths.campaignReport.getHref(campaign.id)} download>
+            <span aria-hidden="true">⤓ </span>Download spreadsheet report
+          </a>
+          <a className="text-sm text-fjord-700 underline" href={paths.campaignReportPdf.getHref(campaign.id)} download>
+            Summary PDF
+          </a>
+          <a className="text-sm text-fjord-700 underline" href={paths.campaignMeasurementsCsv.getHref(campaign.id)} download>
+            Runs CSV
+          </a>
+          <a className="text-sm text-fjord-700 underline" href={paths.campaignForecastCsv.getHref(campaign.id)} download>
+            Forecast CSV
+          </a>
+        </span>
       }
     >
       <div className="flex flex-col gap-4">
@@ -103,6 +115,9 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
         </Panel>
         <Panel title="Saved forecasts">
           <SavedForecasts campaignId={campaign.id} canEdit={canEdit} measure={campaign.measure} />
+        </Panel>
+        <Panel title="E-mail the report">
+          <ReportMailForm campaignId={campaign.id} projectId={campaign.projectId} />
         </Panel>
 
         <Panel title={`Measurements${measurements.data ? ` (${measurements.data.length})` : ''}`}>

@@ -1,0 +1,289 @@
+/**
+ * The report's charts, drawn on the server as SVG from the report model and rendered to PNG by
+ * resvg with fonts shipped in node_modules (never the machine's), so every server draws the same
+ * picture. Colours are the web app's chart palette (web/components/charts/chart-theme.ts).
+ */
+import { createRequire } from 'node:module';
+import path from 'node:path';
+import { Resvg, renderAsync, type ResvgRenderOptions } from '@resvg/resvg-js';
+import { fixed, lnOf, lnRange } from './report-format';
+import type { ReportModel } from './report-model';
+
+const require = createRequire(import.meta.url);
+const fontDir = path.join(path.dirname(require.resolve('dejavu-fonts-ttf/package.json')), 'ttf');
+export const REPORT_FONT_FILES = [path.join(fontDir, 'DejaVuSans.ttf'), path.join(fontDir, 'DejaVuSans-Bold.ttf')];
+const FONT_FAMILY = 'DejaVu Sans';
+
+const colors = {
+  ink: '#1e293b',
+  inkSoft: '#475569',
+  grid: '#e2e8f0',
+  accent: '#0f766e',
+  confidenceFill: '#0f766e',
+  predictionFill: '#5eead4',
+  branch: '#7c3aed',
+  caution: '#8a4b08',
+  flagRing: '#b4452c',
+  paper: '#ffffff',
+} as const;
+
+export const CHART_WIDTH = 720;
+export const CHART_HEIGHT = 420;
+const M = { left: 64, right: 20, top: 40, bottom: 96 };
+
+const esc = (s: string) => s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');
+
+/** About `count` round tick values covering [lo, hi]. */
+export function niceTicks(lo: number, hi: number, count = 6): number[] {
+  if (!(hi > lo)) return [lo];
+  const raw = (hi - lo) / count;
+  const mag = 10 ** Math.floor(Math.log10(raw));
+  const step = [1, 2, 2.5, 5, 10].map((f) => f * mag).find((s) => s >= raw) ?? 10 * mag;
+  const out: number[] = [];
+  for (let v = Math.ceil(lo / step - 1e-9) * step; v <= hi + step * 1e-9; v += step) out.push(Math.round(v / step) * step);
+  return out;
+}
+
+const tickDecimals = (ticks: number[]) => (ticks.length < 2 ? 1 : Math.max(0, Math.ceil(-Math.log10(Math.abs(ticks[1]! - ticks[0]!)) - 1e-9)));
+
+interface Frame {
+  x: (v: number) => number;
+  y: (v: number) => number;
+  parts: string[];
+}
+
+function frame(title: string, xLabel: string, yLabel: string, xr: [number, number], yr: [number, number]): Frame {
+  const w = CHART_WIDTH - M.left - M.right;
+  const h = CHART_HEIGHT - M.top - M.bottom;
+  const x = (v: number) => M.left + ((v - xr[0]) / (xr[1] - xr[0])) * w;
+  const y = (v: number) => M.top + h - ((v - yr[0]) / (yr[1] - yr[0])) * h;
+  const parts: string[] = [`<rect width="${CHART_WIDTH}" height="${CHART_HEIGHT}" fill="${colors.paper}"/>`];
+  parts.push(`<text x="${M.left}" y="22" font-size="15" font-weight="bold" fill="${colors.ink}">${esc(title)}</text>`);
+  const xt = niceTicks(xr[0], xr[1]);
+  const yt = niceTicks(yr[0], yr[1], 5);
+  const xd = tickDecimals(xt);
+  const yd = tickDecimals(yt);
+  for (const t of xt) {
+    const px = x(t).toFixed(1);
+    parts.push(`<line x1="${px}" x2="${px}" y1="${M.top}" y2="${M.top + h}" stroke="${colors.grid}"/>`);
+    parts.push(`<text x="${px}" y="${M.top + h + 16}" font-size="11" fill="${colors.inkSoft}" text-anchor="middle">${esc(fixed(t, xd))}</text>`);
+  }
+  for (const t of yt) {
+    const py = y(t).toFixed(1);
+    parts.push(`<line x1="${M.left}" x2="${M.left + w}" y1="${py}" y2="${py}" stroke="${colors.grid}"/>`);
+    parts.push(`<text x="${M.left - 6}" y="${(y(t) + 4).toFixed(1)}" font-size="11" fill="${colors.inkSoft}" text-anchor="end">${esc(fixed(t, yd))}</text>`);
+  }
+  parts.push(`<rect x="${M.left}" y="${M.top}" width="${w}" height="${h}" fill="none" stroke="${colors.inkSoft}"/>`);
+  parts.push(`<text x="${M.left + w / 2}" y="${M.top + h + 36}" font-size="12" fill="${colors.ink}" text-anchor="middle">${esc(xLabel)}</text>`);
+  parts.push(`<text transform="translate(16 ${M.top + h / 2}) rotate(-90)" font-size="12" fill="${colors.ink}" text-anchor="middle">${esc(yLabel)}</text>`);
+  return { x, y, parts };
+}
+
+function polyline(points: [number, number][]): string {
+  return points.map(([a, b], i) => `${i ? 'L' : 'M'}${a.toFixed(1)} ${b.toFixed(1)}`).join(' ');
+}
+
+function band(f: Frame, xs: number[], lo: number[], hi: number[]): string {
+  const upper = xs.map((v, i): [number, number] => [f.x(v), f.y(hi[i]!)]);
+  const lower = xs.map((v, i): [number, number] => [f.x(v), f.y(lo[i]!)]).reverse();
+  return `${polyline([...upper, ...lower])} Z`;
+}
+
+interface LegendItem {
+  swatch: string;
+  label: string;
+}
+
+/** Legend rows under the plot, wrapping before an item would run off the right edge. */
+function legend(items: LegendItem[]): string {
+  let y = CHART_HEIGHT - 40;
+  let x = M.left;
+  const out: string[] = [];
+  for (const it of items) {
+    const w = 32 + it.label.length * 7;
+    if (x + w > CHART_WIDTH - M.right && x > M.left) {
+      x = M.left;
+      y += 20;
+    }
+    out.push(`<g transform="translate(${x} ${y})">${it.swatch}<text x="22" y="4" font-size="11" fill="${colors.ink}">${esc(it.label)}</text></g>`);
+    x += w;
+  }
+  return out.join('');
+}
+
+const SW = {
+  point: `<circle cx="8" cy="0" r="4.5" fill="${colors.ink}"/>`,
+  excluded: `<circle cx="8" cy="0" r="4" fill="#fff" stroke="${colors.inkSoft}" stroke-width="1.5"/>`,
+  bound: `<path d="M8 -5 L13 0 L8 5 L3 0 Z" fill="${colors.ink}"/>`,
+  line: `<line x1="0" x2="16" y1="0" y2="0" stroke="${colors.accent}" stroke-width="2"/>`,
+  ci: `<rect x="0" y="-5" width="16" height="10" fill="${colors.confidenceFill}" fill-opacity="0.25"/>`,
+  pi: `<rect x="0" y="-5" width="16" height="10" fill="${colors.predictionFill}" fill-opacity="0.22" stroke="${colors.predictionFill}"/>`,
+  branch: `<line x1="0" x2="16" y1="0" y2="0" stroke="${colors.branch}" stroke-width="1.75" stroke-dasharray="5 3"/>`,
+  spec: `<line x1="0" x2="16" y1="0" y2="0" stroke="${colors.caution}" stroke-width="1.5" stroke-dasharray="6 3"/>`,
+  flag: `<circle cx="8" cy="0" r="6" fill="none" stroke="${colors.flagRing}" stroke-width="1.5"/>`,
+};
+
+function pointMark(px: number, py: number, status: string, flagged: boolean): string {
+  const ring = flagged ? `<circle cx="${px.toFixed(1)}" cy="${py.toFixed(1)}" r="8" fill="none" stroke="${colors.flagRing}" stroke-width="1.5"/>` : '';
+  if (status === 'censored') return `${ring}<path d="M${px.toFixed(1)} ${(py - 5).toFixed(1)} l5 5 l-5 5 l-5 -5 Z" fill="${colors.ink}"/>`;
+  if (status === 'excluded') return `${ring}<circle cx="${px.toFixed(1)}" cy="${py.toFixed(1)}" r="4" fill="#fff" stroke="${colors.inkSoft}" stroke-width="1.5"/>`;
+  return `${ring}<circle cx="${px.toFixed(1)}" cy="${py.toFixed(1)}" r="4" fill="${colors.ink}" stroke="#fff" stroke-width="0.75"/>`;
+}
+
+/**
+ * Point marks, one per visible position: replicates that land on the same half pixel would be
+ * drawn on top of each other, so a campaign of 10 000 runs draws as fast as the distinct ones.
+ */
+function marks(points: [number, number, string, boolean][]): string {
+  const seen = new Set<string>();
+  const out: string[] = [];
+  for (const [px, py, status, flagged] of points) {
+    const key = `${Math.round(px * 2)}|${Math.round(py * 2)}|${status}|${flagged}`;
+    if (seen.has(key)) continue;
+    seen.add(key);
+    out.push(pointMark(px, py, status, flagged));
+  }
+  return out.join('');
+}
+
+function range(values: number[], pad = 0.06): [number, number] {
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (const v of values) {
+    if (!Number.isFinite(v)) continue;
+    lo = Math.min(lo, v);
+    hi = Math.max(hi, v);
+  }
+  if (!Number.isFinite(lo)) return [0, 1];
+  if (hi - lo < 1e-9) return [lo - 1, hi + 1];
+  const p = (hi - lo) * pad;
+  return [lo - p, hi + p];
+}
+
+function legendFor(model: ReportModel, withSpec: boolean): LegendItem[] {
+  const pts = model.data.analysis.points;
+  const items: LegendItem[] = [{ swatch: SW.point, label: 'fitted run' }];
+  if (pts.some((p) => p.status === 'excluded')) items.push({ swatch: SW.excluded, label: 'excluded' });
+  if (pts.some((p) => p.status === 'censored')) items.push({ swatch: SW.bound, label: 'at least (bound)' });
+  if (pts.some((p) => p.flagged)) items.push({ swatch: SW.flag, label: 'flagged' });
+  items.push({ swatch: SW.line, label: 'fitted line' });
+  items.push({ swatch: SW.ci, label: `${model.level} % confidence band` });
+  items.push({ swatch: SW.pi, label: `${model.level} % prediction band` });
+  if (model.fit?.twoBranch?.preferred === 'two-branch') items.push({ swatch: SW.branch, label: 'two branches' });
+  if (withSpec) items.push({ swatch: SW.spec, label: 'specification' });
+  return items;
+}
+
+/** Eyring plot: ln r against 1000/T with the fitted line, its confidence and prediction bands. */
+export function eyringChartSvg(model: ReportModel): string {
+  const { analysis } = model.data;
+  const curve = analysis.curve;
+  const pts = analysis.points;
+  const xs = curve.map((p) => 1000 / p.kelvin);
+  const xr = range([...xs, ...pts.map((p) => 1000 / p.kelvin)], 0.03);
+  const yVals = [...pts.map((p) => p.lnRatio), ...curve.flatMap((p) => (p.predictionInterval ? lnRange(p.predictionInterval) : [lnOf(p)]))];
+  if (model.specificationLnRatio !== null) yVals.push(model.specificationLnRatio);
+  const f = frame('Eyring plot: ln r against 1/T', '1000 / T (1/K)', 'ln r = ln([A]/[B])', xr, range(yVals));
+  const body: string[] = [];
+  const withPi = curve.filter((p) => p.predictionInterval);
+  if (withPi.length > 1) {
+    body.push(`<path d="${band(f, withPi.map((p) => 1000 / p.kelvin), withPi.map((p) => lnRange(p.predictionInterval!)[0]), withPi.map((p) => lnRange(p.predictionInterval!)[1]))}" fill="${colors.predictionFill}" fill-opacity="0.22"/>`);
+  }
+  const withCi = curve.filter((p) => p.confidenceInterval);
+  if (withCi.length > 1) {
+    body.push(`<path d="${band(f, withCi.map((p) => 1000 / p.kelvin), withCi.map((p) => lnRange(p.confidenceInterval!)[0]), withCi.map((p) => lnRange(p.confidenceInterval!)[1]))}" fill="${colors.confidenceFill}" fill-opacity="0.25"/>`);
+  }
+  if (curve.length > 1) body.push(`<path d="${polyline(curve.map((p) => [f.x(1000 / p.kelvin), f.y(lnOf(p))]))}" fill="none" stroke="${colors.accent}" stroke-width="2"/>`);
+  const tb = model.fit?.twoBranch;
+  if (tb?.checked && tb.preferred === 'two-branch' && tb.low && tb.high) {
+    for (const b of [tb.low, tb.high]) {
+      const ends = [b.fromKelvin, b.toKelvin].map((k): [number, number] => [f.x(1000 / k), f.y(b.intercept + b.slope / k)]);
+      body.push(`<path d="${polyline(ends)}" stroke="${colors.branch}" stroke-width="1.75" stroke-dasharray="7 4" fill="none"/>`);
+    }
+  }
+  if (model.specificationLnRatio !== null) {
+    const py = f.y(model.specificationLnRatio).toFixed(1);
+    body.push(`<line x1="${M.left}" x2="${CHART_WIDTH - M.right}" y1="${py}" y2="${py}" stroke="${colors.caution}" stroke-width="1.5" stroke-dasharray="6 3"/>`);
+  }
+  body.push(marks(pts.map((p) => [f.x(1000 / p.kelvin), f.y(p.lnRatio), p.status, p.flagged])));
+  return svg([...f.parts, `<g>${body.join('')}</g>`, legend(legendFor(model, model.specificationLnRatio !== null))]);
+}
+
+/**
+ * Selectivity against temperature in the campaign's own measure: ee (enantiomers), de
+ * (diastereomers) or % A (plain ratios), with the prediction band and the specification line.
+ */
+export function selectivityChartSvg(model: ReportModel): string {
+  const { analysis } = model.data;
+  const family = model.labels.family;
+  const toY = (lnR: number) => (family === 'ratio' ? 100 / (1 + Math.exp(-lnR)) : 100 * Math.tanh(lnR / 2));
+  const yLabel = family === 'enantiomers' ? 'ee (%)' : family === 'diastereomers' ? 'de (%)  [dr = (100 + de) : (100 − de)]' : 'A (%)';
+  const curve = analysis.curve;
+  const pts = analysis.points;
+  const xr = range([...curve.map((p) => p.celsius), ...pts.map((p) => p.celsius)], 0.03);
+  const yVals = [...pts.map((p) => toY(p.lnRatio)), ...curve.flatMap((p) => (p.predictionInterval ? lnRange(p.predictionInterval).map(toY) : [toY(lnOf(p))]))];
+  if (model.specificationLnRatio !== null) yVals.push(toY(model.specificationLnRatio));
+  const yr = range(yVals);
+  const f = frame(`Selectivity against temperature (${model.labels.word})`, 'T (°C)', yLabel, xr, [Math.max(yr[0], family === 'ratio' ? 0 : -100), Math.min(yr[1], 100)]);
+  const body: string[] = [];
+  const withPi = curve.filter((p) => p.predictionInterval);
+  if (withPi.length > 1) {
+    body.push(`<path d="${band(f, withPi.map((p) => p.celsius), withPi.map((p) => toY(lnRange(p.predictionInterval!)[0])), withPi.map((p) => toY(lnRange(p.predictionInterval!)[1])))}" fill="${colors.predictionFill}" fill-opacity="0.22"/>`);
+  }
+  const withCi = curve.filter((p) => p.confidenceInterval);
+  if (withCi.length > 1) {
+    body.push(`<path d="${band(f, withCi.map((p) => p.celsius), withCi.map((p) => toY(lnRange(p.confidenceInterval!)[0])), withCi.map((p) => toY(lnRange(p.confidenceInterval!)[1])))}" fill="${colors.confidenceFill}" fill-opacity="0.25"/>`);
+  }
+  if (curve.length > 1) body.push(`<path d="${polyline(curve.map((p) => [f.x(p.celsius), f.y(toY(lnOf(p)))]))}" fill="none" stroke="${colors.accent}" stroke-width="2"/>`);
+  if (model.specificationLnRatio !== null) {
+    const py = f.y(toY(model.specificationLnRatio));
+    body.push(`<line x1="${M.left}" x2="${CHART_WIDTH - M.right}" y1="${py.toFixed(1)}" y2="${py.toFixed(1)}" stroke="${colors.caution}" stroke-width="1.5" stroke-dasharray="6 3"/>`);
+    body.push(`<text x="${CHART_WIDTH - M.right - 4}" y="${(py - 5).toFixed(1)}" font-size="11" fill="${colors.caution}" text-anchor="end">${esc(`specification: ${model.specificationText}`)}</text>`);
+  }
+  if (model.proposed) {
+    const px = f.x(model.proposed.prediction.celsius).toFixed(1);
+    body.push(`<line x1="${px}" x2="${px}" y1="${M.top}" y2="${CHART_HEIGHT - M.bottom}" stroke="${colors.inkSoft}" stroke-dasharray="2 3"/>`);
+    body.push(`<text x="${(Number(px) + 4).toFixed(1)}" y="${M.top + 12}" font-size="11" fill="${colors.inkSoft}">${esc(`proposed ${fixed(model.proposed.prediction.celsius, 1)} °C`)}</text>`);
+  }
+  body.push(marks(pts.map((p) => [f.x(p.celsius), f.y(toY(p.lnRatio)), p.status, p.flagged])));
+  return svg([...f.parts, `<g>${body.join('')}</g>`, legend(legendFor(model, model.specificationLnRatio !== null))]);
+}
+
+function svg(parts: string[]): string {
+  return `<svg xmlns="http://www.w3.org/2000/svg" width="${CHART_WIDTH}" height="${CHART_HEIGHT}" viewBox="0 0 ${CHART_WIDTH} ${CHART_HEIGHT}" font-family="${FONT_FAMILY}">${parts.join('')}</svg>`;
+}
+
+const renderOptions = (scale: number): ResvgRenderOptions => ({
+  fitTo: { mode: 'width', value: CHART_WIDTH * scale },
+  font: { fontFiles: REPORT_FONT_FILES, loadSystemFonts: false, defaultFontFamily: FONT_FAMILY },
+});
+
+/**
+ * SVG → PNG at `scale` times the drawing size, with the shipped fonts only. 1.5× gives 1080 px,
+ * twice the width the workbook shows it at. Every series lies inside the axes by construction
+ * (the ranges are taken from the data, bands included), so nothing needs clipping, which halves
+ * resvg's work.
+ */
+export function renderPng(svgText: string, scale = 1.5): Buffer {
+  return Buffer.from(new Resvg(svgText, renderOptions(scale)).render().asPng());
+}
+
+export interface ReportCharts {
+  eyring: Buffer;
+  selectivity: Buffer;
+}
+
+const hasCharts = (model: ReportModel) => Boolean(model.fit) && model.data.analysis.curve.length >= 2;
+
+/** Both charts as PNG, or null when there is no fit to draw. */
+export function renderReportCharts(model: ReportModel): ReportCharts | null {
+  if (!hasCharts(model)) return null;
+  return { eyring: renderPng(eyringChartSvg(model)), selectivity: renderPng(selectivityChartSvg(model)) };
+}
+
+/** As `renderReportCharts`, rasterised on libuv's thread pool so the caller can build sheets meanwhile. */
+export async function renderReportChartsAsync(model: ReportModel, scale = 1.5): Promise<ReportCharts | null> {
+  if (!hasCharts(model)) return null;
+  const [eyring, selectivity] = await Promise.all([renderAsync(eyringChartSvg(model), renderOptions(scale)), renderAsync(selectivityChartSvg(model), renderOptions(scale))]);
+  return { eyring: Buffer.from(eyring.asPng()), selectivity: Buffer.from(selectivity.asPng()) };
+}

@@ -1,0 +1,261 @@
+/**
+ * One reading of a campaign for every export: the summary lines, the forecast grid and the
+ * chart series, computed once from the stored runs and the engine's analysis. The workbook,
+ * the PDF, the CSVs and the e-mail all render this model, so they cannot disagree.
+ */
+import type { Campaign } from '../../models/campaign';
+import type { Measurement } from '../../models/measurement';
+import { CELSIUS_OFFSET_K, SIGN_CONVENTION, kelvinToCelsius, parseSelectivity, type SelectivityMeasure } from '../../science';
+import { SELECTIVITY_CAUTION } from '../../lib/cautions';
+import { analyseScreen } from '../compute/service';
+import type { FitResponse } from '../compute/schemas';
+import type { AnalysisResponse, SavedForecastView } from './analysis-schemas';
+import { assaySettings, toEngineMeasurements } from './analysis';
+import { decimalsForSe, fixed, lnOf, measureLabels, ratioOf, ratioRange, readSelectivity, selectivityDecimals, type MeasureLabels } from './report-format';
+
+export type FitPrediction = FitResponse['predictions'][number];
+
+/** A minimum selectivity the campaign must reach, in one of the measures (e.g. dr ≥ 10, ee ≥ 95). */
+export interface ReportSpecification {
+  measure: SelectivityMeasure;
+  minimum: number;
+  /** How the team wrote it, shown as is (optional). */
+  text?: string | null;
+}
+
+export interface ReportData {
+  campaign: Campaign;
+  measurements: Measurement[];
+  analysis: AnalysisResponse;
+  forecasts: SavedForecastView[];
+  /** The project's name; omitted → the summary leaves it out. */
+  project?: { name: string } | null;
+  /** The campaign's specification; null or omitted → "no specification set". */
+  specification?: ReportSpecification | null;
+  /** The temperature proposed for the process (K); omitted → the newest saved forecast's. */
+  proposedK?: number | null;
+  /** The jacket's working range (°C); omitted → the screened range. */
+  jacketRangeC?: [number, number] | null;
+}
+
+export interface ReportMeta {
+  appVersion: string;
+  generatedAt: Date;
+  /** Who asked for the export (display name or login). */
+  exportedBy?: string | null;
+}
+
+export type SummaryValue = string | number | Date | null;
+
+/** One line of the summary: a label and a value, with SE, interval and unit where they apply. */
+export interface SummaryLine {
+  section: string;
+  label: string;
+  value: SummaryValue;
+  /** Decimals shown for the value, its SE and its interval. */
+  decimals?: number;
+  se?: number | null;
+  interval?: [number, number] | null;
+  unit?: string;
+  /** A defined name for the value cell in the workbook. */
+  name?: string;
+}
+
+export interface GridRow {
+  source: 'grid' | 'saved' | 'proposed';
+  /** Label of a saved forecast, or "proposed". */
+  note: string | null;
+  prediction: FitPrediction;
+}
+
+export interface ReportModel {
+  data: ReportData;
+  meta: ReportMeta;
+  labels: MeasureLabels;
+  decimals: { percent: number; ratio: number; ddH: number; ddS: number; celsius: number; kelvin: number; ln: number };
+  fit: FitResponse | null;
+  summary: SummaryLine[];
+  grid: GridRow[];
+  proposed: GridRow | null;
+  /** ln r at the specification's minimum, when there is one. */
+  specificationLnRatio: number | null;
+  specificationText: string;
+  level: number;
+}
+
+export const GRID_STEP_C = 5;
+const MAX_LISTED_EXCLUSIONS = 8;
+
+const ASSAY_NAMES: Record<string, string> = { 'chiral-hplc': 'chiral HPLC', 'chiral-sfc': 'chiral SFC', 'chiral-gc': 'chiral GC', nmr: 'NMR', other: 'other method' };
+
+export function celsiusText(celsius: number, decimals = 1): string {
+  return `${fixed(celsius, decimals)} °C`;
+}
+
+/** Temperatures (°C) every 5 °C over the jacket range, or over the screened range widened to round values. */
+export function roundGridC(data: Pick<ReportData, 'measurements' | 'jacketRangeC'>): number[] {
+  let low: number;
+  let high: number;
+  if (data.jacketRangeC) [low, high] = data.jacketRangeC;
+  else {
+    if (data.measurements.length === 0) return [];
+    low = Infinity;
+    high = -Infinity;
+    for (const m of data.measurements) {
+      low = Math.min(low, kelvinToCelsius(m.temperatureK));
+      high = Math.max(high, kelvinToCelsius(m.temperatureK));
+    }
+  }
+  const from = Math.floor(low / GRID_STEP_C + 1e-9) * GRID_STEP_C;
+  const to = Math.ceil(high / GRID_STEP_C - 1e-9) * GRID_STEP_C;
+  const out: number[] = [];
+  for (let c = from; c <= to + 1e-9; c += GRID_STEP_C) out.push(Math.round(c));
+  return out;
+}
+
+function specificationOf(spec: ReportSpecification | null | undefined, labels: MeasureLabels, dec: { percent: number; ratio: number }): { lnRatio: number | null; text: string } {
+  if (!spec) return { lnRatio: null, text: 'no specification set' };
+  let lnRatio: number | null = null;
+  try {
+    lnRatio = Math.log(parseSelectivity({ measure: spec.measure, value: spec.minimum }));
+  } catch {
+    lnRatio = null;
+  }
+  const shown =
+    spec.measure === 'ee' || spec.measure === 'percentA'
+      ? `${spec.measure === 'ee' ? (labels.family === 'diastereomers' ? 'de' : 'ee') : '% A'} ≥ ${fixed(spec.minimum, dec.percent)} %`
+      : `${spec.measure} ≥ ${fixed(spec.minimum, dec.ratio)}:1`;
+  return { lnRatio, text: spec.text ? `${shown} (${spec.text})` : shown };
+}
+
+function runName(m: Measurement): string {
+  const label = [m.sampleId, m.replicateLabel].filter(Boolean).join(' ');
+  return `${label ? `${label} ` : ''}at ${celsiusText(kelvinToCelsius(m.temperatureK))}`;
+}
+
+/** The model the analysis chose, with its reason, in one or two sentences. */
+export function modelSentence(fit: FitResponse): string {
+  const tb = fit.twoBranch;
+  if (!tb.checked) return `One straight line: ${tb.note}`;
+  const p = tb.breakTest.p < 0.001 ? 'p < 0.001' : `p = ${fixed(tb.breakTest.p, 3)}`;
+  if (tb.preferred === 'two-branch' && tb.break) {
+    return `Two straight branches meeting at a break (break test ${p}, against ${tb.breakTest.resamples} simulated straight-line screens). ${tb.break.label}. Forecasts use the branch that covers their temperature.`;
+  }
+  return `One straight line (break test ${p}: the data do not support a break).`;
+}
+
+export function buildReportModel(data: ReportData, meta: ReportMeta): ReportModel {
+  const { campaign, analysis } = data;
+  const fit = analysis.fit;
+  const labels = measureLabels(campaign.measure);
+  const sel = selectivityDecimals(campaign.measure, campaign.defaultUncertainty);
+  const decimals = {
+    ...sel,
+    ddH: decimalsForSe(fit?.ddH.se?.['kJ/mol'], 2),
+    ddS: decimalsForSe(fit?.ddS.se?.['J/(mol*K)'], 1),
+    celsius: 1,
+    kelvin: 2,
+    ln: 4,
+  };
+  const level = Math.round((fit?.confidence ?? 0.95) * 100);
+
+  // Grid, saved forecasts and the proposed temperature in one engine call, so every row shares the fit.
+  const gridC = roundGridC(data);
+  const saved = data.forecasts;
+  const proposedK = data.proposedK ?? (saved.length ? saved[0]!.temperatureK : null);
+  const grid: GridRow[] = [];
+  let proposed: GridRow | null = null;
+  if (fit) {
+    const temps = [...gridC.map((c) => c + CELSIUS_OFFSET_K), ...saved.map((f) => f.temperatureK), ...(proposedK === null ? [] : [proposedK])];
+    const engine = toEngineMeasurements(campaign, data.measurements);
+    // The campaign's own assay settings (new-run precision, quantitation limit), as on the campaign page.
+    const options = { weighting: fit.weighting, uncertaintyScale: 'absolute' as const, confidence: fit.confidence };
+    const predictions = temps.length ? analyseScreen(engine, { ...options, ...assaySettings(campaign, data.measurements, options) }, temps).predictions : [];
+    gridC.forEach((_, i) => grid.push({ source: 'grid', note: null, prediction: predictions[i]! }));
+    saved.forEach((f, i) => grid.push({ source: 'saved', note: f.label ?? `saved ${f.createdAt.slice(0, 10)}`, prediction: predictions[gridC.length + i]! }));
+    if (proposedK !== null) {
+      proposed = { source: 'proposed', note: 'proposed', prediction: predictions[predictions.length - 1]! };
+      grid.push(proposed);
+    }
+    grid.sort((a, b) => a.prediction.kelvin - b.prediction.kelvin || a.source.localeCompare(b.source));
+  }
+
+  const spec = specificationOf(data.specification, labels, sel);
+  const summary: SummaryLine[] = [];
+  const add = (line: SummaryLine) => summary.push(line);
+
+  add({ section: 'Campaign', label: 'Project', value: data.project?.name ?? null });
+  add({ section: 'Campaign', label: 'Campaign', value: campaign.title });
+  add({ section: 'Campaign', label: 'Step and reaction', value: campaign.reactionDescription ?? 'not described' });
+  add({ section: 'Campaign', label: 'Products', value: `A: ${campaign.productNameA}; B: ${campaign.productNameB} (r = [A]/[B])` });
+  const precision =
+    campaign.defaultUncertainty === null
+      ? 'precision not stated'
+      : campaign.measure === 'ee' || campaign.measure === 'percentA'
+        ? `± ${fixed(campaign.defaultUncertainty, Math.max(sel.percent, 1))} percentage points (1 SD)`
+        : `± ${fixed(100 * campaign.defaultUncertainty, 1)} % of the ratio (1 SD)`;
+  add({ section: 'Campaign', label: 'Assay and precision', value: `${ASSAY_NAMES[campaign.assayMethod] ?? campaign.assayMethod}, reported as ${campaign.measure}; ${precision}` });
+  add({ section: 'Campaign', label: 'Specification', value: spec.text });
+
+  if (!fit) {
+    add({ section: 'Result', label: 'Fit', value: `No fit: ${analysis.problem?.message ?? 'not enough data'}` });
+  } else {
+    if (proposed) {
+      const p = proposed.prediction;
+      const pi = p.predictionInterval;
+      const r = readSelectivity(ratioOf(p), sel.ratio);
+      const meets = spec.lnRatio === null ? '' : lnOf(p) >= spec.lnRatio ? '; the forecast meets the specification' : '; the forecast falls short of the specification';
+      const headline =
+        labels.family === 'enantiomers'
+          ? `${fixed(p.eePercent, sel.percent)} % ee (er ${r.ratioText})${pi ? ` (${level} % prediction interval ${fixed(pi.eePercent[0], sel.percent)} to ${fixed(pi.eePercent[1], sel.percent)} % ee)` : ''}`
+          : `${r.ratioText}${labels.family === 'ratio' ? ' A:B' : ''}${pi ? ` (${level} % prediction interval ${readSelectivity(ratioRange(pi)[0], sel.ratio).ratioText} to ${readSelectivity(ratioRange(pi)[1], sel.ratio).ratioText})` : ''}`;
+      add({ section: 'Forecast', label: 'Proposed temperature', value: Math.round(p.celsius * 1e9) / 1e9, decimals: 1, unit: '°C', name: 'Proposed_T_C' });
+      add({ section: 'Forecast', label: `Forecast ${labels.word}`, value: `${headline}${p.extrapolated ? '; outside the screened range' : ''}${meets}` });
+      add({ section: 'Forecast', label: `Forecast ${labels.ratio}`, value: ratioOf(p), decimals: sel.ratio, interval: pi ? ratioRange(pi) : null, unit: 'A/B', name: 'Forecast_ratio' });
+      if (labels.excess) add({ section: 'Forecast', label: `Forecast ${labels.excess}`, value: p.eePercent, decimals: sel.percent, interval: pi ? pi.eePercent : null, unit: '%', name: 'Forecast_excess_percent' });
+      add({ section: 'Forecast', label: `Forecast ${labels.major}`, value: Math.max(p.percentA, 100 - p.percentA), decimals: sel.percent, interval: pi ? (p.percentA >= 50 ? pi.percentA : [100 - pi.percentA[1], 100 - pi.percentA[0]]) : null, unit: '%', name: 'Forecast_major_percent' });
+    } else {
+      add({ section: 'Forecast', label: 'Proposed temperature', value: 'none yet: save a forecast in the campaign or ask for one when exporting' });
+    }
+    add({ section: 'Fit', label: 'ΔΔH‡', value: fit.ddH['kJ/mol'], decimals: decimals.ddH, se: fit.ddH.se?.['kJ/mol'] ?? null, interval: fit.ddH.ci?.['kJ/mol'] ?? null, unit: 'kJ/mol', name: 'ddH_kJ_per_mol' });
+    add({ section: 'Fit', label: 'ΔΔH‡', value: fit.ddH['kcal/mol'], decimals: decimals.ddH, se: fit.ddH.se?.['kcal/mol'] ?? null, interval: fit.ddH.ci?.['kcal/mol'] ?? null, unit: 'kcal/mol', name: 'ddH_kcal_per_mol' });
+    add({ section: 'Fit', label: 'ΔΔS‡', value: fit.ddS['J/(mol*K)'], decimals: decimals.ddS, se: fit.ddS.se?.['J/(mol*K)'] ?? null, interval: fit.ddS.ci?.['J/(mol*K)'] ?? null, unit: 'J/(mol·K)', name: 'ddS_J_per_mol_K' });
+    add({ section: 'Fit', label: 'ΔΔS‡', value: fit.ddS['cal/(mol*K)'], decimals: decimals.ddS, se: fit.ddS.se?.['cal/(mol*K)'] ?? null, interval: fit.ddS.ci?.['cal/(mol*K)'] ?? null, unit: 'cal/(mol·K)', name: 'ddS_cal_per_mol_K' });
+    add({ section: 'Fit', label: 'Intervals', value: `${level} % confidence; ${fit.weighting === 'none' ? 'unweighted' : 'weighted'} least squares of ln r on 1/T` });
+    add({ section: 'Fit', label: 'Model', value: modelSentence(fit) });
+    const excluded = data.measurements.filter((m) => m.excluded);
+    const censored = analysis.points.filter((p) => p.status === 'censored').length;
+    add({ section: 'Runs', label: 'Runs fitted', value: fit.n, decimals: 0, unit: 'runs', name: 'Runs_fitted' });
+    const listed = excluded.slice(0, MAX_LISTED_EXCLUSIONS).map((m) => `${runName(m)}: ${m.excludedReason ?? 'no reason given'}`);
+    if (excluded.length > MAX_LISTED_EXCLUSIONS) listed.push(`and ${excluded.length - MAX_LISTED_EXCLUSIONS} more (see Measurements)`);
+    add({ section: 'Runs', label: 'Runs excluded', value: excluded.length ? `${excluded.length}: ${listed.join('; ')}` : 'none' });
+    if (censored) add({ section: 'Runs', label: 'Runs reported as bounds', value: `${censored} (kept as "at least" values, not as points on the line)` });
+    add({
+      section: 'Runs',
+      label: 'Screened range',
+      value: `${celsiusText(kelvinToCelsius(fit.temperatureRange.minKelvin))} to ${celsiusText(kelvinToCelsius(fit.temperatureRange.maxKelvin))}`,
+    });
+    add({ section: 'Warnings', label: 'Warnings', value: fit.warnings.length ? fit.warnings.map((w) => w.message).join(' ') : 'none' });
+  }
+  add({ section: 'Notes', label: 'Sign convention', value: `${SIGN_CONVENTION}; much of the literature uses the opposite sign.` });
+  add({ section: 'Notes', label: 'Caution', value: SELECTIVITY_CAUTION });
+  add({ section: 'Export', label: 'Exported by', value: meta.exportedBy ?? 'not recorded' });
+  add({ section: 'Export', label: 'Exported (UTC)', value: meta.generatedAt });
+  add({ section: 'Export', label: 'Eyrie version', value: meta.appVersion });
+
+  return { data, meta, labels, decimals, fit, summary, grid, proposed, specificationLnRatio: spec.lnRatio, specificationText: spec.text, level };
+}
+
+/** The value of a summary line as text, with SE, interval and unit (PDF, e-mail). */
+export function summaryLineText(line: SummaryLine): string {
+  const v = line.value;
+  if (v === null) return '—';
+  if (v instanceof Date) return `${v.toISOString().slice(0, 16).replace('T', ' ')} UTC`;
+  if (typeof v === 'string') return v;
+  const d = line.decimals ?? 2;
+  const unit = line.unit && line.unit !== 'runs' ? ` ${line.unit}` : '';
+  let text = `${fixed(v, d)}${unit}`;
+  if (line.se !== undefined && line.se !== null) text += ` (SE ${fixed(line.se, d)})`;
+  if (line.interval) text += `, interval ${fixed(line.interval[0], d)} to ${fixed(line.interval[1], d)}${unit}`;
+  return text;
+}

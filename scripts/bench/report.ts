@@ -1,0 +1,134 @@
+/**
+ * Report benchmark: the whole campaign workbook (model, two charts rendered to PNG, five styled
+ * sheets with print setup) for 1 000 and 10 000 stored runs, against a raw exceljs write of the
+ * same cells (values only, no styles, images or setup). Best of several runs after a warm-up;
+ * prints the ratio and how the time grows from 1k to 10k. No database.
+ */
+import ExcelJS from 'exceljs';
+import { performance } from 'node:perf_hooks';
+import type { Campaign } from '../../api/models/campaign';
+import type { Measurement } from '../../api/models/measurement';
+import { computeAnalysis } from '../../api/features/campaigns/analysis';
+import { buildCampaignReport } from '../../api/features/campaigns/report';
+import type { ReportData } from '../../api/features/campaigns/report-model';
+import type { BenchSuite } from './suites';
+
+const R = 8.31446261815324;
+
+/** Synthetic runs (not demo data): 40 temperatures from −80 to +37 °C, ln r = 9 kJ/mol / RT − 4 J/(mol·K) / R ± 0.04. */
+function synthetic(n: number): ReportData {
+  const campaign = {
+    id: '00000000-0000-4000-8000-0000000000b1',
+    projectId: '00000000-0000-4000-8000-0000000000b2',
+    title: `Bench screen ${n}`,
+    reactionDescription: 'Synthetic load, not demo data',
+    productNameA: 'A',
+    productNameB: 'B',
+    measure: 'dr',
+    assayMethod: 'nmr',
+    defaultUncertainty: 0.05,
+    status: 'active',
+    notes: null,
+    version: 1,
+    createdByUserId: null,
+    createdAt: new Date(0),
+    updatedAt: new Date(0),
+  } as Campaign;
+  const measurements = Array.from({ length: n }, (_, i) => {
+    const temperatureK = 193.15 + (i % 40) * 3;
+    const lnR = 9000 / (R * temperatureK) - 4 / R + 0.04 * Math.sin(i * 0.91);
+    return {
+      id: `m${i}`,
+      campaignId: campaign.id,
+      temperatureK,
+      measure: 'dr',
+      value: Math.round(Math.exp(lnR) * 10) / 10,
+      valueB: 1,
+      isLowerBound: false,
+      uncertainty: null,
+      replicateLabel: String(i % 3),
+      sampleId: `B-${i}`,
+      conversionPercent: 90,
+      reactionTimeS: 3600,
+      excluded: i % 97 === 5,
+      excludedReason: i % 97 === 5 ? 'bench exclusion' : null,
+      notes: null,
+    } as unknown as Measurement;
+  }).sort((a, b) => a.temperatureK - b.temperatureK);
+  const analysis = computeAnalysis(campaign, measurements, { weighting: 'none', uncertaintyScale: 'absolute', confidence: 0.95 });
+  return { campaign, measurements, analysis, forecasts: [], project: { name: 'Bench project' }, specification: { measure: 'dr', minimum: 10 }, proposedK: 243.15 };
+}
+
+interface Sheet {
+  name: string;
+  rows: ExcelJS.CellValue[][];
+  /** Number format of each column, from the row below the header. */
+  formats: (string | undefined)[];
+}
+
+/** Every cell value of a workbook, sheet by sheet, to write again without any styling. */
+async function cellsOf(buffer: Buffer): Promise<Sheet[]> {
+  const wb = new ExcelJS.Workbook();
+  await wb.xlsx.load(buffer as unknown as ArrayBuffer);
+  return wb.worksheets.map((ws) => {
+    const rows: ExcelJS.CellValue[][] = [];
+    ws.eachRow((row) => rows.push((row.values as ExcelJS.CellValue[]).slice(1)));
+    const second = ws.getRow(2);
+    const formats = Array.from({ length: ws.columnCount }, (_, i) => second.getCell(i + 1).numFmt || undefined);
+    return { name: ws.name, rows, formats };
+  });
+}
+
+/** The same cells written plainly; with `formats`, each column also gets its number format. */
+async function rawWrite(sheets: Sheet[], formats = false): Promise<Buffer> {
+  const wb = new ExcelJS.Workbook();
+  for (const s of sheets) {
+    const ws = wb.addWorksheet(s.name);
+    if (formats) ws.columns = s.formats.map((numFmt) => ({ style: numFmt ? { numFmt } : {} }));
+    for (const r of s.rows) ws.addRow(r);
+  }
+  return Buffer.from((await wb.xlsx.writeBuffer()) as ArrayBuffer);
+}
+
+/**
+ * Best time of each job over `rounds`, the jobs taking turns within a round so that load from
+ * other processes on a shared machine falls on all of them alike. One warm-up round first.
+ */
+async function bestInterleaved(rounds: number, jobs: (() => Promise<unknown>)[]): Promise<number[]> {
+  for (const job of jobs) await job();
+  const min = jobs.map(() => Infinity);
+  for (let r = 0; r < rounds; r++) {
+    for (let j = 0; j < jobs.length; j++) {
+      const t0 = performance.now();
+      await jobs[j]!();
+      min[j] = Math.min(min[j]!, performance.now() - t0);
+    }
+  }
+  return min;
+}
+
+async function run() {
+  const meta = { appVersion: 'bench', generatedAt: new Date(0), exportedBy: 'bench' };
+  console.log('\nCampaign report: full workbook vs raw exceljs write of the same cells (best of 9 / 5 interleaved rounds after a warm-up)');
+  const results: { n: number; report: number; raw: number }[] = [];
+  for (const n of [1000, 10000]) {
+    const data = synthetic(n);
+    const sheets = await cellsOf(await buildCampaignReport(data, meta));
+    const cells = sheets.reduce((s, x) => s + x.rows.reduce((t, r) => t + r.length, 0), 0);
+    const [report, noCharts, raw, formatted] = (await bestInterleaved(n > 5000 ? 5 : 9, [
+      () => buildCampaignReport(data, meta),
+      () => buildCampaignReport(data, meta, { charts: null }),
+      () => rawWrite(sheets),
+      () => rawWrite(sheets, true),
+    ])) as [number, number, number, number];
+    results.push({ n, report, raw });
+    console.log(
+      `${String(n).padStart(6)} runs (${cells} cells): report ${report.toFixed(0)} ms, raw ${raw.toFixed(0)} ms, ratio ${(report / raw).toFixed(2)}× (target ≤ 1.5×); ` +
+        `without the charts ${noCharts.toFixed(0)} ms (${(noCharts / raw).toFixed(2)}×); raw with the same number formats ${formatted.toFixed(0)} ms (${(formatted / raw).toFixed(2)}×)`,
+    );
+  }
+  const [a, b] = results as [(typeof results)[0], (typeof results)[0]];
+  console.log(`growth 1k → 10k: report ${(b.report / a.report).toFixed(1)}×, raw ${(b.raw / a.raw).toFixed(1)}× (linear = 10×)`);
+}
+
+export const reportBenchSuite: BenchSuite = { name: 'report', run };

@@ -1,0 +1,258 @@
+import { describe, expect, it } from 'vitest';
+import ExcelJS from 'exceljs';
+import { execFileSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import { buildCampaignReport, reportFileName } from '../../../api/features/campaigns/report';
+import { buildReportModel } from '../../../api/features/campaigns/report-model';
+import { renderReportCharts } from '../../../api/features/campaigns/report-charts';
+import { buildCampaignReportPdf } from '../../../api/features/campaigns/report-pdf';
+import { forecastCsv, measurementsCsv } from '../../../api/features/campaigns/report-service';
+import { analyseScreen } from '../../../api/features/compute/service';
+import { toEngineMeasurements } from '../../../api/features/campaigns/analysis';
+import { fixed, safeFileName } from '../../../api/features/campaigns/report-format';
+import { HOSTILE, demoMeta, demoReportData } from './fixture';
+
+const onPath = (cmd: string) => {
+  try {
+    execFileSync('sh', ['-c', `command -v ${cmd}`], { stdio: 'ignore' });
+    return true;
+  } catch {
+    return false;
+  }
+};
+
+async function readBack(buffer: Buffer) {
+  const wb = new ExcelJS.Workbook();
+  await wb.xlsx.load(buffer as unknown as ArrayBuffer);
+  return wb;
+}
+
+function cellsOf(ws: ExcelJS.Worksheet): ExcelJS.Cell[] {
+  const out: ExcelJS.Cell[] = [];
+  ws.eachRow((row) => row.eachCell((cell) => out.push(cell)));
+  return out;
+}
+
+function labelRow(ws: ExcelJS.Worksheet, label: string, nth = 0): ExcelJS.Row {
+  const found: ExcelJS.Row[] = [];
+  ws.eachRow((row) => {
+    if (row.getCell(1).value === label) found.push(row);
+  });
+  if (!found[nth]) throw new Error(`no row "${label}"`);
+  return found[nth];
+}
+
+/** A decimal written with a run of six or more 9s or 0s before its last digit: float noise in text. */
+const FLOAT_ARTEFACT = /\d\.\d*(?:9{6,}|0{6,})\d/;
+
+describe('campaign workbook', () => {
+  it('when a dr campaign is exported, then its sheets come in reading order with the summary first', async () => {
+    const wb = await readBack(await buildCampaignReport(demoReportData(), demoMeta));
+    expect(wb.worksheets.map((w) => w.name)).toEqual(['Summary', 'Charts', 'Measurements', 'Fit', 'Forecast']);
+    const summary = wb.getWorksheet('Summary')!;
+    expect(labelRow(summary, 'Specification').getCell(2).value).toBe('dr ≥ 10.0:1');
+    expect(String(labelRow(summary, 'Forecast dr').getCell(2).value)).toMatch(/^\d+\.\d:1 \(95 % prediction interval \d+\.\d:1 to \d+\.\d:1\)/);
+    expect(labelRow(summary, 'Forecast de (%)').getCell(6).value).toBe('%');
+    expect(labelRow(summary, 'Forecast Major diastereomer (%)').getCell(2).value).toBeGreaterThan(50);
+    // ee belongs to enantiomers only: a dr campaign never shows it.
+    for (const ws of wb.worksheets) for (const c of cellsOf(ws)) expect(String(c.value)).not.toMatch(/\bee\b/);
+    expect(String(labelRow(summary, 'Runs excluded').getCell(2).value)).toContain('integration failed');
+    expect(String(labelRow(summary, 'Model').getCell(2).value)).toMatch(/^(One straight line|Two straight branches)/);
+    expect(labelRow(summary, 'Exported by').getCell(2).value).toBe('R. Vale');
+    expect(String(labelRow(summary, 'Sign convention').getCell(2).value)).toContain('X‡(TS→B) − X‡(TS→A)');
+    expect(String(labelRow(summary, 'Caution').getCell(2).value)).toContain('process-safety');
+    const images = wb.getWorksheet('Charts')!.getImages();
+    expect(images).toHaveLength(2);
+  });
+
+  it('when the workbook is read back, then every number equals the engine output', async () => {
+    const data = demoReportData();
+    const wb = await readBack(await buildCampaignReport(data, demoMeta));
+    const fit = data.analysis.fit!;
+    const named = (name: string) => {
+      const ranges = wb.definedNames.getRanges(name).ranges;
+      expect(ranges).toHaveLength(1);
+      const [sheet, ref] = ranges[0]!.split('!');
+      return wb.getWorksheet(sheet!.replace(/'/g, ''))!.getCell(ref!.replace(/\$/g, '')).value;
+    };
+    expect(named('ddH_kJ_per_mol')).toBe(fit.ddH['kJ/mol']);
+    expect(named('ddH_kcal_per_mol')).toBe(fit.ddH['kcal/mol']);
+    expect(named('ddS_J_per_mol_K')).toBe(fit.ddS['J/(mol*K)']);
+    expect(named('Runs_fitted')).toBe(fit.n);
+    expect(named('Forecast_ratio')).toBe(data.analysis.at!.ratio);
+    const summary = wb.getWorksheet('Summary')!;
+    const ddH = labelRow(summary, 'ΔΔH‡');
+    expect(ddH.getCell(3).value).toBe(fit.ddH.se!['kJ/mol']);
+    expect([ddH.getCell(4).value, ddH.getCell(5).value]).toEqual(fit.ddH.ci!['kJ/mol']);
+    // Two significant digits of the SE decide the decimals shown.
+    expect(ddH.getCell(2).numFmt).toBe(`0.${'0'.repeat(Math.ceil(-Math.log10(fit.ddH.se!['kJ/mol'])) + 1)}`);
+
+    const ms = wb.getWorksheet('Measurements')!;
+    const header = (ms.getRow(1).values as unknown[]).map(String);
+    const lnCol = header.indexOf('ln r (−)');
+    const tCol = header.indexOf('T (K)');
+    data.analysis.points.forEach((p, i) => {
+      expect(ms.getRow(i + 2).getCell(lnCol).value).toBe(p.lnRatio);
+      expect(ms.getRow(i + 2).getCell(tCol).value).toBe(data.measurements[i]!.temperatureK);
+    });
+
+    const fitSheet = wb.getWorksheet('Fit')!;
+    expect(labelRow(fitSheet, 'Slope of ln r on 1/T').getCell(2).value).toBe(fit.slope);
+    expect(labelRow(fitSheet, 'Covariance slope·intercept').getCell(2).value).toBe(fit.covariance!.slopeIntercept);
+
+    const fc = wb.getWorksheet('Forecast')!;
+    const rows: { c: number; k: number; source: string; ratio: number }[] = [];
+    fc.eachRow((row, i) => {
+      if (i > 1) rows.push({ c: row.getCell(1).value as number, k: row.getCell(2).value as number, source: String(row.getCell(3).value), ratio: row.getCell(4).value as number });
+    });
+    const engine = analyseScreen(toEngineMeasurements(data.campaign, data.measurements), { weighting: 'none', uncertaintyScale: 'absolute', confidence: 0.95 }, rows.map((r) => r.k));
+    rows.forEach((r, i) => expect(r.ratio).toBe(engine.predictions[i]!.ratio));
+    const grid = rows.filter((r) => r.source === 'grid').map((r) => r.c);
+    // Every 5 °C over the screened −78 to 25 °C, widened to round values [C].
+    expect(grid).toEqual(Array.from({ length: 22 }, (_, i) => -80 + 5 * i));
+    // Text that does not start with a formula character needs no neutralising.
+    expect(rows.some((r) => r.source === 'saved: =cmd|calc')).toBe(true);
+    expect(rows.filter((r) => r.source === 'proposed temperature')).toHaveLength(1);
+  });
+
+  it('when any sheet holds text, then it carries no float artefacts', async () => {
+    const wb = await readBack(await buildCampaignReport(demoReportData(), demoMeta));
+    for (const ws of wb.worksheets) {
+      for (const c of cellsOf(ws)) {
+        if (typeof c.value === 'string') expect(c.value).not.toMatch(FLOAT_ARTEFACT);
+        // Numbers keep full precision but Celsius values lose the kelvin round-trip noise.
+        if (typeof c.value === 'number' && ws.name === 'Forecast' && Number(c.col) === 1) expect(String(c.value)).not.toMatch(FLOAT_ARTEFACT);
+      }
+    }
+    expect(fixed(-39.99999999999997, 2)).toBe('−40.00');
+    expect(fixed(-0.0001, 2)).toBe('0.00');
+  });
+
+  it('when user text starts like a formula, then it is stored as text in Text format and never as a formula', async () => {
+    const wb = await readBack(await buildCampaignReport(demoReportData(), demoMeta));
+    const texts: ExcelJS.Cell[] = [];
+    for (const ws of wb.worksheets) {
+      for (const c of cellsOf(ws)) {
+        expect(c.type).not.toBe(ExcelJS.ValueType.Formula);
+        // XML readers turn a stored carriage return into a line feed; the apostrophe is what matters.
+        if (typeof c.value === 'string' && HOSTILE.some((h) => [`'${h}`, `'${h.replace('\r', '\n')}`].includes(c.value as string))) texts.push(c);
+      }
+    }
+    expect(texts.length).toBe(HOSTILE.length);
+    for (const c of texts) expect(c.numFmt).toBe('@');
+    const reason = cellsOf(wb.getWorksheet('Measurements')!).find((c) => String(c.value).includes('integration failed'))!;
+    expect(reason.value).toBe("'=1+1 (integration failed)");
+    expect(reason.numFmt).toBe('@');
+  });
+
+  it('when the CSVs are written, then formula-like text is neutralised and numbers are plain', () => {
+    const model = buildReportModel(demoReportData(), demoMeta);
+    const m = measurementsCsv(model);
+    const f = forecastCsv(model);
+    expect(m.startsWith('\uFEFFsample,replicate,T (°C)')).toBe(true);
+    expect(m).toContain(`"'=HYPERLINK(""http://example.test"",""x"")"`);
+    expect(m).toContain(",'+1+2,");
+    expect(m).toContain(",'@SUM(A1:A2),");
+    expect(m).toContain("'=1+1 (integration failed)");
+    expect(m).not.toMatch(FLOAT_ARTEFACT);
+    expect(f).toContain('saved: =cmd|calc');
+    expect(f.split('\r\n')[1]).toMatch(/^-80\.00,193\.15,grid,/);
+    expect(f).not.toMatch(FLOAT_ARTEFACT);
+  });
+
+  it('when the page setup is read back, then every sheet prints landscape, fitted to width, with header, footer and page numbers', async () => {
+    const wb = await readBack(await buildCampaignReport(demoReportData(), demoMeta));
+    for (const ws of wb.worksheets) {
+      expect(ws.pageSetup.orientation).toBe('landscape');
+      expect(ws.pageSetup.fitToPage).toBe(true);
+      expect(ws.pageSetup.fitToWidth).toBe(1);
+      // The title carries "&", doubled so the header code does not swallow it.
+      expect(ws.headerFooter.oddHeader).toContain('Aldol screen (invented demo) && co');
+      expect(ws.headerFooter.oddFooter).toContain('Page &P of &N');
+    }
+    expect(wb.getWorksheet('Summary')!.pageSetup.fitToHeight).toBe(1);
+    for (const name of ['Measurements', 'Fit', 'Forecast']) {
+      const ws = wb.getWorksheet(name)!;
+      expect(ws.pageSetup.printTitlesRow).toBe('1:1');
+      expect(ws.views[0]).toMatchObject({ state: 'frozen', ySplit: 1 });
+    }
+  });
+
+  it('when a title has path or header characters, then the file name keeps only safe ones', () => {
+    expect(reportFileName('../Añadir "x"; rm -rf /\r\n')).toBe('eyrie-Anadir-x-rm-rf-report.xlsx');
+    expect(safeFileName('***', 'summary.pdf')).toBe('eyrie-campaign-summary.pdf');
+  });
+
+  it('when the PDF summary is built, then it has the summary page and the chart page', async () => {
+    const model = buildReportModel(demoReportData(), demoMeta);
+    const pdf = await buildCampaignReportPdf(model, renderReportCharts(model));
+    expect(pdf.subarray(0, 5).toString()).toBe('%PDF-');
+    expect(pdf.toString('latin1').match(/\/Type \/Page\b/g)).toHaveLength(2);
+  });
+
+  it.runIf(onPath('pdftotext'))('when the PDF is read as text, then it holds the summary', async () => {
+    const model = buildReportModel(demoReportData(), demoMeta);
+    const dir = mkdtempSync(path.join(tmpdir(), 'eyrie-pdf-'));
+    try {
+      writeFileSync(path.join(dir, 's.pdf'), await buildCampaignReportPdf(model, renderReportCharts(model)));
+      const text = execFileSync('pdftotext', ['-layout', path.join(dir, 's.pdf'), '-'], { encoding: 'utf8' });
+      expect(text).toContain('Aldol screen (invented demo) & co');
+      expect(text).toContain('ΔΔH‡');
+      expect(text).toMatch(/Forecast dr\s+\d+\.\d:1/);
+      expect(text).toContain('dr ≥ 10.0:1');
+      expect(text).toContain('process-safety review');
+      expect(text).toContain(fixed(model.fit!.ddH['kJ/mol'], model.decimals.ddH));
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  });
+
+  it.runIf(onPath('soffice') && onPath('pdfinfo'))(
+    'when LibreOffice prints a typical campaign, then it takes at most 6 pages with the summary on page 1',
+    async () => {
+      const dir = mkdtempSync(path.join(tmpdir(), 'eyrie-lo-'));
+      try {
+        writeFileSync(path.join(dir, 'r.xlsx'), await buildCampaignReport(demoReportData(30), demoMeta));
+        execFileSync('soffice', [`-env:UserInstallation=file://${dir}/profile`, '--headless', '--convert-to', 'pdf', '--outdir', dir, path.join(dir, 'r.xlsx')], { stdio: 'ignore', timeout: 60_000 });
+        const info = execFileSync('pdfinfo', [path.join(dir, 'r.pdf')], { encoding: 'utf8' });
+        const pages = Number(/Pages:\s+(\d+)/.exec(info)![1]);
+        expect(pages).toBeGreaterThanOrEqual(4);
+        expect(pages).toBeLessThanOrEqual(6);
+        if (onPath('pdftotext')) {
+          const first = execFileSync('pdftotext', ['-f', '1', '-l', '1', '-layout', path.join(dir, 'r.pdf'), '-'], { encoding: 'utf8' });
+          expect(first).toContain('Caution');
+          expect(first).toContain('Eyrie version');
+        }
+        expect(readFileSync(path.join(dir, 'r.pdf')).length).toBeGreaterThan(1000);
+      } finally {
+        rmSync(dir, { recursive: true, force: true });
+      }
+    },
+    90_000,
+  );
+});
+
+describe('measures in the report', () => {
+  it('when an ee campaign is exported, then it reads ee and er and never de or dr', async () => {
+    const data = demoReportData(12);
+    const campaign = { ...data.campaign, measure: 'ee', defaultUncertainty: 0.2 } as typeof data.campaign;
+    const model = buildReportModel({ ...data, campaign, specification: { measure: 'ee', minimum: 95 } }, demoMeta);
+    const headline = model.summary.find((l) => l.label === 'Forecast ee')!.value as string;
+    // ±0.2 percentage points → one decimal [C].
+    expect(headline).toMatch(/^\d+\.\d % ee \(er \d+\.\d:1\) \(95 % prediction interval \d+\.\d to \d+\.\d % ee\)/);
+    expect(model.specificationText).toBe('ee ≥ 95.0 %');
+    const text = model.summary.map((l) => `${l.label} ${String(l.value)}`).join('\n');
+    expect(text).not.toMatch(/\b(de|dr)\b/);
+  });
+
+  it('when a plain-ratio campaign is exported, then no excess column appears', () => {
+    const data = demoReportData(12);
+    const campaign = { ...data.campaign, measure: 'ratio' } as typeof data.campaign;
+    const model = buildReportModel({ ...data, campaign, specification: null }, demoMeta);
+    expect(model.labels.excess).toBeNull();
+    expect(model.specificationText).toBe('no specification set');
+    expect(measurementsCsv(model).split('\r\n')[0]).not.toMatch(/ee|de \(%\)/);
+  });
+});
