@@ -14,3 +14,8 @@ export * from './two-branch';
 export * from './distribution';
 export * from './rate';
 export * from './erosion';
+export * from './plan-predictive';
+export * from './rate-fit';
+export * from './plan';
+export * from './plan-design';
+export * from './comparison';
