@@ -23,6 +23,7 @@ import { mailboxRouter } from './features/mail/routes';
 import { rateLimit } from 'express-rate-limit';
 import { computeRouter } from './features/compute/routes';
 import { kineticsRouter } from './features/kinetics/routes';
+import { planRouter } from './features/plan/routes';
 import { docsRouter } from './features/docs/routes';
 import { campaignsRouter } from './features/campaigns/routes';
 
@@ -96,6 +97,7 @@ export function createApp(deps: AppDeps): Express {
   });
   api.use('/v1', computeRouter([computeLimit]));
   api.use('/v1', kineticsRouter([computeLimit]));
+  api.use('/v1', planRouter([computeLimit]));
   api.use('/v1', docsRouter({ version: deps.config.version }));
   api.use('/v1', sessionRouter({ config: deps.config }));
   api.use('/v1', projectsRouter({ knex: deps.knex, config: deps.config, mailer }));

@@ -134,7 +134,7 @@ const RULES: Record<string, Rule> = {
 };
 
 /** Public calculators and documentation owned by other features: same answer for every valid caller. */
-const PUBLIC_PREFIXES = ['/api/v1/openapi.json', '/api/v1/forecast', '/api/v1/fit', '/api/v1/distribution', '/api/v1/rate', '/api/v1/erosion'];
+const PUBLIC_PREFIXES = ['/api/v1/openapi.json', '/api/v1/forecast', '/api/v1/fit', '/api/v1/distribution', '/api/v1/rate', '/api/v1/erosion', '/api/v1/plan'];
 const ruleFor = (route: string): Rule | undefined =>
   RULES[route] ?? (PUBLIC_PREFIXES.includes(route.split(' ')[1]) ? { access: 'public' } : undefined);
 

@@ -59,7 +59,7 @@ const energyOut = (jPerMol: number): EnergyOut => ({
   'kcal/mol': energyFromJPerMol(jPerMol, 'kcal/mol'),
 });
 
-const SECONDS_PER: Record<ReadableDuration['unit'], number> = { s: 1, min: 60, h: 3600, d: 86_400, y: 365.25 * 86_400 };
+export const SECONDS_PER: Record<ReadableDuration['unit'], number> = { s: 1, min: 60, h: 3600, d: 86_400, y: 365.25 * 86_400 };
 
 /** Seconds in the unit a person would say: s below 2 min, min below 2 h, h below 2 d, d below 2 years, then years. */
 export function readableDuration(seconds: number): ReadableDuration {
