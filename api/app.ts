@@ -24,6 +24,7 @@ import { rateLimit } from 'express-rate-limit';
 import { computeRouter } from './features/compute/routes';
 import { kineticsRouter } from './features/kinetics/routes';
 import { planRouter } from './features/plan/routes';
+import { planStoreRouter } from './features/plan/store-routes';
 import { docsRouter } from './features/docs/routes';
 import { campaignsRouter } from './features/campaigns/routes';
 
@@ -104,6 +105,7 @@ export function createApp(deps: AppDeps): Express {
   api.use('/v1', invitationsRouter({ knex: deps.knex }));
   api.use('/v1', tokensRouter({ config: deps.config }));
   api.use('/v1', campaignsRouter({ knex: deps.knex, version: deps.config.version }));
+  api.use('/v1', planStoreRouter({ knex: deps.knex }));
   api.use('/{*splat}', notFoundHandler);
   app.use('/api', api);
 

@@ -60,27 +60,37 @@ const runSchema = z
   .object({ temperature: temperatureSchema, conversionPercent: percentOpen('conversionPercent'), time: durationSchema })
   .meta({ id: 'PlanRateRun' });
 
+const rateFields = {
+  runs: z.array(runSchema).min(2, 'give at least two runs').max(MAX_POINTS, `at most ${MAX_POINTS} runs`),
+  order: z.enum(['first', 'pseudo-first', 'second']).default('first'),
+  limiting: concentrationSchema.optional().meta({ description: 'pseudo-first order: the limiting reagent' }),
+  excess: concentrationSchema.optional().meta({ description: 'pseudo-first order: the reagent in excess' }),
+  initial: concentrationSchema.optional().meta({ description: 'second order: the equal starting concentrations' }),
+  targetConversionPercent: percentOpen('targetConversionPercent'),
+  maxTime: durationSchema.optional().meta({ description: 'Longest allowed reaction time; a constraint on the plan' }),
+  lowConversionPercent: finite('lowConversionPercent').gt(0).lt(100).default(10).meta({
+    description: 'Runs below this conversion are flagged (default 10 %)',
+  }),
+};
+
+function requireConcentrations(r: { order: string; limiting?: unknown; excess?: unknown; initial?: unknown }, ctx: z.RefinementCtx) {
+  if (r.order === 'pseudo-first') {
+    if (!r.limiting) ctx.addIssue({ code: 'custom', path: ['limiting'], message: 'pseudo-first order needs the limiting concentration' });
+    if (!r.excess) ctx.addIssue({ code: 'custom', path: ['excess'], message: 'pseudo-first order needs the excess concentration' });
+  }
+  if (r.order === 'second' && !r.initial) ctx.addIssue({ code: 'custom', path: ['initial'], message: 'second order needs the starting concentration' });
+}
+
 export const planRateSchema = z
-  .object({
-    runs: z.array(runSchema).min(2, 'give at least two runs').max(MAX_POINTS, `at most ${MAX_POINTS} runs`),
-    order: z.enum(['first', 'pseudo-first', 'second']).default('first'),
-    limiting: concentrationSchema.optional().meta({ description: 'pseudo-first order: the limiting reagent' }),
-    excess: concentrationSchema.optional().meta({ description: 'pseudo-first order: the reagent in excess' }),
-    initial: concentrationSchema.optional().meta({ description: 'second order: the equal starting concentrations' }),
-    targetConversionPercent: percentOpen('targetConversionPercent'),
-    maxTime: durationSchema.optional().meta({ description: 'Longest allowed reaction time; a constraint on the plan' }),
-    lowConversionPercent: finite('lowConversionPercent').gt(0).lt(100).default(10).meta({
-      description: 'Runs below this conversion are flagged (default 10 %)',
-    }),
-  })
-  .superRefine((r, ctx) => {
-    if (r.order === 'pseudo-first') {
-      if (!r.limiting) ctx.addIssue({ code: 'custom', path: ['limiting'], message: 'pseudo-first order needs the limiting concentration' });
-      if (!r.excess) ctx.addIssue({ code: 'custom', path: ['excess'], message: 'pseudo-first order needs the excess concentration' });
-    }
-    if (r.order === 'second' && !r.initial) ctx.addIssue({ code: 'custom', path: ['initial'], message: 'second order needs the starting concentration' });
-  })
+  .object(rateFields)
+  .superRefine(requireConcentrations)
   .meta({ id: 'PlanRate', description: "The main reaction's rate from runs: conversion reached after a time at a temperature." });
+
+/** A stored campaign's rate: the runs default to the campaign's own runs that carry conversion and time. */
+export const campaignPlanRateSchema = z
+  .object({ ...rateFields, runs: rateFields.runs.optional() })
+  .superRefine(requireConcentrations)
+  .meta({ id: 'CampaignPlanRate' });
 
 export const planHoldSchema = z
   .object({
@@ -95,39 +105,43 @@ export const planRuleSchema = z.enum(['warmest', 'coldest', 'middle']).meta({
   description: 'warmest (default): the warmest temperature where every constraint holds; coldest; middle of the window',
 });
 
+const planFields = {
+  weighting: z.enum(['none', 'uncertainty']).default('none'),
+  uncertaintyScale: z.enum(['absolute', 'relative']).default('absolute'),
+  newRunUncertainty: finite('newRunUncertainty').positive('must be greater than zero').optional().meta({
+    description: "The assay's precision for one new run, in the specification measure's units (ee: % points; er/percentA: points of the major share; dr: relative SD of r)",
+  }),
+  temperatures: z
+    .object({ from: temperatureSchema, to: temperatureSchema })
+    .superRefine((r, ctx) => {
+      const from = kelvinOf(r.from);
+      const to = kelvinOf(r.to);
+      if (Number.isFinite(from) && Number.isFinite(to) && !(to > from)) {
+        ctx.addIssue({ code: 'custom', path: ['to'], message: 'must be warmer than temperatures.from (the range runs cold to warm)' });
+      }
+    })
+    .meta({ description: 'The allowed (jacket) range, coldest to warmest' }),
+  at: z.array(temperatureSchema).max(MAX_POINTS, `at most ${MAX_POINTS} temperatures`).default([]),
+  hold: planHoldSchema.optional(),
+  applyAtProbability: z.boolean().default(false).meta({
+    description: 'Apply the time and hold constraints at the required probability instead of at the central estimate',
+  }),
+  rule: planRuleSchema.default('warmest'),
+  nextRuns: z
+    .object({
+      count: z.number().int('must be a whole number').min(1, 'at least 1').max(24, 'at most 24'),
+      at: temperatureSchema.optional().meta({ description: 'Default: the recommended temperature' }),
+    })
+    .optional(),
+  curvePoints: z.number().int().min(2).max(2001).default(121),
+};
+
 export const planRequestSchema = z
   .object({
+    ...planFields,
     measurements: z.array(measurementInputSchema).min(1, 'give at least three measurements').max(MAX_POINTS, `at most ${MAX_POINTS} measurements`),
-    weighting: z.enum(['none', 'uncertainty']).default('none'),
-    uncertaintyScale: z.enum(['absolute', 'relative']).default('absolute'),
-    newRunUncertainty: finite('newRunUncertainty').positive('must be greater than zero').optional().meta({
-      description: "The assay's precision for one new run, in the specification measure's units (ee: % points; er/percentA: points of the major share; dr: relative SD of r)",
-    }),
     specification: specificationSchema,
-    temperatures: z
-      .object({ from: temperatureSchema, to: temperatureSchema })
-      .superRefine((r, ctx) => {
-        const from = kelvinOf(r.from);
-        const to = kelvinOf(r.to);
-        if (Number.isFinite(from) && Number.isFinite(to) && !(to > from)) {
-          ctx.addIssue({ code: 'custom', path: ['to'], message: 'must be warmer than temperatures.from (the range runs cold to warm)' });
-        }
-      })
-      .meta({ description: 'The allowed (jacket) range, coldest to warmest' }),
-    at: z.array(temperatureSchema).max(MAX_POINTS, `at most ${MAX_POINTS} temperatures`).default([]),
     rate: planRateSchema.optional(),
-    hold: planHoldSchema.optional(),
-    applyAtProbability: z.boolean().default(false).meta({
-      description: 'Apply the time and hold constraints at the required probability instead of at the central estimate',
-    }),
-    rule: planRuleSchema.default('warmest'),
-    nextRuns: z
-      .object({
-        count: z.number().int('must be a whole number').min(1, 'at least 1').max(24, 'at most 24'),
-        at: temperatureSchema.optional().meta({ description: 'Default: the recommended temperature' }),
-      })
-      .optional(),
-    curvePoints: z.number().int().min(2).max(2001).default(121),
   })
   .meta({ id: 'PlanRequest' });
 export type PlanRequest = z.infer<typeof planRequestSchema>;
@@ -203,3 +217,131 @@ export const planResponseSchema = z
   })
   .meta({ id: 'PlanResponse' });
 export type PlanResponse = z.infer<typeof planResponseSchema>;
+
+// ---------- stored: specifications, campaign plans, comparisons ----------
+
+export const specificationPutSchema = specificationShape
+  .extend({ version: z.number().int().min(1).optional().meta({ description: 'The version last read; required once a specification exists' }) })
+  .superRefine((s, ctx) => {
+    const rule = SPEC_MINIMUM_RULES[s.measure];
+    if (rule && !rule.ok(s.minimum)) ctx.addIssue({ code: 'custom', path: ['minimum'], message: rule.message });
+  })
+  .meta({ id: 'SpecificationPut' });
+export type SpecificationPut = z.infer<typeof specificationPutSchema>;
+
+export const storedSpecificationSchema = specificationShape
+  .extend({ runs: z.number().int(), version: z.number().int(), updatedAt: z.string() })
+  .meta({ id: 'StoredSpecification' });
+
+export const campaignSpecificationResponseSchema = z
+  .object({
+    campaign: storedSpecificationSchema.nullable(),
+    project: storedSpecificationSchema.nullable(),
+    effective: storedSpecificationSchema.nullable(),
+    source: z.enum(['campaign', 'project']).nullable(),
+  })
+  .meta({ id: 'CampaignSpecification' });
+
+export const campaignPlanInputsSchema = z
+  .object({
+    ...planFields,
+    specification: specificationSchema.optional().meta({ description: "Default: the campaign's specification, else the project's" }),
+    rate: campaignPlanRateSchema.optional(),
+  })
+  .meta({ id: 'CampaignPlanInputs' });
+export type CampaignPlanInputs = z.infer<typeof campaignPlanInputsSchema>;
+
+export const campaignPlanPutSchema = z
+  .object({
+    inputs: campaignPlanInputsSchema,
+    version: z.number().int().min(1).optional().meta({ description: 'The version last read; required once a plan exists' }),
+  })
+  .meta({ id: 'CampaignPlanPut' });
+
+export const campaignPlanSchema = z
+  .object({
+    campaignId: z.string(),
+    inputs: campaignPlanInputsSchema,
+    result: planResponseSchema,
+    version: z.number().int(),
+    updatedAt: z.string(),
+  })
+  .meta({ id: 'CampaignPlan' });
+
+export const comparisonCreateSchema = z
+  .object({
+    projectId: z.uuid({ error: 'must be a project id' }),
+    name: z.string({ error: 'give the comparison a name' }).trim().min(1, 'give the comparison a name').max(200, 'at most 200 characters'),
+    campaignIds: z
+      .array(z.uuid({ error: 'must be a campaign id' }))
+      .min(2, 'choose at least two campaigns to compare')
+      .max(6, 'choose at most six campaigns')
+      .superRefine((ids, ctx) => {
+        ids.forEach((id, i) => {
+          if (ids.indexOf(id) !== i) ctx.addIssue({ code: 'custom', path: [i], message: 'this campaign is already in the comparison' });
+        });
+      }),
+    temperature: temperatureSchema,
+  })
+  .meta({ id: 'ComparisonCreate' });
+export type ComparisonCreate = z.infer<typeof comparisonCreateSchema>;
+
+const energyWithSe = z.object({ 'kJ/mol': z.number(), 'kcal/mol': z.number(), se: z.number().nullable().meta({ description: 'kJ/mol' }) });
+export const comparisonResultSchema = z
+  .object({
+    temperature: kc,
+    campaigns: z.array(
+      z.object({
+        id: z.string(),
+        title: z.string().nullable(),
+        measure: z.string().nullable(),
+        projectId: z.string().nullable(),
+        available: z.boolean(),
+        problem: z.string().nullable(),
+        fit: z
+          .object({
+            n: z.number().int(),
+            ddH: energyWithSe,
+            ddS: z.object({ 'J/(mol*K)': z.number(), 'cal/(mol*K)': z.number(), se: z.number().nullable() }),
+            at: z.object({ lnRatio: z.number(), value: z.number(), interval: interval }),
+            curve: z.array(z.object({ kelvin: z.number(), celsius: z.number(), lnRatio: z.number(), value: z.number(), interval: interval })),
+            eyring: z.array(z.object({ kelvin: z.number(), inverseKelvin: z.number(), lnRatio: z.number(), status: z.string() })),
+          })
+          .nullable(),
+      }),
+    ),
+    pairs: z.array(
+      z.object({
+        first: z.string(),
+        second: z.string(),
+        differenceLnR: z.number(),
+        interval: interval,
+        dof: z.number(),
+        differenceDdG: z.object({ 'kJ/mol': z.number(), interval: interval }),
+        probabilityFirstBetter: z.number(),
+        verdict: z.enum(['first', 'second', 'cannot-tell']),
+        equalSlopes: z.object({ F: z.number().nullable(), dof1: z.number(), dof2: z.number(), p: z.number().nullable() }),
+        crossover: z
+          .object({ kelvin: z.number(), celsius: z.number(), interval: z.tuple([kc.nullable(), kc.nullable()]), bounded: z.boolean(), note: z.string() })
+          .nullable(),
+        runsToTellApart: z.number().int().nullable().meta({ description: 'Runs to add at the temperature to each campaign before the difference would be told apart (80 % power); null when more than 50' }),
+        note: z.string(),
+      }),
+    ),
+    valueMeasure: z.enum(['ee', 'dr', 'percentA']),
+    convention: z.string(),
+    caution: z.string(),
+  })
+  .meta({ id: 'ComparisonResult' });
+
+export const comparisonSchema = z
+  .object({
+    id: z.string(),
+    projectId: z.string(),
+    name: z.string(),
+    campaignIds: z.array(z.string()),
+    temperature: kc,
+    createdAt: z.string(),
+    result: comparisonResultSchema,
+  })
+  .meta({ id: 'Comparison' });
