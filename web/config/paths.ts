@@ -10,6 +10,8 @@ export const paths = {
   campaign: { path: '/campaigns/:campaignId', getHref: (campaignId: string) => `/campaigns/${campaignId}` },
   /** Served by the API server: the campaign's spreadsheet report (a download, not a page). */
   campaignReport: { path: '/api/v1/campaigns/:campaignId/report.xlsx', getHref: (campaignId: string) => `/api/v1/campaigns/${campaignId}/report.xlsx` },
+  compare: { path: '/projects/:projectId/compare', getHref: (projectId: string) => `/projects/${projectId}/compare` },
+  comparison: { path: '/comparisons/:comparisonId', getHref: (comparisonId: string) => `/comparisons/${comparisonId}` },
   projectSettings: { path: '/projects/:projectId/settings', getHref: (projectId: string) => `/projects/${projectId}/settings` },
   projectHistory: { path: '/projects/:projectId/history', getHref: (projectId: string) => `/projects/${projectId}/history` },
   tokens: { path: '/settings/tokens', getHref: () => '/settings/tokens' },

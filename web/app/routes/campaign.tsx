@@ -14,6 +14,7 @@ import { ForecastPanel, SavedForecasts } from '../../features/campaigns/componen
 import { MeasurementGrid } from '../../features/campaigns/components/measurement-grid';
 import { UploadWizard } from '../../features/campaigns/components/upload-wizard';
 import { useProject } from '../../features/projects/api/projects';
+import { PlannerPanel } from '../../features/plan/components/planner-panel';
 
 const INVENTED = /kestrelmoor|invented/i;
 
@@ -80,6 +81,9 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
 
         <Panel title="Forecast at a proposed temperature">
           <ForecastPanel campaignId={campaign.id} analysis={analysis.data} atCelsius={atCelsius} onAt={setAtCelsius} weighting={weighting} canEdit={canEdit} />
+        </Panel>
+        <Panel title="Plan the temperature">
+          <PlannerPanel campaignId={campaign.id} projectId={campaign.projectId} canEdit={canEdit} />
         </Panel>
         <Panel title="Saved forecasts">
           <SavedForecasts campaignId={campaign.id} canEdit={canEdit} />
