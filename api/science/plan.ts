@@ -333,17 +333,20 @@ export function planTemperature(input: PlanInput): PlanResult {
       if (n.highK !== null) uppers.push({ c: n.constraint, k: n.highK, text: n.message });
       if (n.lowK !== null) lowers.push({ c: n.constraint, k: n.lowK, text: n.message });
     }
-    let worst: { u: (typeof uppers)[number]; l: (typeof lowers)[number] } | null = null;
-    for (const u of uppers) for (const l of lowers) if (u.c !== l.c && u.k < l.k && (!worst || l.k - u.k > worst.l.k - worst.u.k)) worst = { u, l };
+    // Every upper limit below a lower limit is a conflict; report them widest first.
+    const pairs: { u: (typeof uppers)[number]; l: (typeof lowers)[number]; gap: number }[] = [];
+    for (const u of uppers) for (const l of lowers) if (u.c !== l.c && u.k < l.k) pairs.push({ u, l, gap: l.k - u.k });
+    pairs.sort((a, b) => b.gap - a.gap);
+    const worst = pairs[0] ?? null;
     const nowhere = needs.filter((n) => n.kind === 'nowhere');
-    const parts = [...nowhere.map((n) => n.message), ...(worst ? [`${worst.u.text}, ${worst.l.text}: ${(worst.l.k - worst.u.k).toFixed(1)} K apart`] : [])];
-    const blame = new Set<PlanConstraint>([...nowhere.map((n) => n.constraint), ...(worst ? [worst.u.c, worst.l.c] : [])]);
+    const parts = [...nowhere.map((n) => n.message), ...pairs.map((p) => `${p.u.text}, ${p.l.text}: ${p.gap.toFixed(1)} K apart`)];
+    const blame = new Set<PlanConstraint>([...nowhere.map((n) => n.constraint), ...pairs.flatMap((p) => [p.u.c, p.l.c])]);
     if (parts.length === 0) {
       // Each constraint can be met inside the range but never all at once (e.g. two narrow stretches).
       for (const n of needs) if (n.kind !== 'everywhere') blame.add(n.constraint);
       parts.push(`no temperature meets ${[...blame].map((c) => CONSTRAINT_LABEL[c]).join(' and ')} at once`);
     }
-    conflict = { message: `No temperature from ${fmt(from)} to ${fmt(to)} satisfies everything: ${parts.join('; ')}.`, gapK: worst ? worst.l.k - worst.u.k : null };
+    conflict = { message: `No temperature from ${fmt(from)} to ${fmt(to)} satisfies everything: ${parts.join('; ')}.`, gapK: worst ? worst.gap : null };
     for (const c of blame) binding.add(c);
     const spec = needs.find((n) => n.constraint === 'specification');
     if (blame.has('specification')) {
