@@ -108,8 +108,8 @@ function WindowPanel({ title, yLabel, line, band, rule, regions, recommended, yS
         {width > 0 && data.length > 1 && (
           <XYChart
             width={width}
-            height={170}
-            margin={{ top: 14, right: 16, bottom: 40, left: 70 }}
+            height={180}
+            margin={{ top: 14, right: 16, bottom: 46, left: 70 }}
             theme={chartTheme}
             xScale={{ type: 'linear', domain: xDomain, zero: false }}
             yScale={yScale === 'log' ? { type: 'log', domain: yDomain, clamp: true } : { type: 'linear', domain: yDomain, zero: false, nice: true }}
