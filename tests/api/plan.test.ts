@@ -152,4 +152,12 @@ describe('POST /api/v1/plan', () => {
     expect(res.status).toBeLessThan(500);
     expect(res.body.errors[0].path).toBe('at.1.value');
   });
+
+  it('when the API description is read, then the planner and its stored routes are described', async () => {
+    const res = await request(testApp().app).get('/api/v1/openapi.json').expect(200);
+    for (const p of ['/api/v1/plan', '/api/v1/campaigns/{campaignId}/plan', '/api/v1/campaigns/{campaignId}/specification', '/api/v1/projects/{projectId}/specification', '/api/v1/comparisons', '/api/v1/comparisons/{comparisonId}']) {
+      expect(Object.keys(res.body.paths)).toContain(p);
+    }
+    expect(res.body.components.schemas.PlanRequest).toBeDefined();
+  });
 });

@@ -74,14 +74,14 @@ describe('temperature planner in Chromium', () => {
     await form.getByLabel('Longest reaction time (h)').fill('24');
     await form.getByRole('button', { name: 'Plan and save' }).click();
 
-    await expect.poll(() => page.getByTestId('recommended').isVisible()).toBe(true);
+    await page.getByTestId('recommended').waitFor();
     const recommended = await page.getByTestId('recommended').innerText();
     expect(recommended).toMatch(/−?\d+\.\d °C/);
     expect(await page.getByTestId('plan-summary').innerText()).toMatch(/Rule: The warmest temperature/);
     expect(await page.getByTestId('plan-summary').getByRole('note', { name: 'Safety caution' }).isVisible()).toBe(true);
     // The window chart draws every panel, marks the recommendation and names what excludes the rest.
-    await expect.poll(() => page.getByTestId('window-selectivity').locator('svg').count()).toBeGreaterThan(0);
-    await expect.poll(() => page.getByTestId('window-time').locator('svg').count()).toBeGreaterThan(0);
+    await page.getByTestId('window-selectivity').locator('svg').first().waitFor();
+    await page.getByTestId('window-time').locator('svg').first().waitFor();
     expect(await page.getByTestId('window-selectivity').innerText()).toMatch(/recommended/);
     expect(await page.getByTestId('window-selectivity').innerText()).toMatch(/excluded: /);
     await maybeScreenshot(page, 'plan-feasible-1440');
@@ -92,13 +92,13 @@ describe('temperature planner in Chromium', () => {
     // A specification the range cannot meet is an answer: no recommendation, the conflict named.
     await form.getByLabel('Minimum').fill('99.9');
     await form.getByRole('button', { name: 'Plan and save' }).click();
-    await expect.poll(() => page.getByTestId('no-recommendation').isVisible()).toBe(true);
+    await page.getByTestId('no-recommendation').waitFor();
     expect(await page.getByTestId('no-recommendation').innerText()).toMatch(/specification needs ≤/);
     await maybeScreenshot(page, 'plan-infeasible-1440');
 
     // The plan is stored: a reload shows it.
     await page.reload();
-    await expect.poll(() => page.getByTestId('no-recommendation').isVisible()).toBe(true);
+    await page.getByTestId('no-recommendation').waitFor();
 
     // Compare the two screens and save the comparison.
     await page.getByRole('link', { name: 'Compare campaigns →' }).click();
@@ -108,9 +108,9 @@ describe('temperature planner in Chromium', () => {
     await page.getByLabel('Name').fill('Osprey against Plover');
     await page.getByRole('button', { name: 'Compare and save' }).click();
     await page.waitForURL(/\/comparisons\//);
-    await expect.poll(() => page.getByTestId('comparison-pairs').isVisible()).toBe(true);
+    await page.getByTestId('comparison-pairs').waitFor();
     expect(await page.getByTestId('comparison-pairs').innerText()).toMatch(/the first is more selective/);
-    await expect.poll(() => page.getByTestId('comparison-chart').locator('svg').count()).toBeGreaterThan(0);
+    await page.getByTestId('comparison-chart').locator('svg').first().waitFor();
     await maybeScreenshot(page, 'comparison-1440');
   }, 90_000);
 });
