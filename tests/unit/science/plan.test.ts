@@ -176,6 +176,23 @@ describe('recommended temperature and window', () => {
     expect(kTrue(probe.window!.fromK) * 24 * 3600).toBeCloseTo(-Math.log(0.05), 2);
   });
 
+  it('when the time limit is applied at the required probability, then its edge moves warmer than with the central estimate', () => {
+    // Scattered runs, so the rate line has an interval.
+    const runs = RATE_RUNS.map((r, i) => ({ ...r, timeS: r.timeS * [1.15, 0.9, 1.08, 0.95][i]! }));
+    const scattered = fitRateFromRuns(runs);
+    const rateInput = { fit: scattered, targetConversion: 0.95, maxTimeS: 24 * 3600 };
+    const central = planTemperature(base({ rate: rateInput, rule: 'coldest' }));
+    const sure = planTemperature(base({ rate: rateInput, rule: 'coldest', applyAtProbability: true }));
+    expect(sure.window!.fromK).toBeGreaterThan(central.window!.fromK);
+    // [C] at the sure edge the upper 95 % quantile of a new batch's ln t equals ln 24 h
+    const line = scattered.line;
+    const t = sure.window!.fromK;
+    const dx = 1 / t - line.xMean;
+    const se = Math.sqrt(line.varianceScale! * (1 + 1 / line.n + (dx * dx) / line.sxx));
+    const q = jStat.studentt.inv(0.95, line.dof); // jstat 1.9.6, independent of the engine's quantile
+    expect(Math.log(timeToTargetAt(scattered, t, 0.95).timeS) + q * se).toBeCloseTo(Math.log(24 * 3600), 4);
+  });
+
   it('when the middle rule is chosen, then the recommendation is the middle of the window', () => {
     const p = planTemperature(base({ rate: { fit: rate, targetConversion: 0.95, maxTimeS: 24 * 3600 }, rule: 'middle' }));
     expect(p.recommended!.temperatureK).toBeCloseTo((p.window!.fromK + p.window!.toK) / 2, 9);
