@@ -111,6 +111,7 @@ describe('temperature planner in Chromium', () => {
     await page.getByTestId('comparison-pairs').waitFor();
     expect(await page.getByTestId('comparison-pairs').innerText()).toMatch(/the first is more selective/);
     await page.getByTestId('comparison-chart').locator('svg').first().waitFor();
+    await page.getByTestId('comparison-eyring').locator('svg').first().waitFor();
     await maybeScreenshot(page, 'comparison-1440');
   }, 90_000);
 });

@@ -10,6 +10,7 @@ import { SignedInOnly } from '../../features/auth/components/signed-in-only';
 import { ConventionNote, NumberField, buttonClass, inputClass } from '../../features/calculators/components/fields';
 import { useCampaigns } from '../../features/campaigns/api/campaigns';
 import { useComparison, useCreateComparison, type ComparisonView } from '../../features/plan/api/plan';
+import { EyringOverlay } from '../../features/plan/components/eyring-overlay';
 
 const VERDICT: Record<string, string> = {
   first: 'the first is more selective',
@@ -31,6 +32,9 @@ function ComparisonBody({ view }: { view: ComparisonView }) {
           testId="comparison-chart"
           series={r.campaigns.filter((c) => c.fit).map((c) => ({ key: c.id, label: c.title ?? c.id, points: c.fit!.curve.map((p) => ({ x: p.celsius, y: p.value })) }))}
         />
+      </Panel>
+      <Panel title="Eyring plots (ln r against 1000/T)">
+        <EyringOverlay result={r} />
       </Panel>
       <Panel title={`At ${fixed(r.temperature.celsius, 1)} °C`}>
         <div className="overflow-x-auto">
