@@ -26,6 +26,8 @@ import { mailboxRouter } from './features/mail/routes';
 import { ipKeyGenerator } from 'express-rate-limit';
 import { computeRouter } from './features/compute/routes';
 import { kineticsRouter } from './features/kinetics/routes';
+import { planRouter } from './features/plan/routes';
+import { planStoreRouter } from './features/plan/store-routes';
 import { docsRouter } from './features/docs/routes';
 import { campaignsRouter } from './features/campaigns/routes';
 import { JobQueue, jobOptionsFromEnv } from './features/jobs/queue';
@@ -127,6 +129,7 @@ export function createApp(deps: AppDeps): Express {
   });
   api.use('/v1', computeRouter([computeLimit]));
   api.use('/v1', kineticsRouter([computeLimit]));
+  api.use('/v1', planRouter([computeLimit]));
   api.use('/v1', docsRouter({ version: deps.config.version }));
   api.use('/v1', sessionRouter({ config: deps.config }));
   api.use('/v1', projectsRouter({ knex: deps.knex, config: deps.config, mailer }));
@@ -142,6 +145,7 @@ export function createApp(deps: AppDeps): Express {
   });
   api.use('/v1', campaignsRouter({ knex: deps.knex, version: deps.config.version, jobs, uploadLimit, importJobBytes: deps.config.importJobBytes, mailer }));
   api.use('/v1', jobsRouter({ knex: deps.knex }));
+  api.use('/v1', planStoreRouter({ knex: deps.knex }));
   api.use('/{*splat}', notFoundHandler);
   app.use('/api', api);
 

@@ -3,6 +3,7 @@ import { DEMO_IDENTITIES, DEMO_PROJECTS } from './demo';
 import { seedDemoProjects } from './seed-projects';
 import { seedDemoCampaigns } from './seed-campaigns';
 import { DEMO_CAMPAIGNS } from './demo-campaigns';
+import { seedDemoPlans } from './seed-plans';
 
 /**
  * Seed the invented demo scenario. Idempotent: running it twice changes
@@ -18,6 +19,7 @@ export async function seedDemo(knex: Knex): Promise<{ users: number; projects: n
     }
     await seedDemoProjects(trx);
     await seedDemoCampaigns(trx);
+    await seedDemoPlans(trx);
     return { users: DEMO_IDENTITIES.length, projects: DEMO_PROJECTS.length, campaigns: DEMO_CAMPAIGNS.length };
   });
 }

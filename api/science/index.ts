@@ -15,3 +15,8 @@ export * from './distribution';
 export * from './rate';
 export * from './erosion';
 export * from './screen-model';
+export * from './plan-predictive';
+export * from './rate-fit';
+export * from './plan';
+export * from './plan-design';
+export * from './comparison';

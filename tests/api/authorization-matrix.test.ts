@@ -13,6 +13,7 @@ import { createProject } from '../factories/projects';
 import { createApiToken } from '../factories/tokens';
 import { createCampaign, createMeasurements } from '../factories/campaigns';
 import { SavedForecast } from '../../api/models/saved-forecast';
+import { Comparison } from '../../api/models/plan';
 
 
 /**
@@ -38,7 +39,8 @@ interface Rule {
   /** Status for callers who pass authorization; per-caller overrides where the outcome differs. */
   ok?: number | Partial<Record<Who, number>>;
   params?: (cell: Cell) => Promise<Record<string, string>> | Record<string, string>;
-  body?: () => unknown;
+  /** The body; it may use the filled-in path parameters (e.g. a project id the route reads from the body). */
+  body?: (params: Record<string, string>) => unknown;
   /** Query string parameters (e.g. the version of a delete). */
   query?: Record<string, string>;
   /** The call signs the caller out; sign them in again before the next cell. */
@@ -82,6 +84,13 @@ async function aMeasurement(c: Cell) {
   const campaign = await createCampaign(c.projectId);
   const [m] = await createMeasurements(campaign.id, [253.15]);
   return { measurementId: m!.id };
+}
+
+const aSpecification = { measure: 'ee', minimum: 97, probability: 0.9 };
+async function twoScreens(c: Cell) {
+  const first = (await aScreen(c)).campaignId;
+  const second = (await aScreen(c)).campaignId;
+  return { first, second };
 }
 
 const RULES: Record<string, Rule> = {
@@ -172,10 +181,39 @@ const RULES: Record<string, Rule> = {
       return { forecastId: forecast.id };
     },
   },
+
+  // Planning: specifications, stored plans and comparisons; viewers read, editors write.
+  'GET /api/v1/projects/:projectId/specification': { access: 'viewer', ok: 200 },
+  'PUT /api/v1/projects/:projectId/specification': { access: 'editor', ok: 200, body: () => aSpecification },
+  'GET /api/v1/campaigns/:campaignId/specification': { access: 'viewer', ok: 200, params: aCampaign },
+  'PUT /api/v1/campaigns/:campaignId/specification': { access: 'editor', ok: 200, params: aCampaign, body: () => aSpecification },
+  'GET /api/v1/campaigns/:campaignId/plan': { access: 'viewer', ok: 200, params: aCampaign },
+  'PUT /api/v1/campaigns/:campaignId/plan': {
+    access: 'editor',
+    ok: 200,
+    params: aScreen,
+    body: () => ({ inputs: { specification: aSpecification, temperatures: { from: { value: -60, unit: 'C' }, to: { value: 30, unit: 'C' } }, curvePoints: 5 } }),
+  },
+  'GET /api/v1/comparisons': { access: 'user', ok: 200 },
+  'POST /api/v1/comparisons': {
+    access: 'editor',
+    ok: 201,
+    params: twoScreens,
+    body: (p) => ({ projectId: p.projectId, name: 'Matrix comparison', campaignIds: [p.first, p.second], temperature: { value: -20, unit: 'C' } }),
+  },
+  'GET /api/v1/comparisons/:comparisonId': {
+    access: 'viewer',
+    ok: 200,
+    params: async (c) => {
+      const { first, second } = await twoScreens(c);
+      const row = await Comparison.query().insert({ projectId: c.projectId, name: 'Matrix comparison', campaignIds: [first, second], temperatureK: 253.15 }).returning('*');
+      return { comparisonId: row.id };
+    },
+  },
 };
 
 /** Public calculators and documentation owned by other features: same answer for every valid caller. */
-const PUBLIC_PREFIXES = ['/api/v1/openapi.json', '/api/v1/forecast', '/api/v1/fit', '/api/v1/distribution', '/api/v1/rate', '/api/v1/erosion'];
+const PUBLIC_PREFIXES = ['/api/v1/openapi.json', '/api/v1/forecast', '/api/v1/fit', '/api/v1/distribution', '/api/v1/rate', '/api/v1/erosion', '/api/v1/plan'];
 const ruleFor = (route: string): Rule | undefined =>
   RULES[route] ?? (PUBLIC_PREFIXES.includes(route.split(' ')[1]) ? { access: 'public' } : undefined);
 
@@ -252,7 +290,7 @@ describe('authorization matrix', () => {
         if (who === 'bearer') req = req.set('Authorization', `Bearer ${bearer}`);
         if (who === 'revoked') req = req.set('Authorization', `Bearer ${revoked}`);
         if (rule.query) req = req.query(rule.query);
-        if (rule.body) req = req.send(rule.body() as object);
+        if (rule.body) req = req.send(rule.body(params) as object);
         const res = await req;
         if (who === 'anonymous') {
           anonymousStatus = res.status;

@@ -4,6 +4,7 @@ import '../../api/db/pg-types';
 import { createKnex, migrateLatest } from '../../api/db/knex';
 import { seedDemo } from '../../api/db/seed';
 import { DEMO_CAMPAIGNS, DEMO_CAMPAIGN_PROJECT_ID } from '../../api/db/demo-campaigns';
+import { DEMO_ALDOL_CAMPAIGN_ID } from '../../api/db/seed-plans';
 
 // A database of its own, so the demo rows never meet other test files' rows.
 const baseUrl = process.env.DATABASE_URL ?? '';
@@ -35,7 +36,7 @@ describe('demo campaigns seed', () => {
       expect(campaigns.map((c) => c.title).sort()).toEqual(DEMO_CAMPAIGNS.map((c) => c.title).sort());
       const counts = async () =>
         Object.fromEntries((await knex('measurements').groupBy('campaignId').select('campaignId', knex.raw('count(*)::int as n'))).map((r) => [r.campaignId, r.n]));
-      expect(await counts()).toEqual({ [DEMO_CAMPAIGNS[0].id]: 12, [DEMO_CAMPAIGNS[1].id]: 9, [DEMO_CAMPAIGNS[2].id]: 10, [DEMO_CAMPAIGNS[3].id]: 5 });
+      expect(await counts()).toEqual({ [DEMO_CAMPAIGNS[0].id]: 12, [DEMO_CAMPAIGNS[1].id]: 9, [DEMO_CAMPAIGNS[2].id]: 10, [DEMO_CAMPAIGNS[3].id]: 5, [DEMO_ALDOL_CAMPAIGN_ID]: 12 });
 
       // The low-temperature screen carries ≥ 99.8 % ee lower bounds at −60 °C only.
       const bounds = await knex('measurements').where({ campaignId: DEMO_CAMPAIGNS[2].id, isLowerBound: true }).select('temperatureK', 'value');
@@ -60,7 +61,7 @@ describe('demo campaigns seed', () => {
       const victim = await knex('measurements').where({ campaignId: DEMO_CAMPAIGNS[0].id }).first('id');
       await knex('measurements').where({ id: victim.id }).delete();
       await seedDemo(knex);
-      expect(await counts()).toEqual({ [DEMO_CAMPAIGNS[0].id]: 11, [DEMO_CAMPAIGNS[1].id]: 9, [DEMO_CAMPAIGNS[2].id]: 10, [DEMO_CAMPAIGNS[3].id]: 5 });
+      expect(await counts()).toEqual({ [DEMO_CAMPAIGNS[0].id]: 11, [DEMO_CAMPAIGNS[1].id]: 9, [DEMO_CAMPAIGNS[2].id]: 10, [DEMO_CAMPAIGNS[3].id]: 5, [DEMO_ALDOL_CAMPAIGN_ID]: 12 });
       expect(await knex('audit_events').where({ entityType: 'campaign' }).count({ n: '*' }).first()).toEqual({ n: 4 });
     } finally {
       await knex.destroy();

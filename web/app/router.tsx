@@ -27,6 +27,8 @@ export const routes: RouteObject[] = [
       { path: paths.project.path, lazy: async () => ({ Component: (await import('./routes/project')).ProjectRoute }) },
       { path: paths.projectSettings.path, element: <ProjectSettingsRoute /> },
       { path: paths.campaign.path, lazy: async () => ({ Component: (await import('./routes/campaign')).CampaignRoute }) },
+      { path: paths.compare.path, lazy: async () => ({ Component: (await import('./routes/comparison')).CompareRoute }) },
+      { path: paths.comparison.path, lazy: async () => ({ Component: (await import('./routes/comparison')).ComparisonRoute }) },
       { path: paths.projectHistory.path, element: <ProjectHistoryRoute /> },
       { path: paths.tokens.path, element: <TokensRoute /> },
       { path: paths.invitation.path, element: <InvitationRoute /> },

@@ -17,6 +17,7 @@ import { MeasurementGrid } from '../../features/campaigns/components/measurement
 import { ReportMailForm } from '../../features/campaigns/components/report-mail-form';
 import { UploadWizard } from '../../features/campaigns/components/upload-wizard';
 import { useProject } from '../../features/projects/api/projects';
+import { PlannerPanel } from '../../features/plan/components/planner-panel';
 
 const INVENTED = /kestrelmoor|invented/i;
 
@@ -112,6 +113,9 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
             canEdit={canEdit}
             measure={campaign.measure}
           />
+        </Panel>
+        <Panel title="Plan the temperature">
+          <PlannerPanel campaignId={campaign.id} projectId={campaign.projectId} canEdit={canEdit} />
         </Panel>
         <Panel title="Saved forecasts">
           <SavedForecasts campaignId={campaign.id} canEdit={canEdit} measure={campaign.measure} />

@@ -7,7 +7,7 @@ import { thermalColor } from './thermal-scale';
 type NumberScale = ((value: number) => number | undefined) & { domain(): unknown[] };
 
 /** The chart's scales and plot area, for marks that xychart has no series for. */
-function usePlotArea() {
+export function usePlotArea() {
   const { xScale, yScale, margin, innerWidth, innerHeight } = useContext(DataContext);
   if (!xScale || !yScale || !margin || !innerWidth || !innerHeight) return null;
   return { x: xScale as unknown as NumberScale, y: yScale as unknown as NumberScale, margin, innerWidth, innerHeight };

@@ -1,0 +1,247 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import request from 'supertest';
+import { closeTestKnex, testKnex } from '../support/db';
+import { signIn, startAuthApp, type AuthTestApp } from '../support/auth';
+import { createUser } from '../factories/users';
+import { createProject } from '../factories/projects';
+import { createCampaign } from '../factories/campaigns';
+import { Measurement } from '../../api/models/measurement';
+import { campaignPlanSchema, comparisonSchema } from '../../api/features/plan/schemas';
+import { loadComparisonReportData, loadPlanReportData } from '../../api/features/plan/report-data';
+import type { User } from '../../api/models/user';
+import type { Project } from '../../api/models/project';
+
+type Who = 'owner' | 'editor' | 'viewer' | 'outsider';
+type Agent = ReturnType<typeof request.agent>;
+
+let env: AuthTestApp;
+let users: Record<Who, User>;
+let project: Project;
+let outsiderProject: Project;
+const sessions: Partial<Record<Who, { agent: Agent; csrf: string }>> = {};
+
+const R = 6.02214076e23 * 1.380649e-23; // CODATA 2018 [S]
+const NOISE = [0.04, -0.03, 0.02, -0.05, 0.03, -0.01, 0.05, -0.02, 0.01, -0.04]; // invented scatter in ln r
+const TEMPS_K = [-60, -60, -40, -40, -20, -20, 0, 0, 20, 20].map((c) => c + 273.15);
+const kTrue = (t: number) => 2.083661912e10 * t * Math.exp(-100 / R) * Math.exp(-55_000 / (R * t)); // invented [C]
+
+/** An invented screen: ln r = ΔΔH‡/RT − ΔΔS‡/R + noise, stored as ee, with conversion and time on each run. */
+async function screen(projectId: string, ddH = 12_000, shift = 0, measure: 'ee' | 'dr' = 'ee') {
+  const campaign = await createCampaign(projectId, { measure });
+  await Measurement.query().insert(
+    TEMPS_K.map((t, i) => {
+      const y = ddH / (R * t) - 10 / R + shift + NOISE[i]!;
+      const timeS = 3600 * 30 * Math.exp(-((t - 213.15) / 25));
+      return {
+        campaignId: campaign.id,
+        temperatureK: t,
+        measure,
+        value: measure === 'ee' ? 100 * Math.tanh(y / 2) : Math.exp(y),
+        ...(measure === 'dr' ? { valueB: 1 } : {}),
+        conversionPercent: 100 * (1 - Math.exp(-kTrue(t) * timeS)),
+        reactionTimeS: timeS,
+      };
+    }),
+  );
+  return campaign;
+}
+
+beforeAll(async () => {
+  env = await startAuthApp();
+  users = { owner: await createUser(), editor: await createUser(), viewer: await createUser(), outsider: await createUser() };
+  project = await createProject([
+    { user: users.owner, role: 'owner' },
+    { user: users.editor, role: 'editor' },
+    { user: users.viewer, role: 'viewer' },
+  ]);
+  outsiderProject = await createProject([{ user: users.outsider, role: 'owner' }]);
+  for (const who of Object.keys(users) as Who[]) {
+    const u = users[who];
+    const s = await signIn(env.app, { login: u.login, name: u.displayName ?? u.login, email: u.email! });
+    sessions[who] = { agent: s.agent, csrf: s.csrfToken };
+  }
+});
+
+afterAll(async () => {
+  await env?.close();
+  await closeTestKnex();
+});
+
+function as(who: Who) {
+  const { agent, csrf } = sessions[who]!;
+  return {
+    get: (url: string) => agent.get(url),
+    post: (url: string) => agent.post(url).set('X-CSRF-Token', csrf),
+    put: (url: string) => agent.put(url).set('X-CSRF-Token', csrf),
+  };
+}
+const audits = async (entityType: string, entityId: string) => testKnex()('audit_events').where({ entityType, entityId }).orderBy('id');
+const RANGE = { from: { value: -70, unit: 'C' }, to: { value: 40, unit: 'C' } };
+
+describe('specifications', () => {
+  it('when an editor sets the project default and a campaign override, then the campaign reads its override, both are audited and versioned', async () => {
+    const campaign = await screen(project.id);
+    const put1 = await as('editor').put(`/api/v1/projects/${project.id}/specification`).send({ measure: 'ee', minimum: 97, probability: 0.9 }).expect(200);
+    expect(put1.body.specification).toMatchObject({ measure: 'ee', minimum: 97, probability: 0.9, runs: 1, version: 1 });
+    const inherited = await as('viewer').get(`/api/v1/campaigns/${campaign.id}/specification`).expect(200);
+    expect(inherited.body.source).toBe('project');
+    expect(inherited.body.effective.minimum).toBe(97);
+
+    await as('editor').put(`/api/v1/campaigns/${campaign.id}/specification`).send({ measure: 'ee', minimum: 98, probability: 0.95 }).expect(200);
+    const stale = await as('editor').put(`/api/v1/campaigns/${campaign.id}/specification`).send({ measure: 'ee', minimum: 98.5, probability: 0.95, version: 7 }).expect(409);
+    expect(stale.body.currentVersion).toBe(1);
+    const put3 = await as('editor').put(`/api/v1/campaigns/${campaign.id}/specification`).send({ measure: 'ee', minimum: 98.5, probability: 0.95, version: 1 }).expect(200);
+    expect(put3.body).toMatchObject({ source: 'campaign', effective: { minimum: 98.5, version: 2 }, project: { minimum: 97 } });
+    const history = await audits('campaign-specification', campaign.id);
+    expect(history.map((h) => h.action)).toEqual(['create', 'update']);
+    expect(history[1].before.minimum).toBe(98);
+    expect(history[1].after.minimum).toBe(98.5);
+  });
+
+  it.each([
+    [{ measure: 'ee', minimum: 100.5, probability: 0.95 }, 'minimum'],
+    [{ measure: 'dr', minimum: 0.5, probability: 0.95 }, 'minimum'],
+    [{ measure: 'ee', minimum: 99, probability: 0.4 }, 'probability'],
+    [{ measure: 'ee', minimum: 99, probability: 0.9995 }, 'probability'],
+    [{ measure: 'ratio', minimum: 20, probability: 0.95 }, 'measure'],
+  ])('when the specification %j is sent, then 400 names %s and nothing is stored', async (body, path) => {
+    const campaign = await createCampaign(project.id);
+    const res = await as('editor').put(`/api/v1/campaigns/${campaign.id}/specification`).send(body).expect(400);
+    expect(res.body.errors.map((e: { path: string }) => e.path)).toContain(path);
+    expect(await testKnex()('plan_specifications').where({ campaignId: campaign.id }).count({ n: '*' }).first()).toEqual({ n: 0 });
+  });
+
+  it('when a viewer writes or an outsider reads, then 403 and 404', async () => {
+    const campaign = await createCampaign(project.id);
+    await as('viewer').put(`/api/v1/campaigns/${campaign.id}/specification`).send({ measure: 'ee', minimum: 98, probability: 0.95 }).expect(403);
+    await as('outsider').get(`/api/v1/campaigns/${campaign.id}/specification`).expect(404);
+    await as('outsider').get(`/api/v1/projects/${project.id}/specification`).expect(404);
+  });
+});
+
+describe('campaign plan', () => {
+  it('when an editor saves a plan with the stored specification and runs, then inputs and result are kept, versioned and audited', async () => {
+    const campaign = await screen(project.id);
+    await as('editor').put(`/api/v1/campaigns/${campaign.id}/specification`).send({ measure: 'ee', minimum: 98, probability: 0.95 }).expect(200);
+    expect((await as('viewer').get(`/api/v1/campaigns/${campaign.id}/plan`).expect(200)).body.plan).toBeNull();
+    const inputs = { temperatures: RANGE, rate: { targetConversionPercent: 95, maxTime: { value: 24, unit: 'h' } }, curvePoints: 11 };
+    const saved = await as('editor').put(`/api/v1/campaigns/${campaign.id}/plan`).send({ inputs }).expect(200);
+    const plan = campaignPlanSchema.parse(saved.body.plan);
+    expect(plan.version).toBe(1);
+    expect(plan.result.specification.minimum).toBe(98);
+    expect(plan.result.rate!.runs).toHaveLength(10); // every stored run carries conversion and time
+    expect(plan.result.rate!.dH['kJ/mol']).toBeCloseTo(55, 3); // [C] runs made on the invented rate line
+    expect(plan.result.recommended).not.toBeNull();
+    expect(plan.result.caution).toMatch(/calorimetry/);
+
+    // The stateless planner gives the same answer on the same numbers.
+    const runs = await Measurement.query().where({ campaignId: campaign.id }).orderBy('temperatureK').orderBy('id');
+    const stateless = await request(env.app)
+      .post('/api/v1/plan')
+      .send({
+        measurements: runs.map((m) => ({ temperature: { value: m.temperatureK, unit: 'K' }, selectivity: { measure: 'ee', value: m.value } })),
+        specification: { measure: 'ee', minimum: 98, probability: 0.95 },
+        temperatures: RANGE,
+        rate: { ...inputs.rate, runs: runs.map((m) => ({ temperature: { value: m.temperatureK, unit: 'K' }, conversionPercent: m.conversionPercent, time: { value: m.reactionTimeS, unit: 's' } })) },
+        curvePoints: 11,
+      })
+      .expect(200);
+    expect(plan.result.recommended!.kelvin).toBeCloseTo(stateless.body.recommended.kelvin, 9);
+
+    await as('editor').put(`/api/v1/campaigns/${campaign.id}/plan`).send({ inputs }).expect(409);
+    const again = await as('editor').put(`/api/v1/campaigns/${campaign.id}/plan`).send({ inputs: { ...inputs, rule: 'coldest' }, version: 1 }).expect(200);
+    expect(again.body.plan.version).toBe(2);
+    expect(again.body.plan.result.rule.name).toBe('coldest');
+    const read = await as('viewer').get(`/api/v1/campaigns/${campaign.id}/plan`).expect(200);
+    expect(read.body.plan.inputs.rule).toBe('coldest');
+    expect((await audits('campaign-plan', campaign.id)).map((a) => a.action)).toEqual(['create', 'update']);
+    // The report sheets read the same plan in a plain shape.
+    const sheet = (await loadPlanReportData(testKnex(), project.id, campaign.id))!;
+    expect(sheet.rows).toHaveLength(11);
+    expect(sheet.version).toBe(2);
+    expect(sheet.recommended!.celsius).toBeCloseTo(again.body.plan.result.recommended.celsius, 3);
+    expect(sheet.caution).toMatch(/calorimetry/);
+  });
+
+  it('when no specification is stored or sent, then 400 names inputs.specification and nothing is stored', async () => {
+    const other = await createProject([{ user: users.editor, role: 'editor' }]);
+    const campaign = await screen(other.id);
+    const res = await as('editor').put(`/api/v1/campaigns/${campaign.id}/plan`).send({ inputs: { temperatures: RANGE } }).expect(400);
+    expect(res.body.errors[0].path).toBe('inputs.specification');
+    expect(await testKnex()('campaign_plans').where({ campaignId: campaign.id }).count({ n: '*' }).first()).toEqual({ n: 0 });
+  });
+
+  it('when the body is bad, then 400 names the field (range reversed, hold without barrier)', async () => {
+    const campaign = await screen(project.id);
+    const spec = { measure: 'ee', minimum: 98, probability: 0.95 };
+    const reversed = await as('editor')
+      .put(`/api/v1/campaigns/${campaign.id}/plan`)
+      .send({ inputs: { specification: spec, temperatures: { from: RANGE.to, to: RANGE.from } } })
+      .expect(400);
+    expect(reversed.body.errors[0].path).toBe('inputs.temperatures.to');
+    const hold = await as('editor')
+      .put(`/api/v1/campaigns/${campaign.id}/plan`)
+      .send({ inputs: { specification: spec, temperatures: RANGE, hold: { time: { value: 1, unit: 'h' }, floorEePercent: 97 } } })
+      .expect(400);
+    expect(hold.body.errors[0].path).toBe('inputs.hold.barrier');
+  });
+});
+
+describe('comparisons', () => {
+  it('when an editor compares a screen with a clearly more selective one, then the pair says which is better and the saved comparison is shared', async () => {
+    const a = await screen(project.id, 12_000, 0.6);
+    const b = await screen(project.id);
+    const res = await as('editor')
+      .post('/api/v1/comparisons')
+      .send({ projectId: project.id, name: 'Ligand A against B', campaignIds: [a.id, b.id], temperature: { value: -20, unit: 'C' } })
+      .expect(201);
+    const view = comparisonSchema.parse(res.body);
+    expect(view.result.pairs).toHaveLength(1);
+    expect(view.result.pairs[0]!.verdict).toBe('first');
+    expect(view.result.pairs[0]!.differenceLnR).toBeCloseTo(0.6, 1); // [C] the invented offset
+    expect(view.result.pairs[0]!.probabilityFirstBetter).toBeGreaterThan(0.99);
+    expect(view.result.campaigns[0]!.fit!.curve.length).toBeGreaterThan(10);
+    const read = await as('viewer').get(`/api/v1/comparisons/${view.id}`).expect(200);
+    expect(read.body.name).toBe('Ligand A against B');
+    expect(read.body.result.pairs[0].verdict).toBe('first');
+    const list = await as('viewer').get('/api/v1/comparisons').expect(200);
+    expect(list.body.comparisons.map((c: { id: string }) => c.id)).toContain(view.id);
+    expect((await as('outsider').get('/api/v1/comparisons').expect(200)).body.comparisons.map((c: { id: string }) => c.id)).not.toContain(view.id);
+    await as('outsider').get(`/api/v1/comparisons/${view.id}`).expect(404);
+    expect((await audits('comparison', view.id)).map((x) => x.action)).toEqual(['create']);
+    const sheet = await loadComparisonReportData(testKnex(), project.id, users.viewer.id, view.id);
+    expect(sheet.pairs[0]!.first).toBe(a.title);
+    expect(sheet.pairs[0]!.verdict).toBe('first');
+  });
+
+  it('when two screens share one line, then the comparison says the data cannot tell them apart', async () => {
+    const a = await screen(project.id);
+    const b = await screen(project.id);
+    const res = await as('editor')
+      .post('/api/v1/comparisons')
+      .send({ projectId: project.id, name: 'Same', campaignIds: [a.id, b.id], temperature: { value: -20, unit: 'C' } })
+      .expect(201);
+    expect(res.body.result.pairs[0].verdict).toBe('cannot-tell');
+    expect(res.body.result.pairs[0].note).toMatch(/cannot tell/);
+  });
+
+  it.each([
+    ['one campaign', async () => [(await screen(project.id)).id], 'campaignIds'],
+    ['a campaign from a project the caller cannot read', async () => [(await screen(project.id)).id, (await screen(outsiderProject.id)).id], 'campaignIds.1'],
+    ['ee against dr with no common scale', async () => [(await screen(project.id)).id, (await screen(project.id, 12_000, 0, 'dr')).id], 'campaignIds.1'],
+    ['the same campaign twice', async () => { const id = (await screen(project.id)).id; return [id, id]; }, 'campaignIds.1'],
+  ])('when the comparison has %s, then 400 names %s and nothing is stored', async (_label, ids, path) => {
+    const res = await as('editor')
+      .post('/api/v1/comparisons')
+      .send({ projectId: project.id, name: 'Bad', campaignIds: await ids(), temperature: { value: -20, unit: 'C' } })
+      .expect(400);
+    expect(res.body.errors.map((e: { path: string }) => e.path)).toContain(path);
+    expect(await testKnex()('comparisons').where({ projectId: project.id, name: 'Bad' }).count({ n: '*' }).first()).toEqual({ n: 0 });
+  });
+
+  it('when a viewer saves a comparison, then 403', async () => {
+    const a = await screen(project.id);
+    const b = await screen(project.id);
+    await as('viewer').post('/api/v1/comparisons').send({ projectId: project.id, name: 'No', campaignIds: [a.id, b.id], temperature: { value: -20, unit: 'C' } }).expect(403);
+  });
+});

@@ -1,0 +1,196 @@
+import { useState, type FormEvent } from 'react';
+import { Link, useNavigate, useParams } from 'react-router-dom';
+import { LineChart } from '../../components/charts/line-chart';
+import { SafetyCaution } from '../../components/ui/caution';
+import { Page, Panel } from '../../components/ui/page';
+import { paths } from '../../config/paths';
+import { ApiError } from '../../lib/api-client';
+import { fixed, sig } from '../../lib/format';
+import { SignedInOnly } from '../../features/auth/components/signed-in-only';
+import { ConventionNote, NumberField, buttonClass, inputClass } from '../../features/calculators/components/fields';
+import { useCampaigns } from '../../features/campaigns/api/campaigns';
+import { useComparison, useCreateComparison, type ComparisonView } from '../../features/plan/api/plan';
+import { EyringOverlay } from '../../features/plan/components/eyring-overlay';
+
+const VERDICT: Record<string, string> = {
+  first: 'the first is more selective',
+  second: 'the second is more selective',
+  'cannot-tell': 'the data cannot tell them apart',
+};
+
+function ComparisonBody({ view }: { view: ComparisonView }) {
+  const r = view.result;
+  const title = (id: string) => r.campaigns.find((c) => c.id === id)?.title ?? 'unavailable campaign';
+  const unit = r.valueMeasure === 'dr' ? 'dr (r:1)' : r.valueMeasure === 'ee' ? '% ee' : '% major';
+  return (
+    <div className="flex flex-col gap-4">
+      <Panel title={`Selectivity against temperature (${unit})`}>
+        <LineChart
+          title="Selectivity of each campaign against temperature"
+          yLabel={unit}
+          formatY={(y) => sig(y, 4)}
+          testId="comparison-chart"
+          series={r.campaigns.filter((c) => c.fit).map((c) => ({ key: c.id, label: c.title ?? c.id, points: c.fit!.curve.map((p) => ({ x: p.celsius, y: p.value })) }))}
+        />
+      </Panel>
+      <Panel title="Eyring plots (ln r against 1000/T)">
+        <EyringOverlay result={r} />
+      </Panel>
+      <Panel title={`At ${fixed(r.temperature.celsius, 1)} °C`}>
+        <div className="overflow-x-auto">
+          <table className="tnum w-full text-sm" data-testid="comparison-campaigns">
+            <thead className="text-left text-xs text-ink-600">
+              <tr>
+                <th className="py-1 pr-3">Campaign</th>
+                <th className="py-1 pr-3">ΔΔH‡ (kJ/mol)</th>
+                <th className="py-1 pr-3">ΔΔS‡ (J/(mol·K))</th>
+                <th className="py-1 pr-3">{unit} at {fixed(r.temperature.celsius, 1)} °C (95 % CI of the line)</th>
+              </tr>
+            </thead>
+            <tbody>
+              {r.campaigns.map((c) => (
+                <tr key={c.id} className="border-t border-slate-100">
+                  <td className="py-1 pr-3">{c.title ?? 'Not available to you'}</td>
+                  {c.fit ? (
+                    <>
+                      <td className="py-1 pr-3">{fixed(c.fit.ddH['kJ/mol'], 2)}{c.fit.ddH.se !== null && ` ± ${fixed(c.fit.ddH.se, 2)}`}</td>
+                      <td className="py-1 pr-3">{fixed(c.fit.ddS['J/(mol*K)'], 1)}{c.fit.ddS.se !== null && ` ± ${fixed(c.fit.ddS.se, 1)}`}</td>
+                      <td className="py-1 pr-3">
+                        {sig(c.fit.at.value, 4)} ({sig(c.fit.at.interval[0], 4)} to {sig(c.fit.at.interval[1], 4)})
+                      </td>
+                    </>
+                  ) : (
+                    <td className="py-1 pr-3 text-ink-600" colSpan={3}>
+                      {c.problem}
+                    </td>
+                  )}
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+        <ConventionNote className="mt-2" />
+      </Panel>
+      <Panel title="Which is better">
+        <ul className="flex flex-col gap-3" data-testid="comparison-pairs">
+          {r.pairs.map((p) => (
+            <li key={`${p.first}-${p.second}`} className="rounded border border-slate-200 p-3 text-sm">
+              <p className="font-medium">
+                {title(p.first)} against {title(p.second)}: {p.verdict === 'cannot-tell' ? '≈ ' : p.verdict === 'first' ? '▲ ' : '▼ '}
+                {VERDICT[p.verdict]}
+              </p>
+              <p className="tnum text-ink-700">
+                Difference in ln r {sig(p.differenceLnR, 3)} (95 % interval {sig(p.interval[0], 3)} to {sig(p.interval[1], 3)}); in ΔΔG‡{' '}
+                {fixed(p.differenceDdG['kJ/mol'], 2)} kJ/mol. Probability the first is more selective here: {fixed(100 * p.probabilityFirstBetter, 1)} %.
+              </p>
+              <p className="tnum text-ink-700">
+                Equal slopes (extra sum of squares F test): F = {p.equalSlopes.F === null ? '—' : sig(p.equalSlopes.F, 3)}, p ={' '}
+                {p.equalSlopes.p === null ? '—' : sig(p.equalSlopes.p, 2)}.{' '}
+                {p.crossover
+                  ? `The lines cross at ${fixed(p.crossover.celsius, 0)} °C (${p.crossover.bounded ? `Fieller 95 % interval ${fixed(p.crossover.interval[0]!.celsius, 0)} to ${fixed(p.crossover.interval[1]!.celsius, 0)} °C` : p.crossover.note}).`
+                  : 'The lines do not cross within the screened range.'}
+              </p>
+              {p.verdict === 'cannot-tell' && (
+                <p className="text-ink-600">
+                  {p.runsToTellApart === null
+                    ? 'More than 50 added runs at this temperature would be needed to tell them apart, if they differ at all.'
+                    : `About ${p.runsToTellApart} added run(s) at this temperature in each campaign would tell them apart if the present difference is real.`}
+                </p>
+              )}
+            </li>
+          ))}
+        </ul>
+        <div className="mt-3">
+          <SafetyCaution compact />
+        </div>
+      </Panel>
+    </div>
+  );
+}
+
+function ComparisonPage({ comparisonId }: { comparisonId: string }) {
+  const q = useComparison(comparisonId);
+  if (q.isPending) return <Page title="Comparison"><p className="text-sm text-ink-500">Loading…</p></Page>;
+  if (q.isError) return <Page title="Comparison not found" lead={q.error.message}>{null}</Page>;
+  return (
+    <Page
+      title={q.data.name}
+      lead={
+        <Link className="text-fjord-700 underline" to={paths.project.getHref(q.data.projectId)}>
+          ← Project
+        </Link>
+      }
+    >
+      <ComparisonBody view={q.data} />
+    </Page>
+  );
+}
+
+export function ComparisonRoute() {
+  const { comparisonId = '' } = useParams();
+  return <SignedInOnly title="Comparison">{() => <ComparisonPage comparisonId={comparisonId} />}</SignedInOnly>;
+}
+
+function CompareForm({ projectId }: { projectId: string }) {
+  const campaigns = useCampaigns(projectId);
+  const create = useCreateComparison();
+  const navigate = useNavigate();
+  const [chosen, setChosen] = useState<string[]>([]);
+  const [name, setName] = useState('');
+  const [atC, setAtC] = useState('-20');
+  const errors = create.error instanceof ApiError ? create.error.fieldErrors : [];
+  const onSubmit = (e: FormEvent) => {
+    e.preventDefault();
+    create.mutate(
+      { projectId, name, campaignIds: chosen, temperature: { value: Number(atC.replace(',', '.')), unit: 'C' } },
+      { onSuccess: (view) => navigate(paths.comparison.getHref(view.id)) },
+    );
+  };
+  return (
+    <Page title="Compare campaigns" lead={<Link className="text-fjord-700 underline" to={paths.project.getHref(projectId)}>← Project</Link>}>
+      <Panel>
+        <form className="flex flex-col gap-3" onSubmit={onSubmit} aria-label="Compare campaigns">
+          <fieldset>
+            <legend className="mb-1 text-xs font-medium text-ink-700">Campaigns (2 to 6)</legend>
+            <ul className="flex flex-col gap-1">
+              {campaigns.data?.map((c) => (
+                <li key={c.id}>
+                  <label className="flex items-center gap-2 text-sm">
+                    <input
+                      type="checkbox"
+                      checked={chosen.includes(c.id)}
+                      onChange={(e) => setChosen((s) => (e.target.checked ? [...s, c.id] : s.filter((x) => x !== c.id)))}
+                    />
+                    {c.title} <span className="text-xs text-ink-500">({c.measure}, {c.includedCount} runs)</span>
+                  </label>
+                </li>
+              ))}
+            </ul>
+          </fieldset>
+          <div className="flex flex-wrap items-end gap-3">
+            <div className="flex flex-col gap-1">
+              <label htmlFor="comparison-name" className="text-xs font-medium text-ink-700">
+                Name
+              </label>
+              <input id="comparison-name" className={`${inputClass} w-64`} value={name} onChange={(e) => setName(e.target.value)} />
+            </div>
+            <NumberField label="Compare at (°C)" path="temperature.value" value={atC} onChange={setAtC} errors={errors} width="w-20" />
+            <button type="submit" className={buttonClass} disabled={create.isPending}>
+              Compare and save
+            </button>
+          </div>
+          {create.error && (
+            <p role="alert" className="text-sm text-rose-700">
+              {create.error.message} {errors.map((e) => `${e.path}: ${e.message}`).join('; ')}
+            </p>
+          )}
+        </form>
+      </Panel>
+    </Page>
+  );
+}
+
+export function CompareRoute() {
+  const { projectId = '' } = useParams();
+  return <SignedInOnly title="Compare campaigns">{() => <CompareForm projectId={projectId} />}</SignedInOnly>;
+}

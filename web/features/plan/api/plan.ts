@@ -1,0 +1,73 @@
+import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import type { z } from 'zod';
+import {
+  type campaignPlanInputsSchema,
+  campaignPlanSchema,
+  campaignSpecificationResponseSchema,
+  comparisonSchema,
+  type CampaignPlanInputs,
+  type ComparisonCreate,
+  type SpecificationInput,
+} from '../../../../api/features/plan/schemas';
+import { api } from '../../../lib/api-client';
+
+export type CampaignPlan = z.infer<typeof campaignPlanSchema>;
+export type PlanResult = CampaignPlan['result'];
+export type CampaignSpecifications = z.infer<typeof campaignSpecificationResponseSchema>;
+export type ComparisonView = z.infer<typeof comparisonSchema>;
+/** What the planner form sends (defaults filled in by the server). */
+export type PlanInputsBody = z.input<typeof campaignPlanInputsSchema>;
+export type { CampaignPlanInputs, ComparisonCreate, SpecificationInput };
+
+/** Keys general → specific: ['plan', campaignId] covers a campaign's specification and plan. */
+export const planKeys = {
+  all: ['plan'] as const,
+  campaign: (campaignId: string) => [...planKeys.all, campaignId] as const,
+  specification: (campaignId: string) => [...planKeys.campaign(campaignId), 'specification'] as const,
+  stored: (campaignId: string) => [...planKeys.campaign(campaignId), 'stored'] as const,
+  comparison: (comparisonId: string) => [...planKeys.all, 'comparison', comparisonId] as const,
+};
+
+export const getCampaignSpecification = (campaignId: string) =>
+  api<unknown>(`/api/v1/campaigns/${campaignId}/specification`).then((d) => campaignSpecificationResponseSchema.parse(d));
+export const useCampaignSpecification = (campaignId: string) =>
+  useQuery(queryOptions({ queryKey: planKeys.specification(campaignId), queryFn: () => getCampaignSpecification(campaignId) }));
+
+export const getCampaignPlan = (campaignId: string) =>
+  api<{ plan: unknown }>(`/api/v1/campaigns/${campaignId}/plan`).then((d) => (d.plan ? campaignPlanSchema.parse(d.plan) : null));
+export const useCampaignPlan = (campaignId: string) => useQuery(queryOptions({ queryKey: planKeys.stored(campaignId), queryFn: () => getCampaignPlan(campaignId) }));
+
+/**
+ * Keep the specification as the campaign's own (when it changed), then plan from the stored runs and
+ * keep the plan: two writes, each with the version last read.
+ */
+export function useSavePlan(campaignId: string) {
+  const client = useQueryClient();
+  return useMutation({
+    mutationFn: async (v: { specification: SpecificationInput; inputs: PlanInputsBody }) => {
+      const specs = await getCampaignSpecification(campaignId);
+      const current = specs.campaign;
+      const same = current && current.measure === v.specification.measure && current.minimum === v.specification.minimum && current.probability === v.specification.probability;
+      if (!same) {
+        await api(`/api/v1/campaigns/${campaignId}/specification`, { method: 'PUT', body: { ...v.specification, ...(current ? { version: current.version } : {}) } });
+      }
+      const stored = await getCampaignPlan(campaignId);
+      const res = await api<{ plan: unknown }>(`/api/v1/campaigns/${campaignId}/plan`, {
+        method: 'PUT',
+        body: { inputs: v.inputs, ...(stored ? { version: stored.version } : {}) },
+      });
+      return campaignPlanSchema.parse(res.plan);
+    },
+    onSettled: () => client.invalidateQueries({ queryKey: planKeys.campaign(campaignId) }),
+  });
+}
+
+export const getComparison = (comparisonId: string) => api<unknown>(`/api/v1/comparisons/${comparisonId}`).then((d) => comparisonSchema.parse(d));
+export const useComparison = (comparisonId: string) =>
+  useQuery(queryOptions({ queryKey: planKeys.comparison(comparisonId), queryFn: () => getComparison(comparisonId) }));
+
+export function useCreateComparison() {
+  return useMutation({
+    mutationFn: (body: ComparisonCreate) => api<unknown>('/api/v1/comparisons', { method: 'POST', body }).then((d) => comparisonSchema.parse(d)),
+  });
+}

@@ -1,0 +1,83 @@
+import { useMemo } from 'react';
+import { Axis, GlyphSeries, Grid, LineSeries, XYChart } from '@visx/xychart';
+import { axisLabelProps, chartColors, chartTheme, paddedExtent, tickLabelProps } from '../../../components/charts/chart-theme';
+import { useElementWidth } from '../../../components/charts/use-element-width';
+import { fixed } from '../../../lib/format';
+import type { ComparisonView } from '../api/plan';
+
+const COLORS = [chartColors.accent, chartColors.ink, chartColors.branch, chartColors.caution, '#0369a1', '#be185d'];
+const DASHES = ['', '6 3', '2 3', '9 3 2 3', '4 4', '1 2'];
+const SHAPES = ['circle', 'square', 'triangle', 'diamond', 'circle', 'square'] as const;
+
+function Marker({ shape, x, y, color }: { shape: (typeof SHAPES)[number]; x: number; y: number; color: string }) {
+  const r = 3.5;
+  if (shape === 'square') return <rect x={x - r} y={y - r} width={2 * r} height={2 * r} fill={color} />;
+  if (shape === 'triangle') return <path d={`M${x} ${y - r - 1}L${x + r + 0.5} ${y + r}L${x - r - 0.5} ${y + r}Z`} fill={color} />;
+  if (shape === 'diamond') return <path d={`M${x} ${y - r - 1}L${x + r + 1} ${y}L${x} ${y + r + 1}L${x - r - 1} ${y}Z`} fill={color} />;
+  return <circle cx={x} cy={y} r={r} fill={color} />;
+}
+
+interface Datum {
+  x: number;
+  y: number;
+}
+
+/** Eyring plots of several campaigns on one frame: ln r against 1000/T, runs as markers, fitted lines; shape and dash tell them apart. */
+export function EyringOverlay({ result }: { result: ComparisonView['result'] }) {
+  const [ref, width] = useElementWidth<HTMLDivElement>();
+  const shown = result.campaigns.filter((c) => c.fit);
+  const all = shown.flatMap((c) => [...c.fit!.eyring.map((p) => ({ x: 1000 * p.inverseKelvin, y: p.lnRatio })), ...c.fit!.curve.map((p) => ({ x: 1000 / p.kelvin, y: p.lnRatio }))]);
+  const xDomain = useMemo(() => paddedExtent(all.map((p) => p.x), 0.04, 0.1), [all]);
+  const yDomain = useMemo(() => paddedExtent(all.map((p) => p.y), 0.06, 0.5), [all]);
+  return (
+    <figure className="m-0">
+      <div ref={ref} className="w-full" data-testid="comparison-eyring">
+        {width > 0 && all.length > 0 && (
+          <XYChart
+            width={width}
+            height={280}
+            margin={{ top: 14, right: 16, bottom: 46, left: 64 }}
+            theme={chartTheme}
+            xScale={{ type: 'linear', domain: xDomain, zero: false }}
+            yScale={{ type: 'linear', domain: yDomain, zero: false, nice: true }}
+            accessibilityLabel="Eyring plots of the compared campaigns"
+          >
+            <Grid columns={false} numTicks={5} lineStyle={{ stroke: chartColors.grid }} />
+            {shown.map((c, i) => {
+              const color = COLORS[i % COLORS.length]!;
+              const line: Datum[] = c.fit!.curve.map((p) => ({ x: 1000 / p.kelvin, y: p.lnRatio }));
+              const runs: Datum[] = c.fit!.eyring.filter((p) => p.status === 'fitted').map((p) => ({ x: 1000 * p.inverseKelvin, y: p.lnRatio }));
+              return (
+                <g key={c.id}>
+                  <LineSeries dataKey={`${c.id}-line`} data={line} xAccessor={(d) => d.x} yAccessor={(d) => d.y} stroke={color} strokeWidth={2} strokeDasharray={DASHES[i] || undefined} />
+                  <GlyphSeries
+                    dataKey={`${c.id}-runs`}
+                    data={runs}
+                    xAccessor={(d) => d.x}
+                    yAccessor={(d) => d.y}
+                    renderGlyph={({ x, y }) => <Marker shape={SHAPES[i]!} x={x} y={y} color={color} />}
+                  />
+                </g>
+              );
+            })}
+            <Axis orientation="bottom" numTicks={6} label="1000/T (K⁻¹)" labelProps={axisLabelProps} tickLabelProps={tickLabelProps} tickFormat={(v) => fixed(Number(v), 2)} />
+            <Axis orientation="left" numTicks={5} label="ln r" labelOffset={36} labelProps={axisLabelProps} tickLabelProps={tickLabelProps} tickFormat={(v) => fixed(Number(v), 1)} />
+          </XYChart>
+        )}
+      </div>
+      <figcaption>
+        <ul className="mt-1 flex flex-wrap gap-x-4 gap-y-1 text-xs text-ink-600" aria-label="Legend">
+          {shown.map((c, i) => (
+            <li key={c.id} className="flex items-center gap-1.5">
+              <svg width="18" height="12" aria-hidden="true">
+                <line x1="1" x2="17" y1="6" y2="6" stroke={COLORS[i % COLORS.length]} strokeWidth={2} strokeDasharray={DASHES[i] || undefined} />
+                <Marker shape={SHAPES[i]!} x={9} y={6} color={COLORS[i % COLORS.length]!} />
+              </svg>
+              {c.title}
+            </li>
+          ))}
+        </ul>
+      </figcaption>
+    </figure>
+  );
+}

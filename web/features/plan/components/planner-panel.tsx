@@ -1,0 +1,232 @@
+import { useEffect, useState, type FormEvent } from 'react';
+import { Link } from 'react-router-dom';
+import { SafetyCaution } from '../../../components/ui/caution';
+import { paths } from '../../../config/paths';
+import { ApiError, type FieldError } from '../../../lib/api-client';
+import { fixed, sig } from '../../../lib/format';
+import { NumberField, Segmented, buttonClass, selectClass } from '../../calculators/components/fields';
+import { useCampaignPlan, useCampaignSpecification, useSavePlan, type CampaignPlan, type PlanInputsBody } from '../api/plan';
+import { CONSTRAINT_WORDS, OperatingWindowChart } from './operating-window-chart';
+
+type Measure = 'ee' | 'er' | 'dr' | 'percentA';
+type Rule = 'warmest' | 'coldest' | 'middle';
+
+interface FormState {
+  measure: Measure;
+  minimum: string;
+  probability: string;
+  fromC: string;
+  toC: string;
+  rule: Rule;
+  targetConversion: string;
+  maxTimeH: string;
+  holdH: string;
+  holdFloor: string;
+  holdBarrier: string;
+  nextRuns: string;
+}
+
+const num = (s: string) => (s.trim() === '' ? undefined : Number(s.replace(',', '.')));
+
+function fromPlan(plan: CampaignPlan | null | undefined, spec: { measure: Measure; minimum: number; probability: number } | null | undefined): FormState {
+  const i = plan?.inputs;
+  const hold = i?.hold;
+  return {
+    measure: spec?.measure ?? 'ee',
+    minimum: String(spec?.minimum ?? 98),
+    probability: String(spec?.probability ?? 0.95),
+    fromC: i ? String(i.temperatures.from.unit === 'C' ? i.temperatures.from.value : i.temperatures.from.value - 273.15) : '-70',
+    toC: i ? String(i.temperatures.to.unit === 'C' ? i.temperatures.to.value : i.temperatures.to.value - 273.15) : '25',
+    rule: (i?.rule as Rule | undefined) ?? 'warmest',
+    targetConversion: String(i?.rate?.targetConversionPercent ?? 95),
+    maxTimeH: i?.rate?.maxTime ? String(i.rate.maxTime.value) : '',
+    holdH: hold ? String(hold.time.value) : '',
+    holdFloor: hold ? String(hold.floorEePercent) : '',
+    holdBarrier: hold && hold.barrier.kind === 'gibbs' ? String(hold.barrier.dG.value) : '',
+    nextRuns: String(i?.nextRuns?.count ?? 3),
+  };
+}
+
+function toInputs(f: FormState): PlanInputsBody {
+  const maxTime = num(f.maxTimeH);
+  const holdH = num(f.holdH);
+  const count = num(f.nextRuns);
+  return {
+    temperatures: { from: { value: num(f.fromC) ?? Number.NaN, unit: 'C' }, to: { value: num(f.toC) ?? Number.NaN, unit: 'C' } },
+    rule: f.rule,
+    curvePoints: 121,
+    ...(maxTime !== undefined ? { rate: { targetConversionPercent: num(f.targetConversion) ?? Number.NaN, maxTime: { value: maxTime, unit: 'h' } } } : {}),
+    ...(holdH !== undefined
+      ? {
+          hold: {
+            barrier: { kind: 'gibbs', dG: { value: num(f.holdBarrier) ?? Number.NaN, unit: 'kcal/mol' }, temperature: { value: 25, unit: 'C' } },
+            time: { value: holdH, unit: 'h' },
+            floorEePercent: num(f.holdFloor) ?? Number.NaN,
+          },
+        }
+      : {}),
+    ...(count ? { nextRuns: { count } } : {}),
+  } as PlanInputsBody;
+}
+
+const MEASURES: { value: Measure; label: string }[] = [
+  { value: 'ee', label: '% ee' },
+  { value: 'er', label: 'er (% major)' },
+  { value: 'dr', label: 'dr (r:1)' },
+  { value: 'percentA', label: '% major' },
+];
+
+/** Server field paths → the form's own paths ('inputs.' prefix off; specification fields as they are). */
+function fieldErrors(error: unknown): FieldError[] {
+  if (!(error instanceof ApiError)) return [];
+  return error.fieldErrors.map((e) => ({ ...e, path: e.path.replace(/^inputs\./, '') }));
+}
+
+function PlanSummary({ plan }: { plan: CampaignPlan }) {
+  const r = plan.result;
+  return (
+    <div className="flex flex-col gap-3" data-testid="plan-summary">
+      {r.recommended ? (
+        <div className="rounded-md border border-fjord-200 bg-fjord-50 px-3 py-2">
+          <p className="text-sm text-ink-700">Recommended temperature</p>
+          <p className="tnum text-2xl font-semibold text-ink-950" data-testid="recommended">
+            {fixed(r.recommended.celsius, 1)} °C <span className="text-base font-normal text-ink-600">({fixed(r.recommended.kelvin, 2)} K)</span>
+          </p>
+          <p className="tnum text-sm text-ink-700">
+            Probability that the next run meets the specification: {fixed(100 * r.recommended.probabilityMeetsSpec, 1)} %
+          </p>
+          <p className="mt-1 text-xs text-ink-600">Rule: {r.rule.text}</p>
+        </div>
+      ) : (
+        <div role="status" className="rounded-md border border-rose-300 bg-rose-50 px-3 py-2 text-sm text-rose-900" data-testid="no-recommendation">
+          <p className="font-medium">✕ No temperature in the allowed range meets every constraint.</p>
+          {r.conflict && <p className="mt-1">{r.conflict.message}</p>}
+          {r.resolutions.length > 0 && (
+            <ul className="mt-1 list-disc pl-5">
+              {r.resolutions.map((x) => (
+                <li key={x}>{x}</li>
+              ))}
+            </ul>
+          )}
+        </div>
+      )}
+      <dl className="tnum grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm">
+        <dt className="text-ink-600">Window</dt>
+        <dd data-testid="window">{r.window ? `${fixed(r.window.from.celsius, 1)} to ${fixed(r.window.to.celsius, 1)} °C` : 'none'}</dd>
+        <dt className="text-ink-600">Limited by</dt>
+        <dd>{r.binding.map((b) => CONSTRAINT_WORDS[b] ?? b).join(', ') || '—'}</dd>
+        <dt className="text-ink-600">Each constraint alone</dt>
+        <dd>{r.needs.map((n) => n.message).join('; ')}</dd>
+        {r.nextRuns && (
+          <>
+            <dt className="text-ink-600">Next runs</dt>
+            <dd>
+              {r.nextRuns.temperatures.map((t) => `${fixed(t.celsius, 0)} °C`).join(', ')} — interval for one new run at {fixed(r.nextRuns.at.celsius, 1)} °C narrows from ±
+              {sig(r.nextRuns.halfWidthBefore, 2)} to ±{sig(r.nextRuns.halfWidthAfter, 2)} in ln r
+            </dd>
+          </>
+        )}
+        <dt className="text-ink-600">Model</dt>
+        <dd>
+          straight line ln r on 1/T, {r.model.n} runs from {fixed(r.model.fromKelvin - 273.15, 0)} to {fixed(r.model.toKelvin - 273.15, 0)} °C; saved plan version{' '}
+          {plan.version}
+        </dd>
+      </dl>
+      {r.warnings.length > 0 && (
+        <ul className="list-disc pl-5 text-xs text-ink-600">
+          {r.warnings.map((w) => (
+            <li key={w.code + w.message}>{w.message}</li>
+          ))}
+        </ul>
+      )}
+      <SafetyCaution compact />
+    </div>
+  );
+}
+
+/** The planner on a campaign page: a specification, plant limits, the saved plan and its operating window. */
+export function PlannerPanel({ campaignId, projectId, canEdit }: { campaignId: string; projectId: string; canEdit: boolean }) {
+  const spec = useCampaignSpecification(campaignId);
+  const plan = useCampaignPlan(campaignId);
+  const save = useSavePlan(campaignId);
+  const [form, setForm] = useState<FormState | null>(null);
+  useEffect(() => {
+    if (form === null && spec.data !== undefined && plan.data !== undefined) setForm(fromPlan(plan.data, spec.data.effective));
+  }, [form, spec.data, plan.data]);
+  const errors = fieldErrors(save.error);
+  const set = (k: keyof FormState) => (v: string) => setForm((f) => (f ? { ...f, [k]: v } : f));
+
+  const onSubmit = (e: FormEvent) => {
+    e.preventDefault();
+    if (!form) return;
+    save.mutate({
+      specification: { measure: form.measure, minimum: num(form.minimum) ?? Number.NaN, probability: num(form.probability) ?? Number.NaN },
+      inputs: toInputs(form),
+    });
+  };
+
+  return (
+    <div className="flex flex-col gap-4">
+      {form && canEdit && (
+        <form onSubmit={onSubmit} className="flex flex-col gap-3" aria-label="Plan the temperature">
+          <div className="flex flex-wrap items-end gap-3">
+            <div className="flex flex-col gap-1">
+              <span className="text-xs font-medium text-ink-700">Specification measure</span>
+              <select aria-label="Specification measure" className={selectClass} value={form.measure} onChange={(e) => setForm({ ...form, measure: e.target.value as Measure })}>
+                {MEASURES.map((m) => (
+                  <option key={m.value} value={m.value}>
+                    {m.label}
+                  </option>
+                ))}
+              </select>
+            </div>
+            <NumberField label="Minimum" path="minimum" value={form.minimum} onChange={set('minimum')} errors={errors} width="w-24" />
+            <NumberField label="Required probability" path="probability" value={form.probability} onChange={set('probability')} errors={errors} width="w-20" hint="0.5–0.999" />
+            <NumberField label="Coldest jacket (°C)" path="temperatures.from" value={form.fromC} onChange={set('fromC')} errors={errors} width="w-20" />
+            <NumberField label="Warmest jacket (°C)" path="temperatures.to" value={form.toC} onChange={set('toC')} errors={errors} width="w-20" />
+          </div>
+          <div className="flex flex-wrap items-end gap-3">
+            <NumberField label="Longest reaction time (h)" path="rate.maxTime" value={form.maxTimeH} onChange={set('maxTimeH')} errors={errors} width="w-20" hint="uses the runs' conversion and time" />
+            <NumberField label="Target conversion (%)" path="rate.targetConversionPercent" value={form.targetConversion} onChange={set('targetConversion')} errors={errors} width="w-20" />
+            <NumberField label="Hold before isolation (h)" path="hold.time" value={form.holdH} onChange={set('holdH')} errors={errors} width="w-20" />
+            <NumberField label="Racemization ΔG‡ (kcal/mol)" path="hold.barrier" value={form.holdBarrier} onChange={set('holdBarrier')} errors={errors} width="w-20" />
+            <NumberField label="ee floor after hold (%)" path="hold.floorEePercent" value={form.holdFloor} onChange={set('holdFloor')} errors={errors} width="w-20" />
+            <NumberField label="Next runs to suggest" path="nextRuns.count" value={form.nextRuns} onChange={set('nextRuns')} errors={errors} width="w-16" />
+          </div>
+          <div className="flex flex-wrap items-end gap-3">
+            <Segmented<Rule>
+              legend="Recommend"
+              name="plan-rule"
+              value={form.rule}
+              onChange={(v) => setForm({ ...form, rule: v })}
+              options={[
+                { value: 'warmest', label: 'Warmest feasible' },
+                { value: 'coldest', label: 'Coldest feasible' },
+                { value: 'middle', label: 'Middle of window' },
+              ]}
+            />
+            <button type="submit" className={buttonClass} disabled={save.isPending}>
+              {save.isPending ? 'Planning…' : 'Plan and save'}
+            </button>
+            <Link className="text-sm text-fjord-700 underline" to={paths.compare.getHref(projectId)}>
+              Compare campaigns →
+            </Link>
+          </div>
+          {save.error && (
+            <p role="alert" className="text-sm text-rose-700">
+              {save.error.message}
+            </p>
+          )}
+        </form>
+      )}
+      {plan.data ? (
+        <>
+          <PlanSummary plan={plan.data} />
+          <OperatingWindowChart result={plan.data.result} maxTimeHours={plan.data.inputs.rate?.maxTime?.value ?? null} />
+        </>
+      ) : (
+        plan.isSuccess && <p className="text-sm text-ink-600">No plan saved yet{canEdit ? ': set a specification and the plant limits, then plan.' : '.'}</p>
+      )}
+    </div>
+  );
+}
