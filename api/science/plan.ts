@@ -8,6 +8,7 @@ import { resolveBarrier, type BarrierSpec } from './activation';
 import { DomainError, requireTemperatureK, type Warning } from './errors';
 import { eeAfterTime, racemizationRateConstant } from './erosion';
 import type { EyringFit } from './eyring-fit';
+import { predictiveLnRatio, type ScreenModel } from './screen-model';
 import {
   lnRatioInMeasure,
   newRunSigmaLnR,
@@ -47,6 +48,11 @@ export interface PlanHoldInput {
 
 export interface PlanInput {
   fit: EyringFit;
+  /**
+   * The model forecasts come from (chooseScreenModel): when curvature was accepted, the segmented model, and every
+   * probability then comes from the branch that covers the temperature. Default: the straight line of `fit`.
+   */
+  model?: ScreenModel;
   specification: Specification;
   /** The assay's precision for one new run, in the specification measure's own units. */
   newRunUncertainty?: number;
@@ -123,10 +129,26 @@ class PlanModel {
   }
 
   predictive(temperatureK: number, runs = this.input.specification.runs ?? 1): PredictiveLnR {
+    const model = this.input.model;
+    if (model?.kind === 'segmented') return this.segmentedPredictive(model, temperatureK, runs);
     const base = predictiveLnR(this.input.fit, temperatureK, { runs });
     if (this.input.newRunUncertainty === undefined) return base;
     const sigma = newRunSigmaLnR(this.input.specification.measure, this.input.newRunUncertainty, base.mean);
     return predictiveLnR(this.input.fit, temperatureK, { runs, newRunSigma: sigma });
+  }
+
+  /** The segmented model's predictive t: scale² = Var(mean) + σ²_new/k, σ_new the assay's (if given) or the branches' scatter. */
+  private segmentedPredictive(model: ScreenModel & { kind: 'segmented' }, temperatureK: number, runs: number): PredictiveLnR {
+    requireTemperatureK(temperatureK, 'temperatureK');
+    const center = predictiveLnRatio(model, temperatureK);
+    const sigma = this.input.newRunUncertainty === undefined ? undefined : newRunSigmaLnR(this.input.specification.measure, this.input.newRunUncertainty, center.mean);
+    const p = sigma === undefined ? center : predictiveLnRatio(model, temperatureK, { sigmaNewLnR: sigma });
+    if (p.sdMean === null || p.sdNewRun === null) {
+      throw new DomainError('intervals-unavailable', 'the two-branch model has no estimate of scatter, so no probability can be given', 'measurements');
+    }
+    const varMean = p.sdMean * p.sdMean;
+    const varRun = Math.max(0, p.sdNewRun * p.sdNewRun - varMean);
+    return { mean: p.mean, scale: Math.sqrt(varMean + varRun / runs), dof: p.dof };
   }
 
   probability(temperatureK: number): number {

@@ -188,7 +188,7 @@ export const planResponseSchema = z
     conflict: z.object({ message: z.string(), gapKelvin: z.number().nullable() }).nullable(),
     resolutions: z.array(z.string()),
     specification: specificationShape.extend({ lnRatio: z.number() }),
-    model: z.object({ kind: z.literal('straight-line'), n: z.number().int(), dof: z.number().int(), fromKelvin: z.number(), toKelvin: z.number() }),
+    model: z.object({ kind: z.enum(['straight-line', 'segmented']), n: z.number().int(), dof: z.number().int(), fromKelvin: z.number(), toKelvin: z.number() }),
     evaluations: z.array(planPointSchema),
     curve: z.array(planPointSchema),
     rate: z

@@ -9,6 +9,8 @@ import {
   SIGN_CONVENTION,
   energyFromJPerMol,
   entropyFromJPerMolK,
+  checkCurvature,
+  chooseScreenModel,
   fitEyring,
   fitRateFromRuns,
   planTemperature,
@@ -80,6 +82,9 @@ export interface PlanScreen {
 export function planFromScreen(screen: PlanScreen, req: Omit<PlanRequest, 'measurements' | 'weighting' | 'uncertaintyScale'>): PlanResponse {
   const weighting = screen.weighting === 'none' ? 'none' : screen.uncertaintyScale;
   const fit = fitEyring(screen.measurements, { weighting });
+  // Curvature accepted → probabilities come from the segmented model, as every other forecast does.
+  const curvature = checkCurvature(screen.measurements, { weighting, confidenceLevel: fit.confidenceLevel });
+  const screenModel = chooseScreenModel(fit, curvature);
   const fromK = toK(req.temperatures.from, 'temperatures.from');
   const toKv = toK(req.temperatures.to, 'temperatures.to');
   if (!(toKv > fromK)) throw new DomainError('range-reversed', 'temperatures.to must be warmer than temperatures.from', 'temperatures.to.value');
@@ -93,6 +98,7 @@ export function planFromScreen(screen: PlanScreen, req: Omit<PlanRequest, 'measu
   const atK = req.at.map((t, i) => toK(t, `at.${i}`));
   const result = planTemperature({
     fit,
+    model: screenModel,
     specification: req.specification,
     ...(req.newRunUncertainty !== undefined ? { newRunUncertainty: req.newRunUncertainty } : {}),
     rangeK: { from: fromK, to: toKv },
@@ -136,7 +142,13 @@ export function planFromScreen(screen: PlanScreen, req: Omit<PlanRequest, 'measu
     conflict: result.conflict ? { message: result.conflict.message, gapKelvin: result.conflict.gapK } : null,
     resolutions: result.resolutions,
     specification: { ...req.specification, lnRatio: result.specificationLnRatio },
-    model: { kind: 'straight-line', n: fit.nFitted, dof: fit.dof, fromKelvin: fit.temperatureRangeK.min, toKelvin: fit.temperatureRangeK.max },
+    model: {
+      kind: screenModel.kind === 'segmented' ? 'segmented' : 'straight-line',
+      n: fit.nFitted,
+      dof: screenModel.kind === 'segmented' ? screenModel.fit.coefficients.dof : fit.dof,
+      fromKelvin: fit.temperatureRangeK.min,
+      toKelvin: fit.temperatureRangeK.max,
+    },
     evaluations: result.evaluations.map(point),
     curve: result.curve.map(point),
     rate: rateFit

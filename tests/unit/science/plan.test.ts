@@ -12,6 +12,8 @@ import {
 } from '../../../api/science/plan-predictive';
 import { fitRateFromRuns, timeToTargetAt } from '../../../api/science/rate-fit';
 import { planTemperature, positiveRanges, type PlanInput } from '../../../api/science/plan';
+import { checkCurvature } from '../../../api/science/segmented';
+import { chooseScreenModel, predictiveLnRatio } from '../../../api/science/screen-model';
 import { domainErrorOf } from './helpers';
 
 // Invented screen [C]: ΔΔH‡ = 12 kJ/mol, ΔΔS‡ = 10 J/(mol·K), ln r = ΔΔH‡/RT − ΔΔS‡/R, five temperatures in duplicate.
@@ -242,5 +244,32 @@ describe('recommended temperature and window', () => {
     expect(ranges[0]![1]).toBeCloseTo(200 + 5 * Math.PI, 3);
     expect(ranges[1]![0]).toBeCloseTo(200 + 15 * Math.PI, 3);
     expect(ranges[1]![1]).toBeCloseTo(200 + 25 * Math.PI, 3);
+  });
+});
+
+describe('the planner on a curved screen', () => {
+  // Invented isoinversion screen [C]: slopes +1,600 K (warm side) and −900 K (cold side) meeting at −15 °C, fixed scatter.
+  const xBreak = 1 / 258.15;
+  const isoLnR = (t: number) => 3 + 1600 * (1 / t - xBreak) - 2500 * Math.max(0, 1 / t - xBreak);
+  const scatter = [0.012, -0.018, 0.009, 0.021, -0.011, -0.016, 0.014, 0.004, -0.02, 0.008];
+  const runs: EyringMeasurement[] = [40, 30, 20, 10, 0, -10, -20, -30, -40, -50].map((c, i) => ({ temperatureK: c + 273.15, ratio: Math.exp(isoLnR(c + 273.15) + scatter[i]!) }));
+  const curvedFit = fitEyring(runs);
+  const model = chooseScreenModel(curvedFit, checkCurvature(runs));
+
+  it('when curvature is accepted, then each probability is the segmented model’s Student-t tail at that temperature (jstat)', () => {
+    expect(model.kind).toBe('segmented');
+    const spec: Specification = { measure: 'dr', minimum: Math.exp(3), probability: 0.9 };
+    const atK = [238.15, 258.15, 283.15];
+    const plan = planTemperature({ fit: curvedFit, model, specification: spec, rangeK: { from: 223.15, to: 313.15 }, atK, curvePoints: 5 });
+    atK.forEach((t, i) => {
+      const p = predictiveLnRatio(model, t);
+      // [S] jstat 1.9.6 Student t cdf, an implementation independent of the engine's.
+      const expected = 1 - jStat.studentt.cdf((3 - p.mean) / p.sdNewRun!, p.dof);
+      expect(plan.evaluations[i]!.probabilityMeetsSpec).toBeCloseTo(expected, 6);
+      expect(plan.evaluations[i]!.lnRatio).toBeCloseTo(p.mean, 10);
+    });
+    // The straight line through a peaked screen would be far less sure of the peak than the branches are.
+    const straight = planTemperature({ fit: curvedFit, specification: spec, rangeK: { from: 223.15, to: 313.15 }, atK: [258.15], curvePoints: 5 });
+    expect(plan.evaluations[1]!.probabilityMeetsSpec).toBeGreaterThan(straight.evaluations[0]!.probabilityMeetsSpec);
   });
 });
