@@ -144,6 +144,34 @@ export function modelSentence(fit: FitResponse): string {
   return `One straight line (break test ${p}: the data do not support a break).`;
 }
 
+/** Curvature rows: the check always; a break row only when a break is accepted, named an isoinversion only when claimed. */
+function curvatureLines(fit: FitResponse): SummaryLine[] {
+  const tb = fit.twoBranch;
+  if (!tb.checked) return [{ section: 'Fit', label: 'Curvature check', value: tb.note }];
+  const lines: SummaryLine[] = [
+    {
+      section: 'Fit',
+      label: 'Curvature check',
+      value: `${tb.preferred === 'two-branch' ? 'Two branches meeting at a break describe the runs better than one line' : 'One straight line is adequate'} (break test p ${tb.breakTest.p < 0.001 ? '< 0.001' : `= ${fixed(tb.breakTest.p, 3)}`}${tb.lackOfFit ? `; lack-of-fit F test of one line p ${tb.lackOfFit.p < 0.001 ? '< 0.001' : `= ${fixed(tb.lackOfFit.p, 3)}`}` : ''}). A curved plot can mean two competing pathways (isoinversion) or a change of the selectivity-determining step.`,
+    },
+  ];
+  if (tb.break && tb.low && tb.high) {
+    const ci = tb.break.ci;
+    lines.push({
+      section: 'Fit',
+      label: tb.claim === 'isoinversion' ? `Isoinversion temperature, where r has a ${tb.extremum} (°C)` : 'Change of slope at (°C)',
+      value: tb.break.celsius,
+      decimals: 1,
+      interval: ci && ci.celsius[1] !== null ? [ci.celsius[0], ci.celsius[1]] : null,
+      unit: '°C',
+      name: 'Break_T_C',
+    });
+    lines.push({ section: 'Fit', label: 'Low-temperature branch ΔΔH‡', value: tb.low.ddH['kJ/mol'], decimals: 1, se: tb.low.ddH.se?.['kJ/mol'] ?? null, unit: 'kJ/mol' });
+    lines.push({ section: 'Fit', label: 'High-temperature branch ΔΔH‡', value: tb.high.ddH['kJ/mol'], decimals: 1, se: tb.high.ddH.se?.['kJ/mol'] ?? null, unit: 'kJ/mol' });
+  }
+  return lines;
+}
+
 export function buildReportModel(data: ReportData, meta: ReportMeta): ReportModel {
   const { campaign, analysis } = data;
   const fit = analysis.fit;
@@ -223,6 +251,7 @@ export function buildReportModel(data: ReportData, meta: ReportMeta): ReportMode
     add({ section: 'Fit', label: 'ΔΔS‡', value: fit.ddS['cal/(mol*K)'], decimals: decimals.ddS, se: fit.ddS.se?.['cal/(mol*K)'] ?? null, interval: fit.ddS.ci?.['cal/(mol*K)'] ?? null, unit: 'cal/(mol·K)', name: 'ddS_cal_per_mol_K' });
     add({ section: 'Fit', label: 'Intervals', value: `${level} % confidence; ${fit.weighting === 'none' ? 'unweighted' : 'weighted'} least squares of ln r on 1/T` });
     add({ section: 'Fit', label: 'Model', value: modelSentence(fit) });
+    curvatureLines(fit).forEach(add);
     const excluded = data.measurements.filter((m) => m.excluded);
     const censored = analysis.points.filter((p) => p.status === 'censored').length;
     add({ section: 'Runs', label: 'Runs fitted', value: fit.n, decimals: 0, unit: 'runs', name: 'Runs_fitted' });

@@ -7,7 +7,7 @@
  */
 import ExcelJS from 'exceljs';
 import { kelvinToCelsius } from '../../science';
-import { numFmt, readSelectivity, safeFileName, safeText } from './report-format';
+import { numFmt, ratioOf, ratioRange, readSelectivity, safeFileName, safeText } from './report-format';
 import { buildReportModel, type ReportData, type ReportMeta, type ReportModel } from './report-model';
 import { renderReportChartsAsync, type ReportCharts } from './report-charts';
 
@@ -310,6 +310,7 @@ function addForecast(wb: ExcelJS.Workbook, model: ReportModel) {
     { header: labels.major, width: 11, numFmt: pct },
     { header: 'ΔΔG‡ (kJ/mol)', width: 10, numFmt: numFmt(d.ddH) },
     { header: 'Outside screened range', width: 10 },
+    { header: 'Model', width: 22 },
   ];
   function* rows() {
     for (const g of model.grid) {
@@ -319,13 +320,14 @@ function addForecast(wb: ExcelJS.Workbook, model: ReportModel) {
         clean(p.celsius),
         p.kelvin,
         g.source === 'grid' ? 'grid' : g.source === 'proposed' ? 'proposed temperature' : user(`saved: ${g.note ?? ''}`),
-        p.ratio,
-        pi?.ratio[0] ?? null,
-        pi?.ratio[1] ?? null,
+        ratioOf(p),
+        pi ? ratioRange(pi)[0] : null,
+        pi ? ratioRange(pi)[1] : null,
         ...(labels.excess ? [p.eePercent, pi?.eePercent[0] ?? null, pi?.eePercent[1] ?? null] : []),
         Math.max(p.percentA, 100 - p.percentA),
         p.ddG['kJ/mol'],
         p.extrapolated ? 'yes' : 'no',
+        p.model === 'segmented' ? `two branches: ${p.branch === 'low' ? 'low' : 'high'}-temperature branch` : 'one line',
       ] as (Cell | UserText)[];
     }
   }
