@@ -216,9 +216,9 @@ export const DEMO_CAMPAIGNS: DemoCampaign[] = [
   },
   {
     id: '6d1f0c4e-2a51-4c0e-9d7b-00000c7702d4',
-    title: 'Kite-Pyr auxiliary: dr of the KL-7702 aldol step',
+    title: 'Kite auxiliary: dr of the KL-7702 aldol step',
     reactionDescription:
-      'Invented: boron-mediated aldol addition of the propionyl Kite-Pyr imide (invented auxiliary) to the aldehyde KL-7702-D in dichloromethane, giving the syn (A) and anti (B) diastereomers.',
+      'Invented: boron-mediated aldol addition of the propionyl Kite imide (invented auxiliary) to the aldehyde KL-7702-D in dichloromethane, giving the syn (A) and anti (B) diastereomers.',
     productNameA: 'syn-aldol',
     productNameB: 'anti-aldol',
     measure: 'dr',

@@ -17,7 +17,7 @@ const KB_OVER_H = 1.380649e-23 / 6.62607015e-34;
 
 const [HYDROGENATION, ALDOL] = DEMO_PROJECTS;
 export const DEMO_ALDOL_CAMPAIGN_ID = '6d1f0c4e-2a51-4c0e-9d7b-00000c5120a1';
-/** The screen whose plan has a feasible window (Skylark-Phos in 2-MeTHF). */
+/** The screen whose plan has a feasible window (the Skylark ligand in 2-MeTHF). */
 export const DEMO_FEASIBLE_PLAN_CAMPAIGN_ID = DEMO_CAMPAIGNS[2]!.id;
 
 export const DEMO_SPECIFICATIONS = [

@@ -236,7 +236,7 @@ describe('campaign pages in Chromium', () => {
 
     const twoBranch = page.getByRole('region', { name: 'Curvature check' });
     await expect.poll(() => twoBranch.textContent(), { timeout: 15_000 }).toContain('two straight branches meeting at a break describe the screen better than one line');
-    // Invented Merlin-Phos screen: ΔΔH‡ +16 kJ/mol above and −5 kJ/mol below −15 °C, so r peaks there [C].
+    // Invented Merlin-ligand screen: ΔΔH‡ +16 kJ/mol above and −5 kJ/mol below −15 °C, so r peaks there [C].
     expect(await page.getByTestId('break-temperature').textContent()).toMatch(/^Isoinversion temperature, where r passes through a maximum: −?1[0-9] °C \(2\d\d K\) · 95 % CI −?\d+ to −?\d+ °C$/);
     expect(await twoBranch.textContent()).toContain('change of the selectivity-determining step');
     expect(await page.getByRole('figure').filter({ hasText: 'Eyring plot' }).textContent()).toContain('two-branch fit');
