@@ -443,7 +443,32 @@ const UNCERTAINTY_MAX = 100 - Number.EPSILON * 100;
  * (a value that looks like the wrong unit, a repeated row, an unmapped column) need the
  * user's confirmation. Nothing is dropped silently.
  */
+/** Rows checked between two pauses of the import on the server's main thread (a few milliseconds of work). */
+export const ROWS_PER_STEP = 2_000;
+
+/** Check every row of `table` against `mapping` (in one go: tests, the preview in its worker thread). */
 export function validateRows(table: ParsedTable, mapping: ImportMapping): ValidationResult {
+  const steps = validateRowsInSteps(table, mapping);
+  let step = steps.next();
+  while (!step.done) step = steps.next();
+  return step.value;
+}
+
+/**
+ * The same check, giving the event loop a turn every ROWS_PER_STEP rows: the import runs it on the main thread, where
+ * 100 000 rows checked in one go would hold every other request for about a second.
+ */
+export async function validateRowsYielding(table: ParsedTable, mapping: ImportMapping): Promise<ValidationResult> {
+  const steps = validateRowsInSteps(table, mapping);
+  let step = steps.next();
+  while (!step.done) {
+    await new Promise<void>((resolve) => setImmediate(resolve));
+    step = steps.next();
+  }
+  return step.value;
+}
+
+function* validateRowsInSteps(table: ParsedTable, mapping: ImportMapping): Generator<void, ValidationResult, void> {
   const { columns, issues: mappingIssues } = resolveColumns(table, mapping);
   const ctx: RowContext = { table, mapping, columns, decimal: table.decimalSeparator, issues: [...mappingIssues], errorCount: mappingIssues.length, warningCount: 0 };
   if (ctx.errorCount > 0) return { rows: [], issues: ctx.issues, errorCount: ctx.errorCount, warningCount: 0, rowCount: table.rows.length };
@@ -460,7 +485,12 @@ export function validateRows(table: ParsedTable, mapping: ImportMapping): Valida
   const rows: ImportRow[] = [];
   const seenRows = new Map<string, number>();
   const seenSamples = new Map<string, number>();
+  let sinceStep = 0;
   for (const { rowNumber: row, cells } of table.rows) {
+    if (++sinceStep === ROWS_PER_STEP) {
+      sinceStep = 0;
+      yield;
+    }
     let blank = true;
     for (const i of mapped) if (cells[i] !== null) blank = false;
     if (blank) {

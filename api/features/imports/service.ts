@@ -12,7 +12,7 @@ import { Campaign } from '../../models/campaign';
 import type { ImportMapping, ImportParseOptions } from '../campaigns/schemas';
 import { ImportNeedsConfirmationError, ImportRejectedError, type ImportIssue } from './errors';
 import { columnLetter, IMPORT_LIMITS, parseUpload, type Cell, type ImportLimits, type ParsedTable, type UploadedFile } from './parse';
-import { guessMapping, mappingFromGuess, validateRows, type ImportRow, type MappingGuess } from './mapping';
+import { guessMapping, mappingFromGuess, validateRows, validateRowsYielding, type ImportRow, type MappingGuess } from './mapping';
 
 export interface PreviewColumn {
   index: number;
@@ -125,7 +125,7 @@ export async function importMeasurements(
 ): Promise<ImportResult> {
   if (!isUuid(campaignId)) throw new NotFoundError('No campaign was found at this address in this project.');
   const table = await parseUpload(file, request.parse ?? {}, limits);
-  const checked = validateRows(table, request.mapping);
+  const checked = await validateRowsYielding(table, request.mapping);
   if (checked.errorCount > 0) {
     throw new ImportRejectedError(
       `${file.name}: ${checked.errorCount} problem${checked.errorCount === 1 ? '' : 's'} found; nothing was imported. Fix the file or the mapping and upload it again.`,

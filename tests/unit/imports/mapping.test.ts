@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { guessMapping, mappingFromGuess, MAX_LISTED_ISSUES, validateRows } from '../../../api/features/imports/mapping';
+import { guessMapping, mappingFromGuess, MAX_LISTED_ISSUES, ROWS_PER_STEP, validateRows, validateRowsYielding } from '../../../api/features/imports/mapping';
 import { parseUpload } from '../../../api/features/imports/parse';
 import { previewImport } from '../../../api/features/imports/service';
 import { importMappingSchema, type ImportMappingInput } from '../../../api/features/campaigns/schemas';
@@ -245,5 +245,26 @@ describe('validateRows: the mapping itself', () => {
       ['temperatureUnit', 'map a unit column or choose the temperature unit (K, C or F)'],
       ['measure', 'map a measure column or choose the measure of the value column'],
     ]);
+  });
+});
+
+describe('validateRowsYielding', () => {
+  it('when a long file is checked on the main thread, then other work gets turns and the result equals the one-go check', async () => {
+    // 10 000 invented rows with a few errors and repeats, so issues and rows both matter.
+    const lines = ['T (°C),ee (%)'];
+    for (let i = 0; i < 10_000; i++) lines.push(i % 997 === 0 ? `${-40 + (i % 50)},not a number` : `${-40 + (i % 50)},${80 + (i % 19)}`);
+    const table = await parseText(lines.join('\n'));
+    let turns = 0;
+    const tick = () => {
+      turns += 1;
+      if (!done) setImmediate(tick);
+    };
+    let done = false;
+    setImmediate(tick);
+    const yielded = await validateRowsYielding(table, eeInCelsius);
+    done = true;
+    expect(yielded).toEqual(validateRows(table, eeInCelsius));
+    // One turn at least per ROWS_PER_STEP rows checked.
+    expect(turns).toBeGreaterThanOrEqual(Math.floor(10_000 / ROWS_PER_STEP) - 1);
   });
 });
