@@ -64,7 +64,12 @@ export function compareCampaignFits(items: readonly ComparedCampaign[], temperat
   const inMeasure = (y: number) => lnRatioInMeasure(y, valueMeasure);
   const band = (fit: EyringFit, t: number) => {
     const p = predictLine(fit.line, 1 / t, 0.95);
-    return { lnRatio: p.yHat, value: inMeasure(p.yHat), interval: [inMeasure(p.meanInterval![0]), inMeasure(p.meanInterval![1])] as [number, number] };
+    return {
+      lnRatio: p.yHat,
+      lnInterval: [p.meanInterval![0], p.meanInterval![1]] as [number, number],
+      value: inMeasure(p.yHat),
+      interval: [inMeasure(p.meanInterval![0]), inMeasure(p.meanInterval![1])] as [number, number],
+    };
   };
   const campaigns = items.map((item, i) => {
     const fit = fits[i];

@@ -304,7 +304,7 @@ export const comparisonResultSchema = z
             ddH: energyWithSe,
             ddS: z.object({ 'J/(mol*K)': z.number(), 'cal/(mol*K)': z.number(), se: z.number().nullable() }),
             at: z.object({ lnRatio: z.number(), value: z.number(), interval: interval }),
-            curve: z.array(z.object({ kelvin: z.number(), celsius: z.number(), lnRatio: z.number(), value: z.number(), interval: interval })),
+            curve: z.array(z.object({ kelvin: z.number(), celsius: z.number(), lnRatio: z.number(), lnInterval: interval, value: z.number(), interval: interval })),
             eyring: z.array(z.object({ kelvin: z.number(), inverseKelvin: z.number(), lnRatio: z.number(), status: z.string() })),
           })
           .nullable(),

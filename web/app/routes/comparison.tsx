@@ -30,7 +30,15 @@ function ComparisonBody({ view }: { view: ComparisonView }) {
           yLabel={unit}
           formatY={(y) => sig(y, 4)}
           testId="comparison-chart"
-          series={r.campaigns.filter((c) => c.fit).map((c) => ({ key: c.id, label: c.title ?? c.id, points: c.fit!.curve.map((p) => ({ x: p.celsius, y: p.value })) }))}
+          bandLabel="Shaded: the 95 % confidence band of each campaign's fitted line."
+          series={r.campaigns
+            .filter((c) => c.fit)
+            .map((c) => ({
+              key: c.id,
+              label: c.title ?? c.id,
+              points: c.fit!.curve.map((p) => ({ x: p.celsius, y: p.value })),
+              band: c.fit!.curve.map((p) => ({ x: p.celsius, lo: Math.min(...p.interval), hi: Math.max(...p.interval) })),
+            }))}
         />
       </Panel>
       <Panel title="Eyring plots (ln r against 1000/T)">

@@ -1,5 +1,5 @@
 import { useMemo } from 'react';
-import { Axis, GlyphSeries, Grid, LineSeries, Tooltip, XYChart, type GlyphProps } from '@visx/xychart';
+import { AreaSeries, Axis, GlyphSeries, Grid, LineSeries, Tooltip, XYChart, type GlyphProps } from '@visx/xychart';
 import { fixed } from '../../lib/format';
 import { CelsiusAxis, ThermalStrip } from './chart-layers';
 import { axisLabelProps, chartColors, chartTheme, paddedExtent, tickLabelProps } from './chart-theme';
@@ -14,6 +14,8 @@ export interface LineChartSeries {
   points: { x: number; y: number }[];
   /** Draw thinner and lighter (e.g. a sensitivity variant beside the main answer). */
   secondary?: boolean;
+  /** A band around the line (e.g. its confidence interval), shaded in the series' colour. */
+  band?: { x: number; lo: number; hi: number }[];
 }
 
 /** Colours, dash patterns and marker shapes in step, so no series is told apart by colour alone. */
@@ -61,6 +63,7 @@ export function LineChart({
   yDomain: fixedYDomain,
   height = 260,
   testId,
+  bandLabel,
 }: {
   title: string;
   series: LineChartSeries[];
@@ -73,13 +76,17 @@ export function LineChart({
   yDomain?: [number, number];
   height?: number;
   testId?: string;
+  /** Legend text for the series' bands, e.g. "shaded: 95 % confidence band of each line". */
+  bandLabel?: string;
 }) {
   const [ref, width] = useElementWidth<HTMLDivElement>();
   const shown = series.slice(0, MAX_LINE_SERIES).map((s) => ({
     ...s,
     points: s.points.filter((p) => Number.isFinite(p.x) && Number.isFinite(p.y) && (yScale === 'linear' || p.y > 0)),
+    band: (s.band ?? []).filter((b) => Number.isFinite(b.x) && Number.isFinite(b.lo) && Number.isFinite(b.hi) && (yScale === 'linear' || b.lo > 0)),
   }));
-  const all = shown.flatMap((s) => s.points);
+  const all = [...shown.flatMap((s) => s.points), ...shown.flatMap((s) => s.band.flatMap((b) => [{ x: b.x, y: b.lo }, { x: b.x, y: b.hi }]))];
+  const hasBand = shown.some((s) => s.band.length > 1);
   const xDomain = useMemo(() => paddedExtent(all.map((p) => p.x), 0.03, 5), [all]);
   const yDomain = useMemo<[number, number]>(() => {
     if (fixedYDomain) return fixedYDomain;
@@ -114,6 +121,19 @@ export function LineChart({
               const data: Datum[] = s.points.map((p) => ({ ...p, series: s.label }));
               return (
                 <g key={s.key}>
+                  {s.band.length > 1 && (
+                    <AreaSeries
+                      dataKey={`${s.key}-band`}
+                      data={s.band}
+                      xAccessor={(b) => b.x}
+                      yAccessor={(b) => b.hi}
+                      y0Accessor={(b) => b.lo}
+                      renderLine={false}
+                      fill={color}
+                      fillOpacity={0.14}
+                      enableEvents={false}
+                    />
+                  )}
                   {data.length > 1 && (
                     <LineSeries
                       className="eyrie-line"
@@ -183,6 +203,7 @@ export function LineChart({
             );
           })}
         </ul>
+        {hasBand && bandLabel && <p className="mt-1 text-xs text-ink-600">{bandLabel}</p>}
         {series.length > shown.length && (
           <p className="mt-1 text-xs text-ink-600">
             The chart shows the first {shown.length} of {series.length} series; the table lists all.

@@ -1,5 +1,5 @@
 import { useMemo } from 'react';
-import { Axis, GlyphSeries, Grid, LineSeries, XYChart } from '@visx/xychart';
+import { AreaSeries, Axis, GlyphSeries, Grid, LineSeries, XYChart } from '@visx/xychart';
 import { axisLabelProps, chartColors, chartTheme, paddedExtent, tickLabelProps } from '../../../components/charts/chart-theme';
 import { useElementWidth } from '../../../components/charts/use-element-width';
 import { fixed } from '../../../lib/format';
@@ -47,8 +47,20 @@ export function EyringOverlay({ result }: { result: ComparisonView['result'] }) 
               const color = COLORS[i % COLORS.length]!;
               const line: Datum[] = c.fit!.curve.map((p) => ({ x: 1000 / p.kelvin, y: p.lnRatio }));
               const runs: Datum[] = c.fit!.eyring.filter((p) => p.status === 'fitted').map((p) => ({ x: 1000 * p.inverseKelvin, y: p.lnRatio }));
+              const band = c.fit!.curve.map((p) => ({ x: 1000 / p.kelvin, lo: p.lnInterval[0], hi: p.lnInterval[1] }));
               return (
                 <g key={c.id}>
+                  <AreaSeries
+                    dataKey={`${c.id}-band`}
+                    data={band}
+                    xAccessor={(d) => d.x}
+                    yAccessor={(d) => d.hi}
+                    y0Accessor={(d) => d.lo}
+                    renderLine={false}
+                    fill={color}
+                    fillOpacity={0.14}
+                    enableEvents={false}
+                  />
                   <LineSeries dataKey={`${c.id}-line`} data={line} xAccessor={(d) => d.x} yAccessor={(d) => d.y} stroke={color} strokeWidth={2} strokeDasharray={DASHES[i] || undefined} />
                   <GlyphSeries
                     dataKey={`${c.id}-runs`}
@@ -77,6 +89,7 @@ export function EyringOverlay({ result }: { result: ComparisonView['result'] }) 
             </li>
           ))}
         </ul>
+        <p className="mt-1 text-xs text-ink-600">Shaded: the 95 % confidence band of each campaign's fitted line.</p>
       </figcaption>
     </figure>
   );
