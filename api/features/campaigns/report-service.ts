@@ -10,6 +10,7 @@ import { CELSIUS_OFFSET_K } from '../../science';
 import { Project } from '../../models/project';
 import { User } from '../../models/user';
 import type { Mailer } from '../mail/mailer';
+import { getCampaignSpecification } from '../plan/store';
 import { loadReportData } from './analysis';
 import { buildCampaignReport, reportFileName } from './report';
 import { renderReportChartsAsync, type ReportCharts } from './report-charts';
@@ -46,7 +47,14 @@ export type ReportMailRequest = z.infer<typeof reportMailSchema>;
 export async function loadCampaignReportData(db: Knex, projectId: string, campaignId: string, options: { atC?: number } = {}): Promise<ReportData> {
   const data = await loadReportData(db, projectId, campaignId);
   const project = await Project.query(db).findById(projectId);
-  return { ...data, project: project ? { name: project.name } : null, ...(options.atC === undefined ? {} : { proposedK: options.atC + CELSIUS_OFFSET_K }) };
+  const specs = await getCampaignSpecification(db, projectId, campaignId);
+  const spec = specs.effective;
+  return {
+    ...data,
+    project: project ? { name: project.name } : null,
+    specification: spec ? { measure: spec.measure, minimum: spec.minimum, probability: spec.probability, runs: spec.runs, source: specs.source } : null,
+    ...(options.atC === undefined ? {} : { proposedK: options.atC + CELSIUS_OFFSET_K }),
+  };
 }
 
 export interface PreparedReport {
@@ -115,7 +123,8 @@ export function measurementsCsv(model: ReportModel): string {
 
 export function forecastCsv(model: ReportModel): string {
   const { labels, decimals: d, level } = model;
-  const header = ['T (°C)', 'T (K)', 'row', `${labels.word} A:B`, `${level} % PI low A:B`, `${level} % PI high A:B`, ...(labels.excess ? [labels.excess, `${level} % PI low ${labels.excess}`, `${level} % PI high ${labels.excess}`] : []), labels.major, 'ΔΔG‡ (kJ/mol)', 'outside screened range'];
+  const withSpec = model.specificationLnRatio !== null;
+  const header = ['T (°C)', 'T (K)', 'row', `${labels.word} A:B`, `${level} % PI low A:B`, `${level} % PI high A:B`, ...(labels.excess ? [labels.excess, `${level} % PI low ${labels.excess}`, `${level} % PI high ${labels.excess}`] : []), labels.major, 'ΔΔG‡ (kJ/mol)', 'outside screened range', ...(withSpec ? ['meets specification'] : [])];
   const rows = model.grid.map((g) => {
     const p = g.prediction;
     const pi = p.predictionInterval;
@@ -130,6 +139,7 @@ export function forecastCsv(model: ReportModel): string {
       Math.max(p.percentA, 100 - p.percentA),
       p.ddG['kJ/mol'],
       p.extrapolated ? 'yes' : 'no',
+      ...(withSpec ? [g.meets] : []),
     ];
   });
   const r = d.ratio + 1;

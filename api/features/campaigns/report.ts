@@ -8,7 +8,7 @@
 import ExcelJS from 'exceljs';
 import { kelvinToCelsius } from '../../science';
 import { numFmt, ratioOf, ratioRange, readSelectivity, safeFileName, safeText } from './report-format';
-import { buildReportModel, type ReportData, type ReportMeta, type ReportModel } from './report-model';
+import { buildReportModel, runMeetsSpecification, type ReportData, type ReportMeta, type ReportModel } from './report-model';
 import { renderReportChartsAsync, type ReportCharts } from './report-charts';
 
 export type { ReportData, ReportMeta, ReportSpecification } from './report-model';
@@ -161,6 +161,7 @@ function addCharts(wb: ExcelJS.Workbook, ws: ExcelJS.Worksheet, model: ReportMod
 
 function addMeasurements(wb: ExcelJS.Workbook, model: ReportModel) {
   const { data, decimals: d, labels } = model;
+  const specLn = model.specificationLnRatio;
   const pct = numFmt(d.percent);
   const columns: Column[] = [
     { header: 'Sample', width: 14 },
@@ -181,6 +182,7 @@ function addMeasurements(wb: ExcelJS.Workbook, model: ReportModel) {
     { header: 'Conversion (%)', width: 10, numFmt: '0.0' },
     { header: 'Time (h)', width: 8, numFmt: '0.00' },
     { header: 'Notes', width: 28 },
+    ...(specLn !== null ? [{ header: 'Meets specification', width: 13 }] : []),
   ];
   function* rows() {
     for (let i = 0; i < data.measurements.length; i++) {
@@ -207,6 +209,7 @@ function addMeasurements(wb: ExcelJS.Workbook, model: ReportModel) {
         m.conversionPercent,
         m.reactionTimeS === null ? null : m.reactionTimeS / 3600,
         user(m.notes),
+        ...(specLn !== null ? [runMeetsSpecification(p.lnRatio, specLn)] : []),
       ] as (Cell | UserText)[];
     }
   }
@@ -226,6 +229,7 @@ function addFit(wb: ExcelJS.Workbook, model: ReportModel) {
     { header: '', width: 12 },
     { header: '', width: 14 },
     { header: '', width: 24 },
+    { header: '', width: 14 },
   ];
   styleHeader(ws.getRow(1));
   if (!fit) {
@@ -266,7 +270,8 @@ function addFit(wb: ExcelJS.Workbook, model: ReportModel) {
   }
   r++;
   const head = ws.getRow(r++);
-  ['Residuals: T (°C)', 'ln r (−)', 'Fitted ln r (−)', 'Residual (−)', 'Studentized (−)', 'Leverage (−)', "Cook's distance (−)", 'Status', 'Flags'].forEach((h, i) => (head.getCell(i + 1).value = h));
+  const specLn = model.specificationLnRatio;
+  ['Residuals: T (°C)', 'ln r (−)', 'Fitted ln r (−)', 'Residual (−)', 'Studentized (−)', 'Leverage (−)', "Cook's distance (−)", 'Status', 'Flags', ...(specLn !== null ? ['Run meets specification'] : [])].forEach((h, i) => (head.getCell(i + 1).value = h));
   styleHeader(head);
   for (const res of fit.residuals) {
     const row = ws.getRow(r++);
@@ -280,6 +285,7 @@ function addFit(wb: ExcelJS.Workbook, model: ReportModel) {
       [res.cooksDistance, '0.000'],
       [res.status, '@'],
       [res.flags.join(', '), '@'],
+      ...(specLn !== null ? [[runMeetsSpecification(res.lnRatio, specLn), '@'] as [string | null, string]] : []),
     ];
     values.forEach(([v, fmt], i) => {
       if (v === null) return;
@@ -291,6 +297,7 @@ function addFit(wb: ExcelJS.Workbook, model: ReportModel) {
 
 function addForecast(wb: ExcelJS.Workbook, model: ReportModel) {
   const { decimals: d, labels, level } = model;
+  const withSpec = model.specificationLnRatio !== null;
   const pct = numFmt(d.percent);
   const ratio = numFmt(d.ratio);
   const columns: Column[] = [
@@ -311,6 +318,7 @@ function addForecast(wb: ExcelJS.Workbook, model: ReportModel) {
     { header: 'ΔΔG‡ (kJ/mol)', width: 10, numFmt: numFmt(d.ddH) },
     { header: 'Outside screened range', width: 10 },
     { header: 'Model', width: 22 },
+    ...(withSpec ? [{ header: `Meets specification (${model.specificationText})`, width: 24 }] : []),
   ];
   function* rows() {
     for (const g of model.grid) {
@@ -328,6 +336,7 @@ function addForecast(wb: ExcelJS.Workbook, model: ReportModel) {
         p.ddG['kJ/mol'],
         p.extrapolated ? 'yes' : 'no',
         p.model === 'segmented' ? `two branches: ${p.branch === 'low' ? 'low' : 'high'}-temperature branch` : 'one line',
+        ...(withSpec ? [g.meets] : []),
       ] as (Cell | UserText)[];
     }
   }
