@@ -214,6 +214,25 @@ describe('comparisons', () => {
     expect(sheet.pairs[0]!.verdict).toBe('first');
   });
 
+  it('when each campaign has a specification, then the comparison says in words which meets its own at the temperature', async () => {
+    const a = await screen(project.id, 12_000, 0.6);
+    const b = await screen(project.id);
+    const body = { projectId: project.id, name: 'Against the specification', campaignIds: [a.id, b.id], temperature: { value: -20, unit: 'C' } };
+    const first = comparisonSchema.parse((await as('editor').post('/api/v1/comparisons').send(body).expect(201)).body);
+    // The project's default applies until a campaign sets its own.
+    expect(first.result.campaigns.every((c) => c.specification !== null)).toBe(true);
+    // A minimum between the two fitted ee values at −20 °C: the first reaches it, the second does not [C].
+    const [eeA, eeB] = first.result.campaigns.map((c) => c.fit!.at.value);
+    const minimum = Math.round(((eeA! + eeB!) / 2) * 10) / 10;
+    for (const c of [a, b]) await as('editor').put(`/api/v1/campaigns/${c.id}/specification`).send({ measure: 'ee', minimum, probability: 0.9 }).expect(200);
+    const read = comparisonSchema.parse((await as('viewer').get(`/api/v1/comparisons/${first.id}`).expect(200)).body);
+    expect(read.result.campaigns.map((c) => c.meetsAtTemperature)).toEqual(['meets', 'falls short']);
+    expect(read.result.campaigns[0]!.specification).toMatchObject({ measure: 'ee', minimum, probability: 0.9, runs: 1 });
+    expect(read.result.campaigns[0]!.specification!.lnRatio).toBeCloseTo(Math.log((100 + minimum) / (100 - minimum)), 12); // ee → ln r [C]
+    const sheet = await loadComparisonReportData(testKnex(), project.id, users.viewer.id, first.id);
+    expect(sheet.campaigns.map((c) => c.meetsAtTemperature)).toEqual(['meets', 'falls short']);
+  });
+
   it('when two screens share one line, then the comparison says the data cannot tell them apart', async () => {
     const a = await screen(project.id);
     const b = await screen(project.id);

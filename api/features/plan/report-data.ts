@@ -60,7 +60,7 @@ export async function loadPlanReportData(db: Knex, projectId: string, campaignId
 export interface ComparisonReportData {
   name: string;
   temperatureCelsius: number;
-  campaigns: { id: string; title: string | null; available: boolean; ddHKJPerMol: number | null; ddSJPerMolK: number | null; valueAtTemperature: number | null; intervalLow: number | null; intervalHigh: number | null; problem: string | null }[];
+  campaigns: { id: string; title: string | null; available: boolean; ddHKJPerMol: number | null; ddSJPerMolK: number | null; valueAtTemperature: number | null; intervalLow: number | null; intervalHigh: number | null; problem: string | null; specification: { measure: string; minimum: number; probability: number } | null; meetsAtTemperature: string | null }[];
   pairs: { first: string; second: string; differenceLnR: number; intervalLow: number; intervalHigh: number; probabilityFirstBetter: number; verdict: string; equalSlopesP: number | null; crossoverCelsius: number | null; note: string }[];
   valueMeasure: string;
   caution: string;
@@ -81,6 +81,8 @@ export function comparisonReportData(view: ComparisonView): ComparisonReportData
       intervalLow: round(c.fit?.at.interval[0]),
       intervalHigh: round(c.fit?.at.interval[1]),
       problem: c.problem,
+      specification: c.specification ? { measure: c.specification.measure, minimum: c.specification.minimum, probability: c.specification.probability } : null,
+      meetsAtTemperature: c.meetsAtTemperature ?? null,
     })),
     pairs: view.result.pairs.map((p) => ({
       first: title(p.first),
