@@ -214,6 +214,23 @@ function curvatureLines(fit: FitResponse): SummaryLine[] {
   return lines;
 }
 
+/** The saved plan's answer on the Summary: the recommended temperature, its rule and probability, the window. */
+function planLines(plan: PlanReportData): SummaryLine[] {
+  const lines: SummaryLine[] = [];
+  const section = 'Plan';
+  if (plan.recommended) {
+    lines.push({ section, label: 'Recommended temperature', value: plan.recommended.celsius, decimals: 1, unit: '°C', name: 'Recommended_T_C' });
+    lines.push({ section, label: 'Rule', value: plan.rule });
+    lines.push({ section, label: 'Probability a new run meets the specification there', value: plan.recommended.probabilityMeetsSpec, decimals: 3, unit: '−', name: 'Recommended_probability' });
+  } else {
+    lines.push({ section, label: 'Recommended temperature', value: `none: ${plan.conflict ?? 'no temperature in the allowed range meets every constraint'}` });
+  }
+  lines.push({ section, label: 'Operating window', value: plan.window ? `${celsiusText(plan.window.fromCelsius)} to ${celsiusText(plan.window.toCelsius)}` : 'none in the allowed range' });
+  lines.push({ section, label: 'Binding constraints', value: plan.binding.length ? plan.binding.join(', ') : 'none' });
+  lines.push({ section, label: 'Saved plan', value: `version ${plan.version}, ${plan.updatedAt.slice(0, 16).replace('T', ' ')} UTC (details on the Plan sheet)` });
+  return lines;
+}
+
 export function buildReportModel(data: ReportData, meta: ReportMeta): ReportModel {
   const { campaign, analysis } = data;
   const fit = analysis.fit;
@@ -267,6 +284,7 @@ export function buildReportModel(data: ReportData, meta: ReportMeta): ReportMode
         : `± ${fixed(100 * campaign.defaultUncertainty, 1)} % of the ratio (1 SD)`;
   add({ section: 'Campaign', label: 'Assay and precision', value: `${ASSAY_NAMES[campaign.assayMethod] ?? campaign.assayMethod}, reported as ${campaign.measure}; ${precision}` });
   add({ section: 'Campaign', label: 'Specification', value: spec.text });
+  if (data.plan) planLines(data.plan).forEach(add);
 
   if (!fit) {
     add({ section: 'Result', label: 'Fit', value: `No fit: ${analysis.problem?.message ?? 'not enough data'}` });
