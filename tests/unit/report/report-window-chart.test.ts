@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { buildReportModel } from '../../../api/features/campaigns/report-model';
 import { renderReportCharts, windowChartSvg } from '../../../api/features/campaigns/report-charts';
+import { buildCampaignReportPdf } from '../../../api/features/campaigns/report-pdf';
 import type { PlanReportData } from '../../../api/features/plan/report-data';
 import { demoMeta, demoReportData } from './fixture';
 
@@ -48,5 +49,17 @@ describe('window chart of the report', () => {
     expect(windowChartSvg(buildReportModel(demoReportData(), demoMeta))).toBeNull();
     const charts = renderReportCharts(buildReportModel(demoReportData(12, { plan: invented(true) }), demoMeta))!;
     expect(charts.window!.subarray(1, 4).toString('latin1')).toBe('PNG');
+  });
+
+  it('when the PDF summary is built with a plan, then its chart page carries the window chart as a third image', async () => {
+    const images = async (withPlan: boolean) => {
+      const model = buildReportModel(demoReportData(12, withPlan ? { plan: invented(true) } : {}), demoMeta);
+      const pdf = await buildCampaignReportPdf(model, renderReportCharts(model));
+      return (pdf.toString('latin1').match(/\/Subtype \/Image/g) ?? []).length;
+    };
+    // Each PNG with transparency is an image plus its soft mask, so two charts count 4 and three count 6.
+    const without = await images(false);
+    expect(without).toBeGreaterThan(0);
+    expect(await images(true)).toBe((without * 3) / 2);
   });
 });
