@@ -223,6 +223,13 @@ describe('campaign plan', () => {
 
     const summary = wb.getWorksheet('Summary')!;
     expect(String(byLabel(summary, 'Operating window').getCell(2).value)).toMatch(/°C to .*°C/);
+    // The Forecast sheet forecasts at the recommended temperature too.
+    const recommendedRows: number[] = [];
+    wb.getWorksheet('Forecast')!.eachRow((row) => {
+      if (row.getCell(3).value === 'recommended by the saved plan') recommendedRows.push(row.getCell(2).value as number);
+    });
+    expect(recommendedRows).toHaveLength(1);
+    expect(recommendedRows[0]).toBeCloseTo(rec.kelvin, 3);
 
     const cmp = wb.getWorksheet('Comparison')!;
     const pairRow = byLabel(cmp, `${other.title} against ${campaign.title}`);

@@ -75,7 +75,7 @@ export interface SummaryLine {
 }
 
 export interface GridRow {
-  source: 'grid' | 'saved' | 'proposed';
+  source: 'grid' | 'saved' | 'proposed' | 'recommended';
   /** Label of a saved forecast, or "proposed". */
   note: string | null;
   prediction: FitPrediction;
@@ -254,7 +254,13 @@ export function buildReportModel(data: ReportData, meta: ReportMeta): ReportMode
   const grid: GridRow[] = [];
   let proposed: GridRow | null = null;
   if (fit) {
-    const temps = [...gridC.map((c) => c + CELSIUS_OFFSET_K), ...saved.map((f) => f.temperatureK), ...(proposedK === null ? [] : [proposedK])];
+    const recommendedK = data.plan?.recommended?.kelvin ?? null;
+    const temps = [
+      ...gridC.map((c) => c + CELSIUS_OFFSET_K),
+      ...saved.map((f) => f.temperatureK),
+      ...(recommendedK === null ? [] : [recommendedK]),
+      ...(proposedK === null ? [] : [proposedK]),
+    ];
     const engine = toEngineMeasurements(campaign, data.measurements);
     // The campaign's own assay settings (new-run precision, quantitation limit), as on the campaign page.
     const options = { weighting: fit.weighting, uncertaintyScale: 'absolute' as const, confidence: fit.confidence };
@@ -262,6 +268,10 @@ export function buildReportModel(data: ReportData, meta: ReportMeta): ReportMode
     const meets = (p: FitPrediction) => meetsSpecification(p, spec.lnRatio);
     gridC.forEach((_, i) => grid.push({ source: 'grid', note: null, prediction: predictions[i]!, meets: meets(predictions[i]!) }));
     saved.forEach((f, i) => grid.push({ source: 'saved', note: f.label ?? `saved ${f.createdAt.slice(0, 10)}`, prediction: predictions[gridC.length + i]!, meets: meets(predictions[gridC.length + i]!) }));
+    if (recommendedK !== null) {
+      const p = predictions[gridC.length + saved.length]!;
+      grid.push({ source: 'recommended', note: 'recommended by the saved plan', prediction: p, meets: meets(p) });
+    }
     if (proposedK !== null) {
       proposed = { source: 'proposed', note: 'proposed', prediction: predictions[predictions.length - 1]!, meets: meets(predictions[predictions.length - 1]!) };
       grid.push(proposed);

@@ -150,7 +150,7 @@ export function forecastCsv(model: ReportModel): string {
     return [
       clean(p.celsius),
       p.kelvin,
-      g.source === 'saved' ? `saved: ${g.note ?? ''}` : g.source,
+      g.source === 'saved' ? `saved: ${g.note ?? ''}` : g.source === 'recommended' ? 'recommended by the saved plan' : g.source,
       p.ratio,
       pi?.ratio[0] ?? null,
       pi?.ratio[1] ?? null,

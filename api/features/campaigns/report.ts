@@ -327,7 +327,7 @@ function addForecast(wb: ExcelJS.Workbook, model: ReportModel) {
       yield [
         clean(p.celsius),
         p.kelvin,
-        g.source === 'grid' ? 'grid' : g.source === 'proposed' ? 'proposed temperature' : user(`saved: ${g.note ?? ''}`),
+        g.source === 'grid' ? 'grid' : g.source === 'proposed' ? 'proposed temperature' : g.source === 'recommended' ? 'recommended by the saved plan' : user(`saved: ${g.note ?? ''}`),
         ratioOf(p),
         pi ? ratioRange(pi)[0] : null,
         pi ? ratioRange(pi)[1] : null,
