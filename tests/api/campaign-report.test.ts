@@ -42,7 +42,7 @@ afterAll(async () => {
 
 function as(who: Who) {
   const { agent, csrf } = sessions[who]!;
-  return { get: (url: string) => agent.get(url), post: (url: string) => agent.post(url).set('X-CSRF-Token', csrf) };
+  return { get: (url: string) => agent.get(url), post: (url: string) => agent.post(url).set('X-CSRF-Token', csrf), put: (url: string) => agent.put(url).set('X-CSRF-Token', csrf) };
 }
 
 const binary = (r: request.Response, done: (err: Error | null, body: Buffer) => void) => {
@@ -91,6 +91,31 @@ describe('campaign exports', () => {
     expect(exportedBy).toBe(users.viewer.displayName ?? users.viewer.login);
     expect(String(title).startsWith("'=Report screen")).toBe(true);
     expect(wb.getWorksheet('Measurements')!.getRow(2).getCell(1).value).toBe("'+SUM(1)");
+  });
+
+  it('when the campaign has a stored specification, then the workbook states it and judges each forecast row against it', async () => {
+    const id = await drScreen();
+    await as('editor').put(`/api/v1/campaigns/${id}/specification`).send({ measure: 'dr', minimum: 12, probability: 0.9 }).expect(200);
+    const res = await as('viewer').get(`/api/v1/campaigns/${id}/report.xlsx?at=-30`).buffer(true).parse(binary).expect(200);
+    const wb = new ExcelJS.Workbook();
+    await wb.xlsx.load(res.body as unknown as ArrayBuffer);
+    let spec: unknown;
+    wb.getWorksheet('Summary')!.eachRow((row) => {
+      if (row.getCell(1).value === 'Specification') spec = row.getCell(2).value;
+    });
+    expect(spec).toBe("dr ≥ 12.0:1, with probability 0.9 that a new run meets it (the campaign's own)");
+    const fc = wb.getWorksheet('Forecast')!;
+    const header = Array.from(fc.getRow(1).values as unknown[], String);
+    const col = header.findIndex((h) => h.startsWith('Meets specification'));
+    const ratioCol = header.findIndex((h) => h.startsWith('dr A:B'));
+    expect(col).toBeGreaterThan(0);
+    expect(ratioCol).toBeGreaterThan(0);
+    fc.eachRow((row, i) => {
+      if (i === 1) return;
+      const ratio = row.getCell(ratioCol).value as number;
+      // A forecast below 12:1 falls short; at or above it meets (with or without its whole interval) [C].
+      expect(String(row.getCell(col).value)).toMatch(ratio < 12 ? /^falls short$/ : /meets/);
+    });
   });
 
   it('when a viewer asks for the PDF and the CSVs, then each arrives with its type and content', async () => {

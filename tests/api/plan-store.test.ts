@@ -1,3 +1,4 @@
+import ExcelJS from 'exceljs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { closeTestKnex, testKnex } from '../support/db';
@@ -75,6 +76,11 @@ function as(who: Who) {
     put: (url: string) => agent.put(url).set('X-CSRF-Token', csrf),
   };
 }
+const binary = (r: request.Response, done: (err: Error | null, body: Buffer) => void) => {
+  const chunks: Buffer[] = [];
+  r.on('data', (d: Buffer) => chunks.push(d));
+  r.on('end', () => done(null, Buffer.concat(chunks)));
+};
 const audits = async (entityType: string, entityId: string) => testKnex()('audit_events').where({ entityType, entityId }).orderBy('id');
 const RANGE = { from: { value: -70, unit: 'C' }, to: { value: 40, unit: 'C' } };
 
@@ -163,6 +169,76 @@ describe('campaign plan', () => {
     expect(sheet.caution).toMatch(/calorimetry/);
   });
 
+  it('when a campaign has a saved plan and the project a saved comparison, then the workbook carries a Plan and a Comparison sheet with their numbers', async () => {
+    const campaign = await screen(project.id);
+    const other = await screen(project.id, 12_000, 0.6);
+    await as('editor').put(`/api/v1/campaigns/${campaign.id}/specification`).send({ measure: 'ee', minimum: 98, probability: 0.95 }).expect(200);
+    const inputs = { temperatures: RANGE, rate: { targetConversionPercent: 95, maxTime: { value: 24, unit: 'h' } }, curvePoints: 11, nextRuns: { count: 2 } };
+    const plan = campaignPlanSchema.parse((await as('editor').put(`/api/v1/campaigns/${campaign.id}/plan`).send({ inputs }).expect(200)).body.plan);
+    const rec = plan.result.recommended!;
+    expect(rec).not.toBeNull();
+    await as('editor')
+      .post('/api/v1/comparisons')
+      .send({ projectId: project.id, name: 'Report pair', campaignIds: [other.id, campaign.id], temperature: { value: -20, unit: 'C' } })
+      .expect(201);
+
+    const res = await as('viewer').get(`/api/v1/campaigns/${campaign.id}/report.xlsx`).buffer(true).parse(binary).expect(200);
+    const wb = new ExcelJS.Workbook();
+    await wb.xlsx.load(res.body as unknown as ArrayBuffer);
+    expect(wb.worksheets.map((w) => w.name)).toEqual(expect.arrayContaining(['Summary', 'Plan', 'Comparison']));
+    const named = (name: string) => {
+      const [sheet, ref] = wb.definedNames.getRanges(name).ranges[0]!.split('!');
+      return wb.getWorksheet(sheet!.replace(/'/g, ''))!.getCell(ref!.replace(/\$/g, '')).value;
+    };
+    // The same numbers as the stored plan, rounded only as the report shape rounds them (5 significant digits).
+    expect(named('Plan_recommended_T_C')).toBeCloseTo(rec.celsius, 2);
+    expect(named('Recommended_T_C')).toBeCloseTo(rec.celsius, 2);
+    expect(named('Plan_probability')).toBeCloseTo(rec.probabilityMeetsSpec, 4);
+    expect(named('Recommended_probability')).toBeCloseTo(rec.probabilityMeetsSpec, 4);
+
+    const planSheet = wb.getWorksheet('Plan')!;
+    const byLabel = (ws: ExcelJS.Worksheet, label: string) => {
+      let found: ExcelJS.Row | undefined;
+      ws.eachRow((row) => {
+        if (!found && row.getCell(1).value === label) found = row;
+      });
+      return found!;
+    };
+    expect(byLabel(planSheet, 'Rule').getCell(2).value).toBe(plan.result.rule.text);
+    expect(byLabel(planSheet, 'Operating window from').getCell(2).value).toBeCloseTo(plan.result.window!.from.celsius, 2);
+    expect(byLabel(planSheet, 'Operating window to').getCell(2).value).toBeCloseTo(plan.result.window!.to.celsius, 2);
+    expect(byLabel(planSheet, 'Binding constraints').getCell(2).value).toBe(plan.result.binding.length ? plan.result.binding.join(', ') : 'none');
+    expect(String(byLabel(planSheet, 'Caution').getCell(2).value)).toMatch(/calorimetry/);
+    expect(String(byLabel(planSheet, 'Next runs').getCell(2).value)).toMatch(/°C.*°C/);
+    expect(byLabel(planSheet, 'Allowed temperature range').getCell(2).value).toBe('−70 °C to 40 °C');
+    expect(planSheet.getImages()).toHaveLength(1);
+    // The curve table: one row per stored curve point, probabilities as stored.
+    const head = byLabel(planSheet, 'Curve: T (°C)');
+    plan.result.curve.forEach((p, i) => {
+      const row = planSheet.getRow(head.number + 1 + i);
+      expect(row.getCell(1).value).toBeCloseTo(p.celsius, 3);
+      expect(row.getCell(3).value).toBeCloseTo(p.probabilityMeetsSpec, 4);
+      expect(row.getCell(9).value).toBe(p.feasible ? 'yes' : 'no');
+    });
+
+    const summary = wb.getWorksheet('Summary')!;
+    expect(String(byLabel(summary, 'Operating window').getCell(2).value)).toMatch(/°C to .*°C/);
+    // The Forecast sheet forecasts at the recommended temperature too.
+    const recommendedRows: number[] = [];
+    wb.getWorksheet('Forecast')!.eachRow((row) => {
+      if (row.getCell(3).value === 'recommended by the saved plan') recommendedRows.push(row.getCell(2).value as number);
+    });
+    expect(recommendedRows).toHaveLength(1);
+    expect(recommendedRows[0]).toBeCloseTo(rec.kelvin, 3);
+
+    const cmp = wb.getWorksheet('Comparison')!;
+    const pairRow = byLabel(cmp, `${other.title} against ${campaign.title}`);
+    expect(pairRow).toBeDefined();
+    const stored = await loadComparisonReportData(testKnex(), project.id, users.viewer.id, (await testKnex()('comparisons').where({ name: 'Report pair' }).first('id')).id);
+    expect(pairRow.getCell(2).value).toBeCloseTo(stored.pairs[0]!.differenceLnR, 6);
+    expect(pairRow.getCell(8).value).toBe('the first is more selective');
+  });
+
   it('when no specification is stored or sent, then 400 names inputs.specification and nothing is stored', async () => {
     const other = await createProject([{ user: users.editor, role: 'editor' }]);
     const campaign = await screen(other.id);
@@ -212,6 +288,25 @@ describe('comparisons', () => {
     const sheet = await loadComparisonReportData(testKnex(), project.id, users.viewer.id, view.id);
     expect(sheet.pairs[0]!.first).toBe(a.title);
     expect(sheet.pairs[0]!.verdict).toBe('first');
+  });
+
+  it('when each campaign has a specification, then the comparison says in words which meets its own at the temperature', async () => {
+    const a = await screen(project.id, 12_000, 0.6);
+    const b = await screen(project.id);
+    const body = { projectId: project.id, name: 'Against the specification', campaignIds: [a.id, b.id], temperature: { value: -20, unit: 'C' } };
+    const first = comparisonSchema.parse((await as('editor').post('/api/v1/comparisons').send(body).expect(201)).body);
+    // The project's default applies until a campaign sets its own.
+    expect(first.result.campaigns.every((c) => c.specification !== null)).toBe(true);
+    // A minimum between the two fitted ee values at −20 °C: the first reaches it, the second does not [C].
+    const [eeA, eeB] = first.result.campaigns.map((c) => c.fit!.at.value);
+    const minimum = Math.round(((eeA! + eeB!) / 2) * 10) / 10;
+    for (const c of [a, b]) await as('editor').put(`/api/v1/campaigns/${c.id}/specification`).send({ measure: 'ee', minimum, probability: 0.9 }).expect(200);
+    const read = comparisonSchema.parse((await as('viewer').get(`/api/v1/comparisons/${first.id}`).expect(200)).body);
+    expect(read.result.campaigns.map((c) => c.meetsAtTemperature)).toEqual(['meets', 'falls short']);
+    expect(read.result.campaigns[0]!.specification).toMatchObject({ measure: 'ee', minimum, probability: 0.9, runs: 1 });
+    expect(read.result.campaigns[0]!.specification!.lnRatio).toBeCloseTo(Math.log((100 + minimum) / (100 - minimum)), 12); // ee → ln r [C]
+    const sheet = await loadComparisonReportData(testKnex(), project.id, users.viewer.id, first.id);
+    expect(sheet.campaigns.map((c) => c.meetsAtTemperature)).toEqual(['meets', 'falls short']);
   });
 
   it('when two screens share one line, then the comparison says the data cannot tell them apart', async () => {

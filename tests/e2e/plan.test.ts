@@ -1,5 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import path from 'node:path';
+import { readFile } from 'node:fs/promises';
+import ExcelJS from 'exceljs';
 import type { Page } from 'playwright-core';
 import { closeTestKnex } from '../support/db';
 import { openBrowser, maybeScreenshot, type BrowserSession } from '../support/browser';
@@ -23,6 +25,24 @@ afterAll(async () => {
   await env?.close();
   await closeTestKnex();
 });
+
+/** Click the campaign's spreadsheet link and read the downloaded workbook back. */
+async function downloadReport(page: Page): Promise<ExcelJS.Workbook> {
+  const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: /Download spreadsheet report/ }).click()]);
+  const file = await download.path();
+  const wb = new ExcelJS.Workbook();
+  await wb.xlsx.load((await readFile(file)) as unknown as ArrayBuffer);
+  return wb;
+}
+
+/** The value beside a label in column A of a sheet. */
+function valueBeside(ws: ExcelJS.Worksheet, label: string): ExcelJS.CellValue | undefined {
+  let found: ExcelJS.CellValue | undefined;
+  ws.eachRow((row) => {
+    if (found === undefined && row.getCell(1).value === label) found = row.getCell(2).value;
+  });
+  return found;
+}
 
 async function signInAs(page: Page, baseUrl: string, who: TestIdentity, returnPath: string) {
   await page.context().clearCookies();
@@ -85,6 +105,18 @@ describe('temperature planner in Chromium', () => {
     expect(await page.getByTestId('window-selectivity').innerText()).toMatch(/recommended/);
     expect(await page.getByTestId('window-selectivity').innerText()).toMatch(/excluded: /);
     await maybeScreenshot(page, 'plan-feasible-1440');
+
+    // The saved plan travels in the downloaded workbook: its Plan sheet holds the same recommended temperature.
+    const report = await downloadReport(page);
+    const planSheet = report.getWorksheet('Plan');
+    expect(planSheet).toBeDefined();
+    const shownC = Number(/(−?\d+\.\d) °C/.exec(recommended)![1]!.replace('−', '-'));
+    const sheetC = valueBeside(planSheet!, 'Recommended temperature');
+    expect(typeof sheetC).toBe('number');
+    expect(Math.round((sheetC as number) * 10) / 10).toBeCloseTo(shownC, 5);
+    expect(String(valueBeside(planSheet!, 'Caution'))).toMatch(/calorimetry/);
+    expect(planSheet!.getImages()).toHaveLength(1);
+    expect(valueBeside(report.getWorksheet('Summary')!, 'Recommended temperature')).toBe(sheetC);
     await page.setViewportSize({ width: 390, height: 900 });
     await maybeScreenshot(page, 'plan-feasible-390');
     await page.setViewportSize({ width: 1440, height: 900 });
@@ -113,5 +145,14 @@ describe('temperature planner in Chromium', () => {
     await page.getByTestId('comparison-chart').locator('svg').first().waitFor();
     await page.getByTestId('comparison-eyring').locator('svg').first().waitFor();
     await maybeScreenshot(page, 'comparison-1440');
+
+    // The saved comparison is in the next report of the campaign.
+    await page.goto(`${baseUrl}/campaigns/${first.id}`);
+    const withComparison = await downloadReport(page);
+    const cmp = withComparison.getWorksheet('Comparison');
+    expect(cmp).toBeDefined();
+    const texts: string[] = [];
+    cmp!.eachRow((row) => texts.push(String(row.getCell(1).value)));
+    expect(texts.some((t) => t.startsWith('Osprey against Plover'))).toBe(true);
   }, 90_000);
 });

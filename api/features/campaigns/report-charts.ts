@@ -249,6 +249,67 @@ export function selectivityChartSvg(model: ReportModel): string {
   return svg([...f.parts, `<g>${body.join('')}</g>`, legend(legendFor(model, model.specificationLnRatio !== null))]);
 }
 
+/**
+ * The saved plan's window: the probability that a new run meets the specification across the
+ * allowed range, the required probability as a dashed line, temperatures that break a constraint
+ * hatched and labelled with it, and the recommendation marked. Null without a plan.
+ */
+export function windowChartSvg(model: ReportModel): string | null {
+  const plan = model.data.plan;
+  if (!plan || plan.rows.length < 2) return null;
+  const rows = plan.rows;
+  const xr: [number, number] = [rows[0]!.celsius, rows[rows.length - 1]!.celsius];
+  const f = frame('Operating window: probability a new run meets the specification', 'T (°C)', 'probability (%)', xr, [0, 100]);
+  const body: string[] = [];
+  body.push(`<defs><pattern id="hatch" width="8" height="8" patternUnits="userSpaceOnUse" patternTransform="rotate(45)"><line x1="0" y1="0" x2="0" y2="8" stroke="${colors.inkSoft}" stroke-width="1.5" stroke-opacity="0.45"/></pattern></defs>`);
+  // Contiguous stretches where some constraint fails, each drawn from midpoint to midpoint of the grid.
+  const edge = (i: number) => (i <= 0 ? rows[0]!.celsius : i >= rows.length ? rows[rows.length - 1]!.celsius : (rows[i - 1]!.celsius + rows[i]!.celsius) / 2);
+  const top = M.top;
+  const bottom = CHART_HEIGHT - M.bottom;
+  for (let i = 0; i < rows.length; ) {
+    if (rows[i]!.feasible) {
+      i++;
+      continue;
+    }
+    let j = i;
+    while (j < rows.length && !rows[j]!.feasible) j++;
+    const x0 = f.x(edge(i));
+    const x1 = f.x(edge(j));
+    body.push(`<rect x="${x0.toFixed(1)}" y="${top}" width="${Math.max(0, x1 - x0).toFixed(1)}" height="${bottom - top}" fill="url(#hatch)"/>`);
+    const failing = [...new Set(rows.slice(i, j).flatMap((r) => r.failing.split(', ').filter(Boolean)))].join(', ');
+    if (x1 - x0 > 60 && failing) {
+      const label = `excluded: ${failing}`;
+      const mid = (x0 + x1) / 2;
+      const w = label.length * 6.4 + 8;
+      body.push(`<rect x="${(mid - w / 2).toFixed(1)}" y="${bottom - 52}" width="${w.toFixed(1)}" height="16" fill="${colors.paper}" fill-opacity="0.9"/>`);
+      body.push(`<text x="${mid.toFixed(1)}" y="${bottom - 40}" font-size="11" fill="${colors.ink}" text-anchor="middle">${esc(label)}</text>`);
+    }
+    i = j;
+  }
+  const required = 100 * plan.specification.probability;
+  const py = f.y(required).toFixed(1);
+  body.push(`<line x1="${M.left}" x2="${CHART_WIDTH - M.right}" y1="${py}" y2="${py}" stroke="${colors.caution}" stroke-width="1.5" stroke-dasharray="6 3"/>`);
+  const reqLabel = `required ${fixed(required, 1)} %`;
+  body.push(`<rect x="${CHART_WIDTH - M.right - 8 - reqLabel.length * 6.4}" y="${(Number(py) + 4).toFixed(1)}" width="${(reqLabel.length * 6.4 + 6).toFixed(1)}" height="15" fill="${colors.paper}" fill-opacity="0.9"/>`);
+  body.push(`<text x="${CHART_WIDTH - M.right - 4}" y="${(Number(py) + 15).toFixed(1)}" font-size="11" fill="${colors.caution}" text-anchor="end">${esc(reqLabel)}</text>`);
+  body.push(`<path d="${polyline(rows.map((r) => [f.x(r.celsius), f.y(100 * r.probabilityMeetsSpec)]))}" fill="none" stroke="${colors.accent}" stroke-width="2"/>`);
+  if (plan.recommended) {
+    const px = f.x(plan.recommended.celsius);
+    body.push(`<line x1="${px.toFixed(1)}" x2="${px.toFixed(1)}" y1="${top}" y2="${bottom}" stroke="${colors.ink}" stroke-width="1.5"/>`);
+    body.push(`<circle cx="${px.toFixed(1)}" cy="${f.y(100 * plan.recommended.probabilityMeetsSpec).toFixed(1)}" r="5" fill="${colors.ink}"/>`);
+    const anchor = px > CHART_WIDTH / 2 ? 'end' : 'start';
+    const tx = px + (anchor === 'end' ? -6 : 6);
+    body.push(`<text x="${tx.toFixed(1)}" y="${bottom - 8}" font-size="11" font-weight="bold" fill="${colors.ink}" text-anchor="${anchor}">${esc(`recommended ${fixed(plan.recommended.celsius, 1)} °C`)}</text>`);
+  }
+  const items: LegendItem[] = [
+    { swatch: SW.line, label: 'probability a new run meets the specification' },
+    { swatch: SW.spec, label: 'required probability' },
+    { swatch: `<rect x="0" y="-5" width="16" height="10" fill="none" stroke="${colors.inkSoft}"/><path d="M0 5 L10 -5 M6 5 L16 -5" stroke="${colors.inkSoft}"/>`, label: 'a constraint fails (hatched)' },
+  ];
+  if (plan.recommended) items.push({ swatch: `<line x1="8" x2="8" y1="-6" y2="6" stroke="${colors.ink}" stroke-width="1.5"/>`, label: 'recommended' });
+  return svg([...f.parts, `<g>${body.join('')}</g>`, legend(items)]);
+}
+
 function svg(parts: string[]): string {
   return `<svg xmlns="http://www.w3.org/2000/svg" width="${CHART_WIDTH}" height="${CHART_HEIGHT}" viewBox="0 0 ${CHART_WIDTH} ${CHART_HEIGHT}" font-family="${FONT_FAMILY}">${parts.join('')}</svg>`;
 }
@@ -271,6 +332,8 @@ export function renderPng(svgText: string, scale = 1.5): Buffer {
 export interface ReportCharts {
   eyring: Buffer;
   selectivity: Buffer;
+  /** The saved plan's window, when the campaign has one. */
+  window?: Buffer | null;
 }
 
 const hasCharts = (model: ReportModel) => Boolean(model.fit) && model.data.analysis.curve.length >= 2;
@@ -278,12 +341,18 @@ const hasCharts = (model: ReportModel) => Boolean(model.fit) && model.data.analy
 /** Both charts as PNG, or null when there is no fit to draw. */
 export function renderReportCharts(model: ReportModel): ReportCharts | null {
   if (!hasCharts(model)) return null;
-  return { eyring: renderPng(eyringChartSvg(model)), selectivity: renderPng(selectivityChartSvg(model)) };
+  const w = windowChartSvg(model);
+  return { eyring: renderPng(eyringChartSvg(model)), selectivity: renderPng(selectivityChartSvg(model)), window: w ? renderPng(w) : null };
 }
 
 /** As `renderReportCharts`, rasterised on libuv's thread pool so the caller can build sheets meanwhile. */
 export async function renderReportChartsAsync(model: ReportModel, scale = 1.5): Promise<ReportCharts | null> {
   if (!hasCharts(model)) return null;
-  const [eyring, selectivity] = await Promise.all([renderAsync(eyringChartSvg(model), renderOptions(scale)), renderAsync(selectivityChartSvg(model), renderOptions(scale))]);
-  return { eyring: Buffer.from(eyring.asPng()), selectivity: Buffer.from(selectivity.asPng()) };
+  const w = windowChartSvg(model);
+  const [eyring, selectivity, window] = await Promise.all([
+    renderAsync(eyringChartSvg(model), renderOptions(scale)),
+    renderAsync(selectivityChartSvg(model), renderOptions(scale)),
+    w ? renderAsync(w, renderOptions(scale)) : Promise.resolve(null),
+  ]);
+  return { eyring: Buffer.from(eyring.asPng()), selectivity: Buffer.from(selectivity.asPng()), window: window ? Buffer.from(window.asPng()) : null };
 }

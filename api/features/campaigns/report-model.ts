@@ -5,20 +5,29 @@
  */
 import type { Campaign } from '../../models/campaign';
 import type { Measurement } from '../../models/measurement';
-import { CELSIUS_OFFSET_K, SIGN_CONVENTION, kelvinToCelsius, parseSelectivity, type SelectivityMeasure } from '../../science';
+import { CELSIUS_OFFSET_K, SIGN_CONVENTION, kelvinToCelsius, specificationLnRatio, type SpecificationMeasure } from '../../science';
 import { SELECTIVITY_CAUTION } from '../../lib/cautions';
 import { analyseScreen } from '../compute/service';
 import type { FitResponse } from '../compute/schemas';
 import type { AnalysisResponse, SavedForecastView } from './analysis-schemas';
 import { assaySettings, toEngineMeasurements } from './analysis';
-import { decimalsForSe, fixed, lnOf, measureLabels, ratioOf, ratioRange, readSelectivity, selectivityDecimals, type MeasureLabels } from './report-format';
+import type { ComparisonReportData, PlanReportData } from '../plan/report-data';
+import { decimalsForSe, fixed, lnOf, lnRange, measureLabels, ratioOf, ratioRange, readSelectivity, selectivityDecimals, type MeasureLabels } from './report-format';
 
 export type FitPrediction = FitResponse['predictions'][number];
 
-/** A minimum selectivity the campaign must reach, in one of the measures (e.g. dr ≥ 10, ee ≥ 95). */
+/**
+ * A minimum selectivity the campaign must reach, in one of the measures (e.g. dr ≥ 10, ee ≥ 95;
+ * er and percentA as the major isomer's share in %, 98 for 98:2).
+ */
 export interface ReportSpecification {
-  measure: SelectivityMeasure;
+  measure: SpecificationMeasure;
   minimum: number;
+  /** How sure a single new run (or the mean of `runs` runs) must be to meet it, e.g. 0.95. */
+  probability?: number | null;
+  runs?: number | null;
+  /** Where it is stored: the campaign's own or the project's default. */
+  source?: 'campaign' | 'project' | null;
   /** How the team wrote it, shown as is (optional). */
   text?: string | null;
 }
@@ -36,6 +45,10 @@ export interface ReportData {
   proposedK?: number | null;
   /** The jacket's working range (°C); omitted → the screened range. */
   jacketRangeC?: [number, number] | null;
+  /** The campaign's stored plan in report shape; omitted → no Plan sheet. */
+  plan?: PlanReportData | null;
+  /** The project's saved comparisons (recomputed from current runs); omitted or empty → no Comparison sheet. */
+  comparisons?: ComparisonReportData[] | null;
 }
 
 export interface ReportMeta {
@@ -62,10 +75,33 @@ export interface SummaryLine {
 }
 
 export interface GridRow {
-  source: 'grid' | 'saved' | 'proposed';
+  source: 'grid' | 'saved' | 'proposed' | 'recommended';
   /** Label of a saved forecast, or "proposed". */
   note: string | null;
   prediction: FitPrediction;
+  /** Pass/fail of this row against the specification in words; null without a specification. */
+  meets: string | null;
+}
+
+/** How a forecast reads against the specification, in words (never colour only). */
+export const MEETS = {
+  clear: 'meets: whole prediction interval at or above',
+  central: 'forecast meets; interval reaches below',
+  short: 'falls short',
+} as const;
+
+/** A forecast against ln r_spec: the whole prediction interval above, only the central value, or short. */
+export function meetsSpecification(p: Pick<FitPrediction, 'lnRatio' | 'ratio' | 'predictionInterval'>, specLn: number | null): string | null {
+  if (specLn === null) return null;
+  if (!(lnOf(p) >= specLn)) return MEETS.short;
+  const pi = p.predictionInterval;
+  return pi && lnRange(pi)[0] >= specLn ? MEETS.clear : MEETS.central;
+}
+
+/** A measured run against ln r_spec: "meets" or "falls short" (a bound that reaches it meets). */
+export function runMeetsSpecification(lnRatio: number, specLn: number | null): string | null {
+  if (specLn === null) return null;
+  return lnRatio >= specLn ? 'meets' : 'falls short';
 }
 
 export interface ReportModel {
@@ -117,15 +153,21 @@ function specificationOf(spec: ReportSpecification | null | undefined, labels: M
   if (!spec) return { lnRatio: null, text: 'no specification set' };
   let lnRatio: number | null = null;
   try {
-    lnRatio = Math.log(parseSelectivity({ measure: spec.measure, value: spec.minimum }));
+    lnRatio = specificationLnRatio({ measure: spec.measure, minimum: spec.minimum, probability: spec.probability ?? 0.95 });
   } catch {
     lnRatio = null;
   }
+  const pct = (v: number) => fixed(v, Math.max(dec.percent, v % 1 === 0 ? 0 : 1));
   const shown =
-    spec.measure === 'ee' || spec.measure === 'percentA'
-      ? `${spec.measure === 'ee' ? (labels.family === 'diastereomers' ? 'de' : 'ee') : '% A'} ≥ ${fixed(spec.minimum, dec.percent)} %`
-      : `${spec.measure} ≥ ${fixed(spec.minimum, dec.ratio)}:1`;
-  return { lnRatio, text: spec.text ? `${shown} (${spec.text})` : shown };
+    spec.measure === 'ee'
+      ? `${labels.family === 'diastereomers' ? 'de' : 'ee'} ≥ ${pct(spec.minimum)} %`
+      : spec.measure === 'dr'
+        ? `dr ≥ ${fixed(spec.minimum, Math.max(dec.ratio, spec.minimum % 1 === 0 ? 0 : 1))}:1`
+        : `${spec.measure === 'er' ? 'er' : 'major isomer'} ≥ ${pct(spec.minimum)}:${pct(100 - spec.minimum)}`;
+  const sure = spec.probability ? `, with probability ${fixed(spec.probability, 3).replace(/0+$/, '')} that ${spec.runs && spec.runs > 1 ? `the mean of ${spec.runs} new runs` : 'a new run'} meets it` : '';
+  const from = spec.source ? ` (${spec.source === 'campaign' ? "the campaign's own" : "the project's default"})` : '';
+  const base = `${shown}${sure}${from}`;
+  return { lnRatio, text: spec.text ? `${base}; ${spec.text}` : base };
 }
 
 function runName(m: Measurement): string {
@@ -172,6 +214,23 @@ function curvatureLines(fit: FitResponse): SummaryLine[] {
   return lines;
 }
 
+/** The saved plan's answer on the Summary: the recommended temperature, its rule and probability, the window. */
+function planLines(plan: PlanReportData): SummaryLine[] {
+  const lines: SummaryLine[] = [];
+  const section = 'Plan';
+  if (plan.recommended) {
+    lines.push({ section, label: 'Recommended temperature', value: plan.recommended.celsius, decimals: 1, unit: '°C', name: 'Recommended_T_C' });
+    lines.push({ section, label: 'Rule', value: plan.rule });
+    lines.push({ section, label: 'Probability a new run meets the specification there', value: plan.recommended.probabilityMeetsSpec, decimals: 3, unit: '−', name: 'Recommended_probability' });
+  } else {
+    lines.push({ section, label: 'Recommended temperature', value: `none: ${plan.conflict ?? 'no temperature in the allowed range meets every constraint'}` });
+  }
+  lines.push({ section, label: 'Operating window', value: plan.window ? `${celsiusText(plan.window.fromCelsius)} to ${celsiusText(plan.window.toCelsius)}` : 'none in the allowed range' });
+  lines.push({ section, label: 'Binding constraints', value: plan.binding.length ? plan.binding.join(', ') : 'none' });
+  lines.push({ section, label: 'Saved plan', value: `version ${plan.version}, ${plan.updatedAt.slice(0, 16).replace('T', ' ')} UTC (details on the Plan sheet)` });
+  return lines;
+}
+
 export function buildReportModel(data: ReportData, meta: ReportMeta): ReportModel {
   const { campaign, analysis } = data;
   const fit = analysis.fit;
@@ -187,6 +246,7 @@ export function buildReportModel(data: ReportData, meta: ReportMeta): ReportMode
   };
   const level = Math.round((fit?.confidence ?? 0.95) * 100);
 
+  const spec = specificationOf(data.specification, labels, sel);
   // Grid, saved forecasts and the proposed temperature in one engine call, so every row shares the fit.
   const gridC = roundGridC(data);
   const saved = data.forecasts;
@@ -194,21 +254,31 @@ export function buildReportModel(data: ReportData, meta: ReportMeta): ReportMode
   const grid: GridRow[] = [];
   let proposed: GridRow | null = null;
   if (fit) {
-    const temps = [...gridC.map((c) => c + CELSIUS_OFFSET_K), ...saved.map((f) => f.temperatureK), ...(proposedK === null ? [] : [proposedK])];
+    const recommendedK = data.plan?.recommended?.kelvin ?? null;
+    const temps = [
+      ...gridC.map((c) => c + CELSIUS_OFFSET_K),
+      ...saved.map((f) => f.temperatureK),
+      ...(recommendedK === null ? [] : [recommendedK]),
+      ...(proposedK === null ? [] : [proposedK]),
+    ];
     const engine = toEngineMeasurements(campaign, data.measurements);
     // The campaign's own assay settings (new-run precision, quantitation limit), as on the campaign page.
     const options = { weighting: fit.weighting, uncertaintyScale: 'absolute' as const, confidence: fit.confidence };
     const predictions = temps.length ? analyseScreen(engine, { ...options, ...assaySettings(campaign, data.measurements, options) }, temps).predictions : [];
-    gridC.forEach((_, i) => grid.push({ source: 'grid', note: null, prediction: predictions[i]! }));
-    saved.forEach((f, i) => grid.push({ source: 'saved', note: f.label ?? `saved ${f.createdAt.slice(0, 10)}`, prediction: predictions[gridC.length + i]! }));
+    const meets = (p: FitPrediction) => meetsSpecification(p, spec.lnRatio);
+    gridC.forEach((_, i) => grid.push({ source: 'grid', note: null, prediction: predictions[i]!, meets: meets(predictions[i]!) }));
+    saved.forEach((f, i) => grid.push({ source: 'saved', note: f.label ?? `saved ${f.createdAt.slice(0, 10)}`, prediction: predictions[gridC.length + i]!, meets: meets(predictions[gridC.length + i]!) }));
+    if (recommendedK !== null) {
+      const p = predictions[gridC.length + saved.length]!;
+      grid.push({ source: 'recommended', note: 'recommended by the saved plan', prediction: p, meets: meets(p) });
+    }
     if (proposedK !== null) {
-      proposed = { source: 'proposed', note: 'proposed', prediction: predictions[predictions.length - 1]! };
+      proposed = { source: 'proposed', note: 'proposed', prediction: predictions[predictions.length - 1]!, meets: meets(predictions[predictions.length - 1]!) };
       grid.push(proposed);
     }
     grid.sort((a, b) => a.prediction.kelvin - b.prediction.kelvin || a.source.localeCompare(b.source));
   }
 
-  const spec = specificationOf(data.specification, labels, sel);
   const summary: SummaryLine[] = [];
   const add = (line: SummaryLine) => summary.push(line);
 
@@ -224,6 +294,7 @@ export function buildReportModel(data: ReportData, meta: ReportMeta): ReportMode
         : `± ${fixed(100 * campaign.defaultUncertainty, 1)} % of the ratio (1 SD)`;
   add({ section: 'Campaign', label: 'Assay and precision', value: `${ASSAY_NAMES[campaign.assayMethod] ?? campaign.assayMethod}, reported as ${campaign.measure}; ${precision}` });
   add({ section: 'Campaign', label: 'Specification', value: spec.text });
+  if (data.plan) planLines(data.plan).forEach(add);
 
   if (!fit) {
     add({ section: 'Result', label: 'Fit', value: `No fit: ${analysis.problem?.message ?? 'not enough data'}` });
@@ -232,7 +303,7 @@ export function buildReportModel(data: ReportData, meta: ReportMeta): ReportMode
       const p = proposed.prediction;
       const pi = p.predictionInterval;
       const r = readSelectivity(ratioOf(p), sel.ratio);
-      const meets = spec.lnRatio === null ? '' : lnOf(p) >= spec.lnRatio ? '; the forecast meets the specification' : '; the forecast falls short of the specification';
+      const meets = proposed.meets === null ? '' : `; against the specification: ${proposed.meets}`;
       const headline =
         labels.family === 'enantiomers'
           ? `${fixed(p.eePercent, sel.percent)} % ee (er ${r.ratioText})${pi ? ` (${level} % prediction interval ${fixed(pi.eePercent[0], sel.percent)} to ${fixed(pi.eePercent[1], sel.percent)} % ee)` : ''}`
@@ -242,6 +313,7 @@ export function buildReportModel(data: ReportData, meta: ReportMeta): ReportMode
       add({ section: 'Forecast', label: `Forecast ${labels.ratio}`, value: ratioOf(p), decimals: sel.ratio, interval: pi ? ratioRange(pi) : null, unit: 'A/B', name: 'Forecast_ratio' });
       if (labels.excess) add({ section: 'Forecast', label: `Forecast ${labels.excess}`, value: p.eePercent, decimals: sel.percent, interval: pi ? pi.eePercent : null, unit: '%', name: 'Forecast_excess_percent' });
       add({ section: 'Forecast', label: `Forecast ${labels.major}`, value: Math.max(p.percentA, 100 - p.percentA), decimals: sel.percent, interval: pi ? (p.percentA >= 50 ? pi.percentA : [100 - pi.percentA[1], 100 - pi.percentA[0]]) : null, unit: '%', name: 'Forecast_major_percent' });
+      if (proposed.meets !== null) add({ section: 'Forecast', label: 'Meets specification', value: proposed.meets, name: 'Forecast_meets_spec' });
     } else {
       add({ section: 'Forecast', label: 'Proposed temperature', value: 'none yet: save a forecast in the campaign or ask for one when exporting' });
     }

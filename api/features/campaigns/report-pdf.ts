@@ -54,6 +54,12 @@ export async function buildCampaignReportPdf(model: ReportModel, charts: ReportC
       .font('body')
       .fontSize(8)
       .text(`Bands at ${model.level} %: the darker band is the confidence interval of the line, the lighter one the prediction interval for a new run.`, MARGIN, top + (w * 420) / 720 + 12, { width });
+    if (charts.window) {
+      // The saved plan's window, under the two fit charts, at the same size.
+      const y = top + (w * 420) / 720 + 30;
+      doc.image(charts.window, MARGIN, y, { width: w });
+      doc.font('body').fontSize(8).text('The saved plan: hatched temperatures break a constraint (named on the chart); the Plan sheet of the workbook holds the numbers.', MARGIN + w + 20, y + 12, { width: w });
+    }
   }
   doc.end();
   return done;

@@ -10,6 +10,8 @@ import { CELSIUS_OFFSET_K } from '../../science';
 import { Project } from '../../models/project';
 import { User } from '../../models/user';
 import type { Mailer } from '../mail/mailer';
+import { getCampaignSpecification } from '../plan/store';
+import { loadComparisonReportData, loadPlanReportData, type ComparisonReportData } from '../plan/report-data';
 import { loadReportData } from './analysis';
 import { buildCampaignReport, reportFileName } from './report';
 import { renderReportChartsAsync, type ReportCharts } from './report-charts';
@@ -43,10 +45,35 @@ export const reportMailSchema = z.strictObject({
 export type ReportMailRequest = z.infer<typeof reportMailSchema>;
 
 /** The stored campaign with its project name, ready for `buildReportModel`. */
-export async function loadCampaignReportData(db: Knex, projectId: string, campaignId: string, options: { atC?: number } = {}): Promise<ReportData> {
+/** At most this many saved comparisons go into one report (those with the campaign first, then the newest). */
+export const MAX_REPORT_COMPARISONS = 5;
+
+/**
+ * The project's saved comparisons for the report, recomputed from current runs as the page shows
+ * them; campaigns the reader cannot read stay unavailable. Without a reader, none.
+ */
+async function reportComparisons(db: Knex, projectId: string, campaignId: string, userId: string | undefined): Promise<ComparisonReportData[]> {
+  if (!userId) return [];
+  const rows: { id: string; campaignIds: string[] }[] = await db('comparisons').where({ projectId }).orderBy('createdAt', 'desc').select('id', 'campaignIds').limit(200);
+  const chosen = [...rows.filter((r) => r.campaignIds.includes(campaignId)), ...rows.filter((r) => !r.campaignIds.includes(campaignId))].slice(0, MAX_REPORT_COMPARISONS);
+  const out: ComparisonReportData[] = [];
+  for (const r of chosen) out.push(await loadComparisonReportData(db, projectId, userId, r.id));
+  return out;
+}
+
+export async function loadCampaignReportData(db: Knex, projectId: string, campaignId: string, options: { atC?: number; userId?: string } = {}): Promise<ReportData> {
   const data = await loadReportData(db, projectId, campaignId);
   const project = await Project.query(db).findById(projectId);
-  return { ...data, project: project ? { name: project.name } : null, ...(options.atC === undefined ? {} : { proposedK: options.atC + CELSIUS_OFFSET_K }) };
+  const specs = await getCampaignSpecification(db, projectId, campaignId);
+  const spec = specs.effective;
+  return {
+    ...data,
+    project: project ? { name: project.name } : null,
+    specification: spec ? { measure: spec.measure, minimum: spec.minimum, probability: spec.probability, runs: spec.runs, source: specs.source } : null,
+    plan: await loadPlanReportData(db, projectId, campaignId),
+    comparisons: await reportComparisons(db, projectId, campaignId, options.userId),
+    ...(options.atC === undefined ? {} : { proposedK: options.atC + CELSIUS_OFFSET_K }),
+  };
 }
 
 export interface PreparedReport {
@@ -115,14 +142,15 @@ export function measurementsCsv(model: ReportModel): string {
 
 export function forecastCsv(model: ReportModel): string {
   const { labels, decimals: d, level } = model;
-  const header = ['T (°C)', 'T (K)', 'row', `${labels.word} A:B`, `${level} % PI low A:B`, `${level} % PI high A:B`, ...(labels.excess ? [labels.excess, `${level} % PI low ${labels.excess}`, `${level} % PI high ${labels.excess}`] : []), labels.major, 'ΔΔG‡ (kJ/mol)', 'outside screened range'];
+  const withSpec = model.specificationLnRatio !== null;
+  const header = ['T (°C)', 'T (K)', 'row', `${labels.word} A:B`, `${level} % PI low A:B`, `${level} % PI high A:B`, ...(labels.excess ? [labels.excess, `${level} % PI low ${labels.excess}`, `${level} % PI high ${labels.excess}`] : []), labels.major, 'ΔΔG‡ (kJ/mol)', 'outside screened range', ...(withSpec ? ['meets specification'] : [])];
   const rows = model.grid.map((g) => {
     const p = g.prediction;
     const pi = p.predictionInterval;
     return [
       clean(p.celsius),
       p.kelvin,
-      g.source === 'saved' ? `saved: ${g.note ?? ''}` : g.source,
+      g.source === 'saved' ? `saved: ${g.note ?? ''}` : g.source === 'recommended' ? 'recommended by the saved plan' : g.source,
       p.ratio,
       pi?.ratio[0] ?? null,
       pi?.ratio[1] ?? null,
@@ -130,6 +158,7 @@ export function forecastCsv(model: ReportModel): string {
       Math.max(p.percentA, 100 - p.percentA),
       p.ddG['kJ/mol'],
       p.extrapolated ? 'yes' : 'no',
+      ...(withSpec ? [g.meets] : []),
     ];
   });
   const r = d.ratio + 1;
@@ -152,7 +181,7 @@ export interface SentReport {
 export async function sendCampaignReport(
   db: Knex,
   mailer: Mailer,
-  args: { projectId: string; campaignId: string; request: ReportMailRequest; meta: ReportMeta },
+  args: { projectId: string; campaignId: string; request: ReportMailRequest; meta: ReportMeta; /** Whose reading of the saved comparisons goes in. */ userId?: string },
 ): Promise<SentReport> {
   const { projectId, campaignId, request, meta } = args;
   const ids = [...new Set(request.recipients)];
@@ -170,7 +199,7 @@ export async function sendCampaignReport(
   });
   if (errors.length) throw new BadRequestError('Every recipient must be a member of the project with an e-mail address; nothing was sent.', errors);
 
-  const data = await loadCampaignReportData(db, projectId, campaignId, request.at === undefined ? {} : { atC: request.at });
+  const data = await loadCampaignReportData(db, projectId, campaignId, { ...(request.at === undefined ? {} : { atC: request.at }), ...(args.userId ? { userId: args.userId } : {}) });
   const prepared = await prepareReport(data, meta);
   const title = data.campaign.title;
   const attachments = [];

@@ -8,7 +8,7 @@
 import ExcelJS from 'exceljs';
 import { kelvinToCelsius } from '../../science';
 import { numFmt, ratioOf, ratioRange, readSelectivity, safeFileName, safeText } from './report-format';
-import { buildReportModel, type ReportData, type ReportMeta, type ReportModel } from './report-model';
+import { buildReportModel, runMeetsSpecification, type ReportData, type ReportMeta, type ReportModel } from './report-model';
 import { renderReportChartsAsync, type ReportCharts } from './report-charts';
 
 export type { ReportData, ReportMeta, ReportSpecification } from './report-model';
@@ -161,6 +161,7 @@ function addCharts(wb: ExcelJS.Workbook, ws: ExcelJS.Worksheet, model: ReportMod
 
 function addMeasurements(wb: ExcelJS.Workbook, model: ReportModel) {
   const { data, decimals: d, labels } = model;
+  const specLn = model.specificationLnRatio;
   const pct = numFmt(d.percent);
   const columns: Column[] = [
     { header: 'Sample', width: 14 },
@@ -181,6 +182,7 @@ function addMeasurements(wb: ExcelJS.Workbook, model: ReportModel) {
     { header: 'Conversion (%)', width: 10, numFmt: '0.0' },
     { header: 'Time (h)', width: 8, numFmt: '0.00' },
     { header: 'Notes', width: 28 },
+    ...(specLn !== null ? [{ header: 'Meets specification', width: 13 }] : []),
   ];
   function* rows() {
     for (let i = 0; i < data.measurements.length; i++) {
@@ -207,6 +209,7 @@ function addMeasurements(wb: ExcelJS.Workbook, model: ReportModel) {
         m.conversionPercent,
         m.reactionTimeS === null ? null : m.reactionTimeS / 3600,
         user(m.notes),
+        ...(specLn !== null ? [runMeetsSpecification(p.lnRatio, specLn)] : []),
       ] as (Cell | UserText)[];
     }
   }
@@ -226,6 +229,7 @@ function addFit(wb: ExcelJS.Workbook, model: ReportModel) {
     { header: '', width: 12 },
     { header: '', width: 14 },
     { header: '', width: 24 },
+    { header: '', width: 14 },
   ];
   styleHeader(ws.getRow(1));
   if (!fit) {
@@ -266,7 +270,8 @@ function addFit(wb: ExcelJS.Workbook, model: ReportModel) {
   }
   r++;
   const head = ws.getRow(r++);
-  ['Residuals: T (°C)', 'ln r (−)', 'Fitted ln r (−)', 'Residual (−)', 'Studentized (−)', 'Leverage (−)', "Cook's distance (−)", 'Status', 'Flags'].forEach((h, i) => (head.getCell(i + 1).value = h));
+  const specLn = model.specificationLnRatio;
+  ['Residuals: T (°C)', 'ln r (−)', 'Fitted ln r (−)', 'Residual (−)', 'Studentized (−)', 'Leverage (−)', "Cook's distance (−)", 'Status', 'Flags', ...(specLn !== null ? ['Run meets specification'] : [])].forEach((h, i) => (head.getCell(i + 1).value = h));
   styleHeader(head);
   for (const res of fit.residuals) {
     const row = ws.getRow(r++);
@@ -280,6 +285,7 @@ function addFit(wb: ExcelJS.Workbook, model: ReportModel) {
       [res.cooksDistance, '0.000'],
       [res.status, '@'],
       [res.flags.join(', '), '@'],
+      ...(specLn !== null ? [[runMeetsSpecification(res.lnRatio, specLn), '@'] as [string | null, string]] : []),
     ];
     values.forEach(([v, fmt], i) => {
       if (v === null) return;
@@ -291,6 +297,7 @@ function addFit(wb: ExcelJS.Workbook, model: ReportModel) {
 
 function addForecast(wb: ExcelJS.Workbook, model: ReportModel) {
   const { decimals: d, labels, level } = model;
+  const withSpec = model.specificationLnRatio !== null;
   const pct = numFmt(d.percent);
   const ratio = numFmt(d.ratio);
   const columns: Column[] = [
@@ -311,6 +318,7 @@ function addForecast(wb: ExcelJS.Workbook, model: ReportModel) {
     { header: 'ΔΔG‡ (kJ/mol)', width: 10, numFmt: numFmt(d.ddH) },
     { header: 'Outside screened range', width: 10 },
     { header: 'Model', width: 22 },
+    ...(withSpec ? [{ header: `Meets specification (${model.specificationText})`, width: 24 }] : []),
   ];
   function* rows() {
     for (const g of model.grid) {
@@ -319,7 +327,7 @@ function addForecast(wb: ExcelJS.Workbook, model: ReportModel) {
       yield [
         clean(p.celsius),
         p.kelvin,
-        g.source === 'grid' ? 'grid' : g.source === 'proposed' ? 'proposed temperature' : user(`saved: ${g.note ?? ''}`),
+        g.source === 'grid' ? 'grid' : g.source === 'proposed' ? 'proposed temperature' : g.source === 'recommended' ? 'recommended by the saved plan' : user(`saved: ${g.note ?? ''}`),
         ratioOf(p),
         pi ? ratioRange(pi)[0] : null,
         pi ? ratioRange(pi)[1] : null,
@@ -328,11 +336,177 @@ function addForecast(wb: ExcelJS.Workbook, model: ReportModel) {
         p.ddG['kJ/mol'],
         p.extrapolated ? 'yes' : 'no',
         p.model === 'segmented' ? `two branches: ${p.branch === 'low' ? 'low' : 'high'}-temperature branch` : 'one line',
+        ...(withSpec ? [g.meets] : []),
       ] as (Cell | UserText)[];
     }
   }
   const ws = addTable(wb, model, 'Forecast', columns, rows());
   if (model.grid.length === 0) ws.getCell('A2').value = model.fit ? 'No temperatures to forecast.' : 'No fit, so no forecast.';
+}
+
+const MEASURE_WORDS: Record<string, string> = { ee: '% ee', er: '% major isomer (er)', percentA: '% major isomer', dr: 'dr (r:1)' };
+
+/** Write a section title and label/value rows from `r`; returns the next free row. */
+function keyValues(ws: ExcelJS.Worksheet, r: number, title: string, lines: [string, Cell | UserText, string?, string?][]): number {
+  const head = ws.getRow(r++);
+  head.getCell(1).value = title;
+  head.font = { bold: true };
+  for (let c = 1; c <= 3; c++) head.getCell(c).fill = SECTION_FILL;
+  for (const [label, value, unit, fmt] of lines) {
+    const row = ws.getRow(r++);
+    row.getCell(1).value = label;
+    setCell(row.getCell(2), value);
+    if (fmt) row.getCell(2).numFmt = fmt;
+    row.getCell(2).alignment = { horizontal: 'left', wrapText: true, vertical: 'top' };
+    if (typeof value === 'string' && value.length > 45) row.height = 15 * Math.ceil(value.length / 45);
+    if (unit) row.getCell(3).value = unit;
+  }
+  return r + 1;
+}
+
+/** A header row of a table inside a sheet; returns the next row. */
+function tableHead(ws: ExcelJS.Worksheet, r: number, headers: string[]): number {
+  const row = ws.getRow(r);
+  headers.forEach((h, i) => (row.getCell(i + 1).value = h));
+  styleHeader(row);
+  return r + 1;
+}
+
+function putRow(ws: ExcelJS.Worksheet, r: number, values: [Cell | UserText, string?][]) {
+  const row = ws.getRow(r);
+  values.forEach(([v, fmt], i) => {
+    if (v === null) return;
+    setCell(row.getCell(i + 1), v);
+    if (fmt) row.getCell(i + 1).numFmt = fmt;
+  });
+}
+
+/** The saved plan: its inputs, the answer with its rule and probability, the window chart and the curve. */
+function addPlan(wb: ExcelJS.Workbook, model: ReportModel, window: Buffer | null | undefined) {
+  const plan = model.data.plan!;
+  const ws = wb.addWorksheet('Plan', { views: [{ state: 'frozen', ySplit: 1 }] });
+  ws.columns = [
+    { header: 'Item', width: 34 },
+    { header: 'Value', width: 46 },
+    { header: 'Unit', width: 10 },
+    { header: '', width: 12 },
+    { header: '', width: 12 },
+    { header: '', width: 12 },
+    { header: '', width: 13 },
+    { header: '', width: 13 },
+    { header: '', width: 10 },
+    { header: '', width: 24 },
+  ];
+  styleHeader(ws.getRow(1));
+  const spec = plan.specification;
+  let r = 2;
+  r = keyValues(ws, r, 'Specification used by the plan', [
+    ['Measure', MEASURE_WORDS[spec.measure] ?? spec.measure],
+    ['Minimum', spec.minimum, MEASURE_WORDS[spec.measure] ?? spec.measure, 'General'],
+    ['Required probability', spec.probability, '−', '0.000'],
+    ['Judged on', spec.runs > 1 ? `the mean of ${spec.runs} new runs` : 'a single new run'],
+  ]);
+  r = keyValues(ws, r, 'Inputs', plan.inputs.map((l): [string, Cell | UserText] => [l.label, l.value]));
+  const rec = plan.recommended;
+  const answer: [string, Cell | UserText, string?, string?][] = rec
+    ? [
+        ['Recommended temperature', rec.celsius, '°C', '0.0'],
+        ['Recommended temperature (K)', rec.kelvin, 'K', '0.00'],
+        ['Rule', plan.rule],
+        ['Probability a new run meets the specification there', rec.probabilityMeetsSpec, '−', '0.000'],
+      ]
+    : [['Recommended temperature', 'none: no temperature in the allowed range meets every constraint']];
+  answer.push(
+    ['Operating window from', plan.window ? plan.window.fromCelsius : 'none', plan.window ? '°C' : undefined, plan.window ? '0.0' : undefined],
+    ['Operating window to', plan.window ? plan.window.toCelsius : 'none', plan.window ? '°C' : undefined, plan.window ? '0.0' : undefined],
+    ['Binding constraints', plan.binding.length ? plan.binding.join(', ') : 'none'],
+    ['Conflict', plan.conflict ?? 'none'],
+  );
+  if (plan.resolutions.length) answer.push(['What would resolve it', plan.resolutions.join(' ')]);
+  answer.push(['Next runs', plan.nextRuns ? `${plan.nextRuns.celsius.map((c) => `${c.toFixed(1).replace('-', '−')} °C`).join(', ')} (to narrow the forecast at ${plan.nextRuns.atCelsius.toFixed(1).replace('-', '−')} °C)` : 'none asked for']);
+  answer.push(['Saved plan', `version ${plan.version}, ${plan.updatedAt.slice(0, 16).replace('T', ' ')} UTC`]);
+  answer.push(['Caution', plan.caution]);
+  const answerStart = r + 1;
+  r = keyValues(ws, r, 'Answer', answer);
+  if (rec) {
+    wb.definedNames.add(`'Plan'!$B$${answerStart}`, 'Plan_recommended_T_C');
+    wb.definedNames.add(`'Plan'!$B$${answerStart + 3}`, 'Plan_probability');
+  }
+  if (window) {
+    const image = wb.addImage({ buffer: window as unknown as ExcelJS.Buffer, extension: 'png' });
+    ws.addImage(image, { tl: { col: 3.2, row: 1 }, ext: { width: 540, height: 315 } });
+    r = Math.max(r, 20);
+  }
+  const unit = MEASURE_WORDS[spec.measure] ?? spec.measure;
+  r = tableHead(ws, r, ['Curve: T (°C)', 'T (K)', 'P(new run meets) (−)', `Predicted (${unit})`, `Band low (${unit})`, `Band high (${unit})`, 'Time to target (h)', 'ee after hold (%)', 'All constraints hold', 'Failing constraints']);
+  for (const row of plan.rows) {
+    putRow(ws, r++, [
+      [row.celsius, '0.0'],
+      [row.kelvin, '0.00'],
+      [row.probabilityMeetsSpec, '0.000'],
+      [row.predicted, 'General'],
+      [row.bandLow, 'General'],
+      [row.bandHigh, 'General'],
+      [row.timeToTargetHours, '0.00'],
+      [row.eeAfterHoldPercent, '0.0'],
+      [row.feasible ? 'yes' : 'no'],
+      [row.failing || null],
+    ]);
+  }
+  printSetup(ws, model, '1:1');
+}
+
+/** Saved comparisons of the project: each campaign at the chosen temperature, and each pair's verdict. */
+function addComparisons(wb: ExcelJS.Workbook, model: ReportModel) {
+  const list = model.data.comparisons ?? [];
+  const ws = wb.addWorksheet('Comparison', { views: [{ showGridLines: true }] });
+  ws.columns = [30, 14, 14, 14, 14, 14, 26, 24, 40].map((width) => ({ width }));
+  ws.getCell('A1').value = 'Saved comparisons of the project, recomputed from the current runs (95 % intervals).';
+  ws.getCell('A1').font = { bold: true };
+  let r = 2;
+  for (const c of list) {
+    const title = ws.getRow(r++);
+    setCell(title.getCell(1), user(`${c.name}: at ${c.temperatureCelsius.toFixed(1).replace('-', '−')} °C, values in ${MEASURE_WORDS[c.valueMeasure] ?? c.valueMeasure}`));
+    title.font = { bold: true };
+    for (let k = 1; k <= 9; k++) title.getCell(k).fill = SECTION_FILL;
+    r = tableHead(ws, r, ['Campaign', 'ΔΔH‡ (kJ/mol)', 'ΔΔS‡ (J/(mol·K))', `Value at T (${MEASURE_WORDS[c.valueMeasure] ?? c.valueMeasure})`, '95 % CI low', '95 % CI high', 'Its specification', 'Meets at T', 'Problem']);
+    for (const x of c.campaigns) {
+      putRow(ws, r++, [
+        [user(x.title ?? 'not available to this reader')],
+        [x.ddHKJPerMol, '0.00'],
+        [x.ddSJPerMolK, '0.0'],
+        [x.valueAtTemperature, 'General'],
+        [x.intervalLow, 'General'],
+        [x.intervalHigh, 'General'],
+        [x.specification ? `${MEASURE_WORDS[x.specification.measure] ?? x.specification.measure} ≥ ${x.specification.minimum}, probability ${x.specification.probability}` : 'none set'],
+        [x.meetsAtTemperature ?? (x.specification ? 'no fit' : '—')],
+        [x.problem],
+      ]);
+    }
+    r = tableHead(ws, r, ['Pair (first against second)', 'Difference in ln r', '95 % low', '95 % high', 'P(first more selective)', 'Equal slopes p', 'Crossover (°C)', 'Verdict', 'Note']);
+    for (const p of c.pairs) {
+      putRow(ws, r++, [
+        [user(`${p.first} against ${p.second}`)],
+        [p.differenceLnR, '0.000'],
+        [p.intervalLow, '0.000'],
+        [p.intervalHigh, '0.000'],
+        [p.probabilityFirstBetter, '0.000'],
+        [p.equalSlopesP, '0.000'],
+        [p.crossoverCelsius, '0.0'],
+        [p.verdict === 'first' ? 'the first is more selective' : p.verdict === 'second' ? 'the second is more selective' : 'the data cannot tell them apart'],
+        [p.note || null],
+      ]);
+    }
+    r++;
+  }
+  if (list[0]) {
+    const row = ws.getRow(r);
+    row.getCell(1).value = list[0].caution;
+    row.getCell(1).alignment = { wrapText: true, vertical: 'top' };
+    ws.mergeCells(r, 1, r, 9);
+    row.height = 45;
+  }
+  printSetup(ws, model, undefined);
 }
 
 /** The file name of a campaign export, e.g. eyrie-Route-screen-report.xlsx. */
@@ -361,6 +535,8 @@ export async function buildCampaignReport(data: ReportData, meta: ReportMeta, pr
   const charts = await pending;
   if (chartSheet && charts) addCharts(wb, chartSheet, model, charts);
   else if (chartSheet) wb.removeWorksheet(chartSheet.id);
+  if (data.plan) addPlan(wb, model, charts?.window);
+  if (data.comparisons?.length) addComparisons(wb, model);
 
   const out = await wb.xlsx.writeBuffer();
   return Buffer.from(out as ArrayBuffer);

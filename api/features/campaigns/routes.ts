@@ -141,7 +141,7 @@ export function campaignsRouter(deps: {
   const meta = (req: Request): ReportMeta => ({ appVersion: deps.version, generatedAt: new Date(), exportedBy: req.user ? (req.user.displayName ?? req.user.login) : null });
   const reportOf = async (req: Request) => {
     const { at } = parseBody(reportQuerySchema, req.query);
-    const data = await loadCampaignReportData(knex, req.project!.id, campaignId(req), at === undefined ? {} : { atC: at });
+    const data = await loadCampaignReportData(knex, req.project!.id, campaignId(req), { ...(at === undefined ? {} : { atC: at }), userId: req.user!.id });
     return prepareReport(data, meta(req));
   };
   const mailLimit = limiter(REPORT_MAIL_LIMIT.windowMs, deps.reportMailLimit ?? REPORT_MAIL_LIMIT.limit, 'report e-mail', true);
@@ -363,7 +363,7 @@ export function campaignsRouter(deps: {
   router.post('/campaigns/:campaignId/report/email', byCampaign('viewer'), mailLimit, async (req, res) => {
     const request = parseBody(reportMailSchema, req.body);
     if (!deps.mailer) throw new BadRequestError('This server has no mail transport configured.');
-    const sent = await sendCampaignReport(knex, deps.mailer, { projectId: req.project!.id, campaignId: campaignId(req), request, meta: meta(req) });
+    const sent = await sendCampaignReport(knex, deps.mailer, { projectId: req.project!.id, campaignId: campaignId(req), request, meta: meta(req), userId: req.user!.id });
     res.status(200).json(sent);
   });
 

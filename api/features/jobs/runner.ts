@@ -149,7 +149,7 @@ export function reportWork(deps: RunnerDeps): Work {
   return async (trx, job, progress) => {
     if (!job.campaignId) throw new UnprocessableError('The campaign of this report no longer exists.');
     await progress('reading the campaign', 20);
-    const data = await loadCampaignReportData(trx, job.projectId, job.campaignId);
+    const data = await loadCampaignReportData(trx, job.projectId, job.campaignId, job.createdByUserId ? { userId: job.createdByUserId } : {});
     await progress('building the workbook', 50);
     // The same report as the direct download: one model, charts rendered off the event loop.
     const bytes = await xlsxOf(await prepareReport(data, { appVersion: deps.version, generatedAt: new Date(), exportedBy: null }));
@@ -173,6 +173,7 @@ export function reportEmailWork(deps: RunnerDeps): Work {
       campaignId: job.campaignId,
       request: { recipients: [user.id], attach: ['xlsx', 'pdf'] },
       meta: { appVersion: deps.version, generatedAt: new Date(), exportedBy: user.displayName ?? user.login },
+      userId: user.id,
     });
     return { result: { sentTo: user.email, attachments: sent.attachments } };
   };

@@ -8,6 +8,8 @@ import { getCampaignPlan, getComparison, type CampaignPlanView, type ComparisonV
 const round = (v: number | null | undefined, digits = 6) => (v === null || v === undefined || !Number.isFinite(v) ? null : Number(v.toPrecision(digits)));
 
 export interface PlanReportData {
+  /** The plan's inputs as label/value lines, in the units they were entered in. */
+  inputs: { label: string; value: string }[];
   specification: { measure: string; minimum: number; probability: number; runs: number };
   rule: string;
   recommended: { celsius: number; kelvin: number; probabilityMeetsSpec: number } | null;
@@ -22,9 +24,42 @@ export interface PlanReportData {
   updatedAt: string;
 }
 
+const quantity = (q: { value: number; unit: string } | undefined | null) =>
+  q ? `${String(Number(q.value.toPrecision(6))).replace(/^-/, '−')} ${q.unit === 'C' ? '°C' : q.unit === 'F' ? '°F' : q.unit}` : null;
+
+/** The stored inputs as short label/value lines (only those that were given). */
+function inputLines(plan: CampaignPlanView): { label: string; value: string }[] {
+  const i = plan.inputs;
+  const lines: { label: string; value: string }[] = [];
+  const add = (label: string, value: string | null | undefined) => value && lines.push({ label, value });
+  add('Allowed temperature range', `${quantity(i.temperatures.from)} to ${quantity(i.temperatures.to)}`);
+  add('Rule chosen', i.rule ?? 'warmest');
+  add('Fit weighting', i.weighting === 'uncertainty' ? 'by assay uncertainty' : 'none (ordinary least squares)');
+  if (i.newRunUncertainty !== undefined) add("A new run's assay precision (in the specification's units)", String(i.newRunUncertainty));
+  if (i.rate) {
+    add('Rate order', i.rate.order ?? 'first');
+    add('Target conversion (%)', String(i.rate.targetConversionPercent));
+    add('Longest allowed reaction time', quantity(i.rate.maxTime));
+    add('Rate runs', i.rate.runs ? `${i.rate.runs.length} given with the plan` : "the campaign's runs with conversion and time");
+  }
+  if (i.hold) {
+    add('Hold before isolation', quantity(i.hold.time));
+    const b = i.hold.barrier;
+    add(
+      'Racemization or epimerization barrier',
+      b.kind === 'gibbs' ? `ΔG‡ ${quantity(b.dG)} at ${quantity(b.temperature)}` : `ΔH‡ ${quantity(b.dH)}, ΔS‡ ${quantity(b.dS)}`,
+    );
+    add('ee floor after the hold (%)', String(i.hold.floorEePercent));
+  }
+  if (i.applyAtProbability) add('Time and hold constraints', 'applied at the required probability');
+  if (i.nextRuns) add('Next runs asked for', `${i.nextRuns.count}${i.nextRuns.at ? ` at ${quantity(i.nextRuns.at)}` : ''}`);
+  return lines;
+}
+
 export function planReportData(plan: CampaignPlanView): PlanReportData {
   const r = plan.result;
   return {
+    inputs: inputLines(plan),
     specification: { measure: r.specification.measure, minimum: r.specification.minimum, probability: r.specification.probability, runs: r.specification.runs ?? 1 },
     rule: r.rule.text,
     recommended: r.recommended ? { celsius: round(r.recommended.celsius, 5)!, kelvin: round(r.recommended.kelvin, 6)!, probabilityMeetsSpec: round(r.recommended.probabilityMeetsSpec, 4)! } : null,
@@ -60,7 +95,7 @@ export async function loadPlanReportData(db: Knex, projectId: string, campaignId
 export interface ComparisonReportData {
   name: string;
   temperatureCelsius: number;
-  campaigns: { id: string; title: string | null; available: boolean; ddHKJPerMol: number | null; ddSJPerMolK: number | null; valueAtTemperature: number | null; intervalLow: number | null; intervalHigh: number | null; problem: string | null }[];
+  campaigns: { id: string; title: string | null; available: boolean; ddHKJPerMol: number | null; ddSJPerMolK: number | null; valueAtTemperature: number | null; intervalLow: number | null; intervalHigh: number | null; problem: string | null; specification: { measure: string; minimum: number; probability: number } | null; meetsAtTemperature: string | null }[];
   pairs: { first: string; second: string; differenceLnR: number; intervalLow: number; intervalHigh: number; probabilityFirstBetter: number; verdict: string; equalSlopesP: number | null; crossoverCelsius: number | null; note: string }[];
   valueMeasure: string;
   caution: string;
@@ -81,6 +116,8 @@ export function comparisonReportData(view: ComparisonView): ComparisonReportData
       intervalLow: round(c.fit?.at.interval[0]),
       intervalHigh: round(c.fit?.at.interval[1]),
       problem: c.problem,
+      specification: c.specification ? { measure: c.specification.measure, minimum: c.specification.minimum, probability: c.specification.probability } : null,
+      meetsAtTemperature: c.meetsAtTemperature ?? null,
     })),
     pairs: view.result.pairs.map((p) => ({
       first: title(p.first),

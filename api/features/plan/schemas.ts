@@ -298,6 +298,16 @@ export const comparisonResultSchema = z
         projectId: z.string().nullable(),
         available: z.boolean(),
         problem: z.string().nullable(),
+        specification: z
+          .object({ measure: specificationMeasureSchema, minimum: z.number(), probability: z.number(), runs: z.number().int(), lnRatio: z.number() })
+          .nullable()
+          .optional()
+          .meta({ description: "The campaign's stored specification (its own, else its project's default); null when none is set" }),
+        meetsAtTemperature: z
+          .enum(['meets', 'falls short'])
+          .nullable()
+          .optional()
+          .meta({ description: "Whether the fitted selectivity at the comparison's temperature reaches the campaign's specification; null without one" }),
         fit: z
           .object({
             n: z.number().int(),

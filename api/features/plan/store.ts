@@ -13,7 +13,7 @@ import { CampaignPlan, Comparison, PlanSpecification } from '../../models/plan';
 import { roleInProject } from '../projects/policy';
 import { toEngineMeasurements } from '../campaigns/analysis';
 import { getCampaign, isUuid, type ProjectActor } from '../campaigns/service';
-import { temperatureToK } from '../../science';
+import { specificationLnRatio, temperatureToK } from '../../science';
 import { planFromScreen } from './service';
 import { compareCampaignFits, type ComparedCampaign } from './compare';
 import type { CampaignPlanInputs, ComparisonCreate, PlanResponse, SpecificationPut } from './schemas';
@@ -180,7 +180,22 @@ async function compareStored(db: Knex, campaigns: (Campaign | null)[], ids: read
     }
     compared.push({ id: c.id, campaign: c, measurements: await Measurement.query(db).where({ campaignId: c.id }).orderBy('temperatureK').orderBy('id') });
   }
-  return compareCampaignFits(compared, temperatureK);
+  const result = compareCampaignFits(compared, temperatureK);
+  // Each campaign against its own stored specification (its override, else its project's default).
+  const projectIds = [...new Set(campaigns.flatMap((c) => (c ? [c.projectId] : [])))];
+  const specs = projectIds.length ? await PlanSpecification.query(db).whereIn('projectId', projectIds) : [];
+  return {
+    ...result,
+    campaigns: result.campaigns.map((entry, i) => {
+      const c = campaigns[i];
+      const stored = c ? (specs.find((s) => s.campaignId === c.id) ?? specs.find((s) => s.projectId === c.projectId && s.campaignId === null)) : undefined;
+      if (!stored) return { ...entry, specification: null, meetsAtTemperature: null };
+      const lnRatio = specificationLnRatio({ measure: stored.measure, minimum: stored.minimum, probability: stored.probability });
+      const specification = { measure: stored.measure, minimum: stored.minimum, probability: stored.probability, runs: stored.runs, lnRatio };
+      const meetsAtTemperature = entry.fit ? (entry.fit.at.lnRatio >= lnRatio ? ('meets' as const) : ('falls short' as const)) : null;
+      return { ...entry, specification, meetsAtTemperature };
+    }),
+  };
 }
 
 const comparisonView = (c: Comparison, result: Awaited<ReturnType<typeof compareStored>>) => ({

@@ -117,6 +117,52 @@ describe('campaign workbook', () => {
     expect(rows.filter((r) => r.source === 'proposed temperature')).toHaveLength(1);
   });
 
+  it('when a specification is set, then the forecast, measurement and residual rows say in words whether they meet it', async () => {
+    // A minimum inside the screen (the forecast at −30 °C, rounded), so rows fall on both sides of it.
+    const minimum = Math.round(demoReportData().analysis.at!.ratio! * 10) / 10;
+    const data = demoReportData(12, { specification: { measure: 'dr', minimum, probability: 0.95, runs: 1, source: 'project' } });
+    const wb = await readBack(await buildCampaignReport(data, demoMeta));
+    const specLn = Math.log(minimum); // dr ≥ m:1 → ln r ≥ ln m [C]
+    expect(labelRow(wb.getWorksheet('Summary')!, 'Specification').getCell(2).value).toBe(`dr ≥ ${minimum.toFixed(1)}:1, with probability 0.95 that a new run meets it (the project's default)`);
+
+    const fc = wb.getWorksheet('Forecast')!;
+    const header = Array.from(fc.getRow(1).values as unknown[], String);
+    const meetsCol = header.findIndex((h) => h.startsWith('Meets specification'));
+    expect(meetsCol).toBeGreaterThan(0);
+    const ks: number[] = [];
+    const said: string[] = [];
+    fc.eachRow((row, i) => {
+      if (i === 1) return;
+      ks.push(row.getCell(2).value as number);
+      said.push(String(row.getCell(meetsCol).value));
+    });
+    const engine = analyseScreen(toEngineMeasurements(data.campaign, data.measurements), { weighting: 'none', uncertaintyScale: 'absolute', confidence: 0.95 }, ks);
+    engine.predictions.forEach((p, i) => {
+      const low = Math.log(Math.min(p.predictionInterval!.ratio[0]!, p.predictionInterval!.ratio[1]!));
+      const expected = Math.log(p.ratio!) < specLn ? 'falls short' : low >= specLn ? 'meets: whole prediction interval at or above' : 'forecast meets; interval reaches below';
+      expect(said[i]).toBe(expected);
+    });
+    // Warm rows fall short, cold rows meet.
+    expect(said).toContain('falls short');
+    expect(said.some((s) => s.includes('meets'))).toBe(true);
+
+    const ms = wb.getWorksheet('Measurements')!;
+    const mh = Array.from(ms.getRow(1).values as unknown[], String);
+    const col = mh.indexOf('Meets specification');
+    data.analysis.points.forEach((p, i) => expect(ms.getRow(i + 2).getCell(col).value).toBe(p.lnRatio >= specLn ? 'meets' : 'falls short'));
+
+    const proposed = labelRow(wb.getWorksheet('Summary')!, 'Meets specification').getCell(2).value;
+    expect(['falls short', 'meets: whole prediction interval at or above', 'forecast meets; interval reaches below']).toContain(proposed);
+  });
+
+  it('when no specification is set, then no pass/fail column appears', async () => {
+    const wb = await readBack(await buildCampaignReport(demoReportData(12, { specification: null }), demoMeta));
+    for (const name of ['Forecast', 'Measurements']) {
+      expect(Array.from(wb.getWorksheet(name)!.getRow(1).values as unknown[], String).some((h) => h.startsWith('Meets'))).toBe(false);
+    }
+    expect(labelRow(wb.getWorksheet('Summary')!, 'Specification').getCell(2).value).toBe('no specification set');
+  });
+
   it('when any sheet holds text, then it carries no float artefacts', async () => {
     const wb = await readBack(await buildCampaignReport(demoReportData(), demoMeta));
     for (const ws of wb.worksheets) {

@@ -18,6 +18,7 @@ import { ReportMailForm } from '../../features/campaigns/components/report-mail-
 import { UploadWizard } from '../../features/campaigns/components/upload-wizard';
 import { useProject } from '../../features/projects/api/projects';
 import { PlannerPanel } from '../../features/plan/components/planner-panel';
+import { useCampaignSpecification } from '../../features/plan/api/plan';
 
 const INVENTED = /kestrelmoor|invented/i;
 
@@ -29,6 +30,7 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
   const [atCelsius, setAtCelsius] = useState<number | null>(null);
   const measurements = useMeasurements(campaign.id);
   const analysis = useAnalysis(campaign.id, { weighting, atCelsius });
+  const specification = useCampaignSpecification(campaign.id);
   const project = useProject(campaign.projectId);
   const invented = [campaign.title, campaign.reactionDescription, campaign.notes, project.data?.name].some((t) => t && INVENTED.test(t));
 
@@ -99,7 +101,13 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
             </div>
           )}
           {analysis.data && measurements.data && (
-            <CampaignAnalysis analysis={analysis.data} measurements={measurements.data} stale={analysis.isPlaceholderData} measure={campaign.measure} />
+            <CampaignAnalysis
+              analysis={analysis.data}
+              measurements={measurements.data}
+              stale={analysis.isPlaceholderData}
+              measure={campaign.measure}
+              specification={specification.data?.effective ?? null}
+            />
           )}
         </Panel>
 

@@ -11,6 +11,7 @@ import { ConventionNote, NumberField, buttonClass, inputClass } from '../../feat
 import { useCampaigns } from '../../features/campaigns/api/campaigns';
 import { useComparison, useCreateComparison, type ComparisonView } from '../../features/plan/api/plan';
 import { EyringOverlay } from '../../features/plan/components/eyring-overlay';
+import { specificationText } from '../../features/plan/lib/specification';
 
 const VERDICT: Record<string, string> = {
   first: 'the first is more selective',
@@ -53,6 +54,7 @@ function ComparisonBody({ view }: { view: ComparisonView }) {
                 <th className="py-1 pr-3">ΔΔH‡ (kJ/mol)</th>
                 <th className="py-1 pr-3">ΔΔS‡ (J/(mol·K))</th>
                 <th className="py-1 pr-3">{unit} at {fixed(r.temperature.celsius, 1)} °C (95 % CI of the line)</th>
+                <th className="py-1 pr-3">Its specification at {fixed(r.temperature.celsius, 1)} °C</th>
               </tr>
             </thead>
             <tbody>
@@ -66,9 +68,27 @@ function ComparisonBody({ view }: { view: ComparisonView }) {
                       <td className="py-1 pr-3">
                         {sig(c.fit.at.value, 4)} ({sig(c.fit.at.interval[0], 4)} to {sig(c.fit.at.interval[1], 4)})
                       </td>
+                      <td className="py-1 pr-3" data-testid="comparison-meets">
+                        {c.specification ? (
+                          <>
+                            {c.meetsAtTemperature === 'meets' ? (
+                              <span>
+                                <span aria-hidden="true">✓ </span>meets
+                              </span>
+                            ) : (
+                              <span className="text-caution-700">
+                                <span aria-hidden="true">✗ </span>falls short
+                              </span>
+                            )}{' '}
+                            <span className="text-xs text-ink-600">({specificationText(c.specification, c.measure ?? 'ee')})</span>
+                          </>
+                        ) : (
+                          <span className="text-ink-600">no specification set</span>
+                        )}
+                      </td>
                     </>
                   ) : (
-                    <td className="py-1 pr-3 text-ink-600" colSpan={3}>
+                    <td className="py-1 pr-3 text-ink-600" colSpan={4}>
                       {c.problem}
                     </td>
                   )}

@@ -9,6 +9,7 @@ import { FitWarnings, RunNote, TwoBranchBox, branchLines } from '../../calculato
 import { FitParameterTable } from '../../calculators/components/fit-parameter-table';
 import type { AnalysisResponse, FitPrediction, Measurement } from '../api/types';
 import { CELSIUS } from '../lib/labels';
+import { specificationLn, specificationOnAxis, specificationText, verdictOf, type StoredSpecification } from '../../plan/lib/specification';
 import {
   DISPLAY_MEASURES,
   displayHeading,
@@ -62,6 +63,7 @@ export function CampaignAnalysis({
   measurements,
   stale,
   measure = 'ee',
+  specification = null,
 }: {
   analysis: AnalysisResponse;
   measurements: Measurement[];
@@ -69,9 +71,13 @@ export function CampaignAnalysis({
   stale: boolean;
   /** The campaign's measure: a dr campaign is shown in dr, % de and % major, never ee. */
   measure?: SelectivityMeasure;
+  /** The stored specification (the campaign's own or the project's default): the chart's line and each run's pass/fail. */
+  specification?: StoredSpecification | null;
 }) {
   const [chartMeasure, setChartMeasure] = useState<'ee' | 'percentA'>('ee');
   const [specText, setSpecText] = useState('');
+  // A line typed in the chart controls wins; otherwise the stored specification is drawn.
+  const chartSpec = parseSpec(specText) ?? (specification ? specificationOnAxis(specification, chartMeasure) : null);
   const view = useMemo(() => chartData(analysis), [analysis]);
   const fit = analysis.fit;
   const at = analysis.at;
@@ -117,7 +123,7 @@ export function CampaignAnalysis({
             points={view.selectivityPoints}
             measure={chartMeasure}
             family={measure}
-            spec={parseSpec(specText)}
+            spec={chartSpec}
             curveLabel={twoBranchPreferred ? 'two-branch fit' : 'fitted line'}
             bandLabel={`${fixed(fit.confidence * 100, 0)} % prediction band (new run)`}
             mark={at ? { celsius: at.celsius, label: markLabel } : null}
@@ -152,7 +158,12 @@ export function CampaignAnalysis({
       </div>
       <section aria-label="Residual diagnostics" className="flex min-w-0 flex-col gap-2">
         <h3 className="text-sm font-semibold text-ink-900">Residual diagnostics</h3>
-        <ResidualDiagnostics analysis={analysis} measurements={measurements} measure={measure} />
+        {specification && (
+          <p className="text-xs text-ink-700" data-testid="campaign-specification">
+            Specification: {specificationText(specification, measure)}. Each run below says whether it meets it.
+          </p>
+        )}
+        <ResidualDiagnostics analysis={analysis} measurements={measurements} measure={measure} specification={specification} />
         <p className="text-xs text-ink-600">
           Residuals are in ln r (measured − fitted). A run is flagged (⚑, ringed on the plot) when its studentized residual exceeds 3 in size,
           its leverage is high or its Cook’s distance exceeds 1, and only when at least 3 residual degrees of freedom leave room to tell an
@@ -202,8 +213,19 @@ const FLAG_TEXT: Record<string, string> = {
 };
 
 /** One row per run: residual in ln r, studentized residual, leverage, Cook's distance, flags. */
-function ResidualDiagnostics({ analysis, measurements, measure }: { analysis: AnalysisResponse; measurements: Measurement[]; measure: SelectivityMeasure }) {
+function ResidualDiagnostics({
+  analysis,
+  measurements,
+  measure,
+  specification,
+}: {
+  analysis: AnalysisResponse;
+  measurements: Measurement[];
+  measure: SelectivityMeasure;
+  specification: StoredSpecification | null;
+}) {
   const primary = DISPLAY_MEASURES[measure][0];
+  const specLn = specification ? specificationLn(specification) : null;
   const byId = new Map(measurements.map((m) => [m.id, m]));
   const residuals = analysis.fit?.residuals ?? [];
   return (
@@ -223,6 +245,7 @@ function ResidualDiagnostics({ analysis, measurements, measure }: { analysis: An
             { label: 'Leverage' },
             { label: 'Cook’s D' },
             { label: 'Status', align: 'left' },
+            ...(specLn !== null ? [{ label: 'Specification', align: 'left' as const }] : []),
           ]}
         />
         <tbody>
@@ -262,6 +285,19 @@ function ResidualDiagnostics({ analysis, measurements, measure }: { analysis: An
                   {flags.length > 0 && <span className="ml-1 font-medium text-caution-700">⚑ {flags.map((f) => FLAG_TEXT[f] ?? f).join(', ')}</span>}
                   {r && <RunNote residual={r} />}
                 </td>
+                {specLn !== null && (
+                  <td className="px-2 py-0.5 text-left">
+                    {verdictOf(p.lnRatio, specLn) === 'meets' ? (
+                      <span>
+                        <span aria-hidden="true">✓ </span>meets
+                      </span>
+                    ) : (
+                      <span className="text-caution-700">
+                        <span aria-hidden="true">✗ </span>falls short
+                      </span>
+                    )}
+                  </td>
+                )}
               </tr>
             );
           })}
