@@ -82,8 +82,8 @@ describe('temperature planner in Chromium', () => {
     const editorId = { login: `pl-${stamp}`, name: 'Pia Planner', email: `pl-${stamp}@example.test` };
     const editor = await createUser(editorId);
     const project = await createProject([{ user: editor, role: 'owner' }], { name: 'Invented planning project', description: 'Invented demo data for the browser test.' });
-    const first = await inventedScreen(project.id, 'Invented ligand Osprey-Phos', 0.5);
-    await inventedScreen(project.id, 'Invented ligand Plover-Phos', 0);
+    const first = await inventedScreen(project.id, 'Invented Osprey ligand', 0.5);
+    await inventedScreen(project.id, 'Invented Plover ligand', 0);
 
     await signInAs(page, baseUrl, editorId, `/campaigns/${first.id}`);
     const form = page.getByRole('form', { name: 'Plan the temperature' });
@@ -135,8 +135,8 @@ describe('temperature planner in Chromium', () => {
     // Compare the two screens and save the comparison.
     await page.getByRole('link', { name: 'Compare campaigns →' }).click();
     await page.waitForURL(`${baseUrl}/projects/${project.id}/compare`);
-    await page.getByLabel(/Osprey-Phos/).check();
-    await page.getByLabel(/Plover-Phos/).check();
+    await page.getByLabel(/Osprey ligand/).check();
+    await page.getByLabel(/Plover ligand/).check();
     await page.getByLabel('Name').fill('Osprey against Plover');
     await page.getByRole('button', { name: 'Compare and save' }).click();
     await page.waitForURL(/\/comparisons\//);
