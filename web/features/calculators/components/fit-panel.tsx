@@ -302,7 +302,6 @@ export function FitPanel() {
                   Excluding a run refits at once; the run stays on the plot as a hollow circle. Note why you excluded it in your records.
                 </p>
               </div>
-              <p className="text-xs text-ink-600">{fit.convention}</p>
             </div>
           )}
         </div>

@@ -104,7 +104,6 @@ export function ForecastPanel() {
                   </ul>
                 </div>
               )}
-              <p className="text-xs text-ink-600">{data.convention}</p>
               <SafetyCaution />
             </>
           )}

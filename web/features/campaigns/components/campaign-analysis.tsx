@@ -2,7 +2,7 @@ import { useMemo, useState } from 'react';
 import { TableHead } from '../../../components/ui/table-head';
 import { EyringPlot, type EyringCurvePoint, type EyringPlotPoint } from '../../../components/charts/eyring-plot';
 import { SelectivityChart, type SelectivityCurvePoint, type SelectivityMeasuredPoint } from '../../../components/charts/selectivity-chart';
-import { SafetyCaution } from '../../../components/ui/caution';
+import { SignConvention } from '../../../components/ui/sign-convention';
 import { fixed, percent, withUncertainty, lnRatioOf, lnRatioRange } from '../../../lib/format';
 import { ChartControls, parseSpec } from '../../calculators/components/chart-controls';
 import { FitWarnings, RunNote, TwoBranchBox, branchLines } from '../../calculators/components/fit-diagnostics';
@@ -140,6 +140,7 @@ export function CampaignAnalysis({
             </p>
           )}
           <FitParameterTable fit={fit} />
+          <SignConvention />
           {at ? (
             <DdGAt prediction={at} confidence={fit.confidence} measure={measure} />
           ) : (
@@ -159,7 +160,6 @@ export function CampaignAnalysis({
           odd run from scatter. A flag asks for a second look at the run’s record; it is not by itself a reason to exclude the run.
         </p>
       </section>
-      <SafetyCaution compact />
     </div>
   );
 }
