@@ -112,6 +112,9 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
             weighting={weighting}
             canEdit={canEdit}
             measure={campaign.measure}
+            failed={analysis.isError}
+            onRetry={() => void analysis.refetch()}
+            retrying={analysis.isFetching}
           />
         </Panel>
         <Panel title="Plan the temperature">

@@ -1,12 +1,13 @@
-import { useId, useState } from 'react';
+import { useId, useMemo, useState } from 'react';
 import { savedForecastCreateSchema, type TemperatureUnit } from '../../../../api/features/campaigns/schemas';
 import { SafetyCaution } from '../../../components/ui/caution';
 import { Button } from '../../../components/ui/form';
+import { StaleResult, useLastDefined, type StaleReason } from '../../../components/ui/stale';
 import { ApiError } from '../../../lib/api-client';
 import { enantiomericRatio, fixed, percent, sig, lnRatioOf, lnRatioRange } from '../../../lib/format';
 import { PredictionBox } from '../../calculators/components/prediction-box';
 import { useDeleteForecast, useForecasts, useSaveForecast } from '../api/forecasts';
-import type { AnalysisResponse, SavedForecastView } from '../api/types';
+import type { AnalysisResponse, FitPrediction, SavedForecastView } from '../api/types';
 import { kelvinTo, parseNumber } from '../lib/grid';
 import {
   DISPLAY_MEASURES,
@@ -47,9 +48,16 @@ export function ForecastPanel({
   weighting,
   canEdit,
   measure = 'ee',
+  failed = false,
+  onRetry,
+  retrying = false,
 }: {
   campaignId: string;
   analysis: AnalysisResponse | undefined;
+  /** The page's analysis request failed: the last forecast stays, greyed and labelled, with a retry. */
+  failed?: boolean;
+  onRetry?: () => void;
+  retrying?: boolean;
   atCelsius: number | null;
   onAt: (celsius: number | null) => void;
   weighting: 'none' | 'uncertainty';
@@ -90,6 +98,21 @@ export function ForecastPanel({
   const prediction = analysis?.at ?? null;
   const fit = analysis?.fit ?? null;
   const showing = prediction && atCelsius !== null && Math.abs(prediction.celsius - atCelsius) < 1e-6;
+  // The forecast on screen: the current one, or the last one while the next is computed or after a failure.
+  const current = useMemo(() => (fit && showing && prediction ? { prediction, confidence: fit.confidence } : null), [fit, showing, prediction]);
+  const last = useLastDefined(current);
+  const shown = atCelsius === null ? null : last;
+  const typed = parseNumber(text);
+  const typedCelsius = typeof typed === 'number' ? toCelsius(typed, unit) : null;
+  const reason: StaleReason | null = !shown
+    ? null
+    : failed
+      ? 'failed'
+      : !current
+        ? 'updating'
+        : typedCelsius === null || Math.abs(typedCelsius - shown.prediction.celsius) > 1e-6
+          ? 'changed'
+          : null;
 
   const doSave = () => {
     if (!prediction) return;
@@ -173,7 +196,7 @@ export function ForecastPanel({
         )}
       </form>
 
-      {!fit && (
+      {!fit && !shown && (
         <p className="text-sm text-ink-600">
           {/* Without an answer the analysis is loading or failed (said beside the result); never blame missing runs then. */}
           {analysis ? `A forecast needs a fit: ${analysis.problem?.message ?? 'add measurements first.'}` : 'A forecast needs the fit, which is not available right now (see the result above).'}
@@ -182,21 +205,11 @@ export function ForecastPanel({
       {fit && !showing && atCelsius === null && (
         <p className="text-sm text-ink-600">Type a temperature to get {predictedWords(measure)} with the 95 % prediction interval for one new run.</p>
       )}
-      {fit && atCelsius !== null && !showing && <p className="text-sm text-ink-600">Computing…</p>}
-      {fit && showing && prediction && (
-        <>
-          <PredictionBox prediction={prediction} confidence={fit.confidence} measure={measure} />
-          <p className="tnum text-sm text-ink-700">
-            Predicted ratio r = [A]/[B] = <span className="font-medium text-ink-950">{ratioText(prediction.ratio)}</span>
-            {prediction.predictionInterval && (
-              <>
-                {' '}
-                (95 % PI {ratioText(prediction.predictionInterval.ratio[0])} to {ratioText(prediction.predictionInterval.ratio[1])})
-              </>
-            )}
-            {measure === 'ee' || measure === 'er' ? `, er ${enantiomericRatio(prediction.percentA)}` : ''}.
-          </p>
-          {canEdit && (
+      {fit && atCelsius !== null && !shown && <p className="text-sm text-ink-600">Computing…</p>}
+      {shown && (
+        <StaleResult reason={reason} action="Forecast" onRetry={onRetry} retrying={retrying}>
+          <ForecastResult prediction={shown.prediction} confidence={shown.confidence} measure={measure} />
+          {canEdit && reason === null && (
             <form
               noValidate
               aria-label="Save this forecast"
@@ -209,7 +222,7 @@ export function ForecastPanel({
               <SmallField label="Label (optional)" value={label} onChange={setLabel} error={saveErrors.label} width="w-48" />
               <SmallField label="Note" value={notes} onChange={setNotes} error={saveErrors.notes} width="w-80" />
               <Button type="submit" disabled={save.isPending}>
-                {save.isPending ? 'Saving…' : `Save forecast at ${fixed(prediction.celsius, 1)} °C`}
+                {save.isPending ? 'Saving…' : `Save forecast at ${fixed(shown.prediction.celsius, 1)} °C`}
               </Button>
               {saveErrors.temperature && <p className="w-full text-xs text-rose-700">✕ {saveErrors.temperature}</p>}
               {save.error && !(save.error instanceof ApiError && save.error.fieldErrors.length) && (
@@ -224,9 +237,28 @@ export function ForecastPanel({
               )}
             </form>
           )}
-        </>
+        </StaleResult>
       )}
     </div>
+  );
+}
+
+/** The prediction at the proposed temperature, with r and (for enantiomers) er. */
+function ForecastResult({ prediction, confidence, measure }: { prediction: FitPrediction; confidence: number; measure: SelectivityMeasure }) {
+  return (
+    <>
+      <PredictionBox prediction={prediction} confidence={confidence} measure={measure} />
+      <p className="tnum text-sm text-ink-700">
+        Predicted ratio r = [A]/[B] = <span className="font-medium text-ink-950">{ratioText(prediction.ratio)}</span>
+        {prediction.predictionInterval && (
+          <>
+            {' '}
+            (95 % PI {ratioText(prediction.predictionInterval.ratio[0])} to {ratioText(prediction.predictionInterval.ratio[1])})
+          </>
+        )}
+        {measure === 'ee' || measure === 'er' ? `, er ${enantiomericRatio(prediction.percentA)}` : ''}.
+      </p>
+    </>
   );
 }
 
