@@ -30,6 +30,8 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
   const measurements = useMeasurements(campaign.id);
   const analysis = useAnalysis(campaign.id, { weighting, atCelsius });
   const project = useProject(campaign.projectId);
+  // The assay SD is in the campaign's measure; it sets the decimals of percentage columns only when that measure is a percentage.
+  const assaySd = campaign.measure === 'ee' || campaign.measure === 'percentA' ? campaign.defaultUncertainty : null;
   const invented = [campaign.title, campaign.reactionDescription, campaign.notes, project.data?.name].some((t) => t && INVENTED.test(t));
 
   return (
@@ -99,7 +101,7 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
             </div>
           )}
           {analysis.data && measurements.data && (
-            <CampaignAnalysis analysis={analysis.data} measurements={measurements.data} stale={analysis.isPlaceholderData} measure={campaign.measure} />
+            <CampaignAnalysis analysis={analysis.data} measurements={measurements.data} stale={analysis.isPlaceholderData} measure={campaign.measure} assaySd={assaySd} />
           )}
         </Panel>
 
@@ -121,7 +123,7 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
           <PlannerPanel campaignId={campaign.id} projectId={campaign.projectId} canEdit={canEdit} />
         </Panel>
         <Panel title="Saved forecasts">
-          <SavedForecasts campaignId={campaign.id} canEdit={canEdit} measure={campaign.measure} />
+          <SavedForecasts campaignId={campaign.id} canEdit={canEdit} measure={campaign.measure} assaySd={assaySd} />
         </Panel>
         <Panel title="E-mail the report">
           <ReportMailForm campaignId={campaign.id} projectId={campaign.projectId} />

@@ -58,6 +58,14 @@ function numberOrNull(text: string): number | null | 'invalid' {
 const lnOf = (iv: { lnRatio?: [number, number] | undefined; ratio: [number | null, number | null] } | undefined | null): [number, number] | null =>
   iv ? (iv.lnRatio ?? [Math.log(iv.ratio[0] ?? 0), Math.log(iv.ratio[1] ?? Infinity)]) : null;
 
+/** The median SD of the pasted runs that carry one (the assay precision), or null. */
+function medianUncertainty(rows: ScreenRow[]): number | null {
+  const sds = rows.map((r) => r.uncertainty).filter((u): u is number => typeof u === 'number' && u > 0).sort((a, b) => a - b);
+  if (sds.length === 0) return null;
+  const mid = Math.floor(sds.length / 2);
+  return sds.length % 2 ? sds[mid] : (sds[mid - 1] + sds[mid]) / 2;
+}
+
 /** Split the API's field errors: those on a measurement go to its pasted line, the rest to the form. */
 function mapFitErrors(
   errors: FieldError[],
@@ -329,6 +337,7 @@ export function FitPanel() {
                 <ResidualTable
                   fit={fit}
                   lines={shown.submitted.rows.map((r) => r.line)}
+                  assaySd={shown.submitted.measure === 'ee' ? medianUncertainty(shown.submitted.rows) : null}
                   excludedLines={excludedLines}
                   onToggleExclude={toggleExclude}
                 />

@@ -3,7 +3,7 @@ import { TableHead } from '../../../components/ui/table-head';
 import { EyringPlot, type EyringCurvePoint, type EyringPlotPoint } from '../../../components/charts/eyring-plot';
 import { SelectivityChart, type SelectivityCurvePoint, type SelectivityMeasuredPoint } from '../../../components/charts/selectivity-chart';
 import { SignConvention } from '../../../components/ui/sign-convention';
-import { fixed, percent, withUncertainty, lnRatioOf, lnRatioRange } from '../../../lib/format';
+import { fixed, measureColumn, percent, withUncertainty, lnRatioOf, lnRatioRange } from '../../../lib/format';
 import { ChartControls, parseSpec } from '../../calculators/components/chart-controls';
 import { FitWarnings, RunNote, TwoBranchBox, branchLines } from '../../calculators/components/fit-diagnostics';
 import { FitParameterTable } from '../../calculators/components/fit-parameter-table';
@@ -62,9 +62,12 @@ export function CampaignAnalysis({
   measurements,
   stale,
   measure = 'ee',
+  assaySd = null,
 }: {
   analysis: AnalysisResponse;
   measurements: Measurement[];
+  /** SD of one assay result in the unit of the percentage columns: sets their decimals. */
+  assaySd?: number | null;
   /** A newer answer is on its way (the old one stays on screen, dimmed). */
   stale: boolean;
   /** The campaign's measure: a dr campaign is shown in dr, % de and % major, never ee. */
@@ -153,7 +156,7 @@ export function CampaignAnalysis({
       </div>
       <section aria-label="Residual diagnostics" className="flex min-w-0 flex-col gap-2">
         <h3 className="text-sm font-semibold text-ink-900">Residual diagnostics</h3>
-        <ResidualDiagnostics analysis={analysis} measurements={measurements} measure={measure} />
+        <ResidualDiagnostics analysis={analysis} measurements={measurements} measure={measure} assaySd={assaySd} />
         <p className="text-xs text-ink-600">
           Residuals are in ln r (measured − fitted). A run is flagged (⚑, ringed on the plot) when its studentized residual exceeds 3 in size,
           its leverage is high or its Cook’s distance exceeds 1, and only when at least 3 residual degrees of freedom leave room to tell an
@@ -202,8 +205,23 @@ const FLAG_TEXT: Record<string, string> = {
 };
 
 /** One row per run: residual in ln r, studentized residual, leverage, Cook's distance, flags. */
-function ResidualDiagnostics({ analysis, measurements, measure }: { analysis: AnalysisResponse; measurements: Measurement[]; measure: SelectivityMeasure }) {
+function ResidualDiagnostics({
+  analysis,
+  measurements,
+  measure,
+  assaySd,
+}: {
+  analysis: AnalysisResponse;
+  measurements: Measurement[];
+  measure: SelectivityMeasure;
+  assaySd: number | null;
+}) {
   const primary = DISPLAY_MEASURES[measure][0];
+  const selectivityCell = measureColumn(
+    primary,
+    analysis.points.map((p) => p.lnRatio),
+    assaySd,
+  );
   const byId = new Map(measurements.map((m) => [m.id, m]));
   const residuals = analysis.fit?.residuals ?? [];
   return (
@@ -238,7 +256,7 @@ function ResidualDiagnostics({ analysis, measurements, measure }: { analysis: An
                 <td className="px-2 py-0.5">{fixed(p.kelvin - CELSIUS, 1)}</td>
                 <td className="px-2 py-0.5">
                   {p.status === 'censored' ? '≥ ' : ''}
-                  {primary === 'ee' ? percent(p.eePercent) : formatMeasure(primary, p.lnRatio).replace(/ %$/, '')}
+                  {selectivityCell(p.lnRatio)}
                 </td>
                 <td className="px-2 py-0.5">{fixed(p.lnRatio, 3)}</td>
                 <td className="px-2 py-0.5">{r?.residual == null ? '—' : fixed(r.residual, 3)}</td>

@@ -4,20 +4,21 @@ import { SafetyCaution } from '../../../components/ui/caution';
 import { Button } from '../../../components/ui/form';
 import { StaleResult, useLastDefined, type StaleReason } from '../../../components/ui/stale';
 import { ApiError } from '../../../lib/api-client';
-import { enantiomericRatio, fixed, percent, sig, lnRatioOf, lnRatioRange } from '../../../lib/format';
+import { enantiomericRatio, fixed, measureColumn, percent, sig, lnRatioOf, lnRatioRange } from '../../../lib/format';
 import { PredictionBox } from '../../calculators/components/prediction-box';
 import { useDeleteForecast, useForecasts, useSaveForecast } from '../api/forecasts';
 import type { AnalysisResponse, FitPrediction, SavedForecastView } from '../api/types';
 import { kelvinTo, parseNumber } from '../lib/grid';
 import {
   DISPLAY_MEASURES,
+  DISPLAY_UNIT,
   displayHeading,
   formatDisplay,
-  formatMeasure,
   formatMeasureRange,
   fromKelvin,
   TEMPERATURE_UNIT_LABEL as UNIT_TEXT,
   toKelvin,
+  type DisplayMeasure,
   type SelectivityMeasure,
 } from '../../../../api/science/quantities';
 
@@ -262,6 +263,13 @@ function ForecastResult({ prediction, confidence, measure }: { prediction: FitPr
   );
 }
 
+/** An interval in a column: percentages to the column's decimals, low to high; ratios and % major as before. */
+function intervalText(display: DisplayMeasure, [a, b]: [number, number], cell: (lnR: number) => string): string {
+  if (DISPLAY_UNIT[display] !== '%' || display === 'major') return formatMeasureRange(display, a, b);
+  const [lo, hi] = a <= b ? [a, b] : [b, a];
+  return `${cell(lo)} to ${cell(hi)}`;
+}
+
 function SmallField({ label, value, onChange, error, width }: { label: string; value: string; onChange: (v: string) => void; error?: string; width: string }) {
   const id = useId();
   return (
@@ -289,10 +297,22 @@ function SmallField({ label, value, onChange, error, width }: { label: string; v
 const dateFormat = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'short' });
 
 /** Kept forecasts, each against any run measured since within ±1 K of its temperature. */
-export function SavedForecasts({ campaignId, canEdit, measure = 'ee' }: { campaignId: string; canEdit: boolean; measure?: SelectivityMeasure }) {
+export function SavedForecasts({
+  campaignId,
+  canEdit,
+  measure = 'ee',
+  assaySd = null,
+}: {
+  campaignId: string;
+  canEdit: boolean;
+  measure?: SelectivityMeasure;
+  /** SD of one assay result in the unit of the percentage columns: sets their decimals. */
+  assaySd?: number | null;
+}) {
   const [primary, secondary] = DISPLAY_MEASURES[measure];
   const forecasts = useForecasts(campaignId);
   const remove = useDeleteForecast(campaignId);
+  const columns = useMemo(() => forecastColumns(forecasts.data ?? [], measure, assaySd), [forecasts.data, measure, assaySd]);
   if (forecasts.isPending) return <p className="text-sm text-ink-500">Loading saved forecasts…</p>;
   if (forecasts.isError) return <p role="alert" className="text-sm text-rose-700">{forecasts.error.message}</p>;
   if (forecasts.data.length === 0) return <p className="text-sm text-ink-600">No saved forecasts yet.{canEdit ? ' Make a forecast above and save it with a note.' : ''}</p>;
@@ -335,6 +355,7 @@ export function SavedForecasts({ campaignId, canEdit, measure = 'ee' }: { campai
               <ForecastRow
                 key={f.id}
                 f={f}
+                columns={columns}
                 measure={measure}
                 canEdit={canEdit}
                 onDelete={() => remove.mutate(f.id)}
@@ -353,21 +374,42 @@ export function SavedForecasts({ campaignId, canEdit, measure = 'ee' }: { campai
   );
 }
 
+/** One formatter per number column, so each column shows one number of decimals (see measureColumn). */
+interface ForecastColumns {
+  forecast: (lnR: number) => string;
+  interval: (lnR: number) => string;
+  other: (lnR: number) => string;
+}
+
+function forecastColumns(forecasts: SavedForecastView[], measure: SelectivityMeasure, assaySd: number | null): ForecastColumns {
+  const [primary, secondary] = DISPLAY_MEASURES[measure];
+  const lnRs = forecasts.map((f) => lnRatioOf(f.result));
+  const ends = forecasts.flatMap((f) => (f.result.predictionInterval ? lnRatioRange(f.result.predictionInterval) : []));
+  return {
+    forecast: measureColumn(primary, lnRs, assaySd),
+    interval: measureColumn(primary, ends, assaySd),
+    // Enantiomers show % A beside ee; other pairs their second measure.
+    other: measureColumn(primary === 'ee' ? 'percentA' : secondary, lnRs, assaySd),
+  };
+}
+
 function ForecastRow({
   f,
+  columns,
   measure,
   canEdit,
   onDelete,
   deleting,
 }: {
   f: SavedForecastView;
+  columns: ForecastColumns;
   measure: SelectivityMeasure;
   canEdit: boolean;
   onDelete: () => void;
   deleting: boolean;
 }) {
   const pi = f.result.predictionInterval;
-  const [primary, secondary] = DISPLAY_MEASURES[measure];
+  const primary = DISPLAY_MEASURES[measure][0];
   const lnR = lnRatioOf(f.result);
   const enantiomers = primary === 'ee';
   return (
@@ -381,11 +423,9 @@ function ForecastRow({
         )}
         {f.result.extrapolated && <span className="block text-xs font-medium text-caution-700">⚠ extrapolated beyond the screen</span>}
       </td>
-      <td className="px-2 py-1 text-right">{enantiomers ? percent(f.result.eePercent) : formatMeasure(primary, lnR).replace(/ %$/, '')}</td>
-      <td className="px-2 py-1 text-right text-ink-700">
-        {!pi ? '—' : enantiomers ? `${percent(pi.eePercent[0])} to ${percent(pi.eePercent[1])}` : formatMeasureRange(primary, ...lnRatioRange(pi))}
-      </td>
-      <td className="px-2 py-1 text-right">{enantiomers ? percent(f.result.percentA) : formatMeasure(secondary, lnR).replace(/ %$/, '')}</td>
+      <td className="px-2 py-1 text-right">{columns.forecast(lnR)}</td>
+      <td className="px-2 py-1 text-right text-ink-700">{!pi ? '—' : intervalText(primary, lnRatioRange(pi), columns.interval)}</td>
+      <td className="px-2 py-1 text-right">{columns.other(lnR)}</td>
       <td className="px-2 py-1 text-left">
         {f.measured.length === 0 ? (
           <span className="text-ink-500">no run yet</span>
