@@ -99,7 +99,7 @@ const MIN_TICK_GAP = 36;
  * Round °C ticks for the top axis, as 1000/T positions. Equal steps in °C bunch up towards the warm end of a
  * 1/T axis, so on a narrow plot a tick too close to the last one kept is dropped rather than overprinted.
  */
-function celsiusTicks(xDomain: [number, number], innerWidth: number): number[] {
+export function celsiusTicks(xDomain: [number, number], innerWidth: number): number[] {
   const kA = 1000 / xDomain[1];
   const kB = 1000 / xDomain[0];
   const cLo = Math.min(kA, kB) - CELSIUS_OFFSET;
