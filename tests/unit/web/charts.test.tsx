@@ -118,5 +118,7 @@ describe('°C ticks on the top axis of the Eyring plot', () => {
     expect(Math.min(...gaps(narrow, 230))).toBeGreaterThanOrEqual(36);
     // without thinning, the same ticks at 230 px would sit closer than that
     expect(Math.min(...gaps(wide, 230))).toBeLessThan(36);
+    // a coarser round step rather than gaps: 50, 0, −50 °C [C]
+    expect(narrow.map((x) => Math.round(1000 / x - 273.15))).toEqual([50, 0, -50]);
   });
 });
