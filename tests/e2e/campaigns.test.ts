@@ -29,6 +29,21 @@ async function maybeElementShot(page: Page, name: string, locator: ReturnType<Pa
   await locator.screenshot({ path: path.join('.tmp', 'screens', `${name}.png`) });
 }
 
+/**
+ * Screenshots of the page's Eyring plot and selectivity chart at 1440 px and 390 px wide, to check by eye
+ * that no label overprints another; the viewport is put back afterwards.
+ */
+async function chartShotsAtBothWidths(page: Page, prefix: string) {
+  if (!process.env.EYRIE_SCREENSHOTS) return;
+  const before = page.viewportSize();
+  for (const width of [1440, 390]) {
+    await page.setViewportSize({ width, height: 900 });
+    await maybeElementShot(page, `${prefix}-eyring-${width}`, page.getByRole('figure').filter({ hasText: 'Eyring plot' }).first());
+    await maybeElementShot(page, `${prefix}-selectivity-${width}`, page.getByRole('figure').filter({ hasText: 'Selectivity against temperature' }).first());
+  }
+  if (before) await page.setViewportSize(before);
+}
+
 /** Sign in through the local provider as `who`, landing on `returnPath`. */
 async function signInAs(page: Page, baseUrl: string, who: TestIdentity, returnPath: string) {
   await page.context().clearCookies();
@@ -148,6 +163,7 @@ describe('campaign pages in Chromium', () => {
     await maybeElementShot(page, 'campaigns-el-eyring', page.getByRole('figure').filter({ hasText: 'Eyring plot' }));
     await maybeElementShot(page, 'campaigns-el-selectivity', page.getByRole('figure').filter({ hasText: 'Selectivity against temperature' }));
     await maybeElementShot(page, 'campaigns-el-parameters', page.getByRole('region', { name: 'Fitted parameters' }));
+    await chartShotsAtBothWidths(page, 'campaigns-el');
 
     // Back on the project page the campaign is listed with its fit and forecast.
     await page.getByRole('link', { name: /Kestrelmoor KL-7702 screens/ }).click();
@@ -247,6 +263,7 @@ describe('campaign pages in Chromium', () => {
       .poll(() => page.getByTestId('forecast-branch').textContent(), { timeout: 15_000 })
       .toContain('From the two-branch model: the low-temperature branch (colder than the break) covers this temperature.');
     await maybeScreenshot(page, 'campaigns-two-branch');
+    await chartShotsAtBothWidths(page, 'campaigns-el-two-branch');
     await page.setViewportSize({ width: 390, height: 844 });
     await maybeScreenshot(page, 'campaigns-two-branch-phone');
     await page.setViewportSize({ width: 1360, height: 900 });

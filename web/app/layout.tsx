@@ -1,5 +1,6 @@
 import { useEffect, useState } from 'react';
 import { NavLink, Outlet, useLocation } from 'react-router-dom';
+import { CautionScope } from '../components/ui/caution';
 import { paths } from '../config/paths';
 import { navItems } from './nav';
 import { SessionSlot } from './session-slot';
@@ -60,10 +61,12 @@ export function AppLayout() {
         )}
       </header>
       <main id="main" className="flex-1">
-        <Outlet />
+        <CautionScope key={location.pathname}>
+          <Outlet />
+        </CautionScope>
       </main>
       <footer className="border-t border-slate-200 bg-white py-3 text-center text-xs text-ink-500">
-        Eyrie · forecasts are model estimates · sign convention: ΔΔX‡ = X‡(TS→B) − X‡(TS→A), positive favours A
+        Eyrie · forecasts are model estimates, to be confirmed by experiment
       </footer>
     </div>
   );

@@ -3,7 +3,14 @@
  * chosen for the quantity, and uncertainty rounded to two significant figures with
  * the value rounded to the same decimal place.
  */
-import { percentDecimals } from '../../api/science/quantities';
+import {
+  DISPLAY_UNIT,
+  eeFromLnRatio,
+  formatMeasure,
+  percentAFromLnRatio,
+  percentDecimals,
+  type DisplayMeasure,
+} from '../../api/science/quantities';
 
 const MINUS = '\u2212';
 
@@ -96,4 +103,46 @@ export function lnRatioOf(p: { lnRatio?: number; ratio: number | null }): number
 /** ln r at both ends of an interval (see lnRatioOf). */
 export function lnRatioRange(iv: { lnRatio?: [number, number]; ratio: [number | null, number | null] }): [number, number] {
   return iv.lnRatio ?? [Math.log(iv.ratio[0] ?? Number.NaN), Math.log(iv.ratio[1] ?? Number.NaN)];
+}
+
+/**
+ * Decimals that show a result to its assay precision (the SD of one result, in the same unit): the last
+ * digit shown is the first one the SD leaves uncertain (SD 2 → 0, 0.3 → 1, 0.05 → 2). No precision: `fallback`.
+ */
+export function decimalsFromPrecision(sd: number | null | undefined, fallback = 1, max = 3): number {
+  if (sd === null || sd === undefined || !Number.isFinite(sd) || sd <= 0) return fallback;
+  return Math.min(max, Math.max(0, -Math.floor(Math.log10(sd))));
+}
+
+/**
+ * One number of decimals for a whole column of percentages, so every cell lines up: the assay precision's
+ * (decimalsFromPrecision), raised where a value close to 100 needs more (percentDecimals), so no cell just
+ * short of a 99 % specification rounds onto it.
+ */
+export function percentColumnDecimals(values: readonly (number | null | undefined)[], assaySd?: number | null, max = 3): number {
+  let decimals = decimalsFromPrecision(assaySd, 1, max);
+  for (const v of values) {
+    // percentDecimals asks for more than one decimal only close to 100; below that the precision rules.
+    if (v !== null && v !== undefined && Number.isFinite(v) && percentDecimals(v) > 1) decimals = Math.max(decimals, percentDecimals(v));
+  }
+  return Math.min(max, decimals);
+}
+
+/** A formatter for a column of percentages, all to the same decimals (see percentColumnDecimals). */
+export function percentColumn(values: readonly (number | null | undefined)[], assaySd?: number | null): (value: number) => string {
+  const decimals = percentColumnDecimals(values, assaySd);
+  return (value) => fixed(value, decimals);
+}
+
+/**
+ * A formatter for a column of a display measure given as ln r: percentages (ee, % de, % major, % A) share
+ * one number of decimals (see percentColumnDecimals); ratios keep their own formatting. Cells carry no "%"
+ * (it belongs in the column head).
+ */
+export function measureColumn(display: DisplayMeasure, lnRatios: readonly number[], assaySd?: number | null): (lnRatio: number) => string {
+  if (DISPLAY_UNIT[display] !== '%') return (lnR) => formatMeasure(display, lnR);
+  const percentOf = (lnR: number) =>
+    display === 'percentA' ? percentAFromLnRatio(lnR) : display === 'major' ? percentAFromLnRatio(Math.abs(lnR)) : eeFromLnRatio(lnR);
+  const column = percentColumn(lnRatios.map(percentOf), assaySd);
+  return (lnR) => (Number.isFinite(lnR) ? column(percentOf(lnR)) : '—');
 }

@@ -1,7 +1,7 @@
 // @vitest-environment happy-dom
 import { afterEach, describe, expect, it } from 'vitest';
 import { cleanup, render } from '@testing-library/react';
-import { EyringPlot, type EyringCurvePoint, type EyringPlotPoint } from '../../../web/components/charts/eyring-plot';
+import { celsiusTicks, EyringPlot, type EyringCurvePoint, type EyringPlotPoint } from '../../../web/components/charts/eyring-plot';
 import { SelectivityChart } from '../../../web/components/charts/selectivity-chart';
 
 afterEach(cleanup);
@@ -96,5 +96,29 @@ describe('SelectivityChart', () => {
     expect(svg.textContent).toContain('specification 99 % ee');
     expect(svg.textContent).toContain('Temperature (°C)');
     expect(svg.textContent).toContain('ee (%)');
+  });
+});
+
+describe('°C ticks on the top axis of the Eyring plot', () => {
+  // 1000/T from 3.0 to 5.0 K⁻¹ spans 60.2 °C down to −73.2 °C; 20 °C steps bunch up at the warm end.
+  const domain: [number, number] = [3.0, 5.0];
+  const gaps = (ticks: number[], width: number) => ticks.slice(1).map((x, i) => ((x - ticks[i]) * width) / (domain[1] - domain[0]));
+
+  it('when the plot is wide, then every round step is labelled', () => {
+    const ticks = celsiusTicks(domain, 900);
+    // 60, 40, 20, 0, −20, −40, −60 °C [C]
+    expect(ticks.map((x) => Math.round(1000 / x - 273.15))).toEqual([60, 40, 20, 0, -20, -40, -60]);
+  });
+
+  it('when the plot is phone-narrow, then ticks closer than a label width are dropped, so no two labels overprint', () => {
+    const wide = celsiusTicks(domain, 900);
+    const narrow = celsiusTicks(domain, 230);
+    expect(narrow.length).toBeLessThan(wide.length);
+    expect(narrow.length).toBeGreaterThanOrEqual(3);
+    expect(Math.min(...gaps(narrow, 230))).toBeGreaterThanOrEqual(36);
+    // without thinning, the same ticks at 230 px would sit closer than that
+    expect(Math.min(...gaps(wide, 230))).toBeLessThan(36);
+    // a coarser round step rather than gaps: 50, 0, −50 °C [C]
+    expect(narrow.map((x) => Math.round(1000 / x - 273.15))).toEqual([50, 0, -50]);
   });
 });

@@ -1,5 +1,16 @@
 import { describe, expect, it } from 'vitest';
-import { enantiomericRatio, fixed, percent, sig, withUncertainty } from '../../../web/lib/format';
+import {
+  decimalsFromPrecision,
+  enantiomericRatio,
+  fixed,
+  measureColumn,
+  percent,
+  percentColumn,
+  percentColumnDecimals,
+  sig,
+  withUncertainty,
+} from '../../../web/lib/format';
+import { formatMeasure } from '../../../api/science/quantities';
 
 describe('number formatting for the calculators', () => {
   it('when an ee is just short of 99 %, then it is not rounded onto the specification', () => {
@@ -21,5 +32,58 @@ describe('number formatting for the calculators', () => {
     expect(sig(123456, 3)).toBe('1.23 × 10⁵');
     expect(fixed(-0.0001, 2)).toBe('0.00');
     expect(enantiomericRatio(98.74)).toBe('98.74:1.26');
+  });
+});
+
+describe('column decimals from the assay precision', () => {
+  it('when the assay SD is 2, 0.3, 0.05 or 0.004 (in the unit shown), then the column shows 0, 1, 2 or 3 decimals', () => {
+    expect(decimalsFromPrecision(2)).toBe(0);
+    expect(decimalsFromPrecision(1)).toBe(0);
+    expect(decimalsFromPrecision(0.3)).toBe(1);
+    expect(decimalsFromPrecision(0.05)).toBe(2);
+    expect(decimalsFromPrecision(0.004)).toBe(3);
+    expect(decimalsFromPrecision(0.00001)).toBe(3); // capped
+  });
+
+  it('when no precision is known, then the fallback is used', () => {
+    expect(decimalsFromPrecision(null)).toBe(1);
+    expect(decimalsFromPrecision(undefined, 2)).toBe(2);
+    expect(decimalsFromPrecision(0)).toBe(1);
+    expect(decimalsFromPrecision(Number.NaN)).toBe(1);
+  });
+
+  it('when a column holds 88.2, 94 and 98.53 % ee at an SD of 0.3, then every cell has two decimals (98.53 needs them)', () => {
+    const values = [88.2, 94, 98.53];
+    expect(percentColumnDecimals(values, 0.3)).toBe(2);
+    const cell = percentColumn(values, 0.3);
+    expect(values.map(cell)).toEqual(['88.20', '94.00', '98.53']);
+  });
+
+  it('when no value approaches 100, then the assay precision alone sets the decimals, the same in every cell', () => {
+    const values = [12.25, 50, 91.5];
+    expect(values.map(percentColumn(values, 2))).toEqual(['12', '50', '92']);
+    expect(values.map(percentColumn(values, 0.05))).toEqual(['12.25', '50.00', '91.50']);
+    expect(values.map(percentColumn(values))).toEqual(['12.3', '50.0', '91.5']);
+  });
+
+  it('when a value is just short of 99, then the column never rounds it onto 99 (percentDecimals wins over a coarse SD)', () => {
+    const values = [90, 98.96];
+    expect(values.map(percentColumn(values, 2))).toEqual(['90.00', '98.96']);
+  });
+
+  it('when blanks or non-numbers are in the column, then they do not change its decimals', () => {
+    expect(percentColumnDecimals([null, undefined, Number.NaN, 50], 0.3)).toBe(1);
+  });
+
+  it('when a column of ee is given as ln r, then it is converted and shares one set of decimals; negative values take a true minus', () => {
+    // ee = 100·tanh(ln r / 2) [C]: ln r = 2 atanh(0.9) = 2.944 → 90 % ee; ln r = 0 → 0 %; ln r = −1 → −46.21 % ee.
+    const lnRs = [2 * Math.atanh(0.9), 0, -1];
+    const cell = measureColumn('ee', lnRs, 0.3);
+    expect(lnRs.map(cell)).toEqual(['90.0', '0.0', '\u221246.2']);
+  });
+
+  it('when the display is a ratio (dr), then cells keep the ratio formatting', () => {
+    const cell = measureColumn('dr', [Math.log(20)], 0.3);
+    expect(cell(Math.log(20))).toBe(formatMeasure('dr', Math.log(20)));
   });
 });

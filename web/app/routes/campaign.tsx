@@ -32,6 +32,8 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
   const analysis = useAnalysis(campaign.id, { weighting, atCelsius });
   const specification = useCampaignSpecification(campaign.id);
   const project = useProject(campaign.projectId);
+  // The assay SD is in the campaign's measure; it sets the decimals of percentage columns only when that measure is a percentage.
+  const assaySd = campaign.measure === 'ee' || campaign.measure === 'percentA' ? campaign.defaultUncertainty : null;
   const invented = [campaign.title, campaign.reactionDescription, campaign.notes, project.data?.name].some((t) => t && INVENTED.test(t));
 
   return (
@@ -107,6 +109,7 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
               stale={analysis.isPlaceholderData}
               measure={campaign.measure}
               specification={specification.data?.effective ?? null}
+              assaySd={assaySd}
             />
           )}
         </Panel>
@@ -120,13 +123,16 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
             weighting={weighting}
             canEdit={canEdit}
             measure={campaign.measure}
+            failed={analysis.isError}
+            onRetry={() => void analysis.refetch()}
+            retrying={analysis.isFetching}
           />
         </Panel>
         <Panel title="Plan the temperature">
           <PlannerPanel campaignId={campaign.id} projectId={campaign.projectId} canEdit={canEdit} />
         </Panel>
         <Panel title="Saved forecasts">
-          <SavedForecasts campaignId={campaign.id} canEdit={canEdit} measure={campaign.measure} />
+          <SavedForecasts campaignId={campaign.id} canEdit={canEdit} measure={campaign.measure} assaySd={assaySd} />
         </Panel>
         <Panel title="E-mail the report">
           <ReportMailForm campaignId={campaign.id} projectId={campaign.projectId} />

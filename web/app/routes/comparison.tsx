@@ -5,7 +5,7 @@ import { SafetyCaution } from '../../components/ui/caution';
 import { Page, Panel } from '../../components/ui/page';
 import { paths } from '../../config/paths';
 import { ApiError } from '../../lib/api-client';
-import { fixed, sig } from '../../lib/format';
+import { fixed, percentColumn, sig } from '../../lib/format';
 import { SignedInOnly } from '../../features/auth/components/signed-in-only';
 import { ConventionNote, NumberField, buttonClass, inputClass } from '../../features/calculators/components/fields';
 import { useCampaigns } from '../../features/campaigns/api/campaigns';
@@ -23,6 +23,9 @@ function ComparisonBody({ view }: { view: ComparisonView }) {
   const r = view.result;
   const title = (id: string) => r.campaigns.find((c) => c.id === id)?.title ?? 'unavailable campaign';
   const unit = r.valueMeasure === 'dr' ? 'dr (r:1)' : r.valueMeasure === 'ee' ? '% ee' : '% major';
+  // Percentages in the table share one number of decimals (raised near 100 %); a dr keeps four significant figures.
+  const shownValues = r.campaigns.flatMap((c) => (c.fit ? [c.fit.at.value, ...c.fit.at.interval] : []));
+  const cell = r.valueMeasure === 'dr' ? (v: number) => sig(v, 4) : percentColumn(shownValues);
   return (
     <div className="flex flex-col gap-4">
       <Panel title={`Selectivity against temperature (${unit})`}>
@@ -66,7 +69,7 @@ function ComparisonBody({ view }: { view: ComparisonView }) {
                       <td className="py-1 pr-3">{fixed(c.fit.ddH['kJ/mol'], 2)}{c.fit.ddH.se !== null && ` ± ${fixed(c.fit.ddH.se, 2)}`}</td>
                       <td className="py-1 pr-3">{fixed(c.fit.ddS['J/(mol*K)'], 1)}{c.fit.ddS.se !== null && ` ± ${fixed(c.fit.ddS.se, 1)}`}</td>
                       <td className="py-1 pr-3">
-                        {sig(c.fit.at.value, 4)} ({sig(c.fit.at.interval[0], 4)} to {sig(c.fit.at.interval[1], 4)})
+                        {cell(c.fit.at.value)} ({cell(c.fit.at.interval[0])} to {cell(c.fit.at.interval[1])})
                       </td>
                       <td className="py-1 pr-3" data-testid="comparison-meets">
                         {c.specification ? (

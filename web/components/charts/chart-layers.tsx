@@ -1,8 +1,7 @@
-import { useContext, useId } from 'react';
+import { useContext } from 'react';
 import { Axis, DataContext } from '@visx/xychart';
 import { fixed } from '../../lib/format';
 import { axisLabelProps, chartColors, chartFont, tickLabelProps } from './chart-theme';
-import { thermalColor } from './thermal-scale';
 
 type NumberScale = ((value: number) => number | undefined) & { domain(): unknown[] };
 
@@ -94,35 +93,6 @@ export function VerticalMark({ x, label, color = chartColors.accentDark }: { x: 
       >
         {label}
       </text>
-    </g>
-  );
-}
-
-/**
- * A thin strip along the top of the plot coloured by temperature (cold to warm), for
- * charts whose x axis is temperature. `toCelsius` maps an x value to °C.
- */
-export function ThermalStrip({ toCelsius }: { toCelsius: (x: number) => number }) {
-  const area = usePlotArea();
-  const id = useId().replace(/:/g, '');
-  if (!area) return null;
-  const [d0, d1] = area.x.domain() as number[];
-  const stops = Array.from({ length: 11 }, (_, i) => {
-    const xv = d0 + ((d1 - d0) * i) / 10;
-    return { offset: `${i * 10}%`, color: thermalColor(toCelsius(xv)) };
-  });
-  const x0 = area.x(d0) ?? area.margin.left;
-  const x1 = area.x(d1) ?? area.margin.left + area.innerWidth;
-  return (
-    <g aria-hidden="true" pointerEvents="none">
-      <defs>
-        <linearGradient id={`thermal-${id}`} x1={x0 < x1 ? '0' : '1'} x2={x0 < x1 ? '1' : '0'} y1="0" y2="0">
-          {stops.map((s) => (
-            <stop key={s.offset} offset={s.offset} stopColor={s.color} />
-          ))}
-        </linearGradient>
-      </defs>
-      <rect x={Math.min(x0, x1)} y={area.margin.top - 7} width={Math.abs(x1 - x0)} height={4} rx={1} fill={`url(#thermal-${id})`} />
     </g>
   );
 }

@@ -92,16 +92,35 @@ function PointGlyph({ x, y, datum }: GlyphProps<Datum>) {
 }
 
 /** Round °C tick values that fall inside a 1000/T domain, for the secondary top axis. */
-function celsiusTicks(xDomain: [number, number]): number[] {
+/** Least room between two °C labels on the top axis, in pixels (a label such as "−100" is about 28 px wide). */
+const MIN_TICK_GAP = 36;
+
+/**
+ * Round °C ticks for the top axis, as 1000/T positions. Equal steps in °C bunch up towards the warm end of a
+ * 1/T axis, so the step is the finest (at most 7 ticks) whose closest pair of labels still has room on this
+ * plot's width; no two labels overprint. Should even the coarsest step be too close, ticks are dropped.
+ */
+export function celsiusTicks(xDomain: [number, number], innerWidth: number): number[] {
   const kA = 1000 / xDomain[1];
   const kB = 1000 / xDomain[0];
   const cLo = Math.min(kA, kB) - CELSIUS_OFFSET;
   const cHi = Math.max(kA, kB) - CELSIUS_OFFSET;
   const span = cHi - cLo;
-  const step = [5, 10, 20, 25, 50, 100, 200].find((s) => span / s <= 7) ?? 500;
-  const ticks: number[] = [];
-  for (let c = Math.ceil(cLo / step) * step; c <= cHi; c += step) ticks.push(c);
-  return ticks.map((c) => invT(c + CELSIUS_OFFSET));
+  const pxPerUnit = innerWidth / Math.abs(xDomain[1] - xDomain[0] || 1);
+  const ticksFor = (step: number) => {
+    const positions: number[] = [];
+    for (let c = Math.ceil(cLo / step) * step; c <= cHi; c += step) positions.push(invT(c + CELSIUS_OFFSET));
+    return positions.sort((p, q) => p - q);
+  };
+  const roomy = (positions: number[]) => positions.every((x, i) => i === 0 || (x - positions[i - 1]) * pxPerUnit >= MIN_TICK_GAP);
+  const steps = [5, 10, 20, 25, 50, 100, 200, 500].filter((s) => span / s <= 7);
+  for (const step of steps) {
+    const positions = ticksFor(step);
+    if (roomy(positions)) return positions;
+  }
+  const kept: number[] = [];
+  for (const x of ticksFor(steps[steps.length - 1] ?? 500)) if (kept.length === 0 || (x - kept[kept.length - 1]) * pxPerUnit >= MIN_TICK_GAP) kept.push(x);
+  return kept;
 }
 
 const STATUS_TEXT: Record<EyringPlotPoint['status'], string> = {
@@ -169,7 +188,8 @@ export function EyringPlot({
       ),
     [points, curve, branchData],
   );
-  const topTicks = useMemo(() => celsiusTicks(xDomain), [xDomain]);
+  // Inner width: the chart less its left (70) and right (20) margins.
+  const topTicks = useMemo(() => celsiusTicks(xDomain, Math.max(1, chartWidth - 90)), [xDomain, chartWidth]);
   const levelText = `${fixed(confidenceLevel * 100, 0)} %`;
 
   return (

@@ -1,7 +1,7 @@
 import { useMemo } from 'react';
 import { AreaSeries, Axis, GlyphSeries, Grid, LineSeries, Tooltip, XYChart, type GlyphProps } from '@visx/xychart';
 import { fixed } from '../../lib/format';
-import { CelsiusAxis, ThermalStrip } from './chart-layers';
+import { CelsiusAxis } from './chart-layers';
 import { axisLabelProps, chartColors, chartTheme, paddedExtent, tickLabelProps } from './chart-theme';
 import { LegendItem } from './eyring-plot';
 import { useElementWidth } from './use-element-width';
@@ -115,7 +115,6 @@ export function LineChart({
             accessibilityLabel={title}
           >
             <Grid columns={false} numTicks={5} lineStyle={{ stroke: chartColors.grid }} />
-            <ThermalStrip toCelsius={(x) => x} />
             {shown.map((s, i) => {
               const { color, dash, shape } = style(i);
               const data: Datum[] = s.points.map((p) => ({ ...p, series: s.label }));

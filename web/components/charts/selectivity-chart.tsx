@@ -1,7 +1,7 @@
-import { useId, useMemo } from 'react';
+import { useMemo } from 'react';
 import { AreaSeries, Axis, GlyphSeries, Grid, LineSeries, Tooltip, XYChart, type GlyphProps } from '@visx/xychart';
 import { enantiomericRatio, fixed, percent } from '../../lib/format';
-import { CelsiusAxis, HorizontalRule, ThermalStrip, VerticalMark } from './chart-layers';
+import { CelsiusAxis, HorizontalRule, VerticalMark } from './chart-layers';
 import { axisLabelProps, chartColors, chartTheme, paddedExtent, tickLabelProps } from './chart-theme';
 import { LegendItem } from './eyring-plot';
 import { useElementWidth } from './use-element-width';
@@ -95,7 +95,6 @@ export function SelectivityChart({
 }: SelectivityChartProps) {
   const [ref, measured] = useElementWidth<HTMLDivElement>();
   const chartWidth = width ?? measured;
-  const legendGradient = `legend-thermal-${useId().replace(/:/g, '')}`;
   // For diastereomers the share axis is % major, the larger share whichever isomer it is.
   const fold = family === 'dr' && measure === 'percentA';
   const pick = (v: { eePercent: number; percentA: number }) => (measure === 'ee' ? v.eePercent : fold ? majorShare(v.percentA) : v.percentA);
@@ -142,7 +141,6 @@ export function SelectivityChart({
             accessibilityLabel={title}
           >
             <Grid columns={false} numTicks={6} lineStyle={{ stroke: chartColors.grid }} />
-            <ThermalStrip toCelsius={(x) => x} />
             {band.length > 1 && (
               <AreaSeries
                 dataKey="band"
@@ -238,16 +236,6 @@ export function SelectivityChart({
               <line x1="1" x2="15" y1="8" y2="8" stroke={chartColors.caution} strokeWidth="1.5" strokeDasharray="4 2" />
             </LegendItem>
           )}
-          <LegendItem label="strip: cold → warm">
-            <rect x="1" y="6" width="14" height="4" fill={`url(#${legendGradient})`} />
-            <defs>
-              <linearGradient id={legendGradient}>
-                <stop offset="0" stopColor="#2c5aa0" />
-                <stop offset="0.5" stopColor="#9a9a7a" />
-                <stop offset="1" stopColor="#b4452c" />
-              </linearGradient>
-            </defs>
-          </LegendItem>
         </ul>
       </figcaption>
     </figure>

@@ -1,6 +1,7 @@
 import { useId, type ReactNode } from 'react';
 import { ApiError, type FieldError } from '../../../lib/api-client';
 import { messagesFor } from '../lib/field-errors';
+import { SignConvention } from '../../../components/ui/sign-convention';
 
 export const inputClass =
   'tnum rounded border border-slate-300 bg-white px-2 py-1 text-sm text-ink-950 aria-[invalid=true]:border-red-600 aria-[invalid=true]:bg-red-50';
@@ -180,14 +181,9 @@ export function ProblemAlert({ title, detail, errors = [] }: { title: string; de
   );
 }
 
-/** The sign convention, stated next to every ΔΔH‡/ΔΔS‡. */
+/** The sign convention: stated once per page, with a help popover (see components/ui/sign-convention). */
 export function ConventionNote({ className = '' }: { className?: string }) {
-  return (
-    <p className={`text-xs text-ink-600 ${className}`}>
-      <span className="font-medium text-ink-800">Sign convention:</span> ΔΔX‡ = X‡(TS→B) − X‡(TS→A), B minus A; a positive ΔΔG‡ or ΔΔH‡
-      favours A, and r = [A]/[B]. Much of the literature uses the opposite sign.
-    </p>
-  );
+  return <SignConvention className={className} />;
 }
 
 /**

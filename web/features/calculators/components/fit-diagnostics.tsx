@@ -1,8 +1,8 @@
 import type { FitResponse } from '../../../../api/features/compute/schemas';
 import { TableHead } from '../../../components/ui/table-head';
 import type { EyringBranchLine } from '../../../components/charts/eyring-plot';
-import { fixed, percent, sig, withUncertainty } from '../../../lib/format';
-import { celsiusFromKelvin, eeFromLnRatio } from '../../../../api/science/quantities';
+import { fixed, measureColumn, sig, withUncertainty } from '../../../lib/format';
+import { celsiusFromKelvin } from '../../../../api/science/quantities';
 
 const FLAG_TEXT: Record<string, string> = {
   outlier: 'outlier (|studentized residual| > 3)',
@@ -31,13 +31,21 @@ export function ResidualTable({
   lines,
   excludedLines,
   onToggleExclude,
+  assaySd = null,
 }: {
   fit: FitResponse;
+  /** SD of one assay result in % ee (when the screen gave ee with SDs): sets the decimals of the ee column. */
+  assaySd?: number | null;
   /** Paste-box line number of each measurement, by index. */
   lines: number[];
   excludedLines: number[];
   onToggleExclude: (line: number) => void;
 }) {
+  const eeCell = measureColumn(
+    'ee',
+    fit.residuals.map((r) => r.lnRatio),
+    assaySd,
+  );
   return (
     <div className="overflow-auto rounded border border-slate-200">
       <table className="tnum w-full border-collapse text-right text-sm">
@@ -63,7 +71,7 @@ export function ResidualTable({
               <tr key={r.index} className={`border-b border-slate-100 last:border-0 ${flagged ? 'bg-caution-50' : ''}`}>
                 <td className="px-2 py-1 text-left text-ink-600">{line ?? r.index + 1}</td>
                 <td className="px-2 py-1">{fixed(celsiusFromKelvin(r.kelvin), 1)}</td>
-                <td className="px-2 py-1">{percent(eeFromLnRatio(r.lnRatio))}</td>
+                <td className="px-2 py-1">{eeCell(r.lnRatio)}</td>
                 <td className="px-2 py-1">{fixed(r.lnRatio, 3)}</td>
                 <td className="px-2 py-1">{r.residual === null ? '—' : fixed(r.residual, 3)}</td>
                 <td className="px-2 py-1">{r.studentizedInternal == null ? '—' : fixed(r.studentizedInternal, 2)}</td>

@@ -3,6 +3,7 @@ import type { FitRequestInput, FitResponse } from '../../../../api/features/comp
 import { EyringPlot, type EyringCurvePoint, type EyringPlotPoint } from '../../../components/charts/eyring-plot';
 import { SelectivityChart, type SelectivityCurvePoint } from '../../../components/charts/selectivity-chart';
 import { Panel } from '../../../components/ui/page';
+import { sameInputs, StaleResult, useLastDefined, worthRetrying, type StaleReason } from '../../../components/ui/stale';
 import { ApiError, type FieldError } from '../../../lib/api-client';
 import { fixed } from '../../../lib/format';
 import { useFit } from '../api/post-fit';
@@ -34,6 +35,18 @@ interface Submitted {
   rows: ScreenRow[];
   measure: SelectivityMeasure;
   hasProposed: boolean;
+  /** The form as it stood when sent, to tell when the result on screen no longer matches it. */
+  inputs: FitInputs;
+}
+
+interface FitInputs {
+  text: string;
+  unit: TemperatureUnit;
+  measure: SelectivityMeasure;
+  weighting: 'none' | 'uncertainty';
+  uncertaintyScale: 'absolute' | 'relative';
+  proposedText: string;
+  newRunText: string;
 }
 
 function numberOrNull(text: string): number | null | 'invalid' {
@@ -44,6 +57,14 @@ function numberOrNull(text: string): number | null | 'invalid' {
 /** An interval in ln r: the API's own lnRatio ends (ratio ends are null beyond the representable range). */
 const lnOf = (iv: { lnRatio?: [number, number] | undefined; ratio: [number | null, number | null] } | undefined | null): [number, number] | null =>
   iv ? (iv.lnRatio ?? [Math.log(iv.ratio[0] ?? 0), Math.log(iv.ratio[1] ?? Infinity)]) : null;
+
+/** The median SD of the pasted runs that carry one (the assay precision), or null. */
+function medianUncertainty(rows: ScreenRow[]): number | null {
+  const sds = rows.map((r) => r.uncertainty).filter((u): u is number => typeof u === 'number' && u > 0).sort((a, b) => a - b);
+  if (sds.length === 0) return null;
+  const mid = Math.floor(sds.length / 2);
+  return sds.length % 2 ? sds[mid] : (sds[mid - 1] + sds[mid]) / 2;
+}
 
 /** Split the API's field errors: those on a measurement go to its pasted line, the rest to the form. */
 function mapFitErrors(
@@ -90,6 +111,7 @@ export function FitPanel() {
   const apiErrors = query.error instanceof ApiError ? query.error.fieldErrors : [];
   const mapped = mapFitErrors(apiErrors, submitted);
   const proposed = numberOrNull(proposedText);
+  const inputs: FitInputs = { text, unit, measure, weighting, uncertaintyScale, proposedText, newRunText };
 
   const send = (excluded: number[]) => {
     setFormProblem(null);
@@ -112,7 +134,7 @@ export function FitPanel() {
     }
     const settings = { measure, unit, weighting, uncertaintyScale, proposed, excludedLines: excluded };
     const request = { ...buildFitRequest(parsed.rows, settings), ...(newRun === null ? {} : { newRunUncertainty: newRun }) };
-    setSubmitted({ request, rows: parsed.rows, measure, hasProposed: proposed !== null });
+    setSubmitted({ request, rows: parsed.rows, measure, hasProposed: proposed !== null, inputs });
   };
 
   const toggleExclude = (line: number) => {
@@ -129,8 +151,22 @@ export function FitPanel() {
     setExcludedLines([]);
   };
 
-  const fit = query.data;
-  const view = useMemo(() => (fit && submitted ? buildView(fit, submitted) : null), [fit, submitted]);
+  // The fit on screen and the request it answers; it stays (greyed, labelled) after a failed request or an edit.
+  const answered = useMemo(
+    () => (query.data && !query.isPlaceholderData && submitted ? { fit: query.data, submitted } : null),
+    [query.data, query.isPlaceholderData, submitted],
+  );
+  const shown = useLastDefined(answered);
+  const fit = shown?.fit;
+  const view = useMemo(() => (shown ? buildView(shown.fit, shown.submitted) : null), [shown]);
+  const reason: StaleReason | null =
+    query.isError && !query.data
+      ? 'failed'
+      : query.isFetching
+        ? 'updating'
+        : shown && !sameInputs(inputs, shown.submitted.inputs)
+          ? 'changed'
+          : null;
 
   return (
     <Panel title="Fit a temperature screen (Eyring plot)">
@@ -234,8 +270,14 @@ export function FitPanel() {
                 : 'Paste a screen (or load the invented example), then press Fit screen.'}
             </p>
           )}
-          {fit && view && submitted && (
-            <div className={`flex flex-col gap-4 ${query.isPlaceholderData ? 'opacity-60' : ''}`}>
+          {fit && view && shown && (
+            <StaleResult
+              reason={reason}
+              action="Fit screen"
+              onRetry={worthRetrying(query.error) ? () => void query.refetch() : undefined}
+              retrying={query.isFetching}
+              className="gap-4"
+            >
               <EyringPlot
                 title="Eyring plot of the screen: ln r against 1000/T with the fitted line and bands"
                 points={view.points}
@@ -260,7 +302,7 @@ export function FitPanel() {
                 <PredictionBox
                   prediction={view.proposed}
                   confidence={fit.confidence}
-                  measure={submitted?.measure ?? measure}
+                  measure={shown.submitted.measure}
                 />
               ) : (
                 <p className="text-sm text-ink-500">Enter a proposed temperature to get a prediction with its interval.</p>
@@ -275,14 +317,14 @@ export function FitPanel() {
                   onMeasure={setChartMeasure}
                   spec={specText}
                   onSpec={setSpecText}
-                  family={submitted?.measure ?? measure}
+                  family={shown.submitted.measure}
                 />
                 <SelectivityChart
                   title="Fitted selectivity against temperature with the prediction band"
                   curve={view.selectivityCurve}
                   points={view.selectivityPoints}
                   measure={chartMeasure}
-                  family={submitted?.measure ?? measure}
+                  family={shown.submitted.measure}
                   spec={parseSpec(specText)}
                   curveLabel="fitted line"
                   bandLabel={`${fixed(fit.confidence * 100, 0)} % prediction band (new run)`}
@@ -294,7 +336,8 @@ export function FitPanel() {
                 <h3 className="text-sm font-semibold text-ink-900">Runs and residuals</h3>
                 <ResidualTable
                   fit={fit}
-                  lines={submitted.rows.map((r) => r.line)}
+                  lines={shown.submitted.rows.map((r) => r.line)}
+                  assaySd={shown.submitted.measure === 'ee' ? medianUncertainty(shown.submitted.rows) : null}
                   excludedLines={excludedLines}
                   onToggleExclude={toggleExclude}
                 />
@@ -302,8 +345,7 @@ export function FitPanel() {
                   Excluding a run refits at once; the run stays on the plot as a hollow circle. Note why you excluded it in your records.
                 </p>
               </div>
-              <p className="text-xs text-ink-600">{fit.convention}</p>
-            </div>
+            </StaleResult>
           )}
         </div>
       </div>

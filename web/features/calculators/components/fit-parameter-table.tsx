@@ -1,6 +1,5 @@
 import type { FitResponse } from '../../../../api/features/compute/schemas';
 import { decimalsFor, fixed, signed, withUncertainty } from '../../../lib/format';
-import { ConventionNote } from './fields';
 import { FitModelNotes } from './fit-model-notes';
 import { celsiusFromKelvin } from '../../../../api/science/quantities';
 
@@ -77,7 +76,6 @@ export function FitParameterTable({ fit }: { fit: FitResponse }) {
         ΔΔH‡ and ΔΔS‡ are estimated together and are strongly correlated; their SEs are not independent, so every derived value above and
         every band uses the full covariance.
       </p>
-      <ConventionNote />
     </div>
   );
 }

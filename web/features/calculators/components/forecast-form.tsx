@@ -4,7 +4,6 @@ import { signed } from '../../../lib/format';
 import { signedGap, type ForecastFormState } from '../lib/forecast-form';
 import {
   buttonClass,
-  ConventionNote,
   energyUnitOptions,
   entropyUnitOptions,
   measureOptions,
@@ -178,7 +177,6 @@ export function ForecastForm({
           }
         />
       </div>
-      <ConventionNote />
 
       <fieldset className="flex flex-wrap items-start gap-3 border-t border-slate-200 pt-3">
         <legend className="sr-only">Temperature range</legend>

@@ -3,6 +3,7 @@ import { Link } from 'react-router-dom';
 import { Panel } from '../../../components/ui/page';
 import { paths } from '../../../config/paths';
 import { SafetyCaution } from '../../../components/ui/caution';
+import { sameInputs, StaleResult, useLastDefined, worthRetrying, type StaleReason } from '../../../components/ui/stale';
 import { SelectivityChart } from '../../../components/charts/selectivity-chart';
 import { ApiError, type FieldError } from '../../../lib/api-client';
 import { fixed } from '../../../lib/format';
@@ -19,6 +20,7 @@ import type { ForecastRequest } from '../../../../api/features/compute/schemas';
 export function ForecastPanel() {
   const [form, setForm] = useState<ForecastFormState>(initialForecastForm);
   const [request, setRequest] = useState<ForecastRequest | null>(null);
+  const [submittedForm, setSubmittedForm] = useState<ForecastFormState | null>(null);
   const [clientErrors, setClientErrors] = useState<FieldError[]>([]);
   const [measure, setMeasure] = useState<'ee' | 'percentA'>('ee');
   const [specText, setSpecText] = useState('99');
@@ -28,14 +30,26 @@ export function ForecastPanel() {
   const errors = clientErrors.length ? clientErrors : serverErrors;
   const leftover = unmatchedErrors(errors, forecastFieldPaths);
   const spec = parseSpec(specText);
-  const data = query.data;
+  // The last answer stays on screen, greyed and labelled, after a failed request or an edit.
+  const data = useLastDefined(query.data);
+  const reason: StaleReason | null =
+    query.isError && !query.data
+      ? 'failed'
+      : query.isPlaceholderData
+        ? 'updating'
+        : submittedForm && !sameInputs(form, submittedForm)
+          ? 'changed'
+          : null;
   const celsiusShown = data ? data.points.map((p) => p.celsius) : [];
   const range = celsiusShown.length ? [Math.min(...celsiusShown), Math.max(...celsiusShown)] : null;
 
   const submit = () => {
     const { request: next, errors: found } = toForecastRequest(form);
     setClientErrors(found);
-    if (next) setRequest(next);
+    if (next) {
+      setRequest(next);
+      setSubmittedForm(form);
+    }
   };
 
   return (
@@ -73,16 +87,19 @@ export function ForecastPanel() {
             </p>
           )}
           {data && (
-            <>
+            <StaleResult
+              reason={reason}
+              action="Forecast"
+              onRetry={worthRetrying(query.error) ? () => void query.refetch() : undefined}
+              retrying={query.isFetching}
+            >
               <ChartControls name="forecast" measure={measure} onMeasure={setMeasure} spec={specText} onSpec={setSpecText} />
-              <div className={query.isPlaceholderData ? 'opacity-60' : ''}>
-                <SelectivityChart
-                  title={`Forecast ${measure === 'ee' ? 'ee' : '% A'} against temperature`}
-                  curve={data.points}
-                  measure={measure}
-                  spec={spec}
-                />
-              </div>
+              <SelectivityChart
+                title={`Forecast ${measure === 'ee' ? 'ee' : '% A'} against temperature`}
+                curve={data.points}
+                measure={measure}
+                spec={spec}
+              />
               {data.zeroSelectivity && (
                 <p className="tnum rounded border border-slate-200 bg-slate-50 px-3 py-2 text-sm text-ink-800">
                   <span className="font-medium">Selectivity vanishes</span> at {fixed(data.zeroSelectivity.celsius, 0)} °C (
@@ -104,9 +121,8 @@ export function ForecastPanel() {
                   </ul>
                 </div>
               )}
-              <p className="text-xs text-ink-600">{data.convention}</p>
               <SafetyCaution />
-            </>
+            </StaleResult>
           )}
         </div>
       </div>

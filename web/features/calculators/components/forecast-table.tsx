@@ -1,11 +1,14 @@
 import type { ForecastResponse } from '../../../../api/features/compute/schemas';
 import { TemperatureCells } from '../../../components/charts/temperature-swatch';
-import { enantiomericRatio, fixed, percent, sig } from '../../../lib/format';
+import { fixed, percentColumn, sig } from '../../../lib/format';
 
 type Point = ForecastResponse['points'][number];
 
 /** The forecast as a table: one row per temperature, optional check against a specification. */
 export function ForecastTable({ points, spec }: { points: Point[]; spec?: { value: number; measure: 'ee' | 'percentA' } | null }) {
+  // One number of decimals per column (raised near 100 %), so the figures line up.
+  const eeCell = percentColumn(points.map((p) => p.eePercent));
+  const shareCell = percentColumn(points.map((p) => p.percentA));
   const beyondAssay = points.some((p) => Math.abs(p.eePercent) > 99.8);
   return (
     <div className="flex flex-col gap-1">
@@ -55,9 +58,9 @@ export function ForecastTable({ points, spec }: { points: Point[]; spec?: { valu
                 <tr key={p.kelvin} className="border-b border-slate-100 last:border-0 hover:bg-slate-50">
                   <TemperatureCells celsius={p.celsius} />
                   <td className="px-2 py-1 text-ink-600">{fixed(p.kelvin, 2)}</td>
-                  <td className="px-2 py-1 font-medium text-ink-950">{percent(p.eePercent)}</td>
-                  <td className="px-2 py-1">{percent(p.percentA)}</td>
-                  <td className="px-2 py-1">{enantiomericRatio(p.percentA)}</td>
+                  <td className="px-2 py-1 font-medium text-ink-950">{eeCell(p.eePercent)}</td>
+                  <td className="px-2 py-1">{shareCell(p.percentA)}</td>
+                  <td className="px-2 py-1">{`${shareCell(p.percentA)}:${shareCell(100 - p.percentA)}`}</td>
                   <td className="px-2 py-1">{sig(p.ratio, 3)}</td>
                   <td className="px-2 py-1">{fixed(p.ddG['kJ/mol'], 2)}</td>
                   <td className="px-2 py-1">{fixed(p.ddG['kcal/mol'], 2)}</td>

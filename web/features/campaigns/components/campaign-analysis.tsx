@@ -2,8 +2,8 @@ import { useMemo, useState } from 'react';
 import { TableHead } from '../../../components/ui/table-head';
 import { EyringPlot, type EyringCurvePoint, type EyringPlotPoint } from '../../../components/charts/eyring-plot';
 import { SelectivityChart, type SelectivityCurvePoint, type SelectivityMeasuredPoint } from '../../../components/charts/selectivity-chart';
-import { SafetyCaution } from '../../../components/ui/caution';
-import { fixed, percent, withUncertainty, lnRatioOf, lnRatioRange } from '../../../lib/format';
+import { SignConvention } from '../../../components/ui/sign-convention';
+import { fixed, measureColumn, percent, withUncertainty, lnRatioOf, lnRatioRange } from '../../../lib/format';
 import { ChartControls, parseSpec } from '../../calculators/components/chart-controls';
 import { FitWarnings, RunNote, TwoBranchBox, branchLines } from '../../calculators/components/fit-diagnostics';
 import { FitParameterTable } from '../../calculators/components/fit-parameter-table';
@@ -64,9 +64,12 @@ export function CampaignAnalysis({
   stale,
   measure = 'ee',
   specification = null,
+  assaySd = null,
 }: {
   analysis: AnalysisResponse;
   measurements: Measurement[];
+  /** SD of one assay result in the unit of the percentage columns: sets their decimals. */
+  assaySd?: number | null;
   /** A newer answer is on its way (the old one stays on screen, dimmed). */
   stale: boolean;
   /** The campaign's measure: a dr campaign is shown in dr, % de and % major, never ee. */
@@ -146,6 +149,7 @@ export function CampaignAnalysis({
             </p>
           )}
           <FitParameterTable fit={fit} />
+          <SignConvention />
           {at ? (
             <DdGAt prediction={at} confidence={fit.confidence} measure={measure} />
           ) : (
@@ -163,14 +167,13 @@ export function CampaignAnalysis({
             Specification: {specificationText(specification, measure)}. Each run below says whether it meets it.
           </p>
         )}
-        <ResidualDiagnostics analysis={analysis} measurements={measurements} measure={measure} specification={specification} />
+        <ResidualDiagnostics analysis={analysis} measurements={measurements} measure={measure} specification={specification} assaySd={assaySd} />
         <p className="text-xs text-ink-600">
           Residuals are in ln r (measured − fitted). A run is flagged (⚑, ringed on the plot) when its studentized residual exceeds 3 in size,
           its leverage is high or its Cook’s distance exceeds 1, and only when at least 3 residual degrees of freedom leave room to tell an
           odd run from scatter. A flag asks for a second look at the run’s record; it is not by itself a reason to exclude the run.
         </p>
       </section>
-      <SafetyCaution compact />
     </div>
   );
 }
@@ -218,14 +221,21 @@ function ResidualDiagnostics({
   measurements,
   measure,
   specification,
+  assaySd,
 }: {
   analysis: AnalysisResponse;
   measurements: Measurement[];
   measure: SelectivityMeasure;
   specification: StoredSpecification | null;
+  assaySd: number | null;
 }) {
   const primary = DISPLAY_MEASURES[measure][0];
   const specLn = specification ? specificationLn(specification) : null;
+  const selectivityCell = measureColumn(
+    primary,
+    analysis.points.map((p) => p.lnRatio),
+    assaySd,
+  );
   const byId = new Map(measurements.map((m) => [m.id, m]));
   const residuals = analysis.fit?.residuals ?? [];
   return (
@@ -261,7 +271,7 @@ function ResidualDiagnostics({
                 <td className="px-2 py-0.5">{fixed(p.kelvin - CELSIUS, 1)}</td>
                 <td className="px-2 py-0.5">
                   {p.status === 'censored' ? '≥ ' : ''}
-                  {primary === 'ee' ? percent(p.eePercent) : formatMeasure(primary, p.lnRatio).replace(/ %$/, '')}
+                  {selectivityCell(p.lnRatio)}
                 </td>
                 <td className="px-2 py-0.5">{fixed(p.lnRatio, 3)}</td>
                 <td className="px-2 py-0.5">{r?.residual == null ? '—' : fixed(r.residual, 3)}</td>

@@ -1,22 +1,24 @@
-import { useId, useState } from 'react';
+import { useId, useMemo, useState } from 'react';
 import { savedForecastCreateSchema, type TemperatureUnit } from '../../../../api/features/campaigns/schemas';
 import { SafetyCaution } from '../../../components/ui/caution';
 import { Button } from '../../../components/ui/form';
+import { StaleResult, useLastDefined, type StaleReason } from '../../../components/ui/stale';
 import { ApiError } from '../../../lib/api-client';
-import { enantiomericRatio, fixed, percent, sig, lnRatioOf, lnRatioRange } from '../../../lib/format';
+import { enantiomericRatio, fixed, measureColumn, percent, sig, lnRatioOf, lnRatioRange } from '../../../lib/format';
 import { PredictionBox } from '../../calculators/components/prediction-box';
 import { useDeleteForecast, useForecasts, useSaveForecast } from '../api/forecasts';
-import type { AnalysisResponse, SavedForecastView } from '../api/types';
+import type { AnalysisResponse, FitPrediction, SavedForecastView } from '../api/types';
 import { kelvinTo, parseNumber } from '../lib/grid';
 import {
   DISPLAY_MEASURES,
+  DISPLAY_UNIT,
   displayHeading,
   formatDisplay,
-  formatMeasure,
   formatMeasureRange,
   fromKelvin,
   TEMPERATURE_UNIT_LABEL as UNIT_TEXT,
   toKelvin,
+  type DisplayMeasure,
   type SelectivityMeasure,
 } from '../../../../api/science/quantities';
 
@@ -47,9 +49,16 @@ export function ForecastPanel({
   weighting,
   canEdit,
   measure = 'ee',
+  failed = false,
+  onRetry,
+  retrying = false,
 }: {
   campaignId: string;
   analysis: AnalysisResponse | undefined;
+  /** The page's analysis request failed: the last forecast stays, greyed and labelled, with a retry. */
+  failed?: boolean;
+  onRetry?: () => void;
+  retrying?: boolean;
   atCelsius: number | null;
   onAt: (celsius: number | null) => void;
   weighting: 'none' | 'uncertainty';
@@ -90,6 +99,21 @@ export function ForecastPanel({
   const prediction = analysis?.at ?? null;
   const fit = analysis?.fit ?? null;
   const showing = prediction && atCelsius !== null && Math.abs(prediction.celsius - atCelsius) < 1e-6;
+  // The forecast on screen: the current one, or the last one while the next is computed or after a failure.
+  const current = useMemo(() => (fit && showing && prediction ? { prediction, confidence: fit.confidence } : null), [fit, showing, prediction]);
+  const last = useLastDefined(current);
+  const shown = atCelsius === null ? null : last;
+  const typed = parseNumber(text);
+  const typedCelsius = typeof typed === 'number' ? toCelsius(typed, unit) : null;
+  const reason: StaleReason | null = !shown
+    ? null
+    : failed
+      ? 'failed'
+      : !current
+        ? 'updating'
+        : typedCelsius === null || Math.abs(typedCelsius - shown.prediction.celsius) > 1e-6
+          ? 'changed'
+          : null;
 
   const doSave = () => {
     if (!prediction) return;
@@ -173,7 +197,7 @@ export function ForecastPanel({
         )}
       </form>
 
-      {!fit && (
+      {!fit && !shown && (
         <p className="text-sm text-ink-600">
           {/* Without an answer the analysis is loading or failed (said beside the result); never blame missing runs then. */}
           {analysis ? `A forecast needs a fit: ${analysis.problem?.message ?? 'add measurements first.'}` : 'A forecast needs the fit, which is not available right now (see the result above).'}
@@ -182,21 +206,11 @@ export function ForecastPanel({
       {fit && !showing && atCelsius === null && (
         <p className="text-sm text-ink-600">Type a temperature to get {predictedWords(measure)} with the 95 % prediction interval for one new run.</p>
       )}
-      {fit && atCelsius !== null && !showing && <p className="text-sm text-ink-600">Computing…</p>}
-      {fit && showing && prediction && (
-        <>
-          <PredictionBox prediction={prediction} confidence={fit.confidence} measure={measure} />
-          <p className="tnum text-sm text-ink-700">
-            Predicted ratio r = [A]/[B] = <span className="font-medium text-ink-950">{ratioText(prediction.ratio)}</span>
-            {prediction.predictionInterval && (
-              <>
-                {' '}
-                (95 % PI {ratioText(prediction.predictionInterval.ratio[0])} to {ratioText(prediction.predictionInterval.ratio[1])})
-              </>
-            )}
-            {measure === 'ee' || measure === 'er' ? `, er ${enantiomericRatio(prediction.percentA)}` : ''}.
-          </p>
-          {canEdit && (
+      {fit && atCelsius !== null && !shown && <p className="text-sm text-ink-600">Computing…</p>}
+      {shown && (
+        <StaleResult reason={reason} action="Forecast" onRetry={onRetry} retrying={retrying}>
+          <ForecastResult prediction={shown.prediction} confidence={shown.confidence} measure={measure} />
+          {canEdit && reason === null && (
             <form
               noValidate
               aria-label="Save this forecast"
@@ -209,7 +223,7 @@ export function ForecastPanel({
               <SmallField label="Label (optional)" value={label} onChange={setLabel} error={saveErrors.label} width="w-48" />
               <SmallField label="Note" value={notes} onChange={setNotes} error={saveErrors.notes} width="w-80" />
               <Button type="submit" disabled={save.isPending}>
-                {save.isPending ? 'Saving…' : `Save forecast at ${fixed(prediction.celsius, 1)} °C`}
+                {save.isPending ? 'Saving…' : `Save forecast at ${fixed(shown.prediction.celsius, 1)} °C`}
               </Button>
               {saveErrors.temperature && <p className="w-full text-xs text-rose-700">✕ {saveErrors.temperature}</p>}
               {save.error && !(save.error instanceof ApiError && save.error.fieldErrors.length) && (
@@ -224,10 +238,36 @@ export function ForecastPanel({
               )}
             </form>
           )}
-        </>
+        </StaleResult>
       )}
     </div>
   );
+}
+
+/** The prediction at the proposed temperature, with r and (for enantiomers) er. */
+function ForecastResult({ prediction, confidence, measure }: { prediction: FitPrediction; confidence: number; measure: SelectivityMeasure }) {
+  return (
+    <>
+      <PredictionBox prediction={prediction} confidence={confidence} measure={measure} />
+      <p className="tnum text-sm text-ink-700">
+        Predicted ratio r = [A]/[B] = <span className="font-medium text-ink-950">{ratioText(prediction.ratio)}</span>
+        {prediction.predictionInterval && (
+          <>
+            {' '}
+            (95 % PI {ratioText(prediction.predictionInterval.ratio[0])} to {ratioText(prediction.predictionInterval.ratio[1])})
+          </>
+        )}
+        {measure === 'ee' || measure === 'er' ? `, er ${enantiomericRatio(prediction.percentA)}` : ''}.
+      </p>
+    </>
+  );
+}
+
+/** An interval in a column: percentages to the column's decimals, low to high; ratios and % major as before. */
+function intervalText(display: DisplayMeasure, [a, b]: [number, number], cell: (lnR: number) => string): string {
+  if (DISPLAY_UNIT[display] !== '%' || display === 'major') return formatMeasureRange(display, a, b);
+  const [lo, hi] = a <= b ? [a, b] : [b, a];
+  return `${cell(lo)} to ${cell(hi)}`;
 }
 
 function SmallField({ label, value, onChange, error, width }: { label: string; value: string; onChange: (v: string) => void; error?: string; width: string }) {
@@ -257,10 +297,22 @@ function SmallField({ label, value, onChange, error, width }: { label: string; v
 const dateFormat = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'short' });
 
 /** Kept forecasts, each against any run measured since within ±1 K of its temperature. */
-export function SavedForecasts({ campaignId, canEdit, measure = 'ee' }: { campaignId: string; canEdit: boolean; measure?: SelectivityMeasure }) {
+export function SavedForecasts({
+  campaignId,
+  canEdit,
+  measure = 'ee',
+  assaySd = null,
+}: {
+  campaignId: string;
+  canEdit: boolean;
+  measure?: SelectivityMeasure;
+  /** SD of one assay result in the unit of the percentage columns: sets their decimals. */
+  assaySd?: number | null;
+}) {
   const [primary, secondary] = DISPLAY_MEASURES[measure];
   const forecasts = useForecasts(campaignId);
   const remove = useDeleteForecast(campaignId);
+  const columns = useMemo(() => forecastColumns(forecasts.data ?? [], measure, assaySd), [forecasts.data, measure, assaySd]);
   if (forecasts.isPending) return <p className="text-sm text-ink-500">Loading saved forecasts…</p>;
   if (forecasts.isError) return <p role="alert" className="text-sm text-rose-700">{forecasts.error.message}</p>;
   if (forecasts.data.length === 0) return <p className="text-sm text-ink-600">No saved forecasts yet.{canEdit ? ' Make a forecast above and save it with a note.' : ''}</p>;
@@ -303,6 +355,7 @@ export function SavedForecasts({ campaignId, canEdit, measure = 'ee' }: { campai
               <ForecastRow
                 key={f.id}
                 f={f}
+                columns={columns}
                 measure={measure}
                 canEdit={canEdit}
                 onDelete={() => remove.mutate(f.id)}
@@ -321,21 +374,42 @@ export function SavedForecasts({ campaignId, canEdit, measure = 'ee' }: { campai
   );
 }
 
+/** One formatter per number column, so each column shows one number of decimals (see measureColumn). */
+interface ForecastColumns {
+  forecast: (lnR: number) => string;
+  interval: (lnR: number) => string;
+  other: (lnR: number) => string;
+}
+
+function forecastColumns(forecasts: SavedForecastView[], measure: SelectivityMeasure, assaySd: number | null): ForecastColumns {
+  const [primary, secondary] = DISPLAY_MEASURES[measure];
+  const lnRs = forecasts.map((f) => lnRatioOf(f.result));
+  const ends = forecasts.flatMap((f) => (f.result.predictionInterval ? lnRatioRange(f.result.predictionInterval) : []));
+  return {
+    forecast: measureColumn(primary, lnRs, assaySd),
+    interval: measureColumn(primary, ends, assaySd),
+    // Enantiomers show % A beside ee; other pairs their second measure.
+    other: measureColumn(primary === 'ee' ? 'percentA' : secondary, lnRs, assaySd),
+  };
+}
+
 function ForecastRow({
   f,
+  columns,
   measure,
   canEdit,
   onDelete,
   deleting,
 }: {
   f: SavedForecastView;
+  columns: ForecastColumns;
   measure: SelectivityMeasure;
   canEdit: boolean;
   onDelete: () => void;
   deleting: boolean;
 }) {
   const pi = f.result.predictionInterval;
-  const [primary, secondary] = DISPLAY_MEASURES[measure];
+  const primary = DISPLAY_MEASURES[measure][0];
   const lnR = lnRatioOf(f.result);
   const enantiomers = primary === 'ee';
   return (
@@ -349,11 +423,9 @@ function ForecastRow({
         )}
         {f.result.extrapolated && <span className="block text-xs font-medium text-caution-700">⚠ extrapolated beyond the screen</span>}
       </td>
-      <td className="px-2 py-1 text-right">{enantiomers ? percent(f.result.eePercent) : formatMeasure(primary, lnR).replace(/ %$/, '')}</td>
-      <td className="px-2 py-1 text-right text-ink-700">
-        {!pi ? '—' : enantiomers ? `${percent(pi.eePercent[0])} to ${percent(pi.eePercent[1])}` : formatMeasureRange(primary, ...lnRatioRange(pi))}
-      </td>
-      <td className="px-2 py-1 text-right">{enantiomers ? percent(f.result.percentA) : formatMeasure(secondary, lnR).replace(/ %$/, '')}</td>
+      <td className="px-2 py-1 text-right">{columns.forecast(lnR)}</td>
+      <td className="px-2 py-1 text-right text-ink-700">{!pi ? '—' : intervalText(primary, lnRatioRange(pi), columns.interval)}</td>
+      <td className="px-2 py-1 text-right">{columns.other(lnR)}</td>
       <td className="px-2 py-1 text-left">
         {f.measured.length === 0 ? (
           <span className="text-ink-500">no run yet</span>

@@ -3,7 +3,7 @@ import { Link } from 'react-router-dom';
 import { SafetyCaution } from '../../../components/ui/caution';
 import { Button } from '../../../components/ui/form';
 import { paths } from '../../../config/paths';
-import { enantiomericRatio, fixed, percent, withUncertainty, lnRatioOf, lnRatioRange } from '../../../lib/format';
+import { enantiomericRatio, fixed, percentColumn, withUncertainty, lnRatioOf, lnRatioRange } from '../../../lib/format';
 import { ConventionNote } from '../../calculators/components/fields';
 import { useCampaigns } from '../api/campaigns';
 import { useComparison } from '../api/comparison';
@@ -30,8 +30,8 @@ function DdH({ c }: { c: ComparisonCampaign | undefined }) {
 const isEnantiomers = (measure: SelectivityMeasure | undefined) => measure === undefined || measure === 'ee' || measure === 'er';
 
 /** The forecast in the campaign's own measure: ee for enantiomers; dr (with its PI) for diastereomers; % A otherwise. */
-function SelectivityAt({ c, measure }: { c: ComparisonCampaign | undefined; measure: SelectivityMeasure | undefined }) {
-  if (isEnantiomers(measure)) return <EeAt c={c} />;
+function SelectivityAt({ c, measure, eeCell }: { c: ComparisonCampaign | undefined; measure: SelectivityMeasure | undefined; eeCell: EeCell }) {
+  if (isEnantiomers(measure)) return <EeAt c={c} cell={eeCell} />;
   const p = c?.prediction;
   if (!p) return <span className="text-ink-500">{c?.problem ? 'no fit' : '—'}</span>;
   const primary = DISPLAY_MEASURES[measure!][0];
@@ -45,16 +45,28 @@ function SelectivityAt({ c, measure }: { c: ComparisonCampaign | undefined; meas
   );
 }
 
-function EeAt({ c }: { c: ComparisonCampaign | undefined }) {
+type EeCell = (percent: number) => string;
+
+/**
+ * One number of decimals for every ee on show (forecasts and interval ends), from the finest assay SD among
+ * the enantiomer campaigns (see percentColumn), so the figures line up.
+ */
+function eeCellFor(shown: ComparisonCampaign[], campaigns: CampaignListItem[]): EeCell {
+  const sds = campaigns.filter((c) => c.measure === 'ee' && c.defaultUncertainty !== null).map((c) => c.defaultUncertainty as number);
+  const values = shown.flatMap((c) => (c.prediction ? [c.prediction.eePercent, ...(c.prediction.predictionInterval?.eePercent ?? [])] : []));
+  return percentColumn(values, sds.length ? Math.min(...sds) : null);
+}
+
+function EeAt({ c, cell }: { c: ComparisonCampaign | undefined; cell: EeCell }) {
   const p = c?.prediction;
   if (!p) return <span className="text-ink-500">{c?.problem ? 'no fit' : '—'}</span>;
   const pi = p.predictionInterval;
   return (
     <span>
-      <span className="font-medium text-ink-950">{percent(p.eePercent)}</span>
+      <span className="font-medium text-ink-950">{cell(p.eePercent)}</span>
       {pi && (
         <span className="block text-xs text-ink-600">
-          PI {percent(pi.eePercent[0])} to {percent(pi.eePercent[1])}
+          PI {cell(pi.eePercent[0])} to {cell(pi.eePercent[1])}
         </span>
       )}
       {p.extrapolated && <span className="block text-xs font-medium text-caution-700">⚠ extrapolated</span>}
@@ -79,6 +91,7 @@ export function ProjectCampaigns({ projectId, canEdit }: { projectId: string; ca
   if (campaigns.isError) return <p role="alert" className="text-sm text-rose-700">{campaigns.error.message}</p>;
   const list = campaigns.data;
   const chosen = picked ?? list.slice(0, 4).map((c) => c.id);
+  const eeCell = eeCellFor(comparison.data?.campaigns ?? [], list);
 
   return (
     <div className="flex flex-col gap-5">
@@ -159,6 +172,7 @@ export function ProjectCampaigns({ projectId, canEdit }: { projectId: string; ca
                     cmp={byId.get(c.id)}
                     picked={chosen.includes(c.id)}
                     onPick={(on) => setPicked(on ? [...chosen, c.id] : chosen.filter((id) => id !== c.id))}
+                    eeCell={eeCell}
                   />
                 ))}
               </tbody>
@@ -186,6 +200,7 @@ export function ProjectCampaigns({ projectId, canEdit }: { projectId: string; ca
           at={comparison.data.at}
           campaigns={comparison.data.campaigns.filter((c) => chosen.includes(c.id))}
           measures={new Map(list.map((c) => [c.id, c.measure]))}
+          eeCell={eeCellFor(comparison.data.campaigns.filter((c) => chosen.includes(c.id)), list)}
           stale={comparison.isPlaceholderData}
         />
       )}
@@ -193,7 +208,19 @@ export function ProjectCampaigns({ projectId, canEdit }: { projectId: string; ca
   );
 }
 
-function CampaignRow({ c, cmp, picked, onPick }: { c: CampaignListItem; cmp: ComparisonCampaign | undefined; picked: boolean; onPick: (on: boolean) => void }) {
+function CampaignRow({
+  c,
+  cmp,
+  picked,
+  onPick,
+  eeCell,
+}: {
+  c: CampaignListItem;
+  cmp: ComparisonCampaign | undefined;
+  picked: boolean;
+  onPick: (on: boolean) => void;
+  eeCell: EeCell;
+}) {
   const range = c.temperatureRangeK;
   return (
     <tr className="border-b border-slate-100 align-top">
@@ -224,7 +251,7 @@ function CampaignRow({ c, cmp, picked, onPick }: { c: CampaignListItem; cmp: Com
         {cmp?.breakAt && <span className="block text-xs text-ink-600">{breakText(cmp.breakAt)}</span>}
       </td>
       <td className="whitespace-nowrap py-2 pr-3 text-right">
-        <SelectivityAt c={cmp} measure={c.measure} />
+        <SelectivityAt c={cmp} measure={c.measure} eeCell={eeCell} />
       </td>
       <td className="py-2">
         <input type="checkbox" checked={picked} onChange={(e) => onPick(e.target.checked)} aria-label={`Compare ${c.title} side by side`} />
@@ -242,11 +269,13 @@ function Comparison({
   at,
   campaigns,
   measures,
+  eeCell,
   stale,
 }: {
   at: { kelvin: number; celsius: number };
   campaigns: ComparisonCampaign[];
   measures: Map<string, SelectivityMeasure>;
+  eeCell: EeCell;
   stale: boolean;
 }) {
   // ee only for enantiomer pairs: with a dr (or % A) campaign among the columns, each column speaks its own measure.
@@ -263,11 +292,11 @@ function Comparison({
   };
   const selectivityRows: { name: string; cell: (c: ComparisonCampaign) => ReactNode }[] = allEnantiomers
     ? [
-        { name: `ee at ${fixed(at.celsius, 1)} °C (%)`, cell: (c) => <EeAt c={c} /> },
+        { name: `ee at ${fixed(at.celsius, 1)} °C (%)`, cell: (c) => <EeAt c={c} cell={eeCell} /> },
         { name: 'er (A:B)', cell: (c) => (c.prediction ? enantiomericRatio(c.prediction.percentA) : '—') },
       ]
     : [
-        { name: `Selectivity at ${fixed(at.celsius, 1)} °C`, cell: (c) => <SelectivityAt c={c} measure={measures.get(c.id)} /> },
+        { name: `Selectivity at ${fixed(at.celsius, 1)} °C`, cell: (c) => <SelectivityAt c={c} measure={measures.get(c.id)} eeCell={eeCell} /> },
         { name: 'Also as', cell: also },
       ];
   const rows: { name: string; cell: (c: ComparisonCampaign) => ReactNode }[] = [

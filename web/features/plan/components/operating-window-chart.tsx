@@ -1,6 +1,6 @@
 import { useId, useMemo } from 'react';
 import { Axis, Grid, LineSeries, XYChart } from '@visx/xychart';
-import { CelsiusAxis, HorizontalRule, ThermalStrip, VerticalMark, usePlotArea } from '../../../components/charts/chart-layers';
+import { CelsiusAxis, HorizontalRule, VerticalMark, usePlotArea } from '../../../components/charts/chart-layers';
 import { axisLabelProps, chartColors, chartFont, chartTheme, paddedExtent, tickLabelProps } from '../../../components/charts/chart-theme';
 import { useElementWidth } from '../../../components/charts/use-element-width';
 import { fixed, sig } from '../../../lib/format';
@@ -116,7 +116,6 @@ function WindowPanel({ title, yLabel, line, band, rule, regions, recommended, yS
             accessibilityLabel={title}
           >
             <Grid columns={false} numTicks={4} lineStyle={{ stroke: chartColors.grid }} />
-            <ThermalStrip toCelsius={(x) => x} />
             <Excluded regions={regions} labelled={labelled} />
             {band && <Band points={band} />}
             <LineSeries dataKey={testId} data={data} xAccessor={(d) => d.x} yAccessor={(d) => d.y} stroke={chartColors.accent} strokeWidth={2} />
