@@ -524,9 +524,6 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
   // Per-point results; diagnostics come from the least-squares fit of the exact runs.
   const slope = model.slope;
   const intercept = model.intercept;
-  // Position of each run in the fitted arrays (−1: not fitted); a typed array, not a Map, for 10⁶ runs.
-  const fittedIndex = new Int32Array(prepared.length).fill(-1);
-  fitted.forEach((p, i) => (fittedIndex[p.index] = i));
   const leverageLimit = (FLAG_RULES.leverageFactor * 2) / n;
   const canFlag = line.dof >= FLAG_RULES.minimumDof;
   // Residual diagnostics of fitted run k as bits (no allocation: the warnings below count them for
@@ -562,8 +559,11 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
 
   // Per-run results, built on first read: at 10⁶ runs these objects, not the fit, would dominate the
   // time and the garbage collector.
-  const materialisePoints = (): EyringPointResult[] =>
-    prepared.map((p) => {
+  const materialisePoints = (): EyringPointResult[] => {
+    // Position of each run in the fitted arrays (−1: not fitted); a typed array, not a Map, for 10⁶ runs.
+    const fittedIndex = new Int32Array(prepared.length).fill(-1);
+    for (let i = 0; i < fitted.length; i++) fittedIndex[fitted[i]!.index] = i;
+    return prepared.map((p) => {
       const m = p.measurement;
       const lineY = intercept + slope * p.x;
       const pos = fittedIndex[p.index]!;
@@ -605,6 +605,7 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
         boundConsistent: boundConsistentOf(p, lineY),
       };
     });
+  };
   let points: EyringPointResult[] | null = null;
 
   const nExcluded = prepared.filter((p) => p.status === 'excluded').length;
