@@ -106,6 +106,25 @@ export function createApp(deps: AppDeps): Express {
   app.locals.jobs = jobs;
   app.locals.startJobWorkers = () =>
     jobs.startWorkers(jobHandlers({ knex: deps.knex, mailer, version: deps.config.version, publicUrl: deps.config.publicUrl, logger }), abandonRunningJobs);
+  // Stateless calculators, mounted before sign-in: they read no user, so a call without credentials
+  // skips sessions, passport and the CSRF check (a cross-site POST changes nothing). They keep
+  // helmet, the request id, the shared text check and their rate limit, counted in memory and
+  // written to PostgreSQL once a second (no database round trip per calculation). A call that sends
+  // an Authorization header takes the signed-in path below, so a revoked token is still a 401.
+  const computeLimit = rateLimited({
+    name: 'compute',
+    points: deps.config.rateLimit.compute,
+    windowMs: deps.config.rateLimit.windowMs,
+    keyOf: (req) => ipKeyGenerator(req.ip ?? ''),
+    message: 'Too many calculations from this address; wait a few minutes.',
+    batched: true,
+  });
+  const calculatorGuards = [checkRequestText, computeLimit];
+  const calculators = Router();
+  calculators.use((req, _res, next) => next(req.headers.authorization === undefined ? undefined : 'router'));
+  calculators.use(computeRouter(calculatorGuards), kineticsRouter(calculatorGuards), planRouter(calculatorGuards));
+  app.use('/api/v1', calculators);
+
   installAuth(app, { knex: deps.knex, config: deps.config, oauth: oauthSetup(deps), logger });
   // Whatever an API route answers a signed-in caller (members lists carry e-mail addresses) stays out of caches.
   app.use('/api', (req, res, next) => {
@@ -117,16 +136,6 @@ export function createApp(deps: AppDeps): Express {
   const api = Router();
   api.use(checkRequestText);
   api.use(healthRouter({ knex: deps.knex, version: deps.config.version }));
-  // Stateless calculators first: they are the hottest routes and need no project lookups.
-  // Counted in memory and written to PostgreSQL once a second: no database round trip per calculation.
-  const computeLimit = rateLimited({
-    name: 'compute',
-    points: deps.config.rateLimit.compute,
-    windowMs: deps.config.rateLimit.windowMs,
-    keyOf: (req) => ipKeyGenerator(req.ip ?? ''),
-    message: 'Too many calculations from this address; wait a few minutes.',
-    batched: true,
-  });
   api.use('/v1', computeRouter([computeLimit]));
   api.use('/v1', kineticsRouter([computeLimit]));
   api.use('/v1', planRouter([computeLimit]));

@@ -5,9 +5,11 @@ import { spawn } from 'node:child_process';
 import { chmodSync, mkdtempSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
-import { ensureDependencies, root } from './lib/deps.mjs';
+import { ensureDependencies, ensureWebBuild, root } from './lib/deps.mjs';
 
 ensureDependencies();
+// The bundle and browser suites read the built web app.
+if (!process.argv[2] || ['bundle', 'campaign-page'].includes(process.argv[2])) ensureWebBuild();
 const { startCluster, freePort, FriendlyError, removeDir } = await import('./lib/pg.mjs');
 
 let cluster = null;

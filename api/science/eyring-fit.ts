@@ -524,69 +524,89 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
   // Per-point results; diagnostics come from the least-squares fit of the exact runs.
   const slope = model.slope;
   const intercept = model.intercept;
-  // Position of each run in the fitted arrays (−1: not fitted); a typed array, not a Map, for 10⁶ runs.
-  const fittedIndex = new Int32Array(prepared.length).fill(-1);
-  fitted.forEach((p, i) => (fittedIndex[p.index] = i));
   const leverageLimit = (FLAG_RULES.leverageFactor * 2) / n;
   const canFlag = line.dof >= FLAG_RULES.minimumDof;
+  // Residual diagnostics of fitted run k as bits (no allocation: the warnings below count them for
+  // every run, while the per-run objects are built only when read).
+  const OUTLIER = 1;
+  const HIGH_LEVERAGE = 2;
+  const INFLUENTIAL = 4;
+  const EXCUSED_BY_ASSAY = 8;
+  const diagnose = (k: number, sigmaLnR: number | undefined): number => {
+    if (!canFlag) return 0;
+    let bits = 0;
+    const ext = line.studentizedExternal[k] ?? null;
+    const cook = line.cooksDistance[k] ?? null;
+    if (ext !== null && Math.abs(ext) > FLAG_RULES.outlierStudentized) {
+      const explainedByAssay = sigmaLnR !== undefined && Math.abs(line.residuals[k]!) / sigmaLnR <= FLAG_RULES.assaySigmas;
+      bits |= explainedByAssay ? EXCUSED_BY_ASSAY : OUTLIER;
+    }
+    if (line.leverages[k]! > leverageLimit) bits |= HIGH_LEVERAGE;
+    if (cook !== null && cook > FLAG_RULES.cooksDistance) bits |= INFLUENTIAL;
+    return bits;
+  };
+  const boundConsistentOf = (p: PreparedMeasurement, lineY: number): boolean | null =>
+    p.censoredBound === 'lower' ? lineY >= p.censorPoint! : p.censoredBound === 'upper' ? lineY <= p.censorPoint! : null;
   let flagged = 0;
   let disagreeing = 0;
   let withinAssay = 0;
-  const points: EyringPointResult[] = prepared.map((p) => {
-    const m = p.measurement;
-    const lineY = intercept + slope * p.x;
-    const pos = fittedIndex[p.index]!;
-    const k = pos < 0 ? undefined : pos;
-    const flags: PointFlag[] = [];
-    let boundConsistent: boolean | null = null;
-    let reason: string | null = null;
-    let inAssaySigmas: number | null = null;
-    if (k !== undefined) {
-      const ext = line.studentizedExternal[k] ?? null;
-      const cook = line.cooksDistance[k] ?? null;
-      const e = line.residuals[k]!;
-      inAssaySigmas = m.sigmaLnR === undefined ? null : Math.abs(e) / m.sigmaLnR;
-      const explainedByAssay = inAssaySigmas !== null && inAssaySigmas <= FLAG_RULES.assaySigmas;
-      if (canFlag) {
-        if (ext !== null && Math.abs(ext) > FLAG_RULES.outlierStudentized) {
-          if (explainedByAssay) withinAssay++;
-          else flags.push('outlier');
-        }
-        if (line.leverages[k]! > leverageLimit) flags.push('high-leverage');
-        if (cook !== null && cook > FLAG_RULES.cooksDistance) flags.push('influential');
+  for (let k = 0; k < n; k++) {
+    const bits = diagnose(k, fitted[k]!.measurement.sigmaLnR);
+    if (bits & EXCUSED_BY_ASSAY) withinAssay++;
+    if (bits & (OUTLIER | HIGH_LEVERAGE | INFLUENTIAL)) flagged++;
+  }
+  for (const p of censored) if (boundConsistentOf(p, intercept + slope * p.x) === false) disagreeing++;
+
+  // Per-run results, built on first read: at 10⁶ runs these objects, not the fit, would dominate the
+  // time and the garbage collector.
+  const materialisePoints = (): EyringPointResult[] => {
+    // Position of each run in the fitted arrays (−1: not fitted); a typed array, not a Map, for 10⁶ runs.
+    const fittedIndex = new Int32Array(prepared.length).fill(-1);
+    for (let i = 0; i < fitted.length; i++) fittedIndex[fitted[i]!.index] = i;
+    return prepared.map((p) => {
+      const m = p.measurement;
+      const lineY = intercept + slope * p.x;
+      const pos = fittedIndex[p.index]!;
+      const k = pos < 0 ? undefined : pos;
+      const flags: PointFlag[] = [];
+      let reason: string | null = null;
+      let inAssaySigmas: number | null = null;
+      if (k !== undefined) {
+        const bits = diagnose(k, m.sigmaLnR);
+        if (bits & OUTLIER) flags.push('outlier');
+        if (bits & HIGH_LEVERAGE) flags.push('high-leverage');
+        if (bits & INFLUENTIAL) flags.push('influential');
+        inAssaySigmas = m.sigmaLnR === undefined ? null : Math.abs(line.residuals[k]!) / m.sigmaLnR;
+        reason = flagReason(flags, line.studentizedExternal[k] ?? null, line.leverages[k]!, leverageLimit, line.cooksDistance[k] ?? null);
       }
-      if (flags.length > 0) flagged++;
-      reason = flagReason(flags, ext, line.leverages[k]!, leverageLimit, cook);
-    }
-    if (p.censoredBound === 'lower') boundConsistent = lineY >= p.censorPoint!;
-    if (p.censoredBound === 'upper') boundConsistent = lineY <= p.censorPoint!;
-    if (boundConsistent === false) disagreeing++;
-    return {
-      index: p.index,
-      label: m.label ?? null,
-      temperatureK: m.temperatureK,
-      inverseTemperaturePerK: p.x,
-      ratio: m.ratio,
-      lnRatio: p.y,
-      eePercent: eeFromLn(p.y),
-      sigmaLnR: m.sigmaLnR ?? null,
-      status: p.status,
-      exclusionReason: p.status === 'excluded' ? (m.exclusionReason ?? null) : null,
-      lineLnRatio: lineY,
-      residual: k === undefined ? null : line.residuals[k]!,
-      leverage: k === undefined ? null : line.leverages[k]!,
-      studentizedInternal: k === undefined ? null : (line.studentizedInternal[k] ?? null),
-      studentizedExternal: k === undefined ? null : (line.studentizedExternal[k] ?? null),
-      cooksDistance: k === undefined ? null : (line.cooksDistance[k] ?? null),
-      flags,
-      flagReason: reason,
-      residualInAssaySigmas: inAssaySigmas,
-      withinAssayPrecision: inAssaySigmas === null ? null : inAssaySigmas <= FLAG_RULES.assaySigmas,
-      censoredBound: p.censoredBound,
-      censorLnRatio: p.censorPoint,
-      boundConsistent,
-    };
-  });
+      return {
+        index: p.index,
+        label: m.label ?? null,
+        temperatureK: m.temperatureK,
+        inverseTemperaturePerK: p.x,
+        ratio: m.ratio,
+        lnRatio: p.y,
+        eePercent: eeFromLn(p.y),
+        sigmaLnR: m.sigmaLnR ?? null,
+        status: p.status,
+        exclusionReason: p.status === 'excluded' ? (m.exclusionReason ?? null) : null,
+        lineLnRatio: lineY,
+        residual: k === undefined ? null : line.residuals[k]!,
+        leverage: k === undefined ? null : line.leverages[k]!,
+        studentizedInternal: k === undefined ? null : (line.studentizedInternal[k] ?? null),
+        studentizedExternal: k === undefined ? null : (line.studentizedExternal[k] ?? null),
+        cooksDistance: k === undefined ? null : (line.cooksDistance[k] ?? null),
+        flags,
+        flagReason: reason,
+        residualInAssaySigmas: inAssaySigmas,
+        withinAssayPrecision: inAssaySigmas === null ? null : inAssaySigmas <= FLAG_RULES.assaySigmas,
+        censoredBound: p.censoredBound,
+        censorLnRatio: p.censorPoint,
+        boundConsistent: boundConsistentOf(p, lineY),
+      };
+    });
+  };
+  let points: EyringPointResult[] | null = null;
 
   const nExcluded = prepared.filter((p) => p.status === 'excluded').length;
   const nCensored = censored.length;
@@ -699,7 +719,12 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
     censoredFit,
     precisionCheck,
     newRunBasis: options.newRun ? { source: 'assay', precision: options.newRun } : { source: 'screen-scatter' },
-    points,
+    get points() {
+      return (points ??= materialisePoints());
+    },
+    set points(value: EyringPointResult[]) {
+      points = value;
+    },
     predictions: [],
     warnings,
     line,

@@ -2,12 +2,16 @@
  * Campaign analysis benchmark: GET /api/v1/campaigns/:id/analysis over a campaign of 1 000 stored
  * runs, through the whole app (bearer token, authorization, load, fit, two-branch check, 60-point
  * curve, JSON). Reports p50/p99 of 200 sequential requests and req/s at 10 connections (autocannon),
- * beside the time of the analysis alone (no HTTP, no database; best of 20 after warm-up).
+ * beside the time of the analysis alone (no HTTP, no database; best of 20 after warm-up), and
+ * beside a bare Express route that selects the same rows with pg and returns them as JSON, loaded
+ * the same way (the ratio analysis req/s ÷ bare req/s is `analysisRatio`).
  *
  * Needs DATABASE_URL (npm run bench provides a throwaway cluster).
  */
 import '../../api/db/pg-types';
 import autocannon from 'autocannon';
+import express from 'express';
+import pg from 'pg';
 import type { AddressInfo } from 'node:net';
 import type { Server } from 'node:http';
 import { randomBytes } from 'node:crypto';
@@ -20,6 +24,7 @@ import { createToken } from '../../api/features/tokens/service';
 import { Campaign } from '../../api/models/campaign';
 import { Measurement } from '../../api/models/measurement';
 import type { BenchSuite } from './suites';
+import { recordFigure } from './results';
 
 const RUNS = 1000;
 const SEQUENTIAL = 200;
@@ -79,18 +84,46 @@ async function run() {
     }
     times.sort((a, b) => a - b);
 
+    // The baseline: the same rows (the columns the analysis reads, in its order) straight from pg as JSON.
+    const pool = new pg.Pool({ connectionString: process.env.DATABASE_URL!, max: 4 });
+    const bare = express();
+    bare.get('/rows/:id', async (req, res) => {
+      const { rows } = await pool.query(
+        'select id, temperature_k, measure, value, value_b, is_lower_bound, uncertainty, replicate_label, sample_id, excluded, excluded_reason from measurements where campaign_id = $1 order by temperature_k, created_at, source_row, id',
+        [req.params.id],
+      );
+      res.json(rows);
+    });
+    const bareServer = await new Promise<Server>((resolve) => {
+      const s = bare.listen(0, '127.0.0.1', () => resolve(s));
+    });
+    const bareUrl = `http://127.0.0.1:${(bareServer.address() as AddressInfo).port}/rows/${campaign.id}`;
+    const bareRows = (await (await fetch(bareUrl)).json()) as unknown[];
+    if (bareRows.length !== RUNS) throw new Error(`the bare route returned ${bareRows.length} rows`);
+
+    await autocannon({ url, connections: CONNECTIONS, duration: 2, headers });
     const load = await autocannon({ url, connections: CONNECTIONS, duration: DURATION_S, headers });
+    await autocannon({ url: bareUrl, connections: CONNECTIONS, duration: 2 });
+    const bareLoad = await autocannon({ url: bareUrl, connections: CONNECTIONS, duration: DURATION_S });
+    bareServer.close();
+    bareServer.closeAllConnections();
+    await pool.end();
     server.close();
     server.closeAllConnections();
     // autocannon stops with requests in flight; let their queries finish before the pool goes away.
-    const pool = (knex.client as { pool: { numUsed(): number; numPendingAcquires(): number } }).pool;
-    for (let waited = 0; waited < 5000 && pool.numUsed() + pool.numPendingAcquires() > 0; waited += 50) await new Promise((r) => setTimeout(r, 50));
+    const knexPool = (knex.client as { pool: { numUsed(): number; numPendingAcquires(): number } }).pool;
+    for (let waited = 0; waited < 5000 && knexPool.numUsed() + knexPool.numPendingAcquires() > 0; waited += 50) await new Promise((r) => setTimeout(r, 50));
     if (load.non2xx > 0 || load.errors > 0) throw new Error(`${load.non2xx} non-2xx answers, ${load.errors} errors under load`);
+    if (bareLoad.non2xx > 0 || bareLoad.errors > 0) throw new Error(`bare route: ${bareLoad.non2xx} non-2xx answers, ${bareLoad.errors} errors under load`);
 
     console.log(`\nCampaign analysis: GET /campaigns/:id/analysis, ${RUNS} stored runs`);
     console.log(`analysis alone (no HTTP, no DB), best of 20: ${bestCompute.toFixed(1)} ms`);
     console.log(`${SEQUENTIAL} sequential requests: p50 ${percentile(times, 50).toFixed(1)} ms, p99 ${percentile(times, 99).toFixed(1)} ms`);
     console.log(`${CONNECTIONS} connections, ${DURATION_S} s (autocannon): ${load.requests.average.toFixed(0)} req/s, p50 ${load.latency.p50} ms, p99 ${load.latency.p99} ms`);
+    console.log(
+      `bare pg route, same rows as JSON: ${bareLoad.requests.average.toFixed(0)} req/s, p50 ${bareLoad.latency.p50} ms, p99 ${bareLoad.latency.p99} ms; ratio ${(load.requests.average / bareLoad.requests.average).toFixed(2)}× (target ≥ 0.5×)`,
+    );
+    recordFigure('analysisRatio', load.requests.average / bareLoad.requests.average);
 
     await knex('projects').where({ id: project.id }).delete();
     await knex('users').where({ id: user.id }).delete();

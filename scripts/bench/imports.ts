@@ -19,6 +19,7 @@ import { importMappingSchema } from '../../api/features/campaigns/schemas';
 import { importMeasurements } from '../../api/features/imports/service';
 import { IMPORT_LIMITS } from '../../api/features/imports/parse';
 import type { BenchSuite } from './suites';
+import { recordFigure } from './results';
 
 /** A synthetic screen of `rows` rows (not demo data): ee rising on cooling with a little scatter. */
 export function syntheticScreenCsv(rows: number): Buffer {
@@ -139,6 +140,8 @@ export function printImportBenchmark(results: ImportBenchRow[]): void {
       `${String(r.rows).padEnd(8)}${f(r.import.ms, 11)}${f(r.raw.ms, 8)}${f(r.import.ms / r.raw.ms, 7, 2)}${f((r.import.ms * 1000) / r.rows, 14, 1)}${f((r.raw.ms * 1000) / r.rows, 12, 1)}${`${r.import.peakRssMb.toFixed(0)} / ${r.import.peakHeapMb.toFixed(0)}`.padStart(25)}${`${r.raw.peakRssMb.toFixed(0)} / ${r.raw.peakHeapMb.toFixed(0)}`.padStart(22)}`,
     );
   }
+  const at50k = results.find((r) => r.rows === 50_000);
+  if (at50k) recordFigure('importRatio50k', at50k.import.ms / at50k.raw.ms);
   if (results.length >= 2) {
     const [a, b] = [results[0], results[results.length - 1]];
     const perRowGrowth = b.import.ms / b.rows / (a.import.ms / a.rows);

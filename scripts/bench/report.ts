@@ -12,6 +12,7 @@ import { computeAnalysis } from '../../api/features/campaigns/analysis';
 import { buildCampaignReport } from '../../api/features/campaigns/report';
 import type { ReportData } from '../../api/features/campaigns/report-model';
 import type { BenchSuite } from './suites';
+import { recordFigure } from './results';
 
 const R = 8.31446261815324;
 
@@ -122,6 +123,7 @@ async function run() {
       () => rawWrite(sheets, true),
     ])) as [number, number, number, number];
     results.push({ n, report, raw });
+    if (n === 10000) recordFigure('reportRatio10k', report / raw);
     console.log(
       `${String(n).padStart(6)} runs (${cells} cells): report ${report.toFixed(0)} ms, raw ${raw.toFixed(0)} ms, ratio ${(report / raw).toFixed(2)}× (target ≤ 1.5×); ` +
         `without the charts ${noCharts.toFixed(0)} ms (${(noCharts / raw).toFixed(2)}×); raw with the same number formats ${formatted.toFixed(0)} ms (${(formatted / raw).toFixed(2)}×)`,

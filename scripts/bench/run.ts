@@ -23,6 +23,7 @@ import { runFit, runForecast } from '../../api/features/compute/service';
 import { fitRequestSchema, forecastRequestSchema } from '../../api/features/compute/schemas';
 import { fitEyring } from '../../api/science';
 import { extraSuites } from './suites';
+import { printBenchLine, recordFigure, type BenchKey } from './results';
 
 const DURATION_S = Number(process.env.BENCH_SECONDS ?? 8);
 const execFileAsync = promisify(execFile);
@@ -91,15 +92,16 @@ async function httpSuite() {
 
   console.log(`\nHTTP, ${CONNECTIONS} connections, ${DURATION_S} s each after a 2 s warm-up (autocannon in its own process)`);
   console.log('endpoint                         req/s    p50 ms  p99 ms   bare req/s  ratio');
-  for (const [name, route, body] of [
-    ['forecast (200 temperatures)', '/api/v1/forecast', forecastBody],
-    ['fit (50 runs, 60 predictions)', '/api/v1/fit', fitBody],
+  for (const [name, route, body, key] of [
+    ['forecast (200 temperatures)', '/api/v1/forecast', forecastBody, 'forecastRatio'],
+    ['fit (50 runs, 60 predictions)', '/api/v1/fit', fitBody, 'fitRatio'],
   ] as const) {
     const r = await load(real.url + route, body);
     const b = await load(baseline.url + route.replace('/api/v1', ''), body);
     console.log(
       `${name.padEnd(32)} ${r.rps.toFixed(0).padStart(6)}  ${String(r.p50).padStart(6)}  ${String(r.p99).padStart(6)}   ${b.rps.toFixed(0).padStart(10)}  ${(r.rps / b.rps).toFixed(2)}×`,
     );
+    recordFigure(key, r.rps / b.rps);
   }
   real.server.close();
   baseline.server.close();
@@ -121,11 +123,40 @@ function engineSuite() {
       best = Math.min(best, performance.now() - t0);
     }
     console.log(`${String(n).padEnd(10)} ${best.toFixed(1).padStart(7)}  ${((best * 1e6) / n).toFixed(0).padStart(8)}`);
+    if (n === 1e6) recordFigure('engineNsPerPointAt1e6', (best * 1e6) / n, 0);
   }
 }
 
+/** Which suite measures each figure, so a partial run can say why a figure is missing. */
+const suiteOf: Record<BenchKey, string> = {
+  forecastRatio: 'http',
+  fitRatio: 'http',
+  analysisRatio: 'campaign-analysis',
+  engineNsPerPointAt1e6: 'engine',
+  importRatio50k: 'imports',
+  reportRatio10k: 'report',
+  initialJsGzipKB: 'bundle',
+  campaignPageMs: 'campaign-page',
+};
+
 const only = process.argv[2];
-if (!only || only === 'http') await httpSuite();
-if (!only || only === 'engine') engineSuite();
-for (const suite of extraSuites) if (!only || only === suite.name) await suite.run();
+const suites: { name: string; run(): unknown }[] = [{ name: 'http', run: httpSuite }, { name: 'engine', run: engineSuite }, ...extraSuites];
+const failed = new Map<string, string>();
+for (const suite of suites) {
+  if (only && only !== suite.name) continue;
+  try {
+    await suite.run();
+  } catch (err) {
+    // One broken suite must not hide the others' figures; its own figures stay null.
+    const reason = err instanceof Error ? err.message : String(err);
+    failed.set(suite.name, reason);
+    console.log(`\nsuite ${suite.name} failed: ${reason}`);
+  }
+}
+console.log('');
+printBenchLine((key) => {
+  const suite = suiteOf[key];
+  if (failed.has(suite)) return `suite ${suite} failed: ${failed.get(suite)}`;
+  return only && only !== suite ? `suite ${suite} not run (npm run bench -- ${suite})` : null;
+});
 process.exit(0);

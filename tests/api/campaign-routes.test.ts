@@ -327,6 +327,50 @@ describe('imports', () => {
 });
 
 describe('analysis', () => {
+  it('when a caller sends the analysis tag back, then the answer is 304 until the campaign, a run or the query changes', async () => {
+    const c = await newCampaign({ defaultUncertainty: 0.3 });
+    const stored = await addRuns(c.id, screen([-60, -40, -20, 0, 20]));
+    const url = `/api/v1/campaigns/${c.id}/analysis`;
+
+    const first = await as('viewer').get(url).expect(200);
+    const tag = first.headers.etag as string;
+    expect(tag).toMatch(/^W\/"a-[\w-]+"$/);
+    expect(first.headers['cache-control']).toBe('private, no-store');
+    // The tag is shared by every member, which is only sound while the body says nothing about the caller.
+    expect(JSON.stringify(first.body)).not.toMatch(/"role"/);
+    expect(analysisResponseSchema.parse(first.body).points).toHaveLength(5);
+
+    const again = await as('viewer').get(url).set('If-None-Match', tag).expect(304);
+    expect(again.text).toBe('');
+    await as('owner').get(url).set('If-None-Match', tag).expect(304);
+    // Someone outside the project learns nothing, tag or not.
+    expect((await as('outsider').get(url).set('If-None-Match', tag)).status).toBe(404);
+
+    // Another query is another analysis.
+    const other = await as('viewer').get(`${url}?confidence=0.9`).set('If-None-Match', tag).expect(200);
+    expect(other.headers.etag).not.toBe(tag);
+
+    // A changed run does not bump the campaign's version, yet the cached analysis must go.
+    await as('editor').patch(`/api/v1/measurements/${stored[0]!.id}`).send({ version: 1, reason: 'assay re-run', selectivity: { measure: 'ee', value: 50 } }).expect(200);
+    const afterEdit = await as('viewer').get(url).set('If-None-Match', tag).expect(200);
+    expect(afterEdit.headers.etag).not.toBe(tag);
+    expect(afterEdit.body.points.find((p: { measurementId: string }) => p.measurementId === stored[0]!.id).eePercent).toBeCloseTo(50, 9);
+
+    const added = await addRuns(c.id, screen([30]));
+    const afterAdd = await as('viewer').get(url).set('If-None-Match', afterEdit.headers.etag as string).expect(200);
+    expect(afterAdd.body.points).toHaveLength(6);
+
+    await as('editor').delete(`/api/v1/measurements/${added[0]!.id}?version=1&reason=duplicate%20entry`).expect(204);
+    const afterDelete = await as('viewer').get(url).set('If-None-Match', afterAdd.headers.etag as string).expect(200);
+    expect(afterDelete.body.points).toHaveLength(5);
+
+    // A new campaign version (its default precision weights the fit) is a new analysis too.
+    await as('editor').patch(`/api/v1/campaigns/${c.id}`).send({ version: 1, defaultUncertainty: 0.5 }).expect(200);
+    const afterCampaign = await as('viewer').get(url).set('If-None-Match', afterDelete.headers.etag as string).expect(200);
+    expect(afterCampaign.body.campaignVersion).toBe(2);
+    await as('viewer').get(url).set('If-None-Match', afterCampaign.headers.etag as string).expect(304);
+  });
+
   it('when a campaign is analysed, then the fit equals POST /api/v1/fit on the same runs, excluded run included', async () => {
     const c = await newCampaign();
     const runs = screen([-60, -40, -20, 0, 20, 40]).map((r, i) => ({ ...r, uncertainty: 0.2 + 0.05 * i }));

@@ -6,6 +6,8 @@
  * saved forecasts compared with runs measured later, and a side-by-side of a project's campaigns.
  */
 import type { Knex } from 'knex';
+import { createHash } from 'node:crypto';
+import { LRUCache } from 'lru-cache';
 import { SIGN_CONVENTION, kelvinToCelsius, parseSelectivity, sigmaLnRatio, type EyringMeasurement } from '../../science';
 import { BadRequestError, NotFoundError, UnprocessableError } from '../../lib/errors';
 import { quantitationLimitProblem } from '../compute/schemas';
@@ -33,6 +35,12 @@ export const MEASURED_MATCH_K = 1;
 
 const ENGINE_FLAGS = new Set(['outlier', 'high-leverage', 'influential']);
 
+/** The columns of a stored run that the analysis reads (the bulk read selects only these). */
+export const ANALYSED_COLUMNS = ['id', 'temperatureK', 'measure', 'value', 'valueB', 'isLowerBound', 'uncertainty', 'replicateLabel', 'sampleId', 'excluded', 'excludedReason'] as const;
+
+/** A stored run as the analysis reads it: a model instance or a plain row of ANALYSED_COLUMNS. */
+export type AnalysedMeasurement = Pick<Measurement, (typeof ANALYSED_COLUMNS)[number]>;
+
 /** The stored selectivity as the engine reads it. */
 function selectivityOf(m: Pick<Measurement, 'measure' | 'value' | 'valueB'>) {
   return { measure: m.measure, value: m.valueB === null ? m.value : `${m.value}:${m.valueB}` };
@@ -42,7 +50,7 @@ function selectivityOf(m: Pick<Measurement, 'measure' | 'value' | 'valueB'>) {
  * σ(ln r) of a run: its own assay uncertainty, else the campaign's default when the run is reported
  * in the campaign's measure (the default is in that measure's units). Zero means "not known".
  */
-function sigmaOf(campaign: Pick<Campaign, 'measure' | 'defaultUncertainty'>, m: Measurement): number | undefined {
+function sigmaOf(campaign: Pick<Campaign, 'measure' | 'defaultUncertainty'>, m: AnalysedMeasurement): number | undefined {
   const u = m.uncertainty ?? (m.measure === campaign.measure ? campaign.defaultUncertainty : null);
   if (u === null || !(u > 0)) return undefined;
   return sigmaLnRatio(selectivityOf(m), u);
@@ -51,7 +59,7 @@ function sigmaOf(campaign: Pick<Campaign, 'measure' | 'defaultUncertainty'>, m: 
 const runLabel = (m: Pick<Measurement, 'sampleId' | 'replicateLabel'>) => [m.sampleId, m.replicateLabel].filter(Boolean).join(' ') || null;
 
 /** Stored runs → the engine's SI form, in the same order. */
-export function toEngineMeasurements(campaign: Pick<Campaign, 'measure' | 'defaultUncertainty'>, measurements: readonly Measurement[]): EyringMeasurement[] {
+export function toEngineMeasurements(campaign: Pick<Campaign, 'measure' | 'defaultUncertainty'>, measurements: readonly AnalysedMeasurement[]): EyringMeasurement[] {
   return measurements.map((m) => {
     const out: EyringMeasurement = { temperatureK: m.temperatureK, ratio: parseSelectivity(selectivityOf(m)) };
     const sigma = sigmaOf(campaign, m);
@@ -106,7 +114,7 @@ type AnalysedCampaign = Pick<Campaign, 'id' | 'version' | 'measure' | 'defaultUn
  * defaults (new run: median of the runs' own or default uncertainties in the campaign measure;
  * limit: 99.8 % ee). A limit that does not suit the measure is a 400 naming the field.
  */
-export function assaySettings(campaign: AnalysedCampaign, measurements: readonly Measurement[], options: AnalysisOptions): Pick<FitOptions, 'newRun' | 'newRunOrigin' | 'quantitationLimit'> {
+export function assaySettings(campaign: AnalysedCampaign, measurements: readonly AnalysedMeasurement[], options: AnalysisOptions): Pick<FitOptions, 'newRun' | 'newRunOrigin' | 'quantitationLimit'> {
   const limitValue = options.quantitationLimitValue ?? campaign.quantitationLimit ?? null;
   let quantitationLimit: FitOptions['quantitationLimit'];
   if (limitValue !== null) {
@@ -134,7 +142,7 @@ export function assaySettings(campaign: AnalysedCampaign, measurements: readonly
 }
 
 /** The analysis of one campaign's runs (pure: no database). */
-export function computeAnalysis(campaign: AnalysedCampaign, measurements: readonly Measurement[], options: AnalysisOptions): AnalysisResponse {
+export function computeAnalysis(campaign: AnalysedCampaign, measurements: readonly AnalysedMeasurement[], options: AnalysisOptions): AnalysisResponse {
   const engine = toEngineMeasurements(campaign, measurements);
   options = { ...options, ...assaySettings(campaign, measurements, options) };
   let fit: FitResponse | null = null;
@@ -197,7 +205,7 @@ export function computeAnalysis(campaign: AnalysedCampaign, measurements: readon
 }
 
 /** Engine messages name array paths; a stored campaign's user needs to hear which run. */
-function explainProblem(err: Error & { code: string }, measurements: readonly Measurement[]): string {
+function explainProblem(err: Error & { code: string }, measurements: readonly AnalysedMeasurement[]): string {
   const field = (err as { field?: string }).field ?? '';
   const index = /measurements\[(\d+)\]/.exec(field)?.[1];
   if (err.code === 'sigma-missing' && index !== undefined) {
@@ -223,6 +231,55 @@ async function loadCampaignData(db: Knex, projectId: string, campaignId: string)
 export async function analyseCampaign(db: Knex, projectId: string, campaignId: string, query: AnalysisQuery): Promise<AnalysisResponse> {
   const { campaign, measurements } = await loadCampaignData(db, projectId, campaignId);
   return computeAnalysis(campaign, measurements, analysisOptions(query));
+}
+
+/** An analysis serialised once: the JSON body and its entity tag. */
+export interface SerialisedAnalysis {
+  etag: string;
+  body: string;
+}
+
+/**
+ * Serialised analyses by campaign id, campaign version, a digest of its runs (count, and every
+ * run's id and version) and the query. Runs do not bump the campaign's version, hence the digest.
+ * Every part of the key is read from PostgreSQL on each request, so several instances never serve
+ * a stale entry; an entry is only ever replaced, never invalidated. Bounded by total body size.
+ */
+const analysisCache = new LRUCache<string, SerialisedAnalysis>({ maxSize: 32 * 1024 * 1024, sizeCalculation: (v) => v.body.length + 64, max: 500 });
+
+/** For tests: forget every cached analysis. */
+export function clearAnalysisCache(): void {
+  analysisCache.clear();
+}
+
+/**
+ * The campaign's analysis as a JSON string with a weak ETag that changes whenever the campaign, one
+ * of its runs or the query changes. The body carries nothing about the caller (no role), so one
+ * entry serves every member who may read the campaign; authorization runs before this.
+ */
+export async function serialisedCampaignAnalysis(db: Knex, projectId: string, campaignId: string, query: AnalysisQuery): Promise<SerialisedAnalysis> {
+  const options = analysisOptions(query);
+  const [campaign, stamp] = await Promise.all([
+    getCampaign(db, projectId, campaignId),
+    db('measurements')
+      .where({ campaignId })
+      .first<{ n: number; digest: string | null }>(db.raw('count(*)::int as n'), db.raw("md5(string_agg(id::text || ':' || version::text, ',' order by id)) as digest")),
+  ]);
+  const key = JSON.stringify([campaign.id, campaign.version, stamp?.n ?? 0, stamp?.digest ?? '', options]);
+  const cached = analysisCache.get(key);
+  if (cached) return cached;
+  // Plain rows of the columns the engine reads, no model instances.
+  const measurements = (await db('measurements')
+    .where({ campaignId })
+    .select(...ANALYSED_COLUMNS)
+    .orderBy('temperatureK')
+    .orderBy('createdAt')
+    .orderBy('sourceRow')
+    .orderBy('id')) as AnalysedMeasurement[];
+  const body = JSON.stringify(computeAnalysis(campaign, measurements, options));
+  const entry = { etag: `W/"a-${createHash('sha256').update(key).digest('base64url').slice(0, 27)}"`, body };
+  analysisCache.set(key, entry);
+  return entry;
 }
 
 // ── Saved forecasts ────────────────────────────────────────────────────────────────────────

@@ -19,11 +19,12 @@ export const registerCampaigns: OpenApiRegistrar = (registry) => {
     tags: ['Campaigns'],
     summary: "Fit a stored campaign's temperature screen",
     description:
-      'The same fit as POST /api/v1/fit over the stored runs: excluded runs are kept with their reasons but not fitted, runs reported as "at least" are censored bounds, runs without an uncertainty use the campaign default (for weighting=uncertainty). `curve` holds 60 temperatures evenly spaced in 1/T over the measured range ± 15 K; `at` the prediction at ?at= (°C). Needs viewer.',
+      'The same fit as POST /api/v1/fit over the stored runs: excluded runs are kept with their reasons but not fitted, runs reported as "at least" are censored bounds, runs without an uncertainty use the campaign default (for weighting=uncertainty). `curve` holds 60 temperatures evenly spaced in 1/T over the measured range ± 15 K; `at` the prediction at ?at= (°C). Needs viewer. The answer carries a weak ETag that changes with the campaign, any of its runs or the query; send it back in If-None-Match for a 304 without a body.',
     security: signedIn,
     request: { params: campaignIdParams, query: analysisQuerySchema },
     responses: {
       200: { description: 'The analysis (fit is null with a problem when the runs cannot be fitted)', content: { 'application/json': { schema: analysisResponseSchema } } },
+      304: { description: 'Unchanged since the ETag sent in If-None-Match' },
       ...problemResponses(400, 401, 404),
     },
   });

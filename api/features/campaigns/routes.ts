@@ -9,7 +9,7 @@ import { historyCsv, readHistory } from '../audit/history';
 import { importTemplateCsv, listImportFiles, readImportFile, resolveImportFileProjectId } from '../imports/files';
 import { importMeasurements, storedRowKeys } from '../imports/service';
 import { previewInPool } from '../imports/parse-pool';
-import { analyseCampaign, compareCampaigns, listCampaignForecasts, saveCampaignForecast } from './analysis';
+import { compareCampaigns, listCampaignForecasts, saveCampaignForecast, serialisedCampaignAnalysis } from './analysis';
 import { analysisQuerySchema, comparisonQuerySchema } from './analysis-schemas';
 import { reportFileName } from './report';
 import {
@@ -290,7 +290,13 @@ export function campaignsRouter(deps: {
   });
 
   router.get('/campaigns/:campaignId/analysis', byCampaign('viewer'), async (req, res) => {
-    res.json(await analyseCampaign(knex, req.project!.id, campaignId(req), parseBody(analysisQuerySchema, req.query)));
+    const { etag: tag, body } = await serialisedCampaignAnalysis(knex, req.project!.id, campaignId(req), parseBody(analysisQuerySchema, req.query));
+    // The body carries nothing about the caller, so the tag need not either; authorization above runs
+    // before any 304, so a caller who may not read the campaign never learns its tag. Browsers
+    // still keep no copy (private, no-store): scripts send If-None-Match themselves.
+    res.set({ ETag: tag, 'Cache-Control': 'private, no-store', Vary: 'Cookie, Authorization' });
+    if (req.fresh) return void res.status(304).end();
+    res.type('application/json').send(body);
   });
 
   router.get('/campaigns/:campaignId/forecasts', byCampaign('viewer'), async (req, res) => {
