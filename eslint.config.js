@@ -14,7 +14,10 @@ export default tseslint.config(
     // One-way imports: the engine knows nothing of HTTP, the database or the browser.
     files: ['api/science/**/*.ts'],
     rules: {
-      'no-restricted-imports': ['error', { patterns: ['express', 'knex', 'objection', 'pg', 'node:*', '../features/*', '../db/*', '../models/*'] }],
+      'no-restricted-imports': [
+        'error',
+        { patterns: ['express', 'knex', 'objection', 'pg', 'node:*', '../features/*', '../db/*', '../models/*'] },
+      ],
     },
   },
   {

@@ -55,7 +55,12 @@ function oauthSetup(deps: AppDeps): OAuthSetup | null {
   const { github, devTools } = deps.config;
   if (github) return { provider: 'github', clientID: github.clientId, clientSecret: github.clientSecret };
   if (devTools && deps.fakeOAuth) {
-    return { provider: 'local-demo', clientID: deps.fakeOAuth.clientId, clientSecret: deps.fakeOAuth.clientSecret, endpoints: deps.fakeOAuth.endpoints };
+    return {
+      provider: 'local-demo',
+      clientID: deps.fakeOAuth.clientId,
+      clientSecret: deps.fakeOAuth.clientSecret,
+      endpoints: deps.fakeOAuth.endpoints,
+    };
   }
   return null;
 }
@@ -96,16 +101,25 @@ export function createApp(deps: AppDeps): Express {
   // Request lines are logged at info; above that level the middleware would only allocate.
   // Every line logged for a request (through req.log) carries its id as `reqId`.
   if (logger.isLevelEnabled('info')) {
-    app.use(pinoHttp({ logger, genReqId: (req) => req.id, quietReqLogger: true, autoLogging: { ignore: (req) => req.url === '/api/health' } }));
+    app.use(
+      pinoHttp({ logger, genReqId: (req) => req.id, quietReqLogger: true, autoLogging: { ignore: (req) => req.url === '/api/health' } }),
+    );
   }
   app.use(express.json({ limit: '1mb' }));
 
   const mailbox = deps.mailbox ?? new Mailbox();
-  const mailer = deps.mailer ?? (deps.config.smtpUrl ? createSmtpMailer(deps.config.smtpUrl, deps.config.mailFrom) : createInProcessMailer(mailbox, deps.config.mailFrom));
+  const mailer =
+    deps.mailer ??
+    (deps.config.smtpUrl
+      ? createSmtpMailer(deps.config.smtpUrl, deps.config.mailFrom)
+      : createInProcessMailer(mailbox, deps.config.mailFrom));
   const jobs = deps.jobs ?? new JobQueue(deps.knex, jobOptionsFromEnv(), logger);
   app.locals.jobs = jobs;
   app.locals.startJobWorkers = () =>
-    jobs.startWorkers(jobHandlers({ knex: deps.knex, mailer, version: deps.config.version, publicUrl: deps.config.publicUrl, logger }), abandonRunningJobs);
+    jobs.startWorkers(
+      jobHandlers({ knex: deps.knex, mailer, version: deps.config.version, publicUrl: deps.config.publicUrl, logger }),
+      abandonRunningJobs,
+    );
   // Stateless calculators, mounted before sign-in: they read no user, so a call without credentials
   // skips sessions, passport and the CSRF check (a cross-site POST changes nothing). They keep
   // helmet, the request id, the shared text check and their rate limit, counted in memory and
@@ -152,7 +166,17 @@ export function createApp(deps: AppDeps): Express {
     keyOf: (req) => (req.user ? `user:${req.user.id}` : ipKeyGenerator(req.ip ?? '')),
     message: 'Too many file uploads or report builds from you; wait a few minutes and try again.',
   });
-  api.use('/v1', campaignsRouter({ knex: deps.knex, version: deps.config.version, jobs, uploadLimit, importJobBytes: deps.config.importJobBytes, mailer }));
+  api.use(
+    '/v1',
+    campaignsRouter({
+      knex: deps.knex,
+      version: deps.config.version,
+      jobs,
+      uploadLimit,
+      importJobBytes: deps.config.importJobBytes,
+      mailer,
+    }),
+  );
   api.use('/v1', jobsRouter({ knex: deps.knex }));
   api.use('/v1', planStoreRouter({ knex: deps.knex }));
   api.use('/{*splat}', notFoundHandler);

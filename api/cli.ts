@@ -18,7 +18,11 @@ async function main(command: string | undefined) {
     }
     if (command === 'seed' || command === 'prepare') {
       const counts = await seedDemo(knex);
-      console.log(`demo scenario seeded (${Object.entries(counts).map(([k, v]) => `${v} ${k}`).join(', ')})`);
+      console.log(
+        `demo scenario seeded (${Object.entries(counts)
+          .map(([k, v]) => `${v} ${k}`)
+          .join(', ')})`,
+      );
     }
     if (command === 'rollback') {
       await knex.migrate.rollback();

@@ -30,7 +30,10 @@ export interface AppConfig {
 
 /** Addresses reachable only from this machine. */
 export function isLoopbackHost(host: string): boolean {
-  const h = host.trim().toLowerCase().replace(/^\[|\]$/g, '');
+  const h = host
+    .trim()
+    .toLowerCase()
+    .replace(/^\[|\]$/g, '');
   return h === 'localhost' || h === '::1' || /^127(\.\d{1,3}){3}$/.test(h);
 }
 
@@ -58,9 +61,7 @@ export function loadConfig(overrides: Partial<AppConfig> = {}): AppConfig {
   const port = readPort('PORT', 3000);
   const host = env.HOST ?? '127.0.0.1';
   const github =
-    env.GITHUB_CLIENT_ID && env.GITHUB_CLIENT_SECRET
-      ? { clientId: env.GITHUB_CLIENT_ID, clientSecret: env.GITHUB_CLIENT_SECRET }
-      : null;
+    env.GITHUB_CLIENT_ID && env.GITHUB_CLIENT_SECRET ? { clientId: env.GITHUB_CLIENT_ID, clientSecret: env.GITHUB_CLIENT_SECRET } : null;
   return {
     nodeEnv,
     port,

@@ -58,7 +58,9 @@ server.on('listening', () => {
 });
 server.on('error', (err: NodeJS.ErrnoException) => {
   if (err.code === 'EADDRINUSE') {
-    console.error(`Port ${config.port} on ${config.host} is already in use. Stop the other program or start Eyrie with PORT=<another port>.`);
+    console.error(
+      `Port ${config.port} on ${config.host} is already in use. Stop the other program or start Eyrie with PORT=<another port>.`,
+    );
   } else {
     console.error(`Eyrie could not listen on ${config.host}:${config.port}: ${err.message}`);
   }

@@ -17,7 +17,8 @@ export async function up(knex: Knex): Promise<void> {
   await knex.raw(PgBoss.getConstructionPlans(JOB_SCHEMA));
   for (const name of QUEUES) {
     const exists = await knex.raw(`select 1 from ${JOB_SCHEMA}.queue where name = ?`, [name]);
-    if (exists.rows.length === 0) await knex.raw(`select ${JOB_SCHEMA}.create_queue(?, ?::json)`, [name, JSON.stringify({ policy: 'standard' })]);
+    if (exists.rows.length === 0)
+      await knex.raw(`select ${JOB_SCHEMA}.create_queue(?, ?::json)`, [name, JSON.stringify({ policy: 'standard' })]);
   }
   await knex.schema.createTable('jobs', (t) => {
     t.uuid('id').primary().defaultTo(knex.raw('gen_random_uuid()'));

@@ -31,7 +31,9 @@ export async function up(knex: Knex): Promise<void> {
     t.uuid('signed_off_by_user_id').references('id').inTable('users').onDelete('SET NULL');
     t.text('sign_off_note');
   });
-  await knex.raw(`alter table campaigns add constraint campaigns_sign_off_note_length check (sign_off_note is null or length(sign_off_note) <= 500)`);
+  await knex.raw(
+    `alter table campaigns add constraint campaigns_sign_off_note_length check (sign_off_note is null or length(sign_off_note) <= 500)`,
+  );
 
   await knex.schema.createTable('import_files', (t) => {
     t.uuid('id').primary().defaultTo(knex.raw('gen_random_uuid()'));

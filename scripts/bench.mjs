@@ -20,7 +20,13 @@ try {
   if (!url) {
     tempDir = mkdtempSync(path.join(os.tmpdir(), 'eyrie-bench-'));
     chmodSync(tempDir, 0o711); // the postgres user must traverse it when we run as root
-    cluster = await startCluster({ dataDir: path.join(tempDir, 'pgdata'), port: await freePort(), database: 'eyrie_bench', durable: false, quiet: true });
+    cluster = await startCluster({
+      dataDir: path.join(tempDir, 'pgdata'),
+      port: await freePort(),
+      database: 'eyrie_bench',
+      durable: false,
+      quiet: true,
+    });
     url = cluster.url;
   }
   const child = spawn(process.execPath, ['--import', 'tsx', 'scripts/bench/run.ts', ...process.argv.slice(2)], {
@@ -30,7 +36,7 @@ try {
   });
   code = await new Promise((resolve) => child.on('exit', (c) => resolve(c ?? 1)));
 } catch (err) {
-  console.error(`eyrie: ${err instanceof FriendlyError ? err.message : err?.stack ?? err}`);
+  console.error(`eyrie: ${err instanceof FriendlyError ? err.message : (err?.stack ?? err)}`);
 } finally {
   cluster?.stop();
   if (tempDir) removeDir(tempDir);

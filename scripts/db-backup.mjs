@@ -44,7 +44,9 @@ function restore(file, url) {
   for (const m of toc.stdout.matchAll(/^\d+; \d+ \d+ SCHEMA - (\S+) /gm)) schemas.add(m[1]);
   const script = spawnSync(path.join(bin, 'pg_restore'), ['--no-owner', '--no-privileges', '--file=-', file], { maxBuffer: 1 << 30 });
   if (script.status !== 0) throw new FriendlyError(`pg_restore could not read ${file}: ${String(script.stderr).trim()}`);
-  const prelude = [...schemas].map((s) => `DROP SCHEMA IF EXISTS "${s.replace(/"/g, '""')}" CASCADE;`).join('\n') + '\nCREATE SCHEMA IF NOT EXISTS public;\n';
+  const prelude =
+    [...schemas].map((s) => `DROP SCHEMA IF EXISTS "${s.replace(/"/g, '""')}" CASCADE;`).join('\n') +
+    '\nCREATE SCHEMA IF NOT EXISTS public;\n';
   const r = spawnSync(path.join(bin, 'psql'), ['-X', '-q', '-v', 'ON_ERROR_STOP=1', '--single-transaction', `--dbname=${conn.url}`], {
     input: Buffer.concat([Buffer.from(prelude), script.stdout]),
     stdio: ['pipe', 'ignore', 'inherit'],
@@ -52,18 +54,25 @@ function restore(file, url) {
     maxBuffer: 1 << 30,
   });
   if (r.error) throw r.error;
-  if (r.status !== 0) throw new FriendlyError(`the restore failed (psql exit code ${r.status}); see the messages above. The database was left as it was.`);
+  if (r.status !== 0)
+    throw new FriendlyError(`the restore failed (psql exit code ${r.status}); see the messages above. The database was left as it was.`);
 }
 
 const stamp = () => new Date().toISOString().replace(/[-:]/g, '').replace('T', '-').slice(0, 15);
 
 let cluster = null;
 try {
-  if (command !== 'backup' && command !== 'restore') throw new FriendlyError('usage: npm run db:backup [-- file.dump]  |  npm run db:restore -- file.dump');
-  if (command === 'restore' && !fileArg) throw new FriendlyError('name the backup to restore: npm run db:restore -- .data/backups/eyrie-….dump');
+  if (command !== 'backup' && command !== 'restore')
+    throw new FriendlyError('usage: npm run db:backup [-- file.dump]  |  npm run db:restore -- file.dump');
+  if (command === 'restore' && !fileArg)
+    throw new FriendlyError('name the backup to restore: npm run db:restore -- .data/backups/eyrie-….dump');
   let url = process.env.DATABASE_URL;
   if (!url) {
-    cluster = await useLocalCluster({ dataDir: path.join(root, '.data', 'postgres'), port: Number(process.env.EYRIE_PG_PORT ?? 54329), database: 'eyrie' });
+    cluster = await useLocalCluster({
+      dataDir: path.join(root, '.data', 'postgres'),
+      port: Number(process.env.EYRIE_PG_PORT ?? 54329),
+      database: 'eyrie',
+    });
     url = cluster.url;
   }
   if (command === 'backup') {
@@ -71,7 +80,9 @@ try {
     mkdirSync(path.dirname(file), { recursive: true });
     // Custom format: compressed, and pg_restore can restore it whole or in parts.
     run('pg_dump', ['--format=custom', '--no-owner', '--no-privileges', `--file=${file}`], url);
-    log(`backup written: ${file} (${Math.round(statSync(file).size / 1024)} KiB). Restore it with: npm run db:restore -- ${path.relative(process.cwd(), file)}`);
+    log(
+      `backup written: ${file} (${Math.round(statSync(file).size / 1024)} KiB). Restore it with: npm run db:restore -- ${path.relative(process.cwd(), file)}`,
+    );
   } else {
     const file = path.resolve(fileArg);
     if (!existsSync(file)) throw new FriendlyError(`no backup at ${file}`);

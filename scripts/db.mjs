@@ -10,13 +10,21 @@ let cluster = null;
 try {
   let url = process.env.DATABASE_URL;
   if (!url) {
-    cluster = await useLocalCluster({ dataDir: path.join(root, '.data', 'postgres'), port: Number(process.env.EYRIE_PG_PORT ?? 54329), database: 'eyrie' });
+    cluster = await useLocalCluster({
+      dataDir: path.join(root, '.data', 'postgres'),
+      port: Number(process.env.EYRIE_PG_PORT ?? 54329),
+      database: 'eyrie',
+    });
     url = cluster.url;
   }
-  const r = spawnSync(process.execPath, ['--import', 'tsx', 'api/cli.ts', command], { cwd: root, stdio: 'inherit', env: { ...process.env, DATABASE_URL: url } });
+  const r = spawnSync(process.execPath, ['--import', 'tsx', 'api/cli.ts', command], {
+    cwd: root,
+    stdio: 'inherit',
+    env: { ...process.env, DATABASE_URL: url },
+  });
   process.exitCode = r.status ?? 1;
 } catch (err) {
-  console.error(`eyrie: ${err instanceof FriendlyError ? err.message : err?.stack ?? err}`);
+  console.error(`eyrie: ${err instanceof FriendlyError ? err.message : (err?.stack ?? err)}`);
   process.exitCode = 1;
 } finally {
   cluster?.stop();

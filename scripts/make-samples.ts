@@ -17,14 +17,24 @@ const csvField = (v: string | number | null, delimiter: string) => {
   const s = v === null ? '' : String(v);
   return s.includes(delimiter) || s.includes('"') || s.includes('\n') ? `"${s.replace(/"/g, '""')}"` : s;
 };
-const csv = (rows: (string | number | null)[][], delimiter = ',') => rows.map((r) => r.map((v) => csvField(v, delimiter)).join(delimiter)).join('\r\n') + '\r\n';
+const csv = (rows: (string | number | null)[][], delimiter = ',') =>
+  rows.map((r) => r.map((v) => csvField(v, delimiter)).join(delimiter)).join('\r\n') + '\r\n';
 
 // 1. Clean: comma-separated, kelvin, decimal points, duplicates at six temperatures.
 writeFileSync(
   out('kestrelmoor-skylark-screen.csv'),
   csv([
     ['sample_id', 'replicate', 'T (K)', 'ee (%)', 'sd (% ee)', 'conversion (%)', 'time (h)', 'notes'],
-    ...skylark.points.map((p) => [p.sampleId, p.replicateLabel, kelvin(p.temperatureC), p.eePercent, p.uncertainty, p.conversionPercent, p.reactionTimeH, p.notes]),
+    ...skylark.points.map((p) => [
+      p.sampleId,
+      p.replicateLabel,
+      kelvin(p.temperatureC),
+      p.eePercent,
+      p.uncertainty,
+      p.conversionPercent,
+      p.reactionTimeH,
+      p.notes,
+    ]),
   ]),
 );
 
@@ -38,14 +48,30 @@ writeFileSync(
         ['Kestrelmoor Laboratories (erfunden) – Temperaturscreening Merlin-Ligand in Toluol'],
         [],
         ['Probe', 'Temperatur (°C)', 'ee (%)', 'Umsatz (%)', 'Zeit (h)', 'Bemerkung'],
-        ...merlin.points.map((p) => [p.sampleId, de(p.temperatureC), de(p.eePercent), de(p.conversionPercent), de(p.reactionTimeH), p.notes]),
+        ...merlin.points.map((p) => [
+          p.sampleId,
+          de(p.temperatureC),
+          de(p.eePercent),
+          de(p.conversionPercent),
+          de(p.reactionTimeH),
+          p.notes,
+        ]),
       ],
       ';',
     ),
 );
 
 // 3. Row-level problems, one kind per row, each explained in the notes column.
-const ok = (p: DemoPoint, notes: string | null = null) => [p.sampleId, p.replicateLabel, p.temperatureC, p.eePercent, p.uncertainty, p.conversionPercent, 'T. Reyes', notes];
+const ok = (p: DemoPoint, notes: string | null = null) => [
+  p.sampleId,
+  p.replicateLabel,
+  p.temperatureC,
+  p.eePercent,
+  p.uncertainty,
+  p.conversionPercent,
+  'T. Reyes',
+  notes,
+];
 const s = skylark.points;
 writeFileSync(
   out('kestrelmoor-screen-with-errors.csv'),
@@ -75,7 +101,16 @@ workbook.modified = workbook.created;
 const sheet = workbook.addWorksheet('Screen');
 sheet.addRow(['Sample', 'Replicate', 'Temperature (°C)', 'ee (%)', 'SD (% ee)', 'Conversion (%)', 'Time (h)', 'Notes']);
 for (const p of skylarkMeTHF.points) {
-  sheet.addRow([p.sampleId, p.replicateLabel, p.temperatureC, p.isLowerBound ? `≥${p.eePercent}` : p.eePercent, p.uncertainty, p.conversionPercent, p.reactionTimeH, p.notes]);
+  sheet.addRow([
+    p.sampleId,
+    p.replicateLabel,
+    p.temperatureC,
+    p.isLowerBound ? `≥${p.eePercent}` : p.eePercent,
+    p.uncertainty,
+    p.conversionPercent,
+    p.reactionTimeH,
+    p.notes,
+  ]);
 }
 sheet.getRow(1).font = { bold: true };
 sheet.columns.forEach((c) => (c.width = 16));

@@ -33,7 +33,7 @@ async function main() {
     cluster = await startCluster({ dataDir: path.join(root, '.data', 'postgres'), port: pgPort, database: 'eyrie', durable: true });
     databaseUrl = cluster.url;
   }
-  const env = { ...process.env, DATABASE_URL: databaseUrl, NODE_ENV: dev ? 'development' : process.env.NODE_ENV ?? 'production' };
+  const env = { ...process.env, DATABASE_URL: databaseUrl, NODE_ENV: dev ? 'development' : (process.env.NODE_ENV ?? 'production') };
   if (!process.env.EYRIE_DEV_TOOLS) env.EYRIE_DEV_TOOLS = '1';
 
   log('migrating and seeding the demo scenario…');
@@ -111,6 +111,6 @@ process.on('SIGINT', () => void shutdown(0));
 process.on('SIGTERM', () => void shutdown(0));
 
 main().catch((err) => {
-  console.error(`eyrie: ${err instanceof FriendlyError ? err.message : err?.stack ?? err}`);
+  console.error(`eyrie: ${err instanceof FriendlyError ? err.message : (err?.stack ?? err)}`);
   void shutdown(1);
 });

@@ -67,7 +67,13 @@ try {
   if (!databaseUrl) {
     tempDir = mkdtempSync(path.join(os.tmpdir(), 'eyrie-test-'));
     chmodSync(tempDir, 0o711); // the postgres user must traverse it when we run as root
-    cluster = await startCluster({ dataDir: path.join(tempDir, 'pgdata'), port: await freePort(), database: 'eyrie_test', durable: false, quiet: true });
+    cluster = await startCluster({
+      dataDir: path.join(tempDir, 'pgdata'),
+      port: await freePort(),
+      database: 'eyrie_test',
+      durable: false,
+      quiet: true,
+    });
     databaseUrl = cluster.url;
     log('throwaway PostgreSQL cluster started for the tests');
   } else {
@@ -80,7 +86,14 @@ try {
   rmSync(report, { force: true });
   const child = spawn(
     process.execPath,
-    [path.join(root, 'node_modules', 'vitest', 'vitest.mjs'), 'run', '--reporter=default', '--reporter=json', `--outputFile.json=${report}`, ...process.argv.slice(2)],
+    [
+      path.join(root, 'node_modules', 'vitest', 'vitest.mjs'),
+      'run',
+      '--reporter=default',
+      '--reporter=json',
+      `--outputFile.json=${report}`,
+      ...process.argv.slice(2),
+    ],
     { cwd: root, stdio: 'inherit', env: { ...process.env, DATABASE_URL: databaseUrl, NODE_ENV: 'test', EYRIE_TEST_TMP: tempDir ?? '' } },
   );
   const code = await new Promise((resolve) => child.on('exit', (c, s) => resolve(c ?? (s ? 1 : 0))));
@@ -91,7 +104,9 @@ try {
     passed = r.numPassedTests ?? 0;
     failed = r.numFailedTests ?? 0;
     // A test file that fails to load counts as a failure even though it has no tests.
-    const brokenFiles = (r.testResults ?? []).filter((f) => f.status === 'failed' && (f.assertionResults ?? []).every((a) => a.status !== 'failed')).length;
+    const brokenFiles = (r.testResults ?? []).filter(
+      (f) => f.status === 'failed' && (f.assertionResults ?? []).every((a) => a.status !== 'failed'),
+    ).length;
     failed += brokenFiles;
   } else {
     failed = 1;
@@ -102,7 +117,7 @@ try {
   cleanup();
   console.log(`tests: ${passed} passed, ${failed} failed`);
 } catch (err) {
-  console.error(`eyrie: ${err instanceof FriendlyError ? err.message : err?.stack ?? err}`);
+  console.error(`eyrie: ${err instanceof FriendlyError ? err.message : (err?.stack ?? err)}`);
   cleanup();
   exitCode = 1;
 }

@@ -135,7 +135,14 @@ function screen(opts: {
  * A dr screen by ¹H NMR: the ratio is read from integrals to about ±3 % relative, so the noise is
  * relative (in ln r); dr is reported to one decimal, and % de kept beside it.
  */
-function drScreen(opts: { prefix: string; temperaturesC: number[]; truth: Branch; seed: number; noiseSd: number; uncertainty: number }): DemoPoint[] {
+function drScreen(opts: {
+  prefix: string;
+  temperaturesC: number[];
+  truth: Branch;
+  seed: number;
+  noiseSd: number;
+  uncertainty: number;
+}): DemoPoint[] {
   const noise = noiseSource(opts.seed, opts.noiseSd, 3 * opts.noiseSd);
   return opts.temperaturesC.map((tC, i) => {
     const tK = kelvinFromCelsius(tC);
@@ -188,7 +195,15 @@ export const DEMO_CAMPAIGNS: DemoCampaign[] = [
     defaultUncertainty: 0.3,
     status: 'completed',
     notes: 'Invented demo data. Six temperatures from 40 to −20 °C in duplicate; internal temperature logged.',
-    points: screen({ prefix: 'KL7702-S', temperaturesC: [40, 25, 10, 0, -10, -20], replicates: ['a', 'b'], truth: (t) => lnRatio(skylarkMeOH, t), seed: 7702, noiseSd: 0.12, uncertainty: 0.3 }),
+    points: screen({
+      prefix: 'KL7702-S',
+      temperaturesC: [40, 25, 10, 0, -10, -20],
+      replicates: ['a', 'b'],
+      truth: (t) => lnRatio(skylarkMeOH, t),
+      seed: 7702,
+      noiseSd: 0.12,
+      uncertainty: 0.3,
+    }),
   },
   {
     id: '6d1f0c4e-2a51-4c0e-9d7b-00000c7702b2',
@@ -200,7 +215,15 @@ export const DEMO_CAMPAIGNS: DemoCampaign[] = [
     defaultUncertainty: 0.2,
     status: 'active',
     notes: 'Invented demo data from the (invented) partner site. The ee peaks near −15 °C and falls on either side: a broken Eyring plot.',
-    points: screen({ prefix: 'KL7702-M', temperaturesC: [40, 25, 10, 0, -10, -20, -30, -40, -50], replicates: ['a'], truth: merlinLnRatio, seed: 5120, noiseSd: 0.1, uncertainty: 0.2 }),
+    points: screen({
+      prefix: 'KL7702-M',
+      temperaturesC: [40, 25, 10, 0, -10, -20, -30, -40, -50],
+      replicates: ['a'],
+      truth: merlinLnRatio,
+      seed: 5120,
+      noiseSd: 0.1,
+      uncertainty: 0.2,
+    }),
   },
   {
     id: '6d1f0c4e-2a51-4c0e-9d7b-00000c7702c3',
@@ -212,7 +235,15 @@ export const DEMO_CAMPAIGNS: DemoCampaign[] = [
     defaultUncertainty: 0.3,
     status: 'active',
     notes: `Invented demo data. At −60 °C the minor enantiomer is below the quantitation limit: reported as ≥ ${EE_REPORTING_LIMIT} % ee (a lower bound).`,
-    points: screen({ prefix: 'KL7702-T', temperaturesC: [25, 0, -20, -40, -60], replicates: ['a', 'b'], truth: (t) => lnRatio(skylarkMeTHF, t), seed: 2026, noiseSd: 0.1, uncertainty: 0.3 }),
+    points: screen({
+      prefix: 'KL7702-T',
+      temperaturesC: [25, 0, -20, -40, -60],
+      replicates: ['a', 'b'],
+      truth: (t) => lnRatio(skylarkMeTHF, t),
+      seed: 2026,
+      noiseSd: 0.1,
+      uncertainty: 0.3,
+    }),
   },
   {
     id: '6d1f0c4e-2a51-4c0e-9d7b-00000c7702d4',
@@ -225,7 +256,15 @@ export const DEMO_CAMPAIGNS: DemoCampaign[] = [
     assayMethod: 'nmr',
     defaultUncertainty: 0.03,
     status: 'active',
-    notes: 'Invented demo data. dr from ¹H NMR integrals of the crude mixture at five temperatures; a diastereomer pair, so dr, % de and % major, not ee.',
-    points: drScreen({ prefix: 'KL7702-K', temperaturesC: [20, 0, -20, -40, -78], truth: kitePyrDr, seed: 4711, noiseSd: 0.03, uncertainty: 0.03 }),
+    notes:
+      'Invented demo data. dr from ¹H NMR integrals of the crude mixture at five temperatures; a diastereomer pair, so dr, % de and % major, not ee.',
+    points: drScreen({
+      prefix: 'KL7702-K',
+      temperaturesC: [20, 0, -20, -40, -78],
+      truth: kitePyrDr,
+      seed: 4711,
+      noiseSd: 0.03,
+      uncertainty: 0.03,
+    }),
   },
 ];

@@ -15,10 +15,34 @@ export interface DemoIdentity {
 }
 
 export const DEMO_IDENTITIES: DemoIdentity[] = [
-  { id: '910001', login: 'ada-pemberton', name: 'Ada Pemberton', email: 'ada.pemberton@kestrelmoor.example', blurb: 'Process chemistry lead: owns the demo projects' },
-  { id: '910002', login: 'tomas-reyes', name: 'Tomás Reyes', email: 'tomas.reyes@kestrelmoor.example', blurb: 'Bench chemist: edits campaigns and measurements' },
-  { id: '910003', login: 'mina-okafor', name: 'Mina Okafor', email: 'mina.okafor@kestrelmoor.example', blurb: 'Analytical QA: reads and downloads only' },
-  { id: '910004', login: 'jun-whitlock', name: 'Jun Whitlock', email: 'jun.whitlock@kestrelmoor.example', blurb: 'Works on another project: sees none of the above' },
+  {
+    id: '910001',
+    login: 'ada-pemberton',
+    name: 'Ada Pemberton',
+    email: 'ada.pemberton@kestrelmoor.example',
+    blurb: 'Process chemistry lead: owns the demo projects',
+  },
+  {
+    id: '910002',
+    login: 'tomas-reyes',
+    name: 'Tomás Reyes',
+    email: 'tomas.reyes@kestrelmoor.example',
+    blurb: 'Bench chemist: edits campaigns and measurements',
+  },
+  {
+    id: '910003',
+    login: 'mina-okafor',
+    name: 'Mina Okafor',
+    email: 'mina.okafor@kestrelmoor.example',
+    blurb: 'Analytical QA: reads and downloads only',
+  },
+  {
+    id: '910004',
+    login: 'jun-whitlock',
+    name: 'Jun Whitlock',
+    email: 'jun.whitlock@kestrelmoor.example',
+    blurb: 'Works on another project: sees none of the above',
+  },
 ];
 
 export type DemoRole = 'owner' | 'editor' | 'viewer';

@@ -49,7 +49,16 @@ export async function seedDemoCampaigns(trx: Knex.Transaction): Promise<number> 
       })),
     );
     if (authorId) {
-      await recordAudit(trx, { projectId: DEMO_CAMPAIGN_PROJECT_ID, actorUserId: authorId, action: 'create', entityType: 'campaign', entityId: c.id, campaignId: c.id, before: null, after: { ...fields, measurementCount: c.points.length } });
+      await recordAudit(trx, {
+        projectId: DEMO_CAMPAIGN_PROJECT_ID,
+        actorUserId: authorId,
+        action: 'create',
+        entityType: 'campaign',
+        entityId: c.id,
+        campaignId: c.id,
+        before: null,
+        after: { ...fields, measurementCount: c.points.length },
+      });
     }
     created += 1;
   }

@@ -80,13 +80,17 @@ export async function seedDemoPlans(trx: Knex.Transaction): Promise<void> {
     if (await trx('plan_specifications').where({ projectId: spec.projectId }).whereNull('campaignId').first('id')) continue;
     await trx('plan_specifications').insert({ ...spec, campaignId: null, runs: 1 });
   }
-  if ((await trx('projects').where({ id: ALDOL!.id }).first('id')) && !(await trx('campaigns').where({ id: DEMO_ALDOL_CAMPAIGN_ID }).first('id'))) {
+  if (
+    (await trx('projects').where({ id: ALDOL!.id }).first('id')) &&
+    !(await trx('campaigns').where({ id: DEMO_ALDOL_CAMPAIGN_ID }).first('id'))
+  ) {
     const owner = await ownerOf(ALDOL!.id);
     await trx('campaigns').insert({
       id: DEMO_ALDOL_CAMPAIGN_ID,
       projectId: ALDOL!.id,
       title: 'Harrier-oxazaborolidine in CH₂Cl₂: temperature screen',
-      reactionDescription: 'Invented: aldol of the ketone KL-5120-K with the invented Harrier oxazaborolidine promoter (1.2 equiv) in CH₂Cl₂.',
+      reactionDescription:
+        'Invented: aldol of the ketone KL-5120-K with the invented Harrier oxazaborolidine promoter (1.2 equiv) in CH₂Cl₂.',
       productNameA: 'syn-aldol KL-5120-S',
       productNameB: 'anti-aldol KL-5120-N',
       measure: 'dr',
@@ -96,7 +100,9 @@ export async function seedDemoPlans(trx: Knex.Transaction): Promise<void> {
       notes: 'Invented demo data — not real measurements. The plant vessel is brine-cooled (coldest −30 °C).',
       createdByUserId: owner ?? null,
     });
-    await trx('measurements').insert(aldolRuns().map((m) => ({ ...m, campaignId: DEMO_ALDOL_CAMPAIGN_ID, createdByUserId: owner ?? null })));
+    await trx('measurements').insert(
+      aldolRuns().map((m) => ({ ...m, campaignId: DEMO_ALDOL_CAMPAIGN_ID, createdByUserId: owner ?? null })),
+    );
   }
   for (const plan of PLANS) {
     const campaign = await Campaign.query(trx).findById(plan.campaignId);
@@ -104,7 +110,12 @@ export async function seedDemoPlans(trx: Knex.Transaction): Promise<void> {
     const inputs: CampaignPlanInputs = campaignPlanInputsSchema.parse(plan.inputs);
     const result = await computeCampaignPlan(trx, plan.projectId, campaign, inputs);
     const owner = await ownerOf(plan.projectId);
-    await trx('campaign_plans').insert({ campaignId: plan.campaignId, inputs: JSON.stringify(inputs), result: JSON.stringify(result), updatedByUserId: owner ?? null });
+    await trx('campaign_plans').insert({
+      campaignId: plan.campaignId,
+      inputs: JSON.stringify(inputs),
+      result: JSON.stringify(result),
+      updatedByUserId: owner ?? null,
+    });
     if (owner) {
       await recordAudit(trx, {
         projectId: plan.projectId,

@@ -4,7 +4,16 @@ import objection from 'objection';
 import type { Logger } from 'pino';
 import { AppError, NotFoundError, ServiceUnavailableError, type FieldError } from './errors';
 
-const { ValidationError, NotFoundError: ObjectionNotFound, UniqueViolationError, ForeignKeyViolationError, CheckViolationError, NotNullViolationError, DataError, DBError } = objection;
+const {
+  ValidationError,
+  NotFoundError: ObjectionNotFound,
+  UniqueViolationError,
+  ForeignKeyViolationError,
+  CheckViolationError,
+  NotNullViolationError,
+  DataError,
+  DBError,
+} = objection;
 
 /** Seconds a client is asked to wait when the database is unavailable. */
 export const RETRY_AFTER_SECONDS = 5;
@@ -20,7 +29,8 @@ const nativeOf = (err: unknown): { code?: unknown; name?: unknown; message?: unk
 // or lock timeout via query_canceled 57014) and idle-in-transaction session timeout (25P03).
 const UNAVAILABLE_SQLSTATE = /^(08|53|57)|^25P03$|^55P03$/;
 const UNAVAILABLE_NODE_CODES = new Set(['ECONNREFUSED', 'ECONNRESET', 'ETIMEDOUT', 'EPIPE', 'EHOSTUNREACH', 'ENETUNREACH', 'EAI_AGAIN']);
-const UNAVAILABLE_MESSAGES = /^timeout expired$|Connection terminated|Client has encountered a connection error|timeout exceeded when trying to connect|Knex: Timeout acquiring a connection|Query read timeout|Connection ended unexpectedly/i;
+const UNAVAILABLE_MESSAGES =
+  /^timeout expired$|Connection terminated|Client has encountered a connection error|timeout exceeded when trying to connect|Knex: Timeout acquiring a connection|Query read timeout|Connection ended unexpectedly/i;
 
 /** True when an error means the database is unreachable, frozen or shutting down (503, not 500). */
 export function isDatabaseUnavailable(err: unknown): boolean {
@@ -49,7 +59,11 @@ export interface ProblemDetails {
   [extension: string]: unknown;
 }
 
-const slug = (title: string) => title.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '');
+const slug = (title: string) =>
+  title
+    .toLowerCase()
+    .replace(/[^a-z0-9]+/g, '-')
+    .replace(/^-|-$/g, '');
 
 export function zodIssuesToFieldErrors(error: ZodError, prefix: (string | number)[] = []): FieldError[] {
   return error.issues.map((issue) => ({
@@ -123,24 +137,55 @@ export function toProblem(err: unknown): ProblemDetails {
     return { type: '/problems/conflict', title: 'Conflict', status: 409, detail: 'A record with the same unique value already exists.' };
   }
   if (err instanceof ForeignKeyViolationError) {
-    return { type: '/problems/conflict', title: 'Conflict', status: 409, detail: 'The record refers to, or is referred to by, another record.' };
+    return {
+      type: '/problems/conflict',
+      title: 'Conflict',
+      status: 409,
+      detail: 'The record refers to, or is referred to by, another record.',
+    };
   }
   if (err instanceof CheckViolationError || err instanceof NotNullViolationError || err instanceof DataError || isInvalidData(err)) {
-    return { type: '/problems/invalid-request', title: 'Invalid request', status: 400, detail: 'A value is outside what the database accepts (for example text with a NUL character).' };
+    return {
+      type: '/problems/invalid-request',
+      title: 'Invalid request',
+      status: 400,
+      detail: 'A value is outside what the database accepts (for example text with a NUL character).',
+    };
   }
   if (isDatabaseUnavailable(err)) return toProblem(new ServiceUnavailableError());
   const http = err as HttpLikeError;
   const status = http?.status ?? http?.statusCode;
   if (typeof status === 'number' && status >= 400 && status < 500) {
     if (http.type === 'entity.too.large') {
-      return { type: '/problems/payload-too-large', title: 'Payload too large', status: 413, detail: 'The request body is larger than the server accepts.' };
+      return {
+        type: '/problems/payload-too-large',
+        title: 'Payload too large',
+        status: 413,
+        detail: 'The request body is larger than the server accepts.',
+      };
     }
     if (http.type === 'entity.parse.failed') {
-      return { type: '/problems/invalid-request', title: 'Invalid request', status: 400, detail: 'The request body is not valid JSON.', errors: [{ path: '(body)', message: 'not valid JSON' }] };
+      return {
+        type: '/problems/invalid-request',
+        title: 'Invalid request',
+        status: 400,
+        detail: 'The request body is not valid JSON.',
+        errors: [{ path: '(body)', message: 'not valid JSON' }],
+      };
     }
-    return { type: `/problems/http-${status}`, title: 'Invalid request', status, detail: http.expose && http.message ? http.message : 'The request was not accepted.' };
+    return {
+      type: `/problems/http-${status}`,
+      title: 'Invalid request',
+      status,
+      detail: http.expose && http.message ? http.message : 'The request was not accepted.',
+    };
   }
-  return { type: '/problems/internal', title: 'Internal error', status: 500, detail: 'Something went wrong on the server. The error has been logged.' };
+  return {
+    type: '/problems/internal',
+    title: 'Internal error',
+    status: 500,
+    detail: 'Something went wrong on the server. The error has been logged.',
+  };
 }
 
 export function sendProblem(res: Parameters<RequestHandler>[1], problem: ProblemDetails) {
@@ -148,7 +193,7 @@ export function sendProblem(res: Parameters<RequestHandler>[1], problem: Problem
 }
 
 export const notFoundHandler: RequestHandler = (req, _res, next) => {
-  next(new NotFoundError(`No API route matches ${req.method} ${req.originalUrl.split("?")[0]}.`));
+  next(new NotFoundError(`No API route matches ${req.method} ${req.originalUrl.split('?')[0]}.`));
 };
 
 export function problemHandler(logger: Logger): ErrorRequestHandler {

@@ -57,7 +57,11 @@ export class RateLimitStore {
         keyPrefix: `${this.keyPrefix}:${rule.name}`,
         points: rule.points,
         duration: Math.ceil(rule.windowMs / 1000),
-        insuranceLimiter: new RateLimiterMemory({ keyPrefix: `${this.keyPrefix}:${rule.name}`, points: rule.points, duration: Math.ceil(rule.windowMs / 1000) }),
+        insuranceLimiter: new RateLimiterMemory({
+          keyPrefix: `${this.keyPrefix}:${rule.name}`,
+          points: rule.points,
+          duration: Math.ceil(rule.windowMs / 1000),
+        }),
       });
       this.limiters.set(id, rl);
     }

@@ -39,5 +39,10 @@ export const checkRequestText: RequestHandler = (req, _res, next) => {
     }
   }
   if (errors.length === 0) return next();
-  next(new BadRequestError(`${errors.length === 1 ? 'A field has' : `${errors.length} fields have`} text the API does not accept: ${errors[0]!.path}: ${errors[0]!.message}.`, errors));
+  next(
+    new BadRequestError(
+      `${errors.length === 1 ? 'A field has' : `${errors.length} fields have`} text the API does not accept: ${errors[0]!.path}: ${errors[0]!.message}.`,
+      errors,
+    ),
+  );
 };

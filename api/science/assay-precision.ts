@@ -76,12 +76,16 @@ export function checkStatedPrecision(chiSquare: number, dof: number, mode: 'abso
   if (pLarger < alpha / 2) {
     verdict = 'scatter-larger';
     message = `The runs scatter more than their stated assay precision allows (${stat}, p = ${pLarger.toPrecision(2)}): something besides the assay varies between runs. ${
-      mode === 'absolute' ? 'Intervals that take the uncertainties as absolute are too narrow; read them as relative (scaled by the scatter).' : 'The intervals are scaled by the scatter (relative uncertainties), which is the right reading here.'
+      mode === 'absolute'
+        ? 'Intervals that take the uncertainties as absolute are too narrow; read them as relative (scaled by the scatter).'
+        : 'The intervals are scaled by the scatter (relative uncertainties), which is the right reading here.'
     }`;
   } else if (pSmaller < alpha / 2) {
     verdict = 'scatter-smaller';
     message = `The runs agree more closely than their stated assay precision suggests (${stat}, p = ${pSmaller.toPrecision(2)}): the stated uncertainties may be too large. ${
-      mode === 'absolute' ? 'Intervals that take them as absolute are wider than the data need.' : 'Scaling by the scatter (relative) narrows the intervals accordingly.'
+      mode === 'absolute'
+        ? 'Intervals that take them as absolute are wider than the data need.'
+        : 'Scaling by the scatter (relative) narrows the intervals accordingly.'
     }`;
   } else {
     message = `The scatter matches the stated assay precision (${stat}): the uncertainties can be read as absolute.${

@@ -62,7 +62,11 @@ export function compareFits(
   const a = first.line;
   const b = second.line;
   if (a.varianceScale === null || b.varianceScale === null || !first.intervalsAvailable || !second.intervalsAvailable) {
-    throw new DomainError('intervals-unavailable', 'each screen needs runs at three or more distinct temperatures to be compared', 'campaignIds');
+    throw new DomainError(
+      'intervals-unavailable',
+      'each screen needs runs at three or more distinct temperatures to be compared',
+      'campaignIds',
+    );
   }
   const x0 = 1 / temperatureK;
   const d = a.yMean + a.slope * (x0 - a.xMean) - (b.yMean + b.slope * (x0 - b.xMean));
@@ -144,9 +148,19 @@ export function crossoverOf(first: EyringFit, second: EyringFit, level = 0.95, s
     const lo = Math.min(x1, x2);
     const hi = Math.max(x1, x2);
     if (lo > 0) {
-      return { temperatureK: t, intervalK: [1 / hi, 1 / lo], bounded: true, note: `Fieller ${Math.round(level * 100)} % interval of the crossover temperature.` };
+      return {
+        temperatureK: t,
+        intervalK: [1 / hi, 1 / lo],
+        bounded: true,
+        note: `Fieller ${Math.round(level * 100)} % interval of the crossover temperature.`,
+      };
     }
-    return { temperatureK: t, intervalK: [1 / hi, null], bounded: false, note: 'The interval reaches beyond any real temperature on the warm side.' };
+    return {
+      temperatureK: t,
+      intervalK: [1 / hi, null],
+      bounded: false,
+      note: 'The interval reaches beyond any real temperature on the warm side.',
+    };
   }
   return {
     temperatureK: t,
@@ -161,7 +175,12 @@ export function crossoverOf(first: EyringFit, second: EyringFit, level = 0.95, s
  * the given power (two-sided test at 1 − level), assuming the present difference and scatter.
  * Adding m runs at x₀ changes c'M⁻¹c from v to v/(1 + m·w·v) (a rank-one update with f = c).
  */
-export function runsToTellApart(first: EyringFit, second: EyringFit, temperatureK: number, options: { power?: number; level?: number; maxRuns?: number } = {}): number | null {
+export function runsToTellApart(
+  first: EyringFit,
+  second: EyringFit,
+  temperatureK: number,
+  options: { power?: number; level?: number; maxRuns?: number } = {},
+): number | null {
   const level = options.level ?? 0.95;
   const power = options.power ?? 0.8;
   const maxRuns = options.maxRuns ?? 50;

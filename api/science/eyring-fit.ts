@@ -267,7 +267,8 @@ export function prepareMeasurements(
   let lnLimit: number;
   if (censorLnRatio !== undefined) {
     requireFinite(censorLnRatio, 'censorLnRatio');
-    if (!(censorLnRatio > 0)) throw new DomainError('censor-limit-out-of-range', 'the quantitation limit must favour one isomer (|ln r| > 0)', 'censorLnRatio');
+    if (!(censorLnRatio > 0))
+      throw new DomainError('censor-limit-out-of-range', 'the quantitation limit must favour one isomer (|ln r| > 0)', 'censorLnRatio');
     lnLimit = censorLnRatio;
   } else {
     requireFinite(censorEePercent, 'censorEePercent');
@@ -373,9 +374,12 @@ function activationFromLine(intercept: number, slope: number, cov: LineModel['co
 function flagReason(flags: PointFlag[], ext: number | null, leverage: number, limit: number, cook: number | null): string | null {
   if (flags.length === 0) return null;
   const parts: string[] = [];
-  if (flags.includes('outlier')) parts.push(`it sits ${Math.abs(ext!).toFixed(1)} studentized residuals from the line (flagged above ${FLAG_RULES.outlierStudentized})`);
-  if (flags.includes('high-leverage')) parts.push(`its temperature is far from the others, so it steers the slope (leverage ${leverage.toFixed(2)} > ${limit.toFixed(2)})`);
-  if (flags.includes('influential')) parts.push(`leaving it out would move the line noticeably (Cook's distance ${cook!.toFixed(2)} > ${FLAG_RULES.cooksDistance})`);
+  if (flags.includes('outlier'))
+    parts.push(`it sits ${Math.abs(ext!).toFixed(1)} studentized residuals from the line (flagged above ${FLAG_RULES.outlierStudentized})`);
+  if (flags.includes('high-leverage'))
+    parts.push(`its temperature is far from the others, so it steers the slope (leverage ${leverage.toFixed(2)} > ${limit.toFixed(2)})`);
+  if (flags.includes('influential'))
+    parts.push(`leaving it out would move the line noticeably (Cook's distance ${cook!.toFixed(2)} > ${FLAG_RULES.cooksDistance})`);
   const text = parts.join('; ');
   return `${text.charAt(0).toUpperCase()}${text.slice(1)}. Check its record (assay, temperature log) rather than drop it.`;
 }
@@ -511,7 +515,13 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
           intervalsAvailable ? Math.max(0, cov.interceptIntercept + 2 * x0 * cov.interceptSlope + x0 * x0 * cov.slopeSlope) : null,
       };
       estimator = 'censored-ml';
-      censoredFit = { logLikelihood: tobit.logLikelihood, iterations: tobit.iterations, scale: tobit.scale, nLower: tobit.nLower, nUpper: tobit.nUpper };
+      censoredFit = {
+        logLikelihood: tobit.logLikelihood,
+        iterations: tobit.iterations,
+        scale: tobit.scale,
+        nLower: tobit.nLower,
+        nUpper: tobit.nUpper,
+      };
     } catch (err) {
       if (!(err instanceof DomainError)) throw err;
       warnings.push({
@@ -611,7 +621,10 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
   const nExcluded = prepared.filter((p) => p.status === 'excluded').length;
   const nCensored = censored.length;
   if (nExcluded > 0) {
-    warnings.push({ code: 'excluded-points', message: `${runsWord(nExcluded)} excluded by the user ${nExcluded === 1 ? 'is' : 'are'} shown but not fitted.` });
+    warnings.push({
+      code: 'excluded-points',
+      message: `${runsWord(nExcluded)} excluded by the user ${nExcluded === 1 ? 'is' : 'are'} shown but not fitted.`,
+    });
   }
   if (nCensored > 0) {
     warnings.push({
@@ -661,7 +674,12 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
 
   let leastSquaresWithoutBounds: LeastSquaresSummary | null = null;
   if (estimator === 'censored-ml') {
-    const ls = activationFromLine(line.intercept, line.slope, intervalsAvailable ? line.covariance : null, lsModel.quantile(confidenceLevel));
+    const ls = activationFromLine(
+      line.intercept,
+      line.slope,
+      intervalsAvailable ? line.covariance : null,
+      lsModel.quantile(confidenceLevel),
+    );
     leastSquaresWithoutBounds = {
       nFitted: n,
       ddHJPerMol: ls.ddHJPerMol,

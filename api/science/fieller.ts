@@ -9,9 +9,7 @@
  * cannot bound the ratio at all.
  */
 export type FiellerSet =
-  | { kind: 'bounded'; low: number; high: number }
-  | { kind: 'outside'; below: number; above: number }
-  | { kind: 'everything' };
+  { kind: 'bounded'; low: number; high: number } | { kind: 'outside'; below: number; above: number } | { kind: 'everything' };
 
 export function fiellerInterval(
   numerator: number,

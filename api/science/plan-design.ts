@@ -107,7 +107,11 @@ export function suggestNextRuns(
   const line = fit.line;
   const c = line.varianceScale;
   if (!fit.intervalsAvailable || c === null) {
-    throw new DomainError('intervals-unavailable', 'suggesting runs needs a screen with three or more distinct temperatures', 'measurements');
+    throw new DomainError(
+      'intervals-unavailable',
+      'suggesting runs needs a screen with three or more distinct temperatures',
+      'measurements',
+    );
   }
   const stepK = options.stepK ?? 1;
   const nCand = Math.max(1, Math.floor((toK - fromK) / stepK + 1e-9));
@@ -116,7 +120,13 @@ export function suggestNextRuns(
   const w = line.sumWeights / line.n;
   const m0: LineInformation = [line.sumWeights, line.sumWeights * line.xMean, line.sxx + line.sumWeights * line.xMean * line.xMean];
   const x0 = 1 / targetK;
-  const chosenX = cOptimalAdditions(m0, w, temps.map((t) => 1 / t), x0, count);
+  const chosenX = cOptimalAdditions(
+    m0,
+    w,
+    temps.map((t) => 1 / t),
+    x0,
+    count,
+  );
   const mAfter = chosenX.reduce((m, x) => addRun(m, x, w), m0);
   const vBefore = varianceFactor(m0, x0);
   const vAfter = varianceFactor(mAfter, x0);
@@ -131,6 +141,6 @@ export function suggestNextRuns(
     halfWidthAfter: qAfter * Math.sqrt(c * vAfter + sigma2Run),
     meanHalfWidthBefore: qBefore * Math.sqrt(c * vBefore),
     meanHalfWidthAfter: qAfter * Math.sqrt(c * vAfter),
-    note: 'Expected widths assume the new runs scatter as the screen does now; a new run can never be predicted more closely than one run\'s own scatter.',
+    note: "Expected widths assume the new runs scatter as the screen does now; a new run can never be predicted more closely than one run's own scatter.",
   };
 }

@@ -141,10 +141,17 @@ class PlanModel {
   private segmentedPredictive(model: ScreenModel & { kind: 'segmented' }, temperatureK: number, runs: number): PredictiveLnR {
     requireTemperatureK(temperatureK, 'temperatureK');
     const center = predictiveLnRatio(model, temperatureK);
-    const sigma = this.input.newRunUncertainty === undefined ? undefined : newRunSigmaLnR(this.input.specification.measure, this.input.newRunUncertainty, center.mean);
+    const sigma =
+      this.input.newRunUncertainty === undefined
+        ? undefined
+        : newRunSigmaLnR(this.input.specification.measure, this.input.newRunUncertainty, center.mean);
     const p = sigma === undefined ? center : predictiveLnRatio(model, temperatureK, { sigmaNewLnR: sigma });
     if (p.sdMean === null || p.sdNewRun === null) {
-      throw new DomainError('intervals-unavailable', 'the two-branch model has no estimate of scatter, so no probability can be given', 'measurements');
+      throw new DomainError(
+        'intervals-unavailable',
+        'the two-branch model has no estimate of scatter, so no probability can be given',
+        'measurements',
+      );
     }
     const varMean = p.sdMean * p.sdMean;
     const varRun = Math.max(0, p.sdNewRun * p.sdNewRun - varMean);
@@ -209,7 +216,11 @@ function validateConstraints(input: PlanInput): void {
   const { rate, hold } = input;
   if (rate) {
     if (!(rate.targetConversion > 0 && rate.targetConversion < 1)) {
-      throw new DomainError('conversion-out-of-range', 'rate.targetConversionPercent must lie between 0 and 100 %', 'rate.targetConversionPercent');
+      throw new DomainError(
+        'conversion-out-of-range',
+        'rate.targetConversionPercent must lie between 0 and 100 %',
+        'rate.targetConversionPercent',
+      );
     }
     if (rate.maxTimeS !== undefined && !(rate.maxTimeS > 0 && Number.isFinite(rate.maxTimeS))) {
       throw new DomainError('time-not-positive', 'rate.maxTime must be a positive duration', 'rate.maxTime.value');
@@ -217,7 +228,8 @@ function validateConstraints(input: PlanInput): void {
   }
   if (hold) {
     resolveBarrier(hold.barrier, 'hold.barrier');
-    if (!(hold.timeS > 0 && Number.isFinite(hold.timeS))) throw new DomainError('time-not-positive', 'hold.time must be a positive duration', 'hold.time.value');
+    if (!(hold.timeS > 0 && Number.isFinite(hold.timeS)))
+      throw new DomainError('time-not-positive', 'hold.time must be a positive duration', 'hold.time.value');
     if (!(hold.floorEePercent > 0 && hold.floorEePercent < 100)) {
       throw new DomainError('floor-out-of-range', 'hold.floorEePercent must lie between 0 and 100 %', 'hold.floorEePercent');
     }
@@ -269,7 +281,8 @@ function describeNeed(constraint: PlanConstraint, ranges: [number, number][], lo
   const b = ranges[ranges.length - 1]![1];
   const fromEdge = a <= lo + ROOT_TOLERANCE_K;
   const toEdge = b >= hi - ROOT_TOLERANCE_K;
-  if (fromEdge && toEdge) return { constraint, kind: 'everywhere', lowK: null, highK: null, message: `${label} is met at every temperature` };
+  if (fromEdge && toEdge)
+    return { constraint, kind: 'everywhere', lowK: null, highK: null, message: `${label} is met at every temperature` };
   if (fromEdge) return { constraint, kind: 'at-most', lowK: null, highK: b, message: `${label} needs ≤ ${fmt(b)}` };
   if (toEdge) return { constraint, kind: 'at-least', lowK: a, highK: null, message: `${label} needs ≥ ${fmt(a)}` };
   return { constraint, kind: 'between', lowK: a, highK: b, message: `${label} needs ${fmt(a)} to ${fmt(b)}` };
@@ -329,7 +342,12 @@ export function planTemperature(input: PlanInput): PlanResult {
   const hi = to + NEEDS_MARGIN_K;
   const names = model.constraintNames();
   const needs = names.map((c) =>
-    describeNeed(c, positiveRanges((t) => model.margins(t)[c]!, lo, hi, 1), lo, hi),
+    describeNeed(
+      c,
+      positiveRanges((t) => model.margins(t)[c]!, lo, hi, 1),
+      lo,
+      hi,
+    ),
   );
 
   const binding = new Set<PlanConstraint>();
@@ -368,7 +386,10 @@ export function planTemperature(input: PlanInput): PlanResult {
       for (const n of needs) if (n.kind !== 'everywhere') blame.add(n.constraint);
       parts.push(`no temperature meets ${[...blame].map((c) => CONSTRAINT_LABEL[c]).join(' and ')} at once`);
     }
-    conflict = { message: `No temperature from ${fmt(from)} to ${fmt(to)} satisfies everything: ${parts.join('; ')}.`, gapK: worst ? worst.gap : null };
+    conflict = {
+      message: `No temperature from ${fmt(from)} to ${fmt(to)} satisfies everything: ${parts.join('; ')}.`,
+      gapK: worst ? worst.gap : null,
+    };
     for (const c of blame) binding.add(c);
     const spec = needs.find((n) => n.constraint === 'specification');
     if (blame.has('specification')) {

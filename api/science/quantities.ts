@@ -130,14 +130,16 @@ export function selectivityProblem(measure: SelectivityMeasure, value: number | 
     if (!isPairMeasure(measure)) return `${measure} must be a number, not "${value}"`;
     const pair = parseRatioPair(value);
     if (!pair) return `"${value}" is not a ratio; write it as a:b, e.g. 95:5`;
-    if (!(pair.a > 0 && pair.b > 0)) return `both parts of ${measure} ${value} must be greater than zero (a zero part means an infinite energy gap; report the detection limit instead)`;
+    if (!(pair.a > 0 && pair.b > 0))
+      return `both parts of ${measure} ${value} must be greater than zero (a zero part means an infinite energy gap; report the detection limit instead)`;
     return null;
   }
   if (!Number.isFinite(value)) return `${measure} must be a finite number`;
   switch (measure) {
     case 'ee':
       if (Math.abs(value) > 100) return `ee ${value} % is outside −100 to 100 %`;
-      if (Math.abs(value) === 100) return 'ee of ±100 % implies an infinite energy gap; enter the detection limit (e.g. 99.8) and mark it as a lower bound';
+      if (Math.abs(value) === 100)
+        return 'ee of ±100 % implies an infinite energy gap; enter the detection limit (e.g. 99.8) and mark it as a lower bound';
       return null;
     case 'percentA':
       if (value <= 0 || value >= 100) return `percent A must lie strictly between 0 and 100, got ${value}`;
@@ -157,7 +159,11 @@ export type SelectivityText = { ok: true; value: number | string; atLeast: boole
  */
 export function readSelectivityText(text: string, measure: SelectivityMeasure, decimal: DecimalMark = 'either'): SelectivityText {
   const { text: body, bound } = splitBound(text);
-  if (bound === 'upper') return { ok: false, message: `"${text.trim()}" is an upper bound; only lower bounds (≥, >, or a trailing +) can be recorded, e.g. "≥ 99.8"` };
+  if (bound === 'upper')
+    return {
+      ok: false,
+      message: `"${text.trim()}" is an upper bound; only lower bounds (≥, >, or a trailing +) can be recorded, e.g. "≥ 99.8"`,
+    };
   const atLeast = bound === 'lower';
   if (body === '') return { ok: false, message: 'the selectivity is missing' };
   if (body.includes(':')) {
@@ -170,7 +176,8 @@ export function readSelectivityText(text: string, measure: SelectivityMeasure, d
   if (n === null) return { ok: false, message: `“${body}” is not a number${isPairMeasure(measure) ? ' or a ratio a:b' : ''}` };
   const problem = selectivityProblem(measure, n);
   if (problem) return { ok: false, message: problem };
-  if (atLeast && measure === 'ee' && n < 0) return { ok: false, message: `a lower bound must be for product A (a positive ee), got "${text.trim()}"` };
+  if (atLeast && measure === 'ee' && n < 0)
+    return { ok: false, message: `a lower bound must be for product A (a positive ee), got "${text.trim()}"` };
   return { ok: true, value: n, atLeast };
 }
 
@@ -330,7 +337,9 @@ export type PercentAxis = 'ee' | 'percentA';
  */
 export function axisText(measure: SelectivityMeasure, axis: PercentAxis): { button: string; axis: string; unit: string } {
   if (measure === 'dr') {
-    return axis === 'ee' ? { button: '% de', axis: 'de (%)', unit: '% de' } : { button: '% major', axis: 'major diastereomer (%)', unit: '% major' };
+    return axis === 'ee'
+      ? { button: '% de', axis: 'de (%)', unit: '% de' }
+      : { button: '% major', axis: 'major diastereomer (%)', unit: '% major' };
   }
   if (axis === 'percentA') return { button: '% A', axis: 'A (% of A + B)', unit: '% A' };
   if (measure === 'ee' || measure === 'er') return { button: 'ee %', axis: 'ee (%)', unit: '% ee' };

@@ -67,7 +67,10 @@ export function fitRateFromRuns(
     });
   }
   if (line.slopeSe === null) {
-    warnings.push({ code: 'rate-without-interval', message: 'Two runs define the rate line exactly: times are given without an interval.' });
+    warnings.push({
+      code: 'rate-without-interval',
+      message: 'Two runs define the rate line exactly: times are given without an interval.',
+    });
   }
   return {
     setup,

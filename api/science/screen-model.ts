@@ -37,7 +37,16 @@ export interface LnRatioPredictive {
 export function predictiveLnRatio(model: ScreenModel, temperatureK: number, options: { sigmaNewLnR?: number } = {}): LnRatioPredictive {
   if (model.kind === 'segmented') {
     const p = predictSegmented(model.fit, temperatureK, options.sigmaNewLnR);
-    return { model: 'segmented', temperatureK, mean: p.lnRatio, sdMean: p.seMean, sdNewRun: p.seNewRun, dof: p.dof, branch: p.branch, extrapolated: p.extrapolated };
+    return {
+      model: 'segmented',
+      temperatureK,
+      mean: p.lnRatio,
+      sdMean: p.seMean,
+      sdNewRun: p.seNewRun,
+      dof: p.dof,
+      branch: p.branch,
+      extrapolated: p.extrapolated,
+    };
   }
   const { line, temperatureRangeK, intervalsAvailable } = model.fit;
   const p = predictLine(line, 1 / temperatureK, 0.95, options.sigmaNewLnR === undefined ? {} : { sigmaNew: options.sigmaNewLnR });

@@ -249,7 +249,13 @@ interface Design {
 }
 
 /** Weighted straight line through group means; returns its SS about the means. */
-function lineSs(u: ArrayLike<number>, w: ArrayLike<number>, y: ArrayLike<number>, from: number, to: number): { a: number; b: number; ss: number } {
+function lineSs(
+  u: ArrayLike<number>,
+  w: ArrayLike<number>,
+  y: ArrayLike<number>,
+  from: number,
+  to: number,
+): { a: number; b: number; ss: number } {
   let sw = 0;
   let su = 0;
   let sy = 0;
@@ -274,7 +280,12 @@ function lineSs(u: ArrayLike<number>, w: ArrayLike<number>, y: ArrayLike<number>
 }
 
 /** Least squares of y on [1, u, (u − psi)₊]; null when singular. */
-function kneeFit(u: ArrayLike<number>, w: ArrayLike<number>, y: ArrayLike<number>, psi: number): { beta: [number, number, number]; ss: number } | null {
+function kneeFit(
+  u: ArrayLike<number>,
+  w: ArrayLike<number>,
+  y: ArrayLike<number>,
+  psi: number,
+): { beta: [number, number, number]; ss: number } | null {
   const m = u.length;
   const ata = [
     [0, 0, 0],
@@ -443,7 +454,12 @@ function groupRuns(points: { temperatureK: number; y: number; w: number }[]): De
   const validSplits = groups.map((g, j) => {
     leftRuns += g.runs;
     if (j >= m - 1) return false;
-    return j + 1 >= MIN_TEMPERATURES_PER_BRANCH && m - j - 1 >= MIN_TEMPERATURES_PER_BRANCH && leftRuns >= MIN_RUNS_PER_BRANCH && n - leftRuns >= MIN_RUNS_PER_BRANCH;
+    return (
+      j + 1 >= MIN_TEMPERATURES_PER_BRANCH &&
+      m - j - 1 >= MIN_TEMPERATURES_PER_BRANCH &&
+      leftRuns >= MIN_RUNS_PER_BRANCH &&
+      n - leftRuns >= MIN_RUNS_PER_BRANCH
+    );
   });
   return { groups, n, center, scale, validSplits };
 }
@@ -539,7 +555,14 @@ export function checkCurvature(measurements: readonly EyringMeasurement[], optio
   const warnings: Warning[] = [];
   const distinct = new Set(usable.map((p) => Math.round(p.measurement.temperatureK * 1e6))).size;
   if (usable.length < 2 * MIN_RUNS_PER_BRANCH || distinct < 2 * MIN_TEMPERATURES_PER_BRANCH) {
-    return { checked: false, n: usable.length, distinctTemperatures: distinct, lackOfFit: null, reason: notEnoughReason(usable.length, distinct), warnings };
+    return {
+      checked: false,
+      n: usable.length,
+      distinctTemperatures: distinct,
+      lackOfFit: null,
+      reason: notEnoughReason(usable.length, distinct),
+      warnings,
+    };
   }
   const { mode, sigma } = resolveWeighting(usable, options.weighting ?? 'auto', warnings);
   if (mode === 'absolute') {
@@ -636,7 +659,9 @@ export function checkCurvature(measurements: readonly EyringMeasurement[], optio
   // r peaks where ln r rises with 1/T on the warm side (positive slope) and falls on the cold side.
   const extremum = claim === 'isoinversion' ? (slopeHigh > 0 ? 'maximum' : 'minimum') : null;
   const pText = pValue < 0.001 ? 'p < 0.001' : `p = ${pValue.toFixed(3)}`;
-  const ciText = breakCiK ? ` (${Math.round(level * 100)} % CI ${breakCiK[0].toFixed(0)}–${breakCiK[1] === null ? 'unbounded' : breakCiK[1].toFixed(0)} K)` : '';
+  const ciText = breakCiK
+    ? ` (${Math.round(level * 100)} % CI ${breakCiK[0].toFixed(0)}–${breakCiK[1] === null ? 'unbounded' : breakCiK[1].toFixed(0)} K)`
+    : '';
   const reason =
     claim === 'isoinversion'
       ? `Two branches: the break test gives ${pText} < ${alpha}. The branch slopes have opposite signs, so ${describeTemperatureK(breakTemperatureK)}${ciText} is an isoinversion temperature, where r passes through a ${extremum}.`

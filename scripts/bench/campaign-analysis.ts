@@ -39,22 +39,46 @@ async function run() {
   await migrateLatest(knex);
   try {
     const tag = randomBytes(4).toString('hex');
-    const [user] = await knex('users').insert({ provider: 'local-demo', providerUserId: `bench-${tag}`, login: `bench-${tag}`, displayName: 'Bench user' }).returning('*');
-    const [project] = await knex('projects').insert({ name: `Bench project ${tag}`, description: 'Synthetic load, not demo data.', createdBy: user.id }).returning('*');
+    const [user] = await knex('users')
+      .insert({ provider: 'local-demo', providerUserId: `bench-${tag}`, login: `bench-${tag}`, displayName: 'Bench user' })
+      .returning('*');
+    const [project] = await knex('projects')
+      .insert({ name: `Bench project ${tag}`, description: 'Synthetic load, not demo data.', createdBy: user.id })
+      .returning('*');
     await knex('projectMembers').insert({ projectId: project.id, userId: user.id, role: 'owner' });
     const campaign = await Campaign.query(knex)
-      .insert({ projectId: project.id, title: `Bench screen ${tag}`, productNameA: 'A', productNameB: 'B', measure: 'ee', assayMethod: 'chiral-hplc', defaultUncertainty: 0.3, status: 'active' })
+      .insert({
+        projectId: project.id,
+        title: `Bench screen ${tag}`,
+        productNameA: 'A',
+        productNameB: 'B',
+        measure: 'ee',
+        assayMethod: 'chiral-hplc',
+        defaultUncertainty: 0.3,
+        status: 'active',
+      })
       .returning('*');
     // Synthetic runs (not demo data): 40 temperatures from −80 to +40 °C, ln r = 1200/T − 1.2 with deterministic scatter.
     const rows = Array.from({ length: RUNS }, (_, i) => {
       const temperatureK = 193.15 + (i % 40) * 3;
       const lnR = 1200 / temperatureK - 1.2 + 0.04 * Math.sin(i * 0.91);
-      return { campaignId: campaign.id, temperatureK, measure: 'ee', value: Math.round(10000 * Math.tanh(lnR / 2)) / 100, uncertainty: 0.3, createdByUserId: user.id };
+      return {
+        campaignId: campaign.id,
+        temperatureK,
+        measure: 'ee',
+        value: Math.round(10000 * Math.tanh(lnR / 2)) / 100,
+        uncertainty: 0.3,
+        createdByUserId: user.id,
+      };
     });
     for (let i = 0; i < rows.length; i += 500) await knex('measurements').insert(rows.slice(i, i + 500));
     const { secret } = await createToken(user.id, { name: 'bench', expiresInDays: 1 });
 
-    const measurements = await Measurement.query(knex).where({ campaignId: campaign.id }).orderBy('temperatureK').orderBy('createdAt').orderBy('id');
+    const measurements = await Measurement.query(knex)
+      .where({ campaignId: campaign.id })
+      .orderBy('temperatureK')
+      .orderBy('createdAt')
+      .orderBy('id');
     let bestCompute = Infinity;
     for (let k = 0; k < 20; k++) {
       const t0 = performance.now();
@@ -112,14 +136,20 @@ async function run() {
     server.closeAllConnections();
     // autocannon stops with requests in flight; let their queries finish before the pool goes away.
     const knexPool = (knex.client as { pool: { numUsed(): number; numPendingAcquires(): number } }).pool;
-    for (let waited = 0; waited < 5000 && knexPool.numUsed() + knexPool.numPendingAcquires() > 0; waited += 50) await new Promise((r) => setTimeout(r, 50));
+    for (let waited = 0; waited < 5000 && knexPool.numUsed() + knexPool.numPendingAcquires() > 0; waited += 50)
+      await new Promise((r) => setTimeout(r, 50));
     if (load.non2xx > 0 || load.errors > 0) throw new Error(`${load.non2xx} non-2xx answers, ${load.errors} errors under load`);
-    if (bareLoad.non2xx > 0 || bareLoad.errors > 0) throw new Error(`bare route: ${bareLoad.non2xx} non-2xx answers, ${bareLoad.errors} errors under load`);
+    if (bareLoad.non2xx > 0 || bareLoad.errors > 0)
+      throw new Error(`bare route: ${bareLoad.non2xx} non-2xx answers, ${bareLoad.errors} errors under load`);
 
     console.log(`\nCampaign analysis: GET /campaigns/:id/analysis, ${RUNS} stored runs`);
     console.log(`analysis alone (no HTTP, no DB), best of 20: ${bestCompute.toFixed(1)} ms`);
-    console.log(`${SEQUENTIAL} sequential requests: p50 ${percentile(times, 50).toFixed(1)} ms, p99 ${percentile(times, 99).toFixed(1)} ms`);
-    console.log(`${CONNECTIONS} connections, ${DURATION_S} s (autocannon): ${load.requests.average.toFixed(0)} req/s, p50 ${load.latency.p50} ms, p99 ${load.latency.p99} ms`);
+    console.log(
+      `${SEQUENTIAL} sequential requests: p50 ${percentile(times, 50).toFixed(1)} ms, p99 ${percentile(times, 99).toFixed(1)} ms`,
+    );
+    console.log(
+      `${CONNECTIONS} connections, ${DURATION_S} s (autocannon): ${load.requests.average.toFixed(0)} req/s, p50 ${load.latency.p50} ms, p99 ${load.latency.p99} ms`,
+    );
     console.log(
       `bare pg route, same rows as JSON: ${bareLoad.requests.average.toFixed(0)} req/s, p50 ${bareLoad.latency.p50} ms, p99 ${bareLoad.latency.p99} ms; ratio ${(load.requests.average / bareLoad.requests.average).toFixed(2)}× (target ≥ 0.5×)`,
     );

@@ -35,7 +35,11 @@ async function run() {
   await migrateLatest(knex);
   const provider = await startFakeOAuthProvider();
   // Test mode: session cookies without the Secure flag, since the page is served over plain loopback HTTP.
-  const app = createApp({ knex, config: loadConfig({ nodeEnv: 'test', devTools: true, databaseUrl: process.env.DATABASE_URL! }), fakeOAuth: provider });
+  const app = createApp({
+    knex,
+    config: loadConfig({ nodeEnv: 'test', devTools: true, databaseUrl: process.env.DATABASE_URL! }),
+    fakeOAuth: provider,
+  });
   const tag = randomBytes(4).toString('hex');
   const identity = { login: `page-bench-${tag}`, name: 'Page bench', email: `page-bench-${tag}@example.test` };
   const browser = await openBrowser(app);
@@ -44,17 +48,35 @@ async function run() {
     const { done, user } = await signIn(app, identity);
     const cookie = sessionCookie(done.headers['set-cookie'] as unknown as string[]);
     if (!cookie) throw new Error('sign-in set no session cookie');
-    const [project] = await knex('projects').insert({ name: `Page bench ${tag}`, description: 'Synthetic load, not demo data.', createdBy: user.id }).returning('*');
+    const [project] = await knex('projects')
+      .insert({ name: `Page bench ${tag}`, description: 'Synthetic load, not demo data.', createdBy: user.id })
+      .returning('*');
     projectId = project.id;
     await knex('projectMembers').insert({ projectId: project.id, userId: user.id, role: 'owner' });
     const [campaign] = await knex('campaigns')
-      .insert({ projectId: project.id, title: `Page bench screen ${tag}`, productNameA: 'A', productNameB: 'B', measure: 'ee', assayMethod: 'chiral-hplc', defaultUncertainty: 0.3, status: 'active' })
+      .insert({
+        projectId: project.id,
+        title: `Page bench screen ${tag}`,
+        productNameA: 'A',
+        productNameB: 'B',
+        measure: 'ee',
+        assayMethod: 'chiral-hplc',
+        defaultUncertainty: 0.3,
+        status: 'active',
+      })
       .returning('*');
     // Synthetic runs (not demo data): 40 temperatures from −80 to +37 °C, ln r = 1200/T − 1.2 with deterministic scatter.
     const rows = Array.from({ length: RUNS }, (_, i) => {
       const temperatureK = 193.15 + (i % 40) * 3;
       const lnR = 1200 / temperatureK - 1.2 + 0.04 * Math.sin(i * 0.91);
-      return { campaignId: campaign.id, temperatureK, measure: 'ee', value: Math.round(10000 * Math.tanh(lnR / 2)) / 100, uncertainty: 0.3, createdByUserId: user.id };
+      return {
+        campaignId: campaign.id,
+        temperatureK,
+        measure: 'ee',
+        value: Math.round(10000 * Math.tanh(lnR / 2)) / 100,
+        uncertainty: 0.3,
+        createdByUserId: user.id,
+      };
     });
     for (let i = 0; i < rows.length; i += 500) await knex('measurements').insert(rows.slice(i, i + 500));
 

@@ -27,7 +27,9 @@ export function syntheticScreenCsv(rows: number): Buffer {
   for (let i = 0; i < rows; i++) {
     const tC = 40 - (i % 120);
     const ee = Math.min(99.7, 90 + (40 - tC) * 0.08 + 0.2 * Math.sin(i * 0.37));
-    lines.push(`BENCH-${i},${String.fromCharCode(97 + (i % 3))},${tC},${ee.toFixed(2)},0.3,${(90 + (i % 10)).toFixed(1)},${(1 + (i % 24)).toString()},`);
+    lines.push(
+      `BENCH-${i},${String.fromCharCode(97 + (i % 3))},${tC},${ee.toFixed(2)},0.3,${(90 + (i % 10)).toFixed(1)},${(1 + (i % 24)).toString()},`,
+    );
   }
   return Buffer.from(lines.join('\n') + '\n');
 }
@@ -68,7 +70,16 @@ async function measure(fn: () => Promise<unknown>): Promise<Sample> {
 /** The baseline: parse with csv-parse, convert the columns, and insert all rows in one statement. */
 async function rawImport(knex: Knex, campaignId: string, buffer: Buffer): Promise<number> {
   const records: string[][] = parseCsv(buffer, { from_line: 2, relax_column_count: true });
-  const cols = { campaignId: [] as string[], t: [] as number[], v: [] as number[], u: [] as number[], s: [] as string[], r: [] as string[], c: [] as number[], h: [] as number[] };
+  const cols = {
+    campaignId: [] as string[],
+    t: [] as number[],
+    v: [] as number[],
+    u: [] as number[],
+    s: [] as string[],
+    r: [] as string[],
+    c: [] as number[],
+    h: [] as number[],
+  };
   for (const rec of records) {
     cols.campaignId.push(campaignId);
     cols.t.push(kelvinFromCelsius(Number(rec[2])));
@@ -97,29 +108,48 @@ export interface ImportBenchRow {
 
 export async function runImportBenchmark(knex: Knex, sizes = [5_000, 50_000]): Promise<ImportBenchRow[]> {
   await migrateLatest(knex);
-  const [user] = await knex('users').insert({ provider: 'bench', providerUserId: randomUUID(), login: `bench-${Date.now()}` }).returning('id');
+  const [user] = await knex('users')
+    .insert({ provider: 'bench', providerUserId: randomUUID(), login: `bench-${Date.now()}` })
+    .returning('id');
   const [project] = await knex('projects').insert({ name: 'Import benchmark (temporary)' }).returning('id');
   const newCampaign = async (label: string) =>
     (
       await knex('campaigns')
-        .insert({ projectId: project.id, title: `bench ${label} ${randomUUID()}`, productNameA: 'A', productNameB: 'B', measure: 'ee', assayMethod: 'chiral-hplc' })
+        .insert({
+          projectId: project.id,
+          title: `bench ${label} ${randomUUID()}`,
+          productNameA: 'A',
+          productNameB: 'B',
+          measure: 'ee',
+          assayMethod: 'chiral-hplc',
+        })
         .returning('id')
     )[0].id as string;
   const results: ImportBenchRow[] = [];
   try {
     // Warm up both paths (JIT, connection pool, exceljs/csv-parse module load).
     const warm = syntheticScreenCsv(500);
-    await importMeasurements(knex, { projectId: project.id, actorUserId: user.id }, await newCampaign('warm'), { name: 'warm.csv', buffer: warm }, { mapping });
+    await importMeasurements(
+      knex,
+      { projectId: project.id, actorUserId: user.id },
+      await newCampaign('warm'),
+      { name: 'warm.csv', buffer: warm },
+      { mapping },
+    );
     await rawImport(knex, await newCampaign('warm-raw'), warm);
 
     for (const rows of sizes) {
       const buffer = syntheticScreenCsv(rows);
       const limits = { ...IMPORT_LIMITS, maxBytes: Math.max(IMPORT_LIMITS.maxBytes, buffer.length + 1) };
       const a = await newCampaign('import');
-      const imp = await measure(() => importMeasurements(knex, { projectId: project.id, actorUserId: user.id }, a, { name: 'bench.csv', buffer }, { mapping }, limits));
+      const imp = await measure(() =>
+        importMeasurements(knex, { projectId: project.id, actorUserId: user.id }, a, { name: 'bench.csv', buffer }, { mapping }, limits),
+      );
       const b = await newCampaign('raw');
       const raw = await measure(() => rawImport(knex, b, buffer));
-      const [ca, cb] = await Promise.all([a, b].map(async (id) => Number((await knex('measurements').where({ campaignId: id }).count({ n: '*' }).first())!.n)));
+      const [ca, cb] = await Promise.all(
+        [a, b].map(async (id) => Number((await knex('measurements').where({ campaignId: id }).count({ n: '*' }).first())!.n)),
+      );
       if (ca !== rows || cb !== rows) throw new Error(`row counts differ: import ${ca}, raw ${cb}, expected ${rows}`);
       results.push({ rows, import: imp, raw });
     }
@@ -163,7 +193,10 @@ export const importBenchSuite: BenchSuite = {
 };
 
 if (import.meta.url === pathToFileURL(process.argv[1] ?? '').href) {
-  const sizes = process.argv.slice(2).map(Number).filter((n) => n > 0);
+  const sizes = process.argv
+    .slice(2)
+    .map(Number)
+    .filter((n) => n > 0);
   const knex = createKnex(process.env.DATABASE_URL ?? '', { min: 0, max: 4 });
   bindModels(knex);
   try {

@@ -57,7 +57,15 @@ function synthetic(n: number): ReportData {
     } as unknown as Measurement;
   }).sort((a, b) => a.temperatureK - b.temperatureK);
   const analysis = computeAnalysis(campaign, measurements, { weighting: 'none', uncertaintyScale: 'absolute', confidence: 0.95 });
-  return { campaign, measurements, analysis, forecasts: [], project: { name: 'Bench project' }, specification: { measure: 'dr', minimum: 10 }, proposedK: 243.15 };
+  return {
+    campaign,
+    measurements,
+    analysis,
+    forecasts: [],
+    project: { name: 'Bench project' },
+    specification: { measure: 'dr', minimum: 10 },
+    proposedK: 243.15,
+  };
 }
 
 interface Sheet {

@@ -45,7 +45,21 @@ async function load(url: string, body: unknown) {
   const file = path.join(dir, 'body.json');
   await writeFile(file, JSON.stringify(body));
   const run = async (seconds: number) => {
-    const args = [autocannonCli, '-c', String(CONNECTIONS), '-d', String(seconds), '-m', 'POST', '-H', 'content-type=application/json', '-i', file, '--json', url];
+    const args = [
+      autocannonCli,
+      '-c',
+      String(CONNECTIONS),
+      '-d',
+      String(seconds),
+      '-m',
+      'POST',
+      '-H',
+      'content-type=application/json',
+      '-i',
+      file,
+      '--json',
+      url,
+    ];
     const { stdout } = await execFileAsync(process.execPath, args, { maxBuffer: 16 * 1024 * 1024 });
     return JSON.parse(stdout) as { requests: { average: number }; latency: { p50: number; p99: number }; non2xx: number; errors: number };
   };

@@ -11,4 +11,11 @@ export interface BenchSuite {
   run(): Promise<void>;
 }
 
-export const extraSuites: BenchSuite[] = [importBenchSuite, campaignAnalysisBenchSuite, uploadBombsBenchSuite, reportBenchSuite, bundleBenchSuite, campaignPageBenchSuite];
+export const extraSuites: BenchSuite[] = [
+  importBenchSuite,
+  campaignAnalysisBenchSuite,
+  uploadBombsBenchSuite,
+  reportBenchSuite,
+  bundleBenchSuite,
+  campaignPageBenchSuite,
+];

@@ -58,7 +58,13 @@ async function run(): Promise<void> {
     loop.disable();
     const worker = await runInPool({ name, buffer: bytes }, {}, IMPORT_LIMITS).catch(() => null);
     const peak = worker ? (worker.peakMemoryBytes / 1024 / 1024).toFixed(0) : '—';
-    console.log(label.padEnd(46), String(res.status).padStart(6), ms.toFixed(0).padStart(7), (loop.max / 1e6).toFixed(0).padStart(18), peak.padStart(15));
+    console.log(
+      label.padEnd(46),
+      String(res.status).padStart(6),
+      ms.toFixed(0).padStart(7),
+      (loop.max / 1e6).toFixed(0).padStart(18),
+      peak.padStart(15),
+    );
   }
   server.close();
   await closeReadPool();

@@ -22,7 +22,9 @@ export function ensureChromium(log) {
   const found = findChromium();
   if (found) return found;
   if (process.getuid?.() !== 0) {
-    throw new FriendlyError(`the browser tests need Chromium, which is not installed. Install it with:  ${INSTALL}  (or run only other tests: npm test -- tests/unit tests/api)`);
+    throw new FriendlyError(
+      `the browser tests need Chromium, which is not installed. Install it with:  ${INSTALL}  (or run only other tests: npm test -- tests/unit tests/api)`,
+    );
   }
   log('Chromium missing; installing Debian package "chromium" with apt-get for the browser tests…');
   const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' };

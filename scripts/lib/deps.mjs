@@ -16,7 +16,11 @@ export function ensureDependencies() {
   const stamp = path.join(root, 'node_modules', '.eyrie-lock-hash');
   const hash = createHash('sha256').update(readFileSync(lock)).digest('hex');
   if (existsSync(stamp) && readFileSync(stamp, 'utf8').trim() === hash) return;
-  log(existsSync(path.join(root, 'node_modules')) ? 'package-lock.json changed; reinstalling dependencies (npm ci)…' : 'installing dependencies (npm ci)…');
+  log(
+    existsSync(path.join(root, 'node_modules'))
+      ? 'package-lock.json changed; reinstalling dependencies (npm ci)…'
+      : 'installing dependencies (npm ci)…',
+  );
   const r = spawnSync('npm', ['ci', '--no-audit', '--no-fund', '--loglevel=error'], { cwd: root, stdio: 'inherit' });
   if (r.status !== 0) {
     console.error('eyrie: npm ci failed; see the messages above.');
@@ -40,7 +44,10 @@ export function ensureWebBuild({ force = false } = {}) {
   const stale = force || !existsSync(built) || Math.max(...sources.map(newestMtime)) > statSync(built).mtimeMs;
   if (!stale) return;
   log('building the web app (vite build)…');
-  const r = spawnSync(process.execPath, [path.join(root, 'node_modules', 'vite', 'bin', 'vite.js'), 'build', '--logLevel', 'warn'], { cwd: root, stdio: 'inherit' });
+  const r = spawnSync(process.execPath, [path.join(root, 'node_modules', 'vite', 'bin', 'vite.js'), 'build', '--logLevel', 'warn'], {
+    cwd: root,
+    stdio: 'inherit',
+  });
   if (r.status !== 0) {
     console.error('eyrie: the web build failed; see the messages above.');
     process.exit(r.status ?? 1);

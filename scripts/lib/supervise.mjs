@@ -17,7 +17,17 @@ function describeExit(code, signal) {
  * Start `args` under `process.execPath` and keep it running until stop() is called. `onSpawn(child)` runs for
  * every start (to listen for its messages); `log` prints one line per event.
  */
-export function supervise({ name, args, cwd, env, log, onSpawn = () => {}, backoffMs = RESTART_BACKOFF_MS, healthyUptimeMs = HEALTHY_UPTIME_MS, stdio = ['ignore', 'inherit', 'inherit', 'ipc'] }) {
+export function supervise({
+  name,
+  args,
+  cwd,
+  env,
+  log,
+  onSpawn = () => {},
+  backoffMs = RESTART_BACKOFF_MS,
+  healthyUptimeMs = HEALTHY_UPTIME_MS,
+  stdio = ['ignore', 'inherit', 'inherit', 'ipc'],
+}) {
   let child = null;
   let stopping = false;
   let restarts = 0;
@@ -36,7 +46,9 @@ export function supervise({ name, args, cwd, env, log, onSpawn = () => {}, backo
       const wait = backoffMs[Math.min(consecutive, backoffMs.length - 1)];
       consecutive += 1;
       restarts += 1;
-      log(`${name} stopped: ${describeExit(code, signal)} after ${Math.round((Date.now() - startedAt) / 1000)} s; restarting in ${wait / 1000} s (restart ${restarts}; PostgreSQL keeps running)`);
+      log(
+        `${name} stopped: ${describeExit(code, signal)} after ${Math.round((Date.now() - startedAt) / 1000)} s; restarting in ${wait / 1000} s (restart ${restarts}; PostgreSQL keeps running)`,
+      );
       timer = setTimeout(start, wait);
     });
   };

@@ -50,7 +50,14 @@ describe('signing in through the local fake OAuth provider', () => {
     const { app } = await start();
     const startRes = await request(app).get('/auth/github').expect(302);
     const url = new URL(startRes.headers.location);
-    const form = new URLSearchParams({ client_id: url.searchParams.get('client_id')!, redirect_uri: url.searchParams.get('redirect_uri')!, state: 'x', login: 'ok-login', name: 'N', email: 'not-an-address' });
+    const form = new URLSearchParams({
+      client_id: url.searchParams.get('client_id')!,
+      redirect_uri: url.searchParams.get('redirect_uri')!,
+      state: 'x',
+      login: 'ok-login',
+      name: 'N',
+      email: 'not-an-address',
+    });
     const res = await fetch(`${url.origin}${url.pathname}`, { method: 'POST', body: form, redirect: 'manual' });
     expect(res.status).toBe(400);
     expect(await res.text()).toContain('id="e-email"');
@@ -83,10 +90,18 @@ describe('signing in through the local fake OAuth provider', () => {
     const attacker = newIdentity();
     const startRes = await request(app).get('/auth/github').set('Host', '127.0.0.1:3000').expect(302);
     const url = new URL(startRes.headers.location);
-    const form = new URLSearchParams({ client_id: url.searchParams.get('client_id')!, redirect_uri: url.searchParams.get('redirect_uri')!, state: url.searchParams.get('state')!, ...attacker });
+    const form = new URLSearchParams({
+      client_id: url.searchParams.get('client_id')!,
+      redirect_uri: url.searchParams.get('redirect_uri')!,
+      state: url.searchParams.get('state')!,
+      ...attacker,
+    });
     const picked = await fetch(`${url.origin}${url.pathname}`, { method: 'POST', body: form, redirect: 'manual' });
     const callback = new URL(picked.headers.get('location')!);
-    const res = await victim.get(callback.pathname + callback.search).set('Host', '127.0.0.1:3000').expect(303);
+    const res = await victim
+      .get(callback.pathname + callback.search)
+      .set('Host', '127.0.0.1:3000')
+      .expect(303);
     expect(res.headers.location).toBe('/sign-in?error=failed');
     expect((await victim.get('/api/v1/session')).body.user).toBeNull();
   });
@@ -120,7 +135,12 @@ describe('sessions', () => {
     expect(stateCookie).toMatch(/; Secure/);
     expect(stateCookie).toMatch(/HttpOnly/);
     const url = new URL(startRes.headers.location);
-    const form = new URLSearchParams({ client_id: url.searchParams.get('client_id')!, redirect_uri: url.searchParams.get('redirect_uri')!, state: url.searchParams.get('state')!, ...newIdentity() });
+    const form = new URLSearchParams({
+      client_id: url.searchParams.get('client_id')!,
+      redirect_uri: url.searchParams.get('redirect_uri')!,
+      state: url.searchParams.get('state')!,
+      ...newIdentity(),
+    });
     const picked = await fetch(`${url.origin}${url.pathname}`, { method: 'POST', body: form, redirect: 'manual' });
     const callback = new URL(picked.headers.get('location')!);
     const tls = await request(app)

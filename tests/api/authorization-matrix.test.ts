@@ -15,7 +15,6 @@ import { createCampaign, createMeasurements } from '../factories/campaigns';
 import { SavedForecast } from '../../api/models/saved-forecast';
 import { Comparison } from '../../api/models/plan';
 
-
 /**
  * Every /api route × every kind of caller, with the status each must get.
  * Routes are read from the app's router: a route with no rule below fails
@@ -63,7 +62,16 @@ async function anImportFile(c: Cell) {
   const campaign = await createCampaign(c.projectId);
   const content = Buffer.from('Temperature (°C),ee (%)\r\n-20,91.5\r\n');
   const [row] = await testKnex()('importFiles')
-    .insert({ campaignId: campaign.id, fileName: 'matrix.csv', mediaType: 'text/csv', format: 'csv', sizeBytes: content.length, sha256: createHash('sha256').update(content).digest('hex'), content, rowCount: 1 })
+    .insert({
+      campaignId: campaign.id,
+      fileName: 'matrix.csv',
+      mediaType: 'text/csv',
+      format: 'csv',
+      sizeBytes: content.length,
+      sha256: createHash('sha256').update(content).digest('hex'),
+      content,
+      rowCount: 1,
+    })
     .returning('id');
   return { fileId: String(row.id) };
 }
@@ -76,7 +84,15 @@ async function aSignedOffCampaign(c: Cell) {
 async function aJob(c: Cell) {
   const campaign = await createCampaign(c.projectId);
   const [job] = await testKnex()('jobs')
-    .insert({ kind: 'report', projectId: c.projectId, campaignId: campaign.id, createdByUserId: c.viewer.id, state: 'succeeded', resultFile: Buffer.from('PK'), resultFileName: 'matrix.xlsx' })
+    .insert({
+      kind: 'report',
+      projectId: c.projectId,
+      campaignId: campaign.id,
+      createdByUserId: c.viewer.id,
+      state: 'succeeded',
+      resultFile: Buffer.from('PK'),
+      resultFileName: 'matrix.xlsx',
+    })
     .returning('id');
   return { jobId: job.id as string };
 }
@@ -104,7 +120,12 @@ const RULES: Record<string, Rule> = {
   'PATCH /api/v1/projects/:projectId': { access: 'owner', ok: 200, body: () => ({ name: 'Renamed by the matrix', version: 1 }) },
   'DELETE /api/v1/projects/:projectId': { access: 'owner', ok: 204 },
   'GET /api/v1/projects/:projectId/members': { access: 'viewer', ok: 200 },
-  'PATCH /api/v1/projects/:projectId/members/:userId': { access: 'owner', ok: 200, params: (c) => ({ userId: c.viewer.id }), body: () => ({ role: 'editor' }) },
+  'PATCH /api/v1/projects/:projectId/members/:userId': {
+    access: 'owner',
+    ok: 200,
+    params: (c) => ({ userId: c.viewer.id }),
+    body: () => ({ role: 'editor' }),
+  },
   'DELETE /api/v1/projects/:projectId/members/:userId': { access: 'owner', ok: 204, params: (c) => ({ userId: c.viewer.id }) },
   // Any member may leave, except the last owner.
   'DELETE /api/v1/projects/:projectId/membership': { access: 'viewer', ok: { viewer: 204, editor: 204, bearer: 204, owner: 409 } },
@@ -114,7 +135,13 @@ const RULES: Record<string, Rule> = {
     access: 'owner',
     ok: 204,
     params: async (c) => {
-      const inv = await Invitation.query().insertAndFetch({ projectId: c.projectId, email: uniqueEmail(), role: 'viewer', tokenHash: hashSecret(randomUUID()), expiresAt: new Date(Date.now() + 86_400_000) });
+      const inv = await Invitation.query().insertAndFetch({
+        projectId: c.projectId,
+        email: uniqueEmail(),
+        role: 'viewer',
+        tokenHash: hashSecret(randomUUID()),
+        expiresAt: new Date(Date.now() + 86_400_000),
+      });
       return { invitationId: inv.id };
     },
   },
@@ -135,20 +162,39 @@ const RULES: Record<string, Rule> = {
   // Campaigns: viewers read (and download the report), editors write; reached through a campaign,
   // measurement or forecast id, the project is resolved first so outsiders get 404.
   'GET /api/v1/projects/:projectId/campaigns': { access: 'viewer', ok: 200 },
-  'POST /api/v1/projects/:projectId/campaigns': { access: 'editor', ok: 201, body: () => ({ title: `Matrix screen ${randomBytes(3).toString('hex')}`, measure: 'ee', assayMethod: 'chiral-hplc' }) },
+  'POST /api/v1/projects/:projectId/campaigns': {
+    access: 'editor',
+    ok: 201,
+    body: () => ({ title: `Matrix screen ${randomBytes(3).toString('hex')}`, measure: 'ee', assayMethod: 'chiral-hplc' }),
+  },
   'GET /api/v1/projects/:projectId/comparison': { access: 'viewer', ok: 200, params: aCampaign },
   'GET /api/v1/campaigns/:campaignId': { access: 'viewer', ok: 200, params: aCampaign },
-  'PATCH /api/v1/campaigns/:campaignId': { access: 'editor', ok: 200, params: aCampaign, body: () => ({ version: 1, notes: 'changed by the matrix' }) },
+  'PATCH /api/v1/campaigns/:campaignId': {
+    access: 'editor',
+    ok: 200,
+    params: aCampaign,
+    body: () => ({ version: 1, notes: 'changed by the matrix' }),
+  },
   'DELETE /api/v1/campaigns/:campaignId': { access: 'editor', ok: 204, params: aCampaign, query: { version: '1' } },
   'GET /api/v1/campaigns/:campaignId/measurements': { access: 'viewer', ok: 200, params: aCampaign },
   'POST /api/v1/campaigns/:campaignId/measurements': { access: 'editor', ok: 201, params: aCampaign, body: () => oneRun },
-  'POST /api/v1/campaigns/:campaignId/measurements/batch': { access: 'editor', ok: 201, params: aCampaign, body: () => ({ measurements: [oneRun, oneRun] }) },
+  'POST /api/v1/campaigns/:campaignId/measurements/batch': {
+    access: 'editor',
+    ok: 201,
+    params: aCampaign,
+    body: () => ({ measurements: [oneRun, oneRun] }),
+  },
   // Callers who pass authorization without sending a file meet the upload's own 400.
   'POST /api/v1/campaigns/:campaignId/imports/preview': { access: 'editor', ok: 400, params: aCampaign },
   'POST /api/v1/campaigns/:campaignId/imports': { access: 'editor', ok: 400, params: aCampaign },
   'GET /api/v1/campaigns/:campaignId/analysis': { access: 'viewer', ok: 200, params: aScreen },
   'GET /api/v1/campaigns/:campaignId/forecasts': { access: 'viewer', ok: 200, params: aScreen },
-  'POST /api/v1/campaigns/:campaignId/forecasts': { access: 'editor', ok: 201, params: aScreen, body: () => ({ temperature: { value: -10, unit: 'C' } }) },
+  'POST /api/v1/campaigns/:campaignId/forecasts': {
+    access: 'editor',
+    ok: 201,
+    params: aScreen,
+    body: () => ({ temperature: { value: -10, unit: 'C' } }),
+  },
   'GET /api/v1/campaigns/:campaignId/imports/template.csv': { access: 'viewer', ok: 200, params: aCampaign },
   'GET /api/v1/campaigns/:campaignId/files': { access: 'viewer', ok: 200, params: aCampaign },
   'GET /api/v1/import-files/:fileId': { access: 'viewer', ok: 200, params: anImportFile },
@@ -158,7 +204,12 @@ const RULES: Record<string, Rule> = {
   'GET /api/v1/projects/:projectId/history.csv': { access: 'owner', ok: 200 },
   // The factory's campaign has no last editor on record, so any editor may sign it off.
   'POST /api/v1/campaigns/:campaignId/sign-off': { access: 'editor', ok: 200, params: aCampaign, body: () => ({ note: 'matrix check' }) },
-  'POST /api/v1/campaigns/:campaignId/reopen': { access: 'editor', ok: 200, params: aSignedOffCampaign, body: () => ({ reason: 'matrix check' }) },
+  'POST /api/v1/campaigns/:campaignId/reopen': {
+    access: 'editor',
+    ok: 200,
+    params: aSignedOffCampaign,
+    body: () => ({ reason: 'matrix check' }),
+  },
   'GET /api/v1/campaigns/:campaignId/report.xlsx': { access: 'viewer', ok: 200, params: aScreen },
   'POST /api/v1/campaigns/:campaignId/report-jobs': { access: 'viewer', ok: 202, params: aScreen },
   'POST /api/v1/campaigns/:campaignId/report-emails': { access: 'viewer', ok: 202, params: aScreen },
@@ -169,15 +220,32 @@ const RULES: Record<string, Rule> = {
   'GET /api/v1/campaigns/:campaignId/forecast.csv': { access: 'viewer', ok: 200, params: aScreen },
   // Viewers may send the report too; callers who pass authorization with no recipient meet the body's 400.
   'POST /api/v1/campaigns/:campaignId/report/email': { access: 'viewer', ok: 400, params: aScreen, body: () => ({ recipients: [] }) },
-  'PATCH /api/v1/measurements/:measurementId': { access: 'editor', ok: 200, params: aMeasurement, body: () => ({ version: 1, reason: 'matrix check', notes: 'checked' }) },
-  'PUT /api/v1/measurements/:measurementId/exclusion': { access: 'editor', ok: 200, params: aMeasurement, body: () => ({ version: 1, excluded: true, reason: 'matrix check' }) },
-  'DELETE /api/v1/measurements/:measurementId': { access: 'editor', ok: 204, params: aMeasurement, query: { version: '1', reason: 'matrix check' } },
+  'PATCH /api/v1/measurements/:measurementId': {
+    access: 'editor',
+    ok: 200,
+    params: aMeasurement,
+    body: () => ({ version: 1, reason: 'matrix check', notes: 'checked' }),
+  },
+  'PUT /api/v1/measurements/:measurementId/exclusion': {
+    access: 'editor',
+    ok: 200,
+    params: aMeasurement,
+    body: () => ({ version: 1, excluded: true, reason: 'matrix check' }),
+  },
+  'DELETE /api/v1/measurements/:measurementId': {
+    access: 'editor',
+    ok: 204,
+    params: aMeasurement,
+    query: { version: '1', reason: 'matrix check' },
+  },
   'DELETE /api/v1/forecasts/:forecastId': {
     access: 'editor',
     ok: 204,
     params: async (c) => {
       const campaign = await createCampaign(c.projectId);
-      const forecast = await SavedForecast.query().insert({ campaignId: campaign.id, temperatureK: 250, result: { note: 'made by the matrix' } }).returning('*');
+      const forecast = await SavedForecast.query()
+        .insert({ campaignId: campaign.id, temperatureK: 250, result: { note: 'made by the matrix' } })
+        .returning('*');
       return { forecastId: forecast.id };
     },
   },
@@ -192,28 +260,49 @@ const RULES: Record<string, Rule> = {
     access: 'editor',
     ok: 200,
     params: aScreen,
-    body: () => ({ inputs: { specification: aSpecification, temperatures: { from: { value: -60, unit: 'C' }, to: { value: 30, unit: 'C' } }, curvePoints: 5 } }),
+    body: () => ({
+      inputs: {
+        specification: aSpecification,
+        temperatures: { from: { value: -60, unit: 'C' }, to: { value: 30, unit: 'C' } },
+        curvePoints: 5,
+      },
+    }),
   },
   'GET /api/v1/comparisons': { access: 'user', ok: 200 },
   'POST /api/v1/comparisons': {
     access: 'editor',
     ok: 201,
     params: twoScreens,
-    body: (p) => ({ projectId: p.projectId, name: 'Matrix comparison', campaignIds: [p.first, p.second], temperature: { value: -20, unit: 'C' } }),
+    body: (p) => ({
+      projectId: p.projectId,
+      name: 'Matrix comparison',
+      campaignIds: [p.first, p.second],
+      temperature: { value: -20, unit: 'C' },
+    }),
   },
   'GET /api/v1/comparisons/:comparisonId': {
     access: 'viewer',
     ok: 200,
     params: async (c) => {
       const { first, second } = await twoScreens(c);
-      const row = await Comparison.query().insert({ projectId: c.projectId, name: 'Matrix comparison', campaignIds: [first, second], temperatureK: 253.15 }).returning('*');
+      const row = await Comparison.query()
+        .insert({ projectId: c.projectId, name: 'Matrix comparison', campaignIds: [first, second], temperatureK: 253.15 })
+        .returning('*');
       return { comparisonId: row.id };
     },
   },
 };
 
 /** Public calculators and documentation owned by other features: same answer for every valid caller. */
-const PUBLIC_PREFIXES = ['/api/v1/openapi.json', '/api/v1/forecast', '/api/v1/fit', '/api/v1/distribution', '/api/v1/rate', '/api/v1/erosion', '/api/v1/plan'];
+const PUBLIC_PREFIXES = [
+  '/api/v1/openapi.json',
+  '/api/v1/forecast',
+  '/api/v1/fit',
+  '/api/v1/distribution',
+  '/api/v1/rate',
+  '/api/v1/erosion',
+  '/api/v1/plan',
+];
 const ruleFor = (route: string): Rule | undefined =>
   RULES[route] ?? (PUBLIC_PREFIXES.includes(route.split(' ')[1]) ? { access: 'public' } : undefined);
 
@@ -282,7 +371,12 @@ describe('authorization matrix', () => {
           { user: users.viewer, role: 'viewer' },
         ]);
         const me = who in users ? users[who as keyof typeof users] : who === 'bearer' ? users.editor : null;
-        const params = { projectId: project.id, ...(rule.params ? await rule.params({ projectId: project.id, me: who === 'bearer' || who === 'revoked' ? null : me, viewer: users.viewer }) : {}) };
+        const params = {
+          projectId: project.id,
+          ...(rule.params
+            ? await rule.params({ projectId: project.id, me: who === 'bearer' || who === 'revoked' ? null : me, viewer: users.viewer })
+            : {}),
+        };
         const url = pattern.replace(/:(\w+)/g, (_m, name: string) => encodeURIComponent(params[name as keyof typeof params] ?? 'missing'));
         const session = agents[who];
         let req = (session ? session.agent : request(env.app))[method.toLowerCase() as 'get'](url);
@@ -294,7 +388,8 @@ describe('authorization matrix', () => {
         const res = await req;
         if (who === 'anonymous') {
           anonymousStatus = res.status;
-          if (rule.access === 'public' && (res.status === 401 || res.status === 403 || res.status >= 500)) mismatches.push(`${route} anonymous: public route answered ${res.status}`);
+          if (rule.access === 'public' && (res.status === 401 || res.status === 403 || res.status >= 500))
+            mismatches.push(`${route} anonymous: public route answered ${res.status}`);
         }
         const want = expected(rule, who, anonymousStatus);
         if (res.status !== want) mismatches.push(`${route} as ${who}: expected ${want}, got ${res.status} ${res.body?.detail ?? ''}`);

@@ -42,7 +42,11 @@ afterAll(async () => {
 
 function as(who: Who) {
   const { agent, csrf } = sessions[who]!;
-  return { get: (url: string) => agent.get(url), post: (url: string) => agent.post(url).set('X-CSRF-Token', csrf), put: (url: string) => agent.put(url).set('X-CSRF-Token', csrf) };
+  return {
+    get: (url: string) => agent.get(url),
+    post: (url: string) => agent.post(url).set('X-CSRF-Token', csrf),
+    put: (url: string) => agent.put(url).set('X-CSRF-Token', csrf),
+  };
 }
 
 const binary = (r: request.Response, done: (err: Error | null, body: Buffer) => void) => {
@@ -55,7 +59,14 @@ const binary = (r: request.Response, done: (err: Error | null, body: Buffer) => 
 async function drScreen() {
   const res = await as('editor')
     .post(`/api/v1/projects/${project.id}/campaigns`)
-    .send({ title: `=Report screen ${randomBytes(3).toString('hex')}`, productNameA: 'syn', productNameB: 'anti', measure: 'dr', assayMethod: 'nmr', defaultUncertainty: 0.05 });
+    .send({
+      title: `=Report screen ${randomBytes(3).toString('hex')}`,
+      productNameA: 'syn',
+      productNameB: 'anti',
+      measure: 'dr',
+      assayMethod: 'nmr',
+      defaultUncertainty: 0.05,
+    });
   expect(res.status).toBe(201);
   const id = res.body.id as string;
   for (const [i, c] of [-60, -40, -20, 0, 20].entries()) {
@@ -139,7 +150,10 @@ describe('campaign exports', () => {
 
   it('when a viewer e-mails the report to a member, then the message with both files arrives in the sink', async () => {
     const id = await drScreen();
-    const res = await as('viewer').post(`/api/v1/campaigns/${id}/report/email`).send({ recipients: [users.editor.id], message: 'For Monday.' }).expect(200);
+    const res = await as('viewer')
+      .post(`/api/v1/campaigns/${id}/report/email`)
+      .send({ recipients: [users.editor.id], message: 'For Monday.' })
+      .expect(200);
     expect(res.body.sentTo).toEqual([{ userId: users.editor.id, email: users.editor.email }]);
     let mail = env.mailbox.list().find((m) => m.to.includes(users.editor.email!) && m.subject.includes('Report screen'));
     for (let i = 0; !mail && i < 50; i++) {
@@ -149,7 +163,10 @@ describe('campaign exports', () => {
     expect(mail).toBeDefined();
     expect(mail!.text).toContain('For Monday.');
     expect(mail!.text).toContain('process-safety');
-    expect(mail!.attachments.map((a) => a.filename)).toEqual([expect.stringMatching(/-report\.xlsx$/), expect.stringMatching(/-summary\.pdf$/)]);
+    expect(mail!.attachments.map((a) => a.filename)).toEqual([
+      expect.stringMatching(/-report\.xlsx$/),
+      expect.stringMatching(/-summary\.pdf$/),
+    ]);
     const xlsx = env.mailbox.attachment(mail!, 0)!;
     const wb = new ExcelJS.Workbook();
     await wb.xlsx.load(xlsx as unknown as ArrayBuffer);
@@ -160,10 +177,14 @@ describe('campaign exports', () => {
   it('when a recipient is not a member, then nothing is sent and the error names the recipient', async () => {
     const id = await drScreen();
     const before = env.mailbox.list().length;
-    const res = await as('viewer').post(`/api/v1/campaigns/${id}/report/email`).send({ recipients: [users.editor.id, users.outsider.id] });
+    const res = await as('viewer')
+      .post(`/api/v1/campaigns/${id}/report/email`)
+      .send({ recipients: [users.editor.id, users.outsider.id] });
     expect(res.status).toBe(400);
     expect(res.body.errors).toEqual([{ path: 'recipients.1', message: 'is not a member of this project' }]);
-    const empty = await as('viewer').post(`/api/v1/campaigns/${id}/report/email`).send({ recipients: [], attach: ['docx'] });
+    const empty = await as('viewer')
+      .post(`/api/v1/campaigns/${id}/report/email`)
+      .send({ recipients: [], attach: ['docx'] });
     expect(empty.status).toBe(400);
     expect(empty.body.errors.map((e: { path: string }) => e.path).sort()).toEqual(['attach.0', 'recipients']);
     expect(env.mailbox.list().length).toBe(before);
@@ -183,7 +204,14 @@ describe('campaign exports', () => {
 
   it('when an outsider asks for any export, then it is 404', async () => {
     const id = await drScreen();
-    for (const url of ['report.pdf', 'measurements.csv', 'forecast.csv']) expect((await as('outsider').get(`/api/v1/campaigns/${id}/${url}`)).status).toBe(404);
-    expect((await as('outsider').post(`/api/v1/campaigns/${id}/report/email`).send({ recipients: [users.editor.id] })).status).toBe(404);
+    for (const url of ['report.pdf', 'measurements.csv', 'forecast.csv'])
+      expect((await as('outsider').get(`/api/v1/campaigns/${id}/${url}`)).status).toBe(404);
+    expect(
+      (
+        await as('outsider')
+          .post(`/api/v1/campaigns/${id}/report/email`)
+          .send({ recipients: [users.editor.id] })
+      ).status,
+    ).toBe(404);
   });
 });

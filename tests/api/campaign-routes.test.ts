@@ -56,12 +56,20 @@ function as(who: Who) {
   };
 }
 
-const count = async (table: string, where: Record<string, unknown>) => Number((await testKnex()(table).where(where).count({ n: '*' }).first())!.n);
+const count = async (table: string, where: Record<string, unknown>) =>
+  Number((await testKnex()(table).where(where).count({ n: '*' }).first())!.n);
 
 async function newCampaign(overrides: Record<string, unknown> = {}, projectId = project.id) {
   const res = await as('editor')
     .post(`/api/v1/projects/${projectId}/campaigns`)
-    .send({ title: `Route screen ${randomBytes(3).toString('hex')}`, productNameA: '(S)-amine', productNameB: '(R)-amine', measure: 'ee', assayMethod: 'chiral-hplc', ...overrides });
+    .send({
+      title: `Route screen ${randomBytes(3).toString('hex')}`,
+      productNameA: '(S)-amine',
+      productNameB: '(R)-amine',
+      measure: 'ee',
+      assayMethod: 'chiral-hplc',
+      ...overrides,
+    });
   expect(res.status).toBe(201);
   return res.body as { id: string; version: number; title: string };
 }
@@ -131,18 +139,33 @@ describe('campaign CRUD and versions', () => {
     expect(one.headers.etag).toBe('W/"1"');
     // The body names the caller's role, so no cache may replay it to another account.
     expect(one.headers['cache-control']).toBe('private, no-store');
-    expect(one.body).toMatchObject({ id: created.id, projectId: project.id, role: 'viewer', productNameA: '(S)-amine', defaultUncertainty: 0.3 });
+    expect(one.body).toMatchObject({
+      id: created.id,
+      projectId: project.id,
+      role: 'viewer',
+      productNameA: '(S)-amine',
+      defaultUncertainty: 0.3,
+    });
 
     await addRuns(created.id, screen([-20, 0, 20]));
     const list = await as('viewer').get(`/api/v1/projects/${project.id}/campaigns`).expect(200);
     const mine = list.body.campaigns.find((c: { id: string }) => c.id === created.id);
-    expect(mine).toMatchObject({ measurementCount: 3, includedCount: 3, distinctTemperatures: 3, temperatureRangeK: { min: 253.15, max: 293.15 } });
+    expect(mine).toMatchObject({
+      measurementCount: 3,
+      includedCount: 3,
+      distinctTemperatures: 3,
+      temperatureRangeK: { min: 253.15, max: 293.15 },
+    });
 
     const patched = await as('editor').patch(`/api/v1/campaigns/${created.id}`).send({ version: 1, status: 'completed' }).expect(200);
     expect(patched.body).toMatchObject({ version: 2, status: 'completed' });
     expect(patched.headers.etag).toBe('W/"2"');
 
-    const viaHeader = await as('editor').patch(`/api/v1/campaigns/${created.id}`).set('If-Match', 'W/"2"').send({ notes: 'cooling bath logged' }).expect(200);
+    const viaHeader = await as('editor')
+      .patch(`/api/v1/campaigns/${created.id}`)
+      .set('If-Match', 'W/"2"')
+      .send({ notes: 'cooling bath logged' })
+      .expect(200);
     expect(viaHeader.body).toMatchObject({ version: 3, notes: 'cooling bath logged' });
 
     await as('editor').delete(`/api/v1/campaigns/${created.id}?version=3`).expect(204);
@@ -152,7 +175,10 @@ describe('campaign CRUD and versions', () => {
 
   it('when a stale version is sent (body, If-Match or delete), then 409 carries currentVersion and nothing changes', async () => {
     const c = await newCampaign();
-    await as('editor').patch(`/api/v1/campaigns/${c.id}`).send({ version: 1, title: `${c.title} (2)` }).expect(200);
+    await as('editor')
+      .patch(`/api/v1/campaigns/${c.id}`)
+      .send({ version: 1, title: `${c.title} (2)` })
+      .expect(200);
     const stale = await as('owner').patch(`/api/v1/campaigns/${c.id}`).send({ version: 1, notes: 'late edit' });
     expect(stale.status).toBe(409);
     expect(stale.body).toMatchObject({ status: 409, currentVersion: 2 });
@@ -197,9 +223,14 @@ describe('roles', () => {
     await viewer.get(`/api/v1/projects/${project.id}/comparison`).expect(200);
     expect((await viewer.post(`/api/v1/campaigns/${c.id}/measurements`).send(body(screen([0])[0]!))).status).toBe(403);
     expect((await viewer.patch(`/api/v1/campaigns/${c.id}`).send({ version: 1, notes: 'x' })).status).toBe(403);
-    expect((await viewer.put(`/api/v1/measurements/${m!.id}/exclusion`).send({ version: 1, excluded: true, reason: 'viewer tries' })).status).toBe(403);
+    expect(
+      (await viewer.put(`/api/v1/measurements/${m!.id}/exclusion`).send({ version: 1, excluded: true, reason: 'viewer tries' })).status,
+    ).toBe(403);
     expect((await viewer.post(`/api/v1/campaigns/${c.id}/forecasts`).send({ temperature: C(-40) })).status).toBe(403);
-    expect((await viewer.post(`/api/v1/projects/${project.id}/campaigns`).send({ title: 'Viewer screen', measure: 'ee', assayMethod: 'nmr' })).status).toBe(403);
+    expect(
+      (await viewer.post(`/api/v1/projects/${project.id}/campaigns`).send({ title: 'Viewer screen', measure: 'ee', assayMethod: 'nmr' }))
+        .status,
+    ).toBe(403);
     expect(await count('measurements', { campaignId: c.id })).toBe(4);
   });
 
@@ -207,7 +238,12 @@ describe('roles', () => {
     const c = await newCampaign();
     const [m] = await addRuns(c.id, screen([-30, 0, 30]));
     const outsider = as('outsider');
-    for (const url of [`/api/v1/campaigns/${c.id}`, `/api/v1/campaigns/${c.id}/analysis`, `/api/v1/campaigns/${c.id}/report.xlsx`, `/api/v1/projects/${project.id}/comparison`]) {
+    for (const url of [
+      `/api/v1/campaigns/${c.id}`,
+      `/api/v1/campaigns/${c.id}/analysis`,
+      `/api/v1/campaigns/${c.id}/report.xlsx`,
+      `/api/v1/projects/${project.id}/comparison`,
+    ]) {
       expect((await outsider.get(url)).status, url).toBe(404);
     }
     expect((await outsider.patch(`/api/v1/measurements/${m!.id}`).send({ version: 1, notes: 'x' })).status).toBe(404);
@@ -227,13 +263,19 @@ describe('measurements', () => {
     // Sorted by temperature: −40 °C first.
     expect(list.body.measurements.map((m: { temperatureK: number }) => m.temperatureK)).toEqual([233.15, 293.15]);
 
-    const changed = await as('editor').patch(`/api/v1/measurements/${cold!.id}`).send({ version: 1, reason: 'reported as er by the analyst', selectivity: { measure: 'er', value: '95:5' } }).expect(200);
+    const changed = await as('editor')
+      .patch(`/api/v1/measurements/${cold!.id}`)
+      .send({ version: 1, reason: 'reported as er by the analyst', selectivity: { measure: 'er', value: '95:5' } })
+      .expect(200);
     expect(changed.body).toMatchObject({ version: 2, measure: 'er', value: 95, valueB: 5 });
     const stale = await as('editor').patch(`/api/v1/measurements/${cold!.id}`).send({ version: 1, reason: 'late note', notes: 'late' });
     expect(stale.status).toBe(409);
     expect(stale.body.currentVersion).toBe(2);
 
-    const excluded = await as('editor').put(`/api/v1/measurements/${warm!.id}/exclusion`).send({ version: 1, excluded: true, reason: 'bath drifted to −35 °C' }).expect(200);
+    const excluded = await as('editor')
+      .put(`/api/v1/measurements/${warm!.id}/exclusion`)
+      .send({ version: 1, excluded: true, reason: 'bath drifted to −35 °C' })
+      .expect(200);
     expect(excluded.body).toMatchObject({ excluded: true, excludedReason: 'bath drifted to −35 °C', version: 2 });
     const noReason = await as('editor').put(`/api/v1/measurements/${warm!.id}/exclusion`).send({ version: 2, excluded: true });
     expect(noReason.status).toBe(400);
@@ -251,10 +293,15 @@ describe('measurements', () => {
       .post(`/api/v1/campaigns/${c.id}/measurements/batch`)
       .send({ measurements: [runs[0], { ...runs[1], selectivity: { measure: 'ee', value: 100 } }, { ...runs[2], temperature: C(-300) }] });
     expect(bad.status).toBe(400);
-    expect(bad.body.errors.map((e: { path: string }) => e.path)).toEqual(['measurements.1.selectivity.value', 'measurements.2.temperature.value']);
+    expect(bad.body.errors.map((e: { path: string }) => e.path)).toEqual([
+      'measurements.1.selectivity.value',
+      'measurements.2.temperature.value',
+    ]);
     expect(await count('measurements', { campaignId: c.id })).toBe(0);
 
-    const tooMany = await as('editor').post(`/api/v1/campaigns/${c.id}/measurements/batch`).send({ measurements: Array.from({ length: 5001 }, () => runs[0]) });
+    const tooMany = await as('editor')
+      .post(`/api/v1/campaigns/${c.id}/measurements/batch`)
+      .send({ measurements: Array.from({ length: 5001 }, () => runs[0]) });
     expect(tooMany.status).toBe(400);
     expect(tooMany.body.errors[0].path).toBe('measurements');
 
@@ -268,7 +315,10 @@ describe('measurements', () => {
 describe('imports', () => {
   /** Preview (guessing the mapping), then import with the mapping the preview settled on. */
   async function previewThenImport(campaignId: string, file: { name: string; buffer: Buffer }) {
-    const preview = await as('editor').post(`/api/v1/campaigns/${campaignId}/imports/preview`).attach('file', file.buffer, file.name).field('request', '{}');
+    const preview = await as('editor')
+      .post(`/api/v1/campaigns/${campaignId}/imports/preview`)
+      .attach('file', file.buffer, file.name)
+      .field('request', '{}');
     expect(preview.status).toBe(200);
     expect(preview.body.errorCount).toBe(0);
     expect(preview.body.mapping).not.toBeNull();
@@ -303,12 +353,23 @@ describe('imports', () => {
   it('when the file with errors is imported, then 422 lists row and column issues and nothing is written', async () => {
     const c = await newCampaign();
     const file = sample('kestrelmoor-screen-with-errors.csv');
-    const preview = await as('editor').post(`/api/v1/campaigns/${c.id}/imports/preview`).attach('file', file.buffer, file.name).field('request', '{}').expect(200);
+    const preview = await as('editor')
+      .post(`/api/v1/campaigns/${c.id}/imports/preview`)
+      .attach('file', file.buffer, file.name)
+      .field('request', '{}')
+      .expect(200);
     expect(preview.body.errorCount).toBeGreaterThan(0);
     const res = await as('editor')
       .post(`/api/v1/campaigns/${c.id}/imports`)
       .attach('file', file.buffer, file.name)
-      .field('request', JSON.stringify({ mapping: preview.body.suggestedMapping.mapping ?? preview.body.mapping ?? { columns: { temperature: 2, value: 3 }, temperatureUnit: 'C', measure: 'ee' }, acknowledgeWarnings: true }));
+      .field(
+        'request',
+        JSON.stringify({
+          mapping: preview.body.suggestedMapping.mapping ??
+            preview.body.mapping ?? { columns: { temperature: 2, value: 3 }, temperatureUnit: 'C', measure: 'ee' },
+          acknowledgeWarnings: true,
+        }),
+      );
     expect(res.status).toBe(422);
     expect(res.body.title).toBe('Import rejected');
     const errors = res.body.issues.filter((i: { severity: string }) => i.severity === 'error');
@@ -351,31 +412,49 @@ describe('analysis', () => {
     expect(other.headers.etag).not.toBe(tag);
 
     // A changed run does not bump the campaign's version, yet the cached analysis must go.
-    await as('editor').patch(`/api/v1/measurements/${stored[0]!.id}`).send({ version: 1, reason: 'assay re-run', selectivity: { measure: 'ee', value: 50 } }).expect(200);
+    await as('editor')
+      .patch(`/api/v1/measurements/${stored[0]!.id}`)
+      .send({ version: 1, reason: 'assay re-run', selectivity: { measure: 'ee', value: 50 } })
+      .expect(200);
     const afterEdit = await as('viewer').get(url).set('If-None-Match', tag).expect(200);
     expect(afterEdit.headers.etag).not.toBe(tag);
     expect(afterEdit.body.points.find((p: { measurementId: string }) => p.measurementId === stored[0]!.id).eePercent).toBeCloseTo(50, 9);
 
     const added = await addRuns(c.id, screen([30]));
-    const afterAdd = await as('viewer').get(url).set('If-None-Match', afterEdit.headers.etag as string).expect(200);
+    const afterAdd = await as('viewer')
+      .get(url)
+      .set('If-None-Match', afterEdit.headers.etag as string)
+      .expect(200);
     expect(afterAdd.body.points).toHaveLength(6);
 
     await as('editor').delete(`/api/v1/measurements/${added[0]!.id}?version=1&reason=duplicate%20entry`).expect(204);
-    const afterDelete = await as('viewer').get(url).set('If-None-Match', afterAdd.headers.etag as string).expect(200);
+    const afterDelete = await as('viewer')
+      .get(url)
+      .set('If-None-Match', afterAdd.headers.etag as string)
+      .expect(200);
     expect(afterDelete.body.points).toHaveLength(5);
 
     // A new campaign version (its default precision weights the fit) is a new analysis too.
     await as('editor').patch(`/api/v1/campaigns/${c.id}`).send({ version: 1, defaultUncertainty: 0.5 }).expect(200);
-    const afterCampaign = await as('viewer').get(url).set('If-None-Match', afterDelete.headers.etag as string).expect(200);
+    const afterCampaign = await as('viewer')
+      .get(url)
+      .set('If-None-Match', afterDelete.headers.etag as string)
+      .expect(200);
     expect(afterCampaign.body.campaignVersion).toBe(2);
-    await as('viewer').get(url).set('If-None-Match', afterCampaign.headers.etag as string).expect(304);
+    await as('viewer')
+      .get(url)
+      .set('If-None-Match', afterCampaign.headers.etag as string)
+      .expect(304);
   });
 
   it('when a campaign is analysed, then the fit equals POST /api/v1/fit on the same runs, excluded run included', async () => {
     const c = await newCampaign();
     const runs = screen([-60, -40, -20, 0, 20, 40]).map((r, i) => ({ ...r, uncertainty: 0.2 + 0.05 * i }));
     const stored = await addRuns(c.id, runs);
-    await as('editor').put(`/api/v1/measurements/${stored[2]!.id}/exclusion`).send({ version: 1, excluded: true, reason: 'sample warmed before quench' }).expect(200);
+    await as('editor')
+      .put(`/api/v1/measurements/${stored[2]!.id}/exclusion`)
+      .send({ version: 1, excluded: true, reason: 'sample warmed before quench' })
+      .expect(200);
 
     const res = await as('viewer').get(`/api/v1/campaigns/${c.id}/analysis?weighting=uncertainty&confidence=0.9&at=-70`).expect(200);
     const a = analysisResponseSchema.parse(res.body);
@@ -392,7 +471,20 @@ describe('analysis', () => {
       [...a.curve.map((p) => p.kelvin), a.at!.kelvin],
     );
     const fit = a.fit!;
-    for (const key of ['n', 'dof', 'slope', 'intercept', 'covariance', 'correlation', 'rSquared', 'ddH', 'ddS', 'ddGAt25C', 'twoBranch', 'predictions'] as const) {
+    for (const key of [
+      'n',
+      'dof',
+      'slope',
+      'intercept',
+      'covariance',
+      'correlation',
+      'rSquared',
+      'ddH',
+      'ddS',
+      'ddGAt25C',
+      'twoBranch',
+      'predictions',
+    ] as const) {
       expect(fit[key], key).toEqual(reference[key]);
     }
     // Warnings are the same, except that extrapolation is reported for the asked temperature
@@ -401,9 +493,19 @@ describe('analysis', () => {
     expect(codes(fit.warnings)).toEqual(codes(reference.warnings));
     expect(fit.warnings.find((w) => w.code === 'extrapolation')!.message).toMatch(/^−?70\.0 °C lies outside/);
     expect(fit.residuals.map((r) => [r.lnRatio, r.residual, r.studentized, r.status])).toEqual(
-      reference.residuals.map((r: { lnRatio: number; residual: number; studentized: number; status: string }) => [r.lnRatio, r.residual, r.studentized, r.status]),
+      reference.residuals.map((r: { lnRatio: number; residual: number; studentized: number; status: string }) => [
+        r.lnRatio,
+        r.residual,
+        r.studentized,
+        r.status,
+      ]),
     );
-    expect(a.points[2]).toMatchObject({ measurementId: stored[2]!.id, status: 'excluded', exclusionReason: 'sample warmed before quench', label: 'KL-T3' });
+    expect(a.points[2]).toMatchObject({
+      measurementId: stored[2]!.id,
+      status: 'excluded',
+      exclusionReason: 'sample warmed before quench',
+      label: 'KL-T3',
+    });
     expect(fit.n).toBe(5);
   });
 
@@ -458,7 +560,10 @@ describe('analysis', () => {
     const empty = await newCampaign();
     const e = (await as('viewer').get(`/api/v1/campaigns/${empty.id}/analysis`).expect(200)).body;
     expect(e).toMatchObject({ fit: null, problem: { code: 'no-measurements' }, curve: [], at: null, points: [] });
-    await addRuns(empty.id, [{ celsius: 0, ee: 95 }, { celsius: 0, ee: 95.2 }]);
+    await addRuns(empty.id, [
+      { celsius: 0, ee: 95 },
+      { celsius: 0, ee: 95.2 },
+    ]);
     const one = (await as('viewer').get(`/api/v1/campaigns/${empty.id}/analysis?at=-20`).expect(200)).body;
     expect(one).toMatchObject({ fit: null, problem: { code: 'too-few-temperatures' }, at: null });
     expect(one.caution).toContain('calorimetry');
@@ -472,7 +577,9 @@ describe('analysis', () => {
     expect(a.fit!.newRun!.note).toMatch(/campaign's setting/);
     expect(a.fit!.quantitationLimit).toMatchObject({ measure: 'ee', value: 99.5 });
     expect(a.at!.newRunSigmaLnR).toEqual(expect.any(Number));
-    const b = analysisResponseSchema.parse((await as('viewer').get(`/api/v1/campaigns/${c.id}/analysis?newRunUncertainty=0.4&quantitationLimit=99.9`).expect(200)).body);
+    const b = analysisResponseSchema.parse(
+      (await as('viewer').get(`/api/v1/campaigns/${c.id}/analysis?newRunUncertainty=0.4&quantitationLimit=99.9`).expect(200)).body,
+    );
     expect(b.fit!.newRun).toMatchObject({ uncertainty: 0.4 });
     expect(b.fit!.quantitationLimit).toMatchObject({ value: 99.9 });
     const bad = await as('viewer').get(`/api/v1/campaigns/${c.id}/analysis?quantitationLimit=150`).expect(400);
@@ -515,13 +622,23 @@ describe('saved forecasts', () => {
     const analysis = (await as('viewer').get(`/api/v1/campaigns/${c.id}/analysis?at=-60`).expect(200)).body;
 
     // A result sent by the client is refused: the server computes it.
-    const forged = await as('editor').post(`/api/v1/campaigns/${c.id}/forecasts`).send({ temperature: C(-60), result: { eePercent: 100 } });
+    const forged = await as('editor')
+      .post(`/api/v1/campaigns/${c.id}/forecasts`)
+      .send({ temperature: C(-60), result: { eePercent: 100 } });
     expect(forged.status).toBe(400);
 
-    const saved = await as('editor').post(`/api/v1/campaigns/${c.id}/forecasts`).send({ temperature: C(-60), label: 'Plant jacket limit' }).expect(201);
+    const saved = await as('editor')
+      .post(`/api/v1/campaigns/${c.id}/forecasts`)
+      .send({ temperature: C(-60), label: 'Plant jacket limit' })
+      .expect(201);
     const view = savedForecastViewSchema.parse(saved.body);
     expect(view.result).toEqual(analysis.at);
-    expect(view).toMatchObject({ label: 'Plant jacket limit', temperatureK: 213.15, createdBy: { id: users.editor.id, login: users.editor.login }, measured: [] });
+    expect(view).toMatchObject({
+      label: 'Plant jacket limit',
+      temperatureK: 213.15,
+      createdBy: { id: users.editor.id, login: users.editor.login },
+      measured: [],
+    });
 
     // Two later runs within 1 K: one on the line, one far below it.
     const lnR = 12_000 / (R * 213.65) - 5 / R; // [C] the screen's own model at −59.5 °C
@@ -535,7 +652,12 @@ describe('saved forecasts', () => {
     const [first] = list.body.forecasts;
     expect(first.id).toBe(view.id);
     expect(first.result).toEqual(view.result); // the snapshot, not a recomputation
-    const byEe = Object.fromEntries(first.measured.map((m: { eePercent: number; insidePredictionInterval: boolean | null }) => [m.eePercent.toFixed(2), m.insidePredictionInterval]));
+    const byEe = Object.fromEntries(
+      first.measured.map((m: { eePercent: number; insidePredictionInterval: boolean | null }) => [
+        m.eePercent.toFixed(2),
+        m.insidePredictionInterval,
+      ]),
+    );
     expect(Object.keys(byEe)).toHaveLength(2);
     expect(byEe[onLine.toFixed(2)]).toBe(true);
     expect(byEe['80.00']).toBe(false);
@@ -548,7 +670,9 @@ describe('saved forecasts', () => {
   it('when the campaign cannot be fitted, then saving a forecast is 422 and stores nothing', async () => {
     const c = await newCampaign();
     await addRuns(c.id, [{ celsius: 0, ee: 90 }]);
-    const res = await as('editor').post(`/api/v1/campaigns/${c.id}/forecasts`).send({ temperature: C(-20) });
+    const res = await as('editor')
+      .post(`/api/v1/campaigns/${c.id}/forecasts`)
+      .send({ temperature: C(-20) });
     expect(res.status).toBe(422);
     expect(res.body.errors[0].path).toBe('temperature');
     expect(await count('savedForecasts', { campaignId: c.id })).toBe(0);
@@ -587,7 +711,10 @@ describe('one grammar for selectivities on every entry point', () => {
       { temperature: C(20), selectivity },
     ],
   });
-  const forecastBody = (selectivity: object) => ({ basis: { kind: 'observed', selectivity, temperature: C(0) }, temperatures: { values: [C(-10)] } });
+  const forecastBody = (selectivity: object) => ({
+    basis: { kind: 'observed', selectivity, temperature: C(0) },
+    temperatures: { values: [C(-10)] },
+  });
   const runBody = (selectivity: object) => ({ temperature: C(20), selectivity });
 
   async function statuses(selectivity: object) {
@@ -595,7 +722,12 @@ describe('one grammar for selectivities on every entry point', () => {
     const fit = await request(env.app).post('/api/v1/fit').send(fitBody(selectivity));
     const forecast = await request(env.app).post('/api/v1/forecast').send(forecastBody(selectivity));
     const run = await as('editor').post(`/api/v1/campaigns/${c.id}/measurements`).send(runBody(selectivity));
-    return { fit: fit.status, forecast: forecast.status, run: run.status, paths: [fit, forecast, run].map((r) => r.body.errors?.[0]?.path ?? null) };
+    return {
+      fit: fit.status,
+      forecast: forecast.status,
+      run: run.status,
+      paths: [fit, forecast, run].map((r) => r.body.errors?.[0]?.path ?? null),
+    };
   }
 
   it('when ee is 100, then /fit, /forecast and a campaign run all answer 400 naming the value', async () => {

@@ -10,7 +10,12 @@ import { AppError, ConflictError, NotFoundError } from '../../api/lib/errors';
 import { toProblem } from '../../api/lib/problem';
 import { importMeasurements } from '../../api/features/imports/service';
 import { ImportNeedsConfirmationError, ImportRejectedError } from '../../api/features/imports/errors';
-import { importMappingSchema, measurementCreateSchema, campaignCreateSchema, measurementUpdateSchema } from '../../api/features/campaigns/schemas';
+import {
+  importMappingSchema,
+  measurementCreateSchema,
+  campaignCreateSchema,
+  measurementUpdateSchema,
+} from '../../api/features/campaigns/schemas';
 import * as service from '../../api/features/campaigns/service';
 import type { User } from '../../api/models/user';
 import type { Project } from '../../api/models/project';
@@ -52,11 +57,27 @@ const skylarkMapping = importMappingSchema.parse({
 describe('importMeasurements', () => {
   it('when the clean sample is imported, then all 12 rows are stored in kelvin and ONE audit event summarises the import', async () => {
     const campaign = await createCampaign(project.id);
-    const result = await importMeasurements(db, actor(), campaign.id, sample('kestrelmoor-skylark-screen.csv'), { mapping: skylarkMapping });
-    expect(result).toEqual({ campaignId: campaign.id, inserted: 12, temperatureRangeK: { min: 253.15, max: 313.15 }, distinctTemperatures: 6, warningCount: 0, file: expect.objectContaining({ name: 'kestrelmoor-skylark-screen.csv', sizeBytes: 550 }) });
+    const result = await importMeasurements(db, actor(), campaign.id, sample('kestrelmoor-skylark-screen.csv'), {
+      mapping: skylarkMapping,
+    });
+    expect(result).toEqual({
+      campaignId: campaign.id,
+      inserted: 12,
+      temperatureRangeK: { min: 253.15, max: 313.15 },
+      distinctTemperatures: 6,
+      warningCount: 0,
+      file: expect.objectContaining({ name: 'kestrelmoor-skylark-screen.csv', sizeBytes: 550 }),
+    });
     const rows = await service.listMeasurements(db, project.id, campaign.id);
     expect(rows).toHaveLength(12);
-    expect(rows[0]).toMatchObject({ temperatureK: 253.15, measure: 'ee', sourceRow: 12, reactionTimeS: 48 * 3600, createdByUserId: user.id, version: 1 });
+    expect(rows[0]).toMatchObject({
+      temperatureK: 253.15,
+      measure: 'ee',
+      sourceRow: 12,
+      reactionTimeS: 48 * 3600,
+      createdByUserId: user.id,
+      version: 1,
+    });
     const events = await db('audit_events').where({ entityId: campaign.id });
     expect(events).toHaveLength(1);
     expect(events[0]).toMatchObject({ action: 'create', entityType: 'measurement_import', actorUserId: user.id, projectId: project.id });
@@ -65,8 +86,15 @@ describe('importMeasurements', () => {
 
   it('when one row of a file is bad, then nothing is written and the error names every bad row and column', async () => {
     const campaign = await createCampaign(project.id);
-    const mapping = importMappingSchema.parse({ columns: { sampleId: 0, replicateLabel: 1, temperature: 2, value: 3 }, temperatureUnit: 'C', measure: 'ee' });
-    const file = { name: 'one-bad-row.csv', buffer: Buffer.from('sample,rep,T (°C),ee (%)\nA-1,a,25,96.5\nA-2,a,0,97.9\nA-3,a,-20,n.d.\nA-4,a,-30,99.0\n') };
+    const mapping = importMappingSchema.parse({
+      columns: { sampleId: 0, replicateLabel: 1, temperature: 2, value: 3 },
+      temperatureUnit: 'C',
+      measure: 'ee',
+    });
+    const file = {
+      name: 'one-bad-row.csv',
+      buffer: Buffer.from('sample,rep,T (°C),ee (%)\nA-1,a,25,96.5\nA-2,a,0,97.9\nA-3,a,-20,n.d.\nA-4,a,-30,99.0\n'),
+    };
     const err = await thrown(importMeasurements(db, actor(), campaign.id, file, { mapping, acknowledgeWarnings: true }));
     expect(err).toBeInstanceOf(ImportRejectedError);
     expect(err.status).toBe(422);
@@ -98,7 +126,12 @@ describe('importMeasurements', () => {
     const err = await thrown(importMeasurements(db, actor(), campaign.id, file, { mapping }));
     expect(err).toBeInstanceOf(ImportNeedsConfirmationError);
     expect(err.extra.issues).toEqual([
-      { severity: 'warning', row: 3, column: 'A "T (°C)"', message: '298 labelled °C would be 571.15 K; it looks like a kelvin value. Check the unit.' },
+      {
+        severity: 'warning',
+        row: 3,
+        column: 'A "T (°C)"',
+        message: '298 labelled °C would be 571.15 K; it looks like a kelvin value. Check the unit.',
+      },
     ]);
     expect(await count('measurements', { campaignId: campaign.id })).toBe(0);
     const ok = await importMeasurements(db, actor(), campaign.id, file, { mapping, acknowledgeWarnings: true });
@@ -108,7 +141,9 @@ describe('importMeasurements', () => {
   it('when the same file is imported twice, then the repeats are warnings naming each row', async () => {
     const campaign = await createCampaign(project.id);
     await importMeasurements(db, actor(), campaign.id, sample('kestrelmoor-skylark-screen.csv'), { mapping: skylarkMapping });
-    const err = await thrown(importMeasurements(db, actor(), campaign.id, sample('kestrelmoor-skylark-screen.csv'), { mapping: skylarkMapping }));
+    const err = await thrown(
+      importMeasurements(db, actor(), campaign.id, sample('kestrelmoor-skylark-screen.csv'), { mapping: skylarkMapping }),
+    );
     expect(err).toBeInstanceOf(ImportNeedsConfirmationError);
     const issues = err.extra.issues as { row: number; message: string }[];
     expect(issues.map((i) => i.row)).toEqual([2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12, 13]);
@@ -118,15 +153,23 @@ describe('importMeasurements', () => {
 
   it('when the campaign belongs to another project or the id is not a uuid, then it is not found and nothing is written', async () => {
     const foreign = await createCampaign(otherProject.id);
-    expect(await thrown(importMeasurements(db, actor(), foreign.id, sample('kestrelmoor-skylark-screen.csv'), { mapping: skylarkMapping }))).toBeInstanceOf(NotFoundError);
-    expect(await thrown(importMeasurements(db, actor(), 'not-a-uuid', sample('kestrelmoor-skylark-screen.csv'), { mapping: skylarkMapping }))).toBeInstanceOf(NotFoundError);
+    expect(
+      await thrown(importMeasurements(db, actor(), foreign.id, sample('kestrelmoor-skylark-screen.csv'), { mapping: skylarkMapping })),
+    ).toBeInstanceOf(NotFoundError);
+    expect(
+      await thrown(importMeasurements(db, actor(), 'not-a-uuid', sample('kestrelmoor-skylark-screen.csv'), { mapping: skylarkMapping })),
+    ).toBeInstanceOf(NotFoundError);
     expect(await count('measurements', { campaignId: foreign.id })).toBe(0);
   });
 });
 
 describe('campaign and measurement services', () => {
   it('when a campaign is created, updated with the current version, then with a stale one, then the stale update is a conflict carrying the current version', async () => {
-    const created = await service.createCampaign(db, actor(), campaignCreateSchema.parse({ title: 'Versioned screen', measure: 'ee', assayMethod: 'chiral-sfc' }));
+    const created = await service.createCampaign(
+      db,
+      actor(),
+      campaignCreateSchema.parse({ title: 'Versioned screen', measure: 'ee', assayMethod: 'chiral-sfc' }),
+    );
     expect(created).toMatchObject({ version: 1, productNameA: 'A', productNameB: 'B', status: 'active', createdByUserId: user.id });
     const updated = await service.updateCampaign(db, actor(), created.id, { version: 1, notes: 'internal temperature logged' });
     expect(updated).toMatchObject({ version: 2, notes: 'internal temperature logged', title: 'Versioned screen' });
@@ -140,25 +183,48 @@ describe('campaign and measurement services', () => {
 
   it('when a second campaign takes an existing title (any case), then it is a conflict naming the title', async () => {
     await service.createCampaign(db, actor(), campaignCreateSchema.parse({ title: 'Unique title', measure: 'ee', assayMethod: 'nmr' }));
-    const err = await thrown(service.createCampaign(db, actor(), campaignCreateSchema.parse({ title: 'UNIQUE TITLE ', measure: 'ee', assayMethod: 'nmr' })));
+    const err = await thrown(
+      service.createCampaign(db, actor(), campaignCreateSchema.parse({ title: 'UNIQUE TITLE ', measure: 'ee', assayMethod: 'nmr' })),
+    );
     expect(err).toBeInstanceOf(ConflictError);
     expect(err.message).toBe('A campaign titled "UNIQUE TITLE" already exists in this project; choose another title.');
   });
 
   it('when a measurement is added in °C with an er pair, then it is stored in kelvin with both parts, and the engine input is rebuilt', async () => {
     const campaign = await createCampaign(project.id);
-    const input = measurementCreateSchema.parse({ temperature: { value: -20, unit: 'C' }, selectivity: { measure: 'er', value: '97.5:2.5' }, reactionTime: { value: 90, unit: 'min' } });
+    const input = measurementCreateSchema.parse({
+      temperature: { value: -20, unit: 'C' },
+      selectivity: { measure: 'er', value: '97.5:2.5' },
+      reactionTime: { value: 90, unit: 'min' },
+    });
     const m = await service.createMeasurement(db, actor(), campaign.id, input);
-    expect(m).toMatchObject({ temperatureK: 253.15, measure: 'er', value: 97.5, valueB: 2.5, reactionTimeS: 5400, isLowerBound: false, version: 1 });
+    expect(m).toMatchObject({
+      temperatureK: 253.15,
+      measure: 'er',
+      value: 97.5,
+      valueB: 2.5,
+      reactionTimeS: 5400,
+      isLowerBound: false,
+      version: 1,
+    });
     expect(service.toSelectivityInput(m)).toEqual({ measure: 'er', value: '97.5:2.5' });
   });
 
   it('when a measurement is excluded with a reason, edited, and then edited with a stale version, then the last is a conflict', async () => {
     const campaign = await createCampaign(project.id);
     const [m] = await createMeasurements(campaign.id, [273.15]);
-    const excluded = await service.setMeasurementExclusion(db, actor(), m.id, { version: 1, excluded: true, reason: 'sample warmed during work-up' });
+    const excluded = await service.setMeasurementExclusion(db, actor(), m.id, {
+      version: 1,
+      excluded: true,
+      reason: 'sample warmed during work-up',
+    });
     expect(excluded).toMatchObject({ excluded: true, excludedReason: 'sample warmed during work-up', version: 2 });
-    const edited = await service.updateMeasurement(db, actor(), m.id, measurementUpdateSchema.parse({ version: 2, reason: 'assay repeated', uncertainty: 0.5 }));
+    const edited = await service.updateMeasurement(
+      db,
+      actor(),
+      m.id,
+      measurementUpdateSchema.parse({ version: 2, reason: 'assay repeated', uncertainty: 0.5 }),
+    );
     expect(edited).toMatchObject({ uncertainty: 0.5, version: 3, excluded: true });
     const err = await thrown(service.setMeasurementExclusion(db, actor(), m.id, { version: 2, excluded: false }));
     expect(err).toBeInstanceOf(ConflictError);
@@ -168,14 +234,21 @@ describe('campaign and measurement services', () => {
     await expect(service.deleteMeasurement(db, actor(), m.id, 3, 'duplicate entry')).rejects.toBeInstanceOf(ConflictError);
     await service.deleteMeasurement(db, actor(), m.id, 4, 'duplicate entry');
     expect(await count('measurements', { id: m.id })).toBe(0);
-    expect(await db('audit_events').where({ entityId: m.id }).orderBy('id').pluck('action')).toEqual(['update', 'update', 'update', 'delete']);
+    expect(await db('audit_events').where({ entityId: m.id }).orderBy('id').pluck('action')).toEqual([
+      'update',
+      'update',
+      'update',
+      'delete',
+    ]);
   });
 
   it('when ids belong to another project or are not uuids, then services answer not found and resolvers null (never a database error)', async () => {
     const foreign = await createCampaign(otherProject.id);
     const [fm] = await createMeasurements(foreign.id, [298.15]);
     await expect(service.getCampaign(db, project.id, foreign.id)).rejects.toBeInstanceOf(NotFoundError);
-    await expect(service.updateMeasurement(db, actor(), fm.id, { version: 1, reason: 'typo', notes: 'x' })).rejects.toBeInstanceOf(NotFoundError);
+    await expect(service.updateMeasurement(db, actor(), fm.id, { version: 1, reason: 'typo', notes: 'x' })).rejects.toBeInstanceOf(
+      NotFoundError,
+    );
     await expect(service.getCampaign(db, project.id, "1' or '1'='1")).rejects.toBeInstanceOf(NotFoundError);
     expect(await service.resolveCampaignProjectId(db, foreign.id)).toBe(otherProject.id);
     expect(await service.resolveMeasurementProjectId(db, fm.id)).toBe(otherProject.id);
@@ -192,12 +265,21 @@ describe('campaign and measurement services', () => {
     await createCampaign(p.id);
     const list = await service.listCampaigns(db, p.id);
     const summary = list.find((s) => s.campaign.id === c.id)!;
-    expect(summary).toMatchObject({ measurementCount: 4, includedCount: 3, distinctTemperatures: 3, temperatureRangeK: { min: 253.15, max: 298.15 } });
+    expect(summary).toMatchObject({
+      measurementCount: 4,
+      includedCount: 3,
+      distinctTemperatures: 3,
+      temperatureRangeK: { min: 253.15, max: 298.15 },
+    });
     expect(list.find((s) => s.campaign.id !== c.id)).toMatchObject({ measurementCount: 0, temperatureRangeK: null });
   });
 
   it('when a forecast is saved, then its snapshot round-trips; deleting the campaign takes its data with it in one audit event', async () => {
-    const campaign = await service.createCampaign(db, actor(), campaignCreateSchema.parse({ title: 'Forecast screen', measure: 'ee', assayMethod: 'chiral-hplc' }));
+    const campaign = await service.createCampaign(
+      db,
+      actor(),
+      campaignCreateSchema.parse({ title: 'Forecast screen', measure: 'ee', assayMethod: 'chiral-hplc' }),
+    );
     await createMeasurements(campaign.id, [253.15, 273.15, 298.15]);
     const snapshot = { eePercent: 98.9, interval: { low: 98.1, high: 99.4 }, model: 'single-line' };
     const f = await service.saveForecast(db, actor(), campaign.id, { temperatureK: 243.15, label: 'plant brine limit', result: snapshot });
@@ -215,17 +297,72 @@ describe('campaign and measurement services', () => {
 describe('database constraints repeat the zod rules', () => {
   // Each case: an input the schema refuses, and the stored row it would have become, inserted directly.
   const cases: { name: string; input: unknown; row: Record<string, unknown>; constraint: string }[] = [
-    { name: 'a temperature at 0 K', input: { temperature: { value: 0, unit: 'K' }, selectivity: { measure: 'ee', value: 90 } }, row: { temperatureK: 0 }, constraint: 'measurements_temperature_range' },
-    { name: 'a temperature below absolute zero', input: { temperature: { value: -300, unit: 'C' }, selectivity: { measure: 'ee', value: 90 } }, row: { temperatureK: -26.85 }, constraint: 'measurements_temperature_range' },
-    { name: 'ee over 100', input: { temperature: { value: 25, unit: 'C' }, selectivity: { measure: 'ee', value: 104.2 } }, row: { value: 104.2 }, constraint: 'measurements_ee_range' },
-    { name: 'ee of exactly 100', input: { temperature: { value: 25, unit: 'C' }, selectivity: { measure: 'ee', value: 100 } }, row: { value: 100 }, constraint: 'measurements_ee_range' },
-    { name: 'percent A of 100', input: { temperature: { value: 25, unit: 'C' }, selectivity: { measure: 'percentA', value: 100 } }, row: { measure: 'percentA', value: 100 }, constraint: 'measurements_percent_a_range' },
-    { name: 'a ratio of zero', input: { temperature: { value: 25, unit: 'C' }, selectivity: { measure: 'ratio', value: 0 } }, row: { measure: 'dr', value: 0 }, constraint: 'measurements_ratio_positive' },
-    { name: 'a pair with a zero part', input: { temperature: { value: 25, unit: 'C' }, selectivity: { measure: 'er', value: '100:0' } }, row: { measure: 'er', value: 100, valueB: 0 }, constraint: 'measurements_pair_positive' },
-    { name: 'a pair given for ee', input: { temperature: { value: 25, unit: 'C' }, selectivity: { measure: 'ee', value: '95:5' } }, row: { value: 95, valueB: 5 }, constraint: 'measurements_ee_range' },
-    { name: 'conversion over 100 %', input: { temperature: { value: 25, unit: 'C' }, selectivity: { measure: 'ee', value: 90 }, conversionPercent: 130 }, row: { conversionPercent: 130 }, constraint: 'measurements_conversion_range' },
-    { name: 'a negative uncertainty', input: { temperature: { value: 25, unit: 'C' }, selectivity: { measure: 'ee', value: 90 }, uncertainty: -0.3 }, row: { uncertainty: -0.3 }, constraint: 'measurements_uncertainty_range' },
-    { name: 'an unknown measure', input: { temperature: { value: 25, unit: 'C' }, selectivity: { measure: 'de', value: 90 } }, row: { measure: 'de' }, constraint: 'measurements_measure_known' },
+    {
+      name: 'a temperature at 0 K',
+      input: { temperature: { value: 0, unit: 'K' }, selectivity: { measure: 'ee', value: 90 } },
+      row: { temperatureK: 0 },
+      constraint: 'measurements_temperature_range',
+    },
+    {
+      name: 'a temperature below absolute zero',
+      input: { temperature: { value: -300, unit: 'C' }, selectivity: { measure: 'ee', value: 90 } },
+      row: { temperatureK: -26.85 },
+      constraint: 'measurements_temperature_range',
+    },
+    {
+      name: 'ee over 100',
+      input: { temperature: { value: 25, unit: 'C' }, selectivity: { measure: 'ee', value: 104.2 } },
+      row: { value: 104.2 },
+      constraint: 'measurements_ee_range',
+    },
+    {
+      name: 'ee of exactly 100',
+      input: { temperature: { value: 25, unit: 'C' }, selectivity: { measure: 'ee', value: 100 } },
+      row: { value: 100 },
+      constraint: 'measurements_ee_range',
+    },
+    {
+      name: 'percent A of 100',
+      input: { temperature: { value: 25, unit: 'C' }, selectivity: { measure: 'percentA', value: 100 } },
+      row: { measure: 'percentA', value: 100 },
+      constraint: 'measurements_percent_a_range',
+    },
+    {
+      name: 'a ratio of zero',
+      input: { temperature: { value: 25, unit: 'C' }, selectivity: { measure: 'ratio', value: 0 } },
+      row: { measure: 'dr', value: 0 },
+      constraint: 'measurements_ratio_positive',
+    },
+    {
+      name: 'a pair with a zero part',
+      input: { temperature: { value: 25, unit: 'C' }, selectivity: { measure: 'er', value: '100:0' } },
+      row: { measure: 'er', value: 100, valueB: 0 },
+      constraint: 'measurements_pair_positive',
+    },
+    {
+      name: 'a pair given for ee',
+      input: { temperature: { value: 25, unit: 'C' }, selectivity: { measure: 'ee', value: '95:5' } },
+      row: { value: 95, valueB: 5 },
+      constraint: 'measurements_ee_range',
+    },
+    {
+      name: 'conversion over 100 %',
+      input: { temperature: { value: 25, unit: 'C' }, selectivity: { measure: 'ee', value: 90 }, conversionPercent: 130 },
+      row: { conversionPercent: 130 },
+      constraint: 'measurements_conversion_range',
+    },
+    {
+      name: 'a negative uncertainty',
+      input: { temperature: { value: 25, unit: 'C' }, selectivity: { measure: 'ee', value: 90 }, uncertainty: -0.3 },
+      row: { uncertainty: -0.3 },
+      constraint: 'measurements_uncertainty_range',
+    },
+    {
+      name: 'an unknown measure',
+      input: { temperature: { value: 25, unit: 'C' }, selectivity: { measure: 'de', value: 90 } },
+      row: { measure: 'de' },
+      constraint: 'measurements_measure_known',
+    },
   ];
 
   it.each(cases)('when $name is sent, then zod refuses it and a direct insert breaks $constraint', async ({ input, row, constraint }) => {
@@ -233,7 +370,10 @@ describe('database constraints repeat the zod rules', () => {
     const campaign = await createCampaign(project.id);
     const err = await db('measurements')
       .insert({ campaignId: campaign.id, temperatureK: 298.15, measure: 'ee', value: 90, ...row })
-      .then(() => null, (e: { code?: string; constraint?: string }) => e);
+      .then(
+        () => null,
+        (e: { code?: string; constraint?: string }) => e,
+      );
     expect(err).toMatchObject({ code: '23514', constraint });
   });
 
@@ -246,7 +386,10 @@ describe('database constraints repeat the zod rules', () => {
     ] as [Record<string, unknown>, string][]) {
       const err = await db('measurements')
         .insert({ campaignId: campaign.id, temperatureK: 298.15, measure: 'ee', value: 90, ...row })
-        .then(() => null, (e: { constraint?: string }) => e);
+        .then(
+          () => null,
+          (e: { constraint?: string }) => e,
+        );
       expect(err).toMatchObject({ constraint });
     }
   });
@@ -256,7 +399,10 @@ describe('database constraints repeat the zod rules', () => {
     for (const row of [{ excluded: true }, { excluded: true, excludedReason: '  ' }, { excluded: false, excludedReason: 'why?' }]) {
       const err = await db('measurements')
         .insert({ campaignId: campaign.id, temperatureK: 298.15, measure: 'ee', value: 90, ...row })
-        .then(() => null, (e: { constraint?: string }) => e);
+        .then(
+          () => null,
+          (e: { constraint?: string }) => e,
+        );
       expect(err).toMatchObject({ constraint: 'measurements_exclusion_reason' });
     }
   });
@@ -269,8 +415,19 @@ describe('database constraints repeat the zod rules', () => {
       [{ version: 0 }, 'campaigns_version_positive'],
     ] as [Record<string, unknown>, string][]) {
       const err = await db('campaigns')
-        .insert({ projectId: project.id, title: `Direct ${randomUUID()}`, productNameA: 'A', productNameB: 'B', measure: 'ee', assayMethod: 'nmr', ...row })
-        .then(() => null, (e: { constraint?: string }) => e);
+        .insert({
+          projectId: project.id,
+          title: `Direct ${randomUUID()}`,
+          productNameA: 'A',
+          productNameB: 'B',
+          measure: 'ee',
+          assayMethod: 'nmr',
+          ...row,
+        })
+        .then(
+          () => null,
+          (e: { constraint?: string }) => e,
+        );
       expect(err).toMatchObject({ constraint });
     }
     expect(campaignCreateSchema.safeParse({ title: '   ', measure: 'ee', assayMethod: 'nmr' }).success).toBe(false);
@@ -286,7 +443,10 @@ describe('database constraints repeat the zod rules', () => {
     for (const [row, constraint] of bad) {
       const err = await db('saved_forecasts')
         .insert({ campaignId: campaign.id, ...row })
-        .then(() => null, (e: { constraint?: string }) => e);
+        .then(
+          () => null,
+          (e: { constraint?: string }) => e,
+        );
       expect(err).toMatchObject({ constraint });
     }
   });

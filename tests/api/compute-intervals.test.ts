@@ -60,7 +60,11 @@ describe('POST /api/v1/fit: new-run interval, censored runs, flags', () => {
   });
 
   it('when runs are bounds, then the estimator is censored ML with the least-squares fit without them labelled beside it', async () => {
-    const ms = [...runs([-20, 0, 20, 40]), { temperature: C(-60), selectivity: { measure: 'ee', value: 99.9, atLeast: true } }, { temperature: C(-40), selectivity: { measure: 'ee', value: 99.85 } }];
+    const ms = [
+      ...runs([-20, 0, 20, 40]),
+      { temperature: C(-60), selectivity: { measure: 'ee', value: 99.9, atLeast: true } },
+      { temperature: C(-40), selectivity: { measure: 'ee', value: 99.85 } },
+    ];
     const body = fitResponseSchema.parse(await fit({ measurements: ms }));
     expect(body.estimator).toBe('censored-ml');
     expect(body.quantitationLimit).toMatchObject({ measure: 'ee', value: 99.8 });
@@ -74,7 +78,10 @@ describe('POST /api/v1/fit: new-run interval, censored runs, flags', () => {
 
   it('when the quantitation limit is given for dr, then it is read as r and bounds beyond it are censored there', async () => {
     const ms = [
-      ...[-20, 0, 20, 40].map((c, i) => ({ temperature: C(c), selectivity: { measure: 'dr', value: Math.exp(1500 / (c + 273.15) - 1.5 + (i % 2 ? 0.03 : -0.03)) } })),
+      ...[-20, 0, 20, 40].map((c, i) => ({
+        temperature: C(c),
+        selectivity: { measure: 'dr', value: Math.exp(1500 / (c + 273.15) - 1.5 + (i % 2 ? 0.03 : -0.03)) },
+      })),
       { temperature: C(-60), selectivity: { measure: 'dr', value: '250:1', atLeast: true } },
     ];
     const body = fitResponseSchema.parse(await fit({ measurements: ms, quantitationLimit: { measure: 'dr', value: 200 } }));
@@ -88,7 +95,10 @@ describe('POST /api/v1/fit: new-run interval, censored runs, flags', () => {
       expect(paths(body)).toContain('quantitationLimit.value');
     }
     const inside = await fit(
-      { measurements: [...runs([-20, 0, 20]), { temperature: C(-40), selectivity: { measure: 'ee', value: 95, atLeast: true } }], quantitationLimit: { measure: 'ee', value: 99.5 } },
+      {
+        measurements: [...runs([-20, 0, 20]), { temperature: C(-40), selectivity: { measure: 'ee', value: 95, atLeast: true } }],
+        quantitationLimit: { measure: 'ee', value: 99.5 },
+      },
       400,
     );
     expect(paths(inside)).toEqual(['measurements.3.selectivity.value']);
@@ -137,7 +147,10 @@ describe('POST /api/v1/fit: new-run interval, censored runs, flags', () => {
 
   it('when an uncertainty converts to an infinite σ(ln r), then 400 names measurements.i.uncertainty', async () => {
     const ms = runs([-40, -20, 0, 20]);
-    const bad = await fit({ measurements: [...ms, { temperature: C(10), selectivity: { measure: 'ee', value: 99.9999999999999 }, uncertainty: 1e308 }] }, 400);
+    const bad = await fit(
+      { measurements: [...ms, { temperature: C(10), selectivity: { measure: 'ee', value: 99.9999999999999 }, uncertainty: 1e308 }] },
+      400,
+    );
     expect(paths(bad)).toEqual(['measurements.4.uncertainty']);
   });
 });

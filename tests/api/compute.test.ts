@@ -12,7 +12,8 @@ afterAll(closeTestKnex);
 const R = 6.02214076e23 * 1.380649e-23;
 const C = (value: number) => ({ value, unit: 'C' as const });
 
-const relClose = (actual: number, expected: number, rel: number) => expect(Math.abs(actual - expected) / Math.abs(expected)).toBeLessThan(rel);
+const relClose = (actual: number, expected: number, rel: number) =>
+  expect(Math.abs(actual - expected) / Math.abs(expected)).toBeLessThan(rel);
 
 describe('POST /api/v1/forecast', () => {
   it('when ΔΔG‡ = 1.000 kcal/mol at 298.15 K, then r = 5.408 and ee = 68.79 % there', async () => {
@@ -80,13 +81,54 @@ describe('POST /api/v1/forecast', () => {
 
   it.each([
     ['a missing basis', { temperatures: { values: [C(0)] } }, 400, 'basis'],
-    ['an unknown energy unit', { basis: { kind: 'gap', ddG: { value: 1, unit: 'eV' }, temperature: C(0) }, temperatures: { values: [C(0)] } }, 400, 'basis.ddG.unit'],
-    ['a temperature below absolute zero', { basis: { kind: 'gap', ddG: { value: 1, unit: 'kJ/mol' }, temperature: C(-300) }, temperatures: { values: [C(0)] } }, 422, 'basis.temperature.value'],
-    ['0 K in the list', { basis: { kind: 'gap', ddG: { value: 1, unit: 'kJ/mol' }, temperature: C(0) }, temperatures: { values: [C(0), { value: 0, unit: 'K' }] } }, 422, 'temperatures.values.1.value'],
-    ['ee above 100', { basis: { kind: 'observed', selectivity: { measure: 'ee', value: 101 }, temperature: C(0) }, temperatures: { values: [C(0)] } }, 400, 'basis.selectivity.value'],
-    ['a ratio of zero', { basis: { kind: 'observed', selectivity: { measure: 'ratio', value: 0 }, temperature: C(0) }, temperatures: { values: [C(0)] } }, 400, 'basis.selectivity.value'],
-    ['"NaN" as a number', { basis: { kind: 'gap', ddG: { value: 'NaN', unit: 'kJ/mol' }, temperature: C(0) }, temperatures: { values: [C(0)] } }, 400, 'basis.ddG.value'],
-    ['over 5000 temperatures', { basis: { kind: 'gap', ddG: { value: 1, unit: 'kJ/mol' }, temperature: C(0) }, temperatures: { from: C(0), to: C(10), count: 5001 } }, 400, 'temperatures'],
+    [
+      'an unknown energy unit',
+      { basis: { kind: 'gap', ddG: { value: 1, unit: 'eV' }, temperature: C(0) }, temperatures: { values: [C(0)] } },
+      400,
+      'basis.ddG.unit',
+    ],
+    [
+      'a temperature below absolute zero',
+      { basis: { kind: 'gap', ddG: { value: 1, unit: 'kJ/mol' }, temperature: C(-300) }, temperatures: { values: [C(0)] } },
+      422,
+      'basis.temperature.value',
+    ],
+    [
+      '0 K in the list',
+      {
+        basis: { kind: 'gap', ddG: { value: 1, unit: 'kJ/mol' }, temperature: C(0) },
+        temperatures: { values: [C(0), { value: 0, unit: 'K' }] },
+      },
+      422,
+      'temperatures.values.1.value',
+    ],
+    [
+      'ee above 100',
+      { basis: { kind: 'observed', selectivity: { measure: 'ee', value: 101 }, temperature: C(0) }, temperatures: { values: [C(0)] } },
+      400,
+      'basis.selectivity.value',
+    ],
+    [
+      'a ratio of zero',
+      { basis: { kind: 'observed', selectivity: { measure: 'ratio', value: 0 }, temperature: C(0) }, temperatures: { values: [C(0)] } },
+      400,
+      'basis.selectivity.value',
+    ],
+    [
+      '"NaN" as a number',
+      { basis: { kind: 'gap', ddG: { value: 'NaN', unit: 'kJ/mol' }, temperature: C(0) }, temperatures: { values: [C(0)] } },
+      400,
+      'basis.ddG.value',
+    ],
+    [
+      'over 5000 temperatures',
+      {
+        basis: { kind: 'gap', ddG: { value: 1, unit: 'kJ/mol' }, temperature: C(0) },
+        temperatures: { from: C(0), to: C(10), count: 5001 },
+      },
+      400,
+      'temperatures',
+    ],
   ])('when the body has %s, then the answer is %i naming %s', async (_what, body, status, path) => {
     const { app } = testApp();
     const res = await request(app).post('/api/v1/forecast').send(body).expect(status);
@@ -111,7 +153,10 @@ const screenBody = (extra: object = {}) => ({
 describe('POST /api/v1/fit', () => {
   it('when a five-point screen is fitted, then slope, ΔΔH‡, ΔΔS‡ and their CIs agree with independent libraries', async () => {
     const { app } = testApp();
-    const res = await request(app).post('/api/v1/fit').send(screenBody({ predict: [C(-30)] })).expect(200);
+    const res = await request(app)
+      .post('/api/v1/fit')
+      .send(screenBody({ predict: [C(-30)] }))
+      .expect(200);
     const x = screen.map(([t]) => 1 / (t + 273.15));
     const y = screen.map(([, ee]) => Math.log((100 + ee) / (100 - ee)));
     // Independent regression: ml-regression-simple-linear (npm).
@@ -148,7 +193,10 @@ describe('POST /api/v1/fit', () => {
     const { app } = testApp();
     const res = await request(app)
       .post('/api/v1/fit')
-      .send({ measurements: screen.slice(0, 2).map(([t, ee]) => ({ temperature: C(t), selectivity: { measure: 'ee', value: ee } })), predict: [C(0)] })
+      .send({
+        measurements: screen.slice(0, 2).map(([t, ee]) => ({ temperature: C(t), selectivity: { measure: 'ee', value: ee } })),
+        predict: [C(0)],
+      })
       .expect(200);
     expect(res.body.ddH.se).toBeNull();
     expect(res.body.predictions[0].predictionInterval).toBeNull();
@@ -180,7 +228,11 @@ describe('POST /api/v1/fit', () => {
     const res = await request(app)
       .post('/api/v1/fit')
       .send({
-        measurements: screen.map(([t, ee], i) => ({ temperature: C(t), selectivity: { measure: 'ee', value: ee }, uncertainty: i === 0 ? 2 : 0.3 })),
+        measurements: screen.map(([t, ee], i) => ({
+          temperature: C(t),
+          selectivity: { measure: 'ee', value: ee },
+          uncertainty: i === 0 ? 2 : 0.3,
+        })),
         weighting: 'uncertainty',
       })
       .expect(200);
@@ -209,7 +261,10 @@ describe('POST /api/v1/fit', () => {
   it('when over 5000 measurements are sent, then 400 names the field', async () => {
     const { app } = testApp();
     const m = { temperature: C(0), selectivity: { measure: 'ee', value: 90 } };
-    const res = await request(app).post('/api/v1/fit').send({ measurements: Array(5001).fill(m) }).expect(400);
+    const res = await request(app)
+      .post('/api/v1/fit')
+      .send({ measurements: Array(5001).fill(m) })
+      .expect(400);
     expect(res.body.errors[0].path).toBe('measurements');
   });
 });
@@ -224,14 +279,22 @@ describe('the computation API never answers 500', () => {
         ddH: fc.record({ value: fc.double(), unit: fc.constantFrom('kJ/mol', 'kcal/mol') }),
         ddS: fc.record({ value: fc.double(), unit: fc.constantFrom('J/(mol*K)', 'cal/(mol*K)') }),
         ddG: fc.record({ value: fc.double(), unit: fc.constantFrom('kJ/mol', 'J/mol') }),
-        selectivity: fc.record({ measure: fc.constantFrom('ee', 'er', 'dr', 'percentA', 'ratio'), value: fc.oneof(fc.double(), fc.string()) }),
+        selectivity: fc.record({
+          measure: fc.constantFrom('ee', 'er', 'dr', 'percentA', 'ratio'),
+          value: fc.oneof(fc.double(), fc.string()),
+        }),
         temperature: fc.record({ value: fc.double(), unit: fc.constantFrom('K', 'C', 'F') }),
       }),
-      temperatures: fc.record({ values: fc.array(fc.record({ value: fc.double(), unit: fc.constantFrom('K', 'C', 'F') }), { maxLength: 4 }) }),
+      temperatures: fc.record({
+        values: fc.array(fc.record({ value: fc.double(), unit: fc.constantFrom('K', 'C', 'F') }), { maxLength: 4 }),
+      }),
     });
     await fc.assert(
       fc.asyncProperty(fc.oneof(fc.jsonValue(), nearValid), fc.constantFrom('/api/v1/forecast', '/api/v1/fit'), async (body, path) => {
-        const res = await request(app).post(path).set('content-type', 'application/json').send(JSON.stringify(body ?? null));
+        const res = await request(app)
+          .post(path)
+          .set('content-type', 'application/json')
+          .send(JSON.stringify(body ?? null));
         expect(res.status).toBeLessThan(500);
       }),
       { numRuns: 150 },

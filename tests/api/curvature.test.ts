@@ -23,8 +23,14 @@ const SCATTER = [0.012, -0.018, 0.009, 0.021, -0.011, -0.016, 0.014, 0.004, -0.0
 const TEMPS_C = [40, 30, 20, 10, 0, -10, -20, -30, -40, -50];
 const X_BREAK = 1 / (K - 15);
 const isoLnR = (tK: number) => 3 + 1600 * (1 / tK - X_BREAK) - 2500 * Math.max(0, 1 / tK - X_BREAK);
-const iso = TEMPS_C.map((c, i) => ({ temperature: C(c), selectivity: { measure: 'ratio' as const, value: Math.exp(isoLnR(c + K) + SCATTER[i]!) } }));
-const straight = TEMPS_C.map((c, i) => ({ temperature: C(c), selectivity: { measure: 'ratio' as const, value: Math.exp(1200 / (c + K) - 2 + SCATTER[i]!) } }));
+const iso = TEMPS_C.map((c, i) => ({
+  temperature: C(c),
+  selectivity: { measure: 'ratio' as const, value: Math.exp(isoLnR(c + K) + SCATTER[i]!) },
+}));
+const straight = TEMPS_C.map((c, i) => ({
+  temperature: C(c),
+  selectivity: { measure: 'ratio' as const, value: Math.exp(1200 / (c + K) - 2 + SCATTER[i]!) },
+}));
 
 describe('POST /api/v1/fit curvature check', () => {
   it('when the branch slopes have opposite signs, then an isoinversion with its CI is claimed and forecasts come from the branches', async () => {
@@ -65,7 +71,10 @@ describe('POST /api/v1/fit curvature check', () => {
 
   it('when the screen is one straight line, then no break, branch or isoinversion is reported and forecasts use the line', async () => {
     const { app } = testApp();
-    const res = await request(app).post('/api/v1/fit').send({ measurements: straight, predict: [C(-20)] }).expect(200);
+    const res = await request(app)
+      .post('/api/v1/fit')
+      .send({ measurements: straight, predict: [C(-20)] })
+      .expect(200);
     const body = fitResponseSchema.parse(res.body);
     const tb = body.twoBranch;
     expect(tb.preferred).toBe('one-line');
@@ -81,7 +90,9 @@ describe('POST /api/v1/fit curvature check', () => {
 
   it('when replicates are given, then the lack-of-fit F test is reported', async () => {
     const { app } = testApp();
-    const dup = straight.slice(0, 6).flatMap((m, i) => [m, { ...m, selectivity: { measure: 'ratio' as const, value: m.selectivity.value * Math.exp(SCATTER[i]!) } }]);
+    const dup = straight
+      .slice(0, 6)
+      .flatMap((m, i) => [m, { ...m, selectivity: { measure: 'ratio' as const, value: m.selectivity.value * Math.exp(SCATTER[i]!) } }]);
     const res = await request(app).post('/api/v1/fit').send({ measurements: dup }).expect(200);
     const tb = fitResponseSchema.parse(res.body).twoBranch;
     expect(tb.lackOfFit!.dof1).toBe(4); // [C] m − 2 with m = 6 temperatures
@@ -91,14 +102,22 @@ describe('POST /api/v1/fit curvature check', () => {
 
   it('when there are too few runs for a break, then the answer is 200 with an explained "not enough data" note', async () => {
     const { app } = testApp();
-    const res = await request(app).post('/api/v1/fit').send({ measurements: iso.slice(0, 5) }).expect(200);
+    const res = await request(app)
+      .post('/api/v1/fit')
+      .send({ measurements: iso.slice(0, 5) })
+      .expect(200);
     const tb = fitResponseSchema.parse(res.body).twoBranch;
     expect(tb.checked).toBe(false);
     expect(tb.note).toMatch(/^Not enough data for a break check: each side of a break needs 3 or more fitted runs/);
   });
 });
 
-const campaign = { id: '00000000-0000-4000-8000-000000000001', version: 1, measure: 'ratio', defaultUncertainty: null } as unknown as Campaign;
+const campaign = {
+  id: '00000000-0000-4000-8000-000000000001',
+  version: 1,
+  measure: 'ratio',
+  defaultUncertainty: null,
+} as unknown as Campaign;
 const stored = (rows: typeof iso) =>
   rows.map(
     (m, i) =>
@@ -119,12 +138,28 @@ const stored = (rows: typeof iso) =>
 
 describe('campaign analysis and report with an accepted break', () => {
   it('when a stored campaign has an isoinversion, then the asked forecast names its branch and the report has the break rows', async () => {
-    const analysis = computeAnalysis(campaign, stored(iso), { weighting: 'none', uncertaintyScale: 'absolute', confidence: 0.95, atK: K - 40 });
+    const analysis = computeAnalysis(campaign, stored(iso), {
+      weighting: 'none',
+      uncertaintyScale: 'absolute',
+      confidence: 0.95,
+      atK: K - 40,
+    });
     expect(analysis.at!.model).toBe('segmented');
     expect(analysis.at!.branch).toBe('low');
     expect(analysis.curve.every((p) => p.model === 'segmented')).toBe(true);
     const buf = await buildCampaignReport(
-      { campaign: { ...campaign, title: 'Invented isoinversion', productNameA: 'A', productNameB: 'B', assayMethod: 'chiral-hplc' } as unknown as Campaign, measurements: stored(iso), analysis, forecasts: [] },
+      {
+        campaign: {
+          ...campaign,
+          title: 'Invented isoinversion',
+          productNameA: 'A',
+          productNameB: 'B',
+          assayMethod: 'chiral-hplc',
+        } as unknown as Campaign,
+        measurements: stored(iso),
+        analysis,
+        forecasts: [],
+      },
       { appVersion: 'test', generatedAt: new Date(0) },
     );
     const wb = new ExcelJS.Workbook();
@@ -140,7 +175,18 @@ describe('campaign analysis and report with an accepted break', () => {
   it('when a stored campaign is one straight line, then the report has no break or isoinversion row', async () => {
     const analysis = computeAnalysis(campaign, stored(straight), { weighting: 'none', uncertaintyScale: 'absolute', confidence: 0.95 });
     const buf = await buildCampaignReport(
-      { campaign: { ...campaign, title: 'Invented line', productNameA: 'A', productNameB: 'B', assayMethod: 'chiral-hplc' } as unknown as Campaign, measurements: stored(straight), analysis, forecasts: [] },
+      {
+        campaign: {
+          ...campaign,
+          title: 'Invented line',
+          productNameA: 'A',
+          productNameB: 'B',
+          assayMethod: 'chiral-hplc',
+        } as unknown as Campaign,
+        measurements: stored(straight),
+        analysis,
+        forecasts: [],
+      },
       { appVersion: 'test', generatedAt: new Date(0) },
     );
     const wb = new ExcelJS.Workbook();
@@ -163,7 +209,14 @@ describe('project comparison with an accepted break', () => {
       [bent, iso],
       [line, straight],
     ] as const) {
-      await MeasurementModel.query(db).insert(rows.map((m) => ({ campaignId: c.id, temperatureK: m.temperature.value + K, measure: 'ratio' as const, value: m.selectivity.value })));
+      await MeasurementModel.query(db).insert(
+        rows.map((m) => ({
+          campaignId: c.id,
+          temperatureK: m.temperature.value + K,
+          measure: 'ratio' as const,
+          value: m.selectivity.value,
+        })),
+      );
     }
     const cmp = await compareCampaigns(db, project.id, -40);
     const [a, b] = cmp.campaigns;

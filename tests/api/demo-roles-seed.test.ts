@@ -13,9 +13,13 @@ describe('demo seed: people and roles', () => {
     const [hydrogenation, aldol] = DEMO_PROJECTS;
     const roles = async (projectId: string) =>
       Object.fromEntries(
-        (await knex('project_members as m').join('users as u', 'u.id', 'm.userId').where('m.projectId', projectId).where('u.provider', 'local-demo').select('u.login', 'm.role')).map(
-          (r) => [r.login, r.role],
-        ),
+        (
+          await knex('project_members as m')
+            .join('users as u', 'u.id', 'm.userId')
+            .where('m.projectId', projectId)
+            .where('u.provider', 'local-demo')
+            .select('u.login', 'm.role')
+        ).map((r) => [r.login, r.role]),
       );
     expect(await roles(hydrogenation.id)).toEqual({ 'ada-pemberton': 'owner', 'tomas-reyes': 'editor', 'mina-okafor': 'viewer' });
     expect(await roles(aldol.id)).toEqual({ 'jun-whitlock': 'owner', 'ada-pemberton': 'viewer' });

@@ -22,7 +22,9 @@ describe('fuzz of every write and compute route', () => {
       await fc.assert(fuzzProperty(world, tally), { numRuns: runs, seed, endOnFailure: true, examples: nulExamples(world) });
       if (process.env.EYRIE_FUZZ_RUNS) {
         const byStatus = Object.fromEntries([...tally.entries()].sort(([a], [b]) => a - b));
-        console.log(`FUZZ ${JSON.stringify({ runs, seed, routes: world.routes.length, seconds: Math.round((Date.now() - started) / 1000), byStatus })}`);
+        console.log(
+          `FUZZ ${JSON.stringify({ runs, seed, routes: world.routes.length, seconds: Math.round((Date.now() - started) / 1000), byStatus })}`,
+        );
       }
       // The fuzz reached both sides: accepted writes and refusals.
       const statuses = [...tally.keys()];

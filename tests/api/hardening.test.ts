@@ -27,7 +27,10 @@ describe('responses to signed-in callers', () => {
       expect((await s.agent.get(url).expect(200)).headers['cache-control']).toBe('no-store');
     }
     const { secret } = await createApiToken(owner);
-    const viaToken = await request(env.app).get(`/api/v1/projects/${project.id}/members`).set('Authorization', `Bearer ${secret}`).expect(200);
+    const viaToken = await request(env.app)
+      .get(`/api/v1/projects/${project.id}/members`)
+      .set('Authorization', `Bearer ${secret}`)
+      .expect(200);
     expect(viaToken.headers['cache-control']).toBe('no-store');
   });
 });
@@ -66,16 +69,25 @@ describe('sign-in start', () => {
     const who = newIdentity();
     const start = await request(env.app).get('/auth/github').set('Host', '127.0.0.1:3000').expect(302);
     const authorize = new URL(start.headers.location);
-    const form = new URLSearchParams({ client_id: authorize.searchParams.get('client_id')!, redirect_uri: authorize.searchParams.get('redirect_uri')!, state: authorize.searchParams.get('state')!, ...who });
+    const form = new URLSearchParams({
+      client_id: authorize.searchParams.get('client_id')!,
+      redirect_uri: authorize.searchParams.get('redirect_uri')!,
+      state: authorize.searchParams.get('state')!,
+      ...who,
+    });
     const picked = await fetch(`${authorize.origin}${authorize.pathname}`, { method: 'POST', body: form, redirect: 'manual' });
     const callback = new URL(picked.headers.get('location')!);
-    const res = await request(env.app).get(callback.pathname + callback.search).set('Host', '127.0.0.1:3000').expect(303);
+    const res = await request(env.app)
+      .get(callback.pathname + callback.search)
+      .set('Host', '127.0.0.1:3000')
+      .expect(303);
     expect(res.headers.location).toBe('/sign-in?error=failed');
   });
 
   it('when a return path could lead off the site, then it is dropped (the web app applies the same rule)', () => {
     expect(safeReturnTo('/projects/1?tab=x')).toBe('/projects/1?tab=x');
-    for (const bad of ['//evil.example', '/\\evil.example', 'https://evil.example', '/a\nb', '/a\u0000b', 42]) expect(safeReturnTo(bad)).toBeUndefined();
+    for (const bad of ['//evil.example', '/\\evil.example', 'https://evil.example', '/a\nb', '/a\u0000b', 42])
+      expect(safeReturnTo(bad)).toBeUndefined();
   });
 
   it('when the local sign-in page is served, then it carries the same security headers as the app', async () => {
@@ -102,7 +114,18 @@ describe('transport', () => {
 
 describe('API-token management limit', () => {
   it('when a bearer token calls the token routes, then it is refused without using up its owner’s budget', async () => {
-    env = await startAuthApp({ config: { rateLimit: { windowMs: 60_000, signIn: 100, tokens: 3, compute: 100, uploads: 100, keyPrefix: `hardening-${Date.now()}-${Math.random()}` } } });
+    env = await startAuthApp({
+      config: {
+        rateLimit: {
+          windowMs: 60_000,
+          signIn: 100,
+          tokens: 3,
+          compute: 100,
+          uploads: 100,
+          keyPrefix: `hardening-${Date.now()}-${Math.random()}`,
+        },
+      },
+    });
     const owner = await createUser();
     const { secret } = await createApiToken(owner);
     for (let i = 0; i < 6; i++) await request(env.app).get('/api/v1/tokens').set('Authorization', `Bearer ${secret}`).expect(403);

@@ -30,7 +30,12 @@ describe('errors as problem details', () => {
     const { app } = testApp();
     const res = await request(app).get('/api/v1/nothing-here').expect(404);
     expect(res.headers['content-type']).toMatch(/application\/problem\+json/);
-    expect(res.body).toMatchObject({ type: expect.any(String), title: 'Not found', status: 404, detail: expect.stringContaining('/api/v1/nothing-here') });
+    expect(res.body).toMatchObject({
+      type: expect.any(String),
+      title: 'Not found',
+      status: 404,
+      detail: expect.stringContaining('/api/v1/nothing-here'),
+    });
   });
 
   it('when the body is not JSON, then the answer is a 400 problem without a stack trace', async () => {

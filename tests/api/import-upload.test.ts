@@ -31,9 +31,17 @@ afterAll(() => new Promise<void>((resolve) => server.close(() => resolve())));
 describe('import upload', () => {
   it('when a sample file is uploaded with parse options, then the preview comes back', async () => {
     const file = sample('kestrelmoor-merlin-screen-de.csv');
-    const res = await request(server).post('/preview').attach('file', file.buffer, file.name).field('request', JSON.stringify({ parse: { headerRow: 3 } }));
+    const res = await request(server)
+      .post('/preview')
+      .attach('file', file.buffer, file.name)
+      .field('request', JSON.stringify({ parse: { headerRow: 3 } }));
     expect(res.status).toBe(200);
-    expect(res.body).toMatchObject({ rowCount: 9, validRowCount: 9, errorCount: 0, file: { delimiter: ';', decimalSeparator: ',', headerRow: 3 } });
+    expect(res.body).toMatchObject({
+      rowCount: 9,
+      validRowCount: 9,
+      errorCount: 0,
+      file: { delimiter: ';', decimalSeparator: ',', headerRow: 3 },
+    });
   });
 
   it('when no file is sent, then 400 names the form field', async () => {
@@ -47,7 +55,10 @@ describe('import upload', () => {
     const bad = await request(server).post('/preview').attach('file', file.buffer, file.name).field('request', '{parse:');
     expect(bad.status).toBe(400);
     expect(bad.body.detail).toBe('The form field "request" is not valid JSON.');
-    const wrong = await request(server).post('/preview').attach('file', file.buffer, file.name).field('request', JSON.stringify({ parse: { delimiter: '|' } }));
+    const wrong = await request(server)
+      .post('/preview')
+      .attach('file', file.buffer, file.name)
+      .field('request', JSON.stringify({ parse: { delimiter: '|' } }));
     expect(wrong.status).toBe(400);
     expect(wrong.body.errors[0].path).toBe('request.parse.delimiter');
   });
@@ -62,7 +73,9 @@ describe('import upload', () => {
   /** Stream a 200 MB multipart upload; returns the answer and how many MB had gone out when it came. */
   function send200Mb(declareLength: boolean): Promise<{ status: number; detail: string; sentWhenAnswered: number }> {
     const boundary = '----eyrie-test-boundary';
-    const head = Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="plant-log.csv"\r\nContent-Type: text/csv\r\n\r\n`);
+    const head = Buffer.from(
+      `--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="plant-log.csv"\r\nContent-Type: text/csv\r\n\r\n`,
+    );
     const tail = Buffer.from(`\r\n--${boundary}--\r\n`);
     const mb = Buffer.alloc(1024 * 1024, 0x31);
     const total = 200;

@@ -63,7 +63,11 @@ describe('invitations by e-mail', () => {
     expect((await owner.agent.get(`/api/v1/projects/${project.id}/invitations`)).body.invitations).toEqual([]);
 
     const history = (await owner.agent.get(`/api/v1/projects/${project.id}/audit-events`)).body.events;
-    expect(history.map((e: { action: string; entityType: string }) => `${e.action} ${e.entityType}`)).toEqual(['update invitation', 'create project_member', 'create invitation']);
+    expect(history.map((e: { action: string; entityType: string }) => `${e.action} ${e.entityType}`)).toEqual([
+      'update invitation',
+      'create project_member',
+      'create invitation',
+    ]);
 
     // The link works once.
     const again = await them.write('post', `/api/v1/invitations/${token}/accept`).expect(410);
@@ -96,7 +100,9 @@ describe('invitations by e-mail', () => {
     const invitee = newIdentity();
     const them = await as(invitee);
     const first = await inviteAndReadLink(owner, project.id, invitee.email, 'viewer');
-    await testKnex()('invitations').where({ projectId: project.id }).update({ expiresAt: new Date(Date.now() - 60_000) });
+    await testKnex()('invitations')
+      .where({ projectId: project.id })
+      .update({ expiresAt: new Date(Date.now() - 60_000) });
     const expired = await them.write('post', `/api/v1/invitations/${first.token}/accept`).expect(410);
     expect(expired.body).toMatchObject({ code: 'invitation-expired', detail: expect.stringMatching(/expired on/) });
 
@@ -113,11 +119,17 @@ describe('invitations by e-mail', () => {
     env = await startAuthApp({ smtpSink: true });
     const ownerUser = await createUser();
     const member: User = await createUser();
-    const project = await createProject([{ user: ownerUser, role: 'owner' }, { user: member, role: 'viewer' }]);
+    const project = await createProject([
+      { user: ownerUser, role: 'owner' },
+      { user: member, role: 'viewer' },
+    ]);
     const owner = await as(ownerUser);
     const bad = await owner.write('post', `/api/v1/projects/${project.id}/invitations`).send({ email: 'nobody', role: 'boss' }).expect(400);
     expect(bad.body.errors.map((e: { path: string }) => e.path).sort()).toEqual(['email', 'role']);
-    const dup = await owner.write('post', `/api/v1/projects/${project.id}/invitations`).send({ email: member.email, role: 'editor' }).expect(409);
+    const dup = await owner
+      .write('post', `/api/v1/projects/${project.id}/invitations`)
+      .send({ email: member.email, role: 'editor' })
+      .expect(409);
     expect(dup.body.detail).toContain(member.login);
   });
 
@@ -126,7 +138,10 @@ describe('invitations by e-mail', () => {
     const ownerUser = await createUser();
     const project = await createProject([{ user: ownerUser, role: 'owner' }]);
     const owner = await as(ownerUser);
-    const res = await owner.write('post', `/api/v1/projects/${project.id}/invitations`).send({ email: 'someone@example.test', role: 'viewer' }).expect(502);
+    const res = await owner
+      .write('post', `/api/v1/projects/${project.id}/invitations`)
+      .send({ email: 'someone@example.test', role: 'viewer' })
+      .expect(502);
     expect(res.body.detail).toMatch(/connection refused/);
     expect(await testKnex()('invitations').where({ projectId: project.id })).toEqual([]);
     expect(await testKnex()('audit_events').where({ projectId: project.id })).toEqual([]);
@@ -176,7 +191,9 @@ describe('invitations by e-mail', () => {
     expect((await editor.agent.get('/dev/mailbox.json').expect(200)).text).not.toContain(token);
 
     const ownerView = await owner.agent.get('/dev/mailbox.json').expect(200);
-    expect(ownerView.body.messages).toEqual([expect.objectContaining({ to: [invitee.email], projectId: project.id, text: expect.stringContaining(token) })]);
+    expect(ownerView.body.messages).toEqual([
+      expect.objectContaining({ to: [invitee.email], projectId: project.id, text: expect.stringContaining(token) }),
+    ]);
     const inviteeView = await (await as(invitee)).agent.get('/dev/mailbox.json').expect(200);
     expect(inviteeView.body.messages.map((m: { text: string }) => m.text.includes(token))).toEqual([true]);
   });

@@ -55,12 +55,18 @@ async function poll(id: string, auth = bearer) {
 
 const counts = async (campaignId: string) => ({
   rows: Number((await testKnex()('measurements').where({ campaignId }).count({ n: '*' }).first())!.n),
-  audits: Number((await testKnex()('audit_events').where({ entityType: 'measurement_import', entityId: campaignId }).count({ n: '*' }).first())!.n),
+  audits: Number(
+    (await testKnex()('audit_events').where({ entityType: 'measurement_import', entityId: campaignId }).count({ n: '*' }).first())!.n,
+  ),
 });
 
 async function importRequest(campaignId: string) {
   const file = sample('kestrelmoor-skylark-screen.csv');
-  const preview = await request(app).post(`/api/v1/campaigns/${campaignId}/imports/preview`).set('Authorization', bearer).attach('file', file.buffer, file.name).expect(200);
+  const preview = await request(app)
+    .post(`/api/v1/campaigns/${campaignId}/imports/preview`)
+    .set('Authorization', bearer)
+    .attach('file', file.buffer, file.name)
+    .expect(200);
   return { file, request: { mapping: preview.body.mapping, acknowledgeWarnings: true } };
 }
 
@@ -75,9 +81,20 @@ describe('imports above the size limit run as jobs', () => {
       .field('request', JSON.stringify(body))
       .expect(202);
     expect(res.headers.location).toBe(`/api/v1/jobs/${res.body.job.id}`);
-    expect(res.body.job).toMatchObject({ kind: 'import', state: 'queued', campaignId: campaign.id, progress: { stage: 'queued', percent: 0 } });
+    expect(res.body.job).toMatchObject({
+      kind: 'import',
+      state: 'queued',
+      campaignId: campaign.id,
+      progress: { stage: 'queued', percent: 0 },
+    });
     const done = await poll(res.body.job.id);
-    expect(done).toMatchObject({ state: 'succeeded', progress: { stage: 'done', percent: 100 }, result: { campaignId: campaign.id, inserted: 12 }, error: null, attempts: 1 });
+    expect(done).toMatchObject({
+      state: 'succeeded',
+      progress: { stage: 'done', percent: 100 },
+      result: { campaignId: campaign.id, inserted: 12 },
+      error: null,
+      attempts: 1,
+    });
     expect(await counts(campaign.id)).toEqual({ rows: 12, audits: 1 });
     // The stored upload is dropped once the job has ended.
     expect((await testKnex()('jobs').where({ id: done.id }).first('file')).file).toBeNull();
@@ -86,8 +103,20 @@ describe('imports above the size limit run as jobs', () => {
   it('when the same job is delivered twice at once, then it runs once', async () => {
     const campaign = await createCampaign(projectId);
     const { file, request: body } = await importRequest(campaign.id);
-    const row = await jobs.enqueue({ kind: 'import', projectId, campaignId: campaign.id, userId: owner.id, input: { fileName: file.name, request: body }, file: file.buffer });
-    const handlers = jobHandlers({ knex: testKnex(), mailer: createInProcessMailer(mailbox, 'x@localhost'), version: 'test', publicUrl: 'http://127.0.0.1' });
+    const row = await jobs.enqueue({
+      kind: 'import',
+      projectId,
+      campaignId: campaign.id,
+      userId: owner.id,
+      input: { fileName: file.name, request: body },
+      file: file.buffer,
+    });
+    const handlers = jobHandlers({
+      knex: testKnex(),
+      mailer: createInProcessMailer(mailbox, 'x@localhost'),
+      version: 'test',
+      publicUrl: 'http://127.0.0.1',
+    });
     const delivery = { id: row.id, retryCount: 0, retryLimit: 5 };
     const outcomes = await Promise.allSettled([handlers.import(delivery), handlers.import(delivery), handlers.import(delivery)]);
     // Deliveries that found the lock taken fail (pg-boss would retry them); a later one finds the job finished.
@@ -100,7 +129,11 @@ describe('imports above the size limit run as jobs', () => {
   it('when the file has rows with errors, then the job fails with the problem details the direct route gives and stores nothing', async () => {
     const campaign = await createCampaign(projectId);
     const file = sample('kestrelmoor-screen-with-errors.csv');
-    const preview = await request(app).post(`/api/v1/campaigns/${campaign.id}/imports/preview`).set('Authorization', bearer).attach('file', file.buffer, file.name).expect(200);
+    const preview = await request(app)
+      .post(`/api/v1/campaigns/${campaign.id}/imports/preview`)
+      .set('Authorization', bearer)
+      .attach('file', file.buffer, file.name)
+      .expect(200);
     const res = await request(app)
       .post(`/api/v1/campaigns/${campaign.id}/imports`)
       .set('Authorization', bearer)
@@ -130,11 +163,15 @@ describe('reports built and e-mailed in the background', () => {
     const res = await request(app).post(`/api/v1/campaigns/${campaign.id}/report-jobs`).set('Authorization', bearer).expect(202);
     const done = await poll(res.body.job.id);
     expect(done).toMatchObject({ state: 'succeeded', kind: 'report', result: { href: `/api/v1/jobs/${done.id}/file` } });
-    const file = await request(app).get(done.result.href).set('Authorization', bearer).buffer(true).parse((r, cb) => {
-      const chunks: Buffer[] = [];
-      r.on('data', (c: Buffer) => chunks.push(c));
-      r.on('end', () => cb(null, Buffer.concat(chunks)));
-    });
+    const file = await request(app)
+      .get(done.result.href)
+      .set('Authorization', bearer)
+      .buffer(true)
+      .parse((r, cb) => {
+        const chunks: Buffer[] = [];
+        r.on('data', (c: Buffer) => chunks.push(c));
+        r.on('end', () => cb(null, Buffer.concat(chunks)));
+      });
     expect(file.status).toBe(200);
     expect((file.body as Buffer).subarray(0, 2).toString()).toBe('PK');
     expect((file.body as Buffer).length).toBe(done.result.bytes);
@@ -150,18 +187,29 @@ describe('reports built and e-mailed in the background', () => {
     const sent = mailbox.list().filter((m) => m.subject.includes('Mailed screen'));
     expect(sent).toHaveLength(1);
     expect(sent[0]!.to).toContain(owner.email);
-    expect(sent[0]!.attachments.map((a) => a.contentType).sort()).toEqual(['application/pdf', 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet']);
+    expect(sent[0]!.attachments.map((a) => a.contentType).sort()).toEqual([
+      'application/pdf',
+      'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
+    ]);
   });
 });
 
 describe('per-user upload limit', () => {
   it('when a user previews more files than the limit allows, then the next one is 429 and another user is not affected', async () => {
     const knex = testKnex();
-    const config = loadConfig({ nodeEnv: 'test', databaseUrl: process.env.DATABASE_URL ?? '', rateLimit: { ...loadConfig().rateLimit, uploads: 2 } });
+    const config = loadConfig({
+      nodeEnv: 'test',
+      databaseUrl: process.env.DATABASE_URL ?? '',
+      rateLimit: { ...loadConfig().rateLimit, uploads: 2 },
+    });
     const limited = createApp({ knex, config, webDist: null });
     const campaign = await createCampaign(projectId);
     const file = sample('kestrelmoor-skylark-screen.csv');
-    const preview = (auth: string) => request(limited).post(`/api/v1/campaigns/${campaign.id}/imports/preview`).set('Authorization', auth).attach('file', file.buffer, file.name);
+    const preview = (auth: string) =>
+      request(limited)
+        .post(`/api/v1/campaigns/${campaign.id}/imports/preview`)
+        .set('Authorization', auth)
+        .attach('file', file.buffer, file.name);
     await preview(bearer).expect(200);
     await preview(bearer).expect(200);
     const refused = await preview(bearer).expect(429);

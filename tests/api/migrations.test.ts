@@ -31,7 +31,9 @@ describe('migrations', () => {
       expect(await knex('users').count({ n: '*' }).first()).toEqual({ n: 1 });
 
       await knex.migrate.rollback(undefined, true);
-      const left = await knex.raw(`select table_name from information_schema.tables where table_schema = 'public' and table_name not like 'knex_%'`);
+      const left = await knex.raw(
+        `select table_name from information_schema.tables where table_schema = 'public' and table_name not like 'knex_%'`,
+      );
       expect(left.rows).toEqual([]);
 
       await migrateLatest(knex);

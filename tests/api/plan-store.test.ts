@@ -87,16 +87,28 @@ const RANGE = { from: { value: -70, unit: 'C' }, to: { value: 40, unit: 'C' } };
 describe('specifications', () => {
   it('when an editor sets the project default and a campaign override, then the campaign reads its override, both are audited and versioned', async () => {
     const campaign = await screen(project.id);
-    const put1 = await as('editor').put(`/api/v1/projects/${project.id}/specification`).send({ measure: 'ee', minimum: 97, probability: 0.9 }).expect(200);
+    const put1 = await as('editor')
+      .put(`/api/v1/projects/${project.id}/specification`)
+      .send({ measure: 'ee', minimum: 97, probability: 0.9 })
+      .expect(200);
     expect(put1.body.specification).toMatchObject({ measure: 'ee', minimum: 97, probability: 0.9, runs: 1, version: 1 });
     const inherited = await as('viewer').get(`/api/v1/campaigns/${campaign.id}/specification`).expect(200);
     expect(inherited.body.source).toBe('project');
     expect(inherited.body.effective.minimum).toBe(97);
 
-    await as('editor').put(`/api/v1/campaigns/${campaign.id}/specification`).send({ measure: 'ee', minimum: 98, probability: 0.95 }).expect(200);
-    const stale = await as('editor').put(`/api/v1/campaigns/${campaign.id}/specification`).send({ measure: 'ee', minimum: 98.5, probability: 0.95, version: 7 }).expect(409);
+    await as('editor')
+      .put(`/api/v1/campaigns/${campaign.id}/specification`)
+      .send({ measure: 'ee', minimum: 98, probability: 0.95 })
+      .expect(200);
+    const stale = await as('editor')
+      .put(`/api/v1/campaigns/${campaign.id}/specification`)
+      .send({ measure: 'ee', minimum: 98.5, probability: 0.95, version: 7 })
+      .expect(409);
     expect(stale.body.currentVersion).toBe(1);
-    const put3 = await as('editor').put(`/api/v1/campaigns/${campaign.id}/specification`).send({ measure: 'ee', minimum: 98.5, probability: 0.95, version: 1 }).expect(200);
+    const put3 = await as('editor')
+      .put(`/api/v1/campaigns/${campaign.id}/specification`)
+      .send({ measure: 'ee', minimum: 98.5, probability: 0.95, version: 1 })
+      .expect(200);
     expect(put3.body).toMatchObject({ source: 'campaign', effective: { minimum: 98.5, version: 2 }, project: { minimum: 97 } });
     const history = await audits('campaign-specification', campaign.id);
     expect(history.map((h) => h.action)).toEqual(['create', 'update']);
@@ -119,7 +131,10 @@ describe('specifications', () => {
 
   it('when a viewer writes or an outsider reads, then 403 and 404', async () => {
     const campaign = await createCampaign(project.id);
-    await as('viewer').put(`/api/v1/campaigns/${campaign.id}/specification`).send({ measure: 'ee', minimum: 98, probability: 0.95 }).expect(403);
+    await as('viewer')
+      .put(`/api/v1/campaigns/${campaign.id}/specification`)
+      .send({ measure: 'ee', minimum: 98, probability: 0.95 })
+      .expect(403);
     await as('outsider').get(`/api/v1/campaigns/${campaign.id}/specification`).expect(404);
     await as('outsider').get(`/api/v1/projects/${project.id}/specification`).expect(404);
   });
@@ -128,7 +143,10 @@ describe('specifications', () => {
 describe('campaign plan', () => {
   it('when an editor saves a plan with the stored specification and runs, then inputs and result are kept, versioned and audited', async () => {
     const campaign = await screen(project.id);
-    await as('editor').put(`/api/v1/campaigns/${campaign.id}/specification`).send({ measure: 'ee', minimum: 98, probability: 0.95 }).expect(200);
+    await as('editor')
+      .put(`/api/v1/campaigns/${campaign.id}/specification`)
+      .send({ measure: 'ee', minimum: 98, probability: 0.95 })
+      .expect(200);
     expect((await as('viewer').get(`/api/v1/campaigns/${campaign.id}/plan`).expect(200)).body.plan).toBeNull();
     const inputs = { temperatures: RANGE, rate: { targetConversionPercent: 95, maxTime: { value: 24, unit: 'h' } }, curvePoints: 11 };
     const saved = await as('editor').put(`/api/v1/campaigns/${campaign.id}/plan`).send({ inputs }).expect(200);
@@ -145,17 +163,30 @@ describe('campaign plan', () => {
     const stateless = await request(env.app)
       .post('/api/v1/plan')
       .send({
-        measurements: runs.map((m) => ({ temperature: { value: m.temperatureK, unit: 'K' }, selectivity: { measure: 'ee', value: m.value } })),
+        measurements: runs.map((m) => ({
+          temperature: { value: m.temperatureK, unit: 'K' },
+          selectivity: { measure: 'ee', value: m.value },
+        })),
         specification: { measure: 'ee', minimum: 98, probability: 0.95 },
         temperatures: RANGE,
-        rate: { ...inputs.rate, runs: runs.map((m) => ({ temperature: { value: m.temperatureK, unit: 'K' }, conversionPercent: m.conversionPercent, time: { value: m.reactionTimeS, unit: 's' } })) },
+        rate: {
+          ...inputs.rate,
+          runs: runs.map((m) => ({
+            temperature: { value: m.temperatureK, unit: 'K' },
+            conversionPercent: m.conversionPercent,
+            time: { value: m.reactionTimeS, unit: 's' },
+          })),
+        },
         curvePoints: 11,
       })
       .expect(200);
     expect(plan.result.recommended!.kelvin).toBeCloseTo(stateless.body.recommended.kelvin, 9);
 
     await as('editor').put(`/api/v1/campaigns/${campaign.id}/plan`).send({ inputs }).expect(409);
-    const again = await as('editor').put(`/api/v1/campaigns/${campaign.id}/plan`).send({ inputs: { ...inputs, rule: 'coldest' }, version: 1 }).expect(200);
+    const again = await as('editor')
+      .put(`/api/v1/campaigns/${campaign.id}/plan`)
+      .send({ inputs: { ...inputs, rule: 'coldest' }, version: 1 })
+      .expect(200);
     expect(again.body.plan.version).toBe(2);
     expect(again.body.plan.result.rule.name).toBe('coldest');
     const read = await as('viewer').get(`/api/v1/campaigns/${campaign.id}/plan`).expect(200);
@@ -172,9 +203,19 @@ describe('campaign plan', () => {
   it('when a campaign has a saved plan and the project a saved comparison, then the workbook carries a Plan and a Comparison sheet with their numbers', async () => {
     const campaign = await screen(project.id);
     const other = await screen(project.id, 12_000, 0.6);
-    await as('editor').put(`/api/v1/campaigns/${campaign.id}/specification`).send({ measure: 'ee', minimum: 98, probability: 0.95 }).expect(200);
-    const inputs = { temperatures: RANGE, rate: { targetConversionPercent: 95, maxTime: { value: 24, unit: 'h' } }, curvePoints: 11, nextRuns: { count: 2 } };
-    const plan = campaignPlanSchema.parse((await as('editor').put(`/api/v1/campaigns/${campaign.id}/plan`).send({ inputs }).expect(200)).body.plan);
+    await as('editor')
+      .put(`/api/v1/campaigns/${campaign.id}/specification`)
+      .send({ measure: 'ee', minimum: 98, probability: 0.95 })
+      .expect(200);
+    const inputs = {
+      temperatures: RANGE,
+      rate: { targetConversionPercent: 95, maxTime: { value: 24, unit: 'h' } },
+      curvePoints: 11,
+      nextRuns: { count: 2 },
+    };
+    const plan = campaignPlanSchema.parse(
+      (await as('editor').put(`/api/v1/campaigns/${campaign.id}/plan`).send({ inputs }).expect(200)).body.plan,
+    );
     const rec = plan.result.recommended!;
     expect(rec).not.toBeNull();
     await as('editor')
@@ -207,7 +248,9 @@ describe('campaign plan', () => {
     expect(byLabel(planSheet, 'Rule').getCell(2).value).toBe(plan.result.rule.text);
     expect(byLabel(planSheet, 'Operating window from').getCell(2).value).toBeCloseTo(plan.result.window!.from.celsius, 2);
     expect(byLabel(planSheet, 'Operating window to').getCell(2).value).toBeCloseTo(plan.result.window!.to.celsius, 2);
-    expect(byLabel(planSheet, 'Binding constraints').getCell(2).value).toBe(plan.result.binding.length ? plan.result.binding.join(', ') : 'none');
+    expect(byLabel(planSheet, 'Binding constraints').getCell(2).value).toBe(
+      plan.result.binding.length ? plan.result.binding.join(', ') : 'none',
+    );
     expect(String(byLabel(planSheet, 'Caution').getCell(2).value)).toMatch(/calorimetry/);
     expect(String(byLabel(planSheet, 'Next runs').getCell(2).value)).toMatch(/°C.*°C/);
     expect(byLabel(planSheet, 'Allowed temperature range').getCell(2).value).toBe('−70 °C to 40 °C');
@@ -234,7 +277,12 @@ describe('campaign plan', () => {
     const cmp = wb.getWorksheet('Comparison')!;
     const pairRow = byLabel(cmp, `${other.title} against ${campaign.title}`);
     expect(pairRow).toBeDefined();
-    const stored = await loadComparisonReportData(testKnex(), project.id, users.viewer.id, (await testKnex()('comparisons').where({ name: 'Report pair' }).first('id')).id);
+    const stored = await loadComparisonReportData(
+      testKnex(),
+      project.id,
+      users.viewer.id,
+      (await testKnex()('comparisons').where({ name: 'Report pair' }).first('id')).id,
+    );
     expect(pairRow.getCell(2).value).toBeCloseTo(stored.pairs[0]!.differenceLnR, 6);
     expect(pairRow.getCell(8).value).toBe('the first is more selective');
   });
@@ -242,7 +290,10 @@ describe('campaign plan', () => {
   it('when no specification is stored or sent, then 400 names inputs.specification and nothing is stored', async () => {
     const other = await createProject([{ user: users.editor, role: 'editor' }]);
     const campaign = await screen(other.id);
-    const res = await as('editor').put(`/api/v1/campaigns/${campaign.id}/plan`).send({ inputs: { temperatures: RANGE } }).expect(400);
+    const res = await as('editor')
+      .put(`/api/v1/campaigns/${campaign.id}/plan`)
+      .send({ inputs: { temperatures: RANGE } })
+      .expect(400);
     expect(res.body.errors[0].path).toBe('inputs.specification');
     expect(await testKnex()('campaign_plans').where({ campaignId: campaign.id }).count({ n: '*' }).first()).toEqual({ n: 0 });
   });
@@ -282,7 +333,9 @@ describe('comparisons', () => {
     expect(read.body.result.pairs[0].verdict).toBe('first');
     const list = await as('viewer').get('/api/v1/comparisons').expect(200);
     expect(list.body.comparisons.map((c: { id: string }) => c.id)).toContain(view.id);
-    expect((await as('outsider').get('/api/v1/comparisons').expect(200)).body.comparisons.map((c: { id: string }) => c.id)).not.toContain(view.id);
+    expect((await as('outsider').get('/api/v1/comparisons').expect(200)).body.comparisons.map((c: { id: string }) => c.id)).not.toContain(
+      view.id,
+    );
     await as('outsider').get(`/api/v1/comparisons/${view.id}`).expect(404);
     expect((await audits('comparison', view.id)).map((x) => x.action)).toEqual(['create']);
     const sheet = await loadComparisonReportData(testKnex(), project.id, users.viewer.id, view.id);
@@ -293,14 +346,20 @@ describe('comparisons', () => {
   it('when each campaign has a specification, then the comparison says in words which meets its own at the temperature', async () => {
     const a = await screen(project.id, 12_000, 0.6);
     const b = await screen(project.id);
-    const body = { projectId: project.id, name: 'Against the specification', campaignIds: [a.id, b.id], temperature: { value: -20, unit: 'C' } };
+    const body = {
+      projectId: project.id,
+      name: 'Against the specification',
+      campaignIds: [a.id, b.id],
+      temperature: { value: -20, unit: 'C' },
+    };
     const first = comparisonSchema.parse((await as('editor').post('/api/v1/comparisons').send(body).expect(201)).body);
     // The project's default applies until a campaign sets its own.
     expect(first.result.campaigns.every((c) => c.specification !== null)).toBe(true);
     // A minimum between the two fitted ee values at −20 °C: the first reaches it, the second does not [C].
     const [eeA, eeB] = first.result.campaigns.map((c) => c.fit!.at.value);
     const minimum = Math.round(((eeA! + eeB!) / 2) * 10) / 10;
-    for (const c of [a, b]) await as('editor').put(`/api/v1/campaigns/${c.id}/specification`).send({ measure: 'ee', minimum, probability: 0.9 }).expect(200);
+    for (const c of [a, b])
+      await as('editor').put(`/api/v1/campaigns/${c.id}/specification`).send({ measure: 'ee', minimum, probability: 0.9 }).expect(200);
     const read = comparisonSchema.parse((await as('viewer').get(`/api/v1/comparisons/${first.id}`).expect(200)).body);
     expect(read.result.campaigns.map((c) => c.meetsAtTemperature)).toEqual(['meets', 'falls short']);
     expect(read.result.campaigns[0]!.specification).toMatchObject({ measure: 'ee', minimum, probability: 0.9, runs: 1 });
@@ -322,9 +381,24 @@ describe('comparisons', () => {
 
   it.each([
     ['one campaign', async () => [(await screen(project.id)).id], 'campaignIds'],
-    ['a campaign from a project the caller cannot read', async () => [(await screen(project.id)).id, (await screen(outsiderProject.id)).id], 'campaignIds.1'],
-    ['ee against dr with no common scale', async () => [(await screen(project.id)).id, (await screen(project.id, 12_000, 0, 'dr')).id], 'campaignIds.1'],
-    ['the same campaign twice', async () => { const id = (await screen(project.id)).id; return [id, id]; }, 'campaignIds.1'],
+    [
+      'a campaign from a project the caller cannot read',
+      async () => [(await screen(project.id)).id, (await screen(outsiderProject.id)).id],
+      'campaignIds.1',
+    ],
+    [
+      'ee against dr with no common scale',
+      async () => [(await screen(project.id)).id, (await screen(project.id, 12_000, 0, 'dr')).id],
+      'campaignIds.1',
+    ],
+    [
+      'the same campaign twice',
+      async () => {
+        const id = (await screen(project.id)).id;
+        return [id, id];
+      },
+      'campaignIds.1',
+    ],
   ])('when the comparison has %s, then 400 names %s and nothing is stored', async (_label, ids, path) => {
     const res = await as('editor')
       .post('/api/v1/comparisons')
@@ -337,6 +411,9 @@ describe('comparisons', () => {
   it('when a viewer saves a comparison, then 403', async () => {
     const a = await screen(project.id);
     const b = await screen(project.id);
-    await as('viewer').post('/api/v1/comparisons').send({ projectId: project.id, name: 'No', campaignIds: [a.id, b.id], temperature: { value: -20, unit: 'C' } }).expect(403);
+    await as('viewer')
+      .post('/api/v1/comparisons')
+      .send({ projectId: project.id, name: 'No', campaignIds: [a.id, b.id], temperature: { value: -20, unit: 'C' } })
+      .expect(403);
   });
 });

@@ -33,11 +33,21 @@ const body = (over: Record<string, unknown> = {}) => ({
   curvePoints: 23,
   ...over,
 });
-const post = (b: unknown) => request(testApp().app).post('/api/v1/plan').send(b as object);
+const post = (b: unknown) =>
+  request(testApp().app)
+    .post('/api/v1/plan')
+    .send(b as object);
 
 describe('POST /api/v1/plan', () => {
   it('when the specification can be met, then the warmest feasible temperature is recommended with its probability, rule and caution', async () => {
-    const res = await post(body({ at: [{ value: -30, unit: 'C' }, { value: 0, unit: 'C' }] })).expect(200);
+    const res = await post(
+      body({
+        at: [
+          { value: -30, unit: 'C' },
+          { value: 0, unit: 'C' },
+        ],
+      }),
+    ).expect(200);
     const r = res.body;
     expect(r.recommended.rule).toBe('warmest');
     expect(r.rule.text).toMatch(/warmest/i);
@@ -59,7 +69,10 @@ describe('POST /api/v1/plan', () => {
 
   it('when evaluated at 0 °C, then the probability is the jstat Student t of the unweighted prediction (n − 2 dof)', async () => {
     const res = await post(body({ at: [{ value: 0, unit: 'C' }] })).expect(200);
-    const fit = await request(testApp().app).post('/api/v1/fit').send({ measurements, predict: [{ value: 0, unit: 'C' }] }).expect(200);
+    const fit = await request(testApp().app)
+      .post('/api/v1/fit')
+      .send({ measurements, predict: [{ value: 0, unit: 'C' }] })
+      .expect(200);
     const p = fit.body.predictions[0];
     const [lo, hi] = p.predictionInterval.ratio.map(Math.log);
     const yHat = Math.log(p.ratio);
@@ -95,7 +108,11 @@ describe('POST /api/v1/plan', () => {
 
   it('when the coldest rule and next runs are asked for, then the time edge is recommended and the runs lie in the range', async () => {
     const res = await post(
-      body({ rule: 'coldest', rate: { runs: rateRuns, targetConversionPercent: 95, maxTime: { value: 24, unit: 'h' } }, nextRuns: { count: 3 } }),
+      body({
+        rule: 'coldest',
+        rate: { runs: rateRuns, targetConversionPercent: 95, maxTime: { value: 24, unit: 'h' } },
+        nextRuns: { count: 3 },
+      }),
     ).expect(200);
     const r = res.body;
     expect(r.binding.sort()).toEqual(['specification', 'time']);
@@ -116,11 +133,19 @@ describe('POST /api/v1/plan', () => {
   });
 
   it.each([
-    ['an ee specification above 100', body({ specification: { measure: 'ee', minimum: 100.5, probability: 0.95 } }), 'specification.minimum'],
+    [
+      'an ee specification above 100',
+      body({ specification: { measure: 'ee', minimum: 100.5, probability: 0.95 } }),
+      'specification.minimum',
+    ],
     ['a dr specification below 1:1', body({ specification: { measure: 'dr', minimum: 0.8, probability: 0.95 } }), 'specification.minimum'],
     ['a probability of 0.5', body({ specification: { measure: 'ee', minimum: 98, probability: 0.5 } }), 'specification.probability'],
     ['a probability of 1', body({ specification: { measure: 'ee', minimum: 98, probability: 1 } }), 'specification.probability'],
-    ['a range with from warmer than to', body({ temperatures: { from: { value: 20, unit: 'C' }, to: { value: 250, unit: 'K' } } }), 'temperatures.to'],
+    [
+      'a range with from warmer than to',
+      body({ temperatures: { from: { value: 20, unit: 'C' }, to: { value: 250, unit: 'K' } } }),
+      'temperatures.to',
+    ],
     [
       'a run at 0 % conversion',
       body({ rate: { runs: [{ ...rateRuns[0], conversionPercent: 0 }, rateRuns[1]], targetConversionPercent: 95 } }),
@@ -132,7 +157,11 @@ describe('POST /api/v1/plan', () => {
       'rate.runs.1.conversionPercent',
     ],
     ['a hold with no barrier', body({ hold: { time: { value: 2, unit: 'h' }, floorEePercent: 97 } }), 'hold.barrier'],
-    ['second order without a concentration', body({ rate: { runs: rateRuns, order: 'second', targetConversionPercent: 95 } }), 'rate.initial'],
+    [
+      'second order without a concentration',
+      body({ rate: { runs: rateRuns, order: 'second', targetConversionPercent: 95 } }),
+      'rate.initial',
+    ],
     ['no specification', { ...body(), specification: undefined }, 'specification'],
   ])('when the body has %s, then 400 names %s and nothing is computed', async (_label, b, path) => {
     const res = await post(b).expect(400);
@@ -147,7 +176,14 @@ describe('POST /api/v1/plan', () => {
   });
 
   it('when a temperature in at is below absolute zero, then the error names that entry', async () => {
-    const res = await post(body({ at: [{ value: 0, unit: 'C' }, { value: -300, unit: 'C' }] }));
+    const res = await post(
+      body({
+        at: [
+          { value: 0, unit: 'C' },
+          { value: -300, unit: 'C' },
+        ],
+      }),
+    );
     expect(res.status).toBeGreaterThanOrEqual(400);
     expect(res.status).toBeLessThan(500);
     expect(res.body.errors[0].path).toBe('at.1.value');
@@ -155,7 +191,14 @@ describe('POST /api/v1/plan', () => {
 
   it('when the API description is read, then the planner and its stored routes are described', async () => {
     const res = await request(testApp().app).get('/api/v1/openapi.json').expect(200);
-    for (const p of ['/api/v1/plan', '/api/v1/campaigns/{campaignId}/plan', '/api/v1/campaigns/{campaignId}/specification', '/api/v1/projects/{projectId}/specification', '/api/v1/comparisons', '/api/v1/comparisons/{comparisonId}']) {
+    for (const p of [
+      '/api/v1/plan',
+      '/api/v1/campaigns/{campaignId}/plan',
+      '/api/v1/campaigns/{campaignId}/specification',
+      '/api/v1/projects/{projectId}/specification',
+      '/api/v1/comparisons',
+      '/api/v1/comparisons/{comparisonId}',
+    ]) {
       expect(Object.keys(res.body.paths)).toContain(p);
     }
     expect(res.body.components.schemas.PlanRequest).toBeDefined();

@@ -39,7 +39,10 @@ describe('projects and their members', () => {
     const me = await as(await createUser());
     const empty = await me.write('post', '/api/v1/projects').send({ description: 'x' }).expect(400);
     expect(empty.body.errors).toEqual([{ path: 'name', message: 'Give the project a name.' }]);
-    const long = await me.write('post', '/api/v1/projects').send({ name: 'x'.repeat(121) }).expect(400);
+    const long = await me
+      .write('post', '/api/v1/projects')
+      .send({ name: 'x'.repeat(121) })
+      .expect(400);
     expect(long.body.errors[0].path).toBe('name');
     const wrongType = await me.write('post', '/api/v1/projects').send({ name: 'ok', description: 5 }).expect(400);
     expect(wrongType.body.errors[0].path).toBe('description');
@@ -49,7 +52,10 @@ describe('projects and their members', () => {
     env = await startAuthApp();
     const a = await createUser();
     const b = await createUser();
-    const shared = await createProject([{ user: a, role: 'owner' }, { user: b, role: 'viewer' }]);
+    const shared = await createProject([
+      { user: a, role: 'owner' },
+      { user: b, role: 'viewer' },
+    ]);
     await createProject([{ user: a, role: 'owner' }]);
     const bs = await as(b);
     const list = await bs.agent.get('/api/v1/projects').expect(200);
@@ -68,7 +74,12 @@ describe('projects and their members', () => {
     expect(e.before).toMatchObject({ name: 'Old name' });
     expect(e.after).toMatchObject({ name: 'New name' });
     const history = await o.agent.get(`/api/v1/projects/${p.id}/audit-events`).expect(200);
-    expect(history.body.events[0]).toMatchObject({ action: 'update', actor: { login: owner.login }, before: { name: 'Old name' }, after: { name: 'New name' } });
+    expect(history.body.events[0]).toMatchObject({
+      action: 'update',
+      actor: { login: owner.login },
+      before: { name: 'Old name' },
+      after: { name: 'New name' },
+    });
     await o.write('patch', `/api/v1/projects/${p.id}`).send({ version: 2 }).expect(400);
   });
 
@@ -91,7 +102,10 @@ describe('projects and their members', () => {
     env = await startAuthApp();
     const owner = await createUser();
     const editor = await createUser();
-    const p = await createProject([{ user: owner, role: 'owner' }, { user: editor, role: 'editor' }]);
+    const p = await createProject([
+      { user: owner, role: 'owner' },
+      { user: editor, role: 'editor' },
+    ]);
     const o = await as(owner);
     const leave = await o.write('delete', `/api/v1/projects/${p.id}/membership`).expect(409);
     expect(leave.body.detail).toMatch(/last owner/);
@@ -117,7 +131,10 @@ describe('projects and their members', () => {
     env = await startAuthApp();
     const owner = await createUser();
     const viewer = await createUser();
-    const p = await createProject([{ user: owner, role: 'owner' }, { user: viewer, role: 'viewer' }]);
+    const p = await createProject([
+      { user: owner, role: 'owner' },
+      { user: viewer, role: 'viewer' },
+    ]);
     const o = await as(owner);
     const res = await o.write('patch', `/api/v1/projects/${p.id}/members/${viewer.id}`).send({ role: 'admin' }).expect(400);
     expect(res.body.errors).toEqual([{ path: 'role', message: 'Choose owner, editor or viewer.' }]);
@@ -128,7 +145,10 @@ describe('projects and their members', () => {
     env = await startAuthApp();
     const owner = await createUser();
     const viewer = await createUser();
-    const p = await createProject([{ user: owner, role: 'owner' }, { user: viewer, role: 'viewer' }]);
+    const p = await createProject([
+      { user: owner, role: 'owner' },
+      { user: viewer, role: 'viewer' },
+    ]);
     const o = await as(owner);
     await o.write('delete', `/api/v1/projects/${p.id}`).expect(204);
     await o.agent.get(`/api/v1/projects/${p.id}`).expect(404);
@@ -142,7 +162,11 @@ describe('projects and their members', () => {
     const owner = await createUser();
     const p = await createProject([{ user: owner, role: 'owner' }]);
     const o = await as(owner);
-    for (const [i, name] of ['one', 'two', 'three'].entries()) await o.write('patch', `/api/v1/projects/${p.id}`).send({ name, version: i + 1 }).expect(200);
+    for (const [i, name] of ['one', 'two', 'three'].entries())
+      await o
+        .write('patch', `/api/v1/projects/${p.id}`)
+        .send({ name, version: i + 1 })
+        .expect(200);
     const first = await o.agent.get(`/api/v1/projects/${p.id}/audit-events?limit=2`).expect(200);
     expect(first.body.events.map((e: { after: { name: string } }) => e.after.name)).toEqual(['three', 'two']);
     const second = await o.agent.get(`/api/v1/projects/${p.id}/audit-events?limit=2&before=${first.body.nextBefore}`).expect(200);
@@ -160,7 +184,15 @@ describe('recordAudit', () => {
     await expect(
       testKnex().transaction(async (trx) => {
         await trx('projects').where({ id: p.id }).update({ name: 'After' });
-        await recordAudit(trx, { projectId: p.id, actorUserId: owner.id, action: 'update', entityType: 'project', entityId: p.id, before: { name: 'Before' }, after: { name: 'After' } });
+        await recordAudit(trx, {
+          projectId: p.id,
+          actorUserId: owner.id,
+          action: 'update',
+          entityType: 'project',
+          entityId: p.id,
+          before: { name: 'Before' },
+          after: { name: 'After' },
+        });
         throw new Error('something later failed');
       }),
     ).rejects.toThrow('something later failed');

@@ -66,10 +66,19 @@ async function newCampaign(who: Who = 'editor', title = `Records screen ${random
   return res.body as { id: string; version: number; title: string };
 }
 
-async function addRun(campaignId: string, run: { celsius: number; ee: number; sampleId?: string; replicateLabel?: string }, who: Who = 'editor') {
+async function addRun(
+  campaignId: string,
+  run: { celsius: number; ee: number; sampleId?: string; replicateLabel?: string },
+  who: Who = 'editor',
+) {
   const res = await as(who)
     .post(`/api/v1/campaigns/${campaignId}/measurements`)
-    .send({ temperature: C(run.celsius), selectivity: { measure: 'ee', value: run.ee }, sampleId: run.sampleId, replicateLabel: run.replicateLabel });
+    .send({
+      temperature: C(run.celsius),
+      selectivity: { measure: 'ee', value: run.ee },
+      sampleId: run.sampleId,
+      replicateLabel: run.replicateLabel,
+    });
   expect(res.status).toBe(201);
   return res.body as { id: string; version: number };
 }
@@ -81,7 +90,10 @@ async function history(campaignId: string, who: Who = 'viewer') {
 
 /** Preview with the guessed mapping, then import (confirming warnings when asked to). */
 async function importFile(campaignId: string, file: { name: string; buffer: Buffer }, acknowledge: boolean, who: Who = 'editor') {
-  const preview = await as(who).post(`/api/v1/campaigns/${campaignId}/imports/preview`).attach('file', file.buffer, file.name).field('request', '{}');
+  const preview = await as(who)
+    .post(`/api/v1/campaigns/${campaignId}/imports/preview`)
+    .attach('file', file.buffer, file.name)
+    .field('request', '{}');
   expect(preview.status).toBe(200);
   const imported = await as(who)
     .post(`/api/v1/campaigns/${campaignId}/imports`)
@@ -94,7 +106,10 @@ describe('history as sentences', () => {
   it('when a run is changed with a reason, then the campaign history says who changed what from what to what, and why', async () => {
     const c = await newCampaign();
     const run = await addRun(c.id, { celsius: -20, ee: 98.7, sampleId: 'KL-12', replicateLabel: 'a' });
-    await as('editor').patch(`/api/v1/measurements/${run.id}`).send({ version: 1, reason: 'integration corrected', selectivity: { measure: 'ee', value: 98.9 } }).expect(200);
+    await as('editor')
+      .patch(`/api/v1/measurements/${run.id}`)
+      .send({ version: 1, reason: 'integration corrected', selectivity: { measure: 'ee', value: 98.9 } })
+      .expect(200);
     const sentences = await history(c.id);
     expect(sentences[0]).toBe('Tomás Reyes changed run KL-12 a at −20 °C: ee 98.7 → 98.9 %, reason: integration corrected.');
     expect(sentences[1]).toBe('Tomás Reyes added run KL-12 a at −20 °C: ee 98.7 %.');
@@ -104,17 +119,28 @@ describe('history as sentences', () => {
   it('when every kind of change happens to a campaign, then each has its own sentence with no ids and no JSON', async () => {
     const c = await newCampaign();
     const run = await addRun(c.id, { celsius: 0, ee: 91.5, sampleId: 'S-7' });
-    await as('editor').patch(`/api/v1/measurements/${run.id}`).send({ version: 1, reason: 'bath log read again', temperature: C(-2.5), conversionPercent: 45 }).expect(200);
-    await as('editor').put(`/api/v1/measurements/${run.id}/exclusion`).send({ version: 2, excluded: true, reason: 'sample warmed before quench' }).expect(200);
+    await as('editor')
+      .patch(`/api/v1/measurements/${run.id}`)
+      .send({ version: 1, reason: 'bath log read again', temperature: C(-2.5), conversionPercent: 45 })
+      .expect(200);
+    await as('editor')
+      .put(`/api/v1/measurements/${run.id}/exclusion`)
+      .send({ version: 2, excluded: true, reason: 'sample warmed before quench' })
+      .expect(200);
     await as('editor').put(`/api/v1/measurements/${run.id}/exclusion`).send({ version: 3, excluded: false }).expect(200);
-    await as('editor').delete(`/api/v1/measurements/${run.id}?version=4&reason=${encodeURIComponent('entered in the wrong campaign')}`).expect(204);
+    await as('editor')
+      .delete(`/api/v1/measurements/${run.id}?version=4&reason=${encodeURIComponent('entered in the wrong campaign')}`)
+      .expect(204);
     await as('editor')
       .post(`/api/v1/campaigns/${c.id}/measurements/batch`)
       .send({ measurements: [-40, -20, 0, 20].map((t, i) => ({ temperature: C(t), selectivity: { measure: 'ee', value: 96 - 4 * i } })) })
       .expect(201);
     await importFile(c.id, sample('kestrelmoor-skylark-screen.csv'), true);
     await as('editor').patch(`/api/v1/campaigns/${c.id}`).send({ version: 1, status: 'completed' }).expect(200);
-    await as('editor').post(`/api/v1/campaigns/${c.id}/forecasts`).send({ temperature: C(-30), label: 'pilot plant' }).expect(201);
+    await as('editor')
+      .post(`/api/v1/campaigns/${c.id}/forecasts`)
+      .send({ temperature: C(-30), label: 'pilot plant' })
+      .expect(201);
 
     const sentences = await history(c.id);
     expect(sentences.slice(0, 9).reverse()).toEqual([
@@ -155,19 +181,30 @@ describe('history as sentences', () => {
   it('when the history is exported, then the CSV has one line per change with time, person, sentence and reason', async () => {
     const c = await newCampaign();
     const run = await addRun(c.id, { celsius: -20, ee: 97.1, sampleId: '=HYPERLINK("x")' });
-    await as('editor').patch(`/api/v1/measurements/${run.id}`).send({ version: 1, reason: 'peak, re-integrated', notes: 'checked' }).expect(200);
-    const res = await as('viewer').get(`/api/v1/campaigns/${c.id}/history.csv`).buffer(true).parse((r, cb) => {
-      let text = '';
-      r.on('data', (d: Buffer) => (text += d.toString('utf8')));
-      r.on('end', () => cb(null, text));
-    });
+    await as('editor')
+      .patch(`/api/v1/measurements/${run.id}`)
+      .send({ version: 1, reason: 'peak, re-integrated', notes: 'checked' })
+      .expect(200);
+    const res = await as('viewer')
+      .get(`/api/v1/campaigns/${c.id}/history.csv`)
+      .buffer(true)
+      .parse((r, cb) => {
+        let text = '';
+        r.on('data', (d: Buffer) => (text += d.toString('utf8')));
+        r.on('end', () => cb(null, text));
+      });
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toMatch(/^text\/csv/);
     expect(res.headers['content-disposition']).toMatch(/^attachment; filename=.*-history\.csv$/);
-    const lines = (res.body as string).replace(/^\uFEFF/, '').trimEnd().split('\r\n');
+    const lines = (res.body as string)
+      .replace(/^\uFEFF/, '')
+      .trimEnd()
+      .split('\r\n');
     expect(lines[0]).toBe('When (UTC),Who,What happened,Reason');
     expect(lines).toHaveLength(4);
-    expect(lines[1]).toMatch(/^\d{4}-\d\d-\d\d \d\d:\d\d:\d\d,Tomás Reyes,"Tomás Reyes changed run =HYPERLINK\(""x""\) at −20 °C: notes none → “checked”, reason: peak, re-integrated\.","peak, re-integrated"$/);
+    expect(lines[1]).toMatch(
+      /^\d{4}-\d\d-\d\d \d\d:\d\d:\d\d,Tomás Reyes,"Tomás Reyes changed run =HYPERLINK\(""x""\) at −20 °C: notes none → “checked”, reason: peak, re-integrated\.","peak, re-integrated"$/,
+    );
   });
 });
 
@@ -212,8 +249,12 @@ describe('sign-off', () => {
       await as('editor').patch(`/api/v1/measurements/${run.id}`).send({ version: 1, reason: 'late fix', notes: 'x' }),
       await as('editor').put(`/api/v1/measurements/${run.id}/exclusion`).send({ version: 1, excluded: true, reason: 'late' }),
       await as('editor').delete(`/api/v1/measurements/${run.id}?version=1&reason=late`),
-      await as('editor').post(`/api/v1/campaigns/${c.id}/measurements`).send({ temperature: C(10), selectivity: { measure: 'ee', value: 85 } }),
-      await as('editor').post(`/api/v1/campaigns/${c.id}/measurements/batch`).send({ measurements: [{ temperature: C(10), selectivity: { measure: 'ee', value: 85 } }] }),
+      await as('editor')
+        .post(`/api/v1/campaigns/${c.id}/measurements`)
+        .send({ temperature: C(10), selectivity: { measure: 'ee', value: 85 } }),
+      await as('editor')
+        .post(`/api/v1/campaigns/${c.id}/measurements/batch`)
+        .send({ measurements: [{ temperature: C(10), selectivity: { measure: 'ee', value: 85 } }] }),
       (await importFile(c.id, sample('kestrelmoor-skylark-screen.csv'), true)).imported,
     ];
     for (const res of attempts) {
@@ -262,7 +303,15 @@ describe('uploaded files kept as records', () => {
 
     const list = await as('viewer').get(`/api/v1/campaigns/${c.id}/files`).expect(200);
     expect(list.body.files).toEqual([
-      expect.objectContaining({ fileName: file.name, sizeBytes: file.buffer.length, sha256, rowCount: 12, storedRowCount: 12, uploadedBy: 'Tomás Reyes', format: 'csv' }),
+      expect.objectContaining({
+        fileName: file.name,
+        sizeBytes: file.buffer.length,
+        sha256,
+        rowCount: 12,
+        storedRowCount: 12,
+        uploadedBy: 'Tomás Reyes',
+        format: 'csv',
+      }),
     ]);
     const fileId = list.body.files[0].id;
     const download = await as('viewer')
@@ -278,7 +327,10 @@ describe('uploaded files kept as records', () => {
     expect(download.headers['content-disposition']).toBe(`attachment; filename=${file.name}`);
     expect(download.headers['content-digest']).toBe(`sha-256=:${Buffer.from(sha256, 'hex').toString('base64')}:`);
 
-    const runs = await testKnex()('measurements').where({ campaignId: c.id }).orderBy('sourceRow').select('importFileId', 'sourceRow', 'sampleId');
+    const runs = await testKnex()('measurements')
+      .where({ campaignId: c.id })
+      .orderBy('sourceRow')
+      .select('importFileId', 'sourceRow', 'sampleId');
     expect(runs.every((r) => r.importFileId === fileId)).toBe(true);
     // The first data row of the sample is spreadsheet row 2, sample KL7702-S-001 [samples/kestrelmoor-skylark-screen.csv].
     expect(runs[0]).toMatchObject({ sourceRow: 2, sampleId: 'KL7702-S-001' });
@@ -317,7 +369,8 @@ describe('duplicate imports', () => {
         severity: 'warning',
         row: 2,
         column: null,
-        message: 'the campaign already has a measurement at this temperature with this value; importing adds it again (was this file imported before?).',
+        message:
+          'the campaign already has a measurement at this temperature with this value; importing adds it again (was this file imported before?).',
       },
     ]);
     expect(imported.status).toBe(422);
@@ -330,10 +383,21 @@ describe('import template', () => {
     const res = await as('viewer').get(`/api/v1/campaigns/${c.id}/imports/template.csv`).expect(200);
     expect(res.headers['content-disposition']).toMatch(/-template\.csv$/);
     const text = res.text;
-    const preview = await as('editor').post(`/api/v1/campaigns/${c.id}/imports/preview`).attach('file', Buffer.from(text), 'template.csv').field('request', '{}');
+    const preview = await as('editor')
+      .post(`/api/v1/campaigns/${c.id}/imports/preview`)
+      .attach('file', Buffer.from(text), 'template.csv')
+      .field('request', '{}');
     expect(preview.status).toBe(200);
     expect(preview.body).toMatchObject({ rowCount: 5, validRowCount: 5, errorCount: 0, warningCount: 0 });
     expect(preview.body.mapping).toMatchObject({ temperatureUnit: 'C', measure: 'ee' });
-    expect(Object.keys(preview.body.mapping.columns).sort()).toEqual(['conversionPercent', 'notes', 'reactionTime', 'replicateLabel', 'sampleId', 'temperature', 'value']);
+    expect(Object.keys(preview.body.mapping.columns).sort()).toEqual([
+      'conversionPercent',
+      'notes',
+      'reactionTime',
+      'replicateLabel',
+      'sampleId',
+      'temperature',
+      'value',
+    ]);
   });
 });

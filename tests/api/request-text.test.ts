@@ -21,8 +21,13 @@ beforeAll(async () => {
 });
 afterAll(closeTestKnex);
 
-const count = async (table: string, where: Record<string, unknown>) => Number((await testKnex()(table).where(where).count({ n: '*' }).first())!.n);
-const run = (celsius: number, extra: Record<string, unknown> = {}) => ({ temperature: { value: celsius, unit: 'C' }, selectivity: { measure: 'ee', value: 90 }, ...extra });
+const count = async (table: string, where: Record<string, unknown>) =>
+  Number((await testKnex()(table).where(where).count({ n: '*' }).first())!.n);
+const run = (celsius: number, extra: Record<string, unknown> = {}) => ({
+  temperature: { value: celsius, unit: 'C' },
+  selectivity: { measure: 'ee', value: 90 },
+  ...extra,
+});
 
 describe('NUL characters in text', () => {
   it('when a batch holds a NUL deep in a note, then 400 names that field and nothing is stored', async () => {
@@ -90,7 +95,10 @@ describe('database errors as problems', () => {
     for (const code of ['57014', '57P01', '08006', 'ECONNREFUSED']) {
       expect(toProblem(Object.assign(new Error('gone'), { code })).status).toBe(503);
     }
-    expect(toProblem(Object.assign(new Error('Knex: Timeout acquiring a connection. The pool is probably full.'), { name: 'KnexTimeoutError' })).status).toBe(503);
+    expect(
+      toProblem(Object.assign(new Error('Knex: Timeout acquiring a connection. The pool is probably full.'), { name: 'KnexTimeoutError' }))
+        .status,
+    ).toBe(503);
     // pg's own connect timeout (connectionTimeoutMillis) says just this.
     expect(toProblem(new Error('timeout expired')).status).toBe(503);
     expect(toProblem(new Error('something else')).status).toBe(500);

@@ -18,7 +18,11 @@ describe('personal API tokens', () => {
   it('when a token is created, then its secret is shown once, only its hash is stored, and the list never shows it again', async () => {
     env = await startAuthApp();
     const { agent, csrfToken } = await signIn(env.app, newIdentity());
-    const made = await agent.post('/api/v1/tokens').set('X-CSRF-Token', csrfToken).send({ name: 'nightly export', expiresInDays: 30 }).expect(201);
+    const made = await agent
+      .post('/api/v1/tokens')
+      .set('X-CSRF-Token', csrfToken)
+      .send({ name: 'nightly export', expiresInDays: 30 })
+      .expect(201);
     expect(made.body.secret).toMatch(/^eyr_[A-Za-z0-9_-]{43}$/);
     expect(made.body.token).toMatchObject({ name: 'nightly export', status: 'active', prefix: made.body.secret.slice(0, 10) });
     const days = (Date.parse(made.body.token.expiresAt) - Date.now()) / 86_400_000;
@@ -38,7 +42,11 @@ describe('personal API tokens', () => {
     const { agent, csrfToken } = await signIn(env.app, newIdentity());
     const res = await agent.post('/api/v1/tokens').set('X-CSRF-Token', csrfToken).send({ name: '  ', expiresInDays: 0 }).expect(400);
     expect(res.body.errors.map((e: { path: string }) => e.path).sort()).toEqual(['expiresInDays', 'name']);
-    const tooLong = await agent.post('/api/v1/tokens').set('X-CSRF-Token', csrfToken).send({ name: 'ok', expiresInDays: 'soon' }).expect(400);
+    const tooLong = await agent
+      .post('/api/v1/tokens')
+      .set('X-CSRF-Token', csrfToken)
+      .send({ name: 'ok', expiresInDays: 'soon' })
+      .expect(400);
     expect(tooLong.body.errors).toEqual([{ path: 'expiresInDays', message: 'Enter a number of days.' }]);
   });
 
@@ -46,7 +54,13 @@ describe('personal API tokens', () => {
     env = await startAuthApp();
     const viewer = await createUser();
     const other = await createUser();
-    const mine = await createProject([{ user: viewer, role: 'viewer' }, { user: other, role: 'owner' }], { name: 'Viewed' });
+    const mine = await createProject(
+      [
+        { user: viewer, role: 'viewer' },
+        { user: other, role: 'owner' },
+      ],
+      { name: 'Viewed' },
+    );
     const notMine = await createProject([{ user: other, role: 'owner' }]);
     const { secret } = await createApiToken(viewer);
     const auth = { Authorization: `Bearer ${secret}` };
@@ -57,7 +71,9 @@ describe('personal API tokens', () => {
     await request(env.app).patch(`/api/v1/projects/${mine.id}`).set(auth).send({ name: 'Changed' }).expect(403);
     const created = await request(env.app).post('/api/v1/projects').set(auth).send({ name: 'By script' }).expect(201);
     expect(created.headers['set-cookie']).toBeUndefined();
-    const used = await testKnex()('api_tokens').where({ tokenHash: hashSecret(secret) }).first();
+    const used = await testKnex()('api_tokens')
+      .where({ tokenHash: hashSecret(secret) })
+      .first();
     expect(used.lastUsedAt).not.toBeNull();
   });
 
@@ -74,9 +90,14 @@ describe('personal API tokens', () => {
     expect((await agent.get('/api/v1/tokens')).body.tokens[0].status).toBe('revoked');
 
     const old = await createApiToken(u);
-    await testKnex()('api_tokens').where({ id: old.token.id }).update({ expiresAt: new Date(Date.now() - 1000) });
+    await testKnex()('api_tokens')
+      .where({ id: old.token.id })
+      .update({ expiresAt: new Date(Date.now() - 1000) });
     await request(env.app).get('/api/v1/projects').set('Authorization', `Bearer ${old.secret}`).expect(401);
-    await request(env.app).get('/api/v1/projects').set('Authorization', `Bearer ${live.secret.slice(0, -1)}x`).expect(401);
+    await request(env.app)
+      .get('/api/v1/projects')
+      .set('Authorization', `Bearer ${live.secret.slice(0, -1)}x`)
+      .expect(401);
     await request(env.app).get('/api/v1/projects').set('Authorization', 'Bearer').expect(401);
   });
 
@@ -94,7 +115,11 @@ describe('personal API tokens', () => {
     env = await startAuthApp();
     const u = await createUser();
     const { secret } = await createApiToken(u);
-    const res = await request(env.app).post('/api/v1/tokens').set('Authorization', `Bearer ${secret}`).send({ name: 'child', expiresInDays: 365 }).expect(403);
+    const res = await request(env.app)
+      .post('/api/v1/tokens')
+      .set('Authorization', `Bearer ${secret}`)
+      .send({ name: 'child', expiresInDays: 365 })
+      .expect(403);
     expect(res.body.detail).toMatch(/cannot manage API tokens/);
   });
 });

@@ -54,7 +54,11 @@ function screenCsv(rows: number): Buffer {
 }
 
 async function mappingFor(csv: Buffer, campaignId: string) {
-  const preview = await request(b.url).post(`/api/v1/campaigns/${campaignId}/imports/preview`).set('Authorization', bearer).attach('file', csv.subarray(0, 400), 'screen.csv').expect(200);
+  const preview = await request(b.url)
+    .post(`/api/v1/campaigns/${campaignId}/imports/preview`)
+    .set('Authorization', bearer)
+    .attach('file', csv.subarray(0, 400), 'screen.csv')
+    .expect(200);
   expect(preview.body.mapping).not.toBeNull();
   return preview.body.mapping;
 }
@@ -71,7 +75,9 @@ async function pollUntilDone(base: string, jobId: string, timeoutMs = 90_000) {
 
 const stored = async (campaignId: string) => ({
   rows: Number((await testKnex()('measurements').where({ campaignId }).count({ n: '*' }).first())!.n),
-  audits: Number((await testKnex()('audit_events').where({ entityType: 'measurement_import', entityId: campaignId }).count({ n: '*' }).first())!.n),
+  audits: Number(
+    (await testKnex()('audit_events').where({ entityType: 'measurement_import', entityId: campaignId }).count({ n: '*' }).first())!.n,
+  ),
 });
 
 describe('two instances, one database', () => {
@@ -87,7 +93,12 @@ describe('two instances, one database', () => {
     projectId = (await createProject([{ user: user as User, role: 'owner' }])).id;
     bearer = `Bearer ${(await createApiToken(user as User)).secret}`;
     // A write with the session's CSRF token through the other instance.
-    await request(b.url).post('/api/v1/projects').set('Cookie', cookie).set('X-CSRF-Token', onB.body.csrfToken).send({ name: 'Made on B' }).expect(201);
+    await request(b.url)
+      .post('/api/v1/projects')
+      .set('Cookie', cookie)
+      .set('X-CSRF-Token', onB.body.csrfToken)
+      .send({ name: 'Made on B' })
+      .expect(201);
   });
 
   it('when requests are spread over both instances, then the rate limit counts them together', async () => {
@@ -99,7 +110,10 @@ describe('two instances, one database', () => {
     expect((await request(b.url).get('/auth/github')).status).toBe(429);
 
     // Calculators: counted in memory, shared once a second (10 allowed).
-    const body = { basis: { kind: 'gap', ddG: { value: 5, unit: 'kJ/mol' }, temperature: { value: 25, unit: 'C' } }, temperatures: { list: [{ value: 0, unit: 'C' }] } };
+    const body = {
+      basis: { kind: 'gap', ddG: { value: 5, unit: 'kJ/mol' }, temperature: { value: 25, unit: 'C' } },
+      temperatures: { list: [{ value: 0, unit: 'C' }] },
+    };
     const forecast = (base: string) => request(base).post('/api/v1/forecast').send(body);
     for (let i = 0; i < 6; i++) expect((await forecast(a.url)).status).toBeLessThan(429);
     await sleep(1500);

@@ -25,7 +25,10 @@ describe('accounts and projects in Chromium', () => {
     const { page, baseUrl } = browser;
     const who = newIdentity({ name: 'Petra Browser' });
     const colleague = await createUser({ name: 'Colm Colleague' });
-    const project = await createProject([{ user: colleague, role: 'owner' }], { name: 'KL-9001 screen (invented)', description: 'Invented demo project for the browser test.' });
+    const project = await createProject([{ user: colleague, role: 'owner' }], {
+      name: 'KL-9001 screen (invented)',
+      description: 'Invented demo project for the browser test.',
+    });
 
     await page.goto(baseUrl + '/projects');
     await page.getByRole('main').getByRole('link', { name: 'Sign in' }).click();
@@ -74,7 +77,9 @@ describe('accounts and projects in Chromium', () => {
     await expect.poll(() => details.getByRole('status').textContent()).toContain('Saved');
     await details.getByLabel('Description').fill('Temperature screen of an invented ketone reduction, second pass.');
     await details.getByRole('button', { name: 'Save details' }).click();
-    await expect.poll(async () => (await testKnex()('projects').where({ name: 'Petra’s own screen (invented)' }).first('version', 'description'))).toEqual({ version: 3, description: 'Temperature screen of an invented ketone reduction, second pass.' });
+    await expect
+      .poll(async () => await testKnex()('projects').where({ name: 'Petra’s own screen (invented)' }).first('version', 'description'))
+      .toEqual({ version: 3, description: 'Temperature screen of an invented ketone reduction, second pass.' });
 
     // Invite someone; the pending invitation is listed and the mail reached the sink.
     await page.getByLabel('E-mail address').fill('not-an-address');
@@ -173,7 +178,10 @@ describe('accounts and projects in Chromium', () => {
     await expect.poll(() => page.getByRole('main').textContent()).toContain(invitee.email);
     await maybeScreenshot(page, 'dev-mailbox');
     // The mail's links name the configured public address; this test server listens elsewhere, so follow the path.
-    const href = await page.getByRole('link', { name: /\/invitations\// }).first().getAttribute('href');
+    const href = await page
+      .getByRole('link', { name: /\/invitations\// })
+      .first()
+      .getAttribute('href');
     expect(new URL(href!).pathname).toBe(link.pathname);
     await page.goto(`${baseUrl}${link.pathname}`);
     await expect.poll(() => page.getByRole('alert').textContent()).toContain('already been used');

@@ -39,7 +39,11 @@ async function chartShotsAtBothWidths(page: Page, prefix: string) {
   for (const width of [1440, 390]) {
     await page.setViewportSize({ width, height: 900 });
     await maybeElementShot(page, `${prefix}-eyring-${width}`, page.getByRole('figure').filter({ hasText: 'Eyring plot' }).first());
-    await maybeElementShot(page, `${prefix}-selectivity-${width}`, page.getByRole('figure').filter({ hasText: 'Selectivity against temperature' }).first());
+    await maybeElementShot(
+      page,
+      `${prefix}-selectivity-${width}`,
+      page.getByRole('figure').filter({ hasText: 'Selectivity against temperature' }).first(),
+    );
   }
   if (before) await page.setViewportSize(before);
 }
@@ -101,7 +105,15 @@ describe('campaign pages in Chromium', () => {
     await page.waitForURL(/\/campaigns\/[0-9a-f-]+$/);
     const campaignUrl = page.url();
     await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toBe('Skylark ligand in methanol (invented)');
-    await expect.poll(() => page.getByText('Fewer than', { exact: false }).or(page.getByText('No fit yet', { exact: false })).first().isVisible()).toBe(true);
+    await expect
+      .poll(() =>
+        page
+          .getByText('Fewer than', { exact: false })
+          .or(page.getByText('No fit yet', { exact: false }))
+          .first()
+          .isVisible(),
+      )
+      .toBe(true);
 
     // A cell is checked as typed, with the reason beside it.
     await page.getByRole('button', { name: 'Add row' }).click();
@@ -135,7 +147,9 @@ describe('campaign pages in Chromium', () => {
     await page.getByLabel(/Why exclude row 1/).fill('bath drifted 3 K during the run');
     await page.getByRole('button', { name: 'Exclude', exact: true }).click();
     await expect.poll(() => page.getByRole('table', { name: 'Measurements' }).textContent()).toContain('“bath drifted 3 K during the run”');
-    await expect.poll(() => page.getByRole('region', { name: 'Residual diagnostics' }).textContent()).toContain('excluded: bath drifted 3 K');
+    await expect
+      .poll(() => page.getByRole('region', { name: 'Residual diagnostics' }).textContent())
+      .toContain('excluded: bath drifted 3 K');
 
     // Forecast at −30 °C, with its interval and the caution, saved with a note.
     await page.getByRole('textbox', { name: 'Proposed temperature' }).fill('-30');
@@ -161,7 +175,11 @@ describe('campaign pages in Chromium', () => {
     await maybeScreenshot(page, 'campaigns-campaign-editor');
     await maybeElementShot(page, 'campaigns-el-grid', page.getByRole('table', { name: 'Measurements' }));
     await maybeElementShot(page, 'campaigns-el-eyring', page.getByRole('figure').filter({ hasText: 'Eyring plot' }));
-    await maybeElementShot(page, 'campaigns-el-selectivity', page.getByRole('figure').filter({ hasText: 'Selectivity against temperature' }));
+    await maybeElementShot(
+      page,
+      'campaigns-el-selectivity',
+      page.getByRole('figure').filter({ hasText: 'Selectivity against temperature' }),
+    );
     await maybeElementShot(page, 'campaigns-el-parameters', page.getByRole('region', { name: 'Fitted parameters' }));
     await chartShotsAtBothWidths(page, 'campaigns-el');
 
@@ -185,16 +203,22 @@ describe('campaign pages in Chromium', () => {
       expect(await page.getByRole('button', { name }).count()).toBe(0);
     }
     expect(await page.getByLabel(/CSV, TSV or Excel workbook/).count()).toBe(0);
-    expect(await page.getByRole('link', { name: 'Download spreadsheet report' }).getAttribute('href')).toMatch(/\/api\/v1\/campaigns\/[0-9a-f-]+\/report\.xlsx$/);
+    expect(await page.getByRole('link', { name: 'Download spreadsheet report' }).getAttribute('href')).toMatch(
+      /\/api\/v1\/campaigns\/[0-9a-f-]+\/report\.xlsx$/,
+    );
     // A forecast can be looked at, not saved.
     await page.getByRole('textbox', { name: 'Proposed temperature' }).fill('-10');
     await page.getByRole('button', { name: 'Forecast', exact: true }).click();
-    await expect.poll(() => page.getByRole('region', { name: 'Prediction at the proposed temperature' }).textContent(), { timeout: 15_000 }).toContain('At −10.0 °C');
+    await expect
+      .poll(() => page.getByRole('region', { name: 'Prediction at the proposed temperature' }).textContent(), { timeout: 15_000 })
+      .toContain('At −10.0 °C');
     expect(await page.getByRole('button', { name: /^Save forecast/ }).count()).toBe(0);
     // Viewers may send the report to chosen members.
     await page.getByRole('checkbox', { name: 'Edda Editor' }).check();
     await page.getByRole('button', { name: 'Send the report' }).click();
-    await expect.poll(() => page.getByRole('status').filter({ hasText: 'Sent to' }).textContent(), { timeout: 30_000 }).toContain(editorId.email);
+    await expect
+      .poll(() => page.getByRole('status').filter({ hasText: 'Sent to' }).textContent(), { timeout: 30_000 })
+      .toContain(editorId.email);
     await maybeScreenshot(page, 'campaigns-campaign-viewer');
     await page.goto(`${baseUrl}/projects/${project.id}`);
     await expect.poll(() => page.getByRole('table', { name: 'Campaigns of the project' }).isVisible()).toBe(true);
@@ -215,7 +239,9 @@ describe('campaign pages in Chromium', () => {
     await page.getByLabel('Title').fill('Version race, my title (invented)');
     // Meanwhile the row moves on.
     const { testKnex } = await import('../support/db');
-    await testKnex()('campaigns').where({ id: campaign.id }).update({ title: 'Their title (invented)', version: campaign.version + 1 });
+    await testKnex()('campaigns')
+      .where({ id: campaign.id })
+      .update({ title: 'Their title (invented)', version: campaign.version + 1 });
     await page.getByRole('button', { name: 'Save details' }).click();
     await expect.poll(() => page.getByRole('alert').first().textContent()).toContain('Changed by someone else — reload');
     expect(await page.getByRole('alert').first().textContent()).toContain(`now at version ${campaign.version + 1}`);
@@ -251,9 +277,13 @@ describe('campaign pages in Chromium', () => {
     await expect.poll(() => page.getByText(/^✓ Imported \d+ rows/).isVisible(), { timeout: 15_000 }).toBe(true);
 
     const twoBranch = page.getByRole('region', { name: 'Curvature check' });
-    await expect.poll(() => twoBranch.textContent(), { timeout: 15_000 }).toContain('two straight branches meeting at a break describe the screen better than one line');
+    await expect
+      .poll(() => twoBranch.textContent(), { timeout: 15_000 })
+      .toContain('two straight branches meeting at a break describe the screen better than one line');
     // Invented Merlin-ligand screen: ΔΔH‡ +16 kJ/mol above and −5 kJ/mol below −15 °C, so r peaks there [C].
-    expect(await page.getByTestId('break-temperature').textContent()).toMatch(/^Isoinversion temperature, where r passes through a maximum: −?1[0-9] °C \(2\d\d K\) · 95 % CI −?\d+ to −?\d+ °C$/);
+    expect(await page.getByTestId('break-temperature').textContent()).toMatch(
+      /^Isoinversion temperature, where r passes through a maximum: −?1[0-9] °C \(2\d\d K\) · 95 % CI −?\d+ to −?\d+ °C$/,
+    );
     expect(await twoBranch.textContent()).toContain('change of the selectivity-determining step');
     expect(await page.getByRole('figure').filter({ hasText: 'Eyring plot' }).textContent()).toContain('two-branch fit');
     // A forecast below the break comes from the cold branch and says so.
@@ -312,7 +342,12 @@ describe('campaign pages in Chromium', () => {
     // Invented runs: ln r = 1500/T − 3.2 with a small fixed zig-zag, dr to one decimal.
     const runs = [25, 10, 0, -10, -20, -40].map((c, i) => {
       const temperatureK = c + 273.15;
-      return { campaignId: campaign.id, temperatureK, measure: 'dr' as const, value: Math.round(Math.exp(1500 / temperatureK - 3.2 + (i % 2 ? 0.02 : -0.02)) * 10) / 10 };
+      return {
+        campaignId: campaign.id,
+        temperatureK,
+        measure: 'dr' as const,
+        value: Math.round(Math.exp(1500 / temperatureK - 3.2 + (i % 2 ? 0.02 : -0.02)) * 10) / 10,
+      };
     });
     await Measurement.query().insert(runs);
 

@@ -68,7 +68,13 @@ async function seriousViolations(page: Page): Promise<string[]> {
   });
   return violations
     .filter((v) => v.impact === 'serious' || v.impact === 'critical')
-    .map((v) => `${v.impact} ${v.id}: ${v.help} — ${v.nodes.slice(0, 3).map((n) => n.target.join(' ')).join(' | ')}`);
+    .map(
+      (v) =>
+        `${v.impact} ${v.id}: ${v.help} — ${v.nodes
+          .slice(0, 3)
+          .map((n) => n.target.join(' '))
+          .join(' | ')}`,
+    );
 }
 
 /** How far the page reaches past the viewport's right edge (0 when nothing scrolls sideways). */
@@ -82,12 +88,18 @@ const widestElements = (page: Page) =>
     // Inside a box that scrolls or clips, sticking out is that box's business.
     const clipped = (el: Element) => {
       if (getComputedStyle(el).position === 'absolute' || getComputedStyle(el).position === 'fixed') return false;
-      for (let p = el.parentElement; p && p !== document.body; p = p.parentElement) if (getComputedStyle(p).overflowX !== 'visible') return true;
+      for (let p = el.parentElement; p && p !== document.body; p = p.parentElement)
+        if (getComputedStyle(p).overflowX !== 'visible') return true;
       return false;
     };
     for (const el of Array.from(document.querySelectorAll('body *'))) {
       if (!sticksOut(el) || clipped(el)) continue;
-      out.push(`${el.tagName.toLowerCase()}.${String(el.getAttribute('class') ?? '').split(' ').slice(0, 4).join('.')} "${(el.textContent ?? '').trim().slice(0, 40)}" ${getComputedStyle(el).position}`);
+      out.push(
+        `${el.tagName.toLowerCase()}.${String(el.getAttribute('class') ?? '')
+          .split(' ')
+          .slice(0, 4)
+          .join('.')} "${(el.textContent ?? '').trim().slice(0, 40)}" ${getComputedStyle(el).position}`,
+      );
       if (out.length >= 4) break;
     }
     return out;

@@ -28,7 +28,10 @@ afterAll(async () => {
 
 /** Click the campaign's spreadsheet link and read the downloaded workbook back. */
 async function downloadReport(page: Page): Promise<ExcelJS.Workbook> {
-  const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: /Download spreadsheet report/ }).click()]);
+  const [download] = await Promise.all([
+    page.waitForEvent('download'),
+    page.getByRole('link', { name: /Download spreadsheet report/ }).click(),
+  ]);
   const file = await download.path();
   const wb = new ExcelJS.Workbook();
   await wb.xlsx.load((await readFile(file)) as unknown as ArrayBuffer);
@@ -69,7 +72,14 @@ async function inventedScreen(projectId: string, title: string, shift: number) {
       const y = 12_000 / (R * t) - 10 / R + shift + NOISE[i]!;
       const k = 2.083661912e10 * t * Math.exp(-100 / R) * Math.exp(-55_000 / (R * t));
       const timeS = 3600 * 30 * Math.exp(-((t - 213.15) / 25));
-      return { campaignId: campaign.id, temperatureK: t, measure: 'ee' as const, value: 100 * Math.tanh(y / 2), conversionPercent: 100 * (1 - Math.exp(-k * timeS)), reactionTimeS: timeS };
+      return {
+        campaignId: campaign.id,
+        temperatureK: t,
+        measure: 'ee' as const,
+        value: 100 * Math.tanh(y / 2),
+        conversionPercent: 100 * (1 - Math.exp(-k * timeS)),
+        reactionTimeS: timeS,
+      };
     }),
   );
   return campaign;
@@ -81,7 +91,10 @@ describe('temperature planner in Chromium', () => {
     const stamp = Date.now().toString(36);
     const editorId = { login: `pl-${stamp}`, name: 'Pia Planner', email: `pl-${stamp}@example.test` };
     const editor = await createUser(editorId);
-    const project = await createProject([{ user: editor, role: 'owner' }], { name: 'Invented planning project', description: 'Invented demo data for the browser test.' });
+    const project = await createProject([{ user: editor, role: 'owner' }], {
+      name: 'Invented planning project',
+      description: 'Invented demo data for the browser test.',
+    });
     const first = await inventedScreen(project.id, 'Invented Osprey ligand', 0.5);
     await inventedScreen(project.id, 'Invented Plover ligand', 0);
 

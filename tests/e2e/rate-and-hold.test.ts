@@ -51,7 +51,9 @@ describe('the rate and hold page in Chromium (no sign-in)', () => {
     const table = page.getByRole('table', { name: 'Erosion of ee by temperature' });
     await expect.poll(() => table.locator('tbody tr').count()).toBe(9);
     const headers = await table.locator('thead th').allTextContents();
-    expect(headers).toEqual(expect.arrayContaining(['k_e one-way (s⁻¹)', 'k_rac = 2k_e (s⁻¹)', 'ee half-life', 'ee after hold (%)', 'Longest hold above floor']));
+    expect(headers).toEqual(
+      expect.arrayContaining(['k_e one-way (s⁻¹)', 'k_rac = 2k_e (s⁻¹)', 'ee half-life', 'ee after hold (%)', 'Longest hold above floor']),
+    );
     // [C] 25 °C, ΔG‡ = 25 kcal/mol, κ = 1: k_e = 2.94 × 10⁻⁶ s⁻¹, so t½(ee) = ln 2/(2k_e) = 32.8 h.
     const row = table.locator('tbody tr').filter({ has: page.locator('td:nth-child(2)', { hasText: /^25\.0$/ }) });
     const cells = await row.locator('td').allTextContents();

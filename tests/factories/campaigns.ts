@@ -20,8 +20,20 @@ export async function createCampaign(projectId: string, overrides: Partial<Campa
 }
 
 /** Measurements of `campaignId`: one per temperature (K) with an ee that rises on cooling. */
-export async function createMeasurements(campaignId: string, temperaturesK: number[], overrides: Partial<Measurement> = {}): Promise<Measurement[]> {
+export async function createMeasurements(
+  campaignId: string,
+  temperaturesK: number[],
+  overrides: Partial<Measurement> = {},
+): Promise<Measurement[]> {
   return Measurement.query()
-    .insert(temperaturesK.map((temperatureK) => ({ campaignId, temperatureK, measure: 'ee' as const, value: Math.min(99.5, 96 + (298.15 - temperatureK) / 20), ...overrides })))
+    .insert(
+      temperaturesK.map((temperatureK) => ({
+        campaignId,
+        temperatureK,
+        measure: 'ee' as const,
+        value: Math.min(99.5, 96 + (298.15 - temperatureK) / 20),
+        ...overrides,
+      })),
+    )
     .returning('*');
 }

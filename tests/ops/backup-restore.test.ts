@@ -11,7 +11,11 @@ let knex: Knex;
 let dumpFile: string;
 
 function node(args: string[], databaseUrl: string) {
-  const r = spawnSync(process.execPath, args, { cwd: process.cwd(), env: { ...process.env, DATABASE_URL: databaseUrl, NODE_ENV: 'production' }, encoding: 'utf8' });
+  const r = spawnSync(process.execPath, args, {
+    cwd: process.cwd(),
+    env: { ...process.env, DATABASE_URL: databaseUrl, NODE_ENV: 'production' },
+    encoding: 'utf8',
+  });
   if (r.status !== 0) throw new Error(`${args.join(' ')} failed (${r.status}):\n${r.stdout}\n${r.stderr}`);
   return r.stdout;
 }
@@ -52,7 +56,9 @@ describe('npm run db:backup and db:restore', () => {
 
     // Damage: a project renamed, another deleted with its campaigns and runs.
     const [first, second] = before.projects;
-    await knex('projects').where({ id: first.id }).update({ name: 'Renamed after the backup', version: first.version + 1 });
+    await knex('projects')
+      .where({ id: first.id })
+      .update({ name: 'Renamed after the backup', version: first.version + 1 });
     if (second) await knex('projects').where({ id: second.id }).delete();
     expect(await snapshot(knex)).not.toEqual(before);
 
@@ -77,7 +83,11 @@ describe('npm run db:backup and db:restore', () => {
   }, 120_000);
 
   it('when restore is not given a file, then it says how to call it and changes nothing', () => {
-    const r = spawnSync(process.execPath, ['scripts/db-backup.mjs', 'restore'], { cwd: process.cwd(), env: { ...process.env, DATABASE_URL: cluster.url }, encoding: 'utf8' });
+    const r = spawnSync(process.execPath, ['scripts/db-backup.mjs', 'restore'], {
+      cwd: process.cwd(),
+      env: { ...process.env, DATABASE_URL: cluster.url },
+      encoding: 'utf8',
+    });
     expect(r.status).toBe(1);
     expect(r.stderr).toContain('npm run db:restore --');
   });

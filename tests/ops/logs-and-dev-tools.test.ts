@@ -27,7 +27,9 @@ describe('structured logs', () => {
       const about = lines.filter((l) => JSON.stringify(l).includes(id));
       expect(about.length).toBeGreaterThanOrEqual(2); // the warning and the request line
       expect(about.every((l) => l.reqId === id)).toBe(true);
-      expect(lines.filter((l) => l.msg === 'database unavailable' || l.msg === 'request completed').every((l) => typeof l.reqId === 'string')).toBe(true);
+      expect(
+        lines.filter((l) => l.msg === 'database unavailable' || l.msg === 'request completed').every((l) => typeof l.reqId === 'string'),
+      ).toBe(true);
     } finally {
       await knex.destroy();
     }

@@ -31,14 +31,22 @@ async function until<T>(what: string, fn: () => Promise<T | null>, timeoutMs: nu
     await new Promise((r) => setTimeout(r, everyMs));
   }
 }
-const healthy = () => until('a healthy answer', async () => ((await timedFetch(`${base}/api/health`, {}, 5000)).status === 200 ? true : null), 20_000);
+const healthy = () =>
+  until('a healthy answer', async () => ((await timedFetch(`${base}/api/health`, {}, 5000)).status === 200 ? true : null), 20_000);
 const projects = () => timedFetch(`${base}/api/v1/projects`, { headers: { authorization: bearer } });
 
 beforeAll(async () => {
   cluster = await startOwnCluster();
   const port = await freePort();
   base = `http://127.0.0.1:${port}`;
-  start = startNode(['scripts/start.mjs'], { ...DB_LIMITS, DATABASE_URL: cluster.url, PORT: String(port), NODE_ENV: 'production', LOG_LEVEL: 'warn', EYRIE_DEV_TOOLS: '1' });
+  start = startNode(['scripts/start.mjs'], {
+    ...DB_LIMITS,
+    DATABASE_URL: cluster.url,
+    PORT: String(port),
+    NODE_ENV: 'production',
+    LOG_LEVEL: 'warn',
+    EYRIE_DEV_TOOLS: '1',
+  });
   await start.output.waitFor(/Eyrie is ready/, 90_000);
   knex = createKnex(cluster.url, { min: 0, max: 2 });
   bindModels(knex);
@@ -121,18 +129,35 @@ describe('a crash in the middle of an import', () => {
     const form = (csv: string) => {
       const f = new FormData();
       f.append('file', new Blob([csv], { type: 'text/csv' }), 'big-screen.csv');
-      f.append('request', JSON.stringify({ mapping: { columns: { temperature: 0, value: 1, sampleId: 2 }, temperatureUnit: 'C', measure: 'ee' }, acknowledgeWarnings: true }));
+      f.append(
+        'request',
+        JSON.stringify({
+          mapping: { columns: { temperature: 0, value: 1, sampleId: 2 }, temperatureUnit: 'C', measure: 'ee' },
+          acknowledgeWarnings: true,
+        }),
+      );
       return f;
     };
     const apiPid = Number([...start.output.text.matchAll(/the API server started \(pid (\d+)\)/g)].at(-1)![1]);
-    const upload = fetch(`${base}/api/v1/campaigns/${campaign.id}/imports`, { method: 'POST', headers: { authorization: auth }, body: form(csvOf(rows)) }).then(
+    const upload = fetch(`${base}/api/v1/campaigns/${campaign.id}/imports`, {
+      method: 'POST',
+      headers: { authorization: auth },
+      body: form(csvOf(rows)),
+    }).then(
       (r) => r.status,
       () => 'connection lost',
     );
     // Wait until PostgreSQL shows the import's insert inside its transaction, then kill the API outright.
     await until(
       'the import to be inserting',
-      async () => ((await knex('pg_stat_activity').where('query', 'like', 'insert into measurements%').where({ state: 'active' }).whereNotNull('xactStart').first('pid')) ? true : null),
+      async () =>
+        (await knex('pg_stat_activity')
+          .where('query', 'like', 'insert into measurements%')
+          .where({ state: 'active' })
+          .whereNotNull('xactStart')
+          .first('pid'))
+          ? true
+          : null,
       60_000,
       20,
     );
@@ -141,10 +166,18 @@ describe('a crash in the middle of an import', () => {
     await start.output.waitFor(new RegExp(`the API server started \\(pid (?!${apiPid}\\))\\d+\\)`), 15_000);
     await healthy();
     // The transaction died with its connection: not one of the 20 000 rows is there.
-    await until('the killed backend to be gone', async () => ((await knex('pg_stat_activity').where('query', 'like', 'insert into measurements%').first('pid')) ? null : true), 20_000);
+    await until(
+      'the killed backend to be gone',
+      async () => ((await knex('pg_stat_activity').where('query', 'like', 'insert into measurements%').first('pid')) ? null : true),
+      20_000,
+    );
     expect(Number((await knex('measurements').where({ campaignId: campaign.id }).count({ n: '*' }).first())!.n)).toBe(before);
     // The restarted server takes an import again (a small one, to keep the test light).
-    const again = await fetch(`${base}/api/v1/campaigns/${campaign.id}/imports`, { method: 'POST', headers: { authorization: auth }, body: form(csvOf(rows.slice(0, 500))) });
+    const again = await fetch(`${base}/api/v1/campaigns/${campaign.id}/imports`, {
+      method: 'POST',
+      headers: { authorization: auth },
+      body: form(csvOf(rows.slice(0, 500))),
+    });
     expect(again.status).toBe(201);
     expect(Number((await knex('measurements').where({ campaignId: campaign.id }).count({ n: '*' }).first())!.n)).toBe(before + 500);
   }, 120_000);
@@ -153,18 +186,37 @@ describe('a crash in the middle of an import', () => {
 describe('graceful shutdown', () => {
   it('when the server gets SIGTERM during a request, then that request still gets its answer and the process exits 0', async () => {
     const port = await freePort();
-    const server = startNode(['--import', 'tsx', 'api/server.ts'], { ...DB_LIMITS, DATABASE_URL: cluster.url, PORT: String(port), NODE_ENV: 'production', LOG_LEVEL: 'warn', EYRIE_DEV_TOOLS: '0' });
+    const server = startNode(['--import', 'tsx', 'api/server.ts'], {
+      ...DB_LIMITS,
+      DATABASE_URL: cluster.url,
+      PORT: String(port),
+      NODE_ENV: 'production',
+      LOG_LEVEL: 'warn',
+      EYRIE_DEV_TOOLS: '0',
+    });
     await new Promise<void>((resolve, reject) => {
       server.child.on('message', (m: { type?: string }) => m?.type === 'ready' && resolve());
       server.child.once('exit', () => reject(new Error(`the server exited early:\n${server.output.text}`)));
     });
-    const body = JSON.stringify({ basis: { kind: 'observed', selectivity: { measure: 'ee', value: 90 }, temperature: { value: 25, unit: 'C' } }, temperatures: { values: [{ value: -20, unit: 'C' }] } });
+    const body = JSON.stringify({
+      basis: { kind: 'observed', selectivity: { measure: 'ee', value: 90 }, temperature: { value: 25, unit: 'C' } },
+      temperatures: { values: [{ value: -20, unit: 'C' }] },
+    });
     const answer = new Promise<{ status: number; text: string }>((resolve, reject) => {
-      const req = http.request({ host: '127.0.0.1', port, path: '/api/v1/forecast', method: 'POST', headers: { 'content-type': 'application/json', 'content-length': Buffer.byteLength(body) } }, (res) => {
-        let text = '';
-        res.on('data', (d: Buffer) => (text += d.toString()));
-        res.on('end', () => resolve({ status: res.statusCode ?? 0, text }));
-      });
+      const req = http.request(
+        {
+          host: '127.0.0.1',
+          port,
+          path: '/api/v1/forecast',
+          method: 'POST',
+          headers: { 'content-type': 'application/json', 'content-length': Buffer.byteLength(body) },
+        },
+        (res) => {
+          let text = '';
+          res.on('data', (d: Buffer) => (text += d.toString()));
+          res.on('end', () => resolve({ status: res.statusCode ?? 0, text }));
+        },
+      );
       req.on('error', reject);
       // Half the body now; SIGTERM while the request is in flight; the rest afterwards.
       req.write(body.slice(0, 40));

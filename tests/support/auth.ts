@@ -30,7 +30,14 @@ export async function startAuthApp(
   const mailbox = new Mailbox();
   const sink = options.smtpSink ? await startSmtpSink(mailbox) : null;
   const mailer = options.mailer ?? (sink ? createSmtpMailer(sink.url, config.mailFrom) : undefined);
-  const app = createApp({ knex: testKnex(), config, webDist: options.webDist === undefined ? null : options.webDist, fakeOAuth: provider, mailbox, mailer });
+  const app = createApp({
+    knex: testKnex(),
+    config,
+    webDist: options.webDist === undefined ? null : options.webDist,
+    fakeOAuth: provider,
+    mailbox,
+    mailer,
+  });
   return {
     app,
     config,
@@ -70,5 +77,14 @@ export async function signIn(app: Express, identity: TestIdentity, returnTo?: st
     throw new Error(`sign-in did not complete: ${done.status} → ${done.headers.location}`);
   }
   const session = await agent.get('/api/v1/session').expect(200);
-  return { agent, csrfToken: session.body.csrfToken as string, user: session.body.user, landedOn: done.headers.location as string, start, picked, callback, done };
+  return {
+    agent,
+    csrfToken: session.body.csrfToken as string,
+    user: session.body.user,
+    landedOn: done.headers.location as string,
+    start,
+    picked,
+    callback,
+    done,
+  };
 }

@@ -60,7 +60,11 @@ const EXAMPLES: Record<string, unknown> = {
   'POST /api/v1/fit': { measurements: screen, predict: [C(-30)] },
   'POST /api/v1/rate': {
     setup: { order: 'first' },
-    basis: { kind: 'one-run', run: { conversionPercent: 95, time: { value: 4, unit: 'h' }, temperature: C(0) }, assumedDH: { value: 60, unit: 'kJ/mol' } },
+    basis: {
+      kind: 'one-run',
+      run: { conversionPercent: 95, time: { value: 4, unit: 'h' }, temperature: C(0) },
+      assumedDH: { value: 60, unit: 'kJ/mol' },
+    },
     targetConversionPercent: 95,
     temperatures: { values: [C(0), C(20)] },
   },
@@ -115,7 +119,18 @@ export async function makeWorld(knex: Knex): Promise<FuzzWorld> {
     .send({ temperature: C(-10) });
   const bearer = `Bearer ${(await createApiToken(me)).secret}`;
   const routes = listRoutes(app).filter((r) => !r.startsWith('GET ') && !SKIPPED.has(r));
-  return { app, knex, me, other, bearer, projectId: project.id, campaignId: campaign.id, measurementId: m!.id, forecastId: res.body.id, routes };
+  return {
+    app,
+    knex,
+    me,
+    other,
+    bearer,
+    projectId: project.id,
+    campaignId: campaign.id,
+    measurementId: m!.id,
+    forecastId: res.body.id,
+    routes,
+  };
 }
 
 /** Counts of every row the fuzzer's user can reach, keyed by table. */
@@ -134,13 +149,40 @@ export async function countRows(w: FuzzWorld): Promise<Record<string, number>> {
     n(w.knex('saved_forecasts').whereIn('campaignId', campaigns.clone())),
     n(w.knex('jobs').whereIn('projectId', projects.clone())),
   ]);
-  return { projects: p, members: mem, invitations: inv, tokens: tok, auditEvents: aud, campaigns: cam, measurements: mea, savedForecasts: fc_, jobs: job };
+  return {
+    projects: p,
+    members: mem,
+    invitations: inv,
+    tokens: tok,
+    auditEvents: aud,
+    campaigns: cam,
+    measurements: mea,
+    savedForecasts: fc_,
+    jobs: job,
+  };
 }
 
 // ── Arbitraries ──────────────────────────────────────────────────────────────────────────────
 
 const nasty = fc.oneof(
-  fc.constantFrom('', ' ', '\u0000', 'a\u0000b', 'NaN', 'Infinity', '-0', '1e400', '\uFEFF', '\uD800', '≥99.8', '95:5', '0x10', '<script>', "'; drop table users; --", 'é'.repeat(5000)),
+  fc.constantFrom(
+    '',
+    ' ',
+    '\u0000',
+    'a\u0000b',
+    'NaN',
+    'Infinity',
+    '-0',
+    '1e400',
+    '\uFEFF',
+    '\uD800',
+    '≥99.8',
+    '95:5',
+    '0x10',
+    '<script>',
+    "'; drop table users; --",
+    'é'.repeat(5000),
+  ),
   fc.string({ unit: 'binary', maxLength: 40 }),
   fc.constantFrom(0, -0, -1, 1e308, -1e308, 5e-324, 2 ** 53 + 1, 1e21, 273.15, -273.15, -500),
   fc.double(),
@@ -161,13 +203,28 @@ function paths(value: unknown, prefix: (string | number)[] = []): (string | numb
 }
 
 /** Keys of free text (names, notes, labels), where any character may be typed. */
-const TEXT_KEYS = new Set(['name', 'description', 'title', 'notes', 'note', 'reason', 'sampleId', 'replicateLabel', 'label', 'reactionDescription', 'productNameA', 'productNameB']);
+const TEXT_KEYS = new Set([
+  'name',
+  'description',
+  'title',
+  'notes',
+  'note',
+  'reason',
+  'sampleId',
+  'replicateLabel',
+  'label',
+  'reactionDescription',
+  'productNameA',
+  'productNameB',
+]);
 
 /** Every free-text string of `value` with `suffix` appended (a NUL in every text field at once). */
 function everyString(value: unknown, suffix: string): unknown {
   if (Array.isArray(value)) return value.map((v) => everyString(v, suffix));
   if (value && typeof value === 'object') {
-    return Object.fromEntries(Object.entries(value).map(([k, v]) => [k, typeof v === 'string' && TEXT_KEYS.has(k) ? v + suffix : everyString(v, suffix)]));
+    return Object.fromEntries(
+      Object.entries(value).map(([k, v]) => [k, typeof v === 'string' && TEXT_KEYS.has(k) ? v + suffix : everyString(v, suffix)]),
+    );
   }
   return value;
 }
@@ -180,30 +237,34 @@ function mutated(example: unknown): fc.Arbitrary<unknown> {
 }
 
 function onePlace(example: unknown, all: (string | number)[][]): fc.Arbitrary<unknown> {
-  return fc.tuple(fc.nat({ max: all.length - 1 }), fc.constantFrom('replace', 'delete', 'extra'), jsonish, fc.string({ maxLength: 12 })).map(([i, how, value, key]) => {
-    const copy = structuredClone(example) as Record<string | number, unknown>;
-    const path = all[i]!;
-    if (path.length === 0) return how === 'extra' ? { ...(copy as object), [key]: value } : value;
-    let parent = copy as Record<string | number, unknown>;
-    for (const p of path.slice(0, -1)) parent = parent[p] as Record<string | number, unknown>;
-    const last = path[path.length - 1]!;
-    if (how === 'delete') {
-      if (Array.isArray(parent)) parent.splice(Number(last), 1);
-      else delete parent[last];
-    } else if (how === 'extra' && parent[last] && typeof parent[last] === 'object' && !Array.isArray(parent[last])) {
-      (parent[last] as Record<string, unknown>)[key] = value;
-    } else {
-      parent[last] = value;
-    }
-    return copy;
-  });
+  return fc
+    .tuple(fc.nat({ max: all.length - 1 }), fc.constantFrom('replace', 'delete', 'extra'), jsonish, fc.string({ maxLength: 12 }))
+    .map(([i, how, value, key]) => {
+      const copy = structuredClone(example) as Record<string | number, unknown>;
+      const path = all[i]!;
+      if (path.length === 0) return how === 'extra' ? { ...(copy as object), [key]: value } : value;
+      let parent = copy as Record<string | number, unknown>;
+      for (const p of path.slice(0, -1)) parent = parent[p] as Record<string | number, unknown>;
+      const last = path[path.length - 1]!;
+      if (how === 'delete') {
+        if (Array.isArray(parent)) parent.splice(Number(last), 1);
+        else delete parent[last];
+      } else if (how === 'extra' && parent[last] && typeof parent[last] === 'object' && !Array.isArray(parent[last])) {
+        (parent[last] as Record<string, unknown>)[key] = value;
+      } else {
+        parent[last] = value;
+      }
+      return copy;
+    });
 }
 
 /** A random "file": CSV-like text with junk, a broken ZIP, or random bytes. */
 const fileBytes = fc.oneof(
-  fc.array(fc.tuple(fc.oneof(fc.double(), fc.string({ maxLength: 8 })), fc.oneof(fc.double(), fc.string({ maxLength: 8 }))), { maxLength: 30 }).map((rows) =>
-    Buffer.from(['T (°C),ee (%)', ...rows.map(([a, b]) => `${a},${b}`)].join('\n')),
-  ),
+  fc
+    .array(fc.tuple(fc.oneof(fc.double(), fc.string({ maxLength: 8 })), fc.oneof(fc.double(), fc.string({ maxLength: 8 }))), {
+      maxLength: 30,
+    })
+    .map((rows) => Buffer.from(['T (°C),ee (%)', ...rows.map(([a, b]) => `${a},${b}`)].join('\n'))),
   fc.uint8Array({ maxLength: 600 }).map((b) => Buffer.concat([Buffer.from([0x50, 0x4b, 0x03, 0x04]), Buffer.from(b)])),
   fc.uint8Array({ maxLength: 600 }).map((b) => Buffer.from(b)),
   fc.constant(Buffer.from('T (°C),ee (%)\n25,96\n0,97\u0000\n')),
@@ -218,14 +279,22 @@ export interface FuzzCase {
 }
 
 export function fuzzCase(w: FuzzWorld): fc.Arbitrary<FuzzCase> {
-  const id = (real: string) => fc.oneof({ weight: 6, arbitrary: fc.constant(real) }, { weight: 1, arbitrary: fc.constant(randomUUID()) }, { weight: 1, arbitrary: fc.constantFrom('x', '0', '%00', 'null') });
+  const id = (real: string) =>
+    fc.oneof(
+      { weight: 6, arbitrary: fc.constant(real) },
+      { weight: 1, arbitrary: fc.constant(randomUUID()) },
+      { weight: 1, arbitrary: fc.constantFrom('x', '0', '%00', 'null') },
+    );
   return fc.constantFrom(...w.routes).chain((route) => {
     const example = EXAMPLES[route] ?? {};
     const isUpload = route.includes('/imports');
     return fc.record({
       route: fc.constant(route),
       params: fc.record({
-        projectId: route.startsWith('DELETE /api/v1/projects/:projectId') && !route.includes('/invitations') && !route.includes('/members') ? fc.constant(randomUUID()) : id(w.projectId),
+        projectId:
+          route.startsWith('DELETE /api/v1/projects/:projectId') && !route.includes('/invitations') && !route.includes('/members')
+            ? fc.constant(randomUUID())
+            : id(w.projectId),
         campaignId: route.startsWith('DELETE /api/v1/campaigns/:campaignId') ? fc.constant(randomUUID()) : id(w.campaignId),
         measurementId: id(w.measurementId),
         forecastId: id(w.forecastId),
@@ -236,7 +305,11 @@ export function fuzzCase(w: FuzzWorld): fc.Arbitrary<FuzzCase> {
         jobId: fc.constant(randomUUID()),
       }),
       body: fc.oneof({ weight: 3, arbitrary: mutated(example) }, { weight: 1, arbitrary: jsonish }),
-      file: isUpload ? fc.option(fc.record({ bytes: fileBytes, name: fc.constantFrom('screen.csv', 'screen.xlsx', 'screen.txt', 'x.pdf') }), { nil: null }) : fc.constant(null),
+      file: isUpload
+        ? fc.option(fc.record({ bytes: fileBytes, name: fc.constantFrom('screen.csv', 'screen.xlsx', 'screen.txt', 'x.pdf') }), {
+            nil: null,
+          })
+        : fc.constant(null),
       auth: fc.constantFrom('owner', 'owner', 'owner', 'viewer', 'anonymous'),
     });
   });
@@ -265,7 +338,8 @@ export async function runCase(w: FuzzWorld, c: FuzzCase): Promise<CaseOutcome> {
   if (c.auth === 'owner') req = req.set('Authorization', w.bearer);
   if (c.auth === 'viewer') req = req.set('Authorization', viewer);
   if (c.file) req = req.attach('file', c.file.bytes, c.file.name).field('request', JSON.stringify(c.body ?? {}));
-  else if (method !== 'GET' && method !== 'DELETE') req = req.set('Content-Type', 'application/json').send(JSON.stringify(c.body) ?? 'null');
+  else if (method !== 'GET' && method !== 'DELETE')
+    req = req.set('Content-Type', 'application/json').send(JSON.stringify(c.body) ?? 'null');
   const res = await req;
   const after = await countRows(w);
   const changed = Object.keys(before).some((k) => before[k] !== after[k]);
@@ -274,7 +348,17 @@ export async function runCase(w: FuzzWorld, c: FuzzCase): Promise<CaseOutcome> {
 
 /** One case per route, run before the random ones: its example body with a NUL in every text field, sent by the owner to real ids. */
 export function nulExamples(w: FuzzWorld): [FuzzCase][] {
-  const params = { projectId: w.projectId, campaignId: w.campaignId, measurementId: w.measurementId, forecastId: w.forecastId, userId: w.other.id, tokenId: randomUUID(), invitationId: randomUUID(), token: 'x', jobId: randomUUID() };
+  const params = {
+    projectId: w.projectId,
+    campaignId: w.campaignId,
+    measurementId: w.measurementId,
+    forecastId: w.forecastId,
+    userId: w.other.id,
+    tokenId: randomUUID(),
+    invitationId: randomUUID(),
+    token: 'x',
+    jobId: randomUUID(),
+  };
   return w.routes
     .filter((route) => !route.startsWith('DELETE '))
     .map((route) => [{ route, params, body: everyString(EXAMPLES[route] ?? {}, ' \u0000x'), file: null, auth: 'owner' as const }]);
@@ -286,6 +370,7 @@ export function fuzzProperty(w: FuzzWorld, tally?: Map<number, number>) {
     const out = await runCase(w, c);
     tally?.set(out.status, (tally.get(out.status) ?? 0) + 1);
     if (out.status >= 500) throw new Error(`${c.route} answered ${out.status}`);
-    if (out.status >= 400 && out.changed) throw new Error(`${c.route} answered ${out.status} but rows changed: ${JSON.stringify(out.before)} → ${JSON.stringify(out.after)}`);
+    if (out.status >= 400 && out.changed)
+      throw new Error(`${c.route} answered ${out.status} but rows changed: ${JSON.stringify(out.before)} → ${JSON.stringify(out.after)}`);
   });
 }

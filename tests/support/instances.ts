@@ -35,7 +35,15 @@ export async function startInstance(env: Record<string, string>): Promise<Instan
   let out = '';
   const child = spawn(process.execPath, ['--import', 'tsx', 'api/server.ts'], {
     cwd: root,
-    env: { ...process.env, NODE_ENV: 'development', PORT: String(port), HOST: '127.0.0.1', LOG_LEVEL: 'warn', EYRIE_DEV_TOOLS: '1', ...env },
+    env: {
+      ...process.env,
+      NODE_ENV: 'development',
+      PORT: String(port),
+      HOST: '127.0.0.1',
+      LOG_LEVEL: 'warn',
+      EYRIE_DEV_TOOLS: '1',
+      ...env,
+    },
     stdio: ['ignore', 'pipe', 'pipe', 'ipc'],
   });
   child.stdout!.on('data', (d) => (out += String(d)));

@@ -81,7 +81,11 @@ export function collectOutput(child: ChildProcess) {
 
 /** Start `node <args>` in the repository with piped output. */
 export function startNode(args: string[], env: NodeJS.ProcessEnv) {
-  const child = spawn(process.execPath, args, { cwd: process.cwd(), env: { ...process.env, ...env }, stdio: ['ignore', 'pipe', 'pipe', 'ipc'] });
+  const child = spawn(process.execPath, args, {
+    cwd: process.cwd(),
+    env: { ...process.env, ...env },
+    stdio: ['ignore', 'pipe', 'pipe', 'ipc'],
+  });
   return { child, output: collectOutput(child) };
 }
 

@@ -70,8 +70,16 @@ function workbookParts(sheet: Buffer, sheetDeclaredSize?: number): ZipPart[] {
         `<Types xmlns="http://schemas.openxmlformats.org/package/2006/content-types"><Default Extension="rels" ContentType="application/vnd.openxmlformats-package.relationships+xml"/><Default Extension="xml" ContentType="application/xml"/><Override PartName="/xl/workbook.xml" ContentType="application/vnd.openxmlformats-officedocument.spreadsheetml.sheet.main+xml"/><Override PartName="/xl/worksheets/sheet1.xml" ContentType="application/vnd.openxmlformats-officedocument.spreadsheetml.worksheet+xml"/><Override PartName="/xl/sharedStrings.xml" ContentType="application/vnd.openxmlformats-officedocument.spreadsheetml.sharedStrings+xml"/></Types>`,
       ),
     },
-    { name: '_rels/.rels', data: xml(`<Relationships xmlns="${RELS}"><Relationship Id="rId1" Type="${DOC_RELS}/officeDocument" Target="xl/workbook.xml"/></Relationships>`) },
-    { name: 'xl/workbook.xml', data: xml(`<workbook xmlns="${NS}" xmlns:r="${DOC_RELS}"><sheets><sheet name="Screen" sheetId="1" r:id="rId1"/></sheets></workbook>`) },
+    {
+      name: '_rels/.rels',
+      data: xml(
+        `<Relationships xmlns="${RELS}"><Relationship Id="rId1" Type="${DOC_RELS}/officeDocument" Target="xl/workbook.xml"/></Relationships>`,
+      ),
+    },
+    {
+      name: 'xl/workbook.xml',
+      data: xml(`<workbook xmlns="${NS}" xmlns:r="${DOC_RELS}"><sheets><sheet name="Screen" sheetId="1" r:id="rId1"/></sheets></workbook>`),
+    },
     {
       name: 'xl/_rels/workbook.xml.rels',
       data: xml(
@@ -89,7 +97,8 @@ const HEADER_ROW = `<row r="1">${inline('A1', 'T (°C)')}${inline('B1', 'ee (%)'
 /** A worksheet of `rows` measurement rows under a header: the row bomb when `rows` is large. */
 export function manyRowsWorkbook(rows: number): Buffer {
   const chunks: string[] = [`<?xml version="1.0" encoding="UTF-8" standalone="yes"?>\n<worksheet xmlns="${NS}"><sheetData>`, HEADER_ROW];
-  for (let r = 2; r <= rows + 1; r++) chunks.push(`<row r="${r}"><c r="A${r}"><v>${(r % 80) - 40}</v></c><c r="B${r}"><v>9${r % 10}.5</v></c></row>`);
+  for (let r = 2; r <= rows + 1; r++)
+    chunks.push(`<row r="${r}"><c r="A${r}"><v>${(r % 80) - 40}</v></c><c r="B${r}"><v>9${r % 10}.5</v></c></row>`);
   chunks.push('</sheetData></worksheet>');
   return buildZip(workbookParts(Buffer.from(chunks.join(''), 'utf8')));
 }
@@ -99,14 +108,20 @@ export function manyRowsWorkbook(rows: number): Buffer {
  * packed, and honest about its size, so only the compression ratio gives it away.
  */
 export function ratioBombWorkbook(inflatedMb: number): Buffer {
-  const head = Buffer.from(`<?xml version="1.0" encoding="UTF-8" standalone="yes"?>\n<worksheet xmlns="${NS}"><sheetData>${HEADER_ROW}`, 'utf8');
+  const head = Buffer.from(
+    `<?xml version="1.0" encoding="UTF-8" standalone="yes"?>\n<worksheet xmlns="${NS}"><sheetData>${HEADER_ROW}`,
+    'utf8',
+  );
   const tail = Buffer.from(`<row r="2"><c r="A2"><v>25</v></c><c r="B2"><v>96.5</v></c></row></sheetData></worksheet>`, 'utf8');
   return buildZip(workbookParts(Buffer.concat([head, Buffer.alloc(inflatedMb * 1024 * 1024, 0x20), tail])));
 }
 
 /** Like the ratio bomb, but its headers declare a tiny sheet, so the directory check passes and only counting catches it. */
 export function lyingBombWorkbook(inflatedMb: number): Buffer {
-  const head = Buffer.from(`<?xml version="1.0" encoding="UTF-8" standalone="yes"?>\n<worksheet xmlns="${NS}"><sheetData>${HEADER_ROW}`, 'utf8');
+  const head = Buffer.from(
+    `<?xml version="1.0" encoding="UTF-8" standalone="yes"?>\n<worksheet xmlns="${NS}"><sheetData>${HEADER_ROW}`,
+    'utf8',
+  );
   const tail = Buffer.from(`</sheetData></worksheet>`, 'utf8');
   return buildZip(workbookParts(Buffer.concat([head, Buffer.alloc(inflatedMb * 1024 * 1024, 0x20), tail]), 4096));
 }

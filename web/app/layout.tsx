@@ -15,7 +15,10 @@ export function AppLayout() {
   useEffect(() => setMenuOpen(false), [location.pathname]);
   return (
     <div className="flex min-h-screen flex-col">
-      <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:rounded focus:bg-white focus:px-3 focus:py-1">
+      <a
+        href="#main"
+        className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:rounded focus:bg-white focus:px-3 focus:py-1"
+      >
         Skip to content
       </a>
       <header className="border-b border-ink-800 bg-ink-900 text-slate-100">

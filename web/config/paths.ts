@@ -4,16 +4,31 @@ export const paths = {
   apiDocs: { path: '/api-docs', getHref: () => '/api-docs' },
   calculators: { path: '/calculators', getHref: () => '/calculators' },
   rateAndHold: { path: '/rate-and-hold', getHref: () => '/rate-and-hold' },
-  signIn: { path: '/sign-in', getHref: (returnTo?: string) => (returnTo ? `/sign-in?returnTo=${encodeURIComponent(returnTo)}` : '/sign-in') },
+  signIn: {
+    path: '/sign-in',
+    getHref: (returnTo?: string) => (returnTo ? `/sign-in?returnTo=${encodeURIComponent(returnTo)}` : '/sign-in'),
+  },
   projects: { path: '/projects', getHref: () => '/projects' },
   project: { path: '/projects/:projectId', getHref: (projectId: string) => `/projects/${projectId}` },
   campaign: { path: '/campaigns/:campaignId', getHref: (campaignId: string) => `/campaigns/${campaignId}` },
   /** Served by the API server: the campaign's spreadsheet report (a download, not a page). */
-  campaignReport: { path: '/api/v1/campaigns/:campaignId/report.xlsx', getHref: (campaignId: string) => `/api/v1/campaigns/${campaignId}/report.xlsx` },
+  campaignReport: {
+    path: '/api/v1/campaigns/:campaignId/report.xlsx',
+    getHref: (campaignId: string) => `/api/v1/campaigns/${campaignId}/report.xlsx`,
+  },
   /** Served by the API server: the summary and charts as a PDF, and the runs and forecast grid as CSV. */
-  campaignReportPdf: { path: '/api/v1/campaigns/:campaignId/report.pdf', getHref: (campaignId: string) => `/api/v1/campaigns/${campaignId}/report.pdf` },
-  campaignMeasurementsCsv: { path: '/api/v1/campaigns/:campaignId/measurements.csv', getHref: (campaignId: string) => `/api/v1/campaigns/${campaignId}/measurements.csv` },
-  campaignForecastCsv: { path: '/api/v1/campaigns/:campaignId/forecast.csv', getHref: (campaignId: string) => `/api/v1/campaigns/${campaignId}/forecast.csv` },
+  campaignReportPdf: {
+    path: '/api/v1/campaigns/:campaignId/report.pdf',
+    getHref: (campaignId: string) => `/api/v1/campaigns/${campaignId}/report.pdf`,
+  },
+  campaignMeasurementsCsv: {
+    path: '/api/v1/campaigns/:campaignId/measurements.csv',
+    getHref: (campaignId: string) => `/api/v1/campaigns/${campaignId}/measurements.csv`,
+  },
+  campaignForecastCsv: {
+    path: '/api/v1/campaigns/:campaignId/forecast.csv',
+    getHref: (campaignId: string) => `/api/v1/campaigns/${campaignId}/forecast.csv`,
+  },
   compare: { path: '/projects/:projectId/compare', getHref: (projectId: string) => `/projects/${projectId}/compare` },
   comparison: { path: '/comparisons/:comparisonId', getHref: (comparisonId: string) => `/comparisons/${comparisonId}` },
   projectSettings: { path: '/projects/:projectId/settings', getHref: (projectId: string) => `/projects/${projectId}/settings` },
@@ -23,5 +38,8 @@ export const paths = {
   /** Served by the API server (development tools only), not by the web router. */
   devMailbox: { path: '/dev/mailbox', getHref: () => '/dev/mailbox' },
   /** Server route that starts the OAuth round trip. */
-  oauthStart: { path: '/auth/github', getHref: (returnTo?: string) => (returnTo ? `/auth/github?returnTo=${encodeURIComponent(returnTo)}` : '/auth/github') },
+  oauthStart: {
+    path: '/auth/github',
+    getHref: (returnTo?: string) => (returnTo ? `/auth/github?returnTo=${encodeURIComponent(returnTo)}` : '/auth/github'),
+  },
 } as const;

@@ -56,7 +56,12 @@ export async function api<T>(path: string, options: RequestOptions = {}): Promis
   try {
     res = await fetch(path, { ...options, method, headers, body, credentials: 'same-origin' });
   } catch {
-    throw new ApiError({ type: 'network', title: 'No connection', status: 0, detail: 'The server could not be reached. Check that Eyrie is running.' });
+    throw new ApiError({
+      type: 'network',
+      title: 'No connection',
+      status: 0,
+      detail: 'The server could not be reached. Check that Eyrie is running.',
+    });
   }
   if (res.status === 204) return undefined as T;
   const text = await res.text();

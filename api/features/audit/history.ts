@@ -97,12 +97,15 @@ export function formatReading(r: Reading): string {
 
 /** "ee 98.7 → 98.9 %", or both readings in full when the measure changed. */
 function readingChange(a: Reading, b: Reading): string {
-  if (a.measure === b.measure) return `${MEASURE_WORD[a.measure] ?? a.measure} ${readingNumber(a)} → ${readingNumber(b)}${unitOf(a.measure)}`;
+  if (a.measure === b.measure)
+    return `${MEASURE_WORD[a.measure] ?? a.measure} ${readingNumber(a)} → ${readingNumber(b)}${unitOf(a.measure)}`;
   return `${formatReading(a)} → ${formatReading(b)}`;
 }
 
 const quote = (text: unknown, max = 80) => {
-  const s = String(text ?? '').replace(/\s+/g, ' ').trim();
+  const s = String(text ?? '')
+    .replace(/\s+/g, ' ')
+    .trim();
   return `“${s.length > max ? `${s.slice(0, max - 1)}…` : s}”`;
 };
 
@@ -124,7 +127,9 @@ const orNone = (v: unknown, show: (x: never) => string) => (v === null || v === 
 function measurementChanges(b: Snapshot, a: Snapshot): string[] {
   const out: string[] = [];
   if (!same(b.temperatureK, a.temperatureK)) {
-    out.push(`temperature ${formatNumber(Math.round((Number(b.temperatureK) - 273.15) * 10) / 10)} → ${formatCelsius(Number(a.temperatureK))}`);
+    out.push(
+      `temperature ${formatNumber(Math.round((Number(b.temperatureK) - 273.15) * 10) / 10)} → ${formatCelsius(Number(a.temperatureK))}`,
+    );
   }
   if (!same(b.measure, a.measure) || !same(b.value, a.value) || !same(b.valueB, a.valueB) || !same(b.isLowerBound, a.isLowerBound)) {
     out.push(readingChange(readingOf(b), readingOf(a)));
@@ -145,7 +150,13 @@ function measurementChanges(b: Snapshot, a: Snapshot): string[] {
 
 // ── Campaigns and projects ─────────────────────────────────────────────────────────────────
 
-const ASSAY_WORD: Record<string, string> = { 'chiral-hplc': 'chiral HPLC', 'chiral-sfc': 'chiral SFC', 'chiral-gc': 'chiral GC', nmr: 'NMR', other: 'another method' };
+const ASSAY_WORD: Record<string, string> = {
+  'chiral-hplc': 'chiral HPLC',
+  'chiral-sfc': 'chiral SFC',
+  'chiral-gc': 'chiral GC',
+  nmr: 'NMR',
+  other: 'another method',
+};
 
 const CAMPAIGN_FIELDS: [string, string, (x: never) => string][] = [
   ['title', 'title', (x: string) => quote(x)],
@@ -160,7 +171,9 @@ const CAMPAIGN_FIELDS: [string, string, (x: never) => string][] = [
 ];
 
 function fieldChanges(fields: [string, string, (x: never) => string][], b: Snapshot, a: Snapshot): string[] {
-  return fields.filter(([key]) => !same(b[key], a[key])).map(([key, word, show]) => `${word} ${orNone(b[key], show)} → ${orNone(a[key], show)}`);
+  return fields
+    .filter(([key]) => !same(b[key], a[key]))
+    .map(([key, word, show]) => `${word} ${orNone(b[key], show)} → ${orNone(a[key], show)}`);
 }
 
 const ROLE_WORD: Record<string, string> = { owner: 'owner', editor: 'editor', viewer: 'viewer' };
@@ -172,7 +185,9 @@ const day = (iso: unknown) => (typeof iso === 'string' ? iso.slice(0, 10) : 'an 
 function describe(e: EventRow, who: string, names: Names, withCampaign: boolean): string {
   const b = e.before ?? {};
   const a = e.after ?? {};
-  const campaignTitle = (e.campaignId && names.campaigns.get(e.campaignId)) ?? (typeof a.campaignTitle === 'string' ? a.campaignTitle : typeof b.title === 'string' ? b.title : null);
+  const campaignTitle =
+    (e.campaignId && names.campaigns.get(e.campaignId)) ??
+    (typeof a.campaignTitle === 'string' ? a.campaignTitle : typeof b.title === 'string' ? b.title : null);
   const inCampaign = withCampaign && campaignTitle ? ` in ${quote(campaignTitle)}` : '';
   const toCampaign = withCampaign && campaignTitle ? ` to ${quote(campaignTitle)}` : '';
   const person = (id: string) => names.people.get(id) ?? REMOVED_ACCOUNT.toLowerCase();
@@ -182,10 +197,14 @@ function describe(e: EventRow, who: string, names: Names, withCampaign: boolean)
       if (e.action === 'create') return `${who} added ${runLabel(a)}${toCampaign}: ${formatReading(readingOf(a))}`;
       if (e.action === 'delete') return `${who} deleted ${runLabel(b)}${inCampaign} (${formatReading(readingOf(b))})`;
       if (b.excluded !== a.excluded) {
-        return a.excluded ? `${who} excluded ${runLabel(b)}${inCampaign} from the fit` : `${who} brought ${runLabel(b)}${inCampaign} back into the fit`;
+        return a.excluded
+          ? `${who} excluded ${runLabel(b)}${inCampaign} from the fit`
+          : `${who} brought ${runLabel(b)}${inCampaign} back into the fit`;
       }
       const changes = measurementChanges(b, a);
-      return changes.length ? `${who} changed ${runLabel(b)}${inCampaign}: ${changes.join(', ')}` : `${who} saved ${runLabel(b)}${inCampaign} without changes`;
+      return changes.length
+        ? `${who} changed ${runLabel(b)}${inCampaign}: ${changes.join(', ')}`
+        : `${who} saved ${runLabel(b)}${inCampaign} without changes`;
     }
     case 'measurement_batch':
       return `${who} added ${plural(Number(a.rows ?? 0), 'run')}${toCampaign} by typing or pasting`;
@@ -211,12 +230,15 @@ function describe(e: EventRow, who: string, names: Names, withCampaign: boolean)
         return `${who} deleted campaign ${title} with its ${plural(Number(b.measurementCount ?? 0), 'measurement')} and ${plural(Number(b.savedForecastCount ?? 0), 'saved forecast')}`;
       }
       const changes = fieldChanges(CAMPAIGN_FIELDS, b, a);
-      return changes.length ? `${who} changed campaign ${quote(b.title)}: ${changes.join('; ')}` : `${who} saved campaign ${title} without changes`;
+      return changes.length
+        ? `${who} changed campaign ${quote(b.title)}: ${changes.join('; ')}`
+        : `${who} saved campaign ${title} without changes`;
     }
     case 'campaign_sign_off': {
       const title = quote(a.title ?? b.title ?? campaignTitle);
       if (a.signedOff === true) {
-        const n = typeof a.measurementCount === 'number' ? ` (${plural(a.measurementCount, 'measurement')} locked)` : ' (measurements locked)';
+        const n =
+          typeof a.measurementCount === 'number' ? ` (${plural(a.measurementCount, 'measurement')} locked)` : ' (measurements locked)';
         return `${who} signed off campaign ${title}${n}`;
       }
       const by = typeof b.signedOffBy === 'string' ? ` (signed off by ${b.signedOffBy} on ${day(b.signedOffAt)})` : '';
@@ -226,7 +248,9 @@ function describe(e: EventRow, who: string, names: Names, withCampaign: boolean)
       const s = e.action === 'delete' ? b : a;
       const label = typeof s.label === 'string' && s.label.trim() ? ` ${quote(s.label)}` : '';
       const at = typeof s.temperatureK === 'number' ? ` at ${formatCelsius(s.temperatureK)}` : '';
-      return e.action === 'delete' ? `${who} deleted the saved forecast${label}${at}${inCampaign}` : `${who} saved a forecast${label}${at}${inCampaign}`;
+      return e.action === 'delete'
+        ? `${who} deleted the saved forecast${label}${at}${inCampaign}`
+        : `${who} saved a forecast${label}${at}${inCampaign}`;
     }
     case 'project': {
       if (e.action === 'create') return `${who} created the project ${quote(a.name)}`;
@@ -244,8 +268,12 @@ function describe(e: EventRow, who: string, names: Names, withCampaign: boolean)
     case 'project_member': {
       const self = e.actorUserId !== null && e.actorUserId === e.entityId;
       const them = person(e.entityId);
-      if (e.action === 'create') return self ? `${who} joined the project as ${ROLE_WORD[String(a.role)] ?? a.role}` : `${who} added ${them} to the project as ${ROLE_WORD[String(a.role)] ?? a.role}`;
-      if (e.action === 'delete') return self ? `${who} left the project` : `${who} removed ${them} (${ROLE_WORD[String(b.role)] ?? b.role}) from the project`;
+      if (e.action === 'create')
+        return self
+          ? `${who} joined the project as ${ROLE_WORD[String(a.role)] ?? a.role}`
+          : `${who} added ${them} to the project as ${ROLE_WORD[String(a.role)] ?? a.role}`;
+      if (e.action === 'delete')
+        return self ? `${who} left the project` : `${who} removed ${them} (${ROLE_WORD[String(b.role)] ?? b.role}) from the project`;
       return `${who} changed the role of ${them}: ${ROLE_WORD[String(b.role)] ?? b.role} → ${ROLE_WORD[String(a.role)] ?? a.role}`;
     }
     case 'invitation': {
@@ -266,14 +294,22 @@ function sentenceOf(e: EventRow, names: Names, withCampaign: boolean): HistoryEn
   const text = describe(e, who, names, withCampaign);
   const reason = e.reason?.trim() ? e.reason.trim() : null;
   const reasonWord = e.entityType === 'campaign_sign_off' && e.after?.signedOff === true ? 'note' : 'reason';
-  return { id: e.id, at: new Date(e.createdAt).toISOString(), who, sentence: `${text}${reason ? `, ${reasonWord}: ${reason}` : ''}.`, reason };
+  return {
+    id: e.id,
+    at: new Date(e.createdAt).toISOString(),
+    who,
+    sentence: `${text}${reason ? `, ${reasonWord}: ${reason}` : ''}.`,
+    reason,
+  };
 }
 
 async function namesFor(db: Knex, projectId: string, rows: EventRow[]): Promise<Names> {
   const userIds = [...new Set(rows.filter((r) => r.entityType === 'project_member').map((r) => r.entityId))];
   const people = new Map<string, string>();
   if (userIds.length) {
-    const users: { id: string; login: string; displayName: string | null }[] = await db('users').whereIn('id', userIds).select('id', 'login', 'displayName');
+    const users: { id: string; login: string; displayName: string | null }[] = await db('users')
+      .whereIn('id', userIds)
+      .select('id', 'login', 'displayName');
     for (const u of users) people.set(u.id, u.displayName ?? u.login);
   }
   const campaignIds = [...new Set(rows.map((r) => r.campaignId).filter((id): id is string => id !== null))];
@@ -296,7 +332,11 @@ async function namesFor(db: Knex, projectId: string, rows: EventRow[]): Promise<
  * History of a project (every change in it) or of one of its campaigns, newest first, in pages
  * of `limit` entries before the cursor `before`.
  */
-export async function readHistory(db: Knex, scope: { projectId: string; campaignId?: string }, page: { limit: number; before?: number }): Promise<HistoryPage> {
+export async function readHistory(
+  db: Knex,
+  scope: { projectId: string; campaignId?: string },
+  page: { limit: number; before?: number },
+): Promise<HistoryPage> {
   const rows: EventRow[] = await db('audit_events as e')
     .leftJoin('users as u', 'u.id', 'e.actorUserId')
     .where('e.projectId', scope.projectId)
@@ -306,7 +346,20 @@ export async function readHistory(db: Knex, scope: { projectId: string; campaign
     })
     .orderBy('e.id', 'desc')
     .limit(page.limit + 1)
-    .select('e.id', 'e.createdAt', 'e.action', 'e.entityType', 'e.entityId', 'e.before', 'e.after', 'e.reason', 'e.campaignId', 'e.actorUserId', 'u.login', 'u.displayName');
+    .select(
+      'e.id',
+      'e.createdAt',
+      'e.action',
+      'e.entityType',
+      'e.entityId',
+      'e.before',
+      'e.after',
+      'e.reason',
+      'e.campaignId',
+      'e.actorUserId',
+      'u.login',
+      'u.displayName',
+    );
   const more = rows.length > page.limit;
   const shown = rows.slice(0, page.limit);
   const names = await namesFor(db, scope.projectId, shown);

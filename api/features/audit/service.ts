@@ -76,19 +76,28 @@ export async function listAuditEvents(
     })
     .orderBy('e.id', 'desc')
     .limit(page.limit + 1)
-    .select('e.id', 'e.createdAt', 'e.action', 'e.entityType', 'e.entityId', 'e.before', 'e.after', 'e.actorUserId', 'u.login', 'u.displayName');
+    .select(
+      'e.id',
+      'e.createdAt',
+      'e.action',
+      'e.entityType',
+      'e.entityId',
+      'e.before',
+      'e.after',
+      'e.actorUserId',
+      'u.login',
+      'u.displayName',
+    );
   const more = rows.length > page.limit;
-  const events = rows.slice(0, page.limit).map(
-    (r: AuditRow): AuditEventView => ({
-      id: r.id,
-      at: new Date(r.createdAt).toISOString(),
-      action: r.action,
-      entityType: r.entityType,
-      entityId: r.entityId,
-      actor: r.actorUserId ? { id: r.actorUserId, login: r.login, displayName: r.displayName } : null,
-      before: r.before,
-      after: r.after,
-    }),
-  );
+  const events = rows.slice(0, page.limit).map((r: AuditRow): AuditEventView => ({
+    id: r.id,
+    at: new Date(r.createdAt).toISOString(),
+    action: r.action,
+    entityType: r.entityType,
+    entityId: r.entityId,
+    actor: r.actorUserId ? { id: r.actorUserId, login: r.login, displayName: r.displayName } : null,
+    before: r.before,
+    after: r.after,
+  }));
   return { events, nextBefore: more ? events[events.length - 1].id : null };
 }

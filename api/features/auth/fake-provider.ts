@@ -40,7 +40,10 @@ const identitySchema = z.object({
     .trim()
     .regex(/^[A-Za-z0-9](?:[A-Za-z0-9-]{0,37}[A-Za-z0-9])?$/, 'Use 1–39 letters, digits or inner hyphens.'),
   name: z.string().trim().min(1, 'Enter a display name.').max(100, 'Keep the name to 100 characters.'),
-  email: z.string().trim().pipe(z.email({ error: 'Enter a valid e-mail address.' })),
+  email: z
+    .string()
+    .trim()
+    .pipe(z.email({ error: 'Enter a valid e-mail address.' })),
 });
 
 const CODE_TTL_MS = 60_000;
@@ -93,7 +96,12 @@ export async function startFakeOAuthProvider(options: { host?: string; port?: nu
     return { clientId, redirectUri, state: String(source.state ?? ''), scope: String(source.scope ?? '') };
   }
 
-  function renderPicker(res: Response, params: AuthorizeParams, typed: Partial<Record<'login' | 'name' | 'email', string>> = {}, errors: Record<string, string> = {}) {
+  function renderPicker(
+    res: Response,
+    params: AuthorizeParams,
+    typed: Partial<Record<'login' | 'name' | 'email', string>> = {},
+    errors: Record<string, string> = {},
+  ) {
     const hidden = `<input type="hidden" name="client_id" value="${escapeHtml(params.clientId)}">
       <input type="hidden" name="redirect_uri" value="${escapeHtml(params.redirectUri)}">
       <input type="hidden" name="state" value="${escapeHtml(params.state)}">`;
@@ -129,19 +137,32 @@ export async function startFakeOAuthProvider(options: { host?: string; port?: nu
 
   app.get('/login/oauth/authorize', (req: Request, res: Response) => {
     const params = readAuthorize(req.query as Record<string, unknown>);
-    if (typeof params === 'string') return void res.status(400).type('html').send(htmlPage('Sign-in failed', `<h1>Cannot sign in</h1><p>${escapeHtml(params)}</p>`));
+    if (typeof params === 'string')
+      return void res
+        .status(400)
+        .type('html')
+        .send(htmlPage('Sign-in failed', `<h1>Cannot sign in</h1><p>${escapeHtml(params)}</p>`));
     renderPicker(res, params);
   });
 
   app.post('/login/oauth/authorize', (req: Request, res: Response) => {
     const body = (req.body ?? {}) as Record<string, unknown>;
     const params = readAuthorize(body);
-    if (typeof params === 'string') return void res.status(400).type('html').send(htmlPage('Sign-in failed', `<h1>Cannot sign in</h1><p>${escapeHtml(params)}</p>`));
+    if (typeof params === 'string')
+      return void res
+        .status(400)
+        .type('html')
+        .send(htmlPage('Sign-in failed', `<h1>Cannot sign in</h1><p>${escapeHtml(params)}</p>`));
     const parsed = identitySchema.safeParse({ login: body.login ?? '', name: body.name ?? '', email: body.email ?? '' });
     if (!parsed.success) {
       const errors: Record<string, string> = {};
       for (const issue of parsed.error.issues) errors[String(issue.path[0])] ??= issue.message;
-      return renderPicker(res, params, { login: String(body.login ?? ''), name: String(body.name ?? ''), email: String(body.email ?? '') }, errors);
+      return renderPicker(
+        res,
+        params,
+        { login: String(body.login ?? ''), name: String(body.name ?? ''), email: String(body.email ?? '') },
+        errors,
+      );
     }
     const identity: FakeIdentity = { id: fakeProviderUserId(parsed.data.login), ...parsed.data };
     const code = randomBytes(20).toString('hex');

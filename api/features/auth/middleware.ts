@@ -71,7 +71,8 @@ export function csrfGuard(allowedOrigins: readonly string[] = []): RequestHandle
   return (req, _res, next) => {
     if (SAFE.has(req.method) || req.authMethod !== 'session') return next();
     const crossSite = crossSiteReason(req, allowedOrigins);
-    if (crossSite) throw new ForbiddenError(`The request was refused because ${crossSite}; changes are accepted only from Eyrie's own pages.`);
+    if (crossSite)
+      throw new ForbiddenError(`The request was refused because ${crossSite}; changes are accepted only from Eyrie's own pages.`);
     if (!csrf.isRequestValid(req)) {
       throw new ForbiddenError('The request did not carry a valid CSRF token (X-CSRF-Token). Reload the page and try again.');
     }

@@ -36,21 +36,34 @@ export class CookieStateStore {
   store(req: Request, _meta: unknown, callback: (err: Error | null, state?: string) => void): void {
     const nonce = randomBytes(24).toString('base64url');
     const payload = Buffer.from(JSON.stringify({ n: nonce, r: req.oauthReturnTo ?? null, t: Date.now() })).toString('base64url');
-    req.res!.cookie(OAUTH_STATE_COOKIE, `${payload}.${this.sign(payload)}`, { httpOnly: true, sameSite: 'lax', secure: req.secure, path: '/auth', maxAge: MAX_AGE_MS });
+    req.res!.cookie(OAUTH_STATE_COOKIE, `${payload}.${this.sign(payload)}`, {
+      httpOnly: true,
+      sameSite: 'lax',
+      secure: req.secure,
+      path: '/auth',
+      maxAge: MAX_AGE_MS,
+    });
     callback(null, nonce);
   }
 
-  verify(req: Request, providedState: unknown, _meta: unknown, callback: (err: Error | null, ok: boolean, info?: { message: string }) => void): void {
+  verify(
+    req: Request,
+    providedState: unknown,
+    _meta: unknown,
+    callback: (err: Error | null, ok: boolean, info?: { message: string }) => void,
+  ): void {
     const raw = readCookie(req, OAUTH_STATE_COOKIE);
     req.res?.clearCookie(OAUTH_STATE_COOKIE, { path: '/auth' });
     const refuse = (message: string) => callback(null, false, { message });
     if (!raw || typeof providedState !== 'string') return refuse('The sign-in started in another browser or expired; start again.');
     const [payload, mac] = raw.split('.');
     const expected = this.sign(payload ?? '');
-    if (!payload || !mac || mac.length !== expected.length || !timingSafeEqual(Buffer.from(mac), Buffer.from(expected))) return refuse('The sign-in state was altered; start again.');
+    if (!payload || !mac || mac.length !== expected.length || !timingSafeEqual(Buffer.from(mac), Buffer.from(expected)))
+      return refuse('The sign-in state was altered; start again.');
     const { n, r, t } = JSON.parse(Buffer.from(payload, 'base64url').toString('utf8')) as { n: string; r: string | null; t: number };
     if (Date.now() - t > MAX_AGE_MS) return refuse('The sign-in took too long; start again.');
-    if (n.length !== providedState.length || !timingSafeEqual(Buffer.from(n), Buffer.from(providedState))) return refuse('The sign-in state does not match; start again.');
+    if (n.length !== providedState.length || !timingSafeEqual(Buffer.from(n), Buffer.from(providedState)))
+      return refuse('The sign-in state does not match; start again.');
     if (r) req.oauthReturnTo = r;
     callback(null, true);
   }

@@ -121,7 +121,15 @@ export function installAuth(app: Express, deps: { knex: Knex; config: AppConfig;
     next();
   };
   const scoped = ['/api', '/auth', '/dev'];
-  app.use(scoped, bearerAuth(knex), withSession(sessionMiddleware), authenticator.initialize(), withSession(authenticator.session()), markSession, csrfGuard([new URL(config.publicUrl).origin]));
+  app.use(
+    scoped,
+    bearerAuth(knex),
+    withSession(sessionMiddleware),
+    authenticator.initialize(),
+    withSession(authenticator.session()),
+    markSession,
+    csrfGuard([new URL(config.publicUrl).origin]),
+  );
 
   const signInLimit = limiter(config.rateLimit.windowMs, config.rateLimit.signIn, 'sign-in');
   const router = express.Router();

@@ -26,12 +26,18 @@ export const analysisQuerySchema = z.object({
     .refine(Number.isFinite, 'newRunUncertainty must be a finite number')
     .refine((v) => v > 0 && v < 100, 'newRunUncertainty must be above 0 and below 100')
     .optional()
-    .meta({ description: "SD of the assay for a new run, in the campaign measure's units; default the campaign's setting, else the median of the runs'" }),
+    .meta({
+      description:
+        "SD of the assay for a new run, in the campaign measure's units; default the campaign's setting, else the median of the runs'",
+    }),
   quantitationLimit: z.coerce
     .number({ error: 'quantitationLimit must be a number' })
     .refine(Number.isFinite, 'quantitationLimit must be a finite number')
     .optional()
-    .meta({ description: "Quantitation limit in the campaign measure's terms (ee %, % A/er major share %, dr/ratio r); default the campaign's, else 99.8 % ee" }),
+    .meta({
+      description:
+        "Quantitation limit in the campaign measure's terms (ee %, % A/er major share %, dr/ratio r); default the campaign's, else 99.8 % ee",
+    }),
 });
 export type AnalysisQuery = z.infer<typeof analysisQuerySchema>;
 
@@ -107,7 +113,11 @@ export const comparisonQuerySchema = z.object({
     .default(25),
 });
 
-const energyWithSe = z.object({ 'kJ/mol': z.number(), 'kcal/mol': z.number(), se: z.object({ 'kJ/mol': z.number(), 'kcal/mol': z.number() }).nullable() });
+const energyWithSe = z.object({
+  'kJ/mol': z.number(),
+  'kcal/mol': z.number(),
+  se: z.object({ 'kJ/mol': z.number(), 'kcal/mol': z.number() }).nullable(),
+});
 const entropyWithSe = z.object({
   'J/(mol*K)': z.number(),
   'cal/(mol*K)': z.number(),
@@ -130,7 +140,12 @@ export const comparisonResponseSchema = z
         preferred: z.enum(['one-line', 'two-branch']).nullable(),
         /** The accepted break (isoinversion only when the branch slopes have opposite signs); null when none is claimed. */
         breakAt: z
-          .object({ claim: z.enum(['isoinversion', 'change-of-slope']), extremum: z.enum(['maximum', 'minimum']).nullable(), kelvin: z.number(), celsius: z.number() })
+          .object({
+            claim: z.enum(['isoinversion', 'change-of-slope']),
+            extremum: z.enum(['maximum', 'minimum']).nullable(),
+            kelvin: z.number(),
+            celsius: z.number(),
+          })
           .nullable(),
         warnings: z.number().int(),
         problem: problemSummarySchema.nullable(),

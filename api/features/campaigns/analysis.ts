@@ -36,7 +36,19 @@ export const MEASURED_MATCH_K = 1;
 const ENGINE_FLAGS = new Set(['outlier', 'high-leverage', 'influential']);
 
 /** The columns of a stored run that the analysis reads (the bulk read selects only these). */
-export const ANALYSED_COLUMNS = ['id', 'temperatureK', 'measure', 'value', 'valueB', 'isLowerBound', 'uncertainty', 'replicateLabel', 'sampleId', 'excluded', 'excludedReason'] as const;
+export const ANALYSED_COLUMNS = [
+  'id',
+  'temperatureK',
+  'measure',
+  'value',
+  'valueB',
+  'isLowerBound',
+  'uncertainty',
+  'replicateLabel',
+  'sampleId',
+  'excluded',
+  'excludedReason',
+] as const;
 
 /** A stored run as the analysis reads it: a model instance or a plain row of ANALYSED_COLUMNS. */
 export type AnalysedMeasurement = Pick<Measurement, (typeof ANALYSED_COLUMNS)[number]>;
@@ -59,7 +71,10 @@ function sigmaOf(campaign: Pick<Campaign, 'measure' | 'defaultUncertainty'>, m: 
 const runLabel = (m: Pick<Measurement, 'sampleId' | 'replicateLabel'>) => [m.sampleId, m.replicateLabel].filter(Boolean).join(' ') || null;
 
 /** Stored runs → the engine's SI form, in the same order. */
-export function toEngineMeasurements(campaign: Pick<Campaign, 'measure' | 'defaultUncertainty'>, measurements: readonly AnalysedMeasurement[]): EyringMeasurement[] {
+export function toEngineMeasurements(
+  campaign: Pick<Campaign, 'measure' | 'defaultUncertainty'>,
+  measurements: readonly AnalysedMeasurement[],
+): EyringMeasurement[] {
   return measurements.map((m) => {
     const out: EyringMeasurement = { temperatureK: m.temperatureK, ratio: parseSelectivity(selectivityOf(m)) };
     const sigma = sigmaOf(campaign, m);
@@ -107,32 +122,41 @@ export function analysisOptions(
   };
 }
 
-type AnalysedCampaign = Pick<Campaign, 'id' | 'version' | 'measure' | 'defaultUncertainty'> & Partial<Pick<Campaign, 'newRunUncertainty' | 'quantitationLimit'>>;
+type AnalysedCampaign = Pick<Campaign, 'id' | 'version' | 'measure' | 'defaultUncertainty'> &
+  Partial<Pick<Campaign, 'newRunUncertainty' | 'quantitationLimit'>>;
 
 /**
  * The campaign's assay settings for this analysis: the query's, else the campaign's, else the
  * defaults (new run: median of the runs' own or default uncertainties in the campaign measure;
  * limit: 99.8 % ee). A limit that does not suit the measure is a 400 naming the field.
  */
-export function assaySettings(campaign: AnalysedCampaign, measurements: readonly AnalysedMeasurement[], options: AnalysisOptions): Pick<FitOptions, 'newRun' | 'newRunOrigin' | 'quantitationLimit'> {
+export function assaySettings(
+  campaign: AnalysedCampaign,
+  measurements: readonly AnalysedMeasurement[],
+  options: AnalysisOptions,
+): Pick<FitOptions, 'newRun' | 'newRunOrigin' | 'quantitationLimit'> {
   const limitValue = options.quantitationLimitValue ?? campaign.quantitationLimit ?? null;
   let quantitationLimit: FitOptions['quantitationLimit'];
   if (limitValue !== null) {
     const problem = quantitationLimitProblem(campaign.measure, limitValue);
     if (problem) {
       const path = options.quantitationLimitValue === undefined ? 'campaign.quantitationLimit' : 'quantitationLimit';
-      throw new BadRequestError(`quantitationLimit ${problem} for a campaign reported as ${campaign.measure}.`, [{ path, message: `quantitationLimit ${problem}` }]);
+      throw new BadRequestError(`quantitationLimit ${problem} for a campaign reported as ${campaign.measure}.`, [
+        { path, message: `quantitationLimit ${problem}` },
+      ]);
     }
     quantitationLimit = { measure: campaign.measure, value: limitValue };
   }
   const given = options.newRunUncertainty ?? campaign.newRunUncertainty ?? null;
   if (given !== null) {
-    return { newRun: { measure: campaign.measure, uncertainty: given }, newRunOrigin: options.newRunUncertainty === undefined ? 'campaign' : 'request', ...(quantitationLimit ? { quantitationLimit } : {}) };
+    return {
+      newRun: { measure: campaign.measure, uncertainty: given },
+      newRunOrigin: options.newRunUncertainty === undefined ? 'campaign' : 'request',
+      ...(quantitationLimit ? { quantitationLimit } : {}),
+    };
   }
   const median = medianUncertainty(
-    measurements
-      .filter((m) => m.measure === campaign.measure && !m.excluded)
-      .map((m) => m.uncertainty ?? campaign.defaultUncertainty ?? 0),
+    measurements.filter((m) => m.measure === campaign.measure && !m.excluded).map((m) => m.uncertainty ?? campaign.defaultUncertainty ?? 0),
   );
   return {
     newRun: median === null ? null : { measure: campaign.measure, uncertainty: median },
@@ -142,7 +166,11 @@ export function assaySettings(campaign: AnalysedCampaign, measurements: readonly
 }
 
 /** The analysis of one campaign's runs (pure: no database). */
-export function computeAnalysis(campaign: AnalysedCampaign, measurements: readonly AnalysedMeasurement[], options: AnalysisOptions): AnalysisResponse {
+export function computeAnalysis(
+  campaign: AnalysedCampaign,
+  measurements: readonly AnalysedMeasurement[],
+  options: AnalysisOptions,
+): AnalysisResponse {
   const engine = toEngineMeasurements(campaign, measurements);
   options = { ...options, ...assaySettings(campaign, measurements, options) };
   let fit: FitResponse | null = null;
@@ -175,7 +203,13 @@ export function computeAnalysis(campaign: AnalysedCampaign, measurements: readon
     const asked = fit.warnings.find((w) => w.code === 'extrapolation');
     fit.warnings =
       at?.extrapolated && asked
-        ? [...others, { code: 'extrapolation', message: `${at.celsius.toFixed(1).replace("-", "−")} °C lies outside the screened range; the forecast assumes the ${at.model === 'segmented' ? `${at.branch === 'low' ? 'low' : 'high'}-temperature branch` : 'same straight line'} continues, which a change of mechanism would break.` }]
+        ? [
+            ...others,
+            {
+              code: 'extrapolation',
+              message: `${at.celsius.toFixed(1).replace('-', '−')} °C lies outside the screened range; the forecast assumes the ${at.model === 'segmented' ? `${at.branch === 'low' ? 'low' : 'high'}-temperature branch` : 'same straight line'} continues, which a change of mechanism would break.`,
+            },
+          ]
         : others;
   }
 
@@ -201,7 +235,17 @@ export function computeAnalysis(campaign: AnalysedCampaign, measurements: readon
     };
   });
 
-  return { campaignId: campaign.id, campaignVersion: campaign.version, fit, problem, curve, at, points, convention: SIGN_CONVENTION, caution: SELECTIVITY_CAUTION };
+  return {
+    campaignId: campaign.id,
+    campaignVersion: campaign.version,
+    fit,
+    problem,
+    curve,
+    at,
+    points,
+    convention: SIGN_CONVENTION,
+    caution: SELECTIVITY_CAUTION,
+  };
 }
 
 /** Engine messages name array paths; a stored campaign's user needs to hear which run. */
@@ -222,9 +266,18 @@ function explainProblem(err: Error & { code: string }, measurements: readonly An
 }
 
 /** Load a campaign of the project with its runs in display order. */
-async function loadCampaignData(db: Knex, projectId: string, campaignId: string): Promise<{ campaign: Campaign; measurements: Measurement[] }> {
+async function loadCampaignData(
+  db: Knex,
+  projectId: string,
+  campaignId: string,
+): Promise<{ campaign: Campaign; measurements: Measurement[] }> {
   const campaign = await getCampaign(db, projectId, campaignId);
-  const measurements = await Measurement.query(db).where({ campaignId }).orderBy('temperatureK').orderBy('createdAt').orderBy('sourceRow').orderBy('id');
+  const measurements = await Measurement.query(db)
+    .where({ campaignId })
+    .orderBy('temperatureK')
+    .orderBy('createdAt')
+    .orderBy('sourceRow')
+    .orderBy('id');
   return { campaign, measurements };
 }
 
@@ -245,7 +298,11 @@ export interface SerialisedAnalysis {
  * Every part of the key is read from PostgreSQL on each request, so several instances never serve
  * a stale entry; an entry is only ever replaced, never invalidated. Bounded by total body size.
  */
-const analysisCache = new LRUCache<string, SerialisedAnalysis>({ maxSize: 32 * 1024 * 1024, sizeCalculation: (v) => v.body.length + 64, max: 500 });
+const analysisCache = new LRUCache<string, SerialisedAnalysis>({
+  maxSize: 32 * 1024 * 1024,
+  sizeCalculation: (v) => v.body.length + 64,
+  max: 500,
+});
 
 /** For tests: forget every cached analysis. */
 export function clearAnalysisCache(): void {
@@ -257,13 +314,21 @@ export function clearAnalysisCache(): void {
  * of its runs or the query changes. The body carries nothing about the caller (no role), so one
  * entry serves every member who may read the campaign; authorization runs before this.
  */
-export async function serialisedCampaignAnalysis(db: Knex, projectId: string, campaignId: string, query: AnalysisQuery): Promise<SerialisedAnalysis> {
+export async function serialisedCampaignAnalysis(
+  db: Knex,
+  projectId: string,
+  campaignId: string,
+  query: AnalysisQuery,
+): Promise<SerialisedAnalysis> {
   const options = analysisOptions(query);
   const [campaign, stamp] = await Promise.all([
     getCampaign(db, projectId, campaignId),
     db('measurements')
       .where({ campaignId })
-      .first<{ n: number; digest: string | null }>(db.raw('count(*)::int as n'), db.raw("md5(string_agg(id::text || ':' || version::text, ',' order by id)) as digest")),
+      .first<{ n: number; digest: string | null }>(
+        db.raw('count(*)::int as n'),
+        db.raw("md5(string_agg(id::text || ':' || version::text, ',' order by id)) as digest"),
+      ),
   ]);
   const key = JSON.stringify([campaign.id, campaign.version, stamp?.n ?? 0, stamp?.digest ?? '', options]);
   const cached = analysisCache.get(key);
@@ -312,9 +377,10 @@ export async function saveCampaignForecast(
   const temperatureK = toKelvin(input.temperature.value, input.temperature.unit);
   const analysis = computeAnalysis(campaign, measurements, { ...fitOptions, atK: temperatureK });
   if (!analysis.fit || !analysis.at) {
-    throw new UnprocessableError(`No forecast can be made from this campaign yet: ${analysis.problem?.message ?? 'the data cannot be fitted'}`, [
-      { path: 'temperature', message: analysis.problem?.message ?? 'no fit' },
-    ]);
+    throw new UnprocessableError(
+      `No forecast can be made from this campaign yet: ${analysis.problem?.message ?? 'the data cannot be fitted'}`,
+      [{ path: 'temperature', message: analysis.problem?.message ?? 'no fit' }],
+    );
   }
   const { fit } = analysis;
   const snapshot: ForecastSnapshot = {
@@ -331,7 +397,12 @@ export async function saveCampaignForecast(
       warnings: fit.warnings.map((w) => w.code),
     },
   };
-  const saved = await saveForecast(db, actor, campaignId, { temperatureK, label: input.label, notes: input.notes, result: snapshot as unknown as Record<string, unknown> });
+  const saved = await saveForecast(db, actor, campaignId, {
+    temperatureK,
+    label: input.label,
+    notes: input.notes,
+    result: snapshot as unknown as Record<string, unknown>,
+  });
   const [view] = await forecastViews(db, campaign, [saved], measurements);
   return view!;
 }
@@ -351,9 +422,16 @@ function insideInterval(prediction: FitPrediction, m: Measurement, ratio: number
   return ratio >= lo && ratio <= hi;
 }
 
-async function forecastViews(db: Knex, campaign: Campaign, forecasts: SavedForecast[], measurements: Measurement[]): Promise<SavedForecastView[]> {
+async function forecastViews(
+  db: Knex,
+  campaign: Campaign,
+  forecasts: SavedForecast[],
+  measurements: Measurement[],
+): Promise<SavedForecastView[]> {
   const userIds = [...new Set(forecasts.map((f) => f.createdByUserId).filter((id): id is string => id !== null))];
-  const users: { id: string; login: string; displayName: string | null }[] = userIds.length ? await db('users').whereIn('id', userIds).select('id', 'login', 'displayName') : [];
+  const users: { id: string; login: string; displayName: string | null }[] = userIds.length
+    ? await db('users').whereIn('id', userIds).select('id', 'login', 'displayName')
+    : [];
   const byId = new Map(users.map((u) => [u.id, u]));
   const included = measurements.filter((m) => !m.excluded);
   return forecasts.map((f) => {
@@ -365,7 +443,13 @@ async function forecastViews(db: Knex, campaign: Campaign, forecasts: SavedForec
       .filter((m) => Math.abs(m.temperatureK - f.temperatureK) <= MEASURED_MATCH_K)
       .map((m) => {
         const ratio = parseSelectivity(selectivityOf(m));
-        return { measurementId: m.id, kelvin: m.temperatureK, eePercent: eeFromLnRatio(Math.log(ratio)), ratio, insidePredictionInterval: insideInterval(result, m, ratio) };
+        return {
+          measurementId: m.id,
+          kelvin: m.temperatureK,
+          eePercent: eeFromLnRatio(Math.log(ratio)),
+          ratio,
+          insidePredictionInterval: insideInterval(result, m, ratio),
+        };
       });
     const creator = f.createdByUserId ? byId.get(f.createdByUserId) : undefined;
     return {

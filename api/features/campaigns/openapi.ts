@@ -1,9 +1,24 @@
 import { z } from 'zod';
 import type { OpenApiRegistrar } from '../../lib/openapi';
 import { problemResponses } from '../../lib/openapi';
-import { analysisQuerySchema, analysisResponseSchema, comparisonQuerySchema, comparisonResponseSchema, savedForecastListSchema, savedForecastViewSchema } from './analysis-schemas';
+import {
+  analysisQuerySchema,
+  analysisResponseSchema,
+  comparisonQuerySchema,
+  comparisonResponseSchema,
+  savedForecastListSchema,
+  savedForecastViewSchema,
+} from './analysis-schemas';
 import { reportMailSchema } from './report-service';
-import { campaignCreateSchema, campaignReopenSchema, campaignSignOffSchema, campaignUpdateSchema, measurementCreateSchema, measurementUpdateSchema, savedForecastCreateSchema } from './schemas';
+import {
+  campaignCreateSchema,
+  campaignReopenSchema,
+  campaignSignOffSchema,
+  campaignUpdateSchema,
+  measurementCreateSchema,
+  measurementUpdateSchema,
+  savedForecastCreateSchema,
+} from './schemas';
 
 const campaignIdParams = z.object({ campaignId: z.string().uuid() });
 const signedIn: Record<string, string[]>[] = [{ session: [] }, { bearer: [] }];
@@ -23,7 +38,10 @@ export const registerCampaigns: OpenApiRegistrar = (registry) => {
     security: signedIn,
     request: { params: campaignIdParams, query: analysisQuerySchema },
     responses: {
-      200: { description: 'The analysis (fit is null with a problem when the runs cannot be fitted)', content: { 'application/json': { schema: analysisResponseSchema } } },
+      200: {
+        description: 'The analysis (fit is null with a problem when the runs cannot be fitted)',
+        content: { 'application/json': { schema: analysisResponseSchema } },
+      },
       304: { description: 'Unchanged since the ETag sent in If-None-Match' },
       ...problemResponses(400, 401, 404),
     },
@@ -35,14 +53,18 @@ export const registerCampaigns: OpenApiRegistrar = (registry) => {
     summary: 'Saved forecasts, each compared with runs measured within ±1 K since',
     security: signedIn,
     request: { params: campaignIdParams },
-    responses: { 200: { description: 'Newest first', content: { 'application/json': { schema: savedForecastListSchema } } }, ...problemResponses(401, 404) },
+    responses: {
+      200: { description: 'Newest first', content: { 'application/json': { schema: savedForecastListSchema } } },
+      ...problemResponses(401, 404),
+    },
   });
   registry.registerPath({
     method: 'post',
     path: '/api/v1/campaigns/{campaignId}/forecasts',
     tags: ['Campaigns'],
     summary: 'Save a forecast computed by the server from the stored runs',
-    description: 'The prediction is computed here from the data as stored now (optional query weighting, uncertaintyScale, confidence as for the analysis) and kept as a snapshot with who saved it and when. Needs editor.',
+    description:
+      'The prediction is computed here from the data as stored now (optional query weighting, uncertaintyScale, confidence as for the analysis) and kept as a snapshot with who saved it and when. Needs editor.',
     security: signedIn,
     request: { params: campaignIdParams, body: { content: { 'application/json': { schema: savedForecastCreateSchema } } } },
     responses: {
@@ -57,20 +79,29 @@ export const registerCampaigns: OpenApiRegistrar = (registry) => {
     summary: "A project's campaigns side by side at one temperature",
     security: signedIn,
     request: { params: z.object({ projectId: z.string().uuid() }), query: comparisonQuerySchema },
-    responses: { 200: { description: 'One entry per campaign', content: { 'application/json': { schema: comparisonResponseSchema } } }, ...problemResponses(400, 401, 404) },
+    responses: {
+      200: { description: 'One entry per campaign', content: { 'application/json': { schema: comparisonResponseSchema } } },
+      ...problemResponses(400, 401, 404),
+    },
   });
-  const reportQuery = z.object({ at: z.number().optional().meta({ description: 'Temperature (°C) to forecast at; omitted → the newest saved forecast' }) });
+  const reportQuery = z.object({
+    at: z.number().optional().meta({ description: 'Temperature (°C) to forecast at; omitted → the newest saved forecast' }),
+  });
   const binary = z.string().meta({ format: 'binary' });
   registry.registerPath({
     method: 'get',
     path: '/api/v1/campaigns/{campaignId}/report.xlsx',
     tags: ['Campaigns'],
     summary: 'Workbook: Summary (one printed page), Charts, Measurements, Fit, Forecast (every 5 °C plus saved forecasts)',
-    description: 'Numbers stay numbers with formats from the assay precision; key results carry defined names (ddH_kJ_per_mol, ddS_J_per_mol_K, Forecast_ratio, Runs_fitted, …). Needs viewer.',
+    description:
+      'Numbers stay numbers with formats from the assay precision; key results carry defined names (ddH_kJ_per_mol, ddS_J_per_mol_K, Forecast_ratio, Runs_fitted, …). Needs viewer.',
     security: signedIn,
     request: { params: campaignIdParams, query: reportQuery },
     responses: {
-      200: { description: 'An .xlsx workbook', content: { 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet': { schema: binary } } },
+      200: {
+        description: 'An .xlsx workbook',
+        content: { 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet': { schema: binary } },
+      },
       ...problemResponses(400, 401, 404),
     },
   });
@@ -111,7 +142,11 @@ export const registerCampaigns: OpenApiRegistrar = (registry) => {
     responses: {
       200: {
         description: 'Sent',
-        content: { 'application/json': { schema: z.object({ sentTo: z.array(z.object({ userId: z.string(), email: z.string() })), attachments: z.array(z.string()) }) } },
+        content: {
+          'application/json': {
+            schema: z.object({ sentTo: z.array(z.object({ userId: z.string(), email: z.string() })), attachments: z.array(z.string()) }),
+          },
+        },
       },
       ...problemResponses(400, 401, 403, 404, 429),
     },
@@ -122,7 +157,10 @@ export const registerCampaigns: OpenApiRegistrar = (registry) => {
     tags: ['Campaigns'],
     summary: 'Create a campaign',
     security: signedIn,
-    request: { params: z.object({ projectId: z.string().uuid() }), body: { content: { 'application/json': { schema: campaignCreateSchema } } } },
+    request: {
+      params: z.object({ projectId: z.string().uuid() }),
+      body: { content: { 'application/json': { schema: campaignCreateSchema } } },
+    },
     responses: { 201: { description: 'The campaign' }, ...problemResponses(400, 401, 403, 404, 409) },
   });
   registry.registerPath({
@@ -150,7 +188,10 @@ export const registerCampaigns: OpenApiRegistrar = (registry) => {
     summary: 'Change a stored run; `reason` is required and kept in the history',
     description: 'Refused with 409 while the campaign is signed off.',
     security: signedIn,
-    request: { params: z.object({ measurementId: z.string().uuid() }), body: { content: { 'application/json': { schema: measurementUpdateSchema } } } },
+    request: {
+      params: z.object({ measurementId: z.string().uuid() }),
+      body: { content: { 'application/json': { schema: measurementUpdateSchema } } },
+    },
     responses: { 200: { description: 'The measurement' }, ...problemResponses(400, 401, 403, 404, 409) },
   });
   registry.registerPath({
@@ -166,8 +207,9 @@ export const registerCampaigns: OpenApiRegistrar = (registry) => {
     method: 'post',
     path: '/api/v1/campaigns/{campaignId}/sign-off',
     tags: ['Campaigns'],
-    summary: "Sign a campaign off; its measurements are locked until reopened",
-    description: 'The person signing must be an owner or editor other than the last person who changed the campaign or its runs (409 otherwise). Needs editor.',
+    summary: 'Sign a campaign off; its measurements are locked until reopened',
+    description:
+      'The person signing must be an owner or editor other than the last person who changed the campaign or its runs (409 otherwise). Needs editor.',
     security: signedIn,
     request: { params: campaignIdParams, body: { content: { 'application/json': { schema: campaignSignOffSchema } } } },
     responses: { 200: { description: 'The campaign with `signOff` (who, when, note)' }, ...problemResponses(400, 401, 403, 404, 409) },

@@ -44,7 +44,8 @@ export function niceTicks(lo: number, hi: number, count = 6): number[] {
   return out;
 }
 
-const tickDecimals = (ticks: number[]) => (ticks.length < 2 ? 1 : Math.max(0, Math.ceil(-Math.log10(Math.abs(ticks[1]! - ticks[0]!)) - 1e-9)));
+const tickDecimals = (ticks: number[]) =>
+  ticks.length < 2 ? 1 : Math.max(0, Math.ceil(-Math.log10(Math.abs(ticks[1]! - ticks[0]!)) - 1e-9));
 
 interface Frame {
   x: (v: number) => number;
@@ -66,16 +67,24 @@ function frame(title: string, xLabel: string, yLabel: string, xr: [number, numbe
   for (const t of xt) {
     const px = x(t).toFixed(1);
     parts.push(`<line x1="${px}" x2="${px}" y1="${M.top}" y2="${M.top + h}" stroke="${colors.grid}"/>`);
-    parts.push(`<text x="${px}" y="${M.top + h + 16}" font-size="11" fill="${colors.inkSoft}" text-anchor="middle">${esc(fixed(t, xd))}</text>`);
+    parts.push(
+      `<text x="${px}" y="${M.top + h + 16}" font-size="11" fill="${colors.inkSoft}" text-anchor="middle">${esc(fixed(t, xd))}</text>`,
+    );
   }
   for (const t of yt) {
     const py = y(t).toFixed(1);
     parts.push(`<line x1="${M.left}" x2="${M.left + w}" y1="${py}" y2="${py}" stroke="${colors.grid}"/>`);
-    parts.push(`<text x="${M.left - 6}" y="${(y(t) + 4).toFixed(1)}" font-size="11" fill="${colors.inkSoft}" text-anchor="end">${esc(fixed(t, yd))}</text>`);
+    parts.push(
+      `<text x="${M.left - 6}" y="${(y(t) + 4).toFixed(1)}" font-size="11" fill="${colors.inkSoft}" text-anchor="end">${esc(fixed(t, yd))}</text>`,
+    );
   }
   parts.push(`<rect x="${M.left}" y="${M.top}" width="${w}" height="${h}" fill="none" stroke="${colors.inkSoft}"/>`);
-  parts.push(`<text x="${M.left + w / 2}" y="${M.top + h + 36}" font-size="12" fill="${colors.ink}" text-anchor="middle">${esc(xLabel)}</text>`);
-  parts.push(`<text transform="translate(16 ${M.top + h / 2}) rotate(-90)" font-size="12" fill="${colors.ink}" text-anchor="middle">${esc(yLabel)}</text>`);
+  parts.push(
+    `<text x="${M.left + w / 2}" y="${M.top + h + 36}" font-size="12" fill="${colors.ink}" text-anchor="middle">${esc(xLabel)}</text>`,
+  );
+  parts.push(
+    `<text transform="translate(16 ${M.top + h / 2}) rotate(-90)" font-size="12" fill="${colors.ink}" text-anchor="middle">${esc(yLabel)}</text>`,
+  );
   return { x, y, parts };
 }
 
@@ -105,7 +114,9 @@ function legend(items: LegendItem[]): string {
       x = M.left;
       y += 20;
     }
-    out.push(`<g transform="translate(${x} ${y})">${it.swatch}<text x="22" y="4" font-size="11" fill="${colors.ink}">${esc(it.label)}</text></g>`);
+    out.push(
+      `<g transform="translate(${x} ${y})">${it.swatch}<text x="22" y="4" font-size="11" fill="${colors.ink}">${esc(it.label)}</text></g>`,
+    );
     x += w;
   }
   return out.join('');
@@ -124,9 +135,12 @@ const SW = {
 };
 
 function pointMark(px: number, py: number, status: string, flagged: boolean): string {
-  const ring = flagged ? `<circle cx="${px.toFixed(1)}" cy="${py.toFixed(1)}" r="8" fill="none" stroke="${colors.flagRing}" stroke-width="1.5"/>` : '';
+  const ring = flagged
+    ? `<circle cx="${px.toFixed(1)}" cy="${py.toFixed(1)}" r="8" fill="none" stroke="${colors.flagRing}" stroke-width="1.5"/>`
+    : '';
   if (status === 'censored') return `${ring}<path d="M${px.toFixed(1)} ${(py - 5).toFixed(1)} l5 5 l-5 5 l-5 -5 Z" fill="${colors.ink}"/>`;
-  if (status === 'excluded') return `${ring}<circle cx="${px.toFixed(1)}" cy="${py.toFixed(1)}" r="4" fill="#fff" stroke="${colors.inkSoft}" stroke-width="1.5"/>`;
+  if (status === 'excluded')
+    return `${ring}<circle cx="${px.toFixed(1)}" cy="${py.toFixed(1)}" r="4" fill="#fff" stroke="${colors.inkSoft}" stroke-width="1.5"/>`;
   return `${ring}<circle cx="${px.toFixed(1)}" cy="${py.toFixed(1)}" r="4" fill="${colors.ink}" stroke="#fff" stroke-width="0.75"/>`;
 }
 
@@ -187,13 +201,30 @@ export function eyringChartSvg(model: ReportModel): string {
   const body: string[] = [];
   const withPi = curve.filter((p) => p.predictionInterval);
   if (withPi.length > 1) {
-    body.push(`<path d="${band(f, withPi.map((p) => 1000 / p.kelvin), withPi.map((p) => lnRange(p.predictionInterval!)[0]), withPi.map((p) => lnRange(p.predictionInterval!)[1]))}" fill="${colors.predictionFill}" fill-opacity="0.22"/>`);
+    body.push(
+      `<path d="${band(
+        f,
+        withPi.map((p) => 1000 / p.kelvin),
+        withPi.map((p) => lnRange(p.predictionInterval!)[0]),
+        withPi.map((p) => lnRange(p.predictionInterval!)[1]),
+      )}" fill="${colors.predictionFill}" fill-opacity="0.22"/>`,
+    );
   }
   const withCi = curve.filter((p) => p.confidenceInterval);
   if (withCi.length > 1) {
-    body.push(`<path d="${band(f, withCi.map((p) => 1000 / p.kelvin), withCi.map((p) => lnRange(p.confidenceInterval!)[0]), withCi.map((p) => lnRange(p.confidenceInterval!)[1]))}" fill="${colors.confidenceFill}" fill-opacity="0.25"/>`);
+    body.push(
+      `<path d="${band(
+        f,
+        withCi.map((p) => 1000 / p.kelvin),
+        withCi.map((p) => lnRange(p.confidenceInterval!)[0]),
+        withCi.map((p) => lnRange(p.confidenceInterval!)[1]),
+      )}" fill="${colors.confidenceFill}" fill-opacity="0.25"/>`,
+    );
   }
-  if (curve.length > 1) body.push(`<path d="${polyline(curve.map((p) => [f.x(1000 / p.kelvin), f.y(lnOf(p))]))}" fill="none" stroke="${colors.accent}" stroke-width="2"/>`);
+  if (curve.length > 1)
+    body.push(
+      `<path d="${polyline(curve.map((p) => [f.x(1000 / p.kelvin), f.y(lnOf(p))]))}" fill="none" stroke="${colors.accent}" stroke-width="2"/>`,
+    );
   const tb = model.fit?.twoBranch;
   if (tb?.checked && tb.preferred === 'two-branch' && tb.low && tb.high) {
     for (const b of [tb.low, tb.high]) {
@@ -203,7 +234,9 @@ export function eyringChartSvg(model: ReportModel): string {
   }
   if (model.specificationLnRatio !== null) {
     const py = f.y(model.specificationLnRatio).toFixed(1);
-    body.push(`<line x1="${M.left}" x2="${CHART_WIDTH - M.right}" y1="${py}" y2="${py}" stroke="${colors.caution}" stroke-width="1.5" stroke-dasharray="6 3"/>`);
+    body.push(
+      `<line x1="${M.left}" x2="${CHART_WIDTH - M.right}" y1="${py}" y2="${py}" stroke="${colors.caution}" stroke-width="1.5" stroke-dasharray="6 3"/>`,
+    );
   }
   body.push(marks(pts.map((p) => [f.x(1000 / p.kelvin), f.y(p.lnRatio), p.status, p.flagged])));
   return svg([...f.parts, `<g>${body.join('')}</g>`, legend(legendFor(model, model.specificationLnRatio !== null))]);
@@ -221,29 +254,60 @@ export function selectivityChartSvg(model: ReportModel): string {
   const curve = analysis.curve;
   const pts = analysis.points;
   const xr = range([...curve.map((p) => p.celsius), ...pts.map((p) => p.celsius)], 0.03);
-  const yVals = [...pts.map((p) => toY(p.lnRatio)), ...curve.flatMap((p) => (p.predictionInterval ? lnRange(p.predictionInterval).map(toY) : [toY(lnOf(p))]))];
+  const yVals = [
+    ...pts.map((p) => toY(p.lnRatio)),
+    ...curve.flatMap((p) => (p.predictionInterval ? lnRange(p.predictionInterval).map(toY) : [toY(lnOf(p))])),
+  ];
   if (model.specificationLnRatio !== null) yVals.push(toY(model.specificationLnRatio));
   const yr = range(yVals);
-  const f = frame(`Selectivity against temperature (${model.labels.word})`, 'T (°C)', yLabel, xr, [Math.max(yr[0], family === 'ratio' ? 0 : -100), Math.min(yr[1], 100)]);
+  const f = frame(`Selectivity against temperature (${model.labels.word})`, 'T (°C)', yLabel, xr, [
+    Math.max(yr[0], family === 'ratio' ? 0 : -100),
+    Math.min(yr[1], 100),
+  ]);
   const body: string[] = [];
   const withPi = curve.filter((p) => p.predictionInterval);
   if (withPi.length > 1) {
-    body.push(`<path d="${band(f, withPi.map((p) => p.celsius), withPi.map((p) => toY(lnRange(p.predictionInterval!)[0])), withPi.map((p) => toY(lnRange(p.predictionInterval!)[1])))}" fill="${colors.predictionFill}" fill-opacity="0.22"/>`);
+    body.push(
+      `<path d="${band(
+        f,
+        withPi.map((p) => p.celsius),
+        withPi.map((p) => toY(lnRange(p.predictionInterval!)[0])),
+        withPi.map((p) => toY(lnRange(p.predictionInterval!)[1])),
+      )}" fill="${colors.predictionFill}" fill-opacity="0.22"/>`,
+    );
   }
   const withCi = curve.filter((p) => p.confidenceInterval);
   if (withCi.length > 1) {
-    body.push(`<path d="${band(f, withCi.map((p) => p.celsius), withCi.map((p) => toY(lnRange(p.confidenceInterval!)[0])), withCi.map((p) => toY(lnRange(p.confidenceInterval!)[1])))}" fill="${colors.confidenceFill}" fill-opacity="0.25"/>`);
+    body.push(
+      `<path d="${band(
+        f,
+        withCi.map((p) => p.celsius),
+        withCi.map((p) => toY(lnRange(p.confidenceInterval!)[0])),
+        withCi.map((p) => toY(lnRange(p.confidenceInterval!)[1])),
+      )}" fill="${colors.confidenceFill}" fill-opacity="0.25"/>`,
+    );
   }
-  if (curve.length > 1) body.push(`<path d="${polyline(curve.map((p) => [f.x(p.celsius), f.y(toY(lnOf(p)))]))}" fill="none" stroke="${colors.accent}" stroke-width="2"/>`);
+  if (curve.length > 1)
+    body.push(
+      `<path d="${polyline(curve.map((p) => [f.x(p.celsius), f.y(toY(lnOf(p)))]))}" fill="none" stroke="${colors.accent}" stroke-width="2"/>`,
+    );
   if (model.specificationLnRatio !== null) {
     const py = f.y(toY(model.specificationLnRatio));
-    body.push(`<line x1="${M.left}" x2="${CHART_WIDTH - M.right}" y1="${py.toFixed(1)}" y2="${py.toFixed(1)}" stroke="${colors.caution}" stroke-width="1.5" stroke-dasharray="6 3"/>`);
-    body.push(`<text x="${CHART_WIDTH - M.right - 4}" y="${(py - 5).toFixed(1)}" font-size="11" fill="${colors.caution}" text-anchor="end">${esc(`specification: ${model.specificationText}`)}</text>`);
+    body.push(
+      `<line x1="${M.left}" x2="${CHART_WIDTH - M.right}" y1="${py.toFixed(1)}" y2="${py.toFixed(1)}" stroke="${colors.caution}" stroke-width="1.5" stroke-dasharray="6 3"/>`,
+    );
+    body.push(
+      `<text x="${CHART_WIDTH - M.right - 4}" y="${(py - 5).toFixed(1)}" font-size="11" fill="${colors.caution}" text-anchor="end">${esc(`specification: ${model.specificationText}`)}</text>`,
+    );
   }
   if (model.proposed) {
     const px = f.x(model.proposed.prediction.celsius).toFixed(1);
-    body.push(`<line x1="${px}" x2="${px}" y1="${M.top}" y2="${CHART_HEIGHT - M.bottom}" stroke="${colors.inkSoft}" stroke-dasharray="2 3"/>`);
-    body.push(`<text x="${(Number(px) + 4).toFixed(1)}" y="${M.top + 12}" font-size="11" fill="${colors.inkSoft}">${esc(`proposed ${fixed(model.proposed.prediction.celsius, 1)} °C`)}</text>`);
+    body.push(
+      `<line x1="${px}" x2="${px}" y1="${M.top}" y2="${CHART_HEIGHT - M.bottom}" stroke="${colors.inkSoft}" stroke-dasharray="2 3"/>`,
+    );
+    body.push(
+      `<text x="${(Number(px) + 4).toFixed(1)}" y="${M.top + 12}" font-size="11" fill="${colors.inkSoft}">${esc(`proposed ${fixed(model.proposed.prediction.celsius, 1)} °C`)}</text>`,
+    );
   }
   body.push(marks(pts.map((p) => [f.x(p.celsius), f.y(toY(p.lnRatio)), p.status, p.flagged])));
   return svg([...f.parts, `<g>${body.join('')}</g>`, legend(legendFor(model, model.specificationLnRatio !== null))]);
@@ -261,12 +325,15 @@ export function windowChartSvg(model: ReportModel): string | null {
   const xr: [number, number] = [rows[0]!.celsius, rows[rows.length - 1]!.celsius];
   const f = frame('Operating window: probability a new run meets the specification', 'T (°C)', 'probability (%)', xr, [0, 100]);
   const body: string[] = [];
-  body.push(`<defs><pattern id="hatch" width="8" height="8" patternUnits="userSpaceOnUse" patternTransform="rotate(45)"><line x1="0" y1="0" x2="0" y2="8" stroke="${colors.inkSoft}" stroke-width="1.5" stroke-opacity="0.45"/></pattern></defs>`);
+  body.push(
+    `<defs><pattern id="hatch" width="8" height="8" patternUnits="userSpaceOnUse" patternTransform="rotate(45)"><line x1="0" y1="0" x2="0" y2="8" stroke="${colors.inkSoft}" stroke-width="1.5" stroke-opacity="0.45"/></pattern></defs>`,
+  );
   // Contiguous stretches where some constraint fails, each drawn from midpoint to midpoint of the grid.
-  const edge = (i: number) => (i <= 0 ? rows[0]!.celsius : i >= rows.length ? rows[rows.length - 1]!.celsius : (rows[i - 1]!.celsius + rows[i]!.celsius) / 2);
+  const edge = (i: number) =>
+    i <= 0 ? rows[0]!.celsius : i >= rows.length ? rows[rows.length - 1]!.celsius : (rows[i - 1]!.celsius + rows[i]!.celsius) / 2;
   const top = M.top;
   const bottom = CHART_HEIGHT - M.bottom;
-  for (let i = 0; i < rows.length; ) {
+  for (let i = 0; i < rows.length;) {
     if (rows[i]!.feasible) {
       i++;
       continue;
@@ -275,38 +342,60 @@ export function windowChartSvg(model: ReportModel): string | null {
     while (j < rows.length && !rows[j]!.feasible) j++;
     const x0 = f.x(edge(i));
     const x1 = f.x(edge(j));
-    body.push(`<rect x="${x0.toFixed(1)}" y="${top}" width="${Math.max(0, x1 - x0).toFixed(1)}" height="${bottom - top}" fill="url(#hatch)"/>`);
+    body.push(
+      `<rect x="${x0.toFixed(1)}" y="${top}" width="${Math.max(0, x1 - x0).toFixed(1)}" height="${bottom - top}" fill="url(#hatch)"/>`,
+    );
     const failing = [...new Set(rows.slice(i, j).flatMap((r) => r.failing.split(', ').filter(Boolean)))].join(', ');
     if (x1 - x0 > 60 && failing) {
       const label = `excluded: ${failing}`;
       const mid = (x0 + x1) / 2;
       const w = label.length * 6.4 + 8;
-      body.push(`<rect x="${(mid - w / 2).toFixed(1)}" y="${bottom - 52}" width="${w.toFixed(1)}" height="16" fill="${colors.paper}" fill-opacity="0.9"/>`);
-      body.push(`<text x="${mid.toFixed(1)}" y="${bottom - 40}" font-size="11" fill="${colors.ink}" text-anchor="middle">${esc(label)}</text>`);
+      body.push(
+        `<rect x="${(mid - w / 2).toFixed(1)}" y="${bottom - 52}" width="${w.toFixed(1)}" height="16" fill="${colors.paper}" fill-opacity="0.9"/>`,
+      );
+      body.push(
+        `<text x="${mid.toFixed(1)}" y="${bottom - 40}" font-size="11" fill="${colors.ink}" text-anchor="middle">${esc(label)}</text>`,
+      );
     }
     i = j;
   }
   const required = 100 * plan.specification.probability;
   const py = f.y(required).toFixed(1);
-  body.push(`<line x1="${M.left}" x2="${CHART_WIDTH - M.right}" y1="${py}" y2="${py}" stroke="${colors.caution}" stroke-width="1.5" stroke-dasharray="6 3"/>`);
+  body.push(
+    `<line x1="${M.left}" x2="${CHART_WIDTH - M.right}" y1="${py}" y2="${py}" stroke="${colors.caution}" stroke-width="1.5" stroke-dasharray="6 3"/>`,
+  );
   const reqLabel = `required ${fixed(required, 1)} %`;
-  body.push(`<rect x="${CHART_WIDTH - M.right - 8 - reqLabel.length * 6.4}" y="${(Number(py) + 4).toFixed(1)}" width="${(reqLabel.length * 6.4 + 6).toFixed(1)}" height="15" fill="${colors.paper}" fill-opacity="0.9"/>`);
-  body.push(`<text x="${CHART_WIDTH - M.right - 4}" y="${(Number(py) + 15).toFixed(1)}" font-size="11" fill="${colors.caution}" text-anchor="end">${esc(reqLabel)}</text>`);
-  body.push(`<path d="${polyline(rows.map((r) => [f.x(r.celsius), f.y(100 * r.probabilityMeetsSpec)]))}" fill="none" stroke="${colors.accent}" stroke-width="2"/>`);
+  body.push(
+    `<rect x="${CHART_WIDTH - M.right - 8 - reqLabel.length * 6.4}" y="${(Number(py) + 4).toFixed(1)}" width="${(reqLabel.length * 6.4 + 6).toFixed(1)}" height="15" fill="${colors.paper}" fill-opacity="0.9"/>`,
+  );
+  body.push(
+    `<text x="${CHART_WIDTH - M.right - 4}" y="${(Number(py) + 15).toFixed(1)}" font-size="11" fill="${colors.caution}" text-anchor="end">${esc(reqLabel)}</text>`,
+  );
+  body.push(
+    `<path d="${polyline(rows.map((r) => [f.x(r.celsius), f.y(100 * r.probabilityMeetsSpec)]))}" fill="none" stroke="${colors.accent}" stroke-width="2"/>`,
+  );
   if (plan.recommended) {
     const px = f.x(plan.recommended.celsius);
     body.push(`<line x1="${px.toFixed(1)}" x2="${px.toFixed(1)}" y1="${top}" y2="${bottom}" stroke="${colors.ink}" stroke-width="1.5"/>`);
-    body.push(`<circle cx="${px.toFixed(1)}" cy="${f.y(100 * plan.recommended.probabilityMeetsSpec).toFixed(1)}" r="5" fill="${colors.ink}"/>`);
+    body.push(
+      `<circle cx="${px.toFixed(1)}" cy="${f.y(100 * plan.recommended.probabilityMeetsSpec).toFixed(1)}" r="5" fill="${colors.ink}"/>`,
+    );
     const anchor = px > CHART_WIDTH / 2 ? 'end' : 'start';
     const tx = px + (anchor === 'end' ? -6 : 6);
-    body.push(`<text x="${tx.toFixed(1)}" y="${bottom - 8}" font-size="11" font-weight="bold" fill="${colors.ink}" text-anchor="${anchor}">${esc(`recommended ${fixed(plan.recommended.celsius, 1)} °C`)}</text>`);
+    body.push(
+      `<text x="${tx.toFixed(1)}" y="${bottom - 8}" font-size="11" font-weight="bold" fill="${colors.ink}" text-anchor="${anchor}">${esc(`recommended ${fixed(plan.recommended.celsius, 1)} °C`)}</text>`,
+    );
   }
   const items: LegendItem[] = [
     { swatch: SW.line, label: 'probability a new run meets the specification' },
     { swatch: SW.spec, label: 'required probability' },
-    { swatch: `<rect x="0" y="-5" width="16" height="10" fill="none" stroke="${colors.inkSoft}"/><path d="M0 5 L10 -5 M6 5 L16 -5" stroke="${colors.inkSoft}"/>`, label: 'a constraint fails (hatched)' },
+    {
+      swatch: `<rect x="0" y="-5" width="16" height="10" fill="none" stroke="${colors.inkSoft}"/><path d="M0 5 L10 -5 M6 5 L16 -5" stroke="${colors.inkSoft}"/>`,
+      label: 'a constraint fails (hatched)',
+    },
   ];
-  if (plan.recommended) items.push({ swatch: `<line x1="8" x2="8" y1="-6" y2="6" stroke="${colors.ink}" stroke-width="1.5"/>`, label: 'recommended' });
+  if (plan.recommended)
+    items.push({ swatch: `<line x1="8" x2="8" y1="-6" y2="6" stroke="${colors.ink}" stroke-width="1.5"/>`, label: 'recommended' });
   return svg([...f.parts, `<g>${body.join('')}</g>`, legend(items)]);
 }
 
@@ -354,5 +443,9 @@ export async function renderReportChartsAsync(model: ReportModel, scale = 1.5): 
     renderAsync(selectivityChartSvg(model), renderOptions(scale)),
     w ? renderAsync(w, renderOptions(scale)) : Promise.resolve(null),
   ]);
-  return { eyring: Buffer.from(eyring.asPng()), selectivity: Buffer.from(selectivity.asPng()), window: window ? Buffer.from(window.asPng()) : null };
+  return {
+    eyring: Buffer.from(eyring.asPng()),
+    selectivity: Buffer.from(selectivity.asPng()),
+    window: window ? Buffer.from(window.asPng()) : null,
+  };
 }

@@ -76,7 +76,8 @@ export interface MeasureLabels {
 
 export function measureLabels(measure: SelectivityMeasure): MeasureLabels {
   const family = measureFamily(measure);
-  if (family === 'enantiomers') return { family, ratio: 'er (A:B)', excess: 'ee (%)', major: 'Major enantiomer (%)', word: measure === 'ee' ? 'ee' : 'er' };
+  if (family === 'enantiomers')
+    return { family, ratio: 'er (A:B)', excess: 'ee (%)', major: 'Major enantiomer (%)', word: measure === 'ee' ? 'ee' : 'er' };
   if (family === 'diastereomers') return { family, ratio: 'dr (A:B)', excess: 'de (%)', major: 'Major diastereomer (%)', word: 'dr' };
   return { family, ratio: 'Ratio A/B', excess: null, major: 'Major product (%)', word: 'ratio' };
 }

@@ -12,7 +12,18 @@ import type { FitResponse } from '../compute/schemas';
 import type { AnalysisResponse, SavedForecastView } from './analysis-schemas';
 import { assaySettings, toEngineMeasurements } from './analysis';
 import type { ComparisonReportData, PlanReportData } from '../plan/report-data';
-import { decimalsForSe, fixed, lnOf, lnRange, measureLabels, ratioOf, ratioRange, readSelectivity, selectivityDecimals, type MeasureLabels } from './report-format';
+import {
+  decimalsForSe,
+  fixed,
+  lnOf,
+  lnRange,
+  measureLabels,
+  ratioOf,
+  ratioRange,
+  readSelectivity,
+  selectivityDecimals,
+  type MeasureLabels,
+} from './report-format';
 
 export type FitPrediction = FitResponse['predictions'][number];
 
@@ -91,7 +102,10 @@ export const MEETS = {
 } as const;
 
 /** A forecast against ln r_spec: the whole prediction interval above, only the central value, or short. */
-export function meetsSpecification(p: Pick<FitPrediction, 'lnRatio' | 'ratio' | 'predictionInterval'>, specLn: number | null): string | null {
+export function meetsSpecification(
+  p: Pick<FitPrediction, 'lnRatio' | 'ratio' | 'predictionInterval'>,
+  specLn: number | null,
+): string | null {
   if (specLn === null) return null;
   if (!(lnOf(p) >= specLn)) return MEETS.short;
   const pi = p.predictionInterval;
@@ -122,7 +136,13 @@ export interface ReportModel {
 export const GRID_STEP_C = 5;
 const MAX_LISTED_EXCLUSIONS = 8;
 
-const ASSAY_NAMES: Record<string, string> = { 'chiral-hplc': 'chiral HPLC', 'chiral-sfc': 'chiral SFC', 'chiral-gc': 'chiral GC', nmr: 'NMR', other: 'other method' };
+const ASSAY_NAMES: Record<string, string> = {
+  'chiral-hplc': 'chiral HPLC',
+  'chiral-sfc': 'chiral SFC',
+  'chiral-gc': 'chiral GC',
+  nmr: 'NMR',
+  other: 'other method',
+};
 
 export function celsiusText(celsius: number, decimals = 1): string {
   return `${fixed(celsius, decimals)} °C`;
@@ -149,7 +169,11 @@ export function roundGridC(data: Pick<ReportData, 'measurements' | 'jacketRangeC
   return out;
 }
 
-function specificationOf(spec: ReportSpecification | null | undefined, labels: MeasureLabels, dec: { percent: number; ratio: number }): { lnRatio: number | null; text: string } {
+function specificationOf(
+  spec: ReportSpecification | null | undefined,
+  labels: MeasureLabels,
+  dec: { percent: number; ratio: number },
+): { lnRatio: number | null; text: string } {
   if (!spec) return { lnRatio: null, text: 'no specification set' };
   let lnRatio: number | null = null;
   try {
@@ -164,7 +188,9 @@ function specificationOf(spec: ReportSpecification | null | undefined, labels: M
       : spec.measure === 'dr'
         ? `dr ≥ ${fixed(spec.minimum, Math.max(dec.ratio, spec.minimum % 1 === 0 ? 0 : 1))}:1`
         : `${spec.measure === 'er' ? 'er' : 'major isomer'} ≥ ${pct(spec.minimum)}:${pct(100 - spec.minimum)}`;
-  const sure = spec.probability ? `, with probability ${fixed(spec.probability, 3).replace(/0+$/, '')} that ${spec.runs && spec.runs > 1 ? `the mean of ${spec.runs} new runs` : 'a new run'} meets it` : '';
+  const sure = spec.probability
+    ? `, with probability ${fixed(spec.probability, 3).replace(/0+$/, '')} that ${spec.runs && spec.runs > 1 ? `the mean of ${spec.runs} new runs` : 'a new run'} meets it`
+    : '';
   const from = spec.source ? ` (${spec.source === 'campaign' ? "the campaign's own" : "the project's default"})` : '';
   const base = `${shown}${sure}${from}`;
   return { lnRatio, text: spec.text ? `${base}; ${spec.text}` : base };
@@ -208,8 +234,22 @@ function curvatureLines(fit: FitResponse): SummaryLine[] {
       unit: '°C',
       name: 'Break_T_C',
     });
-    lines.push({ section: 'Fit', label: 'Low-temperature branch ΔΔH‡', value: tb.low.ddH['kJ/mol'], decimals: 1, se: tb.low.ddH.se?.['kJ/mol'] ?? null, unit: 'kJ/mol' });
-    lines.push({ section: 'Fit', label: 'High-temperature branch ΔΔH‡', value: tb.high.ddH['kJ/mol'], decimals: 1, se: tb.high.ddH.se?.['kJ/mol'] ?? null, unit: 'kJ/mol' });
+    lines.push({
+      section: 'Fit',
+      label: 'Low-temperature branch ΔΔH‡',
+      value: tb.low.ddH['kJ/mol'],
+      decimals: 1,
+      se: tb.low.ddH.se?.['kJ/mol'] ?? null,
+      unit: 'kJ/mol',
+    });
+    lines.push({
+      section: 'Fit',
+      label: 'High-temperature branch ΔΔH‡',
+      value: tb.high.ddH['kJ/mol'],
+      decimals: 1,
+      se: tb.high.ddH.se?.['kJ/mol'] ?? null,
+      unit: 'kJ/mol',
+    });
   }
   return lines;
 }
@@ -219,15 +259,41 @@ function planLines(plan: PlanReportData): SummaryLine[] {
   const lines: SummaryLine[] = [];
   const section = 'Plan';
   if (plan.recommended) {
-    lines.push({ section, label: 'Recommended temperature', value: plan.recommended.celsius, decimals: 1, unit: '°C', name: 'Recommended_T_C' });
+    lines.push({
+      section,
+      label: 'Recommended temperature',
+      value: plan.recommended.celsius,
+      decimals: 1,
+      unit: '°C',
+      name: 'Recommended_T_C',
+    });
     lines.push({ section, label: 'Rule', value: plan.rule });
-    lines.push({ section, label: 'Probability a new run meets the specification there', value: plan.recommended.probabilityMeetsSpec, decimals: 3, unit: '−', name: 'Recommended_probability' });
+    lines.push({
+      section,
+      label: 'Probability a new run meets the specification there',
+      value: plan.recommended.probabilityMeetsSpec,
+      decimals: 3,
+      unit: '−',
+      name: 'Recommended_probability',
+    });
   } else {
-    lines.push({ section, label: 'Recommended temperature', value: `none: ${plan.conflict ?? 'no temperature in the allowed range meets every constraint'}` });
+    lines.push({
+      section,
+      label: 'Recommended temperature',
+      value: `none: ${plan.conflict ?? 'no temperature in the allowed range meets every constraint'}`,
+    });
   }
-  lines.push({ section, label: 'Operating window', value: plan.window ? `${celsiusText(plan.window.fromCelsius)} to ${celsiusText(plan.window.toCelsius)}` : 'none in the allowed range' });
+  lines.push({
+    section,
+    label: 'Operating window',
+    value: plan.window ? `${celsiusText(plan.window.fromCelsius)} to ${celsiusText(plan.window.toCelsius)}` : 'none in the allowed range',
+  });
   lines.push({ section, label: 'Binding constraints', value: plan.binding.length ? plan.binding.join(', ') : 'none' });
-  lines.push({ section, label: 'Saved plan', value: `version ${plan.version}, ${plan.updatedAt.slice(0, 16).replace('T', ' ')} UTC (details on the Plan sheet)` });
+  lines.push({
+    section,
+    label: 'Saved plan',
+    value: `version ${plan.version}, ${plan.updatedAt.slice(0, 16).replace('T', ' ')} UTC (details on the Plan sheet)`,
+  });
   return lines;
 }
 
@@ -264,16 +330,30 @@ export function buildReportModel(data: ReportData, meta: ReportMeta): ReportMode
     const engine = toEngineMeasurements(campaign, data.measurements);
     // The campaign's own assay settings (new-run precision, quantitation limit), as on the campaign page.
     const options = { weighting: fit.weighting, uncertaintyScale: 'absolute' as const, confidence: fit.confidence };
-    const predictions = temps.length ? analyseScreen(engine, { ...options, ...assaySettings(campaign, data.measurements, options) }, temps).predictions : [];
+    const predictions = temps.length
+      ? analyseScreen(engine, { ...options, ...assaySettings(campaign, data.measurements, options) }, temps).predictions
+      : [];
     const meets = (p: FitPrediction) => meetsSpecification(p, spec.lnRatio);
     gridC.forEach((_, i) => grid.push({ source: 'grid', note: null, prediction: predictions[i]!, meets: meets(predictions[i]!) }));
-    saved.forEach((f, i) => grid.push({ source: 'saved', note: f.label ?? `saved ${f.createdAt.slice(0, 10)}`, prediction: predictions[gridC.length + i]!, meets: meets(predictions[gridC.length + i]!) }));
+    saved.forEach((f, i) =>
+      grid.push({
+        source: 'saved',
+        note: f.label ?? `saved ${f.createdAt.slice(0, 10)}`,
+        prediction: predictions[gridC.length + i]!,
+        meets: meets(predictions[gridC.length + i]!),
+      }),
+    );
     if (recommendedK !== null) {
       const p = predictions[gridC.length + saved.length]!;
       grid.push({ source: 'recommended', note: 'recommended by the saved plan', prediction: p, meets: meets(p) });
     }
     if (proposedK !== null) {
-      proposed = { source: 'proposed', note: 'proposed', prediction: predictions[predictions.length - 1]!, meets: meets(predictions[predictions.length - 1]!) };
+      proposed = {
+        source: 'proposed',
+        note: 'proposed',
+        prediction: predictions[predictions.length - 1]!,
+        meets: meets(predictions[predictions.length - 1]!),
+      };
       grid.push(proposed);
     }
     grid.sort((a, b) => a.prediction.kelvin - b.prediction.kelvin || a.source.localeCompare(b.source));
@@ -292,7 +372,11 @@ export function buildReportModel(data: ReportData, meta: ReportMeta): ReportMode
       : campaign.measure === 'ee' || campaign.measure === 'percentA'
         ? `± ${fixed(campaign.defaultUncertainty, Math.max(sel.percent, 1))} percentage points (1 SD)`
         : `± ${fixed(100 * campaign.defaultUncertainty, 1)} % of the ratio (1 SD)`;
-  add({ section: 'Campaign', label: 'Assay and precision', value: `${ASSAY_NAMES[campaign.assayMethod] ?? campaign.assayMethod}, reported as ${campaign.measure}; ${precision}` });
+  add({
+    section: 'Campaign',
+    label: 'Assay and precision',
+    value: `${ASSAY_NAMES[campaign.assayMethod] ?? campaign.assayMethod}, reported as ${campaign.measure}; ${precision}`,
+  });
   add({ section: 'Campaign', label: 'Specification', value: spec.text });
   if (data.plan) planLines(data.plan).forEach(add);
 
@@ -308,20 +392,101 @@ export function buildReportModel(data: ReportData, meta: ReportMeta): ReportMode
         labels.family === 'enantiomers'
           ? `${fixed(p.eePercent, sel.percent)} % ee (er ${r.ratioText})${pi ? ` (${level} % prediction interval ${fixed(pi.eePercent[0], sel.percent)} to ${fixed(pi.eePercent[1], sel.percent)} % ee)` : ''}`
           : `${r.ratioText}${labels.family === 'ratio' ? ' A:B' : ''}${pi ? ` (${level} % prediction interval ${readSelectivity(ratioRange(pi)[0], sel.ratio).ratioText} to ${readSelectivity(ratioRange(pi)[1], sel.ratio).ratioText})` : ''}`;
-      add({ section: 'Forecast', label: 'Proposed temperature', value: Math.round(p.celsius * 1e9) / 1e9, decimals: 1, unit: '°C', name: 'Proposed_T_C' });
-      add({ section: 'Forecast', label: `Forecast ${labels.word}`, value: `${headline}${p.extrapolated ? '; outside the screened range' : ''}${meets}` });
-      add({ section: 'Forecast', label: `Forecast ${labels.ratio}`, value: ratioOf(p), decimals: sel.ratio, interval: pi ? ratioRange(pi) : null, unit: 'A/B', name: 'Forecast_ratio' });
-      if (labels.excess) add({ section: 'Forecast', label: `Forecast ${labels.excess}`, value: p.eePercent, decimals: sel.percent, interval: pi ? pi.eePercent : null, unit: '%', name: 'Forecast_excess_percent' });
-      add({ section: 'Forecast', label: `Forecast ${labels.major}`, value: Math.max(p.percentA, 100 - p.percentA), decimals: sel.percent, interval: pi ? (p.percentA >= 50 ? pi.percentA : [100 - pi.percentA[1], 100 - pi.percentA[0]]) : null, unit: '%', name: 'Forecast_major_percent' });
-      if (proposed.meets !== null) add({ section: 'Forecast', label: 'Meets specification', value: proposed.meets, name: 'Forecast_meets_spec' });
+      add({
+        section: 'Forecast',
+        label: 'Proposed temperature',
+        value: Math.round(p.celsius * 1e9) / 1e9,
+        decimals: 1,
+        unit: '°C',
+        name: 'Proposed_T_C',
+      });
+      add({
+        section: 'Forecast',
+        label: `Forecast ${labels.word}`,
+        value: `${headline}${p.extrapolated ? '; outside the screened range' : ''}${meets}`,
+      });
+      add({
+        section: 'Forecast',
+        label: `Forecast ${labels.ratio}`,
+        value: ratioOf(p),
+        decimals: sel.ratio,
+        interval: pi ? ratioRange(pi) : null,
+        unit: 'A/B',
+        name: 'Forecast_ratio',
+      });
+      if (labels.excess)
+        add({
+          section: 'Forecast',
+          label: `Forecast ${labels.excess}`,
+          value: p.eePercent,
+          decimals: sel.percent,
+          interval: pi ? pi.eePercent : null,
+          unit: '%',
+          name: 'Forecast_excess_percent',
+        });
+      add({
+        section: 'Forecast',
+        label: `Forecast ${labels.major}`,
+        value: Math.max(p.percentA, 100 - p.percentA),
+        decimals: sel.percent,
+        interval: pi ? (p.percentA >= 50 ? pi.percentA : [100 - pi.percentA[1], 100 - pi.percentA[0]]) : null,
+        unit: '%',
+        name: 'Forecast_major_percent',
+      });
+      if (proposed.meets !== null)
+        add({ section: 'Forecast', label: 'Meets specification', value: proposed.meets, name: 'Forecast_meets_spec' });
     } else {
-      add({ section: 'Forecast', label: 'Proposed temperature', value: 'none yet: save a forecast in the campaign or ask for one when exporting' });
+      add({
+        section: 'Forecast',
+        label: 'Proposed temperature',
+        value: 'none yet: save a forecast in the campaign or ask for one when exporting',
+      });
     }
-    add({ section: 'Fit', label: 'ΔΔH‡', value: fit.ddH['kJ/mol'], decimals: decimals.ddH, se: fit.ddH.se?.['kJ/mol'] ?? null, interval: fit.ddH.ci?.['kJ/mol'] ?? null, unit: 'kJ/mol', name: 'ddH_kJ_per_mol' });
-    add({ section: 'Fit', label: 'ΔΔH‡', value: fit.ddH['kcal/mol'], decimals: decimals.ddH, se: fit.ddH.se?.['kcal/mol'] ?? null, interval: fit.ddH.ci?.['kcal/mol'] ?? null, unit: 'kcal/mol', name: 'ddH_kcal_per_mol' });
-    add({ section: 'Fit', label: 'ΔΔS‡', value: fit.ddS['J/(mol*K)'], decimals: decimals.ddS, se: fit.ddS.se?.['J/(mol*K)'] ?? null, interval: fit.ddS.ci?.['J/(mol*K)'] ?? null, unit: 'J/(mol·K)', name: 'ddS_J_per_mol_K' });
-    add({ section: 'Fit', label: 'ΔΔS‡', value: fit.ddS['cal/(mol*K)'], decimals: decimals.ddS, se: fit.ddS.se?.['cal/(mol*K)'] ?? null, interval: fit.ddS.ci?.['cal/(mol*K)'] ?? null, unit: 'cal/(mol·K)', name: 'ddS_cal_per_mol_K' });
-    add({ section: 'Fit', label: 'Intervals', value: `${level} % confidence; ${fit.weighting === 'none' ? 'unweighted' : 'weighted'} least squares of ln r on 1/T` });
+    add({
+      section: 'Fit',
+      label: 'ΔΔH‡',
+      value: fit.ddH['kJ/mol'],
+      decimals: decimals.ddH,
+      se: fit.ddH.se?.['kJ/mol'] ?? null,
+      interval: fit.ddH.ci?.['kJ/mol'] ?? null,
+      unit: 'kJ/mol',
+      name: 'ddH_kJ_per_mol',
+    });
+    add({
+      section: 'Fit',
+      label: 'ΔΔH‡',
+      value: fit.ddH['kcal/mol'],
+      decimals: decimals.ddH,
+      se: fit.ddH.se?.['kcal/mol'] ?? null,
+      interval: fit.ddH.ci?.['kcal/mol'] ?? null,
+      unit: 'kcal/mol',
+      name: 'ddH_kcal_per_mol',
+    });
+    add({
+      section: 'Fit',
+      label: 'ΔΔS‡',
+      value: fit.ddS['J/(mol*K)'],
+      decimals: decimals.ddS,
+      se: fit.ddS.se?.['J/(mol*K)'] ?? null,
+      interval: fit.ddS.ci?.['J/(mol*K)'] ?? null,
+      unit: 'J/(mol·K)',
+      name: 'ddS_J_per_mol_K',
+    });
+    add({
+      section: 'Fit',
+      label: 'ΔΔS‡',
+      value: fit.ddS['cal/(mol*K)'],
+      decimals: decimals.ddS,
+      se: fit.ddS.se?.['cal/(mol*K)'] ?? null,
+      interval: fit.ddS.ci?.['cal/(mol*K)'] ?? null,
+      unit: 'cal/(mol·K)',
+      name: 'ddS_cal_per_mol_K',
+    });
+    add({
+      section: 'Fit',
+      label: 'Intervals',
+      value: `${level} % confidence; ${fit.weighting === 'none' ? 'unweighted' : 'weighted'} least squares of ln r on 1/T`,
+    });
     add({ section: 'Fit', label: 'Model', value: modelSentence(fit) });
     curvatureLines(fit).forEach(add);
     const excluded = data.measurements.filter((m) => m.excluded);
@@ -330,7 +495,12 @@ export function buildReportModel(data: ReportData, meta: ReportMeta): ReportMode
     const listed = excluded.slice(0, MAX_LISTED_EXCLUSIONS).map((m) => `${runName(m)}: ${m.excludedReason ?? 'no reason given'}`);
     if (excluded.length > MAX_LISTED_EXCLUSIONS) listed.push(`and ${excluded.length - MAX_LISTED_EXCLUSIONS} more (see Measurements)`);
     add({ section: 'Runs', label: 'Runs excluded', value: excluded.length ? `${excluded.length}: ${listed.join('; ')}` : 'none' });
-    if (censored) add({ section: 'Runs', label: 'Runs reported as bounds', value: `${censored} (kept as "at least" values, not as points on the line)` });
+    if (censored)
+      add({
+        section: 'Runs',
+        label: 'Runs reported as bounds',
+        value: `${censored} (kept as "at least" values, not as points on the line)`,
+      });
     add({
       section: 'Runs',
       label: 'Screened range',
@@ -344,7 +514,19 @@ export function buildReportModel(data: ReportData, meta: ReportMeta): ReportMode
   add({ section: 'Export', label: 'Exported (UTC)', value: meta.generatedAt });
   add({ section: 'Export', label: 'Eyrie version', value: meta.appVersion });
 
-  return { data, meta, labels, decimals, fit, summary, grid, proposed, specificationLnRatio: spec.lnRatio, specificationText: spec.text, level };
+  return {
+    data,
+    meta,
+    labels,
+    decimals,
+    fit,
+    summary,
+    grid,
+    proposed,
+    specificationLnRatio: spec.lnRatio,
+    specificationText: spec.text,
+    level,
+  };
 }
 
 /** The value of a summary line as text, with SE, interval and unit (PDF, e-mail). */

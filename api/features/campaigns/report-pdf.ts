@@ -13,7 +13,11 @@ export async function buildCampaignReportPdf(model: ReportModel, charts: ReportC
   const doc = new PDFDocument({
     size: A4_LANDSCAPE,
     margins: { top: MARGIN, bottom: MARGIN, left: MARGIN, right: MARGIN },
-    info: { Title: `${model.data.campaign.title}: selectivity report`, Creator: `Eyrie ${model.meta.appVersion}`, CreationDate: model.meta.generatedAt },
+    info: {
+      Title: `${model.data.campaign.title}: selectivity report`,
+      Creator: `Eyrie ${model.meta.appVersion}`,
+      CreationDate: model.meta.generatedAt,
+    },
     autoFirstPage: true,
   });
   const chunks: Buffer[] = [];
@@ -37,9 +41,15 @@ export async function buildCampaignReportPdf(model: ReportModel, charts: ReportC
     }
     const text = summaryLineText(line);
     const y = doc.y;
-    doc.font('bold').fontSize(8).text(line.label, MARGIN, y, { width: labelWidth - 8 });
+    doc
+      .font('bold')
+      .fontSize(8)
+      .text(line.label, MARGIN, y, { width: labelWidth - 8 });
     const afterLabel = doc.y;
-    doc.font('body').fontSize(8).text(text, MARGIN + labelWidth, y, { width: width - labelWidth });
+    doc
+      .font('body')
+      .fontSize(8)
+      .text(text, MARGIN + labelWidth, y, { width: width - labelWidth });
     doc.y = Math.max(doc.y, afterLabel) + 1.5;
   }
 
@@ -53,12 +63,25 @@ export async function buildCampaignReportPdf(model: ReportModel, charts: ReportC
     doc
       .font('body')
       .fontSize(8)
-      .text(`Bands at ${model.level} %: the darker band is the confidence interval of the line, the lighter one the prediction interval for a new run.`, MARGIN, top + (w * 420) / 720 + 12, { width });
+      .text(
+        `Bands at ${model.level} %: the darker band is the confidence interval of the line, the lighter one the prediction interval for a new run.`,
+        MARGIN,
+        top + (w * 420) / 720 + 12,
+        { width },
+      );
     if (charts.window) {
       // The saved plan's window, under the two fit charts, at the same size.
       const y = top + (w * 420) / 720 + 30;
       doc.image(charts.window, MARGIN, y, { width: w });
-      doc.font('body').fontSize(8).text('The saved plan: hatched temperatures break a constraint (named on the chart); the Plan sheet of the workbook holds the numbers.', MARGIN + w + 20, y + 12, { width: w });
+      doc
+        .font('body')
+        .fontSize(8)
+        .text(
+          'The saved plan: hatched temperatures break a constraint (named on the chart); the Plan sheet of the workbook holds the numbers.',
+          MARGIN + w + 20,
+          y + 12,
+          { width: w },
+        );
     }
   }
   doc.end();

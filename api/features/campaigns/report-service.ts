@@ -32,7 +32,9 @@ export const MAX_REPORT_RECIPIENTS = 20;
 
 export const reportMailSchema = z.strictObject({
   recipients: z
-    .array(z.string({ error: 'each recipient must be a user id' }).uuid('each recipient must be a user id'), { error: 'recipients must be a list of user ids' })
+    .array(z.string({ error: 'each recipient must be a user id' }).uuid('each recipient must be a user id'), {
+      error: 'recipients must be a list of user ids',
+    })
     .min(1, 'choose at least one recipient')
     .max(MAX_REPORT_RECIPIENTS, `at most ${MAX_REPORT_RECIPIENTS} recipients`),
   message: z.string({ error: 'message must be text' }).max(2000, 'message must be at most 2000 characters').optional(),
@@ -52,16 +54,33 @@ export const MAX_REPORT_COMPARISONS = 5;
  * The project's saved comparisons for the report, recomputed from current runs as the page shows
  * them; campaigns the reader cannot read stay unavailable. Without a reader, none.
  */
-async function reportComparisons(db: Knex, projectId: string, campaignId: string, userId: string | undefined): Promise<ComparisonReportData[]> {
+async function reportComparisons(
+  db: Knex,
+  projectId: string,
+  campaignId: string,
+  userId: string | undefined,
+): Promise<ComparisonReportData[]> {
   if (!userId) return [];
-  const rows: { id: string; campaignIds: string[] }[] = await db('comparisons').where({ projectId }).orderBy('createdAt', 'desc').select('id', 'campaignIds').limit(200);
-  const chosen = [...rows.filter((r) => r.campaignIds.includes(campaignId)), ...rows.filter((r) => !r.campaignIds.includes(campaignId))].slice(0, MAX_REPORT_COMPARISONS);
+  const rows: { id: string; campaignIds: string[] }[] = await db('comparisons')
+    .where({ projectId })
+    .orderBy('createdAt', 'desc')
+    .select('id', 'campaignIds')
+    .limit(200);
+  const chosen = [
+    ...rows.filter((r) => r.campaignIds.includes(campaignId)),
+    ...rows.filter((r) => !r.campaignIds.includes(campaignId)),
+  ].slice(0, MAX_REPORT_COMPARISONS);
   const out: ComparisonReportData[] = [];
   for (const r of chosen) out.push(await loadComparisonReportData(db, projectId, userId, r.id));
   return out;
 }
 
-export async function loadCampaignReportData(db: Knex, projectId: string, campaignId: string, options: { atC?: number; userId?: string } = {}): Promise<ReportData> {
+export async function loadCampaignReportData(
+  db: Knex,
+  projectId: string,
+  campaignId: string,
+  options: { atC?: number; userId?: string } = {},
+): Promise<ReportData> {
   const data = await loadReportData(db, projectId, campaignId);
   const project = await Project.query(db).findById(projectId);
   const specs = await getCampaignSpecification(db, projectId, campaignId);
@@ -69,7 +88,9 @@ export async function loadCampaignReportData(db: Knex, projectId: string, campai
   return {
     ...data,
     project: project ? { name: project.name } : null,
-    specification: spec ? { measure: spec.measure, minimum: spec.minimum, probability: spec.probability, runs: spec.runs, source: specs.source } : null,
+    specification: spec
+      ? { measure: spec.measure, minimum: spec.minimum, probability: spec.probability, runs: spec.runs, source: specs.source }
+      : null,
     plan: await loadPlanReportData(db, projectId, campaignId),
     comparisons: await reportComparisons(db, projectId, campaignId, options.userId),
     ...(options.atC === undefined ? {} : { proposedK: options.atC + CELSIUS_OFFSET_K }),
@@ -111,7 +132,26 @@ const clean = (x: number) => Math.round(x * 1e9) / 1e9;
 
 export function measurementsCsv(model: ReportModel): string {
   const { data, labels, decimals: d } = model;
-  const header = ['sample', 'replicate', 'T (°C)', 'T (K)', 'reported as', 'value', 'value B', 'at least', 'assay SD', `${labels.word} A:B`, ...(labels.excess ? [labels.excess] : []), labels.major, 'ln r', 'status', 'exclusion reason', 'conversion (%)', 'time (h)', 'notes'];
+  const header = [
+    'sample',
+    'replicate',
+    'T (°C)',
+    'T (K)',
+    'reported as',
+    'value',
+    'value B',
+    'at least',
+    'assay SD',
+    `${labels.word} A:B`,
+    ...(labels.excess ? [labels.excess] : []),
+    labels.major,
+    'ln r',
+    'status',
+    'exclusion reason',
+    'conversion (%)',
+    'time (h)',
+    'notes',
+  ];
   const rows = data.measurements.map((m, i) => {
     const p = data.analysis.points[i]!;
     const reading = readSelectivity(Math.exp(p.lnRatio), d.ratio);
@@ -136,14 +176,40 @@ export function measurementsCsv(model: ReportModel): string {
       m.notes,
     ];
   });
-  const decimals = [undefined, undefined, 2, 2, undefined, undefined, undefined, undefined, undefined, d.ratio + 1, ...(labels.excess ? [d.percent + 1] : []), d.percent + 1, 4];
+  const decimals = [
+    undefined,
+    undefined,
+    2,
+    2,
+    undefined,
+    undefined,
+    undefined,
+    undefined,
+    undefined,
+    d.ratio + 1,
+    ...(labels.excess ? [d.percent + 1] : []),
+    d.percent + 1,
+    4,
+  ];
   return csv(header, rows, decimals);
 }
 
 export function forecastCsv(model: ReportModel): string {
   const { labels, decimals: d, level } = model;
   const withSpec = model.specificationLnRatio !== null;
-  const header = ['T (°C)', 'T (K)', 'row', `${labels.word} A:B`, `${level} % PI low A:B`, `${level} % PI high A:B`, ...(labels.excess ? [labels.excess, `${level} % PI low ${labels.excess}`, `${level} % PI high ${labels.excess}`] : []), labels.major, 'ΔΔG‡ (kJ/mol)', 'outside screened range', ...(withSpec ? ['meets specification'] : [])];
+  const header = [
+    'T (°C)',
+    'T (K)',
+    'row',
+    `${labels.word} A:B`,
+    `${level} % PI low A:B`,
+    `${level} % PI high A:B`,
+    ...(labels.excess ? [labels.excess, `${level} % PI low ${labels.excess}`, `${level} % PI high ${labels.excess}`] : []),
+    labels.major,
+    'ΔΔG‡ (kJ/mol)',
+    'outside screened range',
+    ...(withSpec ? ['meets specification'] : []),
+  ];
   const rows = model.grid.map((g) => {
     const p = g.prediction;
     const pi = p.predictionInterval;
@@ -181,7 +247,13 @@ export interface SentReport {
 export async function sendCampaignReport(
   db: Knex,
   mailer: Mailer,
-  args: { projectId: string; campaignId: string; request: ReportMailRequest; meta: ReportMeta; /** Whose reading of the saved comparisons goes in. */ userId?: string },
+  args: {
+    projectId: string;
+    campaignId: string;
+    request: ReportMailRequest;
+    meta: ReportMeta;
+    /** Whose reading of the saved comparisons goes in. */ userId?: string;
+  },
 ): Promise<SentReport> {
   const { projectId, campaignId, request, meta } = args;
   const ids = [...new Set(request.recipients)];
@@ -197,14 +269,24 @@ export async function sendCampaignReport(
     if (!u.email) return [{ path: `recipients.${i}`, message: `${u.displayName ?? u.login} has no e-mail address on file` }];
     return [];
   });
-  if (errors.length) throw new BadRequestError('Every recipient must be a member of the project with an e-mail address; nothing was sent.', errors);
+  if (errors.length)
+    throw new BadRequestError('Every recipient must be a member of the project with an e-mail address; nothing was sent.', errors);
 
-  const data = await loadCampaignReportData(db, projectId, campaignId, { ...(request.at === undefined ? {} : { atC: request.at }), ...(args.userId ? { userId: args.userId } : {}) });
+  const data = await loadCampaignReportData(db, projectId, campaignId, {
+    ...(request.at === undefined ? {} : { atC: request.at }),
+    ...(args.userId ? { userId: args.userId } : {}),
+  });
   const prepared = await prepareReport(data, meta);
   const title = data.campaign.title;
   const attachments = [];
-  if (request.attach.includes('xlsx')) attachments.push({ filename: reportFileName(title), content: await xlsxOf(prepared), contentType: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet' });
-  if (request.attach.includes('pdf')) attachments.push({ filename: reportFileName(title, 'summary.pdf'), content: await pdfOf(prepared), contentType: 'application/pdf' });
+  if (request.attach.includes('xlsx'))
+    attachments.push({
+      filename: reportFileName(title),
+      content: await xlsxOf(prepared),
+      contentType: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
+    });
+  if (request.attach.includes('pdf'))
+    attachments.push({ filename: reportFileName(title, 'summary.pdf'), content: await pdfOf(prepared), contentType: 'application/pdf' });
 
   const key = prepared.model.summary.filter((l) => ['Forecast', 'Fit', 'Runs'].includes(l.section) && l.label !== 'Intervals').slice(0, 8);
   const text = [

@@ -74,13 +74,23 @@ function setCell(cell: ExcelJS.Cell, value: Cell | UserText) {
  * A sheet with one header row and a row per item. Columns that hold user text are formatted as
  * Text as a whole (cells added later inherit the column's format), so a row costs one addRow.
  */
-function addTable(wb: ExcelJS.Workbook, model: ReportModel, name: string, columns: Column[], rows: Iterable<(Cell | UserText)[]>): ExcelJS.Worksheet {
+function addTable(
+  wb: ExcelJS.Workbook,
+  model: ReportModel,
+  name: string,
+  columns: Column[],
+  rows: Iterable<(Cell | UserText)[]>,
+): ExcelJS.Worksheet {
   const ws = wb.addWorksheet(name, { views: [{ state: 'frozen', ySplit: 1 }] });
   const textColumns = new Set<number>();
   const first = rows[Symbol.iterator]();
   let next = first.next();
   if (!next.done) next.value.forEach((v, i) => v instanceof UserText && textColumns.add(i));
-  ws.columns = columns.map((c, i) => ({ header: c.header, width: c.width, style: textColumns.has(i) ? { numFmt: TEXT_FMT } : c.numFmt ? { numFmt: c.numFmt } : {} }));
+  ws.columns = columns.map((c, i) => ({
+    header: c.header,
+    width: c.width,
+    style: textColumns.has(i) ? { numFmt: TEXT_FMT } : c.numFmt ? { numFmt: c.numFmt } : {},
+  }));
   styleHeader(ws.getRow(1));
   // Room for headers wrapped over up to three lines.
   ws.getRow(1).height = 45;
@@ -243,7 +253,14 @@ function addFit(wb: ExcelJS.Workbook, model: ReportModel) {
     ['Intercept of ln r', fit.intercept, fit.covariance ? Math.sqrt(fit.covariance.interceptIntercept) : null, null, '−', '0.0000'],
     ['ΔΔH‡', fit.ddH['kJ/mol'], fit.ddH.se?.['kJ/mol'] ?? null, fit.ddH.ci?.['kJ/mol'] ?? null, 'kJ/mol', numFmt(d.ddH)],
     ['ΔΔS‡', fit.ddS['J/(mol*K)'], fit.ddS.se?.['J/(mol*K)'] ?? null, fit.ddS.ci?.['J/(mol*K)'] ?? null, 'J/(mol·K)', numFmt(d.ddS)],
-    ['ΔΔG‡ at 25 °C', fit.ddGAt25C['kJ/mol'], fit.ddGAt25C.se?.['kJ/mol'] ?? null, fit.ddGAt25C.ci?.['kJ/mol'] ?? null, 'kJ/mol', numFmt(d.ddH)],
+    [
+      'ΔΔG‡ at 25 °C',
+      fit.ddGAt25C['kJ/mol'],
+      fit.ddGAt25C.se?.['kJ/mol'] ?? null,
+      fit.ddGAt25C.ci?.['kJ/mol'] ?? null,
+      'kJ/mol',
+      numFmt(d.ddH),
+    ],
     ['Correlation of ΔΔH‡ and ΔΔS‡', fit.correlation, null, null, '−', '0.000'],
     ['R²', fit.rSquared, null, null, '−', '0.0000'],
     ['Residual SD of ln r', fit.residualSD, null, null, '−', '0.0000'],
@@ -271,7 +288,18 @@ function addFit(wb: ExcelJS.Workbook, model: ReportModel) {
   r++;
   const head = ws.getRow(r++);
   const specLn = model.specificationLnRatio;
-  ['Residuals: T (°C)', 'ln r (−)', 'Fitted ln r (−)', 'Residual (−)', 'Studentized (−)', 'Leverage (−)', "Cook's distance (−)", 'Status', 'Flags', ...(specLn !== null ? ['Run meets specification'] : [])].forEach((h, i) => (head.getCell(i + 1).value = h));
+  [
+    'Residuals: T (°C)',
+    'ln r (−)',
+    'Fitted ln r (−)',
+    'Residual (−)',
+    'Studentized (−)',
+    'Leverage (−)',
+    "Cook's distance (−)",
+    'Status',
+    'Flags',
+    ...(specLn !== null ? ['Run meets specification'] : []),
+  ].forEach((h, i) => (head.getCell(i + 1).value = h));
   styleHeader(head);
   for (const res of fit.residuals) {
     const row = ws.getRow(r++);
@@ -327,7 +355,13 @@ function addForecast(wb: ExcelJS.Workbook, model: ReportModel) {
       yield [
         clean(p.celsius),
         p.kelvin,
-        g.source === 'grid' ? 'grid' : g.source === 'proposed' ? 'proposed temperature' : g.source === 'recommended' ? 'recommended by the saved plan' : user(`saved: ${g.note ?? ''}`),
+        g.source === 'grid'
+          ? 'grid'
+          : g.source === 'proposed'
+            ? 'proposed temperature'
+            : g.source === 'recommended'
+              ? 'recommended by the saved plan'
+              : user(`saved: ${g.note ?? ''}`),
         ratioOf(p),
         pi ? ratioRange(pi)[0] : null,
         pi ? ratioRange(pi)[1] : null,
@@ -406,7 +440,12 @@ function addPlan(wb: ExcelJS.Workbook, model: ReportModel, window: Buffer | null
     ['Required probability', spec.probability, '−', '0.000'],
     ['Judged on', spec.runs > 1 ? `the mean of ${spec.runs} new runs` : 'a single new run'],
   ]);
-  r = keyValues(ws, r, 'Inputs', plan.inputs.map((l): [string, Cell | UserText] => [l.label, l.value]));
+  r = keyValues(
+    ws,
+    r,
+    'Inputs',
+    plan.inputs.map((l): [string, Cell | UserText] => [l.label, l.value]),
+  );
   const rec = plan.recommended;
   const answer: [string, Cell | UserText, string?, string?][] = rec
     ? [
@@ -417,13 +456,23 @@ function addPlan(wb: ExcelJS.Workbook, model: ReportModel, window: Buffer | null
       ]
     : [['Recommended temperature', 'none: no temperature in the allowed range meets every constraint']];
   answer.push(
-    ['Operating window from', plan.window ? plan.window.fromCelsius : 'none', plan.window ? '°C' : undefined, plan.window ? '0.0' : undefined],
+    [
+      'Operating window from',
+      plan.window ? plan.window.fromCelsius : 'none',
+      plan.window ? '°C' : undefined,
+      plan.window ? '0.0' : undefined,
+    ],
     ['Operating window to', plan.window ? plan.window.toCelsius : 'none', plan.window ? '°C' : undefined, plan.window ? '0.0' : undefined],
     ['Binding constraints', plan.binding.length ? plan.binding.join(', ') : 'none'],
     ['Conflict', plan.conflict ?? 'none'],
   );
   if (plan.resolutions.length) answer.push(['What would resolve it', plan.resolutions.join(' ')]);
-  answer.push(['Next runs', plan.nextRuns ? `${plan.nextRuns.celsius.map((c) => `${c.toFixed(1).replace('-', '−')} °C`).join(', ')} (to narrow the forecast at ${plan.nextRuns.atCelsius.toFixed(1).replace('-', '−')} °C)` : 'none asked for']);
+  answer.push([
+    'Next runs',
+    plan.nextRuns
+      ? `${plan.nextRuns.celsius.map((c) => `${c.toFixed(1).replace('-', '−')} °C`).join(', ')} (to narrow the forecast at ${plan.nextRuns.atCelsius.toFixed(1).replace('-', '−')} °C)`
+      : 'none asked for',
+  ]);
   answer.push(['Saved plan', `version ${plan.version}, ${plan.updatedAt.slice(0, 16).replace('T', ' ')} UTC`]);
   answer.push(['Caution', plan.caution]);
   const answerStart = r + 1;
@@ -438,7 +487,18 @@ function addPlan(wb: ExcelJS.Workbook, model: ReportModel, window: Buffer | null
     r = Math.max(r, 20);
   }
   const unit = MEASURE_WORDS[spec.measure] ?? spec.measure;
-  r = tableHead(ws, r, ['Curve: T (°C)', 'T (K)', 'P(new run meets) (−)', `Predicted (${unit})`, `Band low (${unit})`, `Band high (${unit})`, 'Time to target (h)', 'ee after hold (%)', 'All constraints hold', 'Failing constraints']);
+  r = tableHead(ws, r, [
+    'Curve: T (°C)',
+    'T (K)',
+    'P(new run meets) (−)',
+    `Predicted (${unit})`,
+    `Band low (${unit})`,
+    `Band high (${unit})`,
+    'Time to target (h)',
+    'ee after hold (%)',
+    'All constraints hold',
+    'Failing constraints',
+  ]);
   for (const row of plan.rows) {
     putRow(ws, r++, [
       [row.celsius, '0.0'],
@@ -466,10 +526,25 @@ function addComparisons(wb: ExcelJS.Workbook, model: ReportModel) {
   let r = 2;
   for (const c of list) {
     const title = ws.getRow(r++);
-    setCell(title.getCell(1), user(`${c.name}: at ${c.temperatureCelsius.toFixed(1).replace('-', '−')} °C, values in ${MEASURE_WORDS[c.valueMeasure] ?? c.valueMeasure}`));
+    setCell(
+      title.getCell(1),
+      user(
+        `${c.name}: at ${c.temperatureCelsius.toFixed(1).replace('-', '−')} °C, values in ${MEASURE_WORDS[c.valueMeasure] ?? c.valueMeasure}`,
+      ),
+    );
     title.font = { bold: true };
     for (let k = 1; k <= 9; k++) title.getCell(k).fill = SECTION_FILL;
-    r = tableHead(ws, r, ['Campaign', 'ΔΔH‡ (kJ/mol)', 'ΔΔS‡ (J/(mol·K))', `Value at T (${MEASURE_WORDS[c.valueMeasure] ?? c.valueMeasure})`, '95 % CI low', '95 % CI high', 'Its specification', 'Meets at T', 'Problem']);
+    r = tableHead(ws, r, [
+      'Campaign',
+      'ΔΔH‡ (kJ/mol)',
+      'ΔΔS‡ (J/(mol·K))',
+      `Value at T (${MEASURE_WORDS[c.valueMeasure] ?? c.valueMeasure})`,
+      '95 % CI low',
+      '95 % CI high',
+      'Its specification',
+      'Meets at T',
+      'Problem',
+    ]);
     for (const x of c.campaigns) {
       putRow(ws, r++, [
         [user(x.title ?? 'not available to this reader')],
@@ -478,12 +553,26 @@ function addComparisons(wb: ExcelJS.Workbook, model: ReportModel) {
         [x.valueAtTemperature, 'General'],
         [x.intervalLow, 'General'],
         [x.intervalHigh, 'General'],
-        [x.specification ? `${MEASURE_WORDS[x.specification.measure] ?? x.specification.measure} ≥ ${x.specification.minimum}, probability ${x.specification.probability}` : 'none set'],
+        [
+          x.specification
+            ? `${MEASURE_WORDS[x.specification.measure] ?? x.specification.measure} ≥ ${x.specification.minimum}, probability ${x.specification.probability}`
+            : 'none set',
+        ],
         [x.meetsAtTemperature ?? (x.specification ? 'no fit' : '—')],
         [x.problem],
       ]);
     }
-    r = tableHead(ws, r, ['Pair (first against second)', 'Difference in ln r', '95 % low', '95 % high', 'P(first more selective)', 'Equal slopes p', 'Crossover (°C)', 'Verdict', 'Note']);
+    r = tableHead(ws, r, [
+      'Pair (first against second)',
+      'Difference in ln r',
+      '95 % low',
+      '95 % high',
+      'P(first more selective)',
+      'Equal slopes p',
+      'Crossover (°C)',
+      'Verdict',
+      'Note',
+    ]);
     for (const p of c.pairs) {
       putRow(ws, r++, [
         [user(`${p.first} against ${p.second}`)],
@@ -493,7 +582,13 @@ function addComparisons(wb: ExcelJS.Workbook, model: ReportModel) {
         [p.probabilityFirstBetter, '0.000'],
         [p.equalSlopesP, '0.000'],
         [p.crossoverCelsius, '0.0'],
-        [p.verdict === 'first' ? 'the first is more selective' : p.verdict === 'second' ? 'the second is more selective' : 'the data cannot tell them apart'],
+        [
+          p.verdict === 'first'
+            ? 'the first is more selective'
+            : p.verdict === 'second'
+              ? 'the second is more selective'
+              : 'the data cannot tell them apart',
+        ],
         [p.note || null],
       ]);
     }
@@ -518,7 +613,11 @@ export function reportFileName(title: string, suffix = 'report.xlsx'): string {
  * The workbook as a buffer. Pure apart from rendering: no database, no clock. Without prepared
  * charts, they are rasterised on the thread pool while the sheets are built.
  */
-export async function buildCampaignReport(data: ReportData, meta: ReportMeta, prepared?: { model?: ReportModel; charts?: ReportCharts | null }): Promise<Buffer> {
+export async function buildCampaignReport(
+  data: ReportData,
+  meta: ReportMeta,
+  prepared?: { model?: ReportModel; charts?: ReportCharts | null },
+): Promise<Buffer> {
   const model = prepared?.model ?? buildReportModel(data, meta);
   const pending = prepared?.charts !== undefined ? Promise.resolve(prepared.charts) : renderReportChartsAsync(model);
   const wb = new ExcelJS.Workbook();

@@ -72,16 +72,33 @@ const batchSchema = z.strictObject({
 });
 
 const versionQuerySchema = z.object({
-  version: z.coerce.number({ error: 'version must be a number' }).int('version must be an integer').min(1, 'version must be at least 1').optional(),
+  version: z.coerce
+    .number({ error: 'version must be a number' })
+    .int('version must be an integer')
+    .min(1, 'version must be at least 1')
+    .optional(),
 });
 
 const historyQuerySchema = z.object({
-  limit: z.coerce.number({ error: 'limit must be a number' }).int('limit must be an integer').min(1, 'limit must be at least 1').max(200, 'limit must be at most 200').default(50),
-  before: z.coerce.number({ error: 'before must be a number' }).int('before must be an integer').min(1, 'before must be at least 1').optional(),
+  limit: z.coerce
+    .number({ error: 'limit must be a number' })
+    .int('limit must be an integer')
+    .min(1, 'limit must be at least 1')
+    .max(200, 'limit must be at most 200')
+    .default(50),
+  before: z.coerce
+    .number({ error: 'before must be a number' })
+    .int('before must be an integer')
+    .min(1, 'before must be at least 1')
+    .optional(),
 });
 
 /** A file name safe in Content-Disposition and on any disk: letters, digits, dot, dash, underscore. */
-const safeFileName = (name: string) => name.replace(/[^\p{L}\p{N}._-]+/gu, '-').replace(/^[.-]+/, '').slice(0, 120) || 'file';
+const safeFileName = (name: string) =>
+  name
+    .replace(/[^\p{L}\p{N}._-]+/gu, '-')
+    .replace(/^[.-]+/, '')
+    .slice(0, 120) || 'file';
 
 const IF_MATCH = /^\s*(?:W\/)?"(\d+)"\s*$/;
 
@@ -90,7 +107,8 @@ function ifMatchVersion(req: Request): number | undefined {
   const header = req.get('If-Match');
   if (header === undefined) return undefined;
   const m = IF_MATCH.exec(header);
-  if (!m) throw new BadRequestError('If-Match must name one version, e.g. W/"3".', [{ path: 'If-Match', message: 'expected W/"<version>"' }]);
+  if (!m)
+    throw new BadRequestError('If-Match must name one version, e.g. W/"3".', [{ path: 'If-Match', message: 'expected W/"<version>"' }]);
   return Number(m[1]);
 }
 
@@ -101,7 +119,10 @@ function withVersion(req: Request): unknown {
   if (header === undefined || body === null || typeof body !== 'object' || Array.isArray(body)) return body;
   const sent = (body as { version?: unknown }).version;
   if (sent === undefined) return { ...body, version: header };
-  if (sent !== header) throw new BadRequestError(`If-Match names version ${header} but the body names version ${String(sent)}; send one.`, [{ path: 'version', message: 'disagrees with If-Match' }]);
+  if (sent !== header)
+    throw new BadRequestError(`If-Match names version ${header} but the body names version ${String(sent)}; send one.`, [
+      { path: 'version', message: 'disagrees with If-Match' },
+    ]);
   return body;
 }
 
@@ -110,10 +131,15 @@ function deleteVersion(req: Request, schema: z.ZodType<{ version?: number }> = v
   const { version } = parseBody(schema, req.query);
   const header = ifMatchVersion(req);
   if (version !== undefined && header !== undefined && version !== header) {
-    throw new BadRequestError(`If-Match names version ${header} but the query names version ${version}; send one.`, [{ path: 'version', message: 'disagrees with If-Match' }]);
+    throw new BadRequestError(`If-Match names version ${header} but the query names version ${version}; send one.`, [
+      { path: 'version', message: 'disagrees with If-Match' },
+    ]);
   }
   const v = version ?? header;
-  if (v === undefined) throw new BadRequestError('Name the version you last read: ?version=N or If-Match: W/"N".', [{ path: 'version', message: 'version is required' }]);
+  if (v === undefined)
+    throw new BadRequestError('Name the version you last read: ?version=N or If-Match: W/"N".', [
+      { path: 'version', message: 'version is required' },
+    ]);
   return v;
 }
 
@@ -138,10 +164,17 @@ export function campaignsRouter(deps: {
   reportMailLimit?: number;
 }): Router {
   const { knex, jobs, uploadLimit } = deps;
-  const meta = (req: Request): ReportMeta => ({ appVersion: deps.version, generatedAt: new Date(), exportedBy: req.user ? (req.user.displayName ?? req.user.login) : null });
+  const meta = (req: Request): ReportMeta => ({
+    appVersion: deps.version,
+    generatedAt: new Date(),
+    exportedBy: req.user ? (req.user.displayName ?? req.user.login) : null,
+  });
   const reportOf = async (req: Request) => {
     const { at } = parseBody(reportQuerySchema, req.query);
-    const data = await loadCampaignReportData(knex, req.project!.id, campaignId(req), { ...(at === undefined ? {} : { atC: at }), userId: req.user!.id });
+    const data = await loadCampaignReportData(knex, req.project!.id, campaignId(req), {
+      ...(at === undefined ? {} : { atC: at }),
+      userId: req.user!.id,
+    });
     return prepareReport(data, meta(req));
   };
   const mailLimit = limiter(REPORT_MAIL_LIMIT.windowMs, deps.reportMailLimit ?? REPORT_MAIL_LIMIT.limit, 'report e-mail', true);
@@ -206,11 +239,20 @@ export function campaignsRouter(deps: {
   });
 
   router.patch('/measurements/:measurementId', byMeasurement, async (req, res) => {
-    res.json(await updateMeasurement(knex, actorOf(req), String(req.params.measurementId), parseBody(measurementUpdateSchema, withVersion(req))));
+    res.json(
+      await updateMeasurement(knex, actorOf(req), String(req.params.measurementId), parseBody(measurementUpdateSchema, withVersion(req))),
+    );
   });
 
   router.put('/measurements/:measurementId/exclusion', byMeasurement, async (req, res) => {
-    res.json(await setMeasurementExclusion(knex, actorOf(req), String(req.params.measurementId), parseBody(measurementExclusionSchema, withVersion(req))));
+    res.json(
+      await setMeasurementExclusion(
+        knex,
+        actorOf(req),
+        String(req.params.measurementId),
+        parseBody(measurementExclusionSchema, withVersion(req)),
+      ),
+    );
   });
 
   router.delete('/measurements/:measurementId', byMeasurement, async (req, res) => {
@@ -242,7 +284,10 @@ export function campaignsRouter(deps: {
         input: { fileName: file.name, request },
         file: file.buffer,
       });
-      res.status(202).location(`/api/v1/jobs/${job.id}`).json({ job: jobView(job) });
+      res
+        .status(202)
+        .location(`/api/v1/jobs/${job.id}`)
+        .json({ job: jobView(job) });
       return;
     }
     res.status(201).json(await importMeasurements(knex, actorOf(req), campaignId(req), file, request));
@@ -250,7 +295,12 @@ export function campaignsRouter(deps: {
 
   router.get('/campaigns/:campaignId/imports/template.csv', byCampaign('viewer'), async (req, res) => {
     const campaign = await getCampaign(knex, req.project!.id, campaignId(req));
-    res.status(200).type('text/csv; charset=utf-8').attachment(`${safeFileName(campaign.title)}-template.csv`).set('Cache-Control', 'no-store').send(importTemplateCsv(campaign.measure));
+    res
+      .status(200)
+      .type('text/csv; charset=utf-8')
+      .attachment(`${safeFileName(campaign.title)}-template.csv`)
+      .set('Cache-Control', 'no-store')
+      .send(importTemplateCsv(campaign.measure));
   });
 
   router.get('/campaigns/:campaignId/files', byCampaign('viewer'), async (req, res) => {
@@ -258,39 +308,66 @@ export function campaignsRouter(deps: {
     res.json({ files: await listImportFiles(knex, campaignId(req)) });
   });
 
-  router.get('/import-files/:fileId', authorizeProject('viewer', (req) => resolveImportFileProjectId(knex, req.params.fileId)), async (req, res) => {
-    const file = await readImportFile(knex, req.project!.id, String(req.params.fileId));
-    res
-      .status(200)
-      .type(file.mediaType)
-      .attachment(safeFileName(file.fileName))
-      .set({ 'Cache-Control': 'private, no-store', 'X-Content-Type-Options': 'nosniff', 'Content-Digest': `sha-256=:${Buffer.from(file.sha256, 'hex').toString('base64')}:` })
-      .send(file.content);
-  });
+  router.get(
+    '/import-files/:fileId',
+    authorizeProject('viewer', (req) => resolveImportFileProjectId(knex, req.params.fileId)),
+    async (req, res) => {
+      const file = await readImportFile(knex, req.project!.id, String(req.params.fileId));
+      res
+        .status(200)
+        .type(file.mediaType)
+        .attachment(safeFileName(file.fileName))
+        .set({
+          'Cache-Control': 'private, no-store',
+          'X-Content-Type-Options': 'nosniff',
+          'Content-Digest': `sha-256=:${Buffer.from(file.sha256, 'hex').toString('base64')}:`,
+        })
+        .send(file.content);
+    },
+  );
 
   router.get('/campaigns/:campaignId/history', byCampaign('viewer'), async (req, res) => {
     await getCampaign(knex, req.project!.id, campaignId(req));
-    res.set('Cache-Control', 'private, no-store').json(await readHistory(knex, { projectId: req.project!.id, campaignId: campaignId(req) }, parseBody(historyQuerySchema, req.query)));
+    res
+      .set('Cache-Control', 'private, no-store')
+      .json(await readHistory(knex, { projectId: req.project!.id, campaignId: campaignId(req) }, parseBody(historyQuerySchema, req.query)));
   });
 
   router.get('/campaigns/:campaignId/history.csv', byCampaign('viewer'), async (req, res) => {
     const campaign = await getCampaign(knex, req.project!.id, campaignId(req));
     const csv = await historyCsv(knex, { projectId: req.project!.id, campaignId: campaign.id });
-    res.status(200).type('text/csv; charset=utf-8').attachment(`${safeFileName(campaign.title)}-history.csv`).set('Cache-Control', 'no-store').send(csv);
+    res
+      .status(200)
+      .type('text/csv; charset=utf-8')
+      .attachment(`${safeFileName(campaign.title)}-history.csv`)
+      .set('Cache-Control', 'no-store')
+      .send(csv);
   });
 
   router.get('/projects/:projectId/history', authorizeProject('owner', projectIdParam), async (req, res) => {
-    res.set('Cache-Control', 'private, no-store').json(await readHistory(knex, { projectId: req.project!.id }, parseBody(historyQuerySchema, req.query)));
+    res
+      .set('Cache-Control', 'private, no-store')
+      .json(await readHistory(knex, { projectId: req.project!.id }, parseBody(historyQuerySchema, req.query)));
   });
 
   router.get('/projects/:projectId/history.csv', authorizeProject('owner', projectIdParam), async (req, res) => {
     const project = await knex('projects').where({ id: req.project!.id }).first('name');
     const csv = await historyCsv(knex, { projectId: req.project!.id });
-    res.status(200).type('text/csv; charset=utf-8').attachment(`${safeFileName(String(project?.name ?? 'project'))}-history.csv`).set('Cache-Control', 'no-store').send(csv);
+    res
+      .status(200)
+      .type('text/csv; charset=utf-8')
+      .attachment(`${safeFileName(String(project?.name ?? 'project'))}-history.csv`)
+      .set('Cache-Control', 'no-store')
+      .send(csv);
   });
 
   router.get('/campaigns/:campaignId/analysis', byCampaign('viewer'), async (req, res) => {
-    const { etag: tag, body } = await serialisedCampaignAnalysis(knex, req.project!.id, campaignId(req), parseBody(analysisQuerySchema, req.query));
+    const { etag: tag, body } = await serialisedCampaignAnalysis(
+      knex,
+      req.project!.id,
+      campaignId(req),
+      parseBody(analysisQuerySchema, req.query),
+    );
     // The body carries nothing about the caller, so the tag need not either; authorization above runs
     // before any 304, so a caller who may not read the campaign never learns its tag. Browsers
     // still keep no copy (private, no-store): scripts send If-None-Match themselves.
@@ -329,7 +406,10 @@ export function campaignsRouter(deps: {
     router.post(path, byCampaign('viewer'), uploadLimit, async (req, res) => {
       await getCampaign(knex, req.project!.id, campaignId(req));
       const job = await jobs.enqueue({ kind, projectId: req.project!.id, campaignId: campaignId(req), userId: req.user!.id });
-      res.status(202).location(`/api/v1/jobs/${job.id}`).json({ job: jobView(job) });
+      res
+        .status(202)
+        .location(`/api/v1/jobs/${job.id}`)
+        .json({ job: jobView(job) });
     });
   }
 
@@ -356,20 +436,36 @@ export function campaignsRouter(deps: {
   router.get('/campaigns/:campaignId/measurements.csv', byCampaign('viewer'), async (req, res) => {
     const data = await loadCampaignReportData(knex, req.project!.id, campaignId(req));
     const model = buildReportModel(data, meta(req));
-    res.status(200).type('text/csv; charset=utf-8').attachment(reportFileName(data.campaign.title, 'measurements.csv')).set('Cache-Control', 'no-store').send(measurementsCsv(model));
+    res
+      .status(200)
+      .type('text/csv; charset=utf-8')
+      .attachment(reportFileName(data.campaign.title, 'measurements.csv'))
+      .set('Cache-Control', 'no-store')
+      .send(measurementsCsv(model));
   });
 
   router.get('/campaigns/:campaignId/forecast.csv', byCampaign('viewer'), async (req, res) => {
     const { at } = parseBody(reportQuerySchema, req.query);
     const data = await loadCampaignReportData(knex, req.project!.id, campaignId(req), at === undefined ? {} : { atC: at });
     const model = buildReportModel(data, meta(req));
-    res.status(200).type('text/csv; charset=utf-8').attachment(reportFileName(data.campaign.title, 'forecast.csv')).set('Cache-Control', 'no-store').send(forecastCsv(model));
+    res
+      .status(200)
+      .type('text/csv; charset=utf-8')
+      .attachment(reportFileName(data.campaign.title, 'forecast.csv'))
+      .set('Cache-Control', 'no-store')
+      .send(forecastCsv(model));
   });
 
   router.post('/campaigns/:campaignId/report/email', byCampaign('viewer'), mailLimit, async (req, res) => {
     const request = parseBody(reportMailSchema, req.body);
     if (!deps.mailer) throw new BadRequestError('This server has no mail transport configured.');
-    const sent = await sendCampaignReport(knex, deps.mailer, { projectId: req.project!.id, campaignId: campaignId(req), request, meta: meta(req), userId: req.user!.id });
+    const sent = await sendCampaignReport(knex, deps.mailer, {
+      projectId: req.project!.id,
+      campaignId: campaignId(req),
+      request,
+      meta: meta(req),
+      userId: req.user!.id,
+    });
     res.status(200).json(sent);
   });
 

@@ -42,8 +42,18 @@ export const temperatureInputSchema = z
   })
   .superRefine((t, ctx) => {
     const k = toKelvin(t.value, t.unit);
-    if (!(k > 0)) ctx.addIssue({ code: 'custom', path: ['value'], message: `${t.value} ${TEMPERATURE_UNIT_LABEL[t.unit]} is at or below absolute zero` });
-    else if (k > MAX_TEMPERATURE_K) ctx.addIssue({ code: 'custom', path: ['value'], message: `${t.value} ${TEMPERATURE_UNIT_LABEL[t.unit]} is above ${MAX_TEMPERATURE_K} K` });
+    if (!(k > 0))
+      ctx.addIssue({
+        code: 'custom',
+        path: ['value'],
+        message: `${t.value} ${TEMPERATURE_UNIT_LABEL[t.unit]} is at or below absolute zero`,
+      });
+    else if (k > MAX_TEMPERATURE_K)
+      ctx.addIssue({
+        code: 'custom',
+        path: ['value'],
+        message: `${t.value} ${TEMPERATURE_UNIT_LABEL[t.unit]} is above ${MAX_TEMPERATURE_K} K`,
+      });
   });
 export type TemperatureInput = z.infer<typeof temperatureInputSchema>;
 
@@ -119,7 +129,10 @@ export const campaignCreateSchema = z
 export type CampaignCreate = z.infer<typeof campaignCreateSchema>;
 
 /** A partial update; `version` is the version the client last read (optimistic concurrency). */
-export const versionSchema = z.number({ error: 'version is required' }).int('version must be an integer').min(1, 'version must be at least 1');
+export const versionSchema = z
+  .number({ error: 'version is required' })
+  .int('version must be an integer')
+  .min(1, 'version must be at least 1');
 
 export const campaignUpdateSchema = z
   .strictObject({
@@ -147,7 +160,10 @@ const measurementFields = {
   uncertainty: uncertaintySchema.nullable().optional(),
   replicateLabel: optionalText(40),
   sampleId: optionalText(100),
-  conversionPercent: finite('conversion').refine((v) => v >= 0 && v <= 100, 'conversion must lie between 0 and 100 %').nullable().optional(),
+  conversionPercent: finite('conversion')
+    .refine((v) => v >= 0 && v <= 100, 'conversion must lie between 0 and 100 %')
+    .nullable()
+    .optional(),
   reactionTime: reactionTimeInputSchema.nullable().optional(),
   notes: optionalText(2000),
 };
@@ -182,7 +198,16 @@ export type MeasurementUpdate = z.infer<typeof measurementUpdateSchema>;
 export const measurementExclusionSchema = z.discriminatedUnion(
   'excluded',
   [
-    z.strictObject({ version: versionSchema, excluded: z.literal(true), reason: z.string().trim().min(3, 'give a reason (at least 3 characters)').max(500, 'at most 500 characters').refine(noNul, NUL_MESSAGE) }),
+    z.strictObject({
+      version: versionSchema,
+      excluded: z.literal(true),
+      reason: z
+        .string()
+        .trim()
+        .min(3, 'give a reason (at least 3 characters)')
+        .max(500, 'at most 500 characters')
+        .refine(noNul, NUL_MESSAGE),
+    }),
     z.strictObject({ version: versionSchema, excluded: z.literal(false) }),
   ],
   { error: 'excluded must be true (with a reason) or false' },
@@ -191,7 +216,11 @@ export type MeasurementExclusion = z.infer<typeof measurementExclusionSchema>;
 
 /** Deleting a measurement names the version last read and says why. */
 export const measurementDeleteQuerySchema = z.object({
-  version: z.coerce.number({ error: 'version must be a number' }).int('version must be an integer').min(1, 'version must be at least 1').optional(),
+  version: z.coerce
+    .number({ error: 'version must be a number' })
+    .int('version must be an integer')
+    .min(1, 'version must be at least 1')
+    .optional(),
   reason: changeReasonSchema,
 });
 

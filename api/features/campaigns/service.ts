@@ -39,9 +39,12 @@ const measurementNotFound = () => new NotFoundError('No measurement was found at
 const forecastNotFound = () => new NotFoundError('No saved forecast was found at this address in this project.');
 
 function staleVersion(what: string, sent: number, current: number): ConflictError {
-  return new ConflictError(`The ${what} was changed by someone else (you sent version ${sent}; it is now at version ${current}). Reload it and apply your change again.`, {
-    currentVersion: current,
-  });
+  return new ConflictError(
+    `The ${what} was changed by someone else (you sent version ${sent}; it is now at version ${current}). Reload it and apply your change again.`,
+    {
+      currentVersion: current,
+    },
+  );
 }
 
 /** A plain JSON snapshot of a row for the audit trail. */
@@ -58,7 +61,10 @@ export async function resolveCampaignProjectId(db: Knex, campaignId: unknown): P
 
 export async function resolveMeasurementProjectId(db: Knex, measurementId: unknown): Promise<string | null> {
   if (!isUuid(measurementId)) return null;
-  const row = await db('measurements as m').join('campaigns as c', 'c.id', 'm.campaignId').where('m.id', measurementId).first('c.projectId');
+  const row = await db('measurements as m')
+    .join('campaigns as c', 'c.id', 'm.campaignId')
+    .where('m.id', measurementId)
+    .first('c.projectId');
   return row?.projectId ?? null;
 }
 
@@ -82,20 +88,21 @@ export interface CampaignSummary {
 export async function listCampaigns(db: Knex, projectId: string): Promise<CampaignSummary[]> {
   const campaigns = await Campaign.query(db).where({ projectId }).orderBy('createdAt', 'desc').orderBy('id');
   if (campaigns.length === 0) return [];
-  const stats: { campaignId: string; n: number; included: number; distinctT: number; minK: number | null; maxK: number | null }[] = await db('measurements')
-    .whereIn(
-      'campaignId',
-      campaigns.map((c) => c.id),
-    )
-    .groupBy('campaignId')
-    .select(
-      'campaignId',
-      db.raw('count(*)::int as n'),
-      db.raw('count(*) filter (where not excluded)::int as included'),
-      db.raw('count(distinct round(temperature_k::numeric, 2))::int as "distinctT"'),
-      db.raw('min(temperature_k) as "minK"'),
-      db.raw('max(temperature_k) as "maxK"'),
-    );
+  const stats: { campaignId: string; n: number; included: number; distinctT: number; minK: number | null; maxK: number | null }[] =
+    await db('measurements')
+      .whereIn(
+        'campaignId',
+        campaigns.map((c) => c.id),
+      )
+      .groupBy('campaignId')
+      .select(
+        'campaignId',
+        db.raw('count(*)::int as n'),
+        db.raw('count(*) filter (where not excluded)::int as included'),
+        db.raw('count(distinct round(temperature_k::numeric, 2))::int as "distinctT"'),
+        db.raw('min(temperature_k) as "minK"'),
+        db.raw('max(temperature_k) as "maxK"'),
+      );
   const byId = new Map(stats.map((s) => [s.campaignId, s]));
   return campaigns.map((campaign) => {
     const s = byId.get(campaign.id);
@@ -127,17 +134,27 @@ function translateUniqueTitle(err: unknown, title: string | undefined): never {
 export async function createCampaign(db: Knex, actor: ProjectActor, input: CampaignCreate): Promise<Campaign> {
   try {
     return await db.transaction(async (trx) => {
-      const campaign = await Campaign.query(trx).insert({
-        ...input,
-        reactionDescription: input.reactionDescription ?? null,
-        defaultUncertainty: input.defaultUncertainty ?? null,
-        newRunUncertainty: input.newRunUncertainty ?? null,
-        quantitationLimit: input.quantitationLimit ?? null,
-        notes: input.notes ?? null,
-        projectId: actor.projectId,
-        createdByUserId: actor.actorUserId,
-      }).returning('*');
-      await recordAudit(trx, { ...auditActor(actor), action: 'create', entityType: 'campaign', entityId: campaign.id, campaignId: campaign.id, before: null, after: snapshot(campaign) });
+      const campaign = await Campaign.query(trx)
+        .insert({
+          ...input,
+          reactionDescription: input.reactionDescription ?? null,
+          defaultUncertainty: input.defaultUncertainty ?? null,
+          newRunUncertainty: input.newRunUncertainty ?? null,
+          quantitationLimit: input.quantitationLimit ?? null,
+          notes: input.notes ?? null,
+          projectId: actor.projectId,
+          createdByUserId: actor.actorUserId,
+        })
+        .returning('*');
+      await recordAudit(trx, {
+        ...auditActor(actor),
+        action: 'create',
+        entityType: 'campaign',
+        entityId: campaign.id,
+        campaignId: campaign.id,
+        before: null,
+        after: snapshot(campaign),
+      });
       return campaign;
     });
   } catch (err) {
@@ -165,7 +182,15 @@ export async function updateCampaign(db: Knex, actor: ProjectActor, campaignId: 
         .patch({ ...changes, version: version + 1, updatedAt: new Date() })
         .where({ id: campaignId, version })
         .returning('*');
-      await recordAudit(trx, { ...auditActor(actor), action: 'update', entityType: 'campaign', entityId: campaignId, campaignId, before: snapshot(before), after: snapshot(after) });
+      await recordAudit(trx, {
+        ...auditActor(actor),
+        action: 'update',
+        entityType: 'campaign',
+        entityId: campaignId,
+        campaignId,
+        before: snapshot(before),
+        after: snapshot(after),
+      });
       return after;
     });
   } catch (err) {
@@ -216,10 +241,20 @@ export interface SignOffView {
 const personName = (u: { login: string; displayName: string | null } | undefined) => (u ? (u.displayName ?? u.login) : 'a removed account');
 
 /** Who signed the campaign off, when and with which note; null while it is open. */
-export async function signOffOf(db: Knex | Knex.Transaction, campaign: Pick<Campaign, 'signedOffAt' | 'signedOffByUserId' | 'signOffNote'>): Promise<SignOffView | null> {
+export async function signOffOf(
+  db: Knex | Knex.Transaction,
+  campaign: Pick<Campaign, 'signedOffAt' | 'signedOffByUserId' | 'signOffNote'>,
+): Promise<SignOffView | null> {
   if (!campaign.signedOffAt) return null;
-  const user = campaign.signedOffByUserId ? await db('users').where({ id: campaign.signedOffByUserId }).first('login', 'displayName') : undefined;
-  return { at: new Date(campaign.signedOffAt).toISOString(), by: personName(user), byUserId: campaign.signedOffByUserId, note: campaign.signOffNote };
+  const user = campaign.signedOffByUserId
+    ? await db('users').where({ id: campaign.signedOffByUserId }).first('login', 'displayName')
+    : undefined;
+  return {
+    at: new Date(campaign.signedOffAt).toISOString(),
+    by: personName(user),
+    byUserId: campaign.signedOffByUserId,
+    note: campaign.signOffNote,
+  };
 }
 
 /** A signed-off campaign refuses any change to its measurements until it is reopened. */
@@ -234,8 +269,15 @@ export async function assertMeasurementsOpen(trx: Knex | Knex.Transaction, campa
 }
 
 /** The user behind the latest change to the campaign or its measurements (null when nobody is on record). */
-export async function lastEditorOf(db: Knex | Knex.Transaction, campaign: Pick<Campaign, 'id' | 'createdByUserId'>): Promise<string | null> {
-  const row = await db('auditEvents').where({ campaignId: campaign.id }).whereIn('entityType', EDITING_ENTITY_TYPES).orderBy('id', 'desc').first('actorUserId');
+export async function lastEditorOf(
+  db: Knex | Knex.Transaction,
+  campaign: Pick<Campaign, 'id' | 'createdByUserId'>,
+): Promise<string | null> {
+  const row = await db('auditEvents')
+    .where({ campaignId: campaign.id })
+    .whereIn('entityType', EDITING_ENTITY_TYPES)
+    .orderBy('id', 'desc')
+    .first('actorUserId');
   return row ? row.actorUserId : campaign.createdByUserId;
 }
 
@@ -243,17 +285,33 @@ export async function lastEditorOf(db: Knex | Knex.Transaction, campaign: Pick<C
  * Sign a campaign off: its measurements are locked until someone reopens it with a reason. The
  * person signing must not be the campaign's last editor (a second pair of eyes).
  */
-export async function signOffCampaign(db: Knex, actor: ProjectActor, campaignId: string, input: { note?: string | null }): Promise<Campaign> {
+export async function signOffCampaign(
+  db: Knex,
+  actor: ProjectActor,
+  campaignId: string,
+  input: { note?: string | null },
+): Promise<Campaign> {
   return db.transaction(async (trx) => {
     const before = await getCampaignForUpdate(trx, actor.projectId, campaignId);
     const current = await signOffOf(trx, before);
-    if (current) throw new ConflictError(`“${before.title}” is already signed off (by ${current.by}, ${current.at.slice(0, 10)}).`, { signedOff: current });
+    if (current)
+      throw new ConflictError(`“${before.title}” is already signed off (by ${current.by}, ${current.at.slice(0, 10)}).`, {
+        signedOff: current,
+      });
     const lastEditor = await lastEditorOf(trx, before);
     if (lastEditor === actor.actorUserId) {
-      throw new ConflictError(`You made the last change to “${before.title}”; another owner or editor of the project must sign it off.`, { lastEditorUserId: lastEditor });
+      throw new ConflictError(`You made the last change to “${before.title}”; another owner or editor of the project must sign it off.`, {
+        lastEditorUserId: lastEditor,
+      });
     }
     const [after] = await Campaign.query(trx)
-      .patch({ signedOffAt: new Date(), signedOffByUserId: actor.actorUserId, signOffNote: input.note ?? null, version: before.version + 1, updatedAt: new Date() })
+      .patch({
+        signedOffAt: new Date(),
+        signedOffByUserId: actor.actorUserId,
+        signOffNote: input.note ?? null,
+        version: before.version + 1,
+        updatedAt: new Date(),
+      })
       .where({ id: campaignId })
       .returning('*');
     const [{ n }] = await trx('measurements').where({ campaignId }).count({ n: '*' });
@@ -306,7 +364,17 @@ export async function listMeasurements(db: Knex, projectId: string, campaignId: 
 type MeasurementColumns = Partial<
   Pick<
     Measurement,
-    'temperatureK' | 'measure' | 'value' | 'valueB' | 'isLowerBound' | 'uncertainty' | 'replicateLabel' | 'sampleId' | 'conversionPercent' | 'reactionTimeS' | 'notes'
+    | 'temperatureK'
+    | 'measure'
+    | 'value'
+    | 'valueB'
+    | 'isLowerBound'
+    | 'uncertainty'
+    | 'replicateLabel'
+    | 'sampleId'
+    | 'conversionPercent'
+    | 'reactionTimeS'
+    | 'notes'
   >
 >;
 
@@ -349,7 +417,15 @@ export async function createMeasurement(db: Knex, actor: ProjectActor, campaignI
     const measurement = await Measurement.query(trx)
       .insert({ ...measurementColumns(input), campaignId, createdByUserId: actor.actorUserId })
       .returning('*');
-    await recordAudit(trx, { ...auditActor(actor), action: 'create', entityType: 'measurement', entityId: measurement.id, campaignId, before: null, after: snapshot(measurement) });
+    await recordAudit(trx, {
+      ...auditActor(actor),
+      action: 'create',
+      entityType: 'measurement',
+      entityId: measurement.id,
+      campaignId,
+      before: null,
+      after: snapshot(measurement),
+    });
     return measurement;
   });
 }
@@ -384,27 +460,68 @@ async function patchMeasurement(
       .patch({ ...columns, version: version + 1, updatedAt: new Date() })
       .where({ id: measurementId, version })
       .returning('*');
-    await recordAudit(trx, { ...auditActor(actor), action: 'update', entityType: 'measurement', entityId: measurementId, campaignId: before.campaignId, reason, before: snapshot(before), after: snapshot(after) });
+    await recordAudit(trx, {
+      ...auditActor(actor),
+      action: 'update',
+      entityType: 'measurement',
+      entityId: measurementId,
+      campaignId: before.campaignId,
+      reason,
+      before: snapshot(before),
+      after: snapshot(after),
+    });
     return after;
   });
 }
 
-export async function updateMeasurement(db: Knex, actor: ProjectActor, measurementId: string, input: MeasurementUpdate): Promise<Measurement> {
+export async function updateMeasurement(
+  db: Knex,
+  actor: ProjectActor,
+  measurementId: string,
+  input: MeasurementUpdate,
+): Promise<Measurement> {
   const { version, reason, ...changes } = input;
   return patchMeasurement(db, actor, measurementId, version, measurementColumns(changes), reason);
 }
 
 /** Exclude a point from fits with a reason, or include it again; it is never deleted by this. */
-export async function setMeasurementExclusion(db: Knex, actor: ProjectActor, measurementId: string, input: MeasurementExclusion): Promise<Measurement> {
-  return patchMeasurement(db, actor, measurementId, input.version, input.excluded ? { excluded: true, excludedReason: input.reason } : { excluded: false, excludedReason: null }, input.excluded ? input.reason : null);
+export async function setMeasurementExclusion(
+  db: Knex,
+  actor: ProjectActor,
+  measurementId: string,
+  input: MeasurementExclusion,
+): Promise<Measurement> {
+  return patchMeasurement(
+    db,
+    actor,
+    measurementId,
+    input.version,
+    input.excluded ? { excluded: true, excludedReason: input.reason } : { excluded: false, excludedReason: null },
+    input.excluded ? input.reason : null,
+  );
 }
 
-export async function deleteMeasurement(db: Knex, actor: ProjectActor, measurementId: string, version: number, reason: string): Promise<void> {
+export async function deleteMeasurement(
+  db: Knex,
+  actor: ProjectActor,
+  measurementId: string,
+  version: number,
+  reason: string,
+): Promise<void> {
   await db.transaction(async (trx) => {
     const before = await getMeasurementForUpdate(trx, actor.projectId, measurementId);
     if (before.version !== version) throw staleVersion('measurement', version, before.version);
     await Measurement.query(trx).deleteById(measurementId);
-    await recordAudit(trx, { ...auditActor(actor), action: 'delete', entityType: 'measurement', entityId: measurementId, campaignId: before.campaignId, reason, before: snapshot(before), after: null });
+    await recordAudit(trx, {
+      ...auditActor(actor),
+      action: 'delete',
+      entityType: 'measurement',
+      entityId: measurementId,
+      campaignId: before.campaignId,
+      reason,
+      before: snapshot(before),
+      after: null,
+    });
   });
 }
 
@@ -431,7 +548,15 @@ export async function saveForecast(db: Knex, actor: ProjectActor, campaignId: st
         createdByUserId: actor.actorUserId,
       })
       .returning('*');
-    await recordAudit(trx, { ...auditActor(actor), action: 'create', entityType: 'saved_forecast', entityId: forecast.id, campaignId, before: null, after: snapshot(forecast) });
+    await recordAudit(trx, {
+      ...auditActor(actor),
+      action: 'create',
+      entityType: 'saved_forecast',
+      entityId: forecast.id,
+      campaignId,
+      before: null,
+      after: snapshot(forecast),
+    });
     return forecast;
   });
 }
@@ -453,7 +578,15 @@ export async function deleteSavedForecast(db: Knex, actor: ProjectActor, forecas
       .first();
     if (!forecast) throw forecastNotFound();
     await SavedForecast.query(trx).deleteById(forecastId);
-    await recordAudit(trx, { ...auditActor(actor), action: 'delete', entityType: 'saved_forecast', entityId: forecastId, campaignId: forecast.campaignId, before: snapshot(forecast), after: null });
+    await recordAudit(trx, {
+      ...auditActor(actor),
+      action: 'delete',
+      entityType: 'saved_forecast',
+      entityId: forecastId,
+      campaignId: forecast.campaignId,
+      before: snapshot(forecast),
+      after: null,
+    });
   });
 }
 
@@ -464,12 +597,23 @@ export const MAX_BATCH_MEASUREMENTS = 5000;
  * Add many measurements to a campaign in one transaction with one audit event: all are stored,
  * or none (a database refusal of any row rolls back every row).
  */
-export async function createMeasurementsBatch(db: Knex, actor: ProjectActor, campaignId: string, inputs: MeasurementCreate[]): Promise<number> {
+export async function createMeasurementsBatch(
+  db: Knex,
+  actor: ProjectActor,
+  campaignId: string,
+  inputs: MeasurementCreate[],
+): Promise<number> {
   return db.transaction(async (trx) => {
     const campaign = await getCampaignForUpdate(trx, actor.projectId, campaignId);
     await assertMeasurementsOpen(trx, campaign);
     const stamp = new Date();
-    const rows = inputs.map((input) => ({ ...measurementColumns(input), campaignId, createdByUserId: actor.actorUserId, createdAt: stamp, updatedAt: stamp }));
+    const rows = inputs.map((input) => ({
+      ...measurementColumns(input),
+      campaignId,
+      createdByUserId: actor.actorUserId,
+      createdAt: stamp,
+      updatedAt: stamp,
+    }));
     // Chunked so a 5000-row batch stays well under PostgreSQL's bind-parameter limit.
     for (let i = 0; i < rows.length; i += 1000) await trx('measurements').insert(rows.slice(i, i + 1000));
     await trx('campaigns').where({ id: campaignId }).update({ updatedAt: stamp });

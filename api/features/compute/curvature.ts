@@ -31,7 +31,11 @@ function branchOut(b: SegmentedBranch) {
     slope: b.slopeK,
     slopeSe: b.slopeSeK,
     intercept: b.intercept,
-    ddH: { 'kJ/mol': kJ(b.ddHJPerMol), 'kcal/mol': kcal(b.ddHJPerMol), se: b.ddHSeJPerMol === null ? null : { 'kJ/mol': kJ(b.ddHSeJPerMol), 'kcal/mol': kcal(b.ddHSeJPerMol) } },
+    ddH: {
+      'kJ/mol': kJ(b.ddHJPerMol),
+      'kcal/mol': kcal(b.ddHJPerMol),
+      se: b.ddHSeJPerMol === null ? null : { 'kJ/mol': kJ(b.ddHSeJPerMol), 'kcal/mol': kcal(b.ddHSeJPerMol) },
+    },
     ddS: { 'J/(mol*K)': b.ddSJPerMolK, 'cal/(mol*K)': calK(b.ddSJPerMolK) },
   };
 }
@@ -68,7 +72,14 @@ export function curvatureOut(check: BreakCheck): FitResponse['twoBranch'] {
       : null,
     low: accepted ? branchOut(check.low) : null,
     high: accepted ? branchOut(check.high) : null,
-    breakTest: { method: 'sup-F, parametric bootstrap', F: check.fStatistic, p: check.pValue, resamples: check.resamples, seed: check.seed, alpha: check.alpha },
+    breakTest: {
+      method: 'sup-F, parametric bootstrap',
+      F: check.fStatistic,
+      p: check.pValue,
+      resamples: check.resamples,
+      seed: check.seed,
+      alpha: check.alpha,
+    },
     lackOfFit,
     note: [check.reason, ...check.notes].join(' '),
   };

@@ -47,23 +47,33 @@ const checkSelectivity = (s: { measure: z.infer<typeof selectivityMeasureSchema>
 export const selectivitySchema = z
   .object(selectivityFields)
   .superRefine(checkSelectivity)
-  .meta({ id: 'Selectivity', description: 'An observed selectivity, e.g. { "measure": "ee", "value": 92.5 } or { "measure": "dr", "value": "12:1" }' });
+  .meta({
+    id: 'Selectivity',
+    description: 'An observed selectivity, e.g. { "measure": "ee", "value": 92.5 } or { "measure": "dr", "value": "12:1" }',
+  });
 /** A measured selectivity, which may be a bound ("≥ 99.8 % ee", "> 200:1"). */
 export const measuredSelectivitySchema = z
   .object({
     ...selectivityFields,
     atLeast: z.boolean().optional().meta({
-      description: 'The assay reported only a bound ("at least this selective"): fitted as a censored run at the quantitation limit, or at this value when it is a weaker bound',
+      description:
+        'The assay reported only a bound ("at least this selective"): fitted as a censored run at the quantitation limit, or at this value when it is a weaker bound',
     }),
   })
   .superRefine(checkSelectivity)
   .meta({ id: 'MeasuredSelectivity', description: 'A measured selectivity; `atLeast: true` marks a lower bound such as "≥ 99.8 % ee"' });
 
 export const temperatureRangeSchema = z
-  .object({ from: temperatureSchema, to: temperatureSchema, count: z.number().int('must be a whole number').min(1).max(MAX_POINTS, `at most ${MAX_POINTS} temperatures`) })
+  .object({
+    from: temperatureSchema,
+    to: temperatureSchema,
+    count: z.number().int('must be a whole number').min(1).max(MAX_POINTS, `at most ${MAX_POINTS} temperatures`),
+  })
   .meta({ id: 'TemperatureRange' });
 export const temperatureListSchema = z
-  .object({ values: z.array(temperatureSchema).min(1, 'give at least one temperature').max(MAX_POINTS, `at most ${MAX_POINTS} temperatures`) })
+  .object({
+    values: z.array(temperatureSchema).min(1, 'give at least one temperature').max(MAX_POINTS, `at most ${MAX_POINTS} temperatures`),
+  })
   .meta({ id: 'TemperatureList' });
 export const temperaturesSchema = z.union([temperatureRangeSchema, temperatureListSchema]);
 
@@ -72,7 +82,12 @@ export const forecastBasisSchema = z
   .discriminatedUnion('kind', [
     z.object({ kind: z.literal('activation'), ddH: energySchema, ddS: entropySchema }),
     z.object({ kind: z.literal('gap'), ddG: energySchema, temperature: temperatureSchema, ddS: entropySchema.optional() }),
-    z.object({ kind: z.literal('observed'), selectivity: selectivitySchema, temperature: temperatureSchema, ddS: entropySchema.optional() }),
+    z.object({
+      kind: z.literal('observed'),
+      selectivity: selectivitySchema,
+      temperature: temperatureSchema,
+      ddS: entropySchema.optional(),
+    }),
   ])
   .meta({ id: 'ForecastBasis', description: 'What the forecast starts from. Signed: ΔΔX‡ = X‡(TS→B) − X‡(TS→A).' });
 
@@ -92,7 +107,11 @@ const zeroSelectivitySchema = z
     note: z.string(),
     /** Fieller confidence set (fits only): ranges in K, null ends meaning 0 K or no upper limit. */
     interval: z
-      .object({ ranges: z.array(z.object({ fromKelvin: z.number().nullable(), toKelvin: z.number().nullable() })), bounded: z.boolean(), note: z.string() })
+      .object({
+        ranges: z.array(z.object({ fromKelvin: z.number().nullable(), toKelvin: z.number().nullable() })),
+        bounded: z.boolean(),
+        note: z.string(),
+      })
       .nullable()
       .optional(),
     /** Outside both the data and the temperatures asked about. */
@@ -135,7 +154,8 @@ export const quantitationLimitSchema = z
   })
   .meta({
     id: 'QuantitationLimit',
-    description: 'The assay\'s quantitation limit: ee in %, percentA and er as the major share in %, dr and ratio as r; runs at or beyond it are bounds. Default 99.8 % ee.',
+    description:
+      "The assay's quantitation limit: ee in %, percentA and er as the major share in %, dr and ratio as r; runs at or beyond it are bounds. Default 99.8 % ee.",
   });
 
 export const measurementInputSchema = z
@@ -143,7 +163,8 @@ export const measurementInputSchema = z
     temperature: temperatureSchema,
     selectivity: measuredSelectivitySchema,
     uncertainty: finite('uncertainty').positive('must be greater than zero').optional().meta({
-      description: 'Standard deviation of the measured value, in its own units (ee and percentA: percentage points; er/dr/ratio: relative SD of r)',
+      description:
+        'Standard deviation of the measured value, in its own units (ee and percentA: percentage points; er/dr/ratio: relative SD of r)',
     }),
     excluded: z.boolean().optional(),
     label: z.string().max(200).optional(),
@@ -152,10 +173,14 @@ export const measurementInputSchema = z
 
 export const fitRequestSchema = z
   .object({
-    measurements: z.array(measurementInputSchema).min(1, 'give at least two measurements').max(MAX_POINTS, `at most ${MAX_POINTS} measurements`),
+    measurements: z
+      .array(measurementInputSchema)
+      .min(1, 'give at least two measurements')
+      .max(MAX_POINTS, `at most ${MAX_POINTS} measurements`),
     weighting: z.enum(['none', 'uncertainty']).default('none'),
     uncertaintyScale: z.enum(['absolute', 'relative']).default('absolute').meta({
-      description: 'absolute: the uncertainties are true SDs; relative: only their ratios matter and the covariance is scaled by χ²/(n − 2)',
+      description:
+        'absolute: the uncertainties are true SDs; relative: only their ratios matter and the covariance is scaled by χ²/(n − 2)',
     }),
     confidence: z.number().gt(0.5, 'must be above 0.5').lt(1, 'must be below 1').default(0.95),
     predict: z.array(temperatureSchema).max(MAX_POINTS).default([]),
@@ -163,7 +188,9 @@ export const fitRequestSchema = z
       description:
         "SD of the assay that will measure a new run, in the units of newRunMeasure (see Measurement.uncertainty); propagated at each predicted value. Default: the median uncertainty of the runs in that measure, else the screen's scatter",
     }),
-    newRunMeasure: selectivityMeasureSchema.optional().meta({ description: 'Measure of newRunUncertainty; default the measure most runs are reported in' }),
+    newRunMeasure: selectivityMeasureSchema
+      .optional()
+      .meta({ description: 'Measure of newRunUncertainty; default the measure most runs are reported in' }),
     quantitationLimit: quantitationLimitSchema.optional(),
   })
   .meta({ id: 'FitRequest' });
@@ -173,7 +200,12 @@ export type FitRequestInput = z.input<typeof fitRequestSchema>;
 const intervalSchema = z.tuple([z.number(), z.number()]);
 /** Interval ends of r are null when r itself is beyond the representable range (ln r is always given). */
 const ratioIntervalSchema = z.tuple([z.number().nullable(), z.number().nullable()]);
-const mappedIntervalSchema = z.object({ lnRatio: intervalSchema.optional(), ratio: ratioIntervalSchema, eePercent: intervalSchema, percentA: intervalSchema });
+const mappedIntervalSchema = z.object({
+  lnRatio: intervalSchema.optional(),
+  ratio: ratioIntervalSchema,
+  eePercent: intervalSchema,
+  percentA: intervalSchema,
+});
 export const fitPredictionSchema = selectivityPointSchema
   .extend({
     /** null when r is beyond the representable range (outOfRange); ln r, ΔΔG‡ and the saturated ee still stand. */
@@ -239,13 +271,21 @@ export const branchSchema = z.object({
   slope: z.number(),
   slopeSe: z.number().nullable(),
   intercept: z.number(),
-  ddH: z.object({ 'kJ/mol': z.number(), 'kcal/mol': z.number(), se: z.object({ 'kJ/mol': z.number(), 'kcal/mol': z.number() }).nullable() }),
+  ddH: z.object({
+    'kJ/mol': z.number(),
+    'kcal/mol': z.number(),
+    se: z.object({ 'kJ/mol': z.number(), 'kcal/mol': z.number() }).nullable(),
+  }),
   ddS: z.object({ 'J/(mol*K)': z.number(), 'cal/(mol*K)': z.number() }),
 });
 
 const lackOfFitSchema = z
   .object({ F: z.number(), dof1: z.number().int(), dof2: z.number().int(), p: z.number() })
-  .meta({ id: 'LackOfFitTest', description: 'Classical lack-of-fit F test of one straight line: lack of fit (dof1 = m − 2) against pure error from replicates (dof2 = n − m).' });
+  .meta({
+    id: 'LackOfFitTest',
+    description:
+      'Classical lack-of-fit F test of one straight line: lack of fit (dof1 = m − 2) against pure error from replicates (dof2 = n − m).',
+  });
 
 const curvatureCheckedSchema = z.object({
   checked: z.literal(true),
@@ -259,7 +299,13 @@ const curvatureCheckedSchema = z.object({
     .object({
       kelvin: z.number(),
       celsius: z.number(),
-      ci: z.object({ level: z.number(), kelvin: z.tuple([z.number(), z.number().nullable()]), celsius: z.tuple([z.number(), z.number().nullable()]) }).nullable(),
+      ci: z
+        .object({
+          level: z.number(),
+          kelvin: z.tuple([z.number(), z.number().nullable()]),
+          celsius: z.tuple([z.number(), z.number().nullable()]),
+        })
+        .nullable(),
       label: z.string(),
     })
     .nullable(),
@@ -316,7 +362,13 @@ export const fitResponseSchema = z
       .nullable()
       .optional(),
     censoredFit: z
-      .object({ logLikelihood: z.number(), iterations: z.number().int(), scale: z.number(), nLower: z.number().int(), nUpper: z.number().int() })
+      .object({
+        logLikelihood: z.number(),
+        iterations: z.number().int(),
+        scale: z.number(),
+        nLower: z.number().int(),
+        nUpper: z.number().int(),
+      })
       .nullable()
       .optional(),
     quantitationLimit: z.object({ measure: selectivityMeasureSchema, value: z.number(), lnRatio: z.number() }).optional(),
@@ -335,7 +387,12 @@ export const fitResponseSchema = z
       .optional(),
     /** Where a new run's own scatter in the prediction interval comes from. */
     newRun: z
-      .object({ source: z.enum(['assay', 'screen-scatter']), measure: selectivityMeasureSchema.nullable(), uncertainty: z.number().nullable(), note: z.string() })
+      .object({
+        source: z.enum(['assay', 'screen-scatter']),
+        measure: selectivityMeasureSchema.nullable(),
+        uncertainty: z.number().nullable(),
+        note: z.string(),
+      })
       .optional(),
     twoBranch: twoBranchSchema,
     warnings: z.array(warningSchema),

@@ -74,7 +74,8 @@ export function withRequestPaths<T>(rename: (field: string) => string | null, ru
 /** Engine argument paths of a fit → request paths of POST /fit. */
 export function fitRequestPath(field: string): string | null {
   const m = /^measurements\[(\d+)\]\.(temperatureK|ratio|sigmaLnR)$/.exec(field);
-  if (m) return `measurements.${m[1]}.${{ temperatureK: 'temperature.value', ratio: 'selectivity.value', sigmaLnR: 'uncertainty' }[m[2] as 'ratio']}`;
+  if (m)
+    return `measurements.${m[1]}.${{ temperatureK: 'temperature.value', ratio: 'selectivity.value', sigmaLnR: 'uncertainty' }[m[2] as 'ratio']}`;
   const t = /^temperaturesK\[(\d+)\]$/.exec(field);
   if (t) return `predict.${t[1]}.value`;
   if (field === 'censorLnRatio' || field === 'censorEePercent') return 'quantitationLimit.value';
@@ -103,7 +104,11 @@ function zeroSelectivity(t0: number | null, far: boolean, interval?: ZeroSelecti
       ? {}
       : {
           interval: interval
-            ? { ranges: interval.ranges.map((r) => ({ fromKelvin: r.fromK, toKelvin: r.toK })), bounded: interval.bounded, note: interval.message }
+            ? {
+                ranges: interval.ranges.map((r) => ({ fromKelvin: r.fromK, toKelvin: r.toK })),
+                bounded: interval.bounded,
+                note: interval.message,
+              }
             : null,
         }),
   };
@@ -252,7 +257,8 @@ function newRunNote(precision: AssayPrecision | null | undefined, origin: FitOpt
   if (!precision) {
     return "No assay precision is known, so a new run is assumed to scatter like the screen's runs about the line.";
   }
-  const from = origin === 'request' ? 'as given' : origin === 'campaign' ? "the campaign's setting" : "the median of the runs' own uncertainties";
+  const from =
+    origin === 'request' ? 'as given' : origin === 'campaign' ? "the campaign's setting" : "the median of the runs' own uncertainties";
   return `A new run adds its own assay error, ± ${precision.uncertainty} (${precision.measure}, ${from}), propagated to ln r at each predicted value.`;
 }
 
@@ -297,9 +303,7 @@ export function analyseScreen(measurements: EyringMeasurement[], options: FitOpt
       'J/(mol*K)': fit.ddSJPerMolK,
       'cal/(mol*K)': calK(fit.ddSJPerMolK),
       se: fit.ddSSeJPerMolK === null ? null : { 'J/(mol*K)': fit.ddSSeJPerMolK, 'cal/(mol*K)': calK(fit.ddSSeJPerMolK) },
-      ci: fit.ddSCiJPerMolK
-        ? { 'J/(mol*K)': fit.ddSCiJPerMolK, 'cal/(mol*K)': pair(calK, fit.ddSCiJPerMolK) }
-        : null,
+      ci: fit.ddSCiJPerMolK ? { 'J/(mol*K)': fit.ddSCiJPerMolK, 'cal/(mol*K)': pair(calK, fit.ddSCiJPerMolK) } : null,
     },
     ddGAt25C: {
       ...ddGOut(at25.ddGJPerMol),
@@ -333,7 +337,11 @@ export function analyseScreen(measurements: EyringMeasurement[], options: FitOpt
     leastSquaresWithoutBounds: ls
       ? {
           n: ls.nFitted,
-          ddH: { ...ddGOut(ls.ddHJPerMol), se: energy(ls.ddHSeJPerMol), ci: ls.ddHCiJPerMol ? { 'kJ/mol': pair(kJ, ls.ddHCiJPerMol), 'kcal/mol': pair(kcal, ls.ddHCiJPerMol) } : null },
+          ddH: {
+            ...ddGOut(ls.ddHJPerMol),
+            se: energy(ls.ddHSeJPerMol),
+            ci: ls.ddHCiJPerMol ? { 'kJ/mol': pair(kJ, ls.ddHCiJPerMol), 'kcal/mol': pair(kcal, ls.ddHCiJPerMol) } : null,
+          },
           ddS: {
             'J/(mol*K)': ls.ddSJPerMolK,
             'cal/(mol*K)': calK(ls.ddSJPerMolK),
@@ -356,23 +364,30 @@ export function analyseScreen(measurements: EyringMeasurement[], options: FitOpt
     warnings: [...fit.warnings, ...curvature.warnings],
     convention: SIGN_CONVENTION,
     caution: SELECTIVITY_CAUTION,
-    predictions: fit.predictions.map((p) => modelPrediction(model, {
-      kelvin: p.temperatureK,
-      celsius: p.celsius,
-      ratio: finiteOrNull(p.ratio),
-      lnRatio: p.lnRatio,
-      outOfRange: p.outOfRange,
-      newRunSigmaLnR: p.newRunSigmaLnR,
-      eePercent: p.eePercent,
-      percentA: p.percentA,
-      ddG: ddGOut(p.ddGJPerMol),
-      ddGSe: p.ddGSeJPerMol === null ? null : ddGOut(p.ddGSeJPerMol),
-      extrapolated: p.extrapolated,
-      model: 'one-line',
-      branch: null,
-      confidenceInterval: mapInterval(p.meanInterval),
-      predictionInterval: mapInterval(p.predictionInterval),
-    }, fit.confidenceLevel, options.newRun)),
+    predictions: fit.predictions.map((p) =>
+      modelPrediction(
+        model,
+        {
+          kelvin: p.temperatureK,
+          celsius: p.celsius,
+          ratio: finiteOrNull(p.ratio),
+          lnRatio: p.lnRatio,
+          outOfRange: p.outOfRange,
+          newRunSigmaLnR: p.newRunSigmaLnR,
+          eePercent: p.eePercent,
+          percentA: p.percentA,
+          ddG: ddGOut(p.ddGJPerMol),
+          ddGSe: p.ddGSeJPerMol === null ? null : ddGOut(p.ddGSeJPerMol),
+          extrapolated: p.extrapolated,
+          model: 'one-line',
+          branch: null,
+          confidenceInterval: mapInterval(p.meanInterval),
+          predictionInterval: mapInterval(p.predictionInterval),
+        },
+        fit.confidenceLevel,
+        options.newRun,
+      ),
+    ),
   };
 }
 

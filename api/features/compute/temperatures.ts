@@ -20,7 +20,10 @@ export function expandTemperatures(input: z.infer<typeof temperaturesSchema>, fi
   const n = input.count;
   if (n === 1 && Math.abs(to - from) > 1e-9) {
     throw new BadRequestError(`${field}.count is 1 but the range runs from ${from} K to ${to} K.`, [
-      { path: `${field}.count`, message: 'a range from one temperature to a different one needs a count of at least 2 (or give to equal to from)' },
+      {
+        path: `${field}.count`,
+        message: 'a range from one temperature to a different one needs a count of at least 2 (or give to equal to from)',
+      },
     ]);
   }
   const kelvins = n === 1 ? [from] : Array.from({ length: n }, (_, i) => (i === n - 1 ? to : from + ((to - from) * i) / (n - 1)));
@@ -36,7 +39,9 @@ export function looksLikeKelvin(value: number, unit: 'K' | 'C' | 'F'): boolean {
 }
 
 /** The calculator's warning for temperatures that look like kelvin labelled °C/°F, or null. */
-export function kelvinLookingWarning(temperatures: readonly { value: number; unit: 'K' | 'C' | 'F' }[]): { code: string; message: string } | null {
+export function kelvinLookingWarning(
+  temperatures: readonly { value: number; unit: 'K' | 'C' | 'F' }[],
+): { code: string; message: string } | null {
   const odd = temperatures.filter((t) => looksLikeKelvin(t.value, t.unit));
   if (odd.length === 0) return null;
   const unit = odd[0]!.unit === 'C' ? '°C' : '°F';

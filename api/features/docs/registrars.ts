@@ -6,4 +6,11 @@ import { registerJobs } from '../jobs/openapi';
 import { registerPlan, registerPlanStore } from '../plan/openapi';
 
 /** Every feature that documents its routes in the OpenAPI description adds its registrar here. */
-export const openApiRegistrars: OpenApiRegistrar[] = [registerCompute, registerKinetics, registerPlan, registerCampaigns, registerPlanStore, registerJobs];
+export const openApiRegistrars: OpenApiRegistrar[] = [
+  registerCompute,
+  registerKinetics,
+  registerPlan,
+  registerCampaigns,
+  registerPlanStore,
+  registerJobs,
+];

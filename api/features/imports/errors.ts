@@ -11,7 +11,9 @@ export interface ImportIssue {
 }
 
 export function issueToFieldError(issue: ImportIssue): FieldError {
-  const where = [issue.row !== null ? `row ${issue.row}` : null, issue.column !== null ? `column ${issue.column}` : null].filter(Boolean).join(', ');
+  const where = [issue.row !== null ? `row ${issue.row}` : null, issue.column !== null ? `column ${issue.column}` : null]
+    .filter(Boolean)
+    .join(', ');
   return { path: where || 'file', message: issue.message };
 }
 

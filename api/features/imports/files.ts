@@ -77,7 +77,11 @@ export async function listImportFiles(db: Knex, campaignId: string): Promise<Imp
 }
 
 /** One kept file with its bytes, or NotFoundError. */
-export async function readImportFile(db: Knex, projectId: string, fileId: string): Promise<{ fileName: string; mediaType: string; sha256: string; content: Buffer }> {
+export async function readImportFile(
+  db: Knex,
+  projectId: string,
+  fileId: string,
+): Promise<{ fileName: string; mediaType: string; sha256: string; content: Buffer }> {
   if (!isUuid(fileId)) throw fileNotFound();
   const row = await db('importFiles as f')
     .join('campaigns as c', 'c.id', 'f.campaignId')

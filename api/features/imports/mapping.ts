@@ -167,7 +167,10 @@ export function columnLabel(table: Pick<ParsedTable, 'headers'>, index: number):
 }
 
 /** Column indices per mapped field, or issues when a column reference does not fit the file. */
-export function resolveColumns(table: Pick<ParsedTable, 'headers'>, mapping: ImportMapping): { columns: Partial<Record<ImportField, number>>; issues: ImportIssue[] } {
+export function resolveColumns(
+  table: Pick<ParsedTable, 'headers'>,
+  mapping: ImportMapping,
+): { columns: Partial<Record<ImportField, number>>; issues: ImportIssue[] } {
   const issues: ImportIssue[] = [];
   const columns: Partial<Record<ImportField, number>> = {};
   const usedBy = new Map<number, ImportField>();
@@ -179,7 +182,12 @@ export function resolveColumns(table: Pick<ParsedTable, 'headers'>, mapping: Imp
     let index: number;
     if (typeof ref === 'number') {
       if (ref >= width) {
-        issues.push({ severity: 'error', row: null, column: null, message: `${field} is mapped to column ${columnLetter(ref)}, but the file has only ${width} columns.` });
+        issues.push({
+          severity: 'error',
+          row: null,
+          column: null,
+          message: `${field} is mapped to column ${columnLetter(ref)}, but the file has only ${width} columns.`,
+        });
         continue;
       }
       index = ref;
@@ -187,18 +195,33 @@ export function resolveColumns(table: Pick<ParsedTable, 'headers'>, mapping: Imp
       const wanted = ref.trim().toLowerCase();
       const hits = table.headers.flatMap((h, i) => (h.trim().toLowerCase() === wanted ? [i] : []));
       if (hits.length === 0) {
-        issues.push({ severity: 'error', row: null, column: null, message: `${field} is mapped to a column named "${ref}", but the file has no such column (its columns are ${names}).` });
+        issues.push({
+          severity: 'error',
+          row: null,
+          column: null,
+          message: `${field} is mapped to a column named "${ref}", but the file has no such column (its columns are ${names}).`,
+        });
         continue;
       }
       if (hits.length > 1) {
-        issues.push({ severity: 'error', row: null, column: null, message: `${field}: ${hits.length} columns are named "${ref}" (${hits.map(columnLetter).join(', ')}); map it by position instead.` });
+        issues.push({
+          severity: 'error',
+          row: null,
+          column: null,
+          message: `${field}: ${hits.length} columns are named "${ref}" (${hits.map(columnLetter).join(', ')}); map it by position instead.`,
+        });
         continue;
       }
       index = hits[0];
     }
     const other = usedBy.get(index);
     if (other) {
-      issues.push({ severity: 'error', row: null, column: columnLabel(table, index), message: `column is mapped twice, to ${other} and to ${field}.` });
+      issues.push({
+        severity: 'error',
+        row: null,
+        column: columnLabel(table, index),
+        message: `column is mapped twice, to ${other} and to ${field}.`,
+      });
       continue;
     }
     usedBy.set(index, field);
@@ -219,15 +242,23 @@ function cellText(cell: Cell): string {
 
 /** A number from a cell, honouring the file's decimal separator; `what` names it in messages. */
 function readNumber(cell: Cell, decimal: DecimalSeparator, what: string): Read<number> {
-  if (typeof cell === 'number') return Number.isFinite(cell) ? { ok: true, value: cell } : { ok: false, message: `${what} is not a finite number` };
+  if (typeof cell === 'number')
+    return Number.isFinite(cell) ? { ok: true, value: cell } : { ok: false, message: `${what} is not a finite number` };
   const raw = (cell ?? '').trim();
   let text = raw.replace(MINUS, '-').replace(/\s+/g, '');
   if (decimal === ',') {
     if (/^[+-]?\d{1,3}(\.\d{3})+(,\d+)?$/.test(text)) text = text.replace(/\./g, '');
-    else if (/\d\.\d/.test(text)) return { ok: false, message: `"${raw}" uses a decimal point, but this file uses decimal commas; write it ${raw.replace('.', ',')} or change the decimal setting` };
+    else if (/\d\.\d/.test(text))
+      return {
+        ok: false,
+        message: `"${raw}" uses a decimal point, but this file uses decimal commas; write it ${raw.replace('.', ',')} or change the decimal setting`,
+      };
     text = text.replace(',', '.');
   } else if (/^[+-]?\d+,\d+$/.test(text)) {
-    return { ok: false, message: `"${raw}" uses a decimal comma, but this file uses decimal points; fix the cell or change the decimal setting` };
+    return {
+      ok: false,
+      message: `"${raw}" uses a decimal comma, but this file uses decimal points; fix the cell or change the decimal setting`,
+    };
   }
   if (!DECIMAL_PATTERN.test(text)) return { ok: false, message: `${what} "${raw}" is not a number` };
   return { ok: true, value: Number(text) };
@@ -266,7 +297,6 @@ const MEASURE_WORDS: Record<string, SelectivityMeasure> = Object.fromEntries([
   ['r', 'ratio'],
 ]);
 
-
 function unitLabel(unit: TemperatureUnit): string {
   return unit === 'K' ? 'K' : `°${unit}`;
 }
@@ -286,7 +316,13 @@ interface RowContext {
   warningCount: number;
 }
 
-function addIssue(ctx: RowContext, severity: ImportIssue['severity'], row: number | null, field: ImportField | null, message: string): void {
+function addIssue(
+  ctx: RowContext,
+  severity: ImportIssue['severity'],
+  row: number | null,
+  field: ImportField | null,
+  message: string,
+): void {
   if (severity === 'error') ctx.errorCount += 1;
   else ctx.warningCount += 1;
   if (ctx.issues.length < MAX_LISTED_ISSUES) {
@@ -333,18 +369,42 @@ function readTemperatureK(ctx: RowContext, cells: Cell[], row: number): number {
   if (!unit) return Number.NaN;
   const k = toKelvin(t.value, unit);
   if (!(k > 0)) {
-    addIssue(ctx, 'error', row, 'temperature', `${round(t.value)} ${unitLabel(unit)} is at or below absolute zero${unit === 'K' ? '; is it in °C?' : '.'}`);
+    addIssue(
+      ctx,
+      'error',
+      row,
+      'temperature',
+      `${round(t.value)} ${unitLabel(unit)} is at or below absolute zero${unit === 'K' ? '; is it in °C?' : '.'}`,
+    );
     return Number.NaN;
   }
   if (k > MAX_TEMPERATURE_K) {
-    addIssue(ctx, 'error', row, 'temperature', `${round(t.value)} ${unitLabel(unit)} is ${round(k, 0)} K, above the ${MAX_TEMPERATURE_K} K accepted; is the unit right?`);
+    addIssue(
+      ctx,
+      'error',
+      row,
+      'temperature',
+      `${round(t.value)} ${unitLabel(unit)} is ${round(k, 0)} K, above the ${MAX_TEMPERATURE_K} K accepted; is the unit right?`,
+    );
     return Number.NaN;
   }
   // Plausibility: screens run roughly between −100 and +150 °C, so these are probably the wrong unit.
   if (looksLikeKelvin(t.value, unit)) {
-    addIssue(ctx, 'warning', row, 'temperature', `${round(t.value)} labelled ${unitLabel(unit)} would be ${round(k)} K; it looks like a kelvin value. Check the unit.`);
+    addIssue(
+      ctx,
+      'warning',
+      row,
+      'temperature',
+      `${round(t.value)} labelled ${unitLabel(unit)} would be ${round(k)} K; it looks like a kelvin value. Check the unit.`,
+    );
   } else if (unit === 'K' && k < 150) {
-    addIssue(ctx, 'warning', row, 'temperature', `${round(t.value)} K is ${round(celsiusFromKelvin(k))} °C, colder than any solution screen; it looks like a °C value. Check the unit.`);
+    addIssue(
+      ctx,
+      'warning',
+      row,
+      'temperature',
+      `${round(t.value)} K is ${round(celsiusFromKelvin(k))} °C, colder than any solution screen; it looks like a °C value. Check the unit.`,
+    );
   }
   return k;
 }
@@ -356,12 +416,18 @@ function readMeasure(ctx: RowContext, cells: Cell[], row: number): SelectivityMe
     return ctx.mapping.measure;
   }
   const measure = MEASURE_WORDS[normaliseHeader(cellText(mCell))] ?? measureIn(cellText(mCell));
-  if (!measure) addIssue(ctx, 'error', row, 'measure', `unknown measure "${cellText(mCell)}"; use one of ${SELECTIVITY_MEASURES.join(', ')}.`);
+  if (!measure)
+    addIssue(ctx, 'error', row, 'measure', `unknown measure "${cellText(mCell)}"; use one of ${SELECTIVITY_MEASURES.join(', ')}.`);
   return measure;
 }
 
 /** The selectivity: a number, "a:b" for ratios, possibly a lower bound ("≥ 99.8") at an assay limit. Null after an error. */
-function readSelectivity(ctx: RowContext, cells: Cell[], row: number, measure: SelectivityMeasure): { value: number; valueB: number | null; isLowerBound: boolean } | null {
+function readSelectivity(
+  ctx: RowContext,
+  cells: Cell[],
+  row: number,
+  measure: SelectivityMeasure,
+): { value: number; valueB: number | null; isLowerBound: boolean } | null {
   const vCell = cellOf(ctx, cells, 'value');
   if (vCell === null) {
     addIssue(ctx, 'error', row, 'value', 'the selectivity value is missing.');
@@ -375,7 +441,13 @@ function readSelectivity(ctx: RowContext, cells: Cell[], row: number, measure: S
   // The shared grammar: "≥ 99.8", ">99.8", "99.8+" and "> 200:1" are lower bounds, as in the grid.
   const bound = splitBound(vCell);
   if (bound.bound === 'upper') {
-    addIssue(ctx, 'error', row, 'value', `"${vCell.trim()}" is an upper bound; only lower bounds (≥, >, or a trailing +) can be imported, e.g. "≥ 99.8" at the detection limit.`);
+    addIssue(
+      ctx,
+      'error',
+      row,
+      'value',
+      `"${vCell.trim()}" is an upper bound; only lower bounds (≥, >, or a trailing +) can be imported, e.g. "≥ 99.8" at the detection limit.`,
+    );
     return null;
   }
   const isLowerBound = bound.bound === 'lower';
@@ -395,7 +467,8 @@ function readSelectivity(ctx: RowContext, cells: Cell[], row: number, measure: S
     value = n.ok ? n.value : Number.NaN;
     problem = n.ok ? selectivityProblem(measure, n.value) : n.message;
   }
-  if (!problem && isLowerBound && measure === 'ee' && value < 0) problem = `a lower bound must be for product A (a positive ee), got "${vCell}"`;
+  if (!problem && isLowerBound && measure === 'ee' && value < 0)
+    problem = `a lower bound must be for product A (a positive ee), got "${vCell}"`;
   if (problem) {
     addIssue(ctx, 'error', row, 'value', `${problem.replace(/\.$/, '')}.`);
     return null;
@@ -404,7 +477,16 @@ function readSelectivity(ctx: RowContext, cells: Cell[], row: number, measure: S
 }
 
 /** An optional number within [min, max] (`%` after it allowed); undefined after an error, null when blank. */
-function readOptionalNumber(ctx: RowContext, cells: Cell[], row: number, field: ImportField, what: string, min: number, max: number, unit: string): number | null | undefined {
+function readOptionalNumber(
+  ctx: RowContext,
+  cells: Cell[],
+  row: number,
+  field: ImportField,
+  what: string,
+  min: number,
+  max: number,
+  unit: string,
+): number | null | undefined {
   const cell = cellOf(ctx, cells, field);
   if (cell === null) return null;
   const n = readNumber(typeof cell === 'string' ? cell.trim().replace(/\s*%$/, '') : cell, ctx.decimal, what);
@@ -413,7 +495,12 @@ function readOptionalNumber(ctx: RowContext, cells: Cell[], row: number, field: 
     return undefined;
   }
   if (n.value < min || n.value > max) {
-    const range = max === Infinity ? `must not be negative` : max === 100 && min === 0 && unit === ' %' ? 'must lie between 0 and 100 %' : `must be at least ${min} and below ${max}`;
+    const range =
+      max === Infinity
+        ? `must not be negative`
+        : max === 100 && min === 0 && unit === ' %'
+          ? 'must lie between 0 and 100 %'
+          : `must be at least ${min} and below ${max}`;
     addIssue(ctx, 'error', row, field, `${what} ${round(n.value)}${unit} ${range}.`);
     return undefined;
   }
@@ -470,7 +557,15 @@ export async function validateRowsYielding(table: ParsedTable, mapping: ImportMa
 
 function* validateRowsInSteps(table: ParsedTable, mapping: ImportMapping): Generator<void, ValidationResult, void> {
   const { columns, issues: mappingIssues } = resolveColumns(table, mapping);
-  const ctx: RowContext = { table, mapping, columns, decimal: table.decimalSeparator, issues: [...mappingIssues], errorCount: mappingIssues.length, warningCount: 0 };
+  const ctx: RowContext = {
+    table,
+    mapping,
+    columns,
+    decimal: table.decimalSeparator,
+    issues: [...mappingIssues],
+    errorCount: mappingIssues.length,
+    warningCount: 0,
+  };
   if (ctx.errorCount > 0) return { rows: [], issues: ctx.issues, errorCount: ctx.errorCount, warningCount: 0, rowCount: table.rows.length };
 
   const mapped = Object.values(columns);
@@ -478,7 +573,12 @@ function* validateRowsInSteps(table: ParsedTable, mapping: ImportMapping): Gener
     if (mapped.includes(i)) return;
     if (table.rows.some((r) => r.cells[i] !== null)) {
       ctx.warningCount += 1;
-      ctx.issues.push({ severity: 'warning', row: null, column: columnLabel(table, i), message: 'this column is not mapped to any field; its values will not be imported.' });
+      ctx.issues.push({
+        severity: 'warning',
+        row: null,
+        column: columnLabel(table, i),
+        message: 'this column is not mapped to any field; its values will not be imported.',
+      });
     }
   });
 
@@ -513,7 +613,13 @@ function* validateRowsInSteps(table: ParsedTable, mapping: ImportMapping): Gener
     const key = `${temperatureK.toFixed(3)}|${measure}|${value}|${valueB}|${isLowerBound}|${sampleId}|${replicateLabel}`;
     const firstRow = seenRows.get(key);
     if (firstRow !== undefined) {
-      addIssue(ctx, 'warning', row, null, `the row repeats row ${firstRow} (same temperature, selectivity, sample id and replicate). Import it only if it is a genuine repeat.`);
+      addIssue(
+        ctx,
+        'warning',
+        row,
+        null,
+        `the row repeats row ${firstRow} (same temperature, selectivity, sample id and replicate). Import it only if it is a genuine repeat.`,
+      );
     } else {
       seenRows.set(key, row);
       if (sampleId) {

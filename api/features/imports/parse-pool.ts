@@ -67,7 +67,11 @@ export interface WorkerRead {
  * Read `file` in a worker. Resolves with the table and the worker's peak memory; rejects with the
  * reader's own typed error (400/413), or with a 413 when the worker ran out of memory or time.
  */
-export async function readInPool(file: UploadedFile, options: ImportParseOptions, limits: ImportLimits): Promise<WorkerRead & { error?: never }> {
+export async function readInPool(
+  file: UploadedFile,
+  options: ImportParseOptions,
+  limits: ImportLimits,
+): Promise<WorkerRead & { error?: never }> {
   const answer = await runInPool(file, options, limits);
   if (!answer.ok) throw rebuildError(answer.error);
   return { table: answer.table, peakMemoryBytes: answer.peakMemoryBytes };
@@ -105,10 +109,14 @@ async function runTask(file: UploadedFile, task: unknown, name: string): Promise
   } catch (err) {
     const code = (err as { code?: string }).code;
     if (code === 'ERR_WORKER_OUT_OF_MEMORY') {
-      throw new PayloadTooLargeError(`${file.name} needs more memory to read than a table of measurements should; it was not imported. Save it again, or as CSV.`);
+      throw new PayloadTooLargeError(
+        `${file.name} needs more memory to read than a table of measurements should; it was not imported. Save it again, or as CSV.`,
+      );
     }
     if (signal.aborted) {
-      throw new PayloadTooLargeError(`${file.name} took longer than ${Math.round(poolOptions.timeoutMs / 1000)} s to read; it was not imported. Split it, or save it as CSV.`);
+      throw new PayloadTooLargeError(
+        `${file.name} took longer than ${Math.round(poolOptions.timeoutMs / 1000)} s to read; it was not imported. Split it, or save it as CSV.`,
+      );
     }
     throw new UnreadableFileError(`${file.name} could not be read.`);
   }

@@ -105,7 +105,8 @@ function describeContent(buf: Buffer): string {
 }
 
 const isZip = (buf: Buffer) => buf.length >= 4 && buf[0] === 0x50 && buf[1] === 0x4b && buf[2] === 0x03 && buf[3] === 0x04;
-const isOleCompound = (buf: Buffer) => buf.length >= 8 && buf.subarray(0, 8).equals(Buffer.from([0xd0, 0xcf, 0x11, 0xe0, 0xa1, 0xb1, 0x1a, 0xe1]));
+const isOleCompound = (buf: Buffer) =>
+  buf.length >= 8 && buf.subarray(0, 8).equals(Buffer.from([0xd0, 0xcf, 0x11, 0xe0, 0xa1, 0xb1, 0x1a, 0xe1]));
 
 function looksLikeText(buf: Buffer): boolean {
   const sample = buf.subarray(0, 4096);
@@ -125,7 +126,11 @@ export const IN_THREAD_MAX_BYTES = 256 * 1024;
  * Read an uploaded file into a table of cells: workbooks and large text files in a worker thread
  * with a memory cap (parse-pool.ts), small text files here. Errors as for `readUpload`.
  */
-export async function parseUpload(file: UploadedFile, options: ImportParseOptions = {}, limits: ImportLimits = IMPORT_LIMITS): Promise<ParsedTable> {
+export async function parseUpload(
+  file: UploadedFile,
+  options: ImportParseOptions = {},
+  limits: ImportLimits = IMPORT_LIMITS,
+): Promise<ParsedTable> {
   // Already in a reading worker (a whole preview runs there), or refused by size before any reading.
   if (!isMainThread || file.buffer.length > limits.maxBytes) return readUpload(file, options, limits);
   if (extensionOf(file.name) !== 'xlsx' && file.buffer.length <= IN_THREAD_MAX_BYTES) return readUpload(file, options, limits);
@@ -138,19 +143,34 @@ export async function parseUpload(file: UploadedFile, options: ImportParseOption
  * Throws PayloadTooLargeError (413) for files or tables over the limits and UnreadableFileError (400)
  * for anything that is not a readable table; both name the file and say what to do.
  */
-export async function readUpload(file: UploadedFile, options: ImportParseOptions = {}, limits: ImportLimits = IMPORT_LIMITS): Promise<ParsedTable> {
+export async function readUpload(
+  file: UploadedFile,
+  options: ImportParseOptions = {},
+  limits: ImportLimits = IMPORT_LIMITS,
+): Promise<ParsedTable> {
   const { name, buffer } = file;
   if (buffer.length > limits.maxBytes) {
-    throw new PayloadTooLargeError(`${name} is ${formatBytes(buffer.length)}; the largest file accepted is ${formatBytes(limits.maxBytes)}. Split it, or remove columns you do not need.`);
+    throw new PayloadTooLargeError(
+      `${name} is ${formatBytes(buffer.length)}; the largest file accepted is ${formatBytes(limits.maxBytes)}. Split it, or remove columns you do not need.`,
+    );
   }
   const ext = extensionOf(name);
   if (ext === 'xls') {
     throw new UnreadableFileError(`${name} is in the old .xls format, which is not read here; save it as .xlsx or as CSV.`);
   }
   if (ext !== 'xlsx' && !TEXT_EXTENSIONS.has(ext)) {
-    throw new UnreadableFileError(`${name}: only .csv, .tsv, .txt and .xlsx files can be imported${ext ? ` (this one ends in .${ext})` : ''}.`);
+    throw new UnreadableFileError(
+      `${name}: only .csv, .tsv, .txt and .xlsx files can be imported${ext ? ` (this one ends in .${ext})` : ''}.`,
+    );
   }
-  if (buffer.length === 0 || (TEXT_EXTENSIONS.has(ext) && buffer.toString('utf8').replace(/^\uFEFF/, '').trim() === '')) {
+  if (
+    buffer.length === 0 ||
+    (TEXT_EXTENSIONS.has(ext) &&
+      buffer
+        .toString('utf8')
+        .replace(/^\uFEFF/, '')
+        .trim() === '')
+  ) {
     throw new UnreadableFileError(`${name} is empty: there is nothing to import.`);
   }
   if (ext === 'xlsx') {
@@ -163,7 +183,9 @@ export async function readUpload(file: UploadedFile, options: ImportParseOptions
     return parseWorkbook(name, buffer, options, limits);
   }
   if (isZip(buffer) || isOleCompound(buffer)) {
-    throw new UnreadableFileError(`${name} is named .${ext} but contains a workbook or archive, not text; if it is an Excel workbook, rename it .xlsx.`);
+    throw new UnreadableFileError(
+      `${name} is named .${ext} but contains a workbook or archive, not text; if it is an Excel workbook, rename it .xlsx.`,
+    );
   }
   if (!looksLikeText(buffer)) {
     throw new UnreadableFileError(`${name} is not a text table: its content is ${describeContent(buffer)}.`);
@@ -174,9 +196,12 @@ export async function readUpload(file: UploadedFile, options: ImportParseOptions
 // ── Text ───────────────────────────────────────────────────────────────────────────────────
 
 function decode(buffer: Buffer): { text: string; encoding: string } {
-  if (buffer[0] === 0xef && buffer[1] === 0xbb && buffer[2] === 0xbf) return { text: buffer.subarray(3).toString('utf8'), encoding: 'UTF-8' };
-  if (buffer[0] === 0xff && buffer[1] === 0xfe) return { text: new TextDecoder('utf-16le').decode(buffer.subarray(2)), encoding: 'UTF-16LE' };
-  if (buffer[0] === 0xfe && buffer[1] === 0xff) return { text: new TextDecoder('utf-16be').decode(buffer.subarray(2)), encoding: 'UTF-16BE' };
+  if (buffer[0] === 0xef && buffer[1] === 0xbb && buffer[2] === 0xbf)
+    return { text: buffer.subarray(3).toString('utf8'), encoding: 'UTF-8' };
+  if (buffer[0] === 0xff && buffer[1] === 0xfe)
+    return { text: new TextDecoder('utf-16le').decode(buffer.subarray(2)), encoding: 'UTF-16LE' };
+  if (buffer[0] === 0xfe && buffer[1] === 0xff)
+    return { text: new TextDecoder('utf-16be').decode(buffer.subarray(2)), encoding: 'UTF-16BE' };
   try {
     return { text: new TextDecoder('utf-8', { fatal: true }).decode(buffer), encoding: 'UTF-8' };
   } catch {
@@ -189,8 +214,10 @@ function csvFailure(name: string, err: unknown): UnreadableFileError {
   if (err instanceof CsvError) {
     const line = (err as CsvError & { lines?: number }).lines;
     const at = line ? ` at line ${line}` : '';
-    if (err.code === 'CSV_QUOTE_NOT_CLOSED') return new UnreadableFileError(`${name} could not be read${at}: a quoted field is opened but never closed.`);
-    if (err.code === 'CSV_MAX_RECORD_SIZE') return new UnreadableFileError(`${name} could not be read${at}: one field is longer than 64 KB.`);
+    if (err.code === 'CSV_QUOTE_NOT_CLOSED')
+      return new UnreadableFileError(`${name} could not be read${at}: a quoted field is opened but never closed.`);
+    if (err.code === 'CSV_MAX_RECORD_SIZE')
+      return new UnreadableFileError(`${name} could not be read${at}: one field is longer than 64 KB.`);
     return new UnreadableFileError(`${name} could not be read${at}: ${err.message}`);
   }
   return new UnreadableFileError(`${name} could not be read as CSV.`);
@@ -203,7 +230,9 @@ function parseDelimited(name: string, buffer: Buffer, options: ImportParseOption
   const nul = text.indexOf('\0');
   if (nul >= 0) {
     const line = text.slice(0, nul).split(/\r\n|\n|\r/).length;
-    throw new UnreadableFileError(`${name} contains a NUL character (a zero byte) at line ${line}; a text table cannot hold one. Remove it, or export the table again.`);
+    throw new UnreadableFileError(
+      `${name} contains a NUL character (a zero byte) at line ${line}; a text table cannot hold one. Remove it, or export the table again.`,
+    );
   }
   const delimiter = options.delimiter ?? detectDelimiter(text);
   if (!options.delimiter) detected.push(`${DELIMITER_NAMES[delimiter]}-separated`);
@@ -245,7 +274,10 @@ const HEAD_ROWS_ALLOWANCE = 30;
  */
 async function parseWorkbook(name: string, buffer: Buffer, options: ImportParseOptions, limits: ImportLimits): Promise<ParsedTable> {
   await inspectZip(name, buffer, limits.zip ?? ZIP_LIMITS);
-  const unreadable = () => new UnreadableFileError(`${name} is a ZIP archive but not a readable Excel workbook (it may be another kind of document renamed .xlsx, or damaged).`);
+  const unreadable = () =>
+    new UnreadableFileError(
+      `${name} is a ZIP archive but not a readable Excel workbook (it may be another kind of document renamed .xlsx, or damaged).`,
+    );
   const reader = new ExcelJS.stream.xlsx.WorkbookReader(Readable.from([buffer]), {
     worksheets: 'emit',
     sharedStrings: 'cache',
@@ -267,7 +299,9 @@ async function parseWorkbook(name: string, buffer: Buffer, options: ImportParseO
       for await (const row of sheet as unknown as AsyncIterable<ExcelJS.Row>) {
         if (!wanted) continue;
         if (row.number > maxRowNumber) {
-          throw new PayloadTooLargeError(`${name} (worksheet "${sheetName}") has cells in row ${row.number}; at most ${limits.maxRows} data rows can be imported at once.`);
+          throw new PayloadTooLargeError(
+            `${name} (worksheet "${sheetName}") has cells in row ${row.number}; at most ${limits.maxRows} data rows can be imported at once.`,
+          );
         }
         const values = row.values as ExcelJS.CellValue[];
         const cells: Cell[] = [];
@@ -275,14 +309,18 @@ async function parseWorkbook(name: string, buffer: Buffer, options: ImportParseO
         for (let c = 1; c <= width; c++) {
           const cell = cellValue(values[c]);
           if (typeof cell === 'string' && cell.includes('\0')) {
-            throw new UnreadableFileError(`${name}: cell ${columnLetter(c - 1)}${row.number} of worksheet "${sheetName}" contains a NUL character (a zero byte); remove it and save again.`);
+            throw new UnreadableFileError(
+              `${name}: cell ${columnLetter(c - 1)}${row.number} of worksheet "${sheetName}" contains a NUL character (a zero byte); remove it and save again.`,
+            );
           }
           cells.push(cell);
         }
         if (cells.every((c) => c === null)) continue;
         filled += 1;
         if (filled > maxFilledRows) {
-          throw new PayloadTooLargeError(`${name} (worksheet "${sheetName}") has more than ${limits.maxRows} rows; at most ${limits.maxRows} data rows can be imported at once. Split the file.`);
+          throw new PayloadTooLargeError(
+            `${name} (worksheet "${sheetName}") has more than ${limits.maxRows} rows; at most ${limits.maxRows} data rows can be imported at once. Split the file.`,
+          );
         }
         while (grid.length < row.number - 1) grid.push([]);
         grid.push(cells);
@@ -301,7 +339,10 @@ async function parseWorkbook(name: string, buffer: Buffer, options: ImportParseO
   const sheetNames = model?.sheets?.map((s) => s.name) ?? seenSheets;
   if (sheetNames.length === 0) throw new UnreadableFileError(`${name} contains no worksheets.`);
   if (!chosen) {
-    if (options.sheet) throw new UnreadableFileError(`${name} has no worksheet named "${options.sheet}"; it has ${sheetNames.map((s) => `"${s}"`).join(', ')}.`);
+    if (options.sheet)
+      throw new UnreadableFileError(
+        `${name} has no worksheet named "${options.sheet}"; it has ${sheetNames.map((s) => `"${s}"`).join(', ')}.`,
+      );
     throw new UnreadableFileError(`${name} is empty: none of its worksheets has any cells filled.`);
   }
   const detected = sheetNames.length > 1 && !options.sheet ? [`worksheet "${chosen.name}" of ${sheetNames.length}`] : [];
@@ -388,7 +429,9 @@ function finishTable(
     return Math.max(w, n);
   }, 0);
   if (width > limits.maxColumns) {
-    throw new UnreadableFileError(`${fileName} has ${width} columns; at most ${limits.maxColumns} can be read. Remove the columns you do not need.`);
+    throw new UnreadableFileError(
+      `${fileName} has ${width} columns; at most ${limits.maxColumns} can be read. Remove the columns you do not need.`,
+    );
   }
 
   let headerRow: number | null;
@@ -403,7 +446,8 @@ function finishTable(
   }
 
   const pad = (cells: Cell[]) => (cells.length === width ? cells : Array.from({ length: width }, (_, i) => cells[i] ?? null));
-  const headers = headerRow === null ? Array.from({ length: width }, () => '') : pad(grid[headerRow - 1]).map((c) => (c === null ? '' : String(c)));
+  const headers =
+    headerRow === null ? Array.from({ length: width }, () => '') : pad(grid[headerRow - 1]).map((c) => (c === null ? '' : String(c)));
   const rows: DataRow[] = [];
   for (let i = headerRow ?? 0; i < last; i++) {
     if (isBlankRow(grid[i])) continue;
@@ -413,7 +457,9 @@ function finishTable(
     throw new UnreadableFileError(`${fileName} has a header row (row ${headerRow}) but no data rows below it.`);
   }
   if (rows.length > limits.maxRows) {
-    throw new PayloadTooLargeError(`${fileName} has ${rows.length} data rows; at most ${limits.maxRows} can be imported at once. Split the file.`);
+    throw new PayloadTooLargeError(
+      `${fileName} has ${rows.length} data rows; at most ${limits.maxRows} can be imported at once. Split the file.`,
+    );
   }
 
   let decimalSeparator = options.decimalSeparator;

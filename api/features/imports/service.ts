@@ -23,7 +23,10 @@ export interface PreviewColumn {
 }
 
 export interface ImportPreview {
-  file: Pick<ParsedTable, 'fileName' | 'format' | 'encoding' | 'delimiter' | 'decimalSeparator' | 'headerRow' | 'sheetName' | 'sheetNames' | 'detected'>;
+  file: Pick<
+    ParsedTable,
+    'fileName' | 'format' | 'encoding' | 'delimiter' | 'decimalSeparator' | 'headerRow' | 'sheetName' | 'sheetNames' | 'detected'
+  >;
   columns: PreviewColumn[];
   /** What the headers suggest; shown as the starting point of the mapping form. */
   suggestedMapping: MappingGuess;
@@ -61,14 +64,27 @@ export async function previewImport(
     sample: table.rows.slice(0, 5).map((r) => r.cells[index]),
   }));
   const { fileName, format, encoding, delimiter, decimalSeparator, headerRow, sheetName, sheetNames, detected } = table;
-  const base = { file: { fileName, format, encoding, delimiter, decimalSeparator, headerRow, sheetName, sheetNames, detected }, columns, suggestedMapping, mapping, rowCount: table.rows.length };
+  const base = {
+    file: { fileName, format, encoding, delimiter, decimalSeparator, headerRow, sheetName, sheetNames, detected },
+    columns,
+    suggestedMapping,
+    mapping,
+    rowCount: table.rows.length,
+  };
   if (!mapping) {
     return {
       ...base,
       validRowCount: 0,
       errorCount: 0,
       warningCount: 0,
-      issues: [{ severity: 'error', row: null, column: null, message: `Choose the columns and units still open: ${suggestedMapping.missing.join(', ')}.` }],
+      issues: [
+        {
+          severity: 'error',
+          row: null,
+          column: null,
+          message: `Choose the columns and units still open: ${suggestedMapping.missing.join(', ')}.`,
+        },
+      ],
       rows: [],
     };
   }
@@ -133,7 +149,9 @@ export async function importMeasurements(
     );
   }
   if (checked.rows.length === 0) {
-    throw new ImportRejectedError(`${file.name} has no rows to import.`, [{ severity: 'error', row: null, column: null, message: 'no data rows' }]);
+    throw new ImportRejectedError(`${file.name} has no rows to import.`, [
+      { severity: 'error', row: null, column: null, message: 'no data rows' },
+    ]);
   }
 
   return db.transaction(async (trx) => {
@@ -221,7 +239,14 @@ export async function importMeasurements(
  * 10 000 × 14 placeholders in JavaScript costs more than the insert itself. The table's CHECK
  * constraints still apply to every row.
  */
-async function insertRows(trx: Knex.Transaction, campaignId: string, actorUserId: string, stamp: Date, importFileId: string, rows: ImportRow[]): Promise<void> {
+async function insertRows(
+  trx: Knex.Transaction,
+  campaignId: string,
+  actorUserId: string,
+  stamp: Date,
+  importFileId: string,
+  rows: ImportRow[],
+): Promise<void> {
   const n = rows.length;
   const col = <T>(pick: (r: ImportRow) => T): T[] => {
     const out = new Array<T>(n);
@@ -261,11 +286,13 @@ async function insertRows(trx: Knex.Transaction, campaignId: string, actorUserId
 type StoredKeyFields = Pick<ImportRow, 'temperatureK' | 'measure' | 'value' | 'valueB' | 'sampleId' | 'replicateLabel'>;
 
 /** Same sample and replicate: the same vial measured again. */
-const sampleKey = (r: StoredKeyFields) => (r.sampleId ? `${r.sampleId.trim().toLowerCase()}|${(r.replicateLabel ?? '').trim().toLowerCase()}` : null);
+const sampleKey = (r: StoredKeyFields) =>
+  r.sampleId ? `${r.sampleId.trim().toLowerCase()}|${(r.replicateLabel ?? '').trim().toLowerCase()}` : null;
 /** Same temperature (to 0.01 K) and the same reported value. */
 const readingKey = (r: StoredKeyFields) => `${r.temperatureK.toFixed(2)}|${r.measure}|${r.value}|${r.valueB ?? ''}`;
 
-const describeRun = (r: StoredKeyFields) => `${r.sampleId ? `sample ${r.sampleId}${r.replicateLabel ? ` ${r.replicateLabel}` : ''}` : 'a run'}`;
+const describeRun = (r: StoredKeyFields) =>
+  `${r.sampleId ? `sample ${r.sampleId}${r.replicateLabel ? ` ${r.replicateLabel}` : ''}` : 'a run'}`;
 
 /**
  * Warnings for file rows that repeat measurements already stored in the campaign: the same
@@ -279,7 +306,9 @@ export interface StoredRowKeys {
 }
 
 export async function storedRowKeys(trx: Knex | Knex.Transaction, campaignId: string): Promise<StoredRowKeys> {
-  const stored: StoredKeyFields[] = await trx('measurements').where({ campaignId }).select('temperatureK', 'measure', 'value', 'valueB', 'sampleId', 'replicateLabel');
+  const stored: StoredKeyFields[] = await trx('measurements')
+    .where({ campaignId })
+    .select('temperatureK', 'measure', 'value', 'valueB', 'sampleId', 'replicateLabel');
   return { samples: stored.map(sampleKey).filter((k): k is string => k !== null), readings: stored.map(readingKey) };
 }
 
@@ -303,7 +332,12 @@ export function repeatsAgainst(stored: StoredRowKeys, rows: ImportRow[]): Import
     issues.push({ severity: 'warning', row: r.sourceRow, column: null, message });
   }
   if (count > issues.length) {
-    issues.push({ severity: 'warning', row: null, column: null, message: `${count - issues.length} more rows repeat measurements already in the campaign.` });
+    issues.push({
+      severity: 'warning',
+      row: null,
+      column: null,
+      message: `${count - issues.length} more rows repeat measurements already in the campaign.`,
+    });
   }
   return issues;
 }

@@ -29,7 +29,10 @@ export function importUpload(limits: ImportLimits = IMPORT_LIMITS): RequestHandl
     storage: multer.memoryStorage(),
     limits: { fileSize: limits.maxBytes, files: 1, fields: 10, fieldSize: 256 * 1024, parts: 12 },
   }).single(UPLOAD_FIELD);
-  const tooLarge = () => new PayloadTooLargeError(`The file is larger than ${megabytes(limits.maxBytes)}, the largest accepted. Split it, or remove columns you do not need.`);
+  const tooLarge = () =>
+    new PayloadTooLargeError(
+      `The file is larger than ${megabytes(limits.maxBytes)}, the largest accepted. Split it, or remove columns you do not need.`,
+    );
   return (req, res, next) => {
     // A declared size over the limit is refused before a byte is read; the connection is closed
     // rather than drained. Without a declared size multer counts while it streams (and drains).
@@ -43,7 +46,11 @@ export function importUpload(limits: ImportLimits = IMPORT_LIMITS): RequestHandl
       if (err instanceof multer.MulterError) {
         if (err.code === 'LIMIT_FILE_SIZE') return next(tooLarge());
         if (err.code === 'LIMIT_UNEXPECTED_FILE' || err.code === 'LIMIT_FILE_COUNT') {
-          return next(new BadRequestError(`Send exactly one file, in the form field "${UPLOAD_FIELD}".`, [{ path: UPLOAD_FIELD, message: 'one file expected here' }]));
+          return next(
+            new BadRequestError(`Send exactly one file, in the form field "${UPLOAD_FIELD}".`, [
+              { path: UPLOAD_FIELD, message: 'one file expected here' },
+            ]),
+          );
         }
         return next(new BadRequestError(`The upload was not accepted: ${err.message.toLowerCase()}.`));
       }
@@ -58,7 +65,10 @@ export function importUpload(limits: ImportLimits = IMPORT_LIMITS): RequestHandl
 /** The uploaded file, or a 400 naming the field when none was sent. */
 export function uploadedFile(req: Request): UploadedFile {
   const file = req.file;
-  if (!file) throw new BadRequestError(`No file was uploaded; send it in the form field "${UPLOAD_FIELD}".`, [{ path: UPLOAD_FIELD, message: 'a file is required' }]);
+  if (!file)
+    throw new BadRequestError(`No file was uploaded; send it in the form field "${UPLOAD_FIELD}".`, [
+      { path: UPLOAD_FIELD, message: 'a file is required' },
+    ]);
   return { name: file.originalname, buffer: file.buffer };
 }
 
@@ -81,7 +91,13 @@ export function jsonField<S extends z.ZodType>(req: Request, field: string, sche
   const parsed = schema.safeParse(value);
   if (!parsed.success) {
     const errors = zodIssuesToFieldErrors(parsed.error, [field]);
-    throw new BadRequestError(`${errors.length} field${errors.length === 1 ? '' : 's'} of "${field}" failed validation: ${errors.slice(0, 3).map((e) => `${e.path}: ${e.message}`).join('; ')}`, errors);
+    throw new BadRequestError(
+      `${errors.length} field${errors.length === 1 ? '' : 's'} of "${field}" failed validation: ${errors
+        .slice(0, 3)
+        .map((e) => `${e.path}: ${e.message}`)
+        .join('; ')}`,
+      errors,
+    );
   }
   return parsed.data;
 }

@@ -51,24 +51,39 @@ export interface ZipSummary {
 const mb = (n: number) => `${(n / (1024 * 1024)).toFixed(0)} MB`;
 
 function notAWorkbook(name: string): UnreadableFileError {
-  return new UnreadableFileError(`${name} is a ZIP archive but not a readable Excel workbook (it may be another kind of document renamed .xlsx, or damaged).`);
+  return new UnreadableFileError(
+    `${name} is a ZIP archive but not a readable Excel workbook (it may be another kind of document renamed .xlsx, or damaged).`,
+  );
 }
 
 function bomb(name: string, why: string): PayloadTooLargeError {
-  return new PayloadTooLargeError(`${name} would expand to ${why} when unpacked, more than a worksheet of measurements needs; it was not opened. Save the sheet again, or as CSV.`);
+  return new PayloadTooLargeError(
+    `${name} would expand to ${why} when unpacked, more than a worksheet of measurements needs; it was not opened. Save the sheet again, or as CSV.`,
+  );
 }
 
 /** Read the central directory and refuse the archive when its declared sizes are beyond `limits`. */
-export async function checkZipDirectory(name: string, buffer: Buffer, limits: ZipLimits = ZIP_LIMITS): Promise<{ zip: yauzl.ZipFile; entries: yauzl.Entry[]; declaredBytes: number }> {
+export async function checkZipDirectory(
+  name: string,
+  buffer: Buffer,
+  limits: ZipLimits = ZIP_LIMITS,
+): Promise<{ zip: yauzl.ZipFile; entries: yauzl.Entry[]; declaredBytes: number }> {
   let zip: yauzl.ZipFile;
   try {
-    zip = await yauzl.fromBufferPromise(buffer, { lazyEntries: true, validateEntrySizes: true, strictFileNames: false, decodeStrings: true });
+    zip = await yauzl.fromBufferPromise(buffer, {
+      lazyEntries: true,
+      validateEntrySizes: true,
+      strictFileNames: false,
+      decodeStrings: true,
+    });
   } catch {
     throw notAWorkbook(name);
   }
   if (zip.entryCount > limits.maxEntries) {
     zip.close();
-    throw new PayloadTooLargeError(`${name} holds ${zip.entryCount} parts; a workbook of measurements has a few dozen (at most ${limits.maxEntries} are opened).`);
+    throw new PayloadTooLargeError(
+      `${name} holds ${zip.entryCount} parts; a workbook of measurements has a few dozen (at most ${limits.maxEntries} are opened).`,
+    );
   }
   const entries: yauzl.Entry[] = [];
   let declaredBytes = 0;
@@ -101,7 +116,12 @@ export async function checkZipDirectory(name: string, buffer: Buffer, limits: Zi
  * produces more than its limit or when the total passes the archive limit. Resolves with the
  * sizes seen; nothing inflated is kept.
  */
-export async function inspectZip(name: string, buffer: Buffer, limits: ZipLimits = ZIP_LIMITS, onProgress?: (inflatedBytes: number) => void): Promise<ZipSummary> {
+export async function inspectZip(
+  name: string,
+  buffer: Buffer,
+  limits: ZipLimits = ZIP_LIMITS,
+  onProgress?: (inflatedBytes: number) => void,
+): Promise<ZipSummary> {
   const { zip, entries, declaredBytes } = await checkZipDirectory(name, buffer, limits);
   let inflatedBytes = 0;
   try {
@@ -119,12 +139,15 @@ export async function inspectZip(name: string, buffer: Buffer, limits: ZipLimits
         stream.on('data', (chunk: Buffer) => {
           entryBytes += chunk.length;
           inflatedBytes += chunk.length;
-          if (entryBytes > limits.maxEntryBytes) return stop(bomb(name, `more than ${mb(limits.maxEntryBytes)} in one part (${entry.fileName})`));
+          if (entryBytes > limits.maxEntryBytes)
+            return stop(bomb(name, `more than ${mb(limits.maxEntryBytes)} in one part (${entry.fileName})`));
           if (inflatedBytes > limits.maxTotalBytes) return stop(bomb(name, `more than ${mb(limits.maxTotalBytes)}`));
           onProgress?.(inflatedBytes);
         });
         // yauzl raises an error when an entry inflates to more (or less) than its header declared.
-        stream.on('error', (err: Error) => reject(/too many bytes/i.test(err.message) ? bomb(name, 'more than it declares') : notAWorkbook(name)));
+        stream.on('error', (err: Error) =>
+          reject(/too many bytes/i.test(err.message) ? bomb(name, 'more than it declares') : notAWorkbook(name)),
+        );
         stream.on('end', () => resolve());
       });
     }

@@ -91,12 +91,21 @@ export async function inviteToProject(
       .where('m.projectId', projectId)
       .whereRaw('lower(u.email) = ?', [email])
       .first('u.login');
-    if (existing) throw new ConflictError(`${email} already belongs to a member of this project (${existing.login}).`, { code: 'already-member' });
+    if (existing)
+      throw new ConflictError(`${email} already belongs to a member of this project (${existing.login}).`, { code: 'already-member' });
 
     const pending = await Invitation.query(trx).where({ projectId, email }).whereNull('acceptedAt').whereNull('revokedAt');
     for (const old of pending) {
       const revoked = await Invitation.query(trx).patchAndFetchById(old.id, { revokedAt: new Date() });
-      await recordAudit(trx, { projectId, actorUserId: actor.id, action: 'update', entityType: 'invitation', entityId: old.id, before: snapshot(old), after: snapshot(revoked) });
+      await recordAudit(trx, {
+        projectId,
+        actorUserId: actor.id,
+        action: 'update',
+        entityType: 'invitation',
+        entityId: old.id,
+        before: snapshot(old),
+        after: snapshot(revoked),
+      });
     }
 
     const secret = newSecret('');
@@ -108,7 +117,15 @@ export async function inviteToProject(
       invitedBy: actor.id,
       expiresAt: new Date(Date.now() + INVITATION_TTL_DAYS * 86_400_000),
     });
-    await recordAudit(trx, { projectId, actorUserId: actor.id, action: 'create', entityType: 'invitation', entityId: invitation.id, before: null, after: snapshot(invitation) });
+    await recordAudit(trx, {
+      projectId,
+      actorUserId: actor.id,
+      action: 'create',
+      entityType: 'invitation',
+      entityId: invitation.id,
+      before: null,
+      after: snapshot(invitation),
+    });
 
     const link = `${deps.publicUrl}/invitations/${secret}`;
     const inviter = actor.displayName ?? actor.login;
@@ -128,7 +145,11 @@ export async function inviteToProject(
         ].join('\n'),
       });
     } catch (err) {
-      throw new AppError(502, 'Mail not sent', `The invitation e-mail could not be sent (${(err as Error).message}); no invitation was created.`);
+      throw new AppError(
+        502,
+        'Mail not sent',
+        `The invitation e-mail could not be sent (${(err as Error).message}); no invitation was created.`,
+      );
     }
     return invitation.id;
   });
@@ -139,10 +160,22 @@ export async function inviteToProject(
 
 export async function revokeInvitation(db: Knex, actorId: string, projectId: string, invitationId: string): Promise<void> {
   await db.transaction(async (trx) => {
-    const inv = await Invitation.query(trx).findOne({ id: invitationId, projectId }).whereNull('acceptedAt').whereNull('revokedAt').forUpdate();
+    const inv = await Invitation.query(trx)
+      .findOne({ id: invitationId, projectId })
+      .whereNull('acceptedAt')
+      .whereNull('revokedAt')
+      .forUpdate();
     if (!inv) throw new NotFoundError('This project has no pending invitation with this id.');
     const after = await Invitation.query(trx).patchAndFetchById(inv.id, { revokedAt: new Date() });
-    await recordAudit(trx, { projectId, actorUserId: actorId, action: 'update', entityType: 'invitation', entityId: inv.id, before: snapshot(inv), after: snapshot(after) });
+    await recordAudit(trx, {
+      projectId,
+      actorUserId: actorId,
+      action: 'update',
+      entityType: 'invitation',
+      entityId: inv.id,
+      before: snapshot(inv),
+      after: snapshot(after),
+    });
   });
 }
 
@@ -159,11 +192,19 @@ export interface InvitationDetails {
 async function usableInvitation(db: Knex | Knex.Transaction, user: User, secret: string, lock: boolean): Promise<Invitation> {
   const query = Invitation.query(db).findOne({ tokenHash: hashSecret(secret) });
   const inv = await (lock ? query.forUpdate() : query);
-  if (!inv) throw new NotFoundError('This invitation link is not valid. Check that the whole link was copied, or ask for a new invitation.');
-  if (inv.acceptedAt) throw new InvitationGoneError('This invitation has already been used. Each link works once; ask a project owner for a new one if you still need access.', 'invitation-used');
+  if (!inv)
+    throw new NotFoundError('This invitation link is not valid. Check that the whole link was copied, or ask for a new invitation.');
+  if (inv.acceptedAt)
+    throw new InvitationGoneError(
+      'This invitation has already been used. Each link works once; ask a project owner for a new one if you still need access.',
+      'invitation-used',
+    );
   if (inv.revokedAt) throw new InvitationGoneError('This invitation was withdrawn by a project owner.', 'invitation-revoked');
   if (new Date(inv.expiresAt).getTime() <= Date.now()) {
-    throw new InvitationGoneError(`This invitation expired on ${new Date(inv.expiresAt).toUTCString()}. Ask a project owner to invite you again.`, 'invitation-expired');
+    throw new InvitationGoneError(
+      `This invitation expired on ${new Date(inv.expiresAt).toUTCString()}. Ask a project owner to invite you again.`,
+      'invitation-expired',
+    );
   }
   if (!user.email || user.email.toLowerCase() !== inv.email) {
     throw new WrongAccountError(
@@ -196,8 +237,24 @@ export async function acceptInvitation(db: Knex, user: User, secret: string): Pr
     const member = { projectId: inv.projectId, userId: user.id, role: inv.role };
     await ProjectMember.query(trx).insert(member);
     const after = await Invitation.query(trx).patchAndFetchById(inv.id, { acceptedAt: new Date(), acceptedBy: user.id });
-    await recordAudit(trx, { projectId: inv.projectId, actorUserId: user.id, action: 'create', entityType: 'project_member', entityId: user.id, before: null, after: member });
-    await recordAudit(trx, { projectId: inv.projectId, actorUserId: user.id, action: 'update', entityType: 'invitation', entityId: inv.id, before: snapshot(inv), after: snapshot(after) });
+    await recordAudit(trx, {
+      projectId: inv.projectId,
+      actorUserId: user.id,
+      action: 'create',
+      entityType: 'project_member',
+      entityId: user.id,
+      before: null,
+      after: member,
+    });
+    await recordAudit(trx, {
+      projectId: inv.projectId,
+      actorUserId: user.id,
+      action: 'update',
+      entityType: 'invitation',
+      entityId: inv.id,
+      before: snapshot(inv),
+      after: snapshot(after),
+    });
     return { projectId: inv.projectId, role: inv.role };
   });
 }

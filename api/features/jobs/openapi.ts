@@ -12,8 +12,14 @@ export const jobViewSchema = z.object({
   progress: z.object({ stage: z.string(), percent: z.number().min(0).max(100) }),
   projectId: z.string().uuid(),
   campaignId: z.string().uuid().nullable(),
-  result: z.record(z.string(), z.unknown()).nullable().meta({ description: "The work's answer: an import's 201 body; a report's fileName, bytes and href." }),
-  error: z.record(z.string(), z.unknown()).nullable().meta({ description: 'Problem details (RFC 9457) of a failed job, as the direct route would answer.' }),
+  result: z
+    .record(z.string(), z.unknown())
+    .nullable()
+    .meta({ description: "The work's answer: an import's 201 body; a report's fileName, bytes and href." }),
+  error: z
+    .record(z.string(), z.unknown())
+    .nullable()
+    .meta({ description: 'Problem details (RFC 9457) of a failed job, as the direct route would answer.' }),
   attempts: z.number().int(),
   createdAt: z.string(),
   startedAt: z.string().nullable(),
@@ -21,7 +27,10 @@ export const jobViewSchema = z.object({
   href: z.string(),
 });
 
-const queued = { description: 'Queued; poll the job at the Location header', content: { 'application/json': { schema: z.object({ job: jobViewSchema }) } } };
+const queued = {
+  description: 'Queued; poll the job at the Location header',
+  content: { 'application/json': { schema: z.object({ job: jobViewSchema }) } },
+};
 
 /** Background jobs: queueing a report build or report e-mail, polling any job, downloading what it built. */
 export const registerJobs: OpenApiRegistrar = (registry) => {
@@ -50,10 +59,13 @@ export const registerJobs: OpenApiRegistrar = (registry) => {
     path: '/api/v1/jobs/{jobId}',
     tags: ['Jobs'],
     summary: 'State, progress and outcome of a background job (members of its project)',
-    description: 'Imports of files above the size limit answer 202 with a job too; its result is the import route\'s 201 body.',
+    description: "Imports of files above the size limit answer 202 with a job too; its result is the import route's 201 body.",
     security: signedIn,
     request: { params: jobIdParams },
-    responses: { 200: { description: 'The job', content: { 'application/json': { schema: jobViewSchema } } }, ...problemResponses(401, 404) },
+    responses: {
+      200: { description: 'The job', content: { 'application/json': { schema: jobViewSchema } } },
+      ...problemResponses(401, 404),
+    },
   });
   registry.registerPath({
     method: 'get',
@@ -63,7 +75,10 @@ export const registerJobs: OpenApiRegistrar = (registry) => {
     security: signedIn,
     request: { params: jobIdParams },
     responses: {
-      200: { description: 'An .xlsx workbook', content: { 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet': { schema: z.string().meta({ format: 'binary' }) } } },
+      200: {
+        description: 'An .xlsx workbook',
+        content: { 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet': { schema: z.string().meta({ format: 'binary' }) } },
+      },
       ...problemResponses(401, 404),
     },
   });

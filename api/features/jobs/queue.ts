@@ -32,7 +32,13 @@ export interface JobOptions {
   retryDelaySeconds: number;
 }
 
-export const JOB_DEFAULTS: JobOptions = { expireInSeconds: 300, maintenanceIntervalSeconds: 30, pollingIntervalSeconds: 1, retryLimit: 20, retryDelaySeconds: 2 };
+export const JOB_DEFAULTS: JobOptions = {
+  expireInSeconds: 300,
+  maintenanceIntervalSeconds: 30,
+  pollingIntervalSeconds: 1,
+  retryLimit: 20,
+  retryDelaySeconds: 2,
+};
 
 export function jobOptionsFromEnv(env: NodeJS.ProcessEnv = process.env): JobOptions {
   const num = (name: string, fallback: number, min: number) => {
@@ -122,13 +128,24 @@ export class JobQueue {
       })
       .returning(JOB_COLUMNS);
     try {
-      await this.sender.send(QUEUE_OF[job.kind], { jobId: row.id }, {
-        expireInSeconds: this.options.expireInSeconds,
-        retryLimit: this.options.retryLimit,
-        retryDelay: this.options.retryDelaySeconds,
-      });
+      await this.sender.send(
+        QUEUE_OF[job.kind],
+        { jobId: row.id },
+        {
+          expireInSeconds: this.options.expireInSeconds,
+          retryLimit: this.options.retryLimit,
+          retryDelay: this.options.retryDelaySeconds,
+        },
+      );
     } catch (err) {
-      await this.knex('jobs').where({ id: row.id }).update({ state: 'failed', file: null, finishedAt: new Date(), error: JSON.stringify({ status: 503, title: 'Service unavailable', detail: 'The job could not be queued; try again.' }) });
+      await this.knex('jobs')
+        .where({ id: row.id })
+        .update({
+          state: 'failed',
+          file: null,
+          finishedAt: new Date(),
+          error: JSON.stringify({ status: 503, title: 'Service unavailable', detail: 'The job could not be queued; try again.' }),
+        });
       throw err;
     }
     return row as JobRow;

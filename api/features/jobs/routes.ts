@@ -8,7 +8,9 @@ import { JOB_COLUMNS, type JobRow } from './queue';
 /** The project a job belongs to, or null (unknown or malformed id: 404 for everyone). */
 export async function resolveJobProjectId(knex: Knex, jobId: unknown): Promise<string | null> {
   if (!uuidSchema.safeParse(jobId).success) return null;
-  const row = await knex('jobs').where({ id: String(jobId) }).first('projectId');
+  const row = await knex('jobs')
+    .where({ id: String(jobId) })
+    .first('projectId');
   return row?.projectId ?? null;
 }
 
@@ -41,14 +43,21 @@ export function jobsRouter(deps: { knex: Knex }): Router {
   const byJob = authorizeProject('viewer', (req) => resolveJobProjectId(knex, req.params.jobId));
 
   router.get('/jobs/:jobId', byJob, async (req, res) => {
-    const row = (await knex('jobs').where({ id: String(req.params.jobId) }).first(JOB_COLUMNS)) as JobRow;
+    const row = (await knex('jobs')
+      .where({ id: String(req.params.jobId) })
+      .first(JOB_COLUMNS)) as JobRow;
     // Polled while it changes: never from a cache.
     res.set('Cache-Control', 'no-store').json(jobView(row));
   });
 
   router.get('/jobs/:jobId/file', byJob, async (req, res) => {
-    const row = await knex('jobs').where({ id: String(req.params.jobId) }).first('state', 'resultFile', 'resultFileName');
-    if (!row?.resultFile) throw new NotFoundError(row?.state === 'succeeded' ? 'This job made no file.' : 'The file is not ready yet; poll the job until it has succeeded.');
+    const row = await knex('jobs')
+      .where({ id: String(req.params.jobId) })
+      .first('state', 'resultFile', 'resultFileName');
+    if (!row?.resultFile)
+      throw new NotFoundError(
+        row?.state === 'succeeded' ? 'This job made no file.' : 'The file is not ready yet; poll the job until it has succeeded.',
+      );
     res
       .status(200)
       .type('application/vnd.openxmlformats-officedocument.spreadsheetml.sheet')

@@ -65,15 +65,26 @@ interface Outcome {
   file?: { name: string; bytes: Buffer };
 }
 
-type Work = (trx: Knex.Transaction, job: JobRow & { file: Buffer | null }, progress: (stage: string, percent: number) => Promise<void>) => Promise<Outcome>;
+type Work = (
+  trx: Knex.Transaction,
+  job: JobRow & { file: Buffer | null },
+  progress: (stage: string, percent: number) => Promise<void>,
+) => Promise<Outcome>;
 
 /** Run `work` for job `id` at most once to completion (see the file comment). */
-export async function runOnce(deps: RunnerDeps, delivery: { id: string; retryCount: number; retryLimit: number }, work: Work): Promise<void> {
+export async function runOnce(
+  deps: RunnerDeps,
+  delivery: { id: string; retryCount: number; retryLimit: number },
+  work: Work,
+): Promise<void> {
   const { knex } = deps;
   const { id } = delivery;
   let current: Knex.Transaction | null = null;
   const progress = async (stage: string, percent: number) => {
-    await knex('jobs').where({ id }).whereIn('state', ['queued', 'running']).update({ progress: JSON.stringify({ stage, percent }) });
+    await knex('jobs')
+      .where({ id })
+      .whereIn('state', ['queued', 'running'])
+      .update({ progress: JSON.stringify({ stage, percent }) });
   };
   try {
     await knex.transaction(async (trx) => {
@@ -86,7 +97,13 @@ export async function runOnce(deps: RunnerDeps, delivery: { id: string; retryCou
       // Visible at once to pollers (another connection), not tied to this transaction.
       await knex('jobs')
         .where({ id })
-        .update({ state: 'running', worker: WORKER_ID, startedAt: new Date(), attempts: knex.raw('attempts + 1'), progress: JSON.stringify({ stage: 'started', percent: 5 }) });
+        .update({
+          state: 'running',
+          worker: WORKER_ID,
+          startedAt: new Date(),
+          attempts: knex.raw('attempts + 1'),
+          progress: JSON.stringify({ stage: 'started', percent: 5 }),
+        });
       let outcome: Outcome;
       try {
         outcome = await work(trx, job, progress);
@@ -95,7 +112,13 @@ export async function runOnce(deps: RunnerDeps, delivery: { id: string; retryCou
         // A refusal (rows with errors, warnings to confirm, campaign gone…) is the job's answer, not a crash.
         await trx('jobs')
           .where({ id })
-          .update({ state: 'failed', file: null, error: JSON.stringify(toProblem(err)), finishedAt: new Date(), progress: JSON.stringify({ stage: 'failed', percent: 100 }) });
+          .update({
+            state: 'failed',
+            file: null,
+            error: JSON.stringify(toProblem(err)),
+            finishedAt: new Date(),
+            progress: JSON.stringify({ stage: 'failed', percent: 100 }),
+          });
         return;
       }
       await trx('jobs')
@@ -122,7 +145,12 @@ export async function runOnce(deps: RunnerDeps, delivery: { id: string; retryCou
           state: 'failed',
           file: null,
           finishedAt: new Date(),
-          error: JSON.stringify({ type: '/problems/job-failed', title: 'Job failed', status: 500, detail: 'The job could not be finished; start it again.' }),
+          error: JSON.stringify({
+            type: '/problems/job-failed',
+            title: 'Job failed',
+            status: 500,
+            detail: 'The job could not be finished; start it again.',
+          }),
         })
         .catch(() => undefined);
     }
@@ -135,10 +163,17 @@ export async function runOnce(deps: RunnerDeps, delivery: { id: string; retryCou
 /** Import the stored file into its campaign (the same all-or-nothing import as the direct route). */
 export function importWork(): Work {
   return async (trx, job, progress) => {
-    if (!job.file || !job.campaignId || !job.createdByUserId) throw new UnprocessableError('The import job has no file or campaign left to import.');
+    if (!job.file || !job.campaignId || !job.createdByUserId)
+      throw new UnprocessableError('The import job has no file or campaign left to import.');
     const input = job.input as { fileName: string; request: ImportRequestInput };
     await progress('reading and checking rows', 20);
-    const result = await importMeasurements(trx, { projectId: job.projectId, actorUserId: job.createdByUserId }, job.campaignId, { name: input.fileName, buffer: job.file }, input.request);
+    const result = await importMeasurements(
+      trx,
+      { projectId: job.projectId, actorUserId: job.createdByUserId },
+      job.campaignId,
+      { name: input.fileName, buffer: job.file },
+      input.request,
+    );
     await progress('saving', 90);
     return { result: { ...result } };
   };
@@ -149,7 +184,12 @@ export function reportWork(deps: RunnerDeps): Work {
   return async (trx, job, progress) => {
     if (!job.campaignId) throw new UnprocessableError('The campaign of this report no longer exists.');
     await progress('reading the campaign', 20);
-    const data = await loadCampaignReportData(trx, job.projectId, job.campaignId, job.createdByUserId ? { userId: job.createdByUserId } : {});
+    const data = await loadCampaignReportData(
+      trx,
+      job.projectId,
+      job.campaignId,
+      job.createdByUserId ? { userId: job.createdByUserId } : {},
+    );
     await progress('building the workbook', 50);
     // The same report as the direct download: one model, charts rendered off the event loop.
     const bytes = await xlsxOf(await prepareReport(data, { appVersion: deps.version, generatedAt: new Date(), exportedBy: null }));
@@ -165,7 +205,9 @@ export function reportWork(deps: RunnerDeps): Work {
 export function reportEmailWork(deps: RunnerDeps): Work {
   return async (trx, job, progress) => {
     if (!job.campaignId) throw new UnprocessableError('The campaign of this report no longer exists.');
-    const user = job.createdByUserId ? await trx('users').where({ id: job.createdByUserId }).first('id', 'email', 'displayName', 'login') : null;
+    const user = job.createdByUserId
+      ? await trx('users').where({ id: job.createdByUserId }).first('id', 'email', 'displayName', 'login')
+      : null;
     if (!user?.email) throw new UnprocessableError('Your account has no e-mail address to send the report to.');
     await progress('building and sending the report', 40);
     const sent = await sendCampaignReport(trx, deps.mailer, {

@@ -36,7 +36,10 @@ export class Mailbox {
       projectId: parsed.headers.get('x-eyrie-project') ?? null,
       attachments: parsed.attachments.map((a) => ({ filename: a.filename, contentType: a.contentType, size: a.content.length })),
     };
-    this.contents.set(message, parsed.attachments.map((a) => a.content));
+    this.contents.set(
+      message,
+      parsed.attachments.map((a) => a.content),
+    );
     this.messages.unshift(message);
     this.messages.length = Math.min(this.messages.length, this.capacity);
     return message;
@@ -68,9 +71,7 @@ export function decodeHeaderWords(value: string): string {
     .replace(/\?=\s+=\?/g, '?==?')
     .replace(/=\?([^?]+)\?([bBqQ])\?([^?]*)\?=/g, (_m, charset: string, enc: string, data: string) => {
       const bytes =
-        enc.toUpperCase() === 'B'
-          ? Buffer.from(data, 'base64')
-          : Buffer.from(decodeQuotedPrintable(data.replace(/_/g, ' ')), 'latin1');
+        enc.toUpperCase() === 'B' ? Buffer.from(data, 'base64') : Buffer.from(decodeQuotedPrintable(data.replace(/_/g, ' ')), 'latin1');
       return new TextDecoder(charset.toLowerCase()).decode(bytes);
     });
 }

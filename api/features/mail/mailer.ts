@@ -19,7 +19,11 @@ export interface OutgoingMail {
 /** Header naming the project a message was sent from. */
 export const PROJECT_HEADER = 'X-Eyrie-Project';
 
-const toNodemailer = (from: string, { projectId, ...mail }: OutgoingMail) => ({ from, ...mail, ...(projectId ? { headers: { [PROJECT_HEADER]: projectId } } : {}) });
+const toNodemailer = (from: string, { projectId, ...mail }: OutgoingMail) => ({
+  from,
+  ...mail,
+  ...(projectId ? { headers: { [PROJECT_HEADER]: projectId } } : {}),
+});
 
 export interface Mailer {
   send(mail: OutgoingMail): Promise<void>;

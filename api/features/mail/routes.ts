@@ -12,9 +12,13 @@ async function visibleMessages(knex: Knex, mailbox: Mailbox, req: Request): Prom
   const user = req.user!;
   const email = user.email?.toLowerCase() ?? null;
   const owned = new Set(
-    (await knex('project_members').where({ userId: user.id, role: 'owner' }).select('projectId')).map((r: { projectId: string }) => r.projectId),
+    (await knex('project_members').where({ userId: user.id, role: 'owner' }).select('projectId')).map(
+      (r: { projectId: string }) => r.projectId,
+    ),
   );
-  return mailbox.list().filter((m) => (email !== null && m.to.some((to) => to.toLowerCase() === email)) || (m.projectId !== null && owned.has(m.projectId)));
+  return mailbox
+    .list()
+    .filter((m) => (email !== null && m.to.some((to) => to.toLowerCase() === email)) || (m.projectId !== null && owned.has(m.projectId)));
 }
 
 /** /dev/mailbox: what the local SMTP sink received, for the signed-in reader only. Mounted only when dev tools are on. */

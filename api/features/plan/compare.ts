@@ -38,7 +38,8 @@ function explain(err: unknown): string {
 
 export function compareCampaignFits(items: readonly ComparedCampaign[], temperatureK: number) {
   const measures = items.flatMap((i) => (i.campaign ? [i.campaign.measure] : []));
-  const valueMeasure = measures.length > 0 && measures.every((m) => m === 'dr') ? 'dr' : measures.some((m) => m === 'ee' || m === 'er') ? 'ee' : 'percentA';
+  const valueMeasure =
+    measures.length > 0 && measures.every((m) => m === 'dr') ? 'dr' : measures.some((m) => m === 'ee' || m === 'er') ? 'ee' : 'percentA';
   const fits: (EyringFit | null)[] = [];
   const problems: (string | null)[] = [];
   for (const item of items) {
@@ -49,7 +50,8 @@ export function compareCampaignFits(items: readonly ComparedCampaign[], temperat
     }
     try {
       const fit = fitEyring(toEngineMeasurements(item.campaign, item.measurements));
-      if (!fit.intervalsAvailable) throw Object.assign(new Error('needs runs at three or more distinct temperatures to be compared'), { name: 'DomainError' });
+      if (!fit.intervalsAvailable)
+        throw Object.assign(new Error('needs runs at three or more distinct temperatures to be compared'), { name: 'DomainError' });
       fits.push(fit);
       problems.push(null);
     } catch (err) {
@@ -83,11 +85,24 @@ export function compareCampaignFits(items: readonly ComparedCampaign[], temperat
       fit: fit
         ? {
             n: fit.nFitted,
-            ddH: { 'kJ/mol': energyFromJPerMol(fit.ddHJPerMol, 'kJ/mol'), 'kcal/mol': energyFromJPerMol(fit.ddHJPerMol, 'kcal/mol'), se: fit.ddHSeJPerMol === null ? null : fit.ddHSeJPerMol / 1000 },
-            ddS: { 'J/(mol*K)': fit.ddSJPerMolK, 'cal/(mol*K)': entropyFromJPerMolK(fit.ddSJPerMolK, 'cal/(mol*K)'), se: fit.ddSSeJPerMolK },
+            ddH: {
+              'kJ/mol': energyFromJPerMol(fit.ddHJPerMol, 'kJ/mol'),
+              'kcal/mol': energyFromJPerMol(fit.ddHJPerMol, 'kcal/mol'),
+              se: fit.ddHSeJPerMol === null ? null : fit.ddHSeJPerMol / 1000,
+            },
+            ddS: {
+              'J/(mol*K)': fit.ddSJPerMolK,
+              'cal/(mol*K)': entropyFromJPerMolK(fit.ddSJPerMolK, 'cal/(mol*K)'),
+              se: fit.ddSSeJPerMolK,
+            },
             at: band(fit, temperatureK),
             curve: grid.map((t) => ({ ...kc(t), ...band(fit, t) })),
-            eyring: fit.points.map((p) => ({ kelvin: p.temperatureK, inverseKelvin: 1 / p.temperatureK, lnRatio: p.lnRatio, status: p.status })),
+            eyring: fit.points.map((p) => ({
+              kelvin: p.temperatureK,
+              inverseKelvin: 1 / p.temperatureK,
+              lnRatio: p.lnRatio,
+              status: p.status,
+            })),
           }
         : null,
     };
@@ -106,17 +121,20 @@ export function compareCampaignFits(items: readonly ComparedCampaign[], temperat
         differenceLnR: c.differenceLnR,
         interval: c.interval,
         dof: c.dof,
-        differenceDdG: { 'kJ/mol': c.differenceDdGJPerMol / 1000, interval: [c.differenceDdGIntervalJPerMol[0] / 1000, c.differenceDdGIntervalJPerMol[1] / 1000] as [number, number] },
+        differenceDdG: {
+          'kJ/mol': c.differenceDdGJPerMol / 1000,
+          interval: [c.differenceDdGIntervalJPerMol[0] / 1000, c.differenceDdGIntervalJPerMol[1] / 1000] as [number, number],
+        },
         probabilityFirstBetter: c.probabilityFirstBetter,
         verdict: c.verdict,
         equalSlopes: { F: finite(c.equalSlopes.F), dof1: c.equalSlopes.dof1, dof2: c.equalSlopes.dof2, p: finite(c.equalSlopes.p) },
         crossover: c.crossover
           ? {
               ...kc(c.crossover.temperatureK),
-              interval: [c.crossover.intervalK[0] === null ? null : kc(c.crossover.intervalK[0]), c.crossover.intervalK[1] === null ? null : kc(c.crossover.intervalK[1])] as [
-                ReturnType<typeof kc> | null,
-                ReturnType<typeof kc> | null,
-              ],
+              interval: [
+                c.crossover.intervalK[0] === null ? null : kc(c.crossover.intervalK[0]),
+                c.crossover.intervalK[1] === null ? null : kc(c.crossover.intervalK[1]),
+              ] as [ReturnType<typeof kc> | null, ReturnType<typeof kc> | null],
               bounded: c.crossover.bounded,
               note: c.crossover.note,
             }
@@ -126,5 +144,12 @@ export function compareCampaignFits(items: readonly ComparedCampaign[], temperat
       });
     }
   }
-  return { temperature: kc(temperatureK), campaigns, pairs, valueMeasure: valueMeasure as 'ee' | 'dr' | 'percentA', convention: SIGN_CONVENTION, caution: SELECTIVITY_CAUTION };
+  return {
+    temperature: kc(temperatureK),
+    campaigns,
+    pairs,
+    valueMeasure: valueMeasure as 'ee' | 'dr' | 'percentA',
+    convention: SIGN_CONVENTION,
+    caution: SELECTIVITY_CAUTION,
+  };
 }

@@ -5,7 +5,8 @@
 import type { Knex } from 'knex';
 import { getCampaignPlan, getComparison, type CampaignPlanView, type ComparisonView } from './store';
 
-const round = (v: number | null | undefined, digits = 6) => (v === null || v === undefined || !Number.isFinite(v) ? null : Number(v.toPrecision(digits)));
+const round = (v: number | null | undefined, digits = 6) =>
+  v === null || v === undefined || !Number.isFinite(v) ? null : Number(v.toPrecision(digits));
 
 export interface PlanReportData {
   /** The plan's inputs as label/value lines, in the units they were entered in. */
@@ -17,7 +18,18 @@ export interface PlanReportData {
   binding: string[];
   conflict: string | null;
   resolutions: string[];
-  rows: { celsius: number; kelvin: number; probabilityMeetsSpec: number; predicted: number; bandLow: number; bandHigh: number; timeToTargetHours: number | null; eeAfterHoldPercent: number | null; feasible: boolean; failing: string }[];
+  rows: {
+    celsius: number;
+    kelvin: number;
+    probabilityMeetsSpec: number;
+    predicted: number;
+    bandLow: number;
+    bandHigh: number;
+    timeToTargetHours: number | null;
+    eeAfterHoldPercent: number | null;
+    feasible: boolean;
+    failing: string;
+  }[];
   nextRuns: { atCelsius: number; celsius: number[] } | null;
   caution: string;
   version: number;
@@ -60,9 +72,20 @@ export function planReportData(plan: CampaignPlanView): PlanReportData {
   const r = plan.result;
   return {
     inputs: inputLines(plan),
-    specification: { measure: r.specification.measure, minimum: r.specification.minimum, probability: r.specification.probability, runs: r.specification.runs ?? 1 },
+    specification: {
+      measure: r.specification.measure,
+      minimum: r.specification.minimum,
+      probability: r.specification.probability,
+      runs: r.specification.runs ?? 1,
+    },
     rule: r.rule.text,
-    recommended: r.recommended ? { celsius: round(r.recommended.celsius, 5)!, kelvin: round(r.recommended.kelvin, 6)!, probabilityMeetsSpec: round(r.recommended.probabilityMeetsSpec, 4)! } : null,
+    recommended: r.recommended
+      ? {
+          celsius: round(r.recommended.celsius, 5)!,
+          kelvin: round(r.recommended.kelvin, 6)!,
+          probabilityMeetsSpec: round(r.recommended.probabilityMeetsSpec, 4)!,
+        }
+      : null,
     window: r.window ? { fromCelsius: round(r.window.from.celsius, 5)!, toCelsius: round(r.window.to.celsius, 5)! } : null,
     binding: r.binding,
     conflict: r.conflict?.message ?? null,
@@ -79,7 +102,9 @@ export function planReportData(plan: CampaignPlanView): PlanReportData {
       feasible: p.feasible,
       failing: p.failing.join(', '),
     })),
-    nextRuns: r.nextRuns ? { atCelsius: round(r.nextRuns.at.celsius, 5)!, celsius: r.nextRuns.temperatures.map((t) => round(t.celsius, 5)!) } : null,
+    nextRuns: r.nextRuns
+      ? { atCelsius: round(r.nextRuns.at.celsius, 5)!, celsius: r.nextRuns.temperatures.map((t) => round(t.celsius, 5)!) }
+      : null,
     caution: r.caution,
     version: plan.version,
     updatedAt: plan.updatedAt,
@@ -95,8 +120,31 @@ export async function loadPlanReportData(db: Knex, projectId: string, campaignId
 export interface ComparisonReportData {
   name: string;
   temperatureCelsius: number;
-  campaigns: { id: string; title: string | null; available: boolean; ddHKJPerMol: number | null; ddSJPerMolK: number | null; valueAtTemperature: number | null; intervalLow: number | null; intervalHigh: number | null; problem: string | null; specification: { measure: string; minimum: number; probability: number } | null; meetsAtTemperature: string | null }[];
-  pairs: { first: string; second: string; differenceLnR: number; intervalLow: number; intervalHigh: number; probabilityFirstBetter: number; verdict: string; equalSlopesP: number | null; crossoverCelsius: number | null; note: string }[];
+  campaigns: {
+    id: string;
+    title: string | null;
+    available: boolean;
+    ddHKJPerMol: number | null;
+    ddSJPerMolK: number | null;
+    valueAtTemperature: number | null;
+    intervalLow: number | null;
+    intervalHigh: number | null;
+    problem: string | null;
+    specification: { measure: string; minimum: number; probability: number } | null;
+    meetsAtTemperature: string | null;
+  }[];
+  pairs: {
+    first: string;
+    second: string;
+    differenceLnR: number;
+    intervalLow: number;
+    intervalHigh: number;
+    probabilityFirstBetter: number;
+    verdict: string;
+    equalSlopesP: number | null;
+    crossoverCelsius: number | null;
+    note: string;
+  }[];
   valueMeasure: string;
   caution: string;
 }
@@ -116,7 +164,9 @@ export function comparisonReportData(view: ComparisonView): ComparisonReportData
       intervalLow: round(c.fit?.at.interval[0]),
       intervalHigh: round(c.fit?.at.interval[1]),
       problem: c.problem,
-      specification: c.specification ? { measure: c.specification.measure, minimum: c.specification.minimum, probability: c.specification.probability } : null,
+      specification: c.specification
+        ? { measure: c.specification.measure, minimum: c.specification.minimum, probability: c.specification.probability }
+        : null,
       meetsAtTemperature: c.meetsAtTemperature ?? null,
     })),
     pairs: view.result.pairs.map((p) => ({
@@ -137,6 +187,11 @@ export function comparisonReportData(view: ComparisonView): ComparisonReportData
 }
 
 /** A saved comparison in report shape (recomputed from current runs, as the page shows it). */
-export async function loadComparisonReportData(db: Knex, projectId: string, userId: string, comparisonId: string): Promise<ComparisonReportData> {
+export async function loadComparisonReportData(
+  db: Knex,
+  projectId: string,
+  userId: string,
+  comparisonId: string,
+): Promise<ComparisonReportData> {
   return comparisonReportData(await getComparison(db, projectId, userId, comparisonId));
 }

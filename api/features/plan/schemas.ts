@@ -37,9 +37,7 @@ export const SPEC_MINIMUM_RULES: Record<z.infer<typeof specificationMeasureSchem
 const specificationShape = z.object({
   measure: specificationMeasureSchema,
   minimum: finite('minimum'),
-  probability: finite('probability')
-    .gt(0.5, 'must be above 0.5 (a coin toss is not a specification)')
-    .lte(0.999, 'must be at most 0.999'),
+  probability: finite('probability').gt(0.5, 'must be above 0.5 (a coin toss is not a specification)').lte(0.999, 'must be at most 0.999'),
   runs: z.number().int('must be a whole number').min(1).max(100).optional().meta({
     description: 'Judge the mean of this many runs instead of a single run (default 1)',
   }),
@@ -78,7 +76,8 @@ function requireConcentrations(r: { order: string; limiting?: unknown; excess?: 
     if (!r.limiting) ctx.addIssue({ code: 'custom', path: ['limiting'], message: 'pseudo-first order needs the limiting concentration' });
     if (!r.excess) ctx.addIssue({ code: 'custom', path: ['excess'], message: 'pseudo-first order needs the excess concentration' });
   }
-  if (r.order === 'second' && !r.initial) ctx.addIssue({ code: 'custom', path: ['initial'], message: 'second order needs the starting concentration' });
+  if (r.order === 'second' && !r.initial)
+    ctx.addIssue({ code: 'custom', path: ['initial'], message: 'second order needs the starting concentration' });
 }
 
 export const planRateSchema = z
@@ -109,7 +108,8 @@ const planFields = {
   weighting: z.enum(['none', 'uncertainty']).default('none'),
   uncertaintyScale: z.enum(['absolute', 'relative']).default('absolute'),
   newRunUncertainty: finite('newRunUncertainty').positive('must be greater than zero').optional().meta({
-    description: "The assay's precision for one new run, in the specification measure's units (ee: % points; er/percentA: points of the major share; dr: relative SD of r)",
+    description:
+      "The assay's precision for one new run, in the specification measure's units (ee: % points; er/percentA: points of the major share; dr: relative SD of r)",
   }),
   temperatures: z
     .object({ from: temperatureSchema, to: temperatureSchema })
@@ -139,7 +139,10 @@ const planFields = {
 export const planRequestSchema = z
   .object({
     ...planFields,
-    measurements: z.array(measurementInputSchema).min(1, 'give at least three measurements').max(MAX_POINTS, `at most ${MAX_POINTS} measurements`),
+    measurements: z
+      .array(measurementInputSchema)
+      .min(1, 'give at least three measurements')
+      .max(MAX_POINTS, `at most ${MAX_POINTS} measurements`),
     specification: specificationSchema,
     rate: planRateSchema.optional(),
   })
@@ -188,14 +191,28 @@ export const planResponseSchema = z
     conflict: z.object({ message: z.string(), gapKelvin: z.number().nullable() }).nullable(),
     resolutions: z.array(z.string()),
     specification: specificationShape.extend({ lnRatio: z.number() }),
-    model: z.object({ kind: z.enum(['straight-line', 'segmented']), n: z.number().int(), dof: z.number().int(), fromKelvin: z.number(), toKelvin: z.number() }),
+    model: z.object({
+      kind: z.enum(['straight-line', 'segmented']),
+      n: z.number().int(),
+      dof: z.number().int(),
+      fromKelvin: z.number(),
+      toKelvin: z.number(),
+    }),
     evaluations: z.array(planPointSchema),
     curve: z.array(planPointSchema),
     rate: z
       .object({
         order: z.enum(['first', 'pseudo-first', 'second']),
-        dH: z.object({ 'kJ/mol': z.number(), 'kcal/mol': z.number(), se: z.object({ 'kJ/mol': z.number(), 'kcal/mol': z.number() }).nullable() }),
-        dS: z.object({ 'J/(mol*K)': z.number(), 'cal/(mol*K)': z.number(), se: z.object({ 'J/(mol*K)': z.number(), 'cal/(mol*K)': z.number() }).nullable() }),
+        dH: z.object({
+          'kJ/mol': z.number(),
+          'kcal/mol': z.number(),
+          se: z.object({ 'kJ/mol': z.number(), 'kcal/mol': z.number() }).nullable(),
+        }),
+        dS: z.object({
+          'J/(mol*K)': z.number(),
+          'cal/(mol*K)': z.number(),
+          se: z.object({ 'J/(mol*K)': z.number(), 'cal/(mol*K)': z.number() }).nullable(),
+        }),
         runs: z.array(z.object({ index: z.number().int(), kelvin: z.number(), k: z.number(), lowConversion: z.boolean() })),
         kUnit: z.enum(['s^-1', 'M^-1 s^-1']),
       })
@@ -221,7 +238,9 @@ export type PlanResponse = z.infer<typeof planResponseSchema>;
 // ---------- stored: specifications, campaign plans, comparisons ----------
 
 export const specificationPutSchema = specificationShape
-  .extend({ version: z.number().int().min(1).optional().meta({ description: 'The version last read; required once a specification exists' }) })
+  .extend({
+    version: z.number().int().min(1).optional().meta({ description: 'The version last read; required once a specification exists' }),
+  })
   .superRefine((s, ctx) => {
     const rule = SPEC_MINIMUM_RULES[s.measure];
     if (rule && !rule.ok(s.minimum)) ctx.addIssue({ code: 'custom', path: ['minimum'], message: rule.message });
@@ -299,7 +318,13 @@ export const comparisonResultSchema = z
         available: z.boolean(),
         problem: z.string().nullable(),
         specification: z
-          .object({ measure: specificationMeasureSchema, minimum: z.number(), probability: z.number(), runs: z.number().int(), lnRatio: z.number() })
+          .object({
+            measure: specificationMeasureSchema,
+            minimum: z.number(),
+            probability: z.number(),
+            runs: z.number().int(),
+            lnRatio: z.number(),
+          })
           .nullable()
           .optional()
           .meta({ description: "The campaign's stored specification (its own, else its project's default); null when none is set" }),
@@ -307,14 +332,26 @@ export const comparisonResultSchema = z
           .enum(['meets', 'falls short'])
           .nullable()
           .optional()
-          .meta({ description: "Whether the fitted selectivity at the comparison's temperature reaches the campaign's specification; null without one" }),
+          .meta({
+            description:
+              "Whether the fitted selectivity at the comparison's temperature reaches the campaign's specification; null without one",
+          }),
         fit: z
           .object({
             n: z.number().int(),
             ddH: energyWithSe,
             ddS: z.object({ 'J/(mol*K)': z.number(), 'cal/(mol*K)': z.number(), se: z.number().nullable() }),
             at: z.object({ lnRatio: z.number(), value: z.number(), interval: interval }),
-            curve: z.array(z.object({ kelvin: z.number(), celsius: z.number(), lnRatio: z.number(), lnInterval: interval, value: z.number(), interval: interval })),
+            curve: z.array(
+              z.object({
+                kelvin: z.number(),
+                celsius: z.number(),
+                lnRatio: z.number(),
+                lnInterval: interval,
+                value: z.number(),
+                interval: interval,
+              }),
+            ),
             eyring: z.array(z.object({ kelvin: z.number(), inverseKelvin: z.number(), lnRatio: z.number(), status: z.string() })),
           })
           .nullable(),
@@ -332,9 +369,22 @@ export const comparisonResultSchema = z
         verdict: z.enum(['first', 'second', 'cannot-tell']),
         equalSlopes: z.object({ F: z.number().nullable(), dof1: z.number(), dof2: z.number(), p: z.number().nullable() }),
         crossover: z
-          .object({ kelvin: z.number(), celsius: z.number(), interval: z.tuple([kc.nullable(), kc.nullable()]), bounded: z.boolean(), note: z.string() })
+          .object({
+            kelvin: z.number(),
+            celsius: z.number(),
+            interval: z.tuple([kc.nullable(), kc.nullable()]),
+            bounded: z.boolean(),
+            note: z.string(),
+          })
           .nullable(),
-        runsToTellApart: z.number().int().nullable().meta({ description: 'Runs to add at the temperature to each campaign before the difference would be told apart (80 % power); null when more than 50' }),
+        runsToTellApart: z
+          .number()
+          .int()
+          .nullable()
+          .meta({
+            description:
+              'Runs to add at the temperature to each campaign before the difference would be told apart (80 % power); null when more than 50',
+          }),
         note: z.string(),
       }),
     ),

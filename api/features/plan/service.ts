@@ -34,7 +34,8 @@ const toK = (t: { value: number; unit: 'K' | 'C' | 'F' }, path: string) => tempe
 const seconds = (d: { value: number; unit: 's' | 'min' | 'h' | 'd' }) => d.value * SECONDS_PER[d.unit];
 
 function toSetup(rate: NonNullable<PlanRequest['rate']>): KineticSetup {
-  if (rate.order === 'pseudo-first') return { order: 'pseudo-first', limitingConcentrationM: rate.limiting!.value, excessConcentrationM: rate.excess!.value };
+  if (rate.order === 'pseudo-first')
+    return { order: 'pseudo-first', limitingConcentrationM: rate.limiting!.value, excessConcentrationM: rate.excess!.value };
   if (rate.order === 'second') return { order: 'second', initialConcentrationM: rate.initial!.value };
   return { order: 'first' };
 }
@@ -50,7 +51,10 @@ function fitRate(rate: NonNullable<PlanRequest['rate']>): RateFit {
   } catch (e) {
     // The engine names runs[i].conversion / timeS; point at the request's own field names.
     if (e instanceof DomainError && e.field) {
-      const field = e.field.replace(/\[(\d+)\]/g, '.$1').replace(/\.conversion$/, '.conversionPercent').replace(/\.timeS$/, '.time.value');
+      const field = e.field
+        .replace(/\[(\d+)\]/g, '.$1')
+        .replace(/\.conversion$/, '.conversionPercent')
+        .replace(/\.timeS$/, '.time.value');
       throw new DomainError(e.code, e.message.replace(e.field, field), field);
     }
     throw e;
@@ -79,7 +83,10 @@ export interface PlanScreen {
 }
 
 /** Plan from already converted runs (the campaign route passes its stored runs here). */
-export function planFromScreen(screen: PlanScreen, req: Omit<PlanRequest, 'measurements' | 'weighting' | 'uncertaintyScale'>): PlanResponse {
+export function planFromScreen(
+  screen: PlanScreen,
+  req: Omit<PlanRequest, 'measurements' | 'weighting' | 'uncertaintyScale'>,
+): PlanResponse {
   const weighting = screen.weighting === 'none' ? 'none' : screen.uncertaintyScale;
   const fit = fitEyring(screen.measurements, { weighting });
   // Curvature accepted → probabilities come from the segmented model, as every other forecast does.
@@ -87,10 +94,15 @@ export function planFromScreen(screen: PlanScreen, req: Omit<PlanRequest, 'measu
   const screenModel = chooseScreenModel(fit, curvature);
   const fromK = toK(req.temperatures.from, 'temperatures.from');
   const toKv = toK(req.temperatures.to, 'temperatures.to');
-  if (!(toKv > fromK)) throw new DomainError('range-reversed', 'temperatures.to must be warmer than temperatures.from', 'temperatures.to.value');
+  if (!(toKv > fromK))
+    throw new DomainError('range-reversed', 'temperatures.to must be warmer than temperatures.from', 'temperatures.to.value');
   const rateFit = req.rate ? fitRate(req.rate) : null;
   const rate: PlanRateInput | undefined = rateFit
-    ? { fit: rateFit, targetConversion: req.rate!.targetConversionPercent / 100, ...(req.rate!.maxTime ? { maxTimeS: seconds(req.rate!.maxTime) } : {}) }
+    ? {
+        fit: rateFit,
+        targetConversion: req.rate!.targetConversionPercent / 100,
+        ...(req.rate!.maxTime ? { maxTimeS: seconds(req.rate!.maxTime) } : {}),
+      }
     : undefined;
   const hold: PlanHoldInput | undefined = req.hold
     ? { barrier: toBarrierSpec(req.hold.barrier, 'hold.barrier'), timeS: seconds(req.hold.time), floorEePercent: req.hold.floorEePercent }
@@ -157,12 +169,21 @@ export function planFromScreen(screen: PlanScreen, req: Omit<PlanRequest, 'measu
           dH: {
             'kJ/mol': energyFromJPerMol(rateFit.hJPerMol, 'kJ/mol'),
             'kcal/mol': energyFromJPerMol(rateFit.hJPerMol, 'kcal/mol'),
-            se: rateFit.hSeJPerMol === null ? null : { 'kJ/mol': energyFromJPerMol(rateFit.hSeJPerMol, 'kJ/mol'), 'kcal/mol': energyFromJPerMol(rateFit.hSeJPerMol, 'kcal/mol') },
+            se:
+              rateFit.hSeJPerMol === null
+                ? null
+                : {
+                    'kJ/mol': energyFromJPerMol(rateFit.hSeJPerMol, 'kJ/mol'),
+                    'kcal/mol': energyFromJPerMol(rateFit.hSeJPerMol, 'kcal/mol'),
+                  },
           },
           dS: {
             'J/(mol*K)': rateFit.sJPerMolK,
             'cal/(mol*K)': entropyFromJPerMolK(rateFit.sJPerMolK, 'cal/(mol*K)'),
-            se: rateFit.sSeJPerMolK === null ? null : { 'J/(mol*K)': rateFit.sSeJPerMolK, 'cal/(mol*K)': entropyFromJPerMolK(rateFit.sSeJPerMolK, 'cal/(mol*K)') },
+            se:
+              rateFit.sSeJPerMolK === null
+                ? null
+                : { 'J/(mol*K)': rateFit.sSeJPerMolK, 'cal/(mol*K)': entropyFromJPerMolK(rateFit.sSeJPerMolK, 'cal/(mol*K)') },
           },
           runs: rateFit.runs.map((r) => ({ index: r.index, kelvin: r.temperatureK, k: r.k, lowConversion: r.lowConversion })),
           kUnit: req.rate!.order === 'first' ? 's^-1' : 'M^-1 s^-1',
@@ -177,5 +198,8 @@ export function planFromScreen(screen: PlanScreen, req: Omit<PlanRequest, 'measu
 
 /** POST /api/v1/plan. */
 export function runPlan(req: PlanRequest): PlanResponse {
-  return planFromScreen({ measurements: toEyringMeasurements(req.measurements), weighting: req.weighting, uncertaintyScale: req.uncertaintyScale }, req);
+  return planFromScreen(
+    { measurements: toEyringMeasurements(req.measurements), weighting: req.weighting, uncertaintyScale: req.uncertaintyScale },
+    req,
+  );
 }

@@ -68,9 +68,13 @@ export function planStoreRouter(deps: { knex: Knex }): Router {
     res.status(201).location(`/api/v1/comparisons/${view.id}`).json(view);
   });
 
-  router.get('/comparisons/:comparisonId', authorizeProject('viewer', (req) => resolveComparisonProjectId(knex, req.params.comparisonId)), async (req, res) => {
-    res.json(await getComparison(knex, req.project!.id, req.user!.id, String(req.params.comparisonId)));
-  });
+  router.get(
+    '/comparisons/:comparisonId',
+    authorizeProject('viewer', (req) => resolveComparisonProjectId(knex, req.params.comparisonId)),
+    async (req, res) => {
+      res.json(await getComparison(knex, req.project!.id, req.user!.id, String(req.params.comparisonId)));
+    },
+  );
 
   return router;
 }

@@ -19,7 +19,16 @@ import { compareCampaignFits, type ComparedCampaign } from './compare';
 import type { CampaignPlanInputs, ComparisonCreate, PlanResponse, SpecificationPut } from './schemas';
 
 const specView = (s: PlanSpecification | undefined | null) =>
-  s ? { measure: s.measure, minimum: s.minimum, probability: s.probability, runs: s.runs, version: s.version, updatedAt: new Date(s.updatedAt).toISOString() } : null;
+  s
+    ? {
+        measure: s.measure,
+        minimum: s.minimum,
+        probability: s.probability,
+        runs: s.runs,
+        version: s.version,
+        updatedAt: new Date(s.updatedAt).toISOString(),
+      }
+    : null;
 export type SpecificationView = NonNullable<ReturnType<typeof specView>>;
 
 function stale(what: string, sent: number | undefined, current: number): ConflictError {
@@ -39,14 +48,26 @@ export async function getProjectSpecification(db: Knex, projectId: string): Prom
 
 export async function getCampaignSpecification(db: Knex, projectId: string, campaignId: string) {
   await getCampaign(db, projectId, campaignId);
-  const rows = await PlanSpecification.query(db).where({ projectId }).andWhere((q) => q.whereNull('campaignId').orWhere({ campaignId }));
+  const rows = await PlanSpecification.query(db)
+    .where({ projectId })
+    .andWhere((q) => q.whereNull('campaignId').orWhere({ campaignId }));
   const campaign = specView(rows.find((r) => r.campaignId === campaignId));
   const project = specView(rows.find((r) => r.campaignId === null));
-  return { campaign, project, effective: campaign ?? project, source: campaign ? ('campaign' as const) : project ? ('project' as const) : null };
+  return {
+    campaign,
+    project,
+    effective: campaign ?? project,
+    source: campaign ? ('campaign' as const) : project ? ('project' as const) : null,
+  };
 }
 
 /** Create or replace the project default (campaignId null) or a campaign's override. */
-export async function putSpecification(db: Knex, actor: ProjectActor, campaignId: string | null, input: SpecificationPut): Promise<SpecificationView> {
+export async function putSpecification(
+  db: Knex,
+  actor: ProjectActor,
+  campaignId: string | null,
+  input: SpecificationPut,
+): Promise<SpecificationView> {
   const { version, ...fields } = input;
   const values = { ...fields, runs: fields.runs ?? 1 };
   return db.transaction(async (trx) => {
@@ -54,11 +75,17 @@ export async function putSpecification(db: Knex, actor: ProjectActor, campaignId
     const before = await PlanSpecification.query(trx).findOne({ projectId: actor.projectId, campaignId }).forUpdate();
     let after: PlanSpecification;
     if (!before) {
-      after = await PlanSpecification.query(trx).insert({ projectId: actor.projectId, campaignId, ...values, updatedByUserId: actor.actorUserId }).returning('*');
+      after = await PlanSpecification.query(trx)
+        .insert({ projectId: actor.projectId, campaignId, ...values, updatedByUserId: actor.actorUserId })
+        .returning('*');
     } else {
       if (version !== before.version) throw stale('specification', version, before.version);
-      after = await PlanSpecification.query(trx)
-        .patchAndFetchById(before.id, { ...values, version: before.version + 1, updatedByUserId: actor.actorUserId, updatedAt: new Date() });
+      after = await PlanSpecification.query(trx).patchAndFetchById(before.id, {
+        ...values,
+        version: before.version + 1,
+        updatedByUserId: actor.actorUserId,
+        updatedAt: new Date(),
+      });
     }
     await recordAudit(trx, {
       projectId: actor.projectId,
@@ -93,16 +120,35 @@ export async function getCampaignPlan(db: Knex, projectId: string, campaignId: s
 /** The runs of a campaign that carry conversion (strictly between 0 and 100 %) and a reaction time. */
 function rateRunsOf(measurements: readonly Measurement[]) {
   return measurements
-    .filter((m) => !m.excluded && m.conversionPercent !== null && m.reactionTimeS !== null && m.conversionPercent > 0 && m.conversionPercent < 100 && m.reactionTimeS > 0)
-    .map((m) => ({ temperature: { value: m.temperatureK, unit: 'K' as const }, conversionPercent: m.conversionPercent!, time: { value: m.reactionTimeS!, unit: 's' as const } }));
+    .filter(
+      (m) =>
+        !m.excluded &&
+        m.conversionPercent !== null &&
+        m.reactionTimeS !== null &&
+        m.conversionPercent > 0 &&
+        m.conversionPercent < 100 &&
+        m.reactionTimeS > 0,
+    )
+    .map((m) => ({
+      temperature: { value: m.temperatureK, unit: 'K' as const },
+      conversionPercent: m.conversionPercent!,
+      time: { value: m.reactionTimeS!, unit: 's' as const },
+    }));
 }
 
 /** Plan a stored campaign from its runs (pure apart from the reads): the same planner as POST /plan. */
-export async function computeCampaignPlan(db: Knex | Knex.Transaction, projectId: string, campaign: Campaign, inputs: CampaignPlanInputs): Promise<PlanResponse> {
+export async function computeCampaignPlan(
+  db: Knex | Knex.Transaction,
+  projectId: string,
+  campaign: Campaign,
+  inputs: CampaignPlanInputs,
+): Promise<PlanResponse> {
   const measurements = await Measurement.query(db).where({ campaignId: campaign.id }).orderBy('temperatureK').orderBy('id');
   let specification = inputs.specification;
   if (!specification) {
-    const rows = await PlanSpecification.query(db).where({ projectId }).andWhere((q) => q.whereNull('campaignId').orWhere({ campaignId: campaign.id }));
+    const rows = await PlanSpecification.query(db)
+      .where({ projectId })
+      .andWhere((q) => q.whereNull('campaignId').orWhere({ campaignId: campaign.id }));
     const stored = rows.find((r) => r.campaignId === campaign.id) ?? rows.find((r) => r.campaignId === null);
     if (!stored) {
       throw new BadRequestError('No specification is set for this campaign or its project; send one with the plan or set one first.', [
@@ -128,24 +174,37 @@ export async function computeCampaignPlan(db: Knex | Knex.Transaction, projectId
   );
 }
 
-export async function putCampaignPlan(db: Knex, actor: ProjectActor, campaignId: string, input: { inputs: CampaignPlanInputs; version?: number | undefined }): Promise<CampaignPlanView> {
+export async function putCampaignPlan(
+  db: Knex,
+  actor: ProjectActor,
+  campaignId: string,
+  input: { inputs: CampaignPlanInputs; version?: number | undefined },
+): Promise<CampaignPlanView> {
   return db.transaction(async (trx) => {
     const campaign = await getCampaign(trx, actor.projectId, campaignId);
     const before = await CampaignPlan.query(trx).findById(campaignId).forUpdate();
     if (before && input.version !== before.version) throw stale('plan', input.version, before.version);
     if (!before && input.version !== undefined && input.version !== 1) throw stale('plan', input.version, 0);
     const result = await computeCampaignPlan(trx, actor.projectId, campaign, input.inputs);
-    const row = { inputs: input.inputs as unknown as Record<string, unknown>, result: result as unknown as Record<string, unknown>, updatedByUserId: actor.actorUserId };
+    const row = {
+      inputs: input.inputs as unknown as Record<string, unknown>,
+      result: result as unknown as Record<string, unknown>,
+      updatedByUserId: actor.actorUserId,
+    };
     const after = before
       ? await CampaignPlan.query(trx).patchAndFetchById(campaignId, { ...row, version: before.version + 1, updatedAt: new Date() })
-      : await CampaignPlan.query(trx).insert({ campaignId, ...row }).returning('*');
+      : await CampaignPlan.query(trx)
+          .insert({ campaignId, ...row })
+          .returning('*');
     await recordAudit(trx, {
       projectId: actor.projectId,
       actorUserId: actor.actorUserId,
       action: before ? 'update' : 'create',
       entityType: 'campaign-plan',
       entityId: campaignId,
-      before: before ? { inputs: before.inputs, recommended: (before.result as { recommended?: unknown }).recommended ?? null, version: before.version } : null,
+      before: before
+        ? { inputs: before.inputs, recommended: (before.result as { recommended?: unknown }).recommended ?? null, version: before.version }
+        : null,
       after: { inputs: after.inputs, recommended: result.recommended, version: after.version },
     });
     return planView(after);
@@ -178,7 +237,11 @@ async function compareStored(db: Knex, campaigns: (Campaign | null)[], ids: read
       compared.push({ id: ids[i]!, campaign: null, measurements: [] });
       continue;
     }
-    compared.push({ id: c.id, campaign: c, measurements: await Measurement.query(db).where({ campaignId: c.id }).orderBy('temperatureK').orderBy('id') });
+    compared.push({
+      id: c.id,
+      campaign: c,
+      measurements: await Measurement.query(db).where({ campaignId: c.id }).orderBy('temperatureK').orderBy('id'),
+    });
   }
   const result = compareCampaignFits(compared, temperatureK);
   // Each campaign against its own stored specification (its override, else its project's default).
@@ -188,10 +251,18 @@ async function compareStored(db: Knex, campaigns: (Campaign | null)[], ids: read
     ...result,
     campaigns: result.campaigns.map((entry, i) => {
       const c = campaigns[i];
-      const stored = c ? (specs.find((s) => s.campaignId === c.id) ?? specs.find((s) => s.projectId === c.projectId && s.campaignId === null)) : undefined;
+      const stored = c
+        ? (specs.find((s) => s.campaignId === c.id) ?? specs.find((s) => s.projectId === c.projectId && s.campaignId === null))
+        : undefined;
       if (!stored) return { ...entry, specification: null, meetsAtTemperature: null };
       const lnRatio = specificationLnRatio({ measure: stored.measure, minimum: stored.minimum, probability: stored.probability });
-      const specification = { measure: stored.measure, minimum: stored.minimum, probability: stored.probability, runs: stored.runs, lnRatio };
+      const specification = {
+        measure: stored.measure,
+        minimum: stored.minimum,
+        probability: stored.probability,
+        runs: stored.runs,
+        lnRatio,
+      };
       const meetsAtTemperature = entry.fit ? (entry.fit.at.lnRatio >= lnRatio ? ('meets' as const) : ('falls short' as const)) : null;
       return { ...entry, specification, meetsAtTemperature };
     }),
@@ -222,13 +293,22 @@ export async function createComparison(db: Knex, actor: ProjectActor, input: Com
   const mismatch = scales.findIndex((s) => s !== 'any' && s !== first);
   if (mismatch >= 0) {
     throw new BadRequestError('These campaigns report different isomer pairs (ee or er against dr) and have no common scale.', [
-      { path: `campaignIds.${mismatch}`, message: `reported as ${campaigns[mismatch]!.measure}, which has no common scale with ${campaigns[scales.indexOf(first!)]!.measure}` },
+      {
+        path: `campaignIds.${mismatch}`,
+        message: `reported as ${campaigns[mismatch]!.measure}, which has no common scale with ${campaigns[scales.indexOf(first!)]!.measure}`,
+      },
     ]);
   }
   const result = await compareStored(db, campaigns, input.campaignIds, temperatureK);
   return db.transaction(async (trx) => {
     const row = await Comparison.query(trx)
-      .insert({ projectId: actor.projectId, name: input.name, campaignIds: input.campaignIds, temperatureK, createdByUserId: actor.actorUserId })
+      .insert({
+        projectId: actor.projectId,
+        name: input.name,
+        campaignIds: input.campaignIds,
+        temperatureK,
+        createdByUserId: actor.actorUserId,
+      })
       .returning('*');
     await recordAudit(trx, {
       projectId: actor.projectId,

@@ -9,18 +9,37 @@ import { inviteToProject, listPendingInvitations, revokeInvitation } from '../in
 import type { Mailer } from '../mail/mailer';
 import { authorizeProject, projectIdParam } from './policy';
 import { invitationSchema, memberRoleSchema, projectFieldsSchema, projectPatchSchema, uuidSchema } from './schemas';
-import { changeMemberRole, createProject, deleteProject, getProject, listMembers, listProjectsFor, removeMember, updateProject } from './service';
+import {
+  changeMemberRole,
+  createProject,
+  deleteProject,
+  getProject,
+  listMembers,
+  listProjectsFor,
+  removeMember,
+  updateProject,
+} from './service';
 
 const historyQuery = z.object({
-  limit: z.coerce.number({ error: 'limit must be a number.' }).int('limit must be a whole number.').min(1, 'limit must be at least 1.').max(200, 'limit may be at most 200.').default(50),
-  before: z.coerce.number({ error: 'before must be an event id.' }).int('before must be an event id.').positive('before must be an event id.').optional(),
+  limit: z.coerce
+    .number({ error: 'limit must be a number.' })
+    .int('limit must be a whole number.')
+    .min(1, 'limit must be at least 1.')
+    .max(200, 'limit may be at most 200.')
+    .default(50),
+  before: z.coerce
+    .number({ error: 'before must be an event id.' })
+    .int('before must be an event id.')
+    .positive('before must be an event id.')
+    .optional(),
 });
 
 /** `version` from the body, or from `If-Match: W/"<n>"` when the body has none (as for campaigns). */
 function withIfMatchVersion(body: unknown, ifMatch: string | undefined): unknown {
   if (ifMatch === undefined || body === null || typeof body !== 'object' || Array.isArray(body) || 'version' in body) return body ?? {};
   const m = /^\s*(?:W\/)?"(\d+)"\s*$/.exec(ifMatch);
-  if (!m) throw new BadRequestError('If-Match must name one version, e.g. W/"3".', [{ path: 'If-Match', message: 'expected W/"<version>"' }]);
+  if (!m)
+    throw new BadRequestError('If-Match must name one version, e.g. W/"3".', [{ path: 'If-Match', message: 'expected W/"<version>"' }]);
   return { ...body, version: Number(m[1]) };
 }
 
@@ -90,12 +109,19 @@ export function projectsRouter(deps: { knex: Knex; config: AppConfig; mailer: Ma
 
   router.post('/projects/:projectId/invitations', owner, async (req, res) => {
     const input = invitationSchema.parse(req.body ?? {});
-    const invitation = await inviteToProject(knex, { mailer: deps.mailer, publicUrl: deps.config.publicUrl }, req.user!, req.project!.id, input);
+    const invitation = await inviteToProject(
+      knex,
+      { mailer: deps.mailer, publicUrl: deps.config.publicUrl },
+      req.user!,
+      req.project!.id,
+      input,
+    );
     res.status(201).json({ invitation });
   });
 
   router.delete('/projects/:projectId/invitations/:invitationId', owner, async (req, res) => {
-    if (!uuidSchema.safeParse(req.params.invitationId).success) throw new NotFoundError('This project has no pending invitation with this id.');
+    if (!uuidSchema.safeParse(req.params.invitationId).success)
+      throw new NotFoundError('This project has no pending invitation with this id.');
     await revokeInvitation(knex, req.user!.id, req.project!.id, String(req.params.invitationId));
     res.status(204).end();
   });

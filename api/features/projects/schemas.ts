@@ -14,7 +14,10 @@ const projectName = z
   .min(1, 'Give the project a name.')
   .max(120, 'Keep the name to 120 characters or fewer.')
   .refine((s) => !s.includes('\u0000'), 'The name must not contain a NUL character (U+0000).');
-const projectDescription = z.string({ error: 'The description must be text.' }).trim().max(2000, 'Keep the description to 2000 characters or fewer.')
+const projectDescription = z
+  .string({ error: 'The description must be text.' })
+  .trim()
+  .max(2000, 'Keep the description to 2000 characters or fewer.')
   .refine((s) => !s.includes('\u0000'), 'The description must not contain a NUL character (U+0000).');
 
 export const projectFieldsSchema = z.object({ name: projectName, description: projectDescription.default('') });
@@ -22,7 +25,10 @@ export type ProjectFields = z.input<typeof projectFieldsSchema>;
 
 // No defaults here: a field left out of a change stays as it is.
 const projectDetailFields = { name: projectName.optional(), description: projectDescription.optional() };
-const somethingToChange = [(v: { name?: string; description?: string }) => v.name !== undefined || v.description !== undefined, { message: 'Send a name or a description to change.' }] as const;
+const somethingToChange = [
+  (v: { name?: string; description?: string }) => v.name !== undefined || v.description !== undefined,
+  { message: 'Send a name or a description to change.' },
+] as const;
 
 /** The details form in the web app; the version it was loaded at is added when it is sent. */
 export const projectDetailsSchema = z.object(projectDetailFields).refine(...somethingToChange);
@@ -31,7 +37,10 @@ export const projectDetailsSchema = z.object(projectDetailFields).refine(...some
 export const projectPatchSchema = z
   .object({
     ...projectDetailFields,
-    version: z.number({ error: 'Send the version of the project you last read.' }).int('version must be a whole number.').min(1, 'version must be at least 1.'),
+    version: z
+      .number({ error: 'Send the version of the project you last read.' })
+      .int('version must be a whole number.')
+      .min(1, 'version must be at least 1.'),
   })
   .refine(...somethingToChange);
 

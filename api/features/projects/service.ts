@@ -28,7 +28,11 @@ export interface MemberView {
 }
 
 const projectSnapshot = (p: Project) => ({ id: p.id, name: p.name, description: p.description });
-const memberSnapshot = (m: Pick<ProjectMember, 'projectId' | 'userId' | 'role'>) => ({ projectId: m.projectId, userId: m.userId, role: m.role });
+const memberSnapshot = (m: Pick<ProjectMember, 'projectId' | 'userId' | 'role'>) => ({
+  projectId: m.projectId,
+  userId: m.userId,
+  role: m.role,
+});
 
 export async function listProjectsFor(db: Knex, userId: string): Promise<ProjectView[]> {
   const rows = await db('projects as p')
@@ -71,8 +75,24 @@ export async function createProject(db: Knex, actorId: string, fields: { name: s
     const project = await Project.query(trx).insertAndFetch({ ...fields, createdBy: actorId });
     const member = { projectId: project.id, userId: actorId, role: 'owner' as const };
     await ProjectMember.query(trx).insert(member);
-    await recordAudit(trx, { projectId: project.id, actorUserId: actorId, action: 'create', entityType: 'project', entityId: project.id, before: null, after: projectSnapshot(project) });
-    await recordAudit(trx, { projectId: project.id, actorUserId: actorId, action: 'create', entityType: 'project_member', entityId: actorId, before: null, after: memberSnapshot(member) });
+    await recordAudit(trx, {
+      projectId: project.id,
+      actorUserId: actorId,
+      action: 'create',
+      entityType: 'project',
+      entityId: project.id,
+      before: null,
+      after: projectSnapshot(project),
+    });
+    await recordAudit(trx, {
+      projectId: project.id,
+      actorUserId: actorId,
+      action: 'create',
+      entityType: 'project_member',
+      entityId: actorId,
+      before: null,
+      after: memberSnapshot(member),
+    });
     return project.id;
   });
   return getProject(db, id, 'owner');
@@ -96,7 +116,15 @@ export async function updateProject(
       );
     }
     const after = await Project.query(trx).patchAndFetchById(projectId, { ...patch, version: version + 1 });
-    await recordAudit(trx, { projectId, actorUserId: actorId, action: 'update', entityType: 'project', entityId: projectId, before: projectSnapshot(before), after: projectSnapshot(after) });
+    await recordAudit(trx, {
+      projectId,
+      actorUserId: actorId,
+      action: 'update',
+      entityType: 'project',
+      entityId: projectId,
+      before: projectSnapshot(before),
+      after: projectSnapshot(after),
+    });
   });
   return getProject(db, projectId, role);
 }
@@ -148,7 +176,13 @@ async function lockMembers(trx: Knex.Transaction, projectId: string, userId: str
   return { target, owners };
 }
 
-export async function changeMemberRole(db: Knex, actorId: string, projectId: string, userId: string, role: ProjectRole): Promise<MemberView> {
+export async function changeMemberRole(
+  db: Knex,
+  actorId: string,
+  projectId: string,
+  userId: string,
+  role: ProjectRole,
+): Promise<MemberView> {
   await db.transaction(async (trx) => {
     const { target, owners } = await lockMembers(trx, projectId, userId);
     if (target.role === role) return;
@@ -156,7 +190,15 @@ export async function changeMemberRole(db: Knex, actorId: string, projectId: str
       throw new ConflictError('The last owner cannot be demoted. Make another member an owner first.', { code: 'last-owner' });
     }
     await ProjectMember.query(trx).findById([projectId, userId]).patch({ role });
-    await recordAudit(trx, { projectId, actorUserId: actorId, action: 'update', entityType: 'project_member', entityId: userId, before: memberSnapshot(target), after: memberSnapshot({ projectId, userId, role }) });
+    await recordAudit(trx, {
+      projectId,
+      actorUserId: actorId,
+      action: 'update',
+      entityType: 'project_member',
+      entityId: userId,
+      before: memberSnapshot(target),
+      after: memberSnapshot({ projectId, userId, role }),
+    });
   });
   const member = (await listMembers(db, projectId)).find((m) => m.userId === userId);
   if (!member) throw new NotFoundError('This person is not a member of the project.');
@@ -176,6 +218,14 @@ export async function removeMember(db: Knex, actorId: string, projectId: string,
       );
     }
     await ProjectMember.query(trx).deleteById([projectId, userId]);
-    await recordAudit(trx, { projectId, actorUserId: actorId, action: 'delete', entityType: 'project_member', entityId: userId, before: memberSnapshot(target), after: null });
+    await recordAudit(trx, {
+      projectId,
+      actorUserId: actorId,
+      action: 'delete',
+      entityType: 'project_member',
+      entityId: userId,
+      before: memberSnapshot(target),
+      after: null,
+    });
   });
 }

@@ -37,7 +37,10 @@ export async function listTokens(userId: string): Promise<TokenView[]> {
 }
 
 /** Create a token; the secret is returned this once and only its hash is kept. */
-export async function createToken(userId: string, input: { name: string; expiresInDays: number }): Promise<{ token: TokenView; secret: string }> {
+export async function createToken(
+  userId: string,
+  input: { name: string; expiresInDays: number },
+): Promise<{ token: TokenView; secret: string }> {
   const secret = newSecret(TOKEN_PREFIX);
   const token = await ApiToken.query().insertAndFetch({
     userId,

@@ -56,7 +56,8 @@ describe('workbooks with more rows than the limit', () => {
       status: 413,
       title: 'Payload too large',
       // "more than", not a count: the reader never saw the end of the sheet.
-      detail: 'plant-log.xlsx (worksheet "Screen") has more than 20000 rows; at most 20000 data rows can be imported at once. Split the file.',
+      detail:
+        'plant-log.xlsx (worksheet "Screen") has more than 20000 rows; at most 20000 data rows can be imported at once. Split the file.',
     });
     expect(answer.peakMemoryBytes).toBeLessThan(200 * MB);
   });
@@ -74,7 +75,9 @@ describe('files with NUL characters', () => {
     const rows = Array.from({ length: 400 }, (_, i) => `${i % 50},9${i % 10}.5,run ${i}`);
     rows[300] = '12,93.5,bad\u0000note';
     const err = await rejection(parseUpload(textFile('screen.csv', `T (°C),ee (%),notes\n${rows.join('\n')}\n`)), 400);
-    expect(err.message).toBe('screen.csv contains a NUL character (a zero byte) at line 302; a text table cannot hold one. Remove it, or export the table again.');
+    expect(err.message).toBe(
+      'screen.csv contains a NUL character (a zero byte) at line 302; a text table cannot hold one. Remove it, or export the table again.',
+    );
   });
 
   it('when a workbook cell holds a NUL character, then it is refused with 400', async () => {

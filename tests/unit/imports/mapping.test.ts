@@ -1,5 +1,12 @@
 import { describe, expect, it } from 'vitest';
-import { guessMapping, mappingFromGuess, MAX_LISTED_ISSUES, ROWS_PER_STEP, validateRows, validateRowsYielding } from '../../../api/features/imports/mapping';
+import {
+  guessMapping,
+  mappingFromGuess,
+  MAX_LISTED_ISSUES,
+  ROWS_PER_STEP,
+  validateRows,
+  validateRowsYielding,
+} from '../../../api/features/imports/mapping';
 import { parseUpload } from '../../../api/features/imports/parse';
 import { previewImport } from '../../../api/features/imports/service';
 import { importMappingSchema, type ImportMappingInput } from '../../../api/features/campaigns/schemas';
@@ -13,9 +20,18 @@ async function check(text: string, m = eeInCelsius, options = {}) {
 }
 
 describe('guessMapping', () => {
-  it('when the headers are the clean sample\'s, then every column is recognised with kelvin, ee and hours', async () => {
+  it("when the headers are the clean sample's, then every column is recognised with kelvin, ee and hours", async () => {
     const g = guessMapping(await parseUpload(sample('kestrelmoor-skylark-screen.csv')));
-    expect(g.columns).toEqual({ sampleId: 0, replicateLabel: 1, temperature: 2, value: 3, uncertainty: 4, conversionPercent: 5, reactionTime: 6, notes: 7 });
+    expect(g.columns).toEqual({
+      sampleId: 0,
+      replicateLabel: 1,
+      temperature: 2,
+      value: 3,
+      uncertainty: 4,
+      conversionPercent: 5,
+      reactionTime: 6,
+      notes: 7,
+    });
     expect(g).toMatchObject({ temperatureUnit: 'K', measure: 'ee', timeUnit: 'h', unmapped: [], missing: [] });
   });
 
@@ -158,14 +174,21 @@ describe('validateRows: row-level checks', () => {
   it('when the measure column holds an unknown word, then the words allowed are listed', async () => {
     const m = mapping({ columns: { temperature: 0, measure: 1, value: 2 }, temperatureUnit: 'C' });
     const r = await check('T,measure,value\n25,optical rotation,12\n', m);
-    expect(r.issues[0]).toEqual({ severity: 'error', row: 2, column: 'B "measure"', message: 'unknown measure "optical rotation"; use one of ee, er, dr, percentA, ratio.' });
+    expect(r.issues[0]).toEqual({
+      severity: 'error',
+      row: 2,
+      column: 'B "measure"',
+      message: 'unknown measure "optical rotation"; use one of ee, er, dr, percentA, ratio.',
+    });
   });
 
   it('when a unit column is mapped, then each row uses its own unit, and a bad unit is named', async () => {
     const m = mapping({ columns: { temperature: 0, temperatureUnit: 1, value: 2 }, measure: 'ee' });
     const r = await check('T,unit,ee\n25,°C,96\n273.15,K,97\n32,F,97.5\n25,furlongs,96\n', m);
     expect(r.rows.map((x) => x.temperatureK)).toEqual([298.15, 273.15, 273.15]);
-    expect(r.issues).toEqual([{ severity: 'error', row: 5, column: 'B "unit"', message: 'unknown temperature unit "furlongs"; use K, °C or °F.' }]);
+    expect(r.issues).toEqual([
+      { severity: 'error', row: 5, column: 'B "unit"', message: 'unknown temperature unit "furlongs"; use K, °C or °F.' },
+    ]);
   });
 
   it('when a temperature cell carries its own unit, then that unit wins over the default', async () => {
@@ -177,7 +200,12 @@ describe('validateRows: row-level checks', () => {
     const m = mapping({ columns: { temperature: 0, value: 1 }, temperatureUnit: 'K', measure: 'ee' });
     const r = await check('T (K),ee\n25,96\n-20,98\n', m);
     expect(r.issues).toEqual([
-      { severity: 'warning', row: 2, column: 'A "T (K)"', message: '25 K is −248.15 °C, colder than any solution screen; it looks like a °C value. Check the unit.' },
+      {
+        severity: 'warning',
+        row: 2,
+        column: 'A "T (K)"',
+        message: '25 K is −248.15 °C, colder than any solution screen; it looks like a °C value. Check the unit.',
+      },
       { severity: 'error', row: 3, column: 'A "T (K)"', message: '−20 K is at or below absolute zero; is it in °C?' },
     ]);
   });
@@ -206,7 +234,12 @@ describe('validateRows: row-level checks', () => {
     const m = mapping({ columns: { temperature: 0, value: 1 }, temperatureUnit: 'C', measure: 'ee' });
     const r = await check('T,ee,comment\n25,96,\n,,see next page\n', m);
     expect(r.rows).toHaveLength(1);
-    expect(r.issues).toContainEqual({ severity: 'warning', row: 3, column: null, message: 'the row is blank in every mapped column and is skipped.' });
+    expect(r.issues).toContainEqual({
+      severity: 'warning',
+      row: 3,
+      column: null,
+      message: 'the row is blank in every mapped column and is skipped.',
+    });
   });
 
   it('when there are more problems than are listed, then the counts stay exact and a last line says how many are hidden', async () => {
@@ -220,20 +253,37 @@ describe('validateRows: row-level checks', () => {
 
 describe('validateRows: the mapping itself', () => {
   it('when a mapped column name does not exist, then the error lists the columns the file has', async () => {
-    const r = await check('T (°C),ee (%)\n25,96\n', mapping({ columns: { temperature: 'Temp', value: 'ee (%)' }, temperatureUnit: 'C', measure: 'ee' }));
+    const r = await check(
+      'T (°C),ee (%)\n25,96\n',
+      mapping({ columns: { temperature: 'Temp', value: 'ee (%)' }, temperatureUnit: 'C', measure: 'ee' }),
+    );
     expect(r.rows).toEqual([]);
     expect(r.issues).toEqual([
-      { severity: 'error', row: null, column: null, message: 'temperature is mapped to a column named "Temp", but the file has no such column (its columns are "T (°C)", "ee (%)").' },
+      {
+        severity: 'error',
+        row: null,
+        column: null,
+        message: 'temperature is mapped to a column named "Temp", but the file has no such column (its columns are "T (°C)", "ee (%)").',
+      },
     ]);
   });
 
   it('when a column index is past the last column, or one column is mapped twice, then both are reported', async () => {
-    const r = await check('T,ee\n25,96\n', mapping({ columns: { temperature: 0, value: 5, notes: 0 }, temperatureUnit: 'C', measure: 'ee' }));
-    expect(r.issues.map((i) => i.message)).toEqual(['value is mapped to column F, but the file has only 2 columns.', 'column is mapped twice, to temperature and to notes.']);
+    const r = await check(
+      'T,ee\n25,96\n',
+      mapping({ columns: { temperature: 0, value: 5, notes: 0 }, temperatureUnit: 'C', measure: 'ee' }),
+    );
+    expect(r.issues.map((i) => i.message)).toEqual([
+      'value is mapped to column F, but the file has only 2 columns.',
+      'column is mapped twice, to temperature and to notes.',
+    ]);
   });
 
   it('when header names are matched, then case and surrounding spaces do not matter', async () => {
-    const r = await check('T (°C),ee (%)\n25,96\n', mapping({ columns: { temperature: ' t (°c) ', value: 'EE (%)' }, temperatureUnit: 'C', measure: 'ee' }));
+    const r = await check(
+      'T (°C),ee (%)\n25,96\n',
+      mapping({ columns: { temperature: ' t (°c) ', value: 'EE (%)' }, temperatureUnit: 'C', measure: 'ee' }),
+    );
     expect(r.errorCount).toBe(0);
     expect(r.rows[0].temperatureK).toBe(298.15);
   });

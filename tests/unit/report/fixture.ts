@@ -69,7 +69,12 @@ export function demoMeasurements(n: number, campaign = demoCampaign()): Measurem
 export function demoReportData(n = 12, overrides: Partial<ReportData> = {}): ReportData {
   const campaign = demoCampaign();
   const measurements = demoMeasurements(n, campaign);
-  const analysis = computeAnalysis(campaign, measurements, { weighting: 'none', uncertaintyScale: 'absolute', confidence: 0.95, atK: 243.15 });
+  const analysis = computeAnalysis(campaign, measurements, {
+    weighting: 'none',
+    uncertaintyScale: 'absolute',
+    confidence: 0.95,
+    atK: 243.15,
+  });
   const saved: SavedForecastView = {
     id: '00000000-0000-4000-8000-000000000009',
     campaignId: campaign.id,
@@ -82,7 +87,15 @@ export function demoReportData(n = 12, overrides: Partial<ReportData> = {}): Rep
     result: analysis.at!,
     measured: [],
   };
-  return { campaign, measurements, analysis, forecasts: [saved], project: { name: 'Invented project Heron' }, specification: { measure: 'dr', minimum: 10 }, ...overrides };
+  return {
+    campaign,
+    measurements,
+    analysis,
+    forecasts: [saved],
+    project: { name: 'Invented project Heron' },
+    specification: { measure: 'dr', minimum: 10 },
+    ...overrides,
+  };
 }
 
 export const demoMeta: ReportMeta = { appVersion: '0.0.0-test', generatedAt: new Date('2026-12-02T04:00:00Z'), exportedBy: 'R. Vale' };

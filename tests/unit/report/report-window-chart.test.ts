@@ -10,7 +10,18 @@ function invented(recommended: boolean): PlanReportData {
   const rows = Array.from({ length: 23 }, (_, i) => {
     const c = -70 + 5 * i;
     const failing = [c > -30 ? 'specification' : '', c < -55 ? 'time' : ''].filter(Boolean).join(', ');
-    return { celsius: c, kelvin: c + 273.15, probabilityMeetsSpec: 1 / (1 + Math.exp((c + 30) / 6)), predicted: 95, bandLow: 92, bandHigh: 97, timeToTargetHours: 10, eeAfterHoldPercent: null, feasible: !failing, failing };
+    return {
+      celsius: c,
+      kelvin: c + 273.15,
+      probabilityMeetsSpec: 1 / (1 + Math.exp((c + 30) / 6)),
+      predicted: 95,
+      bandLow: 92,
+      bandHigh: 97,
+      timeToTargetHours: 10,
+      eeAfterHoldPercent: null,
+      feasible: !failing,
+      failing,
+    };
   });
   return {
     inputs: [],

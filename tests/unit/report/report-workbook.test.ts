@@ -53,7 +53,9 @@ describe('campaign workbook', () => {
     expect(wb.worksheets.map((w) => w.name)).toEqual(['Summary', 'Charts', 'Measurements', 'Fit', 'Forecast']);
     const summary = wb.getWorksheet('Summary')!;
     expect(labelRow(summary, 'Specification').getCell(2).value).toBe('dr ≥ 10.0:1');
-    expect(String(labelRow(summary, 'Forecast dr').getCell(2).value)).toMatch(/^\d+\.\d:1 \(95 % prediction interval \d+\.\d:1 to \d+\.\d:1\)/);
+    expect(String(labelRow(summary, 'Forecast dr').getCell(2).value)).toMatch(
+      /^\d+\.\d:1 \(95 % prediction interval \d+\.\d:1 to \d+\.\d:1\)/,
+    );
     expect(labelRow(summary, 'Forecast de (%)').getCell(6).value).toBe('%');
     expect(labelRow(summary, 'Forecast Major diastereomer (%)').getCell(2).value).toBeGreaterThan(50);
     // ee belongs to enantiomers only: a dr campaign never shows it.
@@ -105,9 +107,19 @@ describe('campaign workbook', () => {
     const fc = wb.getWorksheet('Forecast')!;
     const rows: { c: number; k: number; source: string; ratio: number }[] = [];
     fc.eachRow((row, i) => {
-      if (i > 1) rows.push({ c: row.getCell(1).value as number, k: row.getCell(2).value as number, source: String(row.getCell(3).value), ratio: row.getCell(4).value as number });
+      if (i > 1)
+        rows.push({
+          c: row.getCell(1).value as number,
+          k: row.getCell(2).value as number,
+          source: String(row.getCell(3).value),
+          ratio: row.getCell(4).value as number,
+        });
     });
-    const engine = analyseScreen(toEngineMeasurements(data.campaign, data.measurements), { weighting: 'none', uncertaintyScale: 'absolute', confidence: 0.95 }, rows.map((r) => r.k));
+    const engine = analyseScreen(
+      toEngineMeasurements(data.campaign, data.measurements),
+      { weighting: 'none', uncertaintyScale: 'absolute', confidence: 0.95 },
+      rows.map((r) => r.k),
+    );
     rows.forEach((r, i) => expect(r.ratio).toBe(engine.predictions[i]!.ratio));
     const grid = rows.filter((r) => r.source === 'grid').map((r) => r.c);
     // Every 5 °C over the screened −78 to 25 °C, widened to round values [C].
@@ -123,7 +135,9 @@ describe('campaign workbook', () => {
     const data = demoReportData(12, { specification: { measure: 'dr', minimum, probability: 0.95, runs: 1, source: 'project' } });
     const wb = await readBack(await buildCampaignReport(data, demoMeta));
     const specLn = Math.log(minimum); // dr ≥ m:1 → ln r ≥ ln m [C]
-    expect(labelRow(wb.getWorksheet('Summary')!, 'Specification').getCell(2).value).toBe(`dr ≥ ${minimum.toFixed(1)}:1, with probability 0.95 that a new run meets it (the project's default)`);
+    expect(labelRow(wb.getWorksheet('Summary')!, 'Specification').getCell(2).value).toBe(
+      `dr ≥ ${minimum.toFixed(1)}:1, with probability 0.95 that a new run meets it (the project's default)`,
+    );
 
     const fc = wb.getWorksheet('Forecast')!;
     const header = Array.from(fc.getRow(1).values as unknown[], String);
@@ -136,10 +150,19 @@ describe('campaign workbook', () => {
       ks.push(row.getCell(2).value as number);
       said.push(String(row.getCell(meetsCol).value));
     });
-    const engine = analyseScreen(toEngineMeasurements(data.campaign, data.measurements), { weighting: 'none', uncertaintyScale: 'absolute', confidence: 0.95 }, ks);
+    const engine = analyseScreen(
+      toEngineMeasurements(data.campaign, data.measurements),
+      { weighting: 'none', uncertaintyScale: 'absolute', confidence: 0.95 },
+      ks,
+    );
     engine.predictions.forEach((p, i) => {
       const low = Math.log(Math.min(p.predictionInterval!.ratio[0]!, p.predictionInterval!.ratio[1]!));
-      const expected = Math.log(p.ratio!) < specLn ? 'falls short' : low >= specLn ? 'meets: whole prediction interval at or above' : 'forecast meets; interval reaches below';
+      const expected =
+        Math.log(p.ratio!) < specLn
+          ? 'falls short'
+          : low >= specLn
+            ? 'meets: whole prediction interval at or above'
+            : 'forecast meets; interval reaches below';
       expect(said[i]).toBe(expected);
     });
     // Warm rows fall short, cold rows meet.
@@ -169,7 +192,8 @@ describe('campaign workbook', () => {
       for (const c of cellsOf(ws)) {
         if (typeof c.value === 'string') expect(c.value).not.toMatch(FLOAT_ARTEFACT);
         // Numbers keep full precision but Celsius values lose the kelvin round-trip noise.
-        if (typeof c.value === 'number' && ws.name === 'Forecast' && Number(c.col) === 1) expect(String(c.value)).not.toMatch(FLOAT_ARTEFACT);
+        if (typeof c.value === 'number' && ws.name === 'Forecast' && Number(c.col) === 1)
+          expect(String(c.value)).not.toMatch(FLOAT_ARTEFACT);
       }
     }
     expect(fixed(-39.99999999999997, 2)).toBe('−40.00');
@@ -183,7 +207,8 @@ describe('campaign workbook', () => {
       for (const c of cellsOf(ws)) {
         expect(c.type).not.toBe(ExcelJS.ValueType.Formula);
         // XML readers turn a stored carriage return into a line feed; the apostrophe is what matters.
-        if (typeof c.value === 'string' && HOSTILE.some((h) => [`'${h}`, `'${h.replace('\r', '\n')}`].includes(c.value as string))) texts.push(c);
+        if (typeof c.value === 'string' && HOSTILE.some((h) => [`'${h}`, `'${h.replace('\r', '\n')}`].includes(c.value as string)))
+          texts.push(c);
       }
     }
     expect(texts.length).toBe(HOSTILE.length);
@@ -261,7 +286,11 @@ describe('campaign workbook', () => {
       const dir = mkdtempSync(path.join(tmpdir(), 'eyrie-lo-'));
       try {
         writeFileSync(path.join(dir, 'r.xlsx'), await buildCampaignReport(demoReportData(30), demoMeta));
-        execFileSync('soffice', [`-env:UserInstallation=file://${dir}/profile`, '--headless', '--convert-to', 'pdf', '--outdir', dir, path.join(dir, 'r.xlsx')], { stdio: 'ignore', timeout: 60_000 });
+        execFileSync(
+          'soffice',
+          [`-env:UserInstallation=file://${dir}/profile`, '--headless', '--convert-to', 'pdf', '--outdir', dir, path.join(dir, 'r.xlsx')],
+          { stdio: 'ignore', timeout: 60_000 },
+        );
         const info = execFileSync('pdfinfo', [path.join(dir, 'r.pdf')], { encoding: 'utf8' });
         const pages = Number(/Pages:\s+(\d+)/.exec(info)![1]);
         expect(pages).toBeGreaterThanOrEqual(4);

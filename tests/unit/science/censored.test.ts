@@ -36,7 +36,12 @@ describe('fitCensoredLine (Tobit) against R survival::survreg', () => {
   });
 
   it('when the screen favours B, then upper bounds give the mirrored estimates', () => {
-    const fit = fitCensoredLine(x, y.map((v) => -v), censor.map((c) => (c === 'lower' ? 'upper' : c)), bound.map((b) => -b));
+    const fit = fitCensoredLine(
+      x,
+      y.map((v) => -v),
+      censor.map((c) => (c === 'lower' ? 'upper' : c)),
+      bound.map((b) => -b),
+    );
     // R 4.2.2, survival 3.5-3: survreg(Surv(y, exact, type = "left") ~ u, dist = "gaussian")
     expect(rel(fit.intercept, 0.94209988529203)).toBeLessThan(1e-7);
     expect(rel(fit.slope, -1694.15134625908445)).toBeLessThan(1e-8);
@@ -49,7 +54,7 @@ describe('fitCensoredLine (Tobit) against R survival::survreg', () => {
     expect(rel(fit.intercept, -0.947211820725809)).toBeLessThan(1e-7);
     expect(rel(fit.slope, 1695.016866228194203)).toBeLessThan(1e-8);
     expect(rel(fit.scale, 1.23628491056092)).toBeLessThan(1e-6);
-    expect(rel(fit.covariance.slopeSlope, 1528.2304860070187260)).toBeLessThan(1e-5);
+    expect(rel(fit.covariance.slopeSlope, 1528.230486007018726)).toBeLessThan(1e-5);
     expect(rel(fit.covariance.interceptSlope, -5.6875907134380377)).toBeLessThan(1e-5);
     expect(rel(fit.logScaleSe!, 0.245261721917002)).toBeLessThan(1e-5);
   });

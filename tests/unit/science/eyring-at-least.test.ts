@@ -5,7 +5,10 @@ import { fitEyring, type EyringMeasurement } from '../../../api/science/eyring-f
 // Constructed screen [C]: ΔΔH‡ = 10 kJ/mol, ΔΔS‡ = 4 J/(mol K); ln r = ΔΔH‡/RT − ΔΔS‡/R (api/science/README.md §1), small invented scatter.
 const lnR = (t: number) => 10_000 / (R * t) - 4 / R;
 const NOISE = [0.02, -0.03, 0.01, -0.015, 0.025];
-const screen: EyringMeasurement[] = [-40, -20, 0, 20, 40].map((c, i) => ({ temperatureK: c + 273.15, ratio: Math.exp(lnR(c + 273.15) + NOISE[i]!) }));
+const screen: EyringMeasurement[] = [-40, -20, 0, 20, 40].map((c, i) => ({
+  temperatureK: c + 273.15,
+  ratio: Math.exp(lnR(c + 273.15) + NOISE[i]!),
+}));
 
 describe('fitEyring with runs reported as bounds (atLeast)', () => {
   it('when a run below the quantitation limit is marked atLeast, then it is a lower bound at its reported value and the least-squares fit beside it equals the fit without it', () => {

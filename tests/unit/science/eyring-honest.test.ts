@@ -22,7 +22,10 @@ function normals(seed: number): () => number {
 // The invented screen of tests/fixtures/r/censored-eyring.R: ln r = −0.9 + 1684/T + noise.
 const CELSIUS = [-70, -60, -50, -40, -30, -20, -10, 0, 10, 20];
 const NOISE = [0.05, -0.04, 0.03, -0.06, 0.02, 0.04, -0.03, 0.01, -0.05, 0.02];
-const rScreen: EyringMeasurement[] = CELSIUS.map((c, i) => ({ temperatureK: c + 273.15, ratio: Math.exp(-0.9 + 1684 / (c + 273.15) + NOISE[i]!) }));
+const rScreen: EyringMeasurement[] = CELSIUS.map((c, i) => ({
+  temperatureK: c + 273.15,
+  ratio: Math.exp(-0.9 + 1684 / (c + 273.15) + NOISE[i]!),
+}));
 
 describe('fitEyring with runs beyond the quantitation limit (censored ML)', () => {
   it('when the coldest runs read above 99.8 % ee, then they are bounds at the limit and ΔΔH‡ matches R survreg', () => {
@@ -38,7 +41,10 @@ describe('fitEyring with runs beyond the quantitation limit (censored ML)', () =
     expect(Math.abs(fit.ddHSeJPerMol! / (R * Math.sqrt(1287.2282116934788974)) - 1)).toBeLessThan(1e-5); // R survreg Var(b)
     // The least-squares fit of the 8 exact runs is shown beside it.
     const exact = rScreen.slice(2);
-    const ls = fitLine(exact.map((m) => 1 / m.temperatureK), exact.map((m) => Math.log(m.ratio)));
+    const ls = fitLine(
+      exact.map((m) => 1 / m.temperatureK),
+      exact.map((m) => Math.log(m.ratio)),
+    );
     expect(fit.leastSquaresWithoutBounds!.ddHJPerMol).toBeCloseTo(R * ls.slope, 6); // [C]
     expect(fit.leastSquaresWithoutBounds!.nFitted).toBe(8);
     expect(fit.points.slice(0, 2).every((p) => p.boundConsistent)).toBe(true);
@@ -70,7 +76,10 @@ describe('fitEyring with runs beyond the quantitation limit (censored ML)', () =
 });
 
 describe('honest flags on small screens', () => {
-  const wild: EyringMeasurement[] = [-40, -20, 0, 20].map((c, i) => ({ temperatureK: c + 273.15, ratio: Math.exp(1500 / (c + 273.15) - 3 + (i === 2 ? 0.5 : 0)) }));
+  const wild: EyringMeasurement[] = [-40, -20, 0, 20].map((c, i) => ({
+    temperatureK: c + 273.15,
+    ratio: Math.exp(1500 / (c + 273.15) - 3 + (i === 2 ? 0.5 : 0)),
+  }));
 
   it('when there are fewer than 3 residual degrees of freedom, then no run is flagged and the page says why', () => {
     const fit = fitEyring(wild);
@@ -172,7 +181,10 @@ describe('χ²/dof of weighted fits', () => {
 describe('T₀ with a Fieller interval', () => {
   it('when ΔΔS‡ is well determined, then T₀ has a bounded interval around it', () => {
     // ΔΔH‡/R = 1500 K, ΔΔS‡/R = 3 → T₀ = 500 K, measured over 213–313 K
-    const runs = [-60, -40, -20, 0, 20, 40].map((c, i) => ({ temperatureK: c + 273.15, ratio: Math.exp(1500 / (c + 273.15) - 3 + [0.01, -0.01, 0.005, 0.0, -0.005, 0.01][i]!) }));
+    const runs = [-60, -40, -20, 0, 20, 40].map((c, i) => ({
+      temperatureK: c + 273.15,
+      ratio: Math.exp(1500 / (c + 273.15) - 3 + [0.01, -0.01, 0.005, 0.0, -0.005, 0.01][i]!),
+    }));
     const fit = fitEyring(runs);
     const iv = fit.zeroSelectivityInterval!;
     expect(iv.bounded).toBe(true);
@@ -182,7 +194,10 @@ describe('T₀ with a Fieller interval', () => {
   });
 
   it('when ΔΔS‡ cannot be told from zero, then the interval is unbounded and the fit says so', () => {
-    const runs = [-40, -20, 0, 20, 40].map((c, i) => ({ temperatureK: c + 273.15, ratio: Math.exp(300 / (c + 273.15) - 0.05 + [0.05, -0.06, 0.04, 0.05, -0.05][i]!) }));
+    const runs = [-40, -20, 0, 20, 40].map((c, i) => ({
+      temperatureK: c + 273.15,
+      ratio: Math.exp(300 / (c + 273.15) - 0.05 + [0.05, -0.06, 0.04, 0.05, -0.05][i]!),
+    }));
     const fit = fitEyring(runs);
     expect(fit.zeroSelectivityTemperatureK).not.toBeNull();
     expect(fit.zeroSelectivityInterval!.bounded).toBe(false);
@@ -200,12 +215,18 @@ describe('T₀ with a Fieller interval', () => {
 
 describe('correctness details', () => {
   it('when a screen runs from −40 to 0 °C, then it spans 40 K and is not called narrow', () => {
-    const runs = [-40, -30, -20, -10, 0].map((c, i) => ({ temperatureK: c + 273.15, ratio: Math.exp(1500 / (c + 273.15) - 3 + [0.01, -0.01, 0, 0.01, -0.01][i]!) }));
+    const runs = [-40, -30, -20, -10, 0].map((c, i) => ({
+      temperatureK: c + 273.15,
+      ratio: Math.exp(1500 / (c + 273.15) - 3 + [0.01, -0.01, 0, 0.01, -0.01][i]!),
+    }));
     expect(codes(fitEyring(runs).warnings)).not.toContain('narrow-temperature-span');
   });
 
   it('when one prediction lies far below the data, then it is flagged with ln r and ΔΔG‡ and the rest of the fit stands', () => {
-    const runs = [-40, -20, 0, 20, 40].map((c, i) => ({ temperatureK: c + 273.15, ratio: Math.exp(1500 / (c + 273.15) - 3 + [0.01, -0.01, 0, 0.01, -0.01][i]!) }));
+    const runs = [-40, -20, 0, 20, 40].map((c, i) => ({
+      temperatureK: c + 273.15,
+      ratio: Math.exp(1500 / (c + 273.15) - 3 + [0.01, -0.01, 0, 0.01, -0.01][i]!),
+    }));
     const fit = fitEyring(runs, { predictAtK: [2, 250] });
     const [far, near] = fit.predictions;
     expect(far!.outOfRange).toBe(true);

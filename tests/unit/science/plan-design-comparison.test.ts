@@ -61,7 +61,9 @@ describe('next runs (c-optimal design)', () => {
     const w = line.sumWeights / line.n;
     const m0: LineInformation = [line.sumWeights, line.sumWeights * line.xMean, line.sxx + line.sumWeights * line.xMean ** 2];
     let best = Infinity;
-    for (const a of candidates) for (const b of candidates) best = Math.min(best, varianceFactor([m0[0] + 2 * w, m0[1] + w * (a + b), m0[2] + w * (a * a + b * b)], 1 / target));
+    for (const a of candidates)
+      for (const b of candidates)
+        best = Math.min(best, varianceFactor([m0[0] + 2 * w, m0[1] + w * (a + b), m0[2] + w * (a * a + b * b)], 1 / target));
     const xs = res.temperaturesK.map((t) => 1 / t);
     const ours = varianceFactor([m0[0] + 2 * w, m0[1] + w * (xs[0]! + xs[1]!), m0[2] + w * (xs[0]! ** 2 + xs[1]! ** 2)], 1 / target);
     // [C] exhaustive search; the exchange algorithm may stop a millionth short of the exact optimum
@@ -121,7 +123,13 @@ describe('comparing two screens', () => {
     for (const tEnd of cross.intervalK) {
       const x = 1 / tEnd!;
       const lhs = (da + x * db) ** 2;
-      const rhs = q * q * (ca.interceptIntercept + cb.interceptIntercept + 2 * x * (ca.interceptSlope + cb.interceptSlope) + x * x * (ca.slopeSlope + cb.slopeSlope));
+      const rhs =
+        q *
+        q *
+        (ca.interceptIntercept +
+          cb.interceptIntercept +
+          2 * x * (ca.interceptSlope + cb.interceptSlope) +
+          x * x * (ca.slopeSlope + cb.slopeSlope));
       expect(lhs / rhs).toBeCloseTo(1, 8); // [S] Fieller 1954: the ends are where the quadratic is zero
     }
     expect(cross.intervalK[0]!).toBeLessThan(cross.temperatureK);

@@ -94,17 +94,27 @@ describe('probability of meeting the specification', () => {
 
   it('when the assay precision is in ee points, then σ(ln r) is propagated at the predicted ee', () => {
     // [C] σ_lnr = σ_ee·200/((100 − ee)(100 + ee)); at ee 98 % and σ_ee = 0.2: 0.2·200/(2·198) = 0.10101…
-    expect(newRunSigmaLnR('ee', 0.2, Math.log(1.98 / 0.02))).toBeCloseTo(0.2 * 200 / (2 * 198), 10);
+    expect(newRunSigmaLnR('ee', 0.2, Math.log(1.98 / 0.02))).toBeCloseTo((0.2 * 200) / (2 * 198), 10);
     // [C] % A: σ_p·100/(p(100 − p)); at 95 % and σ = 0.5: 0.5·100/(95·5)
-    expect(newRunSigmaLnR('percentA', 0.5, Math.log(95 / 5))).toBeCloseTo(0.5 * 100 / (95 * 5), 10);
+    expect(newRunSigmaLnR('percentA', 0.5, Math.log(95 / 5))).toBeCloseTo((0.5 * 100) / (95 * 5), 10);
   });
 
   it('when a specification is outside its measure or the probability outside (0.5, 0.999], then the error names the field', () => {
-    expect(domainErrorOf(() => specificationLnRatio({ measure: 'ee', minimum: 100.5, probability: 0.95 }))?.field).toBe('specification.minimum');
-    expect(domainErrorOf(() => specificationLnRatio({ measure: 'dr', minimum: 0.9, probability: 0.95 }))?.field).toBe('specification.minimum');
-    expect(domainErrorOf(() => specificationLnRatio({ measure: 'percentA', minimum: 40, probability: 0.95 }))?.field).toBe('specification.minimum');
-    expect(domainErrorOf(() => specificationLnRatio({ measure: 'ee', minimum: 99, probability: 0.5 }))?.field).toBe('specification.probability');
-    expect(domainErrorOf(() => specificationLnRatio({ measure: 'ee', minimum: 99, probability: 1 }))?.field).toBe('specification.probability');
+    expect(domainErrorOf(() => specificationLnRatio({ measure: 'ee', minimum: 100.5, probability: 0.95 }))?.field).toBe(
+      'specification.minimum',
+    );
+    expect(domainErrorOf(() => specificationLnRatio({ measure: 'dr', minimum: 0.9, probability: 0.95 }))?.field).toBe(
+      'specification.minimum',
+    );
+    expect(domainErrorOf(() => specificationLnRatio({ measure: 'percentA', minimum: 40, probability: 0.95 }))?.field).toBe(
+      'specification.minimum',
+    );
+    expect(domainErrorOf(() => specificationLnRatio({ measure: 'ee', minimum: 99, probability: 0.5 }))?.field).toBe(
+      'specification.probability',
+    );
+    expect(domainErrorOf(() => specificationLnRatio({ measure: 'ee', minimum: 99, probability: 1 }))?.field).toBe(
+      'specification.probability',
+    );
     // [C] dr 20:1 ↔ ln 20; er 98:2 ↔ ln 49
     expect(specificationLnRatio({ measure: 'dr', minimum: 20, probability: 0.9 })).toBeCloseTo(Math.log(20), 12);
     expect(specificationLnRatio({ measure: 'er', minimum: 98, probability: 0.9 })).toBeCloseTo(Math.log(49), 12);
@@ -120,7 +130,10 @@ describe('rate from the campaign runs', () => {
   });
 
   it('when runs scatter, then the time has an interval around it and a run below 10 % conversion is flagged', () => {
-    const runs = [...RATE_RUNS.map((r, i) => ({ ...r, timeS: r.timeS * [1.1, 0.92, 1.05, 0.97][i]! })), { temperatureK: 233.15, timeS: 3600, conversion: 0.05 }];
+    const runs = [
+      ...RATE_RUNS.map((r, i) => ({ ...r, timeS: r.timeS * [1.1, 0.92, 1.05, 0.97][i]! })),
+      { temperatureK: 233.15, timeS: 3600, conversion: 0.05 },
+    ];
     const f = fitRateFromRuns(runs);
     const t = timeToTargetAt(f, 263.15, 0.95);
     expect(t.intervalS![0]).toBeLessThan(t.timeS);
@@ -136,7 +149,9 @@ describe('rate from the campaign runs', () => {
   });
 
   it('when a run has 0 % or 100 % conversion, then the error names that run', () => {
-    expect(domainErrorOf(() => fitRateFromRuns([...RATE_RUNS, { temperatureK: 250, timeS: 60, conversion: 1 }]))?.field).toBe('runs[4].conversion');
+    expect(domainErrorOf(() => fitRateFromRuns([...RATE_RUNS, { temperatureK: 250, timeS: 60, conversion: 1 }]))?.field).toBe(
+      'runs[4].conversion',
+    );
   });
 });
 
@@ -252,7 +267,10 @@ describe('the planner on a curved screen', () => {
   const xBreak = 1 / 258.15;
   const isoLnR = (t: number) => 3 + 1600 * (1 / t - xBreak) - 2500 * Math.max(0, 1 / t - xBreak);
   const scatter = [0.012, -0.018, 0.009, 0.021, -0.011, -0.016, 0.014, 0.004, -0.02, 0.008];
-  const runs: EyringMeasurement[] = [40, 30, 20, 10, 0, -10, -20, -30, -40, -50].map((c, i) => ({ temperatureK: c + 273.15, ratio: Math.exp(isoLnR(c + 273.15) + scatter[i]!) }));
+  const runs: EyringMeasurement[] = [40, 30, 20, 10, 0, -10, -20, -30, -40, -50].map((c, i) => ({
+    temperatureK: c + 273.15,
+    ratio: Math.exp(isoLnR(c + 273.15) + scatter[i]!),
+  }));
   const curvedFit = fitEyring(runs);
   const model = chooseScreenModel(curvedFit, checkCurvature(runs));
 
@@ -269,7 +287,13 @@ describe('the planner on a curved screen', () => {
       expect(plan.evaluations[i]!.lnRatio).toBeCloseTo(p.mean, 10);
     });
     // The straight line through a peaked screen would be far less sure of the peak than the branches are.
-    const straight = planTemperature({ fit: curvedFit, specification: spec, rangeK: { from: 223.15, to: 313.15 }, atK: [258.15], curvePoints: 5 });
+    const straight = planTemperature({
+      fit: curvedFit,
+      specification: spec,
+      rangeK: { from: 223.15, to: 313.15 },
+      atK: [258.15],
+      curvePoints: 5,
+    });
     expect(plan.evaluations[1]!.probabilityMeetsSpec).toBeGreaterThan(straight.evaluations[0]!.probabilityMeetsSpec);
   });
 });

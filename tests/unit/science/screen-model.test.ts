@@ -8,7 +8,10 @@ import { chooseScreenModel, predictiveLnRatio } from '../../../api/science/scree
 const TEMPS = [223.15, 233.15, 243.15, 253.15, 263.15, 273.15, 283.15, 293.15, 303.15, 313.15];
 const SCATTER = [0.012, -0.018, 0.009, 0.021, -0.011, -0.016, 0.014, 0.004, -0.02, 0.008];
 const xb = 1 / 263.15;
-const bent = TEMPS.map((t, i) => ({ temperatureK: t, ratio: Math.exp(1.2 - 800 * (1 / t - xb) + 1600 * Math.max(0, 1 / t - xb) + SCATTER[i]!) }));
+const bent = TEMPS.map((t, i) => ({
+  temperatureK: t,
+  ratio: Math.exp(1.2 - 800 * (1 / t - xb) + 1600 * Math.max(0, 1 / t - xb) + SCATTER[i]!),
+}));
 const line = TEMPS.map((t, i) => ({ temperatureK: t, ratio: Math.exp(1500 / t - 3 + SCATTER[i]!) }));
 
 describe('predictiveLnRatio', () => {

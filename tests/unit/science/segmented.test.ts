@@ -18,7 +18,11 @@ function rng(seed: number) {
 }
 
 const K = 273.15;
-const run = (temperatureK: number, lnR: number, sigmaLnR?: number): EyringMeasurement => ({ temperatureK, ratio: Math.exp(lnR), ...(sigmaLnR ? { sigmaLnR } : {}) });
+const run = (temperatureK: number, lnR: number, sigmaLnR?: number): EyringMeasurement => ({
+  temperatureK,
+  ratio: Math.exp(lnR),
+  ...(sigmaLnR ? { sigmaLnR } : {}),
+});
 const fitted = (r: ReturnType<typeof checkCurvature>): SegmentedFit => {
   expect(r.checked).toBe(true);
   return r as SegmentedFit;
@@ -119,7 +123,9 @@ describe('checkCurvature wording and claims', () => {
   it('when too few runs or temperatures remain, then the check is skipped with an explained note, never an error', () => {
     const five = checkCurvature(SET_A.slice(0, 5));
     expect(five.checked).toBe(false);
-    expect(five.reason).toMatch(/Not enough data.*3 or more fitted runs at 2 or more distinct temperatures.*5 fitted runs at 5 temperatures/);
+    expect(five.reason).toMatch(
+      /Not enough data.*3 or more fitted runs at 2 or more distinct temperatures.*5 fitted runs at 5 temperatures/,
+    );
     const threeTemps = checkCurvature([233.15, 253.15, 273.15].flatMap((t) => [run(t, 1), run(t, 1.1), run(t, 0.9)]));
     expect(threeTemps.checked).toBe(false);
     const excluded = checkCurvature(SET_A.map((m, i) => (i < 5 ? { ...m, excluded: true } : m)));
@@ -138,7 +144,10 @@ describe('the break search is exact least squares', () => {
   it('when the profile is compared with a dense scan of breaks, then no scanned break fits better', () => {
     fc.assert(
       fc.property(
-        fc.array(fc.record({ t: fc.integer({ min: 200, max: 330 }), y: fc.double({ min: -3, max: 4, noNaN: true }) }), { minLength: 6, maxLength: 16 }),
+        fc.array(fc.record({ t: fc.integer({ min: 200, max: 330 }), y: fc.double({ min: -3, max: 4, noNaN: true }) }), {
+          minLength: 6,
+          maxLength: 16,
+        }),
         (rows) => {
           const data = rows.map((r) => run(r.t, r.y));
           const res = checkCurvature(data, { resamples: 19 });
@@ -174,7 +183,9 @@ describe('the break search is exact least squares', () => {
 
 function solve3(a: number[][], b: number[]): number[] | null {
   const det = (m: number[][]) =>
-    m[0]![0]! * (m[1]![1]! * m[2]![2]! - m[1]![2]! * m[2]![1]!) - m[0]![1]! * (m[1]![0]! * m[2]![2]! - m[1]![2]! * m[2]![0]!) + m[0]![2]! * (m[1]![0]! * m[2]![1]! - m[1]![1]! * m[2]![0]!);
+    m[0]![0]! * (m[1]![1]! * m[2]![2]! - m[1]![2]! * m[2]![1]!) -
+    m[0]![1]! * (m[1]![0]! * m[2]![2]! - m[1]![2]! * m[2]![0]!) +
+    m[0]![2]! * (m[1]![0]! * m[2]![1]! - m[1]![1]! * m[2]![0]!);
   const d = det(a);
   if (!(Math.abs(d) > 1e-30)) return null;
   return [0, 1, 2].map((c) => det(a.map((row, i) => row.map((v, j) => (j === c ? b[i]! : v)))) / d);
@@ -203,7 +214,7 @@ describe('predictSegmented', () => {
 /** Four temperatures in duplicate, −40 to +20 °C, σ(ln r) = 0.03, break at −10 °C. */
 const DUPLICATE_DESIGN = [-40, -20, 0, 20].flatMap((c) => [c + K, c + K]);
 const screen = (normal: () => number, slopeChangeK: number, temps = DUPLICATE_DESIGN) =>
-  temps.map((t) => run(t, 1 + 1000 * (1 / t - 1 / (263.15)) + slopeChangeK * Math.max(0, 1 / t - 1 / 263.15) + 0.03 * normal()));
+  temps.map((t) => run(t, 1 + 1000 * (1 / t - 1 / 263.15) + slopeChangeK * Math.max(0, 1 / t - 1 / 263.15) + 0.03 * normal()));
 
 describe('break test by simulation', () => {
   it('when four temperatures in duplicate (σ = 0.03) carry a 1,500 K slope change, then the break is found in ≥ 90 % of screens', () => {

@@ -31,7 +31,9 @@ describe('campaign form → API bodies', () => {
 
   it('when the title is empty or the uncertainty is a word or too large, then the field carries the reason', () => {
     expect(createBody(blankCampaign).errors.title).toBe('title is required');
-    expect(createBody({ ...blankCampaign, title: 'x', defaultUncertainty: 'small' }).errors.defaultUncertainty).toBe('“small” is not a number');
+    expect(createBody({ ...blankCampaign, title: 'x', defaultUncertainty: 'small' }).errors.defaultUncertainty).toBe(
+      '“small” is not a number',
+    );
     expect(createBody({ ...blankCampaign, title: 'x', defaultUncertainty: '150' }).errors.defaultUncertainty).toMatch(/below 100/);
   });
 
@@ -47,9 +49,48 @@ describe('analysis → chart data', () => {
   it('when a point is a lower bound, then it has no error bar; a bar equal to the value is no bar; excluded points keep their reason', () => {
     const analysis = {
       points: [
-        { measurementId: 'm1', kelvin: 213.15, celsius: -60, lnRatio: 6.9, lnRatioLow: 6.0, lnRatioHigh: 9.0, eePercent: 99.8, percentA: 99.9, status: 'censored', flagged: false, exclusionReason: null, label: 'T-009 a' },
-        { measurementId: 'm2', kelvin: 253.15, celsius: -20, lnRatio: 5.0, lnRatioLow: 4.9, lnRatioHigh: 5.1, eePercent: 98.7, percentA: 99.35, status: 'excluded', flagged: true, exclusionReason: 'bath drifted', label: null },
-        { measurementId: 'm3', kelvin: 273.15, celsius: 0, lnRatio: 4.5, lnRatioLow: 4.5, lnRatioHigh: 4.5, eePercent: 97.9, percentA: 98.95, status: 'fitted', flagged: false, exclusionReason: null, label: null },
+        {
+          measurementId: 'm1',
+          kelvin: 213.15,
+          celsius: -60,
+          lnRatio: 6.9,
+          lnRatioLow: 6.0,
+          lnRatioHigh: 9.0,
+          eePercent: 99.8,
+          percentA: 99.9,
+          status: 'censored',
+          flagged: false,
+          exclusionReason: null,
+          label: 'T-009 a',
+        },
+        {
+          measurementId: 'm2',
+          kelvin: 253.15,
+          celsius: -20,
+          lnRatio: 5.0,
+          lnRatioLow: 4.9,
+          lnRatioHigh: 5.1,
+          eePercent: 98.7,
+          percentA: 99.35,
+          status: 'excluded',
+          flagged: true,
+          exclusionReason: 'bath drifted',
+          label: null,
+        },
+        {
+          measurementId: 'm3',
+          kelvin: 273.15,
+          celsius: 0,
+          lnRatio: 4.5,
+          lnRatioLow: 4.5,
+          lnRatioHigh: 4.5,
+          eePercent: 97.9,
+          percentA: 98.95,
+          status: 'fitted',
+          flagged: false,
+          exclusionReason: null,
+          label: null,
+        },
       ],
       curve: [
         {
@@ -65,7 +106,13 @@ describe('analysis → chart data', () => {
     } as unknown as AnalysisResponse;
     const view = chartData(analysis);
     expect(view.points[0]).toMatchObject({ status: 'censored', lnRatioLow: null, lnRatioHigh: null, label: 'T-009 a' });
-    expect(view.points[1]).toMatchObject({ status: 'excluded', lnRatioLow: 4.9, lnRatioHigh: 5.1, flagged: true, label: 'excluded: bath drifted' });
+    expect(view.points[1]).toMatchObject({
+      status: 'excluded',
+      lnRatioLow: 4.9,
+      lnRatioHigh: 5.1,
+      flagged: true,
+      label: 'excluded: bath drifted',
+    });
     expect(view.points[2]).toMatchObject({ lnRatioLow: null, lnRatioHigh: null });
     expect(view.curve[0].lnRatio).toBeCloseTo(5, 12);
     expect(view.curve[0].confidence![0]).toBeCloseTo(4.9, 12);

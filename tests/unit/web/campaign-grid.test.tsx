@@ -81,9 +81,17 @@ describe('grid cells: numbers as typed', () => {
 
 describe('grid rows → API bodies, checked with the shared schema', () => {
   it('when every cell is good, then the body carries the column units and passes measurementCreateSchema', () => {
-    const { body, errors } = rowToCreate(cells({ temperature: '−20', value: '98.8', uncertainty: '0,3', sampleId: 'KL-1', reactionTime: '48' }), C_EE);
+    const { body, errors } = rowToCreate(
+      cells({ temperature: '−20', value: '98.8', uncertainty: '0,3', sampleId: 'KL-1', reactionTime: '48' }),
+      C_EE,
+    );
     expect(errors).toEqual({});
-    expect(body).toMatchObject({ temperature: { value: -20, unit: 'C' }, selectivity: { measure: 'ee', value: 98.8 }, uncertainty: 0.3, reactionTime: { value: 48, unit: 'h' } });
+    expect(body).toMatchObject({
+      temperature: { value: -20, unit: 'C' },
+      selectivity: { measure: 'ee', value: 98.8 },
+      uncertainty: 0.3,
+      reactionTime: { value: 48, unit: 'h' },
+    });
     expect(measurementCreateSchema.safeParse(body).success).toBe(true);
   });
 
@@ -103,7 +111,11 @@ describe('grid rows → API bodies, checked with the shared schema', () => {
   });
 
   it('when the value is "≥99.8" or a pair for er, then it is a lower bound or an a:b string', () => {
-    expect(rowToCreate(cells({ temperature: '-60', value: '≥ 99.8' }), C_EE).body?.selectivity).toEqual({ measure: 'ee', value: 99.8, atLeast: true });
+    expect(rowToCreate(cells({ temperature: '-60', value: '≥ 99.8' }), C_EE).body?.selectivity).toEqual({
+      measure: 'ee',
+      value: 99.8,
+      atLeast: true,
+    });
     const er = rowToCreate(cells({ temperature: '233.15', value: '95 : 5' }), { ...C_EE, temperature: 'K', measure: 'er' });
     expect(er.body?.selectivity).toEqual({ measure: 'er', value: '95:5' });
     expect(er.body?.temperature).toEqual({ value: 233.15, unit: 'K' });
@@ -161,7 +173,15 @@ describe('paste from a spreadsheet', () => {
   });
 
   it('when pasted from the second column, then cells shift right', () => {
-    const result = pasteBlock({ edits: {}, drafts: [{ key: 'd0', cells: emptyCells() }] }, ['d0'], new Set(), 0, 1, [['97.5', '0.4']], () => 'new');
+    const result = pasteBlock(
+      { edits: {}, drafts: [{ key: 'd0', cells: emptyCells() }] },
+      ['d0'],
+      new Set(),
+      0,
+      1,
+      [['97.5', '0.4']],
+      () => 'new',
+    );
     expect(result.state.drafts[0].cells).toMatchObject({ temperature: '', value: '97.5', uncertainty: '0.4' });
   });
 
@@ -195,7 +215,9 @@ function paste(target: HTMLElement, text: string) {
 
 describe('MeasurementGrid', () => {
   it('when a block is pasted into a new row, then rows appear, a bad cell shows its reason, and nothing is sent until it is fixed', async () => {
-    const fetchMock = vi.fn(async () => new Response(JSON.stringify({ created: 2 }), { status: 201, headers: { 'content-type': 'application/json' } }));
+    const fetchMock = vi.fn(
+      async () => new Response(JSON.stringify({ created: 2 }), { status: 201, headers: { 'content-type': 'application/json' } }),
+    );
     vi.stubGlobal('fetch', fetchMock);
     renderGrid();
     fireEvent.click(screen.getByRole('button', { name: 'Add row' }));
@@ -218,7 +240,11 @@ describe('MeasurementGrid', () => {
     expect(url).toBe(`/api/v1/campaigns/${campaign.id}/measurements/batch`);
     const sent = JSON.parse(String(init.body));
     expect(sent.measurements).toHaveLength(2);
-    expect(sent.measurements[1]).toMatchObject({ temperature: { value: 0, unit: 'C' }, selectivity: { measure: 'ee', value: 97.9 }, uncertainty: 0.3 });
+    expect(sent.measurements[1]).toMatchObject({
+      temperature: { value: 0, unit: 'C' },
+      selectivity: { measure: 'ee', value: 97.9 },
+      uncertainty: 0.3,
+    });
   });
 
   it('when the server refuses a row of the batch, then its message sits on that cell and the rows stay for fixing', async () => {
@@ -227,7 +253,13 @@ describe('MeasurementGrid', () => {
       vi.fn(
         async () =>
           new Response(
-            JSON.stringify({ type: 'about:blank', title: 'Invalid request', status: 400, detail: 'The body is invalid.', errors: [{ path: 'measurements.0.sampleId', message: 'sampleId already used in this campaign' }] }),
+            JSON.stringify({
+              type: 'about:blank',
+              title: 'Invalid request',
+              status: 400,
+              detail: 'The body is invalid.',
+              errors: [{ path: 'measurements.0.sampleId', message: 'sampleId already used in this campaign' }],
+            }),
             { status: 400, headers: { 'content-type': 'application/problem+json' } },
           ),
       ),
@@ -316,7 +348,9 @@ describe('MeasurementGrid', () => {
     vi.spyOn(owner[0] as HTMLElement, 'clientHeight', 'get').mockReturnValue(700);
     vi.spyOn(owner[1] as HTMLElement, 'clientWidth', 'get').mockReturnValue(1200);
     vi.spyOn(owner[2] as HTMLElement, 'offsetHeight', 'get').mockReturnValue(33);
-    const many = Array.from({ length: 3000 }, (_, i) => stored({ id: `66666666-6666-4666-8666-${String(i).padStart(12, '0')}`, temperatureK: 200 + i * 0.01 }));
+    const many = Array.from({ length: 3000 }, (_, i) =>
+      stored({ id: `66666666-6666-4666-8666-${String(i).padStart(12, '0')}`, temperatureK: 200 + i * 0.01 }),
+    );
     renderGrid(many, false);
     await waitFor(() => expect(document.querySelectorAll('tbody[data-index]').length).toBeGreaterThan(0));
     const drawn = document.querySelectorAll('tbody[data-index]').length;
@@ -328,10 +362,13 @@ describe('MeasurementGrid', () => {
   it('when a stored row is edited and someone else changed it first, then only the changed field is sent with the version and the row says it was not saved', async () => {
     const fetchMock = vi.fn(
       async () =>
-        new Response(JSON.stringify({ type: 'about:blank', title: 'Conflict', status: 409, detail: 'The measurement changed.', currentVersion: 5 }), {
-          status: 409,
-          headers: { 'content-type': 'application/problem+json' },
-        }),
+        new Response(
+          JSON.stringify({ type: 'about:blank', title: 'Conflict', status: 409, detail: 'The measurement changed.', currentVersion: 5 }),
+          {
+            status: 409,
+            headers: { 'content-type': 'application/problem+json' },
+          },
+        ),
     );
     vi.stubGlobal('fetch', fetchMock);
     renderGrid([stored()]);
@@ -345,12 +382,21 @@ describe('MeasurementGrid', () => {
     expect(url).toBe('/api/v1/measurements/33333333-3333-4333-8333-333333333333');
     expect(init.method).toBe('PATCH');
     expect(JSON.parse(String(init.body))).toEqual({ version: 4, uncertainty: 0.5, reason: 'assay repeated' });
-    await waitFor(() => expect(screen.getAllByRole('alert').map((a) => a.textContent).join(' ')).toContain('Changed by someone else'));
+    await waitFor(() =>
+      expect(
+        screen
+          .getAllByRole('alert')
+          .map((a) => a.textContent)
+          .join(' '),
+      ).toContain('Changed by someone else'),
+    );
     expect((screen.getByLabelText('Uncertainty, row 1') as HTMLInputElement).value).toBe('0.5');
   });
 
   it('when a run is excluded, then a reason is required and sent with the version', async () => {
-    const fetchMock = vi.fn(async () => new Response(JSON.stringify(stored({ excluded: true, excludedReason: 'probe failed', version: 5 })), { status: 200 }));
+    const fetchMock = vi.fn(
+      async () => new Response(JSON.stringify(stored({ excluded: true, excludedReason: 'probe failed', version: 5 })), { status: 200 }),
+    );
     vi.stubGlobal('fetch', fetchMock);
     renderGrid([stored()]);
     fireEvent.click(screen.getByRole('button', { name: 'Exclude row 1 from the fit' }));

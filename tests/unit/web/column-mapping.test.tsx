@@ -38,7 +38,12 @@ describe('mapping form → import mapping', () => {
   it('when the header guess is complete, then the mapping passes the API schema with the guessed units', () => {
     const { mapping, errors } = mappingFromDraft(draftFromSuggestion(suggestion));
     expect(errors).toEqual({});
-    expect(mapping).toMatchObject({ columns: { temperature: 2, value: 3, uncertainty: 4, reactionTime: 6 }, temperatureUnit: 'K', measure: 'ee', timeUnit: 'h' });
+    expect(mapping).toMatchObject({
+      columns: { temperature: 2, value: 3, uncertainty: 4, reactionTime: 6 },
+      temperatureUnit: 'K',
+      measure: 'ee',
+      timeUnit: 'h',
+    });
     expect(importRequestSchema.safeParse({ mapping }).success).toBe(true);
   });
 
@@ -50,7 +55,11 @@ describe('mapping form → import mapping', () => {
   });
 
   it('when a unit column is mapped, then no unit needs choosing', () => {
-    const draft: MappingDraft = { ...draftFromSuggestion(suggestion), temperatureUnit: null, columns: { ...draftFromSuggestion(suggestion).columns, temperatureUnit: 7, notes: null } };
+    const draft: MappingDraft = {
+      ...draftFromSuggestion(suggestion),
+      temperatureUnit: null,
+      columns: { ...draftFromSuggestion(suggestion).columns, temperatureUnit: 7, notes: null },
+    };
     expect(mappingFromDraft(draft).mapping?.columns.temperatureUnit).toBe(7);
   });
 
@@ -76,7 +85,11 @@ describe('ColumnMappingStep', () => {
     expect(tempRow.textContent).toContain('313.15 · 313.15');
     const select = screen.getByLabelText('Temperature (required)') as HTMLSelectElement;
     expect(select.value).toBe('2');
-    expect(within(select).getAllByRole('option').map((o) => o.textContent)).toContain('C · T (K)');
+    expect(
+      within(select)
+        .getAllByRole('option')
+        .map((o) => o.textContent),
+    ).toContain('C · T (K)');
 
     fireEvent.change(select, { target: { value: '' } });
     expect(select.getAttribute('aria-invalid')).toBe('true');
@@ -99,7 +112,8 @@ describe('ColumnMappingStep', () => {
 /** XMLHttpRequest stand-in: records each request; the test plays the progress and the answer. */
 class FakeXhr {
   static sent: FakeXhr[] = [];
-  upload: { onprogress: ((e: { loaded: number; total: number; lengthComputable: boolean }) => void) | null; onload: (() => void) | null } = { onprogress: null, onload: null };
+  upload: { onprogress: ((e: { loaded: number; total: number; lengthComputable: boolean }) => void) | null; onload: (() => void) | null } =
+    { onprogress: null, onload: null };
   onload: (() => void) | null = null;
   onerror: (() => void) | null = null;
   onabort: (() => void) | null = null;
@@ -137,7 +151,17 @@ class FakeXhr {
 
 function preview(over: Partial<ImportPreview> = {}): ImportPreview {
   return {
-    file: { fileName: 'screen.csv', format: 'csv', encoding: 'utf-8', delimiter: ',', decimalSeparator: '.', headerRow: 1, sheetName: null, sheetNames: [], detected: ['comma-separated', 'header in row 1'] },
+    file: {
+      fileName: 'screen.csv',
+      format: 'csv',
+      encoding: 'utf-8',
+      delimiter: ',',
+      decimalSeparator: '.',
+      headerRow: 1,
+      sheetName: null,
+      sheetNames: [],
+      detected: ['comma-separated', 'header in row 1'],
+    },
     columns,
     suggestedMapping: { ...suggestion, temperatureUnit: undefined },
     mapping: null,

@@ -92,7 +92,10 @@ describe('the time-to-finish form', () => {
     fireEvent.click(within(form).getByRole('button', { name: 'Calculate times' }));
     const conversion = within(form).getByLabelText('Reached conversion (%)');
     expect(conversion.getAttribute('aria-invalid')).toBe('true');
-    const errId = conversion.getAttribute('aria-describedby')!.split(' ').find((id) => id.endsWith('-err'))!;
+    const errId = conversion
+      .getAttribute('aria-describedby')!
+      .split(' ')
+      .find((id) => id.endsWith('-err'))!;
     expect(document.getElementById(errId)!.textContent).toContain('must be below 100 %');
     expect(within(form).getByLabelText('after').getAttribute('aria-invalid')).toBe('true');
     expect(within(form).getByLabelText('at temperature').getAttribute('aria-invalid')).toBe('false');
@@ -115,7 +118,10 @@ describe('the time-to-finish form', () => {
     fireEvent.click(within(form).getByRole('button', { name: 'Calculate times' }));
     const input = within(form).getByLabelText('at temperature');
     await waitFor(() => expect(input.getAttribute('aria-invalid')).toBe('true'));
-    const errId = input.getAttribute('aria-describedby')!.split(' ').find((id) => id.endsWith('-err'))!;
+    const errId = input
+      .getAttribute('aria-describedby')!
+      .split(' ')
+      .find((id) => id.endsWith('-err'))!;
     expect(document.getElementById(errId)!.textContent).toBe('must be above absolute zero');
   });
 });

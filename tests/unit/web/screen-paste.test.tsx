@@ -20,7 +20,12 @@ describe('parseScreen', () => {
       { line: 4, temperature: -40, selectivity: 96.9, uncertainty: 0.3 },
       { line: 5, temperature: 0, selectivity: 93.7 },
     ];
-    for (const [sep, decimal] of [[', ', '.'], [';', ','], ['\t', ','], [' ', '.']]) {
+    for (const [sep, decimal] of [
+      [', ', '.'],
+      [';', ','],
+      ['\t', ','],
+      [' ', '.'],
+    ]) {
       const line = (...v: string[]) => v.map((x) => x.replace('.', decimal)).join(sep);
       const text = ['# a comment', line('-78', '98.9', '0.2'), '', line('-40', '96.9', '0.3'), line('0', '93.7')].join('\n');
       const result = parseScreen(text, 'ee', 'C');
@@ -44,7 +49,14 @@ describe('parseScreen', () => {
       ['200:1', true],
       ['0.5:1', false],
     ]);
-    const request = buildFitRequest(ee.rows, { measure: 'ee', unit: 'C', weighting: 'none', uncertaintyScale: 'absolute', proposed: null, excludedLines: [] });
+    const request = buildFitRequest(ee.rows, {
+      measure: 'ee',
+      unit: 'C',
+      weighting: 'none',
+      uncertaintyScale: 'absolute',
+      proposed: null,
+      excludedLines: [],
+    });
     expect(fitRequestSchema.safeParse(request).success).toBe(true);
     expect(request.measurements[0].selectivity).toEqual({ measure: 'ee', value: 99.8, atLeast: true });
     expect(request.measurements[3].selectivity).toEqual({ measure: 'ee', value: 93.7 });

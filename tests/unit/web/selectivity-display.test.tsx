@@ -13,7 +13,11 @@ type Prediction = FitResponse['predictions'][number];
 /** A prediction at r = 18.5 with a new-run interval of r = 12…25 (invented numbers for the display). */
 function prediction(): Prediction {
   const at = (r: number) => ({ ratio: r, eePercent: (100 * (r - 1)) / (r + 1), percentA: (100 * r) / (1 + r) });
-  const iv = (a: number, b: number) => ({ ratio: [a, b] as [number, number], eePercent: [at(a).eePercent, at(b).eePercent] as [number, number], percentA: [at(a).percentA, at(b).percentA] as [number, number] });
+  const iv = (a: number, b: number) => ({
+    ratio: [a, b] as [number, number],
+    eePercent: [at(a).eePercent, at(b).eePercent] as [number, number],
+    percentA: [at(a).percentA, at(b).percentA] as [number, number],
+  });
   return {
     kelvin: 253.15,
     celsius: -20,
@@ -57,7 +61,9 @@ describe('selectivity in the measure of the campaign', () => {
       { celsius: -40, eePercent: 95, percentA: 97.5 },
       { celsius: 20, eePercent: 80, percentA: 90 },
     ];
-    const { container } = render(<SelectivityChart title="dr chart" curve={curve} measure="percentA" family="dr" width={500} height={260} />);
+    const { container } = render(
+      <SelectivityChart title="dr chart" curve={curve} measure="percentA" family="dr" width={500} height={260} />,
+    );
     expect(container.textContent).toContain('major diastereomer (%)');
     expect(container.textContent).not.toContain('ee (%)');
   });

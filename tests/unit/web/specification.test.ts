@@ -27,7 +27,11 @@ describe('the stored specification on the campaign pages', () => {
     const ln = specificationLn({ measure: 'dr', minimum: 20, probability: 0.95 });
     expect(verdictOf(Math.log(20), ln)).toBe('meets');
     expect(verdictOf(Math.log(19.9), ln)).toBe('falls short');
-    expect(specificationText({ measure: 'dr', minimum: 20, probability: 0.95, runs: 3 }, 'dr')).toBe('dr ≥ 20:1, probability 0.95 that the mean of 3 new runs meets it');
-    expect(specificationText({ measure: 'ee', minimum: 98, probability: 0.95 }, 'dr')).toBe('de ≥ 98 %, probability 0.95 that a new run meets it');
+    expect(specificationText({ measure: 'dr', minimum: 20, probability: 0.95, runs: 3 }, 'dr')).toBe(
+      'dr ≥ 20:1, probability 0.95 that the mean of 3 new runs meets it',
+    );
+    expect(specificationText({ measure: 'ee', minimum: 98, probability: 0.95 }, 'dr')).toBe(
+      'de ≥ 98 %, probability 0.95 that a new run meets it',
+    );
   });
 });

@@ -27,7 +27,11 @@ export function ApiDocsRoute() {
       }
     >
       {isPending && <p className="text-sm text-ink-600">Loading the API description…</p>}
-      {error && <p role="alert" className="text-sm text-rose-800">The API description could not be loaded: {error.message}</p>}
+      {error && (
+        <p role="alert" className="text-sm text-rose-800">
+          The API description could not be loaded: {error.message}
+        </p>
+      )}
       {data && (
         <div className="space-y-3">
           {data.info.description && <p className="max-w-4xl text-sm text-ink-700">{data.info.description}</p>}
@@ -37,7 +41,9 @@ export function ApiDocsRoute() {
               return (
                 <Panel key={`${method} ${path}`}>
                   <h2 className="flex flex-wrap items-baseline gap-2">
-                    <span className={`rounded px-1.5 py-0.5 font-mono text-xs uppercase ${methodColour[method] ?? 'bg-slate-100'}`}>{method}</span>
+                    <span className={`rounded px-1.5 py-0.5 font-mono text-xs uppercase ${methodColour[method] ?? 'bg-slate-100'}`}>
+                      {method}
+                    </span>
                     <code className="font-mono text-sm text-ink-950">{path}</code>
                     {op.summary && <span className="text-sm text-ink-700">— {op.summary}</span>}
                   </h2>

@@ -56,7 +56,11 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
       }
       actions={
         <span className="flex flex-wrap items-center gap-2">
-          <a className="rounded border border-slate-300 bg-white px-3 py-1.5 text-sm font-medium text-ink-800 hover:bg-slate-50" href={paths.campaignReport.getHref(campaign.id)} download>
+          <a
+            className="rounded border border-slate-300 bg-white px-3 py-1.5 text-sm font-medium text-ink-800 hover:bg-slate-50"
+            href={paths.campaignReport.getHref(campaign.id)}
+            download
+          >
             <span aria-hidden="true">⤓ </span>Download spreadsheet report
           </a>
           <a className="text-sm text-fjord-700 underline" href={paths.campaignReportPdf.getHref(campaign.id)} download>
@@ -91,7 +95,11 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
                 { value: 'uncertainty', label: 'By assay uncertainty' },
               ]}
             />
-            {analysis.isFetching && <span className="text-xs text-ink-500" role="status">Updating the fit…</span>}
+            {analysis.isFetching && (
+              <span className="text-xs text-ink-500" role="status">
+                Updating the fit…
+              </span>
+            )}
           </div>
           {analysis.isPending && <p className="text-sm text-ink-500">Fitting…</p>}
           {analysis.isError && (
@@ -149,8 +157,12 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
             </div>
           )}
           {measurements.data && <MeasurementGrid campaign={campaign} measurements={measurements.data} canEdit={canEditRuns} />}
-          {!canEdit && <p className="mt-2 text-xs text-ink-600">You are a viewer in this project: you can read and download, not change.</p>}
-          {canEdit && campaign.signOff && <p className="mt-2 text-xs text-ink-600">Signed off: reopen the campaign (above) to change its measurements.</p>}
+          {!canEdit && (
+            <p className="mt-2 text-xs text-ink-600">You are a viewer in this project: you can read and download, not change.</p>
+          )}
+          {canEdit && campaign.signOff && (
+            <p className="mt-2 text-xs text-ink-600">Signed off: reopen the campaign (above) to change its measurements.</p>
+          )}
         </Panel>
 
         {canEditRuns && (

@@ -56,7 +56,9 @@ function ComparisonBody({ view }: { view: ComparisonView }) {
                 <th className="py-1 pr-3">Campaign</th>
                 <th className="py-1 pr-3">ΔΔH‡ (kJ/mol)</th>
                 <th className="py-1 pr-3">ΔΔS‡ (J/(mol·K))</th>
-                <th className="py-1 pr-3">{unit} at {fixed(r.temperature.celsius, 1)} °C (95 % CI of the line)</th>
+                <th className="py-1 pr-3">
+                  {unit} at {fixed(r.temperature.celsius, 1)} °C (95 % CI of the line)
+                </th>
                 <th className="py-1 pr-3">Its specification at {fixed(r.temperature.celsius, 1)} °C</th>
               </tr>
             </thead>
@@ -66,8 +68,14 @@ function ComparisonBody({ view }: { view: ComparisonView }) {
                   <td className="py-1 pr-3">{c.title ?? 'Not available to you'}</td>
                   {c.fit ? (
                     <>
-                      <td className="py-1 pr-3">{fixed(c.fit.ddH['kJ/mol'], 2)}{c.fit.ddH.se !== null && ` ± ${fixed(c.fit.ddH.se, 2)}`}</td>
-                      <td className="py-1 pr-3">{fixed(c.fit.ddS['J/(mol*K)'], 1)}{c.fit.ddS.se !== null && ` ± ${fixed(c.fit.ddS.se, 1)}`}</td>
+                      <td className="py-1 pr-3">
+                        {fixed(c.fit.ddH['kJ/mol'], 2)}
+                        {c.fit.ddH.se !== null && ` ± ${fixed(c.fit.ddH.se, 2)}`}
+                      </td>
+                      <td className="py-1 pr-3">
+                        {fixed(c.fit.ddS['J/(mol*K)'], 1)}
+                        {c.fit.ddS.se !== null && ` ± ${fixed(c.fit.ddS.se, 1)}`}
+                      </td>
                       <td className="py-1 pr-3">
                         {cell(c.fit.at.value)} ({cell(c.fit.at.interval[0])} to {cell(c.fit.at.interval[1])})
                       </td>
@@ -112,7 +120,8 @@ function ComparisonBody({ view }: { view: ComparisonView }) {
               </p>
               <p className="tnum text-ink-700">
                 Difference in ln r {sig(p.differenceLnR, 3)} (95 % interval {sig(p.interval[0], 3)} to {sig(p.interval[1], 3)}); in ΔΔG‡{' '}
-                {fixed(p.differenceDdG['kJ/mol'], 2)} kJ/mol. Probability the first is more selective here: {fixed(100 * p.probabilityFirstBetter, 1)} %.
+                {fixed(p.differenceDdG['kJ/mol'], 2)} kJ/mol. Probability the first is more selective here:{' '}
+                {fixed(100 * p.probabilityFirstBetter, 1)} %.
               </p>
               <p className="tnum text-ink-700">
                 Equal slopes (extra sum of squares F test): F = {p.equalSlopes.F === null ? '—' : sig(p.equalSlopes.F, 3)}, p ={' '}
@@ -141,8 +150,18 @@ function ComparisonBody({ view }: { view: ComparisonView }) {
 
 function ComparisonPage({ comparisonId }: { comparisonId: string }) {
   const q = useComparison(comparisonId);
-  if (q.isPending) return <Page title="Comparison"><p className="text-sm text-ink-500">Loading…</p></Page>;
-  if (q.isError) return <Page title="Comparison not found" lead={q.error.message}>{null}</Page>;
+  if (q.isPending)
+    return (
+      <Page title="Comparison">
+        <p className="text-sm text-ink-500">Loading…</p>
+      </Page>
+    );
+  if (q.isError)
+    return (
+      <Page title="Comparison not found" lead={q.error.message}>
+        {null}
+      </Page>
+    );
   return (
     <Page
       title={q.data.name}
@@ -178,7 +197,14 @@ function CompareForm({ projectId }: { projectId: string }) {
     );
   };
   return (
-    <Page title="Compare campaigns" lead={<Link className="text-fjord-700 underline" to={paths.project.getHref(projectId)}>← Project</Link>}>
+    <Page
+      title="Compare campaigns"
+      lead={
+        <Link className="text-fjord-700 underline" to={paths.project.getHref(projectId)}>
+          ← Project
+        </Link>
+      }
+    >
       <Panel>
         <form className="flex flex-col gap-3" onSubmit={onSubmit} aria-label="Compare campaigns">
           <fieldset>
@@ -192,7 +218,10 @@ function CompareForm({ projectId }: { projectId: string }) {
                       checked={chosen.includes(c.id)}
                       onChange={(e) => setChosen((s) => (e.target.checked ? [...s, c.id] : s.filter((x) => x !== c.id)))}
                     />
-                    {c.title} <span className="text-xs text-ink-500">({c.measure}, {c.includedCount} runs)</span>
+                    {c.title}{' '}
+                    <span className="text-xs text-ink-500">
+                      ({c.measure}, {c.includedCount} runs)
+                    </span>
                   </label>
                 </li>
               ))}

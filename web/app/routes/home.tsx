@@ -46,7 +46,11 @@ export function HomeRoute() {
         forecast from one observation and fit a pasted screen.
       </p>
       <p className="mt-2 text-sm text-ink-600">
-        Machine access: the computation API is described in the <Link className="text-fjord-700 underline" to={paths.apiDocs.getHref()}>API reference</Link>.
+        Machine access: the computation API is described in the{' '}
+        <Link className="text-fjord-700 underline" to={paths.apiDocs.getHref()}>
+          API reference
+        </Link>
+        .
       </p>
     </Page>
   );

@@ -7,23 +7,45 @@ import { HistoryView } from '../../features/projects/components/history-view';
 
 function History({ projectId }: { projectId: string }) {
   const project = useProject(projectId);
-  if (project.isPending) return <Page title="History"><p className="text-sm text-ink-500">Loading…</p></Page>;
-  if (project.isError) return <Page title="Project not found" lead={project.error.message}>{null}</Page>;
+  if (project.isPending)
+    return (
+      <Page title="History">
+        <p className="text-sm text-ink-500">Loading…</p>
+      </Page>
+    );
+  if (project.isError)
+    return (
+      <Page title="Project not found" lead={project.error.message}>
+        {null}
+      </Page>
+    );
   if (project.data.role !== 'owner') {
     return (
       <Page title={`History of ${project.data.name}`}>
-        <Panel><p className="text-sm text-ink-700">Only owners can read a project’s history.</p></Panel>
+        <Panel>
+          <p className="text-sm text-ink-700">Only owners can read a project’s history.</p>
+        </Panel>
       </Page>
     );
   }
   return (
     <Page
       title={`History of ${project.data.name}`}
-      crumbs={[{ label: 'Projects', to: paths.projects.getHref() }, { label: project.data.name, to: paths.project.getHref(projectId) }, { label: 'History' }]}
+      crumbs={[
+        { label: 'Projects', to: paths.projects.getHref() },
+        { label: project.data.name, to: paths.project.getHref(projectId) },
+        { label: 'History' },
+      ]}
       lead="Every change to this project’s data: who made it, when, what changed from what to what, and why."
-      actions={<Link className="text-sm text-fjord-700 underline" to={paths.projectSettings.getHref(projectId)}>Members &amp; settings</Link>}
+      actions={
+        <Link className="text-sm text-fjord-700 underline" to={paths.projectSettings.getHref(projectId)}>
+          Members &amp; settings
+        </Link>
+      }
     >
-      <Panel><HistoryView projectId={projectId} /></Panel>
+      <Panel>
+        <HistoryView projectId={projectId} />
+      </Panel>
     </Page>
   );
 }

@@ -7,7 +7,12 @@ import { ProjectSettings } from '../../features/projects/components/project-sett
 
 function Settings({ projectId, myId }: { projectId: string; myId: string }) {
   const project = useProject(projectId);
-  if (project.isPending) return <Page title="Project settings"><p className="text-sm text-ink-500">Loading…</p></Page>;
+  if (project.isPending)
+    return (
+      <Page title="Project settings">
+        <p className="text-sm text-ink-500">Loading…</p>
+      </Page>
+    );
   if (project.isError) {
     return (
       <Page title="Project not found" lead={project.error.message}>
@@ -18,7 +23,11 @@ function Settings({ projectId, myId }: { projectId: string; myId: string }) {
   return (
     <Page
       title={project.data.name}
-      crumbs={[{ label: 'Projects', to: paths.projects.getHref() }, { label: project.data.name, to: paths.project.getHref(projectId) }, { label: 'Members & settings' }]}
+      crumbs={[
+        { label: 'Projects', to: paths.projects.getHref() },
+        { label: project.data.name, to: paths.project.getHref(projectId) },
+        { label: 'Members & settings' },
+      ]}
       lead="Members, invitations and settings of this project."
     >
       <ProjectSettings project={project.data} myId={myId} />

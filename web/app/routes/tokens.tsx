@@ -6,7 +6,10 @@ export function TokensRoute() {
   return (
     <SignedInOnly title="API tokens">
       {() => (
-        <Page title="API tokens" lead="Personal tokens let scripts call Eyrie's API as you. A token carries your roles and nothing more; revoke it when it is no longer needed.">
+        <Page
+          title="API tokens"
+          lead="Personal tokens let scripts call Eyrie's API as you. A token carries your roles and nothing more; revoke it when it is no longer needed."
+        >
           <TokenManager />
         </Page>
       )}

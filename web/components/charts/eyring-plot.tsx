@@ -6,7 +6,6 @@ import { axisLabelProps, chartColors, chartTheme, paddedExtent, tickLabelProps }
 import { useElementWidth } from './use-element-width';
 import { CELSIUS_OFFSET_K as CELSIUS_OFFSET } from '../../../api/science/quantities';
 
-
 /** One measured point on an Eyring plot (y = ln r at temperature `kelvin`). */
 export interface EyringPlotPoint {
   id: string | number;
@@ -119,7 +118,8 @@ export function celsiusTicks(xDomain: [number, number], innerWidth: number): num
     if (roomy(positions)) return positions;
   }
   const kept: number[] = [];
-  for (const x of ticksFor(steps[steps.length - 1] ?? 500)) if (kept.length === 0 || (x - kept[kept.length - 1]) * pxPerUnit >= MIN_TICK_GAP) kept.push(x);
+  for (const x of ticksFor(steps[steps.length - 1] ?? 500))
+    if (kept.length === 0 || (x - kept[kept.length - 1]) * pxPerUnit >= MIN_TICK_GAP) kept.push(x);
   return kept;
 }
 

@@ -83,11 +83,29 @@ export function LineChart({
   const shown = series.slice(0, MAX_LINE_SERIES).map((s) => ({
     ...s,
     points: s.points.filter((p) => Number.isFinite(p.x) && Number.isFinite(p.y) && (yScale === 'linear' || p.y > 0)),
-    band: (s.band ?? []).filter((b) => Number.isFinite(b.x) && Number.isFinite(b.lo) && Number.isFinite(b.hi) && (yScale === 'linear' || b.lo > 0)),
+    band: (s.band ?? []).filter(
+      (b) => Number.isFinite(b.x) && Number.isFinite(b.lo) && Number.isFinite(b.hi) && (yScale === 'linear' || b.lo > 0),
+    ),
   }));
-  const all = [...shown.flatMap((s) => s.points), ...shown.flatMap((s) => s.band.flatMap((b) => [{ x: b.x, y: b.lo }, { x: b.x, y: b.hi }]))];
+  const all = [
+    ...shown.flatMap((s) => s.points),
+    ...shown.flatMap((s) =>
+      s.band.flatMap((b) => [
+        { x: b.x, y: b.lo },
+        { x: b.x, y: b.hi },
+      ]),
+    ),
+  ];
   const hasBand = shown.some((s) => s.band.length > 1);
-  const xDomain = useMemo(() => paddedExtent(all.map((p) => p.x), 0.03, 5), [all]);
+  const xDomain = useMemo(
+    () =>
+      paddedExtent(
+        all.map((p) => p.x),
+        0.03,
+        5,
+      ),
+    [all],
+  );
   const yDomain = useMemo<[number, number]>(() => {
     if (fixedYDomain) return fixedYDomain;
     const ys = all.map((p) => p.y);
@@ -111,7 +129,11 @@ export function LineChart({
             margin={{ top: 18, right: 20, bottom: 46, left: 78 }}
             theme={chartTheme}
             xScale={{ type: 'linear', domain: xDomain, zero: false }}
-            yScale={yScale === 'log' ? { type: 'log', domain: yDomain, clamp: true } : { type: 'linear', domain: yDomain, zero: false, nice: true }}
+            yScale={
+              yScale === 'log'
+                ? { type: 'log', domain: yDomain, clamp: true }
+                : { type: 'linear', domain: yDomain, zero: false, nice: true }
+            }
             accessibilityLabel={title}
           >
             <Grid columns={false} numTicks={5} lineStyle={{ stroke: chartColors.grid }} />
@@ -151,7 +173,9 @@ export function LineChart({
                     data={data}
                     xAccessor={(d) => d.x}
                     yAccessor={(d) => d.y}
-                    renderGlyph={({ x, y }: GlyphProps<Datum>) => <Marker shape={shape} x={x} y={y} color={color} r={s.secondary ? 2.5 : 3.5} />}
+                    renderGlyph={({ x, y }: GlyphProps<Datum>) => (
+                      <Marker shape={shape} x={x} y={y} color={color} r={s.secondary ? 2.5 : 3.5} />
+                    )}
                   />
                 </g>
               );
@@ -196,7 +220,15 @@ export function LineChart({
             const { color, dash, shape } = style(i);
             return (
               <LegendItem key={s.key} label={s.label}>
-                <line x1="1" x2="15" y1="8" y2="8" stroke={color} strokeWidth={s.secondary ? 1.25 : 2} strokeDasharray={dash || undefined} />
+                <line
+                  x1="1"
+                  x2="15"
+                  y1="8"
+                  y2="8"
+                  stroke={color}
+                  strokeWidth={s.secondary ? 1.25 : 2}
+                  strokeDasharray={dash || undefined}
+                />
                 <Marker shape={shape} x={8} y={8} color={color} r={2.5} />
               </LegendItem>
             );

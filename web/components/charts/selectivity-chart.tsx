@@ -97,7 +97,8 @@ export function SelectivityChart({
   const chartWidth = width ?? measured;
   // For diastereomers the share axis is % major, the larger share whichever isomer it is.
   const fold = family === 'dr' && measure === 'percentA';
-  const pick = (v: { eePercent: number; percentA: number }) => (measure === 'ee' ? v.eePercent : fold ? majorShare(v.percentA) : v.percentA);
+  const pick = (v: { eePercent: number; percentA: number }) =>
+    measure === 'ee' ? v.eePercent : fold ? majorShare(v.percentA) : v.percentA;
   const words = axisText(family, measure);
   const yLabel = words.axis;
   const unitText = words.unit;
@@ -197,14 +198,17 @@ export function SelectivityChart({
                     </div>
                     <div>
                       {d.kind === 'curve' ? curveLabel : 'measured'}:{' '}
-                      {family === 'ee' ? `ee ${percent(v.eePercent)} % · er ${enantiomericRatio(v.percentA)}` : formatSelectivity(family, lnRatioOf('ee', v.eePercent))}
+                      {family === 'ee'
+                        ? `ee ${percent(v.eePercent)} % · er ${enantiomericRatio(v.percentA)}`
+                        : formatSelectivity(family, lnRatioOf('ee', v.eePercent))}
                       {d.kind === 'point' && d.p.status === 'censored' ? ' (lower bound)' : ''}
                     </div>
                     {d.kind === 'curve' && d.c.band && (
                       <div>
                         {bandLabel ?? 'band'}:{' '}
                         {(() => {
-                          const [lo, hi] = measure === 'ee' ? d.c.band.eePercent : fold ? majorShareRange(...d.c.band.percentA) : d.c.band.percentA;
+                          const [lo, hi] =
+                            measure === 'ee' ? d.c.band.eePercent : fold ? majorShareRange(...d.c.band.percentA) : d.c.band.percentA;
                           return `${percent(lo)} to ${percent(hi)} ${unitText}`;
                         })()}
                       </div>

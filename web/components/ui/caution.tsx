@@ -52,8 +52,8 @@ export function SafetyCaution({ compact = false }: { compact?: boolean }) {
       {!compact && (
         <p className="mt-1">
           A colder, slower reaction can build up unreacted dosed reagent that a cooling failure or warm-up releases at once (thermal
-          runaway). Get calorimetry and a process-safety review before changing temperature on scale; cryogenic work adds
-          asphyxiation, embrittlement, freezing and mixing hazards. Follow local codes and licensed practice.
+          runaway). Get calorimetry and a process-safety review before changing temperature on scale; cryogenic work adds asphyxiation,
+          embrittlement, freezing and mixing hazards. Follow local codes and licensed practice.
         </p>
       )}
     </aside>

@@ -95,7 +95,11 @@ const variants = {
   danger: 'border-rose-700 bg-white text-rose-700 hover:bg-rose-50',
 };
 
-export function Button({ variant = 'plain', className = '', ...rest }: ButtonHTMLAttributes<HTMLButtonElement> & { variant?: keyof typeof variants }) {
+export function Button({
+  variant = 'plain',
+  className = '',
+  ...rest
+}: ButtonHTMLAttributes<HTMLButtonElement> & { variant?: keyof typeof variants }) {
   return (
     <button
       type="button"

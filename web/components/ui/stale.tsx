@@ -54,7 +54,10 @@ export function StaleResult({
   return (
     <div className={`flex flex-col gap-2 ${className}`} data-stale={reason ?? undefined}>
       {stale && (
-        <div role="status" className="flex flex-wrap items-center gap-2 rounded border border-slate-300 bg-slate-100 px-3 py-1.5 text-xs text-ink-800">
+        <div
+          role="status"
+          className="flex flex-wrap items-center gap-2 rounded border border-slate-300 bg-slate-100 px-3 py-1.5 text-xs text-ink-800"
+        >
           <span className="rounded bg-ink-700 px-1.5 py-0.5 font-semibold uppercase tracking-wide text-white">stale</span>
           <span>
             {reason === 'changed'
@@ -78,7 +81,10 @@ export function StaleResult({
           Updating…
         </p>
       )}
-      <div className={`flex flex-col gap-3 transition-opacity ${reason ? 'opacity-50 grayscale' : ''}`} aria-busy={reason === 'updating' || undefined}>
+      <div
+        className={`flex flex-col gap-3 transition-opacity ${reason ? 'opacity-50 grayscale' : ''}`}
+        aria-busy={reason === 'updating' || undefined}
+      >
         {children}
       </div>
     </div>

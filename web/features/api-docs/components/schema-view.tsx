@@ -3,7 +3,15 @@ import type { OpenApiSchema } from '../api/get-openapi';
 const refName = (ref: string) => ref.split('/').pop() ?? ref;
 
 /** A compact, readable rendering of a JSON Schema: one line per property. */
-export function SchemaView({ schema, components, depth = 0 }: { schema: OpenApiSchema; components: Record<string, OpenApiSchema>; depth?: number }) {
+export function SchemaView({
+  schema,
+  components,
+  depth = 0,
+}: {
+  schema: OpenApiSchema;
+  components: Record<string, OpenApiSchema>;
+  depth?: number;
+}) {
   if (depth > 6) return <span className="text-ink-500">…</span>;
   if (schema.$ref) {
     const name = refName(schema.$ref);

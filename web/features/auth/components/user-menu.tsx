@@ -30,7 +30,9 @@ export function UserMenu() {
         <span className="sr-only">Account: </span>
         {/* On a phone the name is read out but not shown: the initial stands for it. */}
         <span className="sr-only sm:not-sr-only sm:max-w-[12rem] sm:truncate">{user.displayName ?? user.login}</span>
-        <span aria-hidden="true" className="text-slate-400">▾</span>
+        <span aria-hidden="true" className="text-slate-400">
+          ▾
+        </span>
       </summary>
       <div className="absolute right-0 z-10 mt-1 w-56 rounded-md border border-slate-200 bg-white py-1 text-sm text-ink-800 shadow-lg">
         <p className="border-b border-slate-100 px-3 py-2 text-xs text-ink-500">

@@ -129,7 +129,14 @@ export function DistributionPanel() {
                 const name = p.label.trim() || `row ${i + 1}`;
                 return (
                   <tr key={p.id}>
-                    <CellInput label={`Label, row ${i + 1}`} path={`pathways.${i}.label`} value={p.label} onChange={(label) => setRow(p.id, { label })} errors={errors} width="w-24" />
+                    <CellInput
+                      label={`Label, row ${i + 1}`}
+                      path={`pathways.${i}.label`}
+                      value={p.label}
+                      onChange={(label) => setRow(p.id, { label })}
+                      errors={errors}
+                      width="w-24"
+                    />
                     <td className="px-1 py-1 align-top">
                       <select
                         aria-label={`Barrier as, ${name}`}
@@ -143,15 +150,37 @@ export function DistributionPanel() {
                     </td>
                     {p.mode === 'G' ? (
                       <>
-                        <CellInput label={`G‡, ${name}`} path={`pathways.${i}.barrier.dG`} value={p.g} onChange={(g) => setRow(p.id, { g })} errors={errors} width="w-20" placeholder="e.g. 0" />
+                        <CellInput
+                          label={`G‡, ${name}`}
+                          path={`pathways.${i}.barrier.dG`}
+                          value={p.g}
+                          onChange={(g) => setRow(p.id, { g })}
+                          errors={errors}
+                          width="w-20"
+                          placeholder="e.g. 0"
+                        />
                         <td className="px-1 text-xs text-ink-500">—</td>
                         <td className="px-1 text-xs text-ink-500">—</td>
                       </>
                     ) : (
                       <>
                         <td className="px-1 text-xs text-ink-500">—</td>
-                        <CellInput label={`H‡, ${name}`} path={`pathways.${i}.barrier.dH`} value={p.h} onChange={(h) => setRow(p.id, { h })} errors={errors} width="w-20" />
-                        <CellInput label={`S‡, ${name}`} path={`pathways.${i}.barrier.dS`} value={p.s} onChange={(s) => setRow(p.id, { s })} errors={errors} width="w-20" />
+                        <CellInput
+                          label={`H‡, ${name}`}
+                          path={`pathways.${i}.barrier.dH`}
+                          value={p.h}
+                          onChange={(h) => setRow(p.id, { h })}
+                          errors={errors}
+                          width="w-20"
+                        />
+                        <CellInput
+                          label={`S‡, ${name}`}
+                          path={`pathways.${i}.barrier.dS`}
+                          value={p.s}
+                          onChange={(s) => setRow(p.id, { s })}
+                          errors={errors}
+                          width="w-20"
+                        />
                       </>
                     )}
                     <CellInput
@@ -212,11 +241,21 @@ export function DistributionPanel() {
           </button>
           <label className="flex items-center gap-1.5 text-xs font-medium text-ink-700">
             Energy unit
-            <SelectField label="Pathway energy unit" value={form.energyUnit} options={energyUnitOptions} onChange={(energyUnit) => change({ energyUnit })} />
+            <SelectField
+              label="Pathway energy unit"
+              value={form.energyUnit}
+              options={energyUnitOptions}
+              onChange={(energyUnit) => change({ energyUnit })}
+            />
           </label>
           <label className="flex items-center gap-1.5 text-xs font-medium text-ink-700">
             Entropy unit
-            <SelectField label="Pathway entropy unit" value={form.entropyUnit} options={entropyUnitOptions} onChange={(entropyUnit) => change({ entropyUnit })} />
+            <SelectField
+              label="Pathway entropy unit"
+              value={form.entropyUnit}
+              options={entropyUnitOptions}
+              onChange={(entropyUnit) => change({ entropyUnit })}
+            />
           </label>
         </div>
         {usesG && (
@@ -249,7 +288,9 @@ export function DistributionPanel() {
 
       <div className="mt-4 flex min-w-0 flex-col gap-3" aria-live="polite">
         {!data && !query.isFetching && (
-          <EmptyResult failed={Boolean(query.error)}>Enter at least two pathways and a range, then press Calculate distribution.</EmptyResult>
+          <EmptyResult failed={Boolean(query.error)}>
+            Enter at least two pathways and a range, then press Calculate distribution.
+          </EmptyResult>
         )}
         {data && (
           <div className={`flex flex-col gap-3 ${query.isPlaceholderData ? 'opacity-60' : ''}`}>
@@ -270,7 +311,14 @@ function DistributionResult({ data }: { data: DistributionResponse }) {
   const hasDr = data.points.some((p) => p.dr !== null);
   return (
     <div className="grid gap-4 xl:grid-cols-[minmax(0,2fr)_minmax(0,3fr)]">
-      <LineChart title="Share of each product against temperature" series={series} yLabel="Product (%)" formatY={(v) => fixed(v, 0)} yDomain={[0, 100]} testId="distribution-chart" />
+      <LineChart
+        title="Share of each product against temperature"
+        series={series}
+        yLabel="Product (%)"
+        formatY={(v) => fixed(v, 0)}
+        yDomain={[0, 100]}
+        testId="distribution-chart"
+      />
       <div className="flex min-w-0 flex-col gap-3">
         <div className="max-h-[26rem] overflow-auto rounded border border-slate-200">
           <table className="tnum w-full border-collapse text-right text-sm">
@@ -306,7 +354,11 @@ function DistributionResult({ data }: { data: DistributionResponse }) {
                       {percent(g.percent)} · {percent(g.eePercent)}
                     </td>
                   ))}
-                  {hasDr && <td className="border-l border-slate-100 px-2 py-1 font-medium text-ink-950">{pt.dr === null ? '—' : `${sig(pt.dr, 3)} : 1`}</td>}
+                  {hasDr && (
+                    <td className="border-l border-slate-100 px-2 py-1 font-medium text-ink-950">
+                      {pt.dr === null ? '—' : `${sig(pt.dr, 3)} : 1`}
+                    </td>
+                  )}
                 </tr>
               ))}
             </tbody>

@@ -190,10 +190,24 @@ export function ConventionNote({ className = '' }: { className?: string }) {
  * The alert under a calculator form for errors that belong to no input: the server's problem
  * (title and detail) or the client's own checks. Errors with an input show under that input.
  */
-export function UnplacedErrors({ error, clientErrors, serverErrors, leftover }: { error: Error | null; clientErrors: FieldError[]; serverErrors: FieldError[]; leftover: FieldError[] }) {
+export function UnplacedErrors({
+  error,
+  clientErrors,
+  serverErrors,
+  leftover,
+}: {
+  error: Error | null;
+  clientErrors: FieldError[];
+  serverErrors: FieldError[];
+  leftover: FieldError[];
+}) {
   if (clientErrors.length > 0) return leftover.length > 0 ? <ProblemAlert title="Check the inputs" errors={leftover} /> : null;
   if (!error || (serverErrors.length > 0 && leftover.length === 0)) return null;
   return (
-    <ProblemAlert title={error instanceof ApiError ? error.problem.title : 'The calculation failed'} detail={error.message} errors={leftover} />
+    <ProblemAlert
+      title={error instanceof ApiError ? error.problem.title : 'The calculation failed'}
+      detail={error.message}
+      errors={leftover}
+    />
   );
 }

@@ -126,8 +126,20 @@ export function branchLines(twoBranch: Curvature | undefined): EyringBranchLine[
   if (!twoBranch?.checked || twoBranch.preferred !== 'two-branch' || !twoBranch.break || !twoBranch.low || !twoBranch.high) return [];
   const t = twoBranch.break.kelvin;
   return [
-    { label: 'low-T branch', fromKelvin: twoBranch.low.fromKelvin, toKelvin: t, slope: twoBranch.low.slope, intercept: twoBranch.low.intercept },
-    { label: 'high-T branch', fromKelvin: t, toKelvin: twoBranch.high.toKelvin, slope: twoBranch.high.slope, intercept: twoBranch.high.intercept },
+    {
+      label: 'low-T branch',
+      fromKelvin: twoBranch.low.fromKelvin,
+      toKelvin: t,
+      slope: twoBranch.low.slope,
+      intercept: twoBranch.low.intercept,
+    },
+    {
+      label: 'high-T branch',
+      fromKelvin: t,
+      toKelvin: twoBranch.high.toKelvin,
+      slope: twoBranch.high.slope,
+      intercept: twoBranch.high.intercept,
+    },
   ];
 }
 
@@ -138,9 +150,9 @@ export function TwoBranchBox({ twoBranch }: { twoBranch: Curvature }) {
   const preferTwo = twoBranch.preferred === 'two-branch';
   const help = (
     <p className="mt-1 text-xs text-ink-600">
-      A curved Eyring plot can come from two competing pathways whose balance inverts (isoinversion; Buschmann, Scharf, Hoffmann &amp; Esser,
-      1991) or from a change of the selectivity-determining step (Gypser &amp; Norrby, 1997). The break test compares the best break with
-      simulated straight-line screens of the same design, so it is not fooled by the search over break positions.
+      A curved Eyring plot can come from two competing pathways whose balance inverts (isoinversion; Buschmann, Scharf, Hoffmann &amp;
+      Esser, 1991) or from a change of the selectivity-determining step (Gypser &amp; Norrby, 1997). The break test compares the best break
+      with simulated straight-line screens of the same design, so it is not fooled by the search over break positions.
     </p>
   );
   if (!twoBranch.checked) {
@@ -157,8 +169,8 @@ export function TwoBranchBox({ twoBranch }: { twoBranch: Curvature }) {
   const branch = (name: string, br: NonNullable<typeof twoBranch.low>) => (
     <li>
       {name}: {fixed(celsiusFromKelvin(br.fromKelvin), 0)} to {fixed(celsiusFromKelvin(br.toKelvin), 0)} °C, n = {br.n}, ΔΔH‡ ={' '}
-      {withUncertainty(br.ddH['kJ/mol'], br.ddH.se?.['kJ/mol'])} kJ/mol ({withUncertainty(br.ddH['kcal/mol'], br.ddH.se?.['kcal/mol'])} kcal/mol),
-      ΔΔS‡ = {fixed(br.ddS['J/(mol*K)'], 1)} J/(mol·K)
+      {withUncertainty(br.ddH['kJ/mol'], br.ddH.se?.['kJ/mol'])} kJ/mol ({withUncertainty(br.ddH['kcal/mol'], br.ddH.se?.['kcal/mol'])}{' '}
+      kcal/mol), ΔΔS‡ = {fixed(br.ddS['J/(mol*K)'], 1)} J/(mol·K)
     </li>
   );
   return (
@@ -168,7 +180,9 @@ export function TwoBranchBox({ twoBranch }: { twoBranch: Curvature }) {
     >
       <p className="font-medium text-ink-900">
         Curvature check:{' '}
-        {preferTwo ? 'two straight branches meeting at a break describe the screen better than one line; forecasts use them' : 'one straight line is adequate'}
+        {preferTwo
+          ? 'two straight branches meeting at a break describe the screen better than one line; forecasts use them'
+          : 'one straight line is adequate'}
       </p>
       {b && (
         <p className="tnum mt-1 font-medium text-ink-950" data-testid="break-temperature">
@@ -178,7 +192,8 @@ export function TwoBranchBox({ twoBranch }: { twoBranch: Curvature }) {
           {b.ci && (
             <span className="font-normal text-ink-700">
               {' '}
-              · {fixed(b.ci.level * 100, 0)} % CI {fixed(b.ci.celsius[0], 0)} to {b.ci.celsius[1] === null ? 'unbounded' : `${fixed(b.ci.celsius[1], 0)} °C`}
+              · {fixed(b.ci.level * 100, 0)} % CI {fixed(b.ci.celsius[0], 0)} to{' '}
+              {b.ci.celsius[1] === null ? 'unbounded' : `${fixed(b.ci.celsius[1], 0)} °C`}
             </span>
           )}
         </p>
@@ -187,8 +202,8 @@ export function TwoBranchBox({ twoBranch }: { twoBranch: Curvature }) {
         {twoBranch.low && branch('Low-temperature branch', twoBranch.low)}
         {twoBranch.high && branch('High-temperature branch', twoBranch.high)}
         <li>
-          Break test: sup-F = {sig(twoBranch.breakTest.F, 3)}, {pText(twoBranch.breakTest.p)} against {twoBranch.breakTest.resamples} simulated
-          straight-line screens (a break is accepted below p = {twoBranch.breakTest.alpha})
+          Break test: sup-F = {sig(twoBranch.breakTest.F, 3)}, {pText(twoBranch.breakTest.p)} against {twoBranch.breakTest.resamples}{' '}
+          simulated straight-line screens (a break is accepted below p = {twoBranch.breakTest.alpha})
         </li>
         {twoBranch.lackOfFit && (
           <li>

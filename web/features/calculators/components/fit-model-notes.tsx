@@ -14,8 +14,8 @@ export function FitModelNotes({ fit }: { fit: FitResponse }) {
       {fit.estimator === 'censored-ml' && (
         <li>
           <span className="font-medium text-ink-900">Bounds fitted, not dropped.</span> Runs reported only as bounds
-          {limit ? ` (at or beyond ${sig(limit.value, 4)} ${limit.measure === 'ee' ? '% ee' : limit.measure})` : ''} enter by censored maximum
-          likelihood (Tobit); the values above come from that fit.
+          {limit ? ` (at or beyond ${sig(limit.value, 4)} ${limit.measure === 'ee' ? '% ee' : limit.measure})` : ''} enter by censored
+          maximum likelihood (Tobit); the values above come from that fit.
           {ls && (
             <span className="block text-ink-600">
               {ls.label}: ΔΔH‡ {withUncertainty(ls.ddH['kJ/mol'], ls.ddH.se?.['kJ/mol'])} kJ/mol, ΔΔS‡{' '}

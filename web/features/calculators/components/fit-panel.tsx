@@ -55,12 +55,16 @@ function numberOrNull(text: string): number | null | 'invalid' {
 }
 
 /** An interval in ln r: the API's own lnRatio ends (ratio ends are null beyond the representable range). */
-const lnOf = (iv: { lnRatio?: [number, number] | undefined; ratio: [number | null, number | null] } | undefined | null): [number, number] | null =>
-  iv ? (iv.lnRatio ?? [Math.log(iv.ratio[0] ?? 0), Math.log(iv.ratio[1] ?? Infinity)]) : null;
+const lnOf = (
+  iv: { lnRatio?: [number, number] | undefined; ratio: [number | null, number | null] } | undefined | null,
+): [number, number] | null => (iv ? (iv.lnRatio ?? [Math.log(iv.ratio[0] ?? 0), Math.log(iv.ratio[1] ?? Infinity)]) : null);
 
 /** The median SD of the pasted runs that carry one (the assay precision), or null. */
 function medianUncertainty(rows: ScreenRow[]): number | null {
-  const sds = rows.map((r) => r.uncertainty).filter((u): u is number => typeof u === 'number' && u > 0).sort((a, b) => a - b);
+  const sds = rows
+    .map((r) => r.uncertainty)
+    .filter((u): u is number => typeof u === 'number' && u > 0)
+    .sort((a, b) => a - b);
   if (sds.length === 0) return null;
   const mid = Math.floor(sds.length / 2);
   return sds.length % 2 ? sds[mid] : (sds[mid - 1] + sds[mid]) / 2;
@@ -293,17 +297,18 @@ export function FitPanel() {
                   [
                     ...fit.warnings.filter((w) => w.code !== 'extrapolation'),
                     ...(view.proposed?.extrapolated
-                      ? [{ code: 'extrapolation', message: `${fixed(view.proposed.celsius, 1)} °C lies outside the screened range: the forecast assumes the ${view.proposed.model === 'segmented' ? 'nearest branch' : 'same straight line'} continues, which a change of mechanism would break.` }]
+                      ? [
+                          {
+                            code: 'extrapolation',
+                            message: `${fixed(view.proposed.celsius, 1)} °C lies outside the screened range: the forecast assumes the ${view.proposed.model === 'segmented' ? 'nearest branch' : 'same straight line'} continues, which a change of mechanism would break.`,
+                          },
+                        ]
                       : []),
                   ]
                 }
               />
               {view.proposed ? (
-                <PredictionBox
-                  prediction={view.proposed}
-                  confidence={fit.confidence}
-                  measure={shown.submitted.measure}
-                />
+                <PredictionBox prediction={view.proposed} confidence={fit.confidence} measure={shown.submitted.measure} />
               ) : (
                 <p className="text-sm text-ink-500">Enter a proposed temperature to get a prediction with its interval.</p>
               )}

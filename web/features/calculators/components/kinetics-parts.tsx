@@ -34,7 +34,19 @@ export function sci(value: number): string {
 
 function scientific(value: number): string {
   const [mantissa, exponent] = value.toExponential(2).split('e');
-  const SUP: Record<string, string> = { '-': '⁻', '0': '⁰', '1': '¹', '2': '²', '3': '³', '4': '⁴', '5': '⁵', '6': '⁶', '7': '⁷', '8': '⁸', '9': '⁹' };
+  const SUP: Record<string, string> = {
+    '-': '⁻',
+    '0': '⁰',
+    '1': '¹',
+    '2': '²',
+    '3': '³',
+    '4': '⁴',
+    '5': '⁵',
+    '6': '⁶',
+    '7': '⁷',
+    '8': '⁸',
+    '9': '⁹',
+  };
   const power = String(Number(exponent))
     .split('')
     .map((c) => SUP[c] ?? c)
@@ -44,7 +56,24 @@ function scientific(value: number): string {
 
 const { s: SECOND, min: MINUTE, h: HOUR, d: DAY, y: YEAR } = SECONDS_PER;
 /** Readable time marks for a log axis in seconds: 1 s, 10 s, 1 min, 10 min, 1 h, 10 h, 1 d, 10 d, 100 d, 1 y, 10 y … */
-const DURATION_MARKS = [1e-3, 1e-2, 0.1, SECOND, 10, MINUTE, 10 * MINUTE, HOUR, 10 * HOUR, DAY, 10 * DAY, 100 * DAY, YEAR, 10 * YEAR, 100 * YEAR, 1000 * YEAR];
+const DURATION_MARKS = [
+  1e-3,
+  1e-2,
+  0.1,
+  SECOND,
+  10,
+  MINUTE,
+  10 * MINUTE,
+  HOUR,
+  10 * HOUR,
+  DAY,
+  10 * DAY,
+  100 * DAY,
+  YEAR,
+  10 * YEAR,
+  100 * YEAR,
+  1000 * YEAR,
+];
 
 export function durationTicks([lo, hi]: [number, number]): number[] {
   let marks = DURATION_MARKS.filter((t) => t >= lo * 0.999 && t <= hi * 1.001);
@@ -55,7 +84,15 @@ export function durationTicks([lo, hi]: [number, number]): number[] {
 /** A duration in seconds as a short axis label in the unit that reads best. */
 export function durationTick(seconds: number): string {
   const [value, unit] =
-    seconds < MINUTE ? [seconds, 's'] : seconds < HOUR ? [seconds / MINUTE, 'min'] : seconds < DAY ? [seconds / HOUR, 'h'] : seconds < YEAR ? [seconds / DAY, 'd'] : [seconds / YEAR, 'y'];
+    seconds < MINUTE
+      ? [seconds, 's']
+      : seconds < HOUR
+        ? [seconds / MINUTE, 'min']
+        : seconds < DAY
+          ? [seconds / HOUR, 'h']
+          : seconds < YEAR
+            ? [seconds / DAY, 'd']
+            : [seconds / YEAR, 'y'];
   return `${compactNumber(value)} ${unit}`;
 }
 
@@ -78,7 +115,14 @@ export function RangeFields({
   return (
     <fieldset className="flex flex-wrap items-start gap-3 border-t border-slate-200 pt-3">
       <legend className="sr-only">Temperature range</legend>
-      <NumberField label="From" path="temperatures.from" value={from} onChange={(rangeFrom) => onChange({ rangeFrom })} errors={errors} width="w-20" />
+      <NumberField
+        label="From"
+        path="temperatures.from"
+        value={from}
+        onChange={(rangeFrom) => onChange({ rangeFrom })}
+        errors={errors}
+        width="w-20"
+      />
       <NumberField
         label="to"
         path="temperatures.to"
@@ -86,9 +130,18 @@ export function RangeFields({
         onChange={(rangeTo) => onChange({ rangeTo })}
         errors={errors}
         width="w-20"
-        unit={<SelectField label="Range unit" value={unit} options={temperatureUnitOptions} onChange={(rangeUnit) => onChange({ rangeUnit })} />}
+        unit={
+          <SelectField label="Range unit" value={unit} options={temperatureUnitOptions} onChange={(rangeUnit) => onChange({ rangeUnit })} />
+        }
       />
-      <NumberField label="Temperatures" path="temperatures.count" value={count} onChange={(c) => onChange({ count: c })} errors={errors} width="w-16" />
+      <NumberField
+        label="Temperatures"
+        path="temperatures.count"
+        value={count}
+        onChange={(c) => onChange({ count: c })}
+        errors={errors}
+        width="w-16"
+      />
     </fieldset>
   );
 }

@@ -1,5 +1,11 @@
 import type { FitResponse } from '../../../../api/features/compute/schemas';
-import { DISPLAY_LABEL, DISPLAY_MEASURES, formatMeasure, formatMeasureRange, type SelectivityMeasure } from '../../../../api/science/quantities';
+import {
+  DISPLAY_LABEL,
+  DISPLAY_MEASURES,
+  formatMeasure,
+  formatMeasureRange,
+  type SelectivityMeasure,
+} from '../../../../api/science/quantities';
 import { SafetyCaution } from '../../../components/ui/caution';
 import { enantiomericRatio, fixed, percent, withUncertainty, lnRatioOf, lnRatioRange } from '../../../lib/format';
 
@@ -34,40 +40,42 @@ export function PredictionBox({
         <dl className="tnum grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm">
           {measure === 'ee' ? (
             <>
-            <dt className="text-ink-600">ee</dt>
-            <dd>
-              <span className="text-lg font-semibold text-ink-950">{percent(prediction.eePercent)} %</span>
-              {pi && (
-                <span className="ml-2 text-ink-700">
-                  {level} prediction interval {percent(pi.eePercent[0])} to {percent(pi.eePercent[1])} %
-                </span>
+              <dt className="text-ink-600">ee</dt>
+              <dd>
+                <span className="text-lg font-semibold text-ink-950">{percent(prediction.eePercent)} %</span>
+                {pi && (
+                  <span className="ml-2 text-ink-700">
+                    {level} prediction interval {percent(pi.eePercent[0])} to {percent(pi.eePercent[1])} %
+                  </span>
+                )}
+              </dd>
+              <dt className="text-ink-600">% A</dt>
+              <dd>
+                <span className="font-medium text-ink-950">{percent(prediction.percentA)} %</span>
+                {pi && (
+                  <span className="ml-2 text-ink-700">
+                    interval {percent(pi.percentA[0])} to {percent(pi.percentA[1])} %
+                  </span>
+                )}
+                <span className="ml-2 text-ink-600">er {enantiomericRatio(prediction.percentA)}</span>
+              </dd>
+              {ci && (
+                <>
+                  <dt className="text-ink-600">Mean line</dt>
+                  <dd className="text-ink-700">
+                    {level} confidence interval {percent(ci.eePercent[0])} to {percent(ci.eePercent[1])} % ee
+                  </dd>
+                </>
               )}
-            </dd>
-            <dt className="text-ink-600">% A</dt>
-            <dd>
-              <span className="font-medium text-ink-950">{percent(prediction.percentA)} %</span>
-              {pi && (
-                <span className="ml-2 text-ink-700">
-                  interval {percent(pi.percentA[0])} to {percent(pi.percentA[1])} %
-                </span>
-              )}
-              <span className="ml-2 text-ink-600">er {enantiomericRatio(prediction.percentA)}</span>
-            </dd>
-            {ci && (
-              <>
-                <dt className="text-ink-600">Mean line</dt>
-                <dd className="text-ink-700">
-                  {level} confidence interval {percent(ci.eePercent[0])} to {percent(ci.eePercent[1])} % ee
-                </dd>
-              </>
-            )}
             </>
           ) : (
             displays.map((d, i) => (
               <div key={d} className="contents">
                 <dt className="text-ink-600">{DISPLAY_LABEL[d]}</dt>
                 <dd>
-                  <span className={i === 0 ? 'text-lg font-semibold text-ink-950' : 'font-medium text-ink-950'}>{formatMeasure(d, lnR)}</span>
+                  <span className={i === 0 ? 'text-lg font-semibold text-ink-950' : 'font-medium text-ink-950'}>
+                    {formatMeasure(d, lnR)}
+                  </span>
                   {pi && (
                     <span className="ml-2 text-ink-700">
                       {i === 0 ? `${level} prediction interval` : 'interval'} {formatMeasureRange(d, ...lnRange(pi))}
@@ -105,14 +113,17 @@ export function PredictionBox({
         )}
         {prediction.model === 'segmented' && (
           <p className="text-sm text-ink-700" data-testid="forecast-branch">
-            From the two-branch model: the {prediction.branch === 'low' ? 'low-temperature branch (colder than the break)' : 'high-temperature branch (warmer than the break)'}{' '}
+            From the two-branch model: the{' '}
+            {prediction.branch === 'low'
+              ? 'low-temperature branch (colder than the break)'
+              : 'high-temperature branch (warmer than the break)'}{' '}
             covers this temperature.
           </p>
         )}
         <p className="text-xs text-ink-600">
           The prediction interval is where a single new run is expected to fall, including that run’s own assay error
-          {prediction.newRunSigmaLnR != null ? ` (σ of ln r ${fixed(prediction.newRunSigmaLnR, 3)} at this selectivity)` : ''}; the confidence
-          interval is for the mean line only.
+          {prediction.newRunSigmaLnR != null ? ` (σ of ln r ${fixed(prediction.newRunSigmaLnR, 3)} at this selectivity)` : ''}; the
+          confidence interval is for the mean line only.
         </p>
       </div>
       <SafetyCaution />

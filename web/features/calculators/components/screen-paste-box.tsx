@@ -43,7 +43,8 @@ export function ScreenPasteBox({
         placeholder={'-40, 96.9, 0.3\n-20, 95.6, 0.3\n0, 93.7, 0.4'}
       />
       <p id={`${id}-help`} className="tnum text-xs text-ink-500">
-        Separate values by tab, semicolon or comma. A bound such as ≥99.8 or &gt;200:1 is fitted as at least that selective. Lines starting with # are ignored.{' '}
+        Separate values by tab, semicolon or comma. A bound such as ≥99.8 or &gt;200:1 is fitted as at least that selective. Lines starting
+        with # are ignored.{' '}
         <span className="text-ink-700">
           {runCount} run{runCount === 1 ? '' : 's'} read
           {headerLine !== null ? `; line ${headerLine} read as column headings` : ''}.

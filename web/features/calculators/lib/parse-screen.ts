@@ -78,7 +78,10 @@ export function parseScreen(text: string, measure: SelectivityMeasure, unit: Tem
     const read = readSelectivityText(fields[1], measure, decimalComma ? 'either' : '.');
     if (!read.ok) {
       const hint = isPairMeasure(measure) ? ' or an "a:b" ratio' : '';
-      errors.push({ line, message: /not a number/.test(read.message) ? `selectivity "${fields[1]}" is not a number${hint}` : read.message });
+      errors.push({
+        line,
+        message: /not a number/.test(read.message) ? `selectivity "${fields[1]}" is not a number${hint}` : read.message,
+      });
       return;
     }
 

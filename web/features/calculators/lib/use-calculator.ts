@@ -23,5 +23,15 @@ export function useCalculator<Form, Request, Response>(options: {
     if (next) setRequest(next);
   };
   const patch = (change: Partial<Form>) => setForm((f) => ({ ...f, ...change }));
-  return { form, setForm, patch, submit, request, query, clientErrors, serverErrors, errors: clientErrors.length ? clientErrors : serverErrors };
+  return {
+    form,
+    setForm,
+    patch,
+    submit,
+    request,
+    query,
+    clientErrors,
+    serverErrors,
+    errors: clientErrors.length ? clientErrors : serverErrors,
+  };
 }

@@ -6,7 +6,8 @@ import type { Campaign, CampaignListItem, CampaignWithRole } from './types';
 
 export const listCampaigns = (projectId: string) =>
   api<{ campaigns: CampaignListItem[] }>(`/api/v1/projects/${projectId}/campaigns`).then((r) => r.campaigns);
-export const campaignsQueryOptions = (projectId: string) => queryOptions({ queryKey: campaignKeys.list(projectId), queryFn: () => listCampaigns(projectId) });
+export const campaignsQueryOptions = (projectId: string) =>
+  queryOptions({ queryKey: campaignKeys.list(projectId), queryFn: () => listCampaigns(projectId) });
 export const useCampaigns = (projectId: string) => useQuery(campaignsQueryOptions(projectId));
 
 /**
@@ -14,7 +15,8 @@ export const useCampaigns = (projectId: string) => useQuery(campaignsQueryOption
  * revalidating with If-None-Match would get a 304 and reuse another account's role. Never cached.
  */
 export const getCampaign = (campaignId: string) => api<CampaignWithRole>(`/api/v1/campaigns/${campaignId}`, { cache: 'no-store' });
-export const campaignQueryOptions = (campaignId: string) => queryOptions({ queryKey: campaignKeys.detail(campaignId), queryFn: () => getCampaign(campaignId) });
+export const campaignQueryOptions = (campaignId: string) =>
+  queryOptions({ queryKey: campaignKeys.detail(campaignId), queryFn: () => getCampaign(campaignId) });
 export const useCampaign = (campaignId: string) => useQuery(campaignQueryOptions(campaignId));
 
 export const createCampaign = (projectId: string, body: CampaignCreate) =>

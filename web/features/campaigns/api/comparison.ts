@@ -5,7 +5,9 @@ import { campaignKeys } from './keys';
 import type { ComparisonResponse } from './types';
 
 export const getComparison = (projectId: string, atCelsius: number) =>
-  api<unknown>(`/api/v1/projects/${projectId}/comparison?at=${encodeURIComponent(String(atCelsius))}`).then((d): ComparisonResponse => comparisonResponseSchema.parse(d));
+  api<unknown>(`/api/v1/projects/${projectId}/comparison?at=${encodeURIComponent(String(atCelsius))}`).then((d): ComparisonResponse =>
+    comparisonResponseSchema.parse(d),
+  );
 
 export const comparisonQueryOptions = (projectId: string, atCelsius: number) =>
   queryOptions({

@@ -25,5 +25,8 @@ export function useSaveForecast(campaignId: string) {
 export const deleteForecast = (forecastId: string) => api<void>(`/api/v1/forecasts/${forecastId}`, { method: 'DELETE' });
 export function useDeleteForecast(campaignId: string) {
   const client = useQueryClient();
-  return useMutation({ mutationFn: deleteForecast, onSettled: () => client.invalidateQueries({ queryKey: campaignKeys.forecasts(campaignId) }) });
+  return useMutation({
+    mutationFn: deleteForecast,
+    onSettled: () => client.invalidateQueries({ queryKey: campaignKeys.forecasts(campaignId) }),
+  });
 }

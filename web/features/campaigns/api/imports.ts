@@ -31,7 +31,11 @@ export function usePreviewImport(campaignId: string, onProgress: (p: UploadProgr
   const csrf = useCsrfToken();
   return useMutation({
     mutationFn: (v: { file: File; request: ImportPreviewBody; signal?: AbortSignal }) =>
-      postWithProgress<ImportPreview>(`/api/v1/campaigns/${campaignId}/imports/preview`, multipart(v.file, v.request), { csrfToken: csrf(), onProgress, signal: v.signal }),
+      postWithProgress<ImportPreview>(`/api/v1/campaigns/${campaignId}/imports/preview`, multipart(v.file, v.request), {
+        csrfToken: csrf(),
+        onProgress,
+        signal: v.signal,
+      }),
   });
 }
 
@@ -44,15 +48,20 @@ export function useImportFile(campaignId: string, projectId: string, onProgress:
   const client = useQueryClient();
   return useMutation({
     mutationFn: async (v: { file: File; request: ImportBody; signal?: AbortSignal }) => {
-      const answer = await postWithProgress<ImportResult | QueuedJob>(`/api/v1/campaigns/${campaignId}/imports`, multipart(v.file, v.request), {
-        csrfToken: csrf(),
-        onProgress,
-        signal: v.signal,
-      });
+      const answer = await postWithProgress<ImportResult | QueuedJob>(
+        `/api/v1/campaigns/${campaignId}/imports`,
+        multipart(v.file, v.request),
+        {
+          csrfToken: csrf(),
+          onProgress,
+          signal: v.signal,
+        },
+      );
       if (!isQueuedJob(answer)) return answer;
       return pollJob<ImportResult>(answer.job.id, {
         signal: v.signal,
-        onProgress: (job) => onProgress({ loaded: 1, total: 1, phase: 'processing', stage: job.progress.stage, percent: job.progress.percent }),
+        onProgress: (job) =>
+          onProgress({ loaded: 1, total: 1, phase: 'processing', stage: job.progress.stage, percent: job.progress.percent }),
       });
     },
     onSuccess: () =>

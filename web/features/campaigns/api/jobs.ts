@@ -18,7 +18,14 @@ const wait = (ms: number, signal?: AbortSignal) =>
       'abort',
       () => {
         clearTimeout(timer);
-        reject(new ApiError({ type: 'aborted', title: 'Cancelled', status: 0, detail: 'Stopped waiting for the job; it carries on on the server.' }));
+        reject(
+          new ApiError({
+            type: 'aborted',
+            title: 'Cancelled',
+            status: 0,
+            detail: 'Stopped waiting for the job; it carries on on the server.',
+          }),
+        );
       },
       { once: true },
     );
@@ -28,13 +35,17 @@ const wait = (ms: number, signal?: AbortSignal) =>
  * Poll GET /api/v1/jobs/:id until the job has ended. Resolves with its result; a failed job
  * rejects with the problem details the direct route would have answered (same `issues`).
  */
-export async function pollJob<T>(id: string, options: { onProgress?: (job: JobView) => void; signal?: AbortSignal; intervalMs?: number } = {}): Promise<T> {
+export async function pollJob<T>(
+  id: string,
+  options: { onProgress?: (job: JobView) => void; signal?: AbortSignal; intervalMs?: number } = {},
+): Promise<T> {
   let delay = options.intervalMs ?? 400;
   for (;;) {
     const job = await api<JobView>(`/api/v1/jobs/${id}`, { signal: options.signal });
     options.onProgress?.(job);
     if (job.state === 'succeeded') return job.result as T;
-    if (job.state === 'failed') throw new ApiError((job.error ?? { type: 'about:blank', title: 'Job failed', status: 500, detail: 'The job failed.' }) as Problem);
+    if (job.state === 'failed')
+      throw new ApiError((job.error ?? { type: 'about:blank', title: 'Job failed', status: 500, detail: 'The job failed.' }) as Problem);
     await wait(delay, options.signal);
     delay = Math.min(delay * 1.5, 3000);
   }

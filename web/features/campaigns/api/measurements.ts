@@ -50,5 +50,8 @@ export function useSetExclusion(campaignId: string, projectId: string) {
 
 export function useDeleteMeasurement(campaignId: string, projectId: string) {
   const refresh = useRefreshCampaign(campaignId, projectId);
-  return useMutation({ mutationFn: (v: { id: string; version: number; reason: string }) => deleteMeasurement(v.id, v.version, v.reason), onSettled: refresh });
+  return useMutation({
+    mutationFn: (v: { id: string; version: number; reason: string }) => deleteMeasurement(v.id, v.version, v.reason),
+    onSettled: refresh,
+  });
 }

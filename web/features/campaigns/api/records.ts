@@ -51,7 +51,10 @@ export function useHistoryEntries(scope: { campaignId: string } | { projectId: s
 }
 
 export const useKeptFiles = (campaignId: string) =>
-  useQuery({ queryKey: [...campaignKeys.one(campaignId), 'files'], queryFn: () => api<{ files: KeptFile[] }>(`/api/v1/campaigns/${campaignId}/files`).then((r) => r.files) });
+  useQuery({
+    queryKey: [...campaignKeys.one(campaignId), 'files'],
+    queryFn: () => api<{ files: KeptFile[] }>(`/api/v1/campaigns/${campaignId}/files`).then((r) => r.files),
+  });
 
 function useRefreshAll(campaignId: string) {
   const client = useQueryClient();
@@ -60,10 +63,17 @@ function useRefreshAll(campaignId: string) {
 
 export function useSignOff(campaignId: string) {
   const refresh = useRefreshAll(campaignId);
-  return useMutation({ mutationFn: (note: string) => api<Campaign>(`/api/v1/campaigns/${campaignId}/sign-off`, { method: 'POST', body: { note: note.trim() || null } }), onSettled: refresh });
+  return useMutation({
+    mutationFn: (note: string) =>
+      api<Campaign>(`/api/v1/campaigns/${campaignId}/sign-off`, { method: 'POST', body: { note: note.trim() || null } }),
+    onSettled: refresh,
+  });
 }
 
 export function useReopen(campaignId: string) {
   const refresh = useRefreshAll(campaignId);
-  return useMutation({ mutationFn: (reason: string) => api<Campaign>(`/api/v1/campaigns/${campaignId}/reopen`, { method: 'POST', body: { reason } }), onSettled: refresh });
+  return useMutation({
+    mutationFn: (reason: string) => api<Campaign>(`/api/v1/campaigns/${campaignId}/reopen`, { method: 'POST', body: { reason } }),
+    onSettled: refresh,
+  });
 }

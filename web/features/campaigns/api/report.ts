@@ -14,5 +14,6 @@ export interface ReportMailResult {
   attachments: string[];
 }
 
-export const sendReport = (campaignId: string, body: ReportMailBody) => api<ReportMailResult>(`/api/v1/campaigns/${campaignId}/report/email`, { method: 'POST', body });
+export const sendReport = (campaignId: string, body: ReportMailBody) =>
+  api<ReportMailResult>(`/api/v1/campaigns/${campaignId}/report/email`, { method: 'POST', body });
 export const useSendReport = (campaignId: string) => useMutation({ mutationFn: (body: ReportMailBody) => sendReport(campaignId, body) });

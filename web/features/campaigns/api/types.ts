@@ -77,7 +77,12 @@ export interface Measurement {
   updatedAt: string;
 }
 
-export type { AnalysisPoint, AnalysisResponse, ComparisonResponse, SavedForecastView } from '../../../../api/features/campaigns/analysis-schemas';
+export type {
+  AnalysisPoint,
+  AnalysisResponse,
+  ComparisonResponse,
+  SavedForecastView,
+} from '../../../../api/features/campaigns/analysis-schemas';
 export type ComparisonCampaign = ComparisonResponse['campaigns'][number];
 
 // ── File import (mirrors the import service's answer) ────────────────────────────────────────

@@ -19,8 +19,9 @@ import {
 } from '../../../../api/science/quantities';
 
 /** An interval in ln r: the API's own lnRatio ends (ratio ends are null beyond the representable range). */
-const lnOf = (iv: { lnRatio?: [number, number] | undefined; ratio: [number | null, number | null] } | undefined | null): [number, number] | null =>
-  iv ? (iv.lnRatio ?? [Math.log(iv.ratio[0] ?? 0), Math.log(iv.ratio[1] ?? Infinity)]) : null;
+const lnOf = (
+  iv: { lnRatio?: [number, number] | undefined; ratio: [number | null, number | null] } | undefined | null,
+): [number, number] | null => (iv ? (iv.lnRatio ?? [Math.log(iv.ratio[0] ?? 0), Math.log(iv.ratio[1] ?? Infinity)]) : null);
 
 /** Shape the analysis for the shared charts (logarithms of the API's ratios; no statistics here). */
 export function chartData(analysis: AnalysisResponse) {
@@ -118,7 +119,14 @@ export function CampaignAnalysis({
         <figure className="flex min-w-0 flex-col gap-1">
           <figcaption className="flex flex-wrap items-end justify-between gap-2">
             <span className="text-sm font-semibold text-ink-900">Selectivity against temperature</span>
-            <ChartControls name="campaign" measure={chartMeasure} onMeasure={setChartMeasure} spec={specText} onSpec={setSpecText} family={measure} />
+            <ChartControls
+              name="campaign"
+              measure={chartMeasure}
+              onMeasure={setChartMeasure}
+              spec={specText}
+              onSpec={setSpecText}
+              family={measure}
+            />
           </figcaption>
           <SelectivityChart
             title="Selectivity against temperature: fitted curve with the 95 % prediction band and the measured runs"
@@ -132,20 +140,20 @@ export function CampaignAnalysis({
             mark={at ? { celsius: at.celsius, label: markLabel } : null}
             height={282}
           />
-          {twoBranchPreferred && (
-            <p className="text-xs text-ink-600">Curve and band follow the two branches, which meet at the break.</p>
-          )}
+          {twoBranchPreferred && <p className="text-xs text-ink-600">Curve and band follow the two branches, which meet at the break.</p>}
         </figure>
       </div>
       <FitWarnings warnings={fit.warnings} />
       <div className="grid gap-5 xl:grid-cols-[minmax(0,1fr)_minmax(0,1fr)]">
         <section aria-label="Fitted parameters" className="flex flex-col gap-3">
-          <h3 className="text-sm font-semibold text-ink-900">{twoBranchPreferred ? 'One-line parameters (B − A), for comparison only' : 'Parameters (B − A)'}</h3>
+          <h3 className="text-sm font-semibold text-ink-900">
+            {twoBranchPreferred ? 'One-line parameters (B − A), for comparison only' : 'Parameters (B − A)'}
+          </h3>
           {twoBranchPreferred && (
             <p role="note" className="rounded border border-amber-300 bg-caution-50 px-3 py-2 text-sm text-caution-700">
-              <span aria-hidden="true">⚠ </span>Two straight branches describe this screen better than one line: the single ΔΔH‡ and ΔΔS‡ below
-              average over the break. Forecasts use the two branches; read each branch's values in the curvature check, each only within its own
-              temperature range.
+              <span aria-hidden="true">⚠ </span>Two straight branches describe this screen better than one line: the single ΔΔH‡ and ΔΔS‡
+              below average over the break. Forecasts use the two branches; read each branch's values in the curvature check, each only
+              within its own temperature range.
             </p>
           )}
           <FitParameterTable fit={fit} />
@@ -167,11 +175,17 @@ export function CampaignAnalysis({
             Specification: {specificationText(specification, measure)}. Each run below says whether it meets it.
           </p>
         )}
-        <ResidualDiagnostics analysis={analysis} measurements={measurements} measure={measure} specification={specification} assaySd={assaySd} />
+        <ResidualDiagnostics
+          analysis={analysis}
+          measurements={measurements}
+          measure={measure}
+          specification={specification}
+          assaySd={assaySd}
+        />
         <p className="text-xs text-ink-600">
-          Residuals are in ln r (measured − fitted). A run is flagged (⚑, ringed on the plot) when its studentized residual exceeds 3 in size,
-          its leverage is high or its Cook’s distance exceeds 1, and only when at least 3 residual degrees of freedom leave room to tell an
-          odd run from scatter. A flag asks for a second look at the run’s record; it is not by itself a reason to exclude the run.
+          Residuals are in ln r (measured − fitted). A run is flagged (⚑, ringed on the plot) when its studentized residual exceeds 3 in
+          size, its leverage is high or its Cook’s distance exceeds 1, and only when at least 3 residual degrees of freedom leave room to
+          tell an odd run from scatter. A flag asks for a second look at the run’s record; it is not by itself a reason to exclude the run.
         </p>
       </section>
     </div>
@@ -183,12 +197,16 @@ function DdGAt({ prediction, confidence, measure }: { prediction: FitPrediction;
   const primary = DISPLAY_MEASURES[measure][0];
   const pi = prediction.predictionInterval;
   return (
-    <dl className="tnum grid grid-cols-[auto_1fr] gap-x-4 gap-y-0.5 rounded border border-slate-200 px-3 py-2 text-sm" aria-label="Free-energy gap at the chosen temperature">
+    <dl
+      className="tnum grid grid-cols-[auto_1fr] gap-x-4 gap-y-0.5 rounded border border-slate-200 px-3 py-2 text-sm"
+      aria-label="Free-energy gap at the chosen temperature"
+    >
       <dt className="text-ink-600">
         ΔΔG‡ at {fixed(prediction.celsius, 1)} °C ({fixed(prediction.kelvin, 2)} K)
       </dt>
       <dd className="text-ink-950">
-        {withUncertainty(prediction.ddG['kJ/mol'], prediction.ddGSe?.['kJ/mol'])} kJ/mol · {withUncertainty(prediction.ddG['kcal/mol'], prediction.ddGSe?.['kcal/mol'])} kcal/mol
+        {withUncertainty(prediction.ddG['kJ/mol'], prediction.ddGSe?.['kJ/mol'])} kJ/mol ·{' '}
+        {withUncertainty(prediction.ddG['kcal/mol'], prediction.ddGSe?.['kcal/mol'])} kcal/mol
       </dd>
       <dt className="text-ink-600">{primary === 'ee' ? 'ee' : displayHeading(primary).replace(/ \(%\)$/, '')} there</dt>
       <dd className="text-ink-950">
@@ -240,7 +258,12 @@ function ResidualDiagnostics({
   const residuals = analysis.fit?.residuals ?? [];
   return (
     // Focusable so the table can be scrolled from the keyboard.
-    <div className="max-h-96 overflow-auto rounded border border-slate-200" tabIndex={0} role="region" aria-label="Residuals and flags for each run">
+    <div
+      className="max-h-96 overflow-auto rounded border border-slate-200"
+      tabIndex={0}
+      role="region"
+      aria-label="Residuals and flags for each run"
+    >
       <table className="tnum w-full border-collapse text-right text-xs">
         <caption className="sr-only">Residuals and flags for each run</caption>
         <TableHead
@@ -266,7 +289,10 @@ function ResidualDiagnostics({
             const flags = (r?.flags ?? []).filter((f) => !/^(excluded|censored|lower-bound)/.test(f));
             const flagged = p.flagged;
             return (
-              <tr key={p.measurementId} className={`border-b border-slate-100 ${flagged ? 'bg-caution-50' : ''} ${p.status === 'excluded' ? 'text-ink-500' : ''}`}>
+              <tr
+                key={p.measurementId}
+                className={`border-b border-slate-100 ${flagged ? 'bg-caution-50' : ''} ${p.status === 'excluded' ? 'text-ink-500' : ''}`}
+              >
                 <td className="px-2 py-0.5 text-left">{p.label ?? m?.sampleId ?? i + 1}</td>
                 <td className="px-2 py-0.5">{fixed(p.kelvin - CELSIUS, 1)}</td>
                 <td className="px-2 py-0.5">
@@ -292,7 +318,9 @@ function ResidualDiagnostics({
                       <span aria-hidden="true">● </span>fitted
                     </span>
                   )}
-                  {flags.length > 0 && <span className="ml-1 font-medium text-caution-700">⚑ {flags.map((f) => FLAG_TEXT[f] ?? f).join(', ')}</span>}
+                  {flags.length > 0 && (
+                    <span className="ml-1 font-medium text-caution-700">⚑ {flags.map((f) => FLAG_TEXT[f] ?? f).join(', ')}</span>
+                  )}
                   {r && <RunNote residual={r} />}
                 </td>
                 {specLn !== null && (

@@ -1,5 +1,11 @@
 import { useState } from 'react';
-import { ASSAY_METHODS, CAMPAIGN_STATUSES, type AssayMethod, type CampaignStatus, type SelectivityMeasure } from '../../../../api/features/campaigns/schemas';
+import {
+  ASSAY_METHODS,
+  CAMPAIGN_STATUSES,
+  type AssayMethod,
+  type CampaignStatus,
+  type SelectivityMeasure,
+} from '../../../../api/features/campaigns/schemas';
 import { SelectField, TextField } from '../../../components/ui/form';
 import type { CampaignFormValues, FormErrors } from '../lib/campaign-form';
 import { ASSAY_LABEL, MEASURE_LABEL, uncertaintyUnit } from '../lib/labels';
@@ -29,9 +35,29 @@ export function CampaignFields({
 }) {
   return (
     <div className={`grid gap-3 ${compact ? 'sm:grid-cols-2' : 'sm:grid-cols-2 lg:grid-cols-4'}`}>
-      <TextField className={compact ? 'sm:col-span-2' : 'sm:col-span-2'} label="Title" name="title" value={values.title} onChange={set('title')} error={errors.title} />
-      <TextField label="Product A (numerator)" name="productNameA" value={values.productNameA} onChange={set('productNameA')} error={errors.productNameA} hint="e.g. (S)-amine; r = [A]/[B]" />
-      <TextField label="Product B" name="productNameB" value={values.productNameB} onChange={set('productNameB')} error={errors.productNameB} />
+      <TextField
+        className={compact ? 'sm:col-span-2' : 'sm:col-span-2'}
+        label="Title"
+        name="title"
+        value={values.title}
+        onChange={set('title')}
+        error={errors.title}
+      />
+      <TextField
+        label="Product A (numerator)"
+        name="productNameA"
+        value={values.productNameA}
+        onChange={set('productNameA')}
+        error={errors.productNameA}
+        hint="e.g. (S)-amine; r = [A]/[B]"
+      />
+      <TextField
+        label="Product B"
+        name="productNameB"
+        value={values.productNameB}
+        onChange={set('productNameB')}
+        error={errors.productNameB}
+      />
       <SelectField<SelectivityMeasure>
         label="Reported as"
         name="measure"
@@ -83,7 +109,15 @@ export function CampaignFields({
         onChange={set('status')}
         error={errors.status}
       />
-      <TextField className="sm:col-span-2" label="Reaction" name="reactionDescription" value={values.reactionDescription} onChange={set('reactionDescription')} error={errors.reactionDescription} hint="Substrate, catalyst, solvent, concentration" />
+      <TextField
+        className="sm:col-span-2"
+        label="Reaction"
+        name="reactionDescription"
+        value={values.reactionDescription}
+        onChange={set('reactionDescription')}
+        error={errors.reactionDescription}
+        hint="Substrate, catalyst, solvent, concentration"
+      />
       <TextField className="sm:col-span-2" label="Notes" name="notes" value={values.notes} onChange={set('notes')} error={errors.notes} />
     </div>
   );

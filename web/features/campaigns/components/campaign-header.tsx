@@ -24,13 +24,24 @@ export function CampaignHeader({ campaign, canEdit }: { campaign: CampaignWithRo
         <Item term="Assay" detail={ASSAY_LABEL[campaign.assayMethod]} />
         <Item
           term="Default uncertainty"
-          detail={campaign.defaultUncertainty === null ? '— (none)' : `± ${fixed(campaign.defaultUncertainty, 2)} ${uncertaintyUnit(campaign.measure).replace(/[()]/g, '')}`}
+          detail={
+            campaign.defaultUncertainty === null
+              ? '— (none)'
+              : `± ${fixed(campaign.defaultUncertainty, 2)} ${uncertaintyUnit(campaign.measure).replace(/[()]/g, '')}`
+          }
         />
         <Item
           term="Next run’s assay SD"
-          detail={campaign.newRunUncertainty == null ? 'median of the runs’' : `± ${fixed(campaign.newRunUncertainty, 2)} ${uncertaintyUnit(campaign.measure).replace(/[()]/g, '')}`}
+          detail={
+            campaign.newRunUncertainty == null
+              ? 'median of the runs’'
+              : `± ${fixed(campaign.newRunUncertainty, 2)} ${uncertaintyUnit(campaign.measure).replace(/[()]/g, '')}`
+          }
         />
-        <Item term="Quantitation limit" detail={campaign.quantitationLimit == null ? '99.8 % ee (default)' : String(campaign.quantitationLimit)} />
+        <Item
+          term="Quantitation limit"
+          detail={campaign.quantitationLimit == null ? '99.8 % ee (default)' : String(campaign.quantitationLimit)}
+        />
         <Item
           term="Status"
           detail={
@@ -49,7 +60,9 @@ export function CampaignHeader({ campaign, canEdit }: { campaign: CampaignWithRo
           <Button onClick={() => setEditing(true)}>Edit campaign details</Button>
         </div>
       )}
-      {canEdit && editing && <EditCampaignForm key={formKey} campaign={campaign} onDone={() => setEditing(false)} onReloaded={() => setFormKey((k) => k + 1)} />}
+      {canEdit && editing && (
+        <EditCampaignForm key={formKey} campaign={campaign} onDone={() => setEditing(false)} onReloaded={() => setFormKey((k) => k + 1)} />
+      )}
     </div>
   );
 }
@@ -96,7 +109,10 @@ function EditCampaignForm({ campaign, onDone, onReloaded }: { campaign: Campaign
     >
       <CampaignFields values={values} errors={errors} set={set} />
       {conflict !== null && (
-        <div role="alert" className="flex flex-wrap items-center gap-3 rounded border border-rose-300 bg-rose-50 px-3 py-2 text-sm text-rose-800">
+        <div
+          role="alert"
+          className="flex flex-wrap items-center gap-3 rounded border border-rose-300 bg-rose-50 px-3 py-2 text-sm text-rose-800"
+        >
           <span>
             <span aria-hidden="true">✕ </span>Changed by someone else — reload. You edited version {base.version}
             {conflict > 0 ? `; the campaign is now at version ${conflict}` : ''}. Your changes were not saved.

@@ -31,7 +31,9 @@ export function SignOffBar({ campaign, canEdit }: { campaign: CampaignWithRole; 
   };
 
   return (
-    <div className={`flex flex-col gap-2 rounded border px-3 py-2 text-sm ${s ? 'border-emerald-300 bg-emerald-50' : 'border-slate-200 bg-white'}`}>
+    <div
+      className={`flex flex-col gap-2 rounded border px-3 py-2 text-sm ${s ? 'border-emerald-300 bg-emerald-50' : 'border-slate-200 bg-white'}`}
+    >
       <div className="flex flex-wrap items-center gap-x-3 gap-y-1">
         {s ? (
           <p>
@@ -40,13 +42,11 @@ export function SignOffBar({ campaign, canEdit }: { campaign: CampaignWithRole; 
             {s.note && <span className="text-ink-700"> — “{s.note}”</span>}. The measurements are locked.
           </p>
         ) : (
-          <p className="text-ink-700">Open: measurements can be changed. Another owner or editor than the last one to change it can sign it off.</p>
+          <p className="text-ink-700">
+            Open: measurements can be changed. Another owner or editor than the last one to change it can sign it off.
+          </p>
         )}
-        {canEdit && !open && (
-          <Button onClick={() => setOpen(true)}>
-            {s ? 'Reopen…' : 'Sign off…'}
-          </Button>
-        )}
+        {canEdit && !open && <Button onClick={() => setOpen(true)}>{s ? 'Reopen…' : 'Sign off…'}</Button>}
       </div>
       {canEdit && open && (
         <form
@@ -94,7 +94,15 @@ export function CampaignHistory({ campaignId }: { campaignId: string }) {
   );
 }
 
-export function HistoryList({ history, csvHref, empty }: { history: ReturnType<typeof useHistoryEntries>; csvHref: string; empty: string }) {
+export function HistoryList({
+  history,
+  csvHref,
+  empty,
+}: {
+  history: ReturnType<typeof useHistoryEntries>;
+  csvHref: string;
+  empty: string;
+}) {
   if (history.isPending) return <p className="text-sm text-ink-500">Loading the history…</p>;
   if (history.isError) {
     return (
@@ -154,11 +162,21 @@ export function KeptFiles({ campaignId }: { campaignId: string }) {
         <caption className="sr-only">Uploaded files, newest first</caption>
         <thead className="border-b border-slate-200 text-xs text-ink-600">
           <tr>
-            <th scope="col" className="py-1.5 pr-3 font-medium">File</th>
-            <th scope="col" className="py-1.5 pr-3 text-right font-medium">Size</th>
-            <th scope="col" className="py-1.5 pr-3 text-right font-medium">Rows</th>
-            <th scope="col" className="py-1.5 pr-3 font-medium">Uploaded</th>
-            <th scope="col" className="py-1.5 font-medium">SHA-256</th>
+            <th scope="col" className="py-1.5 pr-3 font-medium">
+              File
+            </th>
+            <th scope="col" className="py-1.5 pr-3 text-right font-medium">
+              Size
+            </th>
+            <th scope="col" className="py-1.5 pr-3 text-right font-medium">
+              Rows
+            </th>
+            <th scope="col" className="py-1.5 pr-3 font-medium">
+              Uploaded
+            </th>
+            <th scope="col" className="py-1.5 font-medium">
+              SHA-256
+            </th>
           </tr>
         </thead>
         <tbody>

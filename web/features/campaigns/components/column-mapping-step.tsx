@@ -1,4 +1,10 @@
-import { IMPORT_FIELDS, type ImportField, type SelectivityMeasure, type TemperatureUnit, type TimeUnit } from '../../../../api/features/campaigns/schemas';
+import {
+  IMPORT_FIELDS,
+  type ImportField,
+  type SelectivityMeasure,
+  type TemperatureUnit,
+  type TimeUnit,
+} from '../../../../api/features/campaigns/schemas';
 import type { ImportCell, PreviewColumn } from '../api/types';
 import { FIELD_LABEL, REQUIRED_FIELDS, type MappingDraft } from '../lib/import-mapping';
 import { MEASURE_LABEL } from '../lib/labels';

@@ -100,7 +100,10 @@ export function ForecastPanel({
   const fit = analysis?.fit ?? null;
   const showing = prediction && atCelsius !== null && Math.abs(prediction.celsius - atCelsius) < 1e-6;
   // The forecast on screen: the current one, or the last one while the next is computed or after a failure.
-  const current = useMemo(() => (fit && showing && prediction ? { prediction, confidence: fit.confidence } : null), [fit, showing, prediction]);
+  const current = useMemo(
+    () => (fit && showing && prediction ? { prediction, confidence: fit.confidence } : null),
+    [fit, showing, prediction],
+  );
   const last = useLastDefined(current);
   const shown = atCelsius === null ? null : last;
   const typed = parseNumber(text);
@@ -167,7 +170,12 @@ export function ForecastPanel({
               aria-describedby={error ? `${id}-err` : undefined}
               className={`tnum w-24 rounded border px-2 py-1 text-right text-sm ${error ? 'border-rose-600 bg-rose-50' : 'border-slate-300 bg-white'}`}
             />
-            <select aria-label="Unit of the forecast temperature" value={unit} onChange={(e) => setUnit(e.target.value as TemperatureUnit)} className="rounded border border-slate-300 bg-white px-1 py-1 text-sm">
+            <select
+              aria-label="Unit of the forecast temperature"
+              value={unit}
+              onChange={(e) => setUnit(e.target.value as TemperatureUnit)}
+              className="rounded border border-slate-300 bg-white px-1 py-1 text-sm"
+            >
               {(['C', 'K', 'F'] as const).map((u) => (
                 <option key={u} value={u}>
                   {UNIT_TEXT[u]}
@@ -200,11 +208,15 @@ export function ForecastPanel({
       {!fit && !shown && (
         <p className="text-sm text-ink-600">
           {/* Without an answer the analysis is loading or failed (said beside the result); never blame missing runs then. */}
-          {analysis ? `A forecast needs a fit: ${analysis.problem?.message ?? 'add measurements first.'}` : 'A forecast needs the fit, which is not available right now (see the result above).'}
+          {analysis
+            ? `A forecast needs a fit: ${analysis.problem?.message ?? 'add measurements first.'}`
+            : 'A forecast needs the fit, which is not available right now (see the result above).'}
         </p>
       )}
       {fit && !showing && atCelsius === null && (
-        <p className="text-sm text-ink-600">Type a temperature to get {predictedWords(measure)} with the 95 % prediction interval for one new run.</p>
+        <p className="text-sm text-ink-600">
+          Type a temperature to get {predictedWords(measure)} with the 95 % prediction interval for one new run.
+        </p>
       )}
       {fit && atCelsius !== null && !shown && <p className="text-sm text-ink-600">Computing…</p>}
       {shown && (
@@ -245,7 +257,15 @@ export function ForecastPanel({
 }
 
 /** The prediction at the proposed temperature, with r and (for enantiomers) er. */
-function ForecastResult({ prediction, confidence, measure }: { prediction: FitPrediction; confidence: number; measure: SelectivityMeasure }) {
+function ForecastResult({
+  prediction,
+  confidence,
+  measure,
+}: {
+  prediction: FitPrediction;
+  confidence: number;
+  measure: SelectivityMeasure;
+}) {
   return (
     <>
       <PredictionBox prediction={prediction} confidence={confidence} measure={measure} />
@@ -270,7 +290,19 @@ function intervalText(display: DisplayMeasure, [a, b]: [number, number], cell: (
   return `${cell(lo)} to ${cell(hi)}`;
 }
 
-function SmallField({ label, value, onChange, error, width }: { label: string; value: string; onChange: (v: string) => void; error?: string; width: string }) {
+function SmallField({
+  label,
+  value,
+  onChange,
+  error,
+  width,
+}: {
+  label: string;
+  value: string;
+  onChange: (v: string) => void;
+  error?: string;
+  width: string;
+}) {
   const id = useId();
   return (
     <div className="flex flex-col gap-0.5">
@@ -314,8 +346,16 @@ export function SavedForecasts({
   const remove = useDeleteForecast(campaignId);
   const columns = useMemo(() => forecastColumns(forecasts.data ?? [], measure, assaySd), [forecasts.data, measure, assaySd]);
   if (forecasts.isPending) return <p className="text-sm text-ink-500">Loading saved forecasts…</p>;
-  if (forecasts.isError) return <p role="alert" className="text-sm text-rose-700">{forecasts.error.message}</p>;
-  if (forecasts.data.length === 0) return <p className="text-sm text-ink-600">No saved forecasts yet.{canEdit ? ' Make a forecast above and save it with a note.' : ''}</p>;
+  if (forecasts.isError)
+    return (
+      <p role="alert" className="text-sm text-rose-700">
+        {forecasts.error.message}
+      </p>
+    );
+  if (forecasts.data.length === 0)
+    return (
+      <p className="text-sm text-ink-600">No saved forecasts yet.{canEdit ? ' Make a forecast above and save it with a note.' : ''}</p>
+    );
   return (
     <div className="flex flex-col gap-2">
       <div className="overflow-x-auto rounded border border-slate-200">
@@ -366,8 +406,8 @@ export function SavedForecasts({
         </table>
       </div>
       <p className="text-xs text-ink-600">
-        A saved forecast is a snapshot of the fit when it was saved. Runs stored later within ±1 K of its temperature appear beside it, marked
-        inside or outside its prediction interval.
+        A saved forecast is a snapshot of the fit when it was saved. Runs stored later within ±1 K of its temperature appear beside it,
+        marked inside or outside its prediction interval.
       </p>
       <SafetyCaution compact />
     </div>
@@ -419,7 +459,9 @@ function ForecastRow({
         {f.label ? <span className="font-medium text-ink-900">{f.label}</span> : <span className="text-ink-500">—</span>}
         {f.notes && <span className="block text-xs text-ink-600">{f.notes}</span>}
         {f.result.model === 'segmented' && (
-          <span className="block text-xs text-ink-600">two-branch model, {f.result.branch === 'low' ? 'low' : 'high'}-temperature branch</span>
+          <span className="block text-xs text-ink-600">
+            two-branch model, {f.result.branch === 'low' ? 'low' : 'high'}-temperature branch
+          </span>
         )}
         {f.result.extrapolated && <span className="block text-xs font-medium text-caution-700">⚠ extrapolated beyond the screen</span>}
       </td>
@@ -433,7 +475,8 @@ function ForecastRow({
           <ul>
             {f.measured.map((m) => (
               <li key={m.measurementId}>
-                {enantiomers ? `${percent(m.eePercent)} % ee` : formatDisplay(primary, Math.log(m.ratio))} at {fixed(kelvinTo(m.kelvin, 'C'), 1)} °C{' '}
+                {enantiomers ? `${percent(m.eePercent)} % ee` : formatDisplay(primary, Math.log(m.ratio))} at{' '}
+                {fixed(kelvinTo(m.kelvin, 'C'), 1)} °C{' '}
                 {m.insidePredictionInterval === null ? (
                   <span className="text-ink-600">(no interval to compare)</span>
                 ) : m.insidePredictionInterval ? (
@@ -452,7 +495,13 @@ function ForecastRow({
       </td>
       {canEdit && (
         <td className="px-2 py-1">
-          <Button variant="danger" className="px-2 py-0.5 text-xs" disabled={deleting} onClick={onDelete} aria-label={`Delete the forecast at ${fixed(f.celsius, 1)} °C`}>
+          <Button
+            variant="danger"
+            className="px-2 py-0.5 text-xs"
+            disabled={deleting}
+            onClick={onDelete}
+            aria-label={`Delete the forecast at ${fixed(f.celsius, 1)} °C`}
+          >
             Delete
           </Button>
         </td>

@@ -241,7 +241,8 @@ export function MeasurementGrid({
     setState(result.state);
     const parts = [`Pasted ${result.rows} row${result.rows === 1 ? '' : 's'}; check the marked cells, then save.`];
     if (result.headerSkipped) parts.push('The first line looked like headings and was skipped.');
-    if (result.droppedColumns) parts.push(`${plural(result.droppedColumns, 'column')} beyond Notes ${result.droppedColumns === 1 ? 'was' : 'were'} left out.`);
+    if (result.droppedColumns)
+      parts.push(`${plural(result.droppedColumns, 'column')} beyond Notes ${result.droppedColumns === 1 ? 'was' : 'were'} left out.`);
     setNotice({ kind: 'info', text: parts.join(' ') });
   };
 
@@ -279,7 +280,10 @@ export function MeasurementGrid({
           savedDrafts = true;
         } catch (err) {
           if (err instanceof ApiError && err.fieldErrors.length) {
-            const mapped = batchErrorsToCells(err.fieldErrors, drafts.map((d) => d.key));
+            const mapped = batchErrorsToCells(
+              err.fieldErrors,
+              drafts.map((d) => d.key),
+            );
             Object.assign(nextServer, mapped.byKey);
             general.push(...mapped.other);
             if (!mapped.other.length) general.push('No new row was saved (all or nothing): fix the marked cells and save again.');
@@ -297,7 +301,8 @@ export function MeasurementGrid({
           savedEdits.push(r.key);
         } catch (err) {
           if (err instanceof ApiError && err.status === 409) {
-            problems[r.key] = 'Changed by someone else since you loaded it — your edit was not saved. Discard it to see the current values.';
+            problems[r.key] =
+              'Changed by someone else since you loaded it — your edit was not saved. Discard it to see the current values.';
           } else if (err instanceof ApiError && err.fieldErrors.length) {
             const mapped = rowErrorsToCells(err.fieldErrors);
             nextServer[r.key] = mapped.cells;
@@ -319,7 +324,10 @@ export function MeasurementGrid({
     setNotice(
       failed
         ? { kind: 'error', text: general.join(' ') || 'Some rows were not saved; see the marked rows.' }
-        : { kind: 'info', text: `Saved ${plural(savedDrafts ? drafts.length : 0, 'new row')} and ${plural(savedEdits.length, 'changed row')}. The fit below is up to date.` },
+        : {
+            kind: 'info',
+            text: `Saved ${plural(savedDrafts ? drafts.length : 0, 'new row')} and ${plural(savedEdits.length, 'changed row')}. The fit below is up to date.`,
+          },
     );
   }
 
@@ -330,8 +338,9 @@ export function MeasurementGrid({
       {canEdit && (
         <p className="text-xs text-ink-600">
           Type into the cells, or paste a block copied from a spreadsheet (columns in this order, from the cell you paste into). ↑ ↓ and
-          Enter move between rows, ← → between cells at the edge of the text, Esc restores a cell, <kbd className="rounded border border-slate-300 px-1">Ctrl</kbd>+
-          <kbd className="rounded border border-slate-300 px-1">Enter</kbd> saves. Write a lower bound as “≥99.8”; er and dr as “95:5”.
+          Enter move between rows, ← → between cells at the edge of the text, Esc restores a cell,{' '}
+          <kbd className="rounded border border-slate-300 px-1">Ctrl</kbd>+<kbd className="rounded border border-slate-300 px-1">Enter</kbd>{' '}
+          saves. Write a lower bound as “≥99.8”; er and dr as “95:5”.
         </p>
       )}
       <div ref={scrollRef} className={`overflow-x-auto rounded border border-slate-200 ${virtual ? 'max-h-[70vh] overflow-y-auto' : ''}`}>
@@ -353,11 +362,21 @@ export function MeasurementGrid({
                     />
                   )}
                   {col === 'value' && (
-                    <UnitSelect label="Selectivity measure" value={units.measure} options={measureOptions} onChange={(measure) => setUnits((u) => ({ ...u, measure }))} />
+                    <UnitSelect
+                      label="Selectivity measure"
+                      value={units.measure}
+                      options={measureOptions}
+                      onChange={(measure) => setUnits((u) => ({ ...u, measure }))}
+                    />
                   )}
                   {col === 'uncertainty' && <span className="block font-normal">± {uncertaintyUnit(units.measure)}</span>}
                   {col === 'reactionTime' && (
-                    <UnitSelect label="Time unit" value={units.time} options={TIME_UNITS} onChange={(time) => setUnits((u) => ({ ...u, time }))} />
+                    <UnitSelect
+                      label="Time unit"
+                      value={units.time}
+                      options={TIME_UNITS}
+                      onChange={(time) => setUnits((u) => ({ ...u, time }))}
+                    />
                   )}
                 </th>
               ))}
@@ -385,179 +404,186 @@ export function MeasurementGrid({
               </tr>
             )}
           </tbody>
-            {items.map(({ index: rowIndex }) => {
-              const row = rows[rowIndex];
-              const errs = { ...clientErrors[row.key], ...serverErrors[row.key] };
-              const excluded = row.stored?.excluded ?? false;
-              const problem = rowProblems[row.key];
-              return (
-                <tbody key={row.key} data-index={rowIndex} ref={virtual ? virtualizer.measureElement : undefined}>
-                  <tr
-                    className={`border-b border-slate-100 align-top ${excluded ? 'bg-slate-50 text-ink-500' : ''} ${row.dirty ? 'bg-fjord-50/60' : ''}`}
-                    aria-label={`Row ${rowIndex + 1}${row.stored ? '' : ' (new)'}${excluded ? ' (excluded)' : ''}`}
-                  >
-                    <td className="px-2 py-1 text-right text-xs text-ink-500">
-                      {rowIndex + 1}
-                      {row.dirty && (
-                        <span className="ml-0.5 text-fjord-700" title="unsaved">
-                          *<span className="sr-only"> unsaved</span>
+          {items.map(({ index: rowIndex }) => {
+            const row = rows[rowIndex];
+            const errs = { ...clientErrors[row.key], ...serverErrors[row.key] };
+            const excluded = row.stored?.excluded ?? false;
+            const problem = rowProblems[row.key];
+            return (
+              <tbody key={row.key} data-index={rowIndex} ref={virtual ? virtualizer.measureElement : undefined}>
+                <tr
+                  className={`border-b border-slate-100 align-top ${excluded ? 'bg-slate-50 text-ink-500' : ''} ${row.dirty ? 'bg-fjord-50/60' : ''}`}
+                  aria-label={`Row ${rowIndex + 1}${row.stored ? '' : ' (new)'}${excluded ? ' (excluded)' : ''}`}
+                >
+                  <td className="px-2 py-1 text-right text-xs text-ink-500">
+                    {rowIndex + 1}
+                    {row.dirty && (
+                      <span className="ml-0.5 text-fjord-700" title="unsaved">
+                        *<span className="sr-only"> unsaved</span>
+                      </span>
+                    )}
+                  </td>
+                  {GRID_COLUMNS.map((col, colIndex) => (
+                    <td key={col} className="px-1 py-0.5">
+                      {canEdit ? (
+                        <GridInput
+                          cell={`${rowIndex}:${colIndex}`}
+                          label={`${COLUMN_TITLE[col]}, row ${rowIndex + 1}`}
+                          value={row.cells[col]}
+                          error={errs[col]}
+                          numeric={NUMERIC.includes(col)}
+                          width={CELL_WIDTH[col]}
+                          onChange={(t) => setCell(row, col, t)}
+                          onKeyDown={(e) => onKeyDown(e, rowIndex, colIndex, row, col)}
+                          onPaste={(e) => onPaste(e, rowIndex, colIndex)}
+                          subtle={!!row.stored && !row.dirty}
+                        />
+                      ) : (
+                        <span
+                          className={`block px-1 py-0.5 ${NUMERIC.includes(col) ? 'text-right' : ''} ${col === 'notes' ? 'max-w-xs truncate' : ''}`}
+                        >
+                          {row.cells[col] || <span className="text-ink-500">—</span>}
                         </span>
                       )}
                     </td>
-                    {GRID_COLUMNS.map((col, colIndex) => (
-                      <td key={col} className="px-1 py-0.5">
-                        {canEdit ? (
-                          <GridInput
-                            cell={`${rowIndex}:${colIndex}`}
-                            label={`${COLUMN_TITLE[col]}, row ${rowIndex + 1}`}
-                            value={row.cells[col]}
-                            error={errs[col]}
-                            numeric={NUMERIC.includes(col)}
-                            width={CELL_WIDTH[col]}
-                            onChange={(t) => setCell(row, col, t)}
-                            onKeyDown={(e) => onKeyDown(e, rowIndex, colIndex, row, col)}
-                            onPaste={(e) => onPaste(e, rowIndex, colIndex)}
-                            subtle={!!row.stored && !row.dirty}
-                          />
-                        ) : (
-                          <span className={`block px-1 py-0.5 ${NUMERIC.includes(col) ? 'text-right' : ''} ${col === 'notes' ? 'max-w-xs truncate' : ''}`}>
-                            {row.cells[col] || <span className="text-ink-500">—</span>}
+                  ))}
+                  <td className="px-2 py-1 text-xs">
+                    <StatusText m={row.stored} />
+                    {row.stored && replicateSummary.get(row.stored.id) && (
+                      <span
+                        className="block whitespace-nowrap text-ink-600"
+                        title="Mean ± standard deviation of the fitted replicates at this temperature"
+                      >
+                        {replicateSummary.get(row.stored.id)}
+                      </span>
+                    )}
+                  </td>
+                  {canEdit && (
+                    <td className="whitespace-nowrap px-2 py-0.5 text-xs">
+                      {row.stored ? (
+                        confirmDelete === row.key ? (
+                          <span className="flex flex-wrap items-center gap-1">
+                            <label className="flex items-center gap-1">
+                              Why delete?
+                              <input
+                                autoFocus
+                                value={deleteReason}
+                                onChange={(e) => setDeleteReason(e.target.value)}
+                                placeholder="kept in the history"
+                                className="w-40 rounded border border-slate-300 px-1.5 py-0.5"
+                              />
+                            </label>
+                            <button
+                              type="button"
+                              className="rounded border border-rose-700 px-1.5 py-0.5 text-rose-700 disabled:opacity-50"
+                              disabled={deleteReason.trim().length < 3 || deleteRow.isPending}
+                              onClick={() =>
+                                deleteRow.mutate(
+                                  { id: row.key, version: row.stored!.version, reason: deleteReason.trim() },
+                                  {
+                                    onError: (err) => setRowProblems((p) => ({ ...p, [row.key]: err.message })),
+                                    onSettled: () => {
+                                      setConfirmDelete(null);
+                                      setDeleteReason('');
+                                    },
+                                  },
+                                )
+                              }
+                            >
+                              Delete
+                            </button>
+                            <button
+                              type="button"
+                              className="rounded border border-slate-300 px-1.5 py-0.5"
+                              onClick={() => {
+                                setConfirmDelete(null);
+                                setDeleteReason('');
+                              }}
+                            >
+                              Keep
+                            </button>
                           </span>
-                        )}
-                      </td>
-                    ))}
-                    <td className="px-2 py-1 text-xs">
-                      <StatusText m={row.stored} />
-                      {row.stored && replicateSummary.get(row.stored.id) && (
-                        <span className="block whitespace-nowrap text-ink-600" title="Mean ± standard deviation of the fitted replicates at this temperature">
-                          {replicateSummary.get(row.stored.id)}
-                        </span>
-                      )}
-                    </td>
-                    {canEdit && (
-                      <td className="whitespace-nowrap px-2 py-0.5 text-xs">
-                        {row.stored ? (
-                          confirmDelete === row.key ? (
-                            <span className="flex flex-wrap items-center gap-1">
-                              <label className="flex items-center gap-1">
-                                Why delete?
-                                <input
-                                  autoFocus
-                                  value={deleteReason}
-                                  onChange={(e) => setDeleteReason(e.target.value)}
-                                  placeholder="kept in the history"
-                                  className="w-40 rounded border border-slate-300 px-1.5 py-0.5"
-                                />
-                              </label>
+                        ) : (
+                          <span className="flex gap-1">
+                            {row.stored.excluded ? (
                               <button
                                 type="button"
-                                className="rounded border border-rose-700 px-1.5 py-0.5 text-rose-700 disabled:opacity-50"
-                                disabled={deleteReason.trim().length < 3 || deleteRow.isPending}
+                                className="rounded border border-slate-300 px-1.5 py-0.5 hover:bg-slate-50"
+                                aria-label={`Include row ${rowIndex + 1} in the fit again`}
                                 onClick={() =>
-                                  deleteRow.mutate(
-                                    { id: row.key, version: row.stored!.version, reason: deleteReason.trim() },
-                                    {
-                                      onError: (err) => setRowProblems((p) => ({ ...p, [row.key]: err.message })),
-                                      onSettled: () => {
-                                        setConfirmDelete(null);
-                                        setDeleteReason('');
-                                      },
-                                    },
+                                  exclusion.mutate(
+                                    { id: row.key, body: { excluded: false, version: row.stored!.version } },
+                                    { onError: (err) => setRowProblems((p) => ({ ...p, [row.key]: err.message })) },
                                   )
                                 }
                               >
-                                Delete
+                                Include
                               </button>
+                            ) : (
                               <button
                                 type="button"
-                                className="rounded border border-slate-300 px-1.5 py-0.5"
-                                onClick={() => {
-                                  setConfirmDelete(null);
-                                  setDeleteReason('');
-                                }}
+                                className="rounded border border-slate-300 px-1.5 py-0.5 hover:bg-slate-50"
+                                aria-label={`Exclude row ${rowIndex + 1} from the fit`}
+                                aria-expanded={excluding === row.key}
+                                onClick={() => setExcluding(excluding === row.key ? null : row.key)}
                               >
-                                Keep
+                                Exclude…
                               </button>
-                            </span>
-                          ) : (
-                            <span className="flex gap-1">
-                              {row.stored.excluded ? (
-                                <button
-                                  type="button"
-                                  className="rounded border border-slate-300 px-1.5 py-0.5 hover:bg-slate-50"
-                                  aria-label={`Include row ${rowIndex + 1} in the fit again`}
-                                  onClick={() =>
-                                    exclusion.mutate(
-                                      { id: row.key, body: { excluded: false, version: row.stored!.version } },
-                                      { onError: (err) => setRowProblems((p) => ({ ...p, [row.key]: err.message })) },
-                                    )
-                                  }
-                                >
-                                  Include
-                                </button>
-                              ) : (
-                                <button
-                                  type="button"
-                                  className="rounded border border-slate-300 px-1.5 py-0.5 hover:bg-slate-50"
-                                  aria-label={`Exclude row ${rowIndex + 1} from the fit`}
-                                  aria-expanded={excluding === row.key}
-                                  onClick={() => setExcluding(excluding === row.key ? null : row.key)}
-                                >
-                                  Exclude…
-                                </button>
-                              )}
-                              <button
-                                type="button"
-                                className="rounded border border-slate-300 px-1.5 py-0.5 text-rose-700 hover:bg-rose-50"
-                                aria-label={`Delete row ${rowIndex + 1}`}
-                                onClick={() => setConfirmDelete(row.key)}
-                              >
-                                Delete
-                              </button>
-                            </span>
-                          )
-                        ) : (
-                          <button
-                            type="button"
-                            className="rounded border border-slate-300 px-1.5 py-0.5 hover:bg-slate-50"
-                            aria-label={`Remove new row ${rowIndex + 1}`}
-                            onClick={() => setState((s) => ({ ...s, drafts: s.drafts.filter((d) => d.key !== row.key) }))}
-                          >
-                            Remove
-                          </button>
-                        )}
-                      </td>
-                    )}
+                            )}
+                            <button
+                              type="button"
+                              className="rounded border border-slate-300 px-1.5 py-0.5 text-rose-700 hover:bg-rose-50"
+                              aria-label={`Delete row ${rowIndex + 1}`}
+                              onClick={() => setConfirmDelete(row.key)}
+                            >
+                              Delete
+                            </button>
+                          </span>
+                        )
+                      ) : (
+                        <button
+                          type="button"
+                          className="rounded border border-slate-300 px-1.5 py-0.5 hover:bg-slate-50"
+                          aria-label={`Remove new row ${rowIndex + 1}`}
+                          onClick={() => setState((s) => ({ ...s, drafts: s.drafts.filter((d) => d.key !== row.key) }))}
+                        >
+                          Remove
+                        </button>
+                      )}
+                    </td>
+                  )}
+                </tr>
+                {excluding === row.key && row.stored && (
+                  <tr className="border-b border-slate-100 bg-slate-50">
+                    <td />
+                    <td colSpan={GRID_COLUMNS.length + 2} className="px-2 py-2">
+                      <ExclusionForm
+                        rowLabel={`row ${rowIndex + 1}`}
+                        pending={exclusion.isPending}
+                        onCancel={() => setExcluding(null)}
+                        onSubmit={(reason) =>
+                          exclusion
+                            .mutateAsync({ id: row.key, body: { excluded: true, reason, version: row.stored!.version } })
+                            .then(() => setExcluding(null))
+                        }
+                      />
+                    </td>
                   </tr>
-                  {excluding === row.key && row.stored && (
-                    <tr className="border-b border-slate-100 bg-slate-50">
-                      <td />
-                      <td colSpan={GRID_COLUMNS.length + 2} className="px-2 py-2">
-                        <ExclusionForm
-                          rowLabel={`row ${rowIndex + 1}`}
-                          pending={exclusion.isPending}
-                          onCancel={() => setExcluding(null)}
-                          onSubmit={(reason) =>
-                            exclusion.mutateAsync({ id: row.key, body: { excluded: true, reason, version: row.stored!.version } }).then(() => setExcluding(null))
-                          }
-                        />
-                      </td>
-                    </tr>
-                  )}
-                  {problem && (
-                    <tr>
-                      <td />
-                      <td colSpan={GRID_COLUMNS.length + 2} className="px-2 pb-1.5">
-                        <p role="alert" className="text-xs font-medium text-rose-700">
-                          <span aria-hidden="true">✕ </span>
-                          {problem}
-                        </p>
-                      </td>
-                    </tr>
-                  )}
-                </tbody>
-              );
-            })}
+                )}
+                {problem && (
+                  <tr>
+                    <td />
+                    <td colSpan={GRID_COLUMNS.length + 2} className="px-2 pb-1.5">
+                      <p role="alert" className="text-xs font-medium text-rose-700">
+                        <span aria-hidden="true">✕ </span>
+                        {problem}
+                      </p>
+                    </td>
+                  </tr>
+                )}
+              </tbody>
+            );
+          })}
           {padBottom > 0 && (
             <tbody aria-hidden="true">
               <tr style={{ height: padBottom }} />
@@ -565,11 +591,14 @@ export function MeasurementGrid({
           )}
         </table>
       </div>
-      {virtual && <p className="text-xs text-ink-600">{plural(rows.length, 'row')}, sorted by temperature; the grid scrolls in its own box.</p>}
+      {virtual && (
+        <p className="text-xs text-ink-600">{plural(rows.length, 'row')}, sorted by temperature; the grid scrolls in its own box.</p>
+      )}
       {canEdit && editedStoredCount > 0 && (
         <label className="flex flex-wrap items-center gap-2 text-sm">
           <span>
-            Why do {editedStoredCount === 1 ? 'this stored run' : `these ${editedStoredCount} stored runs`} change? <span className="text-ink-600">(kept in the history)</span>
+            Why do {editedStoredCount === 1 ? 'this stored run' : `these ${editedStoredCount} stored runs`} change?{' '}
+            <span className="text-ink-600">(kept in the history)</span>
           </span>
           <input
             value={editReason}
@@ -591,7 +620,10 @@ export function MeasurementGrid({
         </div>
       )}
       {notice && (
-        <p role={notice.kind === 'error' ? 'alert' : 'status'} className={`text-sm ${notice.kind === 'error' ? 'font-medium text-rose-700' : 'text-ink-700'}`}>
+        <p
+          role={notice.kind === 'error' ? 'alert' : 'status'}
+          className={`text-sm ${notice.kind === 'error' ? 'font-medium text-rose-700' : 'text-ink-700'}`}
+        >
           {notice.kind === 'error' && <span aria-hidden="true">✕ </span>}
           {notice.text}
         </p>
@@ -624,7 +656,17 @@ function StatusText({ m }: { m: Measurement | null }) {
   );
 }
 
-function UnitSelect<T extends string>({ label, value, options, onChange }: { label: string; value: T; options: { value: T; label: string }[]; onChange: (v: T) => void }) {
+function UnitSelect<T extends string>({
+  label,
+  value,
+  options,
+  onChange,
+}: {
+  label: string;
+  value: T;
+  options: { value: T; label: string }[];
+  onChange: (v: T) => void;
+}) {
   return (
     <select
       aria-label={label}

@@ -30,7 +30,15 @@ function DdH({ c }: { c: ComparisonCampaign | undefined }) {
 const isEnantiomers = (measure: SelectivityMeasure | undefined) => measure === undefined || measure === 'ee' || measure === 'er';
 
 /** The forecast in the campaign's own measure: ee for enantiomers; dr (with its PI) for diastereomers; % A otherwise. */
-function SelectivityAt({ c, measure, eeCell }: { c: ComparisonCampaign | undefined; measure: SelectivityMeasure | undefined; eeCell: EeCell }) {
+function SelectivityAt({
+  c,
+  measure,
+  eeCell,
+}: {
+  c: ComparisonCampaign | undefined;
+  measure: SelectivityMeasure | undefined;
+  eeCell: EeCell;
+}) {
   if (isEnantiomers(measure)) return <EeAt c={c} cell={eeCell} />;
   const p = c?.prediction;
   if (!p) return <span className="text-ink-500">{c?.problem ? 'no fit' : '—'}</span>;
@@ -53,7 +61,9 @@ type EeCell = (percent: number) => string;
  */
 function eeCellFor(shown: ComparisonCampaign[], campaigns: CampaignListItem[]): EeCell {
   const sds = campaigns.filter((c) => c.measure === 'ee' && c.defaultUncertainty !== null).map((c) => c.defaultUncertainty as number);
-  const values = shown.flatMap((c) => (c.prediction ? [c.prediction.eePercent, ...(c.prediction.predictionInterval?.eePercent ?? [])] : []));
+  const values = shown.flatMap((c) =>
+    c.prediction ? [c.prediction.eePercent, ...(c.prediction.predictionInterval?.eePercent ?? [])] : [],
+  );
   return percentColumn(values, sds.length ? Math.min(...sds) : null);
 }
 
@@ -88,7 +98,12 @@ export function ProjectCampaigns({ projectId, canEdit }: { projectId: string; ca
   const byId = new Map((comparison.data?.campaigns ?? []).map((c) => [c.id, c]));
 
   if (campaigns.isPending) return <p className="text-sm text-ink-500">Loading campaigns…</p>;
-  if (campaigns.isError) return <p role="alert" className="text-sm text-rose-700">{campaigns.error.message}</p>;
+  if (campaigns.isError)
+    return (
+      <p role="alert" className="text-sm text-rose-700">
+        {campaigns.error.message}
+      </p>
+    );
   const list = campaigns.data;
   const chosen = picked ?? list.slice(0, 4).map((c) => c.id);
   const eeCell = eeCellFor(comparison.data?.campaigns ?? [], list);
@@ -134,7 +149,9 @@ export function ProjectCampaigns({ projectId, canEdit }: { projectId: string; ca
           </form>
         </div>
         {list.length === 0 ? (
-          <p className="text-sm text-ink-600">No campaigns yet.{canEdit ? ' Start one below: a temperature screen of one reaction.' : ''}</p>
+          <p className="text-sm text-ink-600">
+            No campaigns yet.{canEdit ? ' Start one below: a temperature screen of one reaction.' : ''}
+          </p>
         ) : (
           <div className="overflow-x-auto">
             <table className="tnum w-full border-collapse text-sm" aria-label="Campaigns of the project">
@@ -156,8 +173,9 @@ export function ProjectCampaigns({ projectId, canEdit }: { projectId: string; ca
                     ΔΔH‡ ± SE (kJ/mol)
                   </th>
                   <th scope="col" className="py-1.5 pr-3 text-right font-medium">
-                    {list.every((c) => isEnantiomers(c.measure)) ? 'ee' : 'Selectivity'} at {fixed(comparison.data?.at.celsius ?? atCelsius, 1)} °C (
-                    {list.every((c) => isEnantiomers(c.measure)) ? '%, ' : ''}95 % PI)
+                    {list.every((c) => isEnantiomers(c.measure)) ? 'ee' : 'Selectivity'} at{' '}
+                    {fixed(comparison.data?.at.celsius ?? atCelsius, 1)} °C ({list.every((c) => isEnantiomers(c.measure)) ? '%, ' : ''}95 %
+                    PI)
                   </th>
                   <th scope="col" className="py-1.5 text-left font-medium">
                     Compare
@@ -179,7 +197,11 @@ export function ProjectCampaigns({ projectId, canEdit }: { projectId: string; ca
             </table>
           </div>
         )}
-        {comparison.isError && <p role="alert" className="text-sm text-rose-700">Comparison unavailable: {comparison.error.message}</p>}
+        {comparison.isError && (
+          <p role="alert" className="text-sm text-rose-700">
+            Comparison unavailable: {comparison.error.message}
+          </p>
+        )}
         {canEdit && !creating && (
           <div>
             <Button variant="primary" onClick={() => setCreating(true)}>
@@ -200,7 +222,10 @@ export function ProjectCampaigns({ projectId, canEdit }: { projectId: string; ca
           at={comparison.data.at}
           campaigns={comparison.data.campaigns.filter((c) => chosen.includes(c.id))}
           measures={new Map(list.map((c) => [c.id, c.measure]))}
-          eeCell={eeCellFor(comparison.data.campaigns.filter((c) => chosen.includes(c.id)), list)}
+          eeCell={eeCellFor(
+            comparison.data.campaigns.filter((c) => chosen.includes(c.id)),
+            list,
+          )}
           stale={comparison.isPlaceholderData}
         />
       )}
@@ -261,7 +286,9 @@ function CampaignRow({
 }
 
 function breakText(b: NonNullable<ComparisonCampaign['breakAt']>): string {
-  return b.claim === 'isoinversion' ? `isoinversion at ${fixed(b.celsius, 0)} °C (r ${b.extremum})` : `change of slope at ${fixed(b.celsius, 0)} °C`;
+  return b.claim === 'isoinversion'
+    ? `isoinversion at ${fixed(b.celsius, 0)} °C (r ${b.extremum})`
+    : `change of slope at ${fixed(b.celsius, 0)} °C`;
 }
 
 /** Chosen campaigns as columns, the quantities that tell catalysts or solvents apart as rows. */
@@ -296,17 +323,32 @@ function Comparison({
         { name: 'er (A:B)', cell: (c) => (c.prediction ? enantiomericRatio(c.prediction.percentA) : '—') },
       ]
     : [
-        { name: `Selectivity at ${fixed(at.celsius, 1)} °C`, cell: (c) => <SelectivityAt c={c} measure={measures.get(c.id)} eeCell={eeCell} /> },
+        {
+          name: `Selectivity at ${fixed(at.celsius, 1)} °C`,
+          cell: (c) => <SelectivityAt c={c} measure={measures.get(c.id)} eeCell={eeCell} />,
+        },
         { name: 'Also as', cell: also },
       ];
   const rows: { name: string; cell: (c: ComparisonCampaign) => ReactNode }[] = [
     { name: 'Runs in the fit (n)', cell: (c) => c.n },
-    { name: 'ΔΔH‡ (kJ/mol)', cell: (c) => (c.ddH ? plus(c.ddH['kJ/mol'], withUncertainty(c.ddH['kJ/mol'], c.ddH.se?.['kJ/mol'], 1)) : '—') },
-    { name: 'ΔΔH‡ (kcal/mol)', cell: (c) => (c.ddH ? plus(c.ddH['kcal/mol'], withUncertainty(c.ddH['kcal/mol'], c.ddH.se?.['kcal/mol'], 2)) : '—') },
-    { name: 'ΔΔS‡ (J/(mol·K))', cell: (c) => (c.ddS ? plus(c.ddS['J/(mol*K)'], withUncertainty(c.ddS['J/(mol*K)'], c.ddS.se?.['J/(mol*K)'], 1)) : '—') },
+    {
+      name: 'ΔΔH‡ (kJ/mol)',
+      cell: (c) => (c.ddH ? plus(c.ddH['kJ/mol'], withUncertainty(c.ddH['kJ/mol'], c.ddH.se?.['kJ/mol'], 1)) : '—'),
+    },
+    {
+      name: 'ΔΔH‡ (kcal/mol)',
+      cell: (c) => (c.ddH ? plus(c.ddH['kcal/mol'], withUncertainty(c.ddH['kcal/mol'], c.ddH.se?.['kcal/mol'], 2)) : '—'),
+    },
+    {
+      name: 'ΔΔS‡ (J/(mol·K))',
+      cell: (c) => (c.ddS ? plus(c.ddS['J/(mol*K)'], withUncertainty(c.ddS['J/(mol*K)'], c.ddS.se?.['J/(mol*K)'], 1)) : '—'),
+    },
     {
       name: `ΔΔG‡ at ${fixed(at.celsius, 1)} °C (kJ/mol)`,
-      cell: (c) => (c.prediction ? plus(c.prediction.ddG['kJ/mol'], withUncertainty(c.prediction.ddG['kJ/mol'], c.prediction.ddGSe?.['kJ/mol'], 2)) : '—'),
+      cell: (c) =>
+        c.prediction
+          ? plus(c.prediction.ddG['kJ/mol'], withUncertainty(c.prediction.ddG['kJ/mol'], c.prediction.ddGSe?.['kJ/mol'], 2))
+          : '—',
     },
     ...selectivityRows,
     {
@@ -319,11 +361,16 @@ function Comparison({
             : '—',
     },
     // A break row only when some campaign claims one (an isoinversion only with slopes of opposite sign).
-    ...(campaigns.some((c) => c.breakAt) ? [{ name: 'Break (°C)', cell: (c: ComparisonCampaign) => (c.breakAt ? breakText(c.breakAt) : '—') }] : []),
+    ...(campaigns.some((c) => c.breakAt)
+      ? [{ name: 'Break (°C)', cell: (c: ComparisonCampaign) => (c.breakAt ? breakText(c.breakAt) : '—') }]
+      : []),
     { name: 'Warnings', cell: (c) => (c.problem ? c.problem.message : c.warnings ? `⚠ ${c.warnings}` : 'none') },
   ];
   return (
-    <section aria-labelledby="compare-h" className={`flex flex-col gap-3 rounded-lg border border-slate-200 bg-white p-4 shadow-sm ${stale ? 'opacity-60' : ''}`}>
+    <section
+      aria-labelledby="compare-h"
+      className={`flex flex-col gap-3 rounded-lg border border-slate-200 bg-white p-4 shadow-sm ${stale ? 'opacity-60' : ''}`}
+    >
       <h2 id="compare-h" className="text-sm font-semibold uppercase tracking-wide text-ink-600">
         Side by side at {fixed(at.celsius, 1)} °C ({fixed(at.kelvin, 2)} K)
       </h2>
@@ -362,4 +409,3 @@ function Comparison({
     </section>
   );
 }
-

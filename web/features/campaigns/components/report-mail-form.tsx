@@ -18,7 +18,8 @@ export function ReportMailForm({ campaignId, projectId }: { campaignId: string; 
       else next.add(id);
       return next;
     });
-  const error = send.error instanceof ApiError ? [send.error.message, ...send.error.fieldErrors.map((e) => e.message)].join(' ') : send.error?.message;
+  const error =
+    send.error instanceof ApiError ? [send.error.message, ...send.error.fieldErrors.map((e) => e.message)].join(' ') : send.error?.message;
 
   if (members.isPending) return <p className="text-sm text-ink-500">Loading members…</p>;
   if (members.isError) return <FormAlert>{members.error.message}</FormAlert>;
@@ -46,7 +47,13 @@ export function ReportMailForm({ campaignId, projectId }: { campaignId: string; 
       </fieldset>
       <label className="flex flex-col gap-1 text-sm text-ink-800">
         Note for the recipients (optional)
-        <textarea className="rounded border border-slate-300 px-2 py-1 text-sm" rows={2} maxLength={2000} value={message} onChange={(e) => setMessage(e.target.value)} />
+        <textarea
+          className="rounded border border-slate-300 px-2 py-1 text-sm"
+          rows={2}
+          maxLength={2000}
+          value={message}
+          onChange={(e) => setMessage(e.target.value)}
+        />
       </label>
       <div className="flex flex-wrap items-center gap-3">
         <Button type="submit" variant="primary" disabled={chosen.size === 0 || send.isPending}>

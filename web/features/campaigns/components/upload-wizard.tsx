@@ -166,9 +166,12 @@ export function UploadWizard({ campaignId, projectId }: { campaignId: string; pr
       )}
       {done && (
         <p role="status" className="tnum rounded border border-fjord-600/40 bg-fjord-50 px-3 py-2 text-sm text-ink-900">
-          <span aria-hidden="true">✓ </span>Imported {done.inserted} row{done.inserted === 1 ? '' : 's'} at {done.distinctTemperatures} temperature
-          {done.distinctTemperatures === 1 ? '' : 's'}, {fixed(done.temperatureRangeK.min - CELSIUS, 1)} to {fixed(done.temperatureRangeK.max - CELSIUS, 1)} °C
-          {done.warningCount ? ` (${done.warningCount} warning${done.warningCount === 1 ? '' : 's'} acknowledged)` : ''}. The grid, fit and charts include them now.
+          <span aria-hidden="true">✓ </span>Imported {done.inserted} row{done.inserted === 1 ? '' : 's'} at {done.distinctTemperatures}{' '}
+          temperature
+          {done.distinctTemperatures === 1 ? '' : 's'}, {fixed(done.temperatureRangeK.min - CELSIUS, 1)} to{' '}
+          {fixed(done.temperatureRangeK.max - CELSIUS, 1)} °C
+          {done.warningCount ? ` (${done.warningCount} warning${done.warningCount === 1 ? '' : 's'} acknowledged)` : ''}. The grid, fit and
+          charts include them now.
         </p>
       )}
       {preview.error && (
@@ -251,7 +254,9 @@ export function UploadWizard({ campaignId, projectId }: { campaignId: string; pr
           </div>
 
           {checked && <PreviewSummary preview={data} />}
-          {issues.length > 0 && <IssueTable issues={issues} total={importIssues || !checked ? issues.length : data.errorCount + data.warningCount} />}
+          {issues.length > 0 && (
+            <IssueTable issues={issues} total={importIssues || !checked ? issues.length : data.errorCount + data.warningCount} />
+          )}
           {checked && (
             <div className="flex flex-col gap-2">
               {data.warningCount > 0 && data.errorCount === 0 && (
@@ -288,13 +293,30 @@ export function UploadWizard({ campaignId, projectId }: { campaignId: string; pr
   );
 }
 
-function ParseSelect({ id, label, value, options, onChange }: { id: string; label: string; value: string; options: [string, string][]; onChange: (v: string) => void }) {
+function ParseSelect({
+  id,
+  label,
+  value,
+  options,
+  onChange,
+}: {
+  id: string;
+  label: string;
+  value: string;
+  options: [string, string][];
+  onChange: (v: string) => void;
+}) {
   return (
     <div className="flex flex-col gap-0.5">
       <label htmlFor={id} className="text-xs font-medium text-ink-700">
         {label}
       </label>
-      <select id={id} value={value} onChange={(e) => onChange(e.target.value)} className="rounded border border-slate-300 bg-white px-1.5 py-1 text-sm">
+      <select
+        id={id}
+        value={value}
+        onChange={(e) => onChange(e.target.value)}
+        className="rounded border border-slate-300 bg-white px-1.5 py-1 text-sm"
+      >
         {options.map(([v, t]) => (
           <option key={v} value={v}>
             {t}
@@ -406,7 +428,9 @@ export function IssueTable({ issues, total }: { issues: ImportIssue[]; total: nu
           <tbody>
             {issues.map((i, k) => (
               <tr key={k} className={`border-b border-slate-100 align-top ${i.severity === 'error' ? 'bg-rose-50/60' : 'bg-caution-50'}`}>
-                <td className={`whitespace-nowrap px-2 py-0.5 font-medium ${i.severity === 'error' ? 'text-rose-700' : 'text-caution-700'}`}>
+                <td
+                  className={`whitespace-nowrap px-2 py-0.5 font-medium ${i.severity === 'error' ? 'text-rose-700' : 'text-caution-700'}`}
+                >
                   {i.severity === 'error' ? '✕ error' : '⚠ warning'}
                 </td>
                 <td className="tnum px-2 py-0.5 text-right">{i.row ?? '—'}</td>
@@ -417,7 +441,11 @@ export function IssueTable({ issues, total }: { issues: ImportIssue[]; total: nu
           </tbody>
         </table>
       </div>
-      {total > issues.length && <p className="text-xs text-ink-500">{issues.length} of {total} problems listed.</p>}
+      {total > issues.length && (
+        <p className="text-xs text-ink-500">
+          {issues.length} of {total} problems listed.
+        </p>
+      )}
     </section>
   );
 }

@@ -11,11 +11,28 @@ import {
   type TimeUnit,
 } from '../../../../api/features/campaigns/schemas';
 import { readPastedTable } from '../../../../api/features/imports/table-text';
-import { eeFromLnRatio, fromKelvin, lnRatioOf, percentAFromLnRatio, readDecimal, SECONDS_PER, splitBound } from '../../../../api/science/quantities';
+import {
+  eeFromLnRatio,
+  fromKelvin,
+  lnRatioOf,
+  percentAFromLnRatio,
+  readDecimal,
+  SECONDS_PER,
+  splitBound,
+} from '../../../../api/science/quantities';
 import { tidyMessage } from '../../calculators/lib/field-errors';
 import type { Measurement } from '../api/types';
 
-export const GRID_COLUMNS = ['temperature', 'value', 'uncertainty', 'sampleId', 'replicateLabel', 'conversionPercent', 'reactionTime', 'notes'] as const;
+export const GRID_COLUMNS = [
+  'temperature',
+  'value',
+  'uncertainty',
+  'sampleId',
+  'replicateLabel',
+  'conversionPercent',
+  'reactionTime',
+  'notes',
+] as const;
 export type GridColumn = (typeof GRID_COLUMNS)[number];
 export type GridCells = Record<GridColumn, string>;
 export type CellErrors = Partial<Record<GridColumn, string>>;
@@ -95,7 +112,10 @@ export function selectivityAs(m: Pick<Measurement, 'measure' | 'value' | 'valueB
  * A stored uncertainty written for another measure, through σ(ln r) (first-order propagation, as
  * the engine reads uncertainties): ee in points of ee, % A and er in points of % A, dr and ratio relative.
  */
-export function uncertaintyAs(m: Pick<Measurement, 'measure' | 'value' | 'valueB' | 'uncertainty'>, measure: SelectivityMeasure): number | null {
+export function uncertaintyAs(
+  m: Pick<Measurement, 'measure' | 'value' | 'valueB' | 'uncertainty'>,
+  measure: SelectivityMeasure,
+): number | null {
   if (m.uncertainty === null) return null;
   if (m.measure === measure) return m.uncertainty;
   const r = storedRatio(m);
@@ -105,7 +125,8 @@ export function uncertaintyAs(m: Pick<Measurement, 'measure' | 'value' | 'valueB
   const from = kind(m.measure);
   const to = kind(measure);
   if (from === to) return m.uncertainty;
-  const sigmaLn = from === 'ee' ? (2 * (m.uncertainty / 100)) / (1 - e * e) : from === 'p' ? m.uncertainty / 100 / (p * (1 - p)) : m.uncertainty;
+  const sigmaLn =
+    from === 'ee' ? (2 * (m.uncertainty / 100)) / (1 - e * e) : from === 'p' ? m.uncertainty / 100 / (p * (1 - p)) : m.uncertainty;
   return to === 'ee' ? (100 * sigmaLn * (1 - e * e)) / 2 : to === 'p' ? 100 * sigmaLn * p * (1 - p) : sigmaLn;
 }
 
@@ -126,7 +147,10 @@ export function cellsFromMeasurement(m: Measurement, units: ColumnUnits): GridCe
 
 /** Which grid column an API or zod field path belongs to (null: not a cell). */
 export function columnOfPath(path: string): GridColumn | null {
-  const head = path.replace(/\[(\d+)\]/g, '.$1').replace(/^\./, '').split('.')[0];
+  const head = path
+    .replace(/\[(\d+)\]/g, '.$1')
+    .replace(/^\./, '')
+    .split('.')[0];
   switch (head) {
     case 'temperature':
       return 'temperature';
@@ -172,7 +196,8 @@ export function rowToCreate(cells: GridCells, units: ColumnUnits): { body: Measu
     input.selectivity = { measure: units.measure, value: valueText.replace(/\s+/g, ''), ...(atLeast ? { atLeast } : {}) };
   } else {
     const v = parseNumber(valueText);
-    if (v === 'invalid' || v === null) errors.value = `“${valueText}” is not a number${units.measure === 'er' || units.measure === 'dr' ? ' or a ratio a:b' : ''}`;
+    if (v === 'invalid' || v === null)
+      errors.value = `“${valueText}” is not a number${units.measure === 'er' || units.measure === 'dr' ? ' or a ratio a:b' : ''}`;
     else input.selectivity = { measure: units.measure, value: v, ...(atLeast ? { atLeast } : {}) };
   }
 
@@ -200,7 +225,11 @@ export function rowToCreate(cells: GridCells, units: ColumnUnits): { body: Measu
 
 /** The PATCH body for a stored row: only the fields whose cells changed, with the version read. */
 /** The changed fields of a stored row with its version; the caller adds the reason for the change. */
-export function rowToUpdate(m: Measurement, cells: GridCells, units: ColumnUnits): { body: Omit<MeasurementUpdate, 'reason'> | null; errors: CellErrors } {
+export function rowToUpdate(
+  m: Measurement,
+  cells: GridCells,
+  units: ColumnUnits,
+): { body: Omit<MeasurementUpdate, 'reason'> | null; errors: CellErrors } {
   const { body, errors } = rowToCreate(cells, units);
   if (!body) return { body: null, errors };
   const before = cellsFromMeasurement(m, units);
@@ -227,7 +256,10 @@ export function rowToUpdate(m: Measurement, cells: GridCells, units: ColumnUnits
  * tab or semicolon, where a comma is a decimal comma.
  */
 export function parsePastedBlock(text: string): string[][] | null {
-  const lines = text.replace(/\r\n?/g, '\n').split('\n').filter((l) => l.trim() !== '');
+  const lines = text
+    .replace(/\r\n?/g, '\n')
+    .split('\n')
+    .filter((l) => l.trim() !== '');
   if (lines.length === 0) return null;
   if (lines.length === 1 && !/[\t;]/.test(lines[0])) return null;
   const table = readPastedTable(text);

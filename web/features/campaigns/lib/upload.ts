@@ -29,7 +29,14 @@ export function postWithProgress<T>(
     xhr.upload.onprogress = (e) => options.onProgress?.({ loaded: e.loaded, total: e.lengthComputable ? e.total : 0, phase: 'sending' });
     xhr.upload.onload = () => options.onProgress?.({ loaded: 1, total: 1, phase: 'processing' });
     xhr.onerror = () =>
-      reject(new ApiError({ type: 'network', title: 'No connection', status: 0, detail: 'The upload did not reach the server. Check the connection and try again.' }));
+      reject(
+        new ApiError({
+          type: 'network',
+          title: 'No connection',
+          status: 0,
+          detail: 'The upload did not reach the server. Check the connection and try again.',
+        }),
+      );
     xhr.onabort = () => reject(new ApiError({ type: 'aborted', title: 'Cancelled', status: 0, detail: 'The upload was cancelled.' }));
     xhr.onload = () => {
       let data: unknown;

@@ -18,13 +18,18 @@ function Problem({ error, token }: { error: Error; token: string }) {
   const signOut = useSignOut();
   const navigate = useNavigate();
   const code = error instanceof ApiError ? String(error.problem.code ?? '') : '';
-  const heading = headings[code] ?? (error instanceof ApiError && error.status === 404 ? 'This invitation link is not valid' : 'The invitation could not be opened');
+  const heading =
+    headings[code] ??
+    (error instanceof ApiError && error.status === 404 ? 'This invitation link is not valid' : 'The invitation could not be opened');
   return (
     <div role="alert">
       <h2 className="text-lg font-semibold text-ink-950">{heading}</h2>
       <p className="mt-1 text-sm text-ink-700">{error.message}</p>
       {code === 'invitation-wrong-account' && (
-        <Button className="mt-3" onClick={() => signOut.mutate(undefined, { onSuccess: () => navigate(paths.signIn.getHref(paths.invitation.getHref(token))) })}>
+        <Button
+          className="mt-3"
+          onClick={() => signOut.mutate(undefined, { onSuccess: () => navigate(paths.signIn.getHref(paths.invitation.getHref(token))) })}
+        >
           Sign out and sign in with the invited account
         </Button>
       )}
@@ -36,21 +41,37 @@ export function InvitationCard({ token }: { token: string }) {
   const invitation = useInvitation(token, true);
   const accept = useAcceptInvitation(token);
   const navigate = useNavigate();
-  if (invitation.isPending) return <Panel><p className="text-sm text-ink-500">Checking the invitation…</p></Panel>;
-  if (invitation.isError) return <Panel><Problem error={invitation.error} token={token} /></Panel>;
+  if (invitation.isPending)
+    return (
+      <Panel>
+        <p className="text-sm text-ink-500">Checking the invitation…</p>
+      </Panel>
+    );
+  if (invitation.isError)
+    return (
+      <Panel>
+        <Problem error={invitation.error} token={token} />
+      </Panel>
+    );
   const i = invitation.data;
   return (
     <Panel>
       <h2 className="text-lg font-semibold text-ink-950">Join “{i.projectName}”</h2>
       <p className="mt-1 text-sm text-ink-700">
-        {i.invitedBy ? `${i.invitedBy.displayName ?? i.invitedBy.login} invited` : 'You were invited as'} <span className="font-mono">{i.email}</span> to join as{' '}
-        <RoleBadge role={i.role} /> ({roleMeaning[i.role]}).
+        {i.invitedBy ? `${i.invitedBy.displayName ?? i.invitedBy.login} invited` : 'You were invited as'}{' '}
+        <span className="font-mono">{i.email}</span> to join as <RoleBadge role={i.role} /> ({roleMeaning[i.role]}).
       </p>
       {accept.isError ? (
-        <div className="mt-3"><Problem error={accept.error} token={token} /></div>
+        <div className="mt-3">
+          <Problem error={accept.error} token={token} />
+        </div>
       ) : (
         <div className="mt-4 flex gap-3">
-          <Button variant="primary" disabled={accept.isPending} onClick={() => accept.mutate(undefined, { onSuccess: (r) => navigate(paths.project.getHref(r.projectId)) })}>
+          <Button
+            variant="primary"
+            disabled={accept.isPending}
+            onClick={() => accept.mutate(undefined, { onSuccess: (r) => navigate(paths.project.getHref(r.projectId)) })}
+          >
             Accept and join
           </Button>
           <Link className="self-center text-sm text-fjord-700 underline" to={paths.projects.getHref()}>

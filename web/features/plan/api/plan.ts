@@ -35,7 +35,8 @@ export const useCampaignSpecification = (campaignId: string) =>
 
 export const getCampaignPlan = (campaignId: string) =>
   api<{ plan: unknown }>(`/api/v1/campaigns/${campaignId}/plan`).then((d) => (d.plan ? campaignPlanSchema.parse(d.plan) : null));
-export const useCampaignPlan = (campaignId: string) => useQuery(queryOptions({ queryKey: planKeys.stored(campaignId), queryFn: () => getCampaignPlan(campaignId) }));
+export const useCampaignPlan = (campaignId: string) =>
+  useQuery(queryOptions({ queryKey: planKeys.stored(campaignId), queryFn: () => getCampaignPlan(campaignId) }));
 
 /**
  * Keep the specification as the campaign's own (when it changed), then plan from the stored runs and
@@ -47,9 +48,16 @@ export function useSavePlan(campaignId: string) {
     mutationFn: async (v: { specification: SpecificationInput; inputs: PlanInputsBody }) => {
       const specs = await getCampaignSpecification(campaignId);
       const current = specs.campaign;
-      const same = current && current.measure === v.specification.measure && current.minimum === v.specification.minimum && current.probability === v.specification.probability;
+      const same =
+        current &&
+        current.measure === v.specification.measure &&
+        current.minimum === v.specification.minimum &&
+        current.probability === v.specification.probability;
       if (!same) {
-        await api(`/api/v1/campaigns/${campaignId}/specification`, { method: 'PUT', body: { ...v.specification, ...(current ? { version: current.version } : {}) } });
+        await api(`/api/v1/campaigns/${campaignId}/specification`, {
+          method: 'PUT',
+          body: { ...v.specification, ...(current ? { version: current.version } : {}) },
+        });
       }
       const stored = await getCampaignPlan(campaignId);
       const res = await api<{ plan: unknown }>(`/api/v1/campaigns/${campaignId}/plan`, {
@@ -62,12 +70,14 @@ export function useSavePlan(campaignId: string) {
   });
 }
 
-export const getComparison = (comparisonId: string) => api<unknown>(`/api/v1/comparisons/${comparisonId}`).then((d) => comparisonSchema.parse(d));
+export const getComparison = (comparisonId: string) =>
+  api<unknown>(`/api/v1/comparisons/${comparisonId}`).then((d) => comparisonSchema.parse(d));
 export const useComparison = (comparisonId: string) =>
   useQuery(queryOptions({ queryKey: planKeys.comparison(comparisonId), queryFn: () => getComparison(comparisonId) }));
 
 export function useCreateComparison() {
   return useMutation({
-    mutationFn: (body: ComparisonCreate) => api<unknown>('/api/v1/comparisons', { method: 'POST', body }).then((d) => comparisonSchema.parse(d)),
+    mutationFn: (body: ComparisonCreate) =>
+      api<unknown>('/api/v1/comparisons', { method: 'POST', body }).then((d) => comparisonSchema.parse(d)),
   });
 }

@@ -26,9 +26,28 @@ interface Datum {
 export function EyringOverlay({ result }: { result: ComparisonView['result'] }) {
   const [ref, width] = useElementWidth<HTMLDivElement>();
   const shown = result.campaigns.filter((c) => c.fit);
-  const all = shown.flatMap((c) => [...c.fit!.eyring.map((p) => ({ x: 1000 * p.inverseKelvin, y: p.lnRatio })), ...c.fit!.curve.map((p) => ({ x: 1000 / p.kelvin, y: p.lnRatio }))]);
-  const xDomain = useMemo(() => paddedExtent(all.map((p) => p.x), 0.04, 0.1), [all]);
-  const yDomain = useMemo(() => paddedExtent(all.map((p) => p.y), 0.06, 0.5), [all]);
+  const all = shown.flatMap((c) => [
+    ...c.fit!.eyring.map((p) => ({ x: 1000 * p.inverseKelvin, y: p.lnRatio })),
+    ...c.fit!.curve.map((p) => ({ x: 1000 / p.kelvin, y: p.lnRatio })),
+  ]);
+  const xDomain = useMemo(
+    () =>
+      paddedExtent(
+        all.map((p) => p.x),
+        0.04,
+        0.1,
+      ),
+    [all],
+  );
+  const yDomain = useMemo(
+    () =>
+      paddedExtent(
+        all.map((p) => p.y),
+        0.06,
+        0.5,
+      ),
+    [all],
+  );
   return (
     <figure className="m-0">
       <div ref={ref} className="w-full" data-testid="comparison-eyring">
@@ -46,7 +65,9 @@ export function EyringOverlay({ result }: { result: ComparisonView['result'] }) 
             {shown.map((c, i) => {
               const color = COLORS[i % COLORS.length]!;
               const line: Datum[] = c.fit!.curve.map((p) => ({ x: 1000 / p.kelvin, y: p.lnRatio }));
-              const runs: Datum[] = c.fit!.eyring.filter((p) => p.status === 'fitted').map((p) => ({ x: 1000 * p.inverseKelvin, y: p.lnRatio }));
+              const runs: Datum[] = c
+                .fit!.eyring.filter((p) => p.status === 'fitted')
+                .map((p) => ({ x: 1000 * p.inverseKelvin, y: p.lnRatio }));
               const band = c.fit!.curve.map((p) => ({ x: 1000 / p.kelvin, lo: p.lnInterval[0], hi: p.lnInterval[1] }));
               return (
                 <g key={c.id}>
@@ -61,7 +82,15 @@ export function EyringOverlay({ result }: { result: ComparisonView['result'] }) 
                     fillOpacity={0.14}
                     enableEvents={false}
                   />
-                  <LineSeries dataKey={`${c.id}-line`} data={line} xAccessor={(d) => d.x} yAccessor={(d) => d.y} stroke={color} strokeWidth={2} strokeDasharray={DASHES[i] || undefined} />
+                  <LineSeries
+                    dataKey={`${c.id}-line`}
+                    data={line}
+                    xAccessor={(d) => d.x}
+                    yAccessor={(d) => d.y}
+                    stroke={color}
+                    strokeWidth={2}
+                    strokeDasharray={DASHES[i] || undefined}
+                  />
                   <GlyphSeries
                     dataKey={`${c.id}-runs`}
                     data={runs}
@@ -72,8 +101,23 @@ export function EyringOverlay({ result }: { result: ComparisonView['result'] }) 
                 </g>
               );
             })}
-            <Axis orientation="bottom" numTicks={6} label="1000/T (K⁻¹)" labelProps={axisLabelProps} tickLabelProps={tickLabelProps} tickFormat={(v) => fixed(Number(v), 2)} />
-            <Axis orientation="left" numTicks={5} label="ln r" labelOffset={36} labelProps={axisLabelProps} tickLabelProps={tickLabelProps} tickFormat={(v) => fixed(Number(v), 1)} />
+            <Axis
+              orientation="bottom"
+              numTicks={6}
+              label="1000/T (K⁻¹)"
+              labelProps={axisLabelProps}
+              tickLabelProps={tickLabelProps}
+              tickFormat={(v) => fixed(Number(v), 2)}
+            />
+            <Axis
+              orientation="left"
+              numTicks={5}
+              label="ln r"
+              labelOffset={36}
+              labelProps={axisLabelProps}
+              tickLabelProps={tickLabelProps}
+              tickFormat={(v) => fixed(Number(v), 1)}
+            />
           </XYChart>
         )}
       </div>
@@ -82,7 +126,15 @@ export function EyringOverlay({ result }: { result: ComparisonView['result'] }) 
           {shown.map((c, i) => (
             <li key={c.id} className="flex items-center gap-1.5">
               <svg width="18" height="12" aria-hidden="true">
-                <line x1="1" x2="17" y1="6" y2="6" stroke={COLORS[i % COLORS.length]} strokeWidth={2} strokeDasharray={DASHES[i] || undefined} />
+                <line
+                  x1="1"
+                  x2="17"
+                  y1="6"
+                  y2="6"
+                  stroke={COLORS[i % COLORS.length]}
+                  strokeWidth={2}
+                  strokeDasharray={DASHES[i] || undefined}
+                />
                 <Marker shape={SHAPES[i]!} x={9} y={6} color={COLORS[i % COLORS.length]!} />
               </svg>
               {c.title}

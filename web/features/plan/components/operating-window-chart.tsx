@@ -49,9 +49,22 @@ function Excluded({ regions, labelled }: { regions: { from: number; to: number; 
         const w = Math.abs(x1 - x0);
         return (
           <g key={i}>
-            <rect x={Math.min(x0, x1)} y={area.margin.top} width={w} height={area.innerHeight} fill={`url(#hatch-${id})`} fillOpacity={0.55} />
+            <rect
+              x={Math.min(x0, x1)}
+              y={area.margin.top}
+              width={w}
+              height={area.innerHeight}
+              fill={`url(#hatch-${id})`}
+              fillOpacity={0.55}
+            />
             {labelled && w > 70 && (
-              <text x={Math.min(x0, x1) + 4} y={area.margin.top + area.innerHeight - 6} fontFamily={chartFont} fontSize={11} fill={chartColors.inkSoft}>
+              <text
+                x={Math.min(x0, x1) + 4}
+                y={area.margin.top + area.innerHeight - 6}
+                fontFamily={chartFont}
+                fontSize={11}
+                fill={chartColors.inkSoft}
+              >
                 {r.label}
               </text>
             )}
@@ -69,7 +82,15 @@ function Band({ points }: { points: { x: number; lo: number; hi: number }[] }) {
   const ok = points.filter((p) => [p.x, p.lo, p.hi].every(Number.isFinite));
   const top = ok.map((p) => `${area.x(p.x)},${area.y(p.hi)}`);
   const bottom = ok.map((p) => `${area.x(p.x)},${area.y(p.lo)}`).reverse();
-  return <path d={`M${top.join('L')}L${bottom.join('L')}Z`} fill={chartColors.predictionFill} fillOpacity={0.35} stroke="none" pointerEvents="none" />;
+  return (
+    <path
+      d={`M${top.join('L')}L${bottom.join('L')}Z`}
+      fill={chartColors.predictionFill}
+      fillOpacity={0.35}
+      stroke="none"
+      pointerEvents="none"
+    />
+  );
 }
 
 interface PanelProps {
@@ -87,13 +108,36 @@ interface PanelProps {
   testId: string;
 }
 
-function WindowPanel({ title, yLabel, line, band, rule, regions, recommended, yScale = 'linear', yDomain: fixedDomain, formatY, labelled = false, testId }: PanelProps) {
+function WindowPanel({
+  title,
+  yLabel,
+  line,
+  band,
+  rule,
+  regions,
+  recommended,
+  yScale = 'linear',
+  yDomain: fixedDomain,
+  formatY,
+  labelled = false,
+  testId,
+}: PanelProps) {
   const [ref, width] = useElementWidth<HTMLDivElement>();
   const data = line.filter((p) => Number.isFinite(p.y) && (yScale === 'linear' || p.y > 0));
-  const xDomain = useMemo(() => paddedExtent(data.map((p) => p.x), 0, 5), [data]);
+  const xDomain = useMemo(
+    () =>
+      paddedExtent(
+        data.map((p) => p.x),
+        0,
+        5,
+      ),
+    [data],
+  );
   const yDomain = useMemo<[number, number]>(() => {
     if (fixedDomain) return fixedDomain;
-    const ys = [...data.map((p) => p.y), ...(band ?? []).flatMap((b) => [b.lo, b.hi]), ...(rule ? [rule.y] : [])].filter((v) => Number.isFinite(v) && (yScale === 'linear' || v > 0));
+    const ys = [...data.map((p) => p.y), ...(band ?? []).flatMap((b) => [b.lo, b.hi]), ...(rule ? [rule.y] : [])].filter(
+      (v) => Number.isFinite(v) && (yScale === 'linear' || v > 0),
+    );
     if (yScale === 'log') {
       const lo = 10 ** Math.floor(Math.log10(Math.min(...ys)));
       const hi = 10 ** Math.ceil(Math.log10(Math.max(...ys)));
@@ -112,13 +156,24 @@ function WindowPanel({ title, yLabel, line, band, rule, regions, recommended, yS
             margin={{ top: 14, right: 16, bottom: 46, left: 70 }}
             theme={chartTheme}
             xScale={{ type: 'linear', domain: xDomain, zero: false }}
-            yScale={yScale === 'log' ? { type: 'log', domain: yDomain, clamp: true } : { type: 'linear', domain: yDomain, zero: false, nice: true }}
+            yScale={
+              yScale === 'log'
+                ? { type: 'log', domain: yDomain, clamp: true }
+                : { type: 'linear', domain: yDomain, zero: false, nice: true }
+            }
             accessibilityLabel={title}
           >
             <Grid columns={false} numTicks={4} lineStyle={{ stroke: chartColors.grid }} />
             <Excluded regions={regions} labelled={labelled} />
             {band && <Band points={band} />}
-            <LineSeries dataKey={testId} data={data} xAccessor={(d) => d.x} yAccessor={(d) => d.y} stroke={chartColors.accent} strokeWidth={2} />
+            <LineSeries
+              dataKey={testId}
+              data={data}
+              xAccessor={(d) => d.x}
+              yAccessor={(d) => d.y}
+              stroke={chartColors.accent}
+              strokeWidth={2}
+            />
             {rule && <HorizontalRule y={rule.y} label={rule.label} />}
             {recommended !== null && <VerticalMark x={recommended} label={`▼ recommended ${fixed(recommended, 1)} °C`} />}
             <CelsiusAxis />
@@ -184,7 +239,9 @@ export function OperatingWindowChart({ result, maxTimeHours }: { result: PlanRes
           yLabel="hours"
           yScale="log"
           line={curve.filter((p) => p.timeToTarget).map((p) => ({ x: p.celsius, y: p.timeToTarget!.s / 3600 }))}
-          band={curve.filter((p) => p.timeBandSeconds).map((p) => ({ x: p.celsius, lo: p.timeBandSeconds![0] / 3600, hi: p.timeBandSeconds![1] / 3600 }))}
+          band={curve
+            .filter((p) => p.timeBandSeconds)
+            .map((p) => ({ x: p.celsius, lo: p.timeBandSeconds![0] / 3600, hi: p.timeBandSeconds![1] / 3600 }))}
           {...(maxTimeHours ? { rule: { y: maxTimeHours, label: `longest allowed ${sig(maxTimeHours, 3)} h` } } : {})}
           regions={regions}
           recommended={rec}

@@ -28,7 +28,10 @@ interface FormState {
 
 const num = (s: string) => (s.trim() === '' ? undefined : Number(s.replace(',', '.')));
 
-function fromPlan(plan: CampaignPlan | null | undefined, spec: { measure: Measure; minimum: number; probability: number } | null | undefined): FormState {
+function fromPlan(
+  plan: CampaignPlan | null | undefined,
+  spec: { measure: Measure; minimum: number; probability: number } | null | undefined,
+): FormState {
   const i = plan?.inputs;
   const hold = i?.hold;
   return {
@@ -55,11 +58,17 @@ function toInputs(f: FormState): PlanInputsBody {
     temperatures: { from: { value: num(f.fromC) ?? Number.NaN, unit: 'C' }, to: { value: num(f.toC) ?? Number.NaN, unit: 'C' } },
     rule: f.rule,
     curvePoints: 121,
-    ...(maxTime !== undefined ? { rate: { targetConversionPercent: num(f.targetConversion) ?? Number.NaN, maxTime: { value: maxTime, unit: 'h' } } } : {}),
+    ...(maxTime !== undefined
+      ? { rate: { targetConversionPercent: num(f.targetConversion) ?? Number.NaN, maxTime: { value: maxTime, unit: 'h' } } }
+      : {}),
     ...(holdH !== undefined
       ? {
           hold: {
-            barrier: { kind: 'gibbs', dG: { value: num(f.holdBarrier) ?? Number.NaN, unit: 'kcal/mol' }, temperature: { value: 25, unit: 'C' } },
+            barrier: {
+              kind: 'gibbs',
+              dG: { value: num(f.holdBarrier) ?? Number.NaN, unit: 'kcal/mol' },
+              temperature: { value: 25, unit: 'C' },
+            },
             time: { value: holdH, unit: 'h' },
             floorEePercent: num(f.holdFloor) ?? Number.NaN,
           },
@@ -90,7 +99,8 @@ function PlanSummary({ plan }: { plan: CampaignPlan }) {
         <div className="rounded-md border border-fjord-200 bg-fjord-50 px-3 py-2">
           <p className="text-sm text-ink-700">Recommended temperature</p>
           <p className="tnum text-2xl font-semibold text-ink-950" data-testid="recommended">
-            {fixed(r.recommended.celsius, 1)} °C <span className="text-base font-normal text-ink-600">({fixed(r.recommended.kelvin, 2)} K)</span>
+            {fixed(r.recommended.celsius, 1)} °C{' '}
+            <span className="text-base font-normal text-ink-600">({fixed(r.recommended.kelvin, 2)} K)</span>
           </p>
           <p className="tnum text-sm text-ink-700">
             Probability that the next run meets the specification: {fixed(100 * r.recommended.probabilityMeetsSpec, 1)} %
@@ -98,7 +108,11 @@ function PlanSummary({ plan }: { plan: CampaignPlan }) {
           <p className="mt-1 text-xs text-ink-600">Rule: {r.rule.text}</p>
         </div>
       ) : (
-        <div role="status" className="rounded-md border border-rose-300 bg-rose-50 px-3 py-2 text-sm text-rose-900" data-testid="no-recommendation">
+        <div
+          role="status"
+          className="rounded-md border border-rose-300 bg-rose-50 px-3 py-2 text-sm text-rose-900"
+          data-testid="no-recommendation"
+        >
           <p className="font-medium">✕ No temperature in the allowed range meets every constraint.</p>
           {r.conflict && <p className="mt-1">{r.conflict.message}</p>}
           {r.resolutions.length > 0 && (
@@ -121,15 +135,16 @@ function PlanSummary({ plan }: { plan: CampaignPlan }) {
           <>
             <dt className="text-ink-600">Next runs</dt>
             <dd>
-              {r.nextRuns.temperatures.map((t) => `${fixed(t.celsius, 0)} °C`).join(', ')} — interval for one new run at {fixed(r.nextRuns.at.celsius, 1)} °C narrows from ±
-              {sig(r.nextRuns.halfWidthBefore, 2)} to ±{sig(r.nextRuns.halfWidthAfter, 2)} in ln r
+              {r.nextRuns.temperatures.map((t) => `${fixed(t.celsius, 0)} °C`).join(', ')} — interval for one new run at{' '}
+              {fixed(r.nextRuns.at.celsius, 1)} °C narrows from ±{sig(r.nextRuns.halfWidthBefore, 2)} to ±
+              {sig(r.nextRuns.halfWidthAfter, 2)} in ln r
             </dd>
           </>
         )}
         <dt className="text-ink-600">Model</dt>
         <dd>
-          straight line ln r on 1/T, {r.model.n} runs from {fixed(r.model.fromKelvin - 273.15, 0)} to {fixed(r.model.toKelvin - 273.15, 0)} °C; saved plan version{' '}
-          {plan.version}
+          straight line ln r on 1/T, {r.model.n} runs from {fixed(r.model.fromKelvin - 273.15, 0)} to {fixed(r.model.toKelvin - 273.15, 0)}{' '}
+          °C; saved plan version {plan.version}
         </dd>
       </dl>
       {r.warnings.length > 0 && (
@@ -172,7 +187,12 @@ export function PlannerPanel({ campaignId, projectId, canEdit }: { campaignId: s
           <div className="flex flex-wrap items-end gap-3">
             <div className="flex flex-col gap-1">
               <span className="text-xs font-medium text-ink-700">Specification measure</span>
-              <select aria-label="Specification measure" className={selectClass} value={form.measure} onChange={(e) => setForm({ ...form, measure: e.target.value as Measure })}>
+              <select
+                aria-label="Specification measure"
+                className={selectClass}
+                value={form.measure}
+                onChange={(e) => setForm({ ...form, measure: e.target.value as Measure })}
+              >
                 {MEASURES.map((m) => (
                   <option key={m.value} value={m.value}>
                     {m.label}
@@ -181,17 +201,82 @@ export function PlannerPanel({ campaignId, projectId, canEdit }: { campaignId: s
               </select>
             </div>
             <NumberField label="Minimum" path="minimum" value={form.minimum} onChange={set('minimum')} errors={errors} width="w-24" />
-            <NumberField label="Required probability" path="probability" value={form.probability} onChange={set('probability')} errors={errors} width="w-20" hint="0.5–0.999" />
-            <NumberField label="Coldest jacket (°C)" path="temperatures.from" value={form.fromC} onChange={set('fromC')} errors={errors} width="w-20" />
-            <NumberField label="Warmest jacket (°C)" path="temperatures.to" value={form.toC} onChange={set('toC')} errors={errors} width="w-20" />
+            <NumberField
+              label="Required probability"
+              path="probability"
+              value={form.probability}
+              onChange={set('probability')}
+              errors={errors}
+              width="w-20"
+              hint="0.5–0.999"
+            />
+            <NumberField
+              label="Coldest jacket (°C)"
+              path="temperatures.from"
+              value={form.fromC}
+              onChange={set('fromC')}
+              errors={errors}
+              width="w-20"
+            />
+            <NumberField
+              label="Warmest jacket (°C)"
+              path="temperatures.to"
+              value={form.toC}
+              onChange={set('toC')}
+              errors={errors}
+              width="w-20"
+            />
           </div>
           <div className="flex flex-wrap items-end gap-3">
-            <NumberField label="Longest reaction time (h)" path="rate.maxTime" value={form.maxTimeH} onChange={set('maxTimeH')} errors={errors} width="w-20" hint="uses the runs' conversion and time" />
-            <NumberField label="Target conversion (%)" path="rate.targetConversionPercent" value={form.targetConversion} onChange={set('targetConversion')} errors={errors} width="w-20" />
-            <NumberField label="Hold before isolation (h)" path="hold.time" value={form.holdH} onChange={set('holdH')} errors={errors} width="w-20" />
-            <NumberField label="Racemization ΔG‡ (kcal/mol)" path="hold.barrier" value={form.holdBarrier} onChange={set('holdBarrier')} errors={errors} width="w-20" />
-            <NumberField label="ee floor after hold (%)" path="hold.floorEePercent" value={form.holdFloor} onChange={set('holdFloor')} errors={errors} width="w-20" />
-            <NumberField label="Next runs to suggest" path="nextRuns.count" value={form.nextRuns} onChange={set('nextRuns')} errors={errors} width="w-16" />
+            <NumberField
+              label="Longest reaction time (h)"
+              path="rate.maxTime"
+              value={form.maxTimeH}
+              onChange={set('maxTimeH')}
+              errors={errors}
+              width="w-20"
+              hint="uses the runs' conversion and time"
+            />
+            <NumberField
+              label="Target conversion (%)"
+              path="rate.targetConversionPercent"
+              value={form.targetConversion}
+              onChange={set('targetConversion')}
+              errors={errors}
+              width="w-20"
+            />
+            <NumberField
+              label="Hold before isolation (h)"
+              path="hold.time"
+              value={form.holdH}
+              onChange={set('holdH')}
+              errors={errors}
+              width="w-20"
+            />
+            <NumberField
+              label="Racemization ΔG‡ (kcal/mol)"
+              path="hold.barrier"
+              value={form.holdBarrier}
+              onChange={set('holdBarrier')}
+              errors={errors}
+              width="w-20"
+            />
+            <NumberField
+              label="ee floor after hold (%)"
+              path="hold.floorEePercent"
+              value={form.holdFloor}
+              onChange={set('holdFloor')}
+              errors={errors}
+              width="w-20"
+            />
+            <NumberField
+              label="Next runs to suggest"
+              path="nextRuns.count"
+              value={form.nextRuns}
+              onChange={set('nextRuns')}
+              errors={errors}
+              width="w-16"
+            />
           </div>
           <div className="flex flex-wrap items-end gap-3">
             <Segmented<Rule>
@@ -225,7 +310,11 @@ export function PlannerPanel({ campaignId, projectId, canEdit }: { campaignId: s
           <OperatingWindowChart result={plan.data.result} maxTimeHours={plan.data.inputs.rate?.maxTime?.value ?? null} />
         </>
       ) : (
-        plan.isSuccess && <p className="text-sm text-ink-600">No plan saved yet{canEdit ? ': set a specification and the plant limits, then plan.' : '.'}</p>
+        plan.isSuccess && (
+          <p className="text-sm text-ink-600">
+            No plan saved yet{canEdit ? ': set a specification and the plant limits, then plan.' : '.'}
+          </p>
+        )
       )}
     </div>
   );

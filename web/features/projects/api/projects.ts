@@ -42,7 +42,10 @@ export const updateProject = (id: string, body: { name?: string; description?: s
   api<{ project: Project }>(`/api/v1/projects/${id}`, { method: 'PATCH', body }).then((r) => r.project);
 export function useUpdateProject(id: string) {
   const client = useQueryClient();
-  return useMutation({ mutationFn: (body: { name?: string; description?: string; version: number }) => updateProject(id, body), onSuccess: () => client.invalidateQueries({ queryKey: projectKeys.all }) });
+  return useMutation({
+    mutationFn: (body: { name?: string; description?: string; version: number }) => updateProject(id, body),
+    onSuccess: () => client.invalidateQueries({ queryKey: projectKeys.all }),
+  });
 }
 
 export const deleteProject = (id: string) => api<void>(`/api/v1/projects/${id}`, { method: 'DELETE' });

@@ -22,7 +22,14 @@ export function CreateProjectForm() {
       }}
     >
       <TextField name="name" label="Name" value={form.values.name} onChange={form.set('name')} error={form.errors.name} />
-      <TextField name="description" label="Description" value={form.values.description ?? ''} onChange={form.set('description')} error={form.errors.description} hint="Optional: the step, the specification, the team." />
+      <TextField
+        name="description"
+        label="Description"
+        value={form.values.description ?? ''}
+        onChange={form.set('description')}
+        error={form.errors.description}
+        hint="Optional: the step, the specification, the team."
+      />
       <FormAlert>{form.formError}</FormAlert>
       <div>
         <Button type="submit" variant="primary" disabled={create.isPending}>

@@ -28,13 +28,23 @@ function DetailsForm({ project }: { project: Project }) {
       }}
     >
       <TextField name="name" label="Name" value={form.values.name ?? ''} onChange={form.set('name')} error={form.errors.name} />
-      <TextField name="description" label="Description" value={form.values.description ?? ''} onChange={form.set('description')} error={form.errors.description} />
+      <TextField
+        name="description"
+        label="Description"
+        value={form.values.description ?? ''}
+        onChange={form.set('description')}
+        error={form.errors.description}
+      />
       <FormAlert>{form.formError}</FormAlert>
       <div className="flex items-center gap-3">
         <Button type="submit" variant="primary" disabled={update.isPending}>
           Save details
         </Button>
-        {update.isSuccess && <span role="status" className="text-sm text-fjord-700">✓ Saved</span>}
+        {update.isSuccess && (
+          <span role="status" className="text-sm text-fjord-700">
+            ✓ Saved
+          </span>
+        )}
       </div>
     </form>
   );
@@ -50,7 +60,12 @@ function Members({ project, myId }: { project: Project; myId: string }) {
   const isOwner = project.role === 'owner';
   const onError = (e: Error) => setProblem(e.message);
   if (members.isPending) return <p className="text-sm text-ink-500">Loading members…</p>;
-  if (members.isError) return <p role="alert" className="text-sm text-rose-700">{members.error.message}</p>;
+  if (members.isError)
+    return (
+      <p role="alert" className="text-sm text-rose-700">
+        {members.error.message}
+      </p>
+    );
   return (
     <>
       <FormAlert>{problem}</FormAlert>
@@ -58,10 +73,18 @@ function Members({ project, myId }: { project: Project; myId: string }) {
         <caption className="sr-only">Members of {project.name}</caption>
         <thead className="border-b border-slate-200 text-xs uppercase tracking-wide text-ink-500">
           <tr>
-            <th scope="col" className="py-2 pr-3 font-semibold">Person</th>
-            <th scope="col" className="py-2 pr-3 font-semibold">Role</th>
-            <th scope="col" className="py-2 pr-3 font-semibold">Since</th>
-            <th scope="col" className="py-2 font-semibold"><span className="sr-only">Actions</span></th>
+            <th scope="col" className="py-2 pr-3 font-semibold">
+              Person
+            </th>
+            <th scope="col" className="py-2 pr-3 font-semibold">
+              Role
+            </th>
+            <th scope="col" className="py-2 pr-3 font-semibold">
+              Since
+            </th>
+            <th scope="col" className="py-2 font-semibold">
+              <span className="sr-only">Actions</span>
+            </th>
           </tr>
         </thead>
         <tbody>
@@ -70,7 +93,10 @@ function Members({ project, myId }: { project: Project; myId: string }) {
               <td className="py-2 pr-3">
                 <span className="font-medium">{m.displayName ?? m.login}</span>
                 {m.userId === myId && <span className="ml-1 text-xs text-ink-500">(you)</span>}
-                <span className="block font-mono text-xs text-ink-500">{m.login}{m.email ? ` · ${m.email}` : ''}</span>
+                <span className="block font-mono text-xs text-ink-500">
+                  {m.login}
+                  {m.email ? ` · ${m.email}` : ''}
+                </span>
               </td>
               <td className="py-2 pr-3">
                 {isOwner ? (
@@ -112,7 +138,8 @@ function Members({ project, myId }: { project: Project; myId: string }) {
                       aria-label={`Remove ${m.displayName ?? m.login}`}
                       onClick={() => {
                         setProblem(null);
-                        if (window.confirm(`Remove ${m.displayName ?? m.login} from “${project.name}”?`)) remove.mutate(m.userId, { onError });
+                        if (window.confirm(`Remove ${m.displayName ?? m.login} from “${project.name}”?`))
+                          remove.mutate(m.userId, { onError });
                       }}
                     >
                       Remove
@@ -157,23 +184,46 @@ function Invitations({ project }: { project: Project }) {
           });
         }}
       >
-        <TextField name="email" type="email" inputMode="email" label="E-mail address" value={form.values.email} onChange={form.set('email')} error={form.errors.email} />
-        <SelectField name="role" label="Role" value={form.values.role as ProjectRole} options={roleOptions} onChange={form.set('role')} error={form.errors.role} />
+        <TextField
+          name="email"
+          type="email"
+          inputMode="email"
+          label="E-mail address"
+          value={form.values.email}
+          onChange={form.set('email')}
+          error={form.errors.email}
+        />
+        <SelectField
+          name="role"
+          label="Role"
+          value={form.values.role as ProjectRole}
+          options={roleOptions}
+          onChange={form.set('role')}
+          error={form.errors.role}
+        />
         <FormAlert>{form.formError}</FormAlert>
         <div className="flex items-center gap-3">
           <Button type="submit" variant="primary" disabled={create.isPending}>
             Send invitation
           </Button>
-          {sentTo && <span role="status" className="text-sm text-fjord-700">✓ Sent to {sentTo}</span>}
+          {sentTo && (
+            <span role="status" className="text-sm text-fjord-700">
+              ✓ Sent to {sentTo}
+            </span>
+          )}
         </div>
-        <p className="text-xs text-ink-500">The e-mail holds a link that works once and expires after 7 days. Only someone signed in with that address can accept it.</p>
+        <p className="text-xs text-ink-500">
+          The e-mail holds a link that works once and expires after 7 days. Only someone signed in with that address can accept it.
+        </p>
       </form>
       <div>
         <h3 className="text-sm font-semibold text-ink-800">Pending invitations</h3>
         {invitations.isPending ? (
           <p className="text-sm text-ink-500">Loading…</p>
         ) : invitations.isError ? (
-          <p role="alert" className="text-sm text-rose-700">{invitations.error.message}</p>
+          <p role="alert" className="text-sm text-rose-700">
+            {invitations.error.message}
+          </p>
         ) : invitations.data.length === 0 ? (
           <p className="mt-1 text-sm text-ink-600">None.</p>
         ) : (
@@ -209,7 +259,8 @@ function DangerZone({ project }: { project: Project }) {
         variant="danger"
         disabled={del.isPending}
         onClick={() => {
-          if (window.confirm(`Delete “${project.name}” for every member? This cannot be undone.`)) del.mutate(undefined, { onSuccess: () => navigate(paths.projects.getHref()) });
+          if (window.confirm(`Delete “${project.name}” for every member? This cannot be undone.`))
+            del.mutate(undefined, { onSuccess: () => navigate(paths.projects.getHref()) });
         }}
       >
         Delete project

@@ -8,7 +8,12 @@ const dateFormat = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium' });
 export function ProjectsList() {
   const projects = useProjects();
   if (projects.isPending) return <p className="text-sm text-ink-500">Loading projects…</p>;
-  if (projects.isError) return <p role="alert" className="text-sm text-rose-700">{projects.error.message}</p>;
+  if (projects.isError)
+    return (
+      <p role="alert" className="text-sm text-rose-700">
+        {projects.error.message}
+      </p>
+    );
   if (!projects.data.length) {
     return <p className="text-sm text-ink-600">You are not in any project yet. Create one, or ask an owner to invite you.</p>;
   }
@@ -17,11 +22,21 @@ export function ProjectsList() {
       <caption className="sr-only">Your projects</caption>
       <thead className="border-b border-slate-200 text-xs uppercase tracking-wide text-ink-500">
         <tr>
-          <th scope="col" className="py-2 pr-3 font-semibold">Project</th>
-          <th scope="col" className="py-2 pr-3 font-semibold">Your role</th>
-          <th scope="col" className="py-2 pr-3 text-right font-semibold">Members</th>
-          <th scope="col" className="py-2 pr-3 font-semibold">Changed</th>
-          <th scope="col" className="py-2 font-semibold"><span className="sr-only">Links</span></th>
+          <th scope="col" className="py-2 pr-3 font-semibold">
+            Project
+          </th>
+          <th scope="col" className="py-2 pr-3 font-semibold">
+            Your role
+          </th>
+          <th scope="col" className="py-2 pr-3 text-right font-semibold">
+            Members
+          </th>
+          <th scope="col" className="py-2 pr-3 font-semibold">
+            Changed
+          </th>
+          <th scope="col" className="py-2 font-semibold">
+            <span className="sr-only">Links</span>
+          </th>
         </tr>
       </thead>
       <tbody>
@@ -33,11 +48,17 @@ export function ProjectsList() {
               </Link>
               {p.description && <p className="mt-0.5 line-clamp-2 max-w-xl text-xs text-ink-600">{p.description}</p>}
             </td>
-            <td className="py-2.5 pr-3"><RoleBadge role={p.role} /></td>
+            <td className="py-2.5 pr-3">
+              <RoleBadge role={p.role} />
+            </td>
             <td className="tnum py-2.5 pr-3 text-right">{p.memberCount}</td>
             <td className="tnum py-2.5 pr-3 text-ink-600">{dateFormat.format(new Date(p.updatedAt))}</td>
             <td className="py-2.5 text-right whitespace-nowrap">
-              <Link className="text-fjord-700 underline" to={paths.projectSettings.getHref(p.id)} aria-label={`Members & settings of ${p.name}`}>
+              <Link
+                className="text-fjord-700 underline"
+                to={paths.projectSettings.getHref(p.id)}
+                aria-label={`Members & settings of ${p.name}`}
+              >
                 Members &amp; settings
               </Link>
               {p.role === 'owner' && (

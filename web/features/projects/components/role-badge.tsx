@@ -22,7 +22,10 @@ const mark: Record<ProjectRole, string> = { owner: '◆', editor: '◇', viewer:
 /** The role as a word with a shape, never colour alone. */
 export function RoleBadge({ role }: { role: ProjectRole }) {
   return (
-    <span className={`inline-flex items-center gap-1 rounded border px-1.5 py-0.5 text-xs font-medium ${style[role]}`} title={roleMeaning[role]}>
+    <span
+      className={`inline-flex items-center gap-1 rounded border px-1.5 py-0.5 text-xs font-medium ${style[role]}`}
+      title={roleMeaning[role]}
+    >
       <span aria-hidden="true">{mark[role]}</span>
       {role}
     </span>

@@ -18,7 +18,8 @@ export const listTokens = () => api<{ tokens: ApiTokenInfo[] }>('/api/v1/tokens'
 export const tokensQueryOptions = () => queryOptions({ queryKey: tokenKeys.all, queryFn: listTokens });
 export const useTokens = () => useQuery(tokensQueryOptions());
 
-export const createToken = (body: { name: string; expiresInDays: number }) => api<{ token: ApiTokenInfo; secret: string }>('/api/v1/tokens', { method: 'POST', body });
+export const createToken = (body: { name: string; expiresInDays: number }) =>
+  api<{ token: ApiTokenInfo; secret: string }>('/api/v1/tokens', { method: 'POST', body });
 export function useCreateToken() {
   const client = useQueryClient();
   return useMutation({ mutationFn: createToken, onSuccess: () => client.invalidateQueries({ queryKey: tokenKeys.all }) });

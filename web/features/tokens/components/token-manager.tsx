@@ -13,7 +13,10 @@ function NewSecret({ name, secret, onDone }: { name: string; secret: string; onD
   return (
     <div role="status" className="rounded-md border border-fjord-600 bg-fjord-50 p-3 text-sm">
       <p className="font-semibold text-fjord-800">Token “{name}” created. Copy it now: it will not be shown again.</p>
-      <code data-testid="new-token-secret" className="mt-2 block break-all rounded border border-slate-300 bg-white px-2 py-1.5 font-mono text-xs">
+      <code
+        data-testid="new-token-secret"
+        className="mt-2 block break-all rounded border border-slate-300 bg-white px-2 py-1.5 font-mono text-xs"
+      >
         {secret}
       </code>
       <div className="mt-2 flex gap-2">
@@ -49,7 +52,9 @@ export function TokenManager() {
         {tokens.isPending ? (
           <p className="text-sm text-ink-500">Loading…</p>
         ) : tokens.isError ? (
-          <p role="alert" className="text-sm text-rose-700">{tokens.error.message}</p>
+          <p role="alert" className="text-sm text-rose-700">
+            {tokens.error.message}
+          </p>
         ) : tokens.data.length === 0 ? (
           <p className="text-sm text-ink-600">No tokens yet.</p>
         ) : (
@@ -57,12 +62,24 @@ export function TokenManager() {
             <caption className="sr-only">Your API tokens</caption>
             <thead className="border-b border-slate-200 text-xs uppercase tracking-wide text-ink-500">
               <tr>
-                <th scope="col" className="py-2 pr-3 font-semibold">Name</th>
-                <th scope="col" className="py-2 pr-3 font-semibold">Starts with</th>
-                <th scope="col" className="py-2 pr-3 font-semibold">Status</th>
-                <th scope="col" className="py-2 pr-3 font-semibold">Expires</th>
-                <th scope="col" className="py-2 pr-3 font-semibold">Last used</th>
-                <th scope="col" className="py-2 font-semibold"><span className="sr-only">Actions</span></th>
+                <th scope="col" className="py-2 pr-3 font-semibold">
+                  Name
+                </th>
+                <th scope="col" className="py-2 pr-3 font-semibold">
+                  Starts with
+                </th>
+                <th scope="col" className="py-2 pr-3 font-semibold">
+                  Status
+                </th>
+                <th scope="col" className="py-2 pr-3 font-semibold">
+                  Expires
+                </th>
+                <th scope="col" className="py-2 pr-3 font-semibold">
+                  Last used
+                </th>
+                <th scope="col" className="py-2 font-semibold">
+                  <span className="sr-only">Actions</span>
+                </th>
               </tr>
             </thead>
             <tbody>
@@ -75,7 +92,12 @@ export function TokenManager() {
                   <td className="tnum py-2 pr-3 text-ink-600">{t.lastUsedAt ? dateFormat.format(new Date(t.lastUsedAt)) : 'never'}</td>
                   <td className="py-2 text-right">
                     {t.status === 'active' && (
-                      <Button variant="danger" aria-label={`Revoke ${t.name}`} onClick={() => revoke.mutate(t.id)} disabled={revoke.isPending}>
+                      <Button
+                        variant="danger"
+                        aria-label={`Revoke ${t.name}`}
+                        onClick={() => revoke.mutate(t.id)}
+                        disabled={revoke.isPending}
+                      >
                         Revoke
                       </Button>
                     )}
@@ -104,7 +126,14 @@ export function TokenManager() {
             });
           }}
         >
-          <TextField name="name" label="Name" value={form.values.name} onChange={form.set('name')} error={form.errors.name} hint="What will use it, e.g. “nightly export script”." />
+          <TextField
+            name="name"
+            label="Name"
+            value={form.values.name}
+            onChange={form.set('name')}
+            error={form.errors.name}
+            hint="What will use it, e.g. “nightly export script”."
+          />
           <TextField
             name="expiresInDays"
             label="Expires after (days)"
