@@ -1,6 +1,6 @@
 // `npm test`: the whole suite (unit, API on real PostgreSQL, browser end-to-end)
 // against a throwaway cluster that is always torn down. Extra arguments go to vitest.
-import { spawn } from 'node:child_process';
+import { spawn, spawnSync } from 'node:child_process';
 import { chmodSync, mkdtempSync, mkdirSync, readFileSync, existsSync, rmSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
@@ -38,6 +38,23 @@ async function refuseForeignDatabase(url) {
   }
 }
 
+/** Type check, lint and formatting check, in that order; returns the names of those that failed. */
+function runStaticChecks() {
+  const bin = (name) => path.join(root, 'node_modules', '.bin', name);
+  const checks = [
+    ['typecheck', bin('tsc'), ['--noEmit', '-p', 'tsconfig.json']],
+    ['lint', bin('eslint'), ['.']],
+    ['format', bin('prettier'), ['--check', '--log-level', 'warn', '.']],
+  ];
+  const failedChecks = [];
+  for (const [name, cmd, args] of checks) {
+    log(`${name}…`);
+    const r = spawnSync(cmd, args, { cwd: root, stdio: 'inherit' });
+    if (r.status !== 0) failedChecks.push(name);
+  }
+  return failedChecks;
+}
+
 let cluster = null;
 let tempDir = null;
 let exitCode = 1;
@@ -63,6 +80,9 @@ process.on('SIGTERM', () => {
 try {
   if (wantsBrowserTests(process.argv.slice(2))) ensureChromium(log);
   ensureWebBuild();
+  // The whole suite (no file arguments) first checks types, lint and formatting: quick, and nothing untyped,
+  // unlinted or unformatted lands. Each check that fails counts as one failed test in the closing line.
+  const staticFailures = process.argv.length > 2 ? [] : runStaticChecks();
   let databaseUrl = process.env.DATABASE_URL;
   if (!databaseUrl) {
     tempDir = mkdtempSync(path.join(os.tmpdir(), 'eyrie-test-'));
@@ -113,6 +133,8 @@ try {
     log('vitest wrote no report');
   }
   rmSync(report, { force: true });
+  failed += staticFailures.length;
+  if (staticFailures.length) log(`static checks failed: ${staticFailures.join(', ')} (see their output above)`);
   exitCode = code !== 0 || failed > 0 ? code || 1 : 0;
   cleanup();
   console.log(`tests: ${passed} passed, ${failed} failed`);
