@@ -4,6 +4,7 @@ import { SafetyCaution } from '../../../components/ui/caution';
 import { paths } from '../../../config/paths';
 import { ApiError, type FieldError } from '../../../lib/api-client';
 import { fixed, sig } from '../../../lib/format';
+import { celsiusFromKelvin } from '../../../../api/science/quantities';
 import { NumberField, Segmented, buttonClass, selectClass } from '../../calculators/components/fields';
 import { useCampaignPlan, useCampaignSpecification, useSavePlan, type CampaignPlan, type PlanInputsBody } from '../api/plan';
 import { CONSTRAINT_WORDS, OperatingWindowChart } from './operating-window-chart';
@@ -24,6 +25,10 @@ interface FormState {
   holdFloor: string;
   holdBarrier: string;
   nextRuns: string;
+  /** The assay's SD for one new run, in the specification measure's units; empty: the runs' own scatter or median. */
+  newRunSd: string;
+  /** Apply the time and hold limits at the required probability instead of their central estimates. */
+  atProbability: boolean;
 }
 
 const num = (s: string) => (s.trim() === '' ? undefined : Number(s.replace(',', '.')));
@@ -38,8 +43,8 @@ function fromPlan(
     measure: spec?.measure ?? 'ee',
     minimum: String(spec?.minimum ?? 98),
     probability: String(spec?.probability ?? 0.95),
-    fromC: i ? String(i.temperatures.from.unit === 'C' ? i.temperatures.from.value : i.temperatures.from.value - 273.15) : '-70',
-    toC: i ? String(i.temperatures.to.unit === 'C' ? i.temperatures.to.value : i.temperatures.to.value - 273.15) : '25',
+    fromC: i ? String(i.temperatures.from.unit === 'C' ? i.temperatures.from.value : celsiusFromKelvin(i.temperatures.from.value)) : '-70',
+    toC: i ? String(i.temperatures.to.unit === 'C' ? i.temperatures.to.value : celsiusFromKelvin(i.temperatures.to.value)) : '25',
     rule: (i?.rule as Rule | undefined) ?? 'warmest',
     targetConversion: String(i?.rate?.targetConversionPercent ?? 95),
     maxTimeH: i?.rate?.maxTime ? String(i.rate.maxTime.value) : '',
@@ -47,6 +52,8 @@ function fromPlan(
     holdFloor: hold ? String(hold.floorEePercent) : '',
     holdBarrier: hold && hold.barrier.kind === 'gibbs' ? String(hold.barrier.dG.value) : '',
     nextRuns: String(i?.nextRuns?.count ?? 3),
+    newRunSd: i?.newRunUncertainty !== undefined ? String(i.newRunUncertainty) : '',
+    atProbability: i?.applyAtProbability ?? false,
   };
 }
 
@@ -75,6 +82,8 @@ function toInputs(f: FormState): PlanInputsBody {
         }
       : {}),
     ...(count ? { nextRuns: { count } } : {}),
+    ...(num(f.newRunSd) !== undefined ? { newRunUncertainty: num(f.newRunSd) } : {}),
+    applyAtProbability: f.atProbability,
   } as PlanInputsBody;
 }
 
@@ -277,6 +286,19 @@ export function PlannerPanel({ campaignId, projectId, canEdit }: { campaignId: s
               errors={errors}
               width="w-16"
             />
+            <NumberField
+              label="Assay SD of a new run"
+              path="newRunUncertainty"
+              value={form.newRunSd}
+              onChange={set('newRunSd')}
+              errors={errors}
+              width="w-20"
+              hint="in the specification's units; empty: from the runs"
+            />
+            <label className="flex items-center gap-2 self-center text-sm text-ink-800">
+              <input type="checkbox" checked={form.atProbability} onChange={(e) => setForm({ ...form, atProbability: e.target.checked })} />
+              Apply time and hold limits with the specification's confidence
+            </label>
           </div>
           <div className="flex flex-wrap items-end gap-3">
             <Segmented<Rule>
