@@ -44,13 +44,10 @@ const checkSelectivity = (s: { measure: z.infer<typeof selectivityMeasureSchema>
   const problem = selectivityProblem(s.measure, s.value);
   if (problem) ctx.addIssue({ code: 'custom', path: ['value'], message: problem });
 };
-export const selectivitySchema = z
-  .object(selectivityFields)
-  .superRefine(checkSelectivity)
-  .meta({
-    id: 'Selectivity',
-    description: 'An observed selectivity, e.g. { "measure": "ee", "value": 92.5 } or { "measure": "dr", "value": "12:1" }',
-  });
+export const selectivitySchema = z.object(selectivityFields).superRefine(checkSelectivity).meta({
+  id: 'Selectivity',
+  description: 'An observed selectivity, e.g. { "measure": "ee", "value": 92.5 } or { "measure": "dr", "value": "12:1" }',
+});
 /** A measured selectivity, which may be a bound ("≥ 99.8 % ee", "> 200:1"). */
 export const measuredSelectivitySchema = z
   .object({
@@ -279,13 +276,11 @@ export const branchSchema = z.object({
   ddS: z.object({ 'J/(mol*K)': z.number(), 'cal/(mol*K)': z.number() }),
 });
 
-const lackOfFitSchema = z
-  .object({ F: z.number(), dof1: z.number().int(), dof2: z.number().int(), p: z.number() })
-  .meta({
-    id: 'LackOfFitTest',
-    description:
-      'Classical lack-of-fit F test of one straight line: lack of fit (dof1 = m − 2) against pure error from replicates (dof2 = n − m).',
-  });
+const lackOfFitSchema = z.object({ F: z.number(), dof1: z.number().int(), dof2: z.number().int(), p: z.number() }).meta({
+  id: 'LackOfFitTest',
+  description:
+    'Classical lack-of-fit F test of one straight line: lack of fit (dof1 = m − 2) against pure error from replicates (dof2 = n − m).',
+});
 
 const curvatureCheckedSchema = z.object({
   checked: z.literal(true),

@@ -328,14 +328,10 @@ export const comparisonResultSchema = z
           .nullable()
           .optional()
           .meta({ description: "The campaign's stored specification (its own, else its project's default); null when none is set" }),
-        meetsAtTemperature: z
-          .enum(['meets', 'falls short'])
-          .nullable()
-          .optional()
-          .meta({
-            description:
-              "Whether the fitted selectivity at the comparison's temperature reaches the campaign's specification; null without one",
-          }),
+        meetsAtTemperature: z.enum(['meets', 'falls short']).nullable().optional().meta({
+          description:
+            "Whether the fitted selectivity at the comparison's temperature reaches the campaign's specification; null without one",
+        }),
         fit: z
           .object({
             n: z.number().int(),
@@ -377,14 +373,10 @@ export const comparisonResultSchema = z
             note: z.string(),
           })
           .nullable(),
-        runsToTellApart: z
-          .number()
-          .int()
-          .nullable()
-          .meta({
-            description:
-              'Runs to add at the temperature to each campaign before the difference would be told apart (80 % power); null when more than 50',
-          }),
+        runsToTellApart: z.number().int().nullable().meta({
+          description:
+            'Runs to add at the temperature to each campaign before the difference would be told apart (80 % power); null when more than 50',
+        }),
         note: z.string(),
       }),
     ),
