@@ -1,22 +1,20 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type request from 'supertest';
 import ExcelJS from 'exceljs';
 import { randomBytes } from 'node:crypto';
 import { closeTestKnex, testKnex } from '../support/db';
 import { REPORT_MAIL_LIMIT } from '../../api/features/campaigns/routes';
-import { signIn, startAuthApp, type AuthTestApp } from '../support/auth';
+import { binaryBody, signIn, signInEach, startAuthApp, type AuthTestApp, type SignedInRequests } from '../support/auth';
 import { createUser } from '../factories/users';
 import { createProject } from '../factories/projects';
 import type { User } from '../../api/models/user';
 import type { Project } from '../../api/models/project';
 
 type Who = 'editor' | 'viewer' | 'outsider';
-type Agent = ReturnType<typeof request.agent>;
 
 let env: AuthTestApp;
 let users: Record<Who, User>;
 let project: Project;
-const sessions: Partial<Record<Who, { agent: Agent; csrf: string }>> = {};
+let as: (who: Who) => SignedInRequests;
 
 // Exact SI: R = N_A·k_B (CODATA 2018 [S]).
 const R = 6.02214076e23 * 1.380649e-23;
@@ -28,32 +26,13 @@ beforeAll(async () => {
     { user: users.editor, role: 'editor' },
     { user: users.viewer, role: 'viewer' },
   ]);
-  for (const who of Object.keys(users) as Who[]) {
-    const u = users[who];
-    const s = await signIn(env.app, { login: u.login, name: u.displayName ?? u.login, email: u.email! });
-    sessions[who] = { agent: s.agent, csrf: s.csrfToken };
-  }
+  as = await signInEach(env.app, users);
 });
 
 afterAll(async () => {
   await env?.close();
   await closeTestKnex();
 });
-
-function as(who: Who) {
-  const { agent, csrf } = sessions[who]!;
-  return {
-    get: (url: string) => agent.get(url),
-    post: (url: string) => agent.post(url).set('X-CSRF-Token', csrf),
-    put: (url: string) => agent.put(url).set('X-CSRF-Token', csrf),
-  };
-}
-
-const binary = (r: request.Response, done: (err: Error | null, body: Buffer) => void) => {
-  const chunks: Buffer[] = [];
-  r.on('data', (d: Buffer) => chunks.push(d));
-  r.on('end', () => done(null, Buffer.concat(chunks)));
-};
 
 /** A dr screen from ΔΔH‡ = 10 kJ/mol, ΔΔS‡ = 6 J/(mol·K) [C], nudged ±0.03 in ln r, at five temperatures. */
 async function drScreen() {
@@ -84,7 +63,7 @@ describe('campaign exports', () => {
   it('when a viewer downloads the workbook at a chosen temperature, then its summary forecast equals the analysis there', async () => {
     const id = await drScreen();
     const analysis = (await as('viewer').get(`/api/v1/campaigns/${id}/analysis?at=-30`).expect(200)).body;
-    const res = await as('viewer').get(`/api/v1/campaigns/${id}/report.xlsx?at=-30`).buffer(true).parse(binary).expect(200);
+    const res = await as('viewer').get(`/api/v1/campaigns/${id}/report.xlsx?at=-30`).buffer(true).parse(binaryBody).expect(200);
     // The title starts with "=": the file name keeps letters, digits and dashes only.
     expect(res.headers['content-disposition']).toMatch(/^attachment; filename="?eyrie-Report-screen-[0-9a-f]{6}-report\.xlsx"?$/);
     const wb = new ExcelJS.Workbook();
@@ -107,7 +86,7 @@ describe('campaign exports', () => {
   it('when the campaign has a stored specification, then the workbook states it and judges each forecast row against it', async () => {
     const id = await drScreen();
     await as('editor').put(`/api/v1/campaigns/${id}/specification`).send({ measure: 'dr', minimum: 12, probability: 0.9 }).expect(200);
-    const res = await as('viewer').get(`/api/v1/campaigns/${id}/report.xlsx?at=-30`).buffer(true).parse(binary).expect(200);
+    const res = await as('viewer').get(`/api/v1/campaigns/${id}/report.xlsx?at=-30`).buffer(true).parse(binaryBody).expect(200);
     const wb = new ExcelJS.Workbook();
     await wb.xlsx.load(res.body as unknown as ArrayBuffer);
     let spec: unknown;
@@ -131,7 +110,7 @@ describe('campaign exports', () => {
 
   it('when a viewer asks for the PDF and the CSVs, then each arrives with its type and content', async () => {
     const id = await drScreen();
-    const pdf = await as('viewer').get(`/api/v1/campaigns/${id}/report.pdf`).buffer(true).parse(binary).expect(200);
+    const pdf = await as('viewer').get(`/api/v1/campaigns/${id}/report.pdf`).buffer(true).parse(binaryBody).expect(200);
     expect(pdf.headers['content-type']).toBe('application/pdf');
     expect((pdf.body as Buffer).subarray(0, 5).toString()).toBe('%PDF-');
     const m = await as('viewer').get(`/api/v1/campaigns/${id}/measurements.csv`).expect(200);

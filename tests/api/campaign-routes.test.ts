@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { randomBytes } from 'node:crypto';
 import { closeTestKnex, testKnex } from '../support/db';
-import { signIn, startAuthApp, type AuthTestApp } from '../support/auth';
+import { signInEach, startAuthApp, type AuthTestApp, type SignedInRequests } from '../support/auth';
 import { createUser } from '../factories/users';
 import { createProject } from '../factories/projects';
 import { sample } from '../unit/imports/helpers';
@@ -12,12 +12,11 @@ import type { User } from '../../api/models/user';
 import type { Project } from '../../api/models/project';
 
 type Who = 'owner' | 'editor' | 'viewer' | 'outsider';
-type Agent = ReturnType<typeof request.agent>;
 
 let env: AuthTestApp;
 let users: Record<Who, User>;
 let project: Project;
-const sessions: Partial<Record<Who, { agent: Agent; csrf: string }>> = {};
+let as: (who: Who) => SignedInRequests;
 
 // Exact SI: R = N_A·k_B (CODATA 2018 [S]).
 const R = 6.02214076e23 * 1.380649e-23;
@@ -32,29 +31,13 @@ beforeAll(async () => {
     { user: users.viewer, role: 'viewer' },
   ]);
   await createProject([{ user: users.outsider, role: 'owner' }]);
-  for (const who of Object.keys(users) as Who[]) {
-    const u = users[who];
-    const s = await signIn(env.app, { login: u.login, name: u.displayName ?? u.login, email: u.email! });
-    sessions[who] = { agent: s.agent, csrf: s.csrfToken };
-  }
+  as = await signInEach(env.app, users);
 });
 
 afterAll(async () => {
   await env?.close();
   await closeTestKnex();
 });
-
-/** Requests as one signed-in person; writes carry the CSRF token. */
-function as(who: Who) {
-  const { agent, csrf } = sessions[who]!;
-  return {
-    get: (url: string) => agent.get(url),
-    post: (url: string) => agent.post(url).set('X-CSRF-Token', csrf),
-    patch: (url: string) => agent.patch(url).set('X-CSRF-Token', csrf),
-    put: (url: string) => agent.put(url).set('X-CSRF-Token', csrf),
-    delete: (url: string) => agent.delete(url).set('X-CSRF-Token', csrf),
-  };
-}
 
 const count = async (table: string, where: Record<string, unknown>) =>
   Number((await testKnex()(table).where(where).count({ n: '*' }).first())!.n);

@@ -2,7 +2,7 @@ import ExcelJS from 'exceljs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { closeTestKnex, testKnex } from '../support/db';
-import { signIn, startAuthApp, type AuthTestApp } from '../support/auth';
+import { binaryBody, signInEach, startAuthApp, type AuthTestApp, type SignedInRequests } from '../support/auth';
 import { createUser } from '../factories/users';
 import { createProject } from '../factories/projects';
 import { createCampaign } from '../factories/campaigns';
@@ -13,13 +13,12 @@ import type { User } from '../../api/models/user';
 import type { Project } from '../../api/models/project';
 
 type Who = 'owner' | 'editor' | 'viewer' | 'outsider';
-type Agent = ReturnType<typeof request.agent>;
 
 let env: AuthTestApp;
 let users: Record<Who, User>;
 let project: Project;
 let outsiderProject: Project;
-const sessions: Partial<Record<Who, { agent: Agent; csrf: string }>> = {};
+let as: (who: Who) => SignedInRequests;
 
 const R = 6.02214076e23 * 1.380649e-23; // CODATA 2018 [S]
 const NOISE = [0.04, -0.03, 0.02, -0.05, 0.03, -0.01, 0.05, -0.02, 0.01, -0.04]; // invented scatter in ln r
@@ -56,11 +55,7 @@ beforeAll(async () => {
     { user: users.viewer, role: 'viewer' },
   ]);
   outsiderProject = await createProject([{ user: users.outsider, role: 'owner' }]);
-  for (const who of Object.keys(users) as Who[]) {
-    const u = users[who];
-    const s = await signIn(env.app, { login: u.login, name: u.displayName ?? u.login, email: u.email! });
-    sessions[who] = { agent: s.agent, csrf: s.csrfToken };
-  }
+  as = await signInEach(env.app, users);
 });
 
 afterAll(async () => {
@@ -68,19 +63,6 @@ afterAll(async () => {
   await closeTestKnex();
 });
 
-function as(who: Who) {
-  const { agent, csrf } = sessions[who]!;
-  return {
-    get: (url: string) => agent.get(url),
-    post: (url: string) => agent.post(url).set('X-CSRF-Token', csrf),
-    put: (url: string) => agent.put(url).set('X-CSRF-Token', csrf),
-  };
-}
-const binary = (r: request.Response, done: (err: Error | null, body: Buffer) => void) => {
-  const chunks: Buffer[] = [];
-  r.on('data', (d: Buffer) => chunks.push(d));
-  r.on('end', () => done(null, Buffer.concat(chunks)));
-};
 const audits = async (entityType: string, entityId: string) => testKnex()('audit_events').where({ entityType, entityId }).orderBy('id');
 const RANGE = { from: { value: -70, unit: 'C' }, to: { value: 40, unit: 'C' } };
 
@@ -223,7 +205,7 @@ describe('campaign plan', () => {
       .send({ projectId: project.id, name: 'Report pair', campaignIds: [other.id, campaign.id], temperature: { value: -20, unit: 'C' } })
       .expect(201);
 
-    const res = await as('viewer').get(`/api/v1/campaigns/${campaign.id}/report.xlsx`).buffer(true).parse(binary).expect(200);
+    const res = await as('viewer').get(`/api/v1/campaigns/${campaign.id}/report.xlsx`).buffer(true).parse(binaryBody).expect(200);
     const wb = new ExcelJS.Workbook();
     await wb.xlsx.load(res.body as unknown as ArrayBuffer);
     expect(wb.worksheets.map((w) => w.name)).toEqual(expect.arrayContaining(['Summary', 'Plan', 'Comparison']));

@@ -88,3 +88,39 @@ export async function signIn(app: Express, identity: TestIdentity, returnTo?: st
     done,
   };
 }
+
+/** Requests as one signed-in person; writes carry the session's CSRF token. */
+export interface SignedInRequests {
+  get: (url: string) => request.Test;
+  post: (url: string) => request.Test;
+  patch: (url: string) => request.Test;
+  put: (url: string) => request.Test;
+  delete: (url: string) => request.Test;
+}
+
+/** Sign each person in through the local provider; returns `as(who)` for requests in their session. */
+export async function signInEach<W extends string>(
+  app: Express,
+  people: Record<W, { login: string; displayName?: string | null; email?: string | null }>,
+): Promise<(who: W) => SignedInRequests> {
+  const sessions = new Map<W, SignedInRequests>();
+  for (const who of Object.keys(people) as W[]) {
+    const u = people[who];
+    const { agent, csrfToken } = await signIn(app, { login: u.login, name: u.displayName ?? u.login, email: u.email! });
+    sessions.set(who, {
+      get: (url) => agent.get(url),
+      post: (url) => agent.post(url).set('X-CSRF-Token', csrfToken),
+      patch: (url) => agent.patch(url).set('X-CSRF-Token', csrfToken),
+      put: (url) => agent.put(url).set('X-CSRF-Token', csrfToken),
+      delete: (url) => agent.delete(url).set('X-CSRF-Token', csrfToken),
+    });
+  }
+  return (who) => sessions.get(who)!;
+}
+
+/** A supertest parser that keeps a binary body (a workbook, a PDF) as one Buffer. */
+export const binaryBody = (r: request.Response, done: (err: Error | null, body: Buffer) => void) => {
+  const chunks: Buffer[] = [];
+  r.on('data', (d: Buffer) => chunks.push(d));
+  r.on('end', () => done(null, Buffer.concat(chunks)));
+};
