@@ -18,6 +18,7 @@ import { openBrowser } from '../../tests/support/browser';
 import { sessionCookie, signIn } from '../../tests/support/auth';
 import { recordFigure } from './results';
 import type { BenchSuite } from './suites';
+import { insertSyntheticRuns } from './synthetic-screen';
 
 const RUNS = 1000;
 const LOADS = 5;
@@ -65,20 +66,7 @@ async function run() {
         status: 'active',
       })
       .returning('*');
-    // Synthetic runs (not demo data): 40 temperatures from −80 to +37 °C, ln r = 1200/T − 1.2 with deterministic scatter.
-    const rows = Array.from({ length: RUNS }, (_, i) => {
-      const temperatureK = 193.15 + (i % 40) * 3;
-      const lnR = 1200 / temperatureK - 1.2 + 0.04 * Math.sin(i * 0.91);
-      return {
-        campaignId: campaign.id,
-        temperatureK,
-        measure: 'ee',
-        value: Math.round(10000 * Math.tanh(lnR / 2)) / 100,
-        uncertainty: 0.3,
-        createdByUserId: user.id,
-      };
-    });
-    for (let i = 0; i < rows.length; i += 500) await knex('measurements').insert(rows.slice(i, i + 500));
+    await insertSyntheticRuns(knex, campaign.id, user.id, RUNS);
 
     const [name, value] = cookie.split(';')[0]!.split('=') as [string, string];
     const { context, baseUrl } = browser;
