@@ -45,15 +45,18 @@ export function sig(value: number, figures = 3): string {
   if (!Number.isFinite(value)) return '—';
   if (value === 0) return '0';
   const magnitude = Math.floor(Math.log10(Math.abs(value)));
-  if (magnitude >= 5 || magnitude <= -4) {
-    const [mantissa, exponent] = value.toExponential(figures - 1).split('e');
-    const power = String(Number(exponent))
-      .split('')
-      .map((c) => SUPERSCRIPT[c] ?? c)
-      .join('');
-    return `${withMinus(mantissa)} × 10${power}`;
-  }
+  if (magnitude >= 5 || magnitude <= -4) return scientific(value, figures);
   return fixed(value, Math.max(0, figures - 1 - magnitude));
+}
+
+/** a × 10ⁿ with `figures` significant figures, a true minus and superscript digits. */
+export function scientific(value: number, figures = 3): string {
+  const [mantissa, exponent] = value.toExponential(figures - 1).split('e');
+  const power = String(Number(exponent))
+    .split('')
+    .map((c) => SUPERSCRIPT[c] ?? c)
+    .join('');
+  return `${withMinus(mantissa!)} × 10${power}`;
 }
 
 /**

@@ -1,6 +1,6 @@
 import type { ReactNode } from 'react';
 import type { FieldError } from '../../../lib/api-client';
-import { sig } from '../../../lib/format';
+import { scientific, sig } from '../../../lib/format';
 import type { TemperatureUnit } from '../lib/parse-screen';
 import type { DurationUnit } from '../lib/rate-form';
 import { NumberField, SelectField, temperatureUnitOptions, type Option } from './fields';
@@ -30,28 +30,6 @@ export function sci(value: number): string {
   if (!Number.isFinite(value)) return '—';
   if (value === 0) return '0';
   return scientific(value);
-}
-
-function scientific(value: number): string {
-  const [mantissa, exponent] = value.toExponential(2).split('e');
-  const SUP: Record<string, string> = {
-    '-': '⁻',
-    '0': '⁰',
-    '1': '¹',
-    '2': '²',
-    '3': '³',
-    '4': '⁴',
-    '5': '⁵',
-    '6': '⁶',
-    '7': '⁷',
-    '8': '⁸',
-    '9': '⁹',
-  };
-  const power = String(Number(exponent))
-    .split('')
-    .map((c) => SUP[c] ?? c)
-    .join('');
-  return `${mantissa.replace('-', '\u2212')} × 10${power}`;
 }
 
 const { s: SECOND, min: MINUTE, h: HOUR, d: DAY, y: YEAR } = SECONDS_PER;
