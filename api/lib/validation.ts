@@ -35,10 +35,14 @@ function sharpen(issues: readonly Issue[], body: unknown, prefix: readonly Prope
   });
 }
 
-/** Parse a request body; on failure throw a ZodError whose issues point at the offending field. */
-export function parseBody<S extends z.ZodType>(schema: S, body: unknown): z.infer<S> {
+/**
+ * The one entry point for checking what a client sent: a JSON body, a query string or a JSON form
+ * field of a multipart body (then `prefix` is the field's name). On failure it throws a ZodError
+ * whose issues point at the offending field, as a path into the request.
+ */
+export function parseBody<S extends z.ZodType>(schema: S, body: unknown, prefix: readonly PropertyKey[] = []): z.infer<S> {
   const input = body ?? {};
   const result = schema.safeParse(input);
   if (result.success) return result.data;
-  throw new z.ZodError(sharpen(result.error.issues, input));
+  throw new z.ZodError(sharpen(result.error.issues, input).map((issue) => ({ ...issue, path: [...prefix, ...issue.path] }) as Issue));
 }

@@ -6,7 +6,7 @@ import type { Request, RequestHandler } from 'express';
 import multer from 'multer';
 import type { z } from 'zod';
 import { BadRequestError, PayloadTooLargeError } from '../../lib/errors';
-import { zodIssuesToFieldErrors } from '../../lib/problem';
+import { parseBody } from '../../lib/validation';
 import { IMPORT_LIMITS, type ImportLimits, type UploadedFile } from './parse';
 
 /** Room for the multipart framing and the JSON options field beside the file. */
@@ -88,16 +88,5 @@ export function jsonField<S extends z.ZodType>(req: Request, field: string, sche
   } else if (raw !== undefined && typeof raw !== 'string') {
     throw new BadRequestError(`The form field "${field}" must be a JSON string.`, [{ path: field, message: 'expected a JSON string' }]);
   }
-  const parsed = schema.safeParse(value);
-  if (!parsed.success) {
-    const errors = zodIssuesToFieldErrors(parsed.error, [field]);
-    throw new BadRequestError(
-      `${errors.length} field${errors.length === 1 ? '' : 's'} of "${field}" failed validation: ${errors
-        .slice(0, 3)
-        .map((e) => `${e.path}: ${e.message}`)
-        .join('; ')}`,
-      errors,
-    );
-  }
-  return parsed.data;
+  return parseBody(schema, value, [field]);
 }

@@ -1,3 +1,4 @@
+import { parseBody } from '../../lib/validation';
 import { Router } from 'express';
 import type { Knex } from 'knex';
 import { z } from 'zod';
@@ -64,7 +65,7 @@ export function projectsRouter(deps: { knex: Knex; config: AppConfig; mailer: Ma
   });
 
   router.post('/projects', requireUser, async (req, res) => {
-    const fields = projectFieldsSchema.parse(req.body ?? {});
+    const fields = parseBody(projectFieldsSchema, req.body);
     const project = await createProject(knex, req.user!.id, fields);
     res.status(201).location(`/api/v1/projects/${project.id}`).json({ project });
   });
@@ -74,7 +75,7 @@ export function projectsRouter(deps: { knex: Knex; config: AppConfig; mailer: Ma
   });
 
   router.patch('/projects/:projectId', owner, async (req, res) => {
-    const patch = projectPatchSchema.parse(withIfMatchVersion(req.body, req.get('If-Match')));
+    const patch = parseBody(projectPatchSchema, withIfMatchVersion(req.body, req.get('If-Match')));
     res.json({ project: await updateProject(knex, req.user!.id, req.project!.id, patch, req.project!.role) });
   });
 
@@ -88,7 +89,7 @@ export function projectsRouter(deps: { knex: Knex; config: AppConfig; mailer: Ma
   });
 
   router.patch('/projects/:projectId/members/:userId', owner, async (req, res) => {
-    const { role } = memberRoleSchema.parse(req.body ?? {});
+    const { role } = parseBody(memberRoleSchema, req.body ?? {});
     res.json({ member: await changeMemberRole(knex, req.user!.id, req.project!.id, memberId(req.params.userId), role) });
   });
 
@@ -108,7 +109,7 @@ export function projectsRouter(deps: { knex: Knex; config: AppConfig; mailer: Ma
   });
 
   router.post('/projects/:projectId/invitations', owner, async (req, res) => {
-    const input = invitationSchema.parse(req.body ?? {});
+    const input = parseBody(invitationSchema, req.body ?? {});
     const invitation = await inviteToProject(
       knex,
       { mailer: deps.mailer, publicUrl: deps.config.publicUrl },
@@ -127,7 +128,7 @@ export function projectsRouter(deps: { knex: Knex; config: AppConfig; mailer: Ma
   });
 
   router.get('/projects/:projectId/audit-events', owner, async (req, res) => {
-    const page = historyQuery.parse(req.query);
+    const page = parseBody(historyQuery, req.query);
     res.json(await listAuditEvents(knex, req.project!.id, page));
   });
 

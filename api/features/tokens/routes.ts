@@ -1,3 +1,4 @@
+import { parseBody } from '../../lib/validation';
 import { Router } from 'express';
 import type { AppConfig } from '../../config';
 import { NotFoundError } from '../../lib/errors';
@@ -18,7 +19,7 @@ export function tokensRouter(deps: { config: AppConfig }): Router {
   });
 
   router.post('/tokens', requireSessionUser, limit, async (req, res) => {
-    const input = createTokenSchema.parse(req.body ?? {});
+    const input = parseBody(createTokenSchema, req.body ?? {});
     const { token, secret } = await createToken(req.user!.id, input);
     res.status(201).set('cache-control', 'no-store').json({ token, secret });
   });
