@@ -74,6 +74,13 @@ export interface LineFit {
 }
 
 /**
+ * Quantiles already computed, by dof then p: a fit asks for the same one or two (the level's, the
+ * normal's) once per prediction, and each costs an incomplete-beta inversion. Pure, so kept; bounded.
+ */
+const QUANTILE_MEMO_SIZE = 256;
+const quantileMemo = new Map<number, Map<number, number>>();
+
+/**
  * Two-sided Student-t quantile t(p, ν) from @stdlib (regularised incomplete beta inverse).
  * @param p probability in (0, 1), e.g. 0.975 for a 95 % two-sided interval
  * @param dof degrees of freedom ν > 0
@@ -83,7 +90,19 @@ export function studentTQuantile(p: number, dof: number): number {
   requireFinite(dof, 'dof');
   if (!(p > 0 && p < 1)) throw new DomainError('probability-out-of-range', 'p must lie strictly between 0 and 1', 'p');
   if (!(dof > 0)) throw new DomainError('dof-not-positive', 'degrees of freedom must be positive', 'dof');
-  return quantileT(p, dof);
+  let byP = quantileMemo.get(dof);
+  if (byP === undefined) {
+    if (quantileMemo.size >= QUANTILE_MEMO_SIZE) quantileMemo.clear();
+    byP = new Map();
+    quantileMemo.set(dof, byP);
+  }
+  let q = byP.get(p);
+  if (q === undefined) {
+    if (byP.size >= QUANTILE_MEMO_SIZE) byP.clear();
+    q = quantileT(p, dof);
+    byP.set(p, q);
+  }
+  return q;
 }
 
 /**
