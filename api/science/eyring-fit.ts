@@ -432,7 +432,10 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
   const fitted = prepared.filter((p) => p.status === 'fitted');
   const censored = prepared.filter((p) => p.status === 'censored');
   // A typed array sorts numerically in native code; a comparator closure is ~10× slower at 10⁶ runs.
-  const temps = Float64Array.from(fitted, (p) => p.measurement.temperatureK).sort();
+  // Filled by a loop: Float64Array.from with a map function goes through the iterator protocol.
+  const temps = new Float64Array(fitted.length);
+  for (let i = 0; i < fitted.length; i++) temps[i] = fitted[i]!.measurement.temperatureK;
+  temps.sort();
   const distinct = countDistinct(temps);
   if (distinct < 2) {
     const skipped = prepared.length - fitted.length;
@@ -444,11 +447,13 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
   }
   const weighting = options.weighting ?? 'auto';
   const { mode, sigma } = resolveWeighting(fitted, weighting, warnings);
-  const line = fitLine(
-    fitted.map((p) => p.x),
-    fitted.map((p) => p.y),
-    sigma ? { sigma, sigmaMode: mode as 'relative' | 'absolute' } : {},
-  );
+  const xs = new Float64Array(fitted.length);
+  const ys = new Float64Array(fitted.length);
+  for (let i = 0; i < fitted.length; i++) {
+    xs[i] = fitted[i]!.x;
+    ys[i] = fitted[i]!.y;
+  }
+  const line = fitLine(xs, ys, sigma ? { sigma, sigmaMode: mode as 'relative' | 'absolute' } : {});
   const n = fitted.length;
   const intervalsAvailable = distinct >= 3 && line.covariance !== null;
   const tMin = temps[0]!;
@@ -545,8 +550,8 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
   const diagnose = (k: number, sigmaLnR: number | undefined): number => {
     if (!canFlag) return 0;
     let bits = 0;
-    const ext = line.studentizedExternal[k] ?? null;
-    const cook = line.cooksDistance[k] ?? null;
+    const ext = line.studentizedExternalAt(k);
+    const cook = line.cooksDistanceAt(k);
     if (ext !== null && Math.abs(ext) > FLAG_RULES.outlierStudentized) {
       const explainedByAssay = sigmaLnR !== undefined && Math.abs(line.residuals[k]!) / sigmaLnR <= FLAG_RULES.assaySigmas;
       bits |= explainedByAssay ? EXCUSED_BY_ASSAY : OUTLIER;
@@ -587,7 +592,7 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
         if (bits & HIGH_LEVERAGE) flags.push('high-leverage');
         if (bits & INFLUENTIAL) flags.push('influential');
         inAssaySigmas = m.sigmaLnR === undefined ? null : Math.abs(line.residuals[k]!) / m.sigmaLnR;
-        reason = flagReason(flags, line.studentizedExternal[k] ?? null, line.leverages[k]!, leverageLimit, line.cooksDistance[k] ?? null);
+        reason = flagReason(flags, line.studentizedExternalAt(k), line.leverages[k]!, leverageLimit, line.cooksDistanceAt(k));
       }
       return {
         index: p.index,
@@ -603,9 +608,9 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
         lineLnRatio: lineY,
         residual: k === undefined ? null : line.residuals[k]!,
         leverage: k === undefined ? null : line.leverages[k]!,
-        studentizedInternal: k === undefined ? null : (line.studentizedInternal[k] ?? null),
-        studentizedExternal: k === undefined ? null : (line.studentizedExternal[k] ?? null),
-        cooksDistance: k === undefined ? null : (line.cooksDistance[k] ?? null),
+        studentizedInternal: k === undefined ? null : line.studentizedInternalAt(k),
+        studentizedExternal: k === undefined ? null : line.studentizedExternalAt(k),
+        cooksDistance: k === undefined ? null : line.cooksDistanceAt(k),
         flags,
         flagReason: reason,
         residualInAssaySigmas: inAssaySigmas,

@@ -1,4 +1,4 @@
-import { Router, type RequestHandler } from 'express';
+import { Router, type RequestHandler, type Response } from 'express';
 import { parseBody } from '../../lib/validation';
 import { computeDistribution } from './distribution';
 import { computeErosion } from './erosion';
@@ -8,23 +8,34 @@ import { distributionRequestSchema, erosionRequestSchema, rateRequestSchema } fr
 import { computeRate } from './rate';
 import { fitRequestSchema, forecastRequestSchema } from './schemas';
 
+/**
+ * A computed answer as JSON. No ETag: a POST answer is never revalidated, and hashing 40–70 kB
+ * per call was a measurable share of a calculation's time (res.json hashes every body).
+ */
+function answer(res: Response, body: unknown): void {
+  const bytes = Buffer.from(JSON.stringify(body), 'utf8');
+  res.setHeader('content-type', 'application/json; charset=utf-8');
+  res.setHeader('content-length', bytes.length);
+  res.end(bytes);
+}
+
 /** POST /forecast, /fit, /distribution, /rate and /erosion: stateless, no sign-in; `guards` (e.g. a rate limit) run first. */
 export function calculatorsRouter(guards: RequestHandler[] = []): Router {
   const router = Router();
   router.post('/forecast', ...guards, (req, res) => {
-    res.json(runForecast(parseBody(forecastRequestSchema, req.body)));
+    answer(res, runForecast(parseBody(forecastRequestSchema, req.body)));
   });
   router.post('/fit', ...guards, (req, res) => {
-    res.json(runFit(parseBody(fitRequestSchema, req.body)));
+    answer(res, runFit(parseBody(fitRequestSchema, req.body)));
   });
   router.post('/distribution', ...guards, (req, res) => {
-    res.json(computeDistribution(parseBody(distributionRequestSchema, req.body)));
+    answer(res, computeDistribution(parseBody(distributionRequestSchema, req.body)));
   });
   router.post('/rate', ...guards, (req, res) => {
-    res.json(computeRate(parseBody(rateRequestSchema, req.body)));
+    answer(res, computeRate(parseBody(rateRequestSchema, req.body)));
   });
   router.post('/erosion', ...guards, (req, res) => {
-    res.json(computeErosion(parseBody(erosionRequestSchema, req.body)));
+    answer(res, computeErosion(parseBody(erosionRequestSchema, req.body)));
   });
   return router;
 }
