@@ -24,8 +24,7 @@ import { Mailbox } from './features/mail/mailbox';
 import { createInProcessMailer, createSmtpMailer, type Mailer } from './features/mail/mailer';
 import { mailboxRouter } from './features/mail/routes';
 import { ipKeyGenerator } from 'express-rate-limit';
-import { computeRouter } from './features/compute/routes';
-import { kineticsRouter } from './features/kinetics/routes';
+import { calculatorsRouter } from './features/calculators/routes';
 import { planRouter } from './features/plan/routes';
 import { planStoreRouter } from './features/plan/store-routes';
 import { docsRouter } from './features/docs/routes';
@@ -136,7 +135,7 @@ export function createApp(deps: AppDeps): Express {
   const calculatorGuards = [checkRequestText, computeLimit];
   const calculators = Router();
   calculators.use((req, _res, next) => next(req.headers.authorization === undefined ? undefined : 'router'));
-  calculators.use(computeRouter(calculatorGuards), kineticsRouter(calculatorGuards), planRouter(calculatorGuards));
+  calculators.use(calculatorsRouter(calculatorGuards), planRouter(calculatorGuards));
   app.use('/api/v1', calculators);
 
   installAuth(app, { knex: deps.knex, config: deps.config, oauth: oauthSetup(deps), logger });
@@ -150,8 +149,7 @@ export function createApp(deps: AppDeps): Express {
   const api = Router();
   api.use(checkRequestText);
   api.use(healthRouter({ knex: deps.knex, version: deps.config.version }));
-  api.use('/v1', computeRouter([computeLimit]));
-  api.use('/v1', kineticsRouter([computeLimit]));
+  api.use('/v1', calculatorsRouter([computeLimit]));
   api.use('/v1', planRouter([computeLimit]));
   api.use('/v1', docsRouter({ version: deps.config.version }));
   api.use('/v1', sessionRouter({ config: deps.config }));

@@ -146,6 +146,31 @@ export function epimerization(kForwardPerS: number, kReversePerS: number, fracti
   };
 }
 
+/** Excess of A over B at equilibrium, 100·(1 − K)/(1 + K) %, for K = [B]/[A] (0 % when K = 1). */
+export function equilibriumExcessPercent(equilibriumConstant: number): number {
+  return (100 * (1 - equilibriumConstant)) / (1 + equilibriumConstant);
+}
+
+/**
+ * Longest hold keeping the excess at or above `floorPercent` while it relaxes towards
+ * `equilibriumPercent` as excess(t) = eq + (excess₀ − eq)·exp(−λt), λ = k_f + k_r:
+ * t = ln((excess₀ − eq)/(floor − eq))/λ. None when the start is already at or below the floor;
+ * unlimited (null) when the floor lies at or below equilibrium.
+ */
+export function epimerizationHoldAboveFloor(
+  initialPercent: number,
+  floorPercent: number,
+  equilibriumPercent: number,
+  relaxationRatePerS: number,
+): { seconds: number | null; status: 'above' | 'already-below' | 'never-reached' } {
+  if (initialPercent <= floorPercent) return { seconds: 0, status: 'already-below' };
+  if (floorPercent <= equilibriumPercent) return { seconds: null, status: 'never-reached' };
+  return {
+    seconds: Math.log((initialPercent - equilibriumPercent) / (floorPercent - equilibriumPercent)) / relaxationRatePerS,
+    status: 'above',
+  };
+}
+
 /** k_f from the A → B barrier and k_r = k_f/K for a given equilibrium constant K = [B]/[A]. */
 export function epimerizationRates(
   barrierForward: BarrierSpec,

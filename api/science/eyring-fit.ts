@@ -254,15 +254,27 @@ export interface PreparedMeasurement {
   censorPoint: number | null;
 }
 
+const FITTED = 0;
+const EXCLUDED = 1;
+const CENSORED = 2;
+const STATUS_NAMES = ['fitted', 'excluded', 'censored'] as const;
+
 /**
- * Validate measurements and split them into fitted, excluded and censored (|ee| ≥ limit).
- * `censorLnRatio`, when given, is the limit as |ln r| and takes precedence over `censorEePercent`.
+ * The validated runs as columns, one typed array per field and no object per run: what fitEyring
+ * reads, because at 10⁶ runs objects per run (and their garbage) cost more than the fit.
  */
-export function prepareMeasurements(
-  measurements: readonly EyringMeasurement[],
-  censorEePercent = DEFAULT_CENSOR_EE_PERCENT,
-  censorLnRatio?: number,
-): PreparedMeasurement[] {
+interface PreparedColumns {
+  x: Float64Array;
+  y: Float64Array;
+  /** FITTED, EXCLUDED or CENSORED. */
+  status: Uint8Array;
+  /** 1 lower bound, −1 upper bound, 0 not censored. */
+  bound: Int8Array;
+  /** Censoring point in ln r (see PreparedMeasurement.censorPoint); NaN when not censored. */
+  censorPoint: Float64Array;
+}
+
+function prepareColumns(measurements: readonly EyringMeasurement[], censorEePercent: number, censorLnRatio?: number): PreparedColumns {
   if (!Array.isArray(measurements)) throw new DomainError('not-a-list', 'measurements must be a list', 'measurements');
   let lnLimit: number;
   if (censorLnRatio !== undefined) {
@@ -277,7 +289,16 @@ export function prepareMeasurements(
     }
     lnLimit = lnRatioLimitFromEe(censorEePercent);
   }
-  return measurements.map((m, index) => {
+  const count = measurements.length;
+  const columns: PreparedColumns = {
+    x: new Float64Array(count),
+    y: new Float64Array(count),
+    status: new Uint8Array(count),
+    bound: new Int8Array(count),
+    censorPoint: new Float64Array(count).fill(NaN),
+  };
+  for (let index = 0; index < count; index++) {
+    const m = measurements[index]!;
     // Field paths are built only on the error path: at 10⁶ runs the strings alone cost more than the fit.
     const valid =
       Number.isFinite(m.temperatureK) &&
@@ -296,22 +317,54 @@ export function prepareMeasurements(
       }
     }
     const y = Math.log(m.ratio);
-    let status: PreparedMeasurement['status'] = 'fitted';
-    let censoredBound: PreparedMeasurement['censoredBound'] = null;
-    if (m.excluded) status = 'excluded';
+    let status = FITTED;
+    let bound = 0;
+    if (m.excluded) status = EXCLUDED;
     else if (m.atLeast) {
-      status = 'censored';
-      censoredBound = y >= 0 ? 'lower' : 'upper';
+      status = CENSORED;
+      bound = y >= 0 ? 1 : -1;
     } else if (y >= lnLimit * (1 - 1e-12)) {
-      status = 'censored';
-      censoredBound = 'lower';
+      status = CENSORED;
+      bound = 1;
     } else if (y <= -lnLimit * (1 - 1e-12)) {
-      status = 'censored';
-      censoredBound = 'upper';
+      status = CENSORED;
+      bound = -1;
     }
-    const censorPoint = censoredBound === 'lower' ? Math.min(y, lnLimit) : censoredBound === 'upper' ? Math.max(y, -lnLimit) : null;
-    return { index, measurement: m, x: 1 / m.temperatureK, y, status, censoredBound, censorPoint };
-  });
+    columns.x[index] = 1 / m.temperatureK;
+    columns.y[index] = y;
+    columns.status[index] = status;
+    columns.bound[index] = bound;
+    if (bound === 1) columns.censorPoint[index] = Math.min(y, lnLimit);
+    else if (bound === -1) columns.censorPoint[index] = Math.max(y, -lnLimit);
+  }
+  return columns;
+}
+
+/** Run `index` of the columns as an object. */
+function preparedAt(columns: PreparedColumns, measurements: readonly EyringMeasurement[], index: number): PreparedMeasurement {
+  const bound = columns.bound[index]!;
+  return {
+    index,
+    measurement: measurements[index]!,
+    x: columns.x[index]!,
+    y: columns.y[index]!,
+    status: STATUS_NAMES[columns.status[index]!]!,
+    censoredBound: bound === 1 ? 'lower' : bound === -1 ? 'upper' : null,
+    censorPoint: bound === 0 ? null : columns.censorPoint[index]!,
+  };
+}
+
+/**
+ * Validate measurements and split them into fitted, excluded and censored (|ee| ≥ limit).
+ * `censorLnRatio`, when given, is the limit as |ln r| and takes precedence over `censorEePercent`.
+ */
+export function prepareMeasurements(
+  measurements: readonly EyringMeasurement[],
+  censorEePercent = DEFAULT_CENSOR_EE_PERCENT,
+  censorLnRatio?: number,
+): PreparedMeasurement[] {
+  const columns = prepareColumns(measurements, censorEePercent, censorLnRatio);
+  return measurements.map((_, index) => preparedAt(columns, measurements, index));
 }
 
 /** Resolve the weighting rule for the points to be fitted; returns σ per point or undefined (OLS). */
@@ -320,11 +373,38 @@ export function resolveWeighting(
   weighting: EyringWeighting,
   warnings: Warning[],
 ): { mode: SigmaMode; sigma: number[] | undefined } {
-  const withSigma = fitted.filter((p) => p.measurement.sigmaLnR !== undefined).length;
+  return resolveWeightingOf(
+    fitted.length,
+    (k) => fitted[k]!.measurement.sigmaLnR,
+    (k) => fitted[k]!.index,
+    weighting,
+    warnings,
+  );
+}
+
+/** resolveWeighting over `count` runs read through accessors (σ of the k-th, and its index in the request). */
+function resolveWeightingOf(
+  count: number,
+  sigmaOf: (k: number) => number | undefined,
+  indexOf: (k: number) => number,
+  weighting: EyringWeighting,
+  warnings: Warning[],
+): { mode: SigmaMode; sigma: number[] | undefined } {
   if (weighting === 'none') return { mode: 'none', sigma: undefined };
+  let withSigma = 0;
+  let firstMissing = -1;
+  for (let k = 0; k < count; k++) {
+    if (sigmaOf(k) !== undefined) withSigma++;
+    else if (firstMissing < 0) firstMissing = k;
+  }
+  const sigmas = () => {
+    const out = new Array<number>(count);
+    for (let k = 0; k < count; k++) out[k] = sigmaOf(k)!;
+    return out;
+  };
   if (weighting === 'auto') {
-    if (withSigma === fitted.length && withSigma > 0) {
-      return { mode: 'relative', sigma: fitted.map((p) => p.measurement.sigmaLnR!) };
+    if (withSigma === count && withSigma > 0) {
+      return { mode: 'relative', sigma: sigmas() };
     }
     if (withSigma > 0) {
       warnings.push({
@@ -334,15 +414,14 @@ export function resolveWeighting(
     }
     return { mode: 'none', sigma: undefined };
   }
-  const missing = fitted.find((p) => p.measurement.sigmaLnR === undefined);
-  if (missing) {
+  if (firstMissing >= 0) {
     throw new DomainError(
       'sigma-missing',
       `weighting '${weighting}' needs sigmaLnR on every fitted run`,
-      `measurements[${missing.index}].sigmaLnR`,
+      `measurements[${indexOf(firstMissing)}].sigmaLnR`,
     );
   }
-  return { mode: weighting, sigma: fitted.map((p) => p.measurement.sigmaLnR!) };
+  return { mode: weighting, sigma: sigmas() };
 }
 
 /** Two-sided quantile for a least-squares line: normal with absolute σ, else Student t on n − 2 dof. */
@@ -427,15 +506,30 @@ function zeroSelectivitySet(model: LineModel, q: number): ZeroSelectivityInterva
 export function fitEyring(measurements: readonly EyringMeasurement[], options: EyringFitOptions = {}): EyringFit {
   const confidenceLevel = requireConfidenceLevel(options.confidenceLevel ?? 0.95);
   const narrowSpanK = options.narrowSpanK ?? DEFAULT_NARROW_SPAN_K;
-  const prepared = prepareMeasurements(measurements, options.censorEePercent ?? DEFAULT_CENSOR_EE_PERCENT, options.censorLnRatio);
+  const columns = prepareColumns(measurements, options.censorEePercent ?? DEFAULT_CENSOR_EE_PERCENT, options.censorLnRatio);
   const warnings: Warning[] = [];
-  const fitted = prepared.filter((p) => p.status === 'fitted');
-  const censored = prepared.filter((p) => p.status === 'censored');
+  const total = measurements.length;
+  // Request positions of the fitted and the censored runs, in request order.
+  let nFittedRuns = 0;
+  let nCensoredRuns = 0;
+  for (let i = 0; i < total; i++) {
+    if (columns.status[i] === FITTED) nFittedRuns++;
+    else if (columns.status[i] === CENSORED) nCensoredRuns++;
+  }
+  const fitted = new Int32Array(nFittedRuns);
+  const censored = new Int32Array(nCensoredRuns);
+  for (let i = 0, f = 0, c = 0; i < total; i++) {
+    if (columns.status[i] === FITTED) fitted[f++] = i;
+    else if (columns.status[i] === CENSORED) censored[c++] = i;
+  }
   // A typed array sorts numerically in native code; a comparator closure is ~10× slower at 10⁶ runs.
-  const temps = Float64Array.from(fitted, (p) => p.measurement.temperatureK).sort();
+  // Filled by a loop: Float64Array.from with a map function goes through the iterator protocol.
+  const temps = new Float64Array(fitted.length);
+  for (let i = 0; i < fitted.length; i++) temps[i] = measurements[fitted[i]!]!.temperatureK;
+  temps.sort();
   const distinct = countDistinct(temps);
   if (distinct < 2) {
-    const skipped = prepared.length - fitted.length;
+    const skipped = total - fitted.length;
     throw new DomainError(
       'too-few-temperatures',
       `a fit needs runs at two or more distinct temperatures${skipped > 0 ? ` (${runsWord(skipped)} excluded or censored)` : ''}`,
@@ -443,12 +537,20 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
     );
   }
   const weighting = options.weighting ?? 'auto';
-  const { mode, sigma } = resolveWeighting(fitted, weighting, warnings);
-  const line = fitLine(
-    fitted.map((p) => p.x),
-    fitted.map((p) => p.y),
-    sigma ? { sigma, sigmaMode: mode as 'relative' | 'absolute' } : {},
+  const { mode, sigma } = resolveWeightingOf(
+    fitted.length,
+    (k) => measurements[fitted[k]!]!.sigmaLnR,
+    (k) => fitted[k]!,
+    weighting,
+    warnings,
   );
+  const xs = new Float64Array(fitted.length);
+  const ys = new Float64Array(fitted.length);
+  for (let i = 0; i < fitted.length; i++) {
+    xs[i] = columns.x[fitted[i]!]!;
+    ys[i] = columns.y[fitted[i]!]!;
+  }
+  const line = fitLine(xs, ys, sigma ? { sigma, sigmaMode: mode as 'relative' | 'absolute' } : {});
   const n = fitted.length;
   const intervalsAvailable = distinct >= 3 && line.covariance !== null;
   const tMin = temps[0]!;
@@ -486,7 +588,7 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
   let estimator: EyringFit['estimator'] = 'least-squares';
   let censoredFit: EyringFit['censoredFit'] = null;
   if (censored.length > 0) {
-    const used = [...fitted, ...censored];
+    const used = [...fitted, ...censored].map((i) => preparedAt(columns, measurements, i));
     const tobitWeights = resolveWeighting(used, weighting, []);
     try {
       const tobit = fitCensoredLine(
@@ -545,8 +647,8 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
   const diagnose = (k: number, sigmaLnR: number | undefined): number => {
     if (!canFlag) return 0;
     let bits = 0;
-    const ext = line.studentizedExternal[k] ?? null;
-    const cook = line.cooksDistance[k] ?? null;
+    const ext = line.studentizedExternalAt(k);
+    const cook = line.cooksDistanceAt(k);
     if (ext !== null && Math.abs(ext) > FLAG_RULES.outlierStudentized) {
       const explainedByAssay = sigmaLnR !== undefined && Math.abs(line.residuals[k]!) / sigmaLnR <= FLAG_RULES.assaySigmas;
       bits |= explainedByAssay ? EXCUSED_BY_ASSAY : OUTLIER;
@@ -561,19 +663,24 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
   let disagreeing = 0;
   let withinAssay = 0;
   for (let k = 0; k < n; k++) {
-    const bits = diagnose(k, fitted[k]!.measurement.sigmaLnR);
+    const bits = diagnose(k, measurements[fitted[k]!]!.sigmaLnR);
     if (bits & EXCUSED_BY_ASSAY) withinAssay++;
     if (bits & (OUTLIER | HIGH_LEVERAGE | INFLUENTIAL)) flagged++;
   }
-  for (const p of censored) if (boundConsistentOf(p, intercept + slope * p.x) === false) disagreeing++;
+  for (const i of censored) {
+    const lineY = intercept + slope * columns.x[i]!;
+    // Same test as boundConsistentOf below: a lower bound agrees when the line reaches it, an upper one when it stays under.
+    if (columns.bound[i] === 1 ? !(lineY >= columns.censorPoint[i]!) : !(lineY <= columns.censorPoint[i]!)) disagreeing++;
+  }
 
   // Per-run results, built on first read: at 10⁶ runs these objects, not the fit, would dominate the
   // time and the garbage collector.
   const materialisePoints = (): EyringPointResult[] => {
     // Position of each run in the fitted arrays (−1: not fitted); a typed array, not a Map, for 10⁶ runs.
-    const fittedIndex = new Int32Array(prepared.length).fill(-1);
-    for (let i = 0; i < fitted.length; i++) fittedIndex[fitted[i]!.index] = i;
-    return prepared.map((p) => {
+    const fittedIndex = new Int32Array(total).fill(-1);
+    for (let i = 0; i < fitted.length; i++) fittedIndex[fitted[i]!] = i;
+    return measurements.map((_, index) => {
+      const p = preparedAt(columns, measurements, index);
       const m = p.measurement;
       const lineY = intercept + slope * p.x;
       const pos = fittedIndex[p.index]!;
@@ -587,7 +694,7 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
         if (bits & HIGH_LEVERAGE) flags.push('high-leverage');
         if (bits & INFLUENTIAL) flags.push('influential');
         inAssaySigmas = m.sigmaLnR === undefined ? null : Math.abs(line.residuals[k]!) / m.sigmaLnR;
-        reason = flagReason(flags, line.studentizedExternal[k] ?? null, line.leverages[k]!, leverageLimit, line.cooksDistance[k] ?? null);
+        reason = flagReason(flags, line.studentizedExternalAt(k), line.leverages[k]!, leverageLimit, line.cooksDistanceAt(k));
       }
       return {
         index: p.index,
@@ -603,9 +710,9 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
         lineLnRatio: lineY,
         residual: k === undefined ? null : line.residuals[k]!,
         leverage: k === undefined ? null : line.leverages[k]!,
-        studentizedInternal: k === undefined ? null : (line.studentizedInternal[k] ?? null),
-        studentizedExternal: k === undefined ? null : (line.studentizedExternal[k] ?? null),
-        cooksDistance: k === undefined ? null : (line.cooksDistance[k] ?? null),
+        studentizedInternal: k === undefined ? null : line.studentizedInternalAt(k),
+        studentizedExternal: k === undefined ? null : line.studentizedExternalAt(k),
+        cooksDistance: k === undefined ? null : line.cooksDistanceAt(k),
         flags,
         flagReason: reason,
         residualInAssaySigmas: inAssaySigmas,
@@ -618,7 +725,7 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
   };
   let points: EyringPointResult[] | null = null;
 
-  const nExcluded = prepared.filter((p) => p.status === 'excluded').length;
+  const nExcluded = total - nFittedRuns - nCensoredRuns;
   const nCensored = censored.length;
   if (nExcluded > 0) {
     warnings.push({

@@ -12,7 +12,8 @@
  *      the screen's selectivities and a run cannot be more precise than its assay at the new one;
  *  - without one: the screen's own scatter of a typical run (s² unweighted, c/w̄ weighted).
  */
-import { predictLine, type LineCovariance, type LineFit } from './regression';
+import { requireFinite } from './errors';
+import { type LineCovariance, type LineFit } from './regression';
 
 export interface LineModel {
   intercept: number;
@@ -47,9 +48,14 @@ export function lineModelFromLeastSquares(line: LineFit, quantile: (level: numbe
     quantile: (level) => (c === null ? null : quantile(level)),
     screenRunVariance: c === null ? null : (c * line.n) / line.sumWeights,
     assayVarianceScale: line.sigmaMode === 'none' ? null : line.sigmaMode === 'absolute' ? 1 : c,
+    // predictLine's Var(ŷ₀) without its interval and quantile (called twice per prediction);
+    // squared from its SE so the digits stay those of predictLine.
     varianceOfMean: (x0) => {
-      const se = predictLine(line, x0).seMean;
-      return se === null ? null : se * se;
+      if (c === null) return null;
+      requireFinite(x0, 'x');
+      const dx = x0 - line.xMean;
+      const se = Math.sqrt(c * (1 / line.sumWeights + (dx * dx) / line.sxx));
+      return se * se;
     },
   };
 }

@@ -71,7 +71,18 @@ export interface LineFit {
   studentizedExternal: (number | null)[];
   /** Cook's distance r²·h/(2(1 − h)). */
   cooksDistance: (number | null)[];
+  /** The same diagnostics for one point, without building the arrays (which are filled on first read). */
+  studentizedInternalAt(i: number): number | null;
+  studentizedExternalAt(i: number): number | null;
+  cooksDistanceAt(i: number): number | null;
 }
+
+/**
+ * Quantiles already computed, by dof then p: a fit asks for the same one or two (the level's, the
+ * normal's) once per prediction, and each costs an incomplete-beta inversion. Pure, so kept; bounded.
+ */
+const QUANTILE_MEMO_SIZE = 256;
+const quantileMemo = new Map<number, Map<number, number>>();
 
 /**
  * Two-sided Student-t quantile t(p, ν) from @stdlib (regularised incomplete beta inverse).
@@ -83,7 +94,19 @@ export function studentTQuantile(p: number, dof: number): number {
   requireFinite(dof, 'dof');
   if (!(p > 0 && p < 1)) throw new DomainError('probability-out-of-range', 'p must lie strictly between 0 and 1', 'p');
   if (!(dof > 0)) throw new DomainError('dof-not-positive', 'degrees of freedom must be positive', 'dof');
-  return quantileT(p, dof);
+  let byP = quantileMemo.get(dof);
+  if (byP === undefined) {
+    if (quantileMemo.size >= QUANTILE_MEMO_SIZE) quantileMemo.clear();
+    byP = new Map();
+    quantileMemo.set(dof, byP);
+  }
+  let q = byP.get(p);
+  if (q === undefined) {
+    if (byP.size >= QUANTILE_MEMO_SIZE) byP.clear();
+    q = quantileT(p, dof);
+    byP.set(p, q);
+  }
+  return q;
 }
 
 /**
@@ -210,25 +233,36 @@ export function fitLine(x: ArrayLike<number>, y: ArrayLike<number>, options: Lin
     interceptSlopeCorrelation = denom > 0 ? covariance.interceptSlope / denom : null;
   }
 
-  const studentizedInternal: (number | null)[] = new Array<number | null>(n);
-  const studentizedExternal: (number | null)[] = new Array<number | null>(n);
-  const cooksDistance: (number | null)[] = new Array<number | null>(n);
-  for (let i = 0; i < n; i++) {
-    const h = leverages[i]!;
-    const oneMinusH = 1 - h;
-    let internal: number | null = null;
+  // Per-point diagnostics are computed when asked for: at 10⁶ points three arrays of boxed
+  // numbers (null where undefined) cost more than the fit itself.
+  const internalAt = (i: number): number | null => {
+    const oneMinusH = 1 - leverages[i]!;
     if (residualSd !== null && residualSd > 0 && oneMinusH > 1e-12) {
-      internal = (Math.sqrt(w(i)) * residuals[i]!) / (residualSd * Math.sqrt(oneMinusH));
+      return (Math.sqrt(w(i)) * residuals[i]!) / (residualSd * Math.sqrt(oneMinusH));
     }
-    studentizedInternal[i] = internal;
-    cooksDistance[i] = internal === null ? null : (internal * internal * h) / (2 * oneMinusH);
-    let external: number | null = null;
+    return null;
+  };
+  const cookAt = (i: number): number | null => {
+    const internal = internalAt(i);
+    const h = leverages[i]!;
+    return internal === null ? null : (internal * internal * h) / (2 * (1 - h));
+  };
+  const externalAt = (i: number): number | null => {
+    const internal = internalAt(i);
     if (internal !== null && dof > 1) {
       const rest = dof - internal * internal;
-      if (rest > 1e-12 * dof) external = internal * Math.sqrt((dof - 1) / rest);
+      if (rest > 1e-12 * dof) return internal * Math.sqrt((dof - 1) / rest);
     }
-    studentizedExternal[i] = external;
-  }
+    return null;
+  };
+  const all = (at: (i: number) => number | null): (number | null)[] => {
+    const out = new Array<number | null>(n);
+    for (let i = 0; i < n; i++) out[i] = at(i);
+    return out;
+  };
+  let studentizedInternal: (number | null)[] | null = null;
+  let studentizedExternal: (number | null)[] | null = null;
+  let cooksDistance: (number | null)[] | null = null;
 
   return {
     n,
@@ -252,9 +286,18 @@ export function fitLine(x: ArrayLike<number>, y: ArrayLike<number>, options: Lin
     fitted,
     residuals,
     leverages,
-    studentizedInternal,
-    studentizedExternal,
-    cooksDistance,
+    get studentizedInternal() {
+      return (studentizedInternal ??= all(internalAt));
+    },
+    get studentizedExternal() {
+      return (studentizedExternal ??= all(externalAt));
+    },
+    get cooksDistance() {
+      return (cooksDistance ??= all(cookAt));
+    },
+    studentizedInternalAt: internalAt,
+    studentizedExternalAt: externalAt,
+    cooksDistanceAt: cookAt,
   };
 }
 

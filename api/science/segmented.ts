@@ -598,11 +598,18 @@ export function checkCurvature(measurements: readonly EyringMeasurement[], optio
   const psi = best.psi;
   const dof = n - 4;
   const s2 = ssSeg / dof;
-  const jtj = [0, 1, 2, 3].map(() => [0, 0, 0, 0]);
+  // Accumulated in flat typed arrays (no array per group), each entry in the same order as before.
+  const acc = new Float64Array(16);
+  const row = new Float64Array(4);
   for (let g = 0; g < m; g++) {
-    const row = [1, u[g]!, Math.max(0, u[g]! - psi), u[g]! > psi ? -delta : 0];
-    for (let r = 0; r < 4; r++) for (let c = 0; c < 4; c++) jtj[r]![c]! += w[g]! * row[r]! * row[c]!;
+    row[0] = 1;
+    row[1] = u[g]!;
+    row[2] = Math.max(0, u[g]! - psi);
+    row[3] = u[g]! > psi ? -delta : 0;
+    const wg = w[g]!;
+    for (let r = 0; r < 4; r++) for (let c = 0; c < 4; c++) acc[r * 4 + c] += wg * row[r]! * row[c]!;
   }
+  const jtj = [0, 1, 2, 3].map((r) => Array.from(acc.subarray(r * 4, r * 4 + 4)));
   const inv = invert(jtj);
   const covariance = inv ? inv.map((row) => row.map((v) => v * s2)) : null;
   const sumW = w.reduce((s, v) => s + v, 0);

@@ -19,8 +19,9 @@ import { performance } from 'node:perf_hooks';
 import { createApp } from '../../api/app';
 import { loadConfig } from '../../api/config';
 import { bindModels, createKnex, migrateLatest } from '../../api/db/knex';
-import { runFit, runForecast } from '../../api/features/compute/service';
-import { fitRequestSchema, forecastRequestSchema } from '../../api/features/compute/schemas';
+import { runFit } from '../../api/features/calculators/fit';
+import { runForecast } from '../../api/features/calculators/forecast';
+import { fitRequestSchema, forecastRequestSchema } from '../../api/features/calculators/schemas';
 import { fitEyring } from '../../api/science';
 import { extraSuites } from './suites';
 import { printBenchLine, recordFigure, type BenchKey } from './results';
@@ -61,13 +62,22 @@ async function load(url: string, body: unknown) {
       url,
     ];
     const { stdout } = await execFileAsync(process.execPath, args, { maxBuffer: 16 * 1024 * 1024 });
-    return JSON.parse(stdout) as { requests: { average: number }; latency: { p50: number; p99: number }; non2xx: number; errors: number };
+    return JSON.parse(stdout) as {
+      requests: { average: number; total: number };
+      latency: { p50: number; p99: number };
+      non2xx: number;
+      errors: number;
+    };
   };
   try {
     await run(2);
+    // The server's CPU time per answer: unlike req/s it hardly moves when other jobs share the cores.
+    const cpu0 = process.cpuUsage();
     const result = await run(DURATION_S);
+    const cpu = process.cpuUsage(cpu0);
     if (result.non2xx > 0 || result.errors > 0) throw new Error(`${url}: ${result.non2xx} non-2xx answers, ${result.errors} errors`);
-    return { rps: result.requests.average, p50: result.latency.p50, p99: result.latency.p99 };
+    const cpuUsPerRequest = (cpu.user + cpu.system) / Math.max(1, result.requests.total);
+    return { rps: result.requests.average, p50: result.latency.p50, p99: result.latency.p99, cpuUsPerRequest };
   } finally {
     await rm(dir, { recursive: true, force: true });
   }
@@ -105,7 +115,7 @@ async function httpSuite() {
   const baseline = await listen(bare);
 
   console.log(`\nHTTP, ${CONNECTIONS} connections, ${DURATION_S} s each after a 2 s warm-up (autocannon in its own process)`);
-  console.log('endpoint                         req/s    p50 ms  p99 ms   bare req/s  ratio');
+  console.log('endpoint                         req/s    p50 ms  p99 ms   bare req/s  ratio   server CPU µs/answer (bare)');
   for (const [name, route, body, key] of [
     ['forecast (200 temperatures)', '/api/v1/forecast', forecastBody, 'forecastRatio'],
     ['fit (50 runs, 60 predictions)', '/api/v1/fit', fitBody, 'fitRatio'],
@@ -113,7 +123,7 @@ async function httpSuite() {
     const r = await load(real.url + route, body);
     const b = await load(baseline.url + route.replace('/api/v1', ''), body);
     console.log(
-      `${name.padEnd(32)} ${r.rps.toFixed(0).padStart(6)}  ${String(r.p50).padStart(6)}  ${String(r.p99).padStart(6)}   ${b.rps.toFixed(0).padStart(10)}  ${(r.rps / b.rps).toFixed(2)}×`,
+      `${name.padEnd(32)} ${r.rps.toFixed(0).padStart(6)}  ${String(r.p50).padStart(6)}  ${String(r.p99).padStart(6)}   ${b.rps.toFixed(0).padStart(10)}  ${(r.rps / b.rps).toFixed(2)}×   ${r.cpuUsPerRequest.toFixed(0)} (${b.cpuUsPerRequest.toFixed(0)})`,
     );
     recordFigure(key, r.rps / b.rps);
   }
@@ -123,20 +133,26 @@ async function httpSuite() {
 }
 
 function engineSuite() {
-  console.log('\nEngine: fitEyring (OLS, no predictions), best of 3');
-  console.log('points       ms     ns/point');
+  console.log('\nEngine: fitEyring (OLS, no predictions), best of 3 (CPU: process time of that run, GC threads included)');
+  console.log('points       ms     ns/point   CPU ns/point');
   for (const n of [1e3, 1e4, 1e5, 1e6]) {
     const data = Array.from({ length: n }, (_, i) => {
       const t = 200 + (150 * i) / n;
       return { temperatureK: t, ratio: Math.exp(1800 / t - 3.4 + 0.02 * Math.sin(i)) };
     });
     let best = Infinity;
+    let bestCpu = Infinity;
     for (let k = 0; k < 3; k++) {
+      const cpu0 = process.cpuUsage();
       const t0 = performance.now();
       fitEyring(data, { weighting: 'none' });
       best = Math.min(best, performance.now() - t0);
+      const cpu = process.cpuUsage(cpu0);
+      bestCpu = Math.min(bestCpu, (cpu.user + cpu.system) / 1000);
     }
-    console.log(`${String(n).padEnd(10)} ${best.toFixed(1).padStart(7)}  ${((best * 1e6) / n).toFixed(0).padStart(8)}`);
+    console.log(
+      `${String(n).padEnd(10)} ${best.toFixed(1).padStart(7)}  ${((best * 1e6) / n).toFixed(0).padStart(8)}   ${((bestCpu * 1e6) / n).toFixed(0).padStart(12)}`,
+    );
     if (n === 1e6) recordFigure('engineNsPerPointAt1e6', (best * 1e6) / n, 0);
   }
 }

@@ -1,6 +1,6 @@
 import { afterAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
-import { fitResponseSchema } from '../../api/features/compute/schemas';
+import { fitResponseSchema } from '../../api/features/calculators/schemas';
 import { testApp } from '../support/app';
 import { closeTestKnex } from '../support/db';
 

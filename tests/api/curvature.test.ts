@@ -7,7 +7,7 @@ import { createProject } from '../factories/projects';
 import { createUser } from '../factories/users';
 import { createCampaign } from '../factories/campaigns';
 import { Measurement as MeasurementModel } from '../../api/models/measurement';
-import { fitResponseSchema } from '../../api/features/compute/schemas';
+import { fitResponseSchema } from '../../api/features/calculators/schemas';
 import { compareCampaigns, computeAnalysis } from '../../api/features/campaigns/analysis';
 import { buildCampaignReport } from '../../api/features/campaigns/report';
 import type { Campaign } from '../../api/models/campaign';

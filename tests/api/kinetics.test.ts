@@ -3,7 +3,7 @@ import request from 'supertest';
 import fc from 'fast-check';
 import { testApp } from '../support/app';
 import { closeTestKnex } from '../support/db';
-import { distributionResponseSchema, erosionResponseSchema, rateResponseSchema } from '../../api/features/kinetics/schemas';
+import { distributionResponseSchema, erosionResponseSchema, rateResponseSchema } from '../../api/features/calculators/kinetics-schemas';
 
 afterAll(closeTestKnex);
 

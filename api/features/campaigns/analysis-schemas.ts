@@ -4,7 +4,7 @@
  * screen stored in a campaign read identically. zod only: the web client imports this file.
  */
 import { z } from 'zod';
-import { fitPredictionSchema, fitResponseSchema } from '../compute/schemas';
+import { fitPredictionSchema, fitResponseSchema } from '../calculators/schemas';
 import { ABSOLUTE_ZERO } from '../../science/quantities';
 
 export const analysisQuerySchema = z.object({

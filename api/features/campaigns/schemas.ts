@@ -15,7 +15,7 @@ import {
   type SelectivityMeasure,
   type TemperatureUnit,
 } from '../../science/quantities';
-import { quantitationLimitProblem } from '../compute/schemas';
+import { quantitationLimitProblem } from '../calculators/schemas';
 
 export { parseRatioPair, SELECTIVITY_MEASURES, selectivityProblem, TEMPERATURE_UNITS, toKelvin, toSeconds };
 export type { SelectivityMeasure, TemperatureUnit };

@@ -8,7 +8,7 @@ import type { Knex } from 'knex';
 import objection from 'objection';
 import { recordAudit } from '../audit/service';
 import { BadRequestError, ConflictError, NotFoundError } from '../../lib/errors';
-import { quantitationLimitProblem } from '../compute/schemas';
+import { quantitationLimitProblem } from '../calculators/schemas';
 import { Campaign } from '../../models/campaign';
 import { Measurement } from '../../models/measurement';
 import { SavedForecast } from '../../models/saved-forecast';

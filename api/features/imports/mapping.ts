@@ -19,7 +19,7 @@ import {
 } from '../campaigns/schemas';
 import { celsiusFromKelvin, DECIMAL_PATTERN, splitBound } from '../../science/quantities';
 import type { ImportIssue } from './errors';
-import { looksLikeKelvin } from '../compute/temperatures';
+import { looksLikeKelvin } from '../calculators/temperatures';
 import { columnLetter, type Cell, type DecimalSeparator, type ParsedTable } from './parse';
 
 /** A checked row, ready to insert (campaign id and author are added by the service). */

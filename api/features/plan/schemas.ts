@@ -4,9 +4,9 @@
  * generated from it.
  */
 import { z } from 'zod';
-import { MAX_POINTS, durationSchema, measurementInputSchema, temperatureSchema } from '../compute/schemas';
+import { MAX_POINTS, durationSchema, measurementInputSchema, temperatureSchema } from '../calculators/schemas';
 import { temperatureToK } from '../../science/units';
-import { barrierSchema, concentrationSchema, readableDurationSchema } from '../kinetics/schemas';
+import { barrierSchema, concentrationSchema, readableDurationSchema } from '../calculators/kinetics-schemas';
 
 /** Kelvin of a temperature for ordering checks only (NaN when it cannot be converted; the engine then names the field). */
 function kelvinOf(t: { value: number; unit: 'K' | 'C' | 'F' }): number {

@@ -24,8 +24,8 @@ import {
   type RateFit,
 } from '../../science';
 import { SELECTIVITY_CAUTION } from '../../lib/cautions';
-import { toEyringMeasurements } from '../compute/service';
-import { readableDuration, toBarrierSpec } from '../kinetics/service';
+import { toEyringMeasurements } from '../calculators/fit';
+import { readableDuration, toBarrierSpec } from '../calculators/kinetics-fields';
 import { SECONDS_PER } from '../../science/quantities';
 import type { PlanRequest, PlanResponse } from './schemas';
 

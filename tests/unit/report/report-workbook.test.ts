@@ -9,7 +9,7 @@ import { buildReportModel } from '../../../api/features/campaigns/report-model';
 import { renderReportCharts } from '../../../api/features/campaigns/report-charts';
 import { buildCampaignReportPdf } from '../../../api/features/campaigns/report-pdf';
 import { forecastCsv, measurementsCsv } from '../../../api/features/campaigns/report-service';
-import { analyseScreen } from '../../../api/features/compute/service';
+import { analyseScreen } from '../../../api/features/calculators/fit';
 import { toEngineMeasurements } from '../../../api/features/campaigns/analysis';
 import { fixed, safeFileName } from '../../../api/features/campaigns/report-format';
 import { HOSTILE, demoMeta, demoReportData } from './fixture';

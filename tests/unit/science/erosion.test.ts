@@ -4,6 +4,8 @@ import {
   eeAfterTime,
   eeHalfLifeS,
   epimerization,
+  epimerizationHoldAboveFloor,
+  equilibriumExcessPercent,
   erosionForecast,
   longestHoldS,
   racemizationRateConstant,
@@ -75,5 +77,26 @@ describe('atropisomer class at 37 °C', () => {
   it('when ee inputs are outside ±100 %, then DomainError', () => {
     expect(domainErrorOf(() => eeAfterTime(101, 1e-3, 10)).code).toBe('ee-out-of-range');
     expect(domainErrorOf(() => longestHoldS(99, 0, 1e-3)).field).toBe('floorEePercent');
+  });
+});
+
+describe('epimerization towards an equilibrium excess', () => {
+  it('when K = [B]/[A] is 1 or 1/3, then the excess at equilibrium is 0 % or 50 %', () => {
+    expect(equilibriumExcessPercent(1)).toBe(0); // [C] A = B at equilibrium
+    expect(equilibriumExcessPercent(1 / 3)).toBeCloseTo(50, 12); // [C] 75 : 25 → (75 − 25)/100
+    expect(equilibriumExcessPercent(3)).toBeCloseTo(-50, 12); // [C] B favoured: the excess of A is negative
+  });
+
+  it('when the excess relaxes at rate λ, then after the longest hold it sits exactly on the floor', () => {
+    const lambda = 2e-5;
+    const hold = epimerizationHoldAboveFloor(98, 90, 20, lambda);
+    expect(hold.status).toBe('above');
+    // [C] excess(t) = eq + (e₀ − eq)·exp(−λt)
+    expect(20 + (98 - 20) * Math.exp(-lambda * hold.seconds!)).toBeCloseTo(90, 10);
+  });
+
+  it('when the floor is not below the start, or not above equilibrium, then there is no hold to compute', () => {
+    expect(epimerizationHoldAboveFloor(90, 95, 20, 1e-5)).toEqual({ seconds: 0, status: 'already-below' });
+    expect(epimerizationHoldAboveFloor(98, 20, 20, 1e-5)).toEqual({ seconds: null, status: 'never-reached' });
   });
 });

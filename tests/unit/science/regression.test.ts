@@ -84,6 +84,15 @@ describe('studentTQuantile', () => {
   it('when dof = 34 and p = 0.975, then t = 2.032245', () => {
     expect(studentTQuantile(0.975, 34)).toBeCloseTo(2.032245, 6); // [S] standard t table, ν = 34, two-sided 95 %
   });
+
+  it('when quantiles are asked for again, also after more than the kept number of them, then each is the first answer', () => {
+    const first = new Map<string, number>();
+    for (let dof = 1; dof <= 300; dof++) for (const p of [0.9, 0.975, 0.995]) first.set(`${p}|${dof}`, studentTQuantile(p, dof));
+    for (let dof = 300; dof >= 1; dof--) {
+      for (const p of [0.995, 0.975, 0.9]) expect(studentTQuantile(p, dof)).toBe(first.get(`${p}|${dof}`)); // [C] a pure function
+    }
+    expect(studentTQuantile(0.975, 34)).toBeCloseTo(2.032245, 6); // [S] standard t table, ν = 34, two-sided 95 %
+  });
 });
 
 describe('fitLine against independent libraries on generated data', () => {
@@ -147,6 +156,19 @@ describe('fitLine behaviour', () => {
     // [C] leverages sum to the number of parameters
     expect(fit.leverages.reduce((a, b) => a + b, 0)).toBeCloseTo(2, 12); // [C] trace of the hat matrix = p = 2
     expect(fit.cooksDistance[3]!).toBeGreaterThan(0.3);
+  });
+
+  it('when the diagnostics are read one point at a time, then they equal the arrays, nulls included', () => {
+    const x = [1, 2, 3, 4, 5, 6, 7, 8];
+    const y = [3.05, 4.96, 10.03, 8.98, 11.04, 12.95, 15.02, 16.97];
+    for (const fit of [fitLine(x, y), fitLine(x, y, { sigma: [1, 2, 1, 2, 1, 2, 1, 2] }), fitLine([1, 2], [1, 3])]) {
+      for (let i = 0; i < fit.n; i++) {
+        expect(fit.studentizedInternalAt(i)).toBe(fit.studentizedInternal[i]); // [C] one formula, two ways to read it
+        expect(fit.studentizedExternalAt(i)).toBe(fit.studentizedExternal[i]);
+        expect(fit.cooksDistanceAt(i)).toBe(fit.cooksDistance[i]);
+      }
+    }
+    expect(fitLine([1, 2], [1, 3]).studentizedExternal).toEqual([null, null]); // [C] n = 2: no scatter, nothing to studentize
   });
 
   it('when predicting at x₀, then SEs follow s²[1/n + (x₀ − x̄)²/Sxx] and s² + that (api/science/README.md §3)', () => {

@@ -7,7 +7,7 @@ import { RatePanel } from '../../../web/features/calculators/components/rate-pan
 import { ErosionPanel } from '../../../web/features/calculators/components/erosion-panel';
 import { DistributionPanel } from '../../../web/features/calculators/components/distribution-panel';
 import { initialRateForm, toRateRequest } from '../../../web/features/calculators/lib/rate-form';
-import { distributionRequestSchema, erosionRequestSchema, rateRequestSchema } from '../../../api/features/kinetics/schemas';
+import { distributionRequestSchema, erosionRequestSchema, rateRequestSchema } from '../../../api/features/calculators/kinetics-schemas';
 
 afterEach(() => {
   cleanup();

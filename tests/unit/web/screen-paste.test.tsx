@@ -5,7 +5,7 @@ import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
 import { parseScreen } from '../../../web/features/calculators/lib/parse-screen';
 import { buildFitRequest, predictionGridK, GRID_SIZE } from '../../../web/features/calculators/lib/fit-request';
 import { FitPanel } from '../../../web/features/calculators/components/fit-panel';
-import { fitRequestSchema } from '../../../api/features/compute/schemas';
+import { fitRequestSchema } from '../../../api/features/calculators/schemas';
 
 afterEach(() => {
   cleanup();

@@ -4,7 +4,7 @@ import { cleanup, render, screen } from '@testing-library/react';
 import { PredictionBox } from '../../../web/features/calculators/components/prediction-box';
 import { ChartControls } from '../../../web/features/calculators/components/chart-controls';
 import { SelectivityChart } from '../../../web/components/charts/selectivity-chart';
-import type { FitResponse } from '../../../api/features/compute/schemas';
+import type { FitResponse } from '../../../api/features/calculators/schemas';
 
 afterEach(cleanup);
 

@@ -1,5 +1,5 @@
 import { Page } from '../../components/ui/page';
-import { ForecastPanel } from '../../features/calculators/components/forecast-panel';
+import { RangeForecastPanel } from '../../features/calculators/components/range-forecast-panel';
 import { FitPanel } from '../../features/calculators/components/fit-panel';
 import { ConventionNote } from '../../features/calculators/components/fields';
 
@@ -12,7 +12,7 @@ export function CalculatorsRoute() {
     >
       <ConventionNote className="mb-4 rounded border border-slate-200 bg-white px-3 py-2" />
       <div className="flex flex-col gap-6">
-        <ForecastPanel />
+        <RangeForecastPanel />
         <FitPanel />
       </div>
     </Page>

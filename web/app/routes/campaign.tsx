@@ -12,7 +12,7 @@ import type { CampaignWithRole } from '../../features/campaigns/api/types';
 import { CampaignAnalysis } from '../../features/campaigns/components/campaign-analysis';
 import { CampaignHeader } from '../../features/campaigns/components/campaign-header';
 import { CampaignHistory, KeptFiles, SignOffBar } from '../../features/campaigns/components/campaign-records';
-import { ForecastPanel, SavedForecasts } from '../../features/campaigns/components/forecast-panel';
+import { ProposedTemperatureForecastPanel, SavedForecasts } from '../../features/campaigns/components/proposed-temperature-forecast';
 import { MeasurementGrid } from '../../features/campaigns/components/measurement-grid';
 import { ReportMailForm } from '../../features/campaigns/components/report-mail-form';
 import { UploadWizard } from '../../features/campaigns/components/upload-wizard';
@@ -123,7 +123,7 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
         </Panel>
 
         <Panel title="Forecast at a proposed temperature">
-          <ForecastPanel
+          <ProposedTemperatureForecastPanel
             campaignId={campaign.id}
             analysis={analysis.data}
             atCelsius={atCelsius}

@@ -1,5 +1,9 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import { distributionResponseSchema, type DistributionRequest, type DistributionResponse } from '../../../../api/features/kinetics/schemas';
+import {
+  distributionResponseSchema,
+  type DistributionRequest,
+  type DistributionResponse,
+} from '../../../../api/features/calculators/kinetics-schemas';
 import { api } from '../../../lib/api-client';
 
 /** POST /api/v1/distribution: product shares over several competing pathways. */

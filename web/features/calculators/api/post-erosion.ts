@@ -1,5 +1,5 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import { erosionResponseSchema, type ErosionRequest, type ErosionResponse } from '../../../../api/features/kinetics/schemas';
+import { erosionResponseSchema, type ErosionRequest, type ErosionResponse } from '../../../../api/features/calculators/kinetics-schemas';
 import { api } from '../../../lib/api-client';
 
 /** POST /api/v1/erosion: loss of ee while the product is held. */

@@ -1,5 +1,5 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import { fitResponseSchema, type FitRequestInput, type FitResponse } from '../../../../api/features/compute/schemas';
+import { fitResponseSchema, type FitRequestInput, type FitResponse } from '../../../../api/features/calculators/schemas';
 import { api } from '../../../lib/api-client';
 
 /** POST /api/v1/fit: differential Eyring fit of a temperature screen, with predictions. */

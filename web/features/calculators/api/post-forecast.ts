@@ -1,5 +1,5 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import { forecastResponseSchema, type ForecastRequest, type ForecastResponse } from '../../../../api/features/compute/schemas';
+import { forecastResponseSchema, type ForecastRequest, type ForecastResponse } from '../../../../api/features/calculators/schemas';
 import { api } from '../../../lib/api-client';
 
 /** POST /api/v1/forecast: selectivity across a temperature range. */

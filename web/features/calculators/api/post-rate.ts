@@ -1,5 +1,5 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import { rateResponseSchema, type RateRequest, type RateResponse } from '../../../../api/features/kinetics/schemas';
+import { rateResponseSchema, type RateRequest, type RateResponse } from '../../../../api/features/calculators/kinetics-schemas';
 import { api } from '../../../lib/api-client';
 
 /** POST /api/v1/rate: time to a target conversion, k and t½ across a temperature range. */

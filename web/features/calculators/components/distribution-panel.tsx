@@ -1,5 +1,5 @@
 import { useState, type FormEvent } from 'react';
-import type { DistributionRequest, DistributionResponse } from '../../../../api/features/kinetics/schemas';
+import type { DistributionRequest, DistributionResponse } from '../../../../api/features/calculators/kinetics-schemas';
 import { LineChart } from '../../../components/charts/line-chart';
 import { TemperatureCells } from '../../../components/charts/temperature-swatch';
 import { SafetyCaution } from '../../../components/ui/caution';

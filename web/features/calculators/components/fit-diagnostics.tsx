@@ -1,4 +1,4 @@
-import type { FitResponse } from '../../../../api/features/compute/schemas';
+import type { FitResponse } from '../../../../api/features/calculators/schemas';
 import { TableHead } from '../../../components/ui/table-head';
 import type { EyringBranchLine } from '../../../components/charts/eyring-plot';
 import { fixed, measureColumn, sig, withUncertainty } from '../../../lib/format';

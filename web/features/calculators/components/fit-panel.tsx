@@ -1,5 +1,5 @@
 import { useMemo, useState } from 'react';
-import type { FitRequestInput, FitResponse } from '../../../../api/features/compute/schemas';
+import type { FitRequestInput, FitResponse } from '../../../../api/features/calculators/schemas';
 import { EyringPlot, type EyringCurvePoint, type EyringPlotPoint } from '../../../components/charts/eyring-plot';
 import { SelectivityChart, type SelectivityCurvePoint } from '../../../components/charts/selectivity-chart';
 import { Panel } from '../../../components/ui/page';

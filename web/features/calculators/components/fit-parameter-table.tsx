@@ -1,4 +1,4 @@
-import type { FitResponse } from '../../../../api/features/compute/schemas';
+import type { FitResponse } from '../../../../api/features/calculators/schemas';
 import { decimalsFor, fixed, signed, withUncertainty } from '../../../lib/format';
 import { FitModelNotes } from './fit-model-notes';
 import { celsiusFromKelvin } from '../../../../api/science/quantities';

@@ -1,4 +1,4 @@
-import type { ForecastResponse } from '../../../../api/features/compute/schemas';
+import type { ForecastResponse } from '../../../../api/features/calculators/schemas';
 import { TemperatureCells } from '../../../components/charts/temperature-swatch';
 import { fixed, percentColumn, sig } from '../../../lib/format';
 

@@ -1,4 +1,4 @@
-import type { FitResponse } from '../../../../api/features/compute/schemas';
+import type { FitResponse } from '../../../../api/features/calculators/schemas';
 import {
   DISPLAY_LABEL,
   DISPLAY_MEASURES,

@@ -1,4 +1,4 @@
-import type { RateResponse } from '../../../../api/features/kinetics/schemas';
+import type { RateResponse } from '../../../../api/features/calculators/kinetics-schemas';
 import { LineChart, type LineChartSeries } from '../../../components/charts/line-chart';
 import { TemperatureCells } from '../../../components/charts/temperature-swatch';
 import { SafetyCaution } from '../../../components/ui/caution';

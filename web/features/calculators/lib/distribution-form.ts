@@ -1,4 +1,4 @@
-import { distributionRequestSchema, type DistributionRequest } from '../../../../api/features/kinetics/schemas';
+import { distributionRequestSchema, type DistributionRequest } from '../../../../api/features/calculators/kinetics-schemas';
 import type { FieldError } from '../../../lib/api-client';
 import { validateRequest } from './field-errors';
 import type { EnergyUnit, EntropyUnit } from './forecast-form';

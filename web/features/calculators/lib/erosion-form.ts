@@ -1,4 +1,4 @@
-import { erosionRequestSchema, type ErosionRequest } from '../../../../api/features/kinetics/schemas';
+import { erosionRequestSchema, type ErosionRequest } from '../../../../api/features/calculators/kinetics-schemas';
 import type { FieldError } from '../../../lib/api-client';
 import { validateRequest } from './field-errors';
 import type { EnergyUnit, EntropyUnit } from './forecast-form';

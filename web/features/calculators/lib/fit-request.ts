@@ -1,4 +1,4 @@
-import type { FitRequestInput } from '../../../../api/features/compute/schemas';
+import type { FitRequestInput } from '../../../../api/features/calculators/schemas';
 import { temperatureToK } from '../../../../api/science/units';
 import type { ScreenRow, SelectivityMeasure, TemperatureUnit } from './parse-screen';
 import { lnRatioOf } from '../../../../api/science/quantities';

@@ -1,4 +1,4 @@
-import { forecastRequestSchema, type ForecastRequest } from '../../../../api/features/compute/schemas';
+import { forecastRequestSchema, type ForecastRequest } from '../../../../api/features/calculators/schemas';
 import { numberText as num, rangeText } from './number-text';
 import type { FieldError } from '../../../lib/api-client';
 import { validateRequest } from './field-errors';

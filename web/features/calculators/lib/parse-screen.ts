@@ -1,5 +1,5 @@
 import type { z } from 'zod';
-import type { selectivityMeasureSchema, temperatureUnitSchema } from '../../../../api/features/compute/schemas';
+import type { selectivityMeasureSchema, temperatureUnitSchema } from '../../../../api/features/calculators/schemas';
 import { readPastedTable } from '../../../../api/features/imports/table-text';
 import { ABSOLUTE_ZERO, isPairMeasure, readDecimal, readSelectivityText, TEMPERATURE_UNIT_LABEL } from '../../../../api/science/quantities';
 

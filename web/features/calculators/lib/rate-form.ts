@@ -1,4 +1,4 @@
-import { rateRequestSchema, type RateRequest } from '../../../../api/features/kinetics/schemas';
+import { rateRequestSchema, type RateRequest } from '../../../../api/features/calculators/kinetics-schemas';
 import type { FieldError } from '../../../lib/api-client';
 import { validateRequest } from './field-errors';
 import type { EnergyUnit, EntropyUnit } from './forecast-form';

@@ -4,7 +4,7 @@
  * forecast and comparison answers from api/features/campaigns/analysis-schemas. The import
  * answer mirrors the import service, which the browser may not import.
  */
-import type { FitResponse } from '../../../../api/features/compute/schemas';
+import type { FitResponse } from '../../../../api/features/calculators/schemas';
 import type { AssayMethod, CampaignStatus, SelectivityMeasure } from '../../../../api/features/campaigns/schemas';
 import type { ProjectRole } from '../../../../api/features/projects/schemas';
 

@@ -5,7 +5,7 @@
  * quantity shapes come from the compute feature.
  */
 import { z } from 'zod';
-import { durationSchema, energySchema, entropySchema, temperatureSchema, temperaturesSchema } from '../compute/schemas';
+import { durationSchema, energySchema, entropySchema, temperatureSchema, temperaturesSchema } from '../calculators/schemas';
 
 export const MAX_PATHWAYS = 50;
 

@@ -41,7 +41,7 @@ function predictedWords(measure: SelectivityMeasure): string {
  * analysis at that temperature), and keep it with a note. `onAt` sets the temperature the
  * analysis is computed at (°C).
  */
-export function ForecastPanel({
+export function ProposedTemperatureForecastPanel({
   campaignId,
   analysis,
   atCelsius,

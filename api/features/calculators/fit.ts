@@ -1,75 +1,28 @@
 /**
- * Stateless computations behind /api/v1/forecast and /api/v1/fit: convert the
- * request's { value, unit } quantities to SI with request paths for errors,
- * run the engine, and express results in the units chemists read.
+ * POST /api/v1/fit and the analysis every stored campaign shares: the Eyring fit, the two-branch
+ * check and predictions of a screen, in the API's response shape.
  */
 import {
-  CELSIUS_OFFSET_K,
   SIGN_CONVENTION,
-  THERMOCHEMICAL_CALORIE_J,
   ddGAtTemperature,
-  energyToJPerMol,
-  entropyToJPerMolK,
   checkCurvature,
   chooseScreenModel,
   fitEyring,
-  forecastSelectivity,
   parseSelectivity,
   sigmaLnRatio,
-  temperatureToK,
   type EyringFit,
   type EyringMeasurement,
-  type ForecastBasis,
   type SelectivityInput,
   type SelectivityInterval,
 } from '../../science';
 import { SELECTIVITY_CAUTION } from '../../lib/cautions';
 import { BadRequestError } from '../../lib/errors';
 import { medianUncertainty, type AssayPrecision } from '../../science/assay-precision';
-import { lnRatioLimitFromEe, type ZeroSelectivityInterval } from '../../science/eyring-fit';
+import { lnRatioLimitFromEe } from '../../science/eyring-fit';
 import { curvatureOut, modelPrediction } from './curvature';
-import { expandTemperatures, kelvinLookingWarning } from './temperatures';
-import type { FitRequest, FitResponse, ForecastRequest, ForecastResponse } from './schemas';
-
-type Quantity<U extends string> = { value: number; unit: U };
-type TemperatureQ = Quantity<'K' | 'C' | 'F'>;
-type Temperatures = ForecastRequest['temperatures'];
-
-const kJ = (j: number) => j / 1000;
-const kcal = (j: number) => j / (1000 * THERMOCHEMICAL_CALORIE_J);
-const calK = (j: number) => j / THERMOCHEMICAL_CALORIE_J;
-const pair = (f: (v: number) => number, [a, b]: [number, number]): [number, number] => [f(a), f(b)];
-
-/** A unit conversion whose result overflows is the request's fault: 400 on the field that was sent. */
-export function finiteConversion(value: number, path: string): number {
-  if (!Number.isFinite(value)) {
-    throw new BadRequestError(`${path} is too large to convert to SI units.`, [{ path, message: 'is too large to convert to SI units' }]);
-  }
-  return value;
-}
-
-const toK = (t: TemperatureQ, path: string) => finiteConversion(temperatureToK(t.value, t.unit, `${path}.value`), `${path}.value`);
-const toJPerMol = (q: { value: number; unit: Parameters<typeof energyToJPerMol>[1] }, path: string) =>
-  finiteConversion(energyToJPerMol(q.value, q.unit, `${path}.value`), `${path}.value`);
-const toJPerMolK = (q: { value: number; unit: Parameters<typeof entropyToJPerMolK>[1] }, path: string) =>
-  finiteConversion(entropyToJPerMolK(q.value, q.unit, `${path}.value`), `${path}.value`);
-
-/**
- * Re-throw an engine error with the request field it came from: the engine names its own
- * arguments (`measurements[2].sigmaLnR`, `temperaturesK[0]`), the client needs what it sent.
- */
-export function withRequestPaths<T>(rename: (field: string) => string | null, run: () => T): T {
-  try {
-    return run();
-  } catch (err) {
-    if (err instanceof Error && err.name === 'DomainError') {
-      const field = (err as { field?: string }).field;
-      const mapped = field === undefined ? null : rename(field);
-      if (mapped !== null) Object.defineProperty(err, 'field', { value: mapped });
-    }
-    throw err;
-  }
-}
+import { calK, ddGOut, finiteConversion, kJ, kcal, pair, toK, withRequestPaths, zeroSelectivity } from './request-units';
+import { kelvinLookingWarning } from './temperatures';
+import type { FitRequest, FitResponse } from './schemas';
 
 /** Engine argument paths of a fit → request paths of POST /fit. */
 export function fitRequestPath(field: string): string | null {
@@ -83,104 +36,6 @@ export function fitRequestPath(field: string): string | null {
 }
 
 /** A range or a list of temperatures in kelvin, errors reported at their request path. */
-export const resolveTemperatures = (spec: Temperatures, path = 'temperatures'): number[] => expandTemperatures(spec, path).kelvins;
-
-const ddGOut = (j: number) => ({ 'kJ/mol': kJ(j), 'kcal/mol': kcal(j) });
-
-/**
- * T₀ with its note. `far`: outside the data and the temperatures asked about (a forecast from
- * ΔΔH‡/ΔΔS‡ has no data, so only the requested range counts).
- */
-function zeroSelectivity(t0: number | null, far: boolean, interval?: ZeroSelectivityInterval | null) {
-  if (t0 === null) return null;
-  return {
-    kelvin: t0,
-    celsius: t0 - CELSIUS_OFFSET_K,
-    note: far
-      ? 'Where the straight line predicts no selectivity (ΔΔH‡/ΔΔS‡); a far extrapolation: read it as a trend, not a forecast.'
-      : 'Where the straight line predicts no selectivity (ΔΔH‡/ΔΔS‡); selectivity inverts beyond it.',
-    farExtrapolation: far,
-    ...(interval === undefined
-      ? {}
-      : {
-          interval: interval
-            ? {
-                ranges: interval.ranges.map((r) => ({ fromKelvin: r.fromK, toKelvin: r.toK })),
-                bounded: interval.bounded,
-                note: interval.message,
-              }
-            : null,
-        }),
-  };
-}
-
-const outsideRange = (t: number, ks: readonly number[]) => ks.length === 0 || t < Math.min(...ks) - 1e-9 || t > Math.max(...ks) + 1e-9;
-
-export function runForecast(req: ForecastRequest): ForecastResponse {
-  const { basis } = req;
-  let engineBasis: ForecastBasis;
-  switch (basis.kind) {
-    case 'activation':
-      engineBasis = {
-        kind: 'enthalpy-entropy',
-        ddHJPerMol: toJPerMol(basis.ddH, 'basis.ddH'),
-        ddSJPerMolK: toJPerMolK(basis.ddS, 'basis.ddS'),
-      };
-      break;
-    case 'gap':
-      engineBasis = {
-        kind: 'gap-at-temperature',
-        ddGJPerMol: toJPerMol(basis.ddG, 'basis.ddG'),
-        temperatureK: toK(basis.temperature, 'basis.temperature'),
-        ...(basis.ddS ? { ddSJPerMolK: toJPerMolK(basis.ddS, 'basis.ddS') } : {}),
-      };
-      break;
-    case 'observed': {
-      const selectivity: SelectivityInput = basis.selectivity;
-      parseSelectivity(selectivity, 'basis.selectivity'); // fail with the request path before the engine does
-      engineBasis = {
-        kind: 'observed',
-        selectivity,
-        temperatureK: toK(basis.temperature, 'basis.temperature'),
-        ...(basis.ddS ? { ddSJPerMolK: toJPerMolK(basis.ddS, 'basis.ddS') } : {}),
-      };
-      break;
-    }
-  }
-  const expanded = expandTemperatures(req.temperatures, 'temperatures');
-  const temperaturesK = expanded.kelvins.map((k, i) => finiteConversion(k, expanded.pathOf(i)));
-  const result = withRequestPaths(
-    (field) => {
-      const t = /^temperaturesK\[(\d+)\]$/.exec(field);
-      if (t) return expanded.pathOf(Number(t[1]));
-      const basisPaths: Record<string, string> = {
-        'basis.ddHJPerMol': 'basis.ddH.value',
-        'basis.ddSJPerMolK': 'basis.ddS.value',
-        'basis.ddGJPerMol': 'basis.ddG.value',
-        'basis.temperatureK': 'basis.temperature.value',
-      };
-      return basisPaths[field] ?? null;
-    },
-    () => forecastSelectivity(engineBasis, temperaturesK),
-  );
-  return {
-    points: result.points.map((p) => ({
-      kelvin: p.kelvin,
-      celsius: p.celsius,
-      ratio: p.ratio,
-      eePercent: p.eePercent,
-      percentA: p.percentA,
-      ddG: ddGOut(p.ddGJPerMol),
-    })),
-    zeroSelectivity: zeroSelectivity(
-      result.zeroSelectivityTemperatureK,
-      result.zeroSelectivityTemperatureK !== null && outsideRange(result.zeroSelectivityTemperatureK, temperaturesK),
-    ),
-    assumptions: result.assumptions,
-    convention: SIGN_CONVENTION,
-    caution: SELECTIVITY_CAUTION,
-  };
-}
 
 /** Convert validated API measurements to the engine's SI form (errors name request paths). */
 export function toEyringMeasurements(measurements: FitRequest['measurements']): EyringMeasurement[] {

@@ -14,10 +14,10 @@ import { ChartControls, parseSpec } from './chart-controls';
 import { ProblemAlert } from './fields';
 import { ForecastForm, forecastFieldPaths } from './forecast-form';
 import { ForecastTable } from './forecast-table';
-import type { ForecastRequest } from '../../../../api/features/compute/schemas';
+import type { ForecastRequest } from '../../../../api/features/calculators/schemas';
 
-/** Forecast panel: a basis and a range in, a chart and a table out. */
-export function ForecastPanel() {
+/** Selectivity over a range of temperatures from one basis (ΔΔH‡/ΔΔS‡, a ΔΔG‡ or one observation): a chart and a table out. */
+export function RangeForecastPanel() {
   const [form, setForm] = useState<ForecastFormState>(initialForecastForm);
   const [request, setRequest] = useState<ForecastRequest | null>(null);
   const [submittedForm, setSubmittedForm] = useState<ForecastFormState | null>(null);
