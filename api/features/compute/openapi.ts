@@ -1,5 +1,5 @@
 import type { OpenApiRegistrar } from '../../lib/openapi';
-import { problemResponses } from '../../lib/openapi';
+import { problemResponses, security } from '../../lib/openapi';
 import { fitRequestSchema, fitResponseSchema, forecastRequestSchema, forecastResponseSchema } from './schemas';
 
 export const registerCompute: OpenApiRegistrar = (registry) => {
@@ -10,6 +10,7 @@ export const registerCompute: OpenApiRegistrar = (registry) => {
     summary: 'Forecast selectivity over temperature',
     description:
       'From ΔΔH‡ and ΔΔS‡, from ΔΔG‡ at one temperature, or from one observed selectivity at one temperature (ΔΔS‡ given or assumed 0, stated in assumptions). Returns r, ee, % A and ΔΔG‡ per temperature and the zero-selectivity temperature where it exists.',
+    security: security.open,
     request: { body: { content: { 'application/json': { schema: forecastRequestSchema } } } },
     responses: {
       200: { description: 'The forecast', content: { 'application/json': { schema: forecastResponseSchema } } },
@@ -23,6 +24,7 @@ export const registerCompute: OpenApiRegistrar = (registry) => {
     summary: 'Fit a temperature screen (differential Eyring analysis)',
     description:
       'Regresses ln r on 1/T (OLS, or WLS with weights from the assay uncertainty), keeps the covariance of slope and intercept, and returns ΔΔH‡ and ΔΔS‡ with SE and CI, residual diagnostics, censored (≥ 99.8 % ee) points as bounds, a curvature check (continuous two-branch model with the break as a parameter, simulated sup-F test, isoinversion only for branch slopes of opposite sign), and predictions — from the branches when a break is accepted — with the confidence interval of the mean line and the prediction interval for a new run.',
+    security: security.open,
     request: { body: { content: { 'application/json': { schema: fitRequestSchema } } } },
     responses: {
       200: { description: 'The fit', content: { 'application/json': { schema: fitResponseSchema } } },

@@ -1,5 +1,5 @@
 import type { z } from 'zod';
-import { problemResponses, type OpenApiRegistrar } from '../../lib/openapi';
+import { problemResponses, security, type OpenApiRegistrar } from '../../lib/openapi';
 import {
   distributionRequestSchema,
   distributionResponseSchema,
@@ -16,6 +16,7 @@ function statelessPost(path: string, summary: string, description: string, reque
     tags: ['Kinetics'],
     summary,
     description,
+    security: security.open,
     request: { body: { required: true, content: { 'application/json': { schema: request } } } },
     responses: {
       200: { description: 'The computed result.', content: { 'application/json': { schema: response } } },

@@ -20,7 +20,7 @@ import {
   updateProject,
 } from './service';
 
-const historyQuery = z.object({
+export const historyQuery = z.object({
   limit: z.coerce
     .number({ error: 'limit must be a number.' })
     .int('limit must be a whole number.')
