@@ -148,14 +148,15 @@ export function createApp(deps: AppDeps): Express {
 
   const api = Router();
   api.use(checkRequestText);
-  api.use(healthRouter({ knex: deps.knex, version: deps.config.version }));
+  api.use('/health', healthRouter({ knex: deps.knex, version: deps.config.version }));
   api.use('/v1', calculatorsRouter([computeLimit]));
   api.use('/v1', planRouter([computeLimit]));
-  api.use('/v1', docsRouter({ version: deps.config.version }));
-  api.use('/v1', sessionRouter({ config: deps.config }));
-  api.use('/v1', projectsRouter({ knex: deps.knex, config: deps.config, mailer }));
-  api.use('/v1', invitationsRouter({ knex: deps.knex }));
-  api.use('/v1', tokensRouter({ config: deps.config }));
+  // A router that serves one resource is mounted at its prefix, so the URL names the file.
+  api.use('/v1/openapi.json', docsRouter({ version: deps.config.version }));
+  api.use('/v1/session', sessionRouter({ config: deps.config }));
+  api.use('/v1/projects', projectsRouter({ knex: deps.knex, config: deps.config, mailer }));
+  api.use('/v1/invitations', invitationsRouter({ knex: deps.knex }));
+  api.use('/v1/tokens', tokensRouter({ config: deps.config }));
   // Uploads and report builds read or write whole files: a per-user budget, counted across instances.
   const uploadLimit = rateLimited({
     name: 'uploads',
@@ -175,7 +176,7 @@ export function createApp(deps: AppDeps): Express {
       mailer,
     }),
   );
-  api.use('/v1', jobsRouter({ knex: deps.knex }));
+  api.use('/v1/jobs', jobsRouter({ knex: deps.knex }));
   api.use('/v1', planStoreRouter({ knex: deps.knex }));
   api.use('/{*splat}', notFoundHandler);
   app.use('/api', api);

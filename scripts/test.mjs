@@ -38,13 +38,15 @@ async function refuseForeignDatabase(url) {
   }
 }
 
-/** Type check, lint and formatting check, in that order; returns the names of those that failed. */
+/** Type check, lint, formatting check and the OpenAPI lint, in that order; returns the names of those that failed. */
 function runStaticChecks() {
   const bin = (name) => path.join(root, 'node_modules', '.bin', name);
   const checks = [
     ['typecheck', bin('tsc'), ['--noEmit', '-p', 'tsconfig.json']],
     ['lint', bin('eslint'), ['.']],
     ['format', bin('prettier'), ['--check', '--log-level', 'warn', '.']],
+    // The generated API description against Redocly's recommended rules (scripts/lint-openapi.ts).
+    ['openapi', bin('tsx'), ['scripts/lint-openapi.ts']],
   ];
   const failedChecks = [];
   for (const [name, cmd, args] of checks) {

@@ -3,6 +3,7 @@ import { ZodError } from 'zod';
 import objection from 'objection';
 import type { Logger } from 'pino';
 import { AppError, NotFoundError, ServiceUnavailableError, type FieldError } from './errors';
+import { PROBLEM_TYPES, problemTypeUri, type ProblemTypeId } from './problem-types';
 
 const {
   ValidationError,
@@ -59,11 +60,11 @@ export interface ProblemDetails {
   [extension: string]: unknown;
 }
 
-const slug = (title: string) =>
-  title
-    .toLowerCase()
-    .replace(/[^a-z0-9]+/g, '-')
-    .replace(/^-|-$/g, '');
+/** A problem of a registered type; status and title come from the registry. */
+export function problemOf(type: ProblemTypeId, detail: string, more: Record<string, unknown> = {}): ProblemDetails {
+  const { status, title } = PROBLEM_TYPES[type];
+  return { type: problemTypeUri(type), title, status, detail, ...more };
+}
 
 export function zodIssuesToFieldErrors(error: ZodError, prefix: (string | number)[] = []): FieldError[] {
   return error.issues.map((issue) => ({
@@ -89,103 +90,59 @@ interface HttpLikeError extends Error {
 /** Turn anything thrown into a problem-details object. Unknown errors become a bare 500. */
 export function toProblem(err: unknown): ProblemDetails {
   if (err instanceof AppError) {
-    return {
-      type: `/problems/${slug(err.title)}`,
-      title: err.title,
-      status: err.status,
-      detail: err.message,
-      ...(err.errors.length ? { errors: err.errors } : {}),
-      ...err.extra,
-    };
+    return problemOf(err.type, err.message, { ...(err.errors.length ? { errors: err.errors } : {}), ...err.extra });
   }
   if (err instanceof ZodError) {
     const errors = zodIssuesToFieldErrors(err);
-    return {
-      type: '/problems/invalid-request',
-      title: 'Invalid request',
-      status: 400,
-      detail: `${errors.length} field${errors.length === 1 ? '' : 's'} failed validation: ${errors
+    return problemOf(
+      'invalid-request',
+      `${errors.length} field${errors.length === 1 ? '' : 's'} failed validation: ${errors
         .slice(0, 3)
         .map((e) => `${e.path}: ${e.message}`)
         .join('; ')}${errors.length > 3 ? '; …' : ''}`,
-      errors,
-    };
+      { errors },
+    );
   }
   if (isDomainError(err)) {
-    return {
-      type: '/problems/cannot-compute',
-      title: 'Cannot compute',
-      status: 422,
-      detail: err.message,
+    return problemOf('cannot-compute', err.message, {
       code: err.code,
       errors: [{ path: err.field ? err.field.replace(/\[(\d+)\]/g, '.$1') : '(body)', message: err.message }],
-    };
+    });
   }
   if (err instanceof ValidationError) {
-    return {
-      type: '/problems/invalid-request',
-      title: 'Invalid request',
-      status: 400,
-      detail: 'Some fields failed validation.',
+    return problemOf('invalid-request', 'Some fields failed validation.', {
       errors: Object.entries(err.data ?? {}).flatMap(([path, list]) =>
         (list as { message: string }[]).map((e) => ({ path, message: e.message })),
       ),
-    };
+    });
   }
   if (err instanceof ObjectionNotFound) return toProblem(new NotFoundError());
   if (err instanceof UniqueViolationError) {
-    return { type: '/problems/conflict', title: 'Conflict', status: 409, detail: 'A record with the same unique value already exists.' };
+    return problemOf('conflict', 'A record with the same unique value already exists.');
   }
   if (err instanceof ForeignKeyViolationError) {
-    return {
-      type: '/problems/conflict',
-      title: 'Conflict',
-      status: 409,
-      detail: 'The record refers to, or is referred to by, another record.',
-    };
+    return problemOf('conflict', 'The record refers to, or is referred to by, another record.');
   }
   if (err instanceof CheckViolationError || err instanceof NotNullViolationError || err instanceof DataError || isInvalidData(err)) {
-    return {
-      type: '/problems/invalid-request',
-      title: 'Invalid request',
-      status: 400,
-      detail: 'A value is outside what the database accepts (for example text with a NUL character).',
-    };
+    return problemOf('invalid-request', 'A value is outside what the database accepts (for example text with a NUL character).');
   }
   if (isDatabaseUnavailable(err)) return toProblem(new ServiceUnavailableError());
   const http = err as HttpLikeError;
   const status = http?.status ?? http?.statusCode;
   if (typeof status === 'number' && status >= 400 && status < 500) {
-    if (http.type === 'entity.too.large') {
-      return {
-        type: '/problems/payload-too-large',
-        title: 'Payload too large',
-        status: 413,
-        detail: 'The request body is larger than the server accepts.',
-      };
+    if (http.type === 'entity.too.large' || status === 413) {
+      return problemOf('payload-too-large', 'The request body is larger than the server accepts.');
     }
     if (http.type === 'entity.parse.failed') {
-      return {
-        type: '/problems/invalid-request',
-        title: 'Invalid request',
-        status: 400,
-        detail: 'The request body is not valid JSON.',
+      return problemOf('invalid-request', 'The request body is not valid JSON.', {
         errors: [{ path: '(body)', message: 'not valid JSON' }],
-      };
+      });
     }
-    return {
-      type: `/problems/http-${status}`,
-      title: 'Invalid request',
-      status,
-      detail: http.expose && http.message ? http.message : 'The request was not accepted.',
-    };
+    const detail = http.expose && http.message ? http.message : 'The request was not accepted.';
+    // Every other 4xx raised by a library (the body parser's charset, encoding and size checks) is one of two registered types.
+    return problemOf(status === 415 ? 'unsupported-media-type' : 'invalid-request', detail);
   }
-  return {
-    type: '/problems/internal',
-    title: 'Internal error',
-    status: 500,
-    detail: 'Something went wrong on the server. The error has been logged.',
-  };
+  return problemOf('internal', 'Something went wrong on the server. The error has been logged.');
 }
 
 export function sendProblem(res: Parameters<RequestHandler>[1], problem: ProblemDetails) {

@@ -98,7 +98,9 @@ describe('importMeasurements', () => {
     const err = await thrown(importMeasurements(db, actor(), campaign.id, file, { mapping, acknowledgeWarnings: true }));
     expect(err).toBeInstanceOf(ImportRejectedError);
     expect(err.status).toBe(422);
-    expect(err.errors).toEqual([{ path: 'row 4, column D "ee (%)"', message: 'ee "n.d." is not a number.' }]);
+    // errors[] points into the request (the file field); the place in the file travels in `issues`.
+    expect(err.errors).toEqual([{ path: 'file', message: 'row 4, column D "ee (%)": ee "n.d." is not a number.' }]);
+    expect(err.extra.issues).toEqual([{ severity: 'error', row: 4, column: 'D "ee (%)"', message: 'ee "n.d." is not a number.' }]);
     expect(err.message).toBe('one-bad-row.csv: 1 problem found; nothing was imported. Fix the file or the mapping and upload it again.');
     expect(await count('measurements', { campaignId: campaign.id })).toBe(0);
     expect(await auditCount(campaign.id)).toBe(0);

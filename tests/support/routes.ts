@@ -17,7 +17,9 @@ export function listRoutes(app: Express, under = '/api'): string[] {
     for (const layer of stack) {
       if (layer.route) {
         for (const [method, on] of Object.entries(layer.route.methods)) {
-          if (on && method !== '_all') found.push(`${method.toUpperCase()} ${prefix}${layer.route.path}`);
+          // A router mounted at its resource prefix serves the prefix itself as '/'.
+          const full = layer.route.path === '/' && prefix ? prefix : `${prefix}${layer.route.path}`;
+          if (on && method !== '_all') found.push(`${method.toUpperCase()} ${full}`);
         }
       } else if (layer.handle?.stack) {
         const mount = typeof layer.rawPath === 'string' && layer.rawPath !== '/' ? layer.rawPath : '';

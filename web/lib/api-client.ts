@@ -1,15 +1,39 @@
 /** One fetch wrapper for the whole app: JSON in and out, problem details become typed errors. */
+import type { ProblemTypeId } from '../../api/lib/problem-types';
+
 export interface FieldError {
   path: string;
   message: string;
 }
 
+/** Where in an uploaded file an import problem is (`issues` of import-rejected and warnings-need-confirmation). */
+export interface ProblemImportIssue {
+  severity: 'error' | 'warning';
+  row: number | null;
+  column: string | null;
+  message: string;
+}
+
+/**
+ * RFC 9457 problem details as the API sends them (the Problem schema of /api/v1/openapi.json). `type` is one of
+ * the server's registered types (`/problems/<id>`); "network", "aborted" or "about:blank" when none came back.
+ */
 export interface Problem {
-  type: string;
+  type: `/problems/${ProblemTypeId}` | 'network' | 'aborted' | 'about:blank';
   title: string;
   status: number;
   detail: string;
+  instance?: string;
+  requestId?: string;
+  /** Each offending field, by its path in the request. */
   errors?: FieldError[];
+  /** The reason within the type (cannot-compute, invitation problems), e.g. "invitation-expired". */
+  code?: string;
+  /** On a stale version (409, 412): the version stored now. */
+  currentVersion?: number;
+  /** Every issue found in an uploaded file, with its row and column. */
+  issues?: ProblemImportIssue[];
+  acknowledgeWarnings?: boolean;
   [key: string]: unknown;
 }
 

@@ -4,11 +4,11 @@ import { SESSION_COOKIE } from './setup';
 import { csrfTokenFor } from './middleware';
 import { toUserView } from './users';
 
-/** GET/DELETE /session: who is signed in (with the CSRF token for writes), and sign-out. */
+/** GET/DELETE /api/v1/session (mounted there): who is signed in (with the CSRF token for writes), and sign-out. */
 export function sessionRouter(deps: { config: AppConfig }): Router {
   const router = Router();
 
-  router.get('/session', (req, res) => {
+  router.get('/', (req, res) => {
     const viaSession = req.user && req.authMethod === 'session';
     res.set('cache-control', 'no-store').json({
       user: req.user ? toUserView(req.user) : null,
@@ -18,7 +18,7 @@ export function sessionRouter(deps: { config: AppConfig }): Router {
   });
 
   // Sign-out: the session row is destroyed, not just emptied, and the cookie is cleared.
-  router.delete('/session', (req, res, next) => {
+  router.delete('/', (req, res, next) => {
     if (req.authMethod !== 'session' || !req.session) return void res.status(204).end();
     req.logout({ keepSessionInfo: false }, (err) => {
       if (err) return next(err);

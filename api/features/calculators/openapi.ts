@@ -1,5 +1,5 @@
 import type { z } from 'zod';
-import { problemResponses, type OpenApiRegistrar } from '../../lib/openapi';
+import { problemResponses, security, type OpenApiRegistrar } from '../../lib/openapi';
 import {
   distributionRequestSchema,
   distributionResponseSchema,
@@ -19,6 +19,7 @@ const registerSelectivity: OpenApiRegistrar = (registry) => {
     summary: 'Forecast selectivity over temperature',
     description:
       'From ΔΔH‡ and ΔΔS‡, from ΔΔG‡ at one temperature, or from one observed selectivity at one temperature (ΔΔS‡ given or assumed 0, stated in assumptions). Returns r, ee, % A and ΔΔG‡ per temperature and the zero-selectivity temperature where it exists.',
+    security: security.open,
     request: { body: { content: { 'application/json': { schema: forecastRequestSchema } } } },
     responses: {
       200: { description: 'The forecast', content: { 'application/json': { schema: forecastResponseSchema } } },
@@ -32,6 +33,7 @@ const registerSelectivity: OpenApiRegistrar = (registry) => {
     summary: 'Fit a temperature screen (differential Eyring analysis)',
     description:
       'Regresses ln r on 1/T (OLS, or WLS with weights from the assay uncertainty), keeps the covariance of slope and intercept, and returns ΔΔH‡ and ΔΔS‡ with SE and CI, residual diagnostics, censored (≥ 99.8 % ee) points as bounds, a curvature check (continuous two-branch model with the break as a parameter, simulated sup-F test, isoinversion only for branch slopes of opposite sign), and predictions — from the branches when a break is accepted — with the confidence interval of the mean line and the prediction interval for a new run.',
+    security: security.open,
     request: { body: { content: { 'application/json': { schema: fitRequestSchema } } } },
     responses: {
       200: { description: 'The fit', content: { 'application/json': { schema: fitResponseSchema } } },
@@ -47,6 +49,7 @@ function statelessPost(path: string, summary: string, description: string, reque
     tags: ['Kinetics'],
     summary,
     description,
+    security: security.open,
     request: { body: { required: true, content: { 'application/json': { schema: request } } } },
     responses: {
       200: { description: 'The computed result.', content: { 'application/json': { schema: response } } },

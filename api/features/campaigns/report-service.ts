@@ -5,7 +5,7 @@
  */
 import type { Knex } from 'knex';
 import { z } from 'zod';
-import { BadRequestError } from '../../lib/errors';
+import { BadRequestError, MailNotSentError } from '../../lib/errors';
 import { CELSIUS_OFFSET_K } from '../../science';
 import { Project } from '../../models/project';
 import { User } from '../../models/user';
@@ -304,7 +304,13 @@ export async function sendCampaignReport(
   const sentTo: SentReport['sentTo'] = [];
   for (const id of ids) {
     const u = byId.get(id)!;
-    await mailer.send({ to: u.email!, subject: `Selectivity report: ${title}`, text, attachments });
+    try {
+      await mailer.send({ to: u.email!, subject: `Selectivity report: ${title}`, text, attachments });
+    } catch (err) {
+      // The mail server's own reply stays in the log (as the cause); the caller reads only what happened.
+      const already = sentTo.length ? ` It was already sent to ${sentTo.map((s) => s.email).join(', ')}.` : '';
+      throw new MailNotSentError(`The report could not be e-mailed to ${u.email}; try again in a few minutes.${already}`, err);
+    }
     sentTo.push({ userId: u.id, email: u.email! });
   }
   return { sentTo, attachments: attachments.map((a) => a.filename) };

@@ -64,14 +64,14 @@ import {
   type ProjectActor,
 } from './service';
 
-const batchSchema = z.strictObject({
+export const batchSchema = z.strictObject({
   measurements: z
     .array(measurementCreateSchema, { error: 'measurements must be a list' })
     .min(1, 'give at least one measurement')
     .max(MAX_BATCH_MEASUREMENTS, `at most ${MAX_BATCH_MEASUREMENTS} measurements per request`),
 });
 
-const versionQuerySchema = z.object({
+export const versionQuerySchema = z.object({
   version: z.coerce
     .number({ error: 'version must be a number' })
     .int('version must be an integer')
@@ -79,7 +79,7 @@ const versionQuerySchema = z.object({
     .optional(),
 });
 
-const historyQuerySchema = z.object({
+export const historyQuerySchema = z.object({
   limit: z.coerce
     .number({ error: 'limit must be a number' })
     .int('limit must be an integer')

@@ -26,7 +26,7 @@ async function databaseAnswers(knex: Knex, timeoutMs: number): Promise<boolean> 
 
 export function healthRouter(deps: { knex: Knex; version: string; timeoutMs?: number }): Router {
   const router = Router();
-  router.get('/health', async (_req, res) => {
+  router.get('/', async (_req, res) => {
     const ok = await databaseAnswers(deps.knex, deps.timeoutMs ?? HEALTH_DB_TIMEOUT_MS);
     res.set('cache-control', 'no-store');
     if (!ok) res.set('retry-after', String(RETRY_AFTER_SECONDS));

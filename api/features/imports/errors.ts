@@ -1,5 +1,8 @@
 import { AppError, type FieldError } from '../../lib/errors';
 
+/** The multipart field the file arrives in (`UPLOAD_FIELD`; not imported here, so the reading worker stays small). */
+const FILE_FIELD = 'file';
+
 /** One problem found in an uploaded file. `row` is the row number a spreadsheet program shows. */
 export interface ImportIssue {
   severity: 'error' | 'warning';
@@ -10,30 +13,34 @@ export interface ImportIssue {
   message: string;
 }
 
+/**
+ * An issue as a field error: the path is the request's file field (a path into the request, like every
+ * errors[] entry); where in the file it is stays in the message and, structured, in the problem's `issues`.
+ */
 export function issueToFieldError(issue: ImportIssue): FieldError {
   const where = [issue.row !== null ? `row ${issue.row}` : null, issue.column !== null ? `column ${issue.column}` : null]
     .filter(Boolean)
     .join(', ');
-  return { path: where || 'file', message: issue.message };
+  return { path: FILE_FIELD, message: where ? `${where}: ${issue.message}` : issue.message };
 }
 
 /** The file itself cannot be read: empty, not a spreadsheet, broken quoting, no worksheet... */
 export class UnreadableFileError extends AppError {
   constructor(detail: string) {
-    super(400, 'Unreadable file', detail, [{ path: 'file', message: detail }]);
+    super('unreadable-file', detail, [{ path: FILE_FIELD, message: detail }]);
   }
 }
 
 /** Rows of the file failed validation; nothing was imported. */
 export class ImportRejectedError extends AppError {
   constructor(detail: string, issues: ImportIssue[]) {
-    super(422, 'Import rejected', detail, issues.filter((i) => i.severity === 'error').map(issueToFieldError), { issues });
+    super('import-rejected', detail, issues.filter((i) => i.severity === 'error').map(issueToFieldError), { issues });
   }
 }
 
 /** The file is valid but has warnings the user has not confirmed; nothing was imported. */
 export class ImportNeedsConfirmationError extends AppError {
   constructor(detail: string, issues: ImportIssue[]) {
-    super(422, 'Warnings need confirmation', detail, issues.map(issueToFieldError), { issues, acknowledgeWarnings: false });
+    super('warnings-need-confirmation', detail, issues.map(issueToFieldError), { issues, acknowledgeWarnings: false });
   }
 }

@@ -123,7 +123,7 @@ async function runTask(file: UploadedFile, task: unknown, name: string): Promise
 }
 
 function rebuildError(e: SerialisedError): AppError {
-  if (e.status === 413) return new PayloadTooLargeError(e.detail);
-  if (e.status === 400 && e.title === 'Unreadable file') return new UnreadableFileError(e.detail);
-  return new AppError(e.status, e.title, e.detail, e.errors ?? [], e.extra ?? {});
+  if (e.type === 'payload-too-large') return new PayloadTooLargeError(e.detail);
+  if (e.type === 'unreadable-file') return new UnreadableFileError(e.detail);
+  return new AppError(e.type, e.detail, e.errors ?? [], e.extra ?? {});
 }

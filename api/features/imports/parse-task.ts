@@ -8,6 +8,7 @@ import { getHeapStatistics } from 'node:v8';
 import type { ImportMapping, ImportParseOptions } from '../campaigns/schemas';
 import type { ImportPreview, StoredRowKeys } from './service';
 import { AppError } from '../../lib/errors';
+import type { ProblemTypeId } from '../../lib/problem-types';
 import { readUpload, type ImportLimits, type ParsedTable } from './parse';
 
 export interface ReadTask {
@@ -18,8 +19,7 @@ export interface ReadTask {
 }
 
 export interface SerialisedError {
-  status: number;
-  title: string;
+  type: ProblemTypeId;
   detail: string;
   errors?: { path: string; message: string }[];
   extra?: Record<string, unknown>;
@@ -55,7 +55,7 @@ export async function readInWorker(task: ReadTask): Promise<ReadAnswer> {
 }
 
 function serialise(err: AppError): SerialisedError {
-  return { status: err.status, title: err.title, detail: err.message, errors: err.errors, extra: err.extra };
+  return { type: err.type, detail: err.message, errors: err.errors, extra: err.extra };
 }
 
 export interface PreviewTask {

@@ -1,5 +1,5 @@
 import type { Knex } from 'knex';
-import { AppError, ConflictError, NotFoundError } from '../../lib/errors';
+import { AppError, ConflictError, MailNotSentError, NotFoundError } from '../../lib/errors';
 import { hashSecret, newSecret } from '../../lib/secrets';
 import { Invitation } from '../../models/invitation';
 import { Project } from '../../models/project';
@@ -34,13 +34,13 @@ const snapshot = (i: Invitation) => ({
 /** 410 Gone with a machine-readable code, so the web page can say exactly what happened. */
 class InvitationGoneError extends AppError {
   constructor(detail: string, code: 'invitation-expired' | 'invitation-used' | 'invitation-revoked') {
-    super(410, 'Invitation no longer valid', detail, [], { code });
+    super('invitation-no-longer-valid', detail, [], { code });
   }
 }
 
 class WrongAccountError extends AppError {
   constructor(detail: string) {
-    super(403, 'Invitation is for someone else', detail, [], { code: 'invitation-wrong-account' });
+    super('invitation-is-for-someone-else', detail, [], { code: 'invitation-wrong-account' });
   }
 }
 
@@ -145,11 +145,8 @@ export async function inviteToProject(
         ].join('\n'),
       });
     } catch (err) {
-      throw new AppError(
-        502,
-        'Mail not sent',
-        `The invitation e-mail could not be sent (${(err as Error).message}); no invitation was created.`,
-      );
+      // The mail server's reply may name hosts or accounts: it goes to the log (as the cause), not to the caller.
+      throw new MailNotSentError('The invitation e-mail could not be sent; no invitation was created. Try again in a few minutes.', err);
     }
     return invitation.id;
   });

@@ -36,13 +36,13 @@ export function jobView(row: JobRow) {
 
 export type JobView = ReturnType<typeof jobView>;
 
-/** Polling a job and downloading what it built; any member of its project may. */
+/** Polling a job and downloading what it built (mounted at /api/v1/jobs); any member of its project may. */
 export function jobsRouter(deps: { knex: Knex }): Router {
   const { knex } = deps;
   const router = Router();
   const byJob = authorizeProject('viewer', (req) => resolveJobProjectId(knex, req.params.jobId));
 
-  router.get('/jobs/:jobId', byJob, async (req, res) => {
+  router.get('/:jobId', byJob, async (req, res) => {
     const row = (await knex('jobs')
       .where({ id: String(req.params.jobId) })
       .first(JOB_COLUMNS)) as JobRow;
@@ -50,7 +50,7 @@ export function jobsRouter(deps: { knex: Knex }): Router {
     res.set('Cache-Control', 'no-store').json(jobView(row));
   });
 
-  router.get('/jobs/:jobId/file', byJob, async (req, res) => {
+  router.get('/:jobId/file', byJob, async (req, res) => {
     const row = await knex('jobs')
       .where({ id: String(req.params.jobId) })
       .first('state', 'resultFile', 'resultFileName');

@@ -14,8 +14,8 @@
 import os from 'node:os';
 import type { Knex } from 'knex';
 import type { Logger } from 'pino';
-import { AppError, UnprocessableError } from '../../lib/errors';
-import { toProblem } from '../../lib/problem';
+import { AppError, MailNotSentError, UnprocessableError } from '../../lib/errors';
+import { problemOf, toProblem } from '../../lib/problem';
 import type { Mailer } from '../mail/mailer';
 import { reportFileName } from '../campaigns/report';
 import { loadCampaignReportData, prepareReport, sendCampaignReport, xlsxOf } from '../campaigns/report-service';
@@ -108,7 +108,8 @@ export async function runOnce(
       try {
         outcome = await work(trx, job, progress);
       } catch (err) {
-        if (!(err instanceof AppError)) throw err;
+        // A mail server that failed may answer next time: that one goes back for another delivery.
+        if (!(err instanceof AppError) || err instanceof MailNotSentError) throw err;
         // A refusal (rows with errors, warnings to confirm, campaign gone…) is the job's answer, not a crash.
         await trx('jobs')
           .where({ id })
@@ -145,12 +146,7 @@ export async function runOnce(
           state: 'failed',
           file: null,
           finishedAt: new Date(),
-          error: JSON.stringify({
-            type: '/problems/job-failed',
-            title: 'Job failed',
-            status: 500,
-            detail: 'The job could not be finished; start it again.',
-          }),
+          error: JSON.stringify(problemOf('job-failed', 'The job could not be finished; start it again.')),
         })
         .catch(() => undefined);
     }

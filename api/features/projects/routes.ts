@@ -21,7 +21,7 @@ import {
   updateProject,
 } from './service';
 
-const historyQuery = z.object({
+export const historyQuery = z.object({
   limit: z.coerce
     .number({ error: 'limit must be a number.' })
     .int('limit must be a whole number.')
@@ -51,8 +51,8 @@ const memberId = (value: unknown) => {
 };
 
 /**
- * Projects, members, invitations and history. Each route names its minimum
- * role once, through authorizeProject; handlers never check roles themselves.
+ * Projects, members, invitations and history, mounted at /api/v1/projects. Each route names its
+ * minimum role once, through authorizeProject; handlers never check roles themselves.
  */
 export function projectsRouter(deps: { knex: Knex; config: AppConfig; mailer: Mailer }): Router {
   const { knex } = deps;
@@ -60,55 +60,55 @@ export function projectsRouter(deps: { knex: Knex; config: AppConfig; mailer: Ma
   const viewer = authorizeProject('viewer', projectIdParam);
   const owner = authorizeProject('owner', projectIdParam);
 
-  router.get('/projects', requireUser, async (req, res) => {
+  router.get('/', requireUser, async (req, res) => {
     res.json({ projects: await listProjectsFor(knex, req.user!.id) });
   });
 
-  router.post('/projects', requireUser, async (req, res) => {
+  router.post('/', requireUser, async (req, res) => {
     const fields = parseBody(projectFieldsSchema, req.body);
     const project = await createProject(knex, req.user!.id, fields);
     res.status(201).location(`/api/v1/projects/${project.id}`).json({ project });
   });
 
-  router.get('/projects/:projectId', viewer, async (req, res) => {
+  router.get('/:projectId', viewer, async (req, res) => {
     res.json({ project: await getProject(knex, req.project!.id, req.project!.role) });
   });
 
-  router.patch('/projects/:projectId', owner, async (req, res) => {
+  router.patch('/:projectId', owner, async (req, res) => {
     const patch = parseBody(projectPatchSchema, withIfMatchVersion(req.body, req.get('If-Match')));
     res.json({ project: await updateProject(knex, req.user!.id, req.project!.id, patch, req.project!.role) });
   });
 
-  router.delete('/projects/:projectId', owner, async (req, res) => {
+  router.delete('/:projectId', owner, async (req, res) => {
     await deleteProject(knex, req.user!.id, req.project!.id);
     res.status(204).end();
   });
 
-  router.get('/projects/:projectId/members', viewer, async (req, res) => {
+  router.get('/:projectId/members', viewer, async (req, res) => {
     res.json({ members: await listMembers(knex, req.project!.id), you: { userId: req.user!.id, role: req.project!.role } });
   });
 
-  router.patch('/projects/:projectId/members/:userId', owner, async (req, res) => {
+  router.patch('/:projectId/members/:userId', owner, async (req, res) => {
     const { role } = parseBody(memberRoleSchema, req.body ?? {});
     res.json({ member: await changeMemberRole(knex, req.user!.id, req.project!.id, memberId(req.params.userId), role) });
   });
 
-  router.delete('/projects/:projectId/members/:userId', owner, async (req, res) => {
+  router.delete('/:projectId/members/:userId', owner, async (req, res) => {
     await removeMember(knex, req.user!.id, req.project!.id, memberId(req.params.userId));
     res.status(204).end();
   });
 
   // Leaving needs only membership: any member may remove themselves (except the last owner).
-  router.delete('/projects/:projectId/membership', viewer, async (req, res) => {
+  router.delete('/:projectId/membership', viewer, async (req, res) => {
     await removeMember(knex, req.user!.id, req.project!.id, req.user!.id);
     res.status(204).end();
   });
 
-  router.get('/projects/:projectId/invitations', owner, async (req, res) => {
+  router.get('/:projectId/invitations', owner, async (req, res) => {
     res.json({ invitations: await listPendingInvitations(knex, req.project!.id) });
   });
 
-  router.post('/projects/:projectId/invitations', owner, async (req, res) => {
+  router.post('/:projectId/invitations', owner, async (req, res) => {
     const input = parseBody(invitationSchema, req.body ?? {});
     const invitation = await inviteToProject(
       knex,
@@ -120,14 +120,14 @@ export function projectsRouter(deps: { knex: Knex; config: AppConfig; mailer: Ma
     res.status(201).json({ invitation });
   });
 
-  router.delete('/projects/:projectId/invitations/:invitationId', owner, async (req, res) => {
+  router.delete('/:projectId/invitations/:invitationId', owner, async (req, res) => {
     if (!uuidSchema.safeParse(req.params.invitationId).success)
       throw new NotFoundError('This project has no pending invitation with this id.');
     await revokeInvitation(knex, req.user!.id, req.project!.id, String(req.params.invitationId));
     res.status(204).end();
   });
 
-  router.get('/projects/:projectId/audit-events', owner, async (req, res) => {
+  router.get('/:projectId/audit-events', owner, async (req, res) => {
     const page = parseBody(historyQuery, req.query);
     res.json(await listAuditEvents(knex, req.project!.id, page));
   });

@@ -8,23 +8,23 @@ import { uuidSchema } from '../projects/schemas';
 import { createTokenSchema } from './schemas';
 import { createToken, listTokens, revokeToken } from './service';
 
-/** Personal API tokens. Managed only from a signed-in browser session. */
+/** Personal API tokens, mounted at /api/v1/tokens. Managed only from a signed-in browser session. */
 export function tokensRouter(deps: { config: AppConfig }): Router {
   const router = Router();
   // Counted after the session-only check, so a token refused here cannot use up its owner's budget.
   const limit = limiter(deps.config.rateLimit.windowMs, deps.config.rateLimit.tokens, 'API-token', true);
 
-  router.get('/tokens', requireSessionUser, limit, async (req, res) => {
+  router.get('/', requireSessionUser, limit, async (req, res) => {
     res.json({ tokens: await listTokens(req.user!.id) });
   });
 
-  router.post('/tokens', requireSessionUser, limit, async (req, res) => {
+  router.post('/', requireSessionUser, limit, async (req, res) => {
     const input = parseBody(createTokenSchema, req.body ?? {});
     const { token, secret } = await createToken(req.user!.id, input);
     res.status(201).set('cache-control', 'no-store').json({ token, secret });
   });
 
-  router.delete('/tokens/:tokenId', requireSessionUser, limit, async (req, res) => {
+  router.delete('/:tokenId', requireSessionUser, limit, async (req, res) => {
     if (!uuidSchema.safeParse(req.params.tokenId).success) throw new NotFoundError('You have no token with this id.');
     await revokeToken(req.user!.id, String(req.params.tokenId));
     res.status(204).end();

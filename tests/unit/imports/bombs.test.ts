@@ -39,7 +39,7 @@ describe('workbook archives that expand beyond the limits', () => {
     const answer = await runInPool({ name: 'bomb.xlsx', buffer: ratioBombWorkbook(100) }, {}, IMPORT_LIMITS);
     expect(answer.ok).toBe(false);
     if (answer.ok) return;
-    expect(answer.error.status).toBe(413);
+    expect(answer.error.type).toBe('payload-too-large');
     // Measured inside the worker: its heap plus external memory, never near the 100 MB the sheet would inflate to
     // (the worker's baseline with the reader loaded is about 70 MB).
     expect(answer.peakMemoryBytes).toBeLessThan(160 * MB);
@@ -53,8 +53,7 @@ describe('workbooks with more rows than the limit', () => {
     expect(answer.ok).toBe(false);
     if (answer.ok) return;
     expect(answer.error).toMatchObject({
-      status: 413,
-      title: 'Payload too large',
+      type: 'payload-too-large',
       // "more than", not a count: the reader never saw the end of the sheet.
       detail:
         'plant-log.xlsx (worksheet "Screen") has more than 20000 rows; at most 20000 data rows can be imported at once. Split the file.',

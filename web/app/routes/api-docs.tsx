@@ -1,18 +1,38 @@
 import { Page, Panel } from '../../components/ui/page';
-import { useOpenApi } from '../../features/api-docs/api/get-openapi';
-import { SchemaView } from '../../features/api-docs/components/schema-view';
+import { useOpenApi, type OpenApiDocument, type OpenApiOperation } from '../../features/api-docs/api/get-openapi';
+import { OperationView } from '../../features/api-docs/components/operation-view';
+import { ProblemTypes } from '../../features/api-docs/components/problem-types';
 
-const methodColour: Record<string, string> = {
-  get: 'bg-slate-200 text-ink-900',
-  post: 'bg-fjord-100 text-fjord-800',
-  put: 'bg-amber-100 text-amber-900',
-  patch: 'bg-amber-100 text-amber-900',
-  delete: 'bg-rose-100 text-rose-900',
-};
+const METHODS = ['get', 'post', 'put', 'patch', 'delete'];
+
+interface Entry {
+  method: string;
+  path: string;
+  op: OpenApiOperation;
+}
+
+/** Operations grouped by their first tag, in the order the document lists them. */
+function byTag(doc: OpenApiDocument): [string, Entry[]][] {
+  const groups = new Map<string, Entry[]>();
+  for (const [path, ops] of Object.entries(doc.paths)) {
+    for (const method of METHODS) {
+      const op = ops[method];
+      if (!op) continue;
+      const tag = op.tags?.[0] ?? 'Other';
+      groups.set(tag, [...(groups.get(tag) ?? []), { method, path, op }]);
+    }
+  }
+  return [...groups];
+}
+
+const anchor = (tag: string) => `tag-${tag.toLowerCase().replace(/[^a-z0-9]+/g, '-')}`;
 
 /** Human-readable view of /api/v1/openapi.json, generated from the server's zod schemas. */
 export function ApiDocsRoute() {
   const { data, error, isPending } = useOpenApi();
+  const components = data?.components?.schemas ?? {};
+  const schemes = data?.components?.securitySchemes ?? {};
+  const groups = data ? byTag(data) : [];
   return (
     <Page
       title="API reference"
@@ -33,43 +53,59 @@ export function ApiDocsRoute() {
         </p>
       )}
       {data && (
-        <div className="space-y-3">
-          {data.info.description && <p className="max-w-4xl text-sm text-ink-700">{data.info.description}</p>}
-          {Object.entries(data.paths).flatMap(([path, ops]) =>
-            Object.entries(ops).map(([method, op]) => {
-              const body = op.requestBody?.content['application/json']?.schema;
-              return (
+        <div className="space-y-6">
+          <Panel title="Calling the API">
+            {data.info.description && <p className="max-w-4xl text-sm text-ink-700">{data.info.description}</p>}
+            <ul className="mt-2 max-w-4xl list-disc space-y-1 pl-5 text-sm text-ink-700">
+              {Object.entries(schemes).map(([name, s]) => (
+                <li key={name}>
+                  <span className="font-mono text-xs text-ink-900">{name}</span>: {s.description}
+                </li>
+              ))}
+            </ul>
+            <nav aria-label="API sections" className="mt-3 text-sm">
+              <ul className="flex flex-wrap gap-x-4 gap-y-1">
+                {groups.map(([tag, entries]) => (
+                  <li key={tag}>
+                    <a className="text-fjord-700 underline" href={`#${anchor(tag)}`}>
+                      {tag}
+                    </a>{' '}
+                    <span className="text-ink-500 tnum">({entries.length})</span>
+                  </li>
+                ))}
+                <li>
+                  <a className="text-fjord-700 underline" href="#problem-types">
+                    Problem types
+                  </a>
+                </li>
+              </ul>
+            </nav>
+          </Panel>
+          {groups.map(([tag, entries]) => (
+            <section key={tag} aria-labelledby={anchor(tag)} className="space-y-3">
+              <h2 id={anchor(tag)} className="text-lg font-semibold text-ink-950">
+                {tag}
+              </h2>
+              {entries.map(({ method, path, op }) => (
                 <Panel key={`${method} ${path}`}>
-                  <h2 className="flex flex-wrap items-baseline gap-2">
-                    <span className={`rounded px-1.5 py-0.5 font-mono text-xs uppercase ${methodColour[method] ?? 'bg-slate-100'}`}>
-                      {method}
-                    </span>
-                    <code className="font-mono text-sm text-ink-950">{path}</code>
-                    {op.summary && <span className="text-sm text-ink-700">— {op.summary}</span>}
-                  </h2>
-                  {op.description && <p className="mt-1 max-w-4xl text-sm text-ink-600">{op.description}</p>}
-                  <div className="mt-2 grid gap-4 lg:grid-cols-2">
-                    {body && (
-                      <div>
-                        <h3 className="text-xs font-semibold uppercase text-ink-500">Request body</h3>
-                        <SchemaView schema={body} components={data.components?.schemas ?? {}} />
-                      </div>
-                    )}
-                    <div>
-                      <h3 className="text-xs font-semibold uppercase text-ink-500">Responses</h3>
-                      <ul className="text-xs">
-                        {Object.entries(op.responses).map(([status, r]) => (
-                          <li key={status}>
-                            <span className="font-mono tnum">{status}</span> {r.description}
-                          </li>
-                        ))}
-                      </ul>
-                    </div>
-                  </div>
+                  <OperationView method={method} path={path} op={op} components={components} schemes={schemes} />
                 </Panel>
-              );
-            }),
-          )}
+              ))}
+            </section>
+          ))}
+          <section aria-labelledby="problem-types" className="space-y-3">
+            <h2 id="problem-types" className="text-lg font-semibold text-ink-950">
+              Problem types
+            </h2>
+            <p className="max-w-4xl text-sm text-ink-700">
+              Every error answer is <code className="font-mono">application/problem+json</code> with one of these types. Branch on{' '}
+              <code className="font-mono">type</code>, not on the title; <code className="font-mono">errors[]</code> names each offending
+              field by its path in the request.
+            </p>
+            <Panel>
+              <ProblemTypes types={data['x-problem-types'] ?? []} />
+            </Panel>
+          </section>
         </div>
       )}
     </Page>
