@@ -29,11 +29,21 @@ try {
     });
     url = cluster.url;
   }
-  const child = spawn(process.execPath, ['--import', 'tsx', 'scripts/bench/run.ts', ...process.argv.slice(2)], {
-    cwd: root,
-    stdio: 'inherit',
-    env: { ...process.env, DATABASE_URL: url, NODE_ENV: 'production', LOG_LEVEL: 'silent', EYRIE_COMPUTE_LIMIT: '100000000' },
-  });
+  const child = spawn(
+    process.execPath,
+    [
+      ...(process.env.EYRIE_BENCH_PROF ? ['--cpu-prof', '--cpu-prof-dir=' + process.env.EYRIE_BENCH_PROF] : []),
+      '--import',
+      'tsx',
+      'scripts/bench/run.ts',
+      ...process.argv.slice(2),
+    ],
+    {
+      cwd: root,
+      stdio: 'inherit',
+      env: { ...process.env, DATABASE_URL: url, NODE_ENV: 'production', LOG_LEVEL: 'silent', EYRIE_COMPUTE_LIMIT: '100000000' },
+    },
+  );
   code = await new Promise((resolve) => child.on('exit', (c) => resolve(c ?? 1)));
 } catch (err) {
   console.error(`eyrie: ${err instanceof FriendlyError ? err.message : (err?.stack ?? err)}`);
