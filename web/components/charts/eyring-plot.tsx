@@ -1,7 +1,7 @@
 import { useMemo, type ReactNode } from 'react';
-import { AreaSeries, Axis, GlyphSeries, Grid, LineSeries, Tooltip, XYChart, type GlyphProps } from '@visx/xychart';
+import { AreaSeries, Axis, GlyphSeries, Grid, LineSeries, Tooltip, XYChart } from '@visx/xychart';
 import { fixed, sig } from '../../lib/format';
-import { ErrorBars, VerticalMark } from './chart-layers';
+import { ErrorBars, noGlyph, PointMarks, VerticalMark, type PointMark } from './chart-layers';
 import { axisLabelProps, chartColors, chartTheme, paddedExtent, tickLabelProps } from './chart-theme';
 import { useElementWidth } from './use-element-width';
 import { CELSIUS_OFFSET_K as CELSIUS_OFFSET } from '../../../api/science/quantities';
@@ -61,35 +61,6 @@ const invT = (kelvin: number) => 1000 / kelvin;
 const xOf = (d: Datum) => d.x;
 const yOf = (d: Datum) => d.y;
 
-function PointGlyph({ x, y, datum }: GlyphProps<Datum>) {
-  if (datum.kind !== 'point') return null;
-  const { status, flagged } = datum.p;
-  const ring = flagged ? <circle cx={x} cy={y} r={8} fill="none" stroke={chartColors.flagRing} strokeWidth={1.5} /> : null;
-  if (status === 'censored') {
-    return (
-      <g>
-        {ring}
-        <path d={`M${x} ${y - 5} L${x + 5} ${y} L${x} ${y + 5} L${x - 5} ${y} Z`} fill={chartColors.ink} />
-        <path d={`M${x - 4} ${y - 8} L${x} ${y - 13} L${x + 4} ${y - 8}`} fill="none" stroke={chartColors.ink} strokeWidth={1.5} />
-      </g>
-    );
-  }
-  if (status === 'excluded') {
-    return (
-      <g>
-        {ring}
-        <circle cx={x} cy={y} r={4.5} fill={chartColors.paper} stroke={chartColors.inkSoft} strokeWidth={1.5} />
-      </g>
-    );
-  }
-  return (
-    <g>
-      {ring}
-      <circle cx={x} cy={y} r={4.5} fill={chartColors.ink} stroke={chartColors.paper} strokeWidth={1} />
-    </g>
-  );
-}
-
 /** Round °C tick values that fall inside a 1000/T domain, for the secondary top axis. */
 /** Least room between two °C labels on the top axis, in pixels (a label such as "−100" is about 28 px wide). */
 const MIN_TICK_GAP = 36;
@@ -148,6 +119,11 @@ export function EyringPlot({
   const chartWidth = width ?? measured;
 
   const pointData = useMemo<Datum[]>(() => points.map((p) => ({ kind: 'point', x: invT(p.kelvin), y: p.lnRatio, p })), [points]);
+  const marks = useMemo<PointMark[]>(
+    () => points.map((p) => ({ x: invT(p.kelvin), y: p.lnRatio, status: p.status, flagged: p.flagged })),
+    [points],
+  );
+  const errorBars = useMemo(() => points.map((p) => ({ x: invT(p.kelvin), low: p.lnRatioLow, high: p.lnRatioHigh })), [points]);
   const curveData = useMemo<Datum[]>(() => curve.map((c) => ({ kind: 'curve', x: invT(c.kelvin), y: c.lnRatio, c })), [curve]);
   const confidence = useMemo(
     () => curve.filter((c) => c.confidence).map((c) => ({ x: invT(c.kelvin), lo: c.confidence![0], hi: c.confidence![1] })),
@@ -257,9 +233,10 @@ export function EyringPlot({
                 enableEvents={false}
               />
             ))}
-            <ErrorBars bars={points.map((p) => ({ x: invT(p.kelvin), low: p.lnRatioLow, high: p.lnRatioHigh }))} />
+            <ErrorBars bars={errorBars} />
+            <PointMarks marks={marks} />
             {pointData.length > 0 && (
-              <GlyphSeries dataKey="measurements" data={pointData} xAccessor={xOf} yAccessor={yOf} renderGlyph={PointGlyph} />
+              <GlyphSeries dataKey="measurements" data={pointData} xAccessor={xOf} yAccessor={yOf} renderGlyph={noGlyph} />
             )}
             {mark && <VerticalMark x={invT(mark.kelvin)} label={mark.label} />}
             <Axis

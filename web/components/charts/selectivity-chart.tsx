@@ -1,7 +1,7 @@
 import { useMemo } from 'react';
-import { AreaSeries, Axis, GlyphSeries, Grid, LineSeries, Tooltip, XYChart, type GlyphProps } from '@visx/xychart';
+import { AreaSeries, Axis, GlyphSeries, Grid, LineSeries, Tooltip, XYChart } from '@visx/xychart';
 import { enantiomericRatio, fixed, percent } from '../../lib/format';
-import { CelsiusAxis, HorizontalRule, VerticalMark } from './chart-layers';
+import { CelsiusAxis, HorizontalRule, noGlyph, PointMarks, VerticalMark, type PointMark } from './chart-layers';
 import { axisLabelProps, chartColors, chartTheme, paddedExtent, tickLabelProps } from './chart-theme';
 import { LegendItem } from './eyring-plot';
 import { useElementWidth } from './use-element-width';
@@ -60,22 +60,6 @@ type Datum =
 const xOf = (d: Datum) => d.x;
 const yOf = (d: Datum) => d.y;
 
-function PointGlyph({ x, y, datum }: GlyphProps<Datum>) {
-  if (datum.kind !== 'point') return null;
-  const status = datum.p.status ?? 'fitted';
-  if (status === 'censored') {
-    return (
-      <g>
-        <path d={`M${x} ${y - 5} L${x + 5} ${y} L${x} ${y + 5} L${x - 5} ${y} Z`} fill={chartColors.ink} />
-        <path d={`M${x - 4} ${y - 8} L${x} ${y - 13} L${x + 4} ${y - 8}`} fill="none" stroke={chartColors.ink} strokeWidth={1.5} />
-      </g>
-    );
-  }
-  if (status === 'excluded')
-    return <circle cx={x} cy={y} r={4.5} fill={chartColors.paper} stroke={chartColors.inkSoft} strokeWidth={1.5} />;
-  return <circle cx={x} cy={y} r={4.5} fill={chartColors.ink} stroke={chartColors.paper} strokeWidth={1} />;
-}
-
 /**
  * Selectivity against temperature (°C): the forecast curve, an optional band, measured
  * points and an optional specification rule. The y axis shows ee % or % A.
@@ -105,6 +89,10 @@ export function SelectivityChart({
 
   const curveData = useMemo<Datum[]>(() => curve.map((c) => ({ kind: 'curve', x: c.celsius, y: pick(c), c })), [curve, measure, fold]);
   const pointData = useMemo<Datum[]>(() => points.map((p) => ({ kind: 'point', x: p.celsius, y: pick(p), p })), [points, measure, fold]);
+  const marks = useMemo<PointMark[]>(
+    () => points.map((p) => ({ x: p.celsius, y: pick(p), status: p.status ?? 'fitted' })),
+    [points, measure, fold],
+  );
   const band = useMemo(
     () =>
       curve
@@ -169,8 +157,9 @@ export function SelectivityChart({
             )}
             {curveData.length === 1 && <GlyphSeries dataKey="curve" data={curveData} xAccessor={xOf} yAccessor={yOf} />}
             {pointData.length > 0 && (
-              <GlyphSeries dataKey="measurements" data={pointData} xAccessor={xOf} yAccessor={yOf} renderGlyph={PointGlyph} />
+              <GlyphSeries dataKey="measurements" data={pointData} xAccessor={xOf} yAccessor={yOf} renderGlyph={noGlyph} />
             )}
+            <PointMarks marks={marks} />
             {mark && <VerticalMark x={mark.celsius} label={mark.label} />}
             <CelsiusAxis />
             <Axis
