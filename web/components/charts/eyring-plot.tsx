@@ -58,6 +58,13 @@ export interface EyringPlotProps {
 type Datum = { kind: 'point'; x: number; y: number; p: EyringPlotPoint } | { kind: 'curve'; x: number; y: number; c: EyringCurvePoint };
 
 const invT = (kelvin: number) => 1000 / kelvin;
+const MARGIN = { top: 40, right: 20, bottom: 46, left: 70 };
+// Accessors defined once: a new function on each render makes xychart register the series again.
+const bandX = (d: { x: number }) => d.x;
+const bandHi = (d: { hi: number }) => d.hi;
+const bandLo = (d: { lo: number }) => d.lo;
+const lineX = (d: { x: number }) => d.x;
+const lineY = (d: { y: number }) => d.y;
 const xOf = (d: Datum) => d.x;
 const yOf = (d: Datum) => d.y;
 
@@ -164,6 +171,9 @@ export function EyringPlot({
       ),
     [points, curve, branchData],
   );
+  // Stable scale settings: xychart rebuilds its scales, and every mark drawn with them, when these change.
+  const xScale = useMemo(() => ({ type: 'linear', domain: xDomain, zero: false }) as const, [xDomain]);
+  const yScale = useMemo(() => ({ type: 'linear', domain: yDomain, zero: false, nice: true }) as const, [yDomain]);
   // Inner width: the chart less its left (70) and right (20) margins.
   const topTicks = useMemo(() => celsiusTicks(xDomain, Math.max(1, chartWidth - 90)), [xDomain, chartWidth]);
   const levelText = `${fixed(confidenceLevel * 100, 0)} %`;
@@ -175,10 +185,10 @@ export function EyringPlot({
           <XYChart
             width={chartWidth}
             height={height}
-            margin={{ top: 40, right: 20, bottom: 46, left: 70 }}
+            margin={MARGIN}
             theme={chartTheme}
-            xScale={{ type: 'linear', domain: xDomain, zero: false }}
-            yScale={{ type: 'linear', domain: yDomain, zero: false, nice: true }}
+            xScale={xScale}
+            yScale={yScale}
             accessibilityLabel={title}
           >
             <Grid columns={false} numTicks={6} lineStyle={{ stroke: chartColors.grid }} />
@@ -186,9 +196,9 @@ export function EyringPlot({
               <AreaSeries
                 dataKey="prediction band"
                 data={prediction}
-                xAccessor={(d) => d.x}
-                yAccessor={(d) => d.hi}
-                y0Accessor={(d) => d.lo}
+                xAccessor={bandX}
+                yAccessor={bandHi}
+                y0Accessor={bandLo}
                 renderLine={false}
                 fill={chartColors.predictionFill}
                 fillOpacity={0.22}
@@ -199,9 +209,9 @@ export function EyringPlot({
               <AreaSeries
                 dataKey="confidence band"
                 data={confidence}
-                xAccessor={(d) => d.x}
-                yAccessor={(d) => d.hi}
-                y0Accessor={(d) => d.lo}
+                xAccessor={bandX}
+                yAccessor={bandHi}
+                y0Accessor={bandLo}
                 renderLine={false}
                 fill={chartColors.confidenceFill}
                 fillOpacity={0.25}
@@ -225,8 +235,8 @@ export function EyringPlot({
                 className="eyrie-branch-line"
                 dataKey={`branch ${b.label}`}
                 data={b.data}
-                xAccessor={(d) => d.x}
-                yAccessor={(d) => d.y}
+                xAccessor={lineX}
+                yAccessor={lineY}
                 stroke={chartColors.branch}
                 strokeWidth={1.75}
                 strokeDasharray="7 4"

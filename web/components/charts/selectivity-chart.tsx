@@ -58,6 +58,11 @@ type Datum =
   { kind: 'curve'; x: number; y: number; c: SelectivityCurvePoint } | { kind: 'point'; x: number; y: number; p: SelectivityMeasuredPoint };
 
 const xOf = (d: Datum) => d.x;
+const MARGIN = { top: 18, right: 20, bottom: 46, left: 66 };
+// Accessors defined once: a new function on each render makes xychart register the series again.
+const bandX = (d: { x: number }) => d.x;
+const bandHi = (d: { hi: number }) => d.hi;
+const bandLo = (d: { lo: number }) => d.lo;
 const yOf = (d: Datum) => d.y;
 
 /**
@@ -116,6 +121,10 @@ export function SelectivityChart({
     return [Math.max(floor, lo), Math.min(ceiling, hi)];
   }, [curveData, pointData, band, spec, measure]);
 
+  // Stable scale settings: xychart rebuilds its scales, and every mark drawn with them, when these change.
+  const xScale = useMemo(() => ({ type: 'linear', domain: xDomain, zero: false }) as const, [xDomain]);
+  const yScale = useMemo(() => ({ type: 'linear', domain: yDomain, zero: false, nice: true, clamp: true }) as const, [yDomain]);
+
   return (
     <figure className="m-0">
       <div ref={ref} className="w-full" data-testid="selectivity-chart">
@@ -123,10 +132,10 @@ export function SelectivityChart({
           <XYChart
             width={chartWidth}
             height={height}
-            margin={{ top: 18, right: 20, bottom: 46, left: 66 }}
+            margin={MARGIN}
             theme={chartTheme}
-            xScale={{ type: 'linear', domain: xDomain, zero: false }}
-            yScale={{ type: 'linear', domain: yDomain, zero: false, nice: true, clamp: true }}
+            xScale={xScale}
+            yScale={yScale}
             accessibilityLabel={title}
           >
             <Grid columns={false} numTicks={6} lineStyle={{ stroke: chartColors.grid }} />
@@ -134,9 +143,9 @@ export function SelectivityChart({
               <AreaSeries
                 dataKey="band"
                 data={band}
-                xAccessor={(d) => d.x}
-                yAccessor={(d) => d.hi}
-                y0Accessor={(d) => d.lo}
+                xAccessor={bandX}
+                yAccessor={bandHi}
+                y0Accessor={bandLo}
                 renderLine={false}
                 fill={chartColors.predictionFill}
                 fillOpacity={0.3}
