@@ -90,6 +90,58 @@ function describeLoads(loads: LoadFigures[]) {
   return `${m.tti.toFixed(0)} ms (DOMContentLoaded ${m.dcl.toFixed(0)} ms, plot + fit + list on screen ${m.ready.toFixed(0)} ms, last long task ends ${m.lastLongTaskEnd.toFixed(0)} ms); all loads: ${loads.map((t) => t.tti.toFixed(0)).join(', ')} ms`;
 }
 
+interface TraceEvent {
+  name: string;
+  ph: string;
+  dur?: number;
+  tid: number;
+  pid: number;
+  args?: { name?: string };
+}
+
+/** Time of the renderer's main thread in its top kinds of work (layout, style, paint, script…), from a timeline trace. */
+function mainThreadWork(events: TraceEvent[]): string {
+  const kinds = new Set([
+    'Layout',
+    'UpdateLayoutTree',
+    'Paint',
+    'PrePaint',
+    'Layerize',
+    'FunctionCall',
+    'EvaluateScript',
+    'v8.compile',
+    'ParseHTML',
+    'MajorGC',
+    'MinorGC',
+    'EventDispatch',
+    'TimerFire',
+    'FireAnimationFrame',
+    'RunMicrotasks',
+    'ParseAuthorStyleSheet',
+    'HitTest',
+    'ResourceReceivedData',
+  ]);
+  // The page's renderer may change at navigation: the busiest renderer main thread is the page's.
+  const mains = new Set(
+    events.filter((e) => e.name === 'thread_name' && e.args?.name === 'CrRendererMain').map((e) => `${e.pid}:${e.tid}`),
+  );
+  const byThread = new Map<string, Map<string, number>>();
+  for (const e of events) {
+    const thread = `${e.pid}:${e.tid}`;
+    if (!mains.has(thread) || e.ph !== 'X' || !kinds.has(e.name)) continue;
+    const totals = byThread.get(thread) ?? new Map<string, number>();
+    totals.set(e.name, (totals.get(e.name) ?? 0) + (e.dur ?? 0) / 1000);
+    byThread.set(thread, totals);
+  }
+  const sum = (m: Map<string, number>) => [...m.values()].reduce((a, b) => a + b, 0);
+  const busiest = [...byThread.values()].sort((a, b) => sum(b) - sum(a))[0];
+  if (!busiest) return 'no renderer main thread in the trace';
+  return [...busiest]
+    .sort((a, b) => b[1] - a[1])
+    .map(([k, ms]) => `${k} ${ms.toFixed(0)} ms`)
+    .join(', ');
+}
+
 /** One more load under the DevTools CPU profiler, written as a .cpuprofile, with the API requests' timings printed. */
 async function profileOneLoad(context: BrowserContext, url: string, file: string) {
   const page = await context.newPage();
@@ -97,11 +149,18 @@ async function profileOneLoad(context: BrowserContext, url: string, file: string
   await cdp.send('Profiler.enable');
   await cdp.send('Profiler.setSamplingInterval', { interval: 200 });
   await cdp.send('Profiler.start');
+  const traceEvents: TraceEvent[] = [];
+  cdp.on('Tracing.dataCollected', (e) => traceEvents.push(...(e.value as unknown as TraceEvent[])));
+  await cdp.send('Tracing.start', { categories: 'devtools.timeline', transferMode: 'ReportEvents' });
   await page.goto(url, { waitUntil: 'commit' });
   await page.waitForSelector('[data-testid="eyring-plot"] svg path.eyrie-points-fitted', { timeout: 60_000 });
   await page.waitForSelector('table[aria-label="Measurements"] tbody tr td', { timeout: 60_000 });
   await page.waitForTimeout(QUIET_MS);
   const { profile } = await cdp.send('Profiler.stop');
+  const traced = new Promise<void>((resolve) => cdp.once('Tracing.tracingComplete', () => resolve()));
+  await cdp.send('Tracing.end');
+  await traced;
+  console.log(`Main thread of the page, by kind of work: ${mainThreadWork(traceEvents)}`);
   const requests = await page.evaluate(() =>
     performance
       .getEntriesByType('resource')

@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { memo, useState } from 'react';
 import { useParams } from 'react-router-dom';
 import { Button } from '../../components/ui/form';
 import { Page, Panel } from '../../components/ui/page';
@@ -22,6 +22,11 @@ import { PlannerPanel } from '../../features/plan/components/planner-panel';
 import { useCampaignSpecification } from '../../features/plan/api/plan';
 
 const INVENTED = /kestrelmoor|invented/i;
+
+// The two heaviest parts of the page draw again only when their own data change, not each time one
+// of the page's other requests (project, saved forecasts, files, history) comes back.
+const CampaignAnalysisPart = memo(CampaignAnalysis);
+const MeasurementGridPart = memo(MeasurementGrid);
 
 function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
   const canEdit = campaign.role !== 'viewer';
@@ -126,7 +131,7 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
               onRetry={worthRetrying(analysis.error) ? retryAnalysis : undefined}
               retrying={analysis.isFetching}
             >
-              <CampaignAnalysis
+              <CampaignAnalysisPart
                 analysis={shownAnalysis}
                 measurements={measurements.data}
                 stale={analysis.isPlaceholderData}
@@ -172,7 +177,7 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
               </Button>
             </div>
           )}
-          {measurements.data && <MeasurementGrid campaign={campaign} measurements={measurements.data} canEdit={canEditRuns} />}
+          {measurements.data && <MeasurementGridPart campaign={campaign} measurements={measurements.data} canEdit={canEditRuns} />}
           {!canEdit && (
             <p className="mt-2 text-xs text-ink-600">You are a viewer in this project: you can read and download, not change.</p>
           )}
