@@ -170,6 +170,10 @@ async function profileOneLoad(context: BrowserContext, url: string, file: string
         return `${r.startTime.toFixed(0).padStart(5)}–${r.responseEnd.toFixed(0).padStart(5)} ms ${String(r.encodedBodySize).padStart(8)} B ${new URL(r.name).pathname}`;
       }),
   );
+  const longTasks = await page.evaluate(() =>
+    (window as unknown as { __eyrieLongTasks: [number, number][] }).__eyrieLongTasks.map(([s, d]) => `${s.toFixed(0)}+${d.toFixed(0)}`),
+  );
+  console.log(`Long tasks (start+duration, ms): ${longTasks.join(', ')}`);
   const elements = await page.evaluate(() => ({
     page: document.querySelectorAll('*').length,
     plots: [...document.querySelectorAll('figure svg')].map((svg) => svg.querySelectorAll('*').length),
