@@ -2,14 +2,24 @@
  * Campaign page in the browser: a campaign of 1 000 stored runs opened in headless Chromium
  * (Debian's /usr/bin/chromium through playwright-core) from the built web app served by the real
  * API on loopback. The figure, `campaignPageMs`, is the time to interactive read from the page's
- * own Performance API: the later of DOMContentLoaded, the moment the Eyring plot, the fitted
- * parameters and the first rows of the runs list are on screen, and the end of the last long task
- * (> 50 ms, PerformanceObserver 'longtask') before the page went quiet. Median of 5 cold loads.
+ * own Performance API: the later of DOMContentLoaded, the moment the Eyring plot's measured points,
+ * the fitted parameters and the first rows of the runs list are on screen, and the end of the last
+ * long task (> 50 ms, PerformanceObserver 'longtask') before the page went quiet, that is before a
+ * full second passed with no long task. Median of 5 cold loads.
+ *
+ * EYRIE_PAGE_BASELINE=<another build's dist/web> interleaves loads of that build, served by the same
+ * API, and prints both medians and their ratio: the fair comparison on a machine whose load varies.
+ * EYRIE_PAGE_PROFILE=file.cpuprofile adds one load under the DevTools CPU profiler and prints the
+ * page's requests with their timings and the number of elements in its charts and tables.
  *
  * Needs DATABASE_URL and dist/web (npm run bench provides both).
  */
 import '../../api/db/pg-types';
 import { randomBytes } from 'node:crypto';
+import { writeFile } from 'node:fs/promises';
+import type { AddressInfo } from 'node:net';
+import type { Server } from 'node:http';
+import type { BrowserContext } from 'playwright-core';
 import { createApp } from '../../api/app';
 import { loadConfig } from '../../api/config';
 import { bindModels, createKnex, migrateLatest } from '../../api/db/knex';
@@ -30,6 +40,153 @@ const OBSERVE_LONG_TASKS = `
   new PerformanceObserver((list) => { for (const e of list.getEntries()) window.__eyrieLongTasks.push([e.startTime, e.duration]); }).observe({ type: 'longtask', buffered: true });
 `;
 
+interface LoadFigures {
+  tti: number;
+  ready: number;
+  dcl: number;
+  lastLongTaskEnd: number;
+}
+
+/** One cold load of `url` in a new tab, timed by the page's own clock (see the top of this file). */
+async function measureLoad(context: BrowserContext, url: string): Promise<LoadFigures> {
+  const page = await context.newPage();
+  await page.goto(url, { waitUntil: 'commit' });
+  // The moment the plot, the fit and the runs list are on screen, as the page's own clock reads it.
+  const ready = (await (
+    await page.waitForFunction(
+      () =>
+        document.querySelector('section[aria-label="Fitted parameters"]') &&
+        // The plot's own marks (a path per kind of mark, or a circle per run in builds before that):
+        // the legend's swatches sit outside the plot's box and are drawn before the plot is.
+        document.querySelector('[data-testid="eyring-plot"] svg :is(path.eyrie-points-fitted, circle)') &&
+        document.querySelector('table[aria-label="Measurements"] tbody tr td') &&
+        performance.now(),
+      undefined,
+      { polling: 'raf', timeout: 60_000 },
+    )
+  ).jsonValue()) as number;
+  // Quiet: a full second with no long task (a later one would still keep the page from answering).
+  await page.waitForFunction(
+    (quietMs) => {
+      const tasks = (window as unknown as { __eyrieLongTasks: [number, number][] }).__eyrieLongTasks;
+      return performance.now() - tasks.reduce((m, [s, d]) => Math.max(m, s + d), 0) >= quietMs;
+    },
+    QUIET_MS,
+    { polling: 100, timeout: 60_000 },
+  );
+  const figures = await page.evaluate(() => {
+    const nav = performance.getEntriesByType('navigation')[0] as PerformanceNavigationTiming;
+    const tasks = (window as unknown as { __eyrieLongTasks: [number, number][] }).__eyrieLongTasks;
+    return { dcl: nav.domContentLoadedEventEnd, lastLongTaskEnd: tasks.reduce((m, [s, d]) => Math.max(m, s + d), 0) };
+  });
+  await page.close();
+  return { ...figures, ready, tti: Math.max(figures.dcl, ready, figures.lastLongTaskEnd) };
+}
+
+const medianLoad = (loads: LoadFigures[]) => [...loads].sort((a, b) => a.tti - b.tti)[Math.floor(loads.length / 2)]!;
+
+function describeLoads(loads: LoadFigures[]) {
+  const m = medianLoad(loads);
+  return `${m.tti.toFixed(0)} ms (DOMContentLoaded ${m.dcl.toFixed(0)} ms, plot + fit + list on screen ${m.ready.toFixed(0)} ms, last long task ends ${m.lastLongTaskEnd.toFixed(0)} ms); all loads: ${loads.map((t) => t.tti.toFixed(0)).join(', ')} ms`;
+}
+
+interface TraceEvent {
+  name: string;
+  ph: string;
+  dur?: number;
+  tid: number;
+  pid: number;
+  args?: { name?: string };
+}
+
+/** Time of the renderer's main thread in its top kinds of work (layout, style, paint, script…), from a timeline trace. */
+function mainThreadWork(events: TraceEvent[]): string {
+  const kinds = new Set([
+    'Layout',
+    'UpdateLayoutTree',
+    'Paint',
+    'PrePaint',
+    'Layerize',
+    'FunctionCall',
+    'EvaluateScript',
+    'v8.compile',
+    'ParseHTML',
+    'MajorGC',
+    'MinorGC',
+    'EventDispatch',
+    'TimerFire',
+    'FireAnimationFrame',
+    'RunMicrotasks',
+    'ParseAuthorStyleSheet',
+    'HitTest',
+    'ResourceReceivedData',
+  ]);
+  // The page's renderer may change at navigation: the busiest renderer main thread is the page's.
+  const mains = new Set(
+    events.filter((e) => e.name === 'thread_name' && e.args?.name === 'CrRendererMain').map((e) => `${e.pid}:${e.tid}`),
+  );
+  const byThread = new Map<string, Map<string, number>>();
+  for (const e of events) {
+    const thread = `${e.pid}:${e.tid}`;
+    if (!mains.has(thread) || e.ph !== 'X' || !kinds.has(e.name)) continue;
+    const totals = byThread.get(thread) ?? new Map<string, number>();
+    totals.set(e.name, (totals.get(e.name) ?? 0) + (e.dur ?? 0) / 1000);
+    byThread.set(thread, totals);
+  }
+  const sum = (m: Map<string, number>) => [...m.values()].reduce((a, b) => a + b, 0);
+  const busiest = [...byThread.values()].sort((a, b) => sum(b) - sum(a))[0];
+  if (!busiest) return 'no renderer main thread in the trace';
+  return [...busiest]
+    .sort((a, b) => b[1] - a[1])
+    .map(([k, ms]) => `${k} ${ms.toFixed(0)} ms`)
+    .join(', ');
+}
+
+/** One more load under the DevTools CPU profiler, written as a .cpuprofile, with the API requests' timings printed. */
+async function profileOneLoad(context: BrowserContext, url: string, file: string) {
+  const page = await context.newPage();
+  const cdp = await context.newCDPSession(page);
+  await cdp.send('Profiler.enable');
+  await cdp.send('Profiler.setSamplingInterval', { interval: 200 });
+  await cdp.send('Profiler.start');
+  const traceEvents: TraceEvent[] = [];
+  cdp.on('Tracing.dataCollected', (e) => traceEvents.push(...(e.value as unknown as TraceEvent[])));
+  await cdp.send('Tracing.start', { categories: 'devtools.timeline', transferMode: 'ReportEvents' });
+  await page.goto(url, { waitUntil: 'commit' });
+  await page.waitForSelector('[data-testid="eyring-plot"] svg path.eyrie-points-fitted', { timeout: 60_000 });
+  await page.waitForSelector('table[aria-label="Measurements"] tbody tr td', { timeout: 60_000 });
+  await page.waitForTimeout(QUIET_MS);
+  const { profile } = await cdp.send('Profiler.stop');
+  const traced = new Promise<void>((resolve) => cdp.once('Tracing.tracingComplete', () => resolve()));
+  await cdp.send('Tracing.end');
+  await traced;
+  console.log(`Main thread of the page, by kind of work: ${mainThreadWork(traceEvents)}`);
+  const requests = await page.evaluate(() =>
+    performance
+      .getEntriesByType('resource')
+      .filter((e) => e.name.includes('/api/') || /\.(js|css)$/.test(e.name))
+      .map((e) => {
+        const r = e as PerformanceResourceTiming;
+        return `${r.startTime.toFixed(0).padStart(5)}–${r.responseEnd.toFixed(0).padStart(5)} ms ${String(r.encodedBodySize).padStart(8)} B ${new URL(r.name).pathname}`;
+      }),
+  );
+  const longTasks = await page.evaluate(() =>
+    (window as unknown as { __eyrieLongTasks: [number, number][] }).__eyrieLongTasks.map(([s, d]) => `${s.toFixed(0)}+${d.toFixed(0)}`),
+  );
+  console.log(`Long tasks (start+duration, ms): ${longTasks.join(', ')}`);
+  const elements = await page.evaluate(() => ({
+    page: document.querySelectorAll('*').length,
+    plots: [...document.querySelectorAll('figure svg')].map((svg) => svg.querySelectorAll('*').length),
+    tables: [...document.querySelectorAll('table')].map(
+      (t) => `${t.getAttribute('aria-label') ?? t.querySelector('caption')?.textContent}: ${t.querySelectorAll('*').length}`,
+    ),
+  }));
+  console.log(JSON.stringify(elements));
+  await page.close();
+  await writeFile(file, JSON.stringify(profile));
+  console.log(`\nProfiled load written to ${file}; requests:\n${requests.join('\n')}`);
+}
+
 async function run() {
   const knex = createKnex(process.env.DATABASE_URL!, { min: 0, max: 4 });
   bindModels(knex);
@@ -44,6 +201,7 @@ async function run() {
   const tag = randomBytes(4).toString('hex');
   const identity = { login: `page-bench-${tag}`, name: 'Page bench', email: `page-bench-${tag}@example.test` };
   const browser = await openBrowser(app);
+  let baselineServer: Server | null = null;
   let projectId: string | null = null;
   try {
     const { done, user } = await signIn(app, identity);
@@ -74,40 +232,51 @@ async function run() {
     await context.addInitScript(OBSERVE_LONG_TASKS);
     const url = `${baseUrl}/campaigns/${campaign.id}`;
 
-    const times: { tti: number; ready: number; dcl: number; lastLongTaskEnd: number }[] = [];
-    for (let i = 0; i <= LOADS; i++) {
-      const page = await context.newPage();
-      await page.goto(url, { waitUntil: 'commit' });
-      // The moment the plot, the fit and the runs list are on screen, as the page's own clock reads it.
-      const ready = (await (
-        await page.waitForFunction(
-          () =>
-            document.querySelector('section[aria-label="Fitted parameters"]') &&
-            document.querySelector('figure svg circle') &&
-            document.querySelector('table[aria-label="Measurements"] tbody tr td') &&
-            performance.now(),
-          undefined,
-          { polling: 'raf', timeout: 60_000 },
-        )
-      ).jsonValue()) as number;
-      await page.waitForTimeout(QUIET_MS);
-      const figures = await page.evaluate(() => {
-        const nav = performance.getEntriesByType('navigation')[0] as PerformanceNavigationTiming;
-        const tasks = (window as unknown as { __eyrieLongTasks: [number, number][] }).__eyrieLongTasks;
-        return { dcl: nav.domContentLoadedEventEnd, lastLongTaskEnd: tasks.reduce((m, [s, d]) => Math.max(m, s + d), 0) };
+    // Optionally another build of the web app (say, of an earlier commit) served by the same API, its
+    // loads interleaved with this build's, so the two figures share the machine's load of the moment.
+    const baselineDist = process.env.EYRIE_PAGE_BASELINE;
+    let baselineUrl: string | null = null;
+    if (baselineDist) {
+      const baselineApp = createApp({
+        knex,
+        config: loadConfig({ nodeEnv: 'test', devTools: true, databaseUrl: process.env.DATABASE_URL! }),
+        fakeOAuth: provider,
+        webDist: baselineDist,
       });
-      await page.close();
-      // The first load warms the server and the browser's code cache; it is not counted.
-      if (i > 0) times.push({ ...figures, ready, tti: Math.max(figures.dcl, ready, figures.lastLongTaskEnd) });
+      baselineServer = await new Promise<Server>((resolve) => {
+        const server = baselineApp.listen(0, '127.0.0.1', () => resolve(server));
+      });
+      const base = `http://127.0.0.1:${(baselineServer.address() as AddressInfo).port}`;
+      await context.addCookies([{ name, value, url: base }]);
+      baselineUrl = `${base}/campaigns/${campaign.id}`;
     }
-    times.sort((a, b) => a.tti - b.tti);
-    const median = times[Math.floor(times.length / 2)]!;
+
+    const times: LoadFigures[] = [];
+    const baselineTimes: LoadFigures[] = [];
+    for (let i = 0; i <= LOADS; i++) {
+      const current = await measureLoad(context, url);
+      const baseline = baselineUrl ? await measureLoad(context, baselineUrl) : null;
+      // The first load warms the server and the browser's code cache; it is not counted.
+      if (i > 0) {
+        times.push(current);
+        if (baseline) baselineTimes.push(baseline);
+      }
+    }
+    if (process.env.EYRIE_PAGE_PROFILE) await profileOneLoad(context, url, process.env.EYRIE_PAGE_PROFILE);
+    const median = medianLoad(times);
     console.log(`\nCampaign page, ${RUNS} runs charted and listed, headless Chromium, median of ${LOADS} loads after one warm-up`);
-    console.log(
-      `time to interactive ${median.tti.toFixed(0)} ms (DOMContentLoaded ${median.dcl.toFixed(0)} ms, plot + fit + list on screen ${median.ready.toFixed(0)} ms, last long task ends ${median.lastLongTaskEnd.toFixed(0)} ms); all loads: ${times.map((t) => t.tti.toFixed(0)).join(', ')} ms; target ≤ 500 ms`,
-    );
+    console.log(`time to interactive ${describeLoads(times)}; target ≤ 500 ms`);
+    if (baselineTimes.length) {
+      const baseline = medianLoad(baselineTimes);
+      console.log(`baseline build (${baselineDist}), loads interleaved: ${describeLoads(baselineTimes)}`);
+      console.log(`this build / baseline: ${(median.tti / baseline.tti).toFixed(2)}×`);
+    }
     recordFigure('campaignPageMs', median.tti, 0);
   } finally {
+    if (baselineServer) {
+      const server = baselineServer;
+      await new Promise<void>((resolve) => server.close(() => resolve()));
+    }
     await browser.close();
     await provider.close();
     if (projectId) await knex('projects').where({ id: projectId }).delete();

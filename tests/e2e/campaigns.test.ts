@@ -372,4 +372,59 @@ describe('campaign pages in Chromium', () => {
     if (size) await page.setViewportSize(size);
     await signOut(page);
   }, 60_000);
+  it('when the analysis fails to reload after a good load, then the last one stays greyed and labelled stale with a retry, and the forecast never asks for measurements', async () => {
+    const { page, baseUrl } = browser;
+    const who = { login: `st-${Date.now().toString(36)}`, name: 'Stig Stale', email: `st-${Date.now().toString(36)}@example.test` };
+    const editor = await createUser(who);
+    const project = await createProject([{ user: editor, role: 'editor' }], { name: 'Stale result checks (invented)' });
+    const { createCampaign } = await import('../factories/campaigns');
+    const { Measurement } = await import('../../api/models/measurement');
+    const campaign = await createCampaign(project.id, { title: 'Invented screen of 150 runs' });
+    // Invented runs: 15 temperatures from −80 to +32 °C, ln r = 1200/T − 1.2 with a fixed zig-zag of ±0.03.
+    const runs = Array.from({ length: 150 }, (_, i) => {
+      const temperatureK = 193.15 + (i % 15) * 8;
+      const lnR = 1200 / temperatureK - 1.2 + (i % 2 ? 0.03 : -0.03);
+      return { campaignId: campaign.id, temperatureK, measure: 'ee' as const, value: Math.round(10000 * Math.tanh(lnR / 2)) / 100 };
+    });
+    await Measurement.query().insert(runs);
+
+    await signInAs(page, baseUrl, who, `/campaigns/${campaign.id}`);
+    const parameters = page.getByRole('region', { name: 'Fitted parameters' });
+    await expect.poll(() => parameters.textContent(), { timeout: 15_000 }).toContain('ΔΔH‡');
+    const before = (await parameters.textContent())!;
+    // 150 runs: the residual table draws the rows in view of its box, not all of them.
+    const residualRows = await page
+      .getByRole('region', { name: 'Residuals and flags for each run' })
+      .locator('tbody tr[data-index]')
+      .count();
+    expect(residualRows).toBeGreaterThan(5);
+    expect(residualRows).toBeLessThan(150);
+
+    // Every analysis request from here on meets a server fault.
+    const failing = '**/api/v1/campaigns/*/analysis?*';
+    await page.route(failing, (route) =>
+      route.fulfill({
+        status: 503,
+        contentType: 'application/problem+json',
+        body: JSON.stringify({ type: 'about:blank', title: 'Service Unavailable', status: 503, detail: 'The analysis is unavailable.' }),
+      }),
+    );
+    // The segmented control's label takes the click for its visually hidden radio.
+    await page.locator('label').filter({ hasText: 'By assay uncertainty' }).click();
+    const result = page.locator('[data-stale="failed"]');
+    await expect.poll(() => result.count(), { timeout: 15_000 }).toBe(1);
+    expect(await result.getByText('stale', { exact: true }).isVisible()).toBe(true);
+    expect(await result.locator('.opacity-50').count()).toBe(1);
+    // The last analysis is the one on screen, unchanged.
+    expect(await parameters.textContent()).toBe(before);
+    const forecast = page.getByRole('region', { name: 'Forecast at a proposed temperature' });
+    expect(await forecast.textContent()).not.toContain('add measurements');
+    await maybeScreenshot(page, 'campaigns-stale-analysis');
+
+    await page.unroute(failing);
+    await result.getByRole('button', { name: 'Retry' }).click();
+    await expect.poll(() => page.locator('[data-stale]').count(), { timeout: 15_000 }).toBe(0);
+    expect(await parameters.textContent()).toContain('ΔΔH‡');
+    await signOut(page);
+  }, 60_000);
 });

@@ -37,12 +37,16 @@ describe('EyringPlot', () => {
     expect(svg!.querySelectorAll('path.eyrie-fit-line')).toHaveLength(1);
     expect(svg!.querySelector('path.eyrie-fit-line')!.getAttribute('d')!.length).toBeGreaterThan(20);
     expect(svg!.querySelector('path.visx-area')!.getAttribute('d')!.length).toBeGreaterThan(20);
-    // two filled and one hollow circle, a flag ring, and the censored diamond + caret
-    const circles = [...svg!.querySelectorAll('circle')];
-    expect(circles.filter((c) => c.getAttribute('fill') === '#ffffff' && c.getAttribute('r') === '4.5')).toHaveLength(1);
-    expect(circles.filter((c) => c.getAttribute('r') === '8')).toHaveLength(1);
-    expect(svg!.querySelectorAll('path[d^="M"][fill="none"]').length).toBeGreaterThanOrEqual(1);
-    expect(svg!.querySelector('.eyrie-error-bars line')).not.toBeNull();
+    // two filled and one hollow circle, a flag ring, and the censored diamond + caret: one path per kind, one subpath per run
+    const subpaths = (kind: string) => (svg!.querySelector(`path.eyrie-points-${kind}`)?.getAttribute('d')?.match(/M/g) ?? []).length;
+    expect(subpaths('fitted')).toBe(2);
+    expect(subpaths('excluded')).toBe(1);
+    expect(svg!.querySelector('path.eyrie-points-excluded')!.getAttribute('fill')).toBe('#ffffff');
+    expect(subpaths('flagged')).toBe(1);
+    expect(subpaths('censored')).toBe(1);
+    expect(subpaths('censored-caret')).toBe(1);
+    // one bar with both caps: the bar and two caps
+    expect((svg!.querySelector('path.eyrie-error-bars')!.getAttribute('d')!.match(/M/g) ?? []).length).toBe(3);
     const text = svg!.textContent ?? '';
     expect(text).toContain('1000/T (K⁻¹)');
     expect(text).toContain('ln r');
@@ -64,6 +68,24 @@ describe('EyringPlot', () => {
       />,
     );
     expect(container.querySelectorAll('path.eyrie-branch-line[stroke-dasharray="7 4"]')).toHaveLength(2);
+  });
+
+  it('when a screen has a thousand runs, then the chart draws them with a handful of elements, each run a subpath', () => {
+    const many: EyringPlotPoint[] = Array.from({ length: 1000 }, (_, i) => ({
+      id: i,
+      kelvin: 193.15 + (i % 40) * 3,
+      lnRatio: 1200 / (193.15 + (i % 40) * 3) - 1.2,
+      lnRatioLow: 1200 / (193.15 + (i % 40) * 3) - 1.25,
+      lnRatioHigh: 1200 / (193.15 + (i % 40) * 3) - 1.15,
+      status: i % 100 === 0 ? 'excluded' : 'fitted',
+    }));
+    const { container } = render(<EyringPlot title="many" points={many} curve={curve} width={640} />);
+    const svg = container.querySelector('svg[aria-label="many"]')!;
+    const count = (selector: string) => (svg.querySelector(selector)!.getAttribute('d')!.match(/M/g) ?? []).length;
+    expect(count('path.eyrie-points-fitted')).toBe(990);
+    expect(count('path.eyrie-points-excluded')).toBe(10);
+    expect(count('path.eyrie-error-bars')).toBe(3000);
+    expect(svg.querySelectorAll('*').length).toBeLessThan(200);
   });
 });
 
@@ -93,6 +115,7 @@ describe('SelectivityChart', () => {
     const svg = container.querySelector('svg[aria-label="sel"]')!;
     expect(svg.querySelectorAll('path.visx-area')).toHaveLength(1);
     expect(svg.querySelector('path.eyrie-curve-line')).not.toBeNull();
+    expect((svg.querySelector('path.eyrie-points-fitted')!.getAttribute('d')!.match(/M/g) ?? []).length).toBe(1);
     expect(svg.textContent).toContain('specification 99 % ee');
     expect(svg.textContent).toContain('Temperature (°C)');
     expect(svg.textContent).toContain('ee (%)');

@@ -1,7 +1,8 @@
-import { useState } from 'react';
+import { memo, useState } from 'react';
 import { useParams } from 'react-router-dom';
 import { Button } from '../../components/ui/form';
 import { Page, Panel } from '../../components/ui/page';
+import { StaleResult, useLastDefined, worthRetrying } from '../../components/ui/stale';
 import { paths } from '../../config/paths';
 import { SignedInOnly } from '../../features/auth/components/signed-in-only';
 import { Segmented } from '../../features/calculators/components/fields';
@@ -22,6 +23,11 @@ import { useCampaignSpecification } from '../../features/plan/api/plan';
 
 const INVENTED = /kestrelmoor|invented/i;
 
+// The two heaviest parts of the page draw again only when their own data change, not each time one
+// of the page's other requests (project, saved forecasts, files, history) comes back.
+const CampaignAnalysisPart = memo(CampaignAnalysis);
+const MeasurementGridPart = memo(MeasurementGrid);
+
 function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
   const canEdit = campaign.role !== 'viewer';
   // A signed-off campaign keeps its measurements as they are until someone reopens it.
@@ -30,6 +36,9 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
   const [atCelsius, setAtCelsius] = useState<number | null>(null);
   const measurements = useMeasurements(campaign.id);
   const analysis = useAnalysis(campaign.id, { weighting, atCelsius });
+  // A failed reload leaves the last analysis on screen, greyed and labelled stale, with a retry.
+  const shownAnalysis = useLastDefined(analysis.data);
+  const retryAnalysis = () => void analysis.refetch();
   const specification = useCampaignSpecification(campaign.id);
   const project = useProject(campaign.projectId);
   // The assay SD is in the campaign's measure; it sets the decimals of percentage columns only when that measure is a percentage.
@@ -101,38 +110,50 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
               </span>
             )}
           </div>
-          {analysis.isPending && <p className="text-sm text-ink-500">Fitting…</p>}
-          {analysis.isError && (
+          {!shownAnalysis && analysis.isPending && <p className="text-sm text-ink-500">Fitting…</p>}
+          {!shownAnalysis && analysis.isError && (
             <div role="alert" className="flex flex-wrap items-center gap-2 text-sm text-rose-700">
               The analysis failed: {analysis.error.message}
-              <Button onClick={() => void analysis.refetch()} disabled={analysis.isFetching}>
-                Try again
-              </Button>
+              {worthRetrying(analysis.error) && (
+                <Button onClick={retryAnalysis} disabled={analysis.isFetching}>
+                  Try again
+                </Button>
+              )}
             </div>
           )}
-          {analysis.data && measurements.data && (
-            <CampaignAnalysis
-              analysis={analysis.data}
-              measurements={measurements.data}
-              stale={analysis.isPlaceholderData}
-              measure={campaign.measure}
-              specification={specification.data?.effective ?? null}
-              assaySd={assaySd}
-            />
+          {shownAnalysis && analysis.isError && (
+            <p className="mb-2 text-xs text-rose-700">The analysis could not be brought up to date: {analysis.error.message}</p>
+          )}
+          {shownAnalysis && measurements.data && (
+            <StaleResult
+              reason={analysis.isError ? 'failed' : null}
+              action="Try again"
+              onRetry={worthRetrying(analysis.error) ? retryAnalysis : undefined}
+              retrying={analysis.isFetching}
+            >
+              <CampaignAnalysisPart
+                analysis={shownAnalysis}
+                measurements={measurements.data}
+                stale={analysis.isPlaceholderData}
+                measure={campaign.measure}
+                specification={specification.data?.effective ?? null}
+                assaySd={assaySd}
+              />
+            </StaleResult>
           )}
         </Panel>
 
         <Panel title="Forecast at a proposed temperature">
           <ProposedTemperatureForecastPanel
             campaignId={campaign.id}
-            analysis={analysis.data}
+            analysis={analysis.isError ? undefined : analysis.data}
             atCelsius={atCelsius}
             onAt={setAtCelsius}
             weighting={weighting}
             canEdit={canEdit}
             measure={campaign.measure}
             failed={analysis.isError}
-            onRetry={() => void analysis.refetch()}
+            onRetry={worthRetrying(analysis.error) ? retryAnalysis : undefined}
             retrying={analysis.isFetching}
           />
         </Panel>
@@ -156,7 +177,7 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
               </Button>
             </div>
           )}
-          {measurements.data && <MeasurementGrid campaign={campaign} measurements={measurements.data} canEdit={canEditRuns} />}
+          {measurements.data && <MeasurementGridPart campaign={campaign} measurements={measurements.data} canEdit={canEditRuns} />}
           {!canEdit && (
             <p className="mt-2 text-xs text-ink-600">You are a viewer in this project: you can read and download, not change.</p>
           )}
@@ -199,7 +220,8 @@ function CampaignPage({ campaignId }: { campaignId: string }) {
       </Page>
     );
   }
-  return <CampaignBody campaign={campaign.data} />;
+  // Keyed, so nothing kept on screen for one campaign (such as its last analysis) carries over to the next.
+  return <CampaignBody key={campaign.data.id} campaign={campaign.data} />;
 }
 
 export function CampaignRoute() {

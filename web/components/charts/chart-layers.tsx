@@ -1,4 +1,4 @@
-import { useContext } from 'react';
+import { useContext, useMemo } from 'react';
 import { Axis, DataContext } from '@visx/xychart';
 import { fixed } from '../../lib/format';
 import { axisLabelProps, chartColors, chartFont, tickLabelProps } from './chart-theme';
@@ -18,31 +18,112 @@ export interface ErrorBar {
   high?: number | null;
 }
 
-/** Vertical error bars with short caps; an open end (null) is drawn as an arrowhead-free open line. */
+/** Pixel coordinates to one decimal: enough for a screen, and a path of a thousand marks stays short. */
+const px = (v: number) => Math.round(v * 10) / 10;
+
+/**
+ * Vertical error bars with short caps; an open end (null) runs to the edge of the plot. One path for
+ * all bars, so a screen of a thousand runs adds one element to the page, not four thousand.
+ */
 export function ErrorBars({ bars, color = chartColors.inkSoft }: { bars: ErrorBar[]; color?: string }) {
   const area = usePlotArea();
-  if (!area) return null;
+  const d = useMemo(() => {
+    if (!area) return '';
+    const parts: string[] = [];
+    for (const bar of bars) {
+      const cx = area.x(bar.x);
+      if (cx === undefined || !Number.isFinite(cx)) continue;
+      const yLow = bar.low != null ? area.y(bar.low) : undefined;
+      const yHigh = bar.high != null ? area.y(bar.high) : undefined;
+      if (yLow === undefined && yHigh === undefined) continue;
+      const top = yHigh ?? area.margin.top;
+      const bottom = yLow ?? area.margin.top + area.innerHeight;
+      const x = px(cx);
+      parts.push(`M${x} ${px(top)}V${px(bottom)}`);
+      if (yHigh !== undefined) parts.push(`M${px(cx - 3)} ${px(yHigh)}H${px(cx + 3)}`);
+      if (yLow !== undefined) parts.push(`M${px(cx - 3)} ${px(yLow)}H${px(cx + 3)}`);
+    }
+    return parts.join('');
+  }, [area?.x, area?.y, area?.margin.top, area?.innerHeight, bars]);
+  if (!area || !d) return null;
+  return <path className="eyrie-error-bars" d={d} fill="none" stroke={color} strokeWidth={1} pointerEvents="none" />;
+}
+
+/** A measured run as drawn on a chart, in data coordinates. */
+export interface PointMark {
+  x: number;
+  y: number;
+  /** fitted: filled circle; excluded: hollow circle; censored: diamond with an upward caret (a lower bound). */
+  status: 'fitted' | 'excluded' | 'censored';
+  /** Drawn with an outer ring. */
+  flagged?: boolean;
+}
+
+const MARK_RADIUS = 4.5;
+const RING_RADIUS = 8;
+const circleAt = (x: number, y: number, r: number) => `M${px(x - r)} ${px(y)}a${r} ${r} 0 1 0 ${2 * r} 0a${r} ${r} 0 1 0 ${-2 * r} 0`;
+
+/** The subpaths of each kind of mark, in pixels. */
+export function pointMarkPaths(marks: PointMark[], x: (v: number) => number | undefined, y: (v: number) => number | undefined) {
+  const rings: string[] = [];
+  const fitted: string[] = [];
+  const excluded: string[] = [];
+  const diamonds: string[] = [];
+  const carets: string[] = [];
+  for (const m of marks) {
+    const cx = x(m.x);
+    const cy = y(m.y);
+    if (cx === undefined || cy === undefined || !Number.isFinite(cx) || !Number.isFinite(cy)) continue;
+    if (m.flagged) rings.push(circleAt(cx, cy, RING_RADIUS));
+    if (m.status === 'censored') {
+      diamonds.push(`M${px(cx)} ${px(cy - 5)}l5 5l-5 5l-5 -5Z`);
+      carets.push(`M${px(cx - 4)} ${px(cy - 8)}l4 -5l4 5`);
+    } else if (m.status === 'excluded') excluded.push(circleAt(cx, cy, MARK_RADIUS));
+    else fitted.push(circleAt(cx, cy, MARK_RADIUS));
+  }
+  return {
+    rings: rings.join(''),
+    fitted: fitted.join(''),
+    excluded: excluded.join(''),
+    diamonds: diamonds.join(''),
+    carets: carets.join(''),
+  };
+}
+
+/**
+ * The measured runs: one path per kind of mark (rings, filled and hollow circles, diamonds, carets)
+ * rather than an element per run, which kept a chart of a thousand runs busy in layout. The marks
+ * take no pointer events; the chart's tooltip finds the nearest run from its own data.
+ */
+export function PointMarks({ marks }: { marks: PointMark[] }) {
+  const area = usePlotArea();
+  const paths = useMemo(() => (area ? pointMarkPaths(marks, area.x, area.y) : null), [area?.x, area?.y, marks]);
+  if (!paths) return null;
   return (
-    <g className="eyrie-error-bars" pointerEvents="none">
-      {bars.map((bar, i) => {
-        const cx = area.x(bar.x);
-        if (cx === undefined || !Number.isFinite(cx)) return null;
-        const yLow = bar.low != null ? area.y(bar.low) : undefined;
-        const yHigh = bar.high != null ? area.y(bar.high) : undefined;
-        if (yLow === undefined && yHigh === undefined) return null;
-        const top = yHigh ?? area.margin.top;
-        const bottom = yLow ?? area.margin.top + area.innerHeight;
-        return (
-          <g key={i} stroke={color} strokeWidth={1}>
-            <line x1={cx} x2={cx} y1={top} y2={bottom} />
-            {yHigh !== undefined && <line x1={cx - 3} x2={cx + 3} y1={yHigh} y2={yHigh} />}
-            {yLow !== undefined && <line x1={cx - 3} x2={cx + 3} y1={yLow} y2={yLow} />}
-          </g>
-        );
-      })}
+    <g className="eyrie-points" pointerEvents="none">
+      {paths.rings && <path className="eyrie-points-flagged" d={paths.rings} fill="none" stroke={chartColors.flagRing} strokeWidth={1.5} />}
+      {paths.excluded && (
+        <path
+          className="eyrie-points-excluded"
+          d={paths.excluded}
+          fill={chartColors.paper}
+          stroke={chartColors.inkSoft}
+          strokeWidth={1.5}
+        />
+      )}
+      {paths.fitted && (
+        <path className="eyrie-points-fitted" d={paths.fitted} fill={chartColors.ink} stroke={chartColors.paper} strokeWidth={1} />
+      )}
+      {paths.diamonds && <path className="eyrie-points-censored" d={paths.diamonds} fill={chartColors.ink} />}
+      {paths.carets && (
+        <path className="eyrie-points-censored-caret" d={paths.carets} fill="none" stroke={chartColors.ink} strokeWidth={1.5} />
+      )}
     </g>
   );
 }
+
+/** Registers the runs with the chart so the tooltip can snap to them, drawing nothing itself (PointMarks draws them). */
+export const noGlyph = () => null;
 
 /** A labelled horizontal rule across the plot (e.g. a specification such as 99 % ee). */
 export function HorizontalRule({ y, label, color = chartColors.caution }: { y: number; label: string; color?: string }) {

@@ -1,7 +1,7 @@
 import { useMemo, type ReactNode } from 'react';
-import { AreaSeries, Axis, GlyphSeries, Grid, LineSeries, Tooltip, XYChart, type GlyphProps } from '@visx/xychart';
+import { AreaSeries, Axis, GlyphSeries, Grid, LineSeries, Tooltip, XYChart } from '@visx/xychart';
 import { fixed, sig } from '../../lib/format';
-import { ErrorBars, VerticalMark } from './chart-layers';
+import { ErrorBars, noGlyph, PointMarks, VerticalMark, type PointMark } from './chart-layers';
 import { axisLabelProps, chartColors, chartTheme, paddedExtent, tickLabelProps } from './chart-theme';
 import { useElementWidth } from './use-element-width';
 import { CELSIUS_OFFSET_K as CELSIUS_OFFSET } from '../../../api/science/quantities';
@@ -58,37 +58,15 @@ export interface EyringPlotProps {
 type Datum = { kind: 'point'; x: number; y: number; p: EyringPlotPoint } | { kind: 'curve'; x: number; y: number; c: EyringCurvePoint };
 
 const invT = (kelvin: number) => 1000 / kelvin;
+const MARGIN = { top: 40, right: 20, bottom: 46, left: 70 };
+// Accessors defined once: a new function on each render makes xychart register the series again.
+const bandX = (d: { x: number }) => d.x;
+const bandHi = (d: { hi: number }) => d.hi;
+const bandLo = (d: { lo: number }) => d.lo;
+const lineX = (d: { x: number }) => d.x;
+const lineY = (d: { y: number }) => d.y;
 const xOf = (d: Datum) => d.x;
 const yOf = (d: Datum) => d.y;
-
-function PointGlyph({ x, y, datum }: GlyphProps<Datum>) {
-  if (datum.kind !== 'point') return null;
-  const { status, flagged } = datum.p;
-  const ring = flagged ? <circle cx={x} cy={y} r={8} fill="none" stroke={chartColors.flagRing} strokeWidth={1.5} /> : null;
-  if (status === 'censored') {
-    return (
-      <g>
-        {ring}
-        <path d={`M${x} ${y - 5} L${x + 5} ${y} L${x} ${y + 5} L${x - 5} ${y} Z`} fill={chartColors.ink} />
-        <path d={`M${x - 4} ${y - 8} L${x} ${y - 13} L${x + 4} ${y - 8}`} fill="none" stroke={chartColors.ink} strokeWidth={1.5} />
-      </g>
-    );
-  }
-  if (status === 'excluded') {
-    return (
-      <g>
-        {ring}
-        <circle cx={x} cy={y} r={4.5} fill={chartColors.paper} stroke={chartColors.inkSoft} strokeWidth={1.5} />
-      </g>
-    );
-  }
-  return (
-    <g>
-      {ring}
-      <circle cx={x} cy={y} r={4.5} fill={chartColors.ink} stroke={chartColors.paper} strokeWidth={1} />
-    </g>
-  );
-}
 
 /** Round °C tick values that fall inside a 1000/T domain, for the secondary top axis. */
 /** Least room between two °C labels on the top axis, in pixels (a label such as "−100" is about 28 px wide). */
@@ -148,6 +126,11 @@ export function EyringPlot({
   const chartWidth = width ?? measured;
 
   const pointData = useMemo<Datum[]>(() => points.map((p) => ({ kind: 'point', x: invT(p.kelvin), y: p.lnRatio, p })), [points]);
+  const marks = useMemo<PointMark[]>(
+    () => points.map((p) => ({ x: invT(p.kelvin), y: p.lnRatio, status: p.status, flagged: p.flagged })),
+    [points],
+  );
+  const errorBars = useMemo(() => points.map((p) => ({ x: invT(p.kelvin), low: p.lnRatioLow, high: p.lnRatioHigh })), [points]);
   const curveData = useMemo<Datum[]>(() => curve.map((c) => ({ kind: 'curve', x: invT(c.kelvin), y: c.lnRatio, c })), [curve]);
   const confidence = useMemo(
     () => curve.filter((c) => c.confidence).map((c) => ({ x: invT(c.kelvin), lo: c.confidence![0], hi: c.confidence![1] })),
@@ -188,6 +171,9 @@ export function EyringPlot({
       ),
     [points, curve, branchData],
   );
+  // Stable scale settings: xychart rebuilds its scales, and every mark drawn with them, when these change.
+  const xScale = useMemo(() => ({ type: 'linear', domain: xDomain, zero: false }) as const, [xDomain]);
+  const yScale = useMemo(() => ({ type: 'linear', domain: yDomain, zero: false, nice: true }) as const, [yDomain]);
   // Inner width: the chart less its left (70) and right (20) margins.
   const topTicks = useMemo(() => celsiusTicks(xDomain, Math.max(1, chartWidth - 90)), [xDomain, chartWidth]);
   const levelText = `${fixed(confidenceLevel * 100, 0)} %`;
@@ -199,10 +185,10 @@ export function EyringPlot({
           <XYChart
             width={chartWidth}
             height={height}
-            margin={{ top: 40, right: 20, bottom: 46, left: 70 }}
+            margin={MARGIN}
             theme={chartTheme}
-            xScale={{ type: 'linear', domain: xDomain, zero: false }}
-            yScale={{ type: 'linear', domain: yDomain, zero: false, nice: true }}
+            xScale={xScale}
+            yScale={yScale}
             accessibilityLabel={title}
           >
             <Grid columns={false} numTicks={6} lineStyle={{ stroke: chartColors.grid }} />
@@ -210,9 +196,9 @@ export function EyringPlot({
               <AreaSeries
                 dataKey="prediction band"
                 data={prediction}
-                xAccessor={(d) => d.x}
-                yAccessor={(d) => d.hi}
-                y0Accessor={(d) => d.lo}
+                xAccessor={bandX}
+                yAccessor={bandHi}
+                y0Accessor={bandLo}
                 renderLine={false}
                 fill={chartColors.predictionFill}
                 fillOpacity={0.22}
@@ -223,9 +209,9 @@ export function EyringPlot({
               <AreaSeries
                 dataKey="confidence band"
                 data={confidence}
-                xAccessor={(d) => d.x}
-                yAccessor={(d) => d.hi}
-                y0Accessor={(d) => d.lo}
+                xAccessor={bandX}
+                yAccessor={bandHi}
+                y0Accessor={bandLo}
                 renderLine={false}
                 fill={chartColors.confidenceFill}
                 fillOpacity={0.25}
@@ -249,17 +235,18 @@ export function EyringPlot({
                 className="eyrie-branch-line"
                 dataKey={`branch ${b.label}`}
                 data={b.data}
-                xAccessor={(d) => d.x}
-                yAccessor={(d) => d.y}
+                xAccessor={lineX}
+                yAccessor={lineY}
                 stroke={chartColors.branch}
                 strokeWidth={1.75}
                 strokeDasharray="7 4"
                 enableEvents={false}
               />
             ))}
-            <ErrorBars bars={points.map((p) => ({ x: invT(p.kelvin), low: p.lnRatioLow, high: p.lnRatioHigh }))} />
+            <ErrorBars bars={errorBars} />
+            <PointMarks marks={marks} />
             {pointData.length > 0 && (
-              <GlyphSeries dataKey="measurements" data={pointData} xAccessor={xOf} yAccessor={yOf} renderGlyph={PointGlyph} />
+              <GlyphSeries dataKey="measurements" data={pointData} xAccessor={xOf} yAccessor={yOf} renderGlyph={noGlyph} />
             )}
             {mark && <VerticalMark x={invT(mark.kelvin)} label={mark.label} />}
             <Axis

@@ -1,7 +1,7 @@
 import { useMemo } from 'react';
-import { AreaSeries, Axis, GlyphSeries, Grid, LineSeries, Tooltip, XYChart, type GlyphProps } from '@visx/xychart';
+import { AreaSeries, Axis, GlyphSeries, Grid, LineSeries, Tooltip, XYChart } from '@visx/xychart';
 import { enantiomericRatio, fixed, percent } from '../../lib/format';
-import { CelsiusAxis, HorizontalRule, VerticalMark } from './chart-layers';
+import { CelsiusAxis, HorizontalRule, noGlyph, PointMarks, VerticalMark, type PointMark } from './chart-layers';
 import { axisLabelProps, chartColors, chartTheme, paddedExtent, tickLabelProps } from './chart-theme';
 import { LegendItem } from './eyring-plot';
 import { useElementWidth } from './use-element-width';
@@ -58,23 +58,12 @@ type Datum =
   { kind: 'curve'; x: number; y: number; c: SelectivityCurvePoint } | { kind: 'point'; x: number; y: number; p: SelectivityMeasuredPoint };
 
 const xOf = (d: Datum) => d.x;
+const MARGIN = { top: 18, right: 20, bottom: 46, left: 66 };
+// Accessors defined once: a new function on each render makes xychart register the series again.
+const bandX = (d: { x: number }) => d.x;
+const bandHi = (d: { hi: number }) => d.hi;
+const bandLo = (d: { lo: number }) => d.lo;
 const yOf = (d: Datum) => d.y;
-
-function PointGlyph({ x, y, datum }: GlyphProps<Datum>) {
-  if (datum.kind !== 'point') return null;
-  const status = datum.p.status ?? 'fitted';
-  if (status === 'censored') {
-    return (
-      <g>
-        <path d={`M${x} ${y - 5} L${x + 5} ${y} L${x} ${y + 5} L${x - 5} ${y} Z`} fill={chartColors.ink} />
-        <path d={`M${x - 4} ${y - 8} L${x} ${y - 13} L${x + 4} ${y - 8}`} fill="none" stroke={chartColors.ink} strokeWidth={1.5} />
-      </g>
-    );
-  }
-  if (status === 'excluded')
-    return <circle cx={x} cy={y} r={4.5} fill={chartColors.paper} stroke={chartColors.inkSoft} strokeWidth={1.5} />;
-  return <circle cx={x} cy={y} r={4.5} fill={chartColors.ink} stroke={chartColors.paper} strokeWidth={1} />;
-}
 
 /**
  * Selectivity against temperature (°C): the forecast curve, an optional band, measured
@@ -105,6 +94,10 @@ export function SelectivityChart({
 
   const curveData = useMemo<Datum[]>(() => curve.map((c) => ({ kind: 'curve', x: c.celsius, y: pick(c), c })), [curve, measure, fold]);
   const pointData = useMemo<Datum[]>(() => points.map((p) => ({ kind: 'point', x: p.celsius, y: pick(p), p })), [points, measure, fold]);
+  const marks = useMemo<PointMark[]>(
+    () => points.map((p) => ({ x: p.celsius, y: pick(p), status: p.status ?? 'fitted' })),
+    [points, measure, fold],
+  );
   const band = useMemo(
     () =>
       curve
@@ -128,6 +121,10 @@ export function SelectivityChart({
     return [Math.max(floor, lo), Math.min(ceiling, hi)];
   }, [curveData, pointData, band, spec, measure]);
 
+  // Stable scale settings: xychart rebuilds its scales, and every mark drawn with them, when these change.
+  const xScale = useMemo(() => ({ type: 'linear', domain: xDomain, zero: false }) as const, [xDomain]);
+  const yScale = useMemo(() => ({ type: 'linear', domain: yDomain, zero: false, nice: true, clamp: true }) as const, [yDomain]);
+
   return (
     <figure className="m-0">
       <div ref={ref} className="w-full" data-testid="selectivity-chart">
@@ -135,10 +132,10 @@ export function SelectivityChart({
           <XYChart
             width={chartWidth}
             height={height}
-            margin={{ top: 18, right: 20, bottom: 46, left: 66 }}
+            margin={MARGIN}
             theme={chartTheme}
-            xScale={{ type: 'linear', domain: xDomain, zero: false }}
-            yScale={{ type: 'linear', domain: yDomain, zero: false, nice: true, clamp: true }}
+            xScale={xScale}
+            yScale={yScale}
             accessibilityLabel={title}
           >
             <Grid columns={false} numTicks={6} lineStyle={{ stroke: chartColors.grid }} />
@@ -146,9 +143,9 @@ export function SelectivityChart({
               <AreaSeries
                 dataKey="band"
                 data={band}
-                xAccessor={(d) => d.x}
-                yAccessor={(d) => d.hi}
-                y0Accessor={(d) => d.lo}
+                xAccessor={bandX}
+                yAccessor={bandHi}
+                y0Accessor={bandLo}
                 renderLine={false}
                 fill={chartColors.predictionFill}
                 fillOpacity={0.3}
@@ -169,8 +166,9 @@ export function SelectivityChart({
             )}
             {curveData.length === 1 && <GlyphSeries dataKey="curve" data={curveData} xAccessor={xOf} yAccessor={yOf} />}
             {pointData.length > 0 && (
-              <GlyphSeries dataKey="measurements" data={pointData} xAccessor={xOf} yAccessor={yOf} renderGlyph={PointGlyph} />
+              <GlyphSeries dataKey="measurements" data={pointData} xAccessor={xOf} yAccessor={yOf} renderGlyph={noGlyph} />
             )}
+            <PointMarks marks={marks} />
             {mark && <VerticalMark x={mark.celsius} label={mark.label} />}
             <CelsiusAxis />
             <Axis

@@ -9,6 +9,9 @@ export const getComparison = (projectId: string, atCelsius: number) =>
     comparisonResponseSchema.parse(d),
   );
 
+/** The temperature a project's comparison opens at (°C). */
+export const OPENING_COMPARISON_CELSIUS = -20;
+
 export const comparisonQueryOptions = (projectId: string, atCelsius: number) =>
   queryOptions({
     queryKey: campaignKeys.comparison(projectId, atCelsius),

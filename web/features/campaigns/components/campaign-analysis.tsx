@@ -1,4 +1,5 @@
-import { useMemo, useState } from 'react';
+import { useCallback, useMemo, useRef, useState } from 'react';
+import { useVirtualizer } from '@tanstack/react-virtual';
 import { TableHead } from '../../../components/ui/table-head';
 import { EyringPlot, type EyringCurvePoint, type EyringPlotPoint } from '../../../components/charts/eyring-plot';
 import { SelectivityChart, type SelectivityCurvePoint, type SelectivityMeasuredPoint } from '../../../components/charts/selectivity-chart';
@@ -84,6 +85,8 @@ export function CampaignAnalysis({
   const chartSpec = parseSpec(specText) ?? (specification ? specificationOnAxis(specification, chartMeasure) : null);
   const view = useMemo(() => chartData(analysis), [analysis]);
   const fit = analysis.fit;
+  // Memoised with the analysis: a new array on every render would redraw the plot's scales and marks.
+  const branches = useMemo(() => branchLines(analysis.fit?.twoBranch), [analysis]);
   const at = analysis.at;
   const markLabel = at ? `${fixed(at.celsius, 0)} °C` : '';
   const twoBranchPreferred = fit?.twoBranch?.preferred === 'two-branch';
@@ -110,7 +113,7 @@ export function CampaignAnalysis({
             title="Eyring plot: ln r against 1000/T with the fitted line, confidence and prediction bands"
             points={view.points}
             curve={view.curve}
-            branches={branchLines(fit.twoBranch)}
+            branches={branches}
             mark={at ? { kelvin: at.kelvin, label: markLabel } : null}
             confidenceLevel={fit.confidence}
             height={320}
@@ -227,6 +230,12 @@ function DdGAt({ prediction, confidence, measure }: { prediction: FitPrediction;
   );
 }
 
+/** Above this many runs only the rows in view of the table's own scroll box are drawn. */
+const VIRTUAL_FROM_ROWS = 120;
+/** Height of one row before it is measured (px), and the box's size before it is measured. */
+const estimateRowHeight = () => 21;
+const RESIDUALS_INITIAL_RECT = { width: 900, height: 384 };
+
 const FLAG_TEXT: Record<string, string> = {
   outlier: 'outlier (|t| > 3)',
   'high-leverage': 'high leverage',
@@ -254,17 +263,33 @@ function ResidualDiagnostics({
     analysis.points.map((p) => p.lnRatio),
     assaySd,
   );
-  const byId = new Map(measurements.map((m) => [m.id, m]));
+  const byId = useMemo(() => new Map(measurements.map((m) => [m.id, m])), [measurements]);
   const residuals = analysis.fit?.residuals ?? [];
+  const points = analysis.points;
+  const scrollRef = useRef<HTMLDivElement>(null);
+  const virtual = points.length >= VIRTUAL_FROM_ROWS;
+  const getItemKey = useCallback((i: number) => points[i]?.measurementId ?? i, [points]);
+  const virtualizer = useVirtualizer({
+    count: virtual ? points.length : 0,
+    getScrollElement: () => scrollRef.current,
+    estimateSize: estimateRowHeight,
+    overscan: 10,
+    initialRect: RESIDUALS_INITIAL_RECT,
+    getItemKey,
+  });
+  const items = virtual ? virtualizer.getVirtualItems() : points.map((_, index) => ({ index, start: 0, end: 0 }));
+  const padTop = virtual && items.length ? items[0]!.start : 0;
+  const padBottom = virtual && items.length ? virtualizer.getTotalSize() - items[items.length - 1]!.end : 0;
   return (
     // Focusable so the table can be scrolled from the keyboard.
     <div
+      ref={scrollRef}
       className="max-h-96 overflow-auto rounded border border-slate-200"
       tabIndex={0}
       role="region"
       aria-label="Residuals and flags for each run"
     >
-      <table className="tnum w-full border-collapse text-right text-xs">
+      <table className="tnum w-full border-collapse text-right text-xs" aria-rowcount={points.length + 1}>
         <caption className="sr-only">Residuals and flags for each run</caption>
         <TableHead
           className="sticky top-0 bg-slate-50 text-ink-600"
@@ -282,7 +307,9 @@ function ResidualDiagnostics({
           ]}
         />
         <tbody>
-          {analysis.points.map((p, i) => {
+          {padTop > 0 && <tr aria-hidden="true" style={{ height: padTop }} />}
+          {items.map(({ index: i }) => {
+            const p = points[i]!;
             const r = residuals[i];
             const m = byId.get(p.measurementId);
             // Exclusions and bounds are shown as the status; only the diagnostic flags go beside it.
@@ -291,6 +318,9 @@ function ResidualDiagnostics({
             return (
               <tr
                 key={p.measurementId}
+                data-index={i}
+                ref={virtual ? virtualizer.measureElement : undefined}
+                aria-rowindex={i + 2}
                 className={`border-b border-slate-100 ${flagged ? 'bg-caution-50' : ''} ${p.status === 'excluded' ? 'text-ink-500' : ''}`}
               >
                 <td className="px-2 py-0.5 text-left">{p.label ?? m?.sampleId ?? i + 1}</td>
@@ -339,6 +369,7 @@ function ResidualDiagnostics({
               </tr>
             );
           })}
+          {padBottom > 0 && <tr aria-hidden="true" style={{ height: padBottom }} />}
         </tbody>
       </table>
     </div>

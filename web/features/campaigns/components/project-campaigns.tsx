@@ -6,7 +6,7 @@ import { paths } from '../../../config/paths';
 import { enantiomericRatio, fixed, percentColumn, withUncertainty, lnRatioOf, lnRatioRange } from '../../../lib/format';
 import { ConventionNote } from '../../calculators/components/fields';
 import { useCampaigns } from '../api/campaigns';
-import { useComparison } from '../api/comparison';
+import { OPENING_COMPARISON_CELSIUS, useComparison } from '../api/comparison';
 import type { CampaignListItem, ComparisonCampaign } from '../api/types';
 import { parseNumber } from '../lib/grid';
 import { CELSIUS, STATUS_MARK } from '../lib/labels';
@@ -92,7 +92,7 @@ export function ProjectCampaigns({ projectId, canEdit }: { projectId: string; ca
   const [picked, setPicked] = useState<string[] | null>(null);
   const parsedAt = parseNumber(atText);
   const atValid = typeof parsedAt === 'number' && parsedAt > ABSOLUTE_ZERO.C && parsedAt <= celsiusFromKelvin(1000);
-  const [atCelsius, setAtCelsius] = useState(-20);
+  const [atCelsius, setAtCelsius] = useState(OPENING_COMPARISON_CELSIUS);
   const campaigns = useCampaigns(projectId);
   const comparison = useComparison(projectId, atCelsius);
   const byId = new Map((comparison.data?.campaigns ?? []).map((c) => [c.id, c]));

@@ -208,7 +208,7 @@ export function ProposedTemperatureForecastPanel({
       {!fit && !shown && (
         <p className="text-sm text-ink-600">
           {/* Without an answer the analysis is loading or failed (said beside the result); never blame missing runs then. */}
-          {analysis
+          {analysis && !failed
             ? `A forecast needs a fit: ${analysis.problem?.message ?? 'add measurements first.'}`
             : 'A forecast needs the fit, which is not available right now (see the result above).'}
         </p>

@@ -30,13 +30,15 @@ export const planKeys = {
 
 export const getCampaignSpecification = (campaignId: string) =>
   api<unknown>(`/api/v1/campaigns/${campaignId}/specification`).then((d) => campaignSpecificationResponseSchema.parse(d));
-export const useCampaignSpecification = (campaignId: string) =>
-  useQuery(queryOptions({ queryKey: planKeys.specification(campaignId), queryFn: () => getCampaignSpecification(campaignId) }));
+export const campaignSpecificationQueryOptions = (campaignId: string) =>
+  queryOptions({ queryKey: planKeys.specification(campaignId), queryFn: () => getCampaignSpecification(campaignId) });
+export const useCampaignSpecification = (campaignId: string) => useQuery(campaignSpecificationQueryOptions(campaignId));
 
 export const getCampaignPlan = (campaignId: string) =>
   api<{ plan: unknown }>(`/api/v1/campaigns/${campaignId}/plan`).then((d) => (d.plan ? campaignPlanSchema.parse(d.plan) : null));
-export const useCampaignPlan = (campaignId: string) =>
-  useQuery(queryOptions({ queryKey: planKeys.stored(campaignId), queryFn: () => getCampaignPlan(campaignId) }));
+export const campaignPlanQueryOptions = (campaignId: string) =>
+  queryOptions({ queryKey: planKeys.stored(campaignId), queryFn: () => getCampaignPlan(campaignId) });
+export const useCampaignPlan = (campaignId: string) => useQuery(campaignPlanQueryOptions(campaignId));
 
 /**
  * Keep the specification as the campaign's own (when it changed), then plan from the stored runs and
@@ -72,8 +74,9 @@ export function useSavePlan(campaignId: string) {
 
 export const getComparison = (comparisonId: string) =>
   api<unknown>(`/api/v1/comparisons/${comparisonId}`).then((d) => comparisonSchema.parse(d));
-export const useComparison = (comparisonId: string) =>
-  useQuery(queryOptions({ queryKey: planKeys.comparison(comparisonId), queryFn: () => getComparison(comparisonId) }));
+export const comparisonQueryOptions = (comparisonId: string) =>
+  queryOptions({ queryKey: planKeys.comparison(comparisonId), queryFn: () => getComparison(comparisonId) });
+export const useComparison = (comparisonId: string) => useQuery(comparisonQueryOptions(comparisonId));
 
 export function useCreateComparison() {
   return useMutation({
