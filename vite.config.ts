@@ -33,6 +33,9 @@ export default defineConfig({
     environment: 'node',
     testTimeout: 30_000,
     hookTimeout: 60_000,
+    // A page that waits on the server and a refetch can take seconds on a loaded 2-core machine; a
+    // poll still fails when the state never comes.
+    expect: { poll: { timeout: 10_000 } },
     globalSetup: ['tests/global-setup.ts'],
     maxWorkers: 2,
   },
