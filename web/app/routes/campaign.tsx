@@ -4,7 +4,7 @@ import { Button } from '../../components/ui/form';
 import { Page, Panel } from '../../components/ui/page';
 import { paths } from '../../config/paths';
 import { SignedInOnly } from '../../features/auth/components/signed-in-only';
-import { Segmented } from '../../features/calculators/components/fields';
+import { Segmented } from '../../components/ui/fields';
 import { useAnalysis } from '../../features/campaigns/api/analysis';
 import { useCampaign } from '../../features/campaigns/api/campaigns';
 import { useMeasurements } from '../../features/campaigns/api/measurements';

@@ -20,7 +20,7 @@ import {
   SECONDS_PER,
   splitBound,
 } from '../../../../api/science/quantities';
-import { tidyMessage } from '../../calculators/lib/field-errors';
+import { tidyMessage } from '../../../lib/field-errors';
 import type { Measurement } from '../api/types';
 
 export const GRID_COLUMNS = [

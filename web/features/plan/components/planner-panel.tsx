@@ -5,7 +5,7 @@ import { paths } from '../../../config/paths';
 import { ApiError, type FieldError } from '../../../lib/api-client';
 import { fixed, sig } from '../../../lib/format';
 import { celsiusFromKelvin } from '../../../../api/science/quantities';
-import { NumberField, Segmented, buttonClass, selectClass } from '../../calculators/components/fields';
+import { NumberField, Segmented, buttonClass, selectClass } from '../../../components/ui/fields';
 import { useCampaignPlan, useCampaignSpecification, useSavePlan, type CampaignPlan, type PlanInputsBody } from '../api/plan';
 import { CONSTRAINT_WORDS, OperatingWindowChart } from './operating-window-chart';
 

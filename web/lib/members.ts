@@ -1,7 +1,7 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { api } from '../../../lib/api-client';
-import type { ProjectRole } from '../../../../api/features/projects/schemas';
-import { projectKeys } from './projects';
+import { api } from './api-client';
+import type { ProjectRole } from '../../api/features/projects/schemas';
+import { projectKeys } from '../features/projects/api/projects';
 
 export interface Member {
   userId: string;
