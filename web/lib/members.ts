@@ -1,7 +1,7 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { api } from './api-client';
 import type { ProjectRole } from '../../api/features/projects/schemas';
-import { projectKeys } from '../features/projects/api/projects';
+import { projectKeys } from './query-keys';
 
 export interface Member {
   userId: string;

@@ -4,7 +4,7 @@
  */
 import { useInfiniteQuery, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import { projectKeys } from '../../projects/api/projects';
+import { projectKeys } from '../../../lib/query-keys';
 import { campaignKeys } from './keys';
 import type { Campaign } from './types';
 

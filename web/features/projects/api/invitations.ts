@@ -1,7 +1,7 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import type { ProjectRole } from '../../../../api/features/projects/schemas';
-import { projectKeys } from './projects';
+import { projectKeys } from '../../../lib/query-keys';
 
 export interface PendingInvitation {
   id: string;

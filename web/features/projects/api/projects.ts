@@ -1,5 +1,6 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
+import { projectKeys } from '../../../lib/query-keys';
 import type { ProjectRole } from '../../../../api/features/projects/schemas';
 
 export interface Project {
@@ -12,16 +13,6 @@ export interface Project {
   createdAt: string;
   updatedAt: string;
 }
-
-/** Keys go from general to specific: invalidating ['projects'] refreshes every project query. */
-export const projectKeys = {
-  all: ['projects'] as const,
-  list: () => [...projectKeys.all, 'list'] as const,
-  one: (id: string) => [...projectKeys.all, id] as const,
-  members: (id: string) => [...projectKeys.all, id, 'members'] as const,
-  invitations: (id: string) => [...projectKeys.all, id, 'invitations'] as const,
-  history: (id: string) => [...projectKeys.all, id, 'history'] as const,
-};
 
 export const listProjects = () => api<{ projects: Project[] }>('/api/v1/projects').then((r) => r.projects);
 export const projectsQueryOptions = () => queryOptions({ queryKey: projectKeys.list(), queryFn: listProjects });
