@@ -1,5 +1,6 @@
 import objection from 'objection';
-import type { AssayMethod, CampaignStatus, SelectivityMeasure } from '../features/campaigns/schemas';
+import type { SelectivityMeasure } from '../science/quantities';
+import type { AssayMethod, CampaignStatus } from './enums';
 import { Measurement } from './measurement';
 import { SavedForecast } from './saved-forecast';
 

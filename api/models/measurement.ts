@@ -1,5 +1,5 @@
 import objection from 'objection';
-import type { SelectivityMeasure } from '../features/campaigns/schemas';
+import type { SelectivityMeasure } from '../science/quantities';
 import { Campaign } from './campaign';
 
 /** One selectivity result at one temperature. Temperatures are stored in kelvin. */

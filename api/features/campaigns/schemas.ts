@@ -16,15 +16,12 @@ import {
   type TemperatureUnit,
 } from '../../science/quantities';
 import { quantitationLimitProblem } from '../compute/schemas';
+import { ASSAY_METHODS, CAMPAIGN_STATUSES, type AssayMethod, type CampaignStatus } from '../../models/enums';
 
 export { parseRatioPair, SELECTIVITY_MEASURES, selectivityProblem, TEMPERATURE_UNITS, toKelvin, toSeconds };
 export type { SelectivityMeasure, TemperatureUnit };
 
-export const ASSAY_METHODS = ['chiral-hplc', 'chiral-sfc', 'chiral-gc', 'nmr', 'other'] as const;
-export type AssayMethod = (typeof ASSAY_METHODS)[number];
-
-export const CAMPAIGN_STATUSES = ['planned', 'active', 'completed', 'archived'] as const;
-export type CampaignStatus = (typeof CAMPAIGN_STATUSES)[number];
+export { ASSAY_METHODS, CAMPAIGN_STATUSES, type AssayMethod, type CampaignStatus };
 
 export const TIME_UNITS = ['s', 'min', 'h'] as const;
 export type TimeUnit = (typeof TIME_UNITS)[number];

@@ -5,7 +5,7 @@
  * that moment; a client cannot send a result.
  */
 import type { Knex } from 'knex';
-import { recordAudit } from '../audit/service';
+import { recordAudit } from '../../lib/audit';
 import { BadRequestError, ConflictError, NotFoundError } from '../../lib/errors';
 import { Campaign } from '../../models/campaign';
 import { Measurement } from '../../models/measurement';
