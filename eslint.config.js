@@ -47,7 +47,8 @@ export default tseslint.config(
   },
   {
     // The browser never imports server code, except zod schema modules shared on purpose, the pure
-    // quantities module (units, typed-number grammar, selectivity display) and the table reader (and types).
+    // quantities module (units, typed-number grammar, selectivity display), the table reader and the chart colours
+    // (and types).
     // Two or more ../ reach the root api/; a single ../api/ is a feature's own api folder.
     files: ['web/**/*.{ts,tsx}'],
     rules: {
@@ -57,9 +58,10 @@ export default tseslint.config(
         {
           patterns: [
             {
-              regex: '^(\\.\\./){2,}api/(?!features/[a-z-]+/([a-z]+-)?schemas$|science/(units|quantities)$|features/imports/table-text$)',
+              regex:
+                '^(\\.\\./){2,}api/(?!features/[a-z-]+/([a-z]+-)?schemas$|science/(units|quantities)$|features/imports/table-text$|lib/chart-colors$)',
               message:
-                'web/ may import only api/features/*/schemas and *-schemas (shared zod), api/science/quantities and api/features/imports/table-text from the server, or types with `import type`.',
+                'web/ may import only api/features/*/schemas and *-schemas (shared zod), api/science/quantities, api/features/imports/table-text and api/lib/chart-colors from the server, or types with `import type`.',
               allowTypeImports: true,
             },
           ],

@@ -1,9 +1,9 @@
-import nodemailer from 'nodemailer';
+import nodemailer, { type SendMailOptions } from 'nodemailer';
 import { describe, expect, it } from 'vitest';
 import { Mailbox } from '../../../api/features/mail/mailbox';
 
 /** Render a message with nodemailer exactly as it goes over SMTP (MIME, encoded words, base64/quoted-printable). */
-async function render(mail: nodemailer.SendMailOptions): Promise<Buffer> {
+async function render(mail: SendMailOptions): Promise<Buffer> {
   const transport = nodemailer.createTransport({ streamTransport: true, buffer: true });
   const info = await transport.sendMail(mail);
   return info.message as Buffer;

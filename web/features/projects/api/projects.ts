@@ -1,18 +1,10 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import { projectKeys } from '../../../lib/query-keys';
-import type { ProjectRole } from '../../../../api/features/projects/schemas';
+import type { ProjectView } from '../../../../api/features/projects/service';
 
-export interface Project {
-  id: string;
-  name: string;
-  description: string;
-  role: ProjectRole;
-  memberCount: number;
-  version: number;
-  createdAt: string;
-  updatedAt: string;
-}
+/** A project as the API returns it (GET /projects, /projects/:id). */
+export type Project = ProjectView;
 
 export const listProjects = () => api<{ projects: Project[] }>('/api/v1/projects').then((r) => r.projects);
 export const projectsQueryOptions = () => queryOptions({ queryKey: projectKeys.list(), queryFn: listProjects });
