@@ -157,7 +157,7 @@ export function createApp(deps: AppDeps): Express {
   api.use('/v1', sessionRouter({ config: deps.config }));
   api.use('/v1', projectsRouter({ knex: deps.knex, config: deps.config, mailer }));
   api.use('/v1', invitationsRouter({ knex: deps.knex }));
-  api.use('/v1', tokensRouter({ config: deps.config }));
+  api.use('/v1', tokensRouter({ knex: deps.knex, config: deps.config }));
   // Uploads and report builds read or write whole files: a per-user budget, counted across instances.
   const uploadLimit = rateLimited({
     name: 'uploads',
