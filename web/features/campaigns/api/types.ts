@@ -49,5 +49,4 @@ export type ImportCell = string | number | null;
 // The import service's JSON shapes, named from the server (type-only: nothing server-side reaches the bundle).
 export type { ImportIssue } from '../../../../api/features/imports/errors';
 export type { ImportPreview, ImportResult, PreviewColumn } from '../../../../api/features/imports/service';
-export type { MappingGuess as SuggestedMapping, ImportRow as ImportPreviewRow } from '../../../../api/features/imports/mapping';
-export type { ImportField as ImportFieldKey } from '../../../../api/features/campaigns/schemas';
+export type { MappingGuess as SuggestedMapping } from '../../../../api/features/imports/mapping';
