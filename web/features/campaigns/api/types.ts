@@ -19,7 +19,7 @@ export type FitPrediction = FitResponse['predictions'][number];
 type JsonRow<T> = { [K in keyof T]: T[K] extends Date ? string : T[K] extends Date | null ? string | null : T[K] };
 
 /** A campaign as the API returns it: the stored row, dates as ISO text. */
-export type Campaign = JsonRow<Omit<ModelObject<CampaignRow>, 'measurements' | 'savedForecasts'>>;
+export type Campaign = JsonRow<ModelObject<CampaignRow>>;
 
 /** GET /campaigns/:id adds the caller's role in the campaign's project and the sign-off (measurements locked until reopened). */
 export type CampaignWithRole = Campaign & { role: ProjectRole; signOff: SignOffView | null };
@@ -32,7 +32,7 @@ export interface CampaignListItem extends Campaign {
 }
 
 /** One stored run as the API returns it (`value` with `valueB` set is the pair value:valueB). */
-export type Measurement = JsonRow<Omit<ModelObject<MeasurementRow>, 'campaign'>>;
+export type Measurement = JsonRow<ModelObject<MeasurementRow>>;
 
 export type {
   AnalysisPoint,
