@@ -156,7 +156,7 @@ export function createApp(deps: AppDeps): Express {
   api.use('/v1/session', sessionRouter({ config: deps.config }));
   api.use('/v1/projects', projectsRouter({ knex: deps.knex, config: deps.config, mailer }));
   api.use('/v1/invitations', invitationsRouter({ knex: deps.knex }));
-  api.use('/v1/tokens', tokensRouter({ config: deps.config }));
+  api.use('/v1/tokens', tokensRouter({ knex: deps.knex, config: deps.config }));
   // Uploads and report builds read or write whole files: a per-user budget, counted across instances.
   const uploadLimit = rateLimited({
     name: 'uploads',

@@ -2,7 +2,7 @@ import './db/pg-types';
 import type { Server } from 'node:http';
 import { createApp } from './app';
 import { isLoopbackHost, loadConfig } from './config';
-import { bindModels, createKnex } from './db/knex';
+import { createKnex } from './db/knex';
 import { createLogger } from './lib/logger';
 import { Mailbox } from './features/mail/mailbox';
 import { createSmtpMailer } from './features/mail/mailer';
@@ -26,7 +26,6 @@ if (config.devTools && !isLoopbackHost(config.host)) {
 }
 if (config.devTools) logger.warn('development tools are ON: local sign-in page and /dev/mailbox (loopback only)');
 const knex = createKnex(config.databaseUrl);
-bindModels(knex);
 
 // Without SMTP_URL, mail goes to a loopback SMTP sink whose messages the dev mailbox shows.
 const mailbox = new Mailbox();

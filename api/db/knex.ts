@@ -4,7 +4,7 @@ import { readdir } from 'node:fs/promises';
 import path from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 
-const { Model, knexSnakeCaseMappers } = objection;
+const { knexSnakeCaseMappers } = objection;
 
 const migrationsDir = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../../migrations');
 
@@ -86,11 +86,6 @@ export function createKnex(databaseUrl: string, pool: Knex.PoolConfig = { min: 0
     ...knexSnakeCaseMappers(),
     migrations: { migrationSource: new TsMigrationSource(), tableName: 'knex_migrations' },
   });
-}
-
-/** Bind Objection models to a knex instance (one per process). */
-export function bindModels(knex: Knex): void {
-  Model.knex(knex);
 }
 
 export async function migrateLatest(knex: Knex): Promise<string[]> {

@@ -1,5 +1,5 @@
 import type { Knex } from 'knex';
-import { recordAudit } from '../features/audit/service';
+import { recordAudit } from '../lib/audit';
 import { toKelvin, toSeconds } from '../science/quantities';
 import { DEMO_CAMPAIGN_PROJECT_ID, DEMO_CAMPAIGNS } from './demo-campaigns';
 import { DEMO_PROJECTS } from './demo';

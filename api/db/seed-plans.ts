@@ -5,9 +5,8 @@
  * Everything here is made up. Idempotent: rows that exist are left as they are.
  */
 import type { Knex } from 'knex';
-import { recordAudit } from '../features/audit/service';
-import { computeCampaignPlan } from '../features/plan/store';
-import { campaignPlanInputsSchema, type CampaignPlanInputs } from '../features/plan/schemas';
+import { recordAudit } from '../lib/audit';
+import { campaignPlanInputsSchema, computeCampaignPlan, type CampaignPlanInputs } from '../services';
 import { Campaign } from '../models/campaign';
 import { DEMO_PROJECTS } from './demo';
 import { DEMO_CAMPAIGNS } from './demo-campaigns';

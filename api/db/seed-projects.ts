@@ -1,5 +1,5 @@
 import type { Knex } from 'knex';
-import { recordAudit } from '../features/audit/service';
+import { recordAudit } from '../lib/audit';
 import { DEMO_PROJECTS } from './demo';
 
 /**

@@ -1,7 +1,6 @@
 import objection from 'objection';
-import type { AssayMethod, CampaignStatus, SelectivityMeasure } from '../features/campaigns/schemas';
-import { Measurement } from './measurement';
-import { SavedForecast } from './saved-forecast';
+import type { SelectivityMeasure } from '../science/quantities';
+import type { AssayMethod, CampaignStatus } from './enums';
 
 /** A temperature screen of one reaction: the measurements fitted together in one Eyring analysis. */
 export class Campaign extends objection.Model {
@@ -30,21 +29,4 @@ export class Campaign extends objection.Model {
   declare signOffNote: string | null;
   declare createdAt: Date;
   declare updatedAt: Date;
-
-  declare measurements?: Measurement[];
-  declare savedForecasts?: SavedForecast[];
-
-  // Join columns are camelCase because knexSnakeCaseMappers converts identifiers to snake_case on the way to SQL.
-  static override relationMappings = () => ({
-    measurements: {
-      relation: objection.Model.HasManyRelation,
-      modelClass: Measurement,
-      join: { from: 'campaigns.id', to: 'measurements.campaignId' },
-    },
-    savedForecasts: {
-      relation: objection.Model.HasManyRelation,
-      modelClass: SavedForecast,
-      join: { from: 'campaigns.id', to: 'savedForecasts.campaignId' },
-    },
-  });
 }

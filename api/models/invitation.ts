@@ -1,5 +1,5 @@
 import objection from 'objection';
-import type { ProjectRole } from '../features/projects/schemas';
+import type { ProjectRole } from './enums';
 
 export class Invitation extends objection.Model {
   static override tableName = 'invitations';

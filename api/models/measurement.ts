@@ -1,6 +1,5 @@
 import objection from 'objection';
-import type { SelectivityMeasure } from '../features/campaigns/schemas';
-import { Campaign } from './campaign';
+import type { SelectivityMeasure } from '../science/quantities';
 
 /** One selectivity result at one temperature. Temperatures are stored in kelvin. */
 export class Measurement extends objection.Model {
@@ -29,14 +28,4 @@ export class Measurement extends objection.Model {
   declare createdByUserId: string | null;
   declare createdAt: Date;
   declare updatedAt: Date;
-
-  declare campaign?: Campaign;
-
-  static override relationMappings = () => ({
-    campaign: {
-      relation: objection.Model.BelongsToOneRelation,
-      modelClass: Campaign,
-      join: { from: 'measurements.campaignId', to: 'campaigns.id' },
-    },
-  });
 }

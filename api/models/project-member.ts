@@ -1,5 +1,5 @@
 import objection from 'objection';
-import type { ProjectRole } from '../features/projects/schemas';
+import type { ProjectRole } from './enums';
 
 export class ProjectMember extends objection.Model {
   static override tableName = 'project_members';

@@ -1,5 +1,4 @@
 import objection from 'objection';
-import { Campaign } from './campaign';
 
 /** A forecast a user chose to keep: the analysis result as it was when saved, never recomputed. */
 export class SavedForecast extends objection.Model {
@@ -14,14 +13,4 @@ export class SavedForecast extends objection.Model {
   declare result: Record<string, unknown>;
   declare createdByUserId: string | null;
   declare createdAt: Date;
-
-  declare campaign?: Campaign;
-
-  static override relationMappings = () => ({
-    campaign: {
-      relation: objection.Model.BelongsToOneRelation,
-      modelClass: Campaign,
-      join: { from: 'savedForecasts.campaignId', to: 'campaigns.id' },
-    },
-  });
 }

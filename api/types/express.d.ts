@@ -1,5 +1,5 @@
 import type { User as UserModel } from '../models/user';
-import type { ProjectRole } from '../features/projects/schemas';
+import type { ProjectRole } from '../models/enums';
 
 declare global {
   namespace Express {

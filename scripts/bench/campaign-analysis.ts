@@ -18,7 +18,7 @@ import { randomBytes } from 'node:crypto';
 import { performance } from 'node:perf_hooks';
 import { createApp } from '../../api/app';
 import { loadConfig } from '../../api/config';
-import { bindModels, createKnex, migrateLatest } from '../../api/db/knex';
+import { createKnex, migrateLatest } from '../../api/db/knex';
 import { computeAnalysis } from '../../api/features/campaigns/analysis';
 import { createToken } from '../../api/features/tokens/service';
 import { Campaign } from '../../api/models/campaign';
@@ -36,7 +36,6 @@ const percentile = (sorted: number[], p: number) => sorted[Math.min(sorted.lengt
 
 async function run() {
   const knex = createKnex(process.env.DATABASE_URL!, { min: 0, max: 4 });
-  bindModels(knex);
   await migrateLatest(knex);
   try {
     const tag = randomBytes(4).toString('hex');
@@ -60,7 +59,7 @@ async function run() {
       })
       .returning('*');
     await insertSyntheticRuns(knex, campaign.id, user.id, RUNS);
-    const { secret } = await createToken(user.id, { name: 'bench', expiresInDays: 1 });
+    const { secret } = await createToken(knex, user.id, { name: 'bench', expiresInDays: 1 });
 
     const measurements = await Measurement.query(knex)
       .where({ campaignId: campaign.id })

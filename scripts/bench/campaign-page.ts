@@ -22,7 +22,7 @@ import type { Server } from 'node:http';
 import type { BrowserContext } from 'playwright-core';
 import { createApp } from '../../api/app';
 import { loadConfig } from '../../api/config';
-import { bindModels, createKnex, migrateLatest } from '../../api/db/knex';
+import { createKnex, migrateLatest } from '../../api/db/knex';
 import { startFakeOAuthProvider } from '../../api/features/auth/fake-provider';
 import { openBrowser } from '../../tests/support/browser';
 import { sessionCookie, signIn } from '../../tests/support/auth';
@@ -189,7 +189,6 @@ async function profileOneLoad(context: BrowserContext, url: string, file: string
 
 async function run() {
   const knex = createKnex(process.env.DATABASE_URL!, { min: 0, max: 4 });
-  bindModels(knex);
   await migrateLatest(knex);
   const provider = await startFakeOAuthProvider();
   // Test mode: session cookies without the Secure flag, since the page is served over plain loopback HTTP.

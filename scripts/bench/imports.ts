@@ -14,7 +14,7 @@ import type { Knex } from 'knex';
 import { performance } from 'node:perf_hooks';
 import { randomUUID } from 'node:crypto';
 import { pathToFileURL } from 'node:url';
-import { bindModels, createKnex, migrateLatest } from '../../api/db/knex';
+import { createKnex, migrateLatest } from '../../api/db/knex';
 import { importMappingSchema } from '../../api/features/campaigns/schemas';
 import { importMeasurements } from '../../api/features/imports/service';
 import { IMPORT_LIMITS } from '../../api/features/imports/parse';
@@ -183,7 +183,6 @@ export const importBenchSuite: BenchSuite = {
   name: 'imports',
   async run() {
     const knex = createKnex(process.env.DATABASE_URL!, { min: 0, max: 4 });
-    bindModels(knex);
     try {
       printImportBenchmark(await runImportBenchmark(knex));
     } finally {
@@ -198,7 +197,6 @@ if (import.meta.url === pathToFileURL(process.argv[1] ?? '').href) {
     .map(Number)
     .filter((n) => n > 0);
   const knex = createKnex(process.env.DATABASE_URL ?? '', { min: 0, max: 4 });
-  bindModels(knex);
   try {
     printImportBenchmark(await runImportBenchmark(knex, sizes.length ? sizes : undefined));
   } finally {

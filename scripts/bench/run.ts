@@ -18,7 +18,7 @@ import type { Server } from 'node:http';
 import { performance } from 'node:perf_hooks';
 import { createApp } from '../../api/app';
 import { loadConfig } from '../../api/config';
-import { bindModels, createKnex, migrateLatest } from '../../api/db/knex';
+import { createKnex, migrateLatest } from '../../api/db/knex';
 import { runFit } from '../../api/features/calculators/fit';
 import { runForecast } from '../../api/features/calculators/forecast';
 import { fitRequestSchema, forecastRequestSchema } from '../../api/features/calculators/schemas';
@@ -100,7 +100,6 @@ const fitBody = {
 
 async function httpSuite() {
   const knex = createKnex(process.env.DATABASE_URL!, { min: 0, max: 4 });
-  bindModels(knex);
   await migrateLatest(knex);
   const app = createApp({ knex, config: loadConfig({ nodeEnv: 'production', devTools: false }), webDist: null });
   const real = await listen(app);

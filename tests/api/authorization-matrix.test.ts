@@ -135,7 +135,7 @@ const RULES: Record<string, Rule> = {
     access: 'owner',
     ok: 204,
     params: async (c) => {
-      const inv = await Invitation.query().insertAndFetch({
+      const inv = await Invitation.query(testKnex()).insertAndFetch({
         projectId: c.projectId,
         email: uniqueEmail(),
         role: 'viewer',
@@ -243,7 +243,7 @@ const RULES: Record<string, Rule> = {
     ok: 204,
     params: async (c) => {
       const campaign = await createCampaign(c.projectId);
-      const forecast = await SavedForecast.query()
+      const forecast = await SavedForecast.query(testKnex())
         .insert({ campaignId: campaign.id, temperatureK: 250, result: { note: 'made by the matrix' } })
         .returning('*');
       return { forecastId: forecast.id };
@@ -285,7 +285,7 @@ const RULES: Record<string, Rule> = {
     ok: 200,
     params: async (c) => {
       const { first, second } = await twoScreens(c);
-      const row = await Comparison.query()
+      const row = await Comparison.query(testKnex())
         .insert({ projectId: c.projectId, name: 'Matrix comparison', campaignIds: [first, second], temperatureK: 253.15 })
         .returning('*');
       return { comparisonId: row.id };

@@ -28,7 +28,7 @@ const kTrue = (t: number) => 2.083661912e10 * t * Math.exp(-100 / R) * Math.exp(
 /** An invented screen: ln r = ΔΔH‡/RT − ΔΔS‡/R + noise, stored as ee, with conversion and time on each run. */
 async function screen(projectId: string, ddH = 12_000, shift = 0, measure: 'ee' | 'dr' = 'ee') {
   const campaign = await createCampaign(projectId, { measure });
-  await Measurement.query().insert(
+  await Measurement.query(testKnex()).insert(
     TEMPS_K.map((t, i) => {
       const y = ddH / (R * t) - 10 / R + shift + NOISE[i]!;
       const timeS = 3600 * 30 * Math.exp(-((t - 213.15) / 25));
@@ -141,7 +141,7 @@ describe('campaign plan', () => {
     expect(plan.result.caution).toMatch(/calorimetry/);
 
     // The stateless planner gives the same answer on the same numbers.
-    const runs = await Measurement.query().where({ campaignId: campaign.id }).orderBy('temperatureK').orderBy('id');
+    const runs = await Measurement.query(testKnex()).where({ campaignId: campaign.id }).orderBy('temperatureK').orderBy('id');
     const stateless = await request(env.app)
       .post('/api/v1/plan')
       .send({

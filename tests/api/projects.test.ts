@@ -4,7 +4,7 @@ import { signIn, startAuthApp, type AuthTestApp } from '../support/auth';
 import { createUser } from '../factories/users';
 import { createProject } from '../factories/projects';
 import type { User } from '../../api/models/user';
-import { recordAudit } from '../../api/features/audit/service';
+import { recordAudit } from '../../api/lib/audit';
 
 afterAll(closeTestKnex);
 let env: AuthTestApp | null = null;

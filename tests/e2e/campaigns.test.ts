@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import path from 'node:path';
 import type { Page } from 'playwright-core';
-import { closeTestKnex } from '../support/db';
+import { closeTestKnex, testKnex } from '../support/db';
 import { openBrowser, maybeScreenshot, type BrowserSession } from '../support/browser';
 import { startAuthApp, type AuthTestApp } from '../support/auth';
 import { createUser, type TestIdentity } from '../factories/users';
@@ -238,7 +238,6 @@ describe('campaign pages in Chromium', () => {
     await page.getByRole('button', { name: 'Edit campaign details' }).click();
     await page.getByLabel('Title').fill('Version race, my title (invented)');
     // Meanwhile the row moves on.
-    const { testKnex } = await import('../support/db');
     await testKnex()('campaigns')
       .where({ id: campaign.id })
       .update({ title: 'Their title (invented)', version: campaign.version + 1 });
@@ -349,7 +348,7 @@ describe('campaign pages in Chromium', () => {
         value: Math.round(Math.exp(1500 / temperatureK - 3.2 + (i % 2 ? 0.02 : -0.02)) * 10) / 10,
       };
     });
-    await Measurement.query().insert(runs);
+    await Measurement.query(testKnex()).insert(runs);
 
     await signInAs(page, baseUrl, who, `/campaigns/${campaign.id}`);
     const residuals = page.getByRole('region', { name: 'Residual diagnostics' });

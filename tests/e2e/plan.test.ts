@@ -3,7 +3,7 @@ import path from 'node:path';
 import { readFile } from 'node:fs/promises';
 import ExcelJS from 'exceljs';
 import type { Page } from 'playwright-core';
-import { closeTestKnex } from '../support/db';
+import { closeTestKnex, testKnex } from '../support/db';
 import { openBrowser, maybeScreenshot, type BrowserSession } from '../support/browser';
 import { startAuthApp, type AuthTestApp } from '../support/auth';
 import { createUser, type TestIdentity } from '../factories/users';
@@ -66,7 +66,7 @@ const NOISE = [0.04, -0.03, 0.02, -0.05, 0.03, -0.01, 0.05, -0.02, 0.01, -0.04];
 /** An invented ee screen with conversion and time on every run (ΔΔH‡ = 12 kJ/mol + offset in ln r). */
 async function inventedScreen(projectId: string, title: string, shift: number) {
   const campaign = await createCampaign(projectId, { title });
-  await Measurement.query().insert(
+  await Measurement.query(testKnex()).insert(
     TEMPS_C.map((c, i) => {
       const t = c + 273.15;
       const y = 12_000 / (R * t) - 10 / R + shift + NOISE[i]!;

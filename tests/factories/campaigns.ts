@@ -1,10 +1,11 @@
 import { randomBytes } from 'node:crypto';
+import { testKnex } from '../support/db';
 import { Campaign } from '../../api/models/campaign';
 import { Measurement } from '../../api/models/measurement';
 
 /** A campaign in `projectId` (inserted directly, no audit rows), with overridable fields. */
 export async function createCampaign(projectId: string, overrides: Partial<Campaign> = {}): Promise<Campaign> {
-  return Campaign.query()
+  return Campaign.query(testKnex())
     .insert({
       projectId,
       title: `Test screen ${randomBytes(3).toString('hex')}`,
@@ -25,7 +26,7 @@ export async function createMeasurements(
   temperaturesK: number[],
   overrides: Partial<Measurement> = {},
 ): Promise<Measurement[]> {
-  return Measurement.query()
+  return Measurement.query(testKnex())
     .insert(
       temperaturesK.map((temperatureK) => ({
         campaignId,

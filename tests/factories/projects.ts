@@ -1,4 +1,5 @@
 import { randomBytes } from 'node:crypto';
+import { testKnex } from '../support/db';
 import type { ProjectRole } from '../../api/features/projects/schemas';
 import { Project } from '../../api/models/project';
 import { ProjectMember } from '../../api/models/project-member';
@@ -9,11 +10,11 @@ export async function createProject(
   members: { user: User; role: ProjectRole }[],
   overrides: Partial<{ name: string; description: string }> = {},
 ): Promise<Project> {
-  const project = await Project.query().insertAndFetch({
+  const project = await Project.query(testKnex()).insertAndFetch({
     name: overrides.name ?? `Test project ${randomBytes(3).toString('hex')}`,
     description: overrides.description ?? 'Made by a test.',
     createdBy: members.find((m) => m.role === 'owner')?.user.id ?? null,
   });
-  for (const m of members) await ProjectMember.query().insert({ projectId: project.id, userId: m.user.id, role: m.role });
+  for (const m of members) await ProjectMember.query(testKnex()).insert({ projectId: project.id, userId: m.user.id, role: m.role });
   return project;
 }

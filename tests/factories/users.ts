@@ -1,4 +1,5 @@
 import { randomBytes } from 'node:crypto';
+import { testKnex } from '../support/db';
 import { fakeProviderUserId } from '../../api/features/auth/fake-provider';
 import { User } from '../../api/models/user';
 
@@ -17,7 +18,7 @@ export function newIdentity(overrides: Partial<TestIdentity> = {}): TestIdentity
 /** A user row that the fake provider's identity with the same login signs in as. */
 export async function createUser(overrides: Partial<TestIdentity> = {}): Promise<User> {
   const who = newIdentity(overrides);
-  return User.query().insertAndFetch({
+  return User.query(testKnex()).insertAndFetch({
     provider: 'local-demo',
     providerUserId: fakeProviderUserId(who.login),
     login: who.login,

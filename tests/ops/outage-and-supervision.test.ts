@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import http from 'node:http';
 import type { Knex } from 'knex';
-import { bindModels, createKnex } from '../../api/db/knex';
+import { createKnex } from '../../api/db/knex';
 import { User } from '../../api/models/user';
 import { createApiToken } from '../factories/tokens';
 import { freePort, startNode, startOwnCluster, timedFetch, type OwnCluster } from '../support/own-cluster';
@@ -49,9 +49,8 @@ beforeAll(async () => {
   });
   await start.output.waitFor(/Eyrie is ready/, 90_000);
   knex = createKnex(cluster.url, { min: 0, max: 2 });
-  bindModels(knex);
-  const user = await User.query().whereNotNull('email').first();
-  bearer = `Bearer ${(await createApiToken(user!)).secret}`;
+  const user = await User.query(knex).whereNotNull('email').first();
+  bearer = `Bearer ${(await createApiToken(user!, {}, knex)).secret}`;
 }, 120_000);
 
 afterAll(async () => {
@@ -120,8 +119,8 @@ describe('a crash in the middle of an import', () => {
   it('when the API is killed -9 while an import is inserting, then no row of it remains and the restarted server takes imports again', async () => {
     const owner = await knex('projectMembers').where({ role: 'owner' }).first('projectId', 'userId');
     const campaign = await knex('campaigns').where({ projectId: owner.projectId }).first('id');
-    const user = await User.query().findById(owner.userId);
-    const auth = `Bearer ${(await createApiToken(user!)).secret}`;
+    const user = await User.query(knex).findById(owner.userId);
+    const auth = `Bearer ${(await createApiToken(user!, {}, knex)).secret}`;
     const before = Number((await knex('measurements').where({ campaignId: campaign.id }).count({ n: '*' }).first())!.n);
     // 20 000 invented runs (fixed pattern): two insert statements in one transaction, long enough to be caught.
     const rows = Array.from({ length: 20_000 }, (_, i) => `${(-60 + (i % 80) + i / 1e5).toFixed(5)},${(80 + (i % 19)).toFixed(1)},S-${i}`);

@@ -1,4 +1,4 @@
-import { useEffect, useState } from 'react';
+import { useState } from 'react';
 import { NavLink, Outlet, useLocation } from 'react-router-dom';
 import { CautionScope } from '../components/ui/caution';
 import { paths } from '../config/paths';
@@ -10,9 +10,14 @@ const linkClass = ({ isActive }: { isActive: boolean }) =>
 
 export function AppLayout() {
   // On narrow screens the main links fold into a menu; sign-in and the account stay in the bar.
+  // Following a link closes the menu (state adjusted during render when the path changes, not in an effect).
   const [menuOpen, setMenuOpen] = useState(false);
   const location = useLocation();
-  useEffect(() => setMenuOpen(false), [location.pathname]);
+  const [menuPath, setMenuPath] = useState(location.pathname);
+  if (menuPath !== location.pathname) {
+    setMenuPath(location.pathname);
+    setMenuOpen(false);
+  }
   return (
     <div className="flex min-h-screen flex-col">
       <a

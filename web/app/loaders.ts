@@ -10,7 +10,7 @@
  */
 import type { QueryClient } from '@tanstack/react-query';
 import type { LoaderFunctionArgs } from 'react-router-dom';
-import { sessionQueryOptions } from '../features/auth/api/get-session';
+import { sessionQueryOptions } from '../lib/session';
 import { campaignQueryOptions, campaignsQueryOptions } from '../features/campaigns/api/campaigns';
 import { measurementsQueryOptions } from '../features/campaigns/api/measurements';
 import { projectQueryOptions } from '../features/projects/api/projects';

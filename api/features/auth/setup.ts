@@ -76,7 +76,7 @@ export function installAuth(app: Express, deps: { knex: Knex; config: AppConfig;
   const authenticator = new passport.Passport();
   authenticator.serializeUser((user, done) => done(null, (user as User).id));
   authenticator.deserializeUser((id: string, done) => {
-    User.query()
+    User.query(knex)
       .findById(id)
       .then((user) => done(null, user ?? false), done);
   });
@@ -95,7 +95,7 @@ export function installAuth(app: Express, deps: { knex: Knex; config: AppConfig;
           ...(oauth.endpoints ?? {}),
         } as unknown as StrategyOptions,
         (_accessToken: string, _refreshToken: string, profile: Profile, done: (err: unknown, user?: User) => void) => {
-          upsertProviderUser({
+          upsertProviderUser(knex, {
             provider: oauth.provider,
             providerUserId: profile.id,
             login: profile.username ?? profile.id,

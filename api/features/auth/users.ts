@@ -1,3 +1,4 @@
+import type { Knex } from 'knex';
 import { User } from '../../models/user';
 
 export interface UserView {
@@ -17,18 +18,21 @@ export const toUserView = (u: User): UserView => ({
 });
 
 /** Create or refresh the Eyrie user behind a provider identity; details follow the provider on each sign-in. */
-export async function upsertProviderUser(input: {
-  provider: string;
-  providerUserId: string;
-  login: string;
-  displayName: string | null;
-  email: string | null;
-  avatarUrl: string | null;
-}): Promise<User> {
-  const [row] = await User.knex()('users')
+export async function upsertProviderUser(
+  db: Knex,
+  input: {
+    provider: string;
+    providerUserId: string;
+    login: string;
+    displayName: string | null;
+    email: string | null;
+    avatarUrl: string | null;
+  },
+): Promise<User> {
+  const [row] = await db('users')
     .insert({ ...input, email: input.email?.toLowerCase() ?? null })
     .onConflict(['provider', 'provider_user_id'])
     .merge(['login', 'display_name', 'email', 'avatar_url', 'updated_at'])
     .returning('id');
-  return User.query().findById(row.id).throwIfNotFound();
+  return User.query(db).findById(row.id).throwIfNotFound();
 }

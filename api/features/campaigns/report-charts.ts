@@ -1,11 +1,12 @@
 /**
  * The report's charts, drawn on the server as SVG from the report model and rendered to PNG by
  * resvg with fonts shipped in node_modules (never the machine's), so every server draws the same
- * picture. Colours are the web app's chart palette (web/components/charts/chart-theme.ts).
+ * picture. Colours are the web app's chart palette (api/lib/chart-colors.ts).
  */
 import { createRequire } from 'node:module';
 import path from 'node:path';
 import { Resvg, renderAsync, type ResvgRenderOptions } from '@resvg/resvg-js';
+import { chartColors } from '../../lib/chart-colors';
 import { fixed, lnOf, lnRange } from './report-format';
 import type { ReportModel } from './report-model';
 
@@ -14,18 +15,7 @@ const fontDir = path.join(path.dirname(require.resolve('dejavu-fonts-ttf/package
 export const REPORT_FONT_FILES = [path.join(fontDir, 'DejaVuSans.ttf'), path.join(fontDir, 'DejaVuSans-Bold.ttf')];
 const FONT_FAMILY = 'DejaVu Sans';
 
-const colors = {
-  ink: '#1e293b',
-  inkSoft: '#475569',
-  grid: '#e2e8f0',
-  accent: '#0f766e',
-  confidenceFill: '#0f766e',
-  predictionFill: '#5eead4',
-  branch: '#7c3aed',
-  caution: '#8a4b08',
-  flagRing: '#b4452c',
-  paper: '#ffffff',
-} as const;
+const colors = chartColors;
 
 export const CHART_WIDTH = 720;
 export const CHART_HEIGHT = 420;

@@ -110,10 +110,6 @@ export function safeText(value: string | null | undefined): string | null {
   return FORMULA_START.test(value) ? `'${value}` : value;
 }
 
-export function needsNeutralising(value: string): boolean {
-  return FORMULA_START.test(value);
-}
-
 /** A file name safe on every common file system and in a Content-Disposition header. */
 export function safeFileName(title: string, suffix: string): string {
   const slug =

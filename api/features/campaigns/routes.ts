@@ -179,10 +179,11 @@ export function campaignsRouter(deps: {
   };
   const mailLimit = limiter(REPORT_MAIL_LIMIT.windowMs, deps.reportMailLimit ?? REPORT_MAIL_LIMIT.limit, 'report e-mail', true);
   const router = Router();
-  const byProject = (role: 'viewer' | 'editor') => authorizeProject(role, projectIdParam);
-  const byCampaign = (role: 'viewer' | 'editor') => authorizeProject(role, (req) => resolveCampaignProjectId(knex, req.params.campaignId));
-  const byMeasurement = authorizeProject('editor', (req) => resolveMeasurementProjectId(knex, req.params.measurementId));
-  const byForecast = authorizeProject('editor', (req) => resolveSavedForecastProjectId(knex, req.params.forecastId));
+  const byProject = (role: 'viewer' | 'editor') => authorizeProject(knex, role, projectIdParam);
+  const byCampaign = (role: 'viewer' | 'editor') =>
+    authorizeProject(knex, role, (req) => resolveCampaignProjectId(knex, req.params.campaignId));
+  const byMeasurement = authorizeProject(knex, 'editor', (req) => resolveMeasurementProjectId(knex, req.params.measurementId));
+  const byForecast = authorizeProject(knex, 'editor', (req) => resolveSavedForecastProjectId(knex, req.params.forecastId));
   const campaignId = (req: Request) => String(req.params.campaignId);
 
   router.get('/projects/:projectId/campaigns', byProject('viewer'), async (req, res) => {
@@ -310,7 +311,7 @@ export function campaignsRouter(deps: {
 
   router.get(
     '/import-files/:fileId',
-    authorizeProject('viewer', (req) => resolveImportFileProjectId(knex, req.params.fileId)),
+    authorizeProject(knex, 'viewer', (req) => resolveImportFileProjectId(knex, req.params.fileId)),
     async (req, res) => {
       const file = await readImportFile(knex, req.project!.id, String(req.params.fileId));
       res
@@ -344,13 +345,13 @@ export function campaignsRouter(deps: {
       .send(csv);
   });
 
-  router.get('/projects/:projectId/history', authorizeProject('owner', projectIdParam), async (req, res) => {
+  router.get('/projects/:projectId/history', authorizeProject(knex, 'owner', projectIdParam), async (req, res) => {
     res
       .set('Cache-Control', 'private, no-store')
       .json(await readHistory(knex, { projectId: req.project!.id }, parseBody(historyQuerySchema, req.query)));
   });
 
-  router.get('/projects/:projectId/history.csv', authorizeProject('owner', projectIdParam), async (req, res) => {
+  router.get('/projects/:projectId/history.csv', authorizeProject(knex, 'owner', projectIdParam), async (req, res) => {
     const project = await knex('projects').where({ id: req.project!.id }).first('name');
     const csv = await historyCsv(knex, { projectId: req.project!.id });
     res

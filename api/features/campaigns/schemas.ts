@@ -16,15 +16,12 @@ import {
   type TemperatureUnit,
 } from '../../science/quantities';
 import { quantitationLimitProblem } from '../calculators/schemas';
+import { ASSAY_METHODS, CAMPAIGN_STATUSES, type AssayMethod, type CampaignStatus } from '../../models/enums';
 
 export { parseRatioPair, SELECTIVITY_MEASURES, selectivityProblem, TEMPERATURE_UNITS, toKelvin, toSeconds };
 export type { SelectivityMeasure, TemperatureUnit };
 
-export const ASSAY_METHODS = ['chiral-hplc', 'chiral-sfc', 'chiral-gc', 'nmr', 'other'] as const;
-export type AssayMethod = (typeof ASSAY_METHODS)[number];
-
-export const CAMPAIGN_STATUSES = ['planned', 'active', 'completed', 'archived'] as const;
-export type CampaignStatus = (typeof CAMPAIGN_STATUSES)[number];
+export { ASSAY_METHODS, CAMPAIGN_STATUSES, type AssayMethod, type CampaignStatus };
 
 export const TIME_UNITS = ['s', 'min', 'h'] as const;
 export type TimeUnit = (typeof TIME_UNITS)[number];
@@ -55,8 +52,6 @@ export const temperatureInputSchema = z
         message: `${t.value} ${TEMPERATURE_UNIT_LABEL[t.unit]} is above ${MAX_TEMPERATURE_K} K`,
       });
   });
-export type TemperatureInput = z.infer<typeof temperatureInputSchema>;
-
 export const reactionTimeInputSchema = z.object({
   value: finite('reaction time').refine((v) => v >= 0, 'reaction time must not be negative'),
   unit: z.enum(TIME_UNITS, { error: 'unit must be s, min or h' }),
@@ -76,8 +71,6 @@ export const selectivityInputSchema = z
     const problem = selectivityProblem(s.measure, s.value);
     if (problem) ctx.addIssue({ code: 'custom', path: ['value'], message: problem });
   });
-export type SelectivityInputBody = z.infer<typeof selectivityInputSchema>;
-
 /** PostgreSQL text cannot hold U+0000; refused in every stored text field with a field error. */
 const noNul = (s: string) => !s.includes('\u0000');
 const NUL_MESSAGE = 'must not contain a NUL character (U+0000)';
@@ -233,8 +226,6 @@ export const campaignSignOffSchema = z.strictObject({
 export const campaignReopenSchema = z.strictObject({ reason: changeReasonSchema });
 
 /** A version-checked delete. */
-export const versionedDeleteSchema = z.strictObject({ version: versionSchema });
-
 // ── Saved forecasts ────────────────────────────────────────────────────────────────────────
 
 /** What a client sends to save a forecast; the route computes `result` with the engine. */

@@ -6,7 +6,7 @@
  */
 import type { Knex } from 'knex';
 import objection from 'objection';
-import { recordAudit } from '../audit/service';
+import { recordAudit } from '../../lib/audit';
 import { BadRequestError, ConflictError, NotFoundError } from '../../lib/errors';
 import { quantitationLimitProblem } from '../calculators/schemas';
 import { Campaign } from '../../models/campaign';

@@ -28,13 +28,7 @@ export const READ_POOL_DEFAULTS: ReadPoolOptions = { maxThreads: 2, maxOldGenera
 const workerFile = path.join(path.dirname(fileURLToPath(import.meta.url)), 'parse-worker.mjs');
 
 let pool: Piscina | null = null;
-let poolOptions: ReadPoolOptions = READ_POOL_DEFAULTS;
-
-/** Change the pool's settings (tests use a smaller memory cap); the next read starts a new pool. */
-export async function configureReadPool(options: Partial<ReadPoolOptions>): Promise<void> {
-  await closeReadPool();
-  poolOptions = { ...READ_POOL_DEFAULTS, ...options };
-}
+const poolOptions: ReadPoolOptions = READ_POOL_DEFAULTS;
 
 function getPool(): Piscina {
   if (!pool) {

@@ -5,7 +5,7 @@
  */
 import { createHash } from 'node:crypto';
 import type { Knex } from 'knex';
-import { recordAudit } from '../audit/service';
+import { recordAudit } from '../../lib/audit';
 import { NotFoundError } from '../../lib/errors';
 import { assertMeasurementsOpen, isUuid } from '../campaigns/service';
 import { Campaign } from '../../models/campaign';

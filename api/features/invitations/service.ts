@@ -5,7 +5,7 @@ import { Invitation } from '../../models/invitation';
 import { Project } from '../../models/project';
 import { ProjectMember } from '../../models/project-member';
 import type { User } from '../../models/user';
-import { recordAudit } from '../audit/service';
+import { recordAudit } from '../../lib/audit';
 import type { Mailer } from '../mail/mailer';
 import type { ProjectRole } from '../projects/schemas';
 

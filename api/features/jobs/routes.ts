@@ -40,7 +40,7 @@ export type JobView = ReturnType<typeof jobView>;
 export function jobsRouter(deps: { knex: Knex }): Router {
   const { knex } = deps;
   const router = Router();
-  const byJob = authorizeProject('viewer', (req) => resolveJobProjectId(knex, req.params.jobId));
+  const byJob = authorizeProject(knex, 'viewer', (req) => resolveJobProjectId(knex, req.params.jobId));
 
   router.get('/:jobId', byJob, async (req, res) => {
     const row = (await knex('jobs')

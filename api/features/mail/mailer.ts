@@ -48,7 +48,7 @@ export function createInProcessMailer(mailbox: Mailbox, from: string): Mailer {
   return {
     async send(mail) {
       const info = await transport.sendMail(toNodemailer(from, mail));
-      mailbox.add(String(info.message), [mail.to]);
+      await mailbox.add(info.message, [mail.to]);
     },
   };
 }

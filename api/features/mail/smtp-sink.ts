@@ -27,8 +27,7 @@ export async function startSmtpSink(mailbox: Mailbox, options: { host?: string; 
       stream.on('data', (c: Buffer) => chunks.push(c));
       stream.on('end', () => {
         const to = session.envelope.rcptTo.map((r) => r.address);
-        mailbox.add(Buffer.concat(chunks).toString('utf8'), to);
-        callback();
+        mailbox.add(Buffer.concat(chunks), to).then(() => callback(), callback);
       });
       stream.on('error', callback);
     },

@@ -26,8 +26,9 @@ const actorOf = (req: Request): ProjectActor => ({ projectId: req.project!.id, a
 export function planStoreRouter(deps: { knex: Knex }): Router {
   const { knex } = deps;
   const router = Router();
-  const byProject = (role: 'viewer' | 'editor') => authorizeProject(role, projectIdParam);
-  const byCampaign = (role: 'viewer' | 'editor') => authorizeProject(role, (req) => resolveCampaignProjectId(knex, req.params.campaignId));
+  const byProject = (role: 'viewer' | 'editor') => authorizeProject(knex, role, projectIdParam);
+  const byCampaign = (role: 'viewer' | 'editor') =>
+    authorizeProject(knex, role, (req) => resolveCampaignProjectId(knex, req.params.campaignId));
   const campaignId = (req: Request) => String(req.params.campaignId);
 
   router.get('/projects/:projectId/specification', byProject('viewer'), async (req, res) => {
@@ -62,7 +63,7 @@ export function planStoreRouter(deps: { knex: Knex }): Router {
   });
 
   // The project a comparison is saved in comes from the body: check its shape first (400), then the role.
-  const byBodyProject = authorizeProject('editor', (req) => parseBody(comparisonCreateSchema, req.body).projectId);
+  const byBodyProject = authorizeProject(knex, 'editor', (req) => parseBody(comparisonCreateSchema, req.body).projectId);
   router.post('/comparisons', byBodyProject, async (req, res) => {
     const view = await createComparison(knex, actorOf(req), parseBody(comparisonCreateSchema, req.body));
     res.status(201).location(`/api/v1/comparisons/${view.id}`).json(view);
@@ -70,7 +71,7 @@ export function planStoreRouter(deps: { knex: Knex }): Router {
 
   router.get(
     '/comparisons/:comparisonId',
-    authorizeProject('viewer', (req) => resolveComparisonProjectId(knex, req.params.comparisonId)),
+    authorizeProject(knex, 'viewer', (req) => resolveComparisonProjectId(knex, req.params.comparisonId)),
     async (req, res) => {
       res.json(await getComparison(knex, req.project!.id, req.user!.id, String(req.params.comparisonId)));
     },

@@ -5,7 +5,7 @@
  * that moment; a client cannot send a result.
  */
 import type { Knex } from 'knex';
-import { recordAudit } from '../audit/service';
+import { recordAudit } from '../../lib/audit';
 import { BadRequestError, ConflictError, NotFoundError } from '../../lib/errors';
 import { Campaign } from '../../models/campaign';
 import { Measurement } from '../../models/measurement';
@@ -225,7 +225,7 @@ async function readableCampaigns(db: Knex, userId: string, ids: readonly string[
   const out: (Campaign | null)[] = [];
   for (const id of ids) {
     const c = rows.find((r) => r.id === id);
-    out.push(c && (await roleInProject(c.projectId, userId, db)) ? c : null);
+    out.push(c && (await roleInProject(db, c.projectId, userId)) ? c : null);
   }
   return out;
 }

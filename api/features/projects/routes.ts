@@ -57,8 +57,8 @@ const memberId = (value: unknown) => {
 export function projectsRouter(deps: { knex: Knex; config: AppConfig; mailer: Mailer }): Router {
   const { knex } = deps;
   const router = Router();
-  const viewer = authorizeProject('viewer', projectIdParam);
-  const owner = authorizeProject('owner', projectIdParam);
+  const viewer = authorizeProject(knex, 'viewer', projectIdParam);
+  const owner = authorizeProject(knex, 'owner', projectIdParam);
 
   router.get('/', requireUser, async (req, res) => {
     res.json({ projects: await listProjectsFor(knex, req.user!.id) });

@@ -1,8 +1,8 @@
 import { z } from 'zod';
+import { projectRoles, type ProjectRole } from '../../models/enums';
 
 /** Zod schemas shared by the API and the web forms. No server imports here. */
-export const projectRoles = ['viewer', 'editor', 'owner'] as const;
-export type ProjectRole = (typeof projectRoles)[number];
+export { projectRoles, type ProjectRole };
 export const projectRoleSchema = z.enum(projectRoles, { error: 'Choose owner, editor or viewer.' });
 
 /** How much each role may do; a higher rank includes everything below it. */

@@ -2,7 +2,7 @@ import type { Knex } from 'knex';
 import { ConflictError, NotFoundError } from '../../lib/errors';
 import { Project } from '../../models/project';
 import { ProjectMember } from '../../models/project-member';
-import { recordAudit } from '../audit/service';
+import { recordAudit } from '../../lib/audit';
 import type { ProjectRole } from './schemas';
 
 export interface ProjectView {

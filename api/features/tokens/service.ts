@@ -31,18 +31,19 @@ export function toTokenView(t: ApiToken, now = new Date()): TokenView {
   };
 }
 
-export async function listTokens(userId: string): Promise<TokenView[]> {
-  const rows = await ApiToken.query().where({ userId }).orderBy('createdAt', 'desc');
+export async function listTokens(db: Knex, userId: string): Promise<TokenView[]> {
+  const rows = await ApiToken.query(db).where({ userId }).orderBy('createdAt', 'desc');
   return rows.map((t) => toTokenView(t));
 }
 
 /** Create a token; the secret is returned this once and only its hash is kept. */
 export async function createToken(
+  db: Knex,
   userId: string,
   input: { name: string; expiresInDays: number },
 ): Promise<{ token: TokenView; secret: string }> {
   const secret = newSecret(TOKEN_PREFIX);
-  const token = await ApiToken.query().insertAndFetch({
+  const token = await ApiToken.query(db).insertAndFetch({
     userId,
     name: input.name,
     tokenHash: hashSecret(secret),
@@ -52,12 +53,12 @@ export async function createToken(
   return { token: toTokenView(token), secret };
 }
 
-export async function revokeToken(userId: string, tokenId: string): Promise<TokenView> {
-  const token = await ApiToken.query().findOne({ id: tokenId, userId });
+export async function revokeToken(db: Knex, userId: string, tokenId: string): Promise<TokenView> {
+  const token = await ApiToken.query(db).findOne({ id: tokenId, userId });
   if (!token) throw new NotFoundError('You have no token with this id.');
   if (!token.revokedAt) {
     token.revokedAt = new Date();
-    await ApiToken.query().findById(token.id).patch({ revokedAt: token.revokedAt });
+    await ApiToken.query(db).findById(token.id).patch({ revokedAt: token.revokedAt });
   }
   return toTokenView(token);
 }

@@ -1,8 +1,8 @@
 // @vitest-environment happy-dom
 import { afterEach, describe, expect, it } from 'vitest';
 import { cleanup, render, screen } from '@testing-library/react';
-import { PredictionBox } from '../../../web/features/calculators/components/prediction-box';
-import { ChartControls } from '../../../web/features/calculators/components/chart-controls';
+import { PredictionBox } from '../../../web/components/fit/prediction-box';
+import { ChartControls } from '../../../web/components/charts/chart-controls';
 import { SelectivityChart } from '../../../web/components/charts/selectivity-chart';
 import type { FitResponse } from '../../../api/features/calculators/schemas';
 

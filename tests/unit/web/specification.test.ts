@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { specificationLn, specificationOnAxis, specificationText, verdictOf } from '../../../web/features/plan/lib/specification';
+import { specificationLn, specificationOnAxis, specificationText, verdictOf } from '../../../web/lib/specification';
 import { specificationLnRatio } from '../../../api/science';
 
 describe('the stored specification on the campaign pages', () => {

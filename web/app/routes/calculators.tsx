@@ -1,7 +1,7 @@
 import { Page } from '../../components/ui/page';
 import { RangeForecastPanel } from '../../features/calculators/components/range-forecast-panel';
 import { FitPanel } from '../../features/calculators/components/fit-panel';
-import { ConventionNote } from '../../features/calculators/components/fields';
+import { ConventionNote } from '../../components/ui/fields';
 
 /** Calculators that need no sign-in: a forecast from one basis, and a fit of a pasted screen. */
 export function CalculatorsRoute() {

@@ -5,7 +5,7 @@ import { Page, Panel } from '../../components/ui/page';
 import { StaleResult, useLastDefined, worthRetrying } from '../../components/ui/stale';
 import { paths } from '../../config/paths';
 import { SignedInOnly } from '../../features/auth/components/signed-in-only';
-import { Segmented } from '../../features/calculators/components/fields';
+import { Segmented } from '../../components/ui/fields';
 import { useAnalysis } from '../../features/campaigns/api/analysis';
 import { useCampaign } from '../../features/campaigns/api/campaigns';
 import { useMeasurements } from '../../features/campaigns/api/measurements';

@@ -7,11 +7,11 @@ import { paths } from '../../config/paths';
 import { ApiError } from '../../lib/api-client';
 import { fixed, percentColumn, sig } from '../../lib/format';
 import { SignedInOnly } from '../../features/auth/components/signed-in-only';
-import { ConventionNote, NumberField, buttonClass, inputClass } from '../../features/calculators/components/fields';
+import { ConventionNote, NumberField, buttonClass, inputClass } from '../../components/ui/fields';
 import { useCampaigns } from '../../features/campaigns/api/campaigns';
 import { useComparison, useCreateComparison, type ComparisonView } from '../../features/plan/api/plan';
 import { EyringOverlay } from '../../features/plan/components/eyring-overlay';
-import { specificationText } from '../../features/plan/lib/specification';
+import { specificationText } from '../../lib/specification';
 
 const VERDICT: Record<string, string> = {
   first: 'the first is more selective',

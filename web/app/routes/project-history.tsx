@@ -3,7 +3,7 @@ import { Page, Panel } from '../../components/ui/page';
 import { paths } from '../../config/paths';
 import { SignedInOnly } from '../../features/auth/components/signed-in-only';
 import { useProject } from '../../features/projects/api/projects';
-import { HistoryView } from '../../features/projects/components/history-view';
+import { HistoryView } from '../../features/campaigns/components/history-view';
 
 function History({ projectId }: { projectId: string }) {
   const project = useProject(projectId);

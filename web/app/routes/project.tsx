@@ -4,7 +4,7 @@ import { paths } from '../../config/paths';
 import { SignedInOnly } from '../../features/auth/components/signed-in-only';
 import { ProjectCampaigns } from '../../features/campaigns/components/project-campaigns';
 import { useProject } from '../../features/projects/api/projects';
-import { RoleBadge } from '../../features/projects/components/role-badge';
+import { RoleBadge } from '../../components/ui/role-badge';
 
 function ProjectPage({ projectId }: { projectId: string }) {
   const project = useProject(projectId);

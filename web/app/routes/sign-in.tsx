@@ -1,7 +1,7 @@
 import { Navigate, useSearchParams } from 'react-router-dom';
 import { Page, Panel } from '../../components/ui/page';
 import { paths } from '../../config/paths';
-import { useSession } from '../../features/auth/api/get-session';
+import { useSession } from '../../lib/session';
 import { safeReturnTo } from '../../../api/features/auth/schemas';
 
 const problems: Record<string, string> = {

@@ -27,24 +27,29 @@ const px = (v: number) => Math.round(v * 10) / 10;
  */
 export function ErrorBars({ bars, color = chartColors.inkSoft }: { bars: ErrorBar[]; color?: string }) {
   const area = usePlotArea();
+  // Drawn again only when the scales or the plot's height change, not on every chart render.
+  const xOf = area?.x;
+  const yOf = area?.y;
+  const top0 = area?.margin.top ?? 0;
+  const innerHeight = area?.innerHeight ?? 0;
   const d = useMemo(() => {
-    if (!area) return '';
+    if (!xOf || !yOf) return '';
     const parts: string[] = [];
     for (const bar of bars) {
-      const cx = area.x(bar.x);
+      const cx = xOf(bar.x);
       if (cx === undefined || !Number.isFinite(cx)) continue;
-      const yLow = bar.low != null ? area.y(bar.low) : undefined;
-      const yHigh = bar.high != null ? area.y(bar.high) : undefined;
+      const yLow = bar.low != null ? yOf(bar.low) : undefined;
+      const yHigh = bar.high != null ? yOf(bar.high) : undefined;
       if (yLow === undefined && yHigh === undefined) continue;
-      const top = yHigh ?? area.margin.top;
-      const bottom = yLow ?? area.margin.top + area.innerHeight;
+      const top = yHigh ?? top0;
+      const bottom = yLow ?? top0 + innerHeight;
       const x = px(cx);
       parts.push(`M${x} ${px(top)}V${px(bottom)}`);
       if (yHigh !== undefined) parts.push(`M${px(cx - 3)} ${px(yHigh)}H${px(cx + 3)}`);
       if (yLow !== undefined) parts.push(`M${px(cx - 3)} ${px(yLow)}H${px(cx + 3)}`);
     }
     return parts.join('');
-  }, [area?.x, area?.y, area?.margin.top, area?.innerHeight, bars]);
+  }, [xOf, yOf, top0, innerHeight, bars]);
   if (!area || !d) return null;
   return <path className="eyrie-error-bars" d={d} fill="none" stroke={color} strokeWidth={1} pointerEvents="none" />;
 }
@@ -97,7 +102,9 @@ export function pointMarkPaths(marks: PointMark[], x: (v: number) => number | un
  */
 export function PointMarks({ marks }: { marks: PointMark[] }) {
   const area = usePlotArea();
-  const paths = useMemo(() => (area ? pointMarkPaths(marks, area.x, area.y) : null), [area?.x, area?.y, marks]);
+  const xOf = area?.x;
+  const yOf = area?.y;
+  const paths = useMemo(() => (xOf && yOf ? pointMarkPaths(marks, xOf, yOf) : null), [xOf, yOf, marks]);
   if (!paths) return null;
   return (
     <g className="eyrie-points" pointerEvents="none">

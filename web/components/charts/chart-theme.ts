@@ -1,19 +1,7 @@
 import { buildChartTheme } from '@visx/xychart';
+import { chartColors } from '../../../api/lib/chart-colors';
 
-/** Colours of chart marks (hex, because SVG attributes cannot read Tailwind classes). */
-export const chartColors = {
-  ink: '#1e293b',
-  inkSoft: '#475569',
-  grid: '#e2e8f0',
-  accent: '#0f766e',
-  accentDark: '#0a4a46',
-  confidenceFill: '#0f766e',
-  predictionFill: '#5eead4',
-  branch: '#7c3aed',
-  caution: '#8a4b08',
-  flagRing: '#b4452c',
-  paper: '#ffffff',
-} as const;
+export { chartColors };
 
 export const chartFont = 'Inter, ui-sans-serif, system-ui, sans-serif';
 

@@ -80,22 +80,29 @@ export function LineChart({
   bandLabel?: string;
 }) {
   const [ref, width] = useElementWidth<HTMLDivElement>();
-  const shown = series.slice(0, MAX_LINE_SERIES).map((s) => ({
-    ...s,
-    points: s.points.filter((p) => Number.isFinite(p.x) && Number.isFinite(p.y) && (yScale === 'linear' || p.y > 0)),
-    band: (s.band ?? []).filter(
-      (b) => Number.isFinite(b.x) && Number.isFinite(b.lo) && Number.isFinite(b.hi) && (yScale === 'linear' || b.lo > 0),
-    ),
-  }));
-  const all = [
-    ...shown.flatMap((s) => s.points),
-    ...shown.flatMap((s) =>
-      s.band.flatMap((b) => [
-        { x: b.x, y: b.lo },
-        { x: b.x, y: b.hi },
-      ]),
-    ),
-  ];
+  const shown = useMemo(
+    () =>
+      series.slice(0, MAX_LINE_SERIES).map((s) => ({
+        ...s,
+        points: s.points.filter((p) => Number.isFinite(p.x) && Number.isFinite(p.y) && (yScale === 'linear' || p.y > 0)),
+        band: (s.band ?? []).filter(
+          (b) => Number.isFinite(b.x) && Number.isFinite(b.lo) && Number.isFinite(b.hi) && (yScale === 'linear' || b.lo > 0),
+        ),
+      })),
+    [series, yScale],
+  );
+  const all = useMemo(
+    () => [
+      ...shown.flatMap((s) => s.points),
+      ...shown.flatMap((s) =>
+        s.band.flatMap((b) => [
+          { x: b.x, y: b.lo },
+          { x: b.x, y: b.hi },
+        ]),
+      ),
+    ],
+    [shown],
+  );
   const hasBand = shown.some((s) => s.band.length > 1);
   const xDomain = useMemo(
     () =>

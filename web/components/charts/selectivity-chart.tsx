@@ -1,4 +1,4 @@
-import { useMemo } from 'react';
+import { useCallback, useMemo } from 'react';
 import { AreaSeries, Axis, GlyphSeries, Grid, LineSeries, Tooltip, XYChart } from '@visx/xychart';
 import { enantiomericRatio, fixed, percent } from '../../lib/format';
 import { CelsiusAxis, HorizontalRule, noGlyph, PointMarks, VerticalMark, type PointMark } from './chart-layers';
@@ -86,18 +86,17 @@ export function SelectivityChart({
   const chartWidth = width ?? measured;
   // For diastereomers the share axis is % major, the larger share whichever isomer it is.
   const fold = family === 'dr' && measure === 'percentA';
-  const pick = (v: { eePercent: number; percentA: number }) =>
-    measure === 'ee' ? v.eePercent : fold ? majorShare(v.percentA) : v.percentA;
+  const pick = useCallback(
+    (v: { eePercent: number; percentA: number }) => (measure === 'ee' ? v.eePercent : fold ? majorShare(v.percentA) : v.percentA),
+    [measure, fold],
+  );
   const words = axisText(family, measure);
   const yLabel = words.axis;
   const unitText = words.unit;
 
-  const curveData = useMemo<Datum[]>(() => curve.map((c) => ({ kind: 'curve', x: c.celsius, y: pick(c), c })), [curve, measure, fold]);
-  const pointData = useMemo<Datum[]>(() => points.map((p) => ({ kind: 'point', x: p.celsius, y: pick(p), p })), [points, measure, fold]);
-  const marks = useMemo<PointMark[]>(
-    () => points.map((p) => ({ x: p.celsius, y: pick(p), status: p.status ?? 'fitted' })),
-    [points, measure, fold],
-  );
+  const curveData = useMemo<Datum[]>(() => curve.map((c) => ({ kind: 'curve', x: c.celsius, y: pick(c), c })), [curve, pick]);
+  const pointData = useMemo<Datum[]>(() => points.map((p) => ({ kind: 'point', x: p.celsius, y: pick(p), p })), [points, pick]);
+  const marks = useMemo<PointMark[]>(() => points.map((p) => ({ x: p.celsius, y: pick(p), status: p.status ?? 'fitted' })), [points, pick]);
   const band = useMemo(
     () =>
       curve
@@ -119,7 +118,7 @@ export function SelectivityChart({
     const ceiling = 100;
     const floor = measure === 'ee' ? -100 : fold ? 50 : 0;
     return [Math.max(floor, lo), Math.min(ceiling, hi)];
-  }, [curveData, pointData, band, spec, measure]);
+  }, [curveData, pointData, band, spec, measure, fold]);
 
   // Stable scale settings: xychart rebuilds its scales, and every mark drawn with them, when these change.
   const xScale = useMemo(() => ({ type: 'linear', domain: xDomain, zero: false }) as const, [xDomain]);

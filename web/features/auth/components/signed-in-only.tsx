@@ -2,7 +2,7 @@ import type { ReactNode } from 'react';
 import { Link, useLocation } from 'react-router-dom';
 import { Page, Panel } from '../../../components/ui/page';
 import { paths } from '../../../config/paths';
-import { useSession, type SessionUser } from '../api/get-session';
+import { useSession, type SessionUser } from '../../../lib/session';
 
 /** Renders its children for a signed-in person; otherwise asks them to sign in and come back here. */
 export function SignedInOnly({ title, children }: { title: string; children: (user: SessionUser) => ReactNode }) {

@@ -1,7 +1,7 @@
 import { Link, useLocation, useNavigate } from 'react-router-dom';
 import { paths } from '../../../config/paths';
-import { useSession } from '../api/get-session';
-import { useSignOut } from '../api/sign-out';
+import { useSession } from '../../../lib/session';
+import { useSignOut } from '../../../lib/sign-out';
 
 /** Header slot: the signed-in person with their links and sign-out, or a Sign in link. */
 export function UserMenu() {

@@ -1,7 +1,7 @@
 import type { FieldError } from '../../../lib/api-client';
 import type { EnergyUnit, EntropyUnit } from '../lib/forecast-form';
 import type { TemperatureUnit } from '../lib/parse-screen';
-import { energyUnitOptions, entropyUnitOptions, NumberField, SelectField, temperatureUnitOptions } from './fields';
+import { energyUnitOptions, entropyUnitOptions, NumberField, SelectField, temperatureUnitOptions } from '../../../components/ui/fields';
 
 /** The text of a barrier as typed: ΔG‡ at a temperature (ΔS‡ optional), or ΔH‡ with ΔS‡. */
 export interface BarrierText {

@@ -2,7 +2,7 @@ import type { ReactNode } from 'react';
 import type { UseQueryResult } from '@tanstack/react-query';
 import { Panel } from '../../../components/ui/page';
 import type { FieldError } from '../../../lib/api-client';
-import { UnplacedErrors } from './fields';
+import { UnplacedErrors } from '../../../components/ui/fields';
 import { EmptyResult } from './kinetics-parts';
 
 /**

@@ -15,7 +15,7 @@ import {
   type DistributionFormState,
   type PathwayText,
 } from '../lib/distribution-form';
-import { apiFieldErrors, messagesFor, normalisePath, unmatchedErrors } from '../lib/field-errors';
+import { apiFieldErrors, messagesFor, normalisePath, unmatchedErrors } from '../../../lib/field-errors';
 import {
   buttonClass,
   energyUnitOptions,
@@ -27,7 +27,7 @@ import {
   SelectField,
   selectClass,
   temperatureUnitOptions,
-} from './fields';
+} from '../../../components/ui/fields';
 import { EmptyResult, RangeFields, rangeFieldPaths, ResultNotes, Th } from './kinetics-parts';
 
 const MAX_ROWS = 12;

@@ -2,7 +2,7 @@ import type { FormEvent } from 'react';
 import type { FieldError } from '../../../lib/api-client';
 import type { ErosionFormState } from '../lib/erosion-form';
 import { BarrierFields } from './barrier-fields';
-import { buttonClass, NumberField, Segmented, SelectField } from './fields';
+import { buttonClass, NumberField, Segmented, SelectField } from '../../../components/ui/fields';
 import { durationUnitOptions, RangeFields, rangeFieldPaths } from './kinetics-parts';
 
 export const erosionFieldPaths = [

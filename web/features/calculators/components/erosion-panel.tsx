@@ -5,7 +5,7 @@ import { SafetyCaution } from '../../../components/ui/caution';
 import { fixed, percent, sig } from '../../../lib/format';
 import { useErosion } from '../api/post-erosion';
 import { initialErosionForm, toErosionRequest } from '../lib/erosion-form';
-import { unmatchedErrors } from '../lib/field-errors';
+import { unmatchedErrors } from '../../../lib/field-errors';
 import { useCalculator } from '../lib/use-calculator';
 import { CalculatorLayout } from './calculator-layout';
 import { ErosionForm, erosionFieldPaths } from './erosion-form';

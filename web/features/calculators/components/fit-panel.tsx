@@ -8,10 +8,10 @@ import { ApiError, type FieldError } from '../../../lib/api-client';
 import { fixed } from '../../../lib/format';
 import { useFit } from '../api/post-fit';
 import { exampleScreen } from '../lib/example-screen';
-import { normalisePath, tidyMessage } from '../lib/field-errors';
+import { normalisePath, tidyMessage } from '../../../lib/field-errors';
 import { buildFitRequest, errorBarLnRatio, GRID_SIZE } from '../lib/fit-request';
 import { parseScreen, type ScreenParseError, type ScreenRow, type SelectivityMeasure, type TemperatureUnit } from '../lib/parse-screen';
-import { ChartControls, parseSpec } from './chart-controls';
+import { ChartControls, parseSpec } from '../../../components/charts/chart-controls';
 import {
   buttonClass,
   measureOptions,
@@ -21,10 +21,10 @@ import {
   secondaryButtonClass,
   SelectField,
   temperatureUnitOptions,
-} from './fields';
-import { FitParameterTable } from './fit-parameter-table';
-import { FitWarnings, ResidualTable, TwoBranchBox, branchLines } from './fit-diagnostics';
-import { PredictionBox } from './prediction-box';
+} from '../../../components/ui/fields';
+import { FitParameterTable } from '../../../components/fit/fit-parameter-table';
+import { FitWarnings, ResidualTable, TwoBranchBox, branchLines } from '../../../components/fit/fit-diagnostics';
+import { PredictionBox } from '../../../components/fit/prediction-box';
 import { ScreenPasteBox } from './screen-paste-box';
 import { celsiusFromKelvin, eeFromLnRatio, readDecimal, TEMPERATURE_UNIT_LABEL as UNIT_TEXT } from '../../../../api/science/quantities';
 

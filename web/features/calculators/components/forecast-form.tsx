@@ -11,7 +11,7 @@ import {
   Segmented,
   SelectField,
   temperatureUnitOptions,
-} from './fields';
+} from '../../../components/ui/fields';
 
 /** Every field path this form renders, so errors for other paths go to the general alert. */
 export const forecastFieldPaths = [

@@ -3,7 +3,7 @@ import type { FieldError } from '../../../lib/api-client';
 import { scientific, sig } from '../../../lib/format';
 import type { TemperatureUnit } from '../lib/parse-screen';
 import type { DurationUnit } from '../lib/rate-form';
-import { NumberField, SelectField, temperatureUnitOptions, type Option } from './fields';
+import { NumberField, SelectField, temperatureUnitOptions, type Option } from '../../../components/ui/fields';
 import { SECONDS_PER } from '../../../../api/science/quantities';
 
 export const durationUnitOptions: Option<DurationUnit>[] = [

@@ -2,7 +2,7 @@ import type { FormEvent } from 'react';
 import type { FieldError } from '../../../lib/api-client';
 import { DEFAULT_ASSUMED_DH_KJ, type RateFormState, type RunText } from '../lib/rate-form';
 import { BarrierFields } from './barrier-fields';
-import { buttonClass, energyUnitOptions, NumberField, Segmented, SelectField, temperatureUnitOptions } from './fields';
+import { buttonClass, energyUnitOptions, NumberField, Segmented, SelectField, temperatureUnitOptions } from '../../../components/ui/fields';
 import { durationUnitOptions, RangeFields, rangeFieldPaths } from './kinetics-parts';
 
 /** Every field path this form can render, so errors for other paths go to the general alert. */

@@ -4,7 +4,7 @@ import { TemperatureCells } from '../../../components/charts/temperature-swatch'
 import { SafetyCaution } from '../../../components/ui/caution';
 import { fixed, sig } from '../../../lib/format';
 import { useRate } from '../api/post-rate';
-import { unmatchedErrors } from '../lib/field-errors';
+import { unmatchedErrors } from '../../../lib/field-errors';
 import { useCalculator } from '../lib/use-calculator';
 import { CalculatorLayout } from './calculator-layout';
 import { initialRateForm, toRateRequest } from '../lib/rate-form';

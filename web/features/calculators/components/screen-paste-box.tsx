@@ -1,6 +1,6 @@
 import { useId } from 'react';
 import type { ScreenParseError } from '../lib/parse-screen';
-import { inputClass } from './fields';
+import { inputClass } from '../../../components/ui/fields';
 
 /**
  * The paste box for a temperature screen with its per-line problems listed beneath it.

@@ -1,7 +1,7 @@
 import { forecastRequestSchema, type ForecastRequest } from '../../../../api/features/calculators/schemas';
 import { numberText as num, rangeText } from './number-text';
 import type { FieldError } from '../../../lib/api-client';
-import { validateRequest } from './field-errors';
+import { validateRequest } from '../../../lib/field-errors';
 import type { SelectivityMeasure, TemperatureUnit } from './parse-screen';
 
 export type BasisKind = 'observed' | 'gap' | 'activation';

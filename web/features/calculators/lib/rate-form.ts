@@ -1,6 +1,6 @@
 import { rateRequestSchema, type RateRequest } from '../../../../api/features/calculators/kinetics-schemas';
 import type { FieldError } from '../../../lib/api-client';
-import { validateRequest } from './field-errors';
+import { validateRequest } from '../../../lib/field-errors';
 import type { EnergyUnit, EntropyUnit } from './forecast-form';
 import { numberText as num, rangeText } from './number-text';
 import type { TemperatureUnit } from './parse-screen';

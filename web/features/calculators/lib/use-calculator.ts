@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import type { UseQueryResult } from '@tanstack/react-query';
 import type { FieldError } from '../../../lib/api-client';
-import { apiFieldErrors } from './field-errors';
+import { apiFieldErrors } from '../../../lib/field-errors';
 
 /**
  * The state every calculator panel shares: the form text, the last valid request (which keys

@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { ImportPreviewRequest, ImportRequest } from '../../../../api/features/campaigns/schemas';
-import { sessionKey, type SessionInfo } from '../../auth/api/get-session';
+import { sessionKey, type SessionInfo } from '../../../lib/session';
 import { postWithProgress, type UploadProgress } from '../lib/upload';
 import { campaignKeys } from './keys';
 import type { ImportPreview, ImportResult } from './types';

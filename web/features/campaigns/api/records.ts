@@ -4,30 +4,11 @@
  */
 import { useInfiniteQuery, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import { projectKeys } from '../../projects/api/projects';
+import { projectKeys } from '../../../lib/query-keys';
 import { campaignKeys } from './keys';
 import type { Campaign } from './types';
-
-export interface HistoryEntry {
-  id: number;
-  at: string;
-  who: string;
-  sentence: string;
-  reason: string | null;
-}
-
-export interface KeptFile {
-  id: string;
-  fileName: string;
-  mediaType: string;
-  format: string;
-  sizeBytes: number;
-  sha256: string;
-  rowCount: number;
-  storedRowCount: number;
-  uploadedAt: string;
-  uploadedBy: string;
-}
+import type { HistoryEntry } from '../../../../api/features/audit/history';
+import type { ImportFileView as KeptFile } from '../../../../api/features/imports/files';
 
 export const recordLinks = {
   campaignHistoryCsv: (campaignId: string) => `/api/v1/campaigns/${campaignId}/history.csv`,

@@ -5,12 +5,12 @@ import { EyringPlot, type EyringCurvePoint, type EyringPlotPoint } from '../../.
 import { SelectivityChart, type SelectivityCurvePoint, type SelectivityMeasuredPoint } from '../../../components/charts/selectivity-chart';
 import { SignConvention } from '../../../components/ui/sign-convention';
 import { fixed, measureColumn, percent, withUncertainty, lnRatioOf, lnRatioRange } from '../../../lib/format';
-import { ChartControls, parseSpec } from '../../calculators/components/chart-controls';
-import { FitWarnings, RunNote, TwoBranchBox, branchLines } from '../../calculators/components/fit-diagnostics';
-import { FitParameterTable } from '../../calculators/components/fit-parameter-table';
+import { ChartControls, parseSpec } from '../../../components/charts/chart-controls';
+import { FitWarnings, RunNote, TwoBranchBox, branchLines } from '../../../components/fit/fit-diagnostics';
+import { FitParameterTable } from '../../../components/fit/fit-parameter-table';
 import type { AnalysisResponse, FitPrediction, Measurement } from '../api/types';
 import { CELSIUS } from '../lib/labels';
-import { specificationLn, specificationOnAxis, specificationText, verdictOf, type StoredSpecification } from '../../plan/lib/specification';
+import { specificationLn, specificationOnAxis, specificationText, verdictOf, type StoredSpecification } from '../../../lib/specification';
 import {
   DISPLAY_MEASURES,
   displayHeading,

@@ -3,7 +3,7 @@ import { useQueryClient } from '@tanstack/react-query';
 import { Button, FormAlert } from '../../../components/ui/form';
 import { ApiError } from '../../../lib/api-client';
 import { fixed } from '../../../lib/format';
-import { RoleBadge } from '../../projects/components/role-badge';
+import { RoleBadge } from '../../../components/ui/role-badge';
 import { useUpdateCampaign } from '../api/campaigns';
 import { campaignKeys } from '../api/keys';
 import type { CampaignWithRole } from '../api/types';

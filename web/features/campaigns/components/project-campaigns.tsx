@@ -4,7 +4,7 @@ import { SafetyCaution } from '../../../components/ui/caution';
 import { Button } from '../../../components/ui/form';
 import { paths } from '../../../config/paths';
 import { enantiomericRatio, fixed, percentColumn, withUncertainty, lnRatioOf, lnRatioRange } from '../../../lib/format';
-import { ConventionNote } from '../../calculators/components/fields';
+import { ConventionNote } from '../../../components/ui/fields';
 import { useCampaigns } from '../api/campaigns';
 import { OPENING_COMPARISON_CELSIUS, useComparison } from '../api/comparison';
 import type { CampaignListItem, ComparisonCampaign } from '../api/types';

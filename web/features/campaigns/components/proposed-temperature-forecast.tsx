@@ -5,7 +5,7 @@ import { Button } from '../../../components/ui/form';
 import { StaleResult, useLastDefined, type StaleReason } from '../../../components/ui/stale';
 import { ApiError } from '../../../lib/api-client';
 import { enantiomericRatio, fixed, measureColumn, percent, sig, lnRatioOf, lnRatioRange } from '../../../lib/format';
-import { PredictionBox } from '../../calculators/components/prediction-box';
+import { PredictionBox } from '../../../components/fit/prediction-box';
 import { useDeleteForecast, useForecasts, useSaveForecast } from '../api/forecasts';
 import type { AnalysisResponse, FitPrediction, SavedForecastView } from '../api/types';
 import { kelvinTo, parseNumber } from '../lib/grid';

@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { Button, FormAlert } from '../../../components/ui/form';
 import { ApiError } from '../../../lib/api-client';
-import { useMembers } from '../../projects/api/members';
+import { useMembers } from '../../../lib/members';
 import { useSendReport } from '../api/report';
 
 /** Send the workbook and the summary PDF to chosen members of the project (any member may send). */

@@ -3,7 +3,9 @@
  * the shared zod schema, spreadsheet paste, and server field paths → cells.
  */
 import {
+  IMPORT_FIELDS,
   measurementCreateSchema,
+  type ImportField,
   type MeasurementCreate,
   type MeasurementUpdate,
   type SelectivityMeasure,
@@ -20,20 +22,12 @@ import {
   SECONDS_PER,
   splitBound,
 } from '../../../../api/science/quantities';
-import { tidyMessage } from '../../calculators/lib/field-errors';
+import { tidyMessage } from '../../../lib/field-errors';
 import type { Measurement } from '../api/types';
 
-export const GRID_COLUMNS = [
-  'temperature',
-  'value',
-  'uncertainty',
-  'sampleId',
-  'replicateLabel',
-  'conversionPercent',
-  'reactionTime',
-  'notes',
-] as const;
-export type GridColumn = (typeof GRID_COLUMNS)[number];
+/** The import's fields in the import's order, less the two the grid sets for the whole table (temperature unit, measure). */
+export type GridColumn = Exclude<ImportField, 'temperatureUnit' | 'measure'>;
+export const GRID_COLUMNS = IMPORT_FIELDS.filter((f): f is GridColumn => f !== 'temperatureUnit' && f !== 'measure');
 export type GridCells = Record<GridColumn, string>;
 export type CellErrors = Partial<Record<GridColumn, string>>;
 

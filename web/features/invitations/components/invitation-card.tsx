@@ -3,8 +3,8 @@ import { Button } from '../../../components/ui/form';
 import { Panel } from '../../../components/ui/page';
 import { paths } from '../../../config/paths';
 import { ApiError } from '../../../lib/api-client';
-import { useSignOut } from '../../auth/api/sign-out';
-import { RoleBadge, roleMeaning } from '../../projects/components/role-badge';
+import { useSignOut } from '../../../lib/sign-out';
+import { RoleBadge, roleMeaning } from '../../../components/ui/role-badge';
 import { useAcceptInvitation, useInvitation } from '../api/invitation';
 
 const headings: Record<string, string> = {

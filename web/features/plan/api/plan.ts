@@ -13,7 +13,6 @@ import { api } from '../../../lib/api-client';
 
 export type CampaignPlan = z.infer<typeof campaignPlanSchema>;
 export type PlanResult = CampaignPlan['result'];
-export type CampaignSpecifications = z.infer<typeof campaignSpecificationResponseSchema>;
 export type ComparisonView = z.infer<typeof comparisonSchema>;
 /** What the planner form sends (defaults filled in by the server). */
 export type PlanInputsBody = z.input<typeof campaignPlanInputsSchema>;

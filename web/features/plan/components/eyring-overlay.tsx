@@ -26,10 +26,18 @@ interface Datum {
 export function EyringOverlay({ result }: { result: ComparisonView['result'] }) {
   const [ref, width] = useElementWidth<HTMLDivElement>();
   const shown = result.campaigns.filter((c) => c.fit);
-  const all = shown.flatMap((c) => [
-    ...c.fit!.eyring.map((p) => ({ x: 1000 * p.inverseKelvin, y: p.lnRatio })),
-    ...c.fit!.curve.map((p) => ({ x: 1000 / p.kelvin, y: p.lnRatio })),
-  ]);
+  const all = useMemo(
+    () =>
+      result.campaigns.flatMap((c) =>
+        c.fit
+          ? [
+              ...c.fit.eyring.map((p) => ({ x: 1000 * p.inverseKelvin, y: p.lnRatio })),
+              ...c.fit.curve.map((p) => ({ x: 1000 / p.kelvin, y: p.lnRatio })),
+            ]
+          : [],
+      ),
+    [result],
+  );
   const xDomain = useMemo(
     () =>
       paddedExtent(

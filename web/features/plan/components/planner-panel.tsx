@@ -1,11 +1,11 @@
-import { useEffect, useState, type FormEvent } from 'react';
+import { useState, type FormEvent } from 'react';
 import { Link } from 'react-router-dom';
 import { SafetyCaution } from '../../../components/ui/caution';
 import { paths } from '../../../config/paths';
 import { ApiError, type FieldError } from '../../../lib/api-client';
 import { fixed, sig } from '../../../lib/format';
 import { celsiusFromKelvin } from '../../../../api/science/quantities';
-import { NumberField, Segmented, buttonClass, selectClass } from '../../calculators/components/fields';
+import { NumberField, Segmented, buttonClass, selectClass } from '../../../components/ui/fields';
 import { useCampaignPlan, useCampaignSpecification, useSavePlan, type CampaignPlan, type PlanInputsBody } from '../api/plan';
 import { CONSTRAINT_WORDS, OperatingWindowChart } from './operating-window-chart';
 
@@ -174,9 +174,8 @@ export function PlannerPanel({ campaignId, projectId, canEdit }: { campaignId: s
   const plan = useCampaignPlan(campaignId);
   const save = useSavePlan(campaignId);
   const [form, setForm] = useState<FormState | null>(null);
-  useEffect(() => {
-    if (form === null && spec.data !== undefined && plan.data !== undefined) setForm(fromPlan(plan.data, spec.data.effective));
-  }, [form, spec.data, plan.data]);
+  // The form starts from the saved plan once both have loaded (state adjusted during render, not in an effect).
+  if (form === null && spec.data !== undefined && plan.data !== undefined) setForm(fromPlan(plan.data, spec.data.effective));
   const errors = fieldErrors(save.error);
   const set = (k: keyof FormState) => (v: string) => setForm((f) => (f ? { ...f, [k]: v } : f));
 

@@ -1,17 +1,10 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import type { ProjectRole } from '../../../../api/features/projects/schemas';
-import { projectKeys } from './projects';
+import type { InvitationView } from '../../../../api/features/invitations/service';
+import { projectKeys } from '../../../lib/query-keys';
 
-export interface PendingInvitation {
-  id: string;
-  email: string;
-  role: ProjectRole;
-  createdAt: string;
-  expiresAt: string;
-  status: 'pending' | 'expired';
-  invitedBy: { login: string; displayName: string | null } | null;
-}
+export type PendingInvitation = InvitationView;
 
 export const listInvitations = (projectId: string) =>
   api<{ invitations: PendingInvitation[] }>(`/api/v1/projects/${projectId}/invitations`).then((r) => r.invitations);

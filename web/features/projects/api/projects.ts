@@ -1,27 +1,10 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import type { ProjectRole } from '../../../../api/features/projects/schemas';
+import { projectKeys } from '../../../lib/query-keys';
+import type { ProjectView } from '../../../../api/features/projects/service';
 
-export interface Project {
-  id: string;
-  name: string;
-  description: string;
-  role: ProjectRole;
-  memberCount: number;
-  version: number;
-  createdAt: string;
-  updatedAt: string;
-}
-
-/** Keys go from general to specific: invalidating ['projects'] refreshes every project query. */
-export const projectKeys = {
-  all: ['projects'] as const,
-  list: () => [...projectKeys.all, 'list'] as const,
-  one: (id: string) => [...projectKeys.all, id] as const,
-  members: (id: string) => [...projectKeys.all, id, 'members'] as const,
-  invitations: (id: string) => [...projectKeys.all, id, 'invitations'] as const,
-  history: (id: string) => [...projectKeys.all, id, 'history'] as const,
-};
+/** A project as the API returns it (GET /projects, /projects/:id). */
+export type Project = ProjectView;
 
 export const listProjects = () => api<{ projects: Project[] }>('/api/v1/projects').then((r) => r.projects);
 export const projectsQueryOptions = () => queryOptions({ queryKey: projectKeys.list(), queryFn: listProjects });

@@ -6,9 +6,9 @@ import { Panel } from '../../../components/ui/page';
 import { paths } from '../../../config/paths';
 import { useSchemaForm } from '../../../lib/use-schema-form';
 import { useCreateInvitation, useInvitations, useRevokeInvitation } from '../api/invitations';
-import { useChangeMemberRole, useLeaveProject, useMembers, useRemoveMember } from '../api/members';
+import { useChangeMemberRole, useLeaveProject, useMembers, useRemoveMember } from '../../../lib/members';
 import { useDeleteProject, useUpdateProject, type Project } from '../api/projects';
-import { RoleBadge, roleMeaning, roleOptions } from './role-badge';
+import { RoleBadge, roleMeaning, roleOptions } from '../../../components/ui/role-badge';
 
 const dateFormat = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium' });
 

@@ -1,7 +1,7 @@
 import { Link } from 'react-router-dom';
 import { paths } from '../../../config/paths';
 import { useProjects } from '../api/projects';
-import { RoleBadge } from './role-badge';
+import { RoleBadge } from '../../../components/ui/role-badge';
 
 const dateFormat = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium' });
 

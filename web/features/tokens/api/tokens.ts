@@ -1,16 +1,8 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
+import type { TokenView } from '../../../../api/features/tokens/service';
 
-export interface ApiTokenInfo {
-  id: string;
-  name: string;
-  prefix: string;
-  createdAt: string;
-  expiresAt: string;
-  lastUsedAt: string | null;
-  revokedAt: string | null;
-  status: 'active' | 'expired' | 'revoked';
-}
+export type ApiTokenInfo = TokenView;
 
 export const tokenKeys = { all: ['tokens'] as const };
 

@@ -1,5 +1,5 @@
-import { recordLinks, useHistoryEntries } from '../../campaigns/api/records';
-import { HistoryList } from '../../campaigns/components/campaign-records';
+import { recordLinks, useHistoryEntries } from '../api/records';
+import { HistoryList } from './campaign-records';
 
 /** A project's history (owners only) as sentences, newest first, with a CSV export. */
 export function HistoryView({ projectId }: { projectId: string }) {

@@ -1,5 +1,5 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { api, setCsrfToken } from '../../../lib/api-client';
+import { api, setCsrfToken } from './api-client';
 
 export interface SessionUser {
   id: string;

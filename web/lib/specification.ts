@@ -2,7 +2,7 @@
  * A stored specification on the campaign pages: its ln r threshold, how it reads, and whether a
  * run or a forecast meets it, in words (pass/fail is never shown by colour alone).
  */
-import { fixed } from '../../../lib/format';
+import { fixed } from './format';
 
 export interface StoredSpecification {
   measure: 'ee' | 'er' | 'dr' | 'percentA';

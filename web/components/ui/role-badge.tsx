@@ -1,4 +1,4 @@
-import type { ProjectRole } from '../../../../api/features/projects/schemas';
+import type { ProjectRole } from '../../../api/features/projects/schemas';
 
 export const roleOptions: { value: ProjectRole; label: string }[] = [
   { value: 'owner', label: 'Owner' },

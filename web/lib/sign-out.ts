@@ -1,5 +1,5 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { api, setCsrfToken } from '../../../lib/api-client';
+import { api, setCsrfToken } from './api-client';
 
 export const signOut = () => api<void>('/api/v1/session', { method: 'DELETE' });
 

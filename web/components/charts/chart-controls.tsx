@@ -1,6 +1,6 @@
 import { useId } from 'react';
-import { inputClass, Segmented } from './fields';
-import { axisText, readDecimal, type SelectivityMeasure } from '../../../../api/science/quantities';
+import { inputClass, Segmented } from '../ui/fields';
+import { axisText, readDecimal, type SelectivityMeasure } from '../../../api/science/quantities';
 
 /** y-axis choice (ee % or % A; % de or % major for dr) and an optional specification in the same unit. */
 export function ChartControls({

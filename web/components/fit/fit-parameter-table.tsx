@@ -1,7 +1,7 @@
-import type { FitResponse } from '../../../../api/features/calculators/schemas';
-import { decimalsFor, fixed, signed, withUncertainty } from '../../../lib/format';
+import type { FitResponse } from '../../../api/features/calculators/schemas';
+import { decimalsFor, fixed, signed, withUncertainty } from '../../lib/format';
 import { FitModelNotes } from './fit-model-notes';
-import { celsiusFromKelvin } from '../../../../api/science/quantities';
+import { celsiusFromKelvin } from '../../../api/science/quantities';
 
 type Interval = [number, number] | undefined;
 

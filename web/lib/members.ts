@@ -1,17 +1,10 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { api } from '../../../lib/api-client';
-import type { ProjectRole } from '../../../../api/features/projects/schemas';
-import { projectKeys } from './projects';
+import { api } from './api-client';
+import type { ProjectRole } from '../../api/features/projects/schemas';
+import type { MemberView } from '../../api/features/projects/service';
+import { projectKeys } from './query-keys';
 
-export interface Member {
-  userId: string;
-  login: string;
-  displayName: string | null;
-  email: string | null;
-  avatarUrl: string | null;
-  role: ProjectRole;
-  joinedAt: string;
-}
+export type Member = MemberView;
 
 export const listMembers = (projectId: string) =>
   api<{ members: Member[]; you: { userId: string; role: ProjectRole } }>(`/api/v1/projects/${projectId}/members`);

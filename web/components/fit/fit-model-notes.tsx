@@ -1,5 +1,5 @@
-import type { FitResponse } from '../../../../api/features/calculators/schemas';
-import { fixed, sig, withUncertainty } from '../../../lib/format';
+import type { FitResponse } from '../../../api/features/calculators/schemas';
+import { fixed, sig, withUncertainty } from '../../lib/format';
 
 const celsius = (k: number) => `${fixed(k - 273.15, 0)} °C`;
 

@@ -1,5 +1,5 @@
 import type { z } from 'zod';
-import { ApiError, type FieldError } from '../../../lib/api-client';
+import { ApiError, type FieldError } from './api-client';
 
 /** "measurements[3].selectivity" and "measurements.3.selectivity" are the same path. */
 export function normalisePath(path: string): string {

@@ -1,13 +1,13 @@
-import type { FitResponse } from '../../../../api/features/calculators/schemas';
+import type { FitResponse } from '../../../api/features/calculators/schemas';
 import {
   DISPLAY_LABEL,
   DISPLAY_MEASURES,
   formatMeasure,
   formatMeasureRange,
   type SelectivityMeasure,
-} from '../../../../api/science/quantities';
-import { SafetyCaution } from '../../../components/ui/caution';
-import { enantiomericRatio, fixed, percent, withUncertainty, lnRatioOf, lnRatioRange } from '../../../lib/format';
+} from '../../../api/science/quantities';
+import { SafetyCaution } from '../ui/caution';
+import { enantiomericRatio, fixed, percent, withUncertainty, lnRatioOf, lnRatioRange } from '../../lib/format';
 
 type Prediction = FitResponse['predictions'][number];
 

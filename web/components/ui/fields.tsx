@@ -1,7 +1,7 @@
 import { useId, type ReactNode } from 'react';
-import { ApiError, type FieldError } from '../../../lib/api-client';
-import { messagesFor } from '../lib/field-errors';
-import { SignConvention } from '../../../components/ui/sign-convention';
+import { ApiError, type FieldError } from '../../lib/api-client';
+import { messagesFor } from '../../lib/field-errors';
+import { SignConvention } from './sign-convention';
 
 export const inputClass =
   'tnum rounded border border-slate-300 bg-white px-2 py-1 text-sm text-ink-950 aria-[invalid=true]:border-red-600 aria-[invalid=true]:bg-red-50';

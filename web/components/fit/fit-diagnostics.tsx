@@ -1,8 +1,8 @@
-import type { FitResponse } from '../../../../api/features/calculators/schemas';
-import { TableHead } from '../../../components/ui/table-head';
-import type { EyringBranchLine } from '../../../components/charts/eyring-plot';
-import { fixed, measureColumn, sig, withUncertainty } from '../../../lib/format';
-import { celsiusFromKelvin } from '../../../../api/science/quantities';
+import type { FitResponse } from '../../../api/features/calculators/schemas';
+import { TableHead } from '../ui/table-head';
+import type { EyringBranchLine } from '../charts/eyring-plot';
+import { fixed, measureColumn, sig, withUncertainty } from '../../lib/format';
+import { celsiusFromKelvin } from '../../../api/science/quantities';
 
 const FLAG_TEXT: Record<string, string> = {
   outlier: 'outlier (|studentized residual| > 3)',
