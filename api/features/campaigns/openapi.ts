@@ -15,6 +15,7 @@ import {
   campaignReopenSchema,
   campaignSignOffSchema,
   campaignUpdateSchema,
+  measurementBatchUpdateSchema,
   measurementCreateSchema,
   measurementUpdateSchema,
   savedForecastCreateSchema,
@@ -180,6 +181,17 @@ export const registerCampaigns: OpenApiRegistrar = (registry) => {
     security: signedIn,
     request: { params: campaignIdParams, body: { content: { 'application/json': { schema: measurementCreateSchema } } } },
     responses: { 201: { description: 'The measurement' }, ...problemResponses(400, 401, 403, 404) },
+  });
+  registry.registerPath({
+    method: 'patch',
+    path: '/api/v1/campaigns/{campaignId}/measurements',
+    tags: ['Campaigns'],
+    summary: 'Change several stored runs at once: each row names its id, version and reason; all are saved or none',
+    description:
+      'A row read at an older version makes the whole change a 409 listing every stale row in `staleRows` ({ path, id, sentVersion, currentVersion }). Refused with 409 while the campaign is signed off. Each changed run is recorded in the history with its own reason.',
+    security: signedIn,
+    request: { params: campaignIdParams, body: { content: { 'application/json': { schema: measurementBatchUpdateSchema } } } },
+    responses: { 200: { description: 'The changed measurements, in the order sent' }, ...problemResponses(400, 401, 403, 404, 409) },
   });
   registry.registerPath({
     method: 'patch',
