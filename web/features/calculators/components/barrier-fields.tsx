@@ -1,23 +1,9 @@
-import type { EnergyUnit, EntropyUnit } from '../lib/forecast-form';
-import type { TemperatureUnit } from '../lib/parse-screen';
 import { FormNumber, FormSelect } from './calculator-form';
 import { energyUnitOptions, entropyUnitOptions, temperatureUnitOptions } from './fields';
 
-/** The text of a barrier as typed: ΔG‡ at a temperature (ΔS‡ optional), or ΔH‡ with ΔS‡. */
-export interface BarrierText {
-  dG: string;
-  dGUnit: EnergyUnit;
-  dGTemperature: string;
-  dGTemperatureUnit: TemperatureUnit;
-  dH: string;
-  dHUnit: EnergyUnit;
-  dS: string;
-  dSUnit: EntropyUnit;
-}
-
 /**
  * Inputs for one activation barrier, shared by the rate and erosion forms, bound to the form's
- * `BarrierText` fields. `path` is the request path of the barrier (e.g. `basis`, `barrier`) so
+ * `BarrierText` fields (lib/barrier-text). `path` is the request path of the barrier (e.g. `basis`, `barrier`) so
  * server errors land on the inputs; `name` prefixes the labels (e.g. "Barrier ΔG‡").
  */
 export function BarrierFields({
