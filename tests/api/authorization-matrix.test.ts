@@ -220,6 +220,16 @@ const RULES: Record<string, Rule> = {
   'GET /api/v1/campaigns/:campaignId/forecast.csv': { access: 'viewer', ok: 200, params: aScreen },
   // Viewers may send the report too; callers who pass authorization with no recipient meet the body's 400.
   'POST /api/v1/campaigns/:campaignId/report/email': { access: 'viewer', ok: 400, params: aScreen, body: () => ({ recipients: [] }) },
+  'PATCH /api/v1/campaigns/:campaignId/measurements': {
+    access: 'editor',
+    ok: 200,
+    params: async (c) => {
+      const campaign = await createCampaign(c.projectId);
+      const [m] = await createMeasurements(campaign.id, [253.15]);
+      return { campaignId: campaign.id, measurementId: m!.id };
+    },
+    body: (p) => ({ measurements: [{ id: p.measurementId, version: 1, reason: 'matrix check', notes: 'checked' }] }),
+  },
   'PATCH /api/v1/measurements/:measurementId': {
     access: 'editor',
     ok: 200,

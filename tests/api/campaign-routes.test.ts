@@ -293,6 +293,94 @@ describe('measurements', () => {
     expect(await count('measurements', { campaignId: c.id })).toBe(3);
     expect(await count('audit_events', { entityId: c.id, entityType: 'measurement_batch' })).toBe(1);
   });
+
+  it('when several runs are changed in one request, then all are saved with their versions bumped and one history entry each', async () => {
+    const c = await newCampaign();
+    const [a, b] = await addRuns(c.id, [
+      { celsius: -20, ee: 94.0 },
+      { celsius: 0, ee: 91.0 },
+    ]);
+    const res = await as('editor')
+      .patch(`/api/v1/campaigns/${c.id}/measurements`)
+      .send({
+        measurements: [
+          { id: a!.id, version: 1, reason: 'typo in the ee', selectivity: { measure: 'ee', value: 94.5 } },
+          { id: b!.id, version: 1, reason: 'bath was at −1 °C', temperature: C(-1), notes: 'probe checked' },
+        ],
+      })
+      .expect(200);
+    expect(res.body.measurements).toMatchObject([
+      { id: a!.id, version: 2, value: 94.5 },
+      { id: b!.id, version: 2, temperatureK: 272.15, notes: 'probe checked' },
+    ]);
+    const history = await testKnex()('audit_events').where({ campaignId: c.id, entityType: 'measurement', action: 'update' }).orderBy('id');
+    expect(history.map((h: { entityId: string; reason: string }) => [h.entityId, h.reason])).toEqual([
+      [a!.id, 'typo in the ee'],
+      [b!.id, 'bath was at −1 °C'],
+    ]);
+  });
+
+  it('when one row of a batched change is stale, then 409 names that row and no row is saved', async () => {
+    const c = await newCampaign();
+    const [a, b] = await addRuns(c.id, [
+      { celsius: -20, ee: 94.0 },
+      { celsius: 0, ee: 91.0 },
+    ]);
+    await as('owner').patch(`/api/v1/measurements/${b!.id}`).send({ version: 1, reason: 'someone else first', notes: 'x' }).expect(200);
+    const stale = await as('editor')
+      .patch(`/api/v1/campaigns/${c.id}/measurements`)
+      .send({
+        measurements: [
+          { id: a!.id, version: 1, reason: 'fix', notes: 'mine' },
+          { id: b!.id, version: 1, reason: 'fix', notes: 'mine too' },
+        ],
+      });
+    expect(stale.status).toBe(409);
+    expect(stale.body.detail).toMatch(/row 2 \(version 1, now 2\)/);
+    expect(stale.body.staleRows).toEqual([{ path: 'measurements.1', id: b!.id, sentVersion: 1, currentVersion: 2 }]);
+    const rows = await testKnex()('measurements').whereIn('id', [a!.id, b!.id]).orderBy('temperature_k');
+    expect(rows.map((r: { version: number; notes: string | null }) => [r.version, r.notes])).toEqual([
+      [1, null],
+      [2, 'x'],
+    ]);
+  });
+
+  it('when a batched change names a run of another campaign, repeats a run or has a bad field, then 400 names measurements.<i>.<field>', async () => {
+    const c = await newCampaign();
+    const other = await newCampaign();
+    const [a] = await addRuns(c.id, [{ celsius: -20, ee: 94.0 }]);
+    const [foreign] = await addRuns(other.id, [{ celsius: -20, ee: 94.0 }]);
+    const send = (measurements: unknown[]) => as('editor').patch(`/api/v1/campaigns/${c.id}/measurements`).send({ measurements });
+    const notHere = await send([
+      { id: a!.id, version: 1, reason: 'fix', notes: 'ok' },
+      { id: foreign!.id, version: 1, reason: 'fix', notes: 'not mine' },
+    ]);
+    expect(notHere.status).toBe(400);
+    expect(notHere.body.errors).toEqual([{ path: 'measurements.1.id', message: expect.stringContaining('no measurement') }]);
+    const twice = await send([
+      { id: a!.id, version: 1, reason: 'fix', notes: 'one' },
+      { id: a!.id, version: 1, reason: 'fix', notes: 'two' },
+    ]);
+    expect(twice.status).toBe(400);
+    expect(twice.body.errors.map((e: { path: string }) => e.path)).toEqual(['measurements.1.id']);
+    const bad = await send([{ id: a!.id, version: 1, reason: 'fix', selectivity: { measure: 'ee', value: 100 } }]);
+    expect(bad.body.errors.map((e: { path: string }) => e.path)).toEqual(['measurements.0.selectivity.value']);
+    const nothing = await send([{ id: a!.id, version: 1, reason: 'fix' }]);
+    expect(nothing.status).toBe(400);
+    expect(await testKnex()('measurements').where({ id: a!.id }).first()).toMatchObject({ version: 1, notes: null });
+  });
+
+  it('when the campaign is signed off, then a batched change is 409 and nothing is saved', async () => {
+    const c = await newCampaign();
+    const [a] = await addRuns(c.id, [{ celsius: -20, ee: 94.0 }]);
+    await as('owner').post(`/api/v1/campaigns/${c.id}/sign-off`).send({ note: 'reviewed' }).expect(200);
+    const locked = await as('editor')
+      .patch(`/api/v1/campaigns/${c.id}/measurements`)
+      .send({ measurements: [{ id: a!.id, version: 1, reason: 'late fix', notes: 'late' }] });
+    expect(locked.status).toBe(409);
+    expect(locked.body.detail).toMatch(/locked/);
+    expect(await testKnex()('measurements').where({ id: a!.id }).first()).toMatchObject({ version: 1, notes: null });
+  });
 });
 
 describe('imports', () => {

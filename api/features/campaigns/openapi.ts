@@ -20,6 +20,7 @@ import {
   campaignUpdateSchema,
   importPreviewRequestSchema,
   importRequestSchema,
+  measurementBatchUpdateSchema,
   measurementCreateSchema,
   measurementDeleteQuerySchema,
   measurementExclusionSchema,
@@ -322,6 +323,17 @@ export const registerCampaigns: OpenApiRegistrar = (registry) => {
       201: { description: 'The measurement', content: { 'application/json': { schema: measurementView } } },
       ...problemResponses(400, 401, 403, 404, 409),
     },
+  });
+  registry.registerPath({
+    method: 'patch',
+    path: '/api/v1/campaigns/{campaignId}/measurements',
+    tags: ['Campaigns'],
+    summary: 'Change several stored runs at once: each row names its id, version and reason; all are saved or none',
+    description:
+      'A row read at an older version makes the whole change a 409 listing every stale row in `staleRows` ({ path, id, sentVersion, currentVersion }). Refused with 409 while the campaign is signed off. Each changed run is recorded in the history with its own reason.',
+    security: signedIn,
+    request: { params: campaignIdParams, body: { content: { 'application/json': { schema: measurementBatchUpdateSchema } } } },
+    responses: { 200: { description: 'The changed measurements, in the order sent' }, ...problemResponses(400, 401, 403, 404, 409) },
   });
   registry.registerPath({
     method: 'patch',

@@ -37,6 +37,7 @@ import {
   importRequestSchema,
   measurementCreateSchema,
   measurementDeleteQuerySchema,
+  measurementBatchUpdateSchema,
   measurementExclusionSchema,
   measurementUpdateSchema,
   savedForecastCreateSchema,
@@ -61,6 +62,7 @@ import {
   setMeasurementExclusion,
   updateCampaign,
   updateMeasurement,
+  updateMeasurementsBatch,
   type ProjectActor,
 } from './service';
 
@@ -237,6 +239,11 @@ export function campaignsRouter(deps: {
   router.post('/campaigns/:campaignId/measurements/batch', byCampaign('editor'), async (req, res) => {
     const { measurements } = parseBody(batchSchema, req.body);
     res.status(201).json({ created: await createMeasurementsBatch(knex, actorOf(req), campaignId(req), measurements) });
+  });
+
+  router.patch('/campaigns/:campaignId/measurements', byCampaign('editor'), async (req, res) => {
+    const { measurements } = parseBody(measurementBatchUpdateSchema, req.body);
+    res.json({ measurements: await updateMeasurementsBatch(knex, actorOf(req), campaignId(req), measurements) });
   });
 
   router.patch('/measurements/:measurementId', byMeasurement, async (req, res) => {

@@ -171,21 +171,53 @@ export const changeReasonSchema = z
   .min(3, 'give a reason (at least 3 characters)')
   .max(500, 'at most 500 characters');
 
+const measurementChangeFields = {
+  version: versionSchema,
+  reason: changeReasonSchema,
+  temperature: measurementFields.temperature.optional(),
+  selectivity: measurementFields.selectivity.optional(),
+  uncertainty: measurementFields.uncertainty,
+  replicateLabel: measurementFields.replicateLabel,
+  sampleId: measurementFields.sampleId,
+  conversionPercent: measurementFields.conversionPercent,
+  reactionTime: measurementFields.reactionTime,
+  notes: measurementFields.notes,
+};
+const changesSomething = (u: object) => Object.keys(u).some((k) => k !== 'id' && k !== 'version' && k !== 'reason');
+
 export const measurementUpdateSchema = z
-  .strictObject({
-    version: versionSchema,
-    reason: changeReasonSchema,
-    temperature: measurementFields.temperature.optional(),
-    selectivity: measurementFields.selectivity.optional(),
-    uncertainty: measurementFields.uncertainty,
-    replicateLabel: measurementFields.replicateLabel,
-    sampleId: measurementFields.sampleId,
-    conversionPercent: measurementFields.conversionPercent,
-    reactionTime: measurementFields.reactionTime,
-    notes: measurementFields.notes,
-  })
-  .refine((u) => Object.keys(u).some((k) => k !== 'version' && k !== 'reason'), { message: 'nothing to change', path: [] });
+  .strictObject(measurementChangeFields)
+  .refine(changesSomething, { message: 'nothing to change', path: [] });
 export type MeasurementUpdate = z.infer<typeof measurementUpdateSchema>;
+
+/** Most rows one batched change may touch (the grid sends the rows edited since the last save). */
+export const MAX_BATCH_MEASUREMENT_CHANGES = 1000;
+
+/**
+ * Several stored runs of one campaign changed at once: each row names its id, the version it was
+ * read at and the reason; all are saved or none.
+ */
+export const measurementBatchUpdateSchema = z.strictObject({
+  measurements: z
+    .array(
+      z
+        .strictObject({ id: z.uuid({ error: 'id must be a measurement id' }), ...measurementChangeFields })
+        .refine(changesSomething, { message: 'nothing to change', path: [] }),
+      { error: 'measurements must be a list' },
+    )
+    .min(1, 'give at least one measurement')
+    .max(MAX_BATCH_MEASUREMENT_CHANGES, `at most ${MAX_BATCH_MEASUREMENT_CHANGES} measurements per request`)
+    .superRefine((rows, ctx) => {
+      const first = new Map<string, number>();
+      rows.forEach((r, i) => {
+        const earlier = first.get(r.id);
+        if (earlier === undefined) first.set(r.id, i);
+        else
+          ctx.addIssue({ code: 'custom', path: [i, 'id'], message: `the same measurement as row ${earlier + 1}; send one change per run` });
+      });
+    }),
+});
+export type MeasurementBatchUpdate = z.infer<typeof measurementBatchUpdateSchema>;
 
 /** Exclude a point from fits (with a reason, always) or bring it back. */
 export const measurementExclusionSchema = z.discriminatedUnion(

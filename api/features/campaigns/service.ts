@@ -21,6 +21,7 @@ import {
   type CampaignUpdate,
   type MeasurementCreate,
   type MeasurementExclusion,
+  type MeasurementBatchUpdate,
   type MeasurementUpdate,
 } from './schemas';
 
@@ -482,6 +483,64 @@ export async function updateMeasurement(
 ): Promise<Measurement> {
   const { version, reason, ...changes } = input;
   return patchMeasurement(db, actor, measurementId, version, measurementColumns(changes), reason);
+}
+
+/**
+ * Change several runs of one campaign in one transaction: every row's version is checked (a stale
+ * row is a 409 naming each stale row, and nothing is saved), the sign-off lock applies, and each
+ * changed run gets its own audit event with its own reason, as a single change would.
+ */
+export async function updateMeasurementsBatch(
+  db: Knex,
+  actor: ProjectActor,
+  campaignId: string,
+  rows: MeasurementBatchUpdate['measurements'],
+): Promise<Measurement[]> {
+  return db.transaction(async (trx) => {
+    await getCampaign(trx, actor.projectId, campaignId);
+    // Runs first, then the campaign (shared), in the same order as a single change, so the two never deadlock.
+    const ids = rows.map((r) => r.id);
+    const locked = await Measurement.query(trx).whereIn('id', ids).where({ campaignId }).orderBy('id').forUpdate();
+    const byId = new Map(locked.map((m) => [m.id, m]));
+    const missing = rows.flatMap((r, i) =>
+      byId.has(r.id) ? [] : [{ path: `measurements.${i}.id`, message: `no measurement ${r.id} in this campaign` }],
+    );
+    if (missing.length)
+      throw new BadRequestError(`${missing.length} of the runs sent are not in this campaign; nothing was saved.`, missing);
+    await assertMeasurementsOpen(trx, await Campaign.query(trx).findById(campaignId).forShare().throwIfNotFound());
+    const stale = rows.flatMap((r, i) => {
+      const current = byId.get(r.id)!.version;
+      return current === r.version ? [] : [{ path: `measurements.${i}`, id: r.id, sentVersion: r.version, currentVersion: current }];
+    });
+    if (stale.length) {
+      const named = stale.map((s) => `row ${Number(s.path.split('.')[1]) + 1} (version ${s.sentVersion}, now ${s.currentVersion})`);
+      throw new ConflictError(
+        `${stale.length === 1 ? 'A run was' : `${stale.length} runs were`} changed by someone else: ${named.join(', ')}. Reload them and apply your changes again; nothing was saved.`,
+        { currentVersion: stale[0]!.currentVersion, staleRows: stale },
+      );
+    }
+    const stamp = new Date();
+    const saved: Measurement[] = [];
+    for (const { id, version, reason, ...changes } of rows) {
+      const before = byId.get(id)!;
+      const [after] = await Measurement.query(trx)
+        .patch({ ...measurementColumns(changes), version: version + 1, updatedAt: stamp })
+        .where({ id, version })
+        .returning('*');
+      await recordAudit(trx, {
+        ...auditActor(actor),
+        action: 'update',
+        entityType: 'measurement',
+        entityId: id,
+        campaignId,
+        reason,
+        before: snapshot(before),
+        after: snapshot(after!),
+      });
+      saved.push(after!);
+    }
+    return saved;
+  });
 }
 
 /** Exclude a point from fits with a reason, or include it again; it is never deleted by this. */

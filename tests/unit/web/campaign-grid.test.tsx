@@ -387,9 +387,11 @@ describe('MeasurementGrid', () => {
     fireEvent.click(screen.getByRole('button', { name: 'Save 1 row' }));
     await waitFor(() => expect(fetchMock).toHaveBeenCalled());
     const [url, init] = fetchMock.mock.calls[0] as unknown as [string, RequestInit];
-    expect(url).toBe('/api/v1/measurements/33333333-3333-4333-8333-333333333333');
+    expect(url).toBe(`/api/v1/campaigns/${campaign.id}/measurements`);
     expect(init.method).toBe('PATCH');
-    expect(JSON.parse(String(init.body))).toEqual({ version: 4, uncertainty: 0.5, reason: 'assay repeated' });
+    expect(JSON.parse(String(init.body))).toEqual({
+      measurements: [{ id: '33333333-3333-4333-8333-333333333333', version: 4, uncertainty: 0.5, reason: 'assay repeated' }],
+    });
     await waitFor(() =>
       expect(
         screen
@@ -401,6 +403,54 @@ describe('MeasurementGrid', () => {
     expect((screen.getByLabelText('Uncertainty, row 1') as HTMLInputElement).value).toBe('0.5');
   });
 
+  it('when two stored rows are edited, then one batched change is sent and a stale row the server names is marked, the other kept', async () => {
+    const second = stored({ id: '44444444-4444-4444-8444-444444444444', temperatureK: 273.15, sampleId: 'KL-2', version: 2 });
+    const fetchMock = vi.fn(async (url: string, init?: RequestInit) =>
+      init?.method === 'PATCH'
+        ? new Response(
+            JSON.stringify({
+              type: 'about:blank',
+              title: 'Conflict',
+              status: 409,
+              detail: 'A run was changed by someone else: row 2 (version 2, now 3).',
+              currentVersion: 3,
+              staleRows: [{ path: 'measurements.1', id: second.id, sentVersion: 2, currentVersion: 3 }],
+            }),
+            { status: 409, headers: { 'content-type': 'application/problem+json' } },
+          )
+        : new Response(JSON.stringify({ measurements: [] }), { status: 200, headers: { 'content-type': 'application/json' } }),
+    );
+    vi.stubGlobal('fetch', fetchMock);
+    renderGrid([stored(), second]);
+    fireEvent.change(screen.getByLabelText('Notes, row 1'), { target: { value: 'repeat injection' } });
+    fireEvent.change(screen.getByLabelText('Notes, row 2'), { target: { value: 'bath checked' } });
+    fireEvent.change(screen.getByLabelText(/Why do these 2 stored runs change\?/), { target: { value: 'notes added' } });
+    fireEvent.click(screen.getByRole('button', { name: 'Save 2 rows' }));
+    await waitFor(() =>
+      expect(
+        screen
+          .getAllByRole('alert')
+          .map((a) => a.textContent)
+          .join(' '),
+      ).toContain('Changed by someone else'),
+    );
+    const patches = fetchMock.mock.calls.filter(([, init]) => init?.method === 'PATCH');
+    expect(patches).toHaveLength(1);
+    expect(JSON.parse(String(patches[0]![1]!.body)).measurements.map((m: { id: string }) => m.id)).toEqual([stored().id, second.id]);
+    const row2 = screen.getByRole('row', { name: /^Row 2/ }).closest('tbody')!;
+    expect(within(row2).getByRole('alert').textContent).toContain('Changed by someone else');
+    const row1 = screen.getByRole('row', { name: /^Row 1/ }).closest('tbody')!;
+    expect(within(row1).queryByRole('alert')).toBeNull();
+    // Nothing was saved, so both edits stay for another try.
+    expect((screen.getByLabelText('Notes, row 1') as HTMLInputElement).value).toBe('repeat injection');
+    expect(
+      screen
+        .getAllByRole('alert')
+        .map((a) => a.textContent)
+        .join(' '),
+    ).toContain('all or nothing');
+  });
+
   it('when a run is excluded, then a reason is required and sent with the version', async () => {
     const fetchMock = vi.fn(
       async () => new Response(JSON.stringify(stored({ excluded: true, excludedReason: 'probe failed', version: 5 })), { status: 200 }),
@@ -409,7 +459,8 @@ describe('MeasurementGrid', () => {
     renderGrid([stored()]);
     fireEvent.click(screen.getByRole('button', { name: 'Exclude row 1 from the fit' }));
     fireEvent.click(screen.getByRole('button', { name: 'Exclude' }));
-    expect(screen.getByText(/give a reason/)).toBeTruthy();
+    // The form checks the reason before sending (react-hook-form validates asynchronously).
+    expect(await screen.findByText(/give a reason/)).toBeTruthy();
     expect(fetchMock).not.toHaveBeenCalled();
     fireEvent.change(screen.getByLabelText(/Why exclude row 1/), { target: { value: 'probe failed' } });
     fireEvent.click(screen.getByRole('button', { name: 'Exclude' }));

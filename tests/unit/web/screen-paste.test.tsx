@@ -130,7 +130,7 @@ describe('the screen paste box in the fit panel', () => {
     );
   }
 
-  it('when a pasted screen has bad lines, then the line numbers are shown and nothing is sent', () => {
+  it('when a pasted screen has bad lines, then the line numbers are shown and nothing is sent', async () => {
     const fetchSpy = vi.fn();
     vi.stubGlobal('fetch', fetchSpy);
     renderPanel();
@@ -142,7 +142,8 @@ describe('the screen paste box in the fit panel', () => {
     expect(problems.textContent).not.toContain('Line 1:');
     expect(box.getAttribute('aria-invalid')).toBe('true');
     fireEvent.click(screen.getByRole('button', { name: 'Fit screen' }));
-    expect(screen.getByText('Fix the lines listed under the screen first.')).toBeTruthy();
+    // The form's submit runs through react-hook-form, which answers asynchronously.
+    expect(await screen.findByText('Fix the lines listed under the screen first.')).toBeTruthy();
     expect(fetchSpy).not.toHaveBeenCalled();
   });
 

@@ -1,4 +1,4 @@
-import { useState, type FormEvent } from 'react';
+import { useForm } from 'react-hook-form';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import { LineChart } from '../../components/charts/line-chart';
 import { SafetyCaution } from '../../components/ui/caution';
@@ -12,6 +12,7 @@ import { useCampaigns } from '../../features/campaigns/api/campaigns';
 import { useComparison, useCreateComparison, type ComparisonView } from '../../features/plan/api/plan';
 import { EyringOverlay } from '../../features/plan/components/eyring-overlay';
 import { specificationText } from '../../lib/specification';
+import { readDecimal } from '../../../api/science/quantities';
 
 const VERDICT: Record<string, string> = {
   first: 'the first is more selective',
@@ -185,17 +186,16 @@ function CompareForm({ projectId }: { projectId: string }) {
   const campaigns = useCampaigns(projectId);
   const create = useCreateComparison();
   const navigate = useNavigate();
-  const [chosen, setChosen] = useState<string[]>([]);
-  const [name, setName] = useState('');
-  const [atC, setAtC] = useState('-20');
+  const form = useForm({ defaultValues: { campaignIds: [] as string[], name: '', atC: '-20' } });
+  const [chosen, atC] = form.watch(['campaignIds', 'atC']);
   const errors = create.error instanceof ApiError ? create.error.fieldErrors : [];
-  const onSubmit = (e: FormEvent) => {
-    e.preventDefault();
+  const onSubmit = form.handleSubmit((v) =>
     create.mutate(
-      { projectId, name, campaignIds: chosen, temperature: { value: Number(atC.replace(',', '.')), unit: 'C' } },
+      // The typed-number grammar of the whole app (decimal comma, true minus); an unreadable number is sent as such and refused.
+      { projectId, name: v.name, campaignIds: v.campaignIds, temperature: { value: readDecimal(v.atC) ?? Number.NaN, unit: 'C' } },
       { onSuccess: (view) => navigate(paths.comparison.getHref(view.id)) },
-    );
-  };
+    ),
+  );
   return (
     <Page
       title="Compare campaigns"
@@ -216,7 +216,9 @@ function CompareForm({ projectId }: { projectId: string }) {
                     <input
                       type="checkbox"
                       checked={chosen.includes(c.id)}
-                      onChange={(e) => setChosen((s) => (e.target.checked ? [...s, c.id] : s.filter((x) => x !== c.id)))}
+                      onChange={(e) =>
+                        form.setValue('campaignIds', e.target.checked ? [...chosen, c.id] : chosen.filter((x) => x !== c.id))
+                      }
                     />
                     {c.title}{' '}
                     <span className="text-xs text-ink-500">
@@ -232,9 +234,16 @@ function CompareForm({ projectId }: { projectId: string }) {
               <label htmlFor="comparison-name" className="text-xs font-medium text-ink-700">
                 Name
               </label>
-              <input id="comparison-name" className={`${inputClass} w-64`} value={name} onChange={(e) => setName(e.target.value)} />
+              <input id="comparison-name" className={`${inputClass} w-64`} {...form.register('name')} />
             </div>
-            <NumberField label="Compare at (°C)" path="temperature.value" value={atC} onChange={setAtC} errors={errors} width="w-20" />
+            <NumberField
+              label="Compare at (°C)"
+              path="temperature.value"
+              value={atC}
+              onChange={(t) => form.setValue('atC', t)}
+              errors={errors}
+              width="w-20"
+            />
             <button type="submit" className={buttonClass} disabled={create.isPending}>
               Compare and save
             </button>

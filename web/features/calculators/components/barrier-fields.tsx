@@ -1,38 +1,18 @@
-import type { FieldError } from '../../../lib/api-client';
-import type { EnergyUnit, EntropyUnit } from '../lib/forecast-form';
-import type { TemperatureUnit } from '../lib/parse-screen';
-import { energyUnitOptions, entropyUnitOptions, NumberField, SelectField, temperatureUnitOptions } from '../../../components/ui/fields';
-
-/** The text of a barrier as typed: ΔG‡ at a temperature (ΔS‡ optional), or ΔH‡ with ΔS‡. */
-export interface BarrierText {
-  dG: string;
-  dGUnit: EnergyUnit;
-  dGTemperature: string;
-  dGTemperatureUnit: TemperatureUnit;
-  dH: string;
-  dHUnit: EnergyUnit;
-  dS: string;
-  dSUnit: EntropyUnit;
-}
+import { FormNumber, FormSelect } from './calculator-form';
+import { energyUnitOptions, entropyUnitOptions, temperatureUnitOptions } from '../../../components/ui/fields';
 
 /**
- * Inputs for one activation barrier, shared by the rate and erosion forms. `path` is the
- * request path of the barrier (e.g. `basis`, `barrier`) so server errors land on the inputs;
- * `name` prefixes the labels (e.g. "Barrier ΔG‡").
+ * Inputs for one activation barrier, shared by the rate and erosion forms, bound to the form's
+ * `BarrierText` fields (lib/barrier-text). `path` is the request path of the barrier (e.g. `basis`, `barrier`) so
+ * server errors land on the inputs; `name` prefixes the labels (e.g. "Barrier ΔG‡").
  */
 export function BarrierFields({
   kind,
-  form,
-  onChange,
-  errors,
   path,
   name = '',
   placeholders,
 }: {
   kind: 'gibbs' | 'activation';
-  form: BarrierText;
-  onChange: (patch: Partial<BarrierText>) => void;
-  errors: FieldError[];
   path: string;
   name?: string;
   placeholders: { energy: string; entropy: string };
@@ -46,77 +26,41 @@ export function BarrierFields({
       <div className="flex flex-wrap items-start gap-3">
         {kind === 'gibbs' ? (
           <>
-            <NumberField
+            <FormNumber
               label={label('ΔG‡')}
               path={`${path}.dG`}
-              value={form.dG}
-              onChange={(dG) => onChange({ dG })}
-              errors={errors}
+              name="dG"
               placeholder={placeholders.energy}
               width="w-20"
-              unit={
-                <SelectField
-                  label={unitLabel('energy')}
-                  value={form.dGUnit}
-                  options={energyUnitOptions}
-                  onChange={(dGUnit) => onChange({ dGUnit })}
-                />
-              }
+              unit={<FormSelect label={unitLabel('energy')} name="dGUnit" options={energyUnitOptions} />}
             />
-            <NumberField
+            <FormNumber
               label="at temperature"
               path={`${path}.temperature`}
-              value={form.dGTemperature}
-              onChange={(dGTemperature) => onChange({ dGTemperature })}
-              errors={errors}
+              name="dGTemperature"
               width="w-20"
-              unit={
-                <SelectField
-                  label={unitLabel('temperature')}
-                  value={form.dGTemperatureUnit}
-                  options={temperatureUnitOptions}
-                  onChange={(dGTemperatureUnit) => onChange({ dGTemperatureUnit })}
-                />
-              }
+              unit={<FormSelect label={unitLabel('temperature')} name="dGTemperatureUnit" options={temperatureUnitOptions} />}
             />
           </>
         ) : (
-          <NumberField
+          <FormNumber
             label={label('ΔH‡')}
             path={`${path}.dH`}
-            value={form.dH}
-            onChange={(dH) => onChange({ dH })}
-            errors={errors}
+            name="dH"
             placeholder={placeholders.energy}
             width="w-20"
-            unit={
-              <SelectField
-                label={unitLabel('energy')}
-                value={form.dHUnit}
-                options={energyUnitOptions}
-                onChange={(dHUnit) => onChange({ dHUnit })}
-              />
-            }
+            unit={<FormSelect label={unitLabel('energy')} name="dHUnit" options={energyUnitOptions} />}
           />
         )}
       </div>
-      <NumberField
+      <FormNumber
         label={dSOptional ? 'ΔS‡, optional' : 'ΔS‡'}
         path={`${path}.dS`}
-        value={form.dS}
-        onChange={(dS) => onChange({ dS })}
-        errors={errors}
+        name="dS"
         placeholder={dSOptional ? 'assumed 0' : placeholders.entropy}
         hint={dSOptional ? 'Empty: taken as 0, so ΔG‡ is the same at every temperature.' : undefined}
         width="w-20"
-        unit={
-          <SelectField
-            label={unitLabel('entropy')}
-            value={form.dSUnit}
-            options={entropyUnitOptions}
-            onChange={(dSUnit) => onChange({ dSUnit })}
-          />
-        }
+        unit={<FormSelect label={unitLabel('entropy')} name="dSUnit" options={entropyUnitOptions} />}
       />
     </>
   );

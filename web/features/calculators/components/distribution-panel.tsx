@@ -1,4 +1,5 @@
-import { useState, type FormEvent } from 'react';
+import { useState } from 'react';
+import { useForm } from 'react-hook-form';
 import type { DistributionRequest, DistributionResponse } from '../../../../api/features/calculators/kinetics-schemas';
 import { LineChart } from '../../../components/charts/line-chart';
 import { TemperatureCells } from '../../../components/charts/temperature-swatch';
@@ -28,6 +29,7 @@ import {
   selectClass,
   temperatureUnitOptions,
 } from '../../../components/ui/fields';
+import { CalculatorForm } from './calculator-form';
 import { EmptyResult, RangeFields, rangeFieldPaths, ResultNotes, Th } from './kinetics-parts';
 
 const MAX_ROWS = 12;
@@ -79,7 +81,8 @@ function CellInput({
 
 /** Several pathways: product shares, dr and ee per diastereomer from competing transition states. */
 export function DistributionPanel() {
-  const [form, setForm] = useState<DistributionFormState>(initialDistributionForm);
+  const methods = useForm<DistributionFormState>({ defaultValues: initialDistributionForm() });
+  const form = methods.watch();
   const [request, setRequest] = useState<DistributionRequest | null>(null);
   const [clientErrors, setClientErrors] = useState<FieldError[]>([]);
   const query = useDistribution(request);
@@ -89,12 +92,16 @@ export function DistributionPanel() {
   const leftover = unmatchedErrors(errors, pathwayFieldPaths).concat(errors.filter((e) => normalisePath(e.path) === 'pathways'));
   const data = query.data;
 
-  const change = (patch: Partial<DistributionFormState>) => setForm((f) => ({ ...f, ...patch }));
+  const change = (patch: Partial<DistributionFormState>) => {
+    for (const [key, value] of Object.entries(patch)) methods.setValue(key as keyof DistributionFormState, value as never);
+  };
   const setRow = (id: number, patch: Partial<PathwayText>) =>
-    setForm((f) => ({ ...f, pathways: f.pathways.map((p) => (p.id === id ? { ...p, ...patch } : p)) }));
-  const submit = (e: FormEvent) => {
-    e.preventDefault();
-    const { request: next, errors: found } = toDistributionRequest(form);
+    methods.setValue(
+      'pathways',
+      methods.getValues('pathways').map((p) => (p.id === id ? { ...p, ...patch } : p)),
+    );
+  const submit = () => {
+    const { request: next, errors: found } = toDistributionRequest(methods.getValues());
     setClientErrors(found);
     if (next) setRequest(next);
   };
@@ -102,7 +109,7 @@ export function DistributionPanel() {
 
   return (
     <Panel title="Several pathways">
-      <form onSubmit={submit} noValidate aria-label="Pathway inputs" className="flex flex-col gap-3">
+      <CalculatorForm form={methods} errors={errors} onSubmit={submit} label="Pathway inputs" className="flex flex-col gap-3">
         <p className="text-xs text-ink-600">
           One row per competing transition state. Give each barrier relative to any common reference (the same for every row), as G‡ or as
           H‡ and S‡. To get dr and ee, give every row a diastereomer group and mark its enantiomer A or B.
@@ -216,7 +223,7 @@ export function DistributionPanel() {
                         className="rounded px-1.5 py-1 text-sm text-ink-600 hover:bg-slate-100 disabled:opacity-40"
                         aria-label={`Remove ${name}`}
                         disabled={form.pathways.length <= 2}
-                        onClick={() => setForm((f) => ({ ...f, pathways: f.pathways.filter((q) => q.id !== p.id) }))}
+                        onClick={() => change({ pathways: form.pathways.filter((q) => q.id !== p.id) })}
                       >
                         ✕
                       </button>
@@ -232,11 +239,11 @@ export function DistributionPanel() {
             type="button"
             className={secondaryButtonClass}
             disabled={form.pathways.length >= MAX_ROWS}
-            onClick={() => setForm((f) => ({ ...f, pathways: [...f.pathways, blankPathway(`P${f.pathways.length + 1}`)] }))}
+            onClick={() => change({ pathways: [...form.pathways, blankPathway(`P${form.pathways.length + 1}`)] })}
           >
             Add pathway
           </button>
-          <button type="button" className={secondaryButtonClass} onClick={() => setForm(exampleDistributionForm())}>
+          <button type="button" className={secondaryButtonClass} onClick={() => methods.reset(exampleDistributionForm())}>
             Load invented example
           </button>
           <label className="flex items-center gap-1.5 text-xs font-medium text-ink-700">
@@ -277,14 +284,14 @@ export function DistributionPanel() {
             }
           />
         )}
-        <RangeFields from={form.rangeFrom} to={form.rangeTo} unit={form.rangeUnit} count={form.count} onChange={change} errors={errors} />
+        <RangeFields />
         <div>
           <button type="submit" className={buttonClass} disabled={query.isFetching}>
             {query.isFetching ? 'Calculating…' : 'Calculate distribution'}
           </button>
         </div>
         <UnplacedErrors error={query.error} clientErrors={clientErrors} serverErrors={serverErrors} leftover={leftover} />
-      </form>
+      </CalculatorForm>
 
       <div className="mt-4 flex min-w-0 flex-col gap-3" aria-live="polite">
         {!data && !query.isFetching && (

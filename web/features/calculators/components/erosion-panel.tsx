@@ -21,7 +21,7 @@ function holdCell(p: Point): string {
 
 /** Erosion during a hold: how fast ee is lost after the reaction, and how long material may wait. */
 export function ErosionPanel() {
-  const { form, patch, submit, request, query, clientErrors, serverErrors, errors } = useCalculator({
+  const { form, submit, request, query, clientErrors, serverErrors, errors } = useCalculator({
     initial: initialErosionForm,
     toRequest: toErosionRequest,
     useResult: useErosion,
@@ -31,7 +31,7 @@ export function ErosionPanel() {
   return (
     <CalculatorLayout
       title="Erosion during a hold"
-      form={<ErosionForm form={form} onChange={patch} onSubmit={submit} errors={errors} busy={query.isFetching} />}
+      form={<ErosionForm form={form} onSubmit={submit} errors={errors} busy={query.isFetching} />}
       query={query}
       clientErrors={clientErrors}
       serverErrors={serverErrors}

@@ -1,9 +1,8 @@
 import type { ReactNode } from 'react';
-import type { FieldError } from '../../../lib/api-client';
 import { scientific, sig } from '../../../lib/format';
-import type { TemperatureUnit } from '../lib/parse-screen';
 import type { DurationUnit } from '../lib/rate-form';
-import { NumberField, SelectField, temperatureUnitOptions, type Option } from '../../../components/ui/fields';
+import { FormNumber, FormSelect } from './calculator-form';
+import { temperatureUnitOptions, type Option } from '../../../components/ui/fields';
 import { SECONDS_PER } from '../../../../api/science/quantities';
 
 export const durationUnitOptions: Option<DurationUnit>[] = [
@@ -74,52 +73,20 @@ export function durationTick(seconds: number): string {
   return `${compactNumber(value)} ${unit}`;
 }
 
-/** From / to / how many: the temperature range every panel asks for. */
-export function RangeFields({
-  from,
-  to,
-  unit,
-  count,
-  onChange,
-  errors,
-}: {
-  from: string;
-  to: string;
-  unit: TemperatureUnit;
-  count: string;
-  onChange: (patch: { rangeFrom?: string; rangeTo?: string; rangeUnit?: TemperatureUnit; count?: string }) => void;
-  errors: FieldError[];
-}) {
+/** From / to / how many: the temperature range every panel asks for (form fields rangeFrom, rangeTo, rangeUnit, count). */
+export function RangeFields() {
   return (
     <fieldset className="flex flex-wrap items-start gap-3 border-t border-slate-200 pt-3">
       <legend className="sr-only">Temperature range</legend>
-      <NumberField
-        label="From"
-        path="temperatures.from"
-        value={from}
-        onChange={(rangeFrom) => onChange({ rangeFrom })}
-        errors={errors}
-        width="w-20"
-      />
-      <NumberField
+      <FormNumber label="From" path="temperatures.from" name="rangeFrom" width="w-20" />
+      <FormNumber
         label="to"
         path="temperatures.to"
-        value={to}
-        onChange={(rangeTo) => onChange({ rangeTo })}
-        errors={errors}
+        name="rangeTo"
         width="w-20"
-        unit={
-          <SelectField label="Range unit" value={unit} options={temperatureUnitOptions} onChange={(rangeUnit) => onChange({ rangeUnit })} />
-        }
+        unit={<FormSelect label="Range unit" name="rangeUnit" options={temperatureUnitOptions} />}
       />
-      <NumberField
-        label="Temperatures"
-        path="temperatures.count"
-        value={count}
-        onChange={(c) => onChange({ count: c })}
-        errors={errors}
-        width="w-16"
-      />
+      <FormNumber label="Temperatures" path="temperatures.count" name="count" width="w-16" />
     </fieldset>
   );
 }

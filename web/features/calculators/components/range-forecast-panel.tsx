@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import { useForm } from 'react-hook-form';
 import { Link } from 'react-router-dom';
 import { Panel } from '../../../components/ui/page';
 import { paths } from '../../../config/paths';
@@ -18,7 +19,8 @@ import type { ForecastRequest } from '../../../../api/features/calculators/schem
 
 /** Selectivity over a range of temperatures from one basis (ΔΔH‡/ΔΔS‡, a ΔΔG‡ or one observation): a chart and a table out. */
 export function RangeForecastPanel() {
-  const [form, setForm] = useState<ForecastFormState>(initialForecastForm);
+  const methods = useForm<ForecastFormState>({ defaultValues: initialForecastForm });
+  const form = methods.watch();
   const [request, setRequest] = useState<ForecastRequest | null>(null);
   const [submittedForm, setSubmittedForm] = useState<ForecastFormState | null>(null);
   const [clientErrors, setClientErrors] = useState<FieldError[]>([]);
@@ -44,11 +46,12 @@ export function RangeForecastPanel() {
   const range = celsiusShown.length ? [Math.min(...celsiusShown), Math.max(...celsiusShown)] : null;
 
   const submit = () => {
-    const { request: next, errors: found } = toForecastRequest(form);
+    const values = methods.getValues();
+    const { request: next, errors: found } = toForecastRequest(values);
     setClientErrors(found);
     if (next) {
       setRequest(next);
-      setSubmittedForm(form);
+      setSubmittedForm({ ...values });
     }
   };
 
@@ -56,13 +59,7 @@ export function RangeForecastPanel() {
     <Panel title="Forecast selectivity across temperature">
       <div className="grid gap-6 lg:grid-cols-[minmax(0,22rem)_minmax(0,1fr)]">
         <div className="flex flex-col gap-3">
-          <ForecastForm
-            form={form}
-            onChange={(patch) => setForm((f) => ({ ...f, ...patch }))}
-            onSubmit={submit}
-            errors={errors}
-            busy={query.isFetching}
-          />
+          <ForecastForm form={methods} onSubmit={submit} errors={errors} busy={query.isFetching} />
           {query.error && !clientErrors.length && (serverErrors.length === 0 || leftover.length > 0) && (
             <ProblemAlert
               title={query.error instanceof ApiError ? query.error.problem.title : 'The forecast failed'}

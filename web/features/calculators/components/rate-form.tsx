@@ -1,8 +1,9 @@
-import type { FormEvent } from 'react';
+import type { UseFormReturn } from 'react-hook-form';
 import type { FieldError } from '../../../lib/api-client';
-import { DEFAULT_ASSUMED_DH_KJ, type RateFormState, type RunText } from '../lib/rate-form';
+import { DEFAULT_ASSUMED_DH_KJ, type RateFormState } from '../lib/rate-form';
 import { BarrierFields } from './barrier-fields';
-import { buttonClass, energyUnitOptions, NumberField, Segmented, SelectField, temperatureUnitOptions } from '../../../components/ui/fields';
+import { CalculatorForm, FormNumber, FormSegmented, FormSelect } from './calculator-form';
+import { buttonClass, energyUnitOptions, temperatureUnitOptions } from '../../../components/ui/fields';
 import { durationUnitOptions, RangeFields, rangeFieldPaths } from './kinetics-parts';
 
 /** Every field path this form can render, so errors for other paths go to the general alert. */
@@ -21,61 +22,33 @@ export const rateFieldPaths = [
   ...rangeFieldPaths,
 ];
 
-function RunFields({
-  title,
-  path,
-  run,
-  onChange,
-  errors,
-}: {
-  title: string;
-  path: string;
-  run: RunText;
-  onChange: (run: RunText) => void;
-  errors: FieldError[];
-}) {
-  const set = (patch: Partial<RunText>) => onChange({ ...run, ...patch });
+function RunFields({ title, path, prefix }: { title: string; path: string; prefix: 'run1' | 'run2' }) {
   return (
     <fieldset className="flex flex-col gap-2">
       <legend className="mb-1 text-xs font-semibold text-ink-800">{title}</legend>
       <div className="flex flex-wrap items-start gap-3">
-        <NumberField
+        <FormNumber
           label="Reached conversion (%)"
           path={`${path}.conversionPercent`}
-          value={run.conversion}
-          onChange={(conversion) => set({ conversion })}
-          errors={errors}
+          name={`${prefix}.conversion`}
           placeholder="e.g. 95"
           width="w-20"
         />
-        <NumberField
+        <FormNumber
           label="after"
           path={`${path}.time`}
-          value={run.time}
-          onChange={(time) => set({ time })}
-          errors={errors}
+          name={`${prefix}.time`}
           placeholder="e.g. 4"
           width="w-20"
-          unit={
-            <SelectField label="Time unit" value={run.timeUnit} options={durationUnitOptions} onChange={(timeUnit) => set({ timeUnit })} />
-          }
+          unit={<FormSelect label="Time unit" name={`${prefix}.timeUnit`} options={durationUnitOptions} />}
         />
-        <NumberField
+        <FormNumber
           label="at temperature"
           path={`${path}.temperature`}
-          value={run.temperature}
-          onChange={(temperature) => set({ temperature })}
-          errors={errors}
+          name={`${prefix}.temperature`}
           placeholder="e.g. 0"
           width="w-20"
-          unit={
-            <SelectField
-              label="Run temperature unit"
-              value={run.temperatureUnit}
-              options={temperatureUnitOptions}
-              onChange={(temperatureUnit) => set({ temperatureUnit })}
-            />
-          }
+          unit={<FormSelect label="Run temperature unit" name={`${prefix}.temperatureUnit`} options={temperatureUnitOptions} />}
         />
       </div>
     </fieldset>
@@ -85,30 +58,24 @@ function RunFields({
 /** Inputs of the time-to-finish panel: what is known about the rate, the kinetic order, a target and a range. */
 export function RateForm({
   form,
-  onChange,
   onSubmit,
   errors,
   busy,
 }: {
-  form: RateFormState;
-  onChange: (patch: Partial<RateFormState>) => void;
+  form: UseFormReturn<RateFormState>;
   onSubmit: () => void;
   errors: FieldError[];
   busy: boolean;
 }) {
-  const submit = (e: FormEvent) => {
-    e.preventDefault();
-    onSubmit();
-  };
-  const usesRuns = form.kind === 'one-run' || form.kind === 'two-runs';
+  const [kind, order] = form.watch(['kind', 'order']);
+  const usesRuns = kind === 'one-run' || kind === 'two-runs';
 
   return (
-    <form onSubmit={submit} noValidate aria-label="Time to finish inputs" className="flex flex-col gap-4">
-      <Segmented
+    <CalculatorForm form={form} errors={errors} onSubmit={onSubmit} label="Time to finish inputs">
+      <FormSegmented
         legend="What you know about the rate"
-        name="rate-basis-kind"
-        value={form.kind}
-        onChange={(kind) => onChange({ kind })}
+        radioName="rate-basis-kind"
+        name="kind"
         options={[
           { value: 'one-run', label: 'One run' },
           { value: 'two-runs', label: 'Two runs' },
@@ -119,96 +86,57 @@ export function RateForm({
 
       {usesRuns && (
         <RunFields
-          title={form.kind === 'one-run' ? 'Measured run' : 'First run'}
-          path={form.kind === 'one-run' ? 'basis.run' : 'basis.runs.0'}
-          run={form.run1}
-          onChange={(run1) => onChange({ run1 })}
-          errors={errors}
+          title={kind === 'one-run' ? 'Measured run' : 'First run'}
+          path={kind === 'one-run' ? 'basis.run' : 'basis.runs.0'}
+          prefix="run1"
         />
       )}
-      {form.kind === 'two-runs' && (
-        <RunFields
-          title="Second run, at another temperature"
-          path="basis.runs.1"
-          run={form.run2}
-          onChange={(run2) => onChange({ run2 })}
-          errors={errors}
-        />
-      )}
-      {form.kind === 'one-run' && (
-        <NumberField
+      {kind === 'two-runs' && <RunFields title="Second run, at another temperature" path="basis.runs.1" prefix="run2" />}
+      {kind === 'one-run' && (
+        <FormNumber
           label="Assumed ΔH‡"
           path="basis.assumedDH"
-          value={form.assumedDH}
-          onChange={(assumedDH) => onChange({ assumedDH })}
-          errors={errors}
+          name="assumedDH"
           width="w-20"
           hint={`One run fixes k at one temperature only, so ΔH‡ must be assumed (offered: ${DEFAULT_ASSUMED_DH_KJ} kJ/mol). The table also shows the times for ΔH‡ 10 kJ/mol lower and higher.`}
-          unit={
-            <SelectField
-              label="ΔH‡ unit"
-              value={form.assumedDHUnit}
-              options={energyUnitOptions}
-              onChange={(assumedDHUnit) => onChange({ assumedDHUnit })}
-            />
-          }
+          unit={<FormSelect label="ΔH‡ unit" name="assumedDHUnit" options={energyUnitOptions} />}
         />
       )}
 
-      {(form.kind === 'gibbs' || form.kind === 'activation') && (
-        <BarrierFields
-          kind={form.kind}
-          form={form}
-          onChange={onChange}
-          errors={errors}
-          path="basis"
-          placeholders={{ energy: form.kind === 'gibbs' ? 'e.g. 90' : 'e.g. 60', entropy: 'e.g. −90' }}
-        />
+      {(kind === 'gibbs' || kind === 'activation') && (
+        <BarrierFields kind={kind} path="basis" placeholders={{ energy: kind === 'gibbs' ? 'e.g. 90' : 'e.g. 60', entropy: 'e.g. −90' }} />
       )}
 
       <fieldset className="flex flex-col gap-2 border-t border-slate-200 pt-3">
         <legend className="sr-only">Kinetic order</legend>
-        <Segmented
+        <FormSegmented
           legend="Kinetic order"
-          name="rate-order"
-          value={form.order}
-          onChange={(order) => onChange({ order })}
+          radioName="rate-order"
+          name="order"
           options={[
             { value: 'first', label: 'First' },
             { value: 'pseudo-first', label: 'Pseudo-first' },
             { value: 'second', label: 'Second' },
           ]}
         />
-        {form.order === 'pseudo-first' && (
+        {order === 'pseudo-first' && (
           <div className="flex flex-wrap items-start gap-3">
-            <NumberField
-              label="[A]₀ limiting (mol/L)"
-              path="setup.limiting"
-              value={form.limiting}
-              onChange={(limiting) => onChange({ limiting })}
-              errors={errors}
-              placeholder="e.g. 0.1"
-              width="w-20"
-            />
-            <NumberField
+            <FormNumber label="[A]₀ limiting (mol/L)" path="setup.limiting" name="limiting" placeholder="e.g. 0.1" width="w-20" />
+            <FormNumber
               label="[B]₀ in excess (mol/L)"
               path="setup.excess"
-              value={form.excess}
-              onChange={(excess) => onChange({ excess })}
-              errors={errors}
+              name="excess"
               placeholder="e.g. 1.0"
               width="w-20"
               hint="k is then k₂ and k_obs = k₂·[B]₀; at least 10-fold excess keeps it pseudo-first order."
             />
           </div>
         )}
-        {form.order === 'second' && (
-          <NumberField
+        {order === 'second' && (
+          <FormNumber
             label="Starting concentration c₀ of A and B (mol/L)"
             path="setup.initial"
-            value={form.initial}
-            onChange={(initial) => onChange({ initial })}
-            errors={errors}
+            name="initial"
             placeholder="e.g. 0.5"
             width="w-20"
             hint="A + B at equal starting concentrations."
@@ -216,21 +144,14 @@ export function RateForm({
         )}
       </fieldset>
 
-      <NumberField
-        label="Target conversion (%)"
-        path="targetConversionPercent"
-        value={form.target}
-        onChange={(target) => onChange({ target })}
-        errors={errors}
-        width="w-20"
-      />
-      <RangeFields from={form.rangeFrom} to={form.rangeTo} unit={form.rangeUnit} count={form.count} onChange={onChange} errors={errors} />
+      <FormNumber label="Target conversion (%)" path="targetConversionPercent" name="target" width="w-20" />
+      <RangeFields />
 
       <div>
         <button type="submit" className={buttonClass} disabled={busy}>
           {busy ? 'Calculating…' : 'Calculate times'}
         </button>
       </div>
-    </form>
+    </CalculatorForm>
   );
 }

@@ -23,7 +23,7 @@ function signedKJ(v: number) {
 
 /** Time to finish: rate constants and times to a target conversion across a temperature range. */
 export function RatePanel() {
-  const { form, patch, submit, query, clientErrors, serverErrors, errors } = useCalculator({
+  const { form, submit, query, clientErrors, serverErrors, errors } = useCalculator({
     initial: initialRateForm,
     toRequest: toRateRequest,
     useResult: useRate,
@@ -33,7 +33,7 @@ export function RatePanel() {
   return (
     <CalculatorLayout
       title="Time to finish"
-      form={<RateForm form={form} onChange={patch} onSubmit={submit} errors={errors} busy={query.isFetching} />}
+      form={<RateForm form={form} onSubmit={submit} errors={errors} busy={query.isFetching} />}
       query={query}
       clientErrors={clientErrors}
       serverErrors={serverErrors}

@@ -1,21 +1,13 @@
 import { erosionRequestSchema, type ErosionRequest } from '../../../../api/features/calculators/kinetics-schemas';
 import type { FieldError } from '../../../lib/api-client';
+import type { BarrierText } from './barrier-text';
 import { validateRequest } from '../../../lib/field-errors';
-import type { EnergyUnit, EntropyUnit } from './forecast-form';
 import { numberText as num, rangeText } from './number-text';
 import type { TemperatureUnit } from './parse-screen';
 import type { DurationUnit } from './rate-form';
 
-export interface ErosionFormState {
+export interface ErosionFormState extends BarrierText {
   kind: 'gibbs' | 'activation';
-  dG: string;
-  dGUnit: EnergyUnit;
-  dGTemperature: string;
-  dGTemperatureUnit: TemperatureUnit;
-  dH: string;
-  dHUnit: EnergyUnit;
-  dS: string;
-  dSUnit: EntropyUnit;
   initialEe: string;
   hold: string;
   holdUnit: DurationUnit;

@@ -1,7 +1,8 @@
 import { rateRequestSchema, type RateRequest } from '../../../../api/features/calculators/kinetics-schemas';
 import type { FieldError } from '../../../lib/api-client';
+import type { BarrierText } from './barrier-text';
 import { validateRequest } from '../../../lib/field-errors';
-import type { EnergyUnit, EntropyUnit } from './forecast-form';
+import type { EnergyUnit } from './forecast-form';
 import { numberText as num, rangeText } from './number-text';
 import type { TemperatureUnit } from './parse-screen';
 
@@ -18,7 +19,7 @@ export interface RunText {
   temperatureUnit: TemperatureUnit;
 }
 
-export interface RateFormState {
+export interface RateFormState extends BarrierText {
   kind: RateBasisKind;
   order: KineticOrder;
   /** pseudo-first: limiting reagent and the one in excess; second: the common starting concentration (mol/L). */
@@ -30,14 +31,6 @@ export interface RateFormState {
   /** One run only: the ΔH‡ the answer assumes (a default is offered and stated). */
   assumedDH: string;
   assumedDHUnit: EnergyUnit;
-  dG: string;
-  dGUnit: EnergyUnit;
-  dGTemperature: string;
-  dGTemperatureUnit: TemperatureUnit;
-  dH: string;
-  dHUnit: EnergyUnit;
-  dS: string;
-  dSUnit: EntropyUnit;
   target: string;
   rangeFrom: string;
   rangeTo: string;

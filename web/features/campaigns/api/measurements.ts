@@ -1,5 +1,5 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { MeasurementCreate, MeasurementExclusion, MeasurementUpdate } from '../../../../api/features/campaigns/schemas';
+import type { MeasurementBatchUpdate, MeasurementCreate, MeasurementExclusion } from '../../../../api/features/campaigns/schemas';
 import { api } from '../../../lib/api-client';
 import { campaignKeys } from './keys';
 import type { Measurement } from './types';
@@ -14,8 +14,9 @@ export const useMeasurements = (campaignId: string) => useQuery(measurementsQuer
 export const createMeasurements = (campaignId: string, measurements: MeasurementCreate[]) =>
   api<{ created: number }>(`/api/v1/campaigns/${campaignId}/measurements/batch`, { method: 'POST', body: { measurements } });
 
-export const updateMeasurement = (measurementId: string, body: MeasurementUpdate) =>
-  api<Measurement>(`/api/v1/measurements/${measurementId}`, { method: 'PATCH', body });
+/** Several stored runs at once, all or nothing; a stale row is a 409 listing `staleRows[].path` ("measurements.<i>"). */
+export const updateMeasurements = (campaignId: string, measurements: MeasurementBatchUpdate['measurements']) =>
+  api<{ measurements: Measurement[] }>(`/api/v1/campaigns/${campaignId}/measurements`, { method: 'PATCH', body: { measurements } });
 
 export const setExclusion = (measurementId: string, body: MeasurementExclusion) =>
   api<Measurement>(`/api/v1/measurements/${measurementId}/exclusion`, { method: 'PUT', body });
@@ -33,14 +34,17 @@ export function useRefreshCampaign(campaignId: string, projectId: string) {
     ]);
 }
 
-export function useCreateMeasurements(campaignId: string, projectId: string) {
+/**
+ * The grid's save: new rows in one batch, changed rows in one batched change, then one refresh of
+ * the campaign's data (whatever happened), never one request and one refetch per row.
+ */
+export function useSaveGridRows(campaignId: string, projectId: string) {
   const refresh = useRefreshCampaign(campaignId, projectId);
-  return useMutation({ mutationFn: (rows: MeasurementCreate[]) => createMeasurements(campaignId, rows), onSuccess: refresh });
-}
-
-export function useUpdateMeasurement(campaignId: string, projectId: string) {
-  const refresh = useRefreshCampaign(campaignId, projectId);
-  return useMutation({ mutationFn: (v: { id: string; body: MeasurementUpdate }) => updateMeasurement(v.id, v.body), onSettled: refresh });
+  return {
+    create: (rows: MeasurementCreate[]) => createMeasurements(campaignId, rows),
+    update: (rows: MeasurementBatchUpdate['measurements']) => updateMeasurements(campaignId, rows),
+    refresh,
+  };
 }
 
 export function useSetExclusion(campaignId: string, projectId: string) {

@@ -1,15 +1,18 @@
-import { useState, type ReactNode } from 'react';
+import { useMemo, useState, type ReactNode } from 'react';
+import { useForm } from 'react-hook-form';
 import { useQueryClient } from '@tanstack/react-query';
-import { Button, FormAlert } from '../../../components/ui/form';
+import { Button } from '../../../components/ui/form';
+import { FormErrorAlert } from '../../../components/ui/form-fields';
 import { ApiError } from '../../../lib/api-client';
+import { applyServerErrors, checkedResolver } from '../../../lib/form';
 import { fixed } from '../../../lib/format';
 import { RoleBadge } from '../../../components/ui/role-badge';
 import { useUpdateCampaign } from '../api/campaigns';
 import { campaignKeys } from '../api/keys';
 import type { CampaignWithRole } from '../api/types';
-import { updateBody, valuesFromCampaign, type FormErrors } from '../lib/campaign-form';
+import { CAMPAIGN_FIELDS, fieldErrorList, updateBody, valuesFromCampaign, type CampaignFormValues } from '../lib/campaign-form';
 import { ASSAY_LABEL, MEASURE_LABEL, STATUS_MARK, uncertaintyUnit } from '../lib/labels';
-import { CampaignFields, useCampaignFormState } from './campaign-fields';
+import { CampaignFields } from './campaign-fields';
 
 /** What the campaign is, at a glance; editors open an edit form that checks the version it read. */
 export function CampaignHeader({ campaign, canEdit }: { campaign: CampaignWithRole; canEdit: boolean }) {
@@ -79,7 +82,15 @@ function Item({ term, detail }: { term: string; detail: ReactNode }) {
 function EditCampaignForm({ campaign, onDone, onReloaded }: { campaign: CampaignWithRole; onDone: () => void; onReloaded: () => void }) {
   // The version the form was opened at: a save checks it, so nobody overwrites a change unseen.
   const [base] = useState(campaign);
-  const { values, errors, setErrors, set } = useCampaignFormState(() => valuesFromCampaign(campaign));
+  const resolver = useMemo(
+    () =>
+      checkedResolver((values: CampaignFormValues) => {
+        const { body, errors } = updateBody(base, values);
+        return { value: body, errors: fieldErrorList(errors) };
+      }),
+    [base],
+  );
+  const form = useForm({ resolver, defaultValues: valuesFromCampaign(base) });
   const [conflict, setConflict] = useState<number | null>(null);
   const update = useUpdateCampaign(campaign.id, campaign.projectId);
   const client = useQueryClient();
@@ -88,26 +99,18 @@ function EditCampaignForm({ campaign, onDone, onReloaded }: { campaign: Campaign
       noValidate
       aria-label="Edit campaign"
       className="flex flex-col gap-3 rounded border border-slate-200 bg-slate-50 p-3"
-      onSubmit={(e) => {
-        e.preventDefault();
-        const { body, errors: found } = updateBody(base, values);
-        setErrors(found);
-        if (!body) return;
+      onSubmit={form.handleSubmit((body) =>
         update.mutate(body, {
           onSuccess: onDone,
           onError: (err) => {
             if (err instanceof ApiError && err.status === 409) {
               setConflict(typeof err.problem.currentVersion === 'number' ? err.problem.currentVersion : -1);
-            } else if (err instanceof ApiError && err.fieldErrors.length) {
-              const next: FormErrors = {};
-              for (const f of err.fieldErrors) next[(f.path.split('.')[0] || '(form)') as keyof FormErrors] ??= f.message;
-              setErrors(next);
-            } else setErrors({ '(form)': err.message });
+            } else applyServerErrors(form.setError, err, CAMPAIGN_FIELDS);
           },
-        });
-      }}
+        }),
+      )}
     >
-      <CampaignFields values={values} errors={errors} set={set} />
+      <CampaignFields control={form.control} />
       {conflict !== null && (
         <div
           role="alert"
@@ -126,7 +129,7 @@ function EditCampaignForm({ campaign, onDone, onReloaded }: { campaign: Campaign
           </Button>
         </div>
       )}
-      <FormAlert>{errors['(form)']}</FormAlert>
+      <FormErrorAlert control={form.control} />
       <div className="flex items-center gap-2">
         <Button type="submit" variant="primary" disabled={update.isPending}>
           {update.isPending ? 'Saving…' : 'Save details'}

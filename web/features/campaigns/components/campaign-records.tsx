@@ -1,5 +1,8 @@
 import { useId, useState } from 'react';
-import { Button, FormAlert } from '../../../components/ui/form';
+import { useForm } from 'react-hook-form';
+import { Button } from '../../../components/ui/form';
+import { FormErrorAlert } from '../../../components/ui/form-fields';
+import { applyServerErrors } from '../../../lib/form';
 import { recordLinks, useHistoryEntries, useKeptFiles, useReopen, useSignOff } from '../api/records';
 import type { CampaignWithRole } from '../api/types';
 
@@ -19,15 +22,16 @@ function formatBytes(n: number): string {
 export function SignOffBar({ campaign, canEdit }: { campaign: CampaignWithRole; canEdit: boolean }) {
   const id = useId();
   const [open, setOpen] = useState(false);
-  const [text, setText] = useState('');
+  // One field: the sign-off note or the reason for reopening.
+  const form = useForm({ defaultValues: { text: '' } });
+  const text = form.watch('text');
   const signOff = useSignOff(campaign.id);
   const reopen = useReopen(campaign.id);
   const s = campaign.signOff;
   const pending = signOff.isPending || reopen.isPending;
-  const error = (signOff.error ?? reopen.error)?.message;
   const close = () => {
     setOpen(false);
-    setText('');
+    form.reset();
   };
 
   return (
@@ -51,12 +55,11 @@ export function SignOffBar({ campaign, canEdit }: { campaign: CampaignWithRole; 
       {canEdit && open && (
         <form
           className="flex flex-wrap items-end gap-2"
-          onSubmit={(e) => {
-            e.preventDefault();
-            const done = { onSuccess: close };
-            if (s) reopen.mutate(text.trim(), done);
-            else signOff.mutate(text, done);
-          }}
+          onSubmit={form.handleSubmit(({ text: typed }) => {
+            const done = { onSuccess: close, onError: (err: Error) => applyServerErrors(form.setError, err, []) };
+            if (s) reopen.mutate(typed.trim(), done);
+            else signOff.mutate(typed, done);
+          })}
         >
           <div className="flex flex-col gap-0.5">
             <label htmlFor={id} className="text-xs font-medium text-ink-700">
@@ -65,8 +68,7 @@ export function SignOffBar({ campaign, canEdit }: { campaign: CampaignWithRole; 
             <input
               id={id}
               autoFocus
-              value={text}
-              onChange={(e) => setText(e.target.value)}
+              {...form.register('text')}
               onKeyDown={(e) => e.key === 'Escape' && close()}
               className="w-80 max-w-full rounded border border-slate-300 px-2 py-1"
             />
@@ -77,7 +79,7 @@ export function SignOffBar({ campaign, canEdit }: { campaign: CampaignWithRole; 
           <Button onClick={close}>Cancel</Button>
         </form>
       )}
-      <FormAlert>{error}</FormAlert>
+      <FormErrorAlert control={form.control} />
     </div>
   );
 }

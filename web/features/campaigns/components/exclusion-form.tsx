@@ -1,6 +1,15 @@
-import { useId, useState } from 'react';
+import { useId } from 'react';
+import { useForm } from 'react-hook-form';
 import { measurementExclusionSchema } from '../../../../api/features/campaigns/schemas';
 import { Button } from '../../../components/ui/form';
+import { applyServerErrors, checkedResolver, errorAt, FORM_ERROR } from '../../../lib/form';
+
+const resolver = checkedResolver(({ reason }: { reason: string }) => {
+  const parsed = measurementExclusionSchema.safeParse({ version: 1, excluded: true, reason });
+  if (parsed.success) return { value: reason.trim(), errors: [] };
+  const issue = parsed.error.issues.find((i) => i.path[0] === 'reason') ?? parsed.error.issues[0];
+  return { value: null, errors: [{ path: 'reason', message: issue.message }] };
+});
 
 /** Ask why a point is excluded; it stays listed and is drawn hollow, never silently dropped. */
 export function ExclusionForm({
@@ -15,23 +24,15 @@ export function ExclusionForm({
   onCancel: () => void;
 }) {
   const id = useId();
-  const [reason, setReason] = useState('');
-  const [error, setError] = useState<string | null>(null);
-  const submit = () => {
-    const parsed = measurementExclusionSchema.safeParse({ version: 1, excluded: true, reason });
-    if (!parsed.success) {
-      setError(parsed.error.issues.find((i) => i.path[0] === 'reason')?.message ?? parsed.error.issues[0].message);
-      return;
-    }
-    onSubmit(reason.trim()).catch((err: unknown) => setError(err instanceof Error ? err.message : 'Not saved.'));
-  };
+  const form = useForm({ resolver, defaultValues: { reason: '' } });
+  const errors = form.formState.errors;
+  // A refused save shows beside the reason: the form has that one field.
+  const error = errorAt(errors, 'reason') ?? errorAt(errors, FORM_ERROR);
+  const reason = form.register('reason', { onChange: () => form.clearErrors() });
   return (
     <form
       className="flex flex-wrap items-start gap-2"
-      onSubmit={(e) => {
-        e.preventDefault();
-        submit();
-      }}
+      onSubmit={form.handleSubmit((text) => onSubmit(text).catch((err: unknown) => applyServerErrors(form.setError, err, ['reason'])))}
     >
       <div className="flex flex-col gap-0.5">
         <label htmlFor={id} className="text-xs font-medium text-ink-700">
@@ -40,11 +41,7 @@ export function ExclusionForm({
         <input
           id={id}
           autoFocus
-          value={reason}
-          onChange={(e) => {
-            setReason(e.target.value);
-            setError(null);
-          }}
+          {...reason}
           onKeyDown={(e) => e.key === 'Escape' && onCancel()}
           aria-invalid={error ? true : undefined}
           aria-describedby={error ? `${id}-err` : undefined}

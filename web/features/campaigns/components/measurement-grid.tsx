@@ -2,26 +2,10 @@ import { useCallback, useEffect, useMemo, useRef, useState, type ClipboardEvent,
 import { useVirtualizer } from '@tanstack/react-virtual';
 import type { SelectivityMeasure, TemperatureUnit, TimeUnit } from '../../../../api/features/campaigns/schemas';
 import { Button } from '../../../components/ui/form';
-import { ApiError } from '../../../lib/api-client';
-import { useCreateMeasurements, useDeleteMeasurement, useSetExclusion, useUpdateMeasurement } from '../api/measurements';
+import { useDeleteMeasurement, useSetExclusion } from '../api/measurements';
 import type { Campaign, Measurement } from '../api/types';
-import {
-  batchErrorsToCells,
-  cellsFromMeasurement,
-  emptyCells,
-  GRID_COLUMNS,
-  isBlank,
-  parsePastedBlock,
-  pasteBlock,
-  rowErrorsToCells,
-  rowToCreate,
-  rowToUpdate,
-  type CellErrors,
-  type ColumnUnits,
-  type GridCells,
-  type GridColumn,
-  type GridEdits,
-} from '../lib/grid';
+import { useGridEdits, type GridRow } from '../hooks/use-grid-edits';
+import { GRID_COLUMNS, parsePastedBlock, type GridColumn } from '../lib/grid';
 import { MEASURE_LABEL, uncertaintyUnit } from '../lib/labels';
 import { ExclusionForm } from './exclusion-form';
 
@@ -66,16 +50,6 @@ const CELL_WIDTH: Record<GridColumn, string> = {
 };
 const NUMERIC: GridColumn[] = ['temperature', 'value', 'uncertainty', 'conversionPercent', 'reactionTime'];
 
-let draftCounter = 0;
-const newDraftKey = () => `draft-${++draftCounter}`;
-
-interface Row {
-  key: string;
-  stored: Measurement | null;
-  cells: GridCells;
-  dirty: boolean;
-}
-
 /**
  * Keyboard-first measurement grid. Arrow keys move between rows, Enter moves down (and adds a
  * row at the end), Escape restores a cell, Ctrl+Enter saves; a block copied from a spreadsheet
@@ -91,52 +65,19 @@ export function MeasurementGrid({
   measurements: Measurement[];
   canEdit: boolean;
 }) {
-  const [units, setUnits] = useState<ColumnUnits>({ temperature: 'C', measure: campaign.measure, time: 'h' });
-  const [state, setState] = useState<GridEdits>({ edits: {}, drafts: [] });
-  const [serverErrors, setServerErrors] = useState<Record<string, CellErrors>>({});
-  const [rowProblems, setRowProblems] = useState<Record<string, string>>({});
-  const [notice, setNotice] = useState<{ kind: 'info' | 'error'; text: string } | null>(null);
+  const grid = useGridEdits(campaign, measurements);
+  const { units, setUnits, rows, clientErrors, serverErrors, rowProblems, setRowProblem, notice, saving, editReason, setEditReason } = grid;
+  const { dirtyCount, editedStoredCount, reasonMissing, setCell, restoreCell, addDraft, discard, save } = grid;
   const [excluding, setExcluding] = useState<string | null>(null);
   const [confirmDelete, setConfirmDelete] = useState<string | null>(null);
   const [pendingFocus, setPendingFocus] = useState<{ row: number; col: number } | null>(null);
-  const [saving, setSaving] = useState(false);
-  const [editReason, setEditReason] = useState('');
   const [deleteReason, setDeleteReason] = useState('');
   const tableRef = useRef<HTMLTableElement>(null);
   const scrollRef = useRef<HTMLDivElement>(null);
 
-  const createRows = useCreateMeasurements(campaign.id, campaign.projectId);
-  const updateRow = useUpdateMeasurement(campaign.id, campaign.projectId);
   const exclusion = useSetExclusion(campaign.id, campaign.projectId);
   const deleteRow = useDeleteMeasurement(campaign.id, campaign.projectId);
 
-  const shown = measurements;
-  const rows: Row[] = useMemo(() => {
-    const stored = shown.map((m) => {
-      const base = cellsFromMeasurement(m, units);
-      const edit = state.edits[m.id];
-      const cells = edit ? { ...base, ...edit } : base;
-      const dirty = !!edit && GRID_COLUMNS.some((c) => cells[c].trim() !== base[c].trim());
-      return { key: m.id, stored: m, cells, dirty };
-    });
-    const drafts = state.drafts.map((d) => ({ key: d.key, stored: null, cells: d.cells, dirty: !isBlank(d.cells) }));
-    return [...stored, ...drafts];
-  }, [shown, units, state]);
-
-  // Check the rows being edited as they are typed.
-  const clientErrors = useMemo(() => {
-    const out: Record<string, CellErrors> = {};
-    for (const r of rows) {
-      if (!r.dirty) continue;
-      const { errors } = rowToCreate(r.cells, units);
-      if (Object.keys(errors).length) out[r.key] = errors;
-    }
-    return out;
-  }, [rows, units]);
-
-  const dirtyCount = rows.filter((r) => r.dirty).length;
-  const editedStoredCount = rows.filter((r) => r.stored && r.dirty).length;
-  const reasonMissing = editedStoredCount > 0 && editReason.trim().length < 3;
   const replicateSummary = useMemo(() => replicateStats(measurements), [measurements]);
 
   const virtual = rows.length >= VIRTUAL_FROM_ROWS;
@@ -169,34 +110,12 @@ export function MeasurementGrid({
     setPendingFocus(null);
   }, [pendingFocus, rows.length, virtual, virtualizer, firstShown]);
 
-  const setCell = (row: Row, col: GridColumn, text: string) => {
-    setServerErrors((all) => {
-      if (!all[row.key]?.[col]) return all;
-      const { [col]: _gone, ...rest } = all[row.key];
-      return { ...all, [row.key]: rest };
-    });
-    setState((s) =>
-      row.stored
-        ? { ...s, edits: { ...s.edits, [row.key]: { ...s.edits[row.key], [col]: text } } }
-        : { ...s, drafts: s.drafts.map((d) => (d.key === row.key ? { ...d, cells: { ...d.cells, [col]: text } } : d)) },
-    );
+  const addRow = () => {
+    addDraft();
+    setPendingFocus({ row: rows.length, col: 0 });
   };
 
-  const restoreCell = (row: Row, col: GridColumn) => {
-    if (row.stored) {
-      setState((s) => {
-        const { [col]: _gone, ...rest } = s.edits[row.key] ?? {};
-        return { ...s, edits: { ...s.edits, [row.key]: rest } };
-      });
-    } else setCell(row, col, '');
-  };
-
-  const addRow = (focus = true) => {
-    setState((s) => ({ ...s, drafts: [...s.drafts, { key: newDraftKey(), cells: emptyCells() }] }));
-    if (focus) setPendingFocus({ row: rows.length, col: 0 });
-  };
-
-  const onKeyDown = (e: KeyboardEvent<HTMLInputElement>, rowIndex: number, colIndex: number, row: Row, col: GridColumn) => {
+  const onKeyDown = (e: KeyboardEvent<HTMLInputElement>, rowIndex: number, colIndex: number, row: GridRow, col: GridColumn) => {
     if (e.key === 'Enter' && (e.ctrlKey || e.metaKey)) {
       e.preventDefault();
       void save();
@@ -204,7 +123,7 @@ export function MeasurementGrid({
       e.preventDefault();
       if (rowIndex + 1 < rows.length) setPendingFocus({ row: rowIndex + 1, col: colIndex });
       else if (e.key === 'Enter') {
-        setState((s) => ({ ...s, drafts: [...s.drafts, { key: newDraftKey(), cells: emptyCells() }] }));
+        addDraft();
         setPendingFocus({ row: rowIndex + 1, col: colIndex });
       }
     } else if (e.key === 'ArrowUp') {
@@ -229,107 +148,8 @@ export function MeasurementGrid({
     const block = parsePastedBlock(e.clipboardData.getData('text/plain'));
     if (!block) return;
     e.preventDefault();
-    const result = pasteBlock(
-      state,
-      rows.map((r) => r.key),
-      new Set(shown.map((m) => m.id)),
-      rowIndex,
-      colIndex,
-      block,
-      newDraftKey,
-    );
-    setState(result.state);
-    const parts = [`Pasted ${result.rows} row${result.rows === 1 ? '' : 's'}; check the marked cells, then save.`];
-    if (result.headerSkipped) parts.push('The first line looked like headings and was skipped.');
-    if (result.droppedColumns)
-      parts.push(`${plural(result.droppedColumns, 'column')} beyond Notes ${result.droppedColumns === 1 ? 'was' : 'were'} left out.`);
-    setNotice({ kind: 'info', text: parts.join(' ') });
+    grid.paste(rowIndex, colIndex, block);
   };
-
-  const discard = () => {
-    setState({ edits: {}, drafts: [] });
-    setServerErrors({});
-    setRowProblems({});
-    setNotice(null);
-  };
-
-  async function save() {
-    if (saving) return;
-    const drafts = rows.filter((r) => !r.stored && r.dirty);
-    const edited = rows.filter((r) => r.stored && r.dirty);
-    if (Object.keys(clientErrors).length > 0) {
-      setNotice({ kind: 'error', text: 'Nothing saved: fix the marked cells first (the reason is under each one).' });
-      return;
-    }
-    if (edited.length > 0 && editReason.trim().length < 3) {
-      setNotice({ kind: 'error', text: 'Nothing saved: say why the stored runs change (at least 3 characters); the history keeps it.' });
-      return;
-    }
-    setSaving(true);
-    setNotice(null);
-    const nextServer: Record<string, CellErrors> = {};
-    const problems: Record<string, string> = {};
-    const general: string[] = [];
-    let savedDrafts = false;
-    const savedEdits: string[] = [];
-    try {
-      if (drafts.length) {
-        const bodies = drafts.map((r) => rowToCreate(r.cells, units).body!);
-        try {
-          await createRows.mutateAsync(bodies);
-          savedDrafts = true;
-        } catch (err) {
-          if (err instanceof ApiError && err.fieldErrors.length) {
-            const mapped = batchErrorsToCells(
-              err.fieldErrors,
-              drafts.map((d) => d.key),
-            );
-            Object.assign(nextServer, mapped.byKey);
-            general.push(...mapped.other);
-            if (!mapped.other.length) general.push('No new row was saved (all or nothing): fix the marked cells and save again.');
-          } else general.push(err instanceof Error ? err.message : 'Saving the new rows failed.');
-        }
-      }
-      for (const r of edited) {
-        const { body } = rowToUpdate(r.stored!, r.cells, units);
-        if (!body) {
-          savedEdits.push(r.key);
-          continue;
-        }
-        try {
-          await updateRow.mutateAsync({ id: r.key, body: { ...body, reason: editReason.trim() } });
-          savedEdits.push(r.key);
-        } catch (err) {
-          if (err instanceof ApiError && err.status === 409) {
-            problems[r.key] =
-              'Changed by someone else since you loaded it — your edit was not saved. Discard it to see the current values.';
-          } else if (err instanceof ApiError && err.fieldErrors.length) {
-            const mapped = rowErrorsToCells(err.fieldErrors);
-            nextServer[r.key] = mapped.cells;
-            if (mapped.other.length) problems[r.key] = mapped.other.join(' ');
-          } else problems[r.key] = err instanceof Error ? err.message : 'Saving failed.';
-        }
-      }
-    } finally {
-      setSaving(false);
-    }
-    setServerErrors(nextServer);
-    setRowProblems(problems);
-    if (!Object.keys(problems).length && !Object.keys(nextServer).length) setEditReason('');
-    setState((s) => ({
-      edits: Object.fromEntries(Object.entries(s.edits).filter(([k]) => !savedEdits.includes(k))),
-      drafts: savedDrafts ? [] : s.drafts,
-    }));
-    const failed = general.length + Object.keys(problems).length + Object.keys(nextServer).length;
-    setNotice(
-      failed
-        ? { kind: 'error', text: general.join(' ') || 'Some rows were not saved; see the marked rows.' }
-        : {
-            kind: 'info',
-            text: `Saved ${plural(savedDrafts ? drafts.length : 0, 'new row')} and ${plural(savedEdits.length, 'changed row')}. The fit below is up to date.`,
-          },
-    );
-  }
 
   const measureOptions = MEASURES.map((m) => ({ value: m, label: MEASURE_LABEL[m] }));
 
@@ -481,7 +301,7 @@ export function MeasurementGrid({
                                 deleteRow.mutate(
                                   { id: row.key, version: row.stored!.version, reason: deleteReason.trim() },
                                   {
-                                    onError: (err) => setRowProblems((p) => ({ ...p, [row.key]: err.message })),
+                                    onError: (err) => setRowProblem(row.key, err.message),
                                     onSettled: () => {
                                       setConfirmDelete(null);
                                       setDeleteReason('');
@@ -513,7 +333,7 @@ export function MeasurementGrid({
                                 onClick={() =>
                                   exclusion.mutate(
                                     { id: row.key, body: { excluded: false, version: row.stored!.version } },
-                                    { onError: (err) => setRowProblems((p) => ({ ...p, [row.key]: err.message })) },
+                                    { onError: (err) => setRowProblem(row.key, err.message) },
                                   )
                                 }
                               >
@@ -545,7 +365,7 @@ export function MeasurementGrid({
                           type="button"
                           className="rounded border border-slate-300 px-1.5 py-0.5 hover:bg-slate-50"
                           aria-label={`Remove new row ${rowIndex + 1}`}
-                          onClick={() => setState((s) => ({ ...s, drafts: s.drafts.filter((d) => d.key !== row.key) }))}
+                          onClick={() => grid.removeDraft(row.key)}
                         >
                           Remove
                         </button>
@@ -615,7 +435,7 @@ export function MeasurementGrid({
           <Button variant="primary" disabled={dirtyCount === 0 || saving || reasonMissing} onClick={() => void save()}>
             {saving ? 'Saving…' : dirtyCount ? `Save ${dirtyCount} row${dirtyCount === 1 ? '' : 's'}` : 'Saved'}
           </Button>
-          {(dirtyCount > 0 || state.drafts.length > 0) && <Button onClick={discard}>Discard changes</Button>}
+          {(dirtyCount > 0 || grid.draftCount > 0) && <Button onClick={discard}>Discard changes</Button>}
           <span className="text-xs text-ink-500">New rows are saved together, all or none.</span>
         </div>
       )}

@@ -1,14 +1,21 @@
+import { useForm } from 'react-hook-form';
 import { useNavigate } from 'react-router-dom';
-import { Button, FormAlert } from '../../../components/ui/form';
+import { Button } from '../../../components/ui/form';
+import { FormErrorAlert } from '../../../components/ui/form-fields';
 import { paths } from '../../../config/paths';
-import { ApiError } from '../../../lib/api-client';
+import { applyServerErrors, checkedResolver } from '../../../lib/form';
 import { useCreateCampaign } from '../api/campaigns';
-import { blankCampaign, createBody, type FormErrors } from '../lib/campaign-form';
-import { CampaignFields, useCampaignFormState } from './campaign-fields';
+import { blankCampaign, CAMPAIGN_FIELDS, createBody, fieldErrorList, type CampaignFormValues } from '../lib/campaign-form';
+import { CampaignFields } from './campaign-fields';
+
+const resolver = checkedResolver((values: CampaignFormValues) => {
+  const { body, errors } = createBody(values);
+  return { value: body, errors: fieldErrorList(errors) };
+});
 
 /** A new campaign in the project (editors and owners); opens it when created. */
 export function NewCampaignForm({ projectId, onCancel }: { projectId: string; onCancel: () => void }) {
-  const { values, errors, setErrors, set } = useCampaignFormState(blankCampaign);
+  const form = useForm({ resolver, defaultValues: blankCampaign });
   const create = useCreateCampaign(projectId);
   const navigate = useNavigate();
   return (
@@ -16,25 +23,15 @@ export function NewCampaignForm({ projectId, onCancel }: { projectId: string; on
       noValidate
       aria-label="New campaign"
       className="flex flex-col gap-3"
-      onSubmit={(e) => {
-        e.preventDefault();
-        const { body, errors: found } = createBody(values);
-        setErrors(found);
-        if (!body) return;
+      onSubmit={form.handleSubmit((body) =>
         create.mutate(body, {
           onSuccess: (c) => navigate(paths.campaign.getHref(c.id)),
-          onError: (err) => {
-            if (err instanceof ApiError && err.fieldErrors.length) {
-              const next: FormErrors = {};
-              for (const f of err.fieldErrors) next[(f.path.split('.')[0] || '(form)') as keyof FormErrors] ??= f.message;
-              setErrors(next);
-            } else setErrors({ '(form)': err.message });
-          },
-        });
-      }}
+          onError: (err) => applyServerErrors(form.setError, err, CAMPAIGN_FIELDS),
+        }),
+      )}
     >
-      <CampaignFields values={values} errors={errors} set={set} />
-      <FormAlert>{errors['(form)']}</FormAlert>
+      <CampaignFields control={form.control} />
+      <FormErrorAlert control={form.control} />
       <div className="flex gap-2">
         <Button type="submit" variant="primary" disabled={create.isPending}>
           {create.isPending ? 'Creating…' : 'Create campaign'}

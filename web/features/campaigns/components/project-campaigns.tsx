@@ -1,4 +1,5 @@
 import { useId, useState, type ReactNode } from 'react';
+import { useForm } from 'react-hook-form';
 import { Link } from 'react-router-dom';
 import { SafetyCaution } from '../../../components/ui/caution';
 import { Button } from '../../../components/ui/form';
@@ -87,7 +88,9 @@ function EeAt({ c, cell }: { c: ComparisonCampaign | undefined; cell: EeCell }) 
 /** The project's campaigns with their fitted ΔΔH‡ and the forecast at one chosen temperature, and a side-by-side comparison. */
 export function ProjectCampaigns({ projectId, canEdit }: { projectId: string; canEdit: boolean }) {
   const atId = useId();
-  const [atText, setAtText] = useState('−20');
+  // Checked as typed (the field turns red at once), so the form keeps no error state of its own.
+  const atForm = useForm({ defaultValues: { at: '−20' } });
+  const atText = atForm.watch('at');
   const [creating, setCreating] = useState(false);
   const [picked, setPicked] = useState<string[] | null>(null);
   const parsedAt = parseNumber(atText);
@@ -131,8 +134,7 @@ export function ProjectCampaigns({ projectId, canEdit }: { projectId: string; ca
                 <input
                   id={atId}
                   inputMode="decimal"
-                  value={atText}
-                  onChange={(e) => setAtText(e.target.value)}
+                  {...atForm.register('at')}
                   aria-invalid={!atValid || undefined}
                   aria-describedby={!atValid ? `${atId}-err` : undefined}
                   className={`tnum w-20 rounded border px-2 py-1 text-right text-sm ${atValid ? 'border-slate-300' : 'border-rose-600 bg-rose-50'}`}

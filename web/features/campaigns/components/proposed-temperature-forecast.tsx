@@ -1,9 +1,10 @@
 import { useId, useMemo, useState } from 'react';
+import { useForm } from 'react-hook-form';
 import { savedForecastCreateSchema, type TemperatureUnit } from '../../../../api/features/campaigns/schemas';
 import { SafetyCaution } from '../../../components/ui/caution';
 import { Button } from '../../../components/ui/form';
 import { StaleResult, useLastDefined, type StaleReason } from '../../../components/ui/stale';
-import { ApiError } from '../../../lib/api-client';
+import { applyServerErrors, errorAt, FORM_ERROR } from '../../../lib/form';
 import { enantiomericRatio, fixed, measureColumn, percent, sig, lnRatioOf, lnRatioRange } from '../../../lib/format';
 import { PredictionBox } from '../../../components/fit/prediction-box';
 import { useDeleteForecast, useForecasts, useSaveForecast } from '../api/forecasts';
@@ -23,6 +24,9 @@ import {
 } from '../../../../api/science/quantities';
 
 /** r, or a plain statement when it is beyond what a number can hold (far outside the data). */
+/** The fields of the save form; a server error on another path shows under the form. */
+const SAVE_FIELDS = ['label', 'notes', 'temperature'];
+
 const ratioText = (r: number | null) => (r === null ? 'beyond any representable number' : sig(r, 3));
 
 function toCelsius(value: number, unit: TemperatureUnit): number {
@@ -67,12 +71,14 @@ export function ProposedTemperatureForecastPanel({
   measure?: SelectivityMeasure;
 }) {
   const id = useId();
-  const [text, setText] = useState(atCelsius === null ? '' : String(atCelsius));
-  const [unit, setUnit] = useState<TemperatureUnit>('C');
-  const [error, setError] = useState<string | null>(null);
-  const [label, setLabel] = useState('');
-  const [notes, setNotes] = useState('');
-  const [saveErrors, setSaveErrors] = useState<Record<string, string>>({});
+  const atForm = useForm({ defaultValues: { text: atCelsius === null ? '' : String(atCelsius), unit: 'C' as TemperatureUnit } });
+  const [text, unit] = atForm.watch(['text', 'unit']);
+  const error = errorAt(atForm.formState.errors, 'text') ?? null;
+  const setError = (message: string | null) =>
+    message === null ? atForm.clearErrors('text') : atForm.setError('text', { type: 'validate', message });
+  const saveForm = useForm({ defaultValues: { label: '', notes: '' } });
+  const [label, notes] = saveForm.watch(['label', 'notes']);
+  const saveErrors = saveForm.formState.errors;
   const [savedNote, setSavedNote] = useState<string | null>(null);
   const save = useSaveForecast(campaignId);
 
@@ -122,24 +128,19 @@ export function ProposedTemperatureForecastPanel({
     if (!prediction) return;
     const body = { temperature: { value: prediction.celsius, unit: 'C' as const }, label, notes };
     const parsed = savedForecastCreateSchema.safeParse(body);
+    saveForm.clearErrors();
     if (!parsed.success) {
-      setSaveErrors(Object.fromEntries(parsed.error.issues.map((i) => [i.path[0] as string, i.message])));
+      for (const i of parsed.error.issues) saveForm.setError(String(i.path[0]) as 'label', { type: 'validate', message: i.message });
       return;
     }
-    setSaveErrors({});
     save.mutate(
       { body: parsed.data, weighting },
       {
         onSuccess: (f) => {
-          setLabel('');
-          setNotes('');
+          saveForm.reset();
           setSavedNote(`Saved the forecast at ${fixed(f.celsius, 1)} °C.`);
         },
-        onError: (err) => {
-          if (err instanceof ApiError && err.fieldErrors.length) {
-            setSaveErrors(Object.fromEntries(err.fieldErrors.map((e) => [e.path.split('.')[0], e.message])));
-          }
-        },
+        onError: (err) => applyServerErrors(saveForm.setError, err, SAVE_FIELDS),
       },
     );
   };
@@ -163,8 +164,7 @@ export function ProposedTemperatureForecastPanel({
               id={id}
               inputMode="decimal"
               autoComplete="off"
-              value={text}
-              onChange={(e) => setText(e.target.value)}
+              {...atForm.register('text')}
               placeholder="e.g. −30"
               aria-invalid={error ? true : undefined}
               aria-describedby={error ? `${id}-err` : undefined}
@@ -172,8 +172,7 @@ export function ProposedTemperatureForecastPanel({
             />
             <select
               aria-label="Unit of the forecast temperature"
-              value={unit}
-              onChange={(e) => setUnit(e.target.value as TemperatureUnit)}
+              {...atForm.register('unit')}
               className="rounded border border-slate-300 bg-white px-1 py-1 text-sm"
             >
               {(['C', 'K', 'F'] as const).map((u) => (
@@ -190,7 +189,7 @@ export function ProposedTemperatureForecastPanel({
         {atCelsius !== null && (
           <Button
             onClick={() => {
-              setText('');
+              atForm.setValue('text', '');
               onAt(null);
             }}
           >
@@ -232,15 +231,27 @@ export function ProposedTemperatureForecastPanel({
                 doSave();
               }}
             >
-              <SmallField label="Label (optional)" value={label} onChange={setLabel} error={saveErrors.label} width="w-48" />
-              <SmallField label="Note" value={notes} onChange={setNotes} error={saveErrors.notes} width="w-80" />
+              <SmallField
+                label="Label (optional)"
+                value={label}
+                onChange={(v) => saveForm.setValue('label', v)}
+                error={saveErrors.label?.message}
+                width="w-48"
+              />
+              <SmallField
+                label="Note"
+                value={notes}
+                onChange={(v) => saveForm.setValue('notes', v)}
+                error={saveErrors.notes?.message}
+                width="w-80"
+              />
               <Button type="submit" disabled={save.isPending}>
                 {save.isPending ? 'Saving…' : `Save forecast at ${fixed(shown.prediction.celsius, 1)} °C`}
               </Button>
-              {saveErrors.temperature && <p className="w-full text-xs text-rose-700">✕ {saveErrors.temperature}</p>}
-              {save.error && !(save.error instanceof ApiError && save.error.fieldErrors.length) && (
+              {errorAt(saveErrors, 'temperature') && <p className="w-full text-xs text-rose-700">✕ {errorAt(saveErrors, 'temperature')}</p>}
+              {errorAt(saveErrors, FORM_ERROR) && (
                 <p role="alert" className="w-full text-xs text-rose-700">
-                  ✕ {save.error.message}
+                  ✕ {errorAt(saveErrors, FORM_ERROR)}
                 </p>
               )}
               {savedNote && (

@@ -1,6 +1,7 @@
-import { useState } from 'react';
+import { useForm } from 'react-hook-form';
 import { Button, FormAlert } from '../../../components/ui/form';
-import { ApiError } from '../../../lib/api-client';
+import { FormErrorAlert } from '../../../components/ui/form-fields';
+import { applyServerErrors } from '../../../lib/form';
 import { useMembers } from '../../../lib/members';
 import { useSendReport } from '../api/report';
 
@@ -8,28 +9,23 @@ import { useSendReport } from '../api/report';
 export function ReportMailForm({ campaignId, projectId }: { campaignId: string; projectId: string }) {
   const members = useMembers(projectId);
   const send = useSendReport(campaignId);
-  const [chosen, setChosen] = useState<Set<string>>(new Set());
-  const [message, setMessage] = useState('');
+  const form = useForm({ defaultValues: { recipients: [] as string[], message: '' } });
+  const chosen = form.watch('recipients');
   const reachable = (members.data?.members ?? []).filter((m) => m.email);
-  const toggle = (id: string) =>
-    setChosen((prev) => {
-      const next = new Set(prev);
-      if (next.has(id)) next.delete(id);
-      else next.add(id);
-      return next;
-    });
-  const error =
-    send.error instanceof ApiError ? [send.error.message, ...send.error.fieldErrors.map((e) => e.message)].join(' ') : send.error?.message;
+  const toggle = (id: string) => form.setValue('recipients', chosen.includes(id) ? chosen.filter((c) => c !== id) : [...chosen, id]);
 
   if (members.isPending) return <p className="text-sm text-ink-500">Loading members…</p>;
   if (members.isError) return <FormAlert>{members.error.message}</FormAlert>;
   return (
     <form
       className="flex flex-col gap-3"
-      onSubmit={(e) => {
-        e.preventDefault();
-        send.mutate({ recipients: [...chosen], ...(message.trim() ? { message: message.trim() } : {}) });
-      }}
+      onSubmit={form.handleSubmit(({ recipients, message }) =>
+        send.mutate(
+          { recipients, ...(message.trim() ? { message: message.trim() } : {}) },
+          // No field here shows its own message: every problem goes to the alert below.
+          { onError: (e) => applyServerErrors(form.setError, e, []) },
+        ),
+      )}
     >
       <fieldset>
         <legend className="mb-1 text-sm font-medium text-ink-800">Send the workbook and the summary PDF to</legend>
@@ -38,7 +34,7 @@ export function ReportMailForm({ campaignId, projectId }: { campaignId: string; 
           {reachable.map((m) => (
             <li key={m.userId}>
               <label className="flex items-center gap-1.5 text-sm text-ink-800">
-                <input type="checkbox" checked={chosen.has(m.userId)} onChange={() => toggle(m.userId)} />
+                <input type="checkbox" checked={chosen.includes(m.userId)} onChange={() => toggle(m.userId)} />
                 {m.displayName ?? m.login}
               </label>
             </li>
@@ -47,16 +43,10 @@ export function ReportMailForm({ campaignId, projectId }: { campaignId: string; 
       </fieldset>
       <label className="flex flex-col gap-1 text-sm text-ink-800">
         Note for the recipients (optional)
-        <textarea
-          className="rounded border border-slate-300 px-2 py-1 text-sm"
-          rows={2}
-          maxLength={2000}
-          value={message}
-          onChange={(e) => setMessage(e.target.value)}
-        />
+        <textarea className="rounded border border-slate-300 px-2 py-1 text-sm" rows={2} maxLength={2000} {...form.register('message')} />
       </label>
       <div className="flex flex-wrap items-center gap-3">
-        <Button type="submit" variant="primary" disabled={chosen.size === 0 || send.isPending}>
+        <Button type="submit" variant="primary" disabled={chosen.length === 0 || send.isPending}>
           {send.isPending ? 'Sending…' : 'Send the report'}
         </Button>
         {send.isSuccess && (
@@ -65,7 +55,7 @@ export function ReportMailForm({ campaignId, projectId }: { campaignId: string; 
           </span>
         )}
       </div>
-      <FormAlert>{error}</FormAlert>
+      <FormErrorAlert control={form.control} />
     </form>
   );
 }

@@ -1,13 +1,14 @@
-import { useId, useRef, useState } from 'react';
+import { useEffect, useId, useReducer, useRef, useState, type RefObject } from 'react';
 import type { ImportParseOptions } from '../../../../api/features/campaigns/schemas';
 import { Button } from '../../../components/ui/form';
 import { ApiError } from '../../../lib/api-client';
 import { fixed } from '../../../lib/format';
 import { useImportFile, usePreviewImport } from '../api/imports';
-import type { ImportIssue, ImportPreview, ImportResult } from '../api/types';
-import { draftFromSuggestion, mappingFromDraft, type MappingDraft } from '../lib/import-mapping';
+import type { ImportIssue, ImportPreview } from '../api/types';
+import { draftFromSuggestion, mappingFromDraft } from '../lib/import-mapping';
 import { CELSIUS, MEASURE_LABEL } from '../lib/labels';
 import type { UploadProgress } from '../lib/upload';
+import { initialUpload, uploadReducer } from '../lib/upload-steps';
 import { SECONDS_PER } from '../../../../api/science/quantities';
 import { ColumnMappingStep } from './column-mapping-step';
 import { recordLinks } from '../api/records';
@@ -59,77 +60,75 @@ export function ProgressLine({ progress, label }: { progress: UploadProgress | n
  */
 export function UploadWizard({ campaignId, projectId }: { campaignId: string; projectId: string }) {
   const fileId = useId();
-  const [file, setFile] = useState<File | null>(null);
+  const [state, dispatch] = useReducer(uploadReducer, initialUpload);
+  const { file, parse, draft, acknowledge, importIssues, done } = state;
   const [progress, setProgress] = useState<UploadProgress | null>(null);
-  const [parse, setParse] = useState<ImportParseOptions>({});
-  const [draft, setDraft] = useState<MappingDraft | null>(null);
-  const [checkedDraft, setCheckedDraft] = useState<string | null>(null);
-  const [acknowledge, setAcknowledge] = useState(false);
-  const [importIssues, setImportIssues] = useState<ImportIssue[] | null>(null);
-  const [done, setDone] = useState<ImportResult | null>(null);
   const abort = useRef<AbortController | null>(null);
   const nextSignal = () => {
     abort.current = new AbortController();
     return abort.current.signal;
   };
   const preview = usePreviewImport(campaignId, setProgress);
-  const importer = useImportFile(campaignId, projectId, setProgress);
+  const importer = useImportFile(campaignId, projectId, (p) => {
+    setProgress(p);
+    // Work reported in stages is a background job on the server (a large file).
+    if (p.stage) dispatch({ type: 'jobQueued' });
+  });
+  const stepRef = useRef<HTMLElement | null>(null);
+  // Keyboard and screen-reader users land on what the new step shows.
+  useEffect(() => {
+    if (state.step === 'check' || state.step === 'confirm' || state.step === 'done') stepRef.current?.focus();
+  }, [state.step]);
 
   const mapped = draft ? mappingFromDraft(draft) : null;
   const data: ImportPreview | undefined = preview.data;
-  const draftKey = JSON.stringify({ draft, parse });
-  const checked = data && checkedDraft === draftKey && data.mapping !== null;
+  const checked = data && (state.step === 'check' || state.step === 'confirm' || state.step === 'importing' || state.step === 'job');
 
-  const runPreview = (f: File, nextParse: ImportParseOptions, withMapping: boolean) => {
-    setImportIssues(null);
-    setDone(null);
+  const runPreview = (f: File, nextParse: ImportParseOptions, revision: number, withMapping: boolean) => {
     const mapping = withMapping && mapped?.mapping ? mapped.mapping : undefined;
     preview.mutate(
       { file: f, request: { parse: nextParse, ...(mapping ? { mapping } : {}) }, signal: nextSignal() },
       {
-        onSuccess: (p) => {
-          // The first look at a file (or new parse options) starts the form from the header guess.
-          const nextDraft = withMapping && draft ? draft : draftFromSuggestion(p.suggestedMapping);
-          setDraft(nextDraft);
-          setCheckedDraft(p.mapping ? JSON.stringify({ draft: nextDraft, parse: nextParse }) : null);
-        },
+        onSuccess: (p) =>
+          dispatch({
+            type: 'previewed',
+            revision,
+            suggested: draftFromSuggestion(p.suggestedMapping),
+            checked: p.mapping ? { errorCount: p.errorCount, warningCount: p.warningCount, validRowCount: p.validRowCount } : null,
+          }),
         onSettled: () => setProgress(null),
       },
     );
   };
 
   const choose = (f: File | null) => {
-    setFile(f);
-    setParse({});
-    setDraft(null);
-    setCheckedDraft(null);
-    setAcknowledge(false);
-    setDone(null);
+    dispatch({ type: 'chosen', file: f });
     preview.reset();
     importer.reset();
-    if (f) runPreview(f, {}, false);
+    // The reducer bumps the revision by one on every choice.
+    if (f) runPreview(f, {}, state.revision + 1, false);
   };
 
   const setParseOption = (next: ImportParseOptions) => {
-    setParse(next);
-    if (file) runPreview(file, next, false);
+    dispatch({ type: 'parseChanged', parse: next });
+    if (file) runPreview(file, next, state.revision + 1, false);
   };
 
   const doImport = () => {
-    if (!file || !mapped?.mapping) return;
-    setImportIssues(null);
+    if (!file || !mapped?.mapping || state.step !== 'confirm') return;
+    dispatch({ type: 'importStarted' });
     importer.mutate(
       { file, request: { mapping: mapped.mapping, parse, acknowledgeWarnings: acknowledge }, signal: nextSignal() },
       {
         onSuccess: (result) => {
-          setDone(result);
-          setFile(null);
-          setDraft(null);
+          dispatch({ type: 'imported', result });
           preview.reset();
         },
-        onError: (err) => {
-          if (err instanceof ApiError && Array.isArray(err.problem.issues)) setImportIssues(err.problem.issues as ImportIssue[]);
-        },
+        onError: (err) =>
+          dispatch({
+            type: 'importRefused',
+            issues: err instanceof ApiError && Array.isArray(err.problem.issues) ? (err.problem.issues as ImportIssue[]) : null,
+          }),
         onSettled: () => setProgress(null),
       },
     );
@@ -165,7 +164,14 @@ export function UploadWizard({ campaignId, projectId }: { campaignId: string; pr
         </div>
       )}
       {done && (
-        <p role="status" className="tnum rounded border border-fjord-600/40 bg-fjord-50 px-3 py-2 text-sm text-ink-900">
+        <p
+          ref={(el) => {
+            stepRef.current = el;
+          }}
+          tabIndex={-1}
+          role="status"
+          className="tnum rounded border border-fjord-600/40 bg-fjord-50 px-3 py-2 text-sm text-ink-900"
+        >
           <span aria-hidden="true">✓ </span>Imported {done.inserted} row{done.inserted === 1 ? '' : 's'} at {done.distinctTemperatures}{' '}
           temperature
           {done.distinctTemperatures === 1 ? '' : 's'}, {fixed(done.temperatureRangeK.min - CELSIUS, 1)} to{' '}
@@ -241,19 +247,16 @@ export function UploadWizard({ campaignId, projectId }: { campaignId: string; pr
             columns={data.columns}
             draft={draft}
             errors={mapped.errors}
-            onChange={(d) => {
-              setDraft(d);
-              setAcknowledge(false);
-            }}
+            onChange={(d) => dispatch({ type: 'mappingEdited', draft: d })}
           />
           <div className="flex flex-wrap items-center gap-2">
-            <Button disabled={!mapped.mapping || busy} onClick={() => file && runPreview(file, parse, true)}>
+            <Button disabled={!mapped.mapping || busy} onClick={() => file && runPreview(file, parse, state.revision, true)}>
               Check all rows with this mapping
             </Button>
             {!checked && mapped.mapping && <span className="text-xs text-ink-600">Check the rows before importing.</span>}
           </div>
 
-          {checked && <PreviewSummary preview={data} />}
+          {checked && <PreviewSummary preview={data} focusRef={stepRef} />}
           {issues.length > 0 && (
             <IssueTable issues={issues} total={importIssues || !checked ? issues.length : data.errorCount + data.warningCount} />
           )}
@@ -261,16 +264,16 @@ export function UploadWizard({ campaignId, projectId }: { campaignId: string; pr
             <div className="flex flex-col gap-2">
               {data.warningCount > 0 && data.errorCount === 0 && (
                 <label className="flex items-center gap-2 text-sm text-ink-800">
-                  <input type="checkbox" checked={acknowledge} onChange={(e) => setAcknowledge(e.target.checked)} />I have read the{' '}
-                  {data.warningCount} warning{data.warningCount === 1 ? '' : 's'} and want to import anyway
+                  <input
+                    type="checkbox"
+                    checked={acknowledge}
+                    onChange={(e) => dispatch({ type: 'acknowledged', value: e.target.checked })}
+                  />
+                  I have read the {data.warningCount} warning{data.warningCount === 1 ? '' : 's'} and want to import anyway
                 </label>
               )}
               <div className="flex items-center gap-3">
-                <Button
-                  variant="primary"
-                  disabled={busy || data.errorCount > 0 || data.validRowCount === 0 || (data.warningCount > 0 && !acknowledge)}
-                  onClick={doImport}
-                >
+                <Button variant="primary" disabled={busy || state.step !== 'confirm'} onClick={doImport}>
                   Import {data.validRowCount} row{data.validRowCount === 1 ? '' : 's'}
                 </Button>
                 <span className="text-xs text-ink-600">
@@ -327,9 +330,16 @@ function ParseSelect({
   );
 }
 
-function PreviewSummary({ preview }: { preview: ImportPreview }) {
+function PreviewSummary({ preview, focusRef }: { preview: ImportPreview; focusRef: RefObject<HTMLElement | null> }) {
   return (
-    <section aria-label="Import preview" className="flex flex-col gap-2">
+    <section
+      ref={(el) => {
+        focusRef.current = el;
+      }}
+      tabIndex={-1}
+      aria-label="Import preview"
+      className="flex flex-col gap-2 focus:outline-none focus-visible:ring-2 focus-visible:ring-fjord-600"
+    >
       <p className="tnum text-sm text-ink-800">
         <span className="font-medium">{preview.validRowCount}</span> of {preview.rowCount} rows ready ·{' '}
         <span className={preview.errorCount ? 'font-medium text-rose-700' : ''}>

@@ -8,6 +8,7 @@ import {
   type CampaignUpdate,
   type SelectivityMeasure,
 } from '../../../../api/features/campaigns/schemas';
+import type { FieldError } from '../../../lib/api-client';
 import type { Campaign } from '../api/types';
 import { parseNumber } from './grid';
 
@@ -108,3 +109,11 @@ export function updateBody(c: Campaign, v: CampaignFormValues): { body: Campaign
   const parsed = campaignUpdateSchema.safeParse(changed);
   return parsed.success ? { body: parsed.data, errors: {} } : { body: null, errors: issuesToErrors(parsed.error.issues) };
 }
+
+/** The form's errors as `{ path, message }` pairs ('(form)' is the form's own message, path ''). */
+export function fieldErrorList(errors: FormErrors): FieldError[] {
+  return Object.entries(errors).map(([path, message]) => ({ path: path === '(form)' ? '' : path, message: message ?? '' }));
+}
+
+/** Every field of the form, for `applyServerErrors`: a server path below one of them lands on it. */
+export const CAMPAIGN_FIELDS = Object.keys(blankCampaign) as (keyof CampaignFormValues)[];

@@ -319,18 +319,33 @@ export function pasteBlock(
 export function batchErrorsToCells(
   errors: { path: string; message: string }[],
   sentKeys: string[],
-): { byKey: Record<string, CellErrors>; other: string[] } {
+): { byKey: Record<string, CellErrors>; other: string[]; rowOther: Record<string, string> } {
   const byKey: Record<string, CellErrors> = {};
   const other: string[] = [];
+  // Messages about a sent row that name none of its cells (e.g. its id), by that row's key.
+  const rowOther: Record<string, string> = {};
   for (const e of errors) {
     const m = /^measurements[.[](\d+)\]?\.?(.*)$/.exec(e.path);
     const key = m ? sentKeys[Number(m[1])] : undefined;
     const col = m ? columnOfPath(m[2]) : null;
     if (key && col) {
       byKey[key] = { ...byKey[key], [col]: (byKey[key]?.[col] ? `${byKey[key]![col]}; ` : '') + tidy(m![2], e.message) };
-    } else other.push(m && key ? `row ${Number(m[1]) + 1}: ${e.message}` : e.message);
+    } else {
+      other.push(m && key ? `row ${Number(m[1]) + 1}: ${e.message}` : e.message);
+      if (key) rowOther[key] = rowOther[key] ? `${rowOther[key]} ${e.message}` : e.message;
+    }
   }
-  return { byKey, other };
+  return { byKey, other, rowOther };
+}
+
+/** The keys of the rows a batched change's 409 names in `staleRows[].path` ("measurements.<i>"). */
+export function staleRowKeys(problem: Record<string, unknown>, sentKeys: string[]): string[] {
+  const stale = Array.isArray(problem.staleRows) ? (problem.staleRows as { path?: unknown }[]) : [];
+  return stale.flatMap((s) => {
+    const m = typeof s.path === 'string' ? /^measurements\.(\d+)$/.exec(s.path) : null;
+    const key = m ? sentKeys[Number(m[1])] : undefined;
+    return key ? [key] : [];
+  });
 }
 
 /** Server errors of a single-row request (paths relative to the row) onto its cells. */

@@ -1,4 +1,5 @@
-import { useState, type FormEvent } from 'react';
+import { useEffect, useState, type FormEvent } from 'react';
+import { useForm } from 'react-hook-form';
 import { Link } from 'react-router-dom';
 import { SafetyCaution } from '../../../components/ui/caution';
 import { paths } from '../../../config/paths';
@@ -173,11 +174,19 @@ export function PlannerPanel({ campaignId, projectId, canEdit }: { campaignId: s
   const spec = useCampaignSpecification(campaignId);
   const plan = useCampaignPlan(campaignId);
   const save = useSavePlan(campaignId);
-  const [form, setForm] = useState<FormState | null>(null);
-  // The form starts from the saved plan once both have loaded (state adjusted during render, not in an effect).
-  if (form === null && spec.data !== undefined && plan.data !== undefined) setForm(fromPlan(plan.data, spec.data.effective));
+  // The form starts from the saved plan once it and the specification have loaded (never again on a refetch).
+  const methods = useForm<FormState>();
+  const [loaded, setLoaded] = useState(false);
+  useEffect(() => {
+    if (!loaded && spec.data !== undefined && plan.data !== undefined) {
+      methods.reset(fromPlan(plan.data, spec.data.effective));
+      setLoaded(true);
+    }
+  }, [loaded, methods, spec.data, plan.data]);
+  const values = methods.watch();
+  const form = loaded ? values : null;
   const errors = fieldErrors(save.error);
-  const set = (k: keyof FormState) => (v: string) => setForm((f) => (f ? { ...f, [k]: v } : f));
+  const set = (k: keyof FormState) => (v: string) => methods.setValue(k, v as never);
 
   const onSubmit = (e: FormEvent) => {
     e.preventDefault();
@@ -199,7 +208,7 @@ export function PlannerPanel({ campaignId, projectId, canEdit }: { campaignId: s
                 aria-label="Specification measure"
                 className={selectClass}
                 value={form.measure}
-                onChange={(e) => setForm({ ...form, measure: e.target.value as Measure })}
+                onChange={(e) => methods.setValue('measure', e.target.value as Measure)}
               >
                 {MEASURES.map((m) => (
                   <option key={m.value} value={m.value}>
@@ -295,7 +304,7 @@ export function PlannerPanel({ campaignId, projectId, canEdit }: { campaignId: s
               hint="in the specification's units; empty: from the runs"
             />
             <label className="flex items-center gap-2 self-center text-sm text-ink-800">
-              <input type="checkbox" checked={form.atProbability} onChange={(e) => setForm({ ...form, atProbability: e.target.checked })} />
+              <input type="checkbox" checked={form.atProbability} onChange={(e) => methods.setValue('atProbability', e.target.checked)} />
               Apply time and hold limits with the specification's confidence
             </label>
           </div>
@@ -304,7 +313,7 @@ export function PlannerPanel({ campaignId, projectId, canEdit }: { campaignId: s
               legend="Recommend"
               name="plan-rule"
               value={form.rule}
-              onChange={(v) => setForm({ ...form, rule: v })}
+              onChange={(v) => methods.setValue('rule', v)}
               options={[
                 { value: 'warmest', label: 'Warmest feasible' },
                 { value: 'coldest', label: 'Coldest feasible' },

@@ -1,12 +1,13 @@
 import { useNavigate } from 'react-router-dom';
 import { projectFieldsSchema } from '../../../../api/features/projects/schemas';
-import { Button, FormAlert, TextField } from '../../../components/ui/form';
+import { Button } from '../../../components/ui/form';
+import { FormErrorAlert, FormTextField } from '../../../components/ui/form-fields';
 import { paths } from '../../../config/paths';
-import { useSchemaForm } from '../../../lib/use-schema-form';
+import { applyServerErrors, useZodForm } from '../../../lib/form';
 import { useCreateProject } from '../api/projects';
 
 export function CreateProjectForm() {
-  const form = useSchemaForm(projectFieldsSchema, { name: '', description: '' });
+  const form = useZodForm(projectFieldsSchema, { name: '', description: '' });
   const create = useCreateProject();
   const navigate = useNavigate();
   return (
@@ -14,23 +15,21 @@ export function CreateProjectForm() {
       noValidate
       aria-label="New project"
       className="grid gap-3"
-      onSubmit={(e) => {
-        e.preventDefault();
-        const input = form.check();
-        if (!input) return;
-        create.mutate(input, { onSuccess: (p) => navigate(paths.project.getHref(p.id)), onError: form.fromServer });
-      }}
+      onSubmit={form.handleSubmit((input) =>
+        create.mutate(input, {
+          onSuccess: (p) => navigate(paths.project.getHref(p.id)),
+          onError: (e) => applyServerErrors(form.setError, e, ['name', 'description']),
+        }),
+      )}
     >
-      <TextField name="name" label="Name" value={form.values.name} onChange={form.set('name')} error={form.errors.name} />
-      <TextField
+      <FormTextField control={form.control} name="name" label="Name" />
+      <FormTextField
+        control={form.control}
         name="description"
         label="Description"
-        value={form.values.description ?? ''}
-        onChange={form.set('description')}
-        error={form.errors.description}
         hint="Optional: the step, the specification, the team."
       />
-      <FormAlert>{form.formError}</FormAlert>
+      <FormErrorAlert control={form.control} />
       <div>
         <Button type="submit" variant="primary" disabled={create.isPending}>
           Create project

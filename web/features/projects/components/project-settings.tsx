@@ -1,10 +1,11 @@
 import { useState } from 'react';
 import { Link, useNavigate } from 'react-router-dom';
-import { invitationSchema, projectDetailsSchema, type ProjectRole } from '../../../../api/features/projects/schemas';
-import { Button, FormAlert, SelectField, TextField } from '../../../components/ui/form';
+import { invitationSchema, projectDetailsSchema, type InvitationFields, type ProjectRole } from '../../../../api/features/projects/schemas';
+import { Button, FormAlert, SelectField } from '../../../components/ui/form';
+import { FormErrorAlert, FormSelectField, FormTextField } from '../../../components/ui/form-fields';
 import { Panel } from '../../../components/ui/page';
 import { paths } from '../../../config/paths';
-import { useSchemaForm } from '../../../lib/use-schema-form';
+import { applyServerErrors, useZodForm } from '../../../lib/form';
 import { useCreateInvitation, useInvitations, useRevokeInvitation } from '../api/invitations';
 import { useChangeMemberRole, useLeaveProject, useMembers, useRemoveMember } from '../../../lib/members';
 import { useDeleteProject, useUpdateProject, type Project } from '../api/projects';
@@ -13,29 +14,24 @@ import { RoleBadge, roleMeaning, roleOptions } from '../../../components/ui/role
 const dateFormat = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium' });
 
 function DetailsForm({ project }: { project: Project }) {
-  const form = useSchemaForm(projectDetailsSchema, { name: project.name, description: project.description });
+  const form = useZodForm(projectDetailsSchema, { name: project.name, description: project.description });
   const update = useUpdateProject(project.id);
   return (
     <form
       noValidate
       aria-label="Project details"
       className="grid gap-3"
-      onSubmit={(e) => {
-        e.preventDefault();
-        const input = form.check();
-        // The version the page was loaded at: someone else's change in between is a 409, shown above the buttons.
-        if (input) update.mutate({ ...input, version: project.version }, { onError: form.fromServer });
-      }}
+      // The version the page was loaded at: someone else's change in between is a 409, shown above the buttons.
+      onSubmit={form.handleSubmit((input) =>
+        update.mutate(
+          { ...input, version: project.version },
+          { onError: (e) => applyServerErrors(form.setError, e, ['name', 'description']) },
+        ),
+      )}
     >
-      <TextField name="name" label="Name" value={form.values.name ?? ''} onChange={form.set('name')} error={form.errors.name} />
-      <TextField
-        name="description"
-        label="Description"
-        value={form.values.description ?? ''}
-        onChange={form.set('description')}
-        error={form.errors.description}
-      />
-      <FormAlert>{form.formError}</FormAlert>
+      <FormTextField control={form.control} name="name" label="Name" />
+      <FormTextField control={form.control} name="description" label="Description" />
+      <FormErrorAlert control={form.control} />
       <div className="flex items-center gap-3">
         <Button type="submit" variant="primary" disabled={update.isPending}>
           Save details
@@ -162,7 +158,7 @@ function Invitations({ project }: { project: Project }) {
   const invitations = useInvitations(project.id, true);
   const create = useCreateInvitation(project.id);
   const revoke = useRevokeInvitation(project.id);
-  const form = useSchemaForm(invitationSchema, { email: '', role: 'viewer' as ProjectRole });
+  const form = useZodForm(invitationSchema, { email: '', role: 'viewer' as ProjectRole });
   const [sentTo, setSentTo] = useState<string | null>(null);
   return (
     <div className="grid gap-4 md:grid-cols-2">
@@ -170,38 +166,20 @@ function Invitations({ project }: { project: Project }) {
         noValidate
         aria-label="Invite by e-mail"
         className="grid content-start gap-3"
-        onSubmit={(e) => {
-          e.preventDefault();
-          const input = form.check();
-          if (!input) return;
+        onSubmit={form.handleSubmit((input) => {
           setSentTo(null);
           create.mutate(input, {
             onSuccess: () => {
               setSentTo(input.email);
               form.reset();
             },
-            onError: form.fromServer,
+            onError: (e) => applyServerErrors(form.setError, e, ['email', 'role']),
           });
-        }}
+        })}
       >
-        <TextField
-          name="email"
-          type="email"
-          inputMode="email"
-          label="E-mail address"
-          value={form.values.email}
-          onChange={form.set('email')}
-          error={form.errors.email}
-        />
-        <SelectField
-          name="role"
-          label="Role"
-          value={form.values.role as ProjectRole}
-          options={roleOptions}
-          onChange={form.set('role')}
-          error={form.errors.role}
-        />
-        <FormAlert>{form.formError}</FormAlert>
+        <FormTextField control={form.control} name="email" type="email" inputMode="email" label="E-mail address" />
+        <FormSelectField<InvitationFields, ProjectRole> control={form.control} name="role" label="Role" options={roleOptions} />
+        <FormErrorAlert control={form.control} />
         <div className="flex items-center gap-3">
           <Button type="submit" variant="primary" disabled={create.isPending}>
             Send invitation

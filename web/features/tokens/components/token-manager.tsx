@@ -1,8 +1,9 @@
 import { useState } from 'react';
 import { createTokenSchema, TOKEN_MAX_DAYS } from '../../../../api/features/tokens/schemas';
-import { Button, FormAlert, TextField } from '../../../components/ui/form';
+import { Button } from '../../../components/ui/form';
+import { FormErrorAlert, FormTextField } from '../../../components/ui/form-fields';
 import { Panel } from '../../../components/ui/page';
-import { useSchemaForm } from '../../../lib/use-schema-form';
+import { applyServerErrors, useZodForm } from '../../../lib/form';
 import { useCreateToken, useRevokeToken, useTokens, type ApiTokenInfo } from '../api/tokens';
 
 const dateFormat = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium' });
@@ -43,7 +44,7 @@ export function TokenManager() {
   const tokens = useTokens();
   const create = useCreateToken();
   const revoke = useRevokeToken();
-  const form = useSchemaForm(createTokenSchema, { name: '', expiresInDays: '30' });
+  const form = useZodForm(createTokenSchema, { name: '', expiresInDays: '30' });
   const [created, setCreated] = useState<{ name: string; secret: string } | null>(null);
   return (
     <div className="grid gap-4 lg:grid-cols-[1fr_340px]">
@@ -113,37 +114,25 @@ export function TokenManager() {
           noValidate
           aria-label="New API token"
           className="grid gap-3"
-          onSubmit={(e) => {
-            e.preventDefault();
-            const input = form.check();
-            if (!input) return;
+          onSubmit={form.handleSubmit((input) =>
             create.mutate(input, {
               onSuccess: (r) => {
                 setCreated({ name: r.token.name, secret: r.secret });
                 form.reset();
               },
-              onError: form.fromServer,
-            });
-          }}
+              onError: (e) => applyServerErrors(form.setError, e, ['name', 'expiresInDays']),
+            }),
+          )}
         >
-          <TextField
-            name="name"
-            label="Name"
-            value={form.values.name}
-            onChange={form.set('name')}
-            error={form.errors.name}
-            hint="What will use it, e.g. “nightly export script”."
-          />
-          <TextField
+          <FormTextField control={form.control} name="name" label="Name" hint="What will use it, e.g. “nightly export script”." />
+          <FormTextField
+            control={form.control}
             name="expiresInDays"
             label="Expires after (days)"
             inputMode="numeric"
-            value={String(form.values.expiresInDays ?? '')}
-            onChange={form.set('expiresInDays')}
-            error={form.errors.expiresInDays}
             hint={`1 to ${TOKEN_MAX_DAYS} days.`}
           />
-          <FormAlert>{form.formError}</FormAlert>
+          <FormErrorAlert control={form.control} />
           <div>
             <Button type="submit" variant="primary" disabled={create.isPending}>
               Create token
