@@ -5,7 +5,7 @@ import { signInEach, startAuthApp, type AuthTestApp, type SignedInRequests } fro
 import { createUser } from '../factories/users';
 import { createProject } from '../factories/projects';
 import { sample } from '../unit/imports/helpers';
-import { loadReportData } from '../../api/features/campaigns/analysis';
+import { loadReportData } from '../../api/features/campaigns/report-data';
 import type { User } from '../../api/models/user';
 import type { Project } from '../../api/models/project';
 

@@ -385,7 +385,7 @@ describe('campaign pages in Chromium', () => {
       const lnR = 1200 / temperatureK - 1.2 + (i % 2 ? 0.03 : -0.03);
       return { campaignId: campaign.id, temperatureK, measure: 'ee' as const, value: Math.round(10000 * Math.tanh(lnR / 2)) / 100 };
     });
-    await Measurement.query().insert(runs);
+    await Measurement.query(testKnex()).insert(runs);
 
     await signInAs(page, baseUrl, who, `/campaigns/${campaign.id}`);
     const parameters = page.getByRole('region', { name: 'Fitted parameters' });

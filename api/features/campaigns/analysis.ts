@@ -2,28 +2,26 @@
  * Analysis of a stored campaign: its measurements go through the same engine call as POST
  * /api/v1/fit (`analyseScreen`), so the numbers are identical for identical data. Adds what a
  * stored campaign knows and the calculator does not: exclusions with reasons, "at least" runs
- * (censored as bounds), the campaign's default assay precision for runs without their own,
- * saved forecasts compared with runs measured later, and a side-by-side of a project's campaigns.
+ * (censored as bounds) and the campaign's default assay precision for runs without their own.
+ * Saved forecasts live in `analysis-forecasts.ts`, the side-by-side of a project's campaigns in
+ * `analysis-comparison.ts` and what the report reads in `report-data.ts`.
  */
 import type { Knex } from 'knex';
 import { createHash } from 'node:crypto';
 import { LRUCache } from 'lru-cache';
 import { SIGN_CONVENTION, kelvinToCelsius, parseSelectivity, sigmaLnRatio, type EyringMeasurement } from '../../science';
-import { BadRequestError, NotFoundError, UnprocessableError } from '../../lib/errors';
+import { BadRequestError } from '../../lib/errors';
 import { quantitationLimitProblem } from '../calculators/schemas';
 import { medianUncertainty } from '../../science/assay-precision';
-import { Campaign } from '../../models/campaign';
+import type { Campaign } from '../../models/campaign';
 import { Measurement } from '../../models/measurement';
-import { SavedForecast } from '../../models/saved-forecast';
 import { SELECTIVITY_CAUTION } from '../../lib/cautions';
 import { analyseScreen, type FitOptions } from '../calculators/fit';
 import type { FitResponse } from '../calculators/schemas';
-import type { AnalysisPoint, AnalysisQuery, AnalysisResponse, ComparisonResponse, SavedForecastView } from './analysis-schemas';
-import { getCampaign, isUuid, saveForecast, signOffOf, type ProjectActor } from './service';
-import { toKelvin, type SavedForecastCreate } from './schemas';
+import type { AnalysisPoint, AnalysisQuery, AnalysisResponse } from './analysis-schemas';
+import { getCampaign } from './service';
+import { toKelvin } from './schemas';
 import { eeFromLnRatio } from '../../science/quantities';
-
-type FitPrediction = FitResponse['predictions'][number];
 
 /** Shown beside every forecast and in every export (api/science/README.md §9). */
 /** Temperatures in the fitted-line curve, spaced evenly in 1/T. */
@@ -54,7 +52,7 @@ export const ANALYSED_COLUMNS = [
 export type AnalysedMeasurement = Pick<Measurement, (typeof ANALYSED_COLUMNS)[number]>;
 
 /** The stored selectivity as the engine reads it. */
-function selectivityOf(m: Pick<Measurement, 'measure' | 'value' | 'valueB'>) {
+export function selectivityOf(m: Pick<Measurement, 'measure' | 'value' | 'valueB'>) {
   return { measure: m.measure, value: m.valueB === null ? m.value : `${m.value}:${m.valueB}` };
 }
 
@@ -266,7 +264,7 @@ function explainProblem(err: Error & { code: string }, measurements: readonly An
 }
 
 /** Load a campaign of the project with its runs in display order. */
-async function loadCampaignData(
+export async function loadCampaignData(
   db: Knex,
   projectId: string,
   campaignId: string,
@@ -345,195 +343,4 @@ export async function serialisedCampaignAnalysis(
   const entry = { etag: `W/"a-${createHash('sha256').update(key).digest('base64url').slice(0, 27)}"`, body };
   analysisCache.set(key, entry);
   return entry;
-}
-
-// ── Saved forecasts ────────────────────────────────────────────────────────────────────────
-
-/** What is stored in saved_forecasts.result: the prediction and what it was computed from. */
-interface ForecastSnapshot {
-  prediction: FitPrediction;
-  basis: {
-    campaignVersion: number;
-    measurementCount: number;
-    n: number;
-    weighting: FitResponse['weighting'];
-    confidence: number;
-    ddH: { 'kJ/mol': number };
-    ddS: { 'J/(mol*K)': number };
-    preferred: 'one-line' | 'two-branch' | null;
-    warnings: string[];
-  };
-}
-
-/** Compute the prediction from the stored runs as they are now and keep it (never a client-sent result). */
-export async function saveCampaignForecast(
-  db: Knex,
-  actor: ProjectActor,
-  campaignId: string,
-  input: SavedForecastCreate,
-  fitOptions: AnalysisOptions,
-): Promise<SavedForecastView> {
-  const { campaign, measurements } = await loadCampaignData(db, actor.projectId, campaignId);
-  const temperatureK = toKelvin(input.temperature.value, input.temperature.unit);
-  const analysis = computeAnalysis(campaign, measurements, { ...fitOptions, atK: temperatureK });
-  if (!analysis.fit || !analysis.at) {
-    throw new UnprocessableError(
-      `No forecast can be made from this campaign yet: ${analysis.problem?.message ?? 'the data cannot be fitted'}`,
-      [{ path: 'temperature', message: analysis.problem?.message ?? 'no fit' }],
-    );
-  }
-  const { fit } = analysis;
-  const snapshot: ForecastSnapshot = {
-    prediction: analysis.at,
-    basis: {
-      campaignVersion: campaign.version,
-      measurementCount: measurements.length,
-      n: fit.n,
-      weighting: fit.weighting,
-      confidence: fit.confidence,
-      ddH: { 'kJ/mol': fit.ddH['kJ/mol'] },
-      ddS: { 'J/(mol*K)': fit.ddS['J/(mol*K)'] },
-      preferred: fit.twoBranch?.preferred ?? null,
-      warnings: fit.warnings.map((w) => w.code),
-    },
-  };
-  const saved = await saveForecast(db, actor, campaignId, {
-    temperatureK,
-    label: input.label,
-    notes: input.notes,
-    result: snapshot as unknown as Record<string, unknown>,
-  });
-  const [view] = await forecastViews(db, campaign, [saved], measurements);
-  return view!;
-}
-
-/** Lower-bound runs can only contradict an interval (by lying above it), never confirm one. */
-function insideInterval(prediction: FitPrediction, m: Measurement, ratio: number): boolean | null {
-  const interval = prediction.predictionInterval?.ratio;
-  if (!interval) return null;
-  // A null end is r beyond the representable range: 0 below, unbounded above.
-  const a = interval[0] ?? 0;
-  const b = interval[1] ?? Infinity;
-  const [lo, hi] = a <= b ? [a, b] : [b, a];
-  if (m.isLowerBound) {
-    const beyond = ratio >= 1 ? ratio > hi : ratio < lo;
-    return beyond ? false : null;
-  }
-  return ratio >= lo && ratio <= hi;
-}
-
-async function forecastViews(
-  db: Knex,
-  campaign: Campaign,
-  forecasts: SavedForecast[],
-  measurements: Measurement[],
-): Promise<SavedForecastView[]> {
-  const userIds = [...new Set(forecasts.map((f) => f.createdByUserId).filter((id): id is string => id !== null))];
-  const users: { id: string; login: string; displayName: string | null }[] = userIds.length
-    ? await db('users').whereIn('id', userIds).select('id', 'login', 'displayName')
-    : [];
-  const byId = new Map(users.map((u) => [u.id, u]));
-  const included = measurements.filter((m) => !m.excluded);
-  return forecasts.map((f) => {
-    const snapshot = f.result as unknown as ForecastSnapshot;
-    // Snapshots saved before forecasts named their model came from the one line.
-    const stored = snapshot.prediction as Omit<FitPrediction, 'model' | 'branch'> & Partial<Pick<FitPrediction, 'model' | 'branch'>>;
-    const result: FitPrediction = { ...stored, model: stored.model ?? 'one-line', branch: stored.branch ?? null };
-    const measured = included
-      .filter((m) => Math.abs(m.temperatureK - f.temperatureK) <= MEASURED_MATCH_K)
-      .map((m) => {
-        const ratio = parseSelectivity(selectivityOf(m));
-        return {
-          measurementId: m.id,
-          kelvin: m.temperatureK,
-          eePercent: eeFromLnRatio(Math.log(ratio)),
-          ratio,
-          insidePredictionInterval: insideInterval(result, m, ratio),
-        };
-      });
-    const creator = f.createdByUserId ? byId.get(f.createdByUserId) : undefined;
-    return {
-      id: f.id,
-      campaignId: campaign.id,
-      temperatureK: f.temperatureK,
-      celsius: kelvinToCelsius(f.temperatureK),
-      label: f.label,
-      notes: f.notes,
-      createdAt: new Date(f.createdAt).toISOString(),
-      createdBy: creator ? { id: creator.id, login: creator.login, displayName: creator.displayName } : null,
-      result,
-      measured,
-    };
-  });
-}
-
-/** A campaign's saved forecasts, newest first, each compared with the runs stored near its temperature now. */
-export async function listCampaignForecasts(db: Knex, projectId: string, campaignId: string): Promise<SavedForecastView[]> {
-  const { campaign, measurements } = await loadCampaignData(db, projectId, campaignId);
-  const forecasts = await SavedForecast.query(db).where({ campaignId }).orderBy('createdAt', 'desc').orderBy('id');
-  return forecastViews(db, campaign, forecasts, measurements);
-}
-
-// ── Project comparison ─────────────────────────────────────────────────────────────────────
-
-/** Every campaign of the project fitted (unweighted, 95 %) and predicted at one temperature. */
-export async function compareCampaigns(db: Knex, projectId: string, atCelsius: number): Promise<ComparisonResponse> {
-  if (!isUuid(projectId)) throw new NotFoundError();
-  const atK = toKelvin(atCelsius, 'C');
-  const campaigns = await Campaign.query(db).where({ projectId }).orderBy('title').orderBy('id');
-  const all = campaigns.length
-    ? await Measurement.query(db)
-        .whereIn(
-          'campaignId',
-          campaigns.map((c) => c.id),
-        )
-        .orderBy('temperatureK')
-        .orderBy('createdAt')
-        .orderBy('sourceRow')
-        .orderBy('id')
-    : [];
-  const byCampaign = new Map<string, Measurement[]>();
-  for (const m of all) {
-    const list = byCampaign.get(m.campaignId) ?? [];
-    list.push(m);
-    byCampaign.set(m.campaignId, list);
-  }
-  return {
-    at: { kelvin: atK, celsius: atCelsius },
-    campaigns: campaigns.map((c) => {
-      const a = computeAnalysis(c, byCampaign.get(c.id) ?? [], { weighting: 'none', uncertaintyScale: 'absolute', confidence: 0.95, atK });
-      const fit = a.fit;
-      return {
-        id: c.id,
-        title: c.title,
-        status: c.status,
-        n: fit?.n ?? 0,
-        ddH: fit ? { 'kJ/mol': fit.ddH['kJ/mol'], 'kcal/mol': fit.ddH['kcal/mol'], se: fit.ddH.se } : null,
-        ddS: fit ? { 'J/(mol*K)': fit.ddS['J/(mol*K)'], 'cal/(mol*K)': fit.ddS['cal/(mol*K)'], se: fit.ddS.se } : null,
-        prediction: a.at,
-        preferred: fit?.twoBranch?.preferred ?? null,
-        breakAt: breakAt(fit),
-        warnings: fit?.warnings.length ?? 0,
-        problem: a.problem,
-      };
-    }),
-    convention: SIGN_CONVENTION,
-  };
-}
-
-function breakAt(fit: FitResponse | null): ComparisonResponse['campaigns'][number]['breakAt'] {
-  const tb = fit?.twoBranch;
-  if (!tb?.checked || !tb.claim || !tb.break) return null;
-  return { claim: tb.claim, extremum: tb.extremum, kelvin: tb.break.kelvin, celsius: tb.break.celsius };
-}
-
-/** Everything the spreadsheet report needs, read in one place. */
-export async function loadReportData(db: Knex, projectId: string, campaignId: string) {
-  const { campaign, measurements } = await loadCampaignData(db, projectId, campaignId);
-  const analysis = computeAnalysis(campaign, measurements, { weighting: 'none', uncertaintyScale: 'absolute', confidence: 0.95 });
-  const forecasts = await SavedForecast.query(db).where({ campaignId }).orderBy('createdAt', 'desc').orderBy('id');
-  const views = await forecastViews(db, campaign, forecasts, measurements);
-  // Who signed the campaign off and when (null while open), for the report's summary.
-  const signOff = await signOffOf(db, campaign);
-  return { campaign, measurements, analysis, forecasts: views, signOff };
 }

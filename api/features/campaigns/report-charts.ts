@@ -3,9 +3,11 @@
  * resvg with fonts shipped in node_modules (never the machine's), so every server draws the same
  * picture. Colours are the web app's chart palette (api/lib/chart-colors.ts).
  */
+import { createHash } from 'node:crypto';
 import { createRequire } from 'node:module';
 import path from 'node:path';
 import { Resvg, renderAsync, type ResvgRenderOptions } from '@resvg/resvg-js';
+import { LRUCache } from 'lru-cache';
 import { chartColors } from '../../lib/chart-colors';
 import { fixed, lnOf, lnRange } from './report-format';
 import type { ReportModel } from './report-model';
@@ -78,13 +80,52 @@ function frame(title: string, xLabel: string, yLabel: string, xr: [number, numbe
   return { x, y, parts };
 }
 
+/**
+ * Drop the points of a drawn line that lie within `tolerance` drawing pixels of the line through
+ * their kept neighbours (Ramer–Douglas–Peucker): a smooth curve of 1 000 points draws the same
+ * with a few dozen, and the rasteriser's work follows the points kept.
+ */
+export function simplifyLine(points: [number, number][], tolerance = 0.1): [number, number][] {
+  if (points.length <= 2) return points;
+  const keep = new Uint8Array(points.length);
+  keep[0] = 1;
+  keep[points.length - 1] = 1;
+  const stack: [number, number][] = [[0, points.length - 1]];
+  while (stack.length) {
+    const [i, j] = stack.pop()!;
+    const [ax, ay] = points[i]!;
+    const [bx, by] = points[j]!;
+    const dx = bx - ax;
+    const dy = by - ay;
+    const len = Math.hypot(dx, dy);
+    let worst = -1;
+    let at = -1;
+    for (let k = i + 1; k < j; k++) {
+      const [px, py] = points[k]!;
+      const d = len > 0 ? Math.abs(dy * (px - ax) - dx * (py - ay)) / len : Math.hypot(px - ax, py - ay);
+      if (d > worst) {
+        worst = d;
+        at = k;
+      }
+    }
+    if (worst > tolerance) {
+      keep[at] = 1;
+      stack.push([i, at], [at, j]);
+    }
+  }
+  return points.filter((_, k) => keep[k]);
+}
+
 function polyline(points: [number, number][]): string {
-  return points.map(([a, b], i) => `${i ? 'L' : 'M'}${a.toFixed(1)} ${b.toFixed(1)}`).join(' ');
+  return simplifyLine(points)
+    .map(([a, b], i) => `${i ? 'L' : 'M'}${a.toFixed(1)} ${b.toFixed(1)}`)
+    .join(' ');
 }
 
 function band(f: Frame, xs: number[], lo: number[], hi: number[]): string {
-  const upper = xs.map((v, i): [number, number] => [f.x(v), f.y(hi[i]!)]);
-  const lower = xs.map((v, i): [number, number] => [f.x(v), f.y(lo[i]!)]).reverse();
+  // Each edge simplified on its own, so the corners where they meet are kept.
+  const upper = simplifyLine(xs.map((v, i): [number, number] => [f.x(v), f.y(hi[i]!)]));
+  const lower = simplifyLine(xs.map((v, i): [number, number] => [f.x(v), f.y(lo[i]!)]).reverse());
   return `${polyline([...upper, ...lower])} Z`;
 }
 
@@ -135,14 +176,15 @@ function pointMark(px: number, py: number, status: string, flagged: boolean): st
 }
 
 /**
- * Point marks, one per visible position: replicates that land on the same half pixel would be
- * drawn on top of each other, so a campaign of 10 000 runs draws as fast as the distinct ones.
+ * Point marks, one per visible position: marks 8 drawing pixels wide whose centres fall in the same
+ * pixel would be drawn on top of each other, so a campaign of 10 000 runs draws as fast as the
+ * distinct positions.
  */
 function marks(points: [number, number, string, boolean][]): string {
   const seen = new Set<string>();
   const out: string[] = [];
   for (const [px, py, status, flagged] of points) {
-    const key = `${Math.round(px * 2)}|${Math.round(py * 2)}|${status}|${flagged}`;
+    const key = `${Math.round(px)}|${Math.round(py)}|${status}|${flagged}`;
     if (seen.has(key)) continue;
     seen.add(key);
     out.push(pointMark(px, py, status, flagged));
@@ -399,13 +441,48 @@ const renderOptions = (scale: number): ResvgRenderOptions => ({
 });
 
 /**
- * SVG → PNG at `scale` times the drawing size, with the shipped fonts only. 1.5× gives 1080 px,
- * twice the width the workbook shows it at. Every series lies inside the axes by construction
- * (the ranges are taken from the data, bands included), so nothing needs clipping, which halves
- * resvg's work.
+ * Pixels rendered per drawing pixel. 1.25× gives 900 px for a chart the workbook and the PDF show
+ * 540 points wide: 1.67 pixels per point, about 120 dpi on paper, where lines and 11 px labels
+ * stay sharp; a larger canvas costs time in proportion to its area and prints no better.
  */
-export function renderPng(svgText: string, scale = 1.5): Buffer {
-  return Buffer.from(new Resvg(svgText, renderOptions(scale)).render().asPng());
+export const CHART_SCALE = 1.25;
+
+/**
+ * Rendered PNGs by a digest of their SVG text and scale. The SVG is drawn from every number the
+ * chart shows, so an entry can never be stale: a changed run, fit, plan or title draws another
+ * SVG. The workbook, the PDF and the e-mail of one campaign version render once. Bounded by size.
+ */
+const pngCache = new LRUCache<string, Buffer>({ maxSize: 16 * 1024 * 1024, sizeCalculation: (b) => b.length + 64, max: 200 });
+
+const cacheKey = (svgText: string, scale: number) => `${scale}|${createHash('sha256').update(svgText).digest('base64url')}`;
+
+/** For tests and benchmarks: forget every rendered chart. */
+export function clearChartCache(): void {
+  pngCache.clear();
+}
+
+/**
+ * SVG → PNG at `scale` times the drawing size, with the shipped fonts only. Every series lies
+ * inside the axes by construction (the ranges are taken from the data, bands included), so
+ * nothing needs clipping, which halves resvg's work.
+ */
+export function renderPng(svgText: string, scale = CHART_SCALE): Buffer {
+  const key = cacheKey(svgText, scale);
+  const hit = pngCache.get(key);
+  if (hit) return hit;
+  const png = Buffer.from(new Resvg(svgText, renderOptions(scale)).render().asPng());
+  pngCache.set(key, png);
+  return png;
+}
+
+/** As `renderPng`, rasterised on libuv's thread pool. */
+async function renderPngAsync(svgText: string, scale: number): Promise<Buffer> {
+  const key = cacheKey(svgText, scale);
+  const hit = pngCache.get(key);
+  if (hit) return hit;
+  const png = Buffer.from((await renderAsync(svgText, renderOptions(scale))).asPng());
+  pngCache.set(key, png);
+  return png;
 }
 
 export interface ReportCharts {
@@ -425,17 +502,13 @@ export function renderReportCharts(model: ReportModel): ReportCharts | null {
 }
 
 /** As `renderReportCharts`, rasterised on libuv's thread pool so the caller can build sheets meanwhile. */
-export async function renderReportChartsAsync(model: ReportModel, scale = 1.5): Promise<ReportCharts | null> {
+export async function renderReportChartsAsync(model: ReportModel, scale = CHART_SCALE): Promise<ReportCharts | null> {
   if (!hasCharts(model)) return null;
   const w = windowChartSvg(model);
   const [eyring, selectivity, window] = await Promise.all([
-    renderAsync(eyringChartSvg(model), renderOptions(scale)),
-    renderAsync(selectivityChartSvg(model), renderOptions(scale)),
-    w ? renderAsync(w, renderOptions(scale)) : Promise.resolve(null),
+    renderPngAsync(eyringChartSvg(model), scale),
+    renderPngAsync(selectivityChartSvg(model), scale),
+    w ? renderPngAsync(w, scale) : Promise.resolve(null),
   ]);
-  return {
-    eyring: Buffer.from(eyring.asPng()),
-    selectivity: Buffer.from(selectivity.asPng()),
-    window: window ? Buffer.from(window.asPng()) : null,
-  };
+  return { eyring, selectivity, window };
 }

@@ -12,7 +12,7 @@ import { User } from '../../models/user';
 import type { Mailer } from '../mail/mailer';
 import { getCampaignSpecification } from '../plan/store';
 import { loadComparisonReportData, loadPlanReportData, type ComparisonReportData } from '../plan/report-data';
-import { loadReportData } from './analysis';
+import { loadReportData } from './report-data';
 import { buildCampaignReport, reportFileName } from './report';
 import { renderReportChartsAsync, type ReportCharts } from './report-charts';
 import { fixed, readSelectivity, safeText } from './report-format';

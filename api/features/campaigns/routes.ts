@@ -9,7 +9,9 @@ import { historyCsv, readHistory } from '../audit/history';
 import { importTemplateCsv, listImportFiles, readImportFile, resolveImportFileProjectId } from '../imports/files';
 import { importMeasurements, storedRowKeys } from '../imports/service';
 import { previewInPool } from '../imports/parse-pool';
-import { compareCampaigns, listCampaignForecasts, saveCampaignForecast, serialisedCampaignAnalysis } from './analysis';
+import { serialisedCampaignAnalysis } from './analysis';
+import { compareCampaigns } from './analysis-comparison';
+import { listCampaignForecasts, saveCampaignForecast } from './analysis-forecasts';
 import { analysisQuerySchema, comparisonQuerySchema } from './analysis-schemas';
 import { reportFileName } from './report';
 import {

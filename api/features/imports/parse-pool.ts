@@ -11,7 +11,7 @@ import { AppError, PayloadTooLargeError } from '../../lib/errors';
 import type { ImportMapping, ImportParseOptions } from '../campaigns/schemas';
 import { UnreadableFileError } from './errors';
 import { IMPORT_LIMITS, IN_THREAD_MAX_BYTES, type ImportLimits, type ParsedTable, type UploadedFile } from './parse';
-import type { PreviewAnswer, ReadAnswer, ReadTask, SerialisedError } from './parse-task';
+import type { CheckAnswer, CheckedFile, CheckTask, PreviewAnswer, ReadAnswer, ReadTask, SerialisedError } from './parse-task';
 import type { ImportPreview, StoredRowKeys } from './service';
 
 export interface ReadPoolOptions {
@@ -94,6 +94,21 @@ export async function previewInPool(
   const answer = (await runTask(file, { name: file.name, buffer: file.buffer, request, limits, stored }, 'preview')) as PreviewAnswer;
   if (!answer.ok) throw rebuildError(answer.error);
   return answer.preview;
+}
+
+/**
+ * Read `file` and check every row against `mapping` in a worker (the import of a large file or any
+ * workbook). Errors as for `readInPool`.
+ */
+export async function checkInPool(
+  file: UploadedFile,
+  request: { mapping: ImportMapping; parse?: ImportParseOptions },
+  limits: ImportLimits,
+): Promise<CheckedFile> {
+  const task: CheckTask = { name: file.name, buffer: file.buffer, request, limits };
+  const answer = (await runTask(file, task, 'check')) as CheckAnswer;
+  if (!answer.ok) throw rebuildError(answer.error);
+  return answer.checked;
 }
 
 async function runTask(file: UploadedFile, task: unknown, name: string): Promise<unknown> {

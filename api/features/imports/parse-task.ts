@@ -10,6 +10,7 @@ import type { ImportPreview, StoredRowKeys } from './service';
 import { AppError } from '../../lib/errors';
 import type { ProblemTypeId } from '../../lib/problem-types';
 import { readUpload, type ImportLimits, type ParsedTable } from './parse';
+import { packRows, validateRows, type PackedRows, type ValidationResult } from './mapping';
 
 export interface ReadTask {
   name: string;
@@ -79,6 +80,37 @@ export async function previewInWorker(task: PreviewTask): Promise<PreviewAnswer>
     const buffer = Buffer.from(task.buffer.buffer, task.buffer.byteOffset, task.buffer.byteLength);
     const preview = await previewImport({ name: task.name, buffer }, task.request, task.limits, task.stored);
     return { ok: true, preview, peakMemoryBytes: heapNow() };
+  } catch (err) {
+    if (err instanceof AppError) return { ok: false, error: serialise(err), peakMemoryBytes: heapNow() };
+    throw err;
+  }
+}
+
+export interface CheckTask {
+  name: string;
+  buffer: Uint8Array;
+  request: { mapping: ImportMapping; parse?: ImportParseOptions };
+  limits: ImportLimits;
+}
+
+/** What `checkInWorker` found: the file's format and every row checked, the rows packed by column. */
+export interface CheckedFile {
+  format: ParsedTable['format'];
+  result: Omit<ValidationResult, 'rows'> & { packed: PackedRows };
+}
+
+export type CheckAnswer = ({ ok: true; checked: CheckedFile } | { ok: false; error: SerialisedError }) & { peakMemoryBytes: number };
+
+/**
+ * The import's read and row checks in the worker: only the checked rows (packed by column) and
+ * the issues cross back, never the whole table of text cells.
+ */
+export async function checkInWorker(task: CheckTask): Promise<CheckAnswer> {
+  try {
+    const buffer = Buffer.from(task.buffer.buffer, task.buffer.byteOffset, task.buffer.byteLength);
+    const table = await readUpload({ name: task.name, buffer }, task.request.parse ?? {}, task.limits);
+    const { rows, ...rest } = validateRows(table, task.request.mapping);
+    return { ok: true, checked: { format: table.format, result: { ...rest, packed: packRows(rows) } }, peakMemoryBytes: heapNow() };
   } catch (err) {
     if (err instanceof AppError) return { ok: false, error: serialise(err), peakMemoryBytes: heapNow() };
     throw err;

@@ -123,6 +123,16 @@ function looksLikeText(buf: Buffer): boolean {
 export const IN_THREAD_MAX_BYTES = 256 * 1024;
 
 /**
+ * Whether `file` is read in a worker thread: every workbook and text files over IN_THREAD_MAX_BYTES,
+ * unless this is a reading worker already (a whole preview runs there) or the file is refused by
+ * its size before any reading.
+ */
+export function readsInWorker(file: UploadedFile, limits: ImportLimits = IMPORT_LIMITS): boolean {
+  if (!isMainThread || file.buffer.length > limits.maxBytes) return false;
+  return extensionOf(file.name) === 'xlsx' || file.buffer.length > IN_THREAD_MAX_BYTES;
+}
+
+/**
  * Read an uploaded file into a table of cells: workbooks and large text files in a worker thread
  * with a memory cap (parse-pool.ts), small text files here. Errors as for `readUpload`.
  */
@@ -131,9 +141,7 @@ export async function parseUpload(
   options: ImportParseOptions = {},
   limits: ImportLimits = IMPORT_LIMITS,
 ): Promise<ParsedTable> {
-  // Already in a reading worker (a whole preview runs there), or refused by size before any reading.
-  if (!isMainThread || file.buffer.length > limits.maxBytes) return readUpload(file, options, limits);
-  if (extensionOf(file.name) !== 'xlsx' && file.buffer.length <= IN_THREAD_MAX_BYTES) return readUpload(file, options, limits);
+  if (!readsInWorker(file, limits)) return readUpload(file, options, limits);
   const { readInPool } = await import('./parse-pool');
   return (await readInPool(file, options, limits)).table;
 }

@@ -11,8 +11,26 @@ import { assertMeasurementsOpen, isUuid } from '../campaigns/service';
 import { Campaign } from '../../models/campaign';
 import type { ImportMapping, ImportParseOptions } from '../campaigns/schemas';
 import { ImportNeedsConfirmationError, ImportRejectedError, type ImportIssue } from './errors';
-import { columnLetter, IMPORT_LIMITS, parseUpload, type Cell, type ImportLimits, type ParsedTable, type UploadedFile } from './parse';
-import { guessMapping, mappingFromGuess, validateRows, validateRowsYielding, type ImportRow, type MappingGuess } from './mapping';
+import {
+  columnLetter,
+  IMPORT_LIMITS,
+  parseUpload,
+  readsInWorker,
+  type Cell,
+  type ImportLimits,
+  type ParsedTable,
+  type UploadedFile,
+} from './parse';
+import {
+  guessMapping,
+  mappingFromGuess,
+  unpackRows,
+  validateRows,
+  validateRowsYielding,
+  type ImportRow,
+  type MappingGuess,
+  type ValidationResult,
+} from './mapping';
 
 export interface PreviewColumn {
   index: number;
@@ -140,8 +158,7 @@ export async function importMeasurements(
   limits: ImportLimits = IMPORT_LIMITS,
 ): Promise<ImportResult> {
   if (!isUuid(campaignId)) throw new NotFoundError('No campaign was found at this address in this project.');
-  const table = await parseUpload(file, request.parse ?? {}, limits);
-  const checked = await validateRowsYielding(table, request.mapping);
+  const { format, checked } = await readAndCheck(file, request, limits);
   if (checked.errorCount > 0) {
     throw new ImportRejectedError(
       `${file.name}: ${checked.errorCount} problem${checked.errorCount === 1 ? '' : 's'} found; nothing was imported. Fix the file or the mapping and upload it again.`,
@@ -176,8 +193,8 @@ export async function importMeasurements(
       .insert({
         campaignId,
         fileName: file.name,
-        mediaType: mediaTypeOf(table.format, file.name),
-        format: table.format,
+        mediaType: mediaTypeOf(format, file.name),
+        format,
         sizeBytes: file.buffer.length,
         sha256,
         content: file.buffer,
@@ -222,7 +239,7 @@ export async function importMeasurements(
         fileId,
         sizeBytes: file.buffer.length,
         sha256,
-        format: table.format,
+        format,
         rows: result.inserted,
         temperatureRangeK: result.temperatureRangeK,
         distinctTemperatures: result.distinctTemperatures,
@@ -232,6 +249,29 @@ export async function importMeasurements(
     });
     return result;
   });
+}
+
+/**
+ * Read the file and check every row: a large file or a workbook in a worker thread, which sends
+ * back only the checked rows; a small text file here, giving the event loop a turn now and then.
+ */
+async function readAndCheck(
+  file: UploadedFile,
+  request: ImportRequestInput,
+  limits: ImportLimits,
+): Promise<{ format: ParsedTable['format']; checked: ValidationResult }> {
+  if (readsInWorker(file, limits)) {
+    const { checkInPool } = await import('./parse-pool');
+    const { format, result } = await checkInPool(
+      file,
+      { mapping: request.mapping, ...(request.parse ? { parse: request.parse } : {}) },
+      limits,
+    );
+    const { packed, ...rest } = result;
+    return { format, checked: { ...rest, rows: unpackRows(packed) } };
+  }
+  const table = await parseUpload(file, request.parse ?? {}, limits);
+  return { format: table.format, checked: await validateRowsYielding(table, request.mapping) };
 }
 
 /**

@@ -12,7 +12,10 @@ import { forecastCsv, measurementsCsv } from '../../../api/features/campaigns/re
 import { analyseScreen } from '../../../api/features/calculators/fit';
 import { toEngineMeasurements } from '../../../api/features/campaigns/analysis';
 import { fixed, safeFileName } from '../../../api/features/campaigns/report-format';
-import { HOSTILE, demoMeta, demoReportData } from './fixture';
+import { HOSTILE, demoComparison, demoMeta, demoPlan, demoReportData } from './fixture';
+
+/** A typical campaign as a team lead would print it: 30 runs, a saved plan and a saved comparison. */
+const typicalCampaign = () => demoReportData(30, { plan: demoPlan(), comparisons: [demoComparison()] });
 
 const onPath = (cmd: string) => {
   try {
@@ -50,7 +53,7 @@ const FLOAT_ARTEFACT = /\d\.\d*(?:9{6,}|0{6,})\d/;
 describe('campaign workbook', () => {
   it('when a dr campaign is exported, then its sheets come in reading order with the summary first', async () => {
     const wb = await readBack(await buildCampaignReport(demoReportData(), demoMeta));
-    expect(wb.worksheets.map((w) => w.name)).toEqual(['Summary', 'Charts', 'Measurements', 'Fit', 'Forecast']);
+    expect(wb.worksheets.map((w) => w.name)).toEqual(['Summary', 'Fit', 'Measurements', 'Forecast']);
     const summary = wb.getWorksheet('Summary')!;
     expect(labelRow(summary, 'Specification').getCell(2).value).toBe('dr ≥ 10.0:1');
     expect(String(labelRow(summary, 'Forecast dr').getCell(2).value)).toMatch(
@@ -65,8 +68,11 @@ describe('campaign workbook', () => {
     expect(labelRow(summary, 'Exported by').getCell(2).value).toBe('R. Vale');
     expect(String(labelRow(summary, 'Sign convention').getCell(2).value)).toContain('X‡(TS→B) − X‡(TS→A)');
     expect(String(labelRow(summary, 'Caution').getCell(2).value)).toContain('process-safety');
-    const images = wb.getWorksheet('Charts')!.getImages();
+    // The two charts sit on the Fit sheet, under the parameters.
+    const images = wb.getWorksheet('Fit')!.getImages();
     expect(images).toHaveLength(2);
+    const covariance = labelRow(wb.getWorksheet('Fit')!, 'Covariance intercept·intercept').number;
+    for (const image of images) expect(image.range.tl.nativeRow).toBeGreaterThan(covariance);
   });
 
   it('when the workbook is read back, then every number equals the engine output', async () => {
@@ -99,6 +105,19 @@ describe('campaign workbook', () => {
       expect(ms.getRow(i + 2).getCell(lnCol).value).toBe(p.lnRatio);
       expect(ms.getRow(i + 2).getCell(tCol).value).toBe(data.measurements[i]!.temperatureK);
     });
+    // Each run's residual sits on its own row, as the engine computed it.
+    const col = (h: string) => header.indexOf(h);
+    expect(col("Cook's distance (−)")).toBeGreaterThan(0);
+    fit.residuals.forEach((res, i) => {
+      const row = ms.getRow(i + 2);
+      expect(row.getCell(col('Fitted ln r (−)')).value).toBe(res.fitted);
+      expect(row.getCell(col('Residual (−)')).value).toBe(res.residual);
+      expect(row.getCell(col('Studentized residual (−)')).value).toBe(res.studentized);
+      expect(row.getCell(col('Leverage (−)')).value).toBe(res.leverage);
+      expect(row.getCell(col("Cook's distance (−)")).value).toBe(res.cooksDistance);
+      expect(row.getCell(col('Flags')).value ?? '').toBe(res.flags.join(', '));
+    });
+    expect(fit.residuals).toHaveLength(data.measurements.length);
 
     const fitSheet = wb.getWorksheet('Fit')!;
     expect(labelRow(fitSheet, 'Slope of ln r on 1/T').getCell(2).value).toBe(fit.slope);
@@ -280,27 +299,63 @@ describe('campaign workbook', () => {
     }
   });
 
+  it('when a campaign with a plan and a comparison is exported, then its page setup prints the summary on page 1 and the charts on page 2', async () => {
+    const wb = await readBack(await buildCampaignReport(typicalCampaign(), demoMeta));
+    expect(wb.worksheets.map((w) => w.name)).toEqual(['Summary', 'Fit', 'Measurements', 'Forecast', 'Plan', 'Comparison']);
+    for (const ws of wb.worksheets) {
+      expect(ws.pageSetup).toMatchObject({ orientation: 'landscape', paperSize: 9, fitToPage: true, fitToWidth: 1 });
+      expect(ws.headerFooter.oddFooter).toContain('Page &P of &N');
+    }
+    // One page each for the Summary and for the fit with its charts; the tables run on at full width.
+    for (const name of ['Summary', 'Fit']) expect(wb.getWorksheet(name)!.pageSetup.fitToHeight).toBe(1);
+    for (const name of ['Measurements', 'Forecast', 'Plan', 'Comparison']) expect(wb.getWorksheet(name)!.pageSetup.fitToHeight).toBe(0);
+    // The Fit sheet's print area reaches below both chart images, so neither is cut off.
+    const fit = wb.getWorksheet('Fit')!;
+    const lastRow = Number(/^A1:J(\d+)$/.exec(fit.pageSetup.printArea!)![1]);
+    for (const image of fit.getImages()) expect(image.range.tl.nativeRow + 16).toBeLessThan(lastRow);
+    for (const name of ['Measurements', 'Forecast', 'Plan']) expect(wb.getWorksheet(name)!.pageSetup.printTitlesRow).toBe('1:1');
+  });
+
   it.runIf(onPath('soffice') && onPath('pdfinfo'))(
-    'when LibreOffice prints a typical campaign, then it takes at most 6 pages with the summary on page 1',
+    'when LibreOffice prints a typical campaign with a plan and a comparison, then it takes at most 6 pages: the summary on page 1, the charts on page 2',
     async () => {
       const dir = mkdtempSync(path.join(tmpdir(), 'eyrie-lo-'));
       try {
-        writeFileSync(path.join(dir, 'r.xlsx'), await buildCampaignReport(demoReportData(30), demoMeta));
+        writeFileSync(path.join(dir, 'r.xlsx'), await buildCampaignReport(typicalCampaign(), demoMeta));
         execFileSync(
           'soffice',
           [`-env:UserInstallation=file://${dir}/profile`, '--headless', '--convert-to', 'pdf', '--outdir', dir, path.join(dir, 'r.xlsx')],
           { stdio: 'ignore', timeout: 60_000 },
         );
-        const info = execFileSync('pdfinfo', [path.join(dir, 'r.pdf')], { encoding: 'utf8' });
+        const pdf = path.join(dir, 'r.pdf');
+        const info = execFileSync('pdfinfo', [pdf], { encoding: 'utf8' });
         const pages = Number(/Pages:\s+(\d+)/.exec(info)![1]);
-        expect(pages).toBeGreaterThanOrEqual(4);
-        expect(pages).toBeLessThanOrEqual(6);
+        // Six sheets of one page each: the goal for a campaign of a few dozen runs is at most six.
+        expect(pages).toBe(6);
         if (onPath('pdftotext')) {
-          const first = execFileSync('pdftotext', ['-f', '1', '-l', '1', '-layout', path.join(dir, 'r.pdf'), '-'], { encoding: 'utf8' });
+          const page = (n: number) =>
+            execFileSync('pdftotext', ['-f', String(n), '-l', String(n), '-layout', pdf, '-'], { encoding: 'utf8' });
+          const first = page(1);
           expect(first).toContain('Caution');
           expect(first).toContain('Eyrie version');
+          expect(first).toContain('Page 1 of 6');
+          const second = page(2);
+          expect(second).toContain('Slope of ln r on 1/T');
+          expect(second).toContain('Charts drawn from the same data');
+          expect(page(5)).toContain('Recommended temperature');
+          expect(page(6)).toContain('Boron sources (invented)');
         }
-        expect(readFileSync(path.join(dir, 'r.pdf')).length).toBeGreaterThan(1000);
+        if (onPath('pdfimages')) {
+          // Both chart images print on page 2 (and the window chart with the plan).
+          const listed = execFileSync('pdfimages', ['-list', '-f', '2', '-l', '2', pdf], { encoding: 'utf8' });
+          expect(
+            listed
+              .trim()
+              .split('\n')
+              .filter((l) => /^\s*2\s/.test(l)).length,
+          ).toBeGreaterThanOrEqual(2);
+        }
+        expect(readFileSync(pdf).length).toBeGreaterThan(1000);
       } finally {
         rmSync(dir, { recursive: true, force: true });
       }
