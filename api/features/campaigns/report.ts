@@ -147,9 +147,12 @@ function addSummary(wb: ExcelJS.Workbook, model: ReportModel) {
     }
     if (line.unit) row.getCell(6).value = line.unit;
     value.alignment = { ...value.alignment, wrapText: true, vertical: 'top' };
-    row.getCell(1).alignment = { vertical: 'top' };
-    // Wrapped text needs its height set: about 95 characters fit on a line of the Value column.
-    if (typeof v === 'string' && v.length > 90) row.height = 15 * Math.ceil(v.length / 90);
+    row.getCell(1).alignment = { vertical: 'top', wrapText: true };
+    for (let c = 3; c <= 6; c++) row.getCell(c).alignment = { ...row.getCell(c).alignment, vertical: 'top' };
+    // Wrapped text needs its height set: about 90 characters fit on a line of the Value column and
+    // about 32 on a line of the Item column (a long label must not run under its value).
+    const lines = Math.max(typeof v === 'string' ? Math.ceil(v.length / 90) : 1, Math.ceil(line.label.length / 32));
+    if (lines > 1) row.height = 15 * lines;
     if (line.name) wb.definedNames.add(`'Summary'!$B$${r}`, line.name);
     r++;
   }
