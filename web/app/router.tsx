@@ -4,18 +4,13 @@ import { AppLayout } from './layout';
 import { HomeRoute } from './routes/home';
 import { NotFoundRoute } from './routes/not-found';
 import { RouteErrorBoundary } from './routes/route-error';
-import { ApiDocsRoute } from './routes/api-docs';
 import { SignInRoute } from './routes/sign-in';
-import { ProjectsRoute } from './routes/projects';
-import { ProjectSettingsRoute } from './routes/project-settings';
-import { ProjectHistoryRoute } from './routes/project-history';
-import { TokensRoute } from './routes/tokens';
-import { InvitationRoute } from './routes/invitation';
 import { paths } from '../config/paths';
 import { campaignLoader, compareLoader, comparisonLoader, projectLoader } from './loaders';
 
 /**
- * The chart-heavy pages (visx) load on first visit, so the shell and sign-in stay small. Their
+ * Every page but home, sign-in and not-found loads on first visit (the forms library, the API
+ * description and the charts are not in the first page's JavaScript), so the shell stays small. Their
  * loaders start the pages' requests while that code is still on its way (see loaders.ts).
  */
 export const createRoutes = (client: QueryClient): RouteObject[] => [
@@ -24,17 +19,20 @@ export const createRoutes = (client: QueryClient): RouteObject[] => [
     errorElement: <RouteErrorBoundary />,
     children: [
       { path: paths.home.path, element: <HomeRoute /> },
-      { path: paths.apiDocs.path, element: <ApiDocsRoute /> },
+      { path: paths.apiDocs.path, lazy: async () => ({ Component: (await import('./routes/api-docs')).ApiDocsRoute }) },
       { path: paths.calculators.path, lazy: async () => ({ Component: (await import('./routes/calculators')).CalculatorsRoute }) },
       { path: paths.rateAndHold.path, lazy: async () => ({ Component: (await import('./routes/rate-and-hold')).RateAndHoldRoute }) },
       { path: paths.signIn.path, element: <SignInRoute /> },
-      { path: paths.projects.path, element: <ProjectsRoute /> },
+      { path: paths.projects.path, lazy: async () => ({ Component: (await import('./routes/projects')).ProjectsRoute }) },
       {
         path: paths.project.path,
         loader: projectLoader(client),
         lazy: async () => ({ Component: (await import('./routes/project')).ProjectRoute }),
       },
-      { path: paths.projectSettings.path, element: <ProjectSettingsRoute /> },
+      {
+        path: paths.projectSettings.path,
+        lazy: async () => ({ Component: (await import('./routes/project-settings')).ProjectSettingsRoute }),
+      },
       {
         path: paths.campaign.path,
         loader: campaignLoader(client),
@@ -50,9 +48,12 @@ export const createRoutes = (client: QueryClient): RouteObject[] => [
         loader: comparisonLoader(client),
         lazy: async () => ({ Component: (await import('./routes/comparison')).ComparisonRoute }),
       },
-      { path: paths.projectHistory.path, element: <ProjectHistoryRoute /> },
-      { path: paths.tokens.path, element: <TokensRoute /> },
-      { path: paths.invitation.path, element: <InvitationRoute /> },
+      {
+        path: paths.projectHistory.path,
+        lazy: async () => ({ Component: (await import('./routes/project-history')).ProjectHistoryRoute }),
+      },
+      { path: paths.tokens.path, lazy: async () => ({ Component: (await import('./routes/tokens')).TokensRoute }) },
+      { path: paths.invitation.path, lazy: async () => ({ Component: (await import('./routes/invitation')).InvitationRoute }) },
       { path: '*', element: <NotFoundRoute /> },
     ],
   },
