@@ -27,8 +27,12 @@ import { ipKeyGenerator } from 'express-rate-limit';
 import { calculatorsRouter } from './features/calculators/routes';
 import { planRouter } from './features/plan/routes';
 import { planStoreRouter } from './features/plan/store-routes';
+import { comparisonsRouter } from './features/plan/comparison-routes';
 import { docsRouter } from './features/docs/routes';
 import { campaignsRouter } from './features/campaigns/routes';
+import { measurementsRouter } from './features/campaigns/measurement-routes';
+import { forecastsRouter } from './features/campaigns/forecast-routes';
+import { importFilesRouter } from './features/imports/file-routes';
 import { JobQueue, jobOptionsFromEnv } from './features/jobs/queue';
 import { abandonRunningJobs, jobHandlers } from './features/jobs/runner';
 import { jobsRouter } from './features/jobs/routes';
@@ -176,6 +180,10 @@ export function createApp(deps: AppDeps): Express {
       mailer,
     }),
   );
+  api.use('/v1/measurements', measurementsRouter({ knex: deps.knex }));
+  api.use('/v1/import-files', importFilesRouter({ knex: deps.knex }));
+  api.use('/v1/forecasts', forecastsRouter({ knex: deps.knex }));
+  api.use('/v1/comparisons', comparisonsRouter({ knex: deps.knex }));
   api.use('/v1/jobs', jobsRouter({ knex: deps.knex }));
   api.use('/v1', planStoreRouter({ knex: deps.knex }));
   api.use('/{*splat}', notFoundHandler);

@@ -6,7 +6,7 @@ import { parseBody } from '../../lib/validation';
 import { authorizeProject, projectIdParam } from '../projects/policy';
 import { importUpload, jsonField, uploadedFile } from '../imports/upload';
 import { historyCsv, readHistory } from '../audit/history';
-import { importTemplateCsv, listImportFiles, readImportFile, resolveImportFileProjectId } from '../imports/files';
+import { importTemplateCsv, listImportFiles } from '../imports/files';
 import { importMeasurements, storedRowKeys } from '../imports/service';
 import { previewInPool } from '../imports/parse-pool';
 import { serialisedCampaignAnalysis } from './analysis';
@@ -30,6 +30,7 @@ import type { Mailer } from '../mail/mailer';
 import { limiter } from '../auth/setup';
 import type { JobQueue } from '../jobs/queue';
 import { jobView } from '../jobs/routes';
+import { actorOf, deleteVersion, etag, safeFileName, withVersion } from './route-helpers';
 import {
   campaignCreateSchema,
   campaignUpdateSchema,
@@ -38,10 +39,7 @@ import {
   campaignSignOffSchema,
   importRequestSchema,
   measurementCreateSchema,
-  measurementDeleteQuerySchema,
   measurementBatchUpdateSchema,
-  measurementExclusionSchema,
-  measurementUpdateSchema,
   savedForecastCreateSchema,
 } from './schemas';
 import {
@@ -50,8 +48,6 @@ import {
   createMeasurement,
   createMeasurementsBatch,
   deleteCampaign,
-  deleteMeasurement,
-  deleteSavedForecast,
   getCampaign,
   listCampaigns,
   listMeasurements,
@@ -59,13 +55,8 @@ import {
   signOffCampaign,
   signOffOf,
   resolveCampaignProjectId,
-  resolveMeasurementProjectId,
-  resolveSavedForecastProjectId,
-  setMeasurementExclusion,
   updateCampaign,
-  updateMeasurement,
   updateMeasurementsBatch,
-  type ProjectActor,
 } from './service';
 
 export const batchSchema = z.strictObject({
@@ -75,13 +66,8 @@ export const batchSchema = z.strictObject({
     .max(MAX_BATCH_MEASUREMENTS, `at most ${MAX_BATCH_MEASUREMENTS} measurements per request`),
 });
 
-export const versionQuerySchema = z.object({
-  version: z.coerce
-    .number({ error: 'version must be a number' })
-    .int('version must be an integer')
-    .min(1, 'version must be at least 1')
-    .optional(),
-});
+/** Kept here for the OpenAPI registrar, which names it with the routes that read it. */
+export { versionQuerySchema } from './route-helpers';
 
 export const historyQuerySchema = z.object({
   limit: z.coerce
@@ -97,66 +83,16 @@ export const historyQuerySchema = z.object({
     .optional(),
 });
 
-/** A file name safe in Content-Disposition and on any disk: letters, digits, dot, dash, underscore. */
-const safeFileName = (name: string) =>
-  name
-    .replace(/[^\p{L}\p{N}._-]+/gu, '-')
-    .replace(/^[.-]+/, '')
-    .slice(0, 120) || 'file';
-
-const IF_MATCH = /^\s*(?:W\/)?"(\d+)"\s*$/;
-
-/** The version named by `If-Match: W/"<n>"`, or undefined when the header is absent. */
-function ifMatchVersion(req: Request): number | undefined {
-  const header = req.get('If-Match');
-  if (header === undefined) return undefined;
-  const m = IF_MATCH.exec(header);
-  if (!m)
-    throw new BadRequestError('If-Match must name one version, e.g. W/"3".', [{ path: 'If-Match', message: 'expected W/"<version>"' }]);
-  return Number(m[1]);
-}
-
-/** The body with `version` taken from If-Match when the body has none; both given must agree. */
-function withVersion(req: Request): unknown {
-  const body: unknown = req.body ?? {};
-  const header = ifMatchVersion(req);
-  if (header === undefined || body === null || typeof body !== 'object' || Array.isArray(body)) return body;
-  const sent = (body as { version?: unknown }).version;
-  if (sent === undefined) return { ...body, version: header };
-  if (sent !== header)
-    throw new BadRequestError(`If-Match names version ${header} but the body names version ${String(sent)}; send one.`, [
-      { path: 'version', message: 'disagrees with If-Match' },
-    ]);
-  return body;
-}
-
-/** Version of a delete: `?version=N` or If-Match. */
-function deleteVersion(req: Request, schema: z.ZodType<{ version?: number }> = versionQuerySchema): number {
-  const { version } = parseBody(schema, req.query);
-  const header = ifMatchVersion(req);
-  if (version !== undefined && header !== undefined && version !== header) {
-    throw new BadRequestError(`If-Match names version ${header} but the query names version ${version}; send one.`, [
-      { path: 'version', message: 'disagrees with If-Match' },
-    ]);
-  }
-  const v = version ?? header;
-  if (v === undefined)
-    throw new BadRequestError('Name the version you last read: ?version=N or If-Match: W/"N".', [
-      { path: 'version', message: 'version is required' },
-    ]);
-  return v;
-}
-
 /** Report e-mails a user may send per window (each may carry several recipients). */
 export const REPORT_MAIL_LIMIT = { windowMs: 15 * 60_000, limit: 10 };
 
-const actorOf = (req: Request): ProjectActor => ({ projectId: req.project!.id, actorUserId: req.user!.id });
-const etag = (version: number) => `W/"${version}"`;
-
 /**
- * Campaigns, measurements, imports, analysis, saved forecasts, the spreadsheet report and the
- * project comparison. Each route names its minimum role once; routes reached through a campaign,
- * measurement or forecast id resolve its project first (unknown ids are 404 for everyone).
+ * Campaigns and what hangs off one campaign (its measurements list and batch writes, imports,
+ * history, analysis, saved forecasts, reports), plus the campaign views reached through a project
+ * (list, create, project history, comparison). Mounted at /v1. One measurement, one saved forecast
+ * and one import file by id have their own routers (measurement-routes.ts, forecast-routes.ts,
+ * imports/file-routes.ts). Each route names its minimum role once; routes reached through a
+ * campaign id resolve its project first (unknown ids are 404 for everyone).
  */
 export function campaignsRouter(deps: {
   knex: Knex;
@@ -186,8 +122,6 @@ export function campaignsRouter(deps: {
   const byProject = (role: 'viewer' | 'editor') => authorizeProject(knex, role, projectIdParam);
   const byCampaign = (role: 'viewer' | 'editor') =>
     authorizeProject(knex, role, (req) => resolveCampaignProjectId(knex, req.params.campaignId));
-  const byMeasurement = authorizeProject(knex, 'editor', (req) => resolveMeasurementProjectId(knex, req.params.measurementId));
-  const byForecast = authorizeProject(knex, 'editor', (req) => resolveSavedForecastProjectId(knex, req.params.forecastId));
   const campaignId = (req: Request) => String(req.params.campaignId);
 
   router.get('/projects/:projectId/campaigns', byProject('viewer'), async (req, res) => {
@@ -248,29 +182,6 @@ export function campaignsRouter(deps: {
     res.json({ measurements: await updateMeasurementsBatch(knex, actorOf(req), campaignId(req), measurements) });
   });
 
-  router.patch('/measurements/:measurementId', byMeasurement, async (req, res) => {
-    res.json(
-      await updateMeasurement(knex, actorOf(req), String(req.params.measurementId), parseBody(measurementUpdateSchema, withVersion(req))),
-    );
-  });
-
-  router.put('/measurements/:measurementId/exclusion', byMeasurement, async (req, res) => {
-    res.json(
-      await setMeasurementExclusion(
-        knex,
-        actorOf(req),
-        String(req.params.measurementId),
-        parseBody(measurementExclusionSchema, withVersion(req)),
-      ),
-    );
-  });
-
-  router.delete('/measurements/:measurementId', byMeasurement, async (req, res) => {
-    const { reason } = parseBody(measurementDeleteQuerySchema, req.query);
-    await deleteMeasurement(knex, actorOf(req), String(req.params.measurementId), deleteVersion(req, measurementDeleteQuerySchema), reason);
-    res.status(204).end();
-  });
-
   // Authorization runs before the upload is read, so a caller without the role never streams a file in.
   router.post('/campaigns/:campaignId/imports/preview', byCampaign('editor'), uploadLimit, importUpload(), async (req, res) => {
     await getCampaign(knex, req.project!.id, campaignId(req));
@@ -317,24 +228,6 @@ export function campaignsRouter(deps: {
     await getCampaign(knex, req.project!.id, campaignId(req));
     res.json({ files: await listImportFiles(knex, campaignId(req)) });
   });
-
-  router.get(
-    '/import-files/:fileId',
-    authorizeProject(knex, 'viewer', (req) => resolveImportFileProjectId(knex, req.params.fileId)),
-    async (req, res) => {
-      const file = await readImportFile(knex, req.project!.id, String(req.params.fileId));
-      res
-        .status(200)
-        .type(file.mediaType)
-        .attachment(safeFileName(file.fileName))
-        .set({
-          'Cache-Control': 'private, no-store',
-          'X-Content-Type-Options': 'nosniff',
-          'Content-Digest': `sha-256=:${Buffer.from(file.sha256, 'hex').toString('base64')}:`,
-        })
-        .send(file.content);
-    },
-  );
 
   router.get('/campaigns/:campaignId/history', byCampaign('viewer'), async (req, res) => {
     await getCampaign(knex, req.project!.id, campaignId(req));
@@ -401,11 +294,6 @@ export function campaignsRouter(deps: {
       ...(quantitationLimit === undefined ? {} : { quantitationLimitValue: quantitationLimit }),
     });
     res.status(201).json(view);
-  });
-
-  router.delete('/forecasts/:forecastId', byForecast, async (req, res) => {
-    await deleteSavedForecast(knex, actorOf(req), String(req.params.forecastId));
-    res.status(204).end();
   });
 
   // The report built in the background (202 and a job; the file at /jobs/:id/file) or e-mailed to the caller.

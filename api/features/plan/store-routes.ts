@@ -1,27 +1,16 @@
 import { Router, type Request } from 'express';
 import type { Knex } from 'knex';
 import { parseBody } from '../../lib/validation';
-import { requireUser } from '../auth/middleware';
 import { authorizeProject, projectIdParam } from '../projects/policy';
-import { resolveCampaignProjectId, type ProjectActor } from '../campaigns/service';
-import { campaignPlanPutSchema, comparisonCreateSchema, specificationPutSchema } from './schemas';
-import {
-  createComparison,
-  getCampaignPlan,
-  getCampaignSpecification,
-  getComparison,
-  getProjectSpecification,
-  listComparisons,
-  putCampaignPlan,
-  putSpecification,
-  resolveComparisonProjectId,
-} from './store';
-
-const actorOf = (req: Request): ProjectActor => ({ projectId: req.project!.id, actorUserId: req.user!.id });
+import { resolveCampaignProjectId } from '../campaigns/service';
+import { actorOf } from '../campaigns/route-helpers';
+import { campaignPlanPutSchema, specificationPutSchema } from './schemas';
+import { getCampaignPlan, getCampaignSpecification, getProjectSpecification, putCampaignPlan, putSpecification } from './store';
 
 /**
- * Specifications (project default, campaign override), a campaign's stored plan and saved
- * comparisons. Viewers read, editors write; ids outside the caller's projects are 404.
+ * Specifications (project default, campaign override) and a campaign's stored plan, reached through
+ * their project or campaign. Viewers read, editors write; ids outside the caller's projects are 404.
+ * Saved comparisons have their own prefix: comparison-routes.ts.
  */
 export function planStoreRouter(deps: { knex: Knex }): Router {
   const { knex } = deps;
@@ -57,25 +46,6 @@ export function planStoreRouter(deps: { knex: Knex }): Router {
     const plan = await putCampaignPlan(knex, actorOf(req), campaignId(req), parseBody(campaignPlanPutSchema, req.body));
     res.set('ETag', `W/"${plan.version}"`).json({ plan });
   });
-
-  router.get('/comparisons', requireUser, async (req, res) => {
-    res.json({ comparisons: await listComparisons(knex, req.user!.id) });
-  });
-
-  // The project a comparison is saved in comes from the body: check its shape first (400), then the role.
-  const byBodyProject = authorizeProject(knex, 'editor', (req) => parseBody(comparisonCreateSchema, req.body).projectId);
-  router.post('/comparisons', byBodyProject, async (req, res) => {
-    const view = await createComparison(knex, actorOf(req), parseBody(comparisonCreateSchema, req.body));
-    res.status(201).location(`/api/v1/comparisons/${view.id}`).json(view);
-  });
-
-  router.get(
-    '/comparisons/:comparisonId',
-    authorizeProject(knex, 'viewer', (req) => resolveComparisonProjectId(knex, req.params.comparisonId)),
-    async (req, res) => {
-      res.json(await getComparison(knex, req.project!.id, req.user!.id, String(req.params.comparisonId)));
-    },
-  );
 
   return router;
 }
