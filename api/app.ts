@@ -30,6 +30,7 @@ import { planStoreRouter } from './features/plan/store-routes';
 import { comparisonsRouter } from './features/plan/comparison-routes';
 import { docsRouter } from './features/docs/routes';
 import { campaignsRouter } from './features/campaigns/routes';
+import { projectCampaignsRouter } from './features/campaigns/project-routes';
 import { measurementsRouter } from './features/campaigns/measurement-routes';
 import { forecastsRouter } from './features/campaigns/forecast-routes';
 import { importFilesRouter } from './features/imports/file-routes';
@@ -169,8 +170,9 @@ export function createApp(deps: AppDeps): Express {
     keyOf: (req) => (req.user ? `user:${req.user.id}` : ipKeyGenerator(req.ip ?? '')),
     message: 'Too many file uploads or report builds from you; wait a few minutes and try again.',
   });
+  api.use('/v1/projects/:projectId', projectCampaignsRouter({ knex: deps.knex }));
   api.use(
-    '/v1',
+    '/v1/campaigns',
     campaignsRouter({
       knex: deps.knex,
       version: deps.config.version,

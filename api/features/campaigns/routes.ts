@@ -3,16 +3,15 @@ import type { Knex } from 'knex';
 import { z } from 'zod';
 import { BadRequestError } from '../../lib/errors';
 import { parseBody } from '../../lib/validation';
-import { authorizeProject, projectIdParam } from '../projects/policy';
+import { authorizeProject } from '../projects/policy';
 import { importUpload, jsonField, uploadedFile } from '../imports/upload';
 import { historyCsv, readHistory } from '../audit/history';
 import { importTemplateCsv, listImportFiles } from '../imports/files';
 import { importMeasurements, storedRowKeys } from '../imports/service';
 import { previewInPool } from '../imports/parse-pool';
 import { serialisedCampaignAnalysis } from './analysis';
-import { compareCampaigns } from './analysis-comparison';
 import { listCampaignForecasts, saveCampaignForecast } from './analysis-forecasts';
-import { analysisQuerySchema, comparisonQuerySchema } from './analysis-schemas';
+import { analysisQuerySchema } from './analysis-schemas';
 import { reportFileName } from './report';
 import {
   forecastCsv,
@@ -32,7 +31,6 @@ import type { JobQueue } from '../jobs/queue';
 import { jobView } from '../jobs/routes';
 import { actorOf, deleteVersion, etag, safeFileName, withVersion } from './route-helpers';
 import {
-  campaignCreateSchema,
   campaignUpdateSchema,
   importPreviewRequestSchema,
   campaignReopenSchema,
@@ -44,12 +42,10 @@ import {
 } from './schemas';
 import {
   MAX_BATCH_MEASUREMENTS,
-  createCampaign,
   createMeasurement,
   createMeasurementsBatch,
   deleteCampaign,
   getCampaign,
-  listCampaigns,
   listMeasurements,
   reopenCampaign,
   signOffCampaign,
@@ -87,12 +83,12 @@ export const historyQuerySchema = z.object({
 export const REPORT_MAIL_LIMIT = { windowMs: 15 * 60_000, limit: 10 };
 
 /**
- * Campaigns and what hangs off one campaign (its measurements list and batch writes, imports,
- * history, analysis, saved forecasts, reports), plus the campaign views reached through a project
- * (list, create, project history, comparison). Mounted at /v1. One measurement, one saved forecast
- * and one import file by id have their own routers (measurement-routes.ts, forecast-routes.ts,
- * imports/file-routes.ts). Each route names its minimum role once; routes reached through a
- * campaign id resolve its project first (unknown ids are 404 for everyone).
+ * One campaign and what hangs off it (its measurements list and batch writes, imports, history,
+ * analysis, saved forecasts, reports), mounted at /v1/campaigns. The views reached through a
+ * project are in project-routes.ts; one measurement, one saved forecast and one import file by id
+ * have their own routers (measurement-routes.ts, forecast-routes.ts, imports/file-routes.ts).
+ * Each route names its minimum role once; routes reached through a campaign id resolve its project
+ * first (unknown ids are 404 for everyone).
  */
 export function campaignsRouter(deps: {
   knex: Knex;
@@ -119,22 +115,11 @@ export function campaignsRouter(deps: {
   };
   const mailLimit = limiter(REPORT_MAIL_LIMIT.windowMs, deps.reportMailLimit ?? REPORT_MAIL_LIMIT.limit, 'report e-mail', true);
   const router = Router();
-  const byProject = (role: 'viewer' | 'editor') => authorizeProject(knex, role, projectIdParam);
   const byCampaign = (role: 'viewer' | 'editor') =>
     authorizeProject(knex, role, (req) => resolveCampaignProjectId(knex, req.params.campaignId));
   const campaignId = (req: Request) => String(req.params.campaignId);
 
-  router.get('/projects/:projectId/campaigns', byProject('viewer'), async (req, res) => {
-    const list = await listCampaigns(knex, req.project!.id);
-    res.json({ campaigns: list.map(({ campaign, ...stats }) => ({ ...campaign.toJSON(), ...stats })) });
-  });
-
-  router.post('/projects/:projectId/campaigns', byProject('editor'), async (req, res) => {
-    const campaign = await createCampaign(knex, actorOf(req), parseBody(campaignCreateSchema, req.body));
-    res.status(201).location(`/api/v1/campaigns/${campaign.id}`).set('ETag', etag(campaign.version)).json(campaign);
-  });
-
-  router.get('/campaigns/:campaignId', byCampaign('viewer'), async (req, res) => {
+  router.get('/:campaignId', byCampaign('viewer'), async (req, res) => {
     const campaign = await getCampaign(knex, req.project!.id, campaignId(req));
     // The body carries the caller's role, which the version ETag does not capture: never let a
     // browser answer a second account from its cache (304 on If-None-Match).
@@ -143,47 +128,47 @@ export function campaignsRouter(deps: {
       .json({ ...campaign.toJSON(), projectId: req.project!.id, role: req.project!.role, signOff: await signOffOf(knex, campaign) });
   });
 
-  router.post('/campaigns/:campaignId/sign-off', byCampaign('editor'), async (req, res) => {
+  router.post('/:campaignId/sign-off', byCampaign('editor'), async (req, res) => {
     const campaign = await signOffCampaign(knex, actorOf(req), campaignId(req), parseBody(campaignSignOffSchema, req.body ?? {}));
     res.set('ETag', etag(campaign.version)).json({ ...campaign.toJSON(), signOff: await signOffOf(knex, campaign) });
   });
 
-  router.post('/campaigns/:campaignId/reopen', byCampaign('editor'), async (req, res) => {
+  router.post('/:campaignId/reopen', byCampaign('editor'), async (req, res) => {
     const campaign = await reopenCampaign(knex, actorOf(req), campaignId(req), parseBody(campaignReopenSchema, req.body));
     res.set('ETag', etag(campaign.version)).json({ ...campaign.toJSON(), signOff: null });
   });
 
-  router.patch('/campaigns/:campaignId', byCampaign('editor'), async (req, res) => {
+  router.patch('/:campaignId', byCampaign('editor'), async (req, res) => {
     const campaign = await updateCampaign(knex, actorOf(req), campaignId(req), parseBody(campaignUpdateSchema, withVersion(req)));
     res.set('ETag', etag(campaign.version)).json(campaign);
   });
 
-  router.delete('/campaigns/:campaignId', byCampaign('editor'), async (req, res) => {
+  router.delete('/:campaignId', byCampaign('editor'), async (req, res) => {
     await deleteCampaign(knex, actorOf(req), campaignId(req), deleteVersion(req));
     res.status(204).end();
   });
 
-  router.get('/campaigns/:campaignId/measurements', byCampaign('viewer'), async (req, res) => {
+  router.get('/:campaignId/measurements', byCampaign('viewer'), async (req, res) => {
     res.json({ measurements: await listMeasurements(knex, req.project!.id, campaignId(req)) });
   });
 
-  router.post('/campaigns/:campaignId/measurements', byCampaign('editor'), async (req, res) => {
+  router.post('/:campaignId/measurements', byCampaign('editor'), async (req, res) => {
     const measurement = await createMeasurement(knex, actorOf(req), campaignId(req), parseBody(measurementCreateSchema, req.body));
     res.status(201).location(`/api/v1/measurements/${measurement.id}`).json(measurement);
   });
 
-  router.post('/campaigns/:campaignId/measurements/batch', byCampaign('editor'), async (req, res) => {
+  router.post('/:campaignId/measurements/batch', byCampaign('editor'), async (req, res) => {
     const { measurements } = parseBody(batchSchema, req.body);
     res.status(201).json({ created: await createMeasurementsBatch(knex, actorOf(req), campaignId(req), measurements) });
   });
 
-  router.patch('/campaigns/:campaignId/measurements', byCampaign('editor'), async (req, res) => {
+  router.patch('/:campaignId/measurements', byCampaign('editor'), async (req, res) => {
     const { measurements } = parseBody(measurementBatchUpdateSchema, req.body);
     res.json({ measurements: await updateMeasurementsBatch(knex, actorOf(req), campaignId(req), measurements) });
   });
 
   // Authorization runs before the upload is read, so a caller without the role never streams a file in.
-  router.post('/campaigns/:campaignId/imports/preview', byCampaign('editor'), uploadLimit, importUpload(), async (req, res) => {
+  router.post('/:campaignId/imports/preview', byCampaign('editor'), uploadLimit, importUpload(), async (req, res) => {
     await getCampaign(knex, req.project!.id, campaignId(req));
     // Read and checked in a worker thread (a large file never holds the event loop); the stored runs' keys go with it
     // so the preview can warn about repeats.
@@ -191,7 +176,7 @@ export function campaignsRouter(deps: {
     res.json(await previewInPool(uploadedFile(req), jsonField(req, 'request', importPreviewRequestSchema), undefined, stored));
   });
 
-  router.post('/campaigns/:campaignId/imports', byCampaign('editor'), uploadLimit, importUpload(), async (req, res) => {
+  router.post('/:campaignId/imports', byCampaign('editor'), uploadLimit, importUpload(), async (req, res) => {
     const request = jsonField(req, 'request', importRequestSchema);
     const file = uploadedFile(req);
     if (file.buffer.length > deps.importJobBytes) {
@@ -214,7 +199,7 @@ export function campaignsRouter(deps: {
     res.status(201).json(await importMeasurements(knex, actorOf(req), campaignId(req), file, request));
   });
 
-  router.get('/campaigns/:campaignId/imports/template.csv', byCampaign('viewer'), async (req, res) => {
+  router.get('/:campaignId/imports/template.csv', byCampaign('viewer'), async (req, res) => {
     const campaign = await getCampaign(knex, req.project!.id, campaignId(req));
     res
       .status(200)
@@ -224,19 +209,19 @@ export function campaignsRouter(deps: {
       .send(importTemplateCsv(campaign.measure));
   });
 
-  router.get('/campaigns/:campaignId/files', byCampaign('viewer'), async (req, res) => {
+  router.get('/:campaignId/files', byCampaign('viewer'), async (req, res) => {
     await getCampaign(knex, req.project!.id, campaignId(req));
     res.json({ files: await listImportFiles(knex, campaignId(req)) });
   });
 
-  router.get('/campaigns/:campaignId/history', byCampaign('viewer'), async (req, res) => {
+  router.get('/:campaignId/history', byCampaign('viewer'), async (req, res) => {
     await getCampaign(knex, req.project!.id, campaignId(req));
     res
       .set('Cache-Control', 'private, no-store')
       .json(await readHistory(knex, { projectId: req.project!.id, campaignId: campaignId(req) }, parseBody(historyQuerySchema, req.query)));
   });
 
-  router.get('/campaigns/:campaignId/history.csv', byCampaign('viewer'), async (req, res) => {
+  router.get('/:campaignId/history.csv', byCampaign('viewer'), async (req, res) => {
     const campaign = await getCampaign(knex, req.project!.id, campaignId(req));
     const csv = await historyCsv(knex, { projectId: req.project!.id, campaignId: campaign.id });
     res
@@ -247,24 +232,7 @@ export function campaignsRouter(deps: {
       .send(csv);
   });
 
-  router.get('/projects/:projectId/history', authorizeProject(knex, 'owner', projectIdParam), async (req, res) => {
-    res
-      .set('Cache-Control', 'private, no-store')
-      .json(await readHistory(knex, { projectId: req.project!.id }, parseBody(historyQuerySchema, req.query)));
-  });
-
-  router.get('/projects/:projectId/history.csv', authorizeProject(knex, 'owner', projectIdParam), async (req, res) => {
-    const project = await knex('projects').where({ id: req.project!.id }).first('name');
-    const csv = await historyCsv(knex, { projectId: req.project!.id });
-    res
-      .status(200)
-      .type('text/csv; charset=utf-8')
-      .attachment(`${safeFileName(String(project?.name ?? 'project'))}-history.csv`)
-      .set('Cache-Control', 'no-store')
-      .send(csv);
-  });
-
-  router.get('/campaigns/:campaignId/analysis', byCampaign('viewer'), async (req, res) => {
+  router.get('/:campaignId/analysis', byCampaign('viewer'), async (req, res) => {
     const { etag: tag, body } = await serialisedCampaignAnalysis(
       knex,
       req.project!.id,
@@ -279,11 +247,11 @@ export function campaignsRouter(deps: {
     res.type('application/json').send(body);
   });
 
-  router.get('/campaigns/:campaignId/forecasts', byCampaign('viewer'), async (req, res) => {
+  router.get('/:campaignId/forecasts', byCampaign('viewer'), async (req, res) => {
     res.json({ forecasts: await listCampaignForecasts(knex, req.project!.id, campaignId(req)) });
   });
 
-  router.post('/campaigns/:campaignId/forecasts', byCampaign('editor'), async (req, res) => {
+  router.post('/:campaignId/forecasts', byCampaign('editor'), async (req, res) => {
     const input = parseBody(savedForecastCreateSchema, req.body);
     const { weighting, uncertaintyScale, confidence, newRunUncertainty, quantitationLimit } = parseBody(analysisQuerySchema, req.query);
     const view = await saveCampaignForecast(knex, actorOf(req), campaignId(req), input, {
@@ -298,8 +266,8 @@ export function campaignsRouter(deps: {
 
   // The report built in the background (202 and a job; the file at /jobs/:id/file) or e-mailed to the caller.
   for (const [path, kind] of [
-    ['/campaigns/:campaignId/report-jobs', 'report'],
-    ['/campaigns/:campaignId/report-emails', 'report-email'],
+    ['/:campaignId/report-jobs', 'report'],
+    ['/:campaignId/report-emails', 'report-email'],
   ] as const) {
     router.post(path, byCampaign('viewer'), uploadLimit, async (req, res) => {
       await getCampaign(knex, req.project!.id, campaignId(req));
@@ -311,7 +279,7 @@ export function campaignsRouter(deps: {
     });
   }
 
-  router.get('/campaigns/:campaignId/report.xlsx', byCampaign('viewer'), async (req, res) => {
+  router.get('/:campaignId/report.xlsx', byCampaign('viewer'), async (req, res) => {
     const report = await reportOf(req);
     res
       .status(200)
@@ -321,7 +289,7 @@ export function campaignsRouter(deps: {
       .send(await xlsxOf(report));
   });
 
-  router.get('/campaigns/:campaignId/report.pdf', byCampaign('viewer'), async (req, res) => {
+  router.get('/:campaignId/report.pdf', byCampaign('viewer'), async (req, res) => {
     const report = await reportOf(req);
     res
       .status(200)
@@ -331,7 +299,7 @@ export function campaignsRouter(deps: {
       .send(await pdfOf(report));
   });
 
-  router.get('/campaigns/:campaignId/measurements.csv', byCampaign('viewer'), async (req, res) => {
+  router.get('/:campaignId/measurements.csv', byCampaign('viewer'), async (req, res) => {
     const data = await loadCampaignReportData(knex, req.project!.id, campaignId(req));
     const model = buildReportModel(data, meta(req));
     res
@@ -342,7 +310,7 @@ export function campaignsRouter(deps: {
       .send(measurementsCsv(model));
   });
 
-  router.get('/campaigns/:campaignId/forecast.csv', byCampaign('viewer'), async (req, res) => {
+  router.get('/:campaignId/forecast.csv', byCampaign('viewer'), async (req, res) => {
     const { at } = parseBody(reportQuerySchema, req.query);
     const data = await loadCampaignReportData(knex, req.project!.id, campaignId(req), at === undefined ? {} : { atC: at });
     const model = buildReportModel(data, meta(req));
@@ -354,7 +322,7 @@ export function campaignsRouter(deps: {
       .send(forecastCsv(model));
   });
 
-  router.post('/campaigns/:campaignId/report/email', byCampaign('viewer'), mailLimit, async (req, res) => {
+  router.post('/:campaignId/report/email', byCampaign('viewer'), mailLimit, async (req, res) => {
     const request = parseBody(reportMailSchema, req.body);
     if (!deps.mailer) throw new BadRequestError('This server has no mail transport configured.');
     const sent = await sendCampaignReport(knex, deps.mailer, {
@@ -365,11 +333,6 @@ export function campaignsRouter(deps: {
       userId: req.user!.id,
     });
     res.status(200).json(sent);
-  });
-
-  router.get('/projects/:projectId/comparison', byProject('viewer'), async (req, res) => {
-    const { at } = parseBody(comparisonQuerySchema, req.query);
-    res.json(await compareCampaigns(knex, req.project!.id, at));
   });
 
   return router;
