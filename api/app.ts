@@ -26,7 +26,7 @@ import { mailboxRouter } from './features/mail/routes';
 import { ipKeyGenerator } from 'express-rate-limit';
 import { calculatorsRouter } from './features/calculators/routes';
 import { planRouter } from './features/plan/routes';
-import { planStoreRouter } from './features/plan/store-routes';
+import { campaignPlanRouter, projectSpecificationRouter } from './features/plan/store-routes';
 import { comparisonsRouter } from './features/plan/comparison-routes';
 import { docsRouter } from './features/docs/routes';
 import { campaignsRouter } from './features/campaigns/routes';
@@ -171,6 +171,7 @@ export function createApp(deps: AppDeps): Express {
     message: 'Too many file uploads or report builds from you; wait a few minutes and try again.',
   });
   api.use('/v1/projects/:projectId', projectCampaignsRouter({ knex: deps.knex }));
+  api.use('/v1/projects/:projectId/specification', projectSpecificationRouter({ knex: deps.knex }));
   api.use(
     '/v1/campaigns',
     campaignsRouter({
@@ -182,12 +183,12 @@ export function createApp(deps: AppDeps): Express {
       mailer,
     }),
   );
+  api.use('/v1/campaigns/:campaignId', campaignPlanRouter({ knex: deps.knex }));
   api.use('/v1/measurements', measurementsRouter({ knex: deps.knex }));
   api.use('/v1/import-files', importFilesRouter({ knex: deps.knex }));
   api.use('/v1/forecasts', forecastsRouter({ knex: deps.knex }));
   api.use('/v1/comparisons', comparisonsRouter({ knex: deps.knex }));
   api.use('/v1/jobs', jobsRouter({ knex: deps.knex }));
-  api.use('/v1', planStoreRouter({ knex: deps.knex }));
   api.use('/{*splat}', notFoundHandler);
   app.use('/api', api);
 
