@@ -26,9 +26,14 @@ import { mailboxRouter } from './features/mail/routes';
 import { ipKeyGenerator } from 'express-rate-limit';
 import { calculatorsRouter } from './features/calculators/routes';
 import { planRouter } from './features/plan/routes';
-import { planStoreRouter } from './features/plan/store-routes';
+import { campaignPlanRouter, projectSpecificationRouter } from './features/plan/store-routes';
+import { comparisonsRouter } from './features/plan/comparison-routes';
 import { docsRouter } from './features/docs/routes';
 import { campaignsRouter } from './features/campaigns/routes';
+import { projectCampaignsRouter } from './features/campaigns/project-routes';
+import { measurementsRouter } from './features/campaigns/measurement-routes';
+import { forecastsRouter } from './features/campaigns/forecast-routes';
+import { importFilesRouter } from './features/imports/file-routes';
 import { JobQueue, jobOptionsFromEnv } from './features/jobs/queue';
 import { abandonRunningJobs, jobHandlers } from './features/jobs/runner';
 import { jobsRouter } from './features/jobs/routes';
@@ -165,8 +170,10 @@ export function createApp(deps: AppDeps): Express {
     keyOf: (req) => (req.user ? `user:${req.user.id}` : ipKeyGenerator(req.ip ?? '')),
     message: 'Too many file uploads or report builds from you; wait a few minutes and try again.',
   });
+  api.use('/v1/projects/:projectId', projectCampaignsRouter({ knex: deps.knex }));
+  api.use('/v1/projects/:projectId/specification', projectSpecificationRouter({ knex: deps.knex }));
   api.use(
-    '/v1',
+    '/v1/campaigns',
     campaignsRouter({
       knex: deps.knex,
       version: deps.config.version,
@@ -176,8 +183,12 @@ export function createApp(deps: AppDeps): Express {
       mailer,
     }),
   );
+  api.use('/v1/campaigns/:campaignId', campaignPlanRouter({ knex: deps.knex }));
+  api.use('/v1/measurements', measurementsRouter({ knex: deps.knex }));
+  api.use('/v1/import-files', importFilesRouter({ knex: deps.knex }));
+  api.use('/v1/forecasts', forecastsRouter({ knex: deps.knex }));
+  api.use('/v1/comparisons', comparisonsRouter({ knex: deps.knex }));
   api.use('/v1/jobs', jobsRouter({ knex: deps.knex }));
-  api.use('/v1', planStoreRouter({ knex: deps.knex }));
   api.use('/{*splat}', notFoundHandler);
   app.use('/api', api);
 

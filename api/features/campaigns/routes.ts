@@ -3,16 +3,15 @@ import type { Knex } from 'knex';
 import { z } from 'zod';
 import { BadRequestError } from '../../lib/errors';
 import { parseBody } from '../../lib/validation';
-import { authorizeProject, projectIdParam } from '../projects/policy';
+import { authorizeProject } from '../projects/policy';
 import { importUpload, jsonField, uploadedFile } from '../imports/upload';
 import { historyCsv, readHistory } from '../audit/history';
-import { importTemplateCsv, listImportFiles, readImportFile, resolveImportFileProjectId } from '../imports/files';
+import { importTemplateCsv, listImportFiles } from '../imports/files';
 import { importMeasurements, storedRowKeys } from '../imports/service';
 import { previewInPool } from '../imports/parse-pool';
 import { serialisedCampaignAnalysis } from './analysis';
-import { compareCampaigns } from './analysis-comparison';
 import { listCampaignForecasts, saveCampaignForecast } from './analysis-forecasts';
-import { analysisQuerySchema, comparisonQuerySchema } from './analysis-schemas';
+import { analysisQuerySchema } from './analysis-schemas';
 import { reportFileName } from './report';
 import {
   forecastCsv,
@@ -30,42 +29,30 @@ import type { Mailer } from '../mail/mailer';
 import { limiter } from '../auth/setup';
 import type { JobQueue } from '../jobs/queue';
 import { jobView } from '../jobs/routes';
+import { actorOf, deleteVersion, etag, safeFileName, withVersion } from './route-helpers';
 import {
-  campaignCreateSchema,
   campaignUpdateSchema,
   importPreviewRequestSchema,
   campaignReopenSchema,
   campaignSignOffSchema,
   importRequestSchema,
   measurementCreateSchema,
-  measurementDeleteQuerySchema,
   measurementBatchUpdateSchema,
-  measurementExclusionSchema,
-  measurementUpdateSchema,
   savedForecastCreateSchema,
 } from './schemas';
 import {
   MAX_BATCH_MEASUREMENTS,
-  createCampaign,
   createMeasurement,
   createMeasurementsBatch,
   deleteCampaign,
-  deleteMeasurement,
-  deleteSavedForecast,
   getCampaign,
-  listCampaigns,
   listMeasurements,
   reopenCampaign,
   signOffCampaign,
   signOffOf,
   resolveCampaignProjectId,
-  resolveMeasurementProjectId,
-  resolveSavedForecastProjectId,
-  setMeasurementExclusion,
   updateCampaign,
-  updateMeasurement,
   updateMeasurementsBatch,
-  type ProjectActor,
 } from './service';
 
 export const batchSchema = z.strictObject({
@@ -75,13 +62,8 @@ export const batchSchema = z.strictObject({
     .max(MAX_BATCH_MEASUREMENTS, `at most ${MAX_BATCH_MEASUREMENTS} measurements per request`),
 });
 
-export const versionQuerySchema = z.object({
-  version: z.coerce
-    .number({ error: 'version must be a number' })
-    .int('version must be an integer')
-    .min(1, 'version must be at least 1')
-    .optional(),
-});
+/** Kept here for the OpenAPI registrar, which names it with the routes that read it. */
+export { versionQuerySchema } from './route-helpers';
 
 export const historyQuerySchema = z.object({
   limit: z.coerce
@@ -97,66 +79,16 @@ export const historyQuerySchema = z.object({
     .optional(),
 });
 
-/** A file name safe in Content-Disposition and on any disk: letters, digits, dot, dash, underscore. */
-const safeFileName = (name: string) =>
-  name
-    .replace(/[^\p{L}\p{N}._-]+/gu, '-')
-    .replace(/^[.-]+/, '')
-    .slice(0, 120) || 'file';
-
-const IF_MATCH = /^\s*(?:W\/)?"(\d+)"\s*$/;
-
-/** The version named by `If-Match: W/"<n>"`, or undefined when the header is absent. */
-function ifMatchVersion(req: Request): number | undefined {
-  const header = req.get('If-Match');
-  if (header === undefined) return undefined;
-  const m = IF_MATCH.exec(header);
-  if (!m)
-    throw new BadRequestError('If-Match must name one version, e.g. W/"3".', [{ path: 'If-Match', message: 'expected W/"<version>"' }]);
-  return Number(m[1]);
-}
-
-/** The body with `version` taken from If-Match when the body has none; both given must agree. */
-function withVersion(req: Request): unknown {
-  const body: unknown = req.body ?? {};
-  const header = ifMatchVersion(req);
-  if (header === undefined || body === null || typeof body !== 'object' || Array.isArray(body)) return body;
-  const sent = (body as { version?: unknown }).version;
-  if (sent === undefined) return { ...body, version: header };
-  if (sent !== header)
-    throw new BadRequestError(`If-Match names version ${header} but the body names version ${String(sent)}; send one.`, [
-      { path: 'version', message: 'disagrees with If-Match' },
-    ]);
-  return body;
-}
-
-/** Version of a delete: `?version=N` or If-Match. */
-function deleteVersion(req: Request, schema: z.ZodType<{ version?: number }> = versionQuerySchema): number {
-  const { version } = parseBody(schema, req.query);
-  const header = ifMatchVersion(req);
-  if (version !== undefined && header !== undefined && version !== header) {
-    throw new BadRequestError(`If-Match names version ${header} but the query names version ${version}; send one.`, [
-      { path: 'version', message: 'disagrees with If-Match' },
-    ]);
-  }
-  const v = version ?? header;
-  if (v === undefined)
-    throw new BadRequestError('Name the version you last read: ?version=N or If-Match: W/"N".', [
-      { path: 'version', message: 'version is required' },
-    ]);
-  return v;
-}
-
 /** Report e-mails a user may send per window (each may carry several recipients). */
 export const REPORT_MAIL_LIMIT = { windowMs: 15 * 60_000, limit: 10 };
 
-const actorOf = (req: Request): ProjectActor => ({ projectId: req.project!.id, actorUserId: req.user!.id });
-const etag = (version: number) => `W/"${version}"`;
-
 /**
- * Campaigns, measurements, imports, analysis, saved forecasts, the spreadsheet report and the
- * project comparison. Each route names its minimum role once; routes reached through a campaign,
- * measurement or forecast id resolve its project first (unknown ids are 404 for everyone).
+ * One campaign and what hangs off it (its measurements list and batch writes, imports, history,
+ * analysis, saved forecasts, reports), mounted at /v1/campaigns. The views reached through a
+ * project are in project-routes.ts; one measurement, one saved forecast and one import file by id
+ * have their own routers (measurement-routes.ts, forecast-routes.ts, imports/file-routes.ts).
+ * Each route names its minimum role once; routes reached through a campaign id resolve its project
+ * first (unknown ids are 404 for everyone).
  */
 export function campaignsRouter(deps: {
   knex: Knex;
@@ -183,24 +115,11 @@ export function campaignsRouter(deps: {
   };
   const mailLimit = limiter(REPORT_MAIL_LIMIT.windowMs, deps.reportMailLimit ?? REPORT_MAIL_LIMIT.limit, 'report e-mail', true);
   const router = Router();
-  const byProject = (role: 'viewer' | 'editor') => authorizeProject(knex, role, projectIdParam);
   const byCampaign = (role: 'viewer' | 'editor') =>
     authorizeProject(knex, role, (req) => resolveCampaignProjectId(knex, req.params.campaignId));
-  const byMeasurement = authorizeProject(knex, 'editor', (req) => resolveMeasurementProjectId(knex, req.params.measurementId));
-  const byForecast = authorizeProject(knex, 'editor', (req) => resolveSavedForecastProjectId(knex, req.params.forecastId));
   const campaignId = (req: Request) => String(req.params.campaignId);
 
-  router.get('/projects/:projectId/campaigns', byProject('viewer'), async (req, res) => {
-    const list = await listCampaigns(knex, req.project!.id);
-    res.json({ campaigns: list.map(({ campaign, ...stats }) => ({ ...campaign.toJSON(), ...stats })) });
-  });
-
-  router.post('/projects/:projectId/campaigns', byProject('editor'), async (req, res) => {
-    const campaign = await createCampaign(knex, actorOf(req), parseBody(campaignCreateSchema, req.body));
-    res.status(201).location(`/api/v1/campaigns/${campaign.id}`).set('ETag', etag(campaign.version)).json(campaign);
-  });
-
-  router.get('/campaigns/:campaignId', byCampaign('viewer'), async (req, res) => {
+  router.get('/:campaignId', byCampaign('viewer'), async (req, res) => {
     const campaign = await getCampaign(knex, req.project!.id, campaignId(req));
     // The body carries the caller's role, which the version ETag does not capture: never let a
     // browser answer a second account from its cache (304 on If-None-Match).
@@ -209,70 +128,47 @@ export function campaignsRouter(deps: {
       .json({ ...campaign.toJSON(), projectId: req.project!.id, role: req.project!.role, signOff: await signOffOf(knex, campaign) });
   });
 
-  router.post('/campaigns/:campaignId/sign-off', byCampaign('editor'), async (req, res) => {
+  router.post('/:campaignId/sign-off', byCampaign('editor'), async (req, res) => {
     const campaign = await signOffCampaign(knex, actorOf(req), campaignId(req), parseBody(campaignSignOffSchema, req.body ?? {}));
     res.set('ETag', etag(campaign.version)).json({ ...campaign.toJSON(), signOff: await signOffOf(knex, campaign) });
   });
 
-  router.post('/campaigns/:campaignId/reopen', byCampaign('editor'), async (req, res) => {
+  router.post('/:campaignId/reopen', byCampaign('editor'), async (req, res) => {
     const campaign = await reopenCampaign(knex, actorOf(req), campaignId(req), parseBody(campaignReopenSchema, req.body));
     res.set('ETag', etag(campaign.version)).json({ ...campaign.toJSON(), signOff: null });
   });
 
-  router.patch('/campaigns/:campaignId', byCampaign('editor'), async (req, res) => {
+  router.patch('/:campaignId', byCampaign('editor'), async (req, res) => {
     const campaign = await updateCampaign(knex, actorOf(req), campaignId(req), parseBody(campaignUpdateSchema, withVersion(req)));
     res.set('ETag', etag(campaign.version)).json(campaign);
   });
 
-  router.delete('/campaigns/:campaignId', byCampaign('editor'), async (req, res) => {
+  router.delete('/:campaignId', byCampaign('editor'), async (req, res) => {
     await deleteCampaign(knex, actorOf(req), campaignId(req), deleteVersion(req));
     res.status(204).end();
   });
 
-  router.get('/campaigns/:campaignId/measurements', byCampaign('viewer'), async (req, res) => {
+  router.get('/:campaignId/measurements', byCampaign('viewer'), async (req, res) => {
     res.json({ measurements: await listMeasurements(knex, req.project!.id, campaignId(req)) });
   });
 
-  router.post('/campaigns/:campaignId/measurements', byCampaign('editor'), async (req, res) => {
+  router.post('/:campaignId/measurements', byCampaign('editor'), async (req, res) => {
     const measurement = await createMeasurement(knex, actorOf(req), campaignId(req), parseBody(measurementCreateSchema, req.body));
     res.status(201).location(`/api/v1/measurements/${measurement.id}`).json(measurement);
   });
 
-  router.post('/campaigns/:campaignId/measurements/batch', byCampaign('editor'), async (req, res) => {
+  router.post('/:campaignId/measurements/batch', byCampaign('editor'), async (req, res) => {
     const { measurements } = parseBody(batchSchema, req.body);
     res.status(201).json({ created: await createMeasurementsBatch(knex, actorOf(req), campaignId(req), measurements) });
   });
 
-  router.patch('/campaigns/:campaignId/measurements', byCampaign('editor'), async (req, res) => {
+  router.patch('/:campaignId/measurements', byCampaign('editor'), async (req, res) => {
     const { measurements } = parseBody(measurementBatchUpdateSchema, req.body);
     res.json({ measurements: await updateMeasurementsBatch(knex, actorOf(req), campaignId(req), measurements) });
   });
 
-  router.patch('/measurements/:measurementId', byMeasurement, async (req, res) => {
-    res.json(
-      await updateMeasurement(knex, actorOf(req), String(req.params.measurementId), parseBody(measurementUpdateSchema, withVersion(req))),
-    );
-  });
-
-  router.put('/measurements/:measurementId/exclusion', byMeasurement, async (req, res) => {
-    res.json(
-      await setMeasurementExclusion(
-        knex,
-        actorOf(req),
-        String(req.params.measurementId),
-        parseBody(measurementExclusionSchema, withVersion(req)),
-      ),
-    );
-  });
-
-  router.delete('/measurements/:measurementId', byMeasurement, async (req, res) => {
-    const { reason } = parseBody(measurementDeleteQuerySchema, req.query);
-    await deleteMeasurement(knex, actorOf(req), String(req.params.measurementId), deleteVersion(req, measurementDeleteQuerySchema), reason);
-    res.status(204).end();
-  });
-
   // Authorization runs before the upload is read, so a caller without the role never streams a file in.
-  router.post('/campaigns/:campaignId/imports/preview', byCampaign('editor'), uploadLimit, importUpload(), async (req, res) => {
+  router.post('/:campaignId/imports/preview', byCampaign('editor'), uploadLimit, importUpload(), async (req, res) => {
     await getCampaign(knex, req.project!.id, campaignId(req));
     // Read and checked in a worker thread (a large file never holds the event loop); the stored runs' keys go with it
     // so the preview can warn about repeats.
@@ -280,7 +176,7 @@ export function campaignsRouter(deps: {
     res.json(await previewInPool(uploadedFile(req), jsonField(req, 'request', importPreviewRequestSchema), undefined, stored));
   });
 
-  router.post('/campaigns/:campaignId/imports', byCampaign('editor'), uploadLimit, importUpload(), async (req, res) => {
+  router.post('/:campaignId/imports', byCampaign('editor'), uploadLimit, importUpload(), async (req, res) => {
     const request = jsonField(req, 'request', importRequestSchema);
     const file = uploadedFile(req);
     if (file.buffer.length > deps.importJobBytes) {
@@ -303,7 +199,7 @@ export function campaignsRouter(deps: {
     res.status(201).json(await importMeasurements(knex, actorOf(req), campaignId(req), file, request));
   });
 
-  router.get('/campaigns/:campaignId/imports/template.csv', byCampaign('viewer'), async (req, res) => {
+  router.get('/:campaignId/imports/template.csv', byCampaign('viewer'), async (req, res) => {
     const campaign = await getCampaign(knex, req.project!.id, campaignId(req));
     res
       .status(200)
@@ -313,37 +209,19 @@ export function campaignsRouter(deps: {
       .send(importTemplateCsv(campaign.measure));
   });
 
-  router.get('/campaigns/:campaignId/files', byCampaign('viewer'), async (req, res) => {
+  router.get('/:campaignId/files', byCampaign('viewer'), async (req, res) => {
     await getCampaign(knex, req.project!.id, campaignId(req));
     res.json({ files: await listImportFiles(knex, campaignId(req)) });
   });
 
-  router.get(
-    '/import-files/:fileId',
-    authorizeProject(knex, 'viewer', (req) => resolveImportFileProjectId(knex, req.params.fileId)),
-    async (req, res) => {
-      const file = await readImportFile(knex, req.project!.id, String(req.params.fileId));
-      res
-        .status(200)
-        .type(file.mediaType)
-        .attachment(safeFileName(file.fileName))
-        .set({
-          'Cache-Control': 'private, no-store',
-          'X-Content-Type-Options': 'nosniff',
-          'Content-Digest': `sha-256=:${Buffer.from(file.sha256, 'hex').toString('base64')}:`,
-        })
-        .send(file.content);
-    },
-  );
-
-  router.get('/campaigns/:campaignId/history', byCampaign('viewer'), async (req, res) => {
+  router.get('/:campaignId/history', byCampaign('viewer'), async (req, res) => {
     await getCampaign(knex, req.project!.id, campaignId(req));
     res
       .set('Cache-Control', 'private, no-store')
       .json(await readHistory(knex, { projectId: req.project!.id, campaignId: campaignId(req) }, parseBody(historyQuerySchema, req.query)));
   });
 
-  router.get('/campaigns/:campaignId/history.csv', byCampaign('viewer'), async (req, res) => {
+  router.get('/:campaignId/history.csv', byCampaign('viewer'), async (req, res) => {
     const campaign = await getCampaign(knex, req.project!.id, campaignId(req));
     const csv = await historyCsv(knex, { projectId: req.project!.id, campaignId: campaign.id });
     res
@@ -354,24 +232,7 @@ export function campaignsRouter(deps: {
       .send(csv);
   });
 
-  router.get('/projects/:projectId/history', authorizeProject(knex, 'owner', projectIdParam), async (req, res) => {
-    res
-      .set('Cache-Control', 'private, no-store')
-      .json(await readHistory(knex, { projectId: req.project!.id }, parseBody(historyQuerySchema, req.query)));
-  });
-
-  router.get('/projects/:projectId/history.csv', authorizeProject(knex, 'owner', projectIdParam), async (req, res) => {
-    const project = await knex('projects').where({ id: req.project!.id }).first('name');
-    const csv = await historyCsv(knex, { projectId: req.project!.id });
-    res
-      .status(200)
-      .type('text/csv; charset=utf-8')
-      .attachment(`${safeFileName(String(project?.name ?? 'project'))}-history.csv`)
-      .set('Cache-Control', 'no-store')
-      .send(csv);
-  });
-
-  router.get('/campaigns/:campaignId/analysis', byCampaign('viewer'), async (req, res) => {
+  router.get('/:campaignId/analysis', byCampaign('viewer'), async (req, res) => {
     const { etag: tag, body } = await serialisedCampaignAnalysis(
       knex,
       req.project!.id,
@@ -386,11 +247,11 @@ export function campaignsRouter(deps: {
     res.type('application/json').send(body);
   });
 
-  router.get('/campaigns/:campaignId/forecasts', byCampaign('viewer'), async (req, res) => {
+  router.get('/:campaignId/forecasts', byCampaign('viewer'), async (req, res) => {
     res.json({ forecasts: await listCampaignForecasts(knex, req.project!.id, campaignId(req)) });
   });
 
-  router.post('/campaigns/:campaignId/forecasts', byCampaign('editor'), async (req, res) => {
+  router.post('/:campaignId/forecasts', byCampaign('editor'), async (req, res) => {
     const input = parseBody(savedForecastCreateSchema, req.body);
     const { weighting, uncertaintyScale, confidence, newRunUncertainty, quantitationLimit } = parseBody(analysisQuerySchema, req.query);
     const view = await saveCampaignForecast(knex, actorOf(req), campaignId(req), input, {
@@ -403,15 +264,10 @@ export function campaignsRouter(deps: {
     res.status(201).json(view);
   });
 
-  router.delete('/forecasts/:forecastId', byForecast, async (req, res) => {
-    await deleteSavedForecast(knex, actorOf(req), String(req.params.forecastId));
-    res.status(204).end();
-  });
-
   // The report built in the background (202 and a job; the file at /jobs/:id/file) or e-mailed to the caller.
   for (const [path, kind] of [
-    ['/campaigns/:campaignId/report-jobs', 'report'],
-    ['/campaigns/:campaignId/report-emails', 'report-email'],
+    ['/:campaignId/report-jobs', 'report'],
+    ['/:campaignId/report-emails', 'report-email'],
   ] as const) {
     router.post(path, byCampaign('viewer'), uploadLimit, async (req, res) => {
       await getCampaign(knex, req.project!.id, campaignId(req));
@@ -423,7 +279,7 @@ export function campaignsRouter(deps: {
     });
   }
 
-  router.get('/campaigns/:campaignId/report.xlsx', byCampaign('viewer'), async (req, res) => {
+  router.get('/:campaignId/report.xlsx', byCampaign('viewer'), async (req, res) => {
     const report = await reportOf(req);
     res
       .status(200)
@@ -433,7 +289,7 @@ export function campaignsRouter(deps: {
       .send(await xlsxOf(report));
   });
 
-  router.get('/campaigns/:campaignId/report.pdf', byCampaign('viewer'), async (req, res) => {
+  router.get('/:campaignId/report.pdf', byCampaign('viewer'), async (req, res) => {
     const report = await reportOf(req);
     res
       .status(200)
@@ -443,7 +299,7 @@ export function campaignsRouter(deps: {
       .send(await pdfOf(report));
   });
 
-  router.get('/campaigns/:campaignId/measurements.csv', byCampaign('viewer'), async (req, res) => {
+  router.get('/:campaignId/measurements.csv', byCampaign('viewer'), async (req, res) => {
     const data = await loadCampaignReportData(knex, req.project!.id, campaignId(req));
     const model = buildReportModel(data, meta(req));
     res
@@ -454,7 +310,7 @@ export function campaignsRouter(deps: {
       .send(measurementsCsv(model));
   });
 
-  router.get('/campaigns/:campaignId/forecast.csv', byCampaign('viewer'), async (req, res) => {
+  router.get('/:campaignId/forecast.csv', byCampaign('viewer'), async (req, res) => {
     const { at } = parseBody(reportQuerySchema, req.query);
     const data = await loadCampaignReportData(knex, req.project!.id, campaignId(req), at === undefined ? {} : { atC: at });
     const model = buildReportModel(data, meta(req));
@@ -466,7 +322,7 @@ export function campaignsRouter(deps: {
       .send(forecastCsv(model));
   });
 
-  router.post('/campaigns/:campaignId/report/email', byCampaign('viewer'), mailLimit, async (req, res) => {
+  router.post('/:campaignId/report/email', byCampaign('viewer'), mailLimit, async (req, res) => {
     const request = parseBody(reportMailSchema, req.body);
     if (!deps.mailer) throw new BadRequestError('This server has no mail transport configured.');
     const sent = await sendCampaignReport(knex, deps.mailer, {
@@ -477,11 +333,6 @@ export function campaignsRouter(deps: {
       userId: req.user!.id,
     });
     res.status(200).json(sent);
-  });
-
-  router.get('/projects/:projectId/comparison', byProject('viewer'), async (req, res) => {
-    const { at } = parseBody(comparisonQuerySchema, req.query);
-    res.json(await compareCampaigns(knex, req.project!.id, at));
   });
 
   return router;

@@ -10,7 +10,7 @@ import type { ImportPreview, StoredRowKeys } from './service';
 import { AppError } from '../../lib/errors';
 import type { ProblemTypeId } from '../../lib/problem-types';
 import { readUpload, type ImportLimits, type ParsedTable } from './parse';
-import { packRows, validateRows, type PackedRows, type ValidationResult } from './mapping';
+import { packRows, validateRows, type PackedRows, type ValidationResult } from './row-checks';
 
 export interface ReadTask {
   name: string;

@@ -21,16 +21,8 @@ import {
   type ParsedTable,
   type UploadedFile,
 } from './parse';
-import {
-  guessMapping,
-  mappingFromGuess,
-  unpackRows,
-  validateRows,
-  validateRowsYielding,
-  type ImportRow,
-  type MappingGuess,
-  type ValidationResult,
-} from './mapping';
+import { guessMapping, mappingFromGuess, type MappingGuess } from './mapping';
+import { unpackRows, validateRows, validateRowsYielding, type ImportRow, type ValidationResult } from './row-checks';
 
 export interface PreviewColumn {
   index: number;

@@ -1,5 +1,5 @@
 import { afterAll, describe, expect, it } from 'vitest';
-import { packRows, unpackRows, validateRows, type ImportRow } from '../../../api/features/imports/mapping';
+import { packRows, unpackRows, validateRows, type ImportRow } from '../../../api/features/imports/row-checks';
 import { IMPORT_LIMITS, IN_THREAD_MAX_BYTES, readUpload, readsInWorker } from '../../../api/features/imports/parse';
 import { checkInPool, closeReadPool } from '../../../api/features/imports/parse-pool';
 import { importMappingSchema } from '../../../api/features/campaigns/schemas';

@@ -1,12 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import {
-  guessMapping,
-  mappingFromGuess,
-  MAX_LISTED_ISSUES,
-  ROWS_PER_STEP,
-  validateRows,
-  validateRowsYielding,
-} from '../../../api/features/imports/mapping';
+import { guessMapping, mappingFromGuess } from '../../../api/features/imports/mapping';
+import { MAX_LISTED_ISSUES, ROWS_PER_STEP, validateRows, validateRowsYielding } from '../../../api/features/imports/row-checks';
 import { parseUpload } from '../../../api/features/imports/parse';
 import { previewImport } from '../../../api/features/imports/service';
 import { importMappingSchema, type ImportMappingInput } from '../../../api/features/campaigns/schemas';
