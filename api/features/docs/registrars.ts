@@ -12,7 +12,7 @@ import { registerPlan, registerPlanStore } from '../plan/openapi';
 
 /**
  * Every feature documents its routes in the OpenAPI description through a registrar listed here;
- * tests/api/openapi-coverage.test.ts fails for any /api route that none of them describes.
+ * tests/api/openapi.test.ts fails for any /api route that none of them describes.
  */
 export const openApiRegistrars: OpenApiRegistrar[] = [
   registerHealth,
