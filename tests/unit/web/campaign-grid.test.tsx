@@ -17,6 +17,7 @@ import {
 } from '../../../web/features/campaigns/lib/grid';
 import { MeasurementGrid } from '../../../web/features/campaigns/components/measurement-grid';
 import type { Campaign, Measurement } from '../../../web/features/campaigns/api/types';
+import { webCampaign } from '../../factories/web-campaign';
 
 afterEach(() => {
   cleanup();
@@ -27,28 +28,11 @@ afterEach(() => {
 const C_EE: ColumnUnits = { temperature: 'C', measure: 'ee', time: 'h' };
 const cells = (over: Partial<GridCells>): GridCells => ({ ...emptyCells(), ...over });
 
-const campaign: Campaign = {
+const campaign: Campaign = webCampaign({
   id: '11111111-1111-4111-8111-111111111111',
   projectId: '22222222-2222-4222-8222-222222222222',
   title: 'Grid test (invented)',
-  reactionDescription: null,
-  productNameA: 'A',
-  productNameB: 'B',
-  measure: 'ee',
-  assayMethod: 'chiral-hplc',
-  defaultUncertainty: 0.3,
-  newRunUncertainty: null,
-  quantitationLimit: null,
-  status: 'active',
-  notes: null,
-  createdByUserId: null,
-  signedOffAt: null,
-  signedOffByUserId: null,
-  signOffNote: null,
-  version: 1,
-  createdAt: '2026-12-01T00:00:00Z',
-  updatedAt: '2026-12-01T00:00:00Z',
-};
+});
 
 function stored(over: Partial<Measurement> = {}): Measurement {
   return {
