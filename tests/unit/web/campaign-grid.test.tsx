@@ -61,6 +61,13 @@ function stored(over: Partial<Measurement> = {}): Measurement {
   };
 }
 
+/** Every alert on screen, as one text. */
+const alertText = () =>
+  screen
+    .getAllByRole('alert')
+    .map((a) => a.textContent)
+    .join(' ');
+
 describe('grid cells: numbers as typed', () => {
   it('when a number has a true minus, a decimal comma or spaces, then it is read; words are invalid; empty is null', () => {
     expect(parseNumber(' \u221278,5 ')).toBe(-78.5);
@@ -376,14 +383,7 @@ describe('MeasurementGrid', () => {
     expect(JSON.parse(String(init.body))).toEqual({
       measurements: [{ id: '33333333-3333-4333-8333-333333333333', version: 4, uncertainty: 0.5, reason: 'assay repeated' }],
     });
-    await waitFor(() =>
-      expect(
-        screen
-          .getAllByRole('alert')
-          .map((a) => a.textContent)
-          .join(' '),
-      ).toContain('Changed by someone else'),
-    );
+    await waitFor(() => expect(alertText()).toContain('Changed by someone else'));
     expect((screen.getByLabelText('Uncertainty, row 1') as HTMLInputElement).value).toBe('0.5');
   });
 
@@ -410,14 +410,7 @@ describe('MeasurementGrid', () => {
     fireEvent.change(screen.getByLabelText('Notes, row 2'), { target: { value: 'bath checked' } });
     fireEvent.change(screen.getByLabelText(/Why do these 2 stored runs change\?/), { target: { value: 'notes added' } });
     fireEvent.click(screen.getByRole('button', { name: 'Save 2 rows' }));
-    await waitFor(() =>
-      expect(
-        screen
-          .getAllByRole('alert')
-          .map((a) => a.textContent)
-          .join(' '),
-      ).toContain('Changed by someone else'),
-    );
+    await waitFor(() => expect(alertText()).toContain('Changed by someone else'));
     const patches = fetchMock.mock.calls.filter(([, init]) => init?.method === 'PATCH');
     expect(patches).toHaveLength(1);
     expect(JSON.parse(String(patches[0]![1]!.body)).measurements.map((m: { id: string }) => m.id)).toEqual([stored().id, second.id]);
