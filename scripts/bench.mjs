@@ -2,15 +2,12 @@
 // Express route, engine fit cost from 10³ to 10⁶ points, and (when present) the
 // import and analysis benchmarks. Uses a throwaway PostgreSQL like `npm test`.
 import { spawn } from 'node:child_process';
-import { chmodSync, mkdtempSync } from 'node:fs';
-import os from 'node:os';
-import path from 'node:path';
 import { ensureDependencies, ensureWebBuild, root } from './lib/deps.mjs';
 
 ensureDependencies();
 // The bundle and browser suites read the built web app.
 if (!process.argv[2] || ['bundle', 'campaign-page'].includes(process.argv[2])) ensureWebBuild();
-const { startCluster, freePort, FriendlyError, removeDir } = await import('./lib/pg.mjs');
+const { startThrowawayCluster, FriendlyError, removeDir } = await import('./lib/pg.mjs');
 
 let cluster = null;
 let tempDir = null;
@@ -18,15 +15,7 @@ let code = 1;
 try {
   let url = process.env.DATABASE_URL;
   if (!url) {
-    tempDir = mkdtempSync(path.join(os.tmpdir(), 'eyrie-bench-'));
-    chmodSync(tempDir, 0o711); // the postgres user must traverse it when we run as root
-    cluster = await startCluster({
-      dataDir: path.join(tempDir, 'pgdata'),
-      port: await freePort(),
-      database: 'eyrie_bench',
-      durable: false,
-      quiet: true,
-    });
+    ({ cluster, tempDir } = await startThrowawayCluster({ prefix: 'eyrie-bench-', database: 'eyrie_bench' }));
     url = cluster.url;
   }
   const child = spawn(

@@ -6,7 +6,7 @@ import path from 'node:path';
 import { ensureDependencies, log, root } from './lib/deps.mjs';
 
 ensureDependencies();
-const { findPgBin, useLocalCluster, FriendlyError } = await import('./lib/pg.mjs');
+const { findPgBin, databaseUrlOrLocalCluster, FriendlyError } = await import('./lib/pg.mjs');
 
 const [command, fileArg] = process.argv.slice(2);
 
@@ -66,15 +66,9 @@ try {
     throw new FriendlyError('usage: npm run db:backup [-- file.dump]  |  npm run db:restore -- file.dump');
   if (command === 'restore' && !fileArg)
     throw new FriendlyError('name the backup to restore: npm run db:restore -- .data/backups/eyrie-….dump');
-  let url = process.env.DATABASE_URL;
-  if (!url) {
-    cluster = await useLocalCluster({
-      dataDir: path.join(root, '.data', 'postgres'),
-      port: Number(process.env.EYRIE_PG_PORT ?? 54329),
-      database: 'eyrie',
-    });
-    url = cluster.url;
-  }
+  const database = await databaseUrlOrLocalCluster(root);
+  cluster = database.cluster;
+  const url = database.url;
   if (command === 'backup') {
     const file = path.resolve(fileArg ?? path.join(root, '.data', 'backups', `eyrie-${stamp()}.dump`));
     mkdirSync(path.dirname(file), { recursive: true });

@@ -1,13 +1,12 @@
 // `npm test`: the whole suite (unit, API on real PostgreSQL, browser end-to-end)
 // against a throwaway cluster that is always torn down. Extra arguments go to vitest.
 import { spawn, spawnSync } from 'node:child_process';
-import { chmodSync, mkdtempSync, mkdirSync, readFileSync, existsSync, rmSync } from 'node:fs';
-import os from 'node:os';
+import { mkdirSync, readFileSync, existsSync, rmSync } from 'node:fs';
 import path from 'node:path';
 import { ensureDependencies, ensureWebBuild, log, root } from './lib/deps.mjs';
 
 ensureDependencies();
-const { startCluster, freePort, FriendlyError, removeDir } = await import('./lib/pg.mjs');
+const { startThrowawayCluster, FriendlyError, removeDir } = await import('./lib/pg.mjs');
 const { ensureChromium } = await import('./lib/chromium.mjs');
 const pg = (await import('pg')).default;
 
@@ -87,15 +86,7 @@ try {
   const staticFailures = process.argv.length > 2 ? [] : runStaticChecks();
   let databaseUrl = process.env.DATABASE_URL;
   if (!databaseUrl) {
-    tempDir = mkdtempSync(path.join(os.tmpdir(), 'eyrie-test-'));
-    chmodSync(tempDir, 0o711); // the postgres user must traverse it when we run as root
-    cluster = await startCluster({
-      dataDir: path.join(tempDir, 'pgdata'),
-      port: await freePort(),
-      database: 'eyrie_test',
-      durable: false,
-      quiet: true,
-    });
+    ({ cluster, tempDir } = await startThrowawayCluster({ prefix: 'eyrie-test-', database: 'eyrie_test' }));
     databaseUrl = cluster.url;
     log('throwaway PostgreSQL cluster started for the tests');
   } else {

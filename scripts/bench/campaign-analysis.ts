@@ -24,7 +24,7 @@ import { createToken } from '../../api/features/tokens/service';
 import { Campaign } from '../../api/models/campaign';
 import { Measurement } from '../../api/models/measurement';
 import type { BenchSuite } from './suites';
-import { insertSyntheticRuns } from './synthetic-screen';
+import { insertSyntheticScreen } from './synthetic-screen';
 import { recordFigure } from './results';
 
 const RUNS = 1000;
@@ -42,23 +42,13 @@ async function run() {
     const [user] = await knex('users')
       .insert({ provider: 'local-demo', providerUserId: `bench-${tag}`, login: `bench-${tag}`, displayName: 'Bench user' })
       .returning('*');
-    const [project] = await knex('projects')
-      .insert({ name: `Bench project ${tag}`, description: 'Synthetic load, not demo data.', createdBy: user.id })
-      .returning('*');
-    await knex('projectMembers').insert({ projectId: project.id, userId: user.id, role: 'owner' });
-    const campaign = await Campaign.query(knex)
-      .insert({
-        projectId: project.id,
-        title: `Bench screen ${tag}`,
-        productNameA: 'A',
-        productNameB: 'B',
-        measure: 'ee',
-        assayMethod: 'chiral-hplc',
-        defaultUncertainty: 0.3,
-        status: 'active',
-      })
-      .returning('*');
-    await insertSyntheticRuns(knex, campaign.id, user.id, RUNS);
+    const { projectId, campaignId } = await insertSyntheticScreen(
+      knex,
+      user.id,
+      { project: `Bench project ${tag}`, campaign: `Bench screen ${tag}` },
+      RUNS,
+    );
+    const campaign = await Campaign.query(knex).findById(campaignId).throwIfNotFound();
     const { secret } = await createToken(knex, user.id, { name: 'bench', expiresInDays: 1 });
 
     const measurements = await Measurement.query(knex)
@@ -142,7 +132,7 @@ async function run() {
     );
     recordFigure('analysisRatio', load.requests.average / bareLoad.requests.average);
 
-    await knex('projects').where({ id: project.id }).delete();
+    await knex('projects').where({ id: projectId }).delete();
     await knex('users').where({ id: user.id }).delete();
   } finally {
     await knex.destroy();

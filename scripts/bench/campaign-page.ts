@@ -28,7 +28,7 @@ import { openBrowser } from '../../tests/support/browser';
 import { sessionCookie, signIn } from '../../tests/support/auth';
 import { recordFigure } from './results';
 import type { BenchSuite } from './suites';
-import { insertSyntheticRuns } from './synthetic-screen';
+import { insertSyntheticScreen } from './synthetic-screen';
 
 const RUNS = 1000;
 const LOADS = 5;
@@ -206,24 +206,9 @@ async function run() {
     const { done, user } = await signIn(app, identity);
     const cookie = sessionCookie(done.headers['set-cookie'] as unknown as string[]);
     if (!cookie) throw new Error('sign-in set no session cookie');
-    const [project] = await knex('projects')
-      .insert({ name: `Page bench ${tag}`, description: 'Synthetic load, not demo data.', createdBy: user.id })
-      .returning('*');
-    projectId = project.id;
-    await knex('projectMembers').insert({ projectId: project.id, userId: user.id, role: 'owner' });
-    const [campaign] = await knex('campaigns')
-      .insert({
-        projectId: project.id,
-        title: `Page bench screen ${tag}`,
-        productNameA: 'A',
-        productNameB: 'B',
-        measure: 'ee',
-        assayMethod: 'chiral-hplc',
-        defaultUncertainty: 0.3,
-        status: 'active',
-      })
-      .returning('*');
-    await insertSyntheticRuns(knex, campaign.id, user.id, RUNS);
+    const screen = await insertSyntheticScreen(knex, user.id, { project: `Page bench ${tag}`, campaign: `Page bench screen ${tag}` }, RUNS);
+    projectId = screen.projectId;
+    const campaign = { id: screen.campaignId };
 
     const [name, value] = cookie.split(';')[0]!.split('=') as [string, string];
     const { context, baseUrl } = browser;

@@ -20,3 +20,30 @@ export async function insertSyntheticRuns(knex: Knex, campaignId: string, userId
   });
   for (let i = 0; i < rows.length; i += 500) await knex('measurements').insert(rows.slice(i, i + 500));
 }
+
+/** A project owned by `userId` holding one open ee campaign of `runs` synthetic runs; the caller deletes the project. */
+export async function insertSyntheticScreen(
+  knex: Knex,
+  userId: string,
+  names: { project: string; campaign: string },
+  runs: number,
+): Promise<{ projectId: string; campaignId: string }> {
+  const [project] = await knex('projects')
+    .insert({ name: names.project, description: 'Synthetic load, not demo data.', createdBy: userId })
+    .returning('id');
+  await knex('projectMembers').insert({ projectId: project.id, userId, role: 'owner' });
+  const [campaign] = await knex('campaigns')
+    .insert({
+      projectId: project.id,
+      title: names.campaign,
+      productNameA: 'A',
+      productNameB: 'B',
+      measure: 'ee',
+      assayMethod: 'chiral-hplc',
+      defaultUncertainty: 0.3,
+      status: 'active',
+    })
+    .returning('id');
+  await insertSyntheticRuns(knex, campaign.id, userId, runs);
+  return { projectId: project.id, campaignId: campaign.id };
+}

@@ -16,3 +16,10 @@ export function useLocalCluster(options: {
   port: number;
   database: string;
 }): Promise<{ url: string; stop: () => void; alreadyRunning: boolean }>;
+export function databaseUrlOrLocalCluster(
+  root: string,
+): Promise<{ url: string; cluster: { url: string; stop: () => void; alreadyRunning: boolean } | null }>;
+export function startThrowawayCluster(options: {
+  prefix: string;
+  database: string;
+}): Promise<{ cluster: { url: string; stop: () => void; logFile: string }; tempDir: string }>;

@@ -1,8 +1,20 @@
 // Local PostgreSQL cluster management for `npm start`, `npm run dev` and `npm test`.
 // Uses Debian's server binaries; never touches a cluster it did not create.
 import { execFileSync, spawnSync } from 'node:child_process';
-import { existsSync, readdirSync, readFileSync, writeFileSync, mkdirSync, chownSync, statSync, chmodSync, rmSync } from 'node:fs';
+import {
+  existsSync,
+  readdirSync,
+  readFileSync,
+  writeFileSync,
+  mkdirSync,
+  mkdtempSync,
+  chownSync,
+  statSync,
+  chmodSync,
+  rmSync,
+} from 'node:fs';
 import net from 'node:net';
+import os from 'node:os';
 import path from 'node:path';
 import crypto from 'node:crypto';
 import pg from 'pg';
@@ -211,6 +223,42 @@ export async function useLocalCluster({ dataDir, port, database }) {
   }
   const cluster = await startCluster({ dataDir, port, database });
   return { ...cluster, alreadyRunning: false };
+}
+
+/**
+ * The database a one-off command works on: DATABASE_URL when set, otherwise the project's own local cluster under
+ * `root`/.data/postgres (on EYRIE_PG_PORT). `cluster` is null for DATABASE_URL; else the caller stops it when done.
+ */
+export async function databaseUrlOrLocalCluster(root) {
+  if (process.env.DATABASE_URL) return { url: process.env.DATABASE_URL, cluster: null };
+  const cluster = await useLocalCluster({
+    dataDir: path.join(root, '.data', 'postgres'),
+    port: Number(process.env.EYRIE_PG_PORT ?? 54329),
+    database: 'eyrie',
+  });
+  return { url: cluster.url, cluster };
+}
+
+/**
+ * A cluster that keeps nothing (not durable, quiet) in a new temporary folder named from `prefix`, on a free port, for
+ * tests and benchmarks. The caller stops `cluster` and removes `tempDir`; if the start fails, the folder is removed here.
+ */
+export async function startThrowawayCluster({ prefix, database }) {
+  const tempDir = mkdtempSync(path.join(os.tmpdir(), prefix));
+  chmodSync(tempDir, 0o711); // the postgres user must traverse it when we run as root
+  try {
+    const cluster = await startCluster({
+      dataDir: path.join(tempDir, 'pgdata'),
+      port: await freePort(),
+      database,
+      durable: false,
+      quiet: true,
+    });
+    return { cluster, tempDir };
+  } catch (err) {
+    removeDir(tempDir);
+    throw err;
+  }
 }
 
 export function removeDir(dir) {

@@ -4,7 +4,7 @@ import { randomBytes } from 'node:crypto';
 import { closeTestKnex, testKnex } from '../support/db';
 import { signInEach, startAuthApp, type AuthTestApp, type SignedInRequests } from '../support/auth';
 import { createUser } from '../factories/users';
-import { createProject } from '../factories/projects';
+import { createProject, createTeamProjects } from '../factories/projects';
 import { sample } from '../unit/imports/helpers';
 import { analysisResponseSchema, comparisonResponseSchema, savedForecastViewSchema } from '../../api/features/campaigns/analysis-schemas';
 import { toKelvin } from '../../api/features/campaigns/schemas';
@@ -25,12 +25,7 @@ const C = (value: number) => ({ value, unit: 'C' as const });
 beforeAll(async () => {
   env = await startAuthApp();
   users = { owner: await createUser(), editor: await createUser(), viewer: await createUser(), outsider: await createUser() };
-  project = await createProject([
-    { user: users.owner, role: 'owner' },
-    { user: users.editor, role: 'editor' },
-    { user: users.viewer, role: 'viewer' },
-  ]);
-  await createProject([{ user: users.outsider, role: 'owner' }]);
+  ({ project } = await createTeamProjects(users));
   as = await signInEach(env.app, users);
 });
 

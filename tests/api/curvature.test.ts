@@ -137,6 +137,24 @@ const stored = (rows: typeof iso) =>
       }) as unknown as Measurement,
   );
 
+/** The campaign's workbook under `title`, read back, with the labels in column A of its Summary sheet. */
+async function reportOf(title: string, measurements: Measurement[], analysis: ReturnType<typeof computeAnalysis>) {
+  const buf = await buildCampaignReport(
+    {
+      campaign: { ...campaign, title, productNameA: 'A', productNameB: 'B', assayMethod: 'chiral-hplc' } as unknown as Campaign,
+      measurements,
+      analysis,
+      forecasts: [],
+    },
+    { appVersion: 'test', generatedAt: new Date(0) },
+  );
+  const wb = new ExcelJS.Workbook();
+  await wb.xlsx.load(buf as unknown as ArrayBuffer);
+  const names: string[] = [];
+  wb.getWorksheet('Summary')!.eachRow((row) => names.push(String(row.getCell(1).value)));
+  return { wb, names };
+}
+
 describe('campaign analysis and report with an accepted break', () => {
   it('when a stored campaign has an isoinversion, then the asked forecast names its branch and the report has the break rows', async () => {
     const analysis = computeAnalysis(campaign, stored(iso), {
@@ -148,25 +166,7 @@ describe('campaign analysis and report with an accepted break', () => {
     expect(analysis.at!.model).toBe('segmented');
     expect(analysis.at!.branch).toBe('low');
     expect(analysis.curve.every((p) => p.model === 'segmented')).toBe(true);
-    const buf = await buildCampaignReport(
-      {
-        campaign: {
-          ...campaign,
-          title: 'Invented isoinversion',
-          productNameA: 'A',
-          productNameB: 'B',
-          assayMethod: 'chiral-hplc',
-        } as unknown as Campaign,
-        measurements: stored(iso),
-        analysis,
-        forecasts: [],
-      },
-      { appVersion: 'test', generatedAt: new Date(0) },
-    );
-    const wb = new ExcelJS.Workbook();
-    await wb.xlsx.load(buf as unknown as ArrayBuffer);
-    const names: string[] = [];
-    wb.getWorksheet('Summary')!.eachRow((row) => names.push(String(row.getCell(1).value)));
+    const { wb, names } = await reportOf('Invented isoinversion', stored(iso), analysis);
     expect(names).toContain('Isoinversion temperature, where r has a maximum (°C)');
     const forecast = wb.getWorksheet('Forecast')!;
     const header = (forecast.getRow(1).values as unknown[]).map(String);
@@ -175,25 +175,7 @@ describe('campaign analysis and report with an accepted break', () => {
 
   it('when a stored campaign is one straight line, then the report has no break or isoinversion row', async () => {
     const analysis = computeAnalysis(campaign, stored(straight), { weighting: 'none', uncertaintyScale: 'absolute', confidence: 0.95 });
-    const buf = await buildCampaignReport(
-      {
-        campaign: {
-          ...campaign,
-          title: 'Invented line',
-          productNameA: 'A',
-          productNameB: 'B',
-          assayMethod: 'chiral-hplc',
-        } as unknown as Campaign,
-        measurements: stored(straight),
-        analysis,
-        forecasts: [],
-      },
-      { appVersion: 'test', generatedAt: new Date(0) },
-    );
-    const wb = new ExcelJS.Workbook();
-    await wb.xlsx.load(buf as unknown as ArrayBuffer);
-    const names: string[] = [];
-    wb.getWorksheet('Summary')!.eachRow((row) => names.push(String(row.getCell(1).value)));
+    const { names } = await reportOf('Invented line', stored(straight), analysis);
     expect(names.some((n) => /isoinversion|change of slope/i.test(n))).toBe(false);
     expect(names).toContain('Curvature check');
   });

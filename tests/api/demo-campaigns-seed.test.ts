@@ -1,36 +1,18 @@
 import { afterAll, describe, expect, it } from 'vitest';
-import pg from 'pg';
-import '../../api/db/pg-types';
-import { createKnex, migrateLatest } from '../../api/db/knex';
 import { seedDemo } from '../../api/db/seed';
+import { scratchDatabase } from '../support/db';
 import { DEMO_CAMPAIGNS, DEMO_CAMPAIGN_PROJECT_ID } from '../../api/db/demo-campaigns';
 import { DEMO_ALDOL_CAMPAIGN_ID } from '../../api/db/seed-plans';
 
 // A database of its own, so the demo rows never meet other test files' rows.
-const baseUrl = process.env.DATABASE_URL ?? '';
-const dbName = `eyrie_seed_campaigns_${process.pid}`;
+const scratch = scratchDatabase('eyrie_seed_campaigns');
 
-async function admin(sql: string) {
-  const client = new pg.Client({ connectionString: baseUrl });
-  await client.connect();
-  try {
-    await client.query(sql);
-  } finally {
-    await client.end();
-  }
-}
-
-afterAll(() => admin(`drop database if exists "${dbName}"`));
+afterAll(scratch.drop);
 
 describe('demo campaigns seed', () => {
   it('when seeded twice, then the four invented screens exist once, with their break and censored points, and a user edit survives', async () => {
-    await admin(`drop database if exists "${dbName}"`);
-    await admin(`create database "${dbName}"`);
-    const url = new URL(baseUrl);
-    url.pathname = `/${dbName}`;
-    const knex = createKnex(url.toString(), { min: 0, max: 2 });
+    const knex = await scratch.create();
     try {
-      await migrateLatest(knex);
       await seedDemo(knex);
       const campaigns = await knex('campaigns').where({ projectId: DEMO_CAMPAIGN_PROJECT_ID }).orderBy('title').select('id', 'title');
       expect(campaigns.map((c) => c.title).sort()).toEqual(DEMO_CAMPAIGNS.map((c) => c.title).sort());

@@ -1,35 +1,17 @@
 import { afterAll, describe, expect, it } from 'vitest';
-import pg from 'pg';
-import '../../api/db/pg-types';
-import { createKnex, migrateLatest } from '../../api/db/knex';
 import { seedDemo } from '../../api/db/seed';
+import { scratchDatabase } from '../support/db';
 import { DEMO_ALDOL_CAMPAIGN_ID, DEMO_FEASIBLE_PLAN_CAMPAIGN_ID } from '../../api/db/seed-plans';
 
 // A database of its own, so the demo rows never meet other test files' rows.
-const baseUrl = process.env.DATABASE_URL ?? '';
-const dbName = `eyrie_seed_plans_${process.pid}`;
+const scratch = scratchDatabase('eyrie_seed_plans');
 
-async function admin(sql: string) {
-  const client = new pg.Client({ connectionString: baseUrl });
-  await client.connect();
-  try {
-    await client.query(sql);
-  } finally {
-    await client.end();
-  }
-}
-
-afterAll(() => admin(`drop database if exists "${dbName}"`));
+afterAll(scratch.drop);
 
 describe('demo plans seed', () => {
   it('when seeded twice, then one project has a feasible window and the other an infeasible one, each stored once', async () => {
-    await admin(`drop database if exists "${dbName}"`);
-    await admin(`create database "${dbName}"`);
-    const url = new URL(baseUrl);
-    url.pathname = `/${dbName}`;
-    const knex = createKnex(url.toString(), { min: 0, max: 2 });
+    const knex = await scratch.create();
     try {
-      await migrateLatest(knex);
       await seedDemo(knex);
       await seedDemo(knex);
       expect(await knex('plan_specifications').count({ n: '*' }).first()).toEqual({ n: 2 });

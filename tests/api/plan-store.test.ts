@@ -4,7 +4,7 @@ import request from 'supertest';
 import { closeTestKnex, testKnex } from '../support/db';
 import { binaryBody, signInEach, startAuthApp, type AuthTestApp, type SignedInRequests } from '../support/auth';
 import { createUser } from '../factories/users';
-import { createProject } from '../factories/projects';
+import { createProject, createTeamProjects } from '../factories/projects';
 import { createCampaign } from '../factories/campaigns';
 import { Measurement } from '../../api/models/measurement';
 import { campaignPlanSchema, comparisonSchema } from '../../api/features/plan/schemas';
@@ -49,12 +49,7 @@ async function screen(projectId: string, ddH = 12_000, shift = 0, measure: 'ee' 
 beforeAll(async () => {
   env = await startAuthApp();
   users = { owner: await createUser(), editor: await createUser(), viewer: await createUser(), outsider: await createUser() };
-  project = await createProject([
-    { user: users.owner, role: 'owner' },
-    { user: users.editor, role: 'editor' },
-    { user: users.viewer, role: 'viewer' },
-  ]);
-  outsiderProject = await createProject([{ user: users.outsider, role: 'owner' }]);
+  ({ project, outsiderProject } = await createTeamProjects(users));
   as = await signInEach(env.app, users);
 });
 

@@ -4,6 +4,7 @@ import { signIn, startAuthApp, type AuthTestApp } from '../support/auth';
 import { createUser } from '../factories/users';
 import { createProject } from '../factories/projects';
 import type { User } from '../../api/models/user';
+import type { ProjectRole } from '../../api/features/projects/schemas';
 import { recordAudit } from '../../api/lib/audit';
 
 afterAll(closeTestKnex);
@@ -17,6 +18,17 @@ async function as(user: User) {
   const s = await signIn(env!.app, { login: user.login, name: user.displayName!, email: user.email! });
   const write = (method: 'post' | 'patch' | 'delete', url: string) => s.agent[method](url).set('X-CSRF-Token', s.csrfToken);
   return { ...s, write };
+}
+/** The app started and an owner signed in to a project of theirs, shared with one more person as `member` when asked. */
+async function ownerOfProject(options: { name?: string; member?: ProjectRole } = {}) {
+  env = await startAuthApp();
+  const owner = await createUser();
+  const member = options.member ? await createUser() : null;
+  const p = await createProject(
+    [{ user: owner, role: 'owner' }, ...(member && options.member ? [{ user: member, role: options.member }] : [])],
+    options.name ? { name: options.name } : {},
+  );
+  return { owner, member: member!, p, o: await as(owner) };
 }
 const events = (projectId: string) => testKnex()('audit_events').where({ projectId }).orderBy('id');
 
@@ -63,10 +75,7 @@ describe('projects and their members', () => {
   });
 
   it('when an owner renames a project, then history keeps the values before and after', async () => {
-    env = await startAuthApp();
-    const owner = await createUser();
-    const p = await createProject([{ user: owner, role: 'owner' }], { name: 'Old name' });
-    const o = await as(owner);
+    const { owner, p, o } = await ownerOfProject({ name: 'Old name' });
     const renamed = await o.write('patch', `/api/v1/projects/${p.id}`).send({ name: 'New name', version: 1 }).expect(200);
     expect(renamed.body.project).toMatchObject({ name: 'New name', version: 2 });
     const [e] = await events(p.id);
@@ -84,10 +93,7 @@ describe('projects and their members', () => {
   });
 
   it('when a project change names an old version, then 409 gives the current version and nothing changes', async () => {
-    env = await startAuthApp();
-    const owner = await createUser();
-    const p = await createProject([{ user: owner, role: 'owner' }], { name: 'Versioned' });
-    const o = await as(owner);
+    const { p, o } = await ownerOfProject({ name: 'Versioned' });
     const missing = await o.write('patch', `/api/v1/projects/${p.id}`).send({ name: 'No version' }).expect(400);
     expect(missing.body.errors).toEqual([{ path: 'version', message: expect.any(String) }]);
     await o.write('patch', `/api/v1/projects/${p.id}`).send({ description: 'first', version: 1 }).expect(200);
@@ -99,14 +105,7 @@ describe('projects and their members', () => {
   });
 
   it('when the last owner tries to leave or be demoted, then it is refused with 409 and nothing is recorded', async () => {
-    env = await startAuthApp();
-    const owner = await createUser();
-    const editor = await createUser();
-    const p = await createProject([
-      { user: owner, role: 'owner' },
-      { user: editor, role: 'editor' },
-    ]);
-    const o = await as(owner);
+    const { owner, member: editor, p, o } = await ownerOfProject({ member: 'editor' });
     const leave = await o.write('delete', `/api/v1/projects/${p.id}/membership`).expect(409);
     expect(leave.body.detail).toMatch(/last owner/);
     await o.write('patch', `/api/v1/projects/${p.id}/members/${owner.id}`).send({ role: 'editor' }).expect(409);
@@ -128,28 +127,14 @@ describe('projects and their members', () => {
   });
 
   it('when a role is not one of owner, editor or viewer, then the 400 problem names the role field', async () => {
-    env = await startAuthApp();
-    const owner = await createUser();
-    const viewer = await createUser();
-    const p = await createProject([
-      { user: owner, role: 'owner' },
-      { user: viewer, role: 'viewer' },
-    ]);
-    const o = await as(owner);
+    const { member: viewer, p, o } = await ownerOfProject({ member: 'viewer' });
     const res = await o.write('patch', `/api/v1/projects/${p.id}/members/${viewer.id}`).send({ role: 'admin' }).expect(400);
     expect(res.body.errors).toEqual([{ path: 'role', message: 'Choose owner, editor or viewer.' }]);
     await o.write('patch', `/api/v1/projects/${p.id}/members/not-a-uuid`).send({ role: 'viewer' }).expect(404);
   });
 
   it('when an owner deletes a project, then it is gone for everyone and its history survives', async () => {
-    env = await startAuthApp();
-    const owner = await createUser();
-    const viewer = await createUser();
-    const p = await createProject([
-      { user: owner, role: 'owner' },
-      { user: viewer, role: 'viewer' },
-    ]);
-    const o = await as(owner);
+    const { p, o } = await ownerOfProject({ member: 'viewer' });
     await o.write('delete', `/api/v1/projects/${p.id}`).expect(204);
     await o.agent.get(`/api/v1/projects/${p.id}`).expect(404);
     const [e] = await events(p.id);
@@ -158,10 +143,7 @@ describe('projects and their members', () => {
   });
 
   it('when the history is long, then it pages newest first and rejects a bad page size by name', async () => {
-    env = await startAuthApp();
-    const owner = await createUser();
-    const p = await createProject([{ user: owner, role: 'owner' }]);
-    const o = await as(owner);
+    const { p, o } = await ownerOfProject();
     for (const [i, name] of ['one', 'two', 'three'].entries())
       await o
         .write('patch', `/api/v1/projects/${p.id}`)

@@ -3,7 +3,7 @@ import { createHash, randomBytes } from 'node:crypto';
 import { closeTestKnex, testKnex } from '../support/db';
 import { signInEach, startAuthApp, type AuthTestApp, type SignedInRequests } from '../support/auth';
 import { createUser } from '../factories/users';
-import { createProject } from '../factories/projects';
+import { createTeamProjects } from '../factories/projects';
 import { sample } from '../unit/imports/helpers';
 import { loadReportData } from '../../api/features/campaigns/report-data';
 import type { User } from '../../api/models/user';
@@ -24,12 +24,7 @@ beforeAll(async () => {
     viewer: await createUser({ name: 'Ines Lund' }),
     outsider: await createUser(),
   };
-  project = await createProject([
-    { user: users.owner, role: 'owner' },
-    { user: users.editor, role: 'editor' },
-    { user: users.viewer, role: 'viewer' },
-  ]);
-  await createProject([{ user: users.outsider, role: 'owner' }]);
+  ({ project } = await createTeamProjects(users));
   as = await signInEach(env.app, users);
 });
 

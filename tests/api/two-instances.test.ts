@@ -73,6 +73,30 @@ async function pollUntilDone(base: string, jobId: string, timeoutMs = 90_000) {
   throw new Error(`job ${jobId} did not finish`);
 }
 
+/** Start an import of an invented screen of `rows` runs into a new campaign through the instance at `base`. */
+async function startImport(base: string, rows: number) {
+  const campaign = await createCampaign(projectId);
+  const csv = screenCsv(rows);
+  const mapping = await mappingFor(csv, campaign.id);
+  const started = await request(base)
+    .post(`/api/v1/campaigns/${campaign.id}/imports`)
+    .set('Authorization', bearer)
+    .attach('file', csv, 'screen.csv')
+    .field('request', JSON.stringify({ mapping, acknowledgeWarnings: true }))
+    .expect(202);
+  return { campaign, jobId: started.body.job.id as string };
+}
+
+/** The worker (host:pid) running the job once it runs, or null if it has not started within about ten seconds. */
+async function runningWorker(jobId: string): Promise<string | null> {
+  for (let i = 0; i < 400; i++) {
+    const row = await testKnex()('jobs').where({ id: jobId }).first('state', 'worker');
+    if (row.state === 'running' && row.worker) return row.worker;
+    await sleep(25);
+  }
+  return null;
+}
+
 const stored = async (campaignId: string) => ({
   rows: Number((await testKnex()('measurements').where({ campaignId }).count({ n: '*' }).first())!.n),
   audits: Number(
@@ -124,38 +148,16 @@ describe('two instances, one database', () => {
   });
 
   it('when a large import is started on one instance, then it finishes and is visible on the other', async () => {
-    const campaign = await createCampaign(projectId);
-    const csv = screenCsv(2000);
-    const mapping = await mappingFor(csv, campaign.id);
-    const started = await request(a.url)
-      .post(`/api/v1/campaigns/${campaign.id}/imports`)
-      .set('Authorization', bearer)
-      .attach('file', csv, 'screen.csv')
-      .field('request', JSON.stringify({ mapping, acknowledgeWarnings: true }))
-      .expect(202);
-    const done = await pollUntilDone(b.url, started.body.job.id);
+    const { campaign, jobId } = await startImport(a.url, 2000);
+    const done = await pollUntilDone(b.url, jobId);
     expect(done).toMatchObject({ state: 'succeeded', result: { inserted: 2000 } });
     const listed = await request(b.url).get(`/api/v1/campaigns/${campaign.id}/measurements`).set('Authorization', bearer).expect(200);
     expect(listed.body.measurements).toHaveLength(2000);
   });
 
   it('when the instance running an import is killed, then the other finishes it, once', async () => {
-    const campaign = await createCampaign(projectId);
-    const csv = screenCsv(30_000);
-    const mapping = await mappingFor(csv, campaign.id);
-    const started = await request(b.url)
-      .post(`/api/v1/campaigns/${campaign.id}/imports`)
-      .set('Authorization', bearer)
-      .attach('file', csv, 'screen.csv')
-      .field('request', JSON.stringify({ mapping, acknowledgeWarnings: true }))
-      .expect(202);
-    const jobId = started.body.job.id as string;
-    let worker: string | null = null;
-    for (let i = 0; i < 400 && !worker; i++) {
-      const row = await testKnex()('jobs').where({ id: jobId }).first('state', 'worker');
-      if (row.state === 'running') worker = row.worker;
-      else await sleep(25);
-    }
+    const { campaign, jobId } = await startImport(b.url, 30_000);
+    const worker = await runningWorker(jobId);
     expect(worker).not.toBeNull();
     const pid = Number(worker!.split(':').pop());
     const victim = [a, b].find((i) => i.child.pid === pid)!;
@@ -177,22 +179,8 @@ describe('two instances, one database', () => {
   }, 120_000);
 
   it('when the instance running an import is stopped with SIGTERM, then it exits cleanly and the job still ends once', async () => {
-    const campaign = await createCampaign(projectId);
-    const csv = screenCsv(30_000);
-    const mapping = await mappingFor(csv, campaign.id);
-    const started = await request(a.url)
-      .post(`/api/v1/campaigns/${campaign.id}/imports`)
-      .set('Authorization', bearer)
-      .attach('file', csv, 'screen.csv')
-      .field('request', JSON.stringify({ mapping, acknowledgeWarnings: true }))
-      .expect(202);
-    const jobId = started.body.job.id as string;
-    let worker: string | null = null;
-    for (let i = 0; i < 400 && !worker; i++) {
-      const row = await testKnex()('jobs').where({ id: jobId }).first('state', 'worker');
-      if (row.state === 'running') worker = row.worker;
-      else await sleep(25);
-    }
+    const { campaign, jobId } = await startImport(a.url, 30_000);
+    const worker = await runningWorker(jobId);
     const pid = Number(worker!.split(':').pop());
     const runner = [a, b].find((i) => i.child.pid === pid)!;
     const other = runner === a ? b : a;

@@ -3,6 +3,7 @@ import path from 'node:path';
 import { closeTestKnex, testKnex } from '../support/db';
 import { openBrowser, maybeScreenshot, type BrowserSession } from '../support/browser';
 import { startAuthApp, type AuthTestApp } from '../support/auth';
+import { signInThroughForm } from '../support/browser-auth';
 import { createUser, newIdentity } from '../factories/users';
 import { createProject } from '../factories/projects';
 
@@ -138,16 +139,7 @@ describe('accounts and projects in Chromium', () => {
     const mail = env.mailbox.list().find((m) => m.to.includes(invitee.email))!;
     const link = new URL(/https?:\/\/\S+\/invitations\/\S+/.exec(mail.text)![0]);
 
-    const signInAs = async (who: { login: string; name: string; email: string }) => {
-      await page.goto(`${baseUrl}${link.pathname}`);
-      await page.getByRole('main').getByRole('link', { name: 'Sign in' }).click();
-      await page.getByRole('link', { name: 'Sign in with GitHub' }).click();
-      await page.getByLabel('Display name').fill(who.name);
-      await page.getByLabel('Login').fill(who.login);
-      await page.getByLabel('E-mail').fill(who.email);
-      await page.getByRole('button', { name: 'Continue', exact: true }).click();
-      await page.waitForURL(`${baseUrl}${link.pathname}`);
-    };
+    const signInAs = (who: { login: string; name: string; email: string }) => signInThroughForm(page, `${baseUrl}${link.pathname}`, who);
 
     await signInAs(newIdentity({ name: 'Wanda Wrong' }));
     await expect.poll(() => page.getByRole('alert').textContent()).toContain('This invitation is for another account');

@@ -1,27 +1,20 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import path from 'node:path';
 import type { Page } from 'playwright-core';
-import { closeTestKnex, testKnex } from '../support/db';
-import { openBrowser, maybeScreenshot, type BrowserSession } from '../support/browser';
-import { startAuthApp, type AuthTestApp } from '../support/auth';
+import { testKnex } from '../support/db';
+import { maybeScreenshot, type BrowserSession } from '../support/browser';
+import { openSignInBrowser, signInThroughForm } from '../support/browser-auth';
 import { createUser, type TestIdentity } from '../factories/users';
 import { createProject } from '../factories/projects';
 
-let env: AuthTestApp;
 let browser: BrowserSession;
+let closeBrowser: (() => Promise<void>) | undefined;
 
 beforeAll(async () => {
-  env = await startAuthApp({ webDist: path.resolve('dist/web') });
-  browser = await openBrowser(env.app);
-  // A missing element fails with its locator named instead of running into the test timeout.
-  browser.page.setDefaultTimeout(15_000);
+  ({ browser, close: closeBrowser } = await openSignInBrowser());
 });
 
-afterAll(async () => {
-  await browser?.close();
-  await env?.close();
-  await closeTestKnex();
-});
+afterAll(() => closeBrowser?.());
 
 /** An element's screenshot under .tmp/screens when EYRIE_SCREENSHOTS is set (for looking closely). */
 async function maybeElementShot(page: Page, name: string, locator: ReturnType<Page['locator']>) {
@@ -51,14 +44,7 @@ async function chartShotsAtBothWidths(page: Page, prefix: string) {
 /** Sign in through the local provider as `who`, landing on `returnPath`. */
 async function signInAs(page: Page, baseUrl: string, who: TestIdentity, returnPath: string) {
   await page.context().clearCookies();
-  await page.goto(baseUrl + returnPath);
-  await page.getByRole('main').getByRole('link', { name: 'Sign in' }).click();
-  await page.getByRole('link', { name: 'Sign in with GitHub' }).click();
-  await page.getByLabel('Display name').fill(who.name);
-  await page.getByLabel('Login').fill(who.login);
-  await page.getByLabel('E-mail').fill(who.email);
-  await page.getByRole('button', { name: 'Continue', exact: true }).click();
-  await page.waitForURL(baseUrl + returnPath);
+  await signInThroughForm(page, baseUrl + returnPath, who);
 }
 
 async function signOut(page: Page) {

@@ -1,17 +1,15 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
-import path from 'node:path';
 import type { Page } from 'playwright-core';
-import { closeTestKnex } from '../support/db';
-import { openBrowser, maybeScreenshot, type BrowserSession } from '../support/browser';
-import { startAuthApp, type AuthTestApp } from '../support/auth';
+import { maybeScreenshot, type BrowserSession } from '../support/browser';
+import { openSignInBrowser, signInThroughForm } from '../support/browser-auth';
 import { createUser, newIdentity, type TestIdentity } from '../factories/users';
 import { createProject } from '../factories/projects';
 import { createCampaign, createMeasurements } from '../factories/campaigns';
 
-let env: AuthTestApp;
 let browser: BrowserSession;
+let closeBrowser: (() => Promise<void>) | undefined;
 let who: TestIdentity;
 let projectId: string;
 let campaignId: string;
@@ -20,9 +18,7 @@ let campaignId: string;
 const AXE_SOURCE = readFileSync(createRequire(import.meta.url).resolve('axe-core/axe.min.js'), 'utf8');
 
 beforeAll(async () => {
-  env = await startAuthApp({ webDist: path.resolve('dist/web') });
-  browser = await openBrowser(env.app);
-  browser.page.setDefaultTimeout(15_000);
+  ({ browser, close: closeBrowser } = await openSignInBrowser());
   who = newIdentity({ name: 'Noor Phone' });
   const user = await createUser(who);
   const project = await createProject([{ user, role: 'owner' }], { name: 'Handheld check (invented)' });
@@ -32,22 +28,11 @@ beforeAll(async () => {
   await createMeasurements(campaign.id, [233.15, 243.15, 253.15, 263.15, 273.15, 283.15, 293.15]);
 });
 
-afterAll(async () => {
-  await browser?.close();
-  await env?.close();
-  await closeTestKnex();
-});
+afterAll(() => closeBrowser?.());
 
 async function signIn(page: Page, returnPath: string) {
   await page.context().clearCookies();
-  await page.goto(browser.baseUrl + returnPath);
-  await page.getByRole('main').getByRole('link', { name: 'Sign in' }).click();
-  await page.getByRole('link', { name: 'Sign in with GitHub' }).click();
-  await page.getByLabel('Display name').fill(who.name);
-  await page.getByLabel('Login').fill(who.login);
-  await page.getByLabel('E-mail').fill(who.email);
-  await page.getByRole('button', { name: 'Continue', exact: true }).click();
-  await page.waitForURL(browser.baseUrl + returnPath);
+  await signInThroughForm(page, browser.baseUrl + returnPath, who);
 }
 
 interface AxeViolation {

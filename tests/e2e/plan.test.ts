@@ -1,30 +1,23 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import path from 'node:path';
 import { readFile } from 'node:fs/promises';
 import ExcelJS from 'exceljs';
 import type { Page } from 'playwright-core';
-import { closeTestKnex, testKnex } from '../support/db';
-import { openBrowser, maybeScreenshot, type BrowserSession } from '../support/browser';
-import { startAuthApp, type AuthTestApp } from '../support/auth';
+import { testKnex } from '../support/db';
+import { maybeScreenshot, type BrowserSession } from '../support/browser';
+import { openSignInBrowser, signInThroughForm } from '../support/browser-auth';
 import { createUser, type TestIdentity } from '../factories/users';
 import { createProject } from '../factories/projects';
 import { createCampaign } from '../factories/campaigns';
 import { Measurement } from '../../api/models/measurement';
 
-let env: AuthTestApp;
 let browser: BrowserSession;
+let closeBrowser: (() => Promise<void>) | undefined;
 
 beforeAll(async () => {
-  env = await startAuthApp({ webDist: path.resolve('dist/web') });
-  browser = await openBrowser(env.app);
-  browser.page.setDefaultTimeout(15_000);
+  ({ browser, close: closeBrowser } = await openSignInBrowser());
 });
 
-afterAll(async () => {
-  await browser?.close();
-  await env?.close();
-  await closeTestKnex();
-});
+afterAll(() => closeBrowser?.());
 
 /** Click the campaign's spreadsheet link and read the downloaded workbook back. */
 async function downloadReport(page: Page): Promise<ExcelJS.Workbook> {
@@ -49,14 +42,7 @@ function valueBeside(ws: ExcelJS.Worksheet, label: string): ExcelJS.CellValue | 
 
 async function signInAs(page: Page, baseUrl: string, who: TestIdentity, returnPath: string) {
   await page.context().clearCookies();
-  await page.goto(baseUrl + returnPath);
-  await page.getByRole('main').getByRole('link', { name: 'Sign in' }).click();
-  await page.getByRole('link', { name: 'Sign in with GitHub' }).click();
-  await page.getByLabel('Display name').fill(who.name);
-  await page.getByLabel('Login').fill(who.login);
-  await page.getByLabel('E-mail').fill(who.email);
-  await page.getByRole('button', { name: 'Continue', exact: true }).click();
-  await page.waitForURL(baseUrl + returnPath);
+  await signInThroughForm(page, baseUrl + returnPath, who);
 }
 
 const R = 8.314462618;

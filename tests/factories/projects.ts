@@ -18,3 +18,19 @@ export async function createProject(
   for (const m of members) await ProjectMember.query(testKnex()).insert({ projectId: project.id, userId: m.user.id, role: m.role });
   return project;
 }
+
+/** The cast of the role tests: owner, editor and viewer share one project; the outsider owns a project of their own. */
+export async function createTeamProjects(users: {
+  owner: User;
+  editor: User;
+  viewer: User;
+  outsider: User;
+}): Promise<{ project: Project; outsiderProject: Project }> {
+  const project = await createProject([
+    { user: users.owner, role: 'owner' },
+    { user: users.editor, role: 'editor' },
+    { user: users.viewer, role: 'viewer' },
+  ]);
+  const outsiderProject = await createProject([{ user: users.outsider, role: 'owner' }]);
+  return { project, outsiderProject };
+}

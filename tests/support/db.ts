@@ -1,6 +1,7 @@
 import '../../api/db/pg-types';
 import type { Knex } from 'knex';
-import { createKnex } from '../../api/db/knex';
+import pg from 'pg';
+import { createKnex, migrateLatest } from '../../api/db/knex';
 
 let shared: Knex | null = null;
 
@@ -20,4 +21,40 @@ export function testKnex(): Knex {
 export async function closeTestKnex(): Promise<void> {
   await shared?.destroy();
   shared = null;
+}
+
+/**
+ * A database of the test file's own (its name plus the worker's pid), so rows written there never meet other files' rows.
+ * `create` makes it afresh and migrated and hands back a knex the caller destroys; `drop` removes it (for afterAll).
+ */
+export function scratchDatabase(name: string): { create: () => Promise<Knex>; drop: () => Promise<void> } {
+  const baseUrl = process.env.DATABASE_URL ?? '';
+  const dbName = `${name}_${process.pid}`;
+  async function admin(sql: string) {
+    const client = new pg.Client({ connectionString: baseUrl });
+    await client.connect();
+    try {
+      await client.query(sql);
+    } finally {
+      await client.end();
+    }
+  }
+  const drop = () => admin(`drop database if exists "${dbName}"`);
+  return {
+    drop,
+    async create() {
+      await drop();
+      await admin(`create database "${dbName}"`);
+      const url = new URL(baseUrl);
+      url.pathname = `/${dbName}`;
+      const knex = createKnex(url.toString(), { min: 0, max: 2 });
+      try {
+        await migrateLatest(knex);
+      } catch (err) {
+        await knex.destroy();
+        throw err;
+      }
+      return knex;
+    },
+  };
 }

@@ -4,6 +4,7 @@
  * snapshots; nothing here shows ids, field names or JSON.
  */
 import type { Knex } from 'knex';
+import { auditRowsPage } from './service';
 
 export interface HistoryEntry {
   /** Cursor for paging (`before`); not for display. */
@@ -337,29 +338,7 @@ export async function readHistory(
   scope: { projectId: string; campaignId?: string },
   page: { limit: number; before?: number },
 ): Promise<HistoryPage> {
-  const rows: EventRow[] = await db('audit_events as e')
-    .leftJoin('users as u', 'u.id', 'e.actorUserId')
-    .where('e.projectId', scope.projectId)
-    .modify((q) => {
-      if (scope.campaignId) q.where('e.campaignId', scope.campaignId);
-      if (page.before !== undefined) q.where('e.id', '<', page.before);
-    })
-    .orderBy('e.id', 'desc')
-    .limit(page.limit + 1)
-    .select(
-      'e.id',
-      'e.createdAt',
-      'e.action',
-      'e.entityType',
-      'e.entityId',
-      'e.before',
-      'e.after',
-      'e.reason',
-      'e.campaignId',
-      'e.actorUserId',
-      'u.login',
-      'u.displayName',
-    );
+  const rows = (await auditRowsPage(db, scope, page)) as EventRow[];
   const more = rows.length > page.limit;
   const shown = rows.slice(0, page.limit);
   const names = await namesFor(db, scope.projectId, shown);

@@ -11,7 +11,8 @@ export interface AuditEventView {
   after: unknown;
 }
 
-interface AuditRow {
+/** An audit row with its actor's names. */
+export interface AuditRow {
   id: number;
   createdAt: Date;
   action: AuditEventView['action'];
@@ -19,21 +20,28 @@ interface AuditRow {
   entityId: string;
   before: unknown;
   after: unknown;
+  reason: string | null;
+  campaignId: string | null;
   actorUserId: string | null;
+  /** Present whenever actorUserId is (an account's removal clears actorUserId too). */
   login: string;
   displayName: string | null;
 }
 
-/** A project's history, newest first, in pages of `limit` before the event id `before`. */
-export async function listAuditEvents(
+/**
+ * The audit rows of a project, or of one of its campaigns, newest first: `limit + 1` of them before the event id `before`,
+ * so the caller can tell whether another page follows.
+ */
+export function auditRowsPage(
   db: Knex,
-  projectId: string,
+  scope: { projectId: string; campaignId?: string },
   page: { limit: number; before?: number },
-): Promise<{ events: AuditEventView[]; nextBefore: number | null }> {
-  const rows: AuditRow[] = await db('audit_events as e')
+): Promise<AuditRow[]> {
+  return db('audit_events as e')
     .leftJoin('users as u', 'u.id', 'e.actorUserId')
-    .where('e.projectId', projectId)
+    .where('e.projectId', scope.projectId)
     .modify((q) => {
+      if (scope.campaignId) q.where('e.campaignId', scope.campaignId);
       if (page.before !== undefined) q.where('e.id', '<', page.before);
     })
     .orderBy('e.id', 'desc')
@@ -46,10 +54,21 @@ export async function listAuditEvents(
       'e.entityId',
       'e.before',
       'e.after',
+      'e.reason',
+      'e.campaignId',
       'e.actorUserId',
       'u.login',
       'u.displayName',
     );
+}
+
+/** A project's history, newest first, in pages of `limit` before the event id `before`. */
+export async function listAuditEvents(
+  db: Knex,
+  projectId: string,
+  page: { limit: number; before?: number },
+): Promise<{ events: AuditEventView[]; nextBefore: number | null }> {
+  const rows = await auditRowsPage(db, { projectId }, page);
   const more = rows.length > page.limit;
   const events = rows.slice(0, page.limit).map((r: AuditRow): AuditEventView => ({
     id: r.id,

@@ -41,6 +41,14 @@ function styleHeader(row: ExcelJS.Row) {
   row.alignment = { vertical: 'middle', wrapText: true };
 }
 
+/** A sheet frozen below its styled header row, its columns given as [header, width]; grid lines hidden when asked. */
+function headedSheet(wb: ExcelJS.Workbook, name: string, columns: [string, number][], gridLines = true): ExcelJS.Worksheet {
+  const ws = wb.addWorksheet(name, { views: [{ state: 'frozen', ySplit: 1, ...(gridLines ? {} : { showGridLines: false }) }] });
+  ws.columns = columns.map(([header, width]) => ({ header, width }));
+  styleHeader(ws.getRow(1));
+  return ws;
+}
+
 /** Escape `&` for the header/footer codes and keep the text short. */
 const hfText = (s: string) => s.replace(/&/g, '&&').slice(0, 80);
 
@@ -106,16 +114,19 @@ function addTable(
 }
 
 function addSummary(wb: ExcelJS.Workbook, model: ReportModel) {
-  const ws = wb.addWorksheet('Summary', { views: [{ state: 'frozen', ySplit: 1, showGridLines: false }] });
-  ws.columns = [
-    { header: 'Item', width: 31 },
-    { header: 'Value', width: 70 },
-    { header: 'Standard error', width: 13 },
-    { header: 'Interval low', width: 13 },
-    { header: 'Interval high', width: 13 },
-    { header: 'Unit', width: 12 },
-  ];
-  styleHeader(ws.getRow(1));
+  const ws = headedSheet(
+    wb,
+    'Summary',
+    [
+      ['Item', 31],
+      ['Value', 70],
+      ['Standard error', 13],
+      ['Interval low', 13],
+      ['Interval high', 13],
+      ['Unit', 12],
+    ],
+    false,
+  );
   let section = '';
   let r = 2;
   for (const line of model.summary) {
@@ -259,20 +270,23 @@ function addMeasurements(wb: ExcelJS.Workbook, model: ReportModel) {
 /** The fit's parameters and covariance; returns the first free row (for the charts), or null without a fit. */
 function addFit(wb: ExcelJS.Workbook, model: ReportModel): { ws: ExcelJS.Worksheet; next: number | null } {
   const fit = model.fit;
-  const ws = wb.addWorksheet('Fit', { views: [{ state: 'frozen', ySplit: 1, showGridLines: false }] });
-  ws.columns = [
-    { header: 'Quantity', width: 30 },
-    { header: 'Estimate', width: 13 },
-    { header: 'Standard error', width: 13 },
-    { header: 'Interval low', width: 13 },
-    { header: 'Interval high', width: 13 },
-    { header: 'Unit', width: 12 },
-    { header: '', width: 12 },
-    { header: '', width: 14 },
-    { header: '', width: 24 },
-    { header: '', width: 14 },
-  ];
-  styleHeader(ws.getRow(1));
+  const ws = headedSheet(
+    wb,
+    'Fit',
+    [
+      ['Quantity', 30],
+      ['Estimate', 13],
+      ['Standard error', 13],
+      ['Interval low', 13],
+      ['Interval high', 13],
+      ['Unit', 12],
+      ['', 12],
+      ['', 14],
+      ['', 24],
+      ['', 14],
+    ],
+    false,
+  );
   if (!fit) {
     ws.getCell('A2').value = `No fit: ${model.data.analysis.problem?.message ?? 'not enough data'}`;
     printSetup(ws, model, '1:1');
@@ -415,20 +429,18 @@ function putRow(ws: ExcelJS.Worksheet, r: number, values: [Cell | UserText, stri
 /** The saved plan: its inputs, the answer with its rule and probability, the window chart and the curve. */
 function addPlan(wb: ExcelJS.Workbook, model: ReportModel, window: Buffer | null | undefined) {
   const plan = model.data.plan!;
-  const ws = wb.addWorksheet('Plan', { views: [{ state: 'frozen', ySplit: 1 }] });
-  ws.columns = [
-    { header: 'Item', width: 34 },
-    { header: 'Value', width: 46 },
-    { header: 'Unit', width: 10 },
-    { header: '', width: 12 },
-    { header: '', width: 12 },
-    { header: '', width: 12 },
-    { header: '', width: 13 },
-    { header: '', width: 13 },
-    { header: '', width: 10 },
-    { header: '', width: 24 },
-  ];
-  styleHeader(ws.getRow(1));
+  const ws = headedSheet(wb, 'Plan', [
+    ['Item', 34],
+    ['Value', 46],
+    ['Unit', 10],
+    ['', 12],
+    ['', 12],
+    ['', 12],
+    ['', 13],
+    ['', 13],
+    ['', 10],
+    ['', 24],
+  ]);
   const spec = plan.specification;
   let r = 2;
   r = keyValues(ws, r, 'Specification used by the plan', [

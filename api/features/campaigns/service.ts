@@ -6,7 +6,7 @@
  */
 import type { Knex } from 'knex';
 import objection from 'objection';
-import { recordAudit } from '../../lib/audit';
+import { recordAudit, type AuditEventInput } from '../../lib/audit';
 import { BadRequestError, ConflictError, NotFoundError } from '../../lib/errors';
 import { quantitationLimitProblem } from '../calculators/schemas';
 import { Campaign } from '../../models/campaign';
@@ -147,15 +147,7 @@ export async function createCampaign(db: Knex, actor: ProjectActor, input: Campa
           createdByUserId: actor.actorUserId,
         })
         .returning('*');
-      await recordAudit(trx, {
-        ...auditActor(actor),
-        action: 'create',
-        entityType: 'campaign',
-        entityId: campaign.id,
-        campaignId: campaign.id,
-        before: null,
-        after: snapshot(campaign),
-      });
+      await audit(trx, actor, 'create', 'campaign', { entityId: campaign.id, campaignId: campaign.id, after: snapshot(campaign) });
       return campaign;
     });
   } catch (err) {
@@ -163,7 +155,24 @@ export async function createCampaign(db: Knex, actor: ProjectActor, input: Campa
   }
 }
 
-const auditActor = (actor: ProjectActor) => ({ projectId: actor.projectId, actorUserId: actor.actorUserId });
+/** Record, in the change's own transaction, what the actor did to one row (before/after default to null). */
+function audit(
+  trx: Knex.Transaction,
+  actor: ProjectActor,
+  action: AuditEventInput['action'],
+  entityType: string,
+  event: Pick<AuditEventInput, 'entityId' | 'campaignId' | 'reason'> & Partial<Pick<AuditEventInput, 'before' | 'after'>>,
+): Promise<void> {
+  return recordAudit(trx, {
+    projectId: actor.projectId,
+    actorUserId: actor.actorUserId,
+    action,
+    entityType,
+    before: null,
+    after: null,
+    ...event,
+  });
+}
 
 export async function updateCampaign(db: Knex, actor: ProjectActor, campaignId: string, input: CampaignUpdate): Promise<Campaign> {
   const { version, ...changes } = input;
@@ -183,15 +192,7 @@ export async function updateCampaign(db: Knex, actor: ProjectActor, campaignId: 
         .patch({ ...changes, version: version + 1, updatedAt: new Date() })
         .where({ id: campaignId, version })
         .returning('*');
-      await recordAudit(trx, {
-        ...auditActor(actor),
-        action: 'update',
-        entityType: 'campaign',
-        entityId: campaignId,
-        campaignId,
-        before: snapshot(before),
-        after: snapshot(after),
-      });
+      await audit(trx, actor, 'update', 'campaign', { entityId: campaignId, campaignId, before: snapshot(before), after: snapshot(after) });
       return after;
     });
   } catch (err) {
@@ -207,14 +208,10 @@ export async function deleteCampaign(db: Knex, actor: ProjectActor, campaignId: 
     const [{ n }] = await trx('measurements').where({ campaignId }).count({ n: '*' });
     const [{ f }] = await trx('savedForecasts').where({ campaignId }).count({ f: '*' });
     await Campaign.query(trx).deleteById(campaignId);
-    await recordAudit(trx, {
-      ...auditActor(actor),
-      action: 'delete',
-      entityType: 'campaign',
+    await audit(trx, actor, 'delete', 'campaign', {
       entityId: campaignId,
       campaignId,
       before: { ...snapshot(before), measurementCount: Number(n), savedForecastCount: Number(f) },
-      after: null,
     });
   });
 }
@@ -316,10 +313,7 @@ export async function signOffCampaign(
       .where({ id: campaignId })
       .returning('*');
     const [{ n }] = await trx('measurements').where({ campaignId }).count({ n: '*' });
-    await recordAudit(trx, {
-      ...auditActor(actor),
-      action: 'update',
-      entityType: 'campaign_sign_off',
+    await audit(trx, actor, 'update', 'campaign_sign_off', {
       entityId: campaignId,
       campaignId,
       reason: input.note ?? null,
@@ -340,10 +334,7 @@ export async function reopenCampaign(db: Knex, actor: ProjectActor, campaignId: 
       .patch({ signedOffAt: null, signedOffByUserId: null, signOffNote: null, version: before.version + 1, updatedAt: new Date() })
       .where({ id: campaignId })
       .returning('*');
-    await recordAudit(trx, {
-      ...auditActor(actor),
-      action: 'update',
-      entityType: 'campaign_sign_off',
+    await audit(trx, actor, 'update', 'campaign_sign_off', {
       entityId: campaignId,
       campaignId,
       reason: input.reason,
@@ -418,15 +409,7 @@ export async function createMeasurement(db: Knex, actor: ProjectActor, campaignI
     const measurement = await Measurement.query(trx)
       .insert({ ...measurementColumns(input), campaignId, createdByUserId: actor.actorUserId })
       .returning('*');
-    await recordAudit(trx, {
-      ...auditActor(actor),
-      action: 'create',
-      entityType: 'measurement',
-      entityId: measurement.id,
-      campaignId,
-      before: null,
-      after: snapshot(measurement),
-    });
+    await audit(trx, actor, 'create', 'measurement', { entityId: measurement.id, campaignId, after: snapshot(measurement) });
     return measurement;
   });
 }
@@ -461,10 +444,7 @@ async function patchMeasurement(
       .patch({ ...columns, version: version + 1, updatedAt: new Date() })
       .where({ id: measurementId, version })
       .returning('*');
-    await recordAudit(trx, {
-      ...auditActor(actor),
-      action: 'update',
-      entityType: 'measurement',
+    await audit(trx, actor, 'update', 'measurement', {
       entityId: measurementId,
       campaignId: before.campaignId,
       reason,
@@ -527,10 +507,7 @@ export async function updateMeasurementsBatch(
         .patch({ ...measurementColumns(changes), version: version + 1, updatedAt: stamp })
         .where({ id, version })
         .returning('*');
-      await recordAudit(trx, {
-        ...auditActor(actor),
-        action: 'update',
-        entityType: 'measurement',
+      await audit(trx, actor, 'update', 'measurement', {
         entityId: id,
         campaignId,
         reason,
@@ -571,15 +548,11 @@ export async function deleteMeasurement(
     const before = await getMeasurementForUpdate(trx, actor.projectId, measurementId);
     if (before.version !== version) throw staleVersion('measurement', version, before.version);
     await Measurement.query(trx).deleteById(measurementId);
-    await recordAudit(trx, {
-      ...auditActor(actor),
-      action: 'delete',
-      entityType: 'measurement',
+    await audit(trx, actor, 'delete', 'measurement', {
       entityId: measurementId,
       campaignId: before.campaignId,
       reason,
       before: snapshot(before),
-      after: null,
     });
   });
 }
@@ -607,15 +580,7 @@ export async function saveForecast(db: Knex, actor: ProjectActor, campaignId: st
         createdByUserId: actor.actorUserId,
       })
       .returning('*');
-    await recordAudit(trx, {
-      ...auditActor(actor),
-      action: 'create',
-      entityType: 'saved_forecast',
-      entityId: forecast.id,
-      campaignId,
-      before: null,
-      after: snapshot(forecast),
-    });
+    await audit(trx, actor, 'create', 'saved_forecast', { entityId: forecast.id, campaignId, after: snapshot(forecast) });
     return forecast;
   });
 }
@@ -637,14 +602,10 @@ export async function deleteSavedForecast(db: Knex, actor: ProjectActor, forecas
       .first();
     if (!forecast) throw forecastNotFound();
     await SavedForecast.query(trx).deleteById(forecastId);
-    await recordAudit(trx, {
-      ...auditActor(actor),
-      action: 'delete',
-      entityType: 'saved_forecast',
+    await audit(trx, actor, 'delete', 'saved_forecast', {
       entityId: forecastId,
       campaignId: forecast.campaignId,
       before: snapshot(forecast),
-      after: null,
     });
   });
 }
@@ -676,13 +637,9 @@ export async function createMeasurementsBatch(
     // Chunked so a 5000-row batch stays well under PostgreSQL's bind-parameter limit.
     for (let i = 0; i < rows.length; i += 1000) await trx('measurements').insert(rows.slice(i, i + 1000));
     await trx('campaigns').where({ id: campaignId }).update({ updatedAt: stamp });
-    await recordAudit(trx, {
-      ...auditActor(actor),
-      action: 'create',
-      entityType: 'measurement_batch',
+    await audit(trx, actor, 'create', 'measurement_batch', {
       entityId: campaignId,
       campaignId,
-      before: null,
       after: { campaignTitle: campaign.title, rows: rows.length },
     });
     return rows.length;

@@ -32,19 +32,12 @@ export async function resolveImportFileProjectId(db: Knex, fileId: unknown): Pro
 
 /** A campaign's kept files, newest first (without their bytes). */
 export async function listImportFiles(db: Knex, campaignId: string): Promise<ImportFileView[]> {
-  const rows: {
-    id: string;
-    fileName: string;
-    mediaType: string;
-    format: string;
-    sizeBytes: number;
-    sha256: string;
-    rowCount: number;
+  const rows: (Omit<ImportFileView, 'storedRowCount' | 'uploadedAt' | 'uploadedBy'> & {
     uploadedAt: Date;
     login: string | null;
     displayName: string | null;
     stored: number;
-  }[] = await db('importFiles as f')
+  })[] = await db('importFiles as f')
     .leftJoin('users as u', 'u.id', 'f.uploadedByUserId')
     .where('f.campaignId', campaignId)
     .orderBy('f.uploadedAt', 'desc')

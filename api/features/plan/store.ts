@@ -269,15 +269,17 @@ async function compareStored(db: Knex, campaigns: (Campaign | null)[], ids: read
   };
 }
 
-const comparisonView = (c: Comparison, result: Awaited<ReturnType<typeof compareStored>>) => ({
+/** A saved comparison as listed: what it compares and at which temperature, without its result. */
+const comparisonHeading = (c: Pick<Comparison, 'id' | 'projectId' | 'name' | 'campaignIds' | 'temperatureK' | 'createdAt'>) => ({
   id: c.id,
   projectId: c.projectId,
   name: c.name,
   campaignIds: c.campaignIds,
   temperature: { kelvin: c.temperatureK, celsius: c.temperatureK - 273.15 },
   createdAt: new Date(c.createdAt).toISOString(),
-  result,
 });
+
+const comparisonView = (c: Comparison, result: Awaited<ReturnType<typeof compareStored>>) => ({ ...comparisonHeading(c), result });
 export type ComparisonView = ReturnType<typeof comparisonView>;
 
 const scaleOf = (measure: string) => (measure === 'dr' ? 'diastereomer' : measure === 'ee' || measure === 'er' ? 'enantiomer' : 'any');
@@ -338,12 +340,5 @@ export async function listComparisons(db: Knex, userId: string) {
     .select('comparisons.*')
     .orderBy('comparisons.createdAt', 'desc')
     .limit(500);
-  return rows.map((c) => ({
-    id: c.id,
-    projectId: c.projectId,
-    name: c.name,
-    campaignIds: c.campaignIds,
-    temperature: { kelvin: c.temperatureK, celsius: c.temperatureK - 273.15 },
-    createdAt: new Date(c.createdAt).toISOString(),
-  }));
+  return rows.map(comparisonHeading);
 }

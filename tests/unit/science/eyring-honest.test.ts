@@ -1,23 +1,11 @@
 import { describe, expect, it } from 'vitest';
+import { seededNormals } from '../../support/seeded-normals';
 import { sigmaLnRatioAt } from '../../../api/science/assay-precision';
 import { GAS_CONSTANT_J_PER_MOL_K as R } from '../../../api/science/constants';
 import { fitEyring, type EyringMeasurement } from '../../../api/science/eyring-fit';
 import { fitLine } from '../../../api/science/regression';
 
 const codes = (w: { code: string }[]) => w.map((x) => x.code);
-
-/** Small deterministic generator (mulberry32) and Box–Muller normals, for fixed-seed simulations. */
-function normals(seed: number): () => number {
-  let a = seed >>> 0;
-  const uniform = () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-  return () => Math.sqrt(-2 * Math.log(1 - uniform())) * Math.cos(2 * Math.PI * uniform());
-}
 
 // The invented screen of tests/fixtures/r/censored-eyring.R: ln r = −0.9 + 1684/T + noise.
 const CELSIUS = [-70, -60, -50, -40, -30, -20, -10, 0, 10, 20];
@@ -51,7 +39,7 @@ describe('fitEyring with runs beyond the quantitation limit (censored ML)', () =
   });
 
   it('when many screens are censored at the limit, then the censored fit is nearly unbiased while dropping the bounds biases ΔΔH‡ low (fixed seed)', () => {
-    const z = normals(20261202);
+    const z = seededNormals(20261202);
     const truthB = 2000;
     let tobitSum = 0;
     let dropSum = 0;

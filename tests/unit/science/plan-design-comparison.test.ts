@@ -1,23 +1,11 @@
 import { describe, expect, it } from 'vitest';
+import { seededNormals } from '../../support/seeded-normals';
 import jStat from 'jstat';
 import { GAS_CONSTANT_J_PER_MOL_K as R } from '../../../api/science/constants';
 import { fitEyring, type EyringMeasurement } from '../../../api/science/eyring-fit';
 import { predictLine, studentTQuantile } from '../../../api/science/regression';
 import { cOptimalAdditions, elfvingDesign, suggestNextRuns, varianceFactor, type LineInformation } from '../../../api/science/plan-design';
 import { compareFits, crossoverOf, runsToTellApart } from '../../../api/science/comparison';
-
-/** Small seeded generator (mulberry32) and Box–Muller normals, so simulations repeat exactly. */
-function rng(seed: number) {
-  let a = seed >>> 0;
-  const uniform = () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-  return () => Math.sqrt(-2 * Math.log(1 - uniform())) * Math.cos(2 * Math.PI * uniform());
-}
 
 const TEMPS = [-60, -60, -40, -40, -20, -20, 0, 0].map((c) => c + 273.15);
 /** A simulated screen: ln r = h/(R·T) − s/R + shift + N(0, σ²). */
@@ -54,7 +42,7 @@ describe('next runs (c-optimal design)', () => {
   });
 
   it('when a screen exists, then the two suggested runs match an exhaustive search over every pair of lab temperatures', () => {
-    const fit = fitEyring(simulate(rng(7)));
+    const fit = fitEyring(simulate(seededNormals(7)));
     const target = 243.15;
     const res = suggestNextRuns(fit, { targetK: target, fromK: 213.15, toK: 313.15, count: 2, stepK: 1 });
     const line = fit.line;
@@ -78,8 +66,8 @@ describe('next runs (c-optimal design)', () => {
 
 describe('comparing two screens', () => {
   it('when compared at one temperature, then the difference and its interval follow from the two mean-line variances', () => {
-    const a = fitEyring(simulate(rng(1)));
-    const b = fitEyring(simulate(rng(2), 9_000, 8));
+    const a = fitEyring(simulate(seededNormals(1)));
+    const b = fitEyring(simulate(seededNormals(2), 9_000, 8));
     const T = 253.15;
     const c = compareFits(a, b, T);
     const pa = predictLine(a.line, 1 / T);
@@ -96,8 +84,8 @@ describe('comparing two screens', () => {
   });
 
   it('when the slopes differ, then the equal-slopes p matches the F(1, n − 4) upper tail from jstat', () => {
-    const a = fitEyring(simulate(rng(3), 12_000, 10));
-    const b = fitEyring(simulate(rng(4), 6_000, -15));
+    const a = fitEyring(simulate(seededNormals(3), 12_000, 10));
+    const b = fitEyring(simulate(seededNormals(4), 6_000, -15));
     const c = compareFits(a, b, 253.15);
     expect(c.equalSlopes.dof2).toBe(12);
     // [C] jstat 1.9.6 centralF: p = 1 − F(F; 1, 12)
@@ -107,10 +95,10 @@ describe('comparing two screens', () => {
 
   it('when the lines cross within the screen, then the Fieller ends solve (Δa + xΔb)² = t²·Var(Δa + xΔb)', () => {
     // Crossing near 253 K: the second is less temperature-sensitive and has a matching offset.
-    const a = fitEyring(simulate(rng(5), 14_000, 20, 0, 0.03));
+    const a = fitEyring(simulate(seededNormals(5), 14_000, 20, 0, 0.03));
     const hB = 6_000;
     const sB = 20 - (14_000 - hB) / 253.15; // same ln r at 253.15 K [C]
-    const b = fitEyring(simulate(rng(6), hB, sB, 0, 0.03));
+    const b = fitEyring(simulate(seededNormals(6), hB, sB, 0, 0.03));
     const cross = crossoverOf(a, b)!;
     expect(cross.bounded).toBe(true);
     expect(cross.temperatureK).toBeGreaterThan(240);
@@ -141,7 +129,7 @@ describe('comparing two screens', () => {
     let slopes = 0;
     const N = 400;
     for (let seed = 1; seed <= N; seed++) {
-      const normal = rng(1000 + seed);
+      const normal = seededNormals(1000 + seed);
       const c = compareFits(fitEyring(simulate(normal)), fitEyring(simulate(normal)), 243.15);
       if (c.verdict !== 'cannot-tell') differ++;
       if (c.equalSlopes.p < 0.05) slopes++;
@@ -157,7 +145,7 @@ describe('comparing two screens', () => {
     let found = 0;
     const N = 200;
     for (let seed = 1; seed <= N; seed++) {
-      const normal = rng(5000 + seed);
+      const normal = seededNormals(5000 + seed);
       const c = compareFits(fitEyring(simulate(normal, 10_000, 10, 0.12)), fitEyring(simulate(normal)), 243.15);
       if (c.verdict === 'first') found++;
     }
@@ -165,9 +153,9 @@ describe('comparing two screens', () => {
   });
 
   it('when the true difference is larger, then fewer added runs are needed to tell the screens apart', () => {
-    const base = simulate(rng(9));
-    const small = runsToTellApart(fitEyring(simulate(rng(9), 10_000, 10, 0.04)), fitEyring(base), 243.15);
-    const large = runsToTellApart(fitEyring(simulate(rng(9), 10_000, 10, 0.1)), fitEyring(base), 243.15);
+    const base = simulate(seededNormals(9));
+    const small = runsToTellApart(fitEyring(simulate(seededNormals(9), 10_000, 10, 0.04)), fitEyring(base), 243.15);
+    const large = runsToTellApart(fitEyring(simulate(seededNormals(9), 10_000, 10, 0.1)), fitEyring(base), 243.15);
     expect(large).not.toBeNull();
     expect(small === null || small > large!).toBe(true);
   });

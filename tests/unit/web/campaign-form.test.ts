@@ -3,29 +3,14 @@ import { campaignCreateSchema } from '../../../api/features/campaigns/schemas';
 import { blankCampaign, createBody, updateBody, valuesFromCampaign } from '../../../web/features/campaigns/lib/campaign-form';
 import { chartData } from '../../../web/features/campaigns/components/campaign-analysis';
 import type { AnalysisResponse, Campaign } from '../../../web/features/campaigns/api/types';
+import { webCampaign } from '../../factories/web-campaign';
 
-const campaign: Campaign = {
-  id: 'c1',
-  projectId: 'p1',
+const campaign: Campaign = webCampaign({
   title: 'Form test (invented)',
-  reactionDescription: null,
   productNameA: '(S)-amide',
   productNameB: '(R)-amide',
-  measure: 'ee',
-  assayMethod: 'chiral-hplc',
-  defaultUncertainty: 0.3,
-  newRunUncertainty: null,
-  quantitationLimit: null,
-  status: 'active',
-  notes: null,
-  createdByUserId: null,
-  signedOffAt: null,
-  signedOffByUserId: null,
-  signOffNote: null,
   version: 7,
-  createdAt: '2026-12-01T00:00:00Z',
-  updatedAt: '2026-12-01T00:00:00Z',
-};
+});
 
 describe('campaign form → API bodies', () => {
   it('when products are left blank, then they are A and B; a decimal comma uncertainty is read; the body passes the create schema', () => {

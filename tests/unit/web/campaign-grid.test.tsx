@@ -17,6 +17,7 @@ import {
 } from '../../../web/features/campaigns/lib/grid';
 import { MeasurementGrid } from '../../../web/features/campaigns/components/measurement-grid';
 import type { Campaign, Measurement } from '../../../web/features/campaigns/api/types';
+import { webCampaign } from '../../factories/web-campaign';
 
 afterEach(() => {
   cleanup();
@@ -27,28 +28,11 @@ afterEach(() => {
 const C_EE: ColumnUnits = { temperature: 'C', measure: 'ee', time: 'h' };
 const cells = (over: Partial<GridCells>): GridCells => ({ ...emptyCells(), ...over });
 
-const campaign: Campaign = {
+const campaign: Campaign = webCampaign({
   id: '11111111-1111-4111-8111-111111111111',
   projectId: '22222222-2222-4222-8222-222222222222',
   title: 'Grid test (invented)',
-  reactionDescription: null,
-  productNameA: 'A',
-  productNameB: 'B',
-  measure: 'ee',
-  assayMethod: 'chiral-hplc',
-  defaultUncertainty: 0.3,
-  newRunUncertainty: null,
-  quantitationLimit: null,
-  status: 'active',
-  notes: null,
-  createdByUserId: null,
-  signedOffAt: null,
-  signedOffByUserId: null,
-  signOffNote: null,
-  version: 1,
-  createdAt: '2026-12-01T00:00:00Z',
-  updatedAt: '2026-12-01T00:00:00Z',
-};
+});
 
 function stored(over: Partial<Measurement> = {}): Measurement {
   return {
@@ -76,6 +60,13 @@ function stored(over: Partial<Measurement> = {}): Measurement {
     ...over,
   };
 }
+
+/** Every alert on screen, as one text. */
+const alertText = () =>
+  screen
+    .getAllByRole('alert')
+    .map((a) => a.textContent)
+    .join(' ');
 
 describe('grid cells: numbers as typed', () => {
   it('when a number has a true minus, a decimal comma or spaces, then it is read; words are invalid; empty is null', () => {
@@ -392,14 +383,7 @@ describe('MeasurementGrid', () => {
     expect(JSON.parse(String(init.body))).toEqual({
       measurements: [{ id: '33333333-3333-4333-8333-333333333333', version: 4, uncertainty: 0.5, reason: 'assay repeated' }],
     });
-    await waitFor(() =>
-      expect(
-        screen
-          .getAllByRole('alert')
-          .map((a) => a.textContent)
-          .join(' '),
-      ).toContain('Changed by someone else'),
-    );
+    await waitFor(() => expect(alertText()).toContain('Changed by someone else'));
     expect((screen.getByLabelText('Uncertainty, row 1') as HTMLInputElement).value).toBe('0.5');
   });
 
@@ -426,14 +410,7 @@ describe('MeasurementGrid', () => {
     fireEvent.change(screen.getByLabelText('Notes, row 2'), { target: { value: 'bath checked' } });
     fireEvent.change(screen.getByLabelText(/Why do these 2 stored runs change\?/), { target: { value: 'notes added' } });
     fireEvent.click(screen.getByRole('button', { name: 'Save 2 rows' }));
-    await waitFor(() =>
-      expect(
-        screen
-          .getAllByRole('alert')
-          .map((a) => a.textContent)
-          .join(' '),
-      ).toContain('Changed by someone else'),
-    );
+    await waitFor(() => expect(alertText()).toContain('Changed by someone else'));
     const patches = fetchMock.mock.calls.filter(([, init]) => init?.method === 'PATCH');
     expect(patches).toHaveLength(1);
     expect(JSON.parse(String(patches[0]![1]!.body)).measurements.map((m: { id: string }) => m.id)).toEqual([stored().id, second.id]);
