@@ -1,8 +1,9 @@
 import { useMemo, type ReactNode } from 'react';
-import { AreaSeries, Axis, GlyphSeries, Grid, LineSeries, Tooltip, XYChart } from '@visx/xychart';
+import { Axis, GlyphSeries, LineSeries } from '@visx/xychart';
 import { fixed, sig } from '../../lib/format';
+import { BandArea, ChartFrame, InverseKelvinAxis, SnapTooltip } from './chart-frame';
 import { ErrorBars, noGlyph, PointMarks, VerticalMark, type PointMark } from './chart-layers';
-import { axisLabelProps, chartColors, chartTheme, paddedExtent, tickLabelProps } from './chart-theme';
+import { axisLabelProps, chartColors, paddedExtent, tickLabelProps } from './chart-theme';
 import { useElementWidth } from './use-element-width';
 import { CELSIUS_OFFSET_K as CELSIUS_OFFSET } from '../../../api/science/quantities';
 
@@ -60,9 +61,6 @@ type Datum = { kind: 'point'; x: number; y: number; p: EyringPlotPoint } | { kin
 const invT = (kelvin: number) => 1000 / kelvin;
 const MARGIN = { top: 40, right: 20, bottom: 46, left: 70 };
 // Accessors defined once: a new function on each render makes xychart register the series again.
-const bandX = (d: { x: number }) => d.x;
-const bandHi = (d: { hi: number }) => d.hi;
-const bandLo = (d: { lo: number }) => d.lo;
 const lineX = (d: { x: number }) => d.x;
 const lineY = (d: { y: number }) => d.y;
 const xOf = (d: Datum) => d.x;
@@ -182,41 +180,12 @@ export function EyringPlot({
     <figure className="m-0">
       <div ref={ref} className="w-full" data-testid="eyring-plot">
         {chartWidth > 0 && (
-          <XYChart
-            width={chartWidth}
-            height={height}
-            margin={MARGIN}
-            theme={chartTheme}
-            xScale={xScale}
-            yScale={yScale}
-            accessibilityLabel={title}
-          >
-            <Grid columns={false} numTicks={6} lineStyle={{ stroke: chartColors.grid }} />
+          <ChartFrame width={chartWidth} height={height} margin={MARGIN} xScale={xScale} yScale={yScale} title={title} gridTicks={6}>
             {prediction.length > 1 && (
-              <AreaSeries
-                dataKey="prediction band"
-                data={prediction}
-                xAccessor={bandX}
-                yAccessor={bandHi}
-                y0Accessor={bandLo}
-                renderLine={false}
-                fill={chartColors.predictionFill}
-                fillOpacity={0.22}
-                enableEvents={false}
-              />
+              <BandArea dataKey="prediction band" data={prediction} fill={chartColors.predictionFill} fillOpacity={0.22} />
             )}
             {confidence.length > 1 && (
-              <AreaSeries
-                dataKey="confidence band"
-                data={confidence}
-                xAccessor={bandX}
-                yAccessor={bandHi}
-                y0Accessor={bandLo}
-                renderLine={false}
-                fill={chartColors.confidenceFill}
-                fillOpacity={0.25}
-                enableEvents={false}
-              />
+              <BandArea dataKey="confidence band" data={confidence} fill={chartColors.confidenceFill} fillOpacity={0.25} />
             )}
             {curveData.length > 1 && (
               <LineSeries
@@ -249,14 +218,7 @@ export function EyringPlot({
               <GlyphSeries dataKey="measurements" data={pointData} xAccessor={xOf} yAccessor={yOf} renderGlyph={noGlyph} />
             )}
             {mark && <VerticalMark x={invT(mark.kelvin)} label={mark.label} />}
-            <Axis
-              orientation="bottom"
-              numTicks={6}
-              label="1000/T (K⁻¹)"
-              labelProps={axisLabelProps}
-              tickLabelProps={tickLabelProps}
-              tickFormat={(v) => fixed(Number(v), 2)}
-            />
+            <InverseKelvinAxis />
             <Axis
               orientation="left"
               numTicks={6}
@@ -275,18 +237,11 @@ export function EyringPlot({
               tickLabelProps={tickLabelProps}
               tickFormat={(v) => fixed(1000 / Number(v) - CELSIUS_OFFSET, 0)}
             />
-            <Tooltip<Datum>
-              snapTooltipToDatumX
-              snapTooltipToDatumY
-              showDatumGlyph={false}
-              showVerticalCrosshair
-              verticalCrosshairStyle={{ stroke: '#94a3b8', strokeDasharray: '2 2' }}
-              renderTooltip={({ tooltipData }) => {
-                const d = tooltipData?.nearestDatum?.datum;
-                if (!d) return null;
+            <SnapTooltip<Datum> showDatumGlyph={false}>
+              {(d) => {
                 const kelvin = 1000 / d.x;
                 return (
-                  <div className="tnum text-xs leading-5 text-ink-800">
+                  <>
                     <div className="font-medium">
                       {fixed(kelvin - CELSIUS_OFFSET, 1)} °C · {fixed(kelvin, 2)} K
                     </div>
@@ -312,11 +267,11 @@ export function EyringPlot({
                         )}
                       </>
                     )}
-                  </div>
+                  </>
                 );
               }}
-            />
-          </XYChart>
+            </SnapTooltip>
+          </ChartFrame>
         )}
       </div>
       <figcaption>

@@ -1,11 +1,10 @@
 import { useMemo } from 'react';
-import { AreaSeries, Axis, GlyphSeries, Grid, LineSeries, Tooltip, XYChart, type GlyphProps } from '@visx/xychart';
-import { fixed } from '../../lib/format';
+import { Axis, GlyphSeries, LineSeries, type GlyphProps } from '@visx/xychart';
+import { BandArea, ChartFrame, SnapTooltip, TemperatureHeading, valueScale } from './chart-frame';
 import { CelsiusAxis } from './chart-layers';
-import { axisLabelProps, chartColors, chartTheme, paddedExtent, tickLabelProps } from './chart-theme';
+import { axisLabelProps, chartColors, paddedExtent, tickLabelProps } from './chart-theme';
 import { LegendItem } from './eyring-plot';
 import { useElementWidth } from './use-element-width';
-import { kelvinFromCelsius } from '../../../api/science/quantities';
 
 /** One line of a {@link LineChart}: points against temperature (°C). */
 export interface LineChartSeries {
@@ -130,38 +129,21 @@ export function LineChart({
     <figure className="m-0">
       <div ref={ref} className="w-full" data-testid={testId}>
         {width > 0 && all.length > 0 && (
-          <XYChart
+          <ChartFrame
             width={width}
             height={height}
             margin={{ top: 18, right: 20, bottom: 46, left: 78 }}
-            theme={chartTheme}
             xScale={{ type: 'linear', domain: xDomain, zero: false }}
-            yScale={
-              yScale === 'log'
-                ? { type: 'log', domain: yDomain, clamp: true }
-                : { type: 'linear', domain: yDomain, zero: false, nice: true }
-            }
-            accessibilityLabel={title}
+            yScale={valueScale(yScale, yDomain)}
+            title={title}
+            gridTicks={5}
           >
-            <Grid columns={false} numTicks={5} lineStyle={{ stroke: chartColors.grid }} />
             {shown.map((s, i) => {
               const { color, dash, shape } = style(i);
               const data: Datum[] = s.points.map((p) => ({ ...p, series: s.label }));
               return (
                 <g key={s.key}>
-                  {s.band.length > 1 && (
-                    <AreaSeries
-                      dataKey={`${s.key}-band`}
-                      data={s.band}
-                      xAccessor={(b) => b.x}
-                      yAccessor={(b) => b.hi}
-                      y0Accessor={(b) => b.lo}
-                      renderLine={false}
-                      fill={color}
-                      fillOpacity={0.14}
-                      enableEvents={false}
-                    />
-                  )}
+                  {s.band.length > 1 && <BandArea dataKey={`${s.key}-band`} data={s.band} fill={color} fillOpacity={0.14} />}
                   {data.length > 1 && (
                     <LineSeries
                       className="eyrie-line"
@@ -198,27 +180,17 @@ export function LineChart({
               tickLabelProps={tickLabelProps}
               tickFormat={(v) => formatY(Number(v))}
             />
-            <Tooltip<Datum>
-              snapTooltipToDatumX
-              snapTooltipToDatumY
-              showVerticalCrosshair
-              verticalCrosshairStyle={{ stroke: '#94a3b8', strokeDasharray: '2 2' }}
-              renderTooltip={({ tooltipData }) => {
-                const d = tooltipData?.nearestDatum?.datum;
-                if (!d) return null;
-                return (
-                  <div className="tnum text-xs leading-5 text-ink-800">
-                    <div className="font-medium">
-                      {fixed(d.x, 1)} °C · {fixed(kelvinFromCelsius(d.x), 2)} K
-                    </div>
-                    <div>
-                      {d.series}: {formatY(d.y)}
-                    </div>
+            <SnapTooltip<Datum>>
+              {(d) => (
+                <>
+                  <TemperatureHeading celsius={d.x} />
+                  <div>
+                    {d.series}: {formatY(d.y)}
                   </div>
-                );
-              }}
-            />
-          </XYChart>
+                </>
+              )}
+            </SnapTooltip>
+          </ChartFrame>
         )}
       </div>
       <figcaption>

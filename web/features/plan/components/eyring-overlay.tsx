@@ -1,6 +1,7 @@
 import { useMemo } from 'react';
-import { AreaSeries, Axis, GlyphSeries, Grid, LineSeries, XYChart } from '@visx/xychart';
-import { axisLabelProps, chartColors, chartTheme, paddedExtent, tickLabelProps } from '../../../components/charts/chart-theme';
+import { Axis, GlyphSeries, LineSeries } from '@visx/xychart';
+import { BandArea, ChartFrame, InverseKelvinAxis } from '../../../components/charts/chart-frame';
+import { axisLabelProps, chartColors, paddedExtent, tickLabelProps } from '../../../components/charts/chart-theme';
 import { useElementWidth } from '../../../components/charts/use-element-width';
 import { fixed } from '../../../lib/format';
 import type { ComparisonView } from '../api/plan';
@@ -60,16 +61,15 @@ export function EyringOverlay({ result }: { result: ComparisonView['result'] }) 
     <figure className="m-0">
       <div ref={ref} className="w-full" data-testid="comparison-eyring">
         {width > 0 && all.length > 0 && (
-          <XYChart
+          <ChartFrame
             width={width}
             height={280}
             margin={{ top: 14, right: 16, bottom: 46, left: 64 }}
-            theme={chartTheme}
             xScale={{ type: 'linear', domain: xDomain, zero: false }}
             yScale={{ type: 'linear', domain: yDomain, zero: false, nice: true }}
-            accessibilityLabel="Eyring plots of the compared campaigns"
+            title="Eyring plots of the compared campaigns"
+            gridTicks={5}
           >
-            <Grid columns={false} numTicks={5} lineStyle={{ stroke: chartColors.grid }} />
             {shown.map((c, i) => {
               const color = COLORS[i % COLORS.length]!;
               const line: Datum[] = c.fit!.curve.map((p) => ({ x: 1000 / p.kelvin, y: p.lnRatio }));
@@ -79,17 +79,7 @@ export function EyringOverlay({ result }: { result: ComparisonView['result'] }) 
               const band = c.fit!.curve.map((p) => ({ x: 1000 / p.kelvin, lo: p.lnInterval[0], hi: p.lnInterval[1] }));
               return (
                 <g key={c.id}>
-                  <AreaSeries
-                    dataKey={`${c.id}-band`}
-                    data={band}
-                    xAccessor={(d) => d.x}
-                    yAccessor={(d) => d.hi}
-                    y0Accessor={(d) => d.lo}
-                    renderLine={false}
-                    fill={color}
-                    fillOpacity={0.14}
-                    enableEvents={false}
-                  />
+                  <BandArea dataKey={`${c.id}-band`} data={band} fill={color} fillOpacity={0.14} />
                   <LineSeries
                     dataKey={`${c.id}-line`}
                     data={line}
@@ -109,14 +99,7 @@ export function EyringOverlay({ result }: { result: ComparisonView['result'] }) 
                 </g>
               );
             })}
-            <Axis
-              orientation="bottom"
-              numTicks={6}
-              label="1000/T (K⁻¹)"
-              labelProps={axisLabelProps}
-              tickLabelProps={tickLabelProps}
-              tickFormat={(v) => fixed(Number(v), 2)}
-            />
+            <InverseKelvinAxis />
             <Axis
               orientation="left"
               numTicks={5}
@@ -126,7 +109,7 @@ export function EyringOverlay({ result }: { result: ComparisonView['result'] }) 
               tickLabelProps={tickLabelProps}
               tickFormat={(v) => fixed(Number(v), 1)}
             />
-          </XYChart>
+          </ChartFrame>
         )}
       </div>
       <figcaption>
