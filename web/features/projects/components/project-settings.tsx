@@ -10,6 +10,7 @@ import { useCreateInvitation, useInvitations, useRevokeInvitation } from '../api
 import { useChangeMemberRole, useLeaveProject, useMembers, useRemoveMember } from '../../../lib/members';
 import { useDeleteProject, useUpdateProject, type Project } from '../api/projects';
 import { RoleBadge, roleMeaning, roleOptions } from '../../../components/ui/role-badge';
+import { ListHead } from '../../../components/ui/table-head';
 
 const dateFormat = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium' });
 
@@ -67,22 +68,7 @@ function Members({ project, myId }: { project: Project; myId: string }) {
       <FormAlert>{problem}</FormAlert>
       <table className="mt-2 w-full text-left text-sm">
         <caption className="sr-only">Members of {project.name}</caption>
-        <thead className="border-b border-slate-200 text-xs uppercase tracking-wide text-ink-500">
-          <tr>
-            <th scope="col" className="py-2 pr-3 font-semibold">
-              Person
-            </th>
-            <th scope="col" className="py-2 pr-3 font-semibold">
-              Role
-            </th>
-            <th scope="col" className="py-2 pr-3 font-semibold">
-              Since
-            </th>
-            <th scope="col" className="py-2 font-semibold">
-              <span className="sr-only">Actions</span>
-            </th>
-          </tr>
-        </thead>
+        <ListHead columns={[{ label: 'Person' }, { label: 'Role' }, { label: 'Since' }, { label: 'Actions', hidden: true }]} />
         <tbody>
           {members.data.members.map((m) => (
             <tr key={m.userId} className="border-b border-slate-100">
