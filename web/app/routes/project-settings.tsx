@@ -1,5 +1,5 @@
 import { useParams } from 'react-router-dom';
-import { Page } from '../../components/ui/page';
+import { Page, UnreadyPage } from '../../components/ui/page';
 import { paths } from '../../config/paths';
 import { SignedInOnly } from '../../features/auth/components/signed-in-only';
 import { useProject } from '../../features/projects/api/projects';
@@ -7,19 +7,15 @@ import { ProjectSettings } from '../../features/projects/components/project-sett
 
 function Settings({ projectId, myId }: { projectId: string; myId: string }) {
   const project = useProject(projectId);
-  if (project.isPending)
+  if (!project.isSuccess)
     return (
-      <Page title="Project settings">
-        <p className="text-sm text-ink-500">Loading…</p>
-      </Page>
+      <UnreadyPage
+        query={project}
+        title="Project settings"
+        missingTitle="Project not found"
+        missing={<p className="text-sm text-ink-600">Either it does not exist or you are not a member of it.</p>}
+      />
     );
-  if (project.isError) {
-    return (
-      <Page title="Project not found" lead={project.error.message}>
-        <p className="text-sm text-ink-600">Either it does not exist or you are not a member of it.</p>
-      </Page>
-    );
-  }
   return (
     <Page
       title={project.data.name}

@@ -1,5 +1,5 @@
 import { Link, useParams } from 'react-router-dom';
-import { Page } from '../../components/ui/page';
+import { Page, UnreadyPage } from '../../components/ui/page';
 import { paths } from '../../config/paths';
 import { SignedInOnly } from '../../features/auth/components/signed-in-only';
 import { ProjectCampaigns } from '../../features/campaigns/components/project-campaigns';
@@ -8,20 +8,15 @@ import { RoleBadge } from '../../components/ui/role-badge';
 
 function ProjectPage({ projectId }: { projectId: string }) {
   const project = useProject(projectId);
-  if (project.isPending) {
+  if (!project.isSuccess)
     return (
-      <Page title="Project">
-        <p className="text-sm text-ink-500">Loading…</p>
-      </Page>
+      <UnreadyPage
+        query={project}
+        title="Project"
+        missingTitle="Project not found"
+        missing={<p className="text-sm text-ink-600">Either it does not exist or you are not a member of it.</p>}
+      />
     );
-  }
-  if (project.isError) {
-    return (
-      <Page title="Project not found" lead={project.error.message}>
-        <p className="text-sm text-ink-600">Either it does not exist or you are not a member of it.</p>
-      </Page>
-    );
-  }
   const p = project.data;
   return (
     <Page
