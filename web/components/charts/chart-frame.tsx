@@ -1,4 +1,4 @@
-import type { ReactNode } from 'react';
+import type { ReactNode, Ref } from 'react';
 import { AreaSeries, Axis, Grid, Tooltip, XYChart } from '@visx/xychart';
 import { fixed } from '../../lib/format';
 import { axisLabelProps, chartColors, chartTheme, tickLabelProps } from './chart-theme';
@@ -108,5 +108,37 @@ export function TemperatureHeading({ celsius }: { celsius: number }) {
     <div className="font-medium">
       {fixed(celsius, 1)} °C · {fixed(kelvinFromCelsius(celsius), 2)} K
     </div>
+  );
+}
+
+/**
+ * A chart and its caption: the box the chart measures its width from (`chartRef`), then the legend
+ * as a list and any `notes` below it.
+ */
+export function ChartFigure({
+  chartRef,
+  testId,
+  legend,
+  notes,
+  children,
+}: {
+  chartRef: Ref<HTMLDivElement>;
+  testId?: string;
+  legend: ReactNode;
+  notes?: ReactNode;
+  children: ReactNode;
+}) {
+  return (
+    <figure className="m-0">
+      <div ref={chartRef} className="w-full" data-testid={testId}>
+        {children}
+      </div>
+      <figcaption>
+        <ul className="mt-1 flex flex-wrap gap-x-4 gap-y-1 text-xs text-ink-600" aria-label="Legend">
+          {legend}
+        </ul>
+        {notes}
+      </figcaption>
+    </figure>
   );
 }

@@ -1,7 +1,7 @@
 import { useCallback, useMemo } from 'react';
 import { Axis, GlyphSeries, LineSeries } from '@visx/xychart';
 import { enantiomericRatio, fixed, percent } from '../../lib/format';
-import { BandArea, ChartFrame, SnapTooltip, TemperatureHeading } from './chart-frame';
+import { ChartFigure, BandArea, ChartFrame, SnapTooltip, TemperatureHeading } from './chart-frame';
 import { CelsiusAxis, HorizontalRule, noGlyph, PointMarks, VerticalMark, type PointMark } from './chart-layers';
 import { axisLabelProps, chartColors, paddedExtent, tickLabelProps } from './chart-theme';
 import { LegendItem } from './eyring-plot';
@@ -122,71 +122,11 @@ export function SelectivityChart({
   const yScale = useMemo(() => ({ type: 'linear', domain: yDomain, zero: false, nice: true, clamp: true }) as const, [yDomain]);
 
   return (
-    <figure className="m-0">
-      <div ref={ref} className="w-full" data-testid="selectivity-chart">
-        {chartWidth > 0 && (
-          <ChartFrame width={chartWidth} height={height} margin={MARGIN} xScale={xScale} yScale={yScale} title={title} gridTicks={6}>
-            {band.length > 1 && <BandArea dataKey="band" data={band} fill={chartColors.predictionFill} fillOpacity={0.3} />}
-            {spec != null && <HorizontalRule y={spec} label={`specification ${fixed(spec, spec % 1 === 0 ? 0 : 1)} ${unitText}`} />}
-            {curveData.length > 1 && (
-              <LineSeries
-                className="eyrie-curve-line"
-                dataKey="curve"
-                data={curveData}
-                xAccessor={xOf}
-                yAccessor={yOf}
-                stroke={chartColors.accent}
-                strokeWidth={2}
-              />
-            )}
-            {curveData.length === 1 && <GlyphSeries dataKey="curve" data={curveData} xAccessor={xOf} yAccessor={yOf} />}
-            {pointData.length > 0 && (
-              <GlyphSeries dataKey="measurements" data={pointData} xAccessor={xOf} yAccessor={yOf} renderGlyph={noGlyph} />
-            )}
-            <PointMarks marks={marks} />
-            {mark && <VerticalMark x={mark.celsius} label={mark.label} />}
-            <CelsiusAxis />
-            <Axis
-              orientation="left"
-              numTicks={6}
-              label={yLabel}
-              labelOffset={30}
-              labelProps={axisLabelProps}
-              tickLabelProps={tickLabelProps}
-              tickFormat={(v) => fixed(Number(v), Number.isInteger(Number(v)) ? 0 : 1)}
-            />
-            <SnapTooltip<Datum>>
-              {(d) => {
-                const v = d.kind === 'curve' ? d.c : d.p;
-                return (
-                  <>
-                    <TemperatureHeading celsius={d.x} />
-                    <div>
-                      {d.kind === 'curve' ? curveLabel : 'measured'}:{' '}
-                      {family === 'ee'
-                        ? `ee ${percent(v.eePercent)} % · er ${enantiomericRatio(v.percentA)}`
-                        : formatSelectivity(family, lnRatioOf('ee', v.eePercent))}
-                      {d.kind === 'point' && d.p.status === 'censored' ? ' (lower bound)' : ''}
-                    </div>
-                    {d.kind === 'curve' && d.c.band && (
-                      <div>
-                        {bandLabel ?? 'band'}:{' '}
-                        {(() => {
-                          const [lo, hi] =
-                            measure === 'ee' ? d.c.band.eePercent : fold ? majorShareRange(...d.c.band.percentA) : d.c.band.percentA;
-                          return `${percent(lo)} to ${percent(hi)} ${unitText}`;
-                        })()}
-                      </div>
-                    )}
-                  </>
-                );
-              }}
-            </SnapTooltip>
-          </ChartFrame>
-        )}
-      </div>
-      <figcaption>
-        <ul className="mt-1 flex flex-wrap gap-x-4 gap-y-1 text-xs text-ink-600" aria-label="Legend">
+    <ChartFigure
+      chartRef={ref}
+      testId="selectivity-chart"
+      legend={
+        <>
           <LegendItem label={curveLabel}>
             <line x1="1" x2="15" y1="8" y2="8" stroke={chartColors.accent} strokeWidth="2" />
           </LegendItem>
@@ -205,8 +145,69 @@ export function SelectivityChart({
               <line x1="1" x2="15" y1="8" y2="8" stroke={chartColors.caution} strokeWidth="1.5" strokeDasharray="4 2" />
             </LegendItem>
           )}
-        </ul>
-      </figcaption>
-    </figure>
+        </>
+      }
+    >
+      {chartWidth > 0 && (
+        <ChartFrame width={chartWidth} height={height} margin={MARGIN} xScale={xScale} yScale={yScale} title={title} gridTicks={6}>
+          {band.length > 1 && <BandArea dataKey="band" data={band} fill={chartColors.predictionFill} fillOpacity={0.3} />}
+          {spec != null && <HorizontalRule y={spec} label={`specification ${fixed(spec, spec % 1 === 0 ? 0 : 1)} ${unitText}`} />}
+          {curveData.length > 1 && (
+            <LineSeries
+              className="eyrie-curve-line"
+              dataKey="curve"
+              data={curveData}
+              xAccessor={xOf}
+              yAccessor={yOf}
+              stroke={chartColors.accent}
+              strokeWidth={2}
+            />
+          )}
+          {curveData.length === 1 && <GlyphSeries dataKey="curve" data={curveData} xAccessor={xOf} yAccessor={yOf} />}
+          {pointData.length > 0 && (
+            <GlyphSeries dataKey="measurements" data={pointData} xAccessor={xOf} yAccessor={yOf} renderGlyph={noGlyph} />
+          )}
+          <PointMarks marks={marks} />
+          {mark && <VerticalMark x={mark.celsius} label={mark.label} />}
+          <CelsiusAxis />
+          <Axis
+            orientation="left"
+            numTicks={6}
+            label={yLabel}
+            labelOffset={30}
+            labelProps={axisLabelProps}
+            tickLabelProps={tickLabelProps}
+            tickFormat={(v) => fixed(Number(v), Number.isInteger(Number(v)) ? 0 : 1)}
+          />
+          <SnapTooltip<Datum>>
+            {(d) => {
+              const v = d.kind === 'curve' ? d.c : d.p;
+              return (
+                <>
+                  <TemperatureHeading celsius={d.x} />
+                  <div>
+                    {d.kind === 'curve' ? curveLabel : 'measured'}:{' '}
+                    {family === 'ee'
+                      ? `ee ${percent(v.eePercent)} % · er ${enantiomericRatio(v.percentA)}`
+                      : formatSelectivity(family, lnRatioOf('ee', v.eePercent))}
+                    {d.kind === 'point' && d.p.status === 'censored' ? ' (lower bound)' : ''}
+                  </div>
+                  {d.kind === 'curve' && d.c.band && (
+                    <div>
+                      {bandLabel ?? 'band'}:{' '}
+                      {(() => {
+                        const [lo, hi] =
+                          measure === 'ee' ? d.c.band.eePercent : fold ? majorShareRange(...d.c.band.percentA) : d.c.band.percentA;
+                        return `${percent(lo)} to ${percent(hi)} ${unitText}`;
+                      })()}
+                    </div>
+                  )}
+                </>
+              );
+            }}
+          </SnapTooltip>
+        </ChartFrame>
+      )}
+    </ChartFigure>
   );
 }
