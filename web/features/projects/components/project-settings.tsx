@@ -5,7 +5,7 @@ import { Button, FormAlert, SelectField } from '../../../components/ui/form';
 import { FormErrorAlert, FormSelectField, FormTextField } from '../../../components/ui/form-fields';
 import { Panel } from '../../../components/ui/page';
 import { paths } from '../../../config/paths';
-import { applyServerErrors, useZodForm } from '../../../lib/form';
+import { applyServerErrors, submitThrough, useZodForm } from '../../../lib/form';
 import { useCreateInvitation, useInvitations, useRevokeInvitation } from '../api/invitations';
 import { useChangeMemberRole, useLeaveProject, useMembers, useRemoveMember } from '../../../lib/members';
 import { useDeleteProject, useUpdateProject, type Project } from '../api/projects';
@@ -23,12 +23,7 @@ function DetailsForm({ project }: { project: Project }) {
       aria-label="Project details"
       className="grid gap-3"
       // The version the page was loaded at: someone else's change in between is a 409, shown above the buttons.
-      onSubmit={form.handleSubmit((input) =>
-        update.mutate(
-          { ...input, version: project.version },
-          { onError: (e) => applyServerErrors(form.setError, e, ['name', 'description']) },
-        ),
-      )}
+      onSubmit={submitThrough(form, update, ['name', 'description'], { toBody: (input) => ({ ...input, version: project.version }) })}
     >
       <FormTextField control={form.control} name="name" label="Name" />
       <FormTextField control={form.control} name="description" label="Description" />

@@ -3,7 +3,7 @@ import { createTokenSchema, TOKEN_MAX_DAYS } from '../../../../api/features/toke
 import { Button } from '../../../components/ui/form';
 import { FormErrorAlert, FormTextField } from '../../../components/ui/form-fields';
 import { Panel } from '../../../components/ui/page';
-import { applyServerErrors, useZodForm } from '../../../lib/form';
+import { submitThrough, useZodForm } from '../../../lib/form';
 import { useCreateToken, useRevokeToken, useTokens, type ApiTokenInfo } from '../api/tokens';
 import { ListHead } from '../../../components/ui/table-head';
 
@@ -103,15 +103,12 @@ export function TokenManager() {
           noValidate
           aria-label="New API token"
           className="grid gap-3"
-          onSubmit={form.handleSubmit((input) =>
-            create.mutate(input, {
-              onSuccess: (r) => {
-                setCreated({ name: r.token.name, secret: r.secret });
-                form.reset();
-              },
-              onError: (e) => applyServerErrors(form.setError, e, ['name', 'expiresInDays']),
-            }),
-          )}
+          onSubmit={submitThrough(form, create, ['name', 'expiresInDays'], {
+            onSuccess: (r) => {
+              setCreated({ name: r.token.name, secret: r.secret });
+              form.reset();
+            },
+          })}
         >
           <FormTextField control={form.control} name="name" label="Name" hint="What will use it, e.g. “nightly export script”." />
           <FormTextField
