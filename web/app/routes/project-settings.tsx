@@ -1,21 +1,14 @@
 import { useParams } from 'react-router-dom';
-import { Page, UnreadyPage } from '../../components/ui/page';
+import { Page } from '../../components/ui/page';
 import { paths } from '../../config/paths';
 import { SignedInOnly } from '../../features/auth/components/signed-in-only';
 import { useProject } from '../../features/projects/api/projects';
+import { UnreadyProjectPage } from '../../features/projects/components/unready-project-page';
 import { ProjectSettings } from '../../features/projects/components/project-settings';
 
 function Settings({ projectId, myId }: { projectId: string; myId: string }) {
   const project = useProject(projectId);
-  if (!project.isSuccess)
-    return (
-      <UnreadyPage
-        query={project}
-        title="Project settings"
-        missingTitle="Project not found"
-        missing={<p className="text-sm text-ink-600">Either it does not exist or you are not a member of it.</p>}
-      />
-    );
+  if (!project.isSuccess) return <UnreadyProjectPage query={project} title="Project settings" />;
   return (
     <Page
       title={project.data.name}

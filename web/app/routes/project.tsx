@@ -1,22 +1,15 @@
 import { Link, useParams } from 'react-router-dom';
-import { Page, UnreadyPage } from '../../components/ui/page';
+import { Page } from '../../components/ui/page';
 import { paths } from '../../config/paths';
 import { SignedInOnly } from '../../features/auth/components/signed-in-only';
 import { ProjectCampaigns } from '../../features/campaigns/components/project-campaigns';
 import { useProject } from '../../features/projects/api/projects';
+import { UnreadyProjectPage } from '../../features/projects/components/unready-project-page';
 import { RoleBadge } from '../../components/ui/role-badge';
 
 function ProjectPage({ projectId }: { projectId: string }) {
   const project = useProject(projectId);
-  if (!project.isSuccess)
-    return (
-      <UnreadyPage
-        query={project}
-        title="Project"
-        missingTitle="Project not found"
-        missing={<p className="text-sm text-ink-600">Either it does not exist or you are not a member of it.</p>}
-      />
-    );
+  if (!project.isSuccess) return <UnreadyProjectPage query={project} title="Project" />;
   const p = project.data;
   return (
     <Page
