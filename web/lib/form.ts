@@ -11,6 +11,7 @@ import {
   type FieldValues,
   type Path,
   type Resolver,
+  type UseFormHandleSubmit,
   type UseFormSetError,
 } from 'react-hook-form';
 import type { z } from 'zod';
@@ -90,4 +91,23 @@ export function errorAt(errors: FieldErrors, path: string): string | undefined {
     node = node && typeof node === 'object' ? (node as Record<string, unknown>)[part] : undefined;
   const message = node && typeof node === 'object' ? (node as { message?: unknown }).message : undefined;
   return typeof message === 'string' ? message : undefined;
+}
+
+/**
+ * A form's submit handler: the checked values go through `mutation` (shaped by `toBody` when the
+ * request needs more than the form holds); a failure's problem details land on `fields` as in
+ * `applyServerErrors`.
+ */
+export function submitThrough<V extends FieldValues, Out, Data, Body = Out>(
+  form: { handleSubmit: UseFormHandleSubmit<V, Out>; setError: UseFormSetError<V> },
+  mutation: { mutate: (body: Body, options: { onSuccess?: (data: Data) => void; onError: (error: Error) => void }) => void },
+  fields: readonly string[],
+  { toBody, onSuccess }: { toBody?: (values: Out) => Body; onSuccess?: (data: Data) => void } = {},
+) {
+  return form.handleSubmit((values) =>
+    mutation.mutate(toBody ? toBody(values) : (values as unknown as Body), {
+      onSuccess,
+      onError: (error) => applyServerErrors(form.setError, error, fields),
+    }),
+  );
 }

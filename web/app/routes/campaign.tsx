@@ -1,7 +1,7 @@
 import { memo, useState } from 'react';
 import { useParams } from 'react-router-dom';
 import { Button } from '../../components/ui/form';
-import { Page, Panel } from '../../components/ui/page';
+import { Page, Panel, UnreadyPage } from '../../components/ui/page';
 import { StaleResult, useLastDefined, worthRetrying } from '../../components/ui/stale';
 import { paths } from '../../config/paths';
 import { SignedInOnly } from '../../features/auth/components/signed-in-only';
@@ -206,20 +206,15 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
 
 function CampaignPage({ campaignId }: { campaignId: string }) {
   const campaign = useCampaign(campaignId);
-  if (campaign.isPending) {
+  if (!campaign.isSuccess)
     return (
-      <Page title="Campaign">
-        <p className="text-sm text-ink-500">Loading…</p>
-      </Page>
+      <UnreadyPage
+        query={campaign}
+        title="Campaign"
+        missingTitle="Campaign not found"
+        missing={<p className="text-sm text-ink-600">Either it does not exist or you are not a member of its project.</p>}
+      />
     );
-  }
-  if (campaign.isError) {
-    return (
-      <Page title="Campaign not found" lead={campaign.error.message}>
-        <p className="text-sm text-ink-600">Either it does not exist or you are not a member of its project.</p>
-      </Page>
-    );
-  }
   // Keyed, so nothing kept on screen for one campaign (such as its last analysis) carries over to the next.
   return <CampaignBody key={campaign.data.id} campaign={campaign.data} />;
 }

@@ -2,7 +2,7 @@ import { useForm } from 'react-hook-form';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import { LineChart } from '../../components/charts/line-chart';
 import { SafetyCaution } from '../../components/ui/caution';
-import { Page, Panel } from '../../components/ui/page';
+import { Page, Panel, UnreadyPage } from '../../components/ui/page';
 import { paths } from '../../config/paths';
 import { ApiError } from '../../lib/api-client';
 import { fixed, percentColumn, sig } from '../../lib/format';
@@ -151,18 +151,7 @@ function ComparisonBody({ view }: { view: ComparisonView }) {
 
 function ComparisonPage({ comparisonId }: { comparisonId: string }) {
   const q = useComparison(comparisonId);
-  if (q.isPending)
-    return (
-      <Page title="Comparison">
-        <p className="text-sm text-ink-500">Loading…</p>
-      </Page>
-    );
-  if (q.isError)
-    return (
-      <Page title="Comparison not found" lead={q.error.message}>
-        {null}
-      </Page>
-    );
+  if (!q.isSuccess) return <UnreadyPage query={q} title="Comparison" missingTitle="Comparison not found" />;
   return (
     <Page
       title={q.data.name}

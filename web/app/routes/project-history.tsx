@@ -1,5 +1,5 @@
 import { Link, useParams } from 'react-router-dom';
-import { Page, Panel } from '../../components/ui/page';
+import { Page, Panel, UnreadyPage } from '../../components/ui/page';
 import { paths } from '../../config/paths';
 import { SignedInOnly } from '../../features/auth/components/signed-in-only';
 import { useProject } from '../../features/projects/api/projects';
@@ -7,18 +7,7 @@ import { HistoryView } from '../../features/campaigns/components/history-view';
 
 function History({ projectId }: { projectId: string }) {
   const project = useProject(projectId);
-  if (project.isPending)
-    return (
-      <Page title="History">
-        <p className="text-sm text-ink-500">Loading…</p>
-      </Page>
-    );
-  if (project.isError)
-    return (
-      <Page title="Project not found" lead={project.error.message}>
-        {null}
-      </Page>
-    );
+  if (!project.isSuccess) return <UnreadyPage query={project} title="History" missingTitle="Project not found" />;
   if (project.data.role !== 'owner') {
     return (
       <Page title={`History of ${project.data.name}`}>

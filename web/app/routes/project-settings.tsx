@@ -3,23 +3,12 @@ import { Page } from '../../components/ui/page';
 import { paths } from '../../config/paths';
 import { SignedInOnly } from '../../features/auth/components/signed-in-only';
 import { useProject } from '../../features/projects/api/projects';
+import { UnreadyProjectPage } from '../../features/projects/components/unready-project-page';
 import { ProjectSettings } from '../../features/projects/components/project-settings';
 
 function Settings({ projectId, myId }: { projectId: string; myId: string }) {
   const project = useProject(projectId);
-  if (project.isPending)
-    return (
-      <Page title="Project settings">
-        <p className="text-sm text-ink-500">Loading…</p>
-      </Page>
-    );
-  if (project.isError) {
-    return (
-      <Page title="Project not found" lead={project.error.message}>
-        <p className="text-sm text-ink-600">Either it does not exist or you are not a member of it.</p>
-      </Page>
-    );
-  }
+  if (!project.isSuccess) return <UnreadyProjectPage query={project} title="Project settings" />;
   return (
     <Page
       title={project.data.name}

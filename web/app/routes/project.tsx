@@ -4,24 +4,12 @@ import { paths } from '../../config/paths';
 import { SignedInOnly } from '../../features/auth/components/signed-in-only';
 import { ProjectCampaigns } from '../../features/campaigns/components/project-campaigns';
 import { useProject } from '../../features/projects/api/projects';
+import { UnreadyProjectPage } from '../../features/projects/components/unready-project-page';
 import { RoleBadge } from '../../components/ui/role-badge';
 
 function ProjectPage({ projectId }: { projectId: string }) {
   const project = useProject(projectId);
-  if (project.isPending) {
-    return (
-      <Page title="Project">
-        <p className="text-sm text-ink-500">Loading…</p>
-      </Page>
-    );
-  }
-  if (project.isError) {
-    return (
-      <Page title="Project not found" lead={project.error.message}>
-        <p className="text-sm text-ink-600">Either it does not exist or you are not a member of it.</p>
-      </Page>
-    );
-  }
+  if (!project.isSuccess) return <UnreadyProjectPage query={project} title="Project" />;
   const p = project.data;
   return (
     <Page

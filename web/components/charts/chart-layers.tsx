@@ -132,6 +132,15 @@ export function PointMarks({ marks }: { marks: PointMark[] }) {
 /** Registers the runs with the chart so the tooltip can snap to them, drawing nothing itself (PointMarks draws them). */
 export const noGlyph = () => null;
 
+/** The text beside a rule or marker, in the chart's font with tabular figures. */
+function MarkLabel({ x, y, anchor, color, children }: { x: number; y: number; anchor: 'start' | 'end'; color: string; children: string }) {
+  return (
+    <text x={x} y={y} textAnchor={anchor} fontFamily={chartFont} fontSize={11} fill={color} style={{ fontVariantNumeric: 'tabular-nums' }}>
+      {children}
+    </text>
+  );
+}
+
 /** A labelled horizontal rule across the plot (e.g. a specification such as 99 % ee). */
 export function HorizontalRule({ y, label, color = chartColors.caution }: { y: number; label: string; color?: string }) {
   const area = usePlotArea();
@@ -143,17 +152,9 @@ export function HorizontalRule({ y, label, color = chartColors.caution }: { y: n
   return (
     <g className="eyrie-rule" pointerEvents="none">
       <line x1={x0} x2={x1} y1={py} y2={py} stroke={color} strokeWidth={1.25} strokeDasharray="6 3" />
-      <text
-        x={x1 - 4}
-        y={py - 4}
-        textAnchor="end"
-        fontFamily={chartFont}
-        fontSize={11}
-        fill={color}
-        style={{ fontVariantNumeric: 'tabular-nums' }}
-      >
+      <MarkLabel x={x1 - 4} y={py - 4} anchor="end" color={color}>
         {label}
-      </text>
+      </MarkLabel>
     </g>
   );
 }
@@ -170,17 +171,9 @@ export function VerticalMark({ x, label, color = chartColors.accentDark }: { x: 
   return (
     <g className="eyrie-mark" pointerEvents="none">
       <line x1={px} x2={px} y1={top} y2={bottom} stroke={color} strokeWidth={1} strokeDasharray="2 3" />
-      <text
-        x={nearRight ? px - 4 : px + 4}
-        y={top + 12}
-        textAnchor={nearRight ? 'end' : 'start'}
-        fontFamily={chartFont}
-        fontSize={11}
-        fill={color}
-        style={{ fontVariantNumeric: 'tabular-nums' }}
-      >
+      <MarkLabel x={nearRight ? px - 4 : px + 4} y={top + 12} anchor={nearRight ? 'end' : 'start'} color={color}>
         {label}
-      </text>
+      </MarkLabel>
     </g>
   );
 }

@@ -1,8 +1,9 @@
 import { useMemo, type ReactNode } from 'react';
-import { AreaSeries, Axis, GlyphSeries, Grid, LineSeries, Tooltip, XYChart } from '@visx/xychart';
+import { Axis, GlyphSeries, LineSeries } from '@visx/xychart';
 import { fixed, sig } from '../../lib/format';
+import { ChartFigure, BandArea, ChartFrame, InverseKelvinAxis, SnapTooltip } from './chart-frame';
 import { ErrorBars, noGlyph, PointMarks, VerticalMark, type PointMark } from './chart-layers';
-import { axisLabelProps, chartColors, chartTheme, paddedExtent, tickLabelProps } from './chart-theme';
+import { axisLabelProps, chartColors, paddedExtent, tickLabelProps } from './chart-theme';
 import { useElementWidth } from './use-element-width';
 import { CELSIUS_OFFSET_K as CELSIUS_OFFSET } from '../../../api/science/quantities';
 
@@ -60,9 +61,6 @@ type Datum = { kind: 'point'; x: number; y: number; p: EyringPlotPoint } | { kin
 const invT = (kelvin: number) => 1000 / kelvin;
 const MARGIN = { top: 40, right: 20, bottom: 46, left: 70 };
 // Accessors defined once: a new function on each render makes xychart register the series again.
-const bandX = (d: { x: number }) => d.x;
-const bandHi = (d: { hi: number }) => d.hi;
-const bandLo = (d: { lo: number }) => d.lo;
 const lineX = (d: { x: number }) => d.x;
 const lineY = (d: { y: number }) => d.y;
 const xOf = (d: Datum) => d.x;
@@ -179,148 +177,11 @@ export function EyringPlot({
   const levelText = `${fixed(confidenceLevel * 100, 0)} %`;
 
   return (
-    <figure className="m-0">
-      <div ref={ref} className="w-full" data-testid="eyring-plot">
-        {chartWidth > 0 && (
-          <XYChart
-            width={chartWidth}
-            height={height}
-            margin={MARGIN}
-            theme={chartTheme}
-            xScale={xScale}
-            yScale={yScale}
-            accessibilityLabel={title}
-          >
-            <Grid columns={false} numTicks={6} lineStyle={{ stroke: chartColors.grid }} />
-            {prediction.length > 1 && (
-              <AreaSeries
-                dataKey="prediction band"
-                data={prediction}
-                xAccessor={bandX}
-                yAccessor={bandHi}
-                y0Accessor={bandLo}
-                renderLine={false}
-                fill={chartColors.predictionFill}
-                fillOpacity={0.22}
-                enableEvents={false}
-              />
-            )}
-            {confidence.length > 1 && (
-              <AreaSeries
-                dataKey="confidence band"
-                data={confidence}
-                xAccessor={bandX}
-                yAccessor={bandHi}
-                y0Accessor={bandLo}
-                renderLine={false}
-                fill={chartColors.confidenceFill}
-                fillOpacity={0.25}
-                enableEvents={false}
-              />
-            )}
-            {curveData.length > 1 && (
-              <LineSeries
-                className="eyrie-fit-line"
-                dataKey="fitted line"
-                data={curveData}
-                xAccessor={xOf}
-                yAccessor={yOf}
-                stroke={chartColors.accent}
-                strokeWidth={2}
-              />
-            )}
-            {branchData.map((b) => (
-              <LineSeries
-                key={b.label}
-                className="eyrie-branch-line"
-                dataKey={`branch ${b.label}`}
-                data={b.data}
-                xAccessor={lineX}
-                yAccessor={lineY}
-                stroke={chartColors.branch}
-                strokeWidth={1.75}
-                strokeDasharray="7 4"
-                enableEvents={false}
-              />
-            ))}
-            <ErrorBars bars={errorBars} />
-            <PointMarks marks={marks} />
-            {pointData.length > 0 && (
-              <GlyphSeries dataKey="measurements" data={pointData} xAccessor={xOf} yAccessor={yOf} renderGlyph={noGlyph} />
-            )}
-            {mark && <VerticalMark x={invT(mark.kelvin)} label={mark.label} />}
-            <Axis
-              orientation="bottom"
-              numTicks={6}
-              label="1000/T (K⁻¹)"
-              labelProps={axisLabelProps}
-              tickLabelProps={tickLabelProps}
-              tickFormat={(v) => fixed(Number(v), 2)}
-            />
-            <Axis
-              orientation="left"
-              numTicks={6}
-              label="ln r   (r = [A]/[B])"
-              labelOffset={34}
-              labelProps={axisLabelProps}
-              tickLabelProps={tickLabelProps}
-              tickFormat={(v) => fixed(Number(v), 1)}
-            />
-            <Axis
-              orientation="top"
-              tickValues={topTicks}
-              label="T (°C)"
-              labelOffset={10}
-              labelProps={axisLabelProps}
-              tickLabelProps={tickLabelProps}
-              tickFormat={(v) => fixed(1000 / Number(v) - CELSIUS_OFFSET, 0)}
-            />
-            <Tooltip<Datum>
-              snapTooltipToDatumX
-              snapTooltipToDatumY
-              showDatumGlyph={false}
-              showVerticalCrosshair
-              verticalCrosshairStyle={{ stroke: '#94a3b8', strokeDasharray: '2 2' }}
-              renderTooltip={({ tooltipData }) => {
-                const d = tooltipData?.nearestDatum?.datum;
-                if (!d) return null;
-                const kelvin = 1000 / d.x;
-                return (
-                  <div className="tnum text-xs leading-5 text-ink-800">
-                    <div className="font-medium">
-                      {fixed(kelvin - CELSIUS_OFFSET, 1)} °C · {fixed(kelvin, 2)} K
-                    </div>
-                    <div>1000/T = {fixed(d.x, 3)} K⁻¹</div>
-                    {d.kind === 'point' ? (
-                      <>
-                        <div>
-                          ln r = {fixed(d.y, 3)} (r = {sig(Math.exp(d.y), 3)})
-                        </div>
-                        <div>
-                          {d.p.label ? `${d.p.label} · ` : ''}
-                          {STATUS_TEXT[d.p.status]}
-                          {d.p.flagged ? ' · flagged residual' : ''}
-                        </div>
-                      </>
-                    ) : (
-                      <>
-                        <div>fitted ln r = {fixed(d.y, 3)}</div>
-                        {d.c.prediction && (
-                          <div>
-                            {levelText} prediction {fixed(d.c.prediction[0], 2)} to {fixed(d.c.prediction[1], 2)}
-                          </div>
-                        )}
-                      </>
-                    )}
-                  </div>
-                );
-              }}
-            />
-          </XYChart>
-        )}
-      </div>
-      <figcaption>
-        <ul className="mt-1 flex flex-wrap gap-x-4 gap-y-1 text-xs text-ink-600" aria-label="Legend">
+    <ChartFigure
+      chartRef={ref}
+      testId="eyring-plot"
+      legend={
+        <>
           <LegendItem label="measured, in the fit">
             <circle cx="8" cy="8" r="4.5" fill={chartColors.ink} />
           </LegendItem>
@@ -353,9 +214,104 @@ export function EyringPlot({
               <line x1="1" x2="15" y1="8" y2="8" stroke={chartColors.branch} strokeWidth="1.75" strokeDasharray="4 2" />
             </LegendItem>
           )}
-        </ul>
-      </figcaption>
-    </figure>
+        </>
+      }
+    >
+      {chartWidth > 0 && (
+        <ChartFrame width={chartWidth} height={height} margin={MARGIN} xScale={xScale} yScale={yScale} title={title} gridTicks={6}>
+          {prediction.length > 1 && (
+            <BandArea dataKey="prediction band" data={prediction} fill={chartColors.predictionFill} fillOpacity={0.22} />
+          )}
+          {confidence.length > 1 && (
+            <BandArea dataKey="confidence band" data={confidence} fill={chartColors.confidenceFill} fillOpacity={0.25} />
+          )}
+          {curveData.length > 1 && (
+            <LineSeries
+              className="eyrie-fit-line"
+              dataKey="fitted line"
+              data={curveData}
+              xAccessor={xOf}
+              yAccessor={yOf}
+              stroke={chartColors.accent}
+              strokeWidth={2}
+            />
+          )}
+          {branchData.map((b) => (
+            <LineSeries
+              key={b.label}
+              className="eyrie-branch-line"
+              dataKey={`branch ${b.label}`}
+              data={b.data}
+              xAccessor={lineX}
+              yAccessor={lineY}
+              stroke={chartColors.branch}
+              strokeWidth={1.75}
+              strokeDasharray="7 4"
+              enableEvents={false}
+            />
+          ))}
+          <ErrorBars bars={errorBars} />
+          <PointMarks marks={marks} />
+          {pointData.length > 0 && (
+            <GlyphSeries dataKey="measurements" data={pointData} xAccessor={xOf} yAccessor={yOf} renderGlyph={noGlyph} />
+          )}
+          {mark && <VerticalMark x={invT(mark.kelvin)} label={mark.label} />}
+          <InverseKelvinAxis />
+          <Axis
+            orientation="left"
+            numTicks={6}
+            label="ln r   (r = [A]/[B])"
+            labelOffset={34}
+            labelProps={axisLabelProps}
+            tickLabelProps={tickLabelProps}
+            tickFormat={(v) => fixed(Number(v), 1)}
+          />
+          <Axis
+            orientation="top"
+            tickValues={topTicks}
+            label="T (°C)"
+            labelOffset={10}
+            labelProps={axisLabelProps}
+            tickLabelProps={tickLabelProps}
+            tickFormat={(v) => fixed(1000 / Number(v) - CELSIUS_OFFSET, 0)}
+          />
+          <SnapTooltip<Datum> showDatumGlyph={false}>
+            {(d) => {
+              const kelvin = 1000 / d.x;
+              return (
+                <>
+                  <div className="font-medium">
+                    {fixed(kelvin - CELSIUS_OFFSET, 1)} °C · {fixed(kelvin, 2)} K
+                  </div>
+                  <div>1000/T = {fixed(d.x, 3)} K⁻¹</div>
+                  {d.kind === 'point' ? (
+                    <>
+                      <div>
+                        ln r = {fixed(d.y, 3)} (r = {sig(Math.exp(d.y), 3)})
+                      </div>
+                      <div>
+                        {d.p.label ? `${d.p.label} · ` : ''}
+                        {STATUS_TEXT[d.p.status]}
+                        {d.p.flagged ? ' · flagged residual' : ''}
+                      </div>
+                    </>
+                  ) : (
+                    <>
+                      <div>fitted ln r = {fixed(d.y, 3)}</div>
+                      {d.c.prediction && (
+                        <div>
+                          {levelText} prediction {fixed(d.c.prediction[0], 2)} to {fixed(d.c.prediction[1], 2)}
+                        </div>
+                      )}
+                    </>
+                  )}
+                </>
+              );
+            }}
+          </SnapTooltip>
+        </ChartFrame>
+      )}
+    </ChartFigure>
   );
 }
 

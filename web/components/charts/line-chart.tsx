@@ -1,11 +1,10 @@
 import { useMemo } from 'react';
-import { AreaSeries, Axis, GlyphSeries, Grid, LineSeries, Tooltip, XYChart, type GlyphProps } from '@visx/xychart';
-import { fixed } from '../../lib/format';
+import { Axis, GlyphSeries, LineSeries, type GlyphProps } from '@visx/xychart';
+import { ChartFigure, BandArea, ChartFrame, SnapTooltip, TemperatureHeading, valueScale } from './chart-frame';
 import { CelsiusAxis } from './chart-layers';
-import { axisLabelProps, chartColors, chartTheme, paddedExtent, tickLabelProps } from './chart-theme';
+import { axisLabelProps, chartColors, paddedExtent, tickLabelProps } from './chart-theme';
 import { LegendItem } from './eyring-plot';
 import { useElementWidth } from './use-element-width';
-import { kelvinFromCelsius } from '../../../api/science/quantities';
 
 /** One line of a {@link LineChart}: points against temperature (°C). */
 export interface LineChartSeries {
@@ -127,102 +126,11 @@ export function LineChart({
   const style = (i: number) => ({ color: PALETTE[i % PALETTE.length], dash: DASHES[i % DASHES.length], shape: SHAPES[i % SHAPES.length] });
 
   return (
-    <figure className="m-0">
-      <div ref={ref} className="w-full" data-testid={testId}>
-        {width > 0 && all.length > 0 && (
-          <XYChart
-            width={width}
-            height={height}
-            margin={{ top: 18, right: 20, bottom: 46, left: 78 }}
-            theme={chartTheme}
-            xScale={{ type: 'linear', domain: xDomain, zero: false }}
-            yScale={
-              yScale === 'log'
-                ? { type: 'log', domain: yDomain, clamp: true }
-                : { type: 'linear', domain: yDomain, zero: false, nice: true }
-            }
-            accessibilityLabel={title}
-          >
-            <Grid columns={false} numTicks={5} lineStyle={{ stroke: chartColors.grid }} />
-            {shown.map((s, i) => {
-              const { color, dash, shape } = style(i);
-              const data: Datum[] = s.points.map((p) => ({ ...p, series: s.label }));
-              return (
-                <g key={s.key}>
-                  {s.band.length > 1 && (
-                    <AreaSeries
-                      dataKey={`${s.key}-band`}
-                      data={s.band}
-                      xAccessor={(b) => b.x}
-                      yAccessor={(b) => b.hi}
-                      y0Accessor={(b) => b.lo}
-                      renderLine={false}
-                      fill={color}
-                      fillOpacity={0.14}
-                      enableEvents={false}
-                    />
-                  )}
-                  {data.length > 1 && (
-                    <LineSeries
-                      className="eyrie-line"
-                      dataKey={s.key}
-                      data={data}
-                      xAccessor={(d) => d.x}
-                      yAccessor={(d) => d.y}
-                      stroke={color}
-                      strokeWidth={s.secondary ? 1.25 : 2}
-                      strokeDasharray={dash || undefined}
-                      strokeOpacity={s.secondary ? 0.8 : 1}
-                    />
-                  )}
-                  <GlyphSeries
-                    dataKey={`${s.key}-markers`}
-                    data={data}
-                    xAccessor={(d) => d.x}
-                    yAccessor={(d) => d.y}
-                    renderGlyph={({ x, y }: GlyphProps<Datum>) => (
-                      <Marker shape={shape} x={x} y={y} color={color} r={s.secondary ? 2.5 : 3.5} />
-                    )}
-                  />
-                </g>
-              );
-            })}
-            <CelsiusAxis />
-            <Axis
-              orientation="left"
-              numTicks={5}
-              tickValues={yTicks ? yTicks(yDomain) : yScale === 'log' ? logTicks(yDomain) : undefined}
-              label={yLabel}
-              labelOffset={42}
-              labelProps={axisLabelProps}
-              tickLabelProps={tickLabelProps}
-              tickFormat={(v) => formatY(Number(v))}
-            />
-            <Tooltip<Datum>
-              snapTooltipToDatumX
-              snapTooltipToDatumY
-              showVerticalCrosshair
-              verticalCrosshairStyle={{ stroke: '#94a3b8', strokeDasharray: '2 2' }}
-              renderTooltip={({ tooltipData }) => {
-                const d = tooltipData?.nearestDatum?.datum;
-                if (!d) return null;
-                return (
-                  <div className="tnum text-xs leading-5 text-ink-800">
-                    <div className="font-medium">
-                      {fixed(d.x, 1)} °C · {fixed(kelvinFromCelsius(d.x), 2)} K
-                    </div>
-                    <div>
-                      {d.series}: {formatY(d.y)}
-                    </div>
-                  </div>
-                );
-              }}
-            />
-          </XYChart>
-        )}
-      </div>
-      <figcaption>
-        <ul className="mt-1 flex flex-wrap gap-x-4 gap-y-1 text-xs text-ink-600" aria-label="Legend">
+    <ChartFigure
+      chartRef={ref}
+      testId={testId}
+      legend={
+        <>
           {shown.map((s, i) => {
             const { color, dash, shape } = style(i);
             return (
@@ -240,14 +148,83 @@ export function LineChart({
               </LegendItem>
             );
           })}
-        </ul>
-        {hasBand && bandLabel && <p className="mt-1 text-xs text-ink-600">{bandLabel}</p>}
-        {series.length > shown.length && (
-          <p className="mt-1 text-xs text-ink-600">
-            The chart shows the first {shown.length} of {series.length} series; the table lists all.
-          </p>
-        )}
-      </figcaption>
-    </figure>
+        </>
+      }
+      notes={
+        <>
+          {hasBand && bandLabel && <p className="mt-1 text-xs text-ink-600">{bandLabel}</p>}
+          {series.length > shown.length && (
+            <p className="mt-1 text-xs text-ink-600">
+              The chart shows the first {shown.length} of {series.length} series; the table lists all.
+            </p>
+          )}
+        </>
+      }
+    >
+      {width > 0 && all.length > 0 && (
+        <ChartFrame
+          width={width}
+          height={height}
+          margin={{ top: 18, right: 20, bottom: 46, left: 78 }}
+          xScale={{ type: 'linear', domain: xDomain, zero: false }}
+          yScale={valueScale(yScale, yDomain)}
+          title={title}
+          gridTicks={5}
+        >
+          {shown.map((s, i) => {
+            const { color, dash, shape } = style(i);
+            const data: Datum[] = s.points.map((p) => ({ ...p, series: s.label }));
+            return (
+              <g key={s.key}>
+                {s.band.length > 1 && <BandArea dataKey={`${s.key}-band`} data={s.band} fill={color} fillOpacity={0.14} />}
+                {data.length > 1 && (
+                  <LineSeries
+                    className="eyrie-line"
+                    dataKey={s.key}
+                    data={data}
+                    xAccessor={(d) => d.x}
+                    yAccessor={(d) => d.y}
+                    stroke={color}
+                    strokeWidth={s.secondary ? 1.25 : 2}
+                    strokeDasharray={dash || undefined}
+                    strokeOpacity={s.secondary ? 0.8 : 1}
+                  />
+                )}
+                <GlyphSeries
+                  dataKey={`${s.key}-markers`}
+                  data={data}
+                  xAccessor={(d) => d.x}
+                  yAccessor={(d) => d.y}
+                  renderGlyph={({ x, y }: GlyphProps<Datum>) => (
+                    <Marker shape={shape} x={x} y={y} color={color} r={s.secondary ? 2.5 : 3.5} />
+                  )}
+                />
+              </g>
+            );
+          })}
+          <CelsiusAxis />
+          <Axis
+            orientation="left"
+            numTicks={5}
+            tickValues={yTicks ? yTicks(yDomain) : yScale === 'log' ? logTicks(yDomain) : undefined}
+            label={yLabel}
+            labelOffset={42}
+            labelProps={axisLabelProps}
+            tickLabelProps={tickLabelProps}
+            tickFormat={(v) => formatY(Number(v))}
+          />
+          <SnapTooltip<Datum>>
+            {(d) => (
+              <>
+                <TemperatureHeading celsius={d.x} />
+                <div>
+                  {d.series}: {formatY(d.y)}
+                </div>
+              </>
+            )}
+          </SnapTooltip>
+        </ChartFrame>
+      )}
+    </ChartFigure>
   );
 }

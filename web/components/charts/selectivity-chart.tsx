@@ -1,14 +1,14 @@
 import { useCallback, useMemo } from 'react';
-import { AreaSeries, Axis, GlyphSeries, Grid, LineSeries, Tooltip, XYChart } from '@visx/xychart';
+import { Axis, GlyphSeries, LineSeries } from '@visx/xychart';
 import { enantiomericRatio, fixed, percent } from '../../lib/format';
+import { ChartFigure, BandArea, ChartFrame, SnapTooltip, TemperatureHeading } from './chart-frame';
 import { CelsiusAxis, HorizontalRule, noGlyph, PointMarks, VerticalMark, type PointMark } from './chart-layers';
-import { axisLabelProps, chartColors, chartTheme, paddedExtent, tickLabelProps } from './chart-theme';
+import { axisLabelProps, chartColors, paddedExtent, tickLabelProps } from './chart-theme';
 import { LegendItem } from './eyring-plot';
 import { useElementWidth } from './use-element-width';
 import {
   axisText,
   formatSelectivity,
-  kelvinFromCelsius,
   lnRatioOf,
   majorShare,
   majorShareRange,
@@ -60,9 +60,6 @@ type Datum =
 const xOf = (d: Datum) => d.x;
 const MARGIN = { top: 18, right: 20, bottom: 46, left: 66 };
 // Accessors defined once: a new function on each render makes xychart register the series again.
-const bandX = (d: { x: number }) => d.x;
-const bandHi = (d: { hi: number }) => d.hi;
-const bandLo = (d: { lo: number }) => d.lo;
 const yOf = (d: Datum) => d.y;
 
 /**
@@ -125,100 +122,11 @@ export function SelectivityChart({
   const yScale = useMemo(() => ({ type: 'linear', domain: yDomain, zero: false, nice: true, clamp: true }) as const, [yDomain]);
 
   return (
-    <figure className="m-0">
-      <div ref={ref} className="w-full" data-testid="selectivity-chart">
-        {chartWidth > 0 && (
-          <XYChart
-            width={chartWidth}
-            height={height}
-            margin={MARGIN}
-            theme={chartTheme}
-            xScale={xScale}
-            yScale={yScale}
-            accessibilityLabel={title}
-          >
-            <Grid columns={false} numTicks={6} lineStyle={{ stroke: chartColors.grid }} />
-            {band.length > 1 && (
-              <AreaSeries
-                dataKey="band"
-                data={band}
-                xAccessor={bandX}
-                yAccessor={bandHi}
-                y0Accessor={bandLo}
-                renderLine={false}
-                fill={chartColors.predictionFill}
-                fillOpacity={0.3}
-                enableEvents={false}
-              />
-            )}
-            {spec != null && <HorizontalRule y={spec} label={`specification ${fixed(spec, spec % 1 === 0 ? 0 : 1)} ${unitText}`} />}
-            {curveData.length > 1 && (
-              <LineSeries
-                className="eyrie-curve-line"
-                dataKey="curve"
-                data={curveData}
-                xAccessor={xOf}
-                yAccessor={yOf}
-                stroke={chartColors.accent}
-                strokeWidth={2}
-              />
-            )}
-            {curveData.length === 1 && <GlyphSeries dataKey="curve" data={curveData} xAccessor={xOf} yAccessor={yOf} />}
-            {pointData.length > 0 && (
-              <GlyphSeries dataKey="measurements" data={pointData} xAccessor={xOf} yAccessor={yOf} renderGlyph={noGlyph} />
-            )}
-            <PointMarks marks={marks} />
-            {mark && <VerticalMark x={mark.celsius} label={mark.label} />}
-            <CelsiusAxis />
-            <Axis
-              orientation="left"
-              numTicks={6}
-              label={yLabel}
-              labelOffset={30}
-              labelProps={axisLabelProps}
-              tickLabelProps={tickLabelProps}
-              tickFormat={(v) => fixed(Number(v), Number.isInteger(Number(v)) ? 0 : 1)}
-            />
-            <Tooltip<Datum>
-              snapTooltipToDatumX
-              snapTooltipToDatumY
-              showVerticalCrosshair
-              verticalCrosshairStyle={{ stroke: '#94a3b8', strokeDasharray: '2 2' }}
-              renderTooltip={({ tooltipData }) => {
-                const d = tooltipData?.nearestDatum?.datum;
-                if (!d) return null;
-                const v = d.kind === 'curve' ? d.c : d.p;
-                return (
-                  <div className="tnum text-xs leading-5 text-ink-800">
-                    <div className="font-medium">
-                      {fixed(d.x, 1)} °C · {fixed(kelvinFromCelsius(d.x), 2)} K
-                    </div>
-                    <div>
-                      {d.kind === 'curve' ? curveLabel : 'measured'}:{' '}
-                      {family === 'ee'
-                        ? `ee ${percent(v.eePercent)} % · er ${enantiomericRatio(v.percentA)}`
-                        : formatSelectivity(family, lnRatioOf('ee', v.eePercent))}
-                      {d.kind === 'point' && d.p.status === 'censored' ? ' (lower bound)' : ''}
-                    </div>
-                    {d.kind === 'curve' && d.c.band && (
-                      <div>
-                        {bandLabel ?? 'band'}:{' '}
-                        {(() => {
-                          const [lo, hi] =
-                            measure === 'ee' ? d.c.band.eePercent : fold ? majorShareRange(...d.c.band.percentA) : d.c.band.percentA;
-                          return `${percent(lo)} to ${percent(hi)} ${unitText}`;
-                        })()}
-                      </div>
-                    )}
-                  </div>
-                );
-              }}
-            />
-          </XYChart>
-        )}
-      </div>
-      <figcaption>
-        <ul className="mt-1 flex flex-wrap gap-x-4 gap-y-1 text-xs text-ink-600" aria-label="Legend">
+    <ChartFigure
+      chartRef={ref}
+      testId="selectivity-chart"
+      legend={
+        <>
           <LegendItem label={curveLabel}>
             <line x1="1" x2="15" y1="8" y2="8" stroke={chartColors.accent} strokeWidth="2" />
           </LegendItem>
@@ -237,8 +145,69 @@ export function SelectivityChart({
               <line x1="1" x2="15" y1="8" y2="8" stroke={chartColors.caution} strokeWidth="1.5" strokeDasharray="4 2" />
             </LegendItem>
           )}
-        </ul>
-      </figcaption>
-    </figure>
+        </>
+      }
+    >
+      {chartWidth > 0 && (
+        <ChartFrame width={chartWidth} height={height} margin={MARGIN} xScale={xScale} yScale={yScale} title={title} gridTicks={6}>
+          {band.length > 1 && <BandArea dataKey="band" data={band} fill={chartColors.predictionFill} fillOpacity={0.3} />}
+          {spec != null && <HorizontalRule y={spec} label={`specification ${fixed(spec, spec % 1 === 0 ? 0 : 1)} ${unitText}`} />}
+          {curveData.length > 1 && (
+            <LineSeries
+              className="eyrie-curve-line"
+              dataKey="curve"
+              data={curveData}
+              xAccessor={xOf}
+              yAccessor={yOf}
+              stroke={chartColors.accent}
+              strokeWidth={2}
+            />
+          )}
+          {curveData.length === 1 && <GlyphSeries dataKey="curve" data={curveData} xAccessor={xOf} yAccessor={yOf} />}
+          {pointData.length > 0 && (
+            <GlyphSeries dataKey="measurements" data={pointData} xAccessor={xOf} yAccessor={yOf} renderGlyph={noGlyph} />
+          )}
+          <PointMarks marks={marks} />
+          {mark && <VerticalMark x={mark.celsius} label={mark.label} />}
+          <CelsiusAxis />
+          <Axis
+            orientation="left"
+            numTicks={6}
+            label={yLabel}
+            labelOffset={30}
+            labelProps={axisLabelProps}
+            tickLabelProps={tickLabelProps}
+            tickFormat={(v) => fixed(Number(v), Number.isInteger(Number(v)) ? 0 : 1)}
+          />
+          <SnapTooltip<Datum>>
+            {(d) => {
+              const v = d.kind === 'curve' ? d.c : d.p;
+              return (
+                <>
+                  <TemperatureHeading celsius={d.x} />
+                  <div>
+                    {d.kind === 'curve' ? curveLabel : 'measured'}:{' '}
+                    {family === 'ee'
+                      ? `ee ${percent(v.eePercent)} % · er ${enantiomericRatio(v.percentA)}`
+                      : formatSelectivity(family, lnRatioOf('ee', v.eePercent))}
+                    {d.kind === 'point' && d.p.status === 'censored' ? ' (lower bound)' : ''}
+                  </div>
+                  {d.kind === 'curve' && d.c.band && (
+                    <div>
+                      {bandLabel ?? 'band'}:{' '}
+                      {(() => {
+                        const [lo, hi] =
+                          measure === 'ee' ? d.c.band.eePercent : fold ? majorShareRange(...d.c.band.percentA) : d.c.band.percentA;
+                        return `${percent(lo)} to ${percent(hi)} ${unitText}`;
+                      })()}
+                    </div>
+                  )}
+                </>
+              );
+            }}
+          </SnapTooltip>
+        </ChartFrame>
+      )}
+    </ChartFigure>
   );
 }

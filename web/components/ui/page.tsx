@@ -1,5 +1,6 @@
 import { useEffect, useId, useRef, useState, type ReactNode } from 'react';
 import { Link } from 'react-router-dom';
+import type { UseQueryResult } from '@tanstack/react-query';
 
 /** One step of a breadcrumb trail; the last one (the page itself) has no link. */
 export interface Crumb {
@@ -52,6 +53,35 @@ export function Page({
       </div>
       {children}
     </div>
+  );
+}
+
+/**
+ * The page shown while a page's record loads, or when it cannot be read: `title` while loading;
+ * `missingTitle` with the server's reason (and `missing`, what that may mean) on failure.
+ */
+export function UnreadyPage({
+  query,
+  title,
+  missingTitle,
+  missing = null,
+}: {
+  query: Pick<UseQueryResult, 'isPending' | 'error'>;
+  title: string;
+  missingTitle: string;
+  missing?: ReactNode;
+}) {
+  if (query.isPending || !query.error) {
+    return (
+      <Page title={title}>
+        <p className="text-sm text-ink-500">Loading…</p>
+      </Page>
+    );
+  }
+  return (
+    <Page title={missingTitle} lead={query.error.message}>
+      {missing}
+    </Page>
   );
 }
 

@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import type { DistributionRequest, DistributionResponse } from '../../../../api/features/calculators/kinetics-schemas';
 import { LineChart } from '../../../components/charts/line-chart';
-import { TemperatureCells } from '../../../components/charts/temperature-swatch';
+import { TemperatureCells, TemperatureTable } from '../../../components/charts/temperature-swatch';
 import { SafetyCaution } from '../../../components/ui/caution';
 import { Panel } from '../../../components/ui/page';
 import type { FieldError } from '../../../lib/api-client';
@@ -327,50 +327,43 @@ function DistributionResult({ data }: { data: DistributionResponse }) {
         testId="distribution-chart"
       />
       <div className="flex min-w-0 flex-col gap-3">
-        <div className="max-h-[26rem] overflow-auto rounded border border-slate-200">
-          <table className="tnum w-full border-collapse text-right text-sm">
-            <caption className="sr-only">Product distribution by temperature</caption>
-            <thead className="sticky top-0 bg-slate-50 text-xs text-ink-600">
-              <tr className="border-b border-slate-200">
-                <th scope="col" className="w-4 px-0 py-1.5">
-                  <span className="sr-only">Temperature colour</span>
-                </th>
-                <Th>T (°C)</Th>
-                {data.pathways.map((p) => (
-                  <Th key={p.label}>{p.label} (%)</Th>
-                ))}
-                {data.groups.map((g) => (
-                  <Th key={`g-${g}`} className="border-l border-slate-200">
-                    {g}: share (%) · ee (%)
-                  </Th>
-                ))}
-                {hasDr && <Th className="border-l border-slate-200">dr ({data.groups.join(' : ')})</Th>}
-              </tr>
-            </thead>
-            <tbody>
-              {data.points.map((pt) => (
-                <tr key={pt.kelvin} className="border-b border-slate-100 last:border-0 hover:bg-slate-50">
-                  <TemperatureCells celsius={pt.celsius} />
-                  {pt.percents.map((v, i) => (
-                    <td key={i} className="px-2 py-1">
-                      {percent(v)}
-                    </td>
-                  ))}
-                  {pt.groups.map((g) => (
-                    <td key={g.diastereomer} className="border-l border-slate-100 px-2 py-1">
-                      {percent(g.percent)} · {percent(g.eePercent)}
-                    </td>
-                  ))}
-                  {hasDr && (
-                    <td className="border-l border-slate-100 px-2 py-1 font-medium text-ink-950">
-                      {pt.dr === null ? '—' : `${sig(pt.dr, 3)} : 1`}
-                    </td>
-                  )}
-                </tr>
+        <TemperatureTable
+          caption="Product distribution by temperature"
+          headings={
+            <>
+              {data.pathways.map((p) => (
+                <Th key={p.label}>{p.label} (%)</Th>
               ))}
-            </tbody>
-          </table>
-        </div>
+              {data.groups.map((g) => (
+                <Th key={`g-${g}`} className="border-l border-slate-200">
+                  {g}: share (%) · ee (%)
+                </Th>
+              ))}
+              {hasDr && <Th className="border-l border-slate-200">dr ({data.groups.join(' : ')})</Th>}
+            </>
+          }
+        >
+          {data.points.map((pt) => (
+            <tr key={pt.kelvin} className="border-b border-slate-100 last:border-0 hover:bg-slate-50">
+              <TemperatureCells celsius={pt.celsius} />
+              {pt.percents.map((v, i) => (
+                <td key={i} className="px-2 py-1">
+                  {percent(v)}
+                </td>
+              ))}
+              {pt.groups.map((g) => (
+                <td key={g.diastereomer} className="border-l border-slate-100 px-2 py-1">
+                  {percent(g.percent)} · {percent(g.eePercent)}
+                </td>
+              ))}
+              {hasDr && (
+                <td className="border-l border-slate-100 px-2 py-1 font-medium text-ink-950">
+                  {pt.dr === null ? '—' : `${sig(pt.dr, 3)} : 1`}
+                </td>
+              )}
+            </tr>
+          ))}
+        </TemperatureTable>
         <ResultNotes definitions={data.definitions} assumptions={data.assumptions} />
         <SafetyCaution compact />
       </div>

@@ -1,6 +1,6 @@
 import type { ErosionResponse } from '../../../../api/features/calculators/kinetics-schemas';
 import { LineChart, type LineChartSeries } from '../../../components/charts/line-chart';
-import { TemperatureCells } from '../../../components/charts/temperature-swatch';
+import { TemperatureCells, TemperatureTable } from '../../../components/charts/temperature-swatch';
 import { SafetyCaution } from '../../../components/ui/caution';
 import { fixed, percent, sig } from '../../../lib/format';
 import { useErosion } from '../api/post-erosion';
@@ -91,45 +91,38 @@ function ErosionResult({ data, floorPercent }: { data: ErosionResponse; floorPer
         testId="erosion-chart"
       />
 
-      <div className="max-h-[26rem] overflow-auto rounded border border-slate-200">
-        <table className="tnum w-full border-collapse text-right text-sm">
-          <caption className="sr-only">Erosion of ee by temperature</caption>
-          <thead className="sticky top-0 bg-slate-50 text-xs text-ink-600">
-            <tr className="border-b border-slate-200">
-              <th scope="col" className="w-4 px-0 py-1.5">
-                <span className="sr-only">Temperature colour</span>
-              </th>
-              <Th>T (°C)</Th>
-              <Th>ΔG‡ (kJ/mol)</Th>
-              <Th>{racemization ? 'k_e one-way (s⁻¹)' : 'k_f A→B (s⁻¹)'}</Th>
-              {racemization ? <Th>k_rac = 2k_e (s⁻¹)</Th> : <Th>k_f + k_r (s⁻¹)</Th>}
-              <Th className="text-ink-950">ee half-life</Th>
-              {hasHold && <Th>ee after hold (%)</Th>}
-              {hasFloor && <Th>Longest hold above floor</Th>}
-            </tr>
-          </thead>
-          <tbody>
-            {data.points.map((p) => (
-              <tr key={p.kelvin} className="border-b border-slate-100 last:border-0 hover:bg-slate-50">
-                <TemperatureCells celsius={p.celsius} />
-                <td className="px-2 py-1">{fixed(p.dG['kJ/mol'], 1)}</td>
-                <td className="px-2 py-1">{sci(p.kePerS)}</td>
-                <td className="px-2 py-1">{sci(racemization ? (p.kRacPerS ?? 2 * p.kePerS) : p.kRelaxationPerS)}</td>
-                <td className="px-2 py-1 font-medium text-ink-950">{p.eeHalfLife.text}</td>
-                {hasHold && (
-                  <td className="px-2 py-1">
-                    {p.eeAfterHoldPercent === null ? '—' : percent(p.eeAfterHoldPercent)}
-                    {p.eeAfterHoldPercent !== null && floorPercent !== null && p.eeAfterHoldPercent < floorPercent && (
-                      <span className="ml-1 text-xs font-medium text-caution-700">✗ below floor</span>
-                    )}
-                  </td>
+      <TemperatureTable
+        caption="Erosion of ee by temperature"
+        headings={
+          <>
+            <Th>ΔG‡ (kJ/mol)</Th>
+            <Th>{racemization ? 'k_e one-way (s⁻¹)' : 'k_f A→B (s⁻¹)'}</Th>
+            {racemization ? <Th>k_rac = 2k_e (s⁻¹)</Th> : <Th>k_f + k_r (s⁻¹)</Th>}
+            <Th className="text-ink-950">ee half-life</Th>
+            {hasHold && <Th>ee after hold (%)</Th>}
+            {hasFloor && <Th>Longest hold above floor</Th>}
+          </>
+        }
+      >
+        {data.points.map((p) => (
+          <tr key={p.kelvin} className="border-b border-slate-100 last:border-0 hover:bg-slate-50">
+            <TemperatureCells celsius={p.celsius} />
+            <td className="px-2 py-1">{fixed(p.dG['kJ/mol'], 1)}</td>
+            <td className="px-2 py-1">{sci(p.kePerS)}</td>
+            <td className="px-2 py-1">{sci(racemization ? (p.kRacPerS ?? 2 * p.kePerS) : p.kRelaxationPerS)}</td>
+            <td className="px-2 py-1 font-medium text-ink-950">{p.eeHalfLife.text}</td>
+            {hasHold && (
+              <td className="px-2 py-1">
+                {p.eeAfterHoldPercent === null ? '—' : percent(p.eeAfterHoldPercent)}
+                {p.eeAfterHoldPercent !== null && floorPercent !== null && p.eeAfterHoldPercent < floorPercent && (
+                  <span className="ml-1 text-xs font-medium text-caution-700">✗ below floor</span>
                 )}
-                {hasFloor && <td className="px-2 py-1">{holdCell(p)}</td>}
-              </tr>
-            ))}
-          </tbody>
-        </table>
-      </div>
+              </td>
+            )}
+            {hasFloor && <td className="px-2 py-1">{holdCell(p)}</td>}
+          </tr>
+        ))}
+      </TemperatureTable>
       <p className="text-xs text-ink-600">
         {racemization
           ? 'ee half-life here is the time for ee to halve: t½ = ln 2/(2k_e) = ln 2/k_rac.'

@@ -1,6 +1,6 @@
 import type { RateResponse } from '../../../../api/features/calculators/kinetics-schemas';
 import { LineChart, type LineChartSeries } from '../../../components/charts/line-chart';
-import { TemperatureCells } from '../../../components/charts/temperature-swatch';
+import { TemperatureCells, TemperatureTable } from '../../../components/charts/temperature-swatch';
 import { SafetyCaution } from '../../../components/ui/caution';
 import { fixed, sig } from '../../../lib/format';
 import { useRate } from '../api/post-rate';
@@ -106,46 +106,39 @@ function RateResult({ data }: { data: RateResponse }) {
       />
       {data.sensitivity && <p className="text-xs text-ink-600">{data.sensitivity.note}</p>}
 
-      <div className="max-h-[26rem] overflow-auto rounded border border-slate-200">
-        <table className="tnum w-full border-collapse text-right text-sm">
-          <caption className="sr-only">Rate constant, half-life and time to the target conversion by temperature</caption>
-          <thead className="sticky top-0 bg-slate-50 text-xs text-ink-600">
-            <tr className="border-b border-slate-200">
-              <th scope="col" className="w-4 px-0 py-1.5">
-                <span className="sr-only">Temperature colour</span>
-              </th>
-              <Th>T (°C)</Th>
-              <Th>k ({kUnit})</Th>
-              {data.order === 'pseudo-first' && <Th>k_obs (s⁻¹)</Th>}
-              <Th>t½</Th>
-              <Th className="text-ink-950">Time to {target} %</Th>
-              {variants.map((v) => (
-                <Th key={v.dH['kJ/mol']}>if ΔH‡ {signedKJ(v.dH['kJ/mol'] - a.dH['kJ/mol'])} kJ/mol</Th>
-              ))}
-              <Th>ΔG‡ (kJ/mol)</Th>
-              <Th>Ea (kJ/mol)</Th>
-            </tr>
-          </thead>
-          <tbody>
-            {data.points.map((p) => (
-              <tr key={p.kelvin} className="border-b border-slate-100 last:border-0 hover:bg-slate-50">
-                <TemperatureCells celsius={p.celsius} />
-                <td className="px-2 py-1">{sci(p.k)}</td>
-                {data.order === 'pseudo-first' && <td className="px-2 py-1">{p.kObsPerS === null ? '—' : sci(p.kObsPerS)}</td>}
-                <td className="px-2 py-1">{p.halfLife.text}</td>
-                <td className="px-2 py-1 font-medium text-ink-950">{p.timeToTarget.text}</td>
-                {variants.map((v) => (
-                  <td key={v.dH['kJ/mol']} className="px-2 py-1 text-ink-600">
-                    {variantAt(v, p.kelvin)}
-                  </td>
-                ))}
-                <td className="px-2 py-1">{fixed(p.dG['kJ/mol'], 1)}</td>
-                <td className="px-2 py-1">{fixed(p.ea['kJ/mol'], 1)}</td>
-              </tr>
+      <TemperatureTable
+        caption="Rate constant, half-life and time to the target conversion by temperature"
+        headings={
+          <>
+            <Th>k ({kUnit})</Th>
+            {data.order === 'pseudo-first' && <Th>k_obs (s⁻¹)</Th>}
+            <Th>t½</Th>
+            <Th className="text-ink-950">Time to {target} %</Th>
+            {variants.map((v) => (
+              <Th key={v.dH['kJ/mol']}>if ΔH‡ {signedKJ(v.dH['kJ/mol'] - a.dH['kJ/mol'])} kJ/mol</Th>
             ))}
-          </tbody>
-        </table>
-      </div>
+            <Th>ΔG‡ (kJ/mol)</Th>
+            <Th>Ea (kJ/mol)</Th>
+          </>
+        }
+      >
+        {data.points.map((p) => (
+          <tr key={p.kelvin} className="border-b border-slate-100 last:border-0 hover:bg-slate-50">
+            <TemperatureCells celsius={p.celsius} />
+            <td className="px-2 py-1">{sci(p.k)}</td>
+            {data.order === 'pseudo-first' && <td className="px-2 py-1">{p.kObsPerS === null ? '—' : sci(p.kObsPerS)}</td>}
+            <td className="px-2 py-1">{p.halfLife.text}</td>
+            <td className="px-2 py-1 font-medium text-ink-950">{p.timeToTarget.text}</td>
+            {variants.map((v) => (
+              <td key={v.dH['kJ/mol']} className="px-2 py-1 text-ink-600">
+                {variantAt(v, p.kelvin)}
+              </td>
+            ))}
+            <td className="px-2 py-1">{fixed(p.dG['kJ/mol'], 1)}</td>
+            <td className="px-2 py-1">{fixed(p.ea['kJ/mol'], 1)}</td>
+          </tr>
+        ))}
+      </TemperatureTable>
       {data.order === 'second' && (
         <p className="text-xs text-ink-600">Second order: t½ is the time to 50 % conversion from the given c₀ (it depends on c₀).</p>
       )}

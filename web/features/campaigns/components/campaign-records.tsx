@@ -5,6 +5,7 @@ import { FormErrorAlert } from '../../../components/ui/form-fields';
 import { applyServerErrors } from '../../../lib/form';
 import { recordLinks, useHistoryEntries, useKeptFiles, useReopen, useSignOff } from '../api/records';
 import type { CampaignWithRole } from '../api/types';
+import { ListHead } from '../../../components/ui/table-head';
 
 const timeFormat = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'short', timeZone: 'UTC' });
 const when = (iso: string) => `${timeFormat.format(new Date(iso))} UTC`;
@@ -162,25 +163,16 @@ export function KeptFiles({ campaignId }: { campaignId: string }) {
     <div className="overflow-x-auto">
       <table className="tnum w-full text-left text-sm">
         <caption className="sr-only">Uploaded files, newest first</caption>
-        <thead className="border-b border-slate-200 text-xs text-ink-600">
-          <tr>
-            <th scope="col" className="py-1.5 pr-3 font-medium">
-              File
-            </th>
-            <th scope="col" className="py-1.5 pr-3 text-right font-medium">
-              Size
-            </th>
-            <th scope="col" className="py-1.5 pr-3 text-right font-medium">
-              Rows
-            </th>
-            <th scope="col" className="py-1.5 pr-3 font-medium">
-              Uploaded
-            </th>
-            <th scope="col" className="py-1.5 font-medium">
-              SHA-256
-            </th>
-          </tr>
-        </thead>
+        <ListHead
+          density="compact"
+          columns={[
+            { label: 'File' },
+            { label: 'Size', align: 'right' },
+            { label: 'Rows', align: 'right' },
+            { label: 'Uploaded' },
+            { label: 'SHA-256' },
+          ]}
+        />
         <tbody>
           {files.data.map((f) => (
             <tr key={f.id} className="border-b border-slate-100 align-top">

@@ -8,6 +8,7 @@ import {
 import type { ImportCell, PreviewColumn } from '../api/types';
 import { FIELD_LABEL, REQUIRED_FIELDS, type MappingDraft } from '../lib/import-mapping';
 import { MEASURE_LABEL } from '../lib/labels';
+import { CompactSelect } from './compact-select';
 
 const cellText = (c: ImportCell) => (c === null || c === '' ? '∅' : String(c));
 
@@ -92,7 +93,8 @@ export function ColumnMappingStep({
       </table>
       <div className="flex flex-wrap gap-4">
         {draft.columns.temperatureUnit === null && (
-          <Choice<TemperatureUnit>
+          <CompactSelect<TemperatureUnit>
+            blank="choose…"
             id="map-unit"
             label="Temperatures are in"
             value={draft.temperatureUnit}
@@ -106,7 +108,8 @@ export function ColumnMappingStep({
           />
         )}
         {draft.columns.measure === null && (
-          <Choice<SelectivityMeasure>
+          <CompactSelect<SelectivityMeasure>
+            blank="choose…"
             id="map-measure"
             label="The value column holds"
             value={draft.measure}
@@ -116,7 +119,8 @@ export function ColumnMappingStep({
           />
         )}
         {draft.columns.reactionTime !== null && (
-          <Choice<TimeUnit>
+          <CompactSelect<TimeUnit>
+            blank="choose…"
             id="map-time"
             label="Times are in"
             value={draft.timeUnit}
@@ -130,50 +134,5 @@ export function ColumnMappingStep({
         )}
       </div>
     </fieldset>
-  );
-}
-
-function Choice<T extends string>({
-  id,
-  label,
-  value,
-  options,
-  error,
-  onChange,
-}: {
-  id: string;
-  label: string;
-  value: T | null;
-  options: (readonly [T, string])[];
-  error?: string;
-  onChange: (v: T | null) => void;
-}) {
-  return (
-    <div className="flex flex-col gap-0.5">
-      <label htmlFor={id} className="text-xs font-medium text-ink-700">
-        {label}
-      </label>
-      <select
-        id={id}
-        value={value ?? ''}
-        onChange={(e) => onChange(e.target.value === '' ? null : (e.target.value as T))}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={error ? `${id}-err` : undefined}
-        className={`rounded border bg-white px-1.5 py-1 text-sm ${error ? 'border-rose-600' : 'border-slate-300'}`}
-      >
-        <option value="">choose…</option>
-        {options.map(([v, text]) => (
-          <option key={v} value={v}>
-            {text}
-          </option>
-        ))}
-      </select>
-      {error && (
-        <p id={`${id}-err`} className="text-xs text-rose-700">
-          <span aria-hidden="true">✕ </span>
-          {error}
-        </p>
-      )}
-    </div>
   );
 }

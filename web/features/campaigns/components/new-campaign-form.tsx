@@ -3,7 +3,7 @@ import { useNavigate } from 'react-router-dom';
 import { Button } from '../../../components/ui/form';
 import { FormErrorAlert } from '../../../components/ui/form-fields';
 import { paths } from '../../../config/paths';
-import { applyServerErrors, checkedResolver } from '../../../lib/form';
+import { checkedResolver, submitThrough } from '../../../lib/form';
 import { useCreateCampaign } from '../api/campaigns';
 import { blankCampaign, CAMPAIGN_FIELDS, createBody, fieldErrorList, type CampaignFormValues } from '../lib/campaign-form';
 import { CampaignFields } from './campaign-fields';
@@ -23,12 +23,7 @@ export function NewCampaignForm({ projectId, onCancel }: { projectId: string; on
       noValidate
       aria-label="New campaign"
       className="flex flex-col gap-3"
-      onSubmit={form.handleSubmit((body) =>
-        create.mutate(body, {
-          onSuccess: (c) => navigate(paths.campaign.getHref(c.id)),
-          onError: (err) => applyServerErrors(form.setError, err, CAMPAIGN_FIELDS),
-        }),
-      )}
+      onSubmit={submitThrough(form, create, CAMPAIGN_FIELDS, { onSuccess: (c) => navigate(paths.campaign.getHref(c.id)) })}
     >
       <CampaignFields control={form.control} />
       <FormErrorAlert control={form.control} />

@@ -20,6 +20,7 @@ import {
   formatMeasureRange,
   type SelectivityMeasure,
 } from '../../../../api/science/quantities';
+import { ListHead } from '../../../components/ui/table-head';
 
 const plus = (v: number, text: string) => (v > 0 && !text.startsWith('+') ? `+${text}` : text);
 
@@ -157,33 +158,27 @@ export function ProjectCampaigns({ projectId, canEdit }: { projectId: string; ca
         ) : (
           <div className="overflow-x-auto">
             <table className="tnum w-full border-collapse text-sm" aria-label="Campaigns of the project">
-              <thead className="border-b border-slate-200 text-xs text-ink-600">
-                <tr>
-                  <th scope="col" className="py-1.5 pr-3 text-left font-medium">
-                    Campaign
-                  </th>
-                  <th scope="col" className="py-1.5 pr-3 text-left font-medium">
-                    Status
-                  </th>
-                  <th scope="col" className="py-1.5 pr-3 text-right font-medium">
-                    n (in fit)
-                  </th>
-                  <th scope="col" className="py-1.5 pr-3 text-right font-medium">
-                    T range (°C)
-                  </th>
-                  <th scope="col" className="py-1.5 pr-3 text-right font-medium">
-                    ΔΔH‡ ± SE (kJ/mol)
-                  </th>
-                  <th scope="col" className="py-1.5 pr-3 text-right font-medium">
-                    {list.every((c) => isEnantiomers(c.measure)) ? 'ee' : 'Selectivity'} at{' '}
-                    {fixed(comparison.data?.at.celsius ?? atCelsius, 1)} °C ({list.every((c) => isEnantiomers(c.measure)) ? '%, ' : ''}95 %
-                    PI)
-                  </th>
-                  <th scope="col" className="py-1.5 text-left font-medium">
-                    Compare
-                  </th>
-                </tr>
-              </thead>
+              <ListHead
+                density="compact"
+                columns={[
+                  { label: 'Campaign', align: 'left' },
+                  { label: 'Status', align: 'left' },
+                  { label: 'n (in fit)', align: 'right' },
+                  { label: 'T range (°C)', align: 'right' },
+                  { label: 'ΔΔH‡ ± SE (kJ/mol)', align: 'right' },
+                  {
+                    label: (
+                      <>
+                        {list.every((c) => isEnantiomers(c.measure)) ? 'ee' : 'Selectivity'} at{' '}
+                        {fixed(comparison.data?.at.celsius ?? atCelsius, 1)} °C ({list.every((c) => isEnantiomers(c.measure)) ? '%, ' : ''}
+                        95 % PI)
+                      </>
+                    ),
+                    align: 'right',
+                  },
+                  { label: 'Compare', align: 'left' },
+                ]}
+              />
               <tbody>
                 {list.map((c) => (
                   <CampaignRow

@@ -12,6 +12,7 @@ import { initialUpload, uploadReducer } from '../lib/upload-steps';
 import { SECONDS_PER } from '../../../../api/science/quantities';
 import { ColumnMappingStep } from './column-mapping-step';
 import { recordLinks } from '../api/records';
+import { CompactSelect } from './compact-select';
 
 const DELIMITER_TEXT: Record<string, string> = { ',': 'comma', ';': 'semicolon', '\t': 'tab' };
 
@@ -297,11 +298,8 @@ export function UploadWizard({ campaignId, projectId }: { campaignId: string; pr
 }
 
 function ParseSelect({
-  id,
-  label,
-  value,
-  options,
   onChange,
+  ...props
 }: {
   id: string;
   label: string;
@@ -309,25 +307,7 @@ function ParseSelect({
   options: [string, string][];
   onChange: (v: string) => void;
 }) {
-  return (
-    <div className="flex flex-col gap-0.5">
-      <label htmlFor={id} className="text-xs font-medium text-ink-700">
-        {label}
-      </label>
-      <select
-        id={id}
-        value={value}
-        onChange={(e) => onChange(e.target.value)}
-        className="rounded border border-slate-300 bg-white px-1.5 py-1 text-sm"
-      >
-        {options.map(([v, t]) => (
-          <option key={v} value={v}>
-            {t}
-          </option>
-        ))}
-      </select>
-    </div>
-  );
+  return <CompactSelect {...props} onChange={(v) => onChange(v ?? '')} />;
 }
 
 function PreviewSummary({ preview, focusRef }: { preview: ImportPreview; focusRef: RefObject<HTMLElement | null> }) {

@@ -1,6 +1,7 @@
 import { useMemo } from 'react';
-import { AreaSeries, Axis, GlyphSeries, Grid, LineSeries, XYChart } from '@visx/xychart';
-import { axisLabelProps, chartColors, chartTheme, paddedExtent, tickLabelProps } from '../../../components/charts/chart-theme';
+import { Axis, GlyphSeries, LineSeries } from '@visx/xychart';
+import { ChartFigure, BandArea, ChartFrame, InverseKelvinAxis } from '../../../components/charts/chart-frame';
+import { axisLabelProps, chartColors, paddedExtent, tickLabelProps } from '../../../components/charts/chart-theme';
 import { useElementWidth } from '../../../components/charts/use-element-width';
 import { fixed } from '../../../lib/format';
 import type { ComparisonView } from '../api/plan';
@@ -57,80 +58,11 @@ export function EyringOverlay({ result }: { result: ComparisonView['result'] }) 
     [all],
   );
   return (
-    <figure className="m-0">
-      <div ref={ref} className="w-full" data-testid="comparison-eyring">
-        {width > 0 && all.length > 0 && (
-          <XYChart
-            width={width}
-            height={280}
-            margin={{ top: 14, right: 16, bottom: 46, left: 64 }}
-            theme={chartTheme}
-            xScale={{ type: 'linear', domain: xDomain, zero: false }}
-            yScale={{ type: 'linear', domain: yDomain, zero: false, nice: true }}
-            accessibilityLabel="Eyring plots of the compared campaigns"
-          >
-            <Grid columns={false} numTicks={5} lineStyle={{ stroke: chartColors.grid }} />
-            {shown.map((c, i) => {
-              const color = COLORS[i % COLORS.length]!;
-              const line: Datum[] = c.fit!.curve.map((p) => ({ x: 1000 / p.kelvin, y: p.lnRatio }));
-              const runs: Datum[] = c
-                .fit!.eyring.filter((p) => p.status === 'fitted')
-                .map((p) => ({ x: 1000 * p.inverseKelvin, y: p.lnRatio }));
-              const band = c.fit!.curve.map((p) => ({ x: 1000 / p.kelvin, lo: p.lnInterval[0], hi: p.lnInterval[1] }));
-              return (
-                <g key={c.id}>
-                  <AreaSeries
-                    dataKey={`${c.id}-band`}
-                    data={band}
-                    xAccessor={(d) => d.x}
-                    yAccessor={(d) => d.hi}
-                    y0Accessor={(d) => d.lo}
-                    renderLine={false}
-                    fill={color}
-                    fillOpacity={0.14}
-                    enableEvents={false}
-                  />
-                  <LineSeries
-                    dataKey={`${c.id}-line`}
-                    data={line}
-                    xAccessor={(d) => d.x}
-                    yAccessor={(d) => d.y}
-                    stroke={color}
-                    strokeWidth={2}
-                    strokeDasharray={DASHES[i] || undefined}
-                  />
-                  <GlyphSeries
-                    dataKey={`${c.id}-runs`}
-                    data={runs}
-                    xAccessor={(d) => d.x}
-                    yAccessor={(d) => d.y}
-                    renderGlyph={({ x, y }) => <Marker shape={SHAPES[i]!} x={x} y={y} color={color} />}
-                  />
-                </g>
-              );
-            })}
-            <Axis
-              orientation="bottom"
-              numTicks={6}
-              label="1000/T (K⁻¹)"
-              labelProps={axisLabelProps}
-              tickLabelProps={tickLabelProps}
-              tickFormat={(v) => fixed(Number(v), 2)}
-            />
-            <Axis
-              orientation="left"
-              numTicks={5}
-              label="ln r"
-              labelOffset={36}
-              labelProps={axisLabelProps}
-              tickLabelProps={tickLabelProps}
-              tickFormat={(v) => fixed(Number(v), 1)}
-            />
-          </XYChart>
-        )}
-      </div>
-      <figcaption>
-        <ul className="mt-1 flex flex-wrap gap-x-4 gap-y-1 text-xs text-ink-600" aria-label="Legend">
+    <ChartFigure
+      chartRef={ref}
+      testId="comparison-eyring"
+      legend={
+        <>
           {shown.map((c, i) => (
             <li key={c.id} className="flex items-center gap-1.5">
               <svg width="18" height="12" aria-hidden="true">
@@ -148,9 +80,65 @@ export function EyringOverlay({ result }: { result: ComparisonView['result'] }) 
               {c.title}
             </li>
           ))}
-        </ul>
-        <p className="mt-1 text-xs text-ink-600">Shaded: the 95 % confidence band of each campaign's fitted line.</p>
-      </figcaption>
-    </figure>
+        </>
+      }
+      notes={
+        <>
+          <p className="mt-1 text-xs text-ink-600">Shaded: the 95 % confidence band of each campaign's fitted line.</p>
+        </>
+      }
+    >
+      {width > 0 && all.length > 0 && (
+        <ChartFrame
+          width={width}
+          height={280}
+          margin={{ top: 14, right: 16, bottom: 46, left: 64 }}
+          xScale={{ type: 'linear', domain: xDomain, zero: false }}
+          yScale={{ type: 'linear', domain: yDomain, zero: false, nice: true }}
+          title="Eyring plots of the compared campaigns"
+          gridTicks={5}
+        >
+          {shown.map((c, i) => {
+            const color = COLORS[i % COLORS.length]!;
+            const line: Datum[] = c.fit!.curve.map((p) => ({ x: 1000 / p.kelvin, y: p.lnRatio }));
+            const runs: Datum[] = c
+              .fit!.eyring.filter((p) => p.status === 'fitted')
+              .map((p) => ({ x: 1000 * p.inverseKelvin, y: p.lnRatio }));
+            const band = c.fit!.curve.map((p) => ({ x: 1000 / p.kelvin, lo: p.lnInterval[0], hi: p.lnInterval[1] }));
+            return (
+              <g key={c.id}>
+                <BandArea dataKey={`${c.id}-band`} data={band} fill={color} fillOpacity={0.14} />
+                <LineSeries
+                  dataKey={`${c.id}-line`}
+                  data={line}
+                  xAccessor={(d) => d.x}
+                  yAccessor={(d) => d.y}
+                  stroke={color}
+                  strokeWidth={2}
+                  strokeDasharray={DASHES[i] || undefined}
+                />
+                <GlyphSeries
+                  dataKey={`${c.id}-runs`}
+                  data={runs}
+                  xAccessor={(d) => d.x}
+                  yAccessor={(d) => d.y}
+                  renderGlyph={({ x, y }) => <Marker shape={SHAPES[i]!} x={x} y={y} color={color} />}
+                />
+              </g>
+            );
+          })}
+          <InverseKelvinAxis />
+          <Axis
+            orientation="left"
+            numTicks={5}
+            label="ln r"
+            labelOffset={36}
+            labelProps={axisLabelProps}
+            tickLabelProps={tickLabelProps}
+            tickFormat={(v) => fixed(Number(v), 1)}
+          />
+        </ChartFrame>
+      )}
+    </ChartFigure>
   );
 }

@@ -1,7 +1,8 @@
 import { useId, useMemo } from 'react';
-import { Axis, Grid, LineSeries, XYChart } from '@visx/xychart';
+import { Axis, LineSeries } from '@visx/xychart';
+import { ChartFrame, valueScale } from '../../../components/charts/chart-frame';
 import { CelsiusAxis, HorizontalRule, VerticalMark, usePlotArea } from '../../../components/charts/chart-layers';
-import { axisLabelProps, chartColors, chartFont, chartTheme, paddedExtent, tickLabelProps } from '../../../components/charts/chart-theme';
+import { axisLabelProps, chartColors, chartFont, paddedExtent, tickLabelProps } from '../../../components/charts/chart-theme';
 import { useElementWidth } from '../../../components/charts/use-element-width';
 import { fixed, sig } from '../../../lib/format';
 import type { PlanResult } from '../api/plan';
@@ -150,20 +151,15 @@ function WindowPanel({
       <figcaption className="text-xs font-medium text-ink-700">{title}</figcaption>
       <div ref={ref} className="w-full" data-testid={testId}>
         {width > 0 && data.length > 1 && (
-          <XYChart
+          <ChartFrame
             width={width}
             height={180}
             margin={{ top: 14, right: 16, bottom: 46, left: 70 }}
-            theme={chartTheme}
             xScale={{ type: 'linear', domain: xDomain, zero: false }}
-            yScale={
-              yScale === 'log'
-                ? { type: 'log', domain: yDomain, clamp: true }
-                : { type: 'linear', domain: yDomain, zero: false, nice: true }
-            }
-            accessibilityLabel={title}
+            yScale={valueScale(yScale, yDomain)}
+            title={title}
+            gridTicks={4}
           >
-            <Grid columns={false} numTicks={4} lineStyle={{ stroke: chartColors.grid }} />
             <Excluded regions={regions} labelled={labelled} />
             {band && <Band points={band} />}
             <LineSeries
@@ -186,7 +182,7 @@ function WindowPanel({
               tickLabelProps={tickLabelProps}
               tickFormat={(v) => formatY(Number(v))}
             />
-          </XYChart>
+          </ChartFrame>
         )}
       </div>
     </figure>

@@ -32,6 +32,66 @@ interface FormState {
   atProbability: boolean;
 }
 
+type TextKey = { [K in keyof FormState]: FormState[K] extends string ? K : never }[keyof FormState];
+
+/** A number box of the planner: the form value it edits and the request path its server errors name. */
+interface PlanField {
+  key: TextKey;
+  label: string;
+  path: string;
+  width: string;
+  hint?: string;
+}
+
+/** The specification and the jacket's range, beside the measure. */
+const LIMIT_FIELDS: PlanField[] = [
+  { key: 'minimum', label: 'Minimum', path: 'minimum', width: 'w-24' },
+  { key: 'probability', label: 'Required probability', path: 'probability', width: 'w-20', hint: '0.5–0.999' },
+  { key: 'fromC', label: 'Coldest jacket (°C)', path: 'temperatures.from', width: 'w-20' },
+  { key: 'toC', label: 'Warmest jacket (°C)', path: 'temperatures.to', width: 'w-20' },
+];
+
+/** Time, hold and next-run settings. */
+const CONSTRAINT_FIELDS: PlanField[] = [
+  { key: 'maxTimeH', label: 'Longest reaction time (h)', path: 'rate.maxTime', width: 'w-20', hint: "uses the runs' conversion and time" },
+  { key: 'targetConversion', label: 'Target conversion (%)', path: 'rate.targetConversionPercent', width: 'w-20' },
+  { key: 'holdH', label: 'Hold before isolation (h)', path: 'hold.time', width: 'w-20' },
+  { key: 'holdBarrier', label: 'Racemization ΔG‡ (kcal/mol)', path: 'hold.barrier', width: 'w-20' },
+  { key: 'holdFloor', label: 'ee floor after hold (%)', path: 'hold.floorEePercent', width: 'w-20' },
+  { key: 'nextRuns', label: 'Next runs to suggest', path: 'nextRuns.count', width: 'w-16' },
+  {
+    key: 'newRunSd',
+    label: 'Assay SD of a new run',
+    path: 'newRunUncertainty',
+    width: 'w-20',
+    hint: "in the specification's units; empty: from the runs",
+  },
+];
+
+function PlanNumberField({
+  field,
+  form,
+  set,
+  errors,
+}: {
+  field: PlanField;
+  form: FormState;
+  set: (k: TextKey) => (v: string) => void;
+  errors: FieldError[];
+}) {
+  return (
+    <NumberField
+      label={field.label}
+      path={field.path}
+      value={form[field.key]}
+      onChange={set(field.key)}
+      errors={errors}
+      width={field.width}
+      hint={field.hint}
+    />
+  );
+}
+
 const num = (s: string) => (s.trim() === '' ? undefined : Number(s.replace(',', '.')));
 
 function fromPlan(
@@ -217,92 +277,14 @@ export function PlannerPanel({ campaignId, projectId, canEdit }: { campaignId: s
                 ))}
               </select>
             </div>
-            <NumberField label="Minimum" path="minimum" value={form.minimum} onChange={set('minimum')} errors={errors} width="w-24" />
-            <NumberField
-              label="Required probability"
-              path="probability"
-              value={form.probability}
-              onChange={set('probability')}
-              errors={errors}
-              width="w-20"
-              hint="0.5–0.999"
-            />
-            <NumberField
-              label="Coldest jacket (°C)"
-              path="temperatures.from"
-              value={form.fromC}
-              onChange={set('fromC')}
-              errors={errors}
-              width="w-20"
-            />
-            <NumberField
-              label="Warmest jacket (°C)"
-              path="temperatures.to"
-              value={form.toC}
-              onChange={set('toC')}
-              errors={errors}
-              width="w-20"
-            />
+            {LIMIT_FIELDS.map((f) => (
+              <PlanNumberField key={f.path} field={f} form={form} set={set} errors={errors} />
+            ))}
           </div>
           <div className="flex flex-wrap items-end gap-3">
-            <NumberField
-              label="Longest reaction time (h)"
-              path="rate.maxTime"
-              value={form.maxTimeH}
-              onChange={set('maxTimeH')}
-              errors={errors}
-              width="w-20"
-              hint="uses the runs' conversion and time"
-            />
-            <NumberField
-              label="Target conversion (%)"
-              path="rate.targetConversionPercent"
-              value={form.targetConversion}
-              onChange={set('targetConversion')}
-              errors={errors}
-              width="w-20"
-            />
-            <NumberField
-              label="Hold before isolation (h)"
-              path="hold.time"
-              value={form.holdH}
-              onChange={set('holdH')}
-              errors={errors}
-              width="w-20"
-            />
-            <NumberField
-              label="Racemization ΔG‡ (kcal/mol)"
-              path="hold.barrier"
-              value={form.holdBarrier}
-              onChange={set('holdBarrier')}
-              errors={errors}
-              width="w-20"
-            />
-            <NumberField
-              label="ee floor after hold (%)"
-              path="hold.floorEePercent"
-              value={form.holdFloor}
-              onChange={set('holdFloor')}
-              errors={errors}
-              width="w-20"
-            />
-            <NumberField
-              label="Next runs to suggest"
-              path="nextRuns.count"
-              value={form.nextRuns}
-              onChange={set('nextRuns')}
-              errors={errors}
-              width="w-16"
-            />
-            <NumberField
-              label="Assay SD of a new run"
-              path="newRunUncertainty"
-              value={form.newRunSd}
-              onChange={set('newRunSd')}
-              errors={errors}
-              width="w-20"
-              hint="in the specification's units; empty: from the runs"
-            />
+            {CONSTRAINT_FIELDS.map((f) => (
+              <PlanNumberField key={f.path} field={f} form={form} set={set} errors={errors} />
+            ))}
             <label className="flex items-center gap-2 self-center text-sm text-ink-800">
               <input type="checkbox" checked={form.atProbability} onChange={(e) => methods.setValue('atProbability', e.target.checked)} />
               Apply time and hold limits with the specification's confidence

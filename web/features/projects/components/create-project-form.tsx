@@ -3,7 +3,7 @@ import { projectFieldsSchema } from '../../../../api/features/projects/schemas';
 import { Button } from '../../../components/ui/form';
 import { FormErrorAlert, FormTextField } from '../../../components/ui/form-fields';
 import { paths } from '../../../config/paths';
-import { applyServerErrors, useZodForm } from '../../../lib/form';
+import { submitThrough, useZodForm } from '../../../lib/form';
 import { useCreateProject } from '../api/projects';
 
 export function CreateProjectForm() {
@@ -15,12 +15,7 @@ export function CreateProjectForm() {
       noValidate
       aria-label="New project"
       className="grid gap-3"
-      onSubmit={form.handleSubmit((input) =>
-        create.mutate(input, {
-          onSuccess: (p) => navigate(paths.project.getHref(p.id)),
-          onError: (e) => applyServerErrors(form.setError, e, ['name', 'description']),
-        }),
-      )}
+      onSubmit={submitThrough(form, create, ['name', 'description'], { onSuccess: (p) => navigate(paths.project.getHref(p.id)) })}
     >
       <FormTextField control={form.control} name="name" label="Name" />
       <FormTextField

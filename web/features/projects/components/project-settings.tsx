@@ -5,11 +5,12 @@ import { Button, FormAlert, SelectField } from '../../../components/ui/form';
 import { FormErrorAlert, FormSelectField, FormTextField } from '../../../components/ui/form-fields';
 import { Panel } from '../../../components/ui/page';
 import { paths } from '../../../config/paths';
-import { applyServerErrors, useZodForm } from '../../../lib/form';
+import { applyServerErrors, submitThrough, useZodForm } from '../../../lib/form';
 import { useCreateInvitation, useInvitations, useRevokeInvitation } from '../api/invitations';
 import { useChangeMemberRole, useLeaveProject, useMembers, useRemoveMember } from '../../../lib/members';
 import { useDeleteProject, useUpdateProject, type Project } from '../api/projects';
 import { RoleBadge, roleMeaning, roleOptions } from '../../../components/ui/role-badge';
+import { ListHead } from '../../../components/ui/table-head';
 
 const dateFormat = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium' });
 
@@ -22,12 +23,7 @@ function DetailsForm({ project }: { project: Project }) {
       aria-label="Project details"
       className="grid gap-3"
       // The version the page was loaded at: someone else's change in between is a 409, shown above the buttons.
-      onSubmit={form.handleSubmit((input) =>
-        update.mutate(
-          { ...input, version: project.version },
-          { onError: (e) => applyServerErrors(form.setError, e, ['name', 'description']) },
-        ),
-      )}
+      onSubmit={submitThrough(form, update, ['name', 'description'], { toBody: (input) => ({ ...input, version: project.version }) })}
     >
       <FormTextField control={form.control} name="name" label="Name" />
       <FormTextField control={form.control} name="description" label="Description" />
@@ -67,22 +63,7 @@ function Members({ project, myId }: { project: Project; myId: string }) {
       <FormAlert>{problem}</FormAlert>
       <table className="mt-2 w-full text-left text-sm">
         <caption className="sr-only">Members of {project.name}</caption>
-        <thead className="border-b border-slate-200 text-xs uppercase tracking-wide text-ink-500">
-          <tr>
-            <th scope="col" className="py-2 pr-3 font-semibold">
-              Person
-            </th>
-            <th scope="col" className="py-2 pr-3 font-semibold">
-              Role
-            </th>
-            <th scope="col" className="py-2 pr-3 font-semibold">
-              Since
-            </th>
-            <th scope="col" className="py-2 font-semibold">
-              <span className="sr-only">Actions</span>
-            </th>
-          </tr>
-        </thead>
+        <ListHead columns={[{ label: 'Person' }, { label: 'Role' }, { label: 'Since' }, { label: 'Actions', hidden: true }]} />
         <tbody>
           {members.data.members.map((m) => (
             <tr key={m.userId} className="border-b border-slate-100">

@@ -2,6 +2,7 @@ import { Link } from 'react-router-dom';
 import { paths } from '../../../config/paths';
 import { useProjects } from '../api/projects';
 import { RoleBadge } from '../../../components/ui/role-badge';
+import { ListHead } from '../../../components/ui/table-head';
 
 const dateFormat = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium' });
 
@@ -20,25 +21,15 @@ export function ProjectsList() {
   return (
     <table className="w-full text-left text-sm">
       <caption className="sr-only">Your projects</caption>
-      <thead className="border-b border-slate-200 text-xs uppercase tracking-wide text-ink-500">
-        <tr>
-          <th scope="col" className="py-2 pr-3 font-semibold">
-            Project
-          </th>
-          <th scope="col" className="py-2 pr-3 font-semibold">
-            Your role
-          </th>
-          <th scope="col" className="py-2 pr-3 text-right font-semibold">
-            Members
-          </th>
-          <th scope="col" className="py-2 pr-3 font-semibold">
-            Changed
-          </th>
-          <th scope="col" className="py-2 font-semibold">
-            <span className="sr-only">Links</span>
-          </th>
-        </tr>
-      </thead>
+      <ListHead
+        columns={[
+          { label: 'Project' },
+          { label: 'Your role' },
+          { label: 'Members', align: 'right' },
+          { label: 'Changed' },
+          { label: 'Links', hidden: true },
+        ]}
+      />
       <tbody>
         {projects.data.map((p) => (
           <tr key={p.id} className="border-b border-slate-100 align-top">

@@ -3,8 +3,9 @@ import { createTokenSchema, TOKEN_MAX_DAYS } from '../../../../api/features/toke
 import { Button } from '../../../components/ui/form';
 import { FormErrorAlert, FormTextField } from '../../../components/ui/form-fields';
 import { Panel } from '../../../components/ui/page';
-import { applyServerErrors, useZodForm } from '../../../lib/form';
+import { submitThrough, useZodForm } from '../../../lib/form';
 import { useCreateToken, useRevokeToken, useTokens, type ApiTokenInfo } from '../api/tokens';
+import { ListHead } from '../../../components/ui/table-head';
 
 const dateFormat = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium' });
 const statusText: Record<ApiTokenInfo['status'], string> = { active: '● active', expired: '⌛ expired', revoked: '✕ revoked' };
@@ -61,28 +62,16 @@ export function TokenManager() {
         ) : (
           <table className="mt-2 w-full text-left text-sm">
             <caption className="sr-only">Your API tokens</caption>
-            <thead className="border-b border-slate-200 text-xs uppercase tracking-wide text-ink-500">
-              <tr>
-                <th scope="col" className="py-2 pr-3 font-semibold">
-                  Name
-                </th>
-                <th scope="col" className="py-2 pr-3 font-semibold">
-                  Starts with
-                </th>
-                <th scope="col" className="py-2 pr-3 font-semibold">
-                  Status
-                </th>
-                <th scope="col" className="py-2 pr-3 font-semibold">
-                  Expires
-                </th>
-                <th scope="col" className="py-2 pr-3 font-semibold">
-                  Last used
-                </th>
-                <th scope="col" className="py-2 font-semibold">
-                  <span className="sr-only">Actions</span>
-                </th>
-              </tr>
-            </thead>
+            <ListHead
+              columns={[
+                { label: 'Name' },
+                { label: 'Starts with' },
+                { label: 'Status' },
+                { label: 'Expires' },
+                { label: 'Last used' },
+                { label: 'Actions', hidden: true },
+              ]}
+            />
             <tbody>
               {tokens.data.map((t) => (
                 <tr key={t.id} className="border-b border-slate-100">
@@ -114,15 +103,12 @@ export function TokenManager() {
           noValidate
           aria-label="New API token"
           className="grid gap-3"
-          onSubmit={form.handleSubmit((input) =>
-            create.mutate(input, {
-              onSuccess: (r) => {
-                setCreated({ name: r.token.name, secret: r.secret });
-                form.reset();
-              },
-              onError: (e) => applyServerErrors(form.setError, e, ['name', 'expiresInDays']),
-            }),
-          )}
+          onSubmit={submitThrough(form, create, ['name', 'expiresInDays'], {
+            onSuccess: (r) => {
+              setCreated({ name: r.token.name, secret: r.secret });
+              form.reset();
+            },
+          })}
         >
           <FormTextField control={form.control} name="name" label="Name" hint="What will use it, e.g. “nightly export script”." />
           <FormTextField
