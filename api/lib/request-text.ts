@@ -19,6 +19,20 @@ function nulPaths(value: unknown, path: string[], found: string[], depth = 0): v
   }
 }
 
+/** Whether any string (or key) in `value` holds a NUL: a walk that allocates nothing, for the common case of none. */
+function hasNul(value: unknown, depth = 0): boolean {
+  if (typeof value === 'string') return value.includes(NUL);
+  if (value === null || typeof value !== 'object' || depth > 64) return false;
+  if (Array.isArray(value)) {
+    for (const v of value) if (hasNul(v, depth + 1)) return true;
+    return false;
+  }
+  for (const k in value) {
+    if (k.includes(NUL) || hasNul((value as Record<string, unknown>)[k], depth + 1)) return true;
+  }
+  return false;
+}
+
 export const NUL_MESSAGE = 'contains a NUL character (U+0000), which cannot be stored; remove it';
 
 /**
@@ -28,7 +42,8 @@ export const NUL_MESSAGE = 'contains a NUL character (U+0000), which cannot be s
 export const checkRequestText: RequestHandler = (req, _res, next) => {
   const errors: FieldError[] = [];
   const bodyPaths: string[] = [];
-  nulPaths(req.body, [], bodyPaths);
+  // Paths are worked out only when there is something to name.
+  if (hasNul(req.body)) nulPaths(req.body, [], bodyPaths);
   errors.push(...bodyPaths.map((path) => ({ path, message: NUL_MESSAGE })));
   for (const [name, value] of Object.entries(req.query)) {
     const queryPaths: string[] = [];
