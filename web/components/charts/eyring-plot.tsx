@@ -1,9 +1,9 @@
 import { useMemo, type ReactNode } from 'react';
-import { Axis, GlyphSeries, LineSeries } from '@visx/xychart';
+import { GlyphSeries, LineSeries } from '@visx/xychart';
 import { fixed, sig } from '../../lib/format';
 import { ChartFigure, BandArea, ChartFrame, InverseKelvinAxis, SnapTooltip } from './chart-frame';
-import { ErrorBars, noGlyph, PointMarks, VerticalMark, type PointMark } from './chart-layers';
-import { axisLabelProps, chartColors, paddedExtent, tickLabelProps } from './chart-theme';
+import { ChartAxis, ErrorBars, noGlyph, PointMarks, VerticalMark, type PointMark } from './chart-layers';
+import { chartColors, paddedExtent } from './chart-theme';
 import { useElementWidth } from './use-element-width';
 import { CELSIUS_OFFSET_K as CELSIUS_OFFSET } from '../../../api/science/quantities';
 
@@ -257,22 +257,18 @@ export function EyringPlot({
           )}
           {mark && <VerticalMark x={invT(mark.kelvin)} label={mark.label} />}
           <InverseKelvinAxis />
-          <Axis
+          <ChartAxis
             orientation="left"
             numTicks={6}
             label="ln r   (r = [A]/[B])"
             labelOffset={34}
-            labelProps={axisLabelProps}
-            tickLabelProps={tickLabelProps}
             tickFormat={(v) => fixed(Number(v), 1)}
           />
-          <Axis
+          <ChartAxis
             orientation="top"
             tickValues={topTicks}
             label="T (°C)"
             labelOffset={10}
-            labelProps={axisLabelProps}
-            tickLabelProps={tickLabelProps}
             tickFormat={(v) => fixed(1000 / Number(v) - CELSIUS_OFFSET, 0)}
           />
           <SnapTooltip<Datum> showDatumGlyph={false}>

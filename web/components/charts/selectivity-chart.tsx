@@ -1,9 +1,9 @@
 import { useCallback, useMemo } from 'react';
-import { Axis, GlyphSeries, LineSeries } from '@visx/xychart';
+import { GlyphSeries, LineSeries } from '@visx/xychart';
 import { enantiomericRatio, fixed, percent } from '../../lib/format';
 import { ChartFigure, BandArea, ChartFrame, SnapTooltip, TemperatureHeading } from './chart-frame';
-import { CelsiusAxis, HorizontalRule, noGlyph, PointMarks, VerticalMark, type PointMark } from './chart-layers';
-import { axisLabelProps, chartColors, paddedExtent, tickLabelProps } from './chart-theme';
+import { CelsiusAxis, ChartAxis, HorizontalRule, noGlyph, PointMarks, VerticalMark, type PointMark } from './chart-layers';
+import { chartColors, paddedExtent } from './chart-theme';
 import { LegendItem } from './eyring-plot';
 import { useElementWidth } from './use-element-width';
 import {
@@ -170,13 +170,11 @@ export function SelectivityChart({
           <PointMarks marks={marks} />
           {mark && <VerticalMark x={mark.celsius} label={mark.label} />}
           <CelsiusAxis />
-          <Axis
+          <ChartAxis
             orientation="left"
             numTicks={6}
             label={yLabel}
             labelOffset={30}
-            labelProps={axisLabelProps}
-            tickLabelProps={tickLabelProps}
             tickFormat={(v) => fixed(Number(v), Number.isInteger(Number(v)) ? 0 : 1)}
           />
           <SnapTooltip<Datum>>
