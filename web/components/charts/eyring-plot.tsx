@@ -196,22 +196,22 @@ export function EyringPlot({
           </LegendItem>
           {curveData.length > 1 && (
             <LegendItem label="fitted line">
-              <line x1="1" x2="15" y1="8" y2="8" stroke={chartColors.accent} strokeWidth="2" />
+              <LineSwatch color={chartColors.accent} width="2" />
             </LegendItem>
           )}
           {confidence.length > 1 && (
             <LegendItem label={`${levelText} confidence band (mean line)`}>
-              <rect x="1" y="3" width="14" height="10" fill={chartColors.confidenceFill} fillOpacity="0.35" />
+              <BandSwatch fill={chartColors.confidenceFill} opacity="0.35" />
             </LegendItem>
           )}
           {prediction.length > 1 && (
             <LegendItem label={`${levelText} prediction band (new run)`}>
-              <rect x="1" y="3" width="14" height="10" fill={chartColors.predictionFill} fillOpacity="0.35" />
+              <BandSwatch fill={chartColors.predictionFill} opacity="0.35" />
             </LegendItem>
           )}
           {branchData.length > 0 && (
             <LegendItem label="two-branch fit">
-              <line x1="1" x2="15" y1="8" y2="8" stroke={chartColors.branch} strokeWidth="1.75" strokeDasharray="4 2" />
+              <LineSwatch color={chartColors.branch} width="1.75" dashed />
             </LegendItem>
           )}
         </>
@@ -320,4 +320,14 @@ export function LegendItem({ label, children }: { label: string; children: React
       {label}
     </li>
   );
+}
+
+/** A legend sample of a line: solid, or dashed for a rule or a secondary fit. */
+export function LineSwatch({ color, width, dashed = false }: { color: string; width: string; dashed?: boolean }) {
+  return <line x1="1" x2="15" y1="8" y2="8" stroke={color} strokeWidth={width} strokeDasharray={dashed ? '4 2' : undefined} />;
+}
+
+/** A legend sample of a shaded band. */
+export function BandSwatch({ fill, opacity }: { fill: string; opacity: string }) {
+  return <rect x="1" y="3" width="14" height="10" fill={fill} fillOpacity={opacity} />;
 }
