@@ -2,6 +2,7 @@ import { useForm } from 'react-hook-form';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import { LineChart } from '../../components/charts/line-chart';
 import { SafetyCaution } from '../../components/ui/caution';
+import { VerdictMark } from '../../components/ui/verdict';
 import { Page, Panel, UnreadyPage } from '../../components/ui/page';
 import { paths } from '../../config/paths';
 import { ApiError } from '../../lib/api-client';
@@ -83,15 +84,7 @@ function ComparisonBody({ view }: { view: ComparisonView }) {
                       <td className="py-1 pr-3" data-testid="comparison-meets">
                         {c.specification ? (
                           <>
-                            {c.meetsAtTemperature === 'meets' ? (
-                              <span>
-                                <span aria-hidden="true">✓ </span>meets
-                              </span>
-                            ) : (
-                              <span className="text-caution-700">
-                                <span aria-hidden="true">✗ </span>falls short
-                              </span>
-                            )}{' '}
+                            <VerdictMark meets={c.meetsAtTemperature === 'meets'} />{' '}
                             <span className="text-xs text-ink-600">({specificationText(c.specification, c.measure ?? 'ee')})</span>
                           </>
                         ) : (

@@ -1,7 +1,8 @@
 import type { ReactNode, Ref } from 'react';
-import { AreaSeries, Axis, Grid, Tooltip, XYChart } from '@visx/xychart';
+import { AreaSeries, Grid, Tooltip, XYChart } from '@visx/xychart';
 import { fixed } from '../../lib/format';
-import { axisLabelProps, chartColors, chartTheme, tickLabelProps } from './chart-theme';
+import { chartColors, chartTheme } from './chart-theme';
+import { ChartAxis } from './chart-layers';
 import { kelvinFromCelsius } from '../../../api/science/quantities';
 
 type AxisScale =
@@ -66,16 +67,7 @@ export function BandArea({ dataKey, data, fill, fillOpacity }: { dataKey: string
 
 /** The bottom axis of an Eyring plot: reciprocal temperature, 1000/T. */
 export function InverseKelvinAxis() {
-  return (
-    <Axis
-      orientation="bottom"
-      numTicks={6}
-      label="1000/T (K⁻¹)"
-      labelProps={axisLabelProps}
-      tickLabelProps={tickLabelProps}
-      tickFormat={(v) => fixed(Number(v), 2)}
-    />
-  );
+  return <ChartAxis orientation="bottom" numTicks={6} label="1000/T (K⁻¹)" tickFormat={(v) => fixed(Number(v), 2)} />;
 }
 
 /** A tooltip that snaps to the nearest datum with a dashed vertical crosshair; `children` renders its lines. */

@@ -1,4 +1,4 @@
-import { useContext, useMemo } from 'react';
+import { useContext, useMemo, type ComponentProps } from 'react';
 import { Axis, DataContext } from '@visx/xychart';
 import { fixed } from '../../lib/format';
 import { axisLabelProps, chartColors, chartFont, tickLabelProps } from './chart-theme';
@@ -178,16 +178,12 @@ export function VerticalMark({ x, label, color = chartColors.accentDark }: { x: 
   );
 }
 
+/** An axis in the charts' type and colours; every chart draws its axes through this. */
+export function ChartAxis(props: Omit<ComponentProps<typeof Axis>, 'labelProps' | 'tickLabelProps'>) {
+  return <Axis {...props} labelProps={axisLabelProps} tickLabelProps={tickLabelProps} />;
+}
+
 /** The bottom axis of every chart drawn against temperature in °C. */
 export function CelsiusAxis() {
-  return (
-    <Axis
-      orientation="bottom"
-      numTicks={7}
-      label="Temperature (°C)"
-      labelProps={axisLabelProps}
-      tickLabelProps={tickLabelProps}
-      tickFormat={(v) => fixed(Number(v), 0)}
-    />
-  );
+  return <ChartAxis orientation="bottom" numTicks={7} label="Temperature (°C)" tickFormat={(v) => fixed(Number(v), 0)} />;
 }

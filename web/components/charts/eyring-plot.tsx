@@ -1,9 +1,9 @@
 import { useMemo, type ReactNode } from 'react';
-import { Axis, GlyphSeries, LineSeries } from '@visx/xychart';
+import { GlyphSeries, LineSeries } from '@visx/xychart';
 import { fixed, sig } from '../../lib/format';
 import { ChartFigure, BandArea, ChartFrame, InverseKelvinAxis, SnapTooltip } from './chart-frame';
-import { ErrorBars, noGlyph, PointMarks, VerticalMark, type PointMark } from './chart-layers';
-import { axisLabelProps, chartColors, paddedExtent, tickLabelProps } from './chart-theme';
+import { ChartAxis, ErrorBars, noGlyph, PointMarks, VerticalMark, type PointMark } from './chart-layers';
+import { chartColors, paddedExtent } from './chart-theme';
 import { useElementWidth } from './use-element-width';
 import { CELSIUS_OFFSET_K as CELSIUS_OFFSET } from '../../../api/science/quantities';
 
@@ -196,22 +196,22 @@ export function EyringPlot({
           </LegendItem>
           {curveData.length > 1 && (
             <LegendItem label="fitted line">
-              <line x1="1" x2="15" y1="8" y2="8" stroke={chartColors.accent} strokeWidth="2" />
+              <LineSwatch color={chartColors.accent} width="2" />
             </LegendItem>
           )}
           {confidence.length > 1 && (
             <LegendItem label={`${levelText} confidence band (mean line)`}>
-              <rect x="1" y="3" width="14" height="10" fill={chartColors.confidenceFill} fillOpacity="0.35" />
+              <BandSwatch fill={chartColors.confidenceFill} opacity="0.35" />
             </LegendItem>
           )}
           {prediction.length > 1 && (
             <LegendItem label={`${levelText} prediction band (new run)`}>
-              <rect x="1" y="3" width="14" height="10" fill={chartColors.predictionFill} fillOpacity="0.35" />
+              <BandSwatch fill={chartColors.predictionFill} opacity="0.35" />
             </LegendItem>
           )}
           {branchData.length > 0 && (
             <LegendItem label="two-branch fit">
-              <line x1="1" x2="15" y1="8" y2="8" stroke={chartColors.branch} strokeWidth="1.75" strokeDasharray="4 2" />
+              <LineSwatch color={chartColors.branch} width="1.75" dashed />
             </LegendItem>
           )}
         </>
@@ -257,22 +257,18 @@ export function EyringPlot({
           )}
           {mark && <VerticalMark x={invT(mark.kelvin)} label={mark.label} />}
           <InverseKelvinAxis />
-          <Axis
+          <ChartAxis
             orientation="left"
             numTicks={6}
             label="ln r   (r = [A]/[B])"
             labelOffset={34}
-            labelProps={axisLabelProps}
-            tickLabelProps={tickLabelProps}
             tickFormat={(v) => fixed(Number(v), 1)}
           />
-          <Axis
+          <ChartAxis
             orientation="top"
             tickValues={topTicks}
             label="T (°C)"
             labelOffset={10}
-            labelProps={axisLabelProps}
-            tickLabelProps={tickLabelProps}
             tickFormat={(v) => fixed(1000 / Number(v) - CELSIUS_OFFSET, 0)}
           />
           <SnapTooltip<Datum> showDatumGlyph={false}>
@@ -324,4 +320,14 @@ export function LegendItem({ label, children }: { label: string; children: React
       {label}
     </li>
   );
+}
+
+/** A legend sample of a line: solid, or dashed for a rule or a secondary fit. */
+export function LineSwatch({ color, width, dashed = false }: { color: string; width: string; dashed?: boolean }) {
+  return <line x1="1" x2="15" y1="8" y2="8" stroke={color} strokeWidth={width} strokeDasharray={dashed ? '4 2' : undefined} />;
+}
+
+/** A legend sample of a shaded band. */
+export function BandSwatch({ fill, opacity }: { fill: string; opacity: string }) {
+  return <rect x="1" y="3" width="14" height="10" fill={fill} fillOpacity={opacity} />;
 }

@@ -1,8 +1,8 @@
 import { useMemo } from 'react';
-import { Axis, GlyphSeries, LineSeries, type GlyphProps } from '@visx/xychart';
+import { GlyphSeries, LineSeries, type GlyphProps } from '@visx/xychart';
 import { ChartFigure, BandArea, ChartFrame, SnapTooltip, TemperatureHeading, valueScale } from './chart-frame';
-import { CelsiusAxis } from './chart-layers';
-import { axisLabelProps, chartColors, paddedExtent, tickLabelProps } from './chart-theme';
+import { CelsiusAxis, ChartAxis } from './chart-layers';
+import { chartColors, paddedExtent } from './chart-theme';
 import { LegendItem } from './eyring-plot';
 import { useElementWidth } from './use-element-width';
 
@@ -203,14 +203,12 @@ export function LineChart({
             );
           })}
           <CelsiusAxis />
-          <Axis
+          <ChartAxis
             orientation="left"
             numTicks={5}
             tickValues={yTicks ? yTicks(yDomain) : yScale === 'log' ? logTicks(yDomain) : undefined}
             label={yLabel}
             labelOffset={42}
-            labelProps={axisLabelProps}
-            tickLabelProps={tickLabelProps}
             tickFormat={(v) => formatY(Number(v))}
           />
           <SnapTooltip<Datum>>

@@ -1,10 +1,10 @@
 import { useCallback, useMemo } from 'react';
-import { Axis, GlyphSeries, LineSeries } from '@visx/xychart';
+import { GlyphSeries, LineSeries } from '@visx/xychart';
 import { enantiomericRatio, fixed, percent } from '../../lib/format';
 import { ChartFigure, BandArea, ChartFrame, SnapTooltip, TemperatureHeading } from './chart-frame';
-import { CelsiusAxis, HorizontalRule, noGlyph, PointMarks, VerticalMark, type PointMark } from './chart-layers';
-import { axisLabelProps, chartColors, paddedExtent, tickLabelProps } from './chart-theme';
-import { LegendItem } from './eyring-plot';
+import { CelsiusAxis, ChartAxis, HorizontalRule, noGlyph, PointMarks, VerticalMark, type PointMark } from './chart-layers';
+import { chartColors, paddedExtent } from './chart-theme';
+import { BandSwatch, LegendItem, LineSwatch } from './eyring-plot';
 import { useElementWidth } from './use-element-width';
 import {
   axisText,
@@ -128,11 +128,11 @@ export function SelectivityChart({
       legend={
         <>
           <LegendItem label={curveLabel}>
-            <line x1="1" x2="15" y1="8" y2="8" stroke={chartColors.accent} strokeWidth="2" />
+            <LineSwatch color={chartColors.accent} width="2" />
           </LegendItem>
           {band.length > 1 && (
             <LegendItem label={bandLabel ?? 'band'}>
-              <rect x="1" y="3" width="14" height="10" fill={chartColors.predictionFill} fillOpacity="0.45" />
+              <BandSwatch fill={chartColors.predictionFill} opacity="0.45" />
             </LegendItem>
           )}
           {pointData.length > 0 && (
@@ -142,7 +142,7 @@ export function SelectivityChart({
           )}
           {spec != null && (
             <LegendItem label="specification">
-              <line x1="1" x2="15" y1="8" y2="8" stroke={chartColors.caution} strokeWidth="1.5" strokeDasharray="4 2" />
+              <LineSwatch color={chartColors.caution} width="1.5" dashed />
             </LegendItem>
           )}
         </>
@@ -170,13 +170,11 @@ export function SelectivityChart({
           <PointMarks marks={marks} />
           {mark && <VerticalMark x={mark.celsius} label={mark.label} />}
           <CelsiusAxis />
-          <Axis
+          <ChartAxis
             orientation="left"
             numTicks={6}
             label={yLabel}
             labelOffset={30}
-            labelProps={axisLabelProps}
-            tickLabelProps={tickLabelProps}
             tickFormat={(v) => fixed(Number(v), Number.isInteger(Number(v)) ? 0 : 1)}
           />
           <SnapTooltip<Datum>>

@@ -36,13 +36,18 @@ export function TextField(props: {
           {props.hint}
         </p>
       )}
-      {props.error && (
-        <p id={`${id}-error`} className="mt-1 text-xs font-medium text-rose-700">
-          <span aria-hidden="true">✕ </span>
-          {props.error}
-        </p>
-      )}
+      {props.error && <FieldErrorLine id={`${id}-error`} message={props.error} />}
     </div>
+  );
+}
+
+/** A field's error line; the cross is decorative, the text is what the field's aria-describedby points at. */
+export function FieldErrorLine(props: { id: string; message: string; className?: string }) {
+  return (
+    <p id={props.id} className={props.className ?? 'mt-1 text-xs font-medium text-rose-700'}>
+      <span aria-hidden="true">✕ </span>
+      {props.message}
+    </p>
   );
 }
 
@@ -79,12 +84,7 @@ export function SelectField<T extends string>(props: {
           </option>
         ))}
       </select>
-      {props.error && (
-        <p id={`${id}-error`} className="mt-1 text-xs font-medium text-rose-700">
-          <span aria-hidden="true">✕ </span>
-          {props.error}
-        </p>
-      )}
+      {props.error && <FieldErrorLine id={`${id}-error`} message={props.error} />}
     </div>
   );
 }

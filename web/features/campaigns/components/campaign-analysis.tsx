@@ -4,6 +4,7 @@ import { TableHead } from '../../../components/ui/table-head';
 import { EyringPlot, type EyringCurvePoint, type EyringPlotPoint } from '../../../components/charts/eyring-plot';
 import { SelectivityChart, type SelectivityCurvePoint, type SelectivityMeasuredPoint } from '../../../components/charts/selectivity-chart';
 import { SignConvention } from '../../../components/ui/sign-convention';
+import { VerdictMark } from '../../../components/ui/verdict';
 import { fixed, measureColumn, percent, withUncertainty, lnRatioOf, lnRatioRange } from '../../../lib/format';
 import { ChartControls, parseSpec } from '../../../components/charts/chart-controls';
 import { FitWarnings, RunNote, TwoBranchBox, branchLines } from '../../../components/fit/fit-diagnostics';
@@ -355,15 +356,7 @@ function ResidualDiagnostics({
                 </td>
                 {specLn !== null && (
                   <td className="px-2 py-0.5 text-left">
-                    {verdictOf(p.lnRatio, specLn) === 'meets' ? (
-                      <span>
-                        <span aria-hidden="true">✓ </span>meets
-                      </span>
-                    ) : (
-                      <span className="text-caution-700">
-                        <span aria-hidden="true">✗ </span>falls short
-                      </span>
-                    )}
+                    <VerdictMark meets={verdictOf(p.lnRatio, specLn) === 'meets'} />
                   </td>
                 )}
               </tr>

@@ -1,3 +1,5 @@
+import { FieldErrorLine } from '../../../components/ui/form';
+
 /** A small labelled select of the upload steps, its error (if any) below it. */
 export function CompactSelect<T extends string>({
   id,
@@ -37,12 +39,7 @@ export function CompactSelect<T extends string>({
           </option>
         ))}
       </select>
-      {error && (
-        <p id={`${id}-err`} className="text-xs text-rose-700">
-          <span aria-hidden="true">✕ </span>
-          {error}
-        </p>
-      )}
+      {error && <FieldErrorLine id={`${id}-err`} message={error} className="text-xs text-rose-700" />}
     </div>
   );
 }

@@ -1,7 +1,7 @@
 import { useId } from 'react';
 import { useForm } from 'react-hook-form';
 import { measurementExclusionSchema } from '../../../../api/features/campaigns/schemas';
-import { Button } from '../../../components/ui/form';
+import { Button, FieldErrorLine } from '../../../components/ui/form';
 import { applyServerErrors, checkedResolver, errorAt, FORM_ERROR } from '../../../lib/form';
 
 const resolver = checkedResolver(({ reason }: { reason: string }) => {
@@ -48,12 +48,7 @@ export function ExclusionForm({
           placeholder="e.g. internal probe failed; bath drifted 4 K"
           className={`w-96 rounded border px-2 py-1 text-sm ${error ? 'border-rose-600 bg-rose-50' : 'border-slate-300 bg-white'}`}
         />
-        {error && (
-          <p id={`${id}-err`} className="text-xs text-rose-700">
-            <span aria-hidden="true">✕ </span>
-            {error}
-          </p>
-        )}
+        {error && <FieldErrorLine id={`${id}-err`} message={error} className="text-xs text-rose-700" />}
       </div>
       <div className="flex gap-2 pt-4">
         <Button type="submit" variant="primary" disabled={pending}>

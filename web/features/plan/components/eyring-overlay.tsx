@@ -1,7 +1,8 @@
 import { useMemo } from 'react';
-import { Axis, GlyphSeries, LineSeries } from '@visx/xychart';
+import { GlyphSeries, LineSeries } from '@visx/xychart';
 import { ChartFigure, BandArea, ChartFrame, InverseKelvinAxis } from '../../../components/charts/chart-frame';
-import { axisLabelProps, chartColors, paddedExtent, tickLabelProps } from '../../../components/charts/chart-theme';
+import { chartColors, paddedExtent } from '../../../components/charts/chart-theme';
+import { ChartAxis } from '../../../components/charts/chart-layers';
 import { useElementWidth } from '../../../components/charts/use-element-width';
 import { fixed } from '../../../lib/format';
 import type { ComparisonView } from '../api/plan';
@@ -128,15 +129,7 @@ export function EyringOverlay({ result }: { result: ComparisonView['result'] }) 
             );
           })}
           <InverseKelvinAxis />
-          <Axis
-            orientation="left"
-            numTicks={5}
-            label="ln r"
-            labelOffset={36}
-            labelProps={axisLabelProps}
-            tickLabelProps={tickLabelProps}
-            tickFormat={(v) => fixed(Number(v), 1)}
-          />
+          <ChartAxis orientation="left" numTicks={5} label="ln r" labelOffset={36} tickFormat={(v) => fixed(Number(v), 1)} />
         </ChartFrame>
       )}
     </ChartFigure>

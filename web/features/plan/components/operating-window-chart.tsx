@@ -1,8 +1,8 @@
 import { useId, useMemo } from 'react';
-import { Axis, LineSeries } from '@visx/xychart';
+import { LineSeries } from '@visx/xychart';
 import { ChartFrame, valueScale } from '../../../components/charts/chart-frame';
-import { CelsiusAxis, HorizontalRule, VerticalMark, usePlotArea } from '../../../components/charts/chart-layers';
-import { axisLabelProps, chartColors, chartFont, paddedExtent, tickLabelProps } from '../../../components/charts/chart-theme';
+import { CelsiusAxis, ChartAxis, HorizontalRule, VerticalMark, usePlotArea } from '../../../components/charts/chart-layers';
+import { chartColors, chartFont, paddedExtent } from '../../../components/charts/chart-theme';
 import { useElementWidth } from '../../../components/charts/use-element-width';
 import { fixed, sig } from '../../../lib/format';
 import type { PlanResult } from '../api/plan';
@@ -173,15 +173,7 @@ function WindowPanel({
             {rule && <HorizontalRule y={rule.y} label={rule.label} />}
             {recommended !== null && <VerticalMark x={recommended} label={`▼ recommended ${fixed(recommended, 1)} °C`} />}
             <CelsiusAxis />
-            <Axis
-              orientation="left"
-              numTicks={4}
-              label={yLabel}
-              labelOffset={40}
-              labelProps={axisLabelProps}
-              tickLabelProps={tickLabelProps}
-              tickFormat={(v) => formatY(Number(v))}
-            />
+            <ChartAxis orientation="left" numTicks={4} label={yLabel} labelOffset={40} tickFormat={(v) => formatY(Number(v))} />
           </ChartFrame>
         )}
       </div>
