@@ -7,8 +7,16 @@
  * User text that a spreadsheet could evaluate is neutralised (see `safeText`).
  */
 import ExcelJS from 'exceljs';
-import { numFmt, ratioOf, ratioRange, readSelectivity, safeFileName, safeText } from './report-format';
-import { buildReportModel, runMeetsSpecification, type ReportData, type ReportMeta, type ReportModel } from './report-model';
+import { numFmt, ratioOf, ratioRange, safeFileName, safeText } from './report-format';
+import {
+  buildReportModel,
+  clean,
+  measurementRunCells,
+  runMeetsSpecification,
+  type ReportData,
+  type ReportMeta,
+  type ReportModel,
+} from './report-model';
 import { renderReportChartsAsync, type ReportCharts } from './report-charts';
 
 export type { ReportData, ReportMeta, ReportSpecification } from './report-model';
@@ -17,9 +25,6 @@ const HEADER_FILL: ExcelJS.Fill = { type: 'pattern', pattern: 'solid', fgColor: 
 const SECTION_FILL: ExcelJS.Fill = { type: 'pattern', pattern: 'solid', fgColor: { argb: 'FFECFDFB' } };
 const TIME_FMT = 'yyyy-mm-dd hh:mm';
 const TEXT_FMT = '@';
-
-/** Drop the last-bit noise of a kelvin round trip: −40.00000000000003 → −40. */
-const clean = (x: number) => Math.round(x * 1e9) / 1e9;
 
 type Cell = string | number | boolean | Date | null;
 
@@ -236,29 +241,9 @@ function addMeasurements(wb: ExcelJS.Workbook, model: ReportModel) {
   ];
   function* rows() {
     for (let i = 0; i < data.measurements.length; i++) {
-      const m = data.measurements[i]!;
       const p = data.analysis.points[i]!;
-      const ratio = Math.exp(p.lnRatio);
-      const reading = readSelectivity(ratio, d.ratio);
       yield [
-        user(m.sampleId),
-        user(m.replicateLabel),
-        clean(p.celsius),
-        m.temperatureK,
-        m.measure,
-        m.value,
-        m.valueB,
-        m.isLowerBound ? 'yes' : 'no',
-        m.uncertainty,
-        ratio,
-        ...(labels.excess ? [reading.excessPercent] : []),
-        reading.majorPercent,
-        p.lnRatio,
-        p.status,
-        user(m.excluded ? (m.excludedReason ?? 'no reason given') : null),
-        m.conversionPercent,
-        m.reactionTimeS === null ? null : m.reactionTimeS / 3600,
-        user(m.notes),
+        ...measurementRunCells(model, i, user),
         ...(specLn !== null ? [runMeetsSpecification(p.lnRatio, specLn)] : []),
         ...(fit ? residualCells(fit.residuals[i]) : []),
       ] as (Cell | UserText)[];
