@@ -137,10 +137,7 @@ function addSummary(wb: ExcelJS.Workbook, model: ReportModel) {
   for (const line of model.summary) {
     if (line.section !== section) {
       section = line.section;
-      const head = ws.getRow(r++);
-      head.getCell(1).value = section;
-      head.font = { bold: true };
-      for (let c = 1; c <= 6; c++) head.getCell(c).fill = SECTION_FILL;
+      sectionTitle(ws, r++, section, 6);
     }
     const row = ws.getRow(r);
     row.getCell(1).value = line.label;
@@ -376,12 +373,17 @@ function addForecast(wb: ExcelJS.Workbook, model: ReportModel) {
 
 const MEASURE_WORDS: Record<string, string> = { ee: '% ee', er: '% major isomer (er)', percentA: '% major isomer', dr: 'dr (r:1)' };
 
+/** A bold section title in row `r`, its first `width` cells on the section fill. */
+function sectionTitle(ws: ExcelJS.Worksheet, r: number, title: Cell | UserText, width: number) {
+  const row = ws.getRow(r);
+  setCell(row.getCell(1), title);
+  row.font = { bold: true };
+  for (let c = 1; c <= width; c++) row.getCell(c).fill = SECTION_FILL;
+}
+
 /** Write a section title and label/value rows from `r`; returns the next free row. */
 function keyValues(ws: ExcelJS.Worksheet, r: number, title: string, lines: [string, Cell | UserText, string?, string?][]): number {
-  const head = ws.getRow(r++);
-  head.getCell(1).value = title;
-  head.font = { bold: true };
-  for (let c = 1; c <= 3; c++) head.getCell(c).fill = SECTION_FILL;
+  sectionTitle(ws, r++, title, 3);
   for (const [label, value, unit, fmt] of lines) {
     const row = ws.getRow(r++);
     row.getCell(1).value = label;
@@ -519,15 +521,14 @@ function addComparisons(wb: ExcelJS.Workbook, model: ReportModel) {
   ws.getCell('A1').font = { bold: true };
   let r = 2;
   for (const c of list) {
-    const title = ws.getRow(r++);
-    setCell(
-      title.getCell(1),
+    sectionTitle(
+      ws,
+      r++,
       user(
         `${c.name}: at ${c.temperatureCelsius.toFixed(1).replace('-', '−')} °C, values in ${MEASURE_WORDS[c.valueMeasure] ?? c.valueMeasure}`,
       ),
+      9,
     );
-    title.font = { bold: true };
-    for (let k = 1; k <= 9; k++) title.getCell(k).fill = SECTION_FILL;
     r = tableHead(ws, r, [
       'Campaign',
       'ΔΔH‡ (kJ/mol)',
