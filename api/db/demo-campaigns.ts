@@ -181,6 +181,9 @@ function merlinLnRatio(temperatureK: number): number {
   return MERLIN_LN_R_AT_T_INV + (ddH / R) * (1 / temperatureK - 1 / MERLIN_T_INV_K);
 }
 
+/** The two enantiomers every hydrogenation campaign of the demo project names. */
+const HYDROGENATION_PRODUCTS = { productNameA: '(S)-KL-7702-A', productNameB: '(R)-KL-7702-A' };
+
 const REACTION =
   'Invented: asymmetric hydrogenation of the enamide KL-7702-E (0.5 M, 5 bar H₂, 0.5 mol % rhodium precatalyst) to the (S)-amide KL-7702-A.';
 
@@ -189,8 +192,7 @@ export const DEMO_CAMPAIGNS: DemoCampaign[] = [
     id: '6d1f0c4e-2a51-4c0e-9d7b-00000c7702a1',
     title: 'Skylark ligand in methanol: temperature screen',
     reactionDescription: `${REACTION} Ligand: the Skylark ligand (invented); solvent methanol.`,
-    productNameA: '(S)-KL-7702-A',
-    productNameB: '(R)-KL-7702-A',
+    ...HYDROGENATION_PRODUCTS,
     assayMethod: 'chiral-hplc',
     defaultUncertainty: 0.3,
     status: 'completed',
@@ -209,8 +211,7 @@ export const DEMO_CAMPAIGNS: DemoCampaign[] = [
     id: '6d1f0c4e-2a51-4c0e-9d7b-00000c7702b2',
     title: 'Merlin ligand in toluene: temperature screen',
     reactionDescription: `${REACTION} Ligand: the Merlin ligand (invented); solvent toluene.`,
-    productNameA: '(S)-KL-7702-A',
-    productNameB: '(R)-KL-7702-A',
+    ...HYDROGENATION_PRODUCTS,
     assayMethod: 'chiral-sfc',
     defaultUncertainty: 0.2,
     status: 'active',
@@ -229,8 +230,7 @@ export const DEMO_CAMPAIGNS: DemoCampaign[] = [
     id: '6d1f0c4e-2a51-4c0e-9d7b-00000c7702c3',
     title: 'Skylark ligand in 2-MeTHF: low-temperature screen',
     reactionDescription: `${REACTION} Ligand: the Skylark ligand (invented); solvent 2-methyltetrahydrofuran.`,
-    productNameA: '(S)-KL-7702-A',
-    productNameB: '(R)-KL-7702-A',
+    ...HYDROGENATION_PRODUCTS,
     assayMethod: 'chiral-hplc',
     defaultUncertainty: 0.3,
     status: 'active',

@@ -5,7 +5,7 @@ import { authorizeProject, projectIdParam } from '../projects/policy';
 import { historyCsv, readHistory } from '../audit/history';
 import { compareCampaigns } from './analysis-comparison';
 import { comparisonQuerySchema } from './analysis-schemas';
-import { actorOf, etag, safeFileName } from './route-helpers';
+import { actorOf, etag, safeFileName, sendDownload } from './route-helpers';
 import { historyQuerySchema } from './routes';
 import { campaignCreateSchema } from './schemas';
 import { createCampaign, listCampaigns } from './service';
@@ -38,12 +38,7 @@ export function projectCampaignsRouter(deps: { knex: Knex }): Router {
   router.get('/history.csv', byProject('owner'), async (req, res) => {
     const project = await knex('projects').where({ id: req.project!.id }).first('name');
     const csv = await historyCsv(knex, { projectId: req.project!.id });
-    res
-      .status(200)
-      .type('text/csv; charset=utf-8')
-      .attachment(`${safeFileName(String(project?.name ?? 'project'))}-history.csv`)
-      .set('Cache-Control', 'no-store')
-      .send(csv);
+    sendDownload(res, 'csv', `${safeFileName(String(project?.name ?? 'project'))}-history.csv`, csv);
   });
 
   router.get('/comparison', byProject('viewer'), async (req, res) => {

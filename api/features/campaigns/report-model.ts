@@ -118,6 +118,41 @@ export function runMeetsSpecification(lnRatio: number, specLn: number | null): s
   return lnRatio >= specLn ? 'meets' : 'falls short';
 }
 
+/** Drop the last-bit noise of a kelvin round trip: −40.00000000000003 → −40. */
+export const clean = (x: number) => Math.round(x * 1e9) / 1e9;
+
+/**
+ * One run's cells as the measurement tables list them (workbook sheet and CSV share the order).
+ * `text` receives each field the user typed, so the workbook can mark it as text; the CSV passes it through.
+ */
+export function measurementRunCells<T>(model: ReportModel, i: number, text: (value: string | null) => T): (T | string | number | null)[] {
+  const { data, labels, decimals: d } = model;
+  const m = data.measurements[i]!;
+  const p = data.analysis.points[i]!;
+  const ratio = Math.exp(p.lnRatio);
+  const reading = readSelectivity(ratio, d.ratio);
+  return [
+    text(m.sampleId),
+    text(m.replicateLabel),
+    clean(p.celsius),
+    m.temperatureK,
+    m.measure,
+    m.value,
+    m.valueB,
+    m.isLowerBound ? 'yes' : 'no',
+    m.uncertainty,
+    ratio,
+    ...(labels.excess ? [reading.excessPercent] : []),
+    reading.majorPercent,
+    p.lnRatio,
+    p.status,
+    text(m.excluded ? (m.excludedReason ?? 'no reason given') : null),
+    m.conversionPercent,
+    m.reactionTimeS === null ? null : m.reactionTimeS / 3600,
+    text(m.notes),
+  ];
+}
+
 export interface ReportModel {
   data: ReportData;
   meta: ReportMeta;

@@ -15,8 +15,16 @@ import { loadComparisonReportData, loadPlanReportData, type ComparisonReportData
 import { loadReportData } from './report-data';
 import { buildCampaignReport, reportFileName } from './report';
 import { renderReportChartsAsync, type ReportCharts } from './report-charts';
-import { fixed, readSelectivity, safeText } from './report-format';
-import { buildReportModel, summaryLineText, type ReportData, type ReportMeta, type ReportModel } from './report-model';
+import { fixed, safeText } from './report-format';
+import {
+  buildReportModel,
+  clean,
+  measurementRunCells,
+  summaryLineText,
+  type ReportData,
+  type ReportMeta,
+  type ReportModel,
+} from './report-model';
 import { buildCampaignReportPdf } from './report-pdf';
 
 const atField = z.coerce
@@ -128,8 +136,6 @@ function csv(header: string[], rows: (string | number | null)[][], decimals: (nu
   return `\uFEFF${lines.join('\r\n')}\r\n`;
 }
 
-const clean = (x: number) => Math.round(x * 1e9) / 1e9;
-
 export function measurementsCsv(model: ReportModel): string {
   const { data, labels, decimals: d } = model;
   const header = [
@@ -152,30 +158,7 @@ export function measurementsCsv(model: ReportModel): string {
     'time (h)',
     'notes',
   ];
-  const rows = data.measurements.map((m, i) => {
-    const p = data.analysis.points[i]!;
-    const reading = readSelectivity(Math.exp(p.lnRatio), d.ratio);
-    return [
-      m.sampleId,
-      m.replicateLabel,
-      clean(p.celsius),
-      m.temperatureK,
-      m.measure,
-      m.value,
-      m.valueB,
-      m.isLowerBound ? 'yes' : 'no',
-      m.uncertainty,
-      Math.exp(p.lnRatio),
-      ...(labels.excess ? [reading.excessPercent] : []),
-      reading.majorPercent,
-      p.lnRatio,
-      p.status,
-      m.excluded ? (m.excludedReason ?? 'no reason given') : null,
-      m.conversionPercent,
-      m.reactionTimeS === null ? null : m.reactionTimeS / 3600,
-      m.notes,
-    ];
-  });
+  const rows = data.measurements.map((_, i) => measurementRunCells(model, i, (text) => text));
   const decimals = [
     undefined,
     undefined,

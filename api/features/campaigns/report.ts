@@ -7,8 +7,16 @@
  * User text that a spreadsheet could evaluate is neutralised (see `safeText`).
  */
 import ExcelJS from 'exceljs';
-import { numFmt, ratioOf, ratioRange, readSelectivity, safeFileName, safeText } from './report-format';
-import { buildReportModel, runMeetsSpecification, type ReportData, type ReportMeta, type ReportModel } from './report-model';
+import { numFmt, ratioOf, ratioRange, safeFileName, safeText } from './report-format';
+import {
+  buildReportModel,
+  clean,
+  measurementRunCells,
+  runMeetsSpecification,
+  type ReportData,
+  type ReportMeta,
+  type ReportModel,
+} from './report-model';
 import { renderReportChartsAsync, type ReportCharts } from './report-charts';
 
 export type { ReportData, ReportMeta, ReportSpecification } from './report-model';
@@ -17,9 +25,6 @@ const HEADER_FILL: ExcelJS.Fill = { type: 'pattern', pattern: 'solid', fgColor: 
 const SECTION_FILL: ExcelJS.Fill = { type: 'pattern', pattern: 'solid', fgColor: { argb: 'FFECFDFB' } };
 const TIME_FMT = 'yyyy-mm-dd hh:mm';
 const TEXT_FMT = '@';
-
-/** Drop the last-bit noise of a kelvin round trip: −40.00000000000003 → −40. */
-const clean = (x: number) => Math.round(x * 1e9) / 1e9;
 
 type Cell = string | number | boolean | Date | null;
 
@@ -132,10 +137,7 @@ function addSummary(wb: ExcelJS.Workbook, model: ReportModel) {
   for (const line of model.summary) {
     if (line.section !== section) {
       section = line.section;
-      const head = ws.getRow(r++);
-      head.getCell(1).value = section;
-      head.font = { bold: true };
-      for (let c = 1; c <= 6; c++) head.getCell(c).fill = SECTION_FILL;
+      sectionTitle(ws, r++, section, 6);
     }
     const row = ws.getRow(r);
     row.getCell(1).value = line.label;
@@ -236,29 +238,9 @@ function addMeasurements(wb: ExcelJS.Workbook, model: ReportModel) {
   ];
   function* rows() {
     for (let i = 0; i < data.measurements.length; i++) {
-      const m = data.measurements[i]!;
       const p = data.analysis.points[i]!;
-      const ratio = Math.exp(p.lnRatio);
-      const reading = readSelectivity(ratio, d.ratio);
       yield [
-        user(m.sampleId),
-        user(m.replicateLabel),
-        clean(p.celsius),
-        m.temperatureK,
-        m.measure,
-        m.value,
-        m.valueB,
-        m.isLowerBound ? 'yes' : 'no',
-        m.uncertainty,
-        ratio,
-        ...(labels.excess ? [reading.excessPercent] : []),
-        reading.majorPercent,
-        p.lnRatio,
-        p.status,
-        user(m.excluded ? (m.excludedReason ?? 'no reason given') : null),
-        m.conversionPercent,
-        m.reactionTimeS === null ? null : m.reactionTimeS / 3600,
-        user(m.notes),
+        ...measurementRunCells(model, i, user),
         ...(specLn !== null ? [runMeetsSpecification(p.lnRatio, specLn)] : []),
         ...(fit ? residualCells(fit.residuals[i]) : []),
       ] as (Cell | UserText)[];
@@ -391,12 +373,17 @@ function addForecast(wb: ExcelJS.Workbook, model: ReportModel) {
 
 const MEASURE_WORDS: Record<string, string> = { ee: '% ee', er: '% major isomer (er)', percentA: '% major isomer', dr: 'dr (r:1)' };
 
+/** A bold section title in row `r`, its first `width` cells on the section fill. */
+function sectionTitle(ws: ExcelJS.Worksheet, r: number, title: Cell | UserText, width: number) {
+  const row = ws.getRow(r);
+  setCell(row.getCell(1), title);
+  row.font = { bold: true };
+  for (let c = 1; c <= width; c++) row.getCell(c).fill = SECTION_FILL;
+}
+
 /** Write a section title and label/value rows from `r`; returns the next free row. */
 function keyValues(ws: ExcelJS.Worksheet, r: number, title: string, lines: [string, Cell | UserText, string?, string?][]): number {
-  const head = ws.getRow(r++);
-  head.getCell(1).value = title;
-  head.font = { bold: true };
-  for (let c = 1; c <= 3; c++) head.getCell(c).fill = SECTION_FILL;
+  sectionTitle(ws, r++, title, 3);
   for (const [label, value, unit, fmt] of lines) {
     const row = ws.getRow(r++);
     row.getCell(1).value = label;
@@ -534,15 +521,14 @@ function addComparisons(wb: ExcelJS.Workbook, model: ReportModel) {
   ws.getCell('A1').font = { bold: true };
   let r = 2;
   for (const c of list) {
-    const title = ws.getRow(r++);
-    setCell(
-      title.getCell(1),
+    sectionTitle(
+      ws,
+      r++,
       user(
         `${c.name}: at ${c.temperatureCelsius.toFixed(1).replace('-', '−')} °C, values in ${MEASURE_WORDS[c.valueMeasure] ?? c.valueMeasure}`,
       ),
+      9,
     );
-    title.font = { bold: true };
-    for (let k = 1; k <= 9; k++) title.getCell(k).fill = SECTION_FILL;
     r = tableHead(ws, r, [
       'Campaign',
       'ΔΔH‡ (kJ/mol)',

@@ -1,8 +1,8 @@
 /**
  * What the campaign-area routers share: the version a write names (body, `?version=` or If-Match),
- * the acting member, the ETag of a version and a file name safe in a download.
+ * the acting member, the ETag of a version, a file name safe in a download and the download itself.
  */
-import type { Request } from 'express';
+import type { Request, Response } from 'express';
 import { z } from 'zod';
 import { BadRequestError } from '../../lib/errors';
 import { parseBody } from '../../lib/validation';
@@ -22,6 +22,18 @@ export const safeFileName = (name: string) =>
     .replace(/[^\p{L}\p{N}._-]+/gu, '-')
     .replace(/^[.-]+/, '')
     .slice(0, 120) || 'file';
+
+/** The media types of the files the campaign area hands out. */
+const DOWNLOAD_TYPES = {
+  csv: 'text/csv; charset=utf-8',
+  pdf: 'application/pdf',
+  xlsx: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
+} as const;
+
+/** Sends a file to save (never cached, since it may hold project data): 200, its type, its name and its body. */
+export function sendDownload(res: Response, type: keyof typeof DOWNLOAD_TYPES, fileName: string, body: string | Buffer) {
+  res.status(200).type(DOWNLOAD_TYPES[type]).attachment(fileName).set('Cache-Control', 'no-store').send(body);
+}
 
 const IF_MATCH = /^\s*(?:W\/)?"(\d+)"\s*$/;
 

@@ -29,7 +29,7 @@ import type { Mailer } from '../mail/mailer';
 import { limiter } from '../auth/setup';
 import type { JobQueue } from '../jobs/queue';
 import { jobView } from '../jobs/routes';
-import { actorOf, deleteVersion, etag, safeFileName, withVersion } from './route-helpers';
+import { actorOf, deleteVersion, etag, safeFileName, sendDownload, withVersion } from './route-helpers';
 import {
   campaignUpdateSchema,
   importPreviewRequestSchema,
@@ -201,12 +201,7 @@ export function campaignsRouter(deps: {
 
   router.get('/:campaignId/imports/template.csv', byCampaign('viewer'), async (req, res) => {
     const campaign = await getCampaign(knex, req.project!.id, campaignId(req));
-    res
-      .status(200)
-      .type('text/csv; charset=utf-8')
-      .attachment(`${safeFileName(campaign.title)}-template.csv`)
-      .set('Cache-Control', 'no-store')
-      .send(importTemplateCsv(campaign.measure));
+    sendDownload(res, 'csv', `${safeFileName(campaign.title)}-template.csv`, importTemplateCsv(campaign.measure));
   });
 
   router.get('/:campaignId/files', byCampaign('viewer'), async (req, res) => {
@@ -224,12 +219,7 @@ export function campaignsRouter(deps: {
   router.get('/:campaignId/history.csv', byCampaign('viewer'), async (req, res) => {
     const campaign = await getCampaign(knex, req.project!.id, campaignId(req));
     const csv = await historyCsv(knex, { projectId: req.project!.id, campaignId: campaign.id });
-    res
-      .status(200)
-      .type('text/csv; charset=utf-8')
-      .attachment(`${safeFileName(campaign.title)}-history.csv`)
-      .set('Cache-Control', 'no-store')
-      .send(csv);
+    sendDownload(res, 'csv', `${safeFileName(campaign.title)}-history.csv`, csv);
   });
 
   router.get('/:campaignId/analysis', byCampaign('viewer'), async (req, res) => {
@@ -281,45 +271,25 @@ export function campaignsRouter(deps: {
 
   router.get('/:campaignId/report.xlsx', byCampaign('viewer'), async (req, res) => {
     const report = await reportOf(req);
-    res
-      .status(200)
-      .type('application/vnd.openxmlformats-officedocument.spreadsheetml.sheet')
-      .attachment(reportFileName(report.model.data.campaign.title))
-      .set('Cache-Control', 'no-store')
-      .send(await xlsxOf(report));
+    sendDownload(res, 'xlsx', reportFileName(report.model.data.campaign.title), await xlsxOf(report));
   });
 
   router.get('/:campaignId/report.pdf', byCampaign('viewer'), async (req, res) => {
     const report = await reportOf(req);
-    res
-      .status(200)
-      .type('application/pdf')
-      .attachment(reportFileName(report.model.data.campaign.title, 'summary.pdf'))
-      .set('Cache-Control', 'no-store')
-      .send(await pdfOf(report));
+    sendDownload(res, 'pdf', reportFileName(report.model.data.campaign.title, 'summary.pdf'), await pdfOf(report));
   });
 
   router.get('/:campaignId/measurements.csv', byCampaign('viewer'), async (req, res) => {
     const data = await loadCampaignReportData(knex, req.project!.id, campaignId(req));
     const model = buildReportModel(data, meta(req));
-    res
-      .status(200)
-      .type('text/csv; charset=utf-8')
-      .attachment(reportFileName(data.campaign.title, 'measurements.csv'))
-      .set('Cache-Control', 'no-store')
-      .send(measurementsCsv(model));
+    sendDownload(res, 'csv', reportFileName(data.campaign.title, 'measurements.csv'), measurementsCsv(model));
   });
 
   router.get('/:campaignId/forecast.csv', byCampaign('viewer'), async (req, res) => {
     const { at } = parseBody(reportQuerySchema, req.query);
     const data = await loadCampaignReportData(knex, req.project!.id, campaignId(req), at === undefined ? {} : { atC: at });
     const model = buildReportModel(data, meta(req));
-    res
-      .status(200)
-      .type('text/csv; charset=utf-8')
-      .attachment(reportFileName(data.campaign.title, 'forecast.csv'))
-      .set('Cache-Control', 'no-store')
-      .send(forecastCsv(model));
+    sendDownload(res, 'csv', reportFileName(data.campaign.title, 'forecast.csv'), forecastCsv(model));
   });
 
   router.post('/:campaignId/report/email', byCampaign('viewer'), mailLimit, async (req, res) => {
