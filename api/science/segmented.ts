@@ -474,7 +474,36 @@ function supF(ssLine: number, ssSeg: number, n: number): number {
 // ── Null distribution of sup-F, kept per design ────────────────────────────────────────────
 
 const NULL_CACHE_SIZE = 64;
-const nullCache = new Map<string, Float64Array>();
+/** Simulated null samples by design signature; FIFO, bounded. Keyed by a hash of the signature, checked in full on a hit. */
+const nullCache = new Map<number, { signature: Float64Array; sample: Float64Array }[]>();
+const nullCacheOrder: { hash: number; signature: Float64Array }[] = [];
+
+/** Everything the null distribution depends on, as numbers: n, resamples, seed, then u, weight, runs, valid split per group. */
+function designSignature(design: Design, resamples: number, seed: number): Float64Array {
+  const m = design.groups.length;
+  const sig = new Float64Array(3 + 4 * m);
+  sig[0] = design.n;
+  sig[1] = resamples;
+  sig[2] = seed;
+  for (let g = 0; g < m; g++) {
+    const group = design.groups[g]!;
+    sig[3 + 4 * g] = group.u;
+    sig[4 + 4 * g] = group.weight;
+    sig[5 + 4 * g] = group.runs;
+    sig[6 + 4 * g] = design.validSplits[g] ? 1 : 0;
+  }
+  return sig;
+}
+
+/** FNV-1a over the signature's bytes, 32 bits. */
+function hashSignature(sig: Float64Array): number {
+  const words = new Uint32Array(sig.buffer, sig.byteOffset, sig.length * 2);
+  let h = 0x811c9dc5;
+  for (let i = 0; i < words.length; i++) h = Math.imul(h ^ words[i]!, 0x01000193);
+  return h >>> 0;
+}
+
+const sameSignature = (a: Float64Array, b: Float64Array) => a.length === b.length && a.every((v, i) => v === b[i]);
 
 /**
  * sup-F statistics simulated under "one straight line" for this design: group means
@@ -482,9 +511,10 @@ const nullCache = new Map<string, Float64Array>();
  * Sorted ascending. Depends only on the design, resamples and seed, so it is kept (bounded cache).
  */
 function simulateNullSupF(design: Design, resamples: number, seed: number): Float64Array {
-  const key = `${design.n}|${resamples}|${seed}|${design.validSplits.map(Number).join('')}|${design.groups.map((g) => `${g.u},${g.weight},${g.runs}`).join(';')}`;
-  const hit = nullCache.get(key);
-  if (hit) return hit;
+  const signature = designSignature(design, resamples, seed);
+  const hash = hashSignature(signature);
+  const hit = nullCache.get(hash)?.find((e) => sameSignature(e.signature, signature));
+  if (hit) return hit.sample;
   const uniform = uniformSource(seed);
   const normal = normalSource(uniform);
   const { groups, n } = design;
@@ -504,8 +534,14 @@ function simulateNullSupF(design: Design, resamples: number, seed: number): Floa
     out[b] = seg ? supF(line, seg.ss + pure, n) : 0;
   }
   out.sort();
-  if (nullCache.size >= NULL_CACHE_SIZE) nullCache.delete(nullCache.keys().next().value!);
-  nullCache.set(key, out);
+  if (nullCacheOrder.length >= NULL_CACHE_SIZE) {
+    const oldest = nullCacheOrder.shift()!;
+    const bucket = nullCache.get(oldest.hash)!.filter((e) => e.signature !== oldest.signature);
+    if (bucket.length) nullCache.set(oldest.hash, bucket);
+    else nullCache.delete(oldest.hash);
+  }
+  nullCache.set(hash, [...(nullCache.get(hash) ?? []), { signature, sample: out }]);
+  nullCacheOrder.push({ hash, signature });
   return out;
 }
 
