@@ -926,7 +926,8 @@ export function predictEyring(fit: EyringFit, temperaturesK: readonly number[], 
   const q = fit.intervalsAvailable ? fit.model.quantile(confidenceLevel) : null;
   const precision = fit.newRunBasis.source === 'assay' ? fit.newRunBasis.precision : null;
   return temperaturesK.map((t, i) => {
-    requireTemperatureK(t, `temperaturesK[${i}]`);
+    // The field name is built only for an error (a template per temperature was a share of the allocations).
+    if (!(t > 0 && Number.isFinite(t))) requireTemperatureK(t, `temperaturesK[${i}]`);
     const x0 = 1 / t;
     const y = fit.model.intercept + fit.model.slope * x0;
     const varMean = q === null ? null : fit.model.varianceOfMean(x0);

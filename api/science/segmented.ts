@@ -149,30 +149,49 @@ export type BreakCheck = SegmentedFit | BreakCheckSkipped;
 
 // ── Small linear algebra ───────────────────────────────────────────────────────────────────
 
-/** Solve A·z = r (A symmetric positive definite, p ≤ 4) by Gaussian elimination; null if singular. */
-function solve(a: number[][], r: number[]): number[] | null {
+/** Augmented matrix of `solve`, row-major p × (p + 1), reused (p ≤ 4): the solves run per request. */
+const augmented = new Float64Array(4 * 5);
+
+/** Solve A·z = r (A symmetric positive definite, p ≤ 4) by Gauss–Jordan elimination with partial pivoting; null if singular. */
+function solve(a: readonly (readonly number[])[], r: readonly number[]): number[] | null {
   const p = r.length;
-  const m = a.map((row, i) => [...row, r[i]!]);
+  const w = p + 1;
+  const m = augmented;
+  for (let i = 0; i < p; i++) {
+    for (let k = 0; k < p; k++) m[i * w + k] = a[i]![k]!;
+    m[i * w + p] = r[i]!;
+  }
   for (let c = 0; c < p; c++) {
     let piv = c;
-    for (let i = c + 1; i < p; i++) if (Math.abs(m[i]![c]!) > Math.abs(m[piv]![c]!)) piv = i;
-    const scale = Math.max(...m.map((row) => Math.abs(row[c]!)), 1e-300);
-    if (Math.abs(m[piv]![c]!) <= 1e-13 * scale) return null;
-    [m[c], m[piv]] = [m[piv]!, m[c]!];
+    let scale = 1e-300;
+    for (let i = 0; i < p; i++) scale = Math.max(scale, Math.abs(m[i * w + c]!));
+    for (let i = c + 1; i < p; i++) if (Math.abs(m[i * w + c]!) > Math.abs(m[piv * w + c]!)) piv = i;
+    if (Math.abs(m[piv * w + c]!) <= 1e-13 * scale) return null;
+    if (piv !== c) {
+      for (let k = 0; k <= p; k++) {
+        const t = m[c * w + k]!;
+        m[c * w + k] = m[piv * w + k]!;
+        m[piv * w + k] = t;
+      }
+    }
     for (let i = 0; i < p; i++) {
       if (i === c) continue;
-      const f = m[i]![c]! / m[c]![c]!;
-      for (let k = c; k <= p; k++) m[i]![k]! -= f * m[c]![k]!;
+      const f = m[i * w + c]! / m[c * w + c]!;
+      for (let k = c; k <= p; k++) m[i * w + k]! -= f * m[c * w + k]!;
     }
   }
-  return m.map((row, i) => row[p]! / row[i]!);
+  const z = new Array<number>(p);
+  for (let i = 0; i < p; i++) z[i] = m[i * w + p]! / m[i * w + i]!;
+  return z;
 }
 
-function invert(a: number[][]): number[][] | null {
+function invert(a: readonly (readonly number[])[]): number[][] | null {
   const p = a.length;
+  const e = new Array<number>(p).fill(0);
   const cols: number[][] = [];
   for (let j = 0; j < p; j++) {
-    const e = Array.from({ length: p }, (_, i) => (i === j ? 1 : 0));
+    e.fill(0);
+    e[j] = 1;
     const z = solve(a, e);
     if (!z) return null;
     cols.push(z);
@@ -293,8 +312,11 @@ function kneeFit(
     [0, 0, 0],
   ];
   const aty = [0, 0, 0];
+  const row = new Float64Array(3);
+  row[0] = 1;
   for (let i = 0; i < m; i++) {
-    const row = [1, u[i]!, Math.max(0, u[i]! - psi)];
+    row[1] = u[i]!;
+    row[2] = Math.max(0, u[i]! - psi);
     for (let r = 0; r < 3; r++) {
       aty[r]! += w[i]! * row[r]! * y[i]!;
       for (let c = 0; c < 3; c++) ata[r]![c]! += w[i]! * row[r]! * row[c]!;

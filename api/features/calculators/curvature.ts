@@ -105,7 +105,8 @@ const mapInterval = (lo: number, hi: number) => ({
  * than the screen's runs did about the fitted branches.
  */
 export function modelPrediction(model: ScreenModel, oneLine: Prediction, confidence: number, newRun?: AssayPrecision | null): Prediction {
-  if (model.kind === 'one-line') return { ...oneLine, model: 'one-line', branch: null };
+  if (model.kind === 'one-line')
+    return oneLine.model === 'one-line' && oneLine.branch === null ? oneLine : { ...oneLine, model: 'one-line', branch: null };
   const t = oneLine.kelvin;
   const c = model.fit.coefficients;
   const center = predictiveLnRatio(model, t).mean;

@@ -57,14 +57,16 @@ export function toEyringMeasurements(measurements: FitRequest['measurements']): 
 /** r beyond the representable range travels as null (JSON has no Infinity); ln r always travels. */
 const finiteOrNull = (v: number) => (Number.isFinite(v) && v > 0 ? v : null);
 const mapInterval = (iv: SelectivityInterval | null) =>
-  iv
-    ? {
-        lnRatio: iv.lnRatio,
-        ratio: [finiteOrNull(iv.ratio[0]), finiteOrNull(iv.ratio[1])] as [number | null, number | null],
-        eePercent: iv.eePercent,
-        percentA: iv.percentA,
-      }
-    : null;
+  iv === null
+    ? null
+    : finiteOrNull(iv.ratio[0]) !== null && finiteOrNull(iv.ratio[1]) !== null
+      ? iv
+      : {
+          lnRatio: iv.lnRatio,
+          ratio: [finiteOrNull(iv.ratio[0]), finiteOrNull(iv.ratio[1])] as [number | null, number | null],
+          eePercent: iv.eePercent,
+          percentA: iv.percentA,
+        };
 
 /** ln r at a quantitation limit given in a measure's own terms (validated by quantitationLimitSchema). */
 export function quantitationLimitLnRatio(limit: { measure: SelectivityInput['measure']; value: number }): number {
