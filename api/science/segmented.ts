@@ -443,35 +443,40 @@ function profile(design: Design, y: ArrayLike<number>, sums: Sums = newSums(desi
   return Number.isFinite(bestSs) ? { psi: bestPsi, ss: bestSs } : null;
 }
 
-function groupRuns(points: { temperatureK: number; y: number; w: number }[]): Design | null {
-  const sorted = [...points].sort((p, q) => q.temperatureK - p.temperatureK);
-  const raw: { temperatureK: number; ys: number[]; ws: number[] }[] = [];
-  for (const p of sorted) {
-    const last = raw[raw.length - 1];
-    if (last && Math.abs(last.temperatureK - p.temperatureK) <= 1e-6) {
-      last.ys.push(p.y);
-      last.ws.push(p.w);
-    } else raw.push({ temperatureK: p.temperatureK, ys: [p.y], ws: [p.w] });
+function groupRuns(temperatureK: Float64Array, y: Float64Array, w: Float64Array): Design | null {
+  const n = temperatureK.length;
+  // Stable sort of run indices, warmest first; runs within 1e-6 K of a group's first run join it.
+  const order = Array.from({ length: n }, (_, i) => i).sort((p, q) => temperatureK[q]! - temperatureK[p]!);
+  const starts: number[] = [];
+  for (let k = 0; k < n; k++) {
+    if (k === 0 || !(Math.abs(temperatureK[order[starts[starts.length - 1]!]!]! - temperatureK[order[k]!]!) <= 1e-6)) starts.push(k);
   }
-  const n = points.length;
-  const xs = raw.map((g) => 1 / g.temperatureK);
-  const scale = xs[xs.length - 1]! - xs[0]!;
+  const m = starts.length;
+  const end = (g: number) => (g + 1 < m ? starts[g + 1]! : n);
+  const xs = starts.map((k) => 1 / temperatureK[order[k]!]!);
+  const scale = xs[m - 1]! - xs[0]!;
   if (!(scale > 0)) return null;
+  const weights = starts.map((k, g) => {
+    let wg = 0;
+    for (let j = k; j < end(g); j++) wg += w[order[j]!]!;
+    return wg;
+  });
   let sw = 0;
   let swx = 0;
-  raw.forEach((g, i) => {
-    const wg = g.ws.reduce((s, v) => s + v, 0);
-    sw += wg;
-    swx += wg * xs[i]!;
-  });
+  for (let g = 0; g < m; g++) {
+    sw += weights[g]!;
+    swx += weights[g]! * xs[g]!;
+  }
   const center = swx / sw;
-  const groups: Group[] = raw.map((g, i) => {
-    const weight = g.ws.reduce((s, v) => s + v, 0);
-    const mean = g.ys.reduce((s, v, k) => s + g.ws[k]! * v, 0) / weight;
-    const pureSs = g.ys.reduce((s, v, k) => s + g.ws[k]! * (v - mean) ** 2, 0);
-    return { temperatureK: g.temperatureK, u: (xs[i]! - center) / scale, runs: g.ys.length, weight, mean, pureSs };
+  const groups: Group[] = starts.map((k, g) => {
+    const weight = weights[g]!;
+    let swy = 0;
+    for (let j = k; j < end(g); j++) swy += w[order[j]!]! * y[order[j]!]!;
+    const mean = swy / weight;
+    let pureSs = 0;
+    for (let j = k; j < end(g); j++) pureSs += w[order[j]!]! * (y[order[j]!]! - mean) ** 2;
+    return { temperatureK: temperatureK[order[k]!]!, u: (xs[g]! - center) / scale, runs: end(g) - k, weight, mean, pureSs };
   });
-  const m = groups.length;
   let leftRuns = 0;
   const validSplits = groups.map((g, j) => {
     leftRuns += g.runs;
@@ -629,7 +634,11 @@ export function checkCurvature(measurements: readonly EyringMeasurement[], optio
       message: 'The break check treats σ as relative (scale estimated from the scatter), so the test does not depend on it.',
     });
   }
-  const design = groupRuns(usable.map((p, i) => ({ temperatureK: p.measurement.temperatureK, y: p.y, w: sigma ? 1 / sigma[i]! ** 2 : 1 })));
+  const design = groupRuns(
+    Float64Array.from(usable, (p) => p.measurement.temperatureK),
+    Float64Array.from(usable, (p) => p.y),
+    Float64Array.from(usable, (_, i) => (sigma ? 1 / sigma[i]! ** 2 : 1)),
+  );
   const n = usable.length;
   const m = design?.groups.length ?? 0;
   if (!design || !design.validSplits.some(Boolean)) {
