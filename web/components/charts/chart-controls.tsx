@@ -1,4 +1,4 @@
-import { useId } from 'react';
+import { useId, useState } from 'react';
 import { inputClass, Segmented } from '../ui/fields';
 import { axisText, readDecimal, type SelectivityMeasure } from '../../../api/science/quantities';
 
@@ -52,6 +52,20 @@ export function ChartControls({
       </div>
     </div>
   );
+}
+
+/**
+ * The state behind ChartControls: the chosen axis, the specification as typed and as a number.
+ * Spread `controls` into ChartControls.
+ */
+export function useChartControls(initialSpec: string) {
+  const [measure, setMeasure] = useState<'ee' | 'percentA'>('ee');
+  const [specText, setSpecText] = useState(initialSpec);
+  return {
+    measure,
+    spec: parseSpec(specText),
+    controls: { measure, onMeasure: setMeasure, spec: specText, onSpec: setSpecText },
+  };
 }
 
 /** A specification as typed, or null when empty or not a number in range. */
