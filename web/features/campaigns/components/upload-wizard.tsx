@@ -13,6 +13,7 @@ import { SECONDS_PER } from '../../../../api/science/quantities';
 import { ColumnMappingStep } from './column-mapping-step';
 import { recordLinks } from '../api/records';
 import { CompactSelect } from './compact-select';
+import { TableHead } from '../../../components/ui/table-head';
 
 const DELIMITER_TEXT: Record<string, string> = { ',': 'comma', ';': 'semicolon', '\t': 'tab' };
 
@@ -399,22 +400,10 @@ export function IssueTable({ issues, total }: { issues: ImportIssue[]; total: nu
       <div className="max-h-64 overflow-auto rounded border border-slate-200">
         <table className="w-full border-collapse text-left text-xs">
           <caption className="sr-only">Problems found in the file, by row</caption>
-          <thead className="sticky top-0 bg-slate-50 text-ink-600">
-            <tr className="border-b border-slate-200">
-              <th scope="col" className="px-2 py-1 font-medium">
-                Kind
-              </th>
-              <th scope="col" className="px-2 py-1 text-right font-medium">
-                Row
-              </th>
-              <th scope="col" className="px-2 py-1 font-medium">
-                Column
-              </th>
-              <th scope="col" className="px-2 py-1 font-medium">
-                Problem
-              </th>
-            </tr>
-          </thead>
+          <TableHead
+            className="sticky top-0 bg-slate-50 text-ink-600"
+            columns={[{ label: 'Kind' }, { label: 'Row', align: 'right' }, { label: 'Column' }, { label: 'Problem' }]}
+          />
           <tbody>
             {issues.map((i, k) => (
               <tr key={k} className={`border-b border-slate-100 align-top ${i.severity === 'error' ? 'bg-rose-50/60' : 'bg-caution-50'}`}>
