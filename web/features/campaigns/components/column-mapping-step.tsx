@@ -10,6 +10,7 @@ import { FIELD_LABEL, REQUIRED_FIELDS, type MappingDraft } from '../lib/import-m
 import { MEASURE_LABEL } from '../lib/labels';
 import { CompactSelect } from './compact-select';
 import { TableHead } from '../../../components/ui/table-head';
+import { errorAria } from '../../../components/ui/form';
 
 const cellText = (c: ImportCell) => (c === null || c === '' ? '∅' : String(c));
 
@@ -59,8 +60,7 @@ export function ColumnMappingStep({
                     id={id}
                     value={chosen === null ? '' : String(chosen)}
                     onChange={(e) => setColumn(field, e.target.value)}
-                    aria-invalid={error ? true : undefined}
-                    aria-describedby={error ? `${id}-err` : undefined}
+                    {...errorAria(id, !!error)}
                     className={`w-56 rounded border bg-white px-1.5 py-1 text-sm ${error ? 'border-rose-600' : 'border-slate-300'}`}
                   >
                     <option value="">— not in the file —</option>

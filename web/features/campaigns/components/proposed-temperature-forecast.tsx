@@ -2,7 +2,7 @@ import { useId, useMemo, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { savedForecastCreateSchema, type TemperatureUnit } from '../../../../api/features/campaigns/schemas';
 import { SafetyCaution } from '../../../components/ui/caution';
-import { Button } from '../../../components/ui/form';
+import { Button, errorAria, LabelAbove } from '../../../components/ui/form';
 import { StaleResult, useLastDefined, type StaleReason } from '../../../components/ui/stale';
 import { applyServerErrors, errorAt, FORM_ERROR } from '../../../lib/form';
 import { enantiomericRatio, fixed, measureColumn, percent, sig, lnRatioOf, lnRatioRange } from '../../../lib/format';
@@ -155,10 +155,7 @@ export function ProposedTemperatureForecastPanel({
           submit();
         }}
       >
-        <div className="flex flex-col gap-1">
-          <label htmlFor={id} className="text-xs font-medium text-ink-700">
-            Proposed temperature
-          </label>
+        <LabelAbove id={id} label="Proposed temperature" roomy>
           <div className="flex items-center gap-1">
             <input
               id={id}
@@ -166,8 +163,7 @@ export function ProposedTemperatureForecastPanel({
               autoComplete="off"
               {...atForm.register('text')}
               placeholder="e.g. −30"
-              aria-invalid={error ? true : undefined}
-              aria-describedby={error ? `${id}-err` : undefined}
+              {...errorAria(id, !!error)}
               className={`tnum w-24 rounded border px-2 py-1 text-right text-sm ${error ? 'border-rose-600 bg-rose-50' : 'border-slate-300 bg-white'}`}
             />
             <select
@@ -182,7 +178,7 @@ export function ProposedTemperatureForecastPanel({
               ))}
             </select>
           </div>
-        </div>
+        </LabelAbove>
         <Button type="submit" variant="primary">
           Forecast
         </Button>
@@ -316,16 +312,12 @@ function SmallField({
 }) {
   const id = useId();
   return (
-    <div className="flex flex-col gap-0.5">
-      <label htmlFor={id} className="text-xs font-medium text-ink-700">
-        {label}
-      </label>
+    <LabelAbove id={id} label={label}>
       <input
         id={id}
         value={value}
         onChange={(e) => onChange(e.target.value)}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={error ? `${id}-err` : undefined}
+        {...errorAria(id, !!error)}
         className={`${width} rounded border px-2 py-1 text-sm ${error ? 'border-rose-600 bg-rose-50' : 'border-slate-300 bg-white'}`}
       />
       {error && (
@@ -333,7 +325,7 @@ function SmallField({
           ✕ {error}
         </p>
       )}
-    </div>
+    </LabelAbove>
   );
 }
 

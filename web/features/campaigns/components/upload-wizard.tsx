@@ -1,6 +1,6 @@
 import { useEffect, useId, useReducer, useRef, useState, type RefObject } from 'react';
 import type { ImportParseOptions } from '../../../../api/features/campaigns/schemas';
-import { Button } from '../../../components/ui/form';
+import { Button, LabelAbove } from '../../../components/ui/form';
 import { ApiError } from '../../../lib/api-client';
 import { fixed } from '../../../lib/format';
 import { useImportFile, usePreviewImport } from '../api/imports';
@@ -142,10 +142,7 @@ export function UploadWizard({ campaignId, projectId }: { campaignId: string; pr
   return (
     <div className="flex flex-col gap-3">
       <div className="flex flex-wrap items-end gap-3">
-        <div className="flex flex-col gap-1">
-          <label htmlFor={fileId} className="text-xs font-medium text-ink-700">
-            CSV, TSV or Excel workbook (.xlsx), up to 10 MB
-          </label>
+        <LabelAbove id={fileId} label="CSV, TSV or Excel workbook (.xlsx), up to 10 MB" roomy>
           <input
             id={fileId}
             type="file"
@@ -154,7 +151,7 @@ export function UploadWizard({ campaignId, projectId }: { campaignId: string; pr
             onChange={(e) => choose(e.target.files?.[0] ?? null)}
             className="text-sm file:mr-3 file:rounded file:border file:border-slate-300 file:bg-white file:px-3 file:py-1.5 file:text-sm file:text-ink-800"
           />
-        </div>
+        </LabelAbove>
         <a className="pb-1.5 text-sm text-fjord-700 underline" href={recordLinks.importTemplate(campaignId)} download>
           <span aria-hidden="true">⤓ </span>Download a template (CSV)
         </a>
