@@ -140,7 +140,7 @@ const plotY = (d: PlotDatum) => d.y;
 const noGlyph = () => null;
 
 /** The fitted curve: a solid accent line through `data`. */
-export function FittedLine(props: { className: string; dataKey: string; data: PlotDatum[] }) {
+export function FittedLine(props: { className?: string; dataKey: string; data: PlotDatum[] }) {
   return <LineSeries {...props} xAccessor={plotX} yAccessor={plotY} stroke={chartColors.accent} strokeWidth={2} />;
 }
 
