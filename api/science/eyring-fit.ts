@@ -140,7 +140,7 @@ export interface EyringPrediction {
   predictionInterval: SelectivityInterval | null;
 }
 
-export interface EyringFit {
+export interface EyringFit extends ActivationEstimates {
   convention: string;
   confidenceLevel: number;
   weighting: SigmaMode;
@@ -150,12 +150,6 @@ export interface EyringFit {
   distinctTemperatures: number;
   /** Range of fitted temperatures. */
   temperatureRangeK: { min: number; max: number };
-  ddHJPerMol: number;
-  ddSJPerMolK: number;
-  ddHSeJPerMol: number | null;
-  ddSSeJPerMolK: number | null;
-  ddHCiJPerMol: [number, number] | null;
-  ddSCiJPerMolK: [number, number] | null;
   /** Cov(ΔΔH‡, ΔΔS‡) = −R²·Cov(b, a), in J²/(mol²·K). */
   ddHDdSCovariance: number | null;
   ddHDdSCorrelation: number | null;
@@ -191,14 +185,18 @@ export interface EyringFit {
   model: LineModel;
 }
 
-export interface LeastSquaresSummary {
-  nFitted: number;
+/** ΔΔH‡ and ΔΔS‡ of a line, with their standard errors and intervals (null where intervals are unavailable). */
+export interface ActivationEstimates {
   ddHJPerMol: number;
   ddSJPerMolK: number;
   ddHSeJPerMol: number | null;
   ddSSeJPerMolK: number | null;
   ddHCiJPerMol: [number, number] | null;
   ddSCiJPerMolK: [number, number] | null;
+}
+
+export interface LeastSquaresSummary extends ActivationEstimates {
+  nFitted: number;
 }
 
 /** Parts of the temperature axis (K) inside the Fieller set; null ends mean 0 K or no upper limit. */
@@ -433,19 +431,21 @@ function leastSquaresQuantile(line: LineFit): (level: number) => number {
 }
 
 /** ΔΔH‡, ΔΔS‡, their SEs and CIs from a line's (a, b) and covariance. */
-function activationFromLine(intercept: number, slope: number, cov: LineModel['covariance'], q: number | null) {
+function activationFromLine(intercept: number, slope: number, cov: LineModel['covariance'], q: number | null): ActivationEstimates {
   const ddHJPerMol = R * slope;
   const ddSJPerMolK = -R * intercept;
-  if (!cov || q === null) return { ddHJPerMol, ddSJPerMolK, ddHSe: null, ddSSe: null, ddHCi: null, ddSCi: null };
-  const ddHSe = R * Math.sqrt(cov.slopeSlope);
-  const ddSSe = R * Math.sqrt(cov.interceptIntercept);
+  if (!cov || q === null) {
+    return { ddHJPerMol, ddSJPerMolK, ddHSeJPerMol: null, ddSSeJPerMolK: null, ddHCiJPerMol: null, ddSCiJPerMolK: null };
+  }
+  const ddHSeJPerMol = R * Math.sqrt(cov.slopeSlope);
+  const ddSSeJPerMolK = R * Math.sqrt(cov.interceptIntercept);
   return {
     ddHJPerMol,
     ddSJPerMolK,
-    ddHSe,
-    ddSSe,
-    ddHCi: [ddHJPerMol - q * ddHSe, ddHJPerMol + q * ddHSe] as [number, number],
-    ddSCi: [ddSJPerMolK - q * ddSSe, ddSJPerMolK + q * ddSSe] as [number, number],
+    ddHSeJPerMol,
+    ddSSeJPerMolK,
+    ddHCiJPerMol: [ddHJPerMol - q * ddHSeJPerMol, ddHJPerMol + q * ddHSeJPerMol],
+    ddSCiJPerMolK: [ddSJPerMolK - q * ddSSeJPerMolK, ddSJPerMolK + q * ddSSeJPerMolK],
   };
 }
 
@@ -787,15 +787,7 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
       intervalsAvailable ? line.covariance : null,
       lsModel.quantile(confidenceLevel),
     );
-    leastSquaresWithoutBounds = {
-      nFitted: n,
-      ddHJPerMol: ls.ddHJPerMol,
-      ddSJPerMolK: ls.ddSJPerMolK,
-      ddHSeJPerMol: ls.ddHSe,
-      ddSSeJPerMolK: ls.ddSSe,
-      ddHCiJPerMol: ls.ddHCi,
-      ddSCiJPerMolK: ls.ddSCi,
-    };
+    leastSquaresWithoutBounds = { nFitted: n, ...ls };
   }
 
   const t0 = zeroSelectivityTemperatureK(act.ddHJPerMol, act.ddSJPerMolK);
@@ -822,12 +814,7 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
     nCensored,
     distinctTemperatures: distinct,
     temperatureRangeK: { min: tMin, max: tMax },
-    ddHJPerMol: act.ddHJPerMol,
-    ddSJPerMolK: act.ddSJPerMolK,
-    ddHSeJPerMol: act.ddHSe,
-    ddSSeJPerMolK: act.ddSSe,
-    ddHCiJPerMol: act.ddHCi,
-    ddSCiJPerMolK: act.ddSCi,
+    ...act,
     ddHDdSCovariance: cov,
     ddHDdSCorrelation: corr,
     slopeK: slope,

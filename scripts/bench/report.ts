@@ -7,15 +7,13 @@
 import ExcelJS from 'exceljs';
 import { performance } from 'node:perf_hooks';
 import type { Campaign } from '../../api/models/campaign';
-import type { Measurement } from '../../api/models/measurement';
 import { computeAnalysis } from '../../api/features/campaigns/analysis';
 import { buildCampaignReport } from '../../api/features/campaigns/report';
 import { clearChartCache } from '../../api/features/campaigns/report-charts';
 import type { ReportData } from '../../api/features/campaigns/report-model';
 import type { BenchSuite } from './suites';
 import { recordFigure } from './results';
-
-const R = 8.31446261815324;
+import { inventedDrRun } from '../../tests/support/report-runs';
 
 /** Synthetic runs (not demo data): 40 temperatures from −80 to +37 °C, ln r = 9 kJ/mol / RT − 4 J/(mol·K) / R ± 0.04. */
 export function syntheticReportData(n: number): ReportData {
@@ -36,27 +34,16 @@ export function syntheticReportData(n: number): ReportData {
     createdAt: new Date(0),
     updatedAt: new Date(0),
   } as Campaign;
-  const measurements = Array.from({ length: n }, (_, i) => {
-    const temperatureK = 193.15 + (i % 40) * 3;
-    const lnR = 9000 / (R * temperatureK) - 4 / R + 0.04 * Math.sin(i * 0.91);
-    return {
+  const measurements = Array.from({ length: n }, (_, i) =>
+    inventedDrRun(campaign.id, 193.15 + (i % 40) * 3, 0.04 * Math.sin(i * 0.91), {
       id: `m${i}`,
-      campaignId: campaign.id,
-      temperatureK,
-      measure: 'dr',
-      value: Math.round(Math.exp(lnR) * 10) / 10,
-      valueB: 1,
-      isLowerBound: false,
-      uncertainty: null,
       replicateLabel: String(i % 3),
       sampleId: `B-${i}`,
-      conversionPercent: 90,
       reactionTimeS: 3600,
       excluded: i % 97 === 5,
       excludedReason: i % 97 === 5 ? 'bench exclusion' : null,
-      notes: null,
-    } as unknown as Measurement;
-  }).sort((a, b) => a.temperatureK - b.temperatureK);
+    }),
+  ).sort((a, b) => a.temperatureK - b.temperatureK);
   const analysis = computeAnalysis(campaign, measurements, { weighting: 'none', uncertaintyScale: 'absolute', confidence: 0.95 });
   return {
     campaign,

@@ -396,21 +396,24 @@ function keyValues(ws: ExcelJS.Worksheet, r: number, title: string, lines: [stri
   return r + 1;
 }
 
-/** A header row of a table inside a sheet; returns the next row. */
-function tableHead(ws: ExcelJS.Worksheet, r: number, headers: string[]): number {
-  const row = ws.getRow(r);
-  headers.forEach((h, i) => (row.getCell(i + 1).value = h));
-  styleHeader(row);
-  return r + 1;
-}
+/** A column of a table inside a sheet: its header, an item's cell (empty when null) and the cell's number format. */
+type InnerColumn<T> = [header: string, cell: (item: T) => Cell | UserText, fmt?: string];
 
-function putRow(ws: ExcelJS.Worksheet, r: number, values: [Cell | UserText, string?][]) {
-  const row = ws.getRow(r);
-  values.forEach(([v, fmt], i) => {
-    if (v === null) return;
-    setCell(row.getCell(i + 1), v);
-    if (fmt) row.getCell(i + 1).numFmt = fmt;
-  });
+/** A table inside a sheet from row `r`: a header row, then a row per item; returns the next free row. */
+function innerTable<T>(ws: ExcelJS.Worksheet, r: number, items: readonly T[], columns: InnerColumn<T>[]): number {
+  const head = ws.getRow(r++);
+  columns.forEach(([header], i) => (head.getCell(i + 1).value = header));
+  styleHeader(head);
+  for (const item of items) {
+    const row = ws.getRow(r++);
+    columns.forEach(([, cell, fmt], i) => {
+      const v = cell(item);
+      if (v === null) return;
+      setCell(row.getCell(i + 1), v);
+      if (fmt) row.getCell(i + 1).numFmt = fmt;
+    });
+  }
+  return r;
 }
 
 /** The saved plan: its inputs, the answer with its rule and probability, the window chart and the curve. */
@@ -483,32 +486,18 @@ function addPlan(wb: ExcelJS.Workbook, model: ReportModel, window: Buffer | null
     r = Math.max(r, 20);
   }
   const unit = MEASURE_WORDS[spec.measure] ?? spec.measure;
-  r = tableHead(ws, r, [
-    'Curve: T (°C)',
-    'T (K)',
-    'P(new run meets) (−)',
-    `Predicted (${unit})`,
-    `Band low (${unit})`,
-    `Band high (${unit})`,
-    'Time to target (h)',
-    'ee after hold (%)',
-    'All constraints hold',
-    'Failing constraints',
+  innerTable(ws, r, plan.rows, [
+    ['Curve: T (°C)', (row) => row.celsius, '0.0'],
+    ['T (K)', (row) => row.kelvin, '0.00'],
+    ['P(new run meets) (−)', (row) => row.probabilityMeetsSpec, '0.000'],
+    [`Predicted (${unit})`, (row) => row.predicted, 'General'],
+    [`Band low (${unit})`, (row) => row.bandLow, 'General'],
+    [`Band high (${unit})`, (row) => row.bandHigh, 'General'],
+    ['Time to target (h)', (row) => row.timeToTargetHours, '0.00'],
+    ['ee after hold (%)', (row) => row.eeAfterHoldPercent, '0.0'],
+    ['All constraints hold', (row) => (row.feasible ? 'yes' : 'no')],
+    ['Failing constraints', (row) => row.failing || null],
   ]);
-  for (const row of plan.rows) {
-    putRow(ws, r++, [
-      [row.celsius, '0.0'],
-      [row.kelvin, '0.00'],
-      [row.probabilityMeetsSpec, '0.000'],
-      [row.predicted, 'General'],
-      [row.bandLow, 'General'],
-      [row.bandHigh, 'General'],
-      [row.timeToTargetHours, '0.00'],
-      [row.eeAfterHoldPercent, '0.0'],
-      [row.feasible ? 'yes' : 'no'],
-      [row.failing || null],
-    ]);
-  }
   printSetup(ws, model, '1:1');
 }
 
@@ -529,64 +518,42 @@ function addComparisons(wb: ExcelJS.Workbook, model: ReportModel) {
       ),
       9,
     );
-    r = tableHead(ws, r, [
-      'Campaign',
-      'ΔΔH‡ (kJ/mol)',
-      'ΔΔS‡ (J/(mol·K))',
-      `Value at T (${MEASURE_WORDS[c.valueMeasure] ?? c.valueMeasure})`,
-      '95 % CI low',
-      '95 % CI high',
-      'Its specification',
-      'Meets at T',
-      'Problem',
-    ]);
-    for (const x of c.campaigns) {
-      putRow(ws, r++, [
-        [user(x.title ?? 'not available to this reader')],
-        [x.ddHKJPerMol, '0.00'],
-        [x.ddSJPerMolK, '0.0'],
-        [x.valueAtTemperature, 'General'],
-        [x.intervalLow, 'General'],
-        [x.intervalHigh, 'General'],
-        [
+    r = innerTable(ws, r, c.campaigns, [
+      ['Campaign', (x) => user(x.title ?? 'not available to this reader')],
+      ['ΔΔH‡ (kJ/mol)', (x) => x.ddHKJPerMol, '0.00'],
+      ['ΔΔS‡ (J/(mol·K))', (x) => x.ddSJPerMolK, '0.0'],
+      [`Value at T (${MEASURE_WORDS[c.valueMeasure] ?? c.valueMeasure})`, (x) => x.valueAtTemperature, 'General'],
+      ['95 % CI low', (x) => x.intervalLow, 'General'],
+      ['95 % CI high', (x) => x.intervalHigh, 'General'],
+      [
+        'Its specification',
+        (x) =>
           x.specification
             ? `${MEASURE_WORDS[x.specification.measure] ?? x.specification.measure} ≥ ${x.specification.minimum}, probability ${x.specification.probability}`
             : 'none set',
-        ],
-        [x.meetsAtTemperature ?? (x.specification ? 'no fit' : '—')],
-        [x.problem],
-      ]);
-    }
-    r = tableHead(ws, r, [
-      'Pair (first against second)',
-      'Difference in ln r',
-      '95 % low',
-      '95 % high',
-      'P(first more selective)',
-      'Equal slopes p',
-      'Crossover (°C)',
-      'Verdict',
-      'Note',
+      ],
+      ['Meets at T', (x) => x.meetsAtTemperature ?? (x.specification ? 'no fit' : '—')],
+      ['Problem', (x) => x.problem],
     ]);
-    for (const p of c.pairs) {
-      putRow(ws, r++, [
-        [user(`${p.first} against ${p.second}`)],
-        [p.differenceLnR, '0.000'],
-        [p.intervalLow, '0.000'],
-        [p.intervalHigh, '0.000'],
-        [p.probabilityFirstBetter, '0.000'],
-        [p.equalSlopesP, '0.000'],
-        [p.crossoverCelsius, '0.0'],
-        [
+    r = innerTable(ws, r, c.pairs, [
+      ['Pair (first against second)', (p) => user(`${p.first} against ${p.second}`)],
+      ['Difference in ln r', (p) => p.differenceLnR, '0.000'],
+      ['95 % low', (p) => p.intervalLow, '0.000'],
+      ['95 % high', (p) => p.intervalHigh, '0.000'],
+      ['P(first more selective)', (p) => p.probabilityFirstBetter, '0.000'],
+      ['Equal slopes p', (p) => p.equalSlopesP, '0.000'],
+      ['Crossover (°C)', (p) => p.crossoverCelsius, '0.0'],
+      [
+        'Verdict',
+        (p) =>
           p.verdict === 'first'
             ? 'the first is more selective'
             : p.verdict === 'second'
               ? 'the second is more selective'
               : 'the data cannot tell them apart',
-        ],
-        [p.note || null],
-      ]);
-    }
+      ],
+      ['Note', (p) => p.note || null],
+    ]);
     r++;
   }
   if (list[0]) {

@@ -9,8 +9,7 @@ import { computeAnalysis } from '../../../api/features/campaigns/analysis';
 import type { SavedForecastView } from '../../../api/features/campaigns/analysis-schemas';
 import type { ReportData, ReportMeta } from '../../../api/features/campaigns/report-model';
 import type { ComparisonReportData, PlanReportData } from '../../../api/features/plan/report-data';
-
-const R = 6.02214076e23 * 1.380649e-23;
+import { inventedDrRun } from '../../support/report-runs';
 
 export const HOSTILE = ['=HYPERLINK("http://example.test","x")', '+1+2', '-3+4', '@SUM(A1:A2)', '\tTAB', '\rCR'];
 
@@ -39,21 +38,11 @@ export function demoCampaign(overrides: Partial<Campaign> = {}): Campaign {
 export function demoMeasurements(n: number, campaign = demoCampaign()): Measurement[] {
   return Array.from({ length: n }, (_, i) => {
     const celsius = -78 + (103 * (i % 12)) / 11;
-    const temperatureK = Math.round((celsius + 273.15) * 100) / 100;
-    const lnR = 9000 / (R * temperatureK) - 4 / R + (i % 2 === 0 ? 0.04 : -0.04);
     const excluded = i === 3;
-    return {
+    return inventedDrRun(campaign.id, Math.round((celsius + 273.15) * 100) / 100, i % 2 === 0 ? 0.04 : -0.04, {
       id: `00000000-0000-4000-9000-${String(i).padStart(12, '0')}`,
-      campaignId: campaign.id,
-      temperatureK,
-      measure: 'dr',
-      value: Math.round(Math.exp(lnR) * 10) / 10,
-      valueB: 1,
-      isLowerBound: false,
-      uncertainty: null,
       replicateLabel: i < HOSTILE.length ? HOSTILE[i]! : String.fromCharCode(97 + (i % 3)),
       sampleId: `KX-${i + 1}`,
-      conversionPercent: 90,
       reactionTimeS: 7200,
       excluded,
       excludedReason: excluded ? '=1+1 (integration failed)' : null,
@@ -63,7 +52,7 @@ export function demoMeasurements(n: number, campaign = demoCampaign()): Measurem
       createdByUserId: null,
       createdAt: new Date('2026-11-01T09:00:00Z'),
       updatedAt: new Date('2026-11-01T09:00:00Z'),
-    } as unknown as Measurement;
+    });
   });
 }
 

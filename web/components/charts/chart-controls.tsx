@@ -1,5 +1,6 @@
-import { useId } from 'react';
+import { useId, useState } from 'react';
 import { inputClass, Segmented } from '../ui/fields';
+import { LabelAbove } from '../ui/form';
 import { axisText, readDecimal, type SelectivityMeasure } from '../../../api/science/quantities';
 
 /** y-axis choice (ee % or % A; % de or % major for dr) and an optional specification in the same unit. */
@@ -34,10 +35,7 @@ export function ChartControls({
           { value: 'percentA', label: share.button },
         ]}
       />
-      <div className="flex flex-col gap-1">
-        <label htmlFor={id} className="text-xs font-medium text-ink-700">
-          Specification (optional)
-        </label>
+      <LabelAbove id={id} label="Specification (optional)" roomy>
         <div className="flex items-center gap-1.5">
           <input
             id={id}
@@ -49,9 +47,23 @@ export function ChartControls({
           />
           <span className="whitespace-nowrap text-sm text-ink-600">{(measure === 'ee' ? signed : share).unit}</span>
         </div>
-      </div>
+      </LabelAbove>
     </div>
   );
+}
+
+/**
+ * The state behind ChartControls: the chosen axis, the specification as typed and as a number.
+ * Spread `controls` into ChartControls.
+ */
+export function useChartControls(initialSpec: string) {
+  const [measure, setMeasure] = useState<'ee' | 'percentA'>('ee');
+  const [specText, setSpecText] = useState(initialSpec);
+  return {
+    measure,
+    spec: parseSpec(specText),
+    controls: { measure, onMeasure: setMeasure, spec: specText, onSpec: setSpecText },
+  };
 }
 
 /** A specification as typed, or null when empty or not a number in range. */

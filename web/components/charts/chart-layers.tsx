@@ -1,5 +1,5 @@
 import { useContext, useMemo, type ComponentProps } from 'react';
-import { Axis, DataContext } from '@visx/xychart';
+import { Axis, DataContext, GlyphSeries, LineSeries } from '@visx/xychart';
 import { fixed } from '../../lib/format';
 import { axisLabelProps, chartColors, chartFont, tickLabelProps } from './chart-theme';
 
@@ -129,8 +129,25 @@ export function PointMarks({ marks }: { marks: PointMark[] }) {
   );
 }
 
+interface PlotDatum {
+  x: number;
+  y: number;
+}
+
+// Accessors defined once: a new function on each render makes xychart register the series again.
+const plotX = (d: PlotDatum) => d.x;
+const plotY = (d: PlotDatum) => d.y;
+const noGlyph = () => null;
+
+/** The fitted curve: a solid accent line through `data`. */
+export function FittedLine(props: { className?: string; dataKey: string; data: PlotDatum[] }) {
+  return <LineSeries {...props} xAccessor={plotX} yAccessor={plotY} stroke={chartColors.accent} strokeWidth={2} />;
+}
+
 /** Registers the runs with the chart so the tooltip can snap to them, drawing nothing itself (PointMarks draws them). */
-export const noGlyph = () => null;
+export function MeasurementAnchors({ data }: { data: PlotDatum[] }) {
+  return <GlyphSeries dataKey="measurements" data={data} xAccessor={plotX} yAccessor={plotY} renderGlyph={noGlyph} />;
+}
 
 /** The text beside a rule or marker, in the chart's font with tabular figures. */
 function MarkLabel({ x, y, anchor, color, children }: { x: number; y: number; anchor: 'start' | 'end'; color: string; children: string }) {

@@ -1,8 +1,8 @@
 import { useMemo, type ReactNode } from 'react';
-import { GlyphSeries, LineSeries } from '@visx/xychart';
+import { LineSeries } from '@visx/xychart';
 import { fixed, sig } from '../../lib/format';
 import { ChartFigure, BandArea, ChartFrame, InverseKelvinAxis, SnapTooltip } from './chart-frame';
-import { ChartAxis, ErrorBars, noGlyph, PointMarks, VerticalMark, type PointMark } from './chart-layers';
+import { ChartAxis, ErrorBars, FittedLine, MeasurementAnchors, PointMarks, VerticalMark, type PointMark } from './chart-layers';
 import { chartColors, paddedExtent } from './chart-theme';
 import { useElementWidth } from './use-element-width';
 import { CELSIUS_OFFSET_K as CELSIUS_OFFSET } from '../../../api/science/quantities';
@@ -63,8 +63,6 @@ const MARGIN = { top: 40, right: 20, bottom: 46, left: 70 };
 // Accessors defined once: a new function on each render makes xychart register the series again.
 const lineX = (d: { x: number }) => d.x;
 const lineY = (d: { y: number }) => d.y;
-const xOf = (d: Datum) => d.x;
-const yOf = (d: Datum) => d.y;
 
 /** Round °C tick values that fall inside a 1000/T domain, for the secondary top axis. */
 /** Least room between two °C labels on the top axis, in pixels (a label such as "−100" is about 28 px wide). */
@@ -225,17 +223,7 @@ export function EyringPlot({
           {confidence.length > 1 && (
             <BandArea dataKey="confidence band" data={confidence} fill={chartColors.confidenceFill} fillOpacity={0.25} />
           )}
-          {curveData.length > 1 && (
-            <LineSeries
-              className="eyrie-fit-line"
-              dataKey="fitted line"
-              data={curveData}
-              xAccessor={xOf}
-              yAccessor={yOf}
-              stroke={chartColors.accent}
-              strokeWidth={2}
-            />
-          )}
+          {curveData.length > 1 && <FittedLine className="eyrie-fit-line" dataKey="fitted line" data={curveData} />}
           {branchData.map((b) => (
             <LineSeries
               key={b.label}
@@ -252,9 +240,7 @@ export function EyringPlot({
           ))}
           <ErrorBars bars={errorBars} />
           <PointMarks marks={marks} />
-          {pointData.length > 0 && (
-            <GlyphSeries dataKey="measurements" data={pointData} xAccessor={xOf} yAccessor={yOf} renderGlyph={noGlyph} />
-          )}
+          {pointData.length > 0 && <MeasurementAnchors data={pointData} />}
           {mark && <VerticalMark x={invT(mark.kelvin)} label={mark.label} />}
           <InverseKelvinAxis />
           <ChartAxis

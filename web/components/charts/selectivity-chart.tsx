@@ -1,8 +1,17 @@
 import { useCallback, useMemo } from 'react';
-import { GlyphSeries, LineSeries } from '@visx/xychart';
+import { GlyphSeries } from '@visx/xychart';
 import { enantiomericRatio, fixed, percent } from '../../lib/format';
 import { ChartFigure, BandArea, ChartFrame, SnapTooltip, TemperatureHeading } from './chart-frame';
-import { CelsiusAxis, ChartAxis, HorizontalRule, noGlyph, PointMarks, VerticalMark, type PointMark } from './chart-layers';
+import {
+  CelsiusAxis,
+  ChartAxis,
+  FittedLine,
+  HorizontalRule,
+  MeasurementAnchors,
+  PointMarks,
+  VerticalMark,
+  type PointMark,
+} from './chart-layers';
 import { chartColors, paddedExtent } from './chart-theme';
 import { BandSwatch, LegendItem, LineSwatch } from './eyring-plot';
 import { useElementWidth } from './use-element-width';
@@ -152,21 +161,9 @@ export function SelectivityChart({
         <ChartFrame width={chartWidth} height={height} margin={MARGIN} xScale={xScale} yScale={yScale} title={title} gridTicks={6}>
           {band.length > 1 && <BandArea dataKey="band" data={band} fill={chartColors.predictionFill} fillOpacity={0.3} />}
           {spec != null && <HorizontalRule y={spec} label={`specification ${fixed(spec, spec % 1 === 0 ? 0 : 1)} ${unitText}`} />}
-          {curveData.length > 1 && (
-            <LineSeries
-              className="eyrie-curve-line"
-              dataKey="curve"
-              data={curveData}
-              xAccessor={xOf}
-              yAccessor={yOf}
-              stroke={chartColors.accent}
-              strokeWidth={2}
-            />
-          )}
+          {curveData.length > 1 && <FittedLine className="eyrie-curve-line" dataKey="curve" data={curveData} />}
           {curveData.length === 1 && <GlyphSeries dataKey="curve" data={curveData} xAccessor={xOf} yAccessor={yOf} />}
-          {pointData.length > 0 && (
-            <GlyphSeries dataKey="measurements" data={pointData} xAccessor={xOf} yAccessor={yOf} renderGlyph={noGlyph} />
-          )}
+          {pointData.length > 0 && <MeasurementAnchors data={pointData} />}
           <PointMarks marks={marks} />
           {mark && <VerticalMark x={mark.celsius} label={mark.label} />}
           <CelsiusAxis />

@@ -2,6 +2,7 @@ import { useId, type ReactNode } from 'react';
 import { ApiError, type FieldError } from '../../lib/api-client';
 import { messagesFor } from '../../lib/field-errors';
 import { SignConvention } from './sign-convention';
+import { LabelAbove } from './form';
 
 export const inputClass =
   'tnum rounded border border-slate-300 bg-white px-2 py-1 text-sm text-ink-950 aria-[invalid=true]:border-red-600 aria-[invalid=true]:bg-red-50';
@@ -43,10 +44,7 @@ export function NumberField({
   const messages = messagesFor(errors, path);
   const describedBy = [messages.length ? `${id}-err` : null, hint ? `${id}-hint` : null].filter(Boolean).join(' ') || undefined;
   return (
-    <div className="flex flex-col gap-1">
-      <label htmlFor={id} className="text-xs font-medium text-ink-700">
-        {label}
-      </label>
+    <LabelAbove id={id} label={label} roomy>
       <div className="flex items-center gap-1.5">
         <input
           id={id}
@@ -72,7 +70,7 @@ export function NumberField({
           {messages.join('; ')}
         </p>
       )}
-    </div>
+    </LabelAbove>
   );
 }
 

@@ -1,7 +1,7 @@
-import type { ComponentProps } from 'react';
+import type { ComponentProps, ReactNode } from 'react';
 import { useController, useFormState, type Control, type FieldPath, type FieldValues } from 'react-hook-form';
 import { errorAt, FORM_ERROR } from '../../lib/form';
-import { FormAlert, SelectField, TextField } from './form';
+import { Button, FormAlert, SelectField, TextField } from './form';
 
 type Bound<V extends FieldValues> = { control: Control<V, unknown, unknown>; name: FieldPath<V> };
 
@@ -37,4 +37,34 @@ export function FormSelectField<V extends FieldValues, T extends string>({
 export function FormErrorAlert<V extends FieldValues>({ control }: { control: Control<V, unknown, unknown> }) {
   const { errors } = useFormState({ control });
   return <FormAlert>{errorAt(errors, FORM_ERROR)}</FormAlert>;
+}
+
+/**
+ * The end of a form: its own message (FormErrorAlert), then a row with the primary submit button,
+ * disabled while the request is pending, and whatever follows it (Cancel, a saved note).
+ */
+export function FormFooter<V extends FieldValues>({
+  control,
+  pending,
+  submit,
+  className,
+  children,
+}: {
+  control: Control<V, unknown, unknown>;
+  pending: boolean;
+  submit: ReactNode;
+  className?: string;
+  children?: ReactNode;
+}) {
+  return (
+    <>
+      <FormErrorAlert control={control} />
+      <div className={className}>
+        <Button type="submit" variant="primary" disabled={pending}>
+          {submit}
+        </Button>
+        {children}
+      </div>
+    </>
+  );
 }

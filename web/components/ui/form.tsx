@@ -51,6 +51,23 @@ export function FieldErrorLine(props: { id: string; message: string; className?:
   );
 }
 
+/** A small label above its control (and whatever follows the control); `roomy` leaves a wider gap. */
+export function LabelAbove({ id, label, roomy = false, children }: { id: string; label: ReactNode; roomy?: boolean; children: ReactNode }) {
+  return (
+    <div className={`flex flex-col ${roomy ? 'gap-1' : 'gap-0.5'}`}>
+      <label htmlFor={id} className="text-xs font-medium text-ink-700">
+        {label}
+      </label>
+      {children}
+    </div>
+  );
+}
+
+/** The ARIA that ties a control to its error line (id `${id}-err`) while the control is invalid. */
+export function errorAria(id: string, invalid: boolean): { 'aria-invalid'?: true; 'aria-describedby'?: string } {
+  return invalid ? { 'aria-invalid': true, 'aria-describedby': `${id}-err` } : {};
+}
+
 export function SelectField<T extends string>(props: {
   label: string;
   value: T;

@@ -2,17 +2,19 @@ import type { ReactNode } from 'react';
 
 export interface Column {
   label: ReactNode;
-  /** Numbers are right-aligned (the default); text columns say 'left'. */
+  /** Unset: the table's own alignment (right in tables of numbers); text columns say 'left'. */
   align?: 'left' | 'right';
 }
 
-/** A table's column headers: one row of `th scope="col"`, numbers right-aligned. */
+const ALIGN_CLASS = { left: 'text-left', right: 'text-right', inherit: null };
+
+/** A table's column headers: one row of `th scope="col"`, each aligned as its column says. */
 export function TableHead({ columns, className = 'bg-slate-50 text-xs text-ink-600' }: { columns: Column[]; className?: string }) {
   return (
     <thead className={className}>
       <tr className="border-b border-slate-200">
         {columns.map((c, i) => (
-          <th key={i} scope="col" className={`px-2 py-1 font-medium ${c.align === 'left' ? 'text-left' : ''}`}>
+          <th key={i} scope="col" className={`px-2 py-1 font-medium ${ALIGN_CLASS[c.align ?? 'inherit'] ?? ''}`}>
             {c.label}
           </th>
         ))}
@@ -28,8 +30,6 @@ export interface ListColumn {
   /** Read by screen readers only (a column of links or buttons). */
   hidden?: boolean;
 }
-
-const ALIGN_CLASS = { left: 'text-left', right: 'text-right', inherit: null };
 
 const LIST_HEAD = {
   roomy: { head: 'border-b border-slate-200 text-xs uppercase tracking-wide text-ink-500', pad: 'py-2', weight: 'font-semibold' },

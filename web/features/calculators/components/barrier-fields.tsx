@@ -21,35 +21,27 @@ export function BarrierFields({
   // Unit selects get labels that do not contain the field labels, so a label finds one control.
   const unitLabel = (what: string) => (name ? `${name} ${what} unit` : `${what[0]!.toUpperCase()}${what.slice(1)} unit`);
   const dSOptional = kind === 'gibbs';
+  // ΔG‡ at a stated temperature, or ΔH‡: the energy field and its unit are named after it.
+  const energy = kind === 'gibbs' ? 'dG' : 'dH';
   return (
     <>
       <div className="flex flex-wrap items-start gap-3">
-        {kind === 'gibbs' ? (
-          <>
-            <FormNumber
-              label={label('ΔG‡')}
-              path={`${path}.dG`}
-              name="dG"
-              placeholder={placeholders.energy}
-              width="w-20"
-              unit={<FormSelect label={unitLabel('energy')} name="dGUnit" options={energyUnitOptions} />}
-            />
-            <FormNumber
-              label="at temperature"
-              path={`${path}.temperature`}
-              name="dGTemperature"
-              width="w-20"
-              unit={<FormSelect label={unitLabel('temperature')} name="dGTemperatureUnit" options={temperatureUnitOptions} />}
-            />
-          </>
-        ) : (
+        <FormNumber
+          key={energy}
+          label={label(energy === 'dG' ? 'ΔG‡' : 'ΔH‡')}
+          path={`${path}.${energy}`}
+          name={energy}
+          placeholder={placeholders.energy}
+          width="w-20"
+          unit={<FormSelect label={unitLabel('energy')} name={`${energy}Unit`} options={energyUnitOptions} />}
+        />
+        {kind === 'gibbs' && (
           <FormNumber
-            label={label('ΔH‡')}
-            path={`${path}.dH`}
-            name="dH"
-            placeholder={placeholders.energy}
+            label="at temperature"
+            path={`${path}.temperature`}
+            name="dGTemperature"
             width="w-20"
-            unit={<FormSelect label={unitLabel('energy')} name="dHUnit" options={energyUnitOptions} />}
+            unit={<FormSelect label={unitLabel('temperature')} name="dGTemperatureUnit" options={temperatureUnitOptions} />}
           />
         )}
       </div>

@@ -1,10 +1,9 @@
-import { useState } from 'react';
 import type { FitResponse } from '../../../../api/features/calculators/schemas';
 import { EyringPlot } from '../../../components/charts/eyring-plot';
 import { SelectivityChart } from '../../../components/charts/selectivity-chart';
 import { fixed } from '../../../lib/format';
 import { medianUncertainty, type buildView, type Submitted } from '../lib/fit-view';
-import { ChartControls, parseSpec } from '../../../components/charts/chart-controls';
+import { ChartControls, useChartControls } from '../../../components/charts/chart-controls';
 import { FitParameterTable } from '../../../components/fit/fit-parameter-table';
 import { FitWarnings, ResidualTable, TwoBranchBox, branchLines } from '../../../components/fit/fit-diagnostics';
 import { PredictionBox } from '../../../components/fit/prediction-box';
@@ -23,8 +22,7 @@ export function FitResults({
   excludedLines: number[];
   onToggleExclude: (line: number) => void;
 }) {
-  const [chartMeasure, setChartMeasure] = useState<'ee' | 'percentA'>('ee');
-  const [specText, setSpecText] = useState('99');
+  const chart = useChartControls('99');
   return (
     <>
       <EyringPlot
@@ -61,21 +59,14 @@ export function FitResults({
       <TwoBranchBox twoBranch={fit.twoBranch} />
       <div className="flex flex-col gap-2">
         <h3 className="text-sm font-semibold text-ink-900">Selectivity against temperature from the fit</h3>
-        <ChartControls
-          name="fit"
-          measure={chartMeasure}
-          onMeasure={setChartMeasure}
-          spec={specText}
-          onSpec={setSpecText}
-          family={submitted.measure}
-        />
+        <ChartControls name="fit" family={submitted.measure} {...chart.controls} />
         <SelectivityChart
           title="Fitted selectivity against temperature with the prediction band"
           curve={view.selectivityCurve}
           points={view.selectivityPoints}
-          measure={chartMeasure}
+          measure={chart.measure}
           family={submitted.measure}
-          spec={parseSpec(specText)}
+          spec={chart.spec}
           curveLabel="fitted line"
           bandLabel={`${fixed(fit.confidence * 100, 0)} % prediction band (new run)`}
           mark={view.proposed ? { celsius: view.proposed.celsius, label: `proposed ${fixed(view.proposed.celsius, 0)} °C` } : null}

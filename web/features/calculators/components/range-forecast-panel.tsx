@@ -11,7 +11,7 @@ import { fixed } from '../../../lib/format';
 import { useForecast } from '../api/post-forecast';
 import { apiFieldErrors, unmatchedErrors } from '../../../lib/field-errors';
 import { initialForecastForm, toForecastRequest, type ForecastFormState } from '../lib/forecast-form';
-import { ChartControls, parseSpec } from '../../../components/charts/chart-controls';
+import { ChartControls, useChartControls } from '../../../components/charts/chart-controls';
 import { ProblemAlert } from '../../../components/ui/fields';
 import { ForecastForm, forecastFieldPaths } from './forecast-form';
 import { ForecastTable } from './forecast-table';
@@ -24,14 +24,12 @@ export function RangeForecastPanel() {
   const [request, setRequest] = useState<ForecastRequest | null>(null);
   const [submittedForm, setSubmittedForm] = useState<ForecastFormState | null>(null);
   const [clientErrors, setClientErrors] = useState<FieldError[]>([]);
-  const [measure, setMeasure] = useState<'ee' | 'percentA'>('ee');
-  const [specText, setSpecText] = useState('99');
+  const { measure, spec, controls } = useChartControls('99');
   const query = useForecast(request);
 
   const serverErrors = apiFieldErrors(query.error);
   const errors = clientErrors.length ? clientErrors : serverErrors;
   const leftover = unmatchedErrors(errors, forecastFieldPaths);
-  const spec = parseSpec(specText);
   // The last answer stays on screen, greyed and labelled, after a failed request or an edit.
   const data = useLastDefined(query.data);
   const reason: StaleReason | null =
@@ -90,7 +88,7 @@ export function RangeForecastPanel() {
               onRetry={worthRetrying(query.error) ? () => void query.refetch() : undefined}
               retrying={query.isFetching}
             >
-              <ChartControls name="forecast" measure={measure} onMeasure={setMeasure} spec={specText} onSpec={setSpecText} />
+              <ChartControls name="forecast" {...controls} />
               <SelectivityChart
                 title={`Forecast ${measure === 'ee' ? 'ee' : '% A'} against temperature`}
                 curve={data.points}

@@ -1,6 +1,7 @@
 import { useId } from 'react';
 import type { ScreenParseError } from '../lib/parse-screen';
 import { inputClass } from '../../../components/ui/fields';
+import { LabelAbove } from '../../../components/ui/form';
 
 /**
  * The paste box for a temperature screen with its per-line problems listed beneath it.
@@ -26,10 +27,7 @@ export function ScreenPasteBox({
   const id = useId();
   const sorted = [...lineErrors].sort((a, b) => a.line - b.line);
   return (
-    <div className="flex flex-col gap-1">
-      <label htmlFor={id} className="text-xs font-medium text-ink-700">
-        Screen: one run per line — temperature ({unitLabel}), {selectivityLabel}[, SD]
-      </label>
+    <LabelAbove id={id} label={`Screen: one run per line — temperature (${unitLabel}), ${selectivityLabel}[, SD]`} roomy>
       <textarea
         id={id}
         name="measurements"
@@ -64,6 +62,6 @@ export function ScreenPasteBox({
           ))}
         </ul>
       )}
-    </div>
+    </LabelAbove>
   );
 }

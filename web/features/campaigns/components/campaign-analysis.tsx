@@ -1,4 +1,4 @@
-import { useCallback, useMemo, useRef, useState } from 'react';
+import { useCallback, useMemo, useRef } from 'react';
 import { useVirtualizer } from '@tanstack/react-virtual';
 import { TableHead } from '../../../components/ui/table-head';
 import { EyringPlot, type EyringCurvePoint, type EyringPlotPoint } from '../../../components/charts/eyring-plot';
@@ -6,7 +6,7 @@ import { SelectivityChart, type SelectivityCurvePoint, type SelectivityMeasuredP
 import { SignConvention } from '../../../components/ui/sign-convention';
 import { VerdictMark } from '../../../components/ui/verdict';
 import { fixed, measureColumn, percent, withUncertainty, lnRatioOf, lnRatioRange } from '../../../lib/format';
-import { ChartControls, parseSpec } from '../../../components/charts/chart-controls';
+import { ChartControls, useChartControls } from '../../../components/charts/chart-controls';
 import { FitWarnings, RunNote, TwoBranchBox, branchLines } from '../../../components/fit/fit-diagnostics';
 import { FitParameterTable } from '../../../components/fit/fit-parameter-table';
 import type { AnalysisResponse, FitPrediction, Measurement } from '../api/types';
@@ -80,10 +80,9 @@ export function CampaignAnalysis({
   /** The stored specification (the campaign's own or the project's default): the chart's line and each run's pass/fail. */
   specification?: StoredSpecification | null;
 }) {
-  const [chartMeasure, setChartMeasure] = useState<'ee' | 'percentA'>('ee');
-  const [specText, setSpecText] = useState('');
+  const chart = useChartControls('');
   // A line typed in the chart controls wins; otherwise the stored specification is drawn.
-  const chartSpec = parseSpec(specText) ?? (specification ? specificationOnAxis(specification, chartMeasure) : null);
+  const chartSpec = chart.spec ?? (specification ? specificationOnAxis(specification, chart.measure) : null);
   const view = useMemo(() => chartData(analysis), [analysis]);
   const fit = analysis.fit;
   // Memoised with the analysis: a new array on every render would redraw the plot's scales and marks.
@@ -123,20 +122,13 @@ export function CampaignAnalysis({
         <figure className="flex min-w-0 flex-col gap-1">
           <figcaption className="flex flex-wrap items-end justify-between gap-2">
             <span className="text-sm font-semibold text-ink-900">Selectivity against temperature</span>
-            <ChartControls
-              name="campaign"
-              measure={chartMeasure}
-              onMeasure={setChartMeasure}
-              spec={specText}
-              onSpec={setSpecText}
-              family={measure}
-            />
+            <ChartControls name="campaign" family={measure} {...chart.controls} />
           </figcaption>
           <SelectivityChart
             title="Selectivity against temperature: fitted curve with the 95 % prediction band and the measured runs"
             curve={view.selectivityCurve}
             points={view.selectivityPoints}
-            measure={chartMeasure}
+            measure={chart.measure}
             family={measure}
             spec={chartSpec}
             curveLabel={twoBranchPreferred ? 'two-branch fit' : 'fitted line'}

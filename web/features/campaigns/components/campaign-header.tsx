@@ -2,7 +2,7 @@ import { useMemo, useState, type ReactNode } from 'react';
 import { useForm } from 'react-hook-form';
 import { useQueryClient } from '@tanstack/react-query';
 import { Button } from '../../../components/ui/form';
-import { FormErrorAlert } from '../../../components/ui/form-fields';
+import { FormFooter } from '../../../components/ui/form-fields';
 import { ApiError } from '../../../lib/api-client';
 import { applyServerErrors, checkedResolver } from '../../../lib/form';
 import { fixed } from '../../../lib/format';
@@ -129,14 +129,15 @@ function EditCampaignForm({ campaign, onDone, onReloaded }: { campaign: Campaign
           </Button>
         </div>
       )}
-      <FormErrorAlert control={form.control} />
-      <div className="flex items-center gap-2">
-        <Button type="submit" variant="primary" disabled={update.isPending}>
-          {update.isPending ? 'Saving…' : 'Save details'}
-        </Button>
+      <FormFooter
+        control={form.control}
+        pending={update.isPending}
+        submit={update.isPending ? 'Saving…' : 'Save details'}
+        className="flex items-center gap-2"
+      >
         <Button onClick={onDone}>Cancel</Button>
         <span className="text-xs text-ink-500">Editing version {base.version}</span>
-      </div>
+      </FormFooter>
     </form>
   );
 }

@@ -1,6 +1,6 @@
 import { useId, useState } from 'react';
 import { useForm } from 'react-hook-form';
-import { Button } from '../../../components/ui/form';
+import { Button, LabelAbove } from '../../../components/ui/form';
 import { FormErrorAlert } from '../../../components/ui/form-fields';
 import { applyServerErrors } from '../../../lib/form';
 import { recordLinks, useHistoryEntries, useKeptFiles, useReopen, useSignOff } from '../api/records';
@@ -62,10 +62,7 @@ export function SignOffBar({ campaign, canEdit }: { campaign: CampaignWithRole; 
             else signOff.mutate(typed, done);
           })}
         >
-          <div className="flex flex-col gap-0.5">
-            <label htmlFor={id} className="text-xs font-medium text-ink-700">
-              {s ? 'Why reopen it? (kept in the history)' : 'Note beside the sign-off (optional)'}
-            </label>
+          <LabelAbove id={id} label={s ? 'Why reopen it? (kept in the history)' : 'Note beside the sign-off (optional)'}>
             <input
               id={id}
               autoFocus
@@ -73,7 +70,7 @@ export function SignOffBar({ campaign, canEdit }: { campaign: CampaignWithRole; 
               onKeyDown={(e) => e.key === 'Escape' && close()}
               className="w-80 max-w-full rounded border border-slate-300 px-2 py-1"
             />
-          </div>
+          </LabelAbove>
           <Button type="submit" variant="primary" disabled={pending || (!!s && text.trim().length < 3)}>
             {s ? 'Reopen' : 'Sign off'}
           </Button>

@@ -9,6 +9,8 @@ import type { ImportCell, PreviewColumn } from '../api/types';
 import { FIELD_LABEL, REQUIRED_FIELDS, type MappingDraft } from '../lib/import-mapping';
 import { MEASURE_LABEL } from '../lib/labels';
 import { CompactSelect } from './compact-select';
+import { TableHead } from '../../../components/ui/table-head';
+import { errorAria } from '../../../components/ui/form';
 
 const cellText = (c: ImportCell) => (c === null || c === '' ? '∅' : String(c));
 
@@ -34,19 +36,10 @@ export function ColumnMappingStep({
     <fieldset className="flex flex-col gap-2">
       <legend className="mb-1 text-sm font-semibold text-ink-900">Map the file’s columns</legend>
       <table className="tnum w-full border-collapse text-sm" aria-label="Column mapping">
-        <thead className="text-xs text-ink-600">
-          <tr className="border-b border-slate-200">
-            <th scope="col" className="px-2 py-1 text-left font-medium">
-              Field
-            </th>
-            <th scope="col" className="px-2 py-1 text-left font-medium">
-              Column in the file
-            </th>
-            <th scope="col" className="px-2 py-1 text-left font-medium">
-              First values
-            </th>
-          </tr>
-        </thead>
+        <TableHead
+          className="text-xs text-ink-600"
+          columns={['Field', 'Column in the file', 'First values'].map((label) => ({ label, align: 'left' }))}
+        />
         <tbody>
           {IMPORT_FIELDS.map((field) => {
             const chosen = draft.columns[field];
@@ -67,8 +60,7 @@ export function ColumnMappingStep({
                     id={id}
                     value={chosen === null ? '' : String(chosen)}
                     onChange={(e) => setColumn(field, e.target.value)}
-                    aria-invalid={error ? true : undefined}
-                    aria-describedby={error ? `${id}-err` : undefined}
+                    {...errorAria(id, !!error)}
                     className={`w-56 rounded border bg-white px-1.5 py-1 text-sm ${error ? 'border-rose-600' : 'border-slate-300'}`}
                   >
                     <option value="">— not in the file —</option>

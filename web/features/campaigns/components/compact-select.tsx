@@ -1,4 +1,4 @@
-import { FieldErrorLine } from '../../../components/ui/form';
+import { errorAria, FieldErrorLine, LabelAbove } from '../../../components/ui/form';
 
 /** A small labelled select of the upload steps, its error (if any) below it. */
 export function CompactSelect<T extends string>({
@@ -20,16 +20,12 @@ export function CompactSelect<T extends string>({
   onChange: (v: T | null) => void;
 }) {
   return (
-    <div className="flex flex-col gap-0.5">
-      <label htmlFor={id} className="text-xs font-medium text-ink-700">
-        {label}
-      </label>
+    <LabelAbove id={id} label={label}>
       <select
         id={id}
         value={value ?? ''}
         onChange={(e) => onChange(e.target.value === '' ? null : (e.target.value as T))}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={error ? `${id}-err` : undefined}
+        {...errorAria(id, !!error)}
         className={`rounded border bg-white px-1.5 py-1 text-sm ${error ? 'border-rose-600' : 'border-slate-300'}`}
       >
         {blank !== undefined && <option value="">{blank}</option>}
@@ -40,6 +36,6 @@ export function CompactSelect<T extends string>({
         ))}
       </select>
       {error && <FieldErrorLine id={`${id}-err`} message={error} className="text-xs text-rose-700" />}
-    </div>
+    </LabelAbove>
   );
 }

@@ -1,7 +1,7 @@
 import { useId } from 'react';
 import { useForm } from 'react-hook-form';
 import { measurementExclusionSchema } from '../../../../api/features/campaigns/schemas';
-import { Button, FieldErrorLine } from '../../../components/ui/form';
+import { Button, errorAria, FieldErrorLine, LabelAbove } from '../../../components/ui/form';
 import { applyServerErrors, checkedResolver, errorAt, FORM_ERROR } from '../../../lib/form';
 
 const resolver = checkedResolver(({ reason }: { reason: string }) => {
@@ -34,22 +34,18 @@ export function ExclusionForm({
       className="flex flex-wrap items-start gap-2"
       onSubmit={form.handleSubmit((text) => onSubmit(text).catch((err: unknown) => applyServerErrors(form.setError, err, ['reason'])))}
     >
-      <div className="flex flex-col gap-0.5">
-        <label htmlFor={id} className="text-xs font-medium text-ink-700">
-          Why exclude {rowLabel}? (kept, shown hollow, left out of the fit)
-        </label>
+      <LabelAbove id={id} label={`Why exclude ${rowLabel}? (kept, shown hollow, left out of the fit)`}>
         <input
           id={id}
           autoFocus
           {...reason}
           onKeyDown={(e) => e.key === 'Escape' && onCancel()}
-          aria-invalid={error ? true : undefined}
-          aria-describedby={error ? `${id}-err` : undefined}
+          {...errorAria(id, !!error)}
           placeholder="e.g. internal probe failed; bath drifted 4 K"
           className={`w-96 rounded border px-2 py-1 text-sm ${error ? 'border-rose-600 bg-rose-50' : 'border-slate-300 bg-white'}`}
         />
         {error && <FieldErrorLine id={`${id}-err`} message={error} className="text-xs text-rose-700" />}
-      </div>
+      </LabelAbove>
       <div className="flex gap-2 pt-4">
         <Button type="submit" variant="primary" disabled={pending}>
           Exclude

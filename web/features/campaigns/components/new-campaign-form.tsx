@@ -1,7 +1,7 @@
 import { useForm } from 'react-hook-form';
 import { useNavigate } from 'react-router-dom';
 import { Button } from '../../../components/ui/form';
-import { FormErrorAlert } from '../../../components/ui/form-fields';
+import { FormFooter } from '../../../components/ui/form-fields';
 import { paths } from '../../../config/paths';
 import { checkedResolver, submitThrough } from '../../../lib/form';
 import { useCreateCampaign } from '../api/campaigns';
@@ -26,13 +26,14 @@ export function NewCampaignForm({ projectId, onCancel }: { projectId: string; on
       onSubmit={submitThrough(form, create, CAMPAIGN_FIELDS, { onSuccess: (c) => navigate(paths.campaign.getHref(c.id)) })}
     >
       <CampaignFields control={form.control} />
-      <FormErrorAlert control={form.control} />
-      <div className="flex gap-2">
-        <Button type="submit" variant="primary" disabled={create.isPending}>
-          {create.isPending ? 'Creating…' : 'Create campaign'}
-        </Button>
+      <FormFooter
+        control={form.control}
+        pending={create.isPending}
+        submit={create.isPending ? 'Creating…' : 'Create campaign'}
+        className="flex gap-2"
+      >
         <Button onClick={onCancel}>Cancel</Button>
-      </div>
+      </FormFooter>
     </form>
   );
 }

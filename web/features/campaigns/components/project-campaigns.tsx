@@ -2,7 +2,7 @@ import { useId, useState, type ReactNode } from 'react';
 import { useForm } from 'react-hook-form';
 import { Link } from 'react-router-dom';
 import { SafetyCaution } from '../../../components/ui/caution';
-import { Button } from '../../../components/ui/form';
+import { Button, errorAria, LabelAbove } from '../../../components/ui/form';
 import { paths } from '../../../config/paths';
 import { enantiomericRatio, fixed, percentColumn, withUncertainty, lnRatioOf, lnRatioRange } from '../../../lib/format';
 import { ConventionNote } from '../../../components/ui/fields';
@@ -127,22 +127,18 @@ export function ProjectCampaigns({ projectId, canEdit }: { projectId: string; ca
               if (atValid) setAtCelsius(parsedAt);
             }}
           >
-            <div className="flex flex-col gap-0.5">
-              <label htmlFor={atId} className="text-xs font-medium text-ink-700">
-                Forecast at
-              </label>
+            <LabelAbove id={atId} label="Forecast at">
               <div className="flex items-center gap-1">
                 <input
                   id={atId}
                   inputMode="decimal"
                   {...atForm.register('at')}
-                  aria-invalid={!atValid || undefined}
-                  aria-describedby={!atValid ? `${atId}-err` : undefined}
+                  {...errorAria(atId, !atValid)}
                   className={`tnum w-20 rounded border px-2 py-1 text-right text-sm ${atValid ? 'border-slate-300' : 'border-rose-600 bg-rose-50'}`}
                 />
                 <span className="text-sm text-ink-600">°C</span>
               </div>
-            </div>
+            </LabelAbove>
             <Button type="submit">Compare</Button>
             {!atValid && (
               <p id={`${atId}-err`} className="text-xs text-rose-700">

@@ -1,8 +1,8 @@
 import { useId, useMemo, useState } from 'react';
-import { useForm } from 'react-hook-form';
+import { useController, useForm, type Control } from 'react-hook-form';
 import { savedForecastCreateSchema, type TemperatureUnit } from '../../../../api/features/campaigns/schemas';
 import { SafetyCaution } from '../../../components/ui/caution';
-import { Button } from '../../../components/ui/form';
+import { Button, errorAria, LabelAbove } from '../../../components/ui/form';
 import { StaleResult, useLastDefined, type StaleReason } from '../../../components/ui/stale';
 import { applyServerErrors, errorAt, FORM_ERROR } from '../../../lib/form';
 import { enantiomericRatio, fixed, measureColumn, percent, sig, lnRatioOf, lnRatioRange } from '../../../lib/format';
@@ -76,8 +76,7 @@ export function ProposedTemperatureForecastPanel({
   const error = errorAt(atForm.formState.errors, 'text') ?? null;
   const setError = (message: string | null) =>
     message === null ? atForm.clearErrors('text') : atForm.setError('text', { type: 'validate', message });
-  const saveForm = useForm({ defaultValues: { label: '', notes: '' } });
-  const [label, notes] = saveForm.watch(['label', 'notes']);
+  const saveForm = useForm<SaveText>({ defaultValues: { label: '', notes: '' } });
   const saveErrors = saveForm.formState.errors;
   const [savedNote, setSavedNote] = useState<string | null>(null);
   const save = useSaveForecast(campaignId);
@@ -126,7 +125,7 @@ export function ProposedTemperatureForecastPanel({
 
   const doSave = () => {
     if (!prediction) return;
-    const body = { temperature: { value: prediction.celsius, unit: 'C' as const }, label, notes };
+    const body = { temperature: { value: prediction.celsius, unit: 'C' as const }, ...saveForm.getValues() };
     const parsed = savedForecastCreateSchema.safeParse(body);
     saveForm.clearErrors();
     if (!parsed.success) {
@@ -155,10 +154,7 @@ export function ProposedTemperatureForecastPanel({
           submit();
         }}
       >
-        <div className="flex flex-col gap-1">
-          <label htmlFor={id} className="text-xs font-medium text-ink-700">
-            Proposed temperature
-          </label>
+        <LabelAbove id={id} label="Proposed temperature" roomy>
           <div className="flex items-center gap-1">
             <input
               id={id}
@@ -166,8 +162,7 @@ export function ProposedTemperatureForecastPanel({
               autoComplete="off"
               {...atForm.register('text')}
               placeholder="e.g. −30"
-              aria-invalid={error ? true : undefined}
-              aria-describedby={error ? `${id}-err` : undefined}
+              {...errorAria(id, !!error)}
               className={`tnum w-24 rounded border px-2 py-1 text-right text-sm ${error ? 'border-rose-600 bg-rose-50' : 'border-slate-300 bg-white'}`}
             />
             <select
@@ -182,7 +177,7 @@ export function ProposedTemperatureForecastPanel({
               ))}
             </select>
           </div>
-        </div>
+        </LabelAbove>
         <Button type="submit" variant="primary">
           Forecast
         </Button>
@@ -231,20 +226,8 @@ export function ProposedTemperatureForecastPanel({
                 doSave();
               }}
             >
-              <SmallField
-                label="Label (optional)"
-                value={label}
-                onChange={(v) => saveForm.setValue('label', v)}
-                error={saveErrors.label?.message}
-                width="w-48"
-              />
-              <SmallField
-                label="Note"
-                value={notes}
-                onChange={(v) => saveForm.setValue('notes', v)}
-                error={saveErrors.notes?.message}
-                width="w-80"
-              />
+              <SmallField control={saveForm.control} name="label" label="Label (optional)" width="w-48" />
+              <SmallField control={saveForm.control} name="notes" label="Note" width="w-80" />
               <Button type="submit" disabled={save.isPending}>
                 {save.isPending ? 'Saving…' : `Save forecast at ${fixed(shown.prediction.celsius, 1)} °C`}
               </Button>
@@ -301,31 +284,24 @@ function intervalText(display: DisplayMeasure, [a, b]: [number, number], cell: (
   return `${cell(lo)} to ${cell(hi)}`;
 }
 
-function SmallField({
-  label,
-  value,
-  onChange,
-  error,
-  width,
-}: {
+/** The texts kept with a saved forecast. */
+interface SaveText {
   label: string;
-  value: string;
-  onChange: (v: string) => void;
-  error?: string;
-  width: string;
-}) {
+  notes: string;
+}
+
+/** A text input of the save form, bound to its field `name` (value and error). */
+function SmallField({ control, name, label, width }: { control: Control<SaveText>; name: keyof SaveText; label: string; width: string }) {
   const id = useId();
+  const { field, fieldState } = useController({ control, name });
+  const error = fieldState.error?.message;
   return (
-    <div className="flex flex-col gap-0.5">
-      <label htmlFor={id} className="text-xs font-medium text-ink-700">
-        {label}
-      </label>
+    <LabelAbove id={id} label={label}>
       <input
         id={id}
-        value={value}
-        onChange={(e) => onChange(e.target.value)}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={error ? `${id}-err` : undefined}
+        value={field.value}
+        onChange={(e) => field.onChange(e.target.value)}
+        {...errorAria(id, !!error)}
         className={`${width} rounded border px-2 py-1 text-sm ${error ? 'border-rose-600 bg-rose-50' : 'border-slate-300 bg-white'}`}
       />
       {error && (
@@ -333,7 +309,7 @@ function SmallField({
           ✕ {error}
         </p>
       )}
-    </div>
+    </LabelAbove>
   );
 }
 

@@ -1,6 +1,6 @@
 import { useEffect, useId, useReducer, useRef, useState, type RefObject } from 'react';
 import type { ImportParseOptions } from '../../../../api/features/campaigns/schemas';
-import { Button } from '../../../components/ui/form';
+import { Button, LabelAbove } from '../../../components/ui/form';
 import { ApiError } from '../../../lib/api-client';
 import { fixed } from '../../../lib/format';
 import { useImportFile, usePreviewImport } from '../api/imports';
@@ -13,6 +13,7 @@ import { SECONDS_PER } from '../../../../api/science/quantities';
 import { ColumnMappingStep } from './column-mapping-step';
 import { recordLinks } from '../api/records';
 import { CompactSelect } from './compact-select';
+import { TableHead } from '../../../components/ui/table-head';
 
 const DELIMITER_TEXT: Record<string, string> = { ',': 'comma', ';': 'semicolon', '\t': 'tab' };
 
@@ -141,10 +142,7 @@ export function UploadWizard({ campaignId, projectId }: { campaignId: string; pr
   return (
     <div className="flex flex-col gap-3">
       <div className="flex flex-wrap items-end gap-3">
-        <div className="flex flex-col gap-1">
-          <label htmlFor={fileId} className="text-xs font-medium text-ink-700">
-            CSV, TSV or Excel workbook (.xlsx), up to 10 MB
-          </label>
+        <LabelAbove id={fileId} label="CSV, TSV or Excel workbook (.xlsx), up to 10 MB" roomy>
           <input
             id={fileId}
             type="file"
@@ -153,7 +151,7 @@ export function UploadWizard({ campaignId, projectId }: { campaignId: string; pr
             onChange={(e) => choose(e.target.files?.[0] ?? null)}
             className="text-sm file:mr-3 file:rounded file:border file:border-slate-300 file:bg-white file:px-3 file:py-1.5 file:text-sm file:text-ink-800"
           />
-        </div>
+        </LabelAbove>
         <a className="pb-1.5 text-sm text-fjord-700 underline" href={recordLinks.importTemplate(campaignId)} download>
           <span aria-hidden="true">⤓ </span>Download a template (CSV)
         </a>
@@ -399,22 +397,10 @@ export function IssueTable({ issues, total }: { issues: ImportIssue[]; total: nu
       <div className="max-h-64 overflow-auto rounded border border-slate-200">
         <table className="w-full border-collapse text-left text-xs">
           <caption className="sr-only">Problems found in the file, by row</caption>
-          <thead className="sticky top-0 bg-slate-50 text-ink-600">
-            <tr className="border-b border-slate-200">
-              <th scope="col" className="px-2 py-1 font-medium">
-                Kind
-              </th>
-              <th scope="col" className="px-2 py-1 text-right font-medium">
-                Row
-              </th>
-              <th scope="col" className="px-2 py-1 font-medium">
-                Column
-              </th>
-              <th scope="col" className="px-2 py-1 font-medium">
-                Problem
-              </th>
-            </tr>
-          </thead>
+          <TableHead
+            className="sticky top-0 bg-slate-50 text-ink-600"
+            columns={[{ label: 'Kind' }, { label: 'Row', align: 'right' }, { label: 'Column' }, { label: 'Problem' }]}
+          />
           <tbody>
             {issues.map((i, k) => (
               <tr key={k} className={`border-b border-slate-100 align-top ${i.severity === 'error' ? 'bg-rose-50/60' : 'bg-caution-50'}`}>

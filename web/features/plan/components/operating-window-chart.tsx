@@ -1,7 +1,6 @@
 import { useId, useMemo } from 'react';
-import { LineSeries } from '@visx/xychart';
 import { ChartFrame, valueScale } from '../../../components/charts/chart-frame';
-import { CelsiusAxis, ChartAxis, HorizontalRule, VerticalMark, usePlotArea } from '../../../components/charts/chart-layers';
+import { CelsiusAxis, ChartAxis, FittedLine, HorizontalRule, VerticalMark, usePlotArea } from '../../../components/charts/chart-layers';
 import { chartColors, chartFont, paddedExtent } from '../../../components/charts/chart-theme';
 import { useElementWidth } from '../../../components/charts/use-element-width';
 import { fixed, sig } from '../../../lib/format';
@@ -162,14 +161,7 @@ function WindowPanel({
           >
             <Excluded regions={regions} labelled={labelled} />
             {band && <Band points={band} />}
-            <LineSeries
-              dataKey={testId}
-              data={data}
-              xAccessor={(d) => d.x}
-              yAccessor={(d) => d.y}
-              stroke={chartColors.accent}
-              strokeWidth={2}
-            />
+            <FittedLine dataKey={testId} data={data} />
             {rule && <HorizontalRule y={rule.y} label={rule.label} />}
             {recommended !== null && <VerticalMark x={recommended} label={`▼ recommended ${fixed(recommended, 1)} °C`} />}
             <CelsiusAxis />

@@ -1,7 +1,6 @@
 import { useNavigate } from 'react-router-dom';
 import { projectFieldsSchema } from '../../../../api/features/projects/schemas';
-import { Button } from '../../../components/ui/form';
-import { FormErrorAlert, FormTextField } from '../../../components/ui/form-fields';
+import { FormFooter, FormTextField } from '../../../components/ui/form-fields';
 import { paths } from '../../../config/paths';
 import { submitThrough, useZodForm } from '../../../lib/form';
 import { useCreateProject } from '../api/projects';
@@ -24,12 +23,7 @@ export function CreateProjectForm() {
         label="Description"
         hint="Optional: the step, the specification, the team."
       />
-      <FormErrorAlert control={form.control} />
-      <div>
-        <Button type="submit" variant="primary" disabled={create.isPending}>
-          Create project
-        </Button>
-      </div>
+      <FormFooter control={form.control} pending={create.isPending} submit="Create project" />
     </form>
   );
 }

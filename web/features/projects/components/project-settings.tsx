@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { Link, useNavigate } from 'react-router-dom';
 import { invitationSchema, projectDetailsSchema, type InvitationFields, type ProjectRole } from '../../../../api/features/projects/schemas';
 import { Button, FormAlert, SelectField } from '../../../components/ui/form';
-import { FormErrorAlert, FormSelectField, FormTextField } from '../../../components/ui/form-fields';
+import { FormFooter, FormSelectField, FormTextField } from '../../../components/ui/form-fields';
 import { Panel } from '../../../components/ui/page';
 import { paths } from '../../../config/paths';
 import { applyServerErrors, submitThrough, useZodForm } from '../../../lib/form';
@@ -27,17 +27,13 @@ function DetailsForm({ project }: { project: Project }) {
     >
       <FormTextField control={form.control} name="name" label="Name" />
       <FormTextField control={form.control} name="description" label="Description" />
-      <FormErrorAlert control={form.control} />
-      <div className="flex items-center gap-3">
-        <Button type="submit" variant="primary" disabled={update.isPending}>
-          Save details
-        </Button>
+      <FormFooter control={form.control} pending={update.isPending} submit="Save details" className="flex items-center gap-3">
         {update.isSuccess && (
           <span role="status" className="text-sm text-fjord-700">
             ✓ Saved
           </span>
         )}
-      </div>
+      </FormFooter>
     </form>
   );
 }
@@ -160,17 +156,13 @@ function Invitations({ project }: { project: Project }) {
       >
         <FormTextField control={form.control} name="email" type="email" inputMode="email" label="E-mail address" />
         <FormSelectField<InvitationFields, ProjectRole> control={form.control} name="role" label="Role" options={roleOptions} />
-        <FormErrorAlert control={form.control} />
-        <div className="flex items-center gap-3">
-          <Button type="submit" variant="primary" disabled={create.isPending}>
-            Send invitation
-          </Button>
+        <FormFooter control={form.control} pending={create.isPending} submit="Send invitation" className="flex items-center gap-3">
           {sentTo && (
             <span role="status" className="text-sm text-fjord-700">
               ✓ Sent to {sentTo}
             </span>
           )}
-        </div>
+        </FormFooter>
         <p className="text-xs text-ink-500">
           The e-mail holds a link that works once and expires after 7 days. Only someone signed in with that address can accept it.
         </p>

@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { createTokenSchema, TOKEN_MAX_DAYS } from '../../../../api/features/tokens/schemas';
 import { Button } from '../../../components/ui/form';
-import { FormErrorAlert, FormTextField } from '../../../components/ui/form-fields';
+import { FormFooter, FormTextField } from '../../../components/ui/form-fields';
 import { Panel } from '../../../components/ui/page';
 import { submitThrough, useZodForm } from '../../../lib/form';
 import { useCreateToken, useRevokeToken, useTokens, type ApiTokenInfo } from '../api/tokens';
@@ -118,12 +118,7 @@ export function TokenManager() {
             inputMode="numeric"
             hint={`1 to ${TOKEN_MAX_DAYS} days.`}
           />
-          <FormErrorAlert control={form.control} />
-          <div>
-            <Button type="submit" variant="primary" disabled={create.isPending}>
-              Create token
-            </Button>
-          </div>
+          <FormFooter control={form.control} pending={create.isPending} submit="Create token" />
         </form>
       </Panel>
     </div>
