@@ -9,6 +9,7 @@ import path from 'node:path';
 import { Resvg, renderAsync, type ResvgRenderOptions } from '@resvg/resvg-js';
 import { LRUCache } from 'lru-cache';
 import { chartColors } from '../../lib/chart-colors';
+import { encodePng } from './png';
 import { fixed, lnOf, lnRange } from './report-format';
 import type { ReportModel } from './report-model';
 
@@ -475,12 +476,13 @@ export function renderPng(svgText: string, scale = CHART_SCALE): Buffer {
   return png;
 }
 
-/** As `renderPng`, rasterised on libuv's thread pool. */
+/** As `renderPng`, rasterised and compressed on libuv's thread pool. */
 async function renderPngAsync(svgText: string, scale: number): Promise<Buffer> {
   const key = cacheKey(svgText, scale);
   const hit = pngCache.get(key);
   if (hit) return hit;
-  const png = Buffer.from((await renderAsync(svgText, renderOptions(scale))).asPng());
+  const image = await renderAsync(svgText, renderOptions(scale));
+  const png = await encodePng(image.width, image.height, image.pixels, true);
   pngCache.set(key, png);
   return png;
 }
