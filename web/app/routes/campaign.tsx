@@ -1,4 +1,4 @@
-import { memo, useState } from 'react';
+import { memo, startTransition, useEffect, useState, type ReactNode } from 'react';
 import { useParams } from 'react-router-dom';
 import { Button } from '../../components/ui/form';
 import { Page, Panel, UnreadyPage } from '../../components/ui/page';
@@ -27,6 +27,25 @@ const INVENTED = /kestrelmoor|invented/i;
 // of the page's other requests (project, saved forecasts, files, history) comes back.
 const CampaignAnalysisPart = memo(CampaignAnalysis);
 const MeasurementGridPart = memo(MeasurementGrid);
+
+/**
+ * The panels below the result: the browser lays them out and paints them only when they come near
+ * the screen (content-visibility), so the grid of runs and the forms below the fold do not add to
+ * every layout of the page while it loads. The remembered height (auto) keeps the scrollbar steady
+ * once a panel has been seen.
+ */
+const BELOW_THE_FOLD = '[content-visibility:auto] [contain-intrinsic-size:auto_24rem]';
+
+/**
+ * The panels that are not read on arrival (forecast, planner, saved forecasts, mail, upload, files,
+ * history) mount after the page's first paint, in a transition: React then builds them in short
+ * slices between the browser's frames instead of in the same long task as the result.
+ */
+function AfterFirstPaint({ children }: { children: ReactNode }) {
+  const [shown, setShown] = useState(false);
+  useEffect(() => startTransition(() => setShown(true)), []);
+  return shown ? children : null;
+}
 
 function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
   const canEdit = campaign.role !== 'viewer';
@@ -143,31 +162,39 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
           )}
         </Panel>
 
-        <Panel title="Forecast at a proposed temperature">
-          <ProposedTemperatureForecastPanel
-            campaignId={campaign.id}
-            analysis={analysis.isError ? undefined : analysis.data}
-            atCelsius={atCelsius}
-            onAt={setAtCelsius}
-            weighting={weighting}
-            canEdit={canEdit}
-            measure={campaign.measure}
-            failed={analysis.isError}
-            onRetry={worthRetrying(analysis.error) ? retryAnalysis : undefined}
-            retrying={analysis.isFetching}
-          />
+        <Panel title="Forecast at a proposed temperature" className={BELOW_THE_FOLD}>
+          <AfterFirstPaint>
+            <ProposedTemperatureForecastPanel
+              campaignId={campaign.id}
+              analysis={analysis.isError ? undefined : analysis.data}
+              atCelsius={atCelsius}
+              onAt={setAtCelsius}
+              weighting={weighting}
+              canEdit={canEdit}
+              measure={campaign.measure}
+              failed={analysis.isError}
+              onRetry={worthRetrying(analysis.error) ? retryAnalysis : undefined}
+              retrying={analysis.isFetching}
+            />
+          </AfterFirstPaint>
         </Panel>
-        <Panel title="Plan the temperature">
-          <PlannerPanel campaignId={campaign.id} projectId={campaign.projectId} canEdit={canEdit} />
+        <Panel title="Plan the temperature" className={BELOW_THE_FOLD}>
+          <AfterFirstPaint>
+            <PlannerPanel campaignId={campaign.id} projectId={campaign.projectId} canEdit={canEdit} />
+          </AfterFirstPaint>
         </Panel>
-        <Panel title="Saved forecasts">
-          <SavedForecasts campaignId={campaign.id} canEdit={canEdit} measure={campaign.measure} assaySd={assaySd} />
+        <Panel title="Saved forecasts" className={BELOW_THE_FOLD}>
+          <AfterFirstPaint>
+            <SavedForecasts campaignId={campaign.id} canEdit={canEdit} measure={campaign.measure} assaySd={assaySd} />
+          </AfterFirstPaint>
         </Panel>
-        <Panel title="E-mail the report">
-          <ReportMailForm campaignId={campaign.id} projectId={campaign.projectId} />
+        <Panel title="E-mail the report" className={BELOW_THE_FOLD}>
+          <AfterFirstPaint>
+            <ReportMailForm campaignId={campaign.id} projectId={campaign.projectId} />
+          </AfterFirstPaint>
         </Panel>
 
-        <Panel title={`Measurements${measurements.data ? ` (${measurements.data.length})` : ''}`}>
+        <Panel title={`Measurements${measurements.data ? ` (${measurements.data.length})` : ''}`} className={BELOW_THE_FOLD}>
           {measurements.isPending && <p className="text-sm text-ink-500">Loading measurements…</p>}
           {measurements.isError && (
             <div role="alert" className="flex flex-wrap items-center gap-2 text-sm text-rose-700">
@@ -187,17 +214,23 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
         </Panel>
 
         {canEditRuns && (
-          <Panel title="Upload a file">
-            <UploadWizard campaignId={campaign.id} projectId={campaign.projectId} />
+          <Panel title="Upload a file" className={BELOW_THE_FOLD}>
+            <AfterFirstPaint>
+              <UploadWizard campaignId={campaign.id} projectId={campaign.projectId} />
+            </AfterFirstPaint>
           </Panel>
         )}
 
-        <Panel title="Uploaded files">
-          <KeptFiles campaignId={campaign.id} />
+        <Panel title="Uploaded files" className={BELOW_THE_FOLD}>
+          <AfterFirstPaint>
+            <KeptFiles campaignId={campaign.id} />
+          </AfterFirstPaint>
         </Panel>
 
-        <Panel title="History">
-          <CampaignHistory campaignId={campaign.id} />
+        <Panel title="History" className={BELOW_THE_FOLD}>
+          <AfterFirstPaint>
+            <CampaignHistory campaignId={campaign.id} />
+          </AfterFirstPaint>
         </Panel>
       </div>
     </Page>

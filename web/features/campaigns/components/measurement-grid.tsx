@@ -8,6 +8,7 @@ import { useGridEdits, type GridRow } from '../hooks/use-grid-edits';
 import { GRID_COLUMNS, parsePastedBlock, type GridColumn } from '../lib/grid';
 import { MEASURE_LABEL, uncertaintyUnit } from '../lib/labels';
 import { ExclusionForm } from './exclusion-form';
+import { measureRowAfterLayout, observeBoxAfterLayout, scrollBoxTo } from '../../../lib/virtual-rows';
 
 const TEMPERATURE_UNITS: { value: TemperatureUnit; label: string }[] = [
   { value: 'C', label: '°C' },
@@ -91,6 +92,9 @@ export function MeasurementGrid({
     // Until the box is measured, draw what a typical screen shows.
     initialRect: INITIAL_RECT,
     getItemKey,
+    measureElement: measureRowAfterLayout,
+    observeElementRect: observeBoxAfterLayout,
+    scrollToFn: scrollBoxTo,
   });
   const items = virtual ? virtualizer.getVirtualItems() : rows.map((_, index) => ({ index, start: 0, key: rows[index].key }));
   const padTop = virtual && items.length ? items[0].start : 0;
