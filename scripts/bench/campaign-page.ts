@@ -11,6 +11,7 @@
  * API, and prints both medians and their ratio: the fair comparison on a machine whose load varies.
  * EYRIE_PAGE_PROFILE=file.cpuprofile adds one load under the DevTools CPU profiler and prints the
  * page's requests with their timings and the number of elements in its charts and tables.
+ * EYRIE_PAGE_LOADS=n counts n loads instead of 5; EYRIE_PAGE_DIST=<dist/web> serves that build as this one.
  *
  * Needs DATABASE_URL and dist/web (npm run bench provides both).
  */
@@ -230,6 +231,8 @@ async function run() {
     knex,
     config: loadConfig({ nodeEnv: 'test', devTools: true, databaseUrl: process.env.DATABASE_URL! }),
     fakeOAuth: provider,
+    // Another build in place of dist/web (say, one built with `vite build --minify false` for a readable profile).
+    ...(process.env.EYRIE_PAGE_DIST ? { webDist: process.env.EYRIE_PAGE_DIST } : {}),
   });
   const tag = randomBytes(4).toString('hex');
   const identity = { login: `page-bench-${tag}`, name: 'Page bench', email: `page-bench-${tag}@example.test` };

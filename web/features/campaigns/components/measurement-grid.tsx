@@ -27,7 +27,11 @@ const VIRTUAL_FROM_ROWS = 120;
 /** Height of one row before it is measured (px). */
 const ROW_HEIGHT_ESTIMATE = 33;
 const estimateSize = () => ROW_HEIGHT_ESTIMATE;
-const INITIAL_RECT = { width: 1200, height: 700 };
+/**
+ * The box before the browser has measured it: its own height cap (70 % of the window, read without
+ * a layout). It stays unmeasured while the panel is off screen (the page lays it out only when near).
+ */
+const initialRect = () => ({ width: 1200, height: typeof window === 'undefined' ? 700 : Math.round(window.innerHeight * 0.7) });
 
 const COLUMN_TITLE: Record<GridColumn, string> = {
   temperature: 'Temperature',
@@ -90,7 +94,7 @@ export function MeasurementGrid({
     estimateSize,
     overscan: 12,
     // Until the box is measured, draw what a typical screen shows.
-    initialRect: INITIAL_RECT,
+    initialRect: initialRect(),
     getItemKey,
     measureElement: measureRowAfterLayout,
     observeElementRect: observeBoxAfterLayout,
