@@ -29,14 +29,6 @@ const CampaignAnalysisPart = memo(CampaignAnalysis);
 const MeasurementGridPart = memo(MeasurementGrid);
 
 /**
- * The panels below the result: the browser lays them out and paints them only when they come near
- * the screen (content-visibility), so the grid of runs and the forms below the fold do not add to
- * every layout of the page while it loads. The remembered height (auto) keeps the scrollbar steady
- * once a panel has been seen.
- */
-const BELOW_THE_FOLD = '[content-visibility:auto] [contain-intrinsic-size:auto_24rem]';
-
-/**
  * The panels that are not read on arrival (forecast, planner, saved forecasts, mail, upload, files,
  * history) mount after the page's first paint, in a transition: React then builds them in short
  * slices between the browser's frames instead of in the same long task as the result.
@@ -162,7 +154,7 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
           )}
         </Panel>
 
-        <Panel title="Forecast at a proposed temperature" className={BELOW_THE_FOLD}>
+        <Panel title="Forecast at a proposed temperature">
           <AfterFirstPaint>
             <ProposedTemperatureForecastPanel
               campaignId={campaign.id}
@@ -178,23 +170,23 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
             />
           </AfterFirstPaint>
         </Panel>
-        <Panel title="Plan the temperature" className={BELOW_THE_FOLD}>
+        <Panel title="Plan the temperature">
           <AfterFirstPaint>
             <PlannerPanel campaignId={campaign.id} projectId={campaign.projectId} canEdit={canEdit} />
           </AfterFirstPaint>
         </Panel>
-        <Panel title="Saved forecasts" className={BELOW_THE_FOLD}>
+        <Panel title="Saved forecasts">
           <AfterFirstPaint>
             <SavedForecasts campaignId={campaign.id} canEdit={canEdit} measure={campaign.measure} assaySd={assaySd} />
           </AfterFirstPaint>
         </Panel>
-        <Panel title="E-mail the report" className={BELOW_THE_FOLD}>
+        <Panel title="E-mail the report">
           <AfterFirstPaint>
             <ReportMailForm campaignId={campaign.id} projectId={campaign.projectId} />
           </AfterFirstPaint>
         </Panel>
 
-        <Panel title={`Measurements${measurements.data ? ` (${measurements.data.length})` : ''}`} className={BELOW_THE_FOLD}>
+        <Panel title={`Measurements${measurements.data ? ` (${measurements.data.length})` : ''}`}>
           {measurements.isPending && <p className="text-sm text-ink-500">Loading measurements…</p>}
           {measurements.isError && (
             <div role="alert" className="flex flex-wrap items-center gap-2 text-sm text-rose-700">
@@ -214,20 +206,20 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
         </Panel>
 
         {canEditRuns && (
-          <Panel title="Upload a file" className={BELOW_THE_FOLD}>
+          <Panel title="Upload a file">
             <AfterFirstPaint>
               <UploadWizard campaignId={campaign.id} projectId={campaign.projectId} />
             </AfterFirstPaint>
           </Panel>
         )}
 
-        <Panel title="Uploaded files" className={BELOW_THE_FOLD}>
+        <Panel title="Uploaded files">
           <AfterFirstPaint>
             <KeptFiles campaignId={campaign.id} />
           </AfterFirstPaint>
         </Panel>
 
-        <Panel title="History" className={BELOW_THE_FOLD}>
+        <Panel title="History">
           <AfterFirstPaint>
             <CampaignHistory campaignId={campaign.id} />
           </AfterFirstPaint>

@@ -27,10 +27,7 @@ const VIRTUAL_FROM_ROWS = 120;
 /** Height of one row before it is measured (px). */
 const ROW_HEIGHT_ESTIMATE = 33;
 const estimateSize = () => ROW_HEIGHT_ESTIMATE;
-/**
- * The box before the browser has measured it: its own height cap (70 % of the window, read without
- * a layout). It stays unmeasured while the panel is off screen (the page lays it out only when near).
- */
+/** The box before the browser has measured it: its own height cap (70 % of the window, read without a layout). */
 const initialRect = () => ({ width: 1200, height: typeof window === 'undefined' ? 700 : Math.round(window.innerHeight * 0.7) });
 
 const COLUMN_TITLE: Record<GridColumn, string> = {
