@@ -5,12 +5,13 @@
  * own Performance API: the later of DOMContentLoaded, the moment the Eyring plot's measured points,
  * the fitted parameters and the first rows of the runs list are on screen, and the end of the last
  * long task (> 50 ms, PerformanceObserver 'longtask') before the page went quiet, that is before a
- * full second passed with no long task. Median of 5 cold loads.
+ * full second passed with no long task. Median of 5 cold loads (EYRIE_PAGE_LOADS=n for more).
  *
  * EYRIE_PAGE_BASELINE=<another build's dist/web> interleaves loads of that build, served by the same
  * API, and prints both medians and their ratio: the fair comparison on a machine whose load varies.
  * EYRIE_PAGE_PROFILE=file.cpuprofile adds one load under the DevTools CPU profiler and prints the
  * page's requests with their timings and the number of elements in its charts and tables.
+ * EYRIE_PAGE_LOADS=n counts n loads instead of 5; EYRIE_PAGE_DIST=<dist/web> serves that build as this one.
  *
  * Needs DATABASE_URL and dist/web (npm run bench provides both).
  */
@@ -31,7 +32,8 @@ import type { BenchSuite } from './suites';
 import { insertSyntheticScreen } from './synthetic-screen';
 
 const RUNS = 1000;
-const LOADS = 5;
+/** Loads counted (after one warm-up); more with EYRIE_PAGE_LOADS when comparing two builds on a busy machine. */
+const LOADS = Math.max(1, Number(process.env.EYRIE_PAGE_LOADS ?? 5) || 5);
 const QUIET_MS = 1000;
 
 /** Runs in the page before its scripts: keeps every long task for the measurement. */
@@ -45,11 +47,19 @@ interface LoadFigures {
   ready: number;
   dcl: number;
   lastLongTaskEnd: number;
+  /** The renderer's own counters (CDP Performance.getMetrics) once the page is quiet: CPU time of its main thread and its layouts. */
+  mainThreadCpuMs: number;
+  layouts: number;
+  layoutMs: number;
+  styleMs: number;
+  scriptMs: number;
 }
 
 /** One cold load of `url` in a new tab, timed by the page's own clock (see the top of this file). */
 async function measureLoad(context: BrowserContext, url: string): Promise<LoadFigures> {
   const page = await context.newPage();
+  const cdp = await context.newCDPSession(page);
+  await cdp.send('Performance.enable', { timeDomain: 'threadTicks' });
   await page.goto(url, { waitUntil: 'commit' });
   // The moment the plot, the fit and the runs list are on screen, as the page's own clock reads it.
   const ready = (await (
@@ -79,15 +89,34 @@ async function measureLoad(context: BrowserContext, url: string): Promise<LoadFi
     const tasks = (window as unknown as { __eyrieLongTasks: [number, number][] }).__eyrieLongTasks;
     return { dcl: nav.domContentLoadedEventEnd, lastLongTaskEnd: tasks.reduce((m, [s, d]) => Math.max(m, s + d), 0) };
   });
+  // The main thread's CPU time hardly moves with other jobs on the machine, unlike the clock: the
+  // steadier figure when two builds are compared.
+  const { metrics } = await cdp.send('Performance.getMetrics');
+  const metric = (name: string) => metrics.find((m) => m.name === name)?.value ?? NaN;
   await page.close();
-  return { ...figures, ready, tti: Math.max(figures.dcl, ready, figures.lastLongTaskEnd) };
+  return {
+    ...figures,
+    ready,
+    tti: Math.max(figures.dcl, ready, figures.lastLongTaskEnd),
+    mainThreadCpuMs: metric('ThreadTime') * 1000,
+    layouts: metric('LayoutCount'),
+    layoutMs: metric('LayoutDuration') * 1000,
+    styleMs: metric('RecalcStyleDuration') * 1000,
+    scriptMs: metric('ScriptDuration') * 1000,
+  };
 }
 
 const medianLoad = (loads: LoadFigures[]) => [...loads].sort((a, b) => a.tti - b.tti)[Math.floor(loads.length / 2)]!;
 
+const medianOf = (loads: LoadFigures[], key: keyof LoadFigures) => median(loads.map((l) => l[key]));
+const median = (values: number[]) => [...values].sort((a, b) => a - b)[Math.floor(values.length / 2)]!;
+
 function describeLoads(loads: LoadFigures[]) {
   const m = medianLoad(loads);
-  return `${m.tti.toFixed(0)} ms (DOMContentLoaded ${m.dcl.toFixed(0)} ms, plot + fit + list on screen ${m.ready.toFixed(0)} ms, last long task ends ${m.lastLongTaskEnd.toFixed(0)} ms); all loads: ${loads.map((t) => t.tti.toFixed(0)).join(', ')} ms`;
+  return (
+    `${m.tti.toFixed(0)} ms (DOMContentLoaded ${m.dcl.toFixed(0)} ms, plot + fit + list on screen ${m.ready.toFixed(0)} ms, last long task ends ${m.lastLongTaskEnd.toFixed(0)} ms); all loads: ${loads.map((t) => t.tti.toFixed(0)).join(', ')} ms\n` +
+    `  main thread until quiet (medians): CPU ${medianOf(loads, 'mainThreadCpuMs').toFixed(0)} ms, ${medianOf(loads, 'layouts')} layouts taking ${medianOf(loads, 'layoutMs').toFixed(0)} ms, style ${medianOf(loads, 'styleMs').toFixed(0)} ms, script ${medianOf(loads, 'scriptMs').toFixed(0)} ms`
+  );
 }
 
 interface TraceEvent {
@@ -126,19 +155,25 @@ function mainThreadWork(events: TraceEvent[]): string {
     events.filter((e) => e.name === 'thread_name' && e.args?.name === 'CrRendererMain').map((e) => `${e.pid}:${e.tid}`),
   );
   const byThread = new Map<string, Map<string, number>>();
+  const countsByThread = new Map<string, Map<string, number>>();
   for (const e of events) {
     const thread = `${e.pid}:${e.tid}`;
     if (!mains.has(thread) || e.ph !== 'X' || !kinds.has(e.name)) continue;
     const totals = byThread.get(thread) ?? new Map<string, number>();
     totals.set(e.name, (totals.get(e.name) ?? 0) + (e.dur ?? 0) / 1000);
     byThread.set(thread, totals);
+    const counts = countsByThread.get(thread) ?? new Map<string, number>();
+    counts.set(e.name, (counts.get(e.name) ?? 0) + 1);
+    countsByThread.set(thread, counts);
   }
   const sum = (m: Map<string, number>) => [...m.values()].reduce((a, b) => a + b, 0);
-  const busiest = [...byThread.values()].sort((a, b) => sum(b) - sum(a))[0];
+  const busiest = [...byThread].sort((a, b) => sum(b[1]) - sum(a[1]))[0];
   if (!busiest) return 'no renderer main thread in the trace';
-  return [...busiest]
+  const counts = countsByThread.get(busiest[0])!;
+  // How often matters as much as how long for layout: each forced layout lays out the page again.
+  return [...busiest[1]]
     .sort((a, b) => b[1] - a[1])
-    .map(([k, ms]) => `${k} ${ms.toFixed(0)} ms`)
+    .map(([k, ms]) => `${k} ${ms.toFixed(0)} ms${k === 'Layout' || k === 'UpdateLayoutTree' ? ` (${counts.get(k)}×)` : ''}`)
     .join(', ');
 }
 
@@ -196,6 +231,8 @@ async function run() {
     knex,
     config: loadConfig({ nodeEnv: 'test', devTools: true, databaseUrl: process.env.DATABASE_URL! }),
     fakeOAuth: provider,
+    // Another build in place of dist/web (say, one built with `vite build --minify false` for a readable profile).
+    ...(process.env.EYRIE_PAGE_DIST ? { webDist: process.env.EYRIE_PAGE_DIST } : {}),
   });
   const tag = randomBytes(4).toString('hex');
   const identity = { login: `page-bench-${tag}`, name: 'Page bench', email: `page-bench-${tag}@example.test` };
@@ -247,15 +284,18 @@ async function run() {
       }
     }
     if (process.env.EYRIE_PAGE_PROFILE) await profileOneLoad(context, url, process.env.EYRIE_PAGE_PROFILE);
-    const median = medianLoad(times);
+    const middle = medianLoad(times);
     console.log(`\nCampaign page, ${RUNS} runs charted and listed, headless Chromium, median of ${LOADS} loads after one warm-up`);
-    console.log(`time to interactive ${describeLoads(times)}; target ≤ 500 ms`);
+    console.log(`time to interactive (target ≤ 500 ms) ${describeLoads(times)}`);
     if (baselineTimes.length) {
       const baseline = medianLoad(baselineTimes);
       console.log(`baseline build (${baselineDist}), loads interleaved: ${describeLoads(baselineTimes)}`);
-      console.log(`this build / baseline: ${(median.tti / baseline.tti).toFixed(2)}×`);
+      console.log(
+        `this build / baseline: ${(middle.tti / baseline.tti).toFixed(2)}× to interactive, ` +
+          `${(medianOf(times, 'mainThreadCpuMs') / medianOf(baselineTimes, 'mainThreadCpuMs')).toFixed(2)}× main-thread CPU`,
+      );
     }
-    recordFigure('campaignPageMs', median.tti, 0);
+    recordFigure('campaignPageMs', middle.tti, 0);
   } finally {
     if (baselineServer) {
       const server = baselineServer;

@@ -8,6 +8,7 @@
  */
 import type { Knex } from 'knex';
 import { createHash } from 'node:crypto';
+import { brotliOnce } from '../../lib/compress';
 import { LRUCache } from 'lru-cache';
 import { SIGN_CONVENTION, kelvinToCelsius, parseSelectivity, sigmaLnRatio, type EyringMeasurement } from '../../science';
 import { BadRequestError } from '../../lib/errors';
@@ -288,6 +289,17 @@ export async function analyseCampaign(db: Knex, projectId: string, campaignId: s
 export interface SerialisedAnalysis {
   etag: string;
   body: string;
+  /** The body compressed with brotli, made on the first request that accepts it (about a sixth of the body, not counted in the cache's size). */
+  brotli?: Promise<Buffer>;
+}
+
+/** The entry's body compressed with brotli, compressed once per cached entry and then reused. */
+export function brotliBody(entry: SerialisedAnalysis): Promise<Buffer> {
+  entry.brotli ??= brotliOnce(entry.body).catch((err: unknown) => {
+    entry.brotli = undefined;
+    throw err;
+  });
+  return entry.brotli;
 }
 
 /**

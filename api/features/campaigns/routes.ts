@@ -9,7 +9,8 @@ import { historyCsv, readHistory } from '../audit/history';
 import { importTemplateCsv, listImportFiles } from '../imports/files';
 import { importMeasurements, storedRowKeys } from '../imports/service';
 import { previewInPool } from '../imports/parse-pool';
-import { serialisedCampaignAnalysis } from './analysis';
+import { brotliBody, serialisedCampaignAnalysis } from './analysis';
+import { COMPRESS_FROM_BYTES } from '../../lib/compress';
 import { listCampaignForecasts, saveCampaignForecast } from './analysis-forecasts';
 import { analysisQuerySchema } from './analysis-schemas';
 import { reportFileName } from './report';
@@ -223,18 +224,20 @@ export function campaignsRouter(deps: {
   });
 
   router.get('/:campaignId/analysis', byCampaign('viewer'), async (req, res) => {
-    const { etag: tag, body } = await serialisedCampaignAnalysis(
-      knex,
-      req.project!.id,
-      campaignId(req),
-      parseBody(analysisQuerySchema, req.query),
-    );
+    const entry = await serialisedCampaignAnalysis(knex, req.project!.id, campaignId(req), parseBody(analysisQuerySchema, req.query));
     // The body carries nothing about the caller, so the tag need not either; authorization above runs
     // before any 304, so a caller who may not read the campaign never learns its tag. Browsers
     // still keep no copy (private, no-store): scripts send If-None-Match themselves.
-    res.set({ ETag: tag, 'Cache-Control': 'private, no-store', Vary: 'Cookie, Authorization' });
+    res.set({ ETag: entry.etag, 'Cache-Control': 'private, no-store', Vary: 'Cookie, Authorization, Accept-Encoding' });
     if (req.fresh) return void res.status(304).end();
-    res.type('application/json').send(body);
+    res.type('application/json');
+    // A large analysis goes to a browser as the brotli copy kept with the cached entry, compressed
+    // once rather than on every request (the compression middleware leaves an encoded answer alone).
+    if (entry.body.length >= COMPRESS_FROM_BYTES && req.acceptsEncodings('br', 'identity') === 'br') {
+      res.set('Content-Encoding', 'br');
+      return void res.send(await brotliBody(entry));
+    }
+    res.send(entry.body);
   });
 
   router.get('/:campaignId/forecasts', byCampaign('viewer'), async (req, res) => {

@@ -1,4 +1,4 @@
-import { memo, useState } from 'react';
+import { memo, startTransition, useEffect, useState, type ReactNode } from 'react';
 import { useParams } from 'react-router-dom';
 import { Button } from '../../components/ui/form';
 import { Page, Panel, UnreadyPage } from '../../components/ui/page';
@@ -27,6 +27,17 @@ const INVENTED = /kestrelmoor|invented/i;
 // of the page's other requests (project, saved forecasts, files, history) comes back.
 const CampaignAnalysisPart = memo(CampaignAnalysis);
 const MeasurementGridPart = memo(MeasurementGrid);
+
+/**
+ * The panels that are not read on arrival (forecast, planner, saved forecasts, mail, upload, files,
+ * history) mount after the page's first paint, in a transition: React then builds them in short
+ * slices between the browser's frames instead of in the same long task as the result.
+ */
+function AfterFirstPaint({ children }: { children: ReactNode }) {
+  const [shown, setShown] = useState(false);
+  useEffect(() => startTransition(() => setShown(true)), []);
+  return shown ? children : null;
+}
 
 function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
   const canEdit = campaign.role !== 'viewer';
@@ -144,27 +155,35 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
         </Panel>
 
         <Panel title="Forecast at a proposed temperature">
-          <ProposedTemperatureForecastPanel
-            campaignId={campaign.id}
-            analysis={analysis.isError ? undefined : analysis.data}
-            atCelsius={atCelsius}
-            onAt={setAtCelsius}
-            weighting={weighting}
-            canEdit={canEdit}
-            measure={campaign.measure}
-            failed={analysis.isError}
-            onRetry={worthRetrying(analysis.error) ? retryAnalysis : undefined}
-            retrying={analysis.isFetching}
-          />
+          <AfterFirstPaint>
+            <ProposedTemperatureForecastPanel
+              campaignId={campaign.id}
+              analysis={analysis.isError ? undefined : analysis.data}
+              atCelsius={atCelsius}
+              onAt={setAtCelsius}
+              weighting={weighting}
+              canEdit={canEdit}
+              measure={campaign.measure}
+              failed={analysis.isError}
+              onRetry={worthRetrying(analysis.error) ? retryAnalysis : undefined}
+              retrying={analysis.isFetching}
+            />
+          </AfterFirstPaint>
         </Panel>
         <Panel title="Plan the temperature">
-          <PlannerPanel campaignId={campaign.id} projectId={campaign.projectId} canEdit={canEdit} />
+          <AfterFirstPaint>
+            <PlannerPanel campaignId={campaign.id} projectId={campaign.projectId} canEdit={canEdit} />
+          </AfterFirstPaint>
         </Panel>
         <Panel title="Saved forecasts">
-          <SavedForecasts campaignId={campaign.id} canEdit={canEdit} measure={campaign.measure} assaySd={assaySd} />
+          <AfterFirstPaint>
+            <SavedForecasts campaignId={campaign.id} canEdit={canEdit} measure={campaign.measure} assaySd={assaySd} />
+          </AfterFirstPaint>
         </Panel>
         <Panel title="E-mail the report">
-          <ReportMailForm campaignId={campaign.id} projectId={campaign.projectId} />
+          <AfterFirstPaint>
+            <ReportMailForm campaignId={campaign.id} projectId={campaign.projectId} />
+          </AfterFirstPaint>
         </Panel>
 
         <Panel title={`Measurements${measurements.data ? ` (${measurements.data.length})` : ''}`}>
@@ -188,16 +207,22 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
 
         {canEditRuns && (
           <Panel title="Upload a file">
-            <UploadWizard campaignId={campaign.id} projectId={campaign.projectId} />
+            <AfterFirstPaint>
+              <UploadWizard campaignId={campaign.id} projectId={campaign.projectId} />
+            </AfterFirstPaint>
           </Panel>
         )}
 
         <Panel title="Uploaded files">
-          <KeptFiles campaignId={campaign.id} />
+          <AfterFirstPaint>
+            <KeptFiles campaignId={campaign.id} />
+          </AfterFirstPaint>
         </Panel>
 
         <Panel title="History">
-          <CampaignHistory campaignId={campaign.id} />
+          <AfterFirstPaint>
+            <CampaignHistory campaignId={campaign.id} />
+          </AfterFirstPaint>
         </Panel>
       </div>
     </Page>

@@ -195,9 +195,33 @@ export function VerticalMark({ x, label, color = chartColors.accentDark }: { x: 
   );
 }
 
+type TickProps = Parameters<NonNullable<ComponentProps<typeof Axis>['tickComponent']>>[0];
+
+/**
+ * A tick label as one plain SVG text. visx's own label measures every word of it in the page
+ * (which makes the browser lay out the page as React renders) and works out its offset with a CSS
+ * calc() parser, for labels that are single numbers here: same place, same type, none of that work.
+ */
+function TickLabel(props: TickProps) {
+  // Text's own props (wrapping, anchoring of several lines, rotation) have nothing to do for a one-line number.
+  const {
+    formattedValue,
+    verticalAnchor: _verticalAnchor,
+    width: _width,
+    angle: _angle,
+    scaleToFit: _scaleToFit,
+    lineHeight: _lineHeight,
+    capHeight: _capHeight,
+    innerRef: _innerRef,
+    innerTextRef: _innerTextRef,
+    ...svg
+  } = props;
+  return <text {...svg}>{formattedValue}</text>;
+}
+
 /** An axis in the charts' type and colours; every chart draws its axes through this. */
 export function ChartAxis(props: Omit<ComponentProps<typeof Axis>, 'labelProps' | 'tickLabelProps'>) {
-  return <Axis {...props} labelProps={axisLabelProps} tickLabelProps={tickLabelProps} />;
+  return <Axis tickComponent={TickLabel} {...props} labelProps={axisLabelProps} tickLabelProps={tickLabelProps} />;
 }
 
 /** The bottom axis of every chart drawn against temperature in °C. */

@@ -1,13 +1,19 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import { analysisResponseSchema } from '../../../../api/features/campaigns/analysis-schemas';
 import { api } from '../../../lib/api-client';
 import { campaignKeys, type AnalysisParams } from './keys';
 import type { AnalysisResponse } from './types';
 
-export function getAnalysis(campaignId: string, params: AnalysisParams) {
+/**
+ * The request leaves at once; the module that checks the answer (zod and the schemas) loads beside
+ * it rather than before it. This module stays free of zod so the route loader can import it with the
+ * first page's code and start the largest request of the campaign page at navigation.
+ */
+export function getAnalysis(campaignId: string, params: AnalysisParams): Promise<AnalysisResponse> {
   const search = new URLSearchParams({ weighting: params.weighting, confidence: '0.95' });
   if (params.atCelsius !== null) search.set('at', String(params.atCelsius));
-  return api<unknown>(`/api/v1/campaigns/${campaignId}/analysis?${search}`).then((d): AnalysisResponse => analysisResponseSchema.parse(d));
+  return Promise.all([api<unknown>(`/api/v1/campaigns/${campaignId}/analysis?${search}`), import('./analysis-check')]).then(
+    ([answer, { checkAnalysis }]) => checkAnalysis(answer),
+  );
 }
 
 export const analysisQueryOptions = (campaignId: string, params: AnalysisParams) =>

@@ -10,6 +10,7 @@ import { ChartControls, useChartControls } from '../../../components/charts/char
 import { FitWarnings, RunNote, TwoBranchBox, branchLines } from '../../../components/fit/fit-diagnostics';
 import { FitParameterTable } from '../../../components/fit/fit-parameter-table';
 import type { AnalysisResponse, FitPrediction, Measurement } from '../api/types';
+import { measureRowAfterLayout, observeBoxAfterLayout, scrollBoxTo } from '../../../lib/virtual-rows';
 import { CELSIUS } from '../lib/labels';
 import { specificationLn, specificationOnAxis, specificationText, verdictOf, type StoredSpecification } from '../../../lib/specification';
 import {
@@ -269,6 +270,9 @@ function ResidualDiagnostics({
     overscan: 10,
     initialRect: RESIDUALS_INITIAL_RECT,
     getItemKey,
+    measureElement: measureRowAfterLayout,
+    observeElementRect: observeBoxAfterLayout,
+    scrollToFn: scrollBoxTo,
   });
   const items = virtual ? virtualizer.getVirtualItems() : points.map((_, index) => ({ index, start: 0, end: 0 }));
   const padTop = virtual && items.length ? items[0]!.start : 0;

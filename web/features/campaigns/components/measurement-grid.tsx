@@ -8,6 +8,7 @@ import { useGridEdits, type GridRow } from '../hooks/use-grid-edits';
 import { GRID_COLUMNS, parsePastedBlock, type GridColumn } from '../lib/grid';
 import { MEASURE_LABEL, uncertaintyUnit } from '../lib/labels';
 import { ExclusionForm } from './exclusion-form';
+import { measureRowAfterLayout, observeBoxAfterLayout, scrollBoxTo } from '../../../lib/virtual-rows';
 
 const TEMPERATURE_UNITS: { value: TemperatureUnit; label: string }[] = [
   { value: 'C', label: '°C' },
@@ -26,7 +27,8 @@ const VIRTUAL_FROM_ROWS = 120;
 /** Height of one row before it is measured (px). */
 const ROW_HEIGHT_ESTIMATE = 33;
 const estimateSize = () => ROW_HEIGHT_ESTIMATE;
-const INITIAL_RECT = { width: 1200, height: 700 };
+/** The box before the browser has measured it: its own height cap (70 % of the window, read without a layout). */
+const initialRect = () => ({ width: 1200, height: typeof window === 'undefined' ? 700 : Math.round(window.innerHeight * 0.7) });
 
 const COLUMN_TITLE: Record<GridColumn, string> = {
   temperature: 'Temperature',
@@ -89,8 +91,11 @@ export function MeasurementGrid({
     estimateSize,
     overscan: 12,
     // Until the box is measured, draw what a typical screen shows.
-    initialRect: INITIAL_RECT,
+    initialRect: initialRect(),
     getItemKey,
+    measureElement: measureRowAfterLayout,
+    observeElementRect: observeBoxAfterLayout,
+    scrollToFn: scrollBoxTo,
   });
   const items = virtual ? virtualizer.getVirtualItems() : rows.map((_, index) => ({ index, start: 0, key: rows[index].key }));
   const padTop = virtual && items.length ? items[0].start : 0;
