@@ -634,11 +634,15 @@ export function checkCurvature(measurements: readonly EyringMeasurement[], optio
       message: 'The break check treats σ as relative (scale estimated from the scatter), so the test does not depend on it.',
     });
   }
-  const design = groupRuns(
-    Float64Array.from(usable, (p) => p.measurement.temperatureK),
-    Float64Array.from(usable, (p) => p.y),
-    Float64Array.from(usable, (_, i) => (sigma ? 1 / sigma[i]! ** 2 : 1)),
-  );
+  const runT = new Float64Array(usable.length);
+  const runY = new Float64Array(usable.length);
+  const runW = new Float64Array(usable.length);
+  for (let i = 0; i < usable.length; i++) {
+    runT[i] = usable[i]!.measurement.temperatureK;
+    runY[i] = usable[i]!.y;
+    runW[i] = sigma ? 1 / sigma[i]! ** 2 : 1;
+  }
+  const design = groupRuns(runT, runY, runW);
   const n = usable.length;
   const m = design?.groups.length ?? 0;
   if (!design || !design.validSplits.some(Boolean)) {
@@ -676,7 +680,7 @@ export function checkCurvature(measurements: readonly EyringMeasurement[], optio
     const wg = w[g]!;
     for (let r = 0; r < 4; r++) for (let c = 0; c < 4; c++) acc[r * 4 + c] += wg * row[r]! * row[c]!;
   }
-  const jtj = [0, 1, 2, 3].map((r) => Array.from(acc.subarray(r * 4, r * 4 + 4)));
+  const jtj = [0, 1, 2, 3].map((r) => [acc[r * 4]!, acc[r * 4 + 1]!, acc[r * 4 + 2]!, acc[r * 4 + 3]!]);
   const inv = invert(jtj);
   const covariance = inv ? inv.map((row) => row.map((v) => v * s2)) : null;
   const sumW = w.reduce((s, v) => s + v, 0);
