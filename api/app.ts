@@ -118,13 +118,14 @@ export function createApp(deps: AppDeps): Express {
   // (the cached campaign analysis keeps its own copy, compressed harder once).
   // Below the threshold the work would cost more than the bytes it saves: small answers (the session,
   // lists, most calculator answers) go as they are.
-  app.use(
-    compression({
-      threshold: COMPRESS_FROM_BYTES,
-      level: 1,
-      brotli: { params: { [zlib.constants.BROTLI_PARAM_QUALITY]: ON_THE_FLY_BROTLI_QUALITY } },
-    }),
-  );
+  // Without Accept-Encoding the middleware always sends identity, so such a request skips its hooks
+  // (scripts calling the calculators in a loop paid for them on every answer).
+  const compress = compression({
+    threshold: COMPRESS_FROM_BYTES,
+    level: 1,
+    brotli: { params: { [zlib.constants.BROTLI_PARAM_QUALITY]: ON_THE_FLY_BROTLI_QUALITY } },
+  });
+  app.use((req, res, next) => (req.headers['accept-encoding'] ? compress(req, res, next) : next()));
   app.use(express.json({ limit: '1mb' }));
 
   const mailbox = deps.mailbox ?? new Mailbox();

@@ -1,7 +1,7 @@
 /**
  * Benchmarks (never timed tests). Run through `npm run bench`.
  * 1. HTTP: /api/v1/forecast (200 temperatures) and /api/v1/fit (50 runs) at 50 connections,
- *    each beside a bare Express JSON route that returns the same body, in the same process setup.
+ *    each in alternating rounds with a bare Express JSON route that returns the same body, in the same process.
  * 2. Engine: fitEyring cost from 10³ to 10⁶ points (should grow linearly).
  * 3. Feature benchmarks registered in scripts/bench/suites.ts (imports, campaign analysis).
  */
@@ -27,6 +27,8 @@ import { extraSuites } from './suites';
 import { printBenchLine, recordFigure, type BenchKey } from './results';
 
 const DURATION_S = Number(process.env.BENCH_SECONDS ?? 8);
+/** Alternating rounds per HTTP comparison (the time of a side is DURATION_S, split over them). */
+const ROUNDS = Number(process.env.BENCH_ROUNDS ?? 4);
 const execFileAsync = promisify(execFile);
 const autocannonCli = createRequire(import.meta.url).resolve('autocannon/autocannon.js');
 const CONNECTIONS = 50;
@@ -37,15 +39,17 @@ function listen(app: express.Express): Promise<{ server: Server; url: string }> 
   });
 }
 
+type Load = { rps: number; p50: number; p99: number; total: number; cpuUs: number };
+
 /**
- * Load from a separate process (the autocannon CLI), so the load generator does not share the
- * server's event loop; each target first gets a short warm-up so the JIT has settled.
+ * A load generator in a separate process (the autocannon CLI), so it does not share the server's
+ * event loop. `hit(seconds)` runs it once against `url` with `body`.
  */
-async function load(url: string, body: unknown) {
+async function loader(url: string, body: unknown) {
   const dir = await mkdtemp(path.join(os.tmpdir(), 'eyrie-bench-body-'));
   const file = path.join(dir, 'body.json');
   await writeFile(file, JSON.stringify(body));
-  const run = async (seconds: number) => {
+  const hit = async (seconds: number): Promise<Load> => {
     const args = [
       autocannonCli,
       '-c',
@@ -61,25 +65,71 @@ async function load(url: string, body: unknown) {
       '--json',
       url,
     ];
+    // The server's CPU time per answer: it moves less than req/s when other jobs share the cores.
+    const cpu0 = process.cpuUsage();
     const { stdout } = await execFileAsync(process.execPath, args, { maxBuffer: 16 * 1024 * 1024 });
-    return JSON.parse(stdout) as {
+    const cpu = process.cpuUsage(cpu0);
+    const result = JSON.parse(stdout) as {
       requests: { average: number; total: number };
       latency: { p50: number; p99: number };
       non2xx: number;
       errors: number;
     };
-  };
-  try {
-    await run(2);
-    // The server's CPU time per answer: unlike req/s it hardly moves when other jobs share the cores.
-    const cpu0 = process.cpuUsage();
-    const result = await run(DURATION_S);
-    const cpu = process.cpuUsage(cpu0);
     if (result.non2xx > 0 || result.errors > 0) throw new Error(`${url}: ${result.non2xx} non-2xx answers, ${result.errors} errors`);
-    const cpuUsPerRequest = (cpu.user + cpu.system) / Math.max(1, result.requests.total);
-    return { rps: result.requests.average, p50: result.latency.p50, p99: result.latency.p99, cpuUsPerRequest };
+    return {
+      rps: result.requests.average,
+      p50: result.latency.p50,
+      p99: result.latency.p99,
+      total: result.requests.total,
+      cpuUs: cpu.user + cpu.system,
+    };
+  };
+  return { hit, close: () => rm(dir, { recursive: true, force: true }) };
+}
+
+/**
+ * Our route and the bare one in turns: a 2 s warm-up of each, then ROUNDS rounds of
+ * DURATION_S/ROUNDS seconds each, alternating, so a drift in the machine's speed (another job,
+ * clock changes) falls on both alike. The ratio is of the two routes' total answers.
+ */
+async function sideBySide(ourUrl: string, bareUrl: string, body: unknown) {
+  const ours = await loader(ourUrl, body);
+  const bare = await loader(bareUrl, body);
+  try {
+    await ours.hit(2);
+    await bare.hit(2);
+    const seconds = Math.max(1, Math.round(DURATION_S / ROUNDS));
+    const rounds: { ours: Load; bare: Load }[] = [];
+    for (let r = 0; r < ROUNDS; r++) {
+      const first = r % 2 === 0 ? await ours.hit(seconds) : await bare.hit(seconds);
+      const second = r % 2 === 0 ? await bare.hit(seconds) : await ours.hit(seconds);
+      rounds.push(r % 2 === 0 ? { ours: first, bare: second } : { ours: second, bare: first });
+    }
+    const sum = (pick: (x: { ours: Load; bare: Load }) => number) => rounds.reduce((acc, x) => acc + pick(x), 0);
+    const median = (xs: number[]) => [...xs].sort((p, q) => p - q)[Math.floor(xs.length / 2)]!;
+    return {
+      ratio: sum((x) => x.ours.total) / sum((x) => x.bare.total),
+      roundRatios: rounds.map((x) => x.ours.rps / x.bare.rps),
+      rps: sum((x) => x.ours.rps) / ROUNDS,
+      bareRps: sum((x) => x.bare.rps) / ROUNDS,
+      p50: median(rounds.map((x) => x.ours.p50)),
+      p99: median(rounds.map((x) => x.ours.p99)),
+      cpuUs:
+        sum((x) => x.ours.cpuUs) /
+        Math.max(
+          1,
+          sum((x) => x.ours.total),
+        ),
+      bareCpuUs:
+        sum((x) => x.bare.cpuUs) /
+        Math.max(
+          1,
+          sum((x) => x.bare.total),
+        ),
+    };
   } finally {
-    await rm(dir, { recursive: true, force: true });
+    await ours.close();
+    await bare.close();
   }
 }
 
@@ -113,18 +163,24 @@ async function httpSuite() {
   bare.post('/fit', (_req, res) => void res.json(fitAnswer));
   const baseline = await listen(bare);
 
-  console.log(`\nHTTP, ${CONNECTIONS} connections, ${DURATION_S} s each after a 2 s warm-up (autocannon in its own process)`);
-  console.log('endpoint                         req/s    p50 ms  p99 ms   bare req/s  ratio   server CPU µs/answer (bare)');
+  console.log(
+    `\nHTTP, ${CONNECTIONS} connections, our route and a bare Express route with the same body in turns: ${ROUNDS} rounds of ${Math.max(1, Math.round(DURATION_S / ROUNDS))} s each after a 2 s warm-up (autocannon in its own process)`,
+  );
+  console.log(
+    'endpoint                         req/s    p50 ms  p99 ms   bare req/s  ratio   per round              server CPU µs/answer (bare)',
+  );
   for (const [name, route, body, key] of [
     ['forecast (200 temperatures)', '/api/v1/forecast', forecastBody, 'forecastRatio'],
     ['fit (50 runs, 60 predictions)', '/api/v1/fit', fitBody, 'fitRatio'],
   ] as const) {
-    const r = await load(real.url + route, body);
-    const b = await load(baseline.url + route.replace('/api/v1', ''), body);
+    const r = await sideBySide(real.url + route, baseline.url + route.replace('/api/v1', ''), body);
     console.log(
-      `${name.padEnd(32)} ${r.rps.toFixed(0).padStart(6)}  ${String(r.p50).padStart(6)}  ${String(r.p99).padStart(6)}   ${b.rps.toFixed(0).padStart(10)}  ${(r.rps / b.rps).toFixed(2)}×   ${r.cpuUsPerRequest.toFixed(0)} (${b.cpuUsPerRequest.toFixed(0)})`,
+      `${name.padEnd(32)} ${r.rps.toFixed(0).padStart(6)}  ${String(r.p50).padStart(6)}  ${String(r.p99).padStart(6)}   ${r.bareRps.toFixed(0).padStart(10)}  ${r.ratio.toFixed(2)}×   ${r.roundRatios
+        .map((x) => x.toFixed(2))
+        .join(' ')
+        .padEnd(22)} ${r.cpuUs.toFixed(0)} (${r.bareCpuUs.toFixed(0)})`,
     );
-    recordFigure(key, r.rps / b.rps);
+    recordFigure(key, r.ratio);
   }
   real.server.close();
   baseline.server.close();
