@@ -1,6 +1,7 @@
 import type { FitResponse } from '../../../api/features/calculators/schemas';
 import { decimalsFor, fixed, signed, withUncertainty } from '../../lib/format';
 import { FitModelNotes } from './fit-model-notes';
+import { SidewaysScroll } from '../ui/page';
 import { celsiusFromKelvin } from '../../../api/science/quantities';
 
 type Interval = [number, number] | undefined;
@@ -26,33 +27,36 @@ export function FitParameterTable({ fit }: { fit: FitResponse }) {
   const level = `${fixed(fit.confidence * 100, 0)} %`;
   const { ddH, ddS, ddGAt25C: ddG } = fit;
   return (
-    <div className="flex flex-col gap-2">
-      <table className="tnum w-full border-collapse text-sm" aria-label="Fitted activation parameters">
-        <thead className="text-xs text-ink-600">
-          <tr className="border-b border-slate-200">
-            <th scope="col" className="px-2 py-1 text-left font-medium">
-              Parameter (B − A)
-            </th>
-            <th scope="col" className="px-2 py-1 text-right font-medium">
-              Value ± SE
-            </th>
-            <th scope="col" className="px-2 py-1 text-left font-medium">
-              Unit
-            </th>
-            <th scope="col" className="px-2 py-1 text-right font-medium">
-              {level} CI
-            </th>
-          </tr>
-        </thead>
-        <tbody>
-          <Row name="ΔΔH‡" unit="kJ/mol" value={ddH['kJ/mol']} se={ddH.se?.['kJ/mol']} ci={ddH.ci?.['kJ/mol']} />
-          <Row name="ΔΔH‡" unit="kcal/mol" value={ddH['kcal/mol']} se={ddH.se?.['kcal/mol']} ci={ddH.ci?.['kcal/mol']} />
-          <Row name="ΔΔS‡" unit="J/(mol·K)" value={ddS['J/(mol*K)']} se={ddS.se?.['J/(mol*K)']} ci={ddS.ci?.['J/(mol*K)']} />
-          <Row name="ΔΔS‡" unit="cal/(mol·K)" value={ddS['cal/(mol*K)']} se={ddS.se?.['cal/(mol*K)']} ci={ddS.ci?.['cal/(mol*K)']} />
-          <Row name="ΔΔG‡ at 25 °C" unit="kJ/mol" value={ddG['kJ/mol']} se={ddG.se?.['kJ/mol']} ci={ddG.ci?.['kJ/mol']} />
-          <Row name="ΔΔG‡ at 25 °C" unit="kcal/mol" value={ddG['kcal/mol']} se={ddG.se?.['kcal/mol']} ci={ddG.ci?.['kcal/mol']} />
-        </tbody>
-      </table>
+    <div className="flex min-w-0 flex-col gap-2">
+      {/* On a phone the four columns are wider than the screen: the table scrolls in its own box. */}
+      <SidewaysScroll label="Fitted activation parameters, scrolls sideways">
+        <table className="tnum w-full border-collapse text-sm" aria-label="Fitted activation parameters">
+          <thead className="text-xs text-ink-600">
+            <tr className="border-b border-slate-200">
+              <th scope="col" className="px-2 py-1 text-left font-medium">
+                Parameter (B − A)
+              </th>
+              <th scope="col" className="px-2 py-1 text-right font-medium">
+                Value ± SE
+              </th>
+              <th scope="col" className="px-2 py-1 text-left font-medium">
+                Unit
+              </th>
+              <th scope="col" className="px-2 py-1 text-right font-medium">
+                {level} CI
+              </th>
+            </tr>
+          </thead>
+          <tbody>
+            <Row name="ΔΔH‡" unit="kJ/mol" value={ddH['kJ/mol']} se={ddH.se?.['kJ/mol']} ci={ddH.ci?.['kJ/mol']} />
+            <Row name="ΔΔH‡" unit="kcal/mol" value={ddH['kcal/mol']} se={ddH.se?.['kcal/mol']} ci={ddH.ci?.['kcal/mol']} />
+            <Row name="ΔΔS‡" unit="J/(mol·K)" value={ddS['J/(mol*K)']} se={ddS.se?.['J/(mol*K)']} ci={ddS.ci?.['J/(mol*K)']} />
+            <Row name="ΔΔS‡" unit="cal/(mol·K)" value={ddS['cal/(mol*K)']} se={ddS.se?.['cal/(mol*K)']} ci={ddS.ci?.['cal/(mol*K)']} />
+            <Row name="ΔΔG‡ at 25 °C" unit="kJ/mol" value={ddG['kJ/mol']} se={ddG.se?.['kJ/mol']} ci={ddG.ci?.['kJ/mol']} />
+            <Row name="ΔΔG‡ at 25 °C" unit="kcal/mol" value={ddG['kcal/mol']} se={ddG.se?.['kcal/mol']} ci={ddG.ci?.['kcal/mol']} />
+          </tbody>
+        </table>
+      </SidewaysScroll>
       <dl className="tnum grid grid-cols-[auto_1fr] gap-x-4 gap-y-0.5 text-sm sm:grid-cols-[auto_1fr_auto_1fr]">
         <dt className="text-ink-600">Correlation of ΔΔH‡ and ΔΔS‡</dt>
         <dd className="text-ink-950">{fit.correlation === null ? '—' : fixed(fit.correlation, 4)}</dd>

@@ -1,4 +1,4 @@
-import { useEffect, useId, useRef, useState, type ReactNode } from 'react';
+import { useEffect, useId, useRef, useState, type ReactNode, type RefObject } from 'react';
 import { Link } from 'react-router-dom';
 import type { UseQueryResult } from '@tanstack/react-query';
 
@@ -85,11 +85,12 @@ export function UnreadyPage({
   );
 }
 
-export function Panel({ title, children, className = '' }: { title?: ReactNode; children: ReactNode; className?: string }) {
-  const ref = useRef<HTMLElement>(null);
-  const titleId = useId();
-  // A panel whose content is wider than the screen scrolls sideways; it then takes the focus so
-  // the keyboard can scroll it too.
+/**
+ * Whether the element's content is wider than its box (so it scrolls sideways); kept current as
+ * either changes size. A box that scrolls takes the focus, so the keyboard can scroll it too.
+ */
+function useScrollsSideways<T extends HTMLElement>(): [RefObject<T | null>, boolean] {
+  const ref = useRef<T>(null);
   const [scrolls, setScrolls] = useState(false);
   useEffect(() => {
     const el = ref.current;
@@ -100,6 +101,29 @@ export function Panel({ title, children, className = '' }: { title?: ReactNode; 
     observer.observe(el);
     return () => observer.disconnect();
   }, []);
+  return [ref, scrolls];
+}
+
+/** A wide table's own sideways-scrolling box (on a phone the page stays put); named while it scrolls. */
+export function SidewaysScroll({ label, children }: { label: string; children: ReactNode }) {
+  const [ref, scrolls] = useScrollsSideways<HTMLDivElement>();
+  return (
+    <div
+      ref={ref}
+      className="min-w-0 overflow-x-auto"
+      tabIndex={scrolls ? 0 : undefined}
+      role={scrolls ? 'region' : undefined}
+      aria-label={scrolls ? label : undefined}
+    >
+      {children}
+    </div>
+  );
+}
+
+export function Panel({ title, children, className = '' }: { title?: ReactNode; children: ReactNode; className?: string }) {
+  const titleId = useId();
+  // A panel whose content is wider than the screen scrolls sideways.
+  const [ref, scrolls] = useScrollsSideways<HTMLElement>();
   return (
     // min-w-0 and overflow-x-auto: a wide table scrolls inside its panel instead of widening the page;
     // relative: visually hidden (absolutely placed) labels stay inside it too.

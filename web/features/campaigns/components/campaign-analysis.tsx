@@ -141,8 +141,8 @@ export function CampaignAnalysis({
         </figure>
       </div>
       <FitWarnings warnings={fit.warnings} />
-      <div className="grid gap-5 xl:grid-cols-[minmax(0,1fr)_minmax(0,1fr)]">
-        <section aria-label="Fitted parameters" className="flex flex-col gap-3">
+      <div className="grid grid-cols-[minmax(0,1fr)] gap-5 xl:grid-cols-[minmax(0,1fr)_minmax(0,1fr)]">
+        <section aria-label="Fitted parameters" className="flex min-w-0 flex-col gap-3">
           <h3 className="text-sm font-semibold text-ink-900">
             {twoBranchPreferred ? 'One-line parameters (B − A), for comparison only' : 'Parameters (B − A)'}
           </h3>
@@ -331,7 +331,8 @@ function ResidualDiagnostics({
                 <td className="px-2 py-0.5">{r?.studentizedInternal == null ? '—' : fixed(r.studentizedInternal, 2)}</td>
                 <td className="px-2 py-0.5">{r?.leverage == null ? '—' : fixed(r.leverage, 2)}</td>
                 <td className="px-2 py-0.5">{r?.cooksDistance == null ? '—' : fixed(r.cooksDistance, 2)}</td>
-                <td className="px-2 py-0.5 text-left">
+                {/* A floor on its width: on a phone the table scrolls sideways instead of wrapping a run's note into a tower. */}
+                <td className="min-w-[16rem] px-2 py-0.5 text-left">
                   {p.status === 'excluded' ? (
                     <span>
                       <span aria-hidden="true">○ </span>excluded{p.exclusionReason ? `: ${p.exclusionReason}` : ''}
