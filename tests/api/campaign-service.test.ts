@@ -17,6 +17,7 @@ import {
   measurementUpdateSchema,
 } from '../../api/features/campaigns/schemas';
 import * as service from '../../api/features/campaigns/service';
+import { Measurement } from '../../api/models/measurement';
 import type { User } from '../../api/models/user';
 import type { Project } from '../../api/models/project';
 
@@ -70,6 +71,13 @@ describe('importMeasurements', () => {
     });
     const rows = await service.listMeasurements(db, project.id, campaign.id);
     expect(rows).toHaveLength(12);
+    // Plain rows, serialised exactly as model instances of the same runs would be.
+    const instances = await Measurement.query(db).whereIn(
+      'id',
+      rows.map((r) => r.id),
+    );
+    const byId = new Map(instances.map((m) => [m.id, JSON.stringify(m)]));
+    expect(rows.map((r) => JSON.stringify(r))).toEqual(rows.map((r) => byId.get(r.id)));
     expect(rows[0]).toMatchObject({
       temperatureK: 253.15,
       measure: 'ee',

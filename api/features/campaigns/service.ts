@@ -6,6 +6,7 @@
  */
 import type { Knex } from 'knex';
 import objection from 'objection';
+import type { ModelObject } from 'objection';
 import { recordAudit, type AuditEventInput } from '../../lib/audit';
 import { BadRequestError, ConflictError, NotFoundError } from '../../lib/errors';
 import { quantitationLimitProblem } from '../calculators/schemas';
@@ -348,9 +349,18 @@ export async function reopenCampaign(db: Knex, actor: ProjectActor, campaignId: 
 // ── Measurements ───────────────────────────────────────────────────────────────────────────
 
 /** A campaign's measurements, coldest first, then in the order they were added (file order for imports). */
-export async function listMeasurements(db: Knex, projectId: string, campaignId: string): Promise<Measurement[]> {
+/**
+ * A campaign's runs in display order, as plain rows (the same fields a model instance serialises): building
+ * a thousand model instances only to turn them back into JSON was most of this answer's time.
+ */
+export async function listMeasurements(db: Knex, projectId: string, campaignId: string): Promise<ModelObject<Measurement>[]> {
   await getCampaign(db, projectId, campaignId);
-  return Measurement.query(db).where({ campaignId }).orderBy('temperatureK').orderBy('createdAt').orderBy('sourceRow').orderBy('id');
+  return db<ModelObject<Measurement>>(Measurement.tableName)
+    .where({ campaignId })
+    .orderBy('temperatureK')
+    .orderBy('createdAt')
+    .orderBy('sourceRow')
+    .orderBy('id');
 }
 
 type MeasurementColumns = Partial<
