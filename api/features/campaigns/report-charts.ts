@@ -1,11 +1,12 @@
 /**
  * The report's charts, drawn on the server as SVG from the report model and rendered to PNG by
- * resvg with fonts shipped in node_modules (never the machine's), so every server draws the same
+ * resvg with fonts shipped with the app (never the machine's), so every server draws the same
  * picture. Colours are the web app's chart palette (api/lib/chart-colors.ts).
  */
 import { createHash } from 'node:crypto';
 import { createRequire } from 'node:module';
 import path from 'node:path';
+import { fileURLToPath } from 'node:url';
 import { Resvg, renderAsync, type ResvgRenderOptions } from '@resvg/resvg-js';
 import { LRUCache } from 'lru-cache';
 import { chartColors } from '../../lib/chart-colors';
@@ -15,7 +16,16 @@ import type { ReportModel } from './report-model';
 
 const require = createRequire(import.meta.url);
 const fontDir = path.join(path.dirname(require.resolve('dejavu-fonts-ttf/package.json')), 'ttf');
+/** The whole fonts, for text a user wrote (the PDF summary). */
 export const REPORT_FONT_FILES = [path.join(fontDir, 'DejaVuSans.ttf'), path.join(fontDir, 'DejaVuSans-Bold.ttf')];
+/**
+ * The same faces cut down to the characters the charts print (all of it the app's own words:
+ * Latin, Greek, punctuation, arithmetic and arrows; scripts/subset-chart-fonts.sh). resvg reads a
+ * font's tables again for every text element, and the whole face made the chart's 20-odd labels
+ * cost more than its points and bands; the glyphs are the same outlines, so the pixels are too.
+ */
+const chartFontDir = path.join(path.dirname(fileURLToPath(import.meta.url)), 'fonts');
+export const CHART_FONT_FILES = [path.join(chartFontDir, 'DejaVuSans-charts.ttf'), path.join(chartFontDir, 'DejaVuSans-Bold-charts.ttf')];
 const FONT_FAMILY = 'DejaVu Sans';
 
 const colors = chartColors;
@@ -438,7 +448,7 @@ function svg(parts: string[]): string {
 
 const renderOptions = (scale: number): ResvgRenderOptions => ({
   fitTo: { mode: 'width', value: CHART_WIDTH * scale },
-  font: { fontFiles: REPORT_FONT_FILES, loadSystemFonts: false, defaultFontFamily: FONT_FAMILY },
+  font: { fontFiles: CHART_FONT_FILES, loadSystemFonts: false, defaultFontFamily: FONT_FAMILY },
 });
 
 /**

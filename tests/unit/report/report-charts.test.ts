@@ -2,14 +2,18 @@ import { describe, expect, it } from 'vitest';
 import { Resvg } from '@resvg/resvg-js';
 import { buildReportModel } from '../../../api/features/campaigns/report-model';
 import {
+  CHART_FONT_FILES,
   CHART_SCALE,
+  REPORT_FONT_FILES,
   clearChartCache,
   eyringChartSvg,
   renderPng,
   renderReportChartsAsync,
+  selectivityChartSvg,
   simplifyLine,
+  windowChartSvg,
 } from '../../../api/features/campaigns/report-charts';
-import { demoMeta, demoReportData } from './fixture';
+import { demoMeta, demoPlan, demoReportData } from './fixture';
 
 /** Distance from (px, py) to the polyline through `line`. */
 function distanceToLine(px: number, py: number, line: [number, number][]): number {
@@ -89,5 +93,24 @@ describe('report charts: cheaper to draw, drawn the same', () => {
     // The canvas: CHART_SCALE times the 720 × 420 drawing.
     expect(first!.eyring.readUInt32BE(16)).toBe(720 * CHART_SCALE);
     expect(first!.eyring.readUInt32BE(20)).toBe(420 * CHART_SCALE);
+  });
+
+  it('when the charts are drawn with the cut-down chart fonts, then every pixel is what the whole fonts draw', () => {
+    const drawn = (svg: string, fontFiles: string[]) =>
+      Buffer.from(
+        new Resvg(svg, {
+          fitTo: { mode: 'zoom', value: CHART_SCALE },
+          font: { fontFiles, loadSystemFonts: false, defaultFontFamily: 'DejaVu Sans' },
+        }).render().pixels,
+      );
+    const model = buildReportModel(demoReportData(12, { plan: demoPlan() }), demoMeta);
+    const charts = [eyringChartSvg(model), selectivityChartSvg(model), windowChartSvg(model)!];
+    // Titles, axis labels (1/T, ln r, °C), legends and the hatched constraint's name: Latin, Greek, symbols.
+    expect(charts.join('')).toMatch(/°C/);
+    expect(charts[2]).toMatch(/<text[^>]*>[^<]*excluded/);
+    for (const svg of charts) expect(drawn(svg, CHART_FONT_FILES).equals(drawn(svg, REPORT_FONT_FILES))).toBe(true);
+    // The comparison can see a missing glyph: Cyrillic is not in the chart fonts.
+    const foreign = '<svg xmlns="http://www.w3.org/2000/svg" width="200" height="40"><text x="4" y="24" font-size="14">Жук</text></svg>';
+    expect(drawn(foreign, CHART_FONT_FILES).equals(drawn(foreign, REPORT_FONT_FILES))).toBe(false);
   });
 });
