@@ -33,7 +33,7 @@ export async function encodePng(width: number, height: number, rgba: Uint8Array,
   }
   const raw = Buffer.alloc((stride + 1) * height);
   for (let y = 0; y < height; y++) raw.set(rgba.subarray(y * stride, (y + 1) * stride), y * (stride + 1) + 1);
-  if (premultiplied) {
+  if (premultiplied && !isOpaque(rgba)) {
     for (let y = 0; y < height; y++) {
       const row = y * (stride + 1) + 1;
       for (let i = row; i < row + stride; i += 4) {
@@ -51,4 +51,17 @@ export async function encodePng(width: number, height: number, rgba: Uint8Array,
   // compression 0, filter method 0, no interlace: bytes 10–12 stay zero.
   const idat = await deflate(raw, { level: 1 });
   return Buffer.concat([SIGNATURE, chunk('IHDR', header), chunk('IDAT', idat), chunk('IEND', Buffer.alloc(0))]);
+}
+
+/**
+ * Whether every pixel's alpha is 255 (a chart on its paper-white background), when premultiplied
+ * and straight colour are the same bytes. Read four pixels' alphas at a time as 32-bit words.
+ */
+function isOpaque(rgba: Uint8Array): boolean {
+  if (rgba.byteOffset % 4 !== 0) return rgba.every((v, i) => i % 4 !== 3 || v === 255);
+  const words = new Uint32Array(rgba.buffer, rgba.byteOffset, rgba.length >> 2);
+  // Byte 3 of each RGBA pixel is the top byte of its word on little-endian machines, the bottom on big-endian.
+  const alpha = new Uint8Array(new Uint32Array([0xff000000]).buffer)[3] === 0xff ? 0xff000000 : 0x000000ff;
+  for (let i = 0; i < words.length; i++) if ((words[i]! & alpha) >>> 0 !== alpha >>> 0) return false;
+  return true;
 }
