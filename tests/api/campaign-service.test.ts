@@ -9,6 +9,7 @@ import { sample } from '../unit/imports/helpers';
 import { AppError, ConflictError, NotFoundError } from '../../api/lib/errors';
 import { toProblem } from '../../api/lib/problem';
 import { importMeasurements } from '../../api/features/imports/service';
+import { readsInWorker } from '../../api/features/imports/parse';
 import { ImportNeedsConfirmationError, ImportRejectedError } from '../../api/features/imports/errors';
 import {
   importMappingSchema,
@@ -170,6 +171,80 @@ describe('importMeasurements', () => {
       await thrown(importMeasurements(db, actor(), 'not-a-uuid', sample('kestrelmoor-skylark-screen.csv'), { mapping: skylarkMapping })),
     ).toBeInstanceOf(NotFoundError);
     expect(await count('measurements', { campaignId: foreign.id })).toBe(0);
+  });
+});
+
+describe('importMeasurements of a file read in the worker (rows inserted in batches while it is read)', () => {
+  const mapping = importMappingSchema.parse({ columns: { temperature: 0, value: 1, sampleId: 2 }, temperatureUnit: 'C', measure: 'ee' });
+  /** An invented screen of `n` rows, more than the in-thread limit, so the worker reads it; `edit` changes one line. */
+  const large = (name: string, n: number, edit?: (line: string, i: number) => string) => {
+    const lines = Array.from({ length: n }, (_, i) => {
+      const line = `${(-60 + (i % 80)).toFixed(1)},${(90 + (i % 90) / 10).toFixed(1)},LARGE-${name}-${i}`;
+      return edit ? edit(line, i) : line;
+    });
+    const file = { name: `${name}.csv`, buffer: Buffer.from(`T (°C),ee (%),sample\n${lines.join('\n')}\n`) };
+    expect(readsInWorker(file)).toBe(true);
+    return file;
+  };
+  const files = (campaignId: string) => count('import_files', { campaignId });
+
+  it('when every row is sound, then all go in, the kept file counts them, and one audit event sums them up', async () => {
+    const campaign = await createCampaign(project.id);
+    const n = 23_456;
+    const result = await importMeasurements(db, actor(), campaign.id, large('sound', n), { mapping });
+    expect(result).toMatchObject({
+      inserted: n,
+      temperatureRangeK: { min: 213.15, max: 292.15 },
+      distinctTemperatures: 80,
+      warningCount: 0,
+    });
+    expect(await count('measurements', { campaignId: campaign.id })).toBe(n);
+    expect(await db('import_files').where({ campaignId: campaign.id }).first()).toMatchObject({ rowCount: n, format: 'csv' });
+    const last = await db('measurements')
+      .where({ campaignId: campaign.id, sourceRow: n + 1 })
+      .first();
+    expect(last).toMatchObject({ sampleId: `LARGE-sound-${n - 1}`, value: 90 + ((n - 1) % 90) / 10 });
+    expect(await auditCount(campaign.id)).toBe(1);
+  });
+
+  it('when a row near the end is bad, after earlier batches were inserted, then nothing is kept and the row is named', async () => {
+    const campaign = await createCampaign(project.id);
+    const file = large('late-error', 25_000, (line, i) => (i === 24_321 ? line.replace(/,[^,]*,/, ',n.d.,') : line));
+    const err = await thrown(importMeasurements(db, actor(), campaign.id, file, { mapping, acknowledgeWarnings: true }));
+    expect(err).toBeInstanceOf(ImportRejectedError);
+    expect(err.extra.issues).toEqual([{ severity: 'error', row: 24_323, column: 'B "ee (%)"', message: 'ee "n.d." is not a number.' }]);
+    expect(await count('measurements', { campaignId: campaign.id })).toBe(0);
+    expect(await files(campaign.id)).toBe(0);
+    expect(await auditCount(campaign.id)).toBe(0);
+  });
+
+  it("when a late row or the campaign's own runs raise a warning, then nothing is kept until the warnings are acknowledged", async () => {
+    const campaign = await createCampaign(project.id);
+    const file = large('late-warning', 22_000, (line, i) => (i === 21_000 ? line.replace(/^[^,]*/, '298') : line));
+    const err = await thrown(importMeasurements(db, actor(), campaign.id, file, { mapping }));
+    expect(err).toBeInstanceOf(ImportNeedsConfirmationError);
+    expect(err.extra.issues).toEqual([expect.objectContaining({ severity: 'warning', row: 21_002, column: 'A "T (°C)"' })]);
+    expect(await count('measurements', { campaignId: campaign.id })).toBe(0);
+    expect(await files(campaign.id)).toBe(0);
+    expect(await importMeasurements(db, actor(), campaign.id, file, { mapping, acknowledgeWarnings: true })).toMatchObject({
+      inserted: 22_000,
+      warningCount: 1,
+    });
+    // The same file again: every row repeats a stored run; 50 are listed, the rest counted.
+    const again = await thrown(importMeasurements(db, actor(), campaign.id, file, { mapping, acknowledgeWarnings: false }));
+    expect(again).toBeInstanceOf(ImportNeedsConfirmationError);
+    const repeats = (again.extra.issues as { row: number | null; message: string }[]).filter(
+      (i) => i.row !== null && /already in the campaign/.test(i.message),
+    );
+    expect(repeats).toHaveLength(50);
+    expect(again.extra.issues).toContainEqual({
+      severity: 'warning',
+      row: null,
+      column: null,
+      message: '21950 more rows repeat measurements already in the campaign.',
+    });
+    expect(await count('measurements', { campaignId: campaign.id })).toBe(22_000);
+    expect(await files(campaign.id)).toBe(1);
   });
 });
 

@@ -5,13 +5,25 @@
  * would cost more than they do.
  */
 import path from 'node:path';
+import { MessageChannel } from 'node:worker_threads';
 import { fileURLToPath } from 'node:url';
 import { Piscina } from 'piscina';
 import { AppError, PayloadTooLargeError } from '../../lib/errors';
 import type { ImportMapping, ImportParseOptions } from '../campaigns/schemas';
 import { UnreadableFileError } from './errors';
 import { IMPORT_LIMITS, IN_THREAD_MAX_BYTES, type ImportLimits, type ParsedTable, type UploadedFile } from './parse';
-import type { CheckAnswer, CheckedFile, CheckTask, PreviewAnswer, ReadAnswer, ReadTask, SerialisedError } from './parse-task';
+import type {
+  CheckAnswer,
+  CheckedFile,
+  CheckStreamMessage,
+  CheckStreamTask,
+  CheckTask,
+  PreviewAnswer,
+  ReadAnswer,
+  ReadTask,
+  SerialisedError,
+} from './parse-task';
+import { unpackRows, type ImportRow, type IssueCounts, type ValidationResult } from './row-checks';
 import type { ImportPreview, StoredRowKeys } from './service';
 
 export interface ReadPoolOptions {
@@ -111,10 +123,69 @@ export async function checkInPool(
   return answer.checked;
 }
 
-async function runTask(file: UploadedFile, task: unknown, name: string): Promise<unknown> {
+/** Rows per batch a streamed check sends back (the import inserts 10 000 rows per statement). */
+export const CHECK_BATCH_ROWS = 10_000;
+
+/**
+ * As `checkInPool`, with the checked rows handed to `take` in batches while the worker reads on
+ * (the last batch after the worker is done). `take` runs for one batch at a time, in file order;
+ * batches stop at the first row error. If `take` fails, no further batch is handed over and its
+ * error is thrown once the worker has finished.
+ */
+export async function checkInPoolStreaming(
+  file: UploadedFile,
+  request: { mapping: ImportMapping; parse?: ImportParseOptions },
+  limits: ImportLimits,
+  take: (rows: ImportRow[], counts: IssueCounts) => Promise<void>,
+): Promise<{ format: ParsedTable['format']; result: Omit<ValidationResult, 'rows'> }> {
+  const { port1, port2 } = new MessageChannel();
+  let chain = Promise.resolve();
+  let failure: { error: unknown } | null = null;
+  const hand = (rows: ImportRow[], counts: IssueCounts) => {
+    chain = chain.then(async () => {
+      if (failure) return;
+      try {
+        await take(rows, counts);
+      } catch (error) {
+        failure = { error };
+      }
+    });
+  };
+  const answered = new Promise<CheckAnswer>((resolve) => {
+    port1.on('message', (message: CheckStreamMessage) => {
+      if (message.kind === 'rows') hand(unpackRows(message.packed), message);
+      else resolve(message.answer);
+    });
+  });
+  try {
+    const task: CheckStreamTask = { name: file.name, buffer: file.buffer, request, limits, port: port2, batchRows: CHECK_BATCH_ROWS };
+    const run = runTask(file, task, 'checkStream', [port2]);
+    // The answer comes on the port; the task itself settles after it, or fails (memory, time) without one.
+    let answer: CheckAnswer;
+    try {
+      answer = await Promise.race([answered, run.then(() => answered)]);
+    } catch (err) {
+      await chain;
+      throw err;
+    }
+    if (!answer.ok) {
+      await chain;
+      throw rebuildError(answer.error);
+    }
+    const { packed, ...result } = answer.checked.result;
+    if (result.errorCount === 0) hand(unpackRows(packed), result);
+    await chain;
+    if (failure) throw (failure as { error: unknown }).error;
+    return { format: answer.checked.format, result };
+  } finally {
+    port1.close();
+  }
+}
+
+async function runTask(file: UploadedFile, task: unknown, name: string, transferList?: Transferable[]): Promise<unknown> {
   const signal = AbortSignal.timeout(poolOptions.timeoutMs);
   try {
-    return await getPool().run(task, { signal, name });
+    return await getPool().run(task, { signal, name, ...(transferList ? { transferList: transferList as never } : {}) });
   } catch (err) {
     const code = (err as { code?: string }).code;
     if (code === 'ERR_WORKER_OUT_OF_MEMORY') {

@@ -4,13 +4,14 @@
  * threads), plus the most memory the worker's heap held meanwhile, so tests and logs can see
  * what a hostile file cost.
  */
+import type { MessagePort } from 'node:worker_threads';
 import { getHeapStatistics } from 'node:v8';
 import type { ImportMapping, ImportParseOptions } from '../campaigns/schemas';
 import type { ImportPreview, StoredRowKeys } from './service';
 import { AppError } from '../../lib/errors';
 import type { ProblemTypeId } from '../../lib/problem-types';
 import { readUpload, type ImportLimits, type ParsedTable } from './parse';
-import { packRows, validateRows, type PackedRows, type ValidationResult } from './row-checks';
+import { packRows, validateRows, validateRowsInBatches, type IssueCounts, type PackedRows, type ValidationResult } from './row-checks';
 
 export interface ReadTask {
   name: string;
@@ -114,5 +115,41 @@ export async function checkInWorker(task: CheckTask): Promise<CheckAnswer> {
   } catch (err) {
     if (err instanceof AppError) return { ok: false, error: serialise(err), peakMemoryBytes: heapNow() };
     throw err;
+  }
+}
+
+export interface CheckStreamTask extends CheckTask {
+  /** Where the checked rows go, a batch at a time, and finally the answer. */
+  port: MessagePort;
+  batchRows: number;
+}
+
+/** Messages on a CheckStreamTask's port: batches of checked rows, then the answer (its rows are the last batch). */
+export type CheckStreamMessage = ({ kind: 'rows'; packed: PackedRows } & IssueCounts) | { kind: 'done'; answer: CheckAnswer };
+
+/**
+ * As `checkInWorker`, sending the checked rows to the main thread in batches as they are checked,
+ * so the import inserts them (in its transaction) while the rest of the file is read.
+ */
+export async function checkStreamInWorker(task: CheckStreamTask): Promise<void> {
+  const post = (message: CheckStreamMessage, packed?: PackedRows) =>
+    task.port.postMessage(message, packed ? [packed.numbers.buffer as ArrayBuffer] : []);
+  try {
+    const buffer = Buffer.from(task.buffer.buffer, task.buffer.byteOffset, task.buffer.byteLength);
+    const table = await readUpload({ name: task.name, buffer }, task.request.parse ?? {}, task.limits);
+    const { rows, ...rest } = validateRowsInBatches(table, task.request.mapping, task.batchRows, (batch, counts) => {
+      const packed = packRows(batch);
+      post({ kind: 'rows', packed, ...counts }, packed);
+    });
+    const packed = packRows(rows);
+    post(
+      { kind: 'done', answer: { ok: true, checked: { format: table.format, result: { ...rest, packed } }, peakMemoryBytes: heapNow() } },
+      packed,
+    );
+  } catch (err) {
+    if (!(err instanceof AppError)) throw err;
+    post({ kind: 'done', answer: { ok: false, error: serialise(err), peakMemoryBytes: heapNow() } });
+  } finally {
+    task.port.close();
   }
 }

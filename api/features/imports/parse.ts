@@ -85,7 +85,7 @@ function formatBytes(n: number): string {
   return `${n} bytes`;
 }
 
-function extensionOf(name: string): string {
+export function extensionOf(name: string): string {
   const m = /\.([A-Za-z0-9]+)$/.exec(name.trim());
   return m ? m[1].toLowerCase() : '';
 }

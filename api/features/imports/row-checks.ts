@@ -374,7 +374,35 @@ export async function validateRowsYielding(table: ParsedTable, mapping: ImportMa
   return step.value;
 }
 
-function* validateRowsInSteps(table: ParsedTable, mapping: ImportMapping): Generator<void, ValidationResult, void> {
+/** Counts of issues found so far, sent with each batch of checked rows. */
+export interface IssueCounts {
+  errorCount: number;
+  warningCount: number;
+}
+
+/**
+ * The same check, handing the checked rows over in batches of `size` while no error has been
+ * found (after an error no more rows are handed over; the check goes on to list the issues). The
+ * result's `rows` are those after the last batch. The import's worker sends each batch to the
+ * server's main thread, which inserts it while the rest of the file is checked.
+ */
+export function validateRowsInBatches(
+  table: ParsedTable,
+  mapping: ImportMapping,
+  size: number,
+  take: (rows: ImportRow[], counts: IssueCounts) => void,
+): ValidationResult {
+  const steps = validateRowsInSteps(table, mapping, { size, take });
+  let step = steps.next();
+  while (!step.done) step = steps.next();
+  return step.value;
+}
+
+function* validateRowsInSteps(
+  table: ParsedTable,
+  mapping: ImportMapping,
+  batches?: { size: number; take: (rows: ImportRow[], counts: IssueCounts) => void },
+): Generator<void, ValidationResult, void> {
   const { columns, issues: mappingIssues } = resolveColumns(table, mapping);
   const ctx: RowContext = {
     table,
@@ -461,6 +489,9 @@ function* validateRowsInSteps(table: ParsedTable, mapping: ImportMapping): Gener
       reactionTimeS: time === null || time === undefined ? null : toSeconds(time, mapping.timeUnit),
       notes: notes ?? null,
     });
+    if (batches && rows.length >= batches.size && ctx.errorCount === 0) {
+      batches.take(rows.splice(0), { errorCount: ctx.errorCount, warningCount: ctx.warningCount });
+    }
   }
   const { issues, errorCount, warningCount } = ctx;
   if (errorCount + warningCount > issues.length) {

@@ -13,6 +13,7 @@ import type { ImportMapping, ImportParseOptions } from '../campaigns/schemas';
 import { ImportNeedsConfirmationError, ImportRejectedError, type ImportIssue } from './errors';
 import {
   columnLetter,
+  extensionOf,
   IMPORT_LIMITS,
   parseUpload,
   readsInWorker,
@@ -22,7 +23,7 @@ import {
   type UploadedFile,
 } from './parse';
 import { guessMapping, mappingFromGuess, type MappingGuess } from './mapping';
-import { unpackRows, validateRows, validateRowsYielding, type ImportRow, type ValidationResult } from './row-checks';
+import { validateRows, validateRowsYielding, type ImportRow, type IssueCounts, type ValidationResult } from './row-checks';
 
 export interface PreviewColumn {
   index: number;
@@ -150,33 +151,65 @@ export async function importMeasurements(
   limits: ImportLimits = IMPORT_LIMITS,
 ): Promise<ImportResult> {
   if (!isUuid(campaignId)) throw new NotFoundError('No campaign was found at this address in this project.');
-  const { format, checked } = await readAndCheck(file, request, limits);
-  if (checked.errorCount > 0) {
+  if (readsInWorker(file, limits)) {
+    // A large file or a workbook: the worker checks it and sends the checked rows in batches, which
+    // are inserted (in the transaction) while it reads on. A row error, an unacknowledged warning
+    // or a failed read found later throws, and the transaction takes back what was written.
+    const { checkInPoolStreaming } = await import('./parse-pool');
+    const format = extensionOf(file.name) === 'xlsx' ? 'xlsx' : 'csv';
+    const parse = request.parse ? { parse: request.parse } : {};
+    return writeImport(db, scope, campaignId, file, request, format, async (take) => {
+      const { result } = await checkInPoolStreaming(file, { mapping: request.mapping, ...parse }, limits, take);
+      refuseUnimportable(file, result);
+      return result;
+    });
+  }
+  // A small text file: read and checked here first, so a file with errors never opens a transaction.
+  const table = await parseUpload(file, request.parse ?? {}, limits);
+  const { rows, ...result } = await validateRowsYielding(table, request.mapping);
+  refuseUnimportable(file, result);
+  if (rows.length === 0) throw noRowsError(file);
+  return writeImport(db, scope, campaignId, file, request, table.format, async (take) => {
+    await take(rows, result);
+    return result;
+  });
+}
+
+/** Row errors → ImportRejectedError; a file with no rows to import → the same. */
+function refuseUnimportable(file: UploadedFile, result: Omit<ValidationResult, 'rows'>): void {
+  if (result.errorCount > 0) {
     throw new ImportRejectedError(
-      `${file.name}: ${checked.errorCount} problem${checked.errorCount === 1 ? '' : 's'} found; nothing was imported. Fix the file or the mapping and upload it again.`,
-      checked.issues,
+      `${file.name}: ${result.errorCount} problem${result.errorCount === 1 ? '' : 's'} found; nothing was imported. Fix the file or the mapping and upload it again.`,
+      result.issues,
     );
   }
-  if (checked.rows.length === 0) {
-    throw new ImportRejectedError(`${file.name} has no rows to import.`, [
-      { severity: 'error', row: null, column: null, message: 'no data rows' },
-    ]);
-  }
+}
 
+const noRowsError = (file: UploadedFile) =>
+  new ImportRejectedError(`${file.name} has no rows to import.`, [{ severity: 'error', row: null, column: null, message: 'no data rows' }]);
+
+type TakeRows = (rows: ImportRow[], counts: IssueCounts) => Promise<void>;
+
+/**
+ * The import's transaction: lock the campaign, keep the file, insert the rows `check` hands over
+ * (warning about rows the campaign already holds), then the audit entry. Anything thrown rolls
+ * back everything, so an import is all or nothing.
+ */
+async function writeImport(
+  db: Knex,
+  scope: ImportScope,
+  campaignId: string,
+  file: UploadedFile,
+  request: ImportRequestInput,
+  format: 'csv' | 'xlsx',
+  check: (take: TakeRows) => Promise<Omit<ValidationResult, 'rows'>>,
+): Promise<ImportResult> {
   return db.transaction(async (trx) => {
     // Lock the campaign row so two imports into one campaign cannot interleave their duplicate checks.
     const campaign = await Campaign.query(trx).findOne({ id: campaignId, projectId: scope.projectId }).forUpdate();
     if (!campaign) throw new NotFoundError('No campaign was found at this address in this project.');
     await assertMeasurementsOpen(trx, campaign);
-
-    const repeats = await findRepeatsOfStoredRows(trx, campaignId, checked.rows);
-    const warnings = [...checked.issues.filter((i) => i.severity === 'warning'), ...repeats];
-    if (warnings.length > 0 && !request.acknowledgeWarnings) {
-      throw new ImportNeedsConfirmationError(
-        `${file.name}: ${warnings.length} warning${warnings.length === 1 ? '' : 's'} to confirm; nothing was imported. Review them and import again with acknowledgeWarnings.`,
-        warnings,
-      );
-    }
+    const repeats = repeatTally(await storedRowKeys(trx, campaignId));
 
     const stamp = new Date();
     // The file is kept as it arrived, so every stored row can be traced to its file and row.
@@ -190,28 +223,48 @@ export async function importMeasurements(
         sizeBytes: file.buffer.length,
         sha256,
         content: file.buffer,
-        rowCount: checked.rows.length,
+        rowCount: 0,
         uploadedByUserId: scope.actorUserId,
         uploadedAt: stamp,
       })
       .returning('id');
     const fileId = String(kept.id);
-    for (let i = 0; i < checked.rows.length; i += INSERT_CHUNK_ROWS) {
-      await insertRows(trx, campaignId, scope.actorUserId, stamp, fileId, checked.rows.slice(i, i + INSERT_CHUNK_ROWS));
-    }
-    await trx('campaigns').where({ id: campaignId }).update({ updatedAt: stamp });
 
+    let inserted = 0;
     let min = Infinity;
     let max = -Infinity;
     const distinct = new Set<string>();
-    for (const r of checked.rows) {
-      min = Math.min(min, r.temperatureK);
-      max = Math.max(max, r.temperatureK);
-      distinct.add(r.temperatureK.toFixed(2));
+    // Once the import is bound to be refused (a row error, or a warning not yet acknowledged), the
+    // remaining batches are only counted: the transaction will be rolled back.
+    let refused = false;
+    const checked = await check(async (rows, counts) => {
+      repeats.add(rows);
+      refused ||= counts.errorCount > 0 || (!request.acknowledgeWarnings && counts.warningCount + repeats.count > 0);
+      for (const r of rows) {
+        min = Math.min(min, r.temperatureK);
+        max = Math.max(max, r.temperatureK);
+        distinct.add(r.temperatureK.toFixed(2));
+      }
+      inserted += rows.length;
+      if (refused) return;
+      for (let i = 0; i < rows.length; i += INSERT_CHUNK_ROWS) {
+        await insertRows(trx, campaignId, scope.actorUserId, stamp, fileId, rows.slice(i, i + INSERT_CHUNK_ROWS));
+      }
+    });
+    if (inserted === 0) throw noRowsError(file);
+    const warnings = [...checked.issues.filter((i) => i.severity === 'warning'), ...repeats.issues()];
+    if (warnings.length > 0 && !request.acknowledgeWarnings) {
+      throw new ImportNeedsConfirmationError(
+        `${file.name}: ${warnings.length} warning${warnings.length === 1 ? '' : 's'} to confirm; nothing was imported. Review them and import again with acknowledgeWarnings.`,
+        warnings,
+      );
     }
+    await trx('importFiles').where({ id: fileId }).update({ rowCount: inserted });
+    await trx('campaigns').where({ id: campaignId }).update({ updatedAt: stamp });
+
     const result: ImportResult = {
       campaignId,
-      inserted: checked.rows.length,
+      inserted,
       temperatureRangeK: { min, max },
       distinctTemperatures: distinct.size,
       warningCount: warnings.length,
@@ -241,29 +294,6 @@ export async function importMeasurements(
     });
     return result;
   });
-}
-
-/**
- * Read the file and check every row: a large file or a workbook in a worker thread, which sends
- * back only the checked rows; a small text file here, giving the event loop a turn now and then.
- */
-async function readAndCheck(
-  file: UploadedFile,
-  request: ImportRequestInput,
-  limits: ImportLimits,
-): Promise<{ format: ParsedTable['format']; checked: ValidationResult }> {
-  if (readsInWorker(file, limits)) {
-    const { checkInPool } = await import('./parse-pool');
-    const { format, result } = await checkInPool(
-      file,
-      { mapping: request.mapping, ...(request.parse ? { parse: request.parse } : {}) },
-      limits,
-    );
-    const { packed, ...rest } = result;
-    return { format, checked: { ...rest, rows: unpackRows(packed) } };
-  }
-  const table = await parseUpload(file, request.parse ?? {}, limits);
-  return { format: table.format, checked: await validateRowsYielding(table, request.mapping) };
 }
 
 /**
@@ -346,36 +376,49 @@ export async function storedRowKeys(trx: Knex | Knex.Transaction, campaignId: st
 
 /** Warnings for rows that repeat stored runs (same sample id and replicate, or the same temperature and reading). */
 export function repeatsAgainst(stored: StoredRowKeys, rows: ImportRow[]): ImportIssue[] {
-  if (stored.samples.length === 0 && stored.readings.length === 0) return [];
-  const samples = new Set(stored.samples);
-  const readings = new Set(stored.readings);
-  const issues: ImportIssue[] = [];
-  let count = 0;
-  for (const r of rows) {
-    const sk = sampleKey(r);
-    const sameSample = sk !== null && samples.has(sk);
-    const sameReading = readings.has(readingKey(r));
-    if (!sameSample && !sameReading) continue;
-    count += 1;
-    if (issues.length >= 50) continue;
-    const message = sameSample
-      ? `${describeRun(r)} is already in the campaign (same sample id and replicate); importing adds it again.`
-      : 'the campaign already has a measurement at this temperature with this value; importing adds it again (was this file imported before?).';
-    issues.push({ severity: 'warning', row: r.sourceRow, column: null, message });
-  }
-  if (count > issues.length) {
-    issues.push({
-      severity: 'warning',
-      row: null,
-      column: null,
-      message: `${count - issues.length} more rows repeat measurements already in the campaign.`,
-    });
-  }
-  return issues;
+  const tally = repeatTally(stored);
+  tally.add(rows);
+  return tally.issues();
 }
 
-export async function findRepeatsOfStoredRows(trx: Knex | Knex.Transaction, campaignId: string, rows: ImportRow[]): Promise<ImportIssue[]> {
-  return repeatsAgainst(await storedRowKeys(trx, campaignId), rows);
+/** As `repeatsAgainst`, for rows that arrive in batches: the first 50 repeats are listed, the rest counted. */
+function repeatTally(stored: StoredRowKeys) {
+  const samples = new Set(stored.samples);
+  const readings = new Set(stored.readings);
+  const listed: ImportIssue[] = [];
+  let count = 0;
+  return {
+    add(rows: ImportRow[]) {
+      if (samples.size === 0 && readings.size === 0) return;
+      for (const r of rows) {
+        const sk = sampleKey(r);
+        const sameSample = sk !== null && samples.has(sk);
+        const sameReading = readings.has(readingKey(r));
+        if (!sameSample && !sameReading) continue;
+        count += 1;
+        if (listed.length >= 50) continue;
+        const message = sameSample
+          ? `${describeRun(r)} is already in the campaign (same sample id and replicate); importing adds it again.`
+          : 'the campaign already has a measurement at this temperature with this value; importing adds it again (was this file imported before?).';
+        listed.push({ severity: 'warning', row: r.sourceRow, column: null, message });
+      }
+    },
+    get count() {
+      return count;
+    },
+    issues(): ImportIssue[] {
+      if (count <= listed.length) return listed;
+      return [
+        ...listed,
+        {
+          severity: 'warning',
+          row: null,
+          column: null,
+          message: `${count - listed.length} more rows repeat measurements already in the campaign.`,
+        },
+      ];
+    },
+  };
 }
 
 function mediaTypeOf(format: 'csv' | 'xlsx', name: string): string {
