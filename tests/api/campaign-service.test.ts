@@ -174,6 +174,26 @@ describe('importMeasurements', () => {
   });
 });
 
+describe('importMeasurements: text as written', () => {
+  it('when notes and sample ids hold backslashes, tabs, line breaks and quotes, then they are stored exactly as in the file', async () => {
+    const campaign = await createCampaign(project.id);
+    const mapping = importMappingSchema.parse({
+      columns: { temperature: 0, value: 1, sampleId: 2, notes: 3 },
+      temperatureUnit: 'C',
+      measure: 'ee',
+    });
+    const notes = ['C:\\runs\\12 \\N, not null', 'first line\nsecond\tafter a tab', 'quoted "word"\r\nand a CR', '\\.', 'Ω ± −20 °C'];
+    const csvCell = (v: string) => `"${v.replace(/"/g, '""')}"`;
+    const body = notes.map((n, i) => `${-10 * i},${90 + i},${csvCell(`S\\${i}\t`)},${csvCell(n)}`).join('\n');
+    const file = { name: 'text.csv', buffer: Buffer.from(`T (°C),ee (%),sample,notes\n${body}\n`) };
+    await importMeasurements(db, actor(), campaign.id, file, { mapping, acknowledgeWarnings: true });
+    const stored = await db('measurements').where({ campaignId: campaign.id }).orderBy('sourceRow').select('sampleId', 'notes', 'valueB');
+    expect(stored.map((r) => r.notes)).toEqual(notes.map((n) => n.trim()));
+    expect(stored.map((r) => r.sampleId)).toEqual(notes.map((_n, i) => `S\\${i}`));
+    expect(stored.every((r) => r.valueB === null)).toBe(true);
+  });
+});
+
 describe('importMeasurements of a file read in the worker (rows inserted in batches while it is read)', () => {
   const mapping = importMappingSchema.parse({ columns: { temperature: 0, value: 1, sampleId: 2 }, temperatureUnit: 'C', measure: 'ee' });
   /** An invented screen of `n` rows, more than the in-thread limit, so the worker reads it; `edit` changes one line. */

@@ -4,6 +4,10 @@
  * event, or nothing at all). Stateless: the client sends the file again with its mapping.
  */
 import { createHash } from 'node:crypto';
+import { Readable } from 'node:stream';
+import { pipeline } from 'node:stream/promises';
+import type { PoolClient as PgClient } from 'pg';
+import { from as copyFrom } from 'pg-copy-streams';
 import type { Knex } from 'knex';
 import { recordAudit } from '../../lib/audit';
 import { NotFoundError } from '../../lib/errors';
@@ -133,9 +137,6 @@ export interface ImportResult {
   file: { id: string; name: string; sizeBytes: number; sha256: string };
 }
 
-/** Rows per INSERT statement; each column travels as one array parameter, so this only bounds statement size. */
-export const INSERT_CHUNK_ROWS = 10_000;
-
 /**
  * Import a file's rows into a campaign, all or nothing. Errors → ImportRejectedError (422,
  * nothing written); unacknowledged warnings → ImportNeedsConfirmationError (422, nothing
@@ -247,9 +248,7 @@ async function writeImport(
       }
       inserted += rows.length;
       if (refused) return;
-      for (let i = 0; i < rows.length; i += INSERT_CHUNK_ROWS) {
-        await insertRows(trx, campaignId, scope.actorUserId, stamp, fileId, rows.slice(i, i + INSERT_CHUNK_ROWS));
-      }
+      await insertRows(trx, campaignId, scope.actorUserId, stamp, fileId, rows);
     });
     if (inserted === 0) throw noRowsError(file);
     const warnings = [...checked.issues.filter((i) => i.severity === 'warning'), ...repeats.issues()];
@@ -297,9 +296,10 @@ async function writeImport(
 }
 
 /**
- * One multi-row INSERT per chunk, columns sent as arrays and unnested by PostgreSQL: building
- * 10 000 × 14 placeholders in JavaScript costs more than the insert itself. The table's CHECK
- * constraints still apply to every row.
+ * The rows by COPY on the transaction's own connection (COPY … FROM STDIN, text format): about a
+ * third faster than a multi-row INSERT over unnested arrays, which in turn beat 14 placeholders a
+ * row. Column defaults, CHECK constraints and foreign keys apply to every row as for an INSERT,
+ * and a refused row fails the COPY and with it the transaction.
  */
 async function insertRows(
   trx: Knex.Transaction,
@@ -309,41 +309,37 @@ async function insertRows(
   importFileId: string,
   rows: ImportRow[],
 ): Promise<void> {
-  const n = rows.length;
-  const col = <T>(pick: (r: ImportRow) => T): T[] => {
-    const out = new Array<T>(n);
-    for (let i = 0; i < n; i++) out[i] = pick(rows[i]);
-    return out;
-  };
-  await trx.raw(
-    `insert into measurements
-       (campaign_id, created_by_user_id, created_at, updated_at, import_file_id, source_row, temperature_k, measure, value, value_b,
-        is_lower_bound, uncertainty, replicate_label, sample_id, conversion_percent, reaction_time_s, notes)
-     select ?::uuid, ?::uuid, ?::timestamptz, ?::timestamptz, ?::uuid, x.*
-       from unnest(?::int[], ?::float8[], ?::text[], ?::float8[], ?::float8[], ?::boolean[], ?::float8[], ?::text[], ?::text[], ?::float8[], ?::float8[], ?::text[])
-         as x(source_row, temperature_k, measure, value, value_b, is_lower_bound, uncertainty, replicate_label, sample_id, conversion_percent, reaction_time_s, notes)`,
-    // The driver writes JS arrays (with nulls) as PostgreSQL array literals.
-    [
-      campaignId,
-      actorUserId,
-      stamp,
-      stamp,
-      importFileId,
-      col((r) => r.sourceRow),
-      col((r) => r.temperatureK),
-      col((r) => r.measure),
-      col((r) => r.value),
-      col((r) => r.valueB),
-      col((r) => r.isLowerBound),
-      col((r) => r.uncertainty),
-      col((r) => r.replicateLabel),
-      col((r) => r.sampleId),
-      col((r) => r.conversionPercent),
-      col((r) => r.reactionTimeS),
-      col((r) => r.notes),
-    ] as Knex.RawBinding[],
-  );
+  const fixed = `${campaignId}\t${actorUserId}\t${stamp.toISOString()}\t${stamp.toISOString()}\t${importFileId}\t`;
+  function* lines(): Generator<string> {
+    let chunk = '';
+    for (const r of rows) {
+      chunk += `${fixed}${r.sourceRow}\t${r.temperatureK}\t${r.measure}\t${r.value}\t${copyNumber(r.valueB)}\t${r.isLowerBound ? 't' : 'f'}\t${copyNumber(r.uncertainty)}\t${copyText(r.replicateLabel)}\t${copyText(r.sampleId)}\t${copyNumber(r.conversionPercent)}\t${copyNumber(r.reactionTimeS)}\t${copyText(r.notes)}\n`;
+      if (chunk.length >= 64 * 1024) {
+        yield chunk;
+        chunk = '';
+      }
+    }
+    if (chunk) yield chunk;
+  }
+  const connection = (await trx.client.acquireConnection()) as PgClient;
+  try {
+    const copy = connection.query(
+      copyFrom(
+        `copy measurements (campaign_id, created_by_user_id, created_at, updated_at, import_file_id, source_row, temperature_k, measure,
+           value, value_b, is_lower_bound, uncertainty, replicate_label, sample_id, conversion_percent, reaction_time_s, notes) from stdin`,
+      ),
+    );
+    await pipeline(Readable.from(lines()), copy);
+  } finally {
+    await trx.client.releaseConnection(connection);
+  }
 }
+
+/** A number in COPY's text format; null as \N. The checks have refused NaN and infinities. */
+const copyNumber = (v: number | null) => (v === null ? '\\N' : String(v));
+/** Text in COPY's text format: backslash, tab, newline and carriage return escaped; null as \N. */
+const copyText = (v: string | null) => (v === null ? '\\N' : /[\\\t\n\r]/.test(v) ? v.replace(/[\\\t\n\r]/g, (c) => COPY_ESCAPES[c]!) : v);
+const COPY_ESCAPES: Record<string, string> = { '\\': '\\\\', '\t': '\\t', '\n': '\\n', '\r': '\\r' };
 
 type StoredKeyFields = Pick<ImportRow, 'temperatureK' | 'measure' | 'value' | 'valueB' | 'sampleId' | 'replicateLabel'>;
 
