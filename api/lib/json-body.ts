@@ -48,8 +48,10 @@ type JsonSchemaNode = { $ref?: string; properties?: Record<string, unknown>; def
  * with no compiled serialiser (unions, see below) are written by `JSON.stringify`.
  */
 export function memberWriters(schema: z.ZodType): () => ReadonlyMap<string, Writer> {
+  const known = compiledFor.get(schema);
+  if (known) return known;
   let writers: Map<string, Writer> | null = null;
-  return () => {
+  const get = () => {
     if (writers) return writers;
     const json = z.toJSONSchema(schema, { io: 'output', target: 'draft-7', unrepresentable: 'any' }) as JsonSchemaNode;
     const definitions = withoutNullUnions(json.definitions ?? {}) as Record<string, unknown>;
@@ -64,7 +66,12 @@ export function memberWriters(schema: z.ZodType): () => ReadonlyMap<string, Writ
     writers = compiled;
     return writers;
   };
+  compiledFor.set(schema, get);
+  return get;
 }
+
+/** One compilation per response schema, however many routers serve it. */
+const compiledFor = new WeakMap<z.ZodType, () => ReadonlyMap<string, Writer>>();
 
 /**
  * zod's nullable (`anyOf: [S, {type: 'null'}]`) as S with OpenAPI's `nullable: true` (null added to

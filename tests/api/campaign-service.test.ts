@@ -49,6 +49,9 @@ async function thrown(promise: Promise<unknown>): Promise<AppError> {
   throw new Error('expected a rejection');
 }
 
+/** A mapping of these columns for ee in %, temperatures in °C. */
+const eeInCelsius = (columns: Record<string, number>) => importMappingSchema.parse({ columns, temperatureUnit: 'C', measure: 'ee' });
+
 const skylarkMapping = importMappingSchema.parse({
   columns: { sampleId: 0, replicateLabel: 1, temperature: 2, value: 3, uncertainty: 4, conversionPercent: 5, reactionTime: 6, notes: 7 },
   temperatureUnit: 'K',
@@ -95,11 +98,7 @@ describe('importMeasurements', () => {
 
   it('when one row of a file is bad, then nothing is written and the error names every bad row and column', async () => {
     const campaign = await createCampaign(project.id);
-    const mapping = importMappingSchema.parse({
-      columns: { sampleId: 0, replicateLabel: 1, temperature: 2, value: 3 },
-      temperatureUnit: 'C',
-      measure: 'ee',
-    });
+    const mapping = eeInCelsius({ sampleId: 0, replicateLabel: 1, temperature: 2, value: 3 });
     const file = {
       name: 'one-bad-row.csv',
       buffer: Buffer.from('sample,rep,T (°C),ee (%)\nA-1,a,25,96.5\nA-2,a,0,97.9\nA-3,a,-20,n.d.\nA-4,a,-30,99.0\n'),
@@ -177,11 +176,7 @@ describe('importMeasurements', () => {
 describe('importMeasurements: text as written', () => {
   it('when notes and sample ids hold backslashes, tabs, line breaks and quotes, then they are stored exactly as in the file', async () => {
     const campaign = await createCampaign(project.id);
-    const mapping = importMappingSchema.parse({
-      columns: { temperature: 0, value: 1, sampleId: 2, notes: 3 },
-      temperatureUnit: 'C',
-      measure: 'ee',
-    });
+    const mapping = eeInCelsius({ temperature: 0, value: 1, sampleId: 2, notes: 3 });
     const notes = ['C:\\runs\\12 \\N, not null', 'first line\nsecond\tafter a tab', 'quoted "word"\r\nand a CR', '\\.', 'Ω ± −20 °C'];
     const csvCell = (v: string) => `"${v.replace(/"/g, '""')}"`;
     const body = notes.map((n, i) => `${-10 * i},${90 + i},${csvCell(`S\\${i}\t`)},${csvCell(n)}`).join('\n');
@@ -195,7 +190,7 @@ describe('importMeasurements: text as written', () => {
 });
 
 describe('importMeasurements of a file read in the worker (rows inserted in batches while it is read)', () => {
-  const mapping = importMappingSchema.parse({ columns: { temperature: 0, value: 1, sampleId: 2 }, temperatureUnit: 'C', measure: 'ee' });
+  const mapping = eeInCelsius({ temperature: 0, value: 1, sampleId: 2 });
   /** An invented screen of `n` rows, more than the in-thread limit, so the worker reads it; `edit` changes one line. */
   const large = (name: string, n: number, edit?: (line: string, i: number) => string) => {
     const lines = Array.from({ length: n }, (_, i) => {

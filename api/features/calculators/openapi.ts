@@ -1,14 +1,8 @@
 import type { z } from 'zod';
 import { problemResponses, security, type OpenApiRegistrar } from '../../lib/openapi';
-import {
-  distributionRequestSchema,
-  distributionResponseSchema,
-  erosionRequestSchema,
-  erosionResponseSchema,
-  rateRequestSchema,
-  rateResponseSchema,
-} from './kinetics-schemas';
-import { fitRequestSchema, fitResponseSchema, forecastRequestSchema, forecastResponseSchema } from './schemas';
+import { calculators } from './catalog';
+
+const { forecast, fit, distribution, rate, erosion } = calculators;
 
 /** POST /forecast and /fit in the API description. */
 const registerSelectivity: OpenApiRegistrar = (registry) => {
@@ -20,9 +14,9 @@ const registerSelectivity: OpenApiRegistrar = (registry) => {
     description:
       'From ΔΔH‡ and ΔΔS‡, from ΔΔG‡ at one temperature, or from one observed selectivity at one temperature (ΔΔS‡ given or assumed 0, stated in assumptions). Returns r, ee, % A and ΔΔG‡ per temperature and the zero-selectivity temperature where it exists.',
     security: security.open,
-    request: { body: { content: { 'application/json': { schema: forecastRequestSchema } } } },
+    request: { body: { content: { 'application/json': { schema: forecast.request } } } },
     responses: {
-      200: { description: 'The forecast', content: { 'application/json': { schema: forecastResponseSchema } } },
+      200: { description: 'The forecast', content: { 'application/json': { schema: forecast.response } } },
       ...problemResponses(400, 413, 422, 429),
     },
   });
@@ -34,9 +28,9 @@ const registerSelectivity: OpenApiRegistrar = (registry) => {
     description:
       'Regresses ln r on 1/T (OLS, or WLS with weights from the assay uncertainty), keeps the covariance of slope and intercept, and returns ΔΔH‡ and ΔΔS‡ with SE and CI, residual diagnostics, censored (≥ 99.8 % ee) points as bounds, a curvature check (continuous two-branch model with the break as a parameter, simulated sup-F test, isoinversion only for branch slopes of opposite sign), and predictions — from the branches when a break is accepted — with the confidence interval of the mean line and the prediction interval for a new run.',
     security: security.open,
-    request: { body: { content: { 'application/json': { schema: fitRequestSchema } } } },
+    request: { body: { content: { 'application/json': { schema: fit.request } } } },
     responses: {
-      200: { description: 'The fit', content: { 'application/json': { schema: fitResponseSchema } } },
+      200: { description: 'The fit', content: { 'application/json': { schema: fit.response } } },
       ...problemResponses(400, 413, 422, 429),
     },
   });
@@ -65,8 +59,8 @@ const registerKinetics: OpenApiRegistrar = (registry) => {
       '/api/v1/distribution',
       'Product distribution over competing pathways',
       'Percent of each product over temperature from 2 to 50 competing transition states (Boltzmann weighting under Curtin–Hammett conditions); with diastereomer groups also the share and ee of each group, and dr when there are exactly two.',
-      distributionRequestSchema,
-      distributionResponseSchema,
+      distribution.request,
+      distribution.response,
     ),
   );
   registry.registerPath(
@@ -74,8 +68,8 @@ const registerKinetics: OpenApiRegistrar = (registry) => {
       '/api/v1/rate',
       'Rate, half-life and time to a target conversion',
       'Eyring–Polanyi rate constants over temperature from a barrier, from one measured run plus an assumed ΔH‡ (with the times at ΔH‡ ± 10 kJ/mol), or from two runs at two temperatures (derived ΔH‡, ΔS‡ and Ea).',
-      rateRequestSchema,
-      rateResponseSchema,
+      rate.request,
+      rate.response,
     ),
   );
   registry.registerPath(
@@ -83,8 +77,8 @@ const registerKinetics: OpenApiRegistrar = (registry) => {
       '/api/v1/erosion',
       'Loss of ee by racemization or epimerization',
       'One-way k_e, k_rac = 2k_e, the ee half-life ln 2/(2k_e), ee after a hold and the longest hold above an ee floor over temperature, with the atropisomer stability class at 37 °C.',
-      erosionRequestSchema,
-      erosionResponseSchema,
+      erosion.request,
+      erosion.response,
     ),
   );
 };

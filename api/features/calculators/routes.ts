@@ -1,45 +1,25 @@
 import { Router, type RequestHandler } from 'express';
-import { memberWriters, sendComputed as answer } from '../../lib/json-body';
+import type { z } from 'zod';
+import { memberWriters, sendComputed } from '../../lib/json-body';
 import { parseBody } from '../../lib/validation';
-import { computeDistribution } from './distribution';
-import { computeErosion } from './erosion';
-import { runFit } from './fit';
-import { runForecast } from './forecast';
-import {
-  distributionRequestSchema,
-  distributionResponseSchema,
-  erosionRequestSchema,
-  erosionResponseSchema,
-  rateRequestSchema,
-  rateResponseSchema,
-} from './kinetics-schemas';
-import { computeRate } from './rate';
-import { fitRequestSchema, fitResponseSchema, forecastRequestSchema, forecastResponseSchema } from './schemas';
+import { calculators, type Calculator } from './catalog';
 
-// Compiled from the response schemas on first use (see memberWriters).
-const forecastJson = memberWriters(forecastResponseSchema);
-const fitJson = memberWriters(fitResponseSchema);
-const distributionJson = memberWriters(distributionResponseSchema);
-const rateJson = memberWriters(rateResponseSchema);
-const erosionJson = memberWriters(erosionResponseSchema);
+/** One POST route: parse the body with the request schema, compute, answer with the writers compiled from the response schema. */
+function post<Req extends z.ZodType, Res extends z.ZodType>(
+  router: Router,
+  path: string,
+  guards: RequestHandler[],
+  c: Calculator<Req, Res>,
+) {
+  const json = memberWriters(c.response);
+  router.post(path, ...guards, (req, res) => {
+    sendComputed(res, c.run(parseBody(c.request, req.body)), json);
+  });
+}
 
 /** POST /forecast, /fit, /distribution, /rate and /erosion: stateless, no sign-in; `guards` (e.g. a rate limit) run first. */
 export function calculatorsRouter(guards: RequestHandler[] = []): Router {
   const router = Router();
-  router.post('/forecast', ...guards, (req, res) => {
-    answer(res, runForecast(parseBody(forecastRequestSchema, req.body)), forecastJson);
-  });
-  router.post('/fit', ...guards, (req, res) => {
-    answer(res, runFit(parseBody(fitRequestSchema, req.body)), fitJson);
-  });
-  router.post('/distribution', ...guards, (req, res) => {
-    answer(res, computeDistribution(parseBody(distributionRequestSchema, req.body)), distributionJson);
-  });
-  router.post('/rate', ...guards, (req, res) => {
-    answer(res, computeRate(parseBody(rateRequestSchema, req.body)), rateJson);
-  });
-  router.post('/erosion', ...guards, (req, res) => {
-    answer(res, computeErosion(parseBody(erosionRequestSchema, req.body)), erosionJson);
-  });
+  for (const [name, c] of Object.entries(calculators)) post(router, `/${name}`, guards, c as Calculator<z.ZodType, z.ZodType>);
   return router;
 }
