@@ -105,24 +105,28 @@ export function TemperatureHeading({ celsius }: { celsius: number }) {
 
 /**
  * A chart and its caption: the box the chart measures its width from (`chartRef`), then the legend
- * as a list and any `notes` below it.
+ * as a list and any `notes` below it. With `height`, the box keeps the chart's height while its
+ * width is still being measured, so drawing the chart then does not move the rest of the page
+ * (which would have the browser lay out all of it again).
  */
 export function ChartFigure({
   chartRef,
   testId,
+  height,
   legend,
   notes,
   children,
 }: {
   chartRef: Ref<HTMLDivElement>;
   testId?: string;
+  height?: number;
   legend: ReactNode;
   notes?: ReactNode;
   children: ReactNode;
 }) {
   return (
     <figure className="m-0">
-      <div ref={chartRef} className="w-full" data-testid={testId}>
+      <div ref={chartRef} className="w-full" data-testid={testId} style={height ? { minHeight: height } : undefined}>
         {children}
       </div>
       <figcaption>

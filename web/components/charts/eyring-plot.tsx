@@ -178,6 +178,7 @@ export function EyringPlot({
     <ChartFigure
       chartRef={ref}
       testId="eyring-plot"
+      height={height}
       legend={
         <>
           <LegendItem label="measured, in the fit">

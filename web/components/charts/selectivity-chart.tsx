@@ -134,6 +134,7 @@ export function SelectivityChart({
     <ChartFigure
       chartRef={ref}
       testId="selectivity-chart"
+      height={height}
       legend={
         <>
           <LegendItem label={curveLabel}>
