@@ -2,6 +2,7 @@ import { useContext, useMemo, type ComponentProps } from 'react';
 import { Axis, DataContext, GlyphSeries, LineSeries } from '@visx/xychart';
 import { fixed } from '../../lib/format';
 import { axisLabelProps, chartColors, chartFont, tickLabelProps } from './chart-theme';
+import type { PlotSeries } from './chart-frame';
 
 type NumberScale = ((value: number) => number | undefined) & { domain(): unknown[]; range(): unknown[] };
 
@@ -143,6 +144,12 @@ interface PlotDatum {
 const plotX = (d: PlotDatum) => d.x;
 const plotY = (d: PlotDatum) => d.y;
 const noGlyph = () => null;
+
+/** A fitted curve's data as `FittedLine` registers it, for `ChartFrame`'s `series`. */
+export const lineSeries = (key: string, data: PlotDatum[]): PlotSeries => ({ key, data, xAccessor: plotX, yAccessor: plotY });
+
+/** The runs' data as `MeasurementAnchors` registers it, for `ChartFrame`'s `series`. */
+export const anchorSeries = (data: PlotDatum[]): PlotSeries => ({ key: 'measurements', data, xAccessor: plotX, yAccessor: plotY });
 
 /** The fitted curve: a solid accent line through `data`. */
 export function FittedLine(props: { className?: string; dataKey: string; data: PlotDatum[] }) {
