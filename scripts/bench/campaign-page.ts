@@ -11,6 +11,8 @@
  * API, and prints both medians and their ratio: the fair comparison on a machine whose load varies.
  * EYRIE_PAGE_PROFILE=file.cpuprofile adds one load under the DevTools CPU profiler and prints the
  * page's requests with their timings and the number of elements in its charts and tables.
+ * EYRIE_PAGE_TRACE=file.json (with EYRIE_PAGE_PROFILE) also writes that load's timeline trace, and
+ * EYRIE_PAGE_FIGURES=file.html the markup of its charts.
  * EYRIE_PAGE_LOADS=n counts n loads instead of 5; EYRIE_PAGE_DIST=<dist/web> serves that build as this one.
  *
  * Needs DATABASE_URL and dist/web (npm run bench provides both).
@@ -186,7 +188,13 @@ async function profileOneLoad(context: BrowserContext, url: string, file: string
   await cdp.send('Profiler.start');
   const traceEvents: TraceEvent[] = [];
   cdp.on('Tracing.dataCollected', (e) => traceEvents.push(...(e.value as unknown as TraceEvent[])));
-  await cdp.send('Tracing.start', { categories: 'devtools.timeline', transferMode: 'ReportEvents' });
+  // EYRIE_PAGE_TRACE=file.json also keeps the whole timeline trace (every task with what ran inside it), for Chromium's
+  // Performance panel or a script.
+  const traceFile = process.env.EYRIE_PAGE_TRACE;
+  await cdp.send('Tracing.start', {
+    categories: traceFile ? 'devtools.timeline,disabled-by-default-devtools.timeline,toplevel,blink.user_timing' : 'devtools.timeline',
+    transferMode: 'ReportEvents',
+  });
   await page.goto(url, { waitUntil: 'commit' });
   await page.waitForSelector('[data-testid="eyring-plot"] svg path.eyrie-points-fitted', { timeout: 60_000 });
   await page.waitForSelector('table[aria-label="Measurements"] tbody tr td', { timeout: 60_000 });
@@ -217,8 +225,16 @@ async function profileOneLoad(context: BrowserContext, url: string, file: string
     ),
   }));
   console.log(JSON.stringify(elements));
+  // The charts as drawn, once every pass has settled: two builds' drawings compared side by side
+  // (the synthetic screen is drawn at random, so compare the structure and the axes, not the marks).
+  if (process.env.EYRIE_PAGE_FIGURES) {
+    await page.waitForTimeout(QUIET_MS);
+    const figures = await page.evaluate(() => [...document.querySelectorAll('figure')].map((f) => f.outerHTML));
+    await writeFile(process.env.EYRIE_PAGE_FIGURES, figures.join('\n\n'));
+  }
   await page.close();
   await writeFile(file, JSON.stringify(profile));
+  if (traceFile) await writeFile(traceFile, JSON.stringify({ traceEvents }));
   console.log(`\nProfiled load written to ${file}; requests:\n${requests.join('\n')}`);
 }
 

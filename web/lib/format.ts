@@ -149,3 +149,13 @@ export function measureColumn(display: DisplayMeasure, lnRatios: readonly number
   const column = percentColumn(lnRatios.map(percentOf), assaySd);
   return (lnR) => (Number.isFinite(lnR) ? column(percentOf(lnR)) : '—');
 }
+
+/**
+ * A British-English date formatter made on its first use: the first Intl.DateTimeFormat a page makes
+ * loads the locale's data (some 15 ms), which at module level falls on the load of every page that
+ * imports the module, before anything is drawn.
+ */
+export function dateFormatter(options: Intl.DateTimeFormatOptions): (date: Date) => string {
+  let format: Intl.DateTimeFormat | null = null;
+  return (date) => (format ??= new Intl.DateTimeFormat('en-GB', options)).format(date);
+}

@@ -2,13 +2,19 @@ import { useContext, useMemo, type ComponentProps } from 'react';
 import { Axis, DataContext, GlyphSeries, LineSeries } from '@visx/xychart';
 import { fixed } from '../../lib/format';
 import { axisLabelProps, chartColors, chartFont, tickLabelProps } from './chart-theme';
+import type { PlotSeries } from './chart-frame';
 
-type NumberScale = ((value: number) => number | undefined) & { domain(): unknown[] };
+type NumberScale = ((value: number) => number | undefined) & { domain(): unknown[]; range(): unknown[] };
 
-/** The chart's scales and plot area, for marks that xychart has no series for. */
+/**
+ * The chart's scales and plot area, for marks that xychart has no series for. Null until a series
+ * has registered its data: before that xychart hands out a placeholder scale (domain and range
+ * [0, 1]), and marks drawn with it would be computed for nothing and drawn in the corner.
+ */
 export function usePlotArea() {
-  const { xScale, yScale, margin, innerWidth, innerHeight } = useContext(DataContext);
+  const { xScale, yScale, margin, innerWidth, innerHeight, dataRegistry } = useContext(DataContext);
   if (!xScale || !yScale || !margin || !innerWidth || !innerHeight) return null;
+  if (!dataRegistry?.entries().some((entry) => entry.data.length > 0)) return null;
   return { x: xScale as unknown as NumberScale, y: yScale as unknown as NumberScale, margin, innerWidth, innerHeight };
 }
 
@@ -139,6 +145,12 @@ const plotX = (d: PlotDatum) => d.x;
 const plotY = (d: PlotDatum) => d.y;
 const noGlyph = () => null;
 
+/** A fitted curve's data as `FittedLine` registers it, for `ChartFrame`'s `series`. */
+export const lineSeries = (key: string, data: PlotDatum[]): PlotSeries => ({ key, data, xAccessor: plotX, yAccessor: plotY });
+
+/** The runs' data as `MeasurementAnchors` registers it, for `ChartFrame`'s `series`. */
+export const anchorSeries = (data: PlotDatum[]): PlotSeries => ({ key: 'measurements', data, xAccessor: plotX, yAccessor: plotY });
+
 /** The fitted curve: a solid accent line through `data`. */
 export function FittedLine(props: { className?: string; dataKey: string; data: PlotDatum[] }) {
   return <LineSeries {...props} xAccessor={plotX} yAccessor={plotY} stroke={chartColors.accent} strokeWidth={2} />;
@@ -219,9 +231,73 @@ function TickLabel(props: TickProps) {
   return <text {...svg}>{formattedValue}</text>;
 }
 
+type AxisProps = Omit<ComponentProps<typeof Axis>, 'labelProps' | 'tickLabelProps'>;
+
+/**
+ * The axis title, where visx puts it (centred along the axis, beyond the tick labels: tick length,
+ * the offset and the tick labels' font size, plus the title's own size below a bottom axis; turned
+ * a quarter for a vertical axis) as one plain SVG text, runs of spaces written as one as visx does:
+ * visx's text component measures each word of a title in the page before drawing it, which a
+ * one-line title does not need.
+ */
+function AxisLabel({
+  orientation,
+  label,
+  labelOffset,
+  hasTicks,
+}: {
+  orientation: string;
+  label: string;
+  labelOffset: number;
+  hasTicks: boolean;
+}) {
+  const area = usePlotArea();
+  const { width, height, theme } = useContext(DataContext);
+  if (!area || width == null || height == null) return null;
+  const vertical = orientation === 'left' || orientation === 'right';
+  const tickLength = (vertical ? theme?.axisStyles?.y?.left : theme?.axisStyles?.x?.bottom)?.tickLength ?? 8;
+  // visx reserves at least 10 px for the tick labels, or their own size when there are any.
+  const tickFontSize = hasTicks ? Math.max(10, tickLabelProps().fontSize) : 10;
+  const sign = orientation === 'left' || orientation === 'top' ? -1 : 1;
+  const [r0, r1] = (vertical ? area.y : area.x).range() as [number, number];
+  const middle = (r0 + r1) / 2;
+  const groupLeft = orientation === 'left' ? area.margin.left : orientation === 'right' ? width - area.margin.right : 0;
+  const groupTop = orientation === 'bottom' ? height - area.margin.bottom : orientation === 'top' ? area.margin.top : 0;
+  const x = vertical ? sign * middle : middle;
+  const y = vertical
+    ? -(tickLength + labelOffset)
+    : sign * (tickLength + labelOffset + tickFontSize + (orientation === 'bottom' ? axisLabelProps.fontSize : 0));
+  return (
+    <g transform={`translate(${groupLeft}, ${groupTop})`}>
+      <text
+        className="visx-axis-label"
+        x={x}
+        y={y}
+        transform={vertical ? `rotate(${sign * 90})` : undefined}
+        textAnchor="middle"
+        {...axisLabelProps}
+      >
+        {label.replace(/[^\S\u00a0]+/g, ' ')}
+      </text>
+    </g>
+  );
+}
+
 /** An axis in the charts' type and colours; every chart draws its axes through this. */
-export function ChartAxis(props: Omit<ComponentProps<typeof Axis>, 'labelProps' | 'tickLabelProps'>) {
-  return <Axis tickComponent={TickLabel} {...props} labelProps={axisLabelProps} tickLabelProps={tickLabelProps} />;
+export function ChartAxis({ label, labelOffset = 14, ...props }: AxisProps) {
+  return (
+    <>
+      <Axis tickComponent={TickLabel} {...props} tickLabelProps={tickLabelProps} />
+      {label && (
+        <AxisLabel
+          orientation={props.orientation}
+          label={label}
+          labelOffset={labelOffset}
+          hasTicks={props.tickValues ? props.tickValues.length > 0 : true}
+        />
+      )}
+    </>
+  );
 }
 
 /** The bottom axis of every chart drawn against temperature in °C. */

@@ -1,8 +1,18 @@
 import { useMemo, type ReactNode } from 'react';
 import { LineSeries } from '@visx/xychart';
 import { fixed, sig } from '../../lib/format';
-import { ChartFigure, BandArea, ChartFrame, InverseKelvinAxis, SnapTooltip } from './chart-frame';
-import { ChartAxis, ErrorBars, FittedLine, MeasurementAnchors, PointMarks, VerticalMark, type PointMark } from './chart-layers';
+import { ChartFigure, BandArea, ChartFrame, InverseKelvinAxis, SnapTooltip, bandSeries, type PlotSeries } from './chart-frame';
+import {
+  ChartAxis,
+  ErrorBars,
+  FittedLine,
+  MeasurementAnchors,
+  PointMarks,
+  VerticalMark,
+  anchorSeries,
+  lineSeries,
+  type PointMark,
+} from './chart-layers';
 import { chartColors, paddedExtent } from './chart-theme';
 import { useElementWidth } from './use-element-width';
 import { CELSIUS_OFFSET_K as CELSIUS_OFFSET } from '../../../api/science/quantities';
@@ -170,6 +180,16 @@ export function EyringPlot({
   // Stable scale settings: xychart rebuilds its scales, and every mark drawn with them, when these change.
   const xScale = useMemo(() => ({ type: 'linear', domain: xDomain, zero: false }) as const, [xDomain]);
   const yScale = useMemo(() => ({ type: 'linear', domain: yDomain, zero: false, nice: true }) as const, [yDomain]);
+  // Every series' data, in the order they are drawn below, so the chart is drawn in one pass.
+  const series = useMemo(() => {
+    const list: PlotSeries[] = [];
+    if (prediction.length > 1) list.push(bandSeries('prediction band', prediction));
+    if (confidence.length > 1) list.push(bandSeries('confidence band', confidence));
+    if (curveData.length > 1) list.push(lineSeries('fitted line', curveData));
+    for (const b of branchData) list.push({ key: `branch ${b.label}`, data: b.data, xAccessor: lineX, yAccessor: lineY });
+    if (pointData.length > 0) list.push(anchorSeries(pointData));
+    return list;
+  }, [prediction, confidence, curveData, branchData, pointData]);
   // Inner width: the chart less its left (70) and right (20) margins.
   const topTicks = useMemo(() => celsiusTicks(xDomain, Math.max(1, chartWidth - 90)), [xDomain, chartWidth]);
   const levelText = `${fixed(confidenceLevel * 100, 0)} %`;
@@ -178,6 +198,7 @@ export function EyringPlot({
     <ChartFigure
       chartRef={ref}
       testId="eyring-plot"
+      height={height}
       legend={
         <>
           <LegendItem label="measured, in the fit">
@@ -216,7 +237,16 @@ export function EyringPlot({
       }
     >
       {chartWidth > 0 && (
-        <ChartFrame width={chartWidth} height={height} margin={MARGIN} xScale={xScale} yScale={yScale} title={title} gridTicks={6}>
+        <ChartFrame
+          width={chartWidth}
+          height={height}
+          margin={MARGIN}
+          xScale={xScale}
+          yScale={yScale}
+          title={title}
+          gridTicks={6}
+          series={series}
+        >
           {prediction.length > 1 && (
             <BandArea dataKey="prediction band" data={prediction} fill={chartColors.predictionFill} fillOpacity={0.22} />
           )}

@@ -1,7 +1,7 @@
 import { useCallback, useMemo } from 'react';
 import { GlyphSeries } from '@visx/xychart';
 import { enantiomericRatio, fixed, percent } from '../../lib/format';
-import { ChartFigure, BandArea, ChartFrame, SnapTooltip, TemperatureHeading } from './chart-frame';
+import { ChartFigure, BandArea, ChartFrame, SnapTooltip, TemperatureHeading, bandSeries, type PlotSeries } from './chart-frame';
 import {
   CelsiusAxis,
   ChartAxis,
@@ -10,6 +10,8 @@ import {
   MeasurementAnchors,
   PointMarks,
   VerticalMark,
+  anchorSeries,
+  lineSeries,
   type PointMark,
 } from './chart-layers';
 import { chartColors, paddedExtent } from './chart-theme';
@@ -126,6 +128,16 @@ export function SelectivityChart({
     return [Math.max(floor, lo), Math.min(ceiling, hi)];
   }, [curveData, pointData, band, spec, measure, fold]);
 
+  // Every series' data, in the order they are drawn below, so the chart is drawn in one pass.
+  const series = useMemo(() => {
+    const list: PlotSeries[] = [];
+    if (band.length > 1) list.push(bandSeries('band', band));
+    if (curveData.length > 1) list.push(lineSeries('curve', curveData));
+    if (curveData.length === 1) list.push({ key: 'curve', data: curveData, xAccessor: xOf, yAccessor: yOf });
+    if (pointData.length > 0) list.push(anchorSeries(pointData));
+    return list;
+  }, [band, curveData, pointData]);
+
   // Stable scale settings: xychart rebuilds its scales, and every mark drawn with them, when these change.
   const xScale = useMemo(() => ({ type: 'linear', domain: xDomain, zero: false }) as const, [xDomain]);
   const yScale = useMemo(() => ({ type: 'linear', domain: yDomain, zero: false, nice: true, clamp: true }) as const, [yDomain]);
@@ -134,6 +146,7 @@ export function SelectivityChart({
     <ChartFigure
       chartRef={ref}
       testId="selectivity-chart"
+      height={height}
       legend={
         <>
           <LegendItem label={curveLabel}>
@@ -158,7 +171,16 @@ export function SelectivityChart({
       }
     >
       {chartWidth > 0 && (
-        <ChartFrame width={chartWidth} height={height} margin={MARGIN} xScale={xScale} yScale={yScale} title={title} gridTicks={6}>
+        <ChartFrame
+          width={chartWidth}
+          height={height}
+          margin={MARGIN}
+          xScale={xScale}
+          yScale={yScale}
+          title={title}
+          gridTicks={6}
+          series={series}
+        >
           {band.length > 1 && <BandArea dataKey="band" data={band} fill={chartColors.predictionFill} fillOpacity={0.3} />}
           {spec != null && <HorizontalRule y={spec} label={`specification ${fixed(spec, spec % 1 === 0 ? 0 : 1)} ${unitText}`} />}
           {curveData.length > 1 && <FittedLine className="eyrie-curve-line" dataKey="curve" data={curveData} />}

@@ -88,6 +88,10 @@ export function UnreadyPage({
 /**
  * Whether the element's content is wider than its box (so it scrolls sideways); kept current as
  * either changes size. A box that scrolls takes the focus, so the keyboard can scroll it too.
+ *
+ * Read only in the observer's reports, which arrive after the browser's own layout (the first one
+ * right after the box is first laid out): read as the element mounts, the sizes made the browser
+ * lay out the whole page in the middle of React's commit.
  */
 function useScrollsSideways<T extends HTMLElement>(): [RefObject<T | null>, boolean] {
   const ref = useRef<T>(null);
@@ -96,7 +100,6 @@ function useScrollsSideways<T extends HTMLElement>(): [RefObject<T | null>, bool
     const el = ref.current;
     if (!el || typeof ResizeObserver === 'undefined') return;
     const check = () => setScrolls(el.scrollWidth > el.clientWidth + 1);
-    check();
     const observer = new ResizeObserver(check);
     observer.observe(el);
     return () => observer.disconnect();

@@ -3,12 +3,13 @@ import { useForm } from 'react-hook-form';
 import { Button, LabelAbove } from '../../../components/ui/form';
 import { FormErrorAlert } from '../../../components/ui/form-fields';
 import { applyServerErrors } from '../../../lib/form';
+import { dateFormatter } from '../../../lib/format';
 import { recordLinks, useHistoryEntries, useKeptFiles, useReopen, useSignOff } from '../api/records';
 import type { CampaignWithRole } from '../api/types';
 import { ListHead } from '../../../components/ui/table-head';
 
-const timeFormat = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'short', timeZone: 'UTC' });
-const when = (iso: string) => `${timeFormat.format(new Date(iso))} UTC`;
+const timeFormat = dateFormatter({ dateStyle: 'medium', timeStyle: 'short', timeZone: 'UTC' });
+const when = (iso: string) => `${timeFormat(new Date(iso))} UTC`;
 
 function formatBytes(n: number): string {
   if (n < 1024) return `${n} B`;

@@ -24,11 +24,18 @@ const MEASURES: SelectivityMeasure[] = ['ee', 'percentA', 'er', 'dr', 'ratio'];
 
 /** Above this many rows only those in view are drawn (the grid scrolls in its own box). */
 const VIRTUAL_FROM_ROWS = 120;
-/** Height of one row before it is measured (px). */
-const ROW_HEIGHT_ESTIMATE = 33;
-const estimateSize = () => ROW_HEIGHT_ESTIMATE;
-/** The box before the browser has measured it: its own height cap (70 % of the window, read without a layout). */
-const initialRect = () => ({ width: 1200, height: typeof window === 'undefined' ? 700 : Math.round(window.innerHeight * 0.7) });
+/**
+ * Height of a row before it is measured (px): a line of cells (inputs where the runs can be edited,
+ * text where they cannot), or two lines in the status cell when it also gives the replicates' mean.
+ * Estimates that match what the browser then measures keep the virtualizer from drawing the grid a
+ * second time, with other rows, as soon as the sizes come in.
+ */
+const ROW_HEIGHT = { inputs: 31, text: 29, withReplicates: 41 };
+/**
+ * The box before the browser has measured it: its own height cap (70 % of the window, read without
+ * a layout) less its top and bottom border, the height it is then measured at.
+ */
+const initialRect = () => ({ width: 1200, height: typeof window === 'undefined' ? 700 : Math.floor(window.innerHeight * 0.7) - 2 });
 
 const COLUMN_TITLE: Record<GridColumn, string> = {
   temperature: 'Temperature',
@@ -85,6 +92,14 @@ export function MeasurementGrid({
   const virtual = rows.length >= VIRTUAL_FROM_ROWS;
   // Stable callbacks: the virtualizer recomputes every row position when one of them changes.
   const getItemKey = useCallback((i: number) => rows[i]?.key ?? i, [rows]);
+  const estimateSize = useCallback(
+    (i: number) => {
+      const stored = rows[i]?.stored;
+      if (stored && replicateSummary.has(stored.id)) return ROW_HEIGHT.withReplicates;
+      return canEdit ? ROW_HEIGHT.inputs : ROW_HEIGHT.text;
+    },
+    [rows, replicateSummary, canEdit],
+  );
   const virtualizer = useVirtualizer({
     count: virtual ? rows.length : 0,
     getScrollElement: () => scrollRef.current,

@@ -5,7 +5,7 @@ import { SafetyCaution } from '../../../components/ui/caution';
 import { Button, errorAria, LabelAbove } from '../../../components/ui/form';
 import { StaleResult, useLastDefined, type StaleReason } from '../../../components/ui/stale';
 import { applyServerErrors, errorAt, FORM_ERROR } from '../../../lib/form';
-import { enantiomericRatio, fixed, measureColumn, percent, sig, lnRatioOf, lnRatioRange } from '../../../lib/format';
+import { dateFormatter, enantiomericRatio, fixed, measureColumn, percent, sig, lnRatioOf, lnRatioRange } from '../../../lib/format';
 import { PredictionBox } from '../../../components/fit/prediction-box';
 import { useDeleteForecast, useForecasts, useSaveForecast } from '../api/forecasts';
 import type { AnalysisResponse, FitPrediction, SavedForecastView } from '../api/types';
@@ -313,7 +313,7 @@ function SmallField({ control, name, label, width }: { control: Control<SaveText
   );
 }
 
-const dateFormat = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'short' });
+const dateFormat = dateFormatter({ dateStyle: 'medium', timeStyle: 'short' });
 
 /** Kept forecasts, each against any run measured since within ±1 K of its temperature. */
 export function SavedForecasts({
@@ -477,7 +477,7 @@ function ForecastRow({
         )}
       </td>
       <td className="whitespace-nowrap px-2 py-1 text-left text-xs text-ink-600">
-        {dateFormat.format(new Date(f.createdAt))}
+        {dateFormat(new Date(f.createdAt))}
         {f.createdBy && <span className="block">{f.createdBy.displayName ?? f.createdBy.login}</span>}
       </td>
       {canEdit && (
