@@ -122,7 +122,7 @@ describe('a crash in the middle of an import', () => {
     const user = await User.query(knex).findById(owner.userId);
     const auth = `Bearer ${(await createApiToken(user!, {}, knex)).secret}`;
     const before = Number((await knex('measurements').where({ campaignId: campaign.id }).count({ n: '*' }).first())!.n);
-    // 20 000 invented runs (fixed pattern): two insert statements in one transaction, long enough to be caught.
+    // 20 000 invented runs (fixed pattern): two COPY batches in one transaction, long enough to be caught.
     const rows = Array.from({ length: 20_000 }, (_, i) => `${(-60 + (i % 80) + i / 1e5).toFixed(5)},${(80 + (i % 19)).toFixed(1)},S-${i}`);
     const csvOf = (lines: string[]) => `Temperature (°C),ee (%),Sample\n${lines.join('\n')}\n`;
     const form = (csv: string) => {
@@ -146,12 +146,12 @@ describe('a crash in the middle of an import', () => {
       (r) => r.status,
       () => 'connection lost',
     );
-    // Wait until PostgreSQL shows the import's insert inside its transaction, then kill the API outright.
+    // Wait until PostgreSQL shows the import's COPY inside its transaction, then kill the API outright.
     await until(
       'the import to be inserting',
       async () =>
         (await knex('pg_stat_activity')
-          .where('query', 'like', 'insert into measurements%')
+          .where('query', 'like', 'copy measurements%')
           .where({ state: 'active' })
           .whereNotNull('xactStart')
           .first('pid'))
@@ -167,7 +167,7 @@ describe('a crash in the middle of an import', () => {
     // The transaction died with its connection: not one of the 20 000 rows is there.
     await until(
       'the killed backend to be gone',
-      async () => ((await knex('pg_stat_activity').where('query', 'like', 'insert into measurements%').first('pid')) ? null : true),
+      async () => ((await knex('pg_stat_activity').where('query', 'like', 'copy measurements%').first('pid')) ? null : true),
       20_000,
     );
     expect(Number((await knex('measurements').where({ campaignId: campaign.id }).count({ n: '*' }).first())!.n)).toBe(before);
