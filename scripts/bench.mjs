@@ -3,6 +3,7 @@
 // import and analysis benchmarks. Uses a throwaway PostgreSQL like `npm test`.
 import { spawn } from 'node:child_process';
 import { ensureDependencies, ensureWebBuild, root } from './lib/deps.mjs';
+import { SERVER_NODE_FLAGS } from './lib/server-flags.mjs';
 
 ensureDependencies();
 // The bundle and browser suites read the built web app.
@@ -21,6 +22,8 @@ try {
   const child = spawn(
     process.execPath,
     [
+      // The app under test runs with the server's own flags (scripts/lib/server-flags.mjs).
+      ...SERVER_NODE_FLAGS,
       ...(process.env.EYRIE_BENCH_PROF ? ['--cpu-prof', '--cpu-prof-dir=' + process.env.EYRIE_BENCH_PROF] : []),
       '--import',
       'tsx',

@@ -4,6 +4,7 @@
 import { spawn, spawnSync } from 'node:child_process';
 import path from 'node:path';
 import { ensureDependencies, ensureWebBuild, log, root } from './lib/deps.mjs';
+import { SERVER_NODE_FLAGS } from './lib/server-flags.mjs';
 import { supervise } from './lib/supervise.mjs';
 
 const dev = process.argv.includes('--dev');
@@ -45,7 +46,7 @@ async function main() {
   // In development the watcher restarts on edits; otherwise the supervisor restarts the server when it dies.
   api = supervise({
     name: 'the API server',
-    args: dev ? ['--import', 'tsx', '--watch', 'api/server.ts'] : ['--import', 'tsx', 'api/server.ts'],
+    args: [...SERVER_NODE_FLAGS, '--import', 'tsx', ...(dev ? ['--watch'] : []), 'api/server.ts'],
     cwd: root,
     env: { ...env, PORT: String(apiPort), PUBLIC_URL: publicUrl, LOG_LEVEL: process.env.LOG_LEVEL ?? 'warn' },
     log,
