@@ -9,8 +9,9 @@ import { z } from 'zod';
  * outside Latin-1 (ΔΔG‡, −, ≥ in notes and captions): the number-heavy members (predictions,
  * residuals, curves) then take twice the memory and the slow path of UTF-8 encoding, and a 70 kB
  * answer becomes a 140 kB string that V8 puts in large-object space. Serialising each top-level
- * member on its own keeps those members one-byte strings; the bytes are identical to
- * `Buffer.from(JSON.stringify(body))`. `writers`, when given, serialise the members they name.
+ * member on its own keeps those members one-byte strings; without `writers` the bytes are identical
+ * to `Buffer.from(JSON.stringify(body))`. `writers`, when given, serialise the members they name
+ * (the same JSON, keys in the schema's order).
  */
 export function jsonBytes(body: unknown, writers?: ReadonlyMap<string, (value: unknown) => string>): Buffer {
   if (body === null || typeof body !== 'object' || Array.isArray(body) || typeof (body as { toJSON?: unknown }).toJSON === 'function') {

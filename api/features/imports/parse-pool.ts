@@ -12,17 +12,7 @@ import { AppError, PayloadTooLargeError } from '../../lib/errors';
 import type { ImportMapping, ImportParseOptions } from '../campaigns/schemas';
 import { UnreadableFileError } from './errors';
 import { IMPORT_LIMITS, IN_THREAD_MAX_BYTES, type ImportLimits, type ParsedTable, type UploadedFile } from './parse';
-import type {
-  CheckAnswer,
-  CheckedFile,
-  CheckStreamMessage,
-  CheckStreamTask,
-  CheckTask,
-  PreviewAnswer,
-  ReadAnswer,
-  ReadTask,
-  SerialisedError,
-} from './parse-task';
+import type { CheckAnswer, CheckMessage, CheckTask, PreviewAnswer, ReadAnswer, ReadTask, SerialisedError } from './parse-task';
 import { unpackRows, type ImportRow, type IssueCounts, type ValidationResult } from './row-checks';
 import type { ImportPreview, StoredRowKeys } from './service';
 
@@ -108,31 +98,17 @@ export async function previewInPool(
   return answer.preview;
 }
 
-/**
- * Read `file` and check every row against `mapping` in a worker (the import of a large file or any
- * workbook). Errors as for `readInPool`.
- */
-export async function checkInPool(
-  file: UploadedFile,
-  request: { mapping: ImportMapping; parse?: ImportParseOptions },
-  limits: ImportLimits,
-): Promise<CheckedFile> {
-  const task: CheckTask = { name: file.name, buffer: file.buffer, request, limits };
-  const answer = (await runTask(file, task, 'check')) as CheckAnswer;
-  if (!answer.ok) throw rebuildError(answer.error);
-  return answer.checked;
-}
-
-/** Rows per batch a streamed check sends back (the import inserts 10 000 rows per statement). */
+/** Rows per batch the worker's check sends back (the import writes each batch with one COPY). */
 export const CHECK_BATCH_ROWS = 10_000;
 
 /**
- * As `checkInPool`, with the checked rows handed to `take` in batches while the worker reads on
- * (the last batch after the worker is done). `take` runs for one batch at a time, in file order;
+ * Read `file` and check every row against `mapping` in a worker (the import of a large file or any
+ * workbook), the checked rows handed to `take` in batches while the worker reads on (the last
+ * batch after the worker is done). Errors as for `readInPool`. `take` runs for one batch at a time, in file order;
  * batches stop at the first row error. If `take` fails, no further batch is handed over and its
  * error is thrown once the worker has finished.
  */
-export async function checkInPoolStreaming(
+export async function checkInPool(
   file: UploadedFile,
   request: { mapping: ImportMapping; parse?: ImportParseOptions },
   limits: ImportLimits,
@@ -152,14 +128,14 @@ export async function checkInPoolStreaming(
     });
   };
   const answered = new Promise<CheckAnswer>((resolve) => {
-    port1.on('message', (message: CheckStreamMessage) => {
+    port1.on('message', (message: CheckMessage) => {
       if (message.kind === 'rows') hand(unpackRows(message.packed), message);
       else resolve(message.answer);
     });
   });
   try {
-    const task: CheckStreamTask = { name: file.name, buffer: file.buffer, request, limits, port: port2, batchRows: CHECK_BATCH_ROWS };
-    const run = runTask(file, task, 'checkStream', [port2]);
+    const task: CheckTask = { name: file.name, buffer: file.buffer, request, limits, port: port2, batchRows: CHECK_BATCH_ROWS };
+    const run = runTask(file, task, 'check', [port2]);
     // The answer comes on the port; the task itself settles after it, or fails (memory, time) without one.
     let answer: CheckAnswer;
     try {

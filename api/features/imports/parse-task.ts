@@ -11,7 +11,7 @@ import type { ImportPreview, StoredRowKeys } from './service';
 import { AppError } from '../../lib/errors';
 import type { ProblemTypeId } from '../../lib/problem-types';
 import { readUpload, type ImportLimits, type ParsedTable } from './parse';
-import { packRows, validateRows, validateRowsInBatches, type IssueCounts, type PackedRows, type ValidationResult } from './row-checks';
+import { packRows, validateRowsInBatches, type IssueCounts, type PackedRows, type ValidationResult } from './row-checks';
 
 export interface ReadTask {
   name: string;
@@ -92,9 +92,12 @@ export interface CheckTask {
   buffer: Uint8Array;
   request: { mapping: ImportMapping; parse?: ImportParseOptions };
   limits: ImportLimits;
+  /** Where the checked rows go, a batch at a time, and finally the answer. */
+  port: MessagePort;
+  batchRows: number;
 }
 
-/** What `checkInWorker` found: the file's format and every row checked, the rows packed by column. */
+/** What `checkInWorker` found: the file's format, the issues and counts, and the rows after the last batch, packed by column. */
 export interface CheckedFile {
   format: ParsedTable['format'];
   result: Omit<ValidationResult, 'rows'> & { packed: PackedRows };
@@ -102,37 +105,16 @@ export interface CheckedFile {
 
 export type CheckAnswer = ({ ok: true; checked: CheckedFile } | { ok: false; error: SerialisedError }) & { peakMemoryBytes: number };
 
-/**
- * The import's read and row checks in the worker: only the checked rows (packed by column) and
- * the issues cross back, never the whole table of text cells.
- */
-export async function checkInWorker(task: CheckTask): Promise<CheckAnswer> {
-  try {
-    const buffer = Buffer.from(task.buffer.buffer, task.buffer.byteOffset, task.buffer.byteLength);
-    const table = await readUpload({ name: task.name, buffer }, task.request.parse ?? {}, task.limits);
-    const { rows, ...rest } = validateRows(table, task.request.mapping);
-    return { ok: true, checked: { format: table.format, result: { ...rest, packed: packRows(rows) } }, peakMemoryBytes: heapNow() };
-  } catch (err) {
-    if (err instanceof AppError) return { ok: false, error: serialise(err), peakMemoryBytes: heapNow() };
-    throw err;
-  }
-}
-
-export interface CheckStreamTask extends CheckTask {
-  /** Where the checked rows go, a batch at a time, and finally the answer. */
-  port: MessagePort;
-  batchRows: number;
-}
-
-/** Messages on a CheckStreamTask's port: batches of checked rows, then the answer (its rows are the last batch). */
-export type CheckStreamMessage = ({ kind: 'rows'; packed: PackedRows } & IssueCounts) | { kind: 'done'; answer: CheckAnswer };
+/** Messages on a CheckTask's port: batches of checked rows, then the answer (its rows are the last batch). */
+export type CheckMessage = ({ kind: 'rows'; packed: PackedRows } & IssueCounts) | { kind: 'done'; answer: CheckAnswer };
 
 /**
- * As `checkInWorker`, sending the checked rows to the main thread in batches as they are checked,
- * so the import inserts them (in its transaction) while the rest of the file is read.
+ * The import's read and row checks in the worker. The checked rows go to the main thread packed by
+ * column, in batches as they are checked (so the import writes them, in its transaction, while the
+ * rest of the file is read), never the whole table of text cells.
  */
-export async function checkStreamInWorker(task: CheckStreamTask): Promise<void> {
-  const post = (message: CheckStreamMessage, packed?: PackedRows) =>
+export async function checkInWorker(task: CheckTask): Promise<void> {
+  const post = (message: CheckMessage, packed?: PackedRows) =>
     task.port.postMessage(message, packed ? [packed.numbers.buffer as ArrayBuffer] : []);
   try {
     const buffer = Buffer.from(task.buffer.buffer, task.buffer.byteOffset, task.buffer.byteLength);

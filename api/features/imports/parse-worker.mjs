@@ -2,9 +2,8 @@
 // that it starts the same under tsx, vitest and node; it loads the TypeScript reader through tsx.
 import { tsImport } from 'tsx/esm/api';
 
-const { readInWorker, previewInWorker, checkInWorker, checkStreamInWorker } = await tsImport('./parse-task.ts', import.meta.url);
+const { readInWorker, previewInWorker, checkInWorker } = await tsImport('./parse-task.ts', import.meta.url);
 
 export default readInWorker;
 export const preview = previewInWorker;
 export const check = checkInWorker;
-export const checkStream = checkStreamInWorker;

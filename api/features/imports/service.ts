@@ -156,11 +156,11 @@ export async function importMeasurements(
     // A large file or a workbook: the worker checks it and sends the checked rows in batches, which
     // are inserted (in the transaction) while it reads on. A row error, an unacknowledged warning
     // or a failed read found later throws, and the transaction takes back what was written.
-    const { checkInPoolStreaming } = await import('./parse-pool');
+    const { checkInPool } = await import('./parse-pool');
     const format = extensionOf(file.name) === 'xlsx' ? 'xlsx' : 'csv';
     const parse = request.parse ? { parse: request.parse } : {};
     return writeImport(db, scope, campaignId, file, request, format, async (take) => {
-      const { result } = await checkInPoolStreaming(file, { mapping: request.mapping, ...parse }, limits, take);
+      const { result } = await checkInPool(file, { mapping: request.mapping, ...parse }, limits, take);
       refuseUnimportable(file, result);
       return result;
     });
@@ -176,7 +176,7 @@ export async function importMeasurements(
   });
 }
 
-/** Row errors → ImportRejectedError; a file with no rows to import → the same. */
+/** Row errors → ImportRejectedError, naming every issue. */
 function refuseUnimportable(file: UploadedFile, result: Omit<ValidationResult, 'rows'>): void {
   if (result.errorCount > 0) {
     throw new ImportRejectedError(

@@ -2,6 +2,7 @@ import { afterAll, describe, expect, it } from 'vitest';
 import { packRows, unpackRows, validateRows, type ImportRow } from '../../../api/features/imports/row-checks';
 import { IMPORT_LIMITS, IN_THREAD_MAX_BYTES, readUpload, readsInWorker } from '../../../api/features/imports/parse';
 import { checkInPool, closeReadPool } from '../../../api/features/imports/parse-pool';
+import type { UploadedFile } from '../../../api/features/imports/parse';
 import { importMappingSchema } from '../../../api/features/campaigns/schemas';
 
 afterAll(() => closeReadPool());
@@ -33,6 +34,13 @@ function screen(rows: number): Buffer {
   return Buffer.from(lines.join('\n') + '\n');
 }
 
+/** The worker's check of `file`, its batches of rows collected and packed again as one. */
+async function checkThere(file: UploadedFile) {
+  const rows: ImportRow[] = [];
+  const { format, result } = await checkInPool(file, { mapping }, IMPORT_LIMITS, async (batch) => void rows.push(...batch));
+  return { format, result: { ...result, packed: packRows(rows) } };
+}
+
 describe('row checks in the reading worker', () => {
   it('when checked rows are packed for the trip between threads and unpacked, then every field comes back the same, nulls included', async () => {
     const rows = validateRows(await readUpload({ name: 's.csv', buffer: screen(400) }), mapping).rows;
@@ -48,7 +56,7 @@ describe('row checks in the reading worker', () => {
     expect(file.buffer.length).toBeGreaterThan(IN_THREAD_MAX_BYTES);
     expect(readsInWorker(file)).toBe(true);
     const here = validateRows(await readUpload(file), mapping);
-    const there = await checkInPool(file, { mapping }, IMPORT_LIMITS);
+    const there = await checkThere(file);
     expect(there.format).toBe('csv');
     const { packed, ...counts } = there.result;
     expect(unpackRows(packed)).toEqual(here.rows);
@@ -62,7 +70,7 @@ describe('row checks in the reading worker', () => {
       .replace(/\n(IV-8,[^,]*,)[^,]*,/, '\n$1warm,');
     const file = { name: 'bad.csv', buffer: Buffer.from(text) };
     const here = validateRows(await readUpload(file), mapping);
-    const there = await checkInPool(file, { mapping }, IMPORT_LIMITS);
+    const there = await checkThere(file);
     expect(here.errorCount).toBeGreaterThan(0);
     expect(there.result.errorCount).toBe(here.errorCount);
     expect(there.result.issues).toEqual(here.issues);
