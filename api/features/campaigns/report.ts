@@ -6,6 +6,7 @@
  * is set up to print landscape, fitted to the page width, with its header row repeated.
  * User text that a spreadsheet could evaluate is neutralised (see `safeText`).
  */
+import { setImmediate } from 'node:timers/promises';
 import ExcelJS from 'exceljs';
 import { numFmt, ratioOf, ratioRange, safeFileName, safeText } from './report-format';
 import {
@@ -85,7 +86,6 @@ function setCell(cell: ExcelJS.Cell, value: Cell | UserText) {
 
 /** Rows written between two turns of the event loop while a sheet is built. */
 const ROWS_PER_TURN = 250;
-const turn = () => new Promise<void>((resolve) => setImmediate(resolve));
 
 /**
  * A sheet with one header row and a row per item. Columns that hold user text are formatted as
@@ -121,7 +121,7 @@ async function addTable(
   const columnStyles = columns.map((c, i) => Object.freeze({ numFmt: textColumns.has(i) ? TEXT_FMT : (c.numFmt ?? 'General') }));
   const textStyle = Object.freeze({ numFmt: TEXT_FMT });
   for (let written = 0; !next.done; next = first.next()) {
-    if (++written % ROWS_PER_TURN === 0) await turn();
+    if (++written % ROWS_PER_TURN === 0) await setImmediate();
     const values = next.value;
     const row = ws.addRow(values.map((v) => (v instanceof UserText ? safeText(v.text) : v)));
     values.forEach((v, i) => {
@@ -611,10 +611,10 @@ export async function buildCampaignReport(
   // Between sheets (and within long ones) the event loop gets a turn, so a chart whose
   // rasterising finished goes on to its PNG encoding while the next rows are built.
   addSummary(wb, model);
-  await turn();
+  await setImmediate();
   // The Fit sheet comes second; its chart images are added when rendering is done.
   const fitSheet = addFit(wb, model);
-  await turn();
+  await setImmediate();
   await addMeasurements(wb, model);
   await addForecast(wb, model);
   const charts = await pending;

@@ -3,6 +3,7 @@
  * row, and pack the checked rows for the trip back from a reading worker. Pure; every problem
  * names its row and column. Header guessing lives in mapping.ts.
  */
+import { setImmediate } from 'node:timers/promises';
 import {
   MAX_TEMPERATURE_K,
   SELECTIVITY_MEASURES,
@@ -368,7 +369,7 @@ export async function validateRowsYielding(table: ParsedTable, mapping: ImportMa
   const steps = validateRowsInSteps(table, mapping);
   let step = steps.next();
   while (!step.done) {
-    await new Promise<void>((resolve) => setImmediate(resolve));
+    await setImmediate();
     step = steps.next();
   }
   return step.value;
