@@ -68,7 +68,11 @@ export async function openBrowser(app: Express): Promise<BrowserSession> {
 /** Save a screenshot under .tmp/screens when EYRIE_SCREENSHOTS is set (for looking at pages by hand). */
 export async function maybeScreenshot(page: Page, name: string) {
   if (!process.env.EYRIE_SCREENSHOTS) return;
+  // Panels far down a page are drawn only as they near the screen (content-visibility: auto); a
+  // full-page capture does not scroll, so draw them all for it, as a reader scrolling down sees them.
+  const drawAll = await page.addStyleTag({ content: '.laid-out-near-screen { content-visibility: visible !important; }' });
   await page.screenshot({ path: path.join('.tmp', 'screens', `${name}.png`), fullPage: true });
+  await drawAll.evaluate((style) => style.remove());
 }
 
 /**

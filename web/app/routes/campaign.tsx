@@ -165,7 +165,7 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
           )}
         </Panel>
 
-        <Panel title="Forecast at a proposed temperature">
+        <Panel title="Forecast at a proposed temperature" belowFirstScreen>
           <AfterFirstPaint>
             <ProposedTemperatureForecastPanel
               campaignId={campaign.id}
@@ -181,23 +181,23 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
             />
           </AfterFirstPaint>
         </Panel>
-        <Panel title="Plan the temperature">
+        <Panel title="Plan the temperature" belowFirstScreen>
           <AfterFirstPaint>
             <PlannerPanel campaignId={campaign.id} projectId={campaign.projectId} canEdit={canEdit} />
           </AfterFirstPaint>
         </Panel>
-        <Panel title="Saved forecasts">
+        <Panel title="Saved forecasts" belowFirstScreen>
           <AfterFirstPaint>
             <SavedForecasts campaignId={campaign.id} canEdit={canEdit} measure={campaign.measure} assaySd={assaySd} />
           </AfterFirstPaint>
         </Panel>
-        <Panel title="E-mail the report">
+        <Panel title="E-mail the report" belowFirstScreen>
           <AfterFirstPaint>
             <ReportMailForm campaignId={campaign.id} projectId={campaign.projectId} />
           </AfterFirstPaint>
         </Panel>
 
-        <Panel title={`Measurements${measurements.data ? ` (${measurements.data.length})` : ''}`}>
+        <Panel title={`Measurements${measurements.data ? ` (${measurements.data.length})` : ''}`} belowFirstScreen>
           {measurements.isPending && <p className="text-sm text-ink-500">Loading measurements…</p>}
           {measurements.isError && (
             <div role="alert" className="flex flex-wrap items-center gap-2 text-sm text-rose-700">
@@ -217,20 +217,20 @@ function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
         </Panel>
 
         {canEditRuns && (
-          <Panel title="Upload a file">
+          <Panel title="Upload a file" belowFirstScreen>
             <AfterFirstPaint>
               <UploadWizard campaignId={campaign.id} projectId={campaign.projectId} />
             </AfterFirstPaint>
           </Panel>
         )}
 
-        <Panel title="Uploaded files">
+        <Panel title="Uploaded files" belowFirstScreen>
           <AfterFirstPaint>
             <KeptFiles campaignId={campaign.id} />
           </AfterFirstPaint>
         </Panel>
 
-        <Panel title="History">
+        <Panel title="History" belowFirstScreen>
           <AfterFirstPaint>
             <CampaignHistory campaignId={campaign.id} />
           </AfterFirstPaint>

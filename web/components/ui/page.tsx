@@ -123,7 +123,22 @@ export function SidewaysScroll({ label, children }: { label: string; children: R
   );
 }
 
-export function Panel({ title, children, className = '' }: { title?: ReactNode; children: ReactNode; className?: string }) {
+export function Panel({
+  title,
+  children,
+  className = '',
+  belowFirstScreen = false,
+}: {
+  title?: ReactNode;
+  children: ReactNode;
+  className?: string;
+  /**
+   * A panel a long page opens far below the first screen: laid out and painted only as it nears the
+   * screen. Until then it keeps a reserved height its content may exceed, so it must not become a
+   * vertical scroll box (it never scrolls that way once drawn): its vertical overflow is hidden.
+   */
+  belowFirstScreen?: boolean;
+}) {
   const titleId = useId();
   // A panel whose content is wider than the screen scrolls sideways.
   const [ref, scrolls] = useScrollsSideways<HTMLElement>();
@@ -134,7 +149,7 @@ export function Panel({ title, children, className = '' }: { title?: ReactNode; 
       ref={ref}
       tabIndex={scrolls ? 0 : undefined}
       aria-labelledby={title ? titleId : undefined}
-      className={`relative min-w-0 overflow-x-auto rounded-lg border border-slate-200 bg-white p-4 shadow-sm ${className}`}
+      className={`relative min-w-0 overflow-x-auto rounded-lg border border-slate-200 bg-white p-4 shadow-sm ${belowFirstScreen ? 'laid-out-near-screen overflow-y-hidden' : ''} ${className}`}
     >
       {title && (
         <h2 id={titleId} className="mb-3 text-sm font-semibold uppercase tracking-wide text-ink-600">

@@ -165,7 +165,8 @@ export function CampaignAnalysis({
           <TwoBranchBox twoBranch={fit.twoBranch} />
         </div>
       </div>
-      <section aria-label="Residual diagnostics" className="flex min-w-0 flex-col gap-2">
+      {/* Below the charts and the parameters: laid out and painted as it nears the screen. */}
+      <section aria-label="Residual diagnostics" className="laid-out-near-screen flex min-w-0 flex-col gap-2">
         <h3 className="text-sm font-semibold text-ink-900">Residual diagnostics</h3>
         {specification && (
           <p className="text-xs text-ink-700" data-testid="campaign-specification">
