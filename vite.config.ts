@@ -2,6 +2,7 @@
 import { defineConfig } from 'vite';
 import react from '@vitejs/plugin-react';
 import tailwindcss from '@tailwindcss/vite';
+import { pageChunkOf } from './scripts/lib/page-chunks.ts';
 
 const apiPort = Number(process.env.EYRIE_API_PORT ?? 3001);
 
@@ -16,6 +17,16 @@ export default defineConfig({
     outDir: '../dist/web',
     emptyOutDir: true,
     chunkSizeWarningLimit: 1500,
+    rolldownOptions: {
+      output: {
+        // The pages' code in a few chunks rather than one per set of sharing pages (scripts/lib/page-chunks.ts).
+        // A captured module's own imports are placed by the same rule, never pulled in after it.
+        codeSplitting: {
+          includeDependenciesRecursively: false,
+          groups: [{ name: (id, ctx) => pageChunkOf(id, ctx) }],
+        },
+      },
+    },
   },
   server: {
     host: '127.0.0.1',

@@ -22,7 +22,29 @@ describe('the app shell in Chromium', () => {
   });
 });
 
+/** The build files a script names through static imports, itself included, read from the running server. */
+async function staticallyLoaded(baseUrl: string, file: string, seen = new Set<string>()): Promise<Set<string>> {
+  if (seen.has(file)) return seen;
+  seen.add(file);
+  const code = await (await fetch(`${baseUrl}/assets/${file}`)).text();
+  for (const [, next] of code.matchAll(/(?:from|import)\s*"\.\/([^"]+\.js)"/g)) await staticallyLoaded(baseUrl, next!, seen);
+  return seen;
+}
+
 describe('build files', () => {
+  it('when the home page loads, then its code names neither of the pages’ chunks; the campaign page’s code is in them', async () => {
+    const { baseUrl } = browser();
+    const html = await (await fetch(baseUrl + '/')).text();
+    const entry = /<script type="module"[^>]* src="\/assets\/([^"]+)"/.exec(html)?.[1];
+    expect(entry).toBeTruthy();
+    const first = [...(await staticallyLoaded(baseUrl, entry!))];
+    expect(first.filter((f) => /^(campaign-page|pages-common)-/.test(f))).toEqual([]);
+    expect(html).not.toMatch(/campaign-page|pages-common/);
+    // The campaign route's own module lives in the campaign-page chunk (the router imports it lazily).
+    const entryCode = await (await fetch(`${baseUrl}/assets/${entry}`)).text();
+    expect(entryCode).toMatch(/campaign-page-[\w-]+\.js/);
+  });
+
   it('when a build file that does not exist is asked for, then the answer is 404, not the page', async () => {
     const res = await fetch(browser().baseUrl + '/assets/no-such-chunk-123.js');
     expect(res.status).toBe(404);
