@@ -72,7 +72,7 @@ export async function maybeScreenshot(page: Page, name: string) {
   // full-page capture does not scroll, so draw them all for it, as a reader scrolling down sees them.
   const drawAll = await page.addStyleTag({ content: '.laid-out-near-screen { content-visibility: visible !important; }' });
   await page.screenshot({ path: path.join('.tmp', 'screens', `${name}.png`), fullPage: true });
-  await drawAll.evaluate((style) => style.remove());
+  await drawAll.evaluate((style) => (style as Element).remove());
 }
 
 /**
