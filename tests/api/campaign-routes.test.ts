@@ -453,6 +453,66 @@ describe('imports', () => {
   });
 });
 
+describe('list of runs', () => {
+  it('when a caller sends the list tag back, then the answer is 304 until a run is added, changed, excluded or removed', async () => {
+    const c = await newCampaign();
+    const stored = await addRuns(c.id, screen([-40, -20, 0]));
+    const url = `/api/v1/campaigns/${c.id}/measurements`;
+
+    const first = await as('viewer').get(url).expect(200);
+    const tag = first.headers.etag as string;
+    expect(tag).toMatch(/^W\/"m-[\w-]+"$/);
+    expect(first.headers['cache-control']).toBe('private, no-store');
+    expect(first.headers['content-type']).toMatch(/^application\/json/);
+    expect(first.body.measurements).toHaveLength(3);
+    // One entry serves every member: the runs say nothing about who asks.
+    expect(JSON.stringify(first.body)).not.toMatch(/"role"/);
+    await as('owner').get(url).set('If-None-Match', tag).expect(304);
+    expect((await as('outsider').get(url).set('If-None-Match', tag)).status).toBe(404);
+
+    // Each change to the runs is a new list, read back as the server now holds it.
+    await as('editor')
+      .patch(`/api/v1/measurements/${stored[0]!.id}`)
+      .send({ version: 1, reason: 'sample id corrected', sampleId: 'S-17b' })
+      .expect(200);
+    const afterEdit = await as('viewer').get(url).set('If-None-Match', tag).expect(200);
+    expect(afterEdit.body.measurements.find((m: { id: string }) => m.id === stored[0]!.id)).toMatchObject({
+      sampleId: 'S-17b',
+      version: 2,
+    });
+
+    await as('editor')
+      .put(`/api/v1/measurements/${stored[1]!.id}/exclusion`)
+      .send({ version: 1, excluded: true, reason: 'quench late' })
+      .expect(200);
+    const afterExclusion = await as('viewer')
+      .get(url)
+      .set('If-None-Match', afterEdit.headers.etag as string)
+      .expect(200);
+    expect(afterExclusion.body.measurements.find((m: { id: string }) => m.id === stored[1]!.id)).toMatchObject({ excluded: true });
+
+    const [added] = await addRuns(c.id, screen([20]));
+    const afterAdd = await as('viewer')
+      .get(url)
+      .set('If-None-Match', afterExclusion.headers.etag as string)
+      .expect(200);
+    expect(afterAdd.body.measurements).toHaveLength(4);
+
+    await as('editor').delete(`/api/v1/measurements/${added!.id}?version=1&reason=duplicate%20entry`).expect(204);
+    const afterDelete = await as('viewer')
+      .get(url)
+      .set('If-None-Match', afterAdd.headers.etag as string)
+      .expect(200);
+    expect(afterDelete.body.measurements.map((m: { id: string }) => m.id)).toEqual(
+      afterExclusion.body.measurements.map((m: { id: string }) => m.id),
+    );
+    await as('viewer')
+      .get(url)
+      .set('If-None-Match', afterDelete.headers.etag as string)
+      .expect(304);
+  });
+});
+
 describe('analysis', () => {
   it('when a caller sends the analysis tag back, then the answer is 304 until the campaign, a run or the query changes', async () => {
     const c = await newCampaign({ defaultUncertainty: 0.3 });

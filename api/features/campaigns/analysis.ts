@@ -7,9 +7,6 @@
  * `analysis-comparison.ts` and what the report reads in `report-data.ts`.
  */
 import type { Knex } from 'knex';
-import { createHash } from 'node:crypto';
-import { brotliOnce } from '../../lib/compress';
-import { LRUCache } from 'lru-cache';
 import { SIGN_CONVENTION, kelvinToCelsius, parseSelectivity, sigmaLnRatio, type EyringMeasurement } from '../../science';
 import { BadRequestError } from '../../lib/errors';
 import { quantitationLimitProblem } from '../calculators/schemas';
@@ -21,6 +18,7 @@ import { analyseScreen, type FitOptions } from '../calculators/fit';
 import type { FitResponse } from '../calculators/schemas';
 import type { AnalysisPoint, AnalysisQuery, AnalysisResponse } from './analysis-schemas';
 import { getCampaign } from './service';
+import { entityTag, runsStamp, serialisedCache, type SerialisedBody } from './serialised';
 import { toKelvin } from './schemas';
 import { eeFromLnRatio } from '../../science/quantities';
 
@@ -285,34 +283,11 @@ export async function analyseCampaign(db: Knex, projectId: string, campaignId: s
   return computeAnalysis(campaign, measurements, analysisOptions(query));
 }
 
-/** An analysis serialised once: the JSON body and its entity tag. */
-export interface SerialisedAnalysis {
-  etag: string;
-  body: string;
-  /** The body compressed with brotli, made on the first request that accepts it (about a sixth of the body, not counted in the cache's size). */
-  brotli?: Promise<Buffer>;
-}
-
-/** The entry's body compressed with brotli, compressed once per cached entry and then reused. */
-export function brotliBody(entry: SerialisedAnalysis): Promise<Buffer> {
-  entry.brotli ??= brotliOnce(entry.body).catch((err: unknown) => {
-    entry.brotli = undefined;
-    throw err;
-  });
-  return entry.brotli;
-}
-
 /**
- * Serialised analyses by campaign id, campaign version, a digest of its runs (count, and every
- * run's id and version) and the query. Runs do not bump the campaign's version, hence the digest.
- * Every part of the key is read from PostgreSQL on each request, so several instances never serve
- * a stale entry; an entry is only ever replaced, never invalidated. Bounded by total body size.
+ * Serialised analyses by campaign id, campaign version, the stamp of its runs and the query (see
+ * serialised.ts). Bounded by total body size.
  */
-const analysisCache = new LRUCache<string, SerialisedAnalysis>({
-  maxSize: 32 * 1024 * 1024,
-  sizeCalculation: (v) => v.body.length + 64,
-  max: 500,
-});
+const analysisCache = serialisedCache(32 * 1024 * 1024);
 
 /** For tests: forget every cached analysis. */
 export function clearAnalysisCache(): void {
@@ -329,18 +304,10 @@ export async function serialisedCampaignAnalysis(
   projectId: string,
   campaignId: string,
   query: AnalysisQuery,
-): Promise<SerialisedAnalysis> {
+): Promise<SerialisedBody> {
   const options = analysisOptions(query);
-  const [campaign, stamp] = await Promise.all([
-    getCampaign(db, projectId, campaignId),
-    db('measurements')
-      .where({ campaignId })
-      .first<{ n: number; digest: string | null }>(
-        db.raw('count(*)::int as n'),
-        db.raw("md5(string_agg(id::text || ':' || version::text, ',' order by id)) as digest"),
-      ),
-  ]);
-  const key = JSON.stringify([campaign.id, campaign.version, stamp?.n ?? 0, stamp?.digest ?? '', options]);
+  const [campaign, stamp] = await Promise.all([getCampaign(db, projectId, campaignId), runsStamp(db, campaignId)]);
+  const key = JSON.stringify([campaign.id, campaign.version, stamp.n, stamp.digest, options]);
   const cached = analysisCache.get(key);
   if (cached) return cached;
   // Plain rows of the columns the engine reads, no model instances.
@@ -352,7 +319,7 @@ export async function serialisedCampaignAnalysis(
     .orderBy('sourceRow')
     .orderBy('id')) as AnalysedMeasurement[];
   const body = JSON.stringify(computeAnalysis(campaign, measurements, options));
-  const entry = { etag: `W/"a-${createHash('sha256').update(key).digest('base64url').slice(0, 27)}"`, body };
+  const entry = { etag: entityTag('a', key), body };
   analysisCache.set(key, entry);
   return entry;
 }

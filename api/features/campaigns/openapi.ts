@@ -484,10 +484,13 @@ export const registerCampaigns: OpenApiRegistrar = (registry) => {
     path: '/api/v1/campaigns/{campaignId}/measurements',
     tags: ['Campaigns'],
     summary: 'The stored runs, coldest first',
+    description:
+      'Needs viewer. The answer carries a weak ETag that changes whenever a run is added, removed or changed; send it back in If-None-Match for a 304 without a body.',
     security: security.signedIn,
     request: { params: campaignIdParams },
     responses: {
       200: { description: 'Runs', content: { 'application/json': { schema: z.object({ measurements: z.array(measurementView) }) } } },
+      304: { description: 'Unchanged since the ETag sent in If-None-Match' },
       ...problemResponses(401, 404),
     },
   });

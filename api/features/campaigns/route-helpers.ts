@@ -1,12 +1,15 @@
 /**
  * What the campaign-area routers share: the version a write names (body, `?version=` or If-Match),
- * the acting member, the ETag of a version, a file name safe in a download and the download itself.
+ * the acting member, the ETag of a version, a file name safe in a download and the download itself,
+ * and an answer serialised once (with its tag and its brotli copy).
  */
 import type { Request, Response } from 'express';
 import { z } from 'zod';
 import { BadRequestError } from '../../lib/errors';
 import { parseBody } from '../../lib/validation';
+import { COMPRESS_FROM_BYTES } from '../../lib/compress';
 import type { ProjectActor } from './service';
+import { brotliBody, type SerialisedBody } from './serialised';
 
 export const versionQuerySchema = z.object({
   version: z.coerce
@@ -33,6 +36,24 @@ const DOWNLOAD_TYPES = {
 /** Sends a file to save (never cached, since it may hold project data): 200, its type, its name and its body. */
 export function sendDownload(res: Response, type: keyof typeof DOWNLOAD_TYPES, fileName: string, body: string | Buffer) {
   res.status(200).type(DOWNLOAD_TYPES[type]).attachment(fileName).set('Cache-Control', 'no-store').send(body);
+}
+
+/**
+ * Sends an answer serialised once (serialised.ts), or 304 when the caller sends its tag back. The body
+ * carries nothing about the caller, so the tag need not either; authorization runs before this, so a
+ * caller who may not read the campaign never learns a tag. Browsers keep no copy (private, no-store):
+ * scripts send If-None-Match themselves. A large body goes to a client that accepts brotli as the
+ * copy compressed once with the entry (the compression middleware leaves an encoded answer alone).
+ */
+export async function sendSerialised(req: Request, res: Response, entry: SerialisedBody): Promise<void> {
+  res.set({ ETag: entry.etag, 'Cache-Control': 'private, no-store', Vary: 'Cookie, Authorization, Accept-Encoding' });
+  if (req.fresh) return void res.status(304).end();
+  res.type('application/json');
+  if (entry.body.length >= COMPRESS_FROM_BYTES && req.acceptsEncodings('br', 'identity') === 'br') {
+    res.set('Content-Encoding', 'br');
+    return void res.send(await brotliBody(entry));
+  }
+  res.send(entry.body);
 }
 
 const IF_MATCH = /^\s*(?:W\/)?"(\d+)"\s*$/;

@@ -9,8 +9,7 @@ import { historyCsv, readHistory } from '../audit/history';
 import { importTemplateCsv, listImportFiles } from '../imports/files';
 import { importMeasurements, storedRowKeys } from '../imports/service';
 import { previewInPool } from '../imports/parse-pool';
-import { brotliBody, serialisedCampaignAnalysis } from './analysis';
-import { COMPRESS_FROM_BYTES } from '../../lib/compress';
+import { serialisedCampaignAnalysis } from './analysis';
 import { listCampaignForecasts, saveCampaignForecast } from './analysis-forecasts';
 import { analysisQuerySchema } from './analysis-schemas';
 import { reportFileName } from './report';
@@ -30,7 +29,7 @@ import type { Mailer } from '../mail/mailer';
 import { limiter } from '../auth/setup';
 import type { JobQueue } from '../jobs/queue';
 import { jobView } from '../jobs/routes';
-import { actorOf, deleteVersion, etag, safeFileName, sendDownload, withVersion } from './route-helpers';
+import { actorOf, deleteVersion, etag, safeFileName, sendDownload, sendSerialised, withVersion } from './route-helpers';
 import {
   campaignUpdateSchema,
   importPreviewRequestSchema,
@@ -47,7 +46,7 @@ import {
   createMeasurementsBatch,
   deleteCampaign,
   getCampaign,
-  listMeasurements,
+  serialisedMeasurementList,
   reopenCampaign,
   signOffCampaign,
   signOffOf,
@@ -150,7 +149,7 @@ export function campaignsRouter(deps: {
   });
 
   router.get('/:campaignId/measurements', byCampaign('viewer'), async (req, res) => {
-    res.json({ measurements: await listMeasurements(knex, req.project!.id, campaignId(req)) });
+    await sendSerialised(req, res, await serialisedMeasurementList(knex, req.project!.id, campaignId(req)));
   });
 
   router.post('/:campaignId/measurements', byCampaign('editor'), async (req, res) => {
@@ -224,20 +223,11 @@ export function campaignsRouter(deps: {
   });
 
   router.get('/:campaignId/analysis', byCampaign('viewer'), async (req, res) => {
-    const entry = await serialisedCampaignAnalysis(knex, req.project!.id, campaignId(req), parseBody(analysisQuerySchema, req.query));
-    // The body carries nothing about the caller, so the tag need not either; authorization above runs
-    // before any 304, so a caller who may not read the campaign never learns its tag. Browsers
-    // still keep no copy (private, no-store): scripts send If-None-Match themselves.
-    res.set({ ETag: entry.etag, 'Cache-Control': 'private, no-store', Vary: 'Cookie, Authorization, Accept-Encoding' });
-    if (req.fresh) return void res.status(304).end();
-    res.type('application/json');
-    // A large analysis goes to a browser as the brotli copy kept with the cached entry, compressed
-    // once rather than on every request (the compression middleware leaves an encoded answer alone).
-    if (entry.body.length >= COMPRESS_FROM_BYTES && req.acceptsEncodings('br', 'identity') === 'br') {
-      res.set('Content-Encoding', 'br');
-      return void res.send(await brotliBody(entry));
-    }
-    res.send(entry.body);
+    await sendSerialised(
+      req,
+      res,
+      await serialisedCampaignAnalysis(knex, req.project!.id, campaignId(req), parseBody(analysisQuerySchema, req.query)),
+    );
   });
 
   router.get('/:campaignId/forecasts', byCampaign('viewer'), async (req, res) => {

@@ -12,6 +12,7 @@ import { BadRequestError, ConflictError, NotFoundError } from '../../lib/errors'
 import { quantitationLimitProblem } from '../calculators/schemas';
 import { Campaign } from '../../models/campaign';
 import { Measurement } from '../../models/measurement';
+import { entityTag, runsStamp, serialisedCache, type SerialisedBody } from './serialised';
 import { SavedForecast } from '../../models/saved-forecast';
 import type { SelectivityInput } from '../../science/selectivity';
 import {
@@ -355,12 +356,34 @@ export async function reopenCampaign(db: Knex, actor: ProjectActor, campaignId: 
  */
 export async function listMeasurements(db: Knex, projectId: string, campaignId: string): Promise<ModelObject<Measurement>[]> {
   await getCampaign(db, projectId, campaignId);
-  return db<ModelObject<Measurement>>(Measurement.tableName)
+  return measurementRows(db, campaignId);
+}
+
+const measurementRows = (db: Knex, campaignId: string): Promise<ModelObject<Measurement>[]> =>
+  db<ModelObject<Measurement>>(Measurement.tableName)
     .where({ campaignId })
     .orderBy('temperatureK')
     .orderBy('createdAt')
     .orderBy('sourceRow')
     .orderBy('id');
+
+/** Serialised lists of runs by campaign id and the stamp of its runs (see serialised.ts). */
+const measurementListCache = serialisedCache(16 * 1024 * 1024);
+
+/**
+ * The body of GET …/measurements (`{ measurements: [...] }`) as a JSON string with a weak ETag that
+ * changes whenever a run is added, removed or changed. The runs say nothing about the caller, so one
+ * entry serves every member who may read the campaign; authorization runs before this.
+ */
+export async function serialisedMeasurementList(db: Knex, projectId: string, campaignId: string): Promise<SerialisedBody> {
+  const [campaign, stamp] = await Promise.all([getCampaign(db, projectId, campaignId), runsStamp(db, campaignId)]);
+  const key = JSON.stringify([campaign.id, stamp.n, stamp.digest]);
+  const cached = measurementListCache.get(key);
+  if (cached) return cached;
+  // The rows are read after the stamp, so they are never older than the key they are kept under.
+  const entry = { etag: entityTag('m', key), body: JSON.stringify({ measurements: await measurementRows(db, campaignId) }) };
+  measurementListCache.set(key, entry);
+  return entry;
 }
 
 type MeasurementColumns = Partial<
