@@ -3,40 +3,24 @@ import type { z } from 'zod';
 import {
   type campaignPlanInputsSchema,
   campaignPlanSchema,
-  campaignSpecificationResponseSchema,
   comparisonSchema,
   type CampaignPlanInputs,
   type ComparisonCreate,
   type SpecificationInput,
 } from '../../../../api/features/plan/schemas';
 import { api } from '../../../lib/api-client';
+import { campaignPlanQueryOptions, campaignSpecificationQueryOptions, getCampaignPlan, getCampaignSpecification, planKeys } from './stored';
+import type { CampaignPlan } from './stored-check';
 
-export type CampaignPlan = z.infer<typeof campaignPlanSchema>;
+export type { CampaignPlan };
 export type PlanResult = CampaignPlan['result'];
 export type ComparisonView = z.infer<typeof comparisonSchema>;
 /** What the planner form sends (defaults filled in by the server). */
 export type PlanInputsBody = z.input<typeof campaignPlanInputsSchema>;
 export type { CampaignPlanInputs, ComparisonCreate, SpecificationInput };
 
-/** Keys general → specific: ['plan', campaignId] covers a campaign's specification and plan. */
-export const planKeys = {
-  all: ['plan'] as const,
-  campaign: (campaignId: string) => [...planKeys.all, campaignId] as const,
-  specification: (campaignId: string) => [...planKeys.campaign(campaignId), 'specification'] as const,
-  stored: (campaignId: string) => [...planKeys.campaign(campaignId), 'stored'] as const,
-  comparison: (comparisonId: string) => [...planKeys.all, 'comparison', comparisonId] as const,
-};
-
-export const getCampaignSpecification = (campaignId: string) =>
-  api<unknown>(`/api/v1/campaigns/${campaignId}/specification`).then((d) => campaignSpecificationResponseSchema.parse(d));
-export const campaignSpecificationQueryOptions = (campaignId: string) =>
-  queryOptions({ queryKey: planKeys.specification(campaignId), queryFn: () => getCampaignSpecification(campaignId) });
 export const useCampaignSpecification = (campaignId: string) => useQuery(campaignSpecificationQueryOptions(campaignId));
 
-export const getCampaignPlan = (campaignId: string) =>
-  api<{ plan: unknown }>(`/api/v1/campaigns/${campaignId}/plan`).then((d) => (d.plan ? campaignPlanSchema.parse(d.plan) : null));
-export const campaignPlanQueryOptions = (campaignId: string) =>
-  queryOptions({ queryKey: planKeys.stored(campaignId), queryFn: () => getCampaignPlan(campaignId) });
 export const useCampaignPlan = (campaignId: string) => useQuery(campaignPlanQueryOptions(campaignId));
 
 /**
