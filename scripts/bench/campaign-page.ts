@@ -219,8 +219,8 @@ async function profileOneLoad(context: BrowserContext, url: string, file: string
     transferMode: 'ReportEvents',
   });
   await page.goto(url, { waitUntil: 'commit' });
-  await page.waitForSelector('[data-testid="eyring-plot"] svg path.eyrie-points-fitted', { timeout: 60_000 });
-  await page.waitForSelector('table[aria-label="Measurements"] tbody tr td', { timeout: 60_000 });
+  // As in a counted load, only the page's own notes are read until it is ready.
+  await pollInPage(cdp, 'window.__eyrieReady', 50);
   await page.waitForTimeout(QUIET_MS);
   const { profile } = await cdp.send('Profiler.stop');
   const traced = new Promise<void>((resolve) => cdp.once('Tracing.tracingComplete', () => resolve()));
