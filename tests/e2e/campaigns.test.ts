@@ -242,6 +242,62 @@ describe('campaign pages in Chromium', () => {
     await signOut(page);
   }, 60_000);
 
+  it('when a second editor signs the campaign off and reopens it, then the bar says so each time; the last editor is told to ask someone else', async () => {
+    const { page, baseUrl } = browser;
+    const tag = Date.now().toString(36);
+    const who = { login: `so-${tag}`, name: 'Sol Second', email: `so-${tag}@example.test` };
+    const editor = await createUser(who);
+    const author = await createUser({ login: `sa-${tag}`, name: 'Ada Author', email: `sa-${tag}@example.test` });
+    const project = await createProject(
+      [
+        { user: author, role: 'owner' },
+        { user: editor, role: 'editor' },
+      ],
+      { name: 'Sign-off check (invented)' },
+    );
+    const { createCampaign } = await import('../factories/campaigns');
+    // Made by Sol, so Sol is its last editor for now.
+    const campaign = await createCampaign(project.id, { title: 'Four-eyes screen (invented)', createdByUserId: editor.id });
+
+    await signInAs(page, baseUrl, who, `/campaigns/${campaign.id}`);
+    const bar = page.getByText(/^Open: measurements can be changed/);
+    await expect.poll(() => bar.isVisible()).toBe(true);
+    // The form opens on demand, takes the focus and closes with Escape.
+    await page.getByRole('button', { name: 'Sign off…' }).click();
+    const note = page.getByLabel('Note beside the sign-off (optional)');
+    await expect.poll(() => note.evaluate((el) => el === document.activeElement)).toBe(true);
+    await note.press('Escape');
+    await expect.poll(() => note.count()).toBe(0);
+
+    // The last editor cannot be the one to sign it off: the server's reason is shown in the form, which stays open.
+    await page.getByRole('button', { name: 'Sign off…' }).click();
+    await page.getByRole('button', { name: 'Sign off', exact: true }).click();
+    await expect.poll(async () => (await page.getByRole('alert').allTextContents()).join(' ')).toContain('another owner or editor');
+    expect(await note.isVisible()).toBe(true);
+    await page.getByRole('button', { name: 'Cancel' }).click();
+    await expect.poll(() => note.count()).toBe(0);
+
+    // Once someone else made it, Sol can sign it off.
+    await testKnex()('campaigns').where({ id: campaign.id }).update({ createdByUserId: author.id });
+    await page.getByRole('button', { name: 'Sign off…' }).click();
+    await note.fill('checked against the notebook');
+    await page.getByRole('button', { name: 'Sign off', exact: true }).click();
+    const signed = page.getByText(/Signed off by Sol Second/);
+    await expect.poll(() => signed.isVisible()).toBe(true);
+    expect(await signed.textContent()).toContain('“checked against the notebook”');
+
+    // Reopening needs a reason of at least three characters.
+    await page.getByRole('button', { name: 'Reopen…' }).click();
+    const reason = page.getByLabel('Why reopen it? (kept in the history)');
+    const reopen = page.getByRole('button', { name: 'Reopen', exact: true });
+    await reason.fill('ok');
+    expect(await reopen.isDisabled()).toBe(true);
+    await reason.fill('one run to repeat');
+    await reopen.click();
+    await expect.poll(() => bar.isVisible()).toBe(true);
+    await signOut(page);
+  }, 60_000);
+
   it('when a German-locale CSV with a broken Eyring plot is uploaded, then decimal commas are read and the two-branch fit is drawn and named', async () => {
     const { page, baseUrl } = browser;
     const who = { login: `tb-${Date.now().toString(36)}`, name: 'Theo Branch', email: `tb-${Date.now().toString(36)}@example.test` };

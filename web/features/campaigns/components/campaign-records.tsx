@@ -22,19 +22,8 @@ function formatBytes(n: number): string {
  * editor but the last one to change it) or reopen (with a reason).
  */
 export function SignOffBar({ campaign, canEdit }: { campaign: CampaignWithRole; canEdit: boolean }) {
-  const id = useId();
   const [open, setOpen] = useState(false);
-  // One field: the sign-off note or the reason for reopening.
-  const form = useForm({ defaultValues: { text: '' } });
-  const text = form.watch('text');
-  const signOff = useSignOff(campaign.id);
-  const reopen = useReopen(campaign.id);
   const s = campaign.signOff;
-  const pending = signOff.isPending || reopen.isPending;
-  const close = () => {
-    setOpen(false);
-    form.reset();
-  };
 
   return (
     <div
@@ -54,32 +43,50 @@ export function SignOffBar({ campaign, canEdit }: { campaign: CampaignWithRole; 
         )}
         {canEdit && !open && <Button onClick={() => setOpen(true)}>{s ? 'Reopen…' : 'Sign off…'}</Button>}
       </div>
-      {canEdit && open && (
-        <form
-          className="flex flex-wrap items-end gap-2"
-          onSubmit={form.handleSubmit(({ text: typed }) => {
-            const done = { onSuccess: close, onError: (err: Error) => applyServerErrors(form.setError, err, []) };
-            if (s) reopen.mutate(typed.trim(), done);
-            else signOff.mutate(typed, done);
-          })}
-        >
-          <LabelAbove id={id} label={s ? 'Why reopen it? (kept in the history)' : 'Note beside the sign-off (optional)'}>
-            <input
-              id={id}
-              autoFocus
-              {...form.register('text')}
-              onKeyDown={(e) => e.key === 'Escape' && close()}
-              className="w-80 max-w-full rounded border border-slate-300 px-2 py-1"
-            />
-          </LabelAbove>
-          <Button type="submit" variant="primary" disabled={pending || (!!s && text.trim().length < 3)}>
-            {s ? 'Reopen' : 'Sign off'}
-          </Button>
-          <Button onClick={close}>Cancel</Button>
-        </form>
-      )}
-      <FormErrorAlert control={form.control} />
+      {canEdit && open && <SignOffForm campaign={campaign} onClose={() => setOpen(false)} />}
     </div>
+  );
+}
+
+/**
+ * One field: the sign-off note or the reason for reopening. Made only once opened, so the campaign
+ * page's first build does not set up a form nobody has asked for.
+ */
+function SignOffForm({ campaign, onClose }: { campaign: CampaignWithRole; onClose: () => void }) {
+  const id = useId();
+  const form = useForm({ defaultValues: { text: '' } });
+  const text = form.watch('text');
+  const signOff = useSignOff(campaign.id);
+  const reopen = useReopen(campaign.id);
+  const s = campaign.signOff;
+  const pending = signOff.isPending || reopen.isPending;
+
+  return (
+    <>
+      <form
+        className="flex flex-wrap items-end gap-2"
+        onSubmit={form.handleSubmit(({ text: typed }) => {
+          const done = { onSuccess: onClose, onError: (err: Error) => applyServerErrors(form.setError, err, []) };
+          if (s) reopen.mutate(typed.trim(), done);
+          else signOff.mutate(typed, done);
+        })}
+      >
+        <LabelAbove id={id} label={s ? 'Why reopen it? (kept in the history)' : 'Note beside the sign-off (optional)'}>
+          <input
+            id={id}
+            autoFocus
+            {...form.register('text')}
+            onKeyDown={(e) => e.key === 'Escape' && onClose()}
+            className="w-80 max-w-full rounded border border-slate-300 px-2 py-1"
+          />
+        </LabelAbove>
+        <Button type="submit" variant="primary" disabled={pending || (!!s && text.trim().length < 3)}>
+          {s ? 'Reopen' : 'Sign off'}
+        </Button>
+        <Button onClick={onClose}>Cancel</Button>
+      </form>
+      <FormErrorAlert control={form.control} />
+    </>
   );
 }
 
