@@ -73,7 +73,10 @@ describe('importMeasurements', () => {
       warningCount: 0,
       file: expect.objectContaining({ name: 'kestrelmoor-skylark-screen.csv', sizeBytes: 550 }),
     });
-    const rows = await service.listMeasurements(db, project.id, campaign.id);
+    // Read as GET …/measurements sends them.
+    const rows = (
+      JSON.parse((await service.serialisedMeasurementList(db, project.id, campaign.id)).body) as { measurements: Measurement[] }
+    ).measurements;
     expect(rows).toHaveLength(12);
     // Plain rows, serialised exactly as model instances of the same runs would be.
     const instances = await Measurement.query(db).whereIn(

@@ -349,16 +349,11 @@ export async function reopenCampaign(db: Knex, actor: ProjectActor, campaignId: 
 
 // ── Measurements ───────────────────────────────────────────────────────────────────────────
 
-/** A campaign's measurements, coldest first, then in the order they were added (file order for imports). */
 /**
- * A campaign's runs in display order, as plain rows (the same fields a model instance serialises): building
- * a thousand model instances only to turn them back into JSON was most of this answer's time.
+ * A campaign's runs, coldest first, then in the order they were added (file order for imports), as
+ * plain rows (the same fields a model instance serialises): building a thousand model instances only
+ * to turn them back into JSON was most of the list's time.
  */
-export async function listMeasurements(db: Knex, projectId: string, campaignId: string): Promise<ModelObject<Measurement>[]> {
-  await getCampaign(db, projectId, campaignId);
-  return measurementRows(db, campaignId);
-}
-
 const measurementRows = (db: Knex, campaignId: string): Promise<ModelObject<Measurement>[]> =>
   db<ModelObject<Measurement>>(Measurement.tableName)
     .where({ campaignId })
