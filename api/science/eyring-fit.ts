@@ -449,16 +449,36 @@ function activationFromLine(intercept: number, slope: number, cov: LineModel['co
   };
 }
 
+/**
+ * A value above its limit and the limit, written with the fewest significant digits (at least
+ * `digits`) that show the value is the larger: on a screen of 500 runs the leverage limit 2p/n is
+ * 0.008, which fixed decimals would print as 0.00 beside a flagged run's own 0.00.
+ */
+function aboveLimit(value: number, limit: number, digits = 2): [string, string] {
+  for (let p = digits; p < 12; p++) {
+    const shown = value.toPrecision(p);
+    const shownLimit = limit.toPrecision(p);
+    if (Number(shown) > Number(shownLimit)) return [shown, shownLimit];
+  }
+  return [String(value), String(limit)];
+}
+
 /** One line on why a run is flagged; it never recommends excluding the run. */
 function flagReason(flags: PointFlag[], ext: number | null, leverage: number, limit: number, cook: number | null): string | null {
   if (flags.length === 0) return null;
   const parts: string[] = [];
-  if (flags.includes('outlier'))
-    parts.push(`it sits ${Math.abs(ext!).toFixed(1)} studentized residuals from the line (flagged above ${FLAG_RULES.outlierStudentized})`);
-  if (flags.includes('high-leverage'))
-    parts.push(`its temperature is far from the others, so it steers the slope (leverage ${leverage.toFixed(2)} > ${limit.toFixed(2)})`);
-  if (flags.includes('influential'))
-    parts.push(`leaving it out would move the line noticeably (Cook's distance ${cook!.toFixed(2)} > ${FLAG_RULES.cooksDistance})`);
+  if (flags.includes('outlier')) {
+    const [shown] = aboveLimit(Math.abs(ext!), FLAG_RULES.outlierStudentized);
+    parts.push(`it sits ${shown} studentized residuals from the line (flagged above ${FLAG_RULES.outlierStudentized})`);
+  }
+  if (flags.includes('high-leverage')) {
+    const [shown, shownLimit] = aboveLimit(leverage, limit);
+    parts.push(`its temperature is far from the others, so it steers the slope (leverage ${shown} > ${shownLimit})`);
+  }
+  if (flags.includes('influential')) {
+    const [shown] = aboveLimit(cook!, FLAG_RULES.cooksDistance);
+    parts.push(`leaving it out would move the line noticeably (Cook's distance ${shown} > ${FLAG_RULES.cooksDistance})`);
+  }
   const text = parts.join('; ');
   return `${text.charAt(0).toUpperCase()}${text.slice(1)}. Check its record (assay, temperature log) rather than drop it.`;
 }

@@ -91,6 +91,23 @@ describe('honest flags on small screens', () => {
     expect(fit.warnings.find((w) => w.code === 'flagged-points')!.message).not.toMatch(/exclude one/i);
   });
 
+  it('when a screen is large, then a flagged run reads its leverage and the limit with enough digits to tell them apart', () => {
+    // 500 runs: 490 spread over 0–20 °C, ten at −40 °C. The limit 2p/n is 0.008; the cold runs' leverage is about 0.1.
+    const normal = seededNormals(7);
+    const runs: EyringMeasurement[] = Array.from({ length: 500 }, (_, i) => {
+      const e = normal();
+      const celsius = i < 10 ? -40 : (i % 49) * (20 / 48);
+      return { temperatureK: celsius + 273.15, ratio: Math.exp(1500 / (celsius + 273.15) - 3 + 0.02 * e) };
+    });
+    const fit = fitEyring(runs);
+    const cold = fit.points[0]!;
+    expect(cold.flags).toContain('high-leverage');
+    const [, shown, limit] = /leverage (\S+) > (\S+)\)/.exec(cold.flagReason!)!;
+    expect(Number(limit)).toBeCloseTo((2 * 2) / 500, 12);
+    expect(Number(shown)).toBeGreaterThan(Number(limit));
+    expect(Math.abs(Number(shown) - cold.leverage!) / cold.leverage!).toBeLessThan(0.05);
+  });
+
   it('when the assay precision is known and a residual lies within it, then the run is not called an outlier', () => {
     const runs: EyringMeasurement[] = [-60, -40, -20, 0, 20, 40].map((c, i) => ({
       temperatureK: c + 273.15,
