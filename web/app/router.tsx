@@ -17,6 +17,10 @@ export const createRoutes = (client: QueryClient): RouteObject[] => [
   {
     element: <AppLayout />,
     errorElement: <RouteErrorBoundary />,
+    // Until the first page's code and loaders are in, nothing is drawn: the page then appears whole
+    // rather than the layout first and the page a moment later. Named, so the router does not warn
+    // on every load that none was given (a console warning with a captured stack trace each time).
+    HydrateFallback: BeforeFirstPage,
     children: [
       { path: paths.home.path, element: <HomeRoute /> },
       { path: paths.apiDocs.path, lazy: async () => ({ Component: (await import('./routes/api-docs')).ApiDocsRoute }) },
@@ -58,6 +62,10 @@ export const createRoutes = (client: QueryClient): RouteObject[] => [
     ],
   },
 ];
+
+function BeforeFirstPage() {
+  return null;
+}
 
 export function createAppRouter(client: QueryClient) {
   return createBrowserRouter(createRoutes(client));
