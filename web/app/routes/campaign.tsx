@@ -1,5 +1,6 @@
-import { memo, startTransition, useEffect, useState, type ReactNode } from 'react';
+import { memo, useState } from 'react';
 import { useParams } from 'react-router-dom';
+import { AfterFirstPaint } from '../../components/ui/after-first-paint';
 import { Button } from '../../components/ui/form';
 import { Page, Panel, UnreadyPage } from '../../components/ui/page';
 import { StaleResult, useLastDefined, worthRetrying } from '../../components/ui/stale';
@@ -28,27 +29,8 @@ const INVENTED = /kestrelmoor|invented/i;
 const CampaignAnalysisPart = memo(CampaignAnalysis);
 const MeasurementGridPart = memo(MeasurementGrid);
 
-/**
- * The panels that are not read on arrival (forecast, planner, saved forecasts, mail, upload, files,
- * history) mount once the browser is idle after the page's first paint, in a transition: React then
- * builds them in short slices between the browser's frames instead of in the same long task as the
- * result. Waiting for idle time (at most a second) keeps their build and their requests out of the
- * way of the result: mounted as soon as the page had committed, they were built (and their requests
- * sent) between the result's commit and the frame that paints its charts.
- */
-function AfterFirstPaint({ children }: { children: ReactNode }) {
-  const [shown, setShown] = useState(false);
-  useEffect(() => {
-    const show = () => startTransition(() => setShown(true));
-    if (typeof requestIdleCallback === 'undefined') {
-      const timer = setTimeout(show, 1);
-      return () => clearTimeout(timer);
-    }
-    const idle = requestIdleCallback(show, { timeout: 1000 });
-    return () => cancelIdleCallback(idle);
-  }, []);
-  return shown ? children : null;
-}
+// The panels not read on arrival (forecast, planner, saved forecasts, mail, upload, files, history)
+// are built once the browser is idle after the first paint (AfterFirstPaint).
 
 function CampaignBody({ campaign }: { campaign: CampaignWithRole }) {
   const canEdit = campaign.role !== 'viewer';

@@ -1,6 +1,7 @@
 import { useCallback, useMemo, useRef } from 'react';
 import { useVirtualizer } from '@tanstack/react-virtual';
 import { TableHead } from '../../../components/ui/table-head';
+import { AfterFirstPaint } from '../../../components/ui/after-first-paint';
 import { EyringPlot, type EyringCurvePoint, type EyringPlotPoint } from '../../../components/charts/eyring-plot';
 import { SelectivityChart, type SelectivityCurvePoint, type SelectivityMeasuredPoint } from '../../../components/charts/selectivity-chart';
 import { SignConvention } from '../../../components/ui/sign-convention';
@@ -173,13 +174,16 @@ export function CampaignAnalysis({
             Specification: {specificationText(specification, measure)}. Each run below says whether it meets it.
           </p>
         )}
-        <ResidualDiagnostics
-          analysis={analysis}
-          measurements={measurements}
-          measure={measure}
-          specification={specification}
-          assaySd={assaySd}
-        />
+        {/* A row per run, read after the charts and the parameters: built once the page is first idle. */}
+        <AfterFirstPaint>
+          <ResidualDiagnostics
+            analysis={analysis}
+            measurements={measurements}
+            measure={measure}
+            specification={specification}
+            assaySd={assaySd}
+          />
+        </AfterFirstPaint>
         <p className="text-xs text-ink-600">
           Residuals are in ln r (measured − fitted). A run is flagged (⚑, ringed on the plot) when its studentized residual exceeds 3 in
           size, its leverage is high or its Cook’s distance exceeds 1, and only when at least 3 residual degrees of freedom leave room to
