@@ -7,7 +7,7 @@ import { SERVER_NODE_FLAGS } from './lib/server-flags.mjs';
 
 ensureDependencies();
 // The bundle and browser suites read the built web app.
-if (!process.argv[2] || ['bundle', 'campaign-page'].includes(process.argv[2])) ensureWebBuild();
+if (!process.argv[2] || process.argv[2].split(',').some((name) => ['bundle', 'campaign-page'].includes(name))) ensureWebBuild();
 const { startThrowawayCluster, FriendlyError, removeDir } = await import('./lib/pg.mjs');
 
 let cluster = null;

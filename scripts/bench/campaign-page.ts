@@ -5,7 +5,9 @@
  * own Performance API: the later of DOMContentLoaded, the moment the Eyring plot's measured points,
  * the fitted parameters and the first rows of the runs list are on screen, and the end of the last
  * long task (> 50 ms, PerformanceObserver 'longtask') before the page went quiet, that is before a
- * full second passed with no long task. Median of 5 cold loads (EYRIE_PAGE_LOADS=n for more).
+ * full second passed with no long task. Median of 11 cold loads (EYRIE_PAGE_LOADS=n for another count):
+ * single loads of one build spread from under 400 to over 700 ms within a minute, and a median of 5 moved with one
+ * or two slow loads.
  * The page watches itself (a script run before its own, see OBSERVE_PAGE) and the bench only reads
  * its notes, so no harness code runs in the page while it loads.
  *
@@ -15,7 +17,7 @@
  * page's requests with their timings and the number of elements in its charts and tables.
  * EYRIE_PAGE_TRACE=file.json (with EYRIE_PAGE_PROFILE) also writes that load's timeline trace, and
  * EYRIE_PAGE_FIGURES=file.html the markup of its charts.
- * EYRIE_PAGE_LOADS=n counts n loads instead of 5; EYRIE_PAGE_DIST=<dist/web> serves that build as this one.
+ * EYRIE_PAGE_LOADS=n counts n loads instead of 11; EYRIE_PAGE_DIST=<dist/web> serves that build as this one.
  *
  * Needs DATABASE_URL and dist/web (npm run bench provides both).
  */
@@ -36,8 +38,8 @@ import type { BenchSuite } from './suites';
 import { insertSyntheticScreen } from './synthetic-screen';
 
 const RUNS = 1000;
-/** Loads counted (after one warm-up); more with EYRIE_PAGE_LOADS when comparing two builds on a busy machine. */
-const LOADS = Math.max(1, Number(process.env.EYRIE_PAGE_LOADS ?? 5) || 5);
+/** Loads counted (after one warm-up); another count with EYRIE_PAGE_LOADS (more when comparing two builds). */
+const LOADS = Math.max(1, Number(process.env.EYRIE_PAGE_LOADS ?? 11) || 11);
 const QUIET_MS = 1000;
 
 /** What marks the page as ready: the fitted parameters, the Eyring plot's own marks and the first rows of the runs list. */

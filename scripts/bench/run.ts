@@ -224,11 +224,12 @@ const suiteOf: Record<BenchKey, string> = {
   campaignPageMs: 'campaign-page',
 };
 
-const only = process.argv[2];
+// One suite, or several separated by commas (npm run bench -- imports,campaign-page).
+const only = process.argv[2] ? new Set(process.argv[2].split(',')) : null;
 const suites: { name: string; run(): unknown }[] = [{ name: 'http', run: httpSuite }, { name: 'engine', run: engineSuite }, ...extraSuites];
 const failed = new Map<string, string>();
 for (const suite of suites) {
-  if (only && only !== suite.name) continue;
+  if (only && !only.has(suite.name)) continue;
   try {
     await suite.run();
   } catch (err) {
@@ -242,6 +243,6 @@ console.log('');
 printBenchLine((key) => {
   const suite = suiteOf[key];
   if (failed.has(suite)) return `suite ${suite} failed: ${failed.get(suite)}`;
-  return only && only !== suite ? `suite ${suite} not run (npm run bench -- ${suite})` : null;
+  return only && !only.has(suite) ? `suite ${suite} not run (npm run bench -- ${suite})` : null;
 });
 process.exit(0);
