@@ -70,6 +70,17 @@ export function percent(value: number): string {
   return fixed(value, percentDecimals(value));
 }
 
+/**
+ * A model probability as a percentage to one decimal, for text followed by " %". One that would
+ * round to 100.0 or 0.0 reads "> 99.9" or "< 0.1": the model never makes an outcome certain.
+ */
+export function probabilityPercent(probability: number): string {
+  const pct = 100 * probability;
+  if (pct >= 99.95) return '> 99.9';
+  if (pct < 0.05) return '< 0.1';
+  return fixed(pct, 1);
+}
+
 /** A value and its standard error: the SE to two significant figures, the value to the same decimal place. */
 export function withUncertainty(value: number, se: number | null | undefined, fallbackDecimals = 2): string {
   if (se === null || se === undefined || !Number.isFinite(se) || se <= 0) return fixed(value, fallbackDecimals);

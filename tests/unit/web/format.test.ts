@@ -7,6 +7,7 @@ import {
   percent,
   percentColumn,
   percentColumnDecimals,
+  probabilityPercent,
   sig,
   withUncertainty,
 } from '../../../web/lib/format';
@@ -32,6 +33,18 @@ describe('number formatting for the calculators', () => {
     expect(sig(123456, 3)).toBe('1.23 × 10⁵');
     expect(fixed(-0.0001, 2)).toBe('0.00');
     expect(enantiomericRatio(98.74)).toBe('98.74:1.26');
+  });
+});
+
+describe('probabilities', () => {
+  it('when a model probability rounds to 100 % or 0 %, then it reads as beyond 99.9 % or under 0.1 %, never as certainty', () => {
+    expect(probabilityPercent(1 - 1e-12)).toBe('> 99.9');
+    expect(probabilityPercent(0.99951)).toBe('> 99.9');
+    expect(probabilityPercent(0.9994)).toBe('99.9');
+    expect(probabilityPercent(0.953)).toBe('95.3');
+    expect(probabilityPercent(0.0004)).toBe('< 0.1');
+    expect(probabilityPercent(0)).toBe('< 0.1');
+    expect(probabilityPercent(0.0006)).toBe('0.1');
   });
 });
 

@@ -6,7 +6,7 @@ import { VerdictMark } from '../../components/ui/verdict';
 import { Page, Panel, UnreadyPage } from '../../components/ui/page';
 import { paths } from '../../config/paths';
 import { ApiError } from '../../lib/api-client';
-import { fixed, percentColumn, sig } from '../../lib/format';
+import { fixed, percentColumn, probabilityPercent, sig } from '../../lib/format';
 import { SignedInOnly } from '../../features/auth/components/signed-in-only';
 import { ConventionNote, NumberField, buttonClass, inputClass } from '../../components/ui/fields';
 import { useCampaigns } from '../../features/campaigns/api/campaigns';
@@ -115,7 +115,7 @@ function ComparisonBody({ view }: { view: ComparisonView }) {
               <p className="tnum text-ink-700">
                 Difference in ln r {sig(p.differenceLnR, 3)} (95 % interval {sig(p.interval[0], 3)} to {sig(p.interval[1], 3)}); in ΔΔG‡{' '}
                 {fixed(p.differenceDdG['kJ/mol'], 2)} kJ/mol. Probability the first is more selective here:{' '}
-                {fixed(100 * p.probabilityFirstBetter, 1)} %.
+                {probabilityPercent(p.probabilityFirstBetter)} %.
               </p>
               <p className="tnum text-ink-700">
                 Equal slopes (extra sum of squares F test): F = {p.equalSlopes.F === null ? '—' : sig(p.equalSlopes.F, 3)}, p ={' '}

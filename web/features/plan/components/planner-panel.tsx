@@ -4,7 +4,7 @@ import { Link } from 'react-router-dom';
 import { SafetyCaution } from '../../../components/ui/caution';
 import { paths } from '../../../config/paths';
 import { ApiError, type FieldError } from '../../../lib/api-client';
-import { fixed, sig } from '../../../lib/format';
+import { fixed, probabilityPercent, sig } from '../../../lib/format';
 import { celsiusFromKelvin } from '../../../../api/science/quantities';
 import { NumberField, Segmented, buttonClass, selectClass } from '../../../components/ui/fields';
 import { useCampaignPlan, useCampaignSpecification, useSavePlan, type CampaignPlan, type PlanInputsBody } from '../api/plan';
@@ -173,7 +173,7 @@ function PlanSummary({ plan }: { plan: CampaignPlan }) {
             <span className="text-base font-normal text-ink-600">({fixed(r.recommended.kelvin, 2)} K)</span>
           </p>
           <p className="tnum text-sm text-ink-700">
-            Probability that the next run meets the specification: {fixed(100 * r.recommended.probabilityMeetsSpec, 1)} %
+            Probability that the next run meets the specification: {probabilityPercent(r.recommended.probabilityMeetsSpec)} %
           </p>
           <p className="mt-1 text-xs text-ink-600">Rule: {r.rule.text}</p>
         </div>
