@@ -71,6 +71,16 @@ export function percent(value: number): string {
 }
 
 /**
+ * Decimals that show a small limit, and the values compared with it, to two significant digits
+ * (at least `min`): a column of leverages beside the limit 4/n, which on a 1 000-run screen is
+ * 0.0040, where two fixed decimals showed 0.00 in every row.
+ */
+export function decimalsBeside(limit: number, min = 2): number {
+  if (!(limit > 0) || !Number.isFinite(limit)) return min;
+  return Math.max(min, Math.ceil(-Math.log10(limit)) + 1);
+}
+
+/**
  * A model probability as a percentage to one decimal, for text followed by " %". One that would
  * round to 100.0 or 0.0 reads "> 99.9" or "< 0.1": the model never makes an outcome certain.
  */

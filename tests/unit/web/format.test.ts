@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import {
+  decimalsBeside,
   decimalsFromPrecision,
   enantiomericRatio,
   fixed,
@@ -45,6 +46,18 @@ describe('probabilities', () => {
     expect(probabilityPercent(0.0004)).toBe('< 0.1');
     expect(probabilityPercent(0)).toBe('< 0.1');
     expect(probabilityPercent(0.0006)).toBe('0.1');
+  });
+});
+
+describe('decimals beside a limit', () => {
+  it('when the high-leverage limit 4/n is 0.33, 0.1, 0.01 or 0.004, then leverages show 2, 2, 3 or 4 decimals', () => {
+    expect(decimalsBeside(4 / 12)).toBe(2);
+    expect(decimalsBeside(4 / 40)).toBe(2);
+    expect(decimalsBeside(4 / 400)).toBe(3);
+    expect(decimalsBeside(4 / 1000)).toBe(4);
+    // The limit itself then reads with two significant digits.
+    expect(fixed(4 / 1000, decimalsBeside(4 / 1000))).toBe('0.0040');
+    expect(decimalsBeside(0)).toBe(2);
   });
 });
 

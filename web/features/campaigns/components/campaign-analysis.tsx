@@ -6,7 +6,7 @@ import { EyringPlot, type EyringCurvePoint, type EyringPlotPoint } from '../../.
 import { SelectivityChart, type SelectivityCurvePoint, type SelectivityMeasuredPoint } from '../../../components/charts/selectivity-chart';
 import { SignConvention } from '../../../components/ui/sign-convention';
 import { VerdictMark } from '../../../components/ui/verdict';
-import { fixed, measureColumn, percent, withUncertainty, lnRatioOf, lnRatioRange } from '../../../lib/format';
+import { decimalsBeside, fixed, measureColumn, percent, withUncertainty, lnRatioOf, lnRatioRange } from '../../../lib/format';
 import { ChartControls, useChartControls } from '../../../components/charts/chart-controls';
 import { FitWarnings, RunNote, TwoBranchBox, branchLines } from '../../../components/fit/fit-diagnostics';
 import { FitParameterTable } from '../../../components/fit/fit-parameter-table';
@@ -264,6 +264,9 @@ function ResidualDiagnostics({
   );
   const byId = useMemo(() => new Map(measurements.map((m) => [m.id, m])), [measurements]);
   const residuals = analysis.fit?.residuals ?? [];
+  // Leverages read against the high-leverage limit 2p/n with p = 2 (the fit's flag rule), which is
+  // 0.004 on a screen of 1 000 runs: the column shows it to two significant digits.
+  const leverageDecimals = decimalsBeside(analysis.fit ? 4 / analysis.fit.n : 1);
   const points = analysis.points;
   const scrollRef = useRef<HTMLDivElement>(null);
   const virtual = points.length >= VIRTUAL_FROM_ROWS;
@@ -334,7 +337,7 @@ function ResidualDiagnostics({
                 <td className="px-2 py-0.5">{fixed(p.lnRatio, 3)}</td>
                 <td className="px-2 py-0.5">{r?.residual == null ? '—' : fixed(r.residual, 3)}</td>
                 <td className="px-2 py-0.5">{r?.studentizedInternal == null ? '—' : fixed(r.studentizedInternal, 2)}</td>
-                <td className="px-2 py-0.5">{r?.leverage == null ? '—' : fixed(r.leverage, 2)}</td>
+                <td className="px-2 py-0.5">{r?.leverage == null ? '—' : fixed(r.leverage, leverageDecimals)}</td>
                 <td className="px-2 py-0.5">{r?.cooksDistance == null ? '—' : fixed(r.cooksDistance, 2)}</td>
                 {/* A floor on its width: on a phone the table scrolls sideways instead of wrapping a run's note into a tower. */}
                 <td className="min-w-[16rem] px-2 py-0.5 text-left">
