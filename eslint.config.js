@@ -47,7 +47,7 @@ export default tseslint.config(
   },
   {
     // The browser never imports server code, except zod schema modules shared on purpose, the pure
-    // quantities module (units, typed-number grammar, selectivity display), the table reader and the chart colours
+    // quantities module (units, typed-number grammar, selectivity display), the fit's flag limits, the table reader and the chart colours
     // (and types).
     // Two or more ../ reach the root api/; a single ../api/ is a feature's own api folder.
     files: ['web/**/*.{ts,tsx}'],
@@ -59,9 +59,9 @@ export default tseslint.config(
           patterns: [
             {
               regex:
-                '^(\\.\\./){2,}api/(?!features/[a-z-]+/([a-z]+-)?schemas$|science/(units|quantities)$|features/imports/table-text$|lib/chart-colors$)',
+                '^(\\.\\./){2,}api/(?!features/[a-z-]+/([a-z]+-)?schemas$|science/(units|quantities|flag-rules)$|features/imports/table-text$|lib/chart-colors$)',
               message:
-                'web/ may import only api/features/*/schemas and *-schemas (shared zod), api/science/quantities, api/features/imports/table-text and api/lib/chart-colors from the server, or types with `import type`.',
+                'web/ may import only api/features/*/schemas and *-schemas (shared zod), api/science/quantities, api/science/flag-rules, api/features/imports/table-text and api/lib/chart-colors from the server, or types with `import type`.',
               allowTypeImports: true,
             },
           ],

@@ -11,6 +11,7 @@ import { fitCensoredLine, type CensorKind } from './censored';
 import { GAS_CONSTANT_J_PER_MOL_K as R } from './constants';
 import { DomainError, requireFinite, requireTemperatureK, type Warning } from './errors';
 import { fiellerInterval } from './fieller';
+import { FLAG_RULES, highLeverageLimit } from './flag-rules';
 import { zeroSelectivityTemperatureK } from './forecast';
 import { lineModelFromLeastSquares, newRunVariance, type LineModel } from './line-model';
 import { fitLine, normalQuantile, requireConfidenceLevel, studentTQuantile, type LineFit, type SigmaMode } from './regression';
@@ -59,22 +60,9 @@ export interface EyringFitOptions {
 }
 
 export type { Warning };
+export { FLAG_RULES } from './flag-rules';
 
 export type PointFlag = 'outlier' | 'high-leverage' | 'influential';
-
-/** Flag thresholds (documented for the UI). */
-export const FLAG_RULES = {
-  /** |externally studentized residual| above this → 'outlier' (≈ a 3-sigma event). */
-  outlierStudentized: 3,
-  /** No run is flagged below this many residual degrees of freedom: too few to tell an odd run from scatter. */
-  minimumDof: 3,
-  /** With a known assay precision, a residual within this many assay SDs is not called an outlier. */
-  assaySigmas: 2,
-  /** leverage above 2p/n with p = 2 parameters → 'high-leverage' (Hoaglin & Welsch 1978 rule). */
-  leverageFactor: 2,
-  /** Cook's distance above 1 → 'influential' (Cook & Weisberg 1982 conventional cut-off). */
-  cooksDistance: 1,
-} as const;
 
 export interface EyringPointResult {
   index: number;
@@ -656,7 +644,7 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
   // Per-point results; diagnostics come from the least-squares fit of the exact runs.
   const slope = model.slope;
   const intercept = model.intercept;
-  const leverageLimit = (FLAG_RULES.leverageFactor * 2) / n;
+  const leverageLimit = highLeverageLimit(n);
   const canFlag = line.dof >= FLAG_RULES.minimumDof;
   // Residual diagnostics of fitted run k as bits (no allocation: the warnings below count them for
   // every run, while the per-run objects are built only when read).

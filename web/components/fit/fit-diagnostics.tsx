@@ -2,6 +2,7 @@ import type { FitResponse } from '../../../api/features/calculators/schemas';
 import { TableHead } from '../ui/table-head';
 import type { EyringBranchLine } from '../charts/eyring-plot';
 import { decimalsBeside, fixed, measureColumn, sig, withUncertainty } from '../../lib/format';
+import { highLeverageLimit } from '../../../api/science/flag-rules';
 import { celsiusFromKelvin } from '../../../api/science/quantities';
 
 const FLAG_TEXT: Record<string, string> = {
@@ -46,8 +47,8 @@ export function ResidualTable({
     fit.residuals.map((r) => r.lnRatio),
     assaySd,
   );
-  // Leverages read against the fit's high-leverage limit 4/n (2p/n, p = 2), to two significant digits.
-  const leverageDecimals = decimalsBeside(4 / fit.n);
+  // Leverages read against the fit's high-leverage limit, to two significant digits.
+  const leverageDecimals = decimalsBeside(highLeverageLimit(fit.n));
   return (
     <div className="overflow-auto rounded border border-slate-200">
       <table className="tnum w-full border-collapse text-right text-sm">

@@ -2,6 +2,7 @@ import { useCallback, useMemo, useRef } from 'react';
 import { useVirtualizer } from '@tanstack/react-virtual';
 import { TableHead } from '../../../components/ui/table-head';
 import { AfterFirstPaint } from '../../../components/ui/after-first-paint';
+import { highLeverageLimit } from '../../../../api/science/flag-rules';
 import { EyringPlot, type EyringCurvePoint, type EyringPlotPoint } from '../../../components/charts/eyring-plot';
 import { SelectivityChart, type SelectivityCurvePoint, type SelectivityMeasuredPoint } from '../../../components/charts/selectivity-chart';
 import { SignConvention } from '../../../components/ui/sign-convention';
@@ -264,9 +265,8 @@ function ResidualDiagnostics({
   );
   const byId = useMemo(() => new Map(measurements.map((m) => [m.id, m])), [measurements]);
   const residuals = analysis.fit?.residuals ?? [];
-  // Leverages read against the high-leverage limit 2p/n with p = 2 (the fit's flag rule), which is
-  // 0.004 on a screen of 1 000 runs: the column shows it to two significant digits.
-  const leverageDecimals = decimalsBeside(analysis.fit ? 4 / analysis.fit.n : 1);
+  // Leverages read against the fit's high-leverage limit (0.004 on a screen of 1 000 runs), to two significant digits.
+  const leverageDecimals = decimalsBeside(analysis.fit ? highLeverageLimit(analysis.fit.n) : 1);
   const points = analysis.points;
   const scrollRef = useRef<HTMLDivElement>(null);
   const virtual = points.length >= VIRTUAL_FROM_ROWS;
