@@ -2,13 +2,23 @@
 // Express route, engine fit cost from 10³ to 10⁶ points, and (when present) the
 // import and analysis benchmarks. Uses a throwaway PostgreSQL like `npm test`.
 import { spawn } from 'node:child_process';
-import { ensureDependencies, ensureWebBuild, root } from './lib/deps.mjs';
+import { ensureDependencies, ensureWebBuild, log, root } from './lib/deps.mjs';
 import { SERVER_NODE_FLAGS } from './lib/server-flags.mjs';
 
 ensureDependencies();
+const wants = (names) => !process.argv[2] || process.argv[2].split(',').some((name) => names.includes(name));
 // The bundle and browser suites read the built web app.
-if (!process.argv[2] || process.argv[2].split(',').some((name) => ['bundle', 'campaign-page'].includes(name))) ensureWebBuild();
+if (wants(['bundle', 'campaign-page'])) ensureWebBuild();
 const { startThrowawayCluster, FriendlyError, removeDir } = await import('./lib/pg.mjs');
+// The browser suite needs Debian's Chromium, installed as `npm test` installs it (as root) or named otherwise.
+if (wants(['campaign-page'])) {
+  const { ensureChromium } = await import('./lib/chromium.mjs');
+  try {
+    ensureChromium(log);
+  } catch (err) {
+    console.error(`eyrie: ${err instanceof FriendlyError ? err.message : (err?.stack ?? err)}`);
+  }
+}
 
 let cluster = null;
 let tempDir = null;

@@ -1,7 +1,8 @@
 /**
  * Benchmarks (never timed tests). Run through `npm run bench`.
- * 1. HTTP: /api/v1/forecast (200 temperatures) and /api/v1/fit (50 runs) at 50 connections,
- *    each in alternating rounds with a bare Express JSON route that returns the same body, in the same process.
+ * 1. HTTP: /api/v1/forecast (200 temperatures) and /api/v1/fit (50 runs) at 50 connections, each cycling
+ *    through 64 different screens, in alternating rounds with a bare Express JSON route that returns the
+ *    same bodies (precomputed), in the same process.
  * 2. Engine: fitEyring cost from 10³ to 10⁶ points (should grow linearly).
  * 3. Feature benchmarks registered in scripts/bench/suites.ts (imports, campaign analysis).
  */
@@ -41,30 +42,31 @@ function listen(app: express.Express): Promise<{ server: Server; url: string }> 
 
 type Load = { rps: number; p50: number; p99: number; total: number; cpuUs: number };
 
+/** The header naming which of the screens a request carries, so the bare route can answer that screen's body. */
+const CASE_HEADER = 'x-bench-case';
+
 /**
  * A load generator in a separate process (the autocannon CLI), so it does not share the server's
- * event loop. `hit(seconds)` runs it once against `url` with `body`.
+ * event loop. Each connection cycles through `bodies` (a HAR file of one POST per body, the body's
+ * index in CASE_HEADER). `hit(seconds)` runs it once against `url`.
  */
-async function loader(url: string, body: unknown) {
+async function loader(url: string, bodies: readonly unknown[]) {
   const dir = await mkdtemp(path.join(os.tmpdir(), 'eyrie-bench-body-'));
-  const file = path.join(dir, 'body.json');
-  await writeFile(file, JSON.stringify(body));
-  const hit = async (seconds: number): Promise<Load> => {
-    const args = [
-      autocannonCli,
-      '-c',
-      String(CONNECTIONS),
-      '-d',
-      String(seconds),
-      '-m',
-      'POST',
-      '-H',
-      'content-type=application/json',
-      '-i',
-      file,
-      '--json',
+  const file = path.join(dir, 'requests.har');
+  const entries = bodies.map((body, i) => ({
+    request: {
+      method: 'POST',
       url,
-    ];
+      headers: [
+        { name: 'content-type', value: 'application/json' },
+        { name: CASE_HEADER, value: String(i) },
+      ],
+      postData: { mimeType: 'application/json', text: JSON.stringify(body) },
+    },
+  }));
+  await writeFile(file, JSON.stringify({ log: { entries } }));
+  const hit = async (seconds: number): Promise<Load> => {
+    const args = [autocannonCli, '-c', String(CONNECTIONS), '-d', String(seconds), '--har', file, '--json', url];
     // The server's CPU time per answer: it moves less than req/s when other jobs share the cores.
     const cpu0 = process.cpuUsage();
     const { stdout } = await execFileAsync(process.execPath, args, { maxBuffer: 16 * 1024 * 1024 });
@@ -92,9 +94,9 @@ async function loader(url: string, body: unknown) {
  * DURATION_S/ROUNDS seconds each, alternating, so a drift in the machine's speed (another job,
  * clock changes) falls on both alike. The ratio is of the two routes' total answers.
  */
-async function sideBySide(ourUrl: string, bareUrl: string, body: unknown) {
-  const ours = await loader(ourUrl, body);
-  const bare = await loader(bareUrl, body);
+async function sideBySide(ourUrl: string, bareUrl: string, bodies: readonly unknown[]) {
+  const ours = await loader(ourUrl, bodies);
+  const bare = await loader(bareUrl, bodies);
   try {
     await ours.hit(2);
     await bare.hit(2);
@@ -134,19 +136,27 @@ async function sideBySide(ourUrl: string, bareUrl: string, body: unknown) {
 }
 
 const C = (value: number) => ({ value, unit: 'C' as const });
-const forecastBody = {
-  basis: { kind: 'observed', selectivity: { measure: 'ee', value: 92 }, temperature: C(0) },
+/**
+ * Screens per route, each request carrying the next. Scripts send a library of different screens,
+ * so every answer's numbers differ from the last one's; one body sent over and over would let V8's
+ * number-to-string cache write most of the answer's numbers for free (it once made a compiled
+ * serialiser look twice as fast as JSON.stringify, when on new numbers it was twice as slow).
+ */
+const SCREENS = 64;
+const forecastBodies = Array.from({ length: SCREENS }, (_, k) => ({
+  basis: { kind: 'observed', selectivity: { measure: 'ee', value: 88 + (8 * k) / SCREENS }, temperature: C(-5 + (10 * k) / SCREENS) },
   temperatures: { from: C(-80), to: C(60), count: 200 },
-};
-// Synthetic screen for load only: ln r = 1800/T − 3.4 with deterministic scatter.
-const fitBody = {
+}));
+// Synthetic screens for load only: ln r = A/T − B with deterministic scatter, A and B varying from screen
+// to screen; the same 50 temperatures in each (a library run on one temperature programme).
+const fitBodies = Array.from({ length: SCREENS }, (_, k) => ({
   measurements: Array.from({ length: 50 }, (_, i) => {
     const t = 200 + i * 3;
-    const lnR = 1800 / t - 3.4 + 0.03 * Math.sin(i * 1.7);
+    const lnR = (1700 + (200 * k) / SCREENS) / t - (3.3 + (0.2 * k) / SCREENS) + 0.03 * Math.sin(i * 1.7 + k);
     return { temperature: { value: t, unit: 'K' as const }, selectivity: { measure: 'ratio' as const, value: Math.exp(lnR) } };
   }),
   predict: Array.from({ length: 60 }, (_, i) => ({ value: 190 + i * 2.7, unit: 'K' as const })),
-};
+}));
 
 async function httpSuite() {
   const knex = createKnex(process.env.DATABASE_URL!, { min: 0, max: 4 });
@@ -154,26 +164,27 @@ async function httpSuite() {
   const app = createApp({ knex, config: loadConfig({ nodeEnv: 'production', devTools: false }), webDist: null });
   const real = await listen(app);
 
-  // The baseline: a bare Express app with a JSON body parser answering the same precomputed body.
-  const forecastAnswer = runForecast(forecastRequestSchema.parse(forecastBody));
-  const fitAnswer = runFit(fitRequestSchema.parse(fitBody));
+  // The baseline: a bare Express app with a JSON body parser answering each screen's precomputed body.
+  const forecastAnswers = forecastBodies.map((b) => runForecast(forecastRequestSchema.parse(b)));
+  const fitAnswers = fitBodies.map((b) => runFit(fitRequestSchema.parse(b)));
   const bare = express();
   bare.use(express.json({ limit: '1mb' }));
-  bare.post('/forecast', (_req, res) => void res.json(forecastAnswer));
-  bare.post('/fit', (_req, res) => void res.json(fitAnswer));
+  const screenOf = (req: express.Request) => Number(req.get(CASE_HEADER));
+  bare.post('/forecast', (req, res) => void res.json(forecastAnswers[screenOf(req)]));
+  bare.post('/fit', (req, res) => void res.json(fitAnswers[screenOf(req)]));
   const baseline = await listen(bare);
 
   console.log(
-    `\nHTTP, ${CONNECTIONS} connections, our route and a bare Express route with the same body in turns: ${ROUNDS} rounds of ${Math.max(1, Math.round(DURATION_S / ROUNDS))} s each after a 2 s warm-up (autocannon in its own process)`,
+    `\nHTTP, ${CONNECTIONS} connections cycling through ${SCREENS} screens, our route and a bare Express route with the same bodies in turns: ${ROUNDS} rounds of ${Math.max(1, Math.round(DURATION_S / ROUNDS))} s each after a 2 s warm-up (autocannon in its own process)`,
   );
   console.log(
     'endpoint                         req/s    p50 ms  p99 ms   bare req/s  ratio   per round              server CPU µs/answer (bare)',
   );
-  for (const [name, route, body, key] of [
-    ['forecast (200 temperatures)', '/api/v1/forecast', forecastBody, 'forecastRatio'],
-    ['fit (50 runs, 60 predictions)', '/api/v1/fit', fitBody, 'fitRatio'],
+  for (const [name, route, bodies, key] of [
+    ['forecast (200 temperatures)', '/api/v1/forecast', forecastBodies, 'forecastRatio'],
+    ['fit (50 runs, 60 predictions)', '/api/v1/fit', fitBodies, 'fitRatio'],
   ] as const) {
-    const r = await sideBySide(real.url + route, baseline.url + route.replace('/api/v1', ''), body);
+    const r = await sideBySide(real.url + route, baseline.url + route.replace('/api/v1', ''), bodies);
     console.log(
       `${name.padEnd(32)} ${r.rps.toFixed(0).padStart(6)}  ${String(r.p50).padStart(6)}  ${String(r.p99).padStart(6)}   ${r.bareRps.toFixed(0).padStart(10)}  ${r.ratio.toFixed(2)}×   ${r.roundRatios
         .map((x) => x.toFixed(2))

@@ -1,19 +1,18 @@
 import { Router, type RequestHandler } from 'express';
 import type { z } from 'zod';
-import { memberWriters, sendComputed } from '../../lib/json-body';
+import { sendComputed } from '../../lib/json-body';
 import { parseBody } from '../../lib/validation';
 import { calculators, type Calculator } from './catalog';
 
-/** One POST route: parse the body with the request schema, compute, answer with the writers compiled from the response schema. */
+/** One POST route: parse the body with the request schema, compute, answer as JSON. */
 function post<Req extends z.ZodType, Res extends z.ZodType>(
   router: Router,
   path: string,
   guards: RequestHandler[],
   c: Calculator<Req, Res>,
 ) {
-  const json = memberWriters(c.response);
   router.post(path, ...guards, (req, res) => {
-    sendComputed(res, c.run(parseBody(c.request, req.body)), json);
+    sendComputed(res, c.run(parseBody(c.request, req.body)));
   });
 }
 

@@ -1,16 +1,14 @@
 import { Router, type RequestHandler } from 'express';
-import { planRequestSchema, planResponseSchema } from './schemas';
+import { planRequestSchema } from './schemas';
 import { runPlan } from './service';
-import { memberWriters, sendComputed } from '../../lib/json-body';
+import { sendComputed } from '../../lib/json-body';
 import { parseBody } from '../../lib/validation';
-
-const planJson = memberWriters(planResponseSchema);
 
 /** POST /plan: stateless like /fit, no sign-in. */
 export function planRouter(guards: RequestHandler[] = []): Router {
   const router = Router();
   router.post('/plan', ...guards, (req, res) => {
-    sendComputed(res, runPlan(parseBody(planRequestSchema, req.body)), planJson);
+    sendComputed(res, runPlan(parseBody(planRequestSchema, req.body)));
   });
   return router;
 }
