@@ -1,10 +1,11 @@
 import { Router, type RequestHandler } from 'express';
 import type { z } from 'zod';
 import { sendComputed } from '../../lib/json-body';
+import { checkDeclaredInTests } from '../../lib/response-check';
 import { parseBody } from '../../lib/validation';
 import { calculators, type Calculator } from './catalog';
 
-/** One POST route: parse the body with the request schema, compute, answer as JSON. */
+/** One POST route: parse the body with the request schema, compute, answer as JSON (in tests, checked against the response schema). */
 function post<Req extends z.ZodType, Res extends z.ZodType>(
   router: Router,
   path: string,
@@ -12,7 +13,9 @@ function post<Req extends z.ZodType, Res extends z.ZodType>(
   c: Calculator<Req, Res>,
 ) {
   router.post(path, ...guards, (req, res) => {
-    sendComputed(res, c.run(parseBody(c.request, req.body)));
+    const answer = c.run(parseBody(c.request, req.body));
+    checkDeclaredInTests(c.response, answer);
+    sendComputed(res, answer);
   });
 }
 
