@@ -255,16 +255,7 @@ export function fitLine(x: ArrayLike<number>, y: ArrayLike<number>, options: Lin
     }
     return null;
   };
-  const all = (at: (i: number) => number | null): (number | null)[] => {
-    const out = new Array<number | null>(n);
-    for (let i = 0; i < n; i++) out[i] = at(i);
-    return out;
-  };
-  let studentizedInternal: (number | null)[] | null = null;
-  let studentizedExternal: (number | null)[] | null = null;
-  let cooksDistance: (number | null)[] | null = null;
-
-  return {
+  return Object.assign(new LineDiagnostics(n, internalAt, externalAt, cookAt), {
     n,
     dof,
     sigmaMode,
@@ -286,19 +277,47 @@ export function fitLine(x: ArrayLike<number>, y: ArrayLike<number>, options: Lin
     fitted,
     residuals,
     leverages,
-    get studentizedInternal() {
-      return (studentizedInternal ??= all(internalAt));
-    },
-    get studentizedExternal() {
-      return (studentizedExternal ??= all(externalAt));
-    },
-    get cooksDistance() {
-      return (cooksDistance ??= all(cookAt));
-    },
-    studentizedInternalAt: internalAt,
-    studentizedExternalAt: externalAt,
-    cooksDistanceAt: cookAt,
-  };
+  });
+}
+
+/**
+ * The per-point diagnostics of a line fit: the functions, and the arrays built from them on first
+ * read. The getters belong to this class, one accessor for every fit. An object literal's own getter
+ * is an accessor pair that V8 allocates in the old generation, and through its closure it kept each
+ * fit's arrays alive across every young-generation collection until the next full one.
+ */
+class LineDiagnostics {
+  #internal: (number | null)[] | null = null;
+  #external: (number | null)[] | null = null;
+  #cook: (number | null)[] | null = null;
+  readonly #count: number;
+
+  constructor(
+    count: number,
+    readonly studentizedInternalAt: (i: number) => number | null,
+    readonly studentizedExternalAt: (i: number) => number | null,
+    readonly cooksDistanceAt: (i: number) => number | null,
+  ) {
+    this.#count = count;
+  }
+
+  get studentizedInternal(): (number | null)[] {
+    return (this.#internal ??= everyPoint(this.#count, this.studentizedInternalAt));
+  }
+
+  get studentizedExternal(): (number | null)[] {
+    return (this.#external ??= everyPoint(this.#count, this.studentizedExternalAt));
+  }
+
+  get cooksDistance(): (number | null)[] {
+    return (this.#cook ??= everyPoint(this.#count, this.cooksDistanceAt));
+  }
+}
+
+function everyPoint(n: number, at: (i: number) => number | null): (number | null)[] {
+  const out = new Array<number | null>(n);
+  for (let i = 0; i < n; i++) out[i] = at(i);
+  return out;
 }
 
 export interface LinePrediction {
