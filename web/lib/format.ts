@@ -3,6 +3,7 @@
  * chosen for the quantity, and uncertainty rounded to two significant figures with
  * the value rounded to the same decimal place.
  */
+import { highLeverageLimit } from '../../api/science/flag-rules';
 import {
   DISPLAY_UNIT,
   eeFromLnRatio,
@@ -78,6 +79,11 @@ export function percent(value: number): string {
 export function decimalsBeside(limit: number, min = 2): number {
   if (!(limit > 0) || !Number.isFinite(limit)) return min;
   return Math.max(min, Math.ceil(-Math.log10(limit)) + 1);
+}
+
+/** Decimals for a column of leverages: two significant digits of the fit's high-leverage limit (2p/n). */
+export function leverageDecimals(nFitted: number): number {
+  return decimalsBeside(highLeverageLimit(nFitted));
 }
 
 /**

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import {
   decimalsBeside,
+  leverageDecimals,
   decimalsFromPrecision,
   enantiomericRatio,
   fixed,
@@ -58,6 +59,12 @@ describe('decimals beside a limit', () => {
     // The limit itself then reads with two significant digits.
     expect(fixed(4 / 1000, decimalsBeside(4 / 1000))).toBe('0.0040');
     expect(decimalsBeside(0)).toBe(2);
+  });
+
+  it("when a fit has 12, 150 or 1 000 runs, then its leverage column reads against the fit's own limit 4/n", () => {
+    expect(leverageDecimals(12)).toBe(2);
+    expect(leverageDecimals(150)).toBe(3);
+    expect(leverageDecimals(1000)).toBe(4);
   });
 });
 

@@ -1,8 +1,7 @@
 import type { FitResponse } from '../../../api/features/calculators/schemas';
 import { TableHead } from '../ui/table-head';
 import type { EyringBranchLine } from '../charts/eyring-plot';
-import { decimalsBeside, fixed, measureColumn, sig, withUncertainty } from '../../lib/format';
-import { highLeverageLimit } from '../../../api/science/flag-rules';
+import { fixed, leverageDecimals, measureColumn, sig, withUncertainty } from '../../lib/format';
 import { celsiusFromKelvin } from '../../../api/science/quantities';
 
 const FLAG_TEXT: Record<string, string> = {
@@ -47,8 +46,7 @@ export function ResidualTable({
     fit.residuals.map((r) => r.lnRatio),
     assaySd,
   );
-  // Leverages read against the fit's high-leverage limit, to two significant digits.
-  const leverageDecimals = decimalsBeside(highLeverageLimit(fit.n));
+  const leverageDigits = leverageDecimals(fit.n);
   return (
     <div className="overflow-auto rounded border border-slate-200">
       <table className="tnum w-full border-collapse text-right text-sm">
@@ -78,7 +76,7 @@ export function ResidualTable({
                 <td className="px-2 py-1">{fixed(r.lnRatio, 3)}</td>
                 <td className="px-2 py-1">{r.residual === null ? '—' : fixed(r.residual, 3)}</td>
                 <td className="px-2 py-1">{r.studentizedInternal == null ? '—' : fixed(r.studentizedInternal, 2)}</td>
-                <td className="px-2 py-1">{r.leverage === null ? '—' : fixed(r.leverage, leverageDecimals)}</td>
+                <td className="px-2 py-1">{r.leverage === null ? '—' : fixed(r.leverage, leverageDigits)}</td>
                 <td className="px-2 py-1 text-left">
                   {r.status === 'censored' ? 'lower bound (censored)' : r.status === 'excluded' ? 'excluded' : 'fitted'}
                   {flagged && (

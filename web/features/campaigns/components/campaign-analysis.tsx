@@ -2,12 +2,11 @@ import { useCallback, useMemo, useRef } from 'react';
 import { useVirtualizer } from '@tanstack/react-virtual';
 import { TableHead } from '../../../components/ui/table-head';
 import { AfterFirstPaint } from '../../../components/ui/after-first-paint';
-import { highLeverageLimit } from '../../../../api/science/flag-rules';
 import { EyringPlot, type EyringCurvePoint, type EyringPlotPoint } from '../../../components/charts/eyring-plot';
 import { SelectivityChart, type SelectivityCurvePoint, type SelectivityMeasuredPoint } from '../../../components/charts/selectivity-chart';
 import { SignConvention } from '../../../components/ui/sign-convention';
 import { VerdictMark } from '../../../components/ui/verdict';
-import { decimalsBeside, fixed, measureColumn, percent, withUncertainty, lnRatioOf, lnRatioRange } from '../../../lib/format';
+import { fixed, leverageDecimals, measureColumn, percent, withUncertainty, lnRatioOf, lnRatioRange } from '../../../lib/format';
 import { ChartControls, useChartControls } from '../../../components/charts/chart-controls';
 import { FitWarnings, RunNote, TwoBranchBox, branchLines } from '../../../components/fit/fit-diagnostics';
 import { FitParameterTable } from '../../../components/fit/fit-parameter-table';
@@ -265,8 +264,8 @@ function ResidualDiagnostics({
   );
   const byId = useMemo(() => new Map(measurements.map((m) => [m.id, m])), [measurements]);
   const residuals = analysis.fit?.residuals ?? [];
-  // Leverages read against the fit's high-leverage limit (0.004 on a screen of 1 000 runs), to two significant digits.
-  const leverageDecimals = decimalsBeside(analysis.fit ? highLeverageLimit(analysis.fit.n) : 1);
+  // Leverages read against the fit's high-leverage limit (0.004 on a screen of 1 000 runs).
+  const leverageDigits = analysis.fit ? leverageDecimals(analysis.fit.n) : 2;
   const points = analysis.points;
   const scrollRef = useRef<HTMLDivElement>(null);
   const virtual = points.length >= VIRTUAL_FROM_ROWS;
@@ -337,7 +336,7 @@ function ResidualDiagnostics({
                 <td className="px-2 py-0.5">{fixed(p.lnRatio, 3)}</td>
                 <td className="px-2 py-0.5">{r?.residual == null ? '—' : fixed(r.residual, 3)}</td>
                 <td className="px-2 py-0.5">{r?.studentizedInternal == null ? '—' : fixed(r.studentizedInternal, 2)}</td>
-                <td className="px-2 py-0.5">{r?.leverage == null ? '—' : fixed(r.leverage, leverageDecimals)}</td>
+                <td className="px-2 py-0.5">{r?.leverage == null ? '—' : fixed(r.leverage, leverageDigits)}</td>
                 <td className="px-2 py-0.5">{r?.cooksDistance == null ? '—' : fixed(r.cooksDistance, 2)}</td>
                 {/* A floor on its width: on a phone the table scrolls sideways instead of wrapping a run's note into a tower. */}
                 <td className="min-w-[16rem] px-2 py-0.5 text-left">
