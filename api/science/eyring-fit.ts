@@ -812,7 +812,7 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
     warnings.push({ code: 'zero-selectivity-unbounded', message: t0Interval.message });
   }
 
-  const fit: EyringFit = Object.assign(new LazyPoints(materialisePoints), {
+  const fit = withLazyPoints(materialisePoints, {
     convention: SIGN_CONVENTION,
     confidenceLevel,
     weighting: mode,
@@ -842,7 +842,7 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
     warnings,
     line,
     model,
-  } satisfies Omit<EyringFit, 'points'>);
+  });
   if (options.newRun) sigmaLnRatioAt(options.newRun, 0); // validate once, before any prediction
   if (options.predictAtK && options.predictAtK.length > 0) {
     fit.predictions = predictEyring(fit, options.predictAtK, confidenceLevel);
@@ -859,27 +859,36 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
   return fit;
 }
 
+const BUILD_POINTS = Symbol('build points');
+const POINTS = Symbol('points');
+interface PointsSource {
+  [BUILD_POINTS]: () => EyringPointResult[];
+  [POINTS]: EyringPointResult[] | null;
+}
 /**
- * A fit's per-run results, built on first read (or set). The getter belongs to this class, one
- * accessor for every fit. An object literal's own getter is an accessor pair that V8 allocates in
- * the old generation, and through its closure it kept each fit's columns, line and runs alive across
- * every young-generation collection until the next full one: about 35 kB promoted per fit of 50 runs.
+ * The prototype of every fit: its per-run results, built on first read (or set). One accessor for
+ * all fits; an object literal's own getter is an accessor pair that V8 allocates in the old
+ * generation, and through its closure it kept each fit's columns, line and runs alive across every
+ * young-generation collection until the next full one (about 35 kB promoted per fit of 50 runs).
  */
-class LazyPoints {
-  #build: () => EyringPointResult[];
-  #points: EyringPointResult[] | null = null;
-
-  constructor(build: () => EyringPointResult[]) {
-    this.#build = build;
-  }
-
+const lazyPoints = {
   get points(): EyringPointResult[] {
-    return (this.#points ??= this.#build());
-  }
-
+    const self = this as unknown as PointsSource;
+    return (self[POINTS] ??= self[BUILD_POINTS]());
+  },
   set points(value: EyringPointResult[]) {
-    this.#points = value;
-  }
+    (this as unknown as PointsSource)[POINTS] = value;
+  },
+};
+
+/**
+ * A fit from its fields and the builder of its per-run results. The fields stay one object literal
+ * with the prototype set on it: copied onto a class instance (Object.assign), 34 fields turned the
+ * fit into a dictionary-mode object, whose every property read is a hash lookup.
+ */
+function withLazyPoints(build: () => EyringPointResult[], fields: Omit<EyringFit, 'points'>): EyringFit {
+  const source: Omit<EyringFit, 'points'> & PointsSource = Object.assign(fields, { [BUILD_POINTS]: build, [POINTS]: null });
+  return Object.setPrototypeOf(source, lazyPoints) as EyringFit;
 }
 
 function rangeOf(values: readonly number[] | undefined): { min: number; max: number } | null {
