@@ -13,7 +13,7 @@ import type { AppConfig } from './config';
 import { createLogger } from './lib/logger';
 import { notFoundHandler, problemHandler } from './lib/problem';
 import { requestId } from './lib/request-id';
-import { checkRequestText } from './lib/request-text';
+import { checkRequestText, markJsonTextFreeOfNul } from './lib/request-text';
 import { NotFoundError } from './lib/errors';
 import { RateLimitStore, rateLimited } from './lib/rate-limit';
 import { healthRouter } from './features/health/routes';
@@ -126,7 +126,7 @@ export function createApp(deps: AppDeps): Express {
     brotli: { params: { [zlib.constants.BROTLI_PARAM_QUALITY]: ON_THE_FLY_BROTLI_QUALITY } },
   });
   app.use((req, res, next) => (req.headers['accept-encoding'] ? compress(req, res, next) : next()));
-  app.use(express.json({ limit: '1mb' }));
+  app.use(express.json({ limit: '1mb', verify: markJsonTextFreeOfNul }));
 
   const mailbox = deps.mailbox ?? new Mailbox();
   const mailer =

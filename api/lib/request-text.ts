@@ -1,3 +1,4 @@
+import type { IncomingMessage } from 'node:http';
 import type { RequestHandler } from 'express';
 import { BadRequestError, type FieldError } from './errors';
 
@@ -33,6 +34,21 @@ function hasNul(value: unknown, depth = 0): boolean {
   return false;
 }
 
+/** JSON text can carry U+0000 only as this escape: a raw control character is not valid JSON. */
+const NUL_ESCAPE = Buffer.from('\\u0000');
+/** Set on a request whose UTF-8 JSON text holds no NUL escape, so its parsed body needs no walk. */
+const JSON_TEXT_FREE_OF_NUL = Symbol('JSON text free of NUL');
+
+/**
+ * The JSON body parser's `verify` hook: one byte search of the raw text (memchr speed) instead of a
+ * walk over every parsed string. Only a find means a walk (a text like `\\u0000`, an escaped
+ * backslash, is found and then cleared by the walk); other encodings are always walked.
+ */
+export function markJsonTextFreeOfNul(req: IncomingMessage, _res: unknown, raw: Buffer, encoding: string): void {
+  if (encoding === 'utf-8' && !raw.includes(NUL_ESCAPE))
+    (req as IncomingMessage & { [JSON_TEXT_FREE_OF_NUL]?: true })[JSON_TEXT_FREE_OF_NUL] = true;
+}
+
 export const NUL_MESSAGE = 'contains a NUL character (U+0000), which cannot be stored; remove it';
 
 /**
@@ -43,7 +59,8 @@ export const checkRequestText: RequestHandler = (req, _res, next) => {
   const errors: FieldError[] = [];
   const bodyPaths: string[] = [];
   // Paths are worked out only when there is something to name.
-  if (hasNul(req.body)) nulPaths(req.body, [], bodyPaths);
+  const walk = (req as { [JSON_TEXT_FREE_OF_NUL]?: true })[JSON_TEXT_FREE_OF_NUL] !== true;
+  if (walk && hasNul(req.body)) nulPaths(req.body, [], bodyPaths);
   errors.push(...bodyPaths.map((path) => ({ path, message: NUL_MESSAGE })));
   for (const [name, value] of Object.entries(req.query)) {
     const queryPaths: string[] = [];

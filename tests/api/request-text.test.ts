@@ -42,6 +42,46 @@ describe('NUL characters in text', () => {
     expect(await count('measurements', { campaignId: c.id })).toBe(0);
   });
 
+  it('when the text only spells a backslash before u0000, then it is not a NUL and the runs are stored', async () => {
+    // The raw text holds the six bytes \u0000 after an escaped backslash: the byte search finds them, the walk clears them.
+    const c = await createCampaign(project.id);
+    const notes = 'path C:\\u0000 in a note';
+    const body = JSON.stringify({ measurements: [run(-20, { notes })] });
+    expect(body).toContain('\\u0000');
+    const res = await request(app)
+      .post(`/api/v1/campaigns/${c.id}/measurements/batch`)
+      .set('Authorization', bearer)
+      .set('Content-Type', 'application/json')
+      .send(body);
+    expect(res.status).toBe(201);
+    expect(await count('measurements', { campaignId: c.id, notes })).toBe(1);
+  });
+
+  it('when a body in UTF-16 holds a NUL, then 400 names the field (the byte search reads UTF-8 only)', async () => {
+    const c = await createCampaign(project.id);
+    const body = Buffer.from(JSON.stringify({ measurements: [run(-20, { notes: 'a\u0000b' })] }), 'utf16le');
+    const res = await request(app)
+      .post(`/api/v1/campaigns/${c.id}/measurements/batch`)
+      .set('Authorization', bearer)
+      .set('Content-Type', 'application/json; charset=utf-16le')
+      // Sent as the bytes given (superagent would write a Buffer out as JSON).
+      .serialize((bytes: Buffer) => bytes as unknown as string)
+      .send(body);
+    expect(res.status).toBe(400);
+    expect(res.body.errors).toEqual([{ path: 'measurements.0.notes', message: expect.stringContaining('NUL character') }]);
+    expect(await count('measurements', { campaignId: c.id })).toBe(0);
+  });
+
+  it('when a calculator request holds a NUL, then 400 names the field before the calculation', async () => {
+    const res = await request(app)
+      .post('/api/v1/fit')
+      .send({
+        measurements: [run(-20), run(0), { ...run(20), selectivity: { measure: 'ee\u0000', value: 80 } }],
+      });
+    expect(res.status).toBe(400);
+    expect(res.body.errors).toEqual([{ path: 'measurements.2.selectivity.measure', message: expect.stringContaining('NUL character') }]);
+  });
+
   it('when a project name or a campaign title holds a NUL, then 400 names the field', async () => {
     const p = await request(app).post('/api/v1/projects').set('Authorization', bearer).send({ name: 'Screen\u0000', description: '' });
     expect(p.status).toBe(400);
