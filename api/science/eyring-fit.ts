@@ -8,6 +8,7 @@
  */
 import { checkStatedPrecision, sigmaLnRatioAt, type AssayPrecision, type PrecisionCheck } from './assay-precision';
 import { fitCensoredLine, type CensorKind } from './censored';
+import { float64Columns } from './columns';
 import { GAS_CONSTANT_J_PER_MOL_K as R } from './constants';
 import { DomainError, requireFinite, requireTemperatureK, type Warning } from './errors';
 import { fiellerInterval } from './fieller';
@@ -276,13 +277,8 @@ function prepareColumns(measurements: readonly EyringMeasurement[], censorEePerc
     lnLimit = lnRatioLimitFromEe(censorEePercent);
   }
   const count = measurements.length;
-  const columns: PreparedColumns = {
-    x: new Float64Array(count),
-    y: new Float64Array(count),
-    status: new Uint8Array(count),
-    bound: new Int8Array(count),
-    censorPoint: new Float64Array(count).fill(NaN),
-  };
+  const [x, y, censorPoint] = float64Columns(count, 3);
+  const columns: PreparedColumns = { x, y, status: new Uint8Array(count), bound: new Int8Array(count), censorPoint: censorPoint.fill(NaN) };
   for (let index = 0; index < count; index++) {
     const m = measurements[index]!;
     // Field paths are built only on the error path: at 10⁶ runs the strings alone cost more than the fit.
@@ -532,7 +528,7 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
   }
   // A typed array sorts numerically in native code; a comparator closure is ~10× slower at 10⁶ runs.
   // Filled by a loop: Float64Array.from with a map function goes through the iterator protocol.
-  const temps = new Float64Array(fitted.length);
+  const [temps, xs, ys] = float64Columns(fitted.length, 3);
   for (let i = 0; i < fitted.length; i++) temps[i] = measurements[fitted[i]!]!.temperatureK;
   temps.sort();
   const distinct = countDistinct(temps);
@@ -552,8 +548,6 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
     weighting,
     warnings,
   );
-  const xs = new Float64Array(fitted.length);
-  const ys = new Float64Array(fitted.length);
   for (let i = 0; i < fitted.length; i++) {
     xs[i] = columns.x[fitted[i]!]!;
     ys[i] = columns.y[fitted[i]!]!;

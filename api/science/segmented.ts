@@ -28,6 +28,7 @@
  * Engl. 1991, 30, 477); otherwise a "change of slope". A curved plot can also mean a change of the
  * selectivity-determining step (Gypser & Norrby, J. Chem. Soc., Perkin Trans. 2, 1997).
  */
+import { float64Columns } from './columns';
 import { GAS_CONSTANT_J_PER_MOL_K as R } from './constants';
 import {
   DEFAULT_CENSOR_EE_PERCENT,
@@ -339,14 +340,10 @@ interface Sums {
   yy: Float64Array;
 }
 
-const newSums = (m: number): Sums => ({
-  w: new Float64Array(m + 1),
-  u: new Float64Array(m + 1),
-  uu: new Float64Array(m + 1),
-  y: new Float64Array(m + 1),
-  uy: new Float64Array(m + 1),
-  yy: new Float64Array(m + 1),
-});
+function newSums(m: number): Sums {
+  const [w, u, uu, y, uy, yy] = float64Columns(m + 1, 6);
+  return { w, u, uu, y, uy, yy };
+}
 
 /**
  * The exact least-squares break over the allowed range: its position (in u) and SS about the
@@ -505,10 +502,17 @@ const NULL_CACHE_SIZE = 64;
 const nullCache = new Map<number, { signature: Float64Array; sample: Float64Array }[]>();
 const nullCacheOrder: { hash: number; signature: Float64Array }[] = [];
 
-/** Everything the null distribution depends on, as numbers: n, resamples, seed, then u, weight, runs, valid split per group. */
+/** Where the signature of the design being looked up is written; a hit then allocates nothing, a miss keeps a copy. */
+let signatureScratch = new Float64Array(3 + 4 * 64);
+
+/**
+ * Everything the null distribution depends on, as numbers: n, resamples, seed, then u, weight, runs, valid split per group.
+ * A view on a shared scratch buffer, valid until the next call: copy it to keep it.
+ */
 function designSignature(design: Design, resamples: number, seed: number): Float64Array {
   const m = design.groups.length;
-  const sig = new Float64Array(3 + 4 * m);
+  if (signatureScratch.length < 3 + 4 * m) signatureScratch = new Float64Array(2 * (3 + 4 * m));
+  const sig = signatureScratch.subarray(0, 3 + 4 * m);
   sig[0] = design.n;
   sig[1] = resamples;
   sig[2] = seed;
@@ -538,10 +542,11 @@ const sameSignature = (a: Float64Array, b: Float64Array) => a.length === b.lengt
  * Sorted ascending. Depends only on the design, resamples and seed, so it is kept (bounded cache).
  */
 function simulateNullSupF(design: Design, resamples: number, seed: number): Float64Array {
-  const signature = designSignature(design, resamples, seed);
-  const hash = hashSignature(signature);
-  const hit = nullCache.get(hash)?.find((e) => sameSignature(e.signature, signature));
+  const looked = designSignature(design, resamples, seed);
+  const hash = hashSignature(looked);
+  const hit = nullCache.get(hash)?.find((e) => sameSignature(e.signature, looked));
   if (hit) return hit.sample;
+  const signature = looked.slice();
   const uniform = uniformSource(seed);
   const normal = normalSource(uniform);
   const { groups, n } = design;
@@ -634,9 +639,7 @@ export function checkCurvature(measurements: readonly EyringMeasurement[], optio
       message: 'The break check treats σ as relative (scale estimated from the scatter), so the test does not depend on it.',
     });
   }
-  const runT = new Float64Array(usable.length);
-  const runY = new Float64Array(usable.length);
-  const runW = new Float64Array(usable.length);
+  const [runT, runY, runW] = float64Columns(usable.length, 3);
   for (let i = 0; i < usable.length; i++) {
     runT[i] = usable[i]!.measurement.temperatureK;
     runY[i] = usable[i]!.y;
