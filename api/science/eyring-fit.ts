@@ -857,7 +857,7 @@ const BUILD_POINTS = Symbol('build points');
 const POINTS = Symbol('points');
 interface PointsSource {
   [BUILD_POINTS]: () => EyringPointResult[];
-  [POINTS]: EyringPointResult[] | null;
+  [POINTS]?: EyringPointResult[];
 }
 /**
  * The prototype of every fit: its per-run results, built on first read (or set). One accessor for
@@ -876,13 +876,13 @@ const lazyPoints = {
 };
 
 /**
- * A fit from its fields and the builder of its per-run results. The fields stay one object literal
- * with the prototype set on it: copied onto a class instance (Object.assign), 34 fields turned the
- * fit into a dictionary-mode object, whose every property read is a hash lookup.
+ * A fit from its fields and the builder of its per-run results: the fields' own literal, given the
+ * prototype above. Copying 34 fields onto a class instance (Object.assign) made every fit a
+ * dictionary-mode object, whose every property read is a hash lookup.
  */
 function withLazyPoints(build: () => EyringPointResult[], fields: Omit<EyringFit, 'points'>): EyringFit {
-  const source: Omit<EyringFit, 'points'> & PointsSource = Object.assign(fields, { [BUILD_POINTS]: build, [POINTS]: null });
-  return Object.setPrototypeOf(source, lazyPoints) as EyringFit;
+  (fields as Omit<EyringFit, 'points'> & PointsSource)[BUILD_POINTS] = build;
+  return Object.setPrototypeOf(fields, lazyPoints) as EyringFit;
 }
 
 function rangeOf(values: readonly number[] | undefined): { min: number; max: number } | null {
