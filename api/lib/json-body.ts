@@ -7,7 +7,7 @@ import type { Response } from 'express';
  * outside Latin-1 (ΔΔG‡, −, ≥ in notes and captions): the number-heavy members (predictions,
  * residuals, curves) would then take twice the memory and the slow path of UTF-8 encoding, and a
  * 70 kB answer would become a 140 kB string in V8's large-object space. Each top-level member is
- * therefore serialised on its own and stays a one-byte string where it can; the pieces are written
+ * therefore serialised on its own and stays a one-byte string where it can (see jsonPieces); the pieces are written
  * to the socket in one corked write, encoded straight into it (no Buffer per piece, no copy into
  * one), and the bytes are exactly those of `JSON.stringify(body)`.
  *
@@ -32,21 +32,36 @@ export function sendComputed(res: Response, body: unknown): void {
   res.uncork();
 }
 
-/** `JSON.stringify(body)` as consecutive pieces: one per top-level member of a plain object. */
+/** Member texts at least this long go out as pieces of their own; shorter ones join the text around them. */
+const OWN_PIECE_FROM = 512;
+
+/**
+ * `JSON.stringify(body)` as consecutive pieces: each long member's text on its own, exactly as
+ * JSON.stringify returned it, and the keys, punctuation and short members between them joined.
+ * A long text is never concatenated: `"key":` + 40 kB is a rope that writing it flattens into a
+ * second 40 kB copy.
+ */
 export function jsonPieces(body: unknown): string[] {
   if (body === null || typeof body !== 'object' || Array.isArray(body) || typeof (body as { toJSON?: unknown }).toJSON === 'function') {
     return [JSON.stringify(body) ?? 'null'];
   }
   const record = body as Record<string, unknown>;
   const pieces: string[] = [];
-  let open = '{';
+  let frame = '{';
+  let first = true;
   for (const key of Object.keys(record)) {
     const text = JSON.stringify(record[key]);
     // Members JSON leaves out (undefined, functions, symbols) are left out here too.
     if (text === undefined) continue;
-    pieces.push(`${open}${JSON.stringify(key)}:${text}`);
-    open = ',';
+    frame += `${first ? '' : ','}${JSON.stringify(key)}:`;
+    first = false;
+    if (text.length < OWN_PIECE_FROM) {
+      frame += text;
+    } else {
+      pieces.push(frame, text);
+      frame = '';
+    }
   }
-  pieces.push(open === '{' ? '{}' : '}');
+  pieces.push(`${frame}}`);
   return pieces;
 }

@@ -17,10 +17,21 @@ const answer = {
 };
 
 describe('jsonPieces', () => {
-  it('when an answer mixes numbers and text outside Latin-1, then its pieces join to JSON.stringify, one per member', () => {
+  it('when an answer mixes numbers and text outside Latin-1, then its pieces join to JSON.stringify, the long member apart', () => {
     same(answer);
-    // The number-heavy member is a piece of its own (a one-byte string), apart from the text around it.
-    expect(jsonPieces(answer)).toHaveLength(4);
+    // The number-heavy member is a piece of its own, JSON.stringify's own string (one byte per
+    // character), never joined to the text around it; the short members and the keys share the rest.
+    const pieces = jsonPieces(answer);
+    expect(pieces).toEqual([
+      '{"caution":"Verify experimentally — ΔΔG‡ ≥ 0; T − 20 °C","predictions":',
+      JSON.stringify(answer.predictions),
+      ',"note":"χ²/dof = 1.2 ± 0.1"}',
+    ]);
+  });
+
+  it('when every member is short, then the answer is one piece', () => {
+    same({ a: 1, b: 'two', c: [3] });
+    expect(jsonPieces({ a: 1, b: 'two', c: [3] })).toHaveLength(1);
   });
 
   it('when members are undefined, functions or nested toJSON, then they are left out or converted as JSON does', () => {
