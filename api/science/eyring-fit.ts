@@ -8,7 +8,7 @@
  */
 import { checkStatedPrecision, sigmaLnRatioAt, type AssayPrecision, type PrecisionCheck } from './assay-precision';
 import { fitCensoredLine, type CensorKind } from './censored';
-import { float64Columns } from './columns';
+import { float64Columns, int32Column } from './columns';
 import { GAS_CONSTANT_J_PER_MOL_K as R } from './constants';
 import { DomainError, requireFinite, requireTemperatureK, type Warning } from './errors';
 import { fiellerInterval } from './fieller';
@@ -349,6 +349,29 @@ export function prepareMeasurements(
   return measurements.map((_, index) => preparedAt(columns, measurements, index));
 }
 
+/**
+ * The runs a fit uses (neither excluded nor censored), as columns in request order: each one's
+ * position in the request, temperature and ln r. For the two-branch check, which needs no object per run.
+ */
+export function fittedRuns(
+  measurements: readonly EyringMeasurement[],
+  censorEePercent = DEFAULT_CENSOR_EE_PERCENT,
+): { index: Int32Array; temperatureK: Float64Array; y: Float64Array } {
+  const columns = prepareColumns(measurements, censorEePercent);
+  let n = 0;
+  for (let i = 0; i < measurements.length; i++) if (columns.status[i] === FITTED) n++;
+  const index = int32Column(n);
+  const [temperatureK, y] = float64Columns(n, 2);
+  for (let i = 0, k = 0; i < measurements.length; i++) {
+    if (columns.status[i] !== FITTED) continue;
+    index[k] = i;
+    temperatureK[k] = measurements[i]!.temperatureK;
+    y[k] = columns.y[i]!;
+    k++;
+  }
+  return { index, temperatureK, y };
+}
+
 /** Resolve the weighting rule for the points to be fitted; returns σ per point or undefined (OLS). */
 export function resolveWeighting(
   fitted: readonly PreparedMeasurement[],
@@ -365,7 +388,7 @@ export function resolveWeighting(
 }
 
 /** resolveWeighting over `count` runs read through accessors (σ of the k-th, and its index in the request). */
-function resolveWeightingOf(
+export function resolveWeightingOf(
   count: number,
   sigmaOf: (k: number) => number | undefined,
   indexOf: (k: number) => number,
@@ -520,8 +543,8 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
     if (columns.status[i] === FITTED) nFittedRuns++;
     else if (columns.status[i] === CENSORED) nCensoredRuns++;
   }
-  const fitted = new Int32Array(nFittedRuns);
-  const censored = new Int32Array(nCensoredRuns);
+  const fitted = int32Column(nFittedRuns);
+  const censored = int32Column(nCensoredRuns);
   for (let i = 0, f = 0, c = 0; i < total; i++) {
     if (columns.status[i] === FITTED) fitted[f++] = i;
     else if (columns.status[i] === CENSORED) censored[c++] = i;
@@ -679,7 +702,7 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
   // time and the garbage collector.
   const materialisePoints = (): EyringPointResult[] => {
     // Position of each run in the fitted arrays (−1: not fitted); a typed array, not a Map, for 10⁶ runs.
-    const fittedIndex = new Int32Array(total).fill(-1);
+    const fittedIndex = int32Column(total).fill(-1);
     for (let i = 0; i < fitted.length; i++) fittedIndex[fitted[i]!] = i;
     return measurements.map((_, index) => {
       const p = preparedAt(columns, measurements, index);
