@@ -28,15 +28,9 @@
  * Engl. 1991, 30, 477); otherwise a "change of slope". A curved plot can also mean a change of the
  * selectivity-determining step (Gypser & Norrby, J. Chem. Soc., Perkin Trans. 2, 1997).
  */
-import { float64Columns } from './columns';
+import { float64Columns, int32Column } from './columns';
 import { GAS_CONSTANT_J_PER_MOL_K as R } from './constants';
-import {
-  DEFAULT_CENSOR_EE_PERCENT,
-  prepareMeasurements,
-  resolveWeighting,
-  type EyringMeasurement,
-  type EyringWeighting,
-} from './eyring-fit';
+import { DEFAULT_CENSOR_EE_PERCENT, fittedRuns, resolveWeightingOf, type EyringMeasurement, type EyringWeighting } from './eyring-fit';
 import type { Warning } from './errors';
 import { studentTQuantile } from './regression';
 import { fUpperTail } from './tails';
@@ -440,10 +434,41 @@ function profile(design: Design, y: ArrayLike<number>, sums: Sums = newSums(desi
   return Number.isFinite(bestSs) ? { psi: bestPsi, ss: bestSs } : null;
 }
 
+/**
+ * Run indices ordered warmest first, equal temperatures in their given order (a stable sort). A
+ * screen listed coldest or warmest first, as most are, is ordered without sorting.
+ */
+function warmestFirst(temperatureK: Float64Array): Int32Array {
+  const n = temperatureK.length;
+  const order = int32Column(n);
+  let rising = true;
+  let falling = true;
+  for (let i = 1; i < n; i++) {
+    if (temperatureK[i]! > temperatureK[i - 1]!) falling = false;
+    else if (temperatureK[i]! < temperatureK[i - 1]!) rising = false;
+  }
+  if (falling) {
+    for (let i = 0; i < n; i++) order[i] = i;
+  } else if (rising) {
+    // Blocks of equal temperature from the last to the first, each in its given order.
+    let k = 0;
+    for (let end = n; end > 0;) {
+      let start = end - 1;
+      while (start > 0 && temperatureK[start - 1] === temperatureK[end - 1]) start--;
+      for (let i = start; i < end; i++) order[k++] = i;
+      end = start;
+    }
+  } else {
+    const sorted = Array.from({ length: n }, (_, i) => i).sort((p, q) => temperatureK[q]! - temperatureK[p]!);
+    for (let i = 0; i < n; i++) order[i] = sorted[i]!;
+  }
+  return order;
+}
+
 function groupRuns(temperatureK: Float64Array, y: Float64Array, w: Float64Array): Design | null {
   const n = temperatureK.length;
-  // Stable sort of run indices, warmest first; runs within 1e-6 K of a group's first run join it.
-  const order = Array.from({ length: n }, (_, i) => i).sort((p, q) => temperatureK[q]! - temperatureK[p]!);
+  // Runs within 1e-6 K of a group's first run (warmest first) join it.
+  const order = warmestFirst(temperatureK);
   const starts: number[] = [];
   for (let k = 0; k < n; k++) {
     if (k === 0 || !(Math.abs(temperatureK[order[starts[starts.length - 1]!]!]! - temperatureK[order[k]!]!) <= 1e-6)) starts.push(k);
@@ -534,7 +559,11 @@ function hashSignature(sig: Float64Array): number {
   return h >>> 0;
 }
 
-const sameSignature = (a: Float64Array, b: Float64Array) => a.length === b.length && a.every((v, i) => v === b[i]);
+function sameSignature(a: Float64Array, b: Float64Array): boolean {
+  if (a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
+  return true;
+}
 
 /**
  * sup-F statistics simulated under "one straight line" for this design: group means
@@ -606,6 +635,16 @@ function lackOfFit(design: Design, ssLine: number): LackOfFitTest | null {
 
 // ── The fit ────────────────────────────────────────────────────────────────────────────────
 
+/** Distinct temperatures, rounded to the microkelvin. */
+function countDistinctMicrokelvin(temperatureK: Float64Array): number {
+  const [rounded] = float64Columns(temperatureK.length, 1);
+  for (let i = 0; i < temperatureK.length; i++) rounded[i] = Math.round(temperatureK[i]! * 1e6);
+  rounded.sort();
+  let count = 0;
+  for (let i = 0; i < rounded.length; i++) if (i === 0 || rounded[i] !== rounded[i - 1]) count++;
+  return count;
+}
+
 const notEnoughReason = (n: number, m: number) =>
   `Not enough data for a break check: each side of a break needs ${MIN_RUNS_PER_BRANCH} or more fitted runs at ${MIN_TEMPERATURES_PER_BRANCH} or more distinct temperatures (this screen has ${n} fitted run${n === 1 ? '' : 's'} at ${m} temperature${m === 1 ? '' : 's'}).`;
 
@@ -618,35 +657,36 @@ export function checkCurvature(measurements: readonly EyringMeasurement[], optio
   const requestedResamples = options.resamples ?? BREAK_TEST_RESAMPLES;
   const seed = options.seed ?? BREAK_TEST_SEED;
   const level = options.confidenceLevel ?? 0.95;
-  const prepared = prepareMeasurements(measurements, options.censorEePercent ?? DEFAULT_CENSOR_EE_PERCENT);
-  const usable = prepared.filter((p) => p.status === 'fitted');
+  const runs = fittedRuns(measurements, options.censorEePercent ?? DEFAULT_CENSOR_EE_PERCENT);
+  const n = runs.index.length;
   const warnings: Warning[] = [];
-  const distinct = new Set(usable.map((p) => Math.round(p.measurement.temperatureK * 1e6))).size;
-  if (usable.length < 2 * MIN_RUNS_PER_BRANCH || distinct < 2 * MIN_TEMPERATURES_PER_BRANCH) {
+  const distinct = countDistinctMicrokelvin(runs.temperatureK);
+  if (n < 2 * MIN_RUNS_PER_BRANCH || distinct < 2 * MIN_TEMPERATURES_PER_BRANCH) {
     return {
       checked: false,
-      n: usable.length,
+      n,
       distinctTemperatures: distinct,
       lackOfFit: null,
-      reason: notEnoughReason(usable.length, distinct),
+      reason: notEnoughReason(n, distinct),
       warnings,
     };
   }
-  const { mode, sigma } = resolveWeighting(usable, options.weighting ?? 'auto', warnings);
+  const { mode, sigma } = resolveWeightingOf(
+    n,
+    (k) => measurements[runs.index[k]!]!.sigmaLnR,
+    (k) => runs.index[k]!,
+    options.weighting ?? 'auto',
+    warnings,
+  );
   if (mode === 'absolute') {
     warnings.push({
       code: 'absolute-sigma-as-relative',
       message: 'The break check treats σ as relative (scale estimated from the scatter), so the test does not depend on it.',
     });
   }
-  const [runT, runY, runW] = float64Columns(usable.length, 3);
-  for (let i = 0; i < usable.length; i++) {
-    runT[i] = usable[i]!.measurement.temperatureK;
-    runY[i] = usable[i]!.y;
-    runW[i] = sigma ? 1 / sigma[i]! ** 2 : 1;
-  }
-  const design = groupRuns(runT, runY, runW);
-  const n = usable.length;
+  const [runW] = float64Columns(n, 1);
+  for (let i = 0; i < n; i++) runW[i] = sigma ? 1 / sigma[i]! ** 2 : 1;
+  const design = groupRuns(runs.temperatureK, runs.y, runW);
   const m = design?.groups.length ?? 0;
   if (!design || !design.validSplits.some(Boolean)) {
     return { checked: false, n, distinctTemperatures: m, lackOfFit: null, reason: notEnoughReason(n, m), warnings };
@@ -672,18 +712,39 @@ export function checkCurvature(measurements: readonly EyringMeasurement[], optio
   const psi = best.psi;
   const dof = n - 4;
   const s2 = ssSeg / dof;
-  // Accumulated in flat typed arrays (no array per group), each entry in the same order as before.
-  const acc = new Float64Array(16);
-  const row = new Float64Array(4);
+  // JᵀWJ, symmetric: its upper triangle accumulated in scalars (no array per group), then mirrored.
+  let s00 = 0;
+  let s01 = 0;
+  let s02 = 0;
+  let s03 = 0;
+  let s11 = 0;
+  let s12 = 0;
+  let s13 = 0;
+  let s22 = 0;
+  let s23 = 0;
+  let s33 = 0;
   for (let g = 0; g < m; g++) {
-    row[0] = 1;
-    row[1] = u[g]!;
-    row[2] = Math.max(0, u[g]! - psi);
-    row[3] = u[g]! > psi ? -delta : 0;
+    const ug = u[g]!;
     const wg = w[g]!;
-    for (let r = 0; r < 4; r++) for (let c = 0; c < 4; c++) acc[r * 4 + c] += wg * row[r]! * row[c]!;
+    const hinge = Math.max(0, ug - psi);
+    const dPsi = ug > psi ? -delta : 0;
+    s00 += wg;
+    s01 += wg * ug;
+    s02 += wg * hinge;
+    s03 += wg * dPsi;
+    s11 += wg * ug * ug;
+    s12 += wg * ug * hinge;
+    s13 += wg * ug * dPsi;
+    s22 += wg * hinge * hinge;
+    s23 += wg * hinge * dPsi;
+    s33 += wg * dPsi * dPsi;
   }
-  const jtj = [0, 1, 2, 3].map((r) => [acc[r * 4]!, acc[r * 4 + 1]!, acc[r * 4 + 2]!, acc[r * 4 + 3]!]);
+  const jtj = [
+    [s00, s01, s02, s03],
+    [s01, s11, s12, s13],
+    [s02, s12, s22, s23],
+    [s03, s13, s23, s33],
+  ];
   const inv = invert(jtj);
   const covariance = inv ? inv.map((row) => row.map((v) => v * s2)) : null;
   const sumW = w.reduce((s, v) => s + v, 0);

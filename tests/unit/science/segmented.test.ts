@@ -138,6 +138,21 @@ describe('checkCurvature wording and claims', () => {
     expect(b.pValue).toBe(a.pValue);
     expect(b.breakTemperatureK).toBeCloseTo(a.breakTemperatureK, 9);
   });
+
+  it('when the runs are listed coldest first, warmest first or mixed, with replicates, then every result is the same', () => {
+    // SET_B is coldest first with duplicates; the check orders runs itself (without sorting when they come in order).
+    const mixed = [5, 0, 7, 2, 1, 6, 3, 4].map((i) => SET_B[i]!);
+    const coldFirst = fitted(checkCurvature(SET_B));
+    for (const order of [[...SET_B].reverse(), mixed]) {
+      const r = fitted(checkCurvature(order));
+      expect(r.pValue).toBe(coldFirst.pValue);
+      expect(r.breakTemperatureK).toBeCloseTo(coldFirst.breakTemperatureK, 9);
+      expect(r.ssSegmented).toBeCloseTo(coldFirst.ssSegmented, 12);
+      expect(r.lackOfFit!.fStatistic).toBeCloseTo(coldFirst.lackOfFit!.fStatistic, 9);
+      expect(r.low.n).toBe(coldFirst.low.n);
+      expect(r.distinctTemperatures).toBe(4);
+    }
+  });
 });
 
 describe('the break search is exact least squares', () => {
