@@ -12,6 +12,7 @@ import {
   sigmaLnRatio,
   type EyringFit,
   type EyringMeasurement,
+  type EyringPointResult,
   type SelectivityInput,
   type SelectivityInterval,
 } from '../../science';
@@ -23,6 +24,14 @@ import { curvatureOut, modelPrediction } from './curvature';
 import { calK, ddGOut, finiteConversion, kJ, kcal, pair, toK, withRequestPaths, zeroSelectivity } from './request-units';
 import { kelvinLookingWarning } from './temperatures';
 import type { FitRequest, FitResponse } from './schemas';
+
+/** A run's flags in the answer: the diagnostics' own, then its bound and its exclusion (most runs have neither). */
+function residualFlags(p: EyringPointResult): string[] {
+  const flags: string[] = p.flags.slice();
+  if (p.censoredBound) flags.push(`${p.censoredBound}-bound${p.boundConsistent === false ? '-disagrees' : ''}`);
+  if (p.exclusionReason) flags.push(`excluded: ${p.exclusionReason}`);
+  return flags;
+}
 
 /** Engine argument paths of a fit → request paths of POST /fit. */
 export function fitRequestPath(field: string): string | null {
@@ -183,11 +192,7 @@ export function analyseScreen(measurements: EyringMeasurement[], options: FitOpt
       leverage: p.leverage,
       cooksDistance: p.cooksDistance,
       status: p.status,
-      flags: [
-        ...p.flags,
-        ...(p.censoredBound ? [`${p.censoredBound}-bound${p.boundConsistent === false ? '-disagrees' : ''}`] : []),
-        ...(p.exclusionReason ? [`excluded: ${p.exclusionReason}`] : []),
-      ],
+      flags: residualFlags(p),
     })),
     zeroSelectivity: zeroSelectivity(fit.zeroSelectivityTemperatureK, fit.zeroSelectivityFar, fit.zeroSelectivityInterval),
     estimator: fit.estimator,
@@ -273,7 +278,14 @@ export function runFit(req: FitRequest): FitResponse {
   const result = withRequestPaths(fitRequestPath, () =>
     analyseScreen(
       measurements,
-      { ...req, newRun: precision, newRunOrigin: origin, ...(req.quantitationLimit ? { quantitationLimit: req.quantitationLimit } : {}) },
+      {
+        weighting: req.weighting,
+        uncertaintyScale: req.uncertaintyScale,
+        confidence: req.confidence,
+        newRun: precision,
+        newRunOrigin: origin,
+        ...(req.quantitationLimit ? { quantitationLimit: req.quantitationLimit } : {}),
+      },
       predictK,
     ),
   );
