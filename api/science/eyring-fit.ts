@@ -669,11 +669,11 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
   const HIGH_LEVERAGE = 2;
   const INFLUENTIAL = 4;
   const EXCUSED_BY_ASSAY = 8;
-  const diagnose = (k: number, sigmaLnR: number | undefined): number => {
+  const diagnose = (k: number, sigmaLnR: number | undefined): number =>
+    diagnoseWith(k, sigmaLnR, line.studentizedExternalAt(k), line.cooksDistanceAt(k));
+  const diagnoseWith = (k: number, sigmaLnR: number | undefined, ext: number | null, cook: number | null): number => {
     if (!canFlag) return 0;
     let bits = 0;
-    const ext = line.studentizedExternalAt(k);
-    const cook = line.cooksDistanceAt(k);
     if (ext !== null && Math.abs(ext) > FLAG_RULES.outlierStudentized) {
       const explainedByAssay = sigmaLnR !== undefined && Math.abs(line.residuals[k]!) / sigmaLnR <= FLAG_RULES.assaySigmas;
       bits |= explainedByAssay ? EXCUSED_BY_ASSAY : OUTLIER;
@@ -682,8 +682,6 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
     if (cook !== null && cook > FLAG_RULES.cooksDistance) bits |= INFLUENTIAL;
     return bits;
   };
-  const boundConsistentOf = (p: PreparedMeasurement, lineY: number): boolean | null =>
-    p.censoredBound === 'lower' ? lineY >= p.censorPoint! : p.censoredBound === 'upper' ? lineY <= p.censorPoint! : null;
   let flagged = 0;
   let disagreeing = 0;
   let withinAssay = 0;
@@ -694,7 +692,7 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
   }
   for (const i of censored) {
     const lineY = intercept + slope * columns.x[i]!;
-    // Same test as boundConsistentOf below: a lower bound agrees when the line reaches it, an upper one when it stays under.
+    // Same test as each point's boundConsistent below: a lower bound agrees when the line reaches it, an upper one when it stays under.
     if (columns.bound[i] === 1 ? !(lineY >= columns.censorPoint[i]!) : !(lineY <= columns.censorPoint[i]!)) disagreeing++;
   }
 
@@ -704,47 +702,61 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
     // Position of each run in the fitted arrays (−1: not fitted); a typed array, not a Map, for 10⁶ runs.
     const fittedIndex = int32Column(total).fill(-1);
     for (let i = 0; i < fitted.length; i++) fittedIndex[fitted[i]!] = i;
-    return measurements.map((_, index) => {
-      const p = preparedAt(columns, measurements, index);
-      const m = p.measurement;
-      const lineY = intercept + slope * p.x;
-      const pos = fittedIndex[p.index]!;
-      const k = pos < 0 ? undefined : pos;
+    // Read from the columns, each diagnostic computed once per run (no intermediate object per run).
+    return measurements.map((m, index) => {
+      const x = columns.x[index]!;
+      const y = columns.y[index]!;
+      const bound = columns.bound[index]!;
+      const censorPoint = bound === 0 ? null : columns.censorPoint[index]!;
+      const status = STATUS_NAMES[columns.status[index]!]!;
+      const lineY = intercept + slope * x;
+      const k = fittedIndex[index]!;
       const flags: PointFlag[] = [];
       let reason: string | null = null;
       let inAssaySigmas: number | null = null;
-      if (k !== undefined) {
-        const bits = diagnose(k, m.sigmaLnR);
+      let residual: number | null = null;
+      let leverage: number | null = null;
+      let internal: number | null = null;
+      let ext: number | null = null;
+      let cook: number | null = null;
+      if (k >= 0) {
+        residual = line.residuals[k]!;
+        leverage = line.leverages[k]!;
+        internal = line.studentizedInternalAt(k);
+        ext = line.studentizedExternalAt(k);
+        cook = line.cooksDistanceAt(k);
+        const bits = diagnoseWith(k, m.sigmaLnR, ext, cook);
         if (bits & OUTLIER) flags.push('outlier');
         if (bits & HIGH_LEVERAGE) flags.push('high-leverage');
         if (bits & INFLUENTIAL) flags.push('influential');
-        inAssaySigmas = m.sigmaLnR === undefined ? null : Math.abs(line.residuals[k]!) / m.sigmaLnR;
-        reason = flagReason(flags, line.studentizedExternalAt(k), line.leverages[k]!, leverageLimit, line.cooksDistanceAt(k));
+        inAssaySigmas = m.sigmaLnR === undefined ? null : Math.abs(residual) / m.sigmaLnR;
+        reason = flagReason(flags, ext, leverage, leverageLimit, cook);
       }
       return {
-        index: p.index,
+        index,
         label: m.label ?? null,
         temperatureK: m.temperatureK,
-        inverseTemperaturePerK: p.x,
+        inverseTemperaturePerK: x,
         ratio: m.ratio,
-        lnRatio: p.y,
-        eePercent: eeFromLn(p.y),
+        lnRatio: y,
+        eePercent: eeFromLn(y),
         sigmaLnR: m.sigmaLnR ?? null,
-        status: p.status,
-        exclusionReason: p.status === 'excluded' ? (m.exclusionReason ?? null) : null,
+        status,
+        exclusionReason: status === 'excluded' ? (m.exclusionReason ?? null) : null,
         lineLnRatio: lineY,
-        residual: k === undefined ? null : line.residuals[k]!,
-        leverage: k === undefined ? null : line.leverages[k]!,
-        studentizedInternal: k === undefined ? null : line.studentizedInternalAt(k),
-        studentizedExternal: k === undefined ? null : line.studentizedExternalAt(k),
-        cooksDistance: k === undefined ? null : line.cooksDistanceAt(k),
+        residual,
+        leverage,
+        studentizedInternal: internal,
+        studentizedExternal: ext,
+        cooksDistance: cook,
         flags,
         flagReason: reason,
         residualInAssaySigmas: inAssaySigmas,
         withinAssayPrecision: inAssaySigmas === null ? null : inAssaySigmas <= FLAG_RULES.assaySigmas,
-        censoredBound: p.censoredBound,
-        censorLnRatio: p.censorPoint,
-        boundConsistent: boundConsistentOf(p, lineY),
+        censoredBound: bound === 1 ? 'lower' : bound === -1 ? 'upper' : null,
+        censorLnRatio: censorPoint,
+        // A lower bound agrees when the line reaches it, an upper one when the line stays under it.
+        boundConsistent: bound === 1 ? lineY >= censorPoint! : bound === -1 ? lineY <= censorPoint! : null,
       };
     });
   };
