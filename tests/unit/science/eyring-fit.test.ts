@@ -69,6 +69,29 @@ describe('fitEyring', () => {
     expect(codes(fitEyring(screen(), { predictAtK: [330] }).warnings)).toContain('extrapolation');
   });
 
+  it('when predictions span racemic to saturated selectivity, then every ee and %A equals its direct formula to 1e-14', () => {
+    // ln r from about −0.3 (nearly racemic, where ee is taken from tanh itself) through 0 to beyond
+    // 700 (r overflows), on either side of zero: the selectivity inverts at T₀ = ΔΔH‡/ΔΔS‡.
+    const inverting = [230, 250, 270, 290, 310].map((t) => ({ temperatureK: t, ratio: Math.exp(2000 / t - 8 + 0.01 * Math.sin(t)) }));
+    const fit = fitEyring(inverting);
+    const temperatures = [2.5, 50, 150, 200, 240, 245, 250, 255, 260, 300, 400, 1000, 1e5];
+    const close = (got: number, want: number) => expect(Math.abs(got - want)).toBeLessThanOrEqual(1e-14 * Math.max(Math.abs(want), 1e-300));
+    for (const p of predictEyring(fit, temperatures)) {
+      close(p.eePercent, 100 * Math.tanh(p.lnRatio / 2)); // [C] api/science/README.md §3 mapping
+      close(p.percentA, 100 / (1 + Math.exp(-p.lnRatio))); // [C]
+      for (const iv of [p.meanInterval!, p.predictionInterval!]) {
+        for (const end of [0, 1] as const) {
+          close(iv.eePercent[end], 100 * Math.tanh(iv.lnRatio[end] / 2));
+          close(iv.percentA[end], 100 / (1 + Math.exp(-iv.lnRatio[end])));
+        }
+      }
+    }
+    const lnRatios = predictEyring(fit, temperatures).map((p) => p.lnRatio);
+    expect(Math.min(...lnRatios.map(Math.abs))).toBeLessThan(0.5);
+    expect(Math.max(...lnRatios)).toBeGreaterThan(710);
+    expect(Math.min(...lnRatios)).toBeLessThan(-1);
+  });
+
   it('when only two points are given, then the line is exact, no intervals are given and a warning says so', () => {
     const fit = fitEyring(screen(false).slice(0, 2));
     expect(fit.ddHJPerMol).toBeCloseTo(DDH, 5); // [C]
