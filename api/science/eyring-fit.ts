@@ -236,7 +236,7 @@ function mapInterval(lo: number, hi: number): SelectivityInterval {
   };
 }
 
-/** Validated and classified measurements, shared with the two-branch fit. */
+/** A validated and classified run as an object: what the censored fit reads (the rest of the engine reads columns). */
 export interface PreparedMeasurement {
   index: number;
   measurement: EyringMeasurement;
@@ -272,6 +272,10 @@ interface PreparedColumns {
   censorPoint: Float64Array;
 }
 
+/**
+ * Validate measurements and classify each as fitted, excluded or censored (|ee| ≥ limit).
+ * `censorLnRatio`, when given, is the limit as |ln r| and takes precedence over `censorEePercent`.
+ */
 function prepareColumns(measurements: readonly EyringMeasurement[], censorEePercent: number, censorLnRatio?: number): PreparedColumns {
   if (!Array.isArray(measurements)) throw new DomainError('not-a-list', 'measurements must be a list', 'measurements');
   let lnLimit: number;
@@ -348,19 +352,6 @@ function preparedAt(columns: PreparedColumns, measurements: readonly EyringMeasu
 }
 
 /**
- * Validate measurements and split them into fitted, excluded and censored (|ee| ≥ limit).
- * `censorLnRatio`, when given, is the limit as |ln r| and takes precedence over `censorEePercent`.
- */
-export function prepareMeasurements(
-  measurements: readonly EyringMeasurement[],
-  censorEePercent = DEFAULT_CENSOR_EE_PERCENT,
-  censorLnRatio?: number,
-): PreparedMeasurement[] {
-  const columns = prepareColumns(measurements, censorEePercent, censorLnRatio);
-  return measurements.map((_, index) => preparedAt(columns, measurements, index));
-}
-
-/**
  * The runs a fit uses (neither excluded nor censored), as columns in request order: each one's
  * position in the request, temperature and ln r. For the two-branch check, which needs no object per run.
  */
@@ -384,7 +375,7 @@ export function fittedRuns(
 }
 
 /** Resolve the weighting rule for the points to be fitted; returns σ per point or undefined (OLS). */
-export function resolveWeighting(
+function resolveWeighting(
   fitted: readonly PreparedMeasurement[],
   weighting: EyringWeighting,
   warnings: Warning[],
