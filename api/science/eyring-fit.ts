@@ -13,6 +13,7 @@ import { GAS_CONSTANT_J_PER_MOL_K as R } from './constants';
 import { DomainError, requireFinite, requireTemperatureK, type Warning } from './errors';
 import { fiellerInterval } from './fieller';
 import { FLAG_RULES, highLeverageLimit } from './flag-rules';
+import { eeFromLnRatioAndRatio, percentAFromLnRatioAndRatio } from './quantities';
 import { zeroSelectivityTemperatureK } from './forecast';
 import { lineModelFromLeastSquares, newRunVariance, type LineModel } from './line-model';
 import { fitLine, normalQuantile, requireConfidenceLevel, studentTQuantile, type LineFit, type SigmaMode } from './regression';
@@ -215,24 +216,14 @@ const ratioFromLn = (y: number) => Math.exp(y);
 /** |ln r| at |ee| = limit %: ln((1 + e)/(1 − e)); 99.8 % ↔ ln 999. */
 export const lnRatioLimitFromEe = (eePercent: number) => Math.log1p(eePercent / 100) - Math.log1p(-eePercent / 100);
 
-/**
- * ee and %A from ln r and r = e^y together, where r is computed anyway: one exponential serves all
- * three measures (a fit's predictions map about 300 values, and tanh and exp were a third of their
- * time). ee = 100·(r − 1)/(r + 1) loses digits to cancellation as r → 1, so below |y| = 0.5 it is
- * 100·tanh(y/2) itself. Both agree with the direct formulas, 100·tanh(y/2) and 100/(1 + e^(−y)), to
- * within 3 units in the last place (checked over −50 ≤ y ≤ 50), and saturate at ±100 and 0/100 alike.
- */
-const eeFromLnAndRatio = (y: number, r: number) => (Math.abs(y) < 0.5 ? eeFromLn(y) : r === Infinity ? 100 : (100 * (r - 1)) / (r + 1));
-const percentAFromLnAndRatio = (y: number, r: number) => (y >= 0 ? 100 / (1 + 1 / r) : (100 * r) / (1 + r));
-
 function mapInterval(lo: number, hi: number): SelectivityInterval {
   const rLo = ratioFromLn(lo);
   const rHi = ratioFromLn(hi);
   return {
     lnRatio: [lo, hi],
     ratio: [rLo, rHi],
-    eePercent: [eeFromLnAndRatio(lo, rLo), eeFromLnAndRatio(hi, rHi)],
-    percentA: [percentAFromLnAndRatio(lo, rLo), percentAFromLnAndRatio(hi, rHi)],
+    eePercent: [eeFromLnRatioAndRatio(lo, rLo), eeFromLnRatioAndRatio(hi, rHi)],
+    percentA: [percentAFromLnRatioAndRatio(lo, rLo), percentAFromLnRatioAndRatio(hi, rHi)],
   };
 }
 
@@ -995,8 +986,8 @@ export function predictEyring(fit: EyringFit, temperaturesK: readonly number[], 
       ratio,
       outOfRange: !(ratio > 0 && Number.isFinite(ratio)),
       newRunSigmaLnR: assaySigma !== null && Number.isFinite(assaySigma) ? assaySigma : null,
-      eePercent: eeFromLnAndRatio(y, ratio),
-      percentA: percentAFromLnAndRatio(y, ratio),
+      eePercent: eeFromLnRatioAndRatio(y, ratio),
+      percentA: percentAFromLnRatioAndRatio(y, ratio),
       ddGJPerMol: rt * y,
       ddGSeJPerMol: seMean === null ? null : rt * seMean,
       extrapolated: t < min - 1e-9 || t > max + 1e-9,

@@ -4,6 +4,7 @@
  */
 import { GAS_CONSTANT_J_PER_MOL_K as R } from './constants';
 import { DomainError, requireFinite, requireTemperatureK } from './errors';
+import { eeFromLnRatioAndRatio, percentAFromLnRatioAndRatio } from './quantities';
 import { parseSelectivity, ratioFromDdG, SIGN_CONVENTION, type SelectivityInput } from './selectivity';
 import { describeTemperatureK, kelvinToCelsius, temperatureToK, type TemperatureUnit } from './units';
 
@@ -48,22 +49,27 @@ export function zeroSelectivityTemperatureK(ddHJPerMol: number, ddSJPerMolK: num
 
 /** One forecast point from ΔΔH‡, ΔΔS‡ at T: ΔΔG‡ = ΔΔH‡ − TΔΔS‡, r = e^(ΔΔG‡/RT), ee = tanh(ΔΔG‡/2RT), %A = 100/(1 + e^(−ΔΔG‡/RT)). */
 export function forecastPoint(ddHJPerMol: number, ddSJPerMolK: number, temperatureK: number, field = 'temperatureK'): ForecastPoint {
-  requireTemperatureK(temperatureK, field);
+  return pointAt(ddHJPerMol, ddSJPerMolK, temperatureK, () => field);
+}
+
+/** forecastPoint with the field's name built only for an error (a name per temperature was a share of a forecast's time). */
+function pointAt(ddHJPerMol: number, ddSJPerMolK: number, temperatureK: number, fieldOf: () => string): ForecastPoint {
+  if (!(temperatureK > 0 && Number.isFinite(temperatureK))) requireTemperatureK(temperatureK, fieldOf());
   const ddG = ddHJPerMol - temperatureK * ddSJPerMolK;
   const y = ddG / (R * temperatureK);
   let ratio: number;
   try {
     ratio = ratioFromDdG(ddG, temperatureK);
   } catch (e) {
-    if (e instanceof DomainError) throw new DomainError(e.code, `${e.message} at ${temperatureK} K`, field);
+    if (e instanceof DomainError) throw new DomainError(e.code, `${e.message} at ${temperatureK} K`, fieldOf());
     throw e;
   }
   return {
     kelvin: temperatureK,
     celsius: kelvinToCelsius(temperatureK),
     ratio,
-    eePercent: 100 * Math.tanh(y / 2),
-    percentA: 100 / (1 + Math.exp(-y)),
+    eePercent: eeFromLnRatioAndRatio(y, ratio),
+    percentA: percentAFromLnRatioAndRatio(y, ratio),
     ddGJPerMol: ddG,
   };
 }
@@ -124,7 +130,7 @@ export function forecastSelectivity(basis: ForecastBasis, temperaturesK: readonl
   if (temperaturesK.length > MAX_TEMPERATURE_COUNT) {
     throw new DomainError('count-out-of-range', `at most ${MAX_TEMPERATURE_COUNT} temperatures per forecast`, 'temperaturesK');
   }
-  const points = temperaturesK.map((t, i) => forecastPoint(ddH, ddS, t, `temperaturesK[${i}]`));
+  const points = temperaturesK.map((t, i) => pointAt(ddH, ddS, t, () => `temperaturesK[${i}]`));
   return { convention: SIGN_CONVENTION, ddHJPerMol: ddH, ddSJPerMolK: ddS, zeroSelectivityTemperatureK: t0, points, assumptions };
 }
 

@@ -199,6 +199,18 @@ export const eeFromLnRatio = (lnR: number): number => 100 * Math.tanh(lnR / 2);
 /** Percentage of A from ln r: 100/(1 + e^(−ln r)). */
 export const percentAFromLnRatio = (lnR: number): number => 100 / (1 + Math.exp(-lnR));
 
+/**
+ * ee and %A from ln r and r = e^(ln r) together, where r is computed anyway: one exponential serves
+ * all three measures instead of exp, exp and tanh (a fit's 60 predictions map about 300 values, a
+ * forecast 200, and those calls were a third of their time). ee = 100·(r − 1)/(r + 1) loses digits
+ * to cancellation as r → 1, so below |ln r| = 0.5 it is 100·tanh(ln r / 2) itself. Both agree with
+ * the direct formulas above to within 3 units in the last place (checked over −50 ≤ ln r ≤ 50) and
+ * saturate alike (±100; 0 and 100), also when r overflows to Infinity or underflows to 0.
+ */
+export const eeFromLnRatioAndRatio = (lnR: number, r: number): number =>
+  Math.abs(lnR) < 0.5 ? eeFromLnRatio(lnR) : r === Infinity ? 100 : (100 * (r - 1)) / (r + 1);
+export const percentAFromLnRatioAndRatio = (lnR: number, r: number): number => (lnR >= 0 ? 100 / (1 + 1 / r) : (100 * r) / (1 + r));
+
 // ── Display ───────────────────────────────────────────────────────────────────────────────────
 
 /**

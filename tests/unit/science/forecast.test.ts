@@ -48,6 +48,13 @@ describe('forecastSelectivity', () => {
       domainErrorOf(() => forecastSelectivity({ kind: 'observed', selectivity: { measure: 'ee', value: 100 }, temperatureK: 273 }, [300]))
         .code,
     ).toBe('ee-at-limit');
+    // r overflows at the second temperature only: the error names it, with the temperature in the message.
+    const overflow = domainErrorOf(() => forecastSelectivity({ kind: 'enthalpy-entropy', ddHJPerMol: 1e6, ddSJPerMolK: 0 }, [300, 0.1]));
+    expect(overflow).toEqual({ code: 'result-out-of-range', field: 'temperaturesK[1]' });
+    expect(() => forecastSelectivity({ kind: 'enthalpy-entropy', ddHJPerMol: 1e6, ddSJPerMolK: 0 }, [300, 0.1])).toThrow(/at 0\.1 K$/);
+    expect(domainErrorOf(() => forecastSelectivity({ kind: 'enthalpy-entropy', ddHJPerMol: 1, ddSJPerMolK: 0 }, [Number.NaN])).field).toBe(
+      'temperaturesK[0]',
+    );
   });
 });
 

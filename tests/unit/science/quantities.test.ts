@@ -3,6 +3,8 @@ import {
   ABSOLUTE_ZERO,
   DISPLAY_MEASURES,
   displayHeading,
+  eeFromLnRatio,
+  eeFromLnRatioAndRatio,
   formatMeasure,
   formatMeasureRange,
   formatSelectivity,
@@ -10,6 +12,8 @@ import {
   isStrictDecimal,
   lnRatioOf,
   parseRatioPair,
+  percentAFromLnRatio,
+  percentAFromLnRatioAndRatio,
   readDecimal,
   readSelectivityText,
   selectivityProblem,
@@ -145,5 +149,29 @@ describe('selectivity intervals in a display measure', () => {
     expect(formatMeasureRange('major', -Math.log(2), Math.log(3))).toBe('50.0 to 75.0 %');
     expect(displayHeading('major')).toBe('major diastereomer (%)');
     expect(displayHeading('dr')).toBe('dr');
+  });
+});
+
+describe('ee and %A from ln r with the ratio at hand', () => {
+  it('when ln r runs from −800 to 800, then both equal the direct formulas to 1e-15 and saturate alike', () => {
+    let worst = 0;
+    for (let i = 0; i <= 200_000; i++) {
+      const lnR = -60 + i * 6e-4 + 1e-7 * Math.sin(i); // dense over −60…60, near 0 included
+      const r = Math.exp(lnR);
+      for (const [got, want] of [
+        [eeFromLnRatioAndRatio(lnR, r), eeFromLnRatio(lnR)],
+        [percentAFromLnRatioAndRatio(lnR, r), percentAFromLnRatio(lnR)],
+      ] as const) {
+        if (want !== 0) worst = Math.max(worst, Math.abs(got - want) / Math.abs(want));
+      }
+    }
+    expect(worst).toBeLessThan(1e-15);
+    for (const lnR of [800, 710, -746, -800]) {
+      const r = Math.exp(lnR); // Infinity or 0 at the ends
+      expect(eeFromLnRatioAndRatio(lnR, r)).toBe(eeFromLnRatio(lnR));
+      expect(percentAFromLnRatioAndRatio(lnR, r)).toBe(percentAFromLnRatio(lnR));
+    }
+    expect(eeFromLnRatioAndRatio(1e-300, 1)).toBe(eeFromLnRatio(1e-300)); // nearly racemic: tanh itself, no cancellation
+    expect(percentAFromLnRatioAndRatio(0, 1)).toBe(50);
   });
 });
