@@ -13,7 +13,7 @@ import { GAS_CONSTANT_J_PER_MOL_K as R } from './constants';
 import { DomainError, requireFinite, requireTemperatureK, type Warning } from './errors';
 import { fiellerInterval } from './fieller';
 import { FLAG_RULES, highLeverageLimit } from './flag-rules';
-import { eeFromLnRatioAndRatio, percentAFromLnRatioAndRatio } from './quantities';
+import { eeFromLnRatio, eeFromLnRatioAndRatio, percentAFromLnRatioAndRatio } from './quantities';
 import { zeroSelectivityTemperatureK } from './forecast';
 import { lineModelFromLeastSquares, newRunVariance, type LineModel } from './line-model';
 import { fitLine, normalQuantile, requireConfidenceLevel, studentTQuantile, type LineFit, type SigmaMode } from './regression';
@@ -209,8 +209,6 @@ function countDistinct(sorted: ArrayLike<number>): number {
   return count;
 }
 
-/** ee (percent) from ln r: 100·tanh(y/2). */
-const eeFromLn = (y: number) => 100 * Math.tanh(y / 2);
 /** e^y; may be Infinity or 0 far outside the data, which callers report as out of range instead of failing. */
 const ratioFromLn = (y: number) => Math.exp(y);
 /** |ln r| at |ee| = limit %: ln((1 + e)/(1 − e)); 99.8 % ↔ ln 999. */
@@ -351,18 +349,22 @@ export function fittedRuns(
   censorEePercent = DEFAULT_CENSOR_EE_PERCENT,
 ): { index: Int32Array; temperatureK: Float64Array; y: Float64Array } {
   const columns = prepareColumns(measurements, censorEePercent);
-  let n = 0;
-  for (let i = 0; i < measurements.length; i++) if (columns.status[i] === FITTED) n++;
-  const index = int32Column(n);
-  const [temperatureK, y] = float64Columns(n, 2);
-  for (let i = 0, k = 0; i < measurements.length; i++) {
-    if (columns.status[i] !== FITTED) continue;
-    index[k] = i;
-    temperatureK[k] = measurements[i]!.temperatureK;
-    y[k] = columns.y[i]!;
-    k++;
+  const index = runsWithStatus(columns, FITTED);
+  const [temperatureK, y] = float64Columns(index.length, 2);
+  for (let k = 0; k < index.length; k++) {
+    temperatureK[k] = measurements[index[k]!]!.temperatureK;
+    y[k] = columns.y[index[k]!]!;
   }
   return { index, temperatureK, y };
+}
+
+/** Request positions of the runs with `status` (FITTED, EXCLUDED or CENSORED), in request order. */
+function runsWithStatus(columns: PreparedColumns, status: number): Int32Array {
+  let count = 0;
+  for (let i = 0; i < columns.status.length; i++) if (columns.status[i] === status) count++;
+  const positions = int32Column(count);
+  for (let i = 0, k = 0; i < columns.status.length; i++) if (columns.status[i] === status) positions[k++] = i;
+  return positions;
 }
 
 /** Resolve the weighting rule for the points to be fitted; returns σ per point or undefined (OLS). */
@@ -530,18 +532,8 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
   const warnings: Warning[] = [];
   const total = measurements.length;
   // Request positions of the fitted and the censored runs, in request order.
-  let nFittedRuns = 0;
-  let nCensoredRuns = 0;
-  for (let i = 0; i < total; i++) {
-    if (columns.status[i] === FITTED) nFittedRuns++;
-    else if (columns.status[i] === CENSORED) nCensoredRuns++;
-  }
-  const fitted = int32Column(nFittedRuns);
-  const censored = int32Column(nCensoredRuns);
-  for (let i = 0, f = 0, c = 0; i < total; i++) {
-    if (columns.status[i] === FITTED) fitted[f++] = i;
-    else if (columns.status[i] === CENSORED) censored[c++] = i;
-  }
+  const fitted = runsWithStatus(columns, FITTED);
+  const censored = runsWithStatus(columns, CENSORED);
   // A typed array sorts numerically in native code; a comparator closure is ~10× slower at 10⁶ runs.
   // Filled by a loop: Float64Array.from with a map function goes through the iterator protocol.
   const [temps, xs, ys] = float64Columns(fitted.length, 3);
@@ -732,7 +724,7 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
         inverseTemperaturePerK: x,
         ratio: m.ratio,
         lnRatio: y,
-        eePercent: eeFromLn(y),
+        eePercent: eeFromLnRatio(y),
         sigmaLnR: m.sigmaLnR ?? null,
         status,
         exclusionReason: status === 'excluded' ? (m.exclusionReason ?? null) : null,
@@ -754,7 +746,7 @@ export function fitEyring(measurements: readonly EyringMeasurement[], options: E
     });
   };
 
-  const nExcluded = total - nFittedRuns - nCensoredRuns;
+  const nExcluded = total - fitted.length - censored.length;
   const nCensored = censored.length;
   if (nExcluded > 0) {
     warnings.push({
